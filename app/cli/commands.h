@@ -1,0 +1,11 @@
+#pragma once
+// The subcommands of siftwave-cli. Each lives in its own <name>_command.cpp and
+// is listed once in main.cpp's table.
+
+namespace siftwave::cli {
+
+// Each returns the process exit code (see ExitCode in args.h). argv[first] is
+// the first argument after the subcommand name.
+int runInspect(int argc, char** argv, int first);
+
+}  // namespace siftwave::cli

@@ -1,0 +1,49 @@
+// siftwave-cli: read, scan, decide, fit and export from the command line.
+#include "args.h"
+#include "commands.h"
+
+#include <cstdio>
+#include <cstring>
+#include <string>
+
+namespace {
+
+struct Command {
+    const char* name;
+    const char* summary;
+    int (*run)(int, char**, int);
+};
+
+constexpr Command kCommands[] = {
+    {"inspect", "read a data drop and report what was read", siftwave::cli::runInspect},
+};
+
+void printUsage(std::FILE* to) {
+    std::fprintf(to, "usage: siftwave-cli COMMAND [ARGS] [--json]\n\ncommands:\n");
+    for (const Command& c : kCommands) std::fprintf(to, "  %-10s %s\n", c.name, c.summary);
+    std::fprintf(to, "\nRun 'siftwave-cli COMMAND --help' for the options of one command.\n");
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+    if (argc < 2) {
+        printUsage(stderr);
+        return siftwave::cli::kExitUsage;
+    }
+    const std::string name = argv[1];
+    if (name == "--help" || name == "-h" || name == "help") {
+        printUsage(stdout);
+        return siftwave::cli::kExitOk;
+    }
+    if (name == "--version") {
+        std::printf("siftwave-cli 0.1.0\n");
+        return siftwave::cli::kExitOk;
+    }
+    for (const Command& c : kCommands) {
+        if (name == c.name) return c.run(argc, argv, 2);
+    }
+    std::fprintf(stderr, "siftwave-cli: unknown command '%s'\n\n", name.c_str());
+    printUsage(stderr);
+    return siftwave::cli::kExitUsage;
+}

@@ -1,0 +1,155 @@
+#pragma once
+// Drop: one data release exactly as read. Never modified after ingest.
+//
+// A Drop holds the provenance of the file, the region codes exactly as written
+// (text, never coerced, in first-seen order), the measures, the calendar
+// (firstDay .. firstDay + days - 1) and, per measure, a dense region x day
+// table of cells. Rows that repeat a (region, date, measure) are kept aside in
+// `duplicates`; the table holds the first occurrence.
+
+#include "siftwave/date.h"
+
+#include <cstddef>
+#include <cstdint>
+#include <optional>
+#include <span>
+#include <string>
+#include <string_view>
+#include <unordered_map>
+#include <vector>
+
+namespace siftwave {
+
+enum class CellState : std::uint8_t {
+    Absent,      // no row for this region and day
+    Reported,    // a number was read
+    Blank,       // the cell matched a missing-value token (default: the empty cell)
+    Unparsable,  // something that is neither a number nor a missing token
+};
+
+/// "absent", "reported", "blank", "unparsable".
+const char* cellStateName(CellState state);
+
+struct Cell {
+    std::int32_t value = 0;    // the count when Reported (may be negative); 0 otherwise
+    std::uint32_t line = 0;    // 1-based physical line of the source row; 0 when Absent
+    CellState state = CellState::Absent;
+
+    bool reported() const { return state == CellState::Reported; }
+};
+
+/// A dense region x day table for one measure; a region's days are contiguous.
+class CellTable {
+public:
+    CellTable() = default;
+    CellTable(std::size_t regions, std::size_t days) : m_days(days), m_cells(regions * days) {}
+
+    std::size_t regions() const { return m_days == 0 ? 0 : m_cells.size() / m_days; }
+    std::size_t days() const { return m_days; }
+    Cell& at(std::size_t region, std::size_t day) { return m_cells[region * m_days + day]; }
+    const Cell& at(std::size_t region, std::size_t day) const { return m_cells[region * m_days + day]; }
+    std::span<const Cell> series(std::size_t region) const {
+        return {m_cells.data() + region * m_days, m_days};
+    }
+    std::span<Cell> series(std::size_t region) { return {m_cells.data() + region * m_days, m_days}; }
+
+private:
+    std::size_t m_days = 0;
+    std::vector<Cell> m_cells;
+};
+
+enum class Layout {
+    Long,         // one row per date x region (x measure): date, region, value column(s)
+    DatesDown,    // wide: one row per date, one column per region
+    DatesAcross,  // wide: one row per region, one column per date
+};
+
+/// "long", "dates-down", "dates-across".
+const char* layoutName(Layout layout);
+std::optional<Layout> layoutFromName(std::string_view name);
+
+/// What the reader found (or was told) about the text format.
+struct Dialect {
+    char delimiter = ',';
+    bool header = true;
+    bool bom = false;            // a UTF-8 byte-order mark was present
+    bool crlf = false;           // lines end in CR LF
+    char decimalSeparator = '.'; // ',' when a decimal comma was detected
+    char thousandsSeparator = 0; // 0 when none was seen; else '.', ',', ' ' or '\''
+};
+
+/// Which source columns play which role (names as in the header, or "column N").
+struct ColumnMapping {
+    std::string date;
+    std::string region;
+    std::vector<std::string> values;  // one per measure column (long), or the region/date columns (wide)
+    std::string measure;              // long layout with a measure-name column; empty otherwise
+};
+
+struct Provenance {
+    std::string path;
+    std::uint64_t bytes = 0;
+    std::string sha256;      // lower-case hex of the file's bytes
+    Dialect dialect;
+    Layout layout = Layout::Long;
+    ColumnMapping columns;
+    std::string dateFormat;  // the format used: "YYYY-MM-DD", "YYYYMMDD", "DD/MM/YYYY" or "MM/DD/YYYY"
+};
+
+/// Something the reader noticed but did not treat as fatal.
+struct Warning {
+    std::string message;
+    std::uint64_t line = 0;    // 1-based; 0 when not about one line
+    std::uint64_t column = 0;  // 1-based; 0 when not about one column
+};
+
+/// A row whose region, date and measure were already seen.
+struct DuplicateRow {
+    std::size_t measure = 0;
+    std::size_t region = 0;
+    std::int32_t day = 0;  // index into the calendar
+    Cell cell;             // the repeating row's cell (the table keeps the first one)
+    std::uint32_t firstLine = 0;  // line of the occurrence kept in the table
+};
+
+struct CellCounts {
+    std::size_t reported = 0;
+    std::size_t absent = 0;
+    std::size_t blank = 0;
+    std::size_t unparsable = 0;
+};
+
+struct Drop {
+    Provenance source;
+    std::vector<std::string> regionCodes;  // verbatim, first-seen order
+    std::vector<std::string> measures;     // e.g. "cases", "deaths"
+    Date firstDay;                         // meaningful when days > 0
+    std::int32_t days = 0;                 // calendar length: firstDay .. firstDay + days - 1
+    std::size_t rows = 0;                  // data rows read (excluding the header)
+    std::vector<CellTable> tables;         // one per measure, each regions x days
+    std::vector<DuplicateRow> duplicates;
+    std::vector<Warning> warnings;
+
+    Date lastDay() const { return firstDay + (days > 0 ? days - 1 : 0); }
+    Date dayAt(std::int32_t index) const { return firstDay + index; }
+    /// Day index of a date, nullopt outside the calendar.
+    std::optional<std::int32_t> dayIndex(Date date) const;
+    std::optional<std::size_t> regionIndex(std::string_view code) const;
+    std::optional<std::size_t> measureIndex(std::string_view name) const;
+
+    const Cell& cell(std::size_t measure, std::size_t region, std::int32_t day) const {
+        return tables[measure].at(region, static_cast<std::size_t>(day));
+    }
+    std::span<const Cell> series(std::size_t measure, std::size_t region) const {
+        return tables[measure].series(region);
+    }
+    CellCounts countCells() const;
+
+    /// Rebuilds the code -> index lookup; call after filling regionCodes.
+    void indexRegions();
+
+private:
+    std::unordered_map<std::string, std::size_t> m_regionLookup;
+};
+
+}  // namespace siftwave

@@ -1,0 +1,81 @@
+#!/usr/bin/env bash
+# One entry point for set-up, build, run and test (see README, "Getting started").
+#
+#   bash tools/workbench.sh run    install what is missing, build, open the workbench on the sample drop
+#   bash tools/workbench.sh test   install what is missing, build, run the whole test suite
+#
+# Idempotent: a second run installs nothing, rebuilds nothing that is current and prints little.
+set -euo pipefail
+
+mode="${1:-}"
+case "$mode" in
+    run|test) ;;
+    *) echo "usage: bash tools/workbench.sh run|test" >&2; exit 2 ;;
+esac
+
+root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+cd "$root"
+
+# Debian 12 packages the build, the tests and the offscreen screenshots need.
+packages=(
+    cmake ninja-build g++ pkg-config
+    qt6-base-dev qt6-svg-dev libqcustomplot-dev libgl-dev
+    libeigen3-dev libboost-date-time-dev libboost-dev nlohmann-json3-dev libssl-dev
+    googletest libgtest-dev libbenchmark-dev
+    poppler-utils fonts-dejavu-core
+)
+
+missing=()
+for p in "${packages[@]}"; do
+    dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
+done
+if [ ${#missing[@]} -gt 0 ]; then
+    echo "Installing ${#missing[@]} missing Debian package(s): ${missing[*]}"
+    sudo=""
+    [ "$(id -u)" -eq 0 ] || sudo="sudo"
+    $sudo apt-get update -qq
+    DEBIAN_FRONTEND=noninteractive $sudo apt-get install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
+fi
+
+jobs=2
+werror=OFF
+[ "${CI:-}" = "true" ] && werror=ON
+
+# build_tree DIR [cmake options...]: configure once, then build quietly (log kept in DIR/build.log).
+build_tree() {
+    local dir="$1"; shift
+    if [ ! -f "$dir/build.ninja" ]; then
+        cmake -S . -B "$dir" -G Ninja -DCMAKE_BUILD_TYPE=Release -DSIFTWAVE_WARNINGS_AS_ERRORS="$werror" "$@" \
+            >"$dir.configure.log" 2>&1 || { cat "$dir.configure.log"; exit 1; }
+    fi
+    if ! cmake --build "$dir" -j "$jobs" >"$dir/build.log" 2>&1; then
+        grep -E "error|Error" -A3 "$dir/build.log" | head -60
+        echo "Build failed; the full log is $dir/build.log" >&2
+        exit 1
+    fi
+}
+
+build_tree build
+
+if [ "$mode" = run ]; then
+    if [ -z "${DISPLAY:-}" ] && [ -z "${WAYLAND_DISPLAY:-}" ] && [ -z "${QT_QPA_PLATFORM:-}" ]; then
+        shot="$root/build/siftwave-screenshot.png"
+        QT_QPA_PLATFORM=offscreen build/bin/siftwave --screenshot "$shot" >/dev/null
+        cat <<MSG
+There is no display here, so the workbench cannot open a window.
+A picture of it on the sample drop was rendered offscreen to:
+  $shot
+To run it without a display yourself:
+  QT_QPA_PLATFORM=offscreen build/bin/siftwave --screenshot shot.png [DROP.csv]
+With a display (or over ssh -X), run:  build/bin/siftwave
+MSG
+        exit 0
+    fi
+    exec build/bin/siftwave
+fi
+
+# test: the whole suite, then prove once that core, CLI and core tests build with no Qt at all.
+ctest --test-dir build --output-on-failure -j "$jobs" --timeout 600
+build_tree build-noqt -DSIFTWAVE_WITH_QT=OFF -DSIFTWAVE_BUILD_BENCHMARKS=OFF
+ctest --test-dir build-noqt -j "$jobs" --timeout 600 -Q || ctest --test-dir build-noqt --rerun-failed --output-on-failure
+echo "No-Qt build (core, CLI, core tests): built and passed."
