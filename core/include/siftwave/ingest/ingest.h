@@ -1,0 +1,54 @@
+#pragma once
+// Reading a data drop (CSV per RFC 4180) into a Drop, exactly as written.
+//
+// The reader sniffs the dialect (delimiter among , ; TAB |, header or not,
+// decimal comma, thousands separators), the layout (long, dates-down,
+// dates-across) and the roles of the columns; every guess can be overridden
+// through IngestOptions. Region codes are kept verbatim. A value cell is
+// missing only if it matches one of `missingTokens`; anything else that is
+// not a number is `unparsable` and reported with line and column. It never
+// guesses the day/month order: when every day-of-month is 12 or less it asks
+// for `dateFormat`.
+
+#include "siftwave/drop.h"
+#include "siftwave/region_register.h"
+#include "siftwave/result.h"
+
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace siftwave {
+
+struct IngestOptions {
+    std::optional<Layout> layout;            // default: detected
+    std::string dateColumn;                  // default: detected (header name)
+    std::string regionColumn;                // default: detected (header name)
+    std::vector<std::string> valueColumns;   // default: detected; each becomes a measure (long layout)
+    std::string measureColumn;               // long layout with a measure-name column; default: detected
+    std::string measureName;                 // wide layouts: name of the one measure (default "cases")
+    std::string dateFormat;                  // "" = detect; "YYYY-MM-DD", "YYYYMMDD", "DD/MM/YYYY", "MM/DD/YYYY"
+    std::optional<char> delimiter;           // default: sniffed among , ; TAB |
+    std::optional<bool> header;              // default: sniffed
+    std::vector<std::string> missingTokens{""};  // cells that mean "no value" (default: the empty cell)
+
+    /// Usage errors (unknown date format, a delimiter that is a quote, ...).
+    Status validate() const;
+};
+
+/// Reads and parses a file. The file is never written.
+Result<Drop> readDrop(const std::string& path, const IngestOptions& options = {});
+
+/// Parses bytes already in memory; `displayPath` is used in provenance and messages.
+Result<Drop> parseDrop(std::string_view bytes, const std::string& displayPath,
+                       const IngestOptions& options = {});
+
+/// Reads a region register: CSV with columns code, name, parent, population
+/// (header required; parent and population may be empty). Codes verbatim.
+Result<RegionRegister> readRegister(const std::string& path);
+
+/// Lower-case hex SHA-256 of a byte string (OpenSSL's libcrypto).
+std::string sha256Hex(std::string_view bytes);
+
+}  // namespace siftwave
