@@ -13,8 +13,8 @@
 
 #include <QFutureWatcher>
 #include <QObject>
-#include <QTimer>
 #include <QString>
+#include <QTimer>
 #include <QtConcurrent/QtConcurrentRun>
 
 #include <atomic>
@@ -60,7 +60,8 @@ public:
         auto* watcher = new QFutureWatcher<T>(task);
         QObject::connect(watcher, &QFutureWatcherBase::finished, task,
                          [task, watcher, done = std::move(done)]() mutable {
-                             if (!task->m_progress->cancelled()) done(watcher->result());
+                             if (!task->m_progress->cancelled())
+                                 done(watcher->result());
                              task->finish();
                          });
         watcher->setFuture(QtConcurrent::run(std::move(run)));

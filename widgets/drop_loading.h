@@ -24,7 +24,7 @@ struct LoadRequest {
 struct LoadedDrop {
     std::shared_ptr<const Drop> drop;                      // null when the drop could not be read
     std::shared_ptr<const RegionRegister> regionRegister;  // null when none was found or it failed
-    std::optional<Error> error;          // why the drop could not be read
+    std::optional<Error> error;                            // why the drop could not be read
     std::optional<Error> registerError;  // a register was found but could not be read
 
     bool ok() const { return drop != nullptr; }

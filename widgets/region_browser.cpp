@@ -12,8 +12,11 @@
 namespace siftwave::widgets {
 
 RegionBrowser::RegionBrowser(RegionModel* model, QWidget* parent)
-    : QWidget(parent), m_model(model), m_proxy(new QSortFilterProxyModel(this)),
-      m_search(new QLineEdit(this)), m_view(new QTreeView(this)) {
+    : QWidget(parent),
+      m_model(model),
+      m_proxy(new QSortFilterProxyModel(this)),
+      m_search(new QLineEdit(this)),
+      m_view(new QTreeView(this)) {
     m_proxy->setSourceModel(m_model);
     m_proxy->setSortRole(RegionModel::SortRole);
     m_proxy->setFilterKeyColumn(-1);  // code or name
@@ -34,8 +37,8 @@ RegionBrowser::RegionBrowser(RegionModel* model, QWidget* parent)
     m_view->setSelectionBehavior(QAbstractItemView::SelectRows);
     m_view->header()->setStretchLastSection(false);
     for (int c = 0; c < RegionModel::ColumnCount; ++c)
-        m_view->header()->setSectionResizeMode(c, c == RegionModel::NameColumn ? QHeaderView::Stretch
-                                                                             : QHeaderView::ResizeToContents);
+        m_view->header()->setSectionResizeMode(
+            c, c == RegionModel::NameColumn ? QHeaderView::Stretch : QHeaderView::ResizeToContents);
 
     auto* layout = new QVBoxLayout(this);
     layout->setContentsMargins(0, 0, 0, 0);
@@ -45,7 +48,8 @@ RegionBrowser::RegionBrowser(RegionModel* model, QWidget* parent)
 
     connect(m_search, &QLineEdit::textChanged, this, [this](const QString& text) {
         m_proxy->setFilterFixedString(text);
-        if (!text.isEmpty()) m_view->expandAll();
+        if (!text.isEmpty())
+            m_view->expandAll();
     });
     connect(m_view->selectionModel(), &QItemSelectionModel::currentRowChanged, this,
             &RegionBrowser::onCurrentChanged);
@@ -53,13 +57,15 @@ RegionBrowser::RegionBrowser(RegionModel* model, QWidget* parent)
         m_view->expandToDepth(0);
         const QString previous = m_current;
         m_current.clear();
-        if (previous.isEmpty() || !selectRegion(previous)) Q_EMIT regionSelected(QString());
+        if (previous.isEmpty() || !selectRegion(previous))
+            Q_EMIT regionSelected(QString());
     });
 }
 
 bool RegionBrowser::selectRegion(const QString& code) {
     const QModelIndex source = m_model->indexOfCode(code);
-    if (!source.isValid()) return false;
+    if (!source.isValid())
+        return false;
     QModelIndex proxy = m_proxy->mapFromSource(source);
     if (!proxy.isValid()) {  // hidden by the search: clear it so the selection is visible
         m_search->clear();
@@ -71,12 +77,15 @@ bool RegionBrowser::selectRegion(const QString& code) {
     return true;
 }
 
-QString RegionBrowser::currentRegion() const { return m_current; }
+QString RegionBrowser::currentRegion() const {
+    return m_current;
+}
 
 QString RegionBrowser::firstRegionWithData() const {
     // Depth-first over the model in its own (register) order.
     std::vector<QModelIndex> stack;
-    for (int r = m_model->rowCount() - 1; r >= 0; --r) stack.push_back(m_model->index(r, 0));
+    for (int r = m_model->rowCount() - 1; r >= 0; --r)
+        stack.push_back(m_model->index(r, 0));
     while (!stack.empty()) {
         const QModelIndex index = stack.back();
         stack.pop_back();
@@ -90,8 +99,10 @@ QString RegionBrowser::firstRegionWithData() const {
 
 void RegionBrowser::onCurrentChanged() {
     const QModelIndex current = m_view->selectionModel()->currentIndex();
-    const QString code = current.isValid() ? current.data(RegionModel::CodeRole).toString() : QString();
-    if (code == m_current) return;
+    const QString code =
+        current.isValid() ? current.data(RegionModel::CodeRole).toString() : QString();
+    if (code == m_current)
+        return;
     m_current = code;
     Q_EMIT regionSelected(code);
 }

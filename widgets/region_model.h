@@ -21,7 +21,14 @@ class RegionModel : public QAbstractItemModel {
     Q_OBJECT
 
 public:
-    enum Column { CodeColumn, NameColumn, RawTotalColumn, CleanedTotalColumn, OpenFindingsColumn, ColumnCount };
+    enum Column {
+        CodeColumn,
+        NameColumn,
+        RawTotalColumn,
+        CleanedTotalColumn,
+        OpenFindingsColumn,
+        ColumnCount
+    };
     enum Role {
         SortRole = Qt::UserRole,  // numbers as numbers, text as text
         CodeRole,                 // the region code, verbatim
@@ -35,7 +42,8 @@ public:
     int rowCount(const QModelIndex& parent = {}) const override;
     int columnCount(const QModelIndex& parent = {}) const override;
     QVariant data(const QModelIndex& index, int role = Qt::DisplayRole) const override;
-    QVariant headerData(int section, Qt::Orientation orientation, int role = Qt::DisplayRole) const override;
+    QVariant headerData(int section, Qt::Orientation orientation,
+                        int role = Qt::DisplayRole) const override;
 
     /// Index (column 0) of the region with this code, or an invalid index.
     QModelIndex indexOfCode(const QString& code) const;

@@ -14,13 +14,15 @@ constexpr double kSecondsPerDay = 86400.0;
 
 QVector<double> keysOf(const SeriesView& view) {
     QVector<double> keys(view.days);
-    for (int d = 0; d < view.days; ++d) keys[d] = plotKeyOfDay(view.dayAt(d));
+    for (int d = 0; d < view.days; ++d)
+        keys[d] = plotKeyOfDay(view.dayAt(d));
     return keys;
 }
 
 QVector<double> toVector(const std::vector<double>& values, int days) {
     QVector<double> out(days, std::numeric_limits<double>::quiet_NaN());
-    for (int d = 0; d < days && d < static_cast<int>(values.size()); ++d) out[d] = values[d];
+    for (int d = 0; d < days && d < static_cast<int>(values.size()); ++d)
+        out[d] = values[d];
     return out;
 }
 
@@ -37,15 +39,20 @@ QCPGraph* addLine(QCustomPlot* plot, QCPAxis* valueAxis, const QVector<double>& 
 double maxIn(const std::vector<double>& values, int first, int last) {
     double best = 0;
     for (int d = std::max(first, 0); d <= last && d < static_cast<int>(values.size()); ++d)
-        if (!std::isnan(values[d])) best = std::max(best, values[d]);
+        if (!std::isnan(values[d]))
+            best = std::max(best, values[d]);
     return best;
 }
 
 }  // namespace
 
-double plotKeyOfDay(Date day) { return static_cast<double>(day.serial) * kSecondsPerDay; }
+double plotKeyOfDay(Date day) {
+    return static_cast<double>(day.serial) * kSecondsPerDay;
+}
 
-Date dayOfPlotKey(double key) { return Date{static_cast<std::int32_t>(std::lround(key / kSecondsPerDay))}; }
+Date dayOfPlotKey(double key) {
+    return Date{static_cast<std::int32_t>(std::lround(key / kSecondsPerDay))};
+}
 
 SeriesChart::SeriesChart(QCustomPlot* plot) : m_plot(plot) {
     auto ticker = QSharedPointer<QCPAxisTickerDateTime>::create();
@@ -89,7 +96,8 @@ void SeriesChart::draw(const SeriesView& view) {
     bars->setName(QObject::tr("Raw, as reported"));
     QVector<double> rawKeys, rawValues;
     for (int d = 0; d < m_view.days; ++d) {
-        if (d >= static_cast<int>(m_view.raw.size()) || std::isnan(m_view.raw[d])) continue;
+        if (d >= static_cast<int>(m_view.raw.size()) || std::isnan(m_view.raw[d]))
+            continue;
         rawKeys << keys[d];
         rawValues << m_view.raw[d];
     }
@@ -97,35 +105,40 @@ void SeriesChart::draw(const SeriesView& view) {
 
     if (m_view.fit && !m_view.fit->mid.empty()) {
         if (!m_view.fit->low.empty() && !m_view.fit->high.empty()) {
-            QCPGraph* low = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->low, m_view.days),
-                                    Qt::NoPen, QString());
-            QCPGraph* high = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->high, m_view.days),
-                                     Qt::NoPen, QObject::tr("Fit band"));
+            QCPGraph* low = addLine(m_plot, m_plot->yAxis, keys,
+                                    toVector(m_view.fit->low, m_view.days), Qt::NoPen, QString());
+            QCPGraph* high =
+                addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->high, m_view.days),
+                        Qt::NoPen, QObject::tr("Fit band"));
             high->setBrush(plot_style::fitBandBrush());
             high->setChannelFillGraph(low);
             low->removeFromLegend();
         }
-        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->mid, m_view.days), plot_style::fitPen(),
+        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->mid, m_view.days),
+                plot_style::fitPen(),
                 m_view.fit->label.isEmpty() ? QObject::tr("Fitted") : m_view.fit->label);
     }
     if (!m_view.cleaned.empty())
-        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.cleaned, m_view.days), plot_style::cleanedPen(),
-                QObject::tr("Cleaned"));
+        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.cleaned, m_view.days),
+                plot_style::cleanedPen(), QObject::tr("Cleaned"));
     if (!m_view.smoothed.empty())
-        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.smoothed, m_view.days), plot_style::smoothedPen(),
+        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.smoothed, m_view.days),
+                plot_style::smoothedPen(),
                 m_view.smoothedLabel.isEmpty() ? QObject::tr("Smoothed") : m_view.smoothedLabel);
 
     const bool second = !m_view.secondMeasure.isEmpty() && !m_view.second.empty();
     m_plot->yAxis2->setVisible(second);
     if (second) {
         addLine(m_plot, m_plot->yAxis2, keys, toVector(m_view.second, m_view.days),
-                plot_style::secondMeasurePen(), QObject::tr("%1 (right axis)").arg(m_view.secondMeasure));
+                plot_style::secondMeasurePen(),
+                QObject::tr("%1 (right axis)").arg(m_view.secondMeasure));
         m_plot->yAxis2->setLabel(QObject::tr("Daily %1").arg(m_view.secondMeasure));
         m_plot->yAxis2->setNumberFormat(QStringLiteral("gb"));
     }
 
     drawFindings();
-    if (m_view.fitWindow) setWindow(m_view.fitWindow, QObject::tr("fit window"));
+    if (m_view.fitWindow)
+        setWindow(m_view.fitWindow, QObject::tr("fit window"));
     resetRange();
 }
 
@@ -137,8 +150,10 @@ void SeriesChart::drawFindings() {
             p->setTypeX(QCPItemPosition::ptPlotCoords);
             p->setTypeY(QCPItemPosition::ptAxisRectRatio);
         }
-        rect->topLeft->setCoords(plotKeyOfDay(m_view.dayAt(mark.days.first)) - kSecondsPerDay * 0.5, 0.965);
-        rect->bottomRight->setCoords(plotKeyOfDay(m_view.dayAt(mark.days.last)) + kSecondsPerDay * 0.5, 1.0);
+        rect->topLeft->setCoords(plotKeyOfDay(m_view.dayAt(mark.days.first)) - kSecondsPerDay * 0.5,
+                                 0.965);
+        rect->bottomRight->setCoords(
+            plotKeyOfDay(m_view.dayAt(mark.days.last)) + kSecondsPerDay * 0.5, 1.0);
         const QColor colour = plot_style::findingColor(mark.severity);
         rect->setBrush(QBrush(colour));
         rect->setPen(QPen(colour.darker(140), 1));
@@ -152,7 +167,8 @@ void SeriesChart::setWindow(std::optional<DayRange> window, const QString& label
         for (QCPAbstractItem* item : {static_cast<QCPAbstractItem*>(m_windowRect),
                                       static_cast<QCPAbstractItem*>(m_windowStart),
                                       static_cast<QCPAbstractItem*>(m_windowEnd)})
-            if (item) m_plot->removeItem(item);
+            if (item)
+                m_plot->removeItem(item);
         m_windowRect = nullptr;
         m_windowStart = nullptr;
         m_windowEnd = nullptr;
@@ -190,7 +206,8 @@ void SeriesChart::setPreview(const std::vector<double>& values, const QString& l
         m_plot->removePlottable(m_preview);
         m_preview = nullptr;
     }
-    if (values.empty()) return;
+    if (values.empty())
+        return;
     m_preview = new QCPBars(m_plot->xAxis, m_plot->yAxis);
     m_preview->setWidth(kSecondsPerDay * 0.5);
     m_preview->setBrush(plot_style::previewBrush());
@@ -198,7 +215,8 @@ void SeriesChart::setPreview(const std::vector<double>& values, const QString& l
     m_preview->setName(label.isEmpty() ? QObject::tr("Preview") : label);
     QVector<double> keys, shown;
     for (int d = 0; d < m_view.days && d < static_cast<int>(values.size()); ++d) {
-        if (std::isnan(values[d])) continue;
+        if (std::isnan(values[d]))
+            continue;
         keys << plotKeyOfDay(m_view.dayAt(d));
         shown << values[d];
     }
@@ -218,22 +236,27 @@ void SeriesChart::resetRange() {
 void SeriesChart::focusOn(DayRange days) {
     const int span = std::max(days.last - days.first, 6);
     const int margin = std::max(1, span / 10);
-    m_plot->xAxis->setRange(plotKeyOfDay(m_view.dayAt(days.first - margin)) - kSecondsPerDay * 0.6,
-                            plotKeyOfDay(m_view.dayAt(days.first + span + margin)) + kSecondsPerDay * 0.6);
+    m_plot->xAxis->setRange(
+        plotKeyOfDay(m_view.dayAt(days.first - margin)) - kSecondsPerDay * 0.6,
+        plotKeyOfDay(m_view.dayAt(days.first + span + margin)) + kSecondsPerDay * 0.6);
     rescaleValueAxis();
 }
 
 void SeriesChart::rescaleValueAxis() {
-    if (m_view.days == 0) return;
+    if (m_view.days == 0)
+        return;
     const QCPRange x = m_plot->xAxis->range();
     const int first = std::max(0, dayOfPlotKey(x.lower) - m_view.firstDay);
     const int last = std::min(m_view.days - 1, dayOfPlotKey(x.upper) - m_view.firstDay);
     double top = std::max({maxIn(m_view.raw, first, last), maxIn(m_view.cleaned, first, last),
                            maxIn(m_view.smoothed, first, last)});
-    if (m_view.fit) top = std::max({top, maxIn(m_view.fit->mid, first, last), maxIn(m_view.fit->high, first, last)});
+    if (m_view.fit)
+        top = std::max(
+            {top, maxIn(m_view.fit->mid, first, last), maxIn(m_view.fit->high, first, last)});
     if (m_preview)
         for (auto it = m_preview->data()->constBegin(); it != m_preview->data()->constEnd(); ++it)
-            if (it->key >= x.lower && it->key <= x.upper) top = std::max(top, it->value);
+            if (it->key >= x.lower && it->key <= x.upper)
+                top = std::max(top, it->value);
     m_plot->yAxis->setRange(0, top > 0 ? top * 1.1 : 10);
     if (m_plot->yAxis2->visible()) {
         const double top2 = maxIn(m_view.second, first, last);

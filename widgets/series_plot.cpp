@@ -22,8 +22,12 @@ constexpr double kEdgeGrabPixels = 6.0;
 }
 
 SeriesPlot::SeriesPlot(QWidget* parent)
-    : QWidget(parent), m_title(new QLabel(this)), m_measure(new QComboBox(this)),
-      m_second(new QComboBox(this)), m_reset(new QToolButton(this)), m_plot(new QCustomPlot(this)),
+    : QWidget(parent),
+      m_title(new QLabel(this)),
+      m_measure(new QComboBox(this)),
+      m_second(new QComboBox(this)),
+      m_reset(new QToolButton(this)),
+      m_plot(new QCustomPlot(this)),
       m_chart(std::make_unique<SeriesChart>(m_plot)) {
     m_title->setObjectName(QStringLiteral("seriesTitle"));
     m_title->setTextFormat(Qt::RichText);
@@ -58,11 +62,11 @@ SeriesPlot::SeriesPlot(QWidget* parent)
 
     connect(m_reset, &QToolButton::clicked, this, &SeriesPlot::resetView);
     connect(m_measure, &QComboBox::currentIndexChanged, this, [this](int index) {
-        if (index >= 0) Q_EMIT measureChosen(index);
+        if (index >= 0)
+            Q_EMIT measureChosen(index);
     });
-    connect(m_second, &QComboBox::currentIndexChanged, this, [this](int) {
-        Q_EMIT secondMeasureChosen(secondMeasure());
-    });
+    connect(m_second, &QComboBox::currentIndexChanged, this,
+            [this](int) { Q_EMIT secondMeasureChosen(secondMeasure()); });
     setMeasures({});
     updateTitle();
 }
@@ -76,12 +80,15 @@ void SeriesPlot::setMeasures(const QStringList& measures) {
     m_measure->addItems(measures);
     m_second->clear();
     m_second->addItem(tr("nothing else"), -1);
-    for (int i = 0; i < measures.size(); ++i) m_second->addItem(measures[i], i);
+    for (int i = 0; i < measures.size(); ++i)
+        m_second->addItem(measures[i], i);
     m_measure->setEnabled(measures.size() > 1);
     m_second->setEnabled(measures.size() > 1);
 }
 
-int SeriesPlot::measure() const { return std::max(0, m_measure->currentIndex()); }
+int SeriesPlot::measure() const {
+    return std::max(0, m_measure->currentIndex());
+}
 
 int SeriesPlot::secondMeasure() const {
     return m_second->currentIndex() <= 0 ? -1 : m_second->currentData().toInt();
@@ -94,7 +101,9 @@ void SeriesPlot::setView(const SeriesView& view) {
     m_plot->replot();
 }
 
-const SeriesView& SeriesPlot::view() const { return m_chart->view(); }
+const SeriesView& SeriesPlot::view() const {
+    return m_chart->view();
+}
 
 void SeriesPlot::updateTitle() {
     const SeriesView& v = m_chart->view();
@@ -103,9 +112,11 @@ void SeriesPlot::updateTitle() {
         return;
     }
     QString text = QStringLiteral("<b>%1</b>").arg(v.regionCode.toHtmlEscaped());
-    if (!v.regionName.isEmpty()) text += QStringLiteral(" &nbsp;%1").arg(v.regionName.toHtmlEscaped());
+    if (!v.regionName.isEmpty())
+        text += QStringLiteral(" &nbsp;%1").arg(v.regionName.toHtmlEscaped());
     text += QStringLiteral(" &nbsp;<span style='color:#555'>%1 – %2</span>")
-                .arg(QString::fromStdString(v.firstDay.iso()), QString::fromStdString(v.dayAt(v.days - 1).iso()));
+                .arg(QString::fromStdString(v.firstDay.iso()),
+                     QString::fromStdString(v.dayAt(v.days - 1).iso()));
     m_title->setText(text);
 }
 
@@ -136,12 +147,15 @@ void SeriesPlot::focusOn(DayRange days) {
 
 SeriesPlot::Edge SeriesPlot::edgeNear(double x) const {
     const std::optional<DayRange> window = editableWindow();
-    if (!window) return Edge::None;
+    if (!window)
+        return Edge::None;
     const double halfDay = (m_chart->pixelOfDayIndex(1) - m_chart->pixelOfDayIndex(0)) / 2;
     const double start = m_chart->pixelOfDayIndex(window->first) - halfDay;
     const double end = m_chart->pixelOfDayIndex(window->last) + halfDay;
-    if (std::abs(x - start) <= kEdgeGrabPixels) return Edge::Start;
-    if (std::abs(x - end) <= kEdgeGrabPixels) return Edge::End;
+    if (std::abs(x - start) <= kEdgeGrabPixels)
+        return Edge::Start;
+    if (std::abs(x - end) <= kEdgeGrabPixels)
+        return Edge::End;
     return Edge::None;
 }
 
@@ -160,60 +174,65 @@ void SeriesPlot::showHover(QMouseEvent* event) {
 }
 
 bool SeriesPlot::eventFilter(QObject* watched, QEvent* event) {
-    if (watched != m_plot) return QWidget::eventFilter(watched, event);
+    if (watched != m_plot)
+        return QWidget::eventFilter(watched, event);
     switch (event->type()) {
-    case QEvent::MouseButtonPress: {
-        auto* mouse = static_cast<QMouseEvent*>(event);
-        m_pressPos = mouse->pos();
-        if (mouse->button() == Qt::LeftButton) {
-            m_dragging = edgeNear(mouse->position().x());
+        case QEvent::MouseButtonPress: {
+            auto* mouse = static_cast<QMouseEvent*>(event);
+            m_pressPos = mouse->pos();
+            if (mouse->button() == Qt::LeftButton) {
+                m_dragging = edgeNear(mouse->position().x());
+                if (m_dragging != Edge::None) {
+                    m_plot->setInteraction(QCP::iRangeDrag, false);
+                    return true;
+                }
+            }
+            break;
+        }
+        case QEvent::MouseMove: {
+            auto* mouse = static_cast<QMouseEvent*>(event);
             if (m_dragging != Edge::None) {
-                m_plot->setInteraction(QCP::iRangeDrag, false);
+                DayRange window = *editableWindow();
+                const int day = std::clamp(m_chart->dayIndexAtPixel(mouse->position().x()), 0,
+                                           std::max(0, m_chart->view().days - 1));
+                if (m_dragging == Edge::Start)
+                    window.first = std::min(day, window.last);
+                else
+                    window.last = std::max(day, window.first);
+                if (window != *editableWindow()) {
+                    m_chart->setWindow(window);
+                    m_plot->replot(QCustomPlot::rpQueuedReplot);
+                    Q_EMIT windowChanging(window);
+                }
                 return true;
             }
+            m_plot->setCursor(edgeNear(mouse->position().x()) != Edge::None ? Qt::SizeHorCursor
+                                                                            : Qt::ArrowCursor);
+            if (mouse->buttons() == Qt::NoButton)
+                showHover(mouse);
+            break;
         }
-        break;
-    }
-    case QEvent::MouseMove: {
-        auto* mouse = static_cast<QMouseEvent*>(event);
-        if (m_dragging != Edge::None) {
-            DayRange window = *editableWindow();
-            const int day = std::clamp(m_chart->dayIndexAtPixel(mouse->position().x()), 0,
-                                       std::max(0, m_chart->view().days - 1));
-            if (m_dragging == Edge::Start)
-                window.first = std::min(day, window.last);
-            else
-                window.last = std::max(day, window.first);
-            if (window != *editableWindow()) {
-                m_chart->setWindow(window);
-                m_plot->replot(QCustomPlot::rpQueuedReplot);
-                Q_EMIT windowChanging(window);
+        case QEvent::MouseButtonRelease: {
+            auto* mouse = static_cast<QMouseEvent*>(event);
+            if (m_dragging != Edge::None) {
+                m_dragging = Edge::None;
+                m_plot->setInteraction(QCP::iRangeDrag, true);
+                Q_EMIT windowChanged(*editableWindow());
+                return true;
             }
-            return true;
+            if ((mouse->pos() - m_pressPos).manhattanLength() < 4 &&
+                mouse->button() == Qt::LeftButton) {
+                const int day = m_chart->dayIndexAtPixel(mouse->position().x());
+                if (day >= 0 && day < m_chart->view().days)
+                    Q_EMIT dayClicked(day);
+            }
+            break;
         }
-        m_plot->setCursor(edgeNear(mouse->position().x()) != Edge::None ? Qt::SizeHorCursor : Qt::ArrowCursor);
-        if (mouse->buttons() == Qt::NoButton) showHover(mouse);
-        break;
-    }
-    case QEvent::MouseButtonRelease: {
-        auto* mouse = static_cast<QMouseEvent*>(event);
-        if (m_dragging != Edge::None) {
-            m_dragging = Edge::None;
-            m_plot->setInteraction(QCP::iRangeDrag, true);
-            Q_EMIT windowChanged(*editableWindow());
-            return true;
-        }
-        if ((mouse->pos() - m_pressPos).manhattanLength() < 4 && mouse->button() == Qt::LeftButton) {
-            const int day = m_chart->dayIndexAtPixel(mouse->position().x());
-            if (day >= 0 && day < m_chart->view().days) Q_EMIT dayClicked(day);
-        }
-        break;
-    }
-    case QEvent::Leave:
-        QToolTip::hideText();
-        break;
-    default:
-        break;
+        case QEvent::Leave:
+            QToolTip::hideText();
+            break;
+        default:
+            break;
     }
     return QWidget::eventFilter(watched, event);
 }

@@ -28,16 +28,16 @@ struct DayRange {
 
 struct FindingMark {
     QString id;
-    QString label;     // short, e.g. "backlog dump"
+    QString label;  // short, e.g. "backlog dump"
     DayRange days;
     int severity = 1;  // 0 low, 1 medium, 2 high
 };
 
 struct FittedCurve {
-    QString label;              // e.g. "Richards (Poisson ML)"
-    std::vector<double> mid;    // per day of the calendar; NaN outside the curve
-    std::vector<double> low;    // lower band edge, same length (may be empty)
-    std::vector<double> high;   // upper band edge
+    QString label;             // e.g. "Richards (Poisson ML)"
+    std::vector<double> mid;   // per day of the calendar; NaN outside the curve
+    std::vector<double> low;   // lower band edge, same length (may be empty)
+    std::vector<double> high;  // upper band edge
 };
 
 struct SeriesView {
@@ -47,19 +47,20 @@ struct SeriesView {
     Date firstDay;
     int days = 0;
 
-    std::vector<double> raw;                 // NaN where no number was reported
-    std::vector<CellState> rawState;         // per day
-    std::vector<std::uint32_t> sourceLine;   // 0 where no row
-    std::vector<double> cleaned;             // empty: not computed
-    std::vector<double> smoothed;            // empty: not computed
-    QString smoothedLabel;                   // e.g. "7-day centred mean"
+    std::vector<double> raw;                // NaN where no number was reported
+    std::vector<CellState> rawState;        // per day
+    std::vector<std::uint32_t> sourceLine;  // 0 where no row
+    std::vector<double> cleaned;            // empty: not computed
+    std::vector<double> smoothed;           // empty: not computed
+    QString smoothedLabel;                  // e.g. "7-day centred mean"
     std::optional<FittedCurve> fit;
     std::optional<DayRange> fitWindow;
     std::vector<FindingMark> findings;
-    std::vector<QStringList> touchedBy;      // per day: ledger entries that changed the cell (may be empty)
+    std::vector<QStringList>
+        touchedBy;  // per day: ledger entries that changed the cell (may be empty)
 
-    QString secondMeasure;                   // empty: none
-    std::vector<double> second;              // raw counts of the second measure
+    QString secondMeasure;       // empty: none
+    std::vector<double> second;  // raw counts of the second measure
 
     bool empty() const { return days == 0; }
     Date dayAt(int index) const { return firstDay + index; }

@@ -13,9 +13,11 @@ QString Workbench::dropPath() const {
 }
 
 SeriesView Workbench::seriesView(const QString& regionCode, int measure, int secondMeasure) const {
-    if (!m_drop || measure < 0 || measure >= static_cast<int>(m_drop->measures.size())) return {};
+    if (!m_drop || measure < 0 || measure >= static_cast<int>(m_drop->measures.size()))
+        return {};
     const std::optional<std::size_t> region = m_drop->regionIndex(regionCode.toStdString());
-    if (!region) return {};
+    if (!region)
+        return {};
     SeriesView view = seriesViewFromDrop(*m_drop, *region, static_cast<std::size_t>(measure));
     if (m_register)
         if (const RegionEntry* entry = m_register->find(m_drop->regionCodes[*region]))

@@ -36,7 +36,8 @@ public:
     SeriesView seriesView(const QString& regionCode, int measure, int secondMeasure = -1) const;
 
     /// Replaces the open drop (and its register, which may be null).
-    void setDrop(std::shared_ptr<const Drop> drop, std::shared_ptr<const RegionRegister> regionRegister);
+    void setDrop(std::shared_ptr<const Drop> drop,
+                 std::shared_ptr<const RegionRegister> regionRegister);
     void close();
 
 Q_SIGNALS:

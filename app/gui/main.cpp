@@ -20,7 +20,8 @@ namespace {
 
 QString loadStyleSheet() {
     QFile file(QStringLiteral(":/siftwave/style.qss"));
-    if (!file.open(QIODevice::ReadOnly)) return {};
+    if (!file.open(QIODevice::ReadOnly))
+        return {};
     return QString::fromUtf8(file.readAll());
 }
 
@@ -50,21 +51,25 @@ int main(int argc, char** argv) {
     app.setStyleSheet(loadStyleSheet());
 
     QCommandLineParser parser;
-    parser.setApplicationDescription(QStringLiteral("Siftwave: a workbench for surveillance case-count releases."));
+    parser.setApplicationDescription(
+        QStringLiteral("Siftwave: a workbench for surveillance case-count releases."));
     parser.addHelpOption();
     parser.addVersionOption();
-    const QCommandLineOption screenshot(QStringLiteral("screenshot"),
-                                        QStringLiteral("Render the main window to FILE (PNG) and exit."),
-                                        QStringLiteral("FILE"));
-    const QCommandLineOption select(QStringLiteral("select"), QStringLiteral("Select the region with this code."),
+    const QCommandLineOption screenshot(
+        QStringLiteral("screenshot"),
+        QStringLiteral("Render the main window to FILE (PNG) and exit."), QStringLiteral("FILE"));
+    const QCommandLineOption select(QStringLiteral("select"),
+                                    QStringLiteral("Select the region with this code."),
                                     QStringLiteral("REGION"));
-    const QCommandLineOption finding(QStringLiteral("finding"), QStringLiteral("Focus on the finding with this id."),
+    const QCommandLineOption finding(QStringLiteral("finding"),
+                                     QStringLiteral("Focus on the finding with this id."),
                                      QStringLiteral("ID"));
     parser.addOption(screenshot);
     parser.addOption(select);
     parser.addOption(finding);
-    parser.addPositionalArgument(QStringLiteral("DROP"),
-                                 QStringLiteral("A data drop (CSV) to open; default: the bundled sample."));
+    parser.addPositionalArgument(
+        QStringLiteral("DROP"),
+        QStringLiteral("A data drop (CSV) to open; default: the bundled sample."));
     parser.process(app);
 
     const bool shooting = parser.isSet(screenshot);
@@ -93,17 +98,21 @@ int main(int argc, char** argv) {
                 QApplication::exit(exitCode);
             });
         };
-        QObject::connect(&window, &siftwave::gui::MainWindow::dropOpened, &window, [&, finishShot](const QString&) {
-            if (!region.isEmpty() && !window.selectRegion(region)) {
-                std::fprintf(stderr, "siftwave: no region %s in this drop\n", qPrintable(region));
-                finishShot(false);
-                return;
-            }
-            if (!findingId.isEmpty())
-                std::fprintf(stderr, "siftwave: findings are not available in this build; --finding %s ignored\n",
-                             qPrintable(findingId));
-            finishShot(true);
-        });
+        QObject::connect(&window, &siftwave::gui::MainWindow::dropOpened, &window,
+                         [&, finishShot](const QString&) {
+                             if (!region.isEmpty() && !window.selectRegion(region)) {
+                                 std::fprintf(stderr, "siftwave: no region %s in this drop\n",
+                                              qPrintable(region));
+                                 finishShot(false);
+                                 return;
+                             }
+                             if (!findingId.isEmpty())
+                                 std::fprintf(stderr,
+                                              "siftwave: findings are not available in this build; "
+                                              "--finding %s ignored\n",
+                                              qPrintable(findingId));
+                             finishShot(true);
+                         });
         QObject::connect(&window, &siftwave::gui::MainWindow::dropFailed, &window,
                          [finishShot](const QString&) { finishShot(false); });
         window.resize(1440, 900);
@@ -119,9 +128,10 @@ int main(int argc, char** argv) {
     window.show();
     if (!drop.isEmpty()) {
         if (!region.isEmpty())
-            QObject::connect(&window, &siftwave::gui::MainWindow::dropOpened, &window,
-                             [&window, region](const QString&) { window.selectRegion(region); },
-                             Qt::SingleShotConnection);
+            QObject::connect(
+                &window, &siftwave::gui::MainWindow::dropOpened, &window,
+                [&window, region](const QString&) { window.selectRegion(region); },
+                Qt::SingleShotConnection);
         window.openDrop(drop);
     }
     return app.exec();

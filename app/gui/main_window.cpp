@@ -38,11 +38,17 @@ namespace siftwave::gui {
 using widgets::BackgroundTask;
 
 MainWindow::MainWindow(Options options, QWidget* parent)
-    : QMainWindow(parent), m_options(options), m_workbench(new widgets::Workbench(this)),
+    : QMainWindow(parent),
+      m_options(options),
+      m_workbench(new widgets::Workbench(this)),
       m_regionModel(new widgets::RegionModel(m_workbench, this)),
-      m_browser(new widgets::RegionBrowser(m_regionModel)), m_plot(new widgets::SeriesPlot),
-      m_release(new QTextBrowser), m_dropLabel(new QLabel), m_taskLabel(new QLabel),
-      m_progress(new QProgressBar), m_cancel(new QPushButton(tr("Cancel"))) {
+      m_browser(new widgets::RegionBrowser(m_regionModel)),
+      m_plot(new widgets::SeriesPlot),
+      m_release(new QTextBrowser),
+      m_dropLabel(new QLabel),
+      m_taskLabel(new QLabel),
+      m_progress(new QProgressBar),
+      m_cancel(new QPushButton(tr("Cancel"))) {
     setObjectName(QStringLiteral("mainWindow"));
     setWindowTitle(tr("Siftwave"));
     setAcceptDrops(true);
@@ -63,12 +69,14 @@ MainWindow::MainWindow(Options options, QWidget* parent)
     connect(m_cancel, &QPushButton::clicked, this, &MainWindow::cancelBackgroundWork);
 
     connect(m_workbench, &widgets::Workbench::dropChanged, this, &MainWindow::onDropChanged);
-    connect(m_browser, &widgets::RegionBrowser::regionSelected, this, &MainWindow::onRegionSelected);
+    connect(m_browser, &widgets::RegionBrowser::regionSelected, this,
+            &MainWindow::onRegionSelected);
     connect(m_plot, &widgets::SeriesPlot::measureChosen, this, [this](int measure) {
         m_regionModel->setMeasure(measure);
         redrawSeries();
     });
-    connect(m_plot, &widgets::SeriesPlot::secondMeasureChosen, this, [this](int) { redrawSeries(); });
+    connect(m_plot, &widgets::SeriesPlot::secondMeasureChosen, this,
+            [this](int) { redrawSeries(); });
 
     resize(1360, 860);
     if (m_options.rememberLayout) {
@@ -118,25 +126,29 @@ void MainWindow::buildActions() {
     });
     find->setShortcut(QKeySequence::Find);
     view->addSeparator();
-    for (QDockWidget* dock : findChildren<QDockWidget*>()) view->addAction(dock->toggleViewAction());
+    for (QDockWidget* dock : findChildren<QDockWidget*>())
+        view->addAction(dock->toggleViewAction());
 
     QMenu* help = menuBar()->addMenu(tr("&Help"));
     help->addAction(tr("&About Siftwave"), this, [this] {
-        QMessageBox::about(this, tr("About Siftwave"),
-                           tr("<p><b>Siftwave %1</b> — a workbench for surveillance case-count releases.</p>"
-                              "<p>A fitted curve describes reported counts under the assumption that "
-                              "conditions stayed constant; it is not a forecast to act on by itself. "
-                              "Defer to the responsible public-health authority and its methods.</p>")
-                               .arg(QApplication::applicationVersion()));
+        QMessageBox::about(
+            this, tr("About Siftwave"),
+            tr("<p><b>Siftwave %1</b> — a workbench for surveillance case-count releases.</p>"
+               "<p>A fitted curve describes reported counts under the assumption that "
+               "conditions stayed constant; it is not a forecast to act on by itself. "
+               "Defer to the responsible public-health authority and its methods.</p>")
+                .arg(QApplication::applicationVersion()));
     });
 }
 
 void MainWindow::showOpenDialog() {
     QString start = m_options.rememberLayout ? settings::lastDirectory() : QString();
-    const QString path = QFileDialog::getOpenFileName(this, tr("Open a data drop"), start,
-                                                      tr("Data drops (*.csv *.tsv *.txt);;All files (*)"));
-    if (path.isEmpty()) return;
-    if (m_options.rememberLayout) settings::setLastDirectory(QFileInfo(path).absolutePath());
+    const QString path = QFileDialog::getOpenFileName(
+        this, tr("Open a data drop"), start, tr("Data drops (*.csv *.tsv *.txt);;All files (*)"));
+    if (path.isEmpty())
+        return;
+    if (m_options.rememberLayout)
+        settings::setLastDirectory(QFileInfo(path).absolutePath());
     openDrop(path);
 }
 
@@ -144,12 +156,14 @@ void MainWindow::rebuildRecentMenu() {
     m_recentMenu->clear();
     const QStringList files = m_options.rememberLayout ? settings::recentFiles() : QStringList();
     for (const QString& path : files) {
-        QAction* action = m_recentMenu->addAction(QFileInfo(path).fileName(), this, [this, path] { openDrop(path); });
+        QAction* action = m_recentMenu->addAction(QFileInfo(path).fileName(), this,
+                                                  [this, path] { openDrop(path); });
         action->setToolTip(path);
         action->setStatusTip(path);
         action->setEnabled(QFileInfo::exists(path));
     }
-    if (files.isEmpty()) m_recentMenu->addAction(tr("(none yet)"))->setEnabled(false);
+    if (files.isEmpty())
+        m_recentMenu->addAction(tr("(none yet)"))->setEnabled(false);
     else {
         m_recentMenu->addSeparator();
         m_recentMenu->addAction(tr("Clear the list"), this, [this] {
@@ -160,7 +174,8 @@ void MainWindow::rebuildRecentMenu() {
 }
 
 void MainWindow::openDrop(const QString& path) {
-    if (m_task) m_task->cancel();
+    if (m_task)
+        m_task->cancel();
     widgets::LoadRequest request;
     request.dropPath = path;
     BackgroundTask* task = BackgroundTask::start(
@@ -188,7 +203,8 @@ void MainWindow::openDrop(const QString& path) {
 }
 
 void MainWindow::cancelBackgroundWork() {
-    if (m_task) m_task->cancel();
+    if (m_task)
+        m_task->cancel();
 }
 
 void MainWindow::setBusy(BackgroundTask* task) {
@@ -197,7 +213,8 @@ void MainWindow::setBusy(BackgroundTask* task) {
     m_taskLabel->setVisible(busy);
     m_progress->setVisible(busy);
     m_cancel->setVisible(busy);
-    if (!busy) return;
+    if (!busy)
+        return;
     m_taskLabel->setText(task->title());
     m_progress->setRange(0, 0);  // busy until the work reports how far it is
     connect(task, &BackgroundTask::progressChanged, m_progress, [this](int done, int total) {
@@ -209,7 +226,8 @@ void MainWindow::setBusy(BackgroundTask* task) {
 
 void MainWindow::showError(const QString& title, const QString& message) {
     std::fprintf(stderr, "siftwave: %s\n", qPrintable(message));
-    if (!m_options.dialogs) return;
+    if (!m_options.dialogs)
+        return;
     auto* box = new QMessageBox(QMessageBox::Warning, title, message, QMessageBox::Ok, this);
     box->setObjectName(QStringLiteral("errorDialog"));
     box->setAttribute(Qt::WA_DeleteOnClose);
@@ -221,7 +239,8 @@ void MainWindow::onDropChanged() {
     QStringList measures;
     if (m_workbench->hasDrop()) {
         const Drop& drop = m_workbench->drop();
-        for (const std::string& m : drop.measures) measures << QString::fromStdString(m);
+        for (const std::string& m : drop.measures)
+            measures << QString::fromStdString(m);
         const QFileInfo info(m_workbench->dropPath());
         setWindowTitle(tr("%1 — Siftwave").arg(info.fileName()));
         m_dropLabel->setText(tr("%1 · %2 regions · %3 to %4 · SHA-256 %5…")
@@ -236,17 +255,24 @@ void MainWindow::onDropChanged() {
     }
     m_plot->setMeasures(measures);
     updateReleaseSummary();
-    // The browser selects the previous region again if the new drop has it; otherwise the first one.
+    // The browser selects the previous region again if the new drop has it; otherwise the first
+    // one.
     if (m_workbench->hasDrop() && m_browser->currentRegion().isEmpty()) {
         const QString first = m_browser->firstRegionWithData();
-        if (!first.isEmpty()) m_browser->selectRegion(first);
+        if (!first.isEmpty())
+            m_browser->selectRegion(first);
     }
-    if (!m_workbench->hasDrop()) m_plot->setView(widgets::SeriesView{});
+    if (!m_workbench->hasDrop())
+        m_plot->setView(widgets::SeriesView{});
 }
 
-bool MainWindow::selectRegion(const QString& code) { return m_browser->selectRegion(code); }
+bool MainWindow::selectRegion(const QString& code) {
+    return m_browser->selectRegion(code);
+}
 
-QString MainWindow::currentRegion() const { return m_currentRegion; }
+QString MainWindow::currentRegion() const {
+    return m_currentRegion;
+}
 
 void MainWindow::onRegionSelected(const QString& code) {
     m_currentRegion = code;
@@ -254,7 +280,8 @@ void MainWindow::onRegionSelected(const QString& code) {
 }
 
 void MainWindow::redrawSeries() {
-    m_plot->setView(m_workbench->seriesView(m_currentRegion, m_plot->measure(), m_plot->secondMeasure()));
+    m_plot->setView(
+        m_workbench->seriesView(m_currentRegion, m_plot->measure(), m_plot->secondMeasure()));
 }
 
 void MainWindow::updateReleaseSummary() {
@@ -266,14 +293,17 @@ void MainWindow::updateReleaseSummary() {
     const Provenance& src = drop.source;
     const CellCounts cells = drop.countCells();
     auto row = [](const QString& label, const QString& value) {
-        return QStringLiteral("<tr><td style='color:#555;padding-right:8px'>%1</td><td>%2</td></tr>")
+        return QStringLiteral(
+                   "<tr><td style='color:#555;padding-right:8px'>%1</td><td>%2</td></tr>")
             .arg(label, value);
     };
     auto text = [](const std::string& s) { return QString::fromStdString(s).toHtmlEscaped(); };
     const QLocale c = QLocale::c();
-    QString delimiter = src.dialect.delimiter == '\t' ? tr("tab") : QString(QLatin1Char(src.dialect.delimiter));
+    QString delimiter =
+        src.dialect.delimiter == '\t' ? tr("tab") : QString(QLatin1Char(src.dialect.delimiter));
     QStringList measures;
-    for (const std::string& m : drop.measures) measures << QString::fromStdString(m).toHtmlEscaped();
+    for (const std::string& m : drop.measures)
+        measures << QString::fromStdString(m).toHtmlEscaped();
     QString html = QStringLiteral("<table cellspacing='0'>");
     html += row(tr("File"), text(src.path));
     html += row(tr("Size"), tr("%1 bytes").arg(c.toString(static_cast<qulonglong>(src.bytes))));
@@ -304,11 +334,14 @@ void MainWindow::updateReleaseSummary() {
         for (std::size_t i = 0; i < shown; ++i) {
             const Warning& w = drop.warnings[i];
             QString where = w.line ? tr("line %1").arg(w.line) : QString();
-            if (w.column) where += tr(", column %1").arg(w.column);
+            if (w.column)
+                where += tr(", column %1").arg(w.column);
             html += QStringLiteral("<li>%1%2</li>")
-                        .arg(where.isEmpty() ? QString() : where + QStringLiteral(": "), text(w.message));
+                        .arg(where.isEmpty() ? QString() : where + QStringLiteral(": "),
+                             text(w.message));
         }
-        if (shown < drop.warnings.size()) html += tr("<li>… and %1 more</li>").arg(drop.warnings.size() - shown);
+        if (shown < drop.warnings.size())
+            html += tr("<li>… and %1 more</li>").arg(drop.warnings.size() - shown);
         html += QStringLiteral("</ul>");
     }
     m_release->setHtml(html);
@@ -330,7 +363,8 @@ void MainWindow::dragEnterEvent(QDragEnterEvent* event) {
 
 void MainWindow::dropEvent(QDropEvent* event) {
     const QList<QUrl> urls = event->mimeData()->urls();
-    if (urls.isEmpty() || !urls.front().isLocalFile()) return;
+    if (urls.isEmpty() || !urls.front().isLocalFile())
+        return;
     event->acceptProposedAction();
     openDrop(urls.front().toLocalFile());
 }

@@ -25,11 +25,15 @@ QString bundledSampleDrop() {
                                QStringLiteral("drop_current.csv")};
     for (const QString& folder : sampleFolders()) {
         const QDir dir(folder);
-        if (!dir.exists()) continue;
+        if (!dir.exists())
+            continue;
         for (const QString& name : names)
-            if (QFileInfo::exists(dir.filePath(name))) return QFileInfo(dir.filePath(name)).absoluteFilePath();
-        const QStringList current = dir.entryList({QStringLiteral("*current*.csv")}, QDir::Files, QDir::Name);
-        if (!current.isEmpty()) return QFileInfo(dir.filePath(current.front())).absoluteFilePath();
+            if (QFileInfo::exists(dir.filePath(name)))
+                return QFileInfo(dir.filePath(name)).absoluteFilePath();
+        const QStringList current =
+            dir.entryList({QStringLiteral("*current*.csv")}, QDir::Files, QDir::Name);
+        if (!current.isEmpty())
+            return QFileInfo(dir.filePath(current.front())).absoluteFilePath();
     }
     return {};
 }
