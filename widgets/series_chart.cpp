@@ -118,6 +118,29 @@ void SeriesChart::draw(const SeriesView& view) {
                 plot_style::fitPen(),
                 m_view.fit->label.isEmpty() ? QObject::tr("Fitted") : m_view.fit->label);
     }
+    if (!m_view.previous.empty()) {
+        QCPGraph* previous =
+            addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.previous, m_view.days),
+                    plot_style::previousPen(), QObject::tr("Previous release (%1)").arg(m_view.previousLabel));
+        previous->setLineStyle(QCPGraph::lsStepCenter);
+        previous->setAdaptiveSampling(false);
+        // Where the two releases disagree, the old value is marked with a cross.
+        QVector<double> revisedKeys, revisedValues;
+        for (int d = 0; d < m_view.days && d < static_cast<int>(m_view.previous.size()); ++d) {
+            const double old = m_view.previous[d];
+            const double now = d < static_cast<int>(m_view.raw.size()) ? m_view.raw[d] : old;
+            if (std::isnan(old) || std::isnan(now) || old == now) continue;
+            revisedKeys << keys[d];
+            revisedValues << old;
+        }
+        if (!revisedKeys.isEmpty()) {
+            QCPGraph* revised = m_plot->addGraph(m_plot->xAxis, m_plot->yAxis);
+            revised->setData(revisedKeys, revisedValues, true);
+            revised->setLineStyle(QCPGraph::lsNone);
+            revised->setScatterStyle(QCPScatterStyle(QCPScatterStyle::ssCross, plot_style::kInk, 7));
+            revised->setName(QObject::tr("Revised since (old value)"));
+        }
+    }
     if (!m_view.cleaned.empty())
         addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.cleaned, m_view.days),
                 plot_style::cleanedPen(), QObject::tr("Cleaned"));
@@ -161,7 +184,7 @@ void SeriesChart::drawFindings() {
     }
 }
 
-void SeriesChart::setWindow(std::optional<DayRange> window, const QString& label) {
+void SeriesChart::setWindow(std::optional<DayIndexRange> window, const QString& label) {
     m_window = window;
     if (!window) {
         for (QCPAbstractItem* item : {static_cast<QCPAbstractItem*>(m_windowRect),
@@ -233,7 +256,7 @@ void SeriesChart::resetRange() {
     focusOn({0, m_view.days - 1});
 }
 
-void SeriesChart::focusOn(DayRange days) {
+void SeriesChart::focusOn(DayIndexRange days) {
     const int span = std::max(days.last - days.first, 6);
     const int margin = std::max(1, span / 10);
     m_plot->xAxis->setRange(
@@ -249,7 +272,7 @@ void SeriesChart::rescaleValueAxis() {
     const int first = std::max(0, dayOfPlotKey(x.lower) - m_view.firstDay);
     const int last = std::min(m_view.days - 1, dayOfPlotKey(x.upper) - m_view.firstDay);
     double top = std::max({maxIn(m_view.raw, first, last), maxIn(m_view.cleaned, first, last),
-                           maxIn(m_view.smoothed, first, last)});
+                           maxIn(m_view.smoothed, first, last), maxIn(m_view.previous, first, last)});
     if (m_view.fit)
         top = std::max(
             {top, maxIn(m_view.fit->mid, first, last), maxIn(m_view.fit->high, first, last)});

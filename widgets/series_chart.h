@@ -38,8 +38,8 @@ public:
     const SeriesView& view() const { return m_view; }
 
     /// Shows (or, with nullopt, hides) a shaded window with its edges.
-    void setWindow(std::optional<DayRange> window, const QString& label = {});
-    std::optional<DayRange> window() const { return m_window; }
+    void setWindow(std::optional<DayIndexRange> window, const QString& label = {});
+    std::optional<DayIndexRange> window() const { return m_window; }
 
     /// Draws preview values (per day, NaN where unchanged) over the raw bars; empty clears.
     void setPreview(const std::vector<double>& values, const QString& label = {});
@@ -47,7 +47,7 @@ public:
     /// Shows the whole calendar (x) and all values (y).
     void resetRange();
     /// Shows the given days (with a little margin).
-    void focusOn(DayRange days);
+    void focusOn(DayIndexRange days);
 
     /// Day index under a pixel x position (may be outside the calendar).
     int dayIndexAtPixel(double x) const;
@@ -66,7 +66,7 @@ private:
     QCPItemRect* m_windowRect = nullptr;
     QCPItemStraightLine* m_windowStart = nullptr;
     QCPItemStraightLine* m_windowEnd = nullptr;
-    std::optional<DayRange> m_window;
+    std::optional<DayIndexRange> m_window;
 };
 
 }  // namespace siftwave::widgets

@@ -3,6 +3,7 @@
 #include "siftwave/series/smoothing.h"
 
 #include <QCoreApplication>
+#include <QFileInfo>
 
 namespace siftwave::widgets {
 
@@ -24,6 +25,9 @@ SeriesView Workbench::seriesView(const QString& regionCode, int measure, int sec
             view.regionName = QString::fromStdString(entry->name);
     view.smoothed = series::centredMovingAverage(view.cleaned, 7);
     view.smoothedLabel = QCoreApplication::translate("Workbench", "7-day centred mean");
+    if (m_previous)
+        addPreviousRelease(view, *m_previous,
+                           QFileInfo(QString::fromStdString(m_previous->source.path)).fileName());
     if (secondMeasure >= 0 && secondMeasure < static_cast<int>(m_drop->measures.size()) &&
         secondMeasure != measure)
         addSecondMeasure(view, *m_drop, *region, static_cast<std::size_t>(secondMeasure));
@@ -34,12 +38,23 @@ void Workbench::setDrop(std::shared_ptr<const Drop> drop,
                         std::shared_ptr<const RegionRegister> regionRegister) {
     m_drop = std::move(drop);
     m_register = std::move(regionRegister);
+    m_previous.reset();  // it was the previous release of another drop
     Q_EMIT dropChanged();
+}
+
+QString Workbench::previousPath() const {
+    return m_previous ? QString::fromStdString(m_previous->source.path) : QString();
+}
+
+void Workbench::setPreviousDrop(std::shared_ptr<const Drop> previous) {
+    m_previous = std::move(previous);
+    Q_EMIT previousChanged();
 }
 
 void Workbench::close() {
     m_drop.reset();
     m_register.reset();
+    m_previous.reset();
     Q_EMIT dropChanged();
 }
 

@@ -30,8 +30,13 @@ public:
     const RegionRegister* regionRegister() const { return m_register.get(); }
     QString dropPath() const;
 
+    /// The previous release, to compare against (nullptr when none is open).
+    const Drop* previousDrop() const { return m_previous.get(); }
+    QString previousPath() const;
+    void setPreviousDrop(std::shared_ptr<const Drop> previous);
+
     /// Everything the plot shows for one region: raw, cleaned, smoothed (7-day centred
-    /// mean of the cleaned series), and a second measure when `secondMeasure` >= 0.
+    /// mean of the cleaned series), the previous release when one is open, and a second measure when `secondMeasure` >= 0.
     /// An empty view when the drop has no such region or measure.
     SeriesView seriesView(const QString& regionCode, int measure, int secondMeasure = -1) const;
 
@@ -43,10 +48,13 @@ public:
 Q_SIGNALS:
     /// A different drop is open (or none): every view rebuilds.
     void dropChanged();
+    /// A previous release was opened or closed.
+    void previousChanged();
 
 private:
     std::shared_ptr<const Drop> m_drop;
     std::shared_ptr<const RegionRegister> m_register;
+    std::shared_ptr<const Drop> m_previous;
 };
 
 }  // namespace siftwave::widgets

@@ -77,6 +77,10 @@ MainWindow::MainWindow(Options options, QWidget* parent)
     });
     connect(m_plot, &widgets::SeriesPlot::secondMeasureChosen, this,
             [this](int) { redrawSeries(); });
+    connect(m_workbench, &widgets::Workbench::previousChanged, this, [this] {
+        redrawSeries();
+        updateReleaseSummary();
+    });
 
     resize(1360, 860);
     if (m_options.rememberLayout) {
@@ -109,6 +113,20 @@ void MainWindow::buildActions() {
     QAction* open = file->addAction(tr("&Open drop…"), this, &MainWindow::showOpenDialog);
     open->setShortcut(QKeySequence::Open);
     open->setObjectName(QStringLiteral("actionOpenDrop"));
+    QAction* previous = file->addAction(tr("Open &previous release…"), this, &MainWindow::showOpenPreviousDialog);
+    previous->setObjectName(QStringLiteral("actionOpenPrevious"));
+    previous->setStatusTip(tr("Draw an earlier release of the same data over this one to see revisions"));
+    QAction* closePrevious = file->addAction(tr("Close previous release"), this,
+                                             [this] { m_workbench->setPreviousDrop(nullptr); });
+    connect(m_workbench, &widgets::Workbench::dropChanged, this, [this, previous] {
+        previous->setEnabled(m_workbench->hasDrop());
+    });
+    connect(m_workbench, &widgets::Workbench::previousChanged, this, [this, closePrevious] {
+        closePrevious->setEnabled(m_workbench->previousDrop() != nullptr);
+    });
+    connect(m_workbench, &widgets::Workbench::dropChanged, closePrevious, [closePrevious] { closePrevious->setEnabled(false); });
+    previous->setEnabled(false);
+    closePrevious->setEnabled(false);
     m_recentMenu = file->addMenu(tr("Open &recent"));
     rebuildRecentMenu();
     file->addSeparator();
@@ -141,15 +159,50 @@ void MainWindow::buildActions() {
     });
 }
 
-void MainWindow::showOpenDialog() {
+QString MainWindow::askForDropFile(const QString& title) {
     QString start = m_options.rememberLayout ? settings::lastDirectory() : QString();
     const QString path = QFileDialog::getOpenFileName(
-        this, tr("Open a data drop"), start, tr("Data drops (*.csv *.tsv *.txt);;All files (*)"));
-    if (path.isEmpty())
-        return;
-    if (m_options.rememberLayout)
+        this, title, start, tr("Data drops (*.csv *.tsv *.txt);;All files (*)"));
+    if (!path.isEmpty() && m_options.rememberLayout)
         settings::setLastDirectory(QFileInfo(path).absolutePath());
-    openDrop(path);
+    return path;
+}
+
+void MainWindow::showOpenDialog() {
+    if (const QString path = askForDropFile(tr("Open a data drop")); !path.isEmpty())
+        openDrop(path);
+}
+
+void MainWindow::showOpenPreviousDialog() {
+    if (const QString path = askForDropFile(tr("Open the previous release")); !path.isEmpty())
+        openPreviousRelease(path);
+}
+
+void MainWindow::openPreviousRelease(const QString& path) {
+    if (m_task)
+        m_task->cancel();
+    widgets::LoadRequest request;
+    request.dropPath = path;
+    request.withRegister = false;
+    const std::string expectedDrop =
+        m_workbench->hasDrop() ? m_workbench->drop().source.sha256 : std::string();
+    BackgroundTask* task = BackgroundTask::start(
+        this, tr("Reading %1").arg(QFileInfo(path).fileName()),
+        [request] { return widgets::loadDrop(request); },
+        [this, path, expectedDrop](const widgets::LoadedDrop& loaded) {
+            // Only for the drop it was asked for.
+            if (!m_workbench->hasDrop() || m_workbench->drop().source.sha256 != expectedDrop)
+                return;
+            if (!loaded.ok()) {
+                const QString message = widgets::describeError(*loaded.error);
+                showError(tr("The previous release could not be read"), message);
+                Q_EMIT dropFailed(message);
+                return;
+            }
+            m_workbench->setPreviousDrop(loaded.drop);
+            Q_EMIT previousOpened(path);
+        });
+    setBusy(task);
 }
 
 void MainWindow::rebuildRecentMenu() {
@@ -274,6 +327,11 @@ QString MainWindow::currentRegion() const {
     return m_currentRegion;
 }
 
+bool MainWindow::focusFinding(const QString& id) {
+    Q_UNUSED(id);
+    return false;  // the findings arrive with the scan (see the finding review dock)
+}
+
 void MainWindow::onRegionSelected(const QString& code) {
     m_currentRegion = code;
     redrawSeries();
@@ -327,6 +385,11 @@ void MainWindow::updateReleaseSummary() {
     html += row(tr("Duplicate rows"), c.toString(static_cast<qulonglong>(drop.duplicates.size())));
     if (const RegionRegister* reg = m_workbench->regionRegister())
         html += row(tr("Register"), text(reg->path));
+    if (const Drop* previous = m_workbench->previousDrop())
+        html += row(tr("Previous release"), tr("%1 (%2 to %3)")
+                                                .arg(text(previous->source.path),
+                                                     QString::fromStdString(previous->firstDay.iso()),
+                                                     QString::fromStdString(previous->lastDay().iso())));
     html += QStringLiteral("</table>");
     if (!drop.warnings.empty()) {
         html += tr("<p><b>%1 warning(s) from the reader</b></p><ul>").arg(drop.warnings.size());

@@ -40,6 +40,8 @@ public:
 
     /// Reads a drop in the background; emits dropOpened() or dropFailed() when done.
     void openDrop(const QString& path);
+    /// Reads another release of the same data to compare against; emits previousOpened().
+    void openPreviousRelease(const QString& path);
     /// Stops waiting for the background read (the window keeps what it had).
     void cancelBackgroundWork();
     bool isBusy() const { return m_task != nullptr; }
@@ -47,6 +49,8 @@ public:
     /// Makes a region current (browser and plot); false when the drop has no such code.
     bool selectRegion(const QString& code);
     QString currentRegion() const;
+    /// Selects a finding by id and focuses the plot on it; false when there is none.
+    bool focusFinding(const QString& id);
 
     widgets::Workbench* workbench() const { return m_workbench; }
     widgets::RegionBrowser* regionBrowser() const { return m_browser; }
@@ -56,6 +60,7 @@ Q_SIGNALS:
     void dropOpened(const QString& path);
     /// The message is the core's own, with file, line and column where known.
     void dropFailed(const QString& message);
+    void previousOpened(const QString& path);
 
 protected:
     void closeEvent(QCloseEvent* event) override;
@@ -66,6 +71,8 @@ private:
     void buildActions();
     void buildDocks();
     void showOpenDialog();
+    void showOpenPreviousDialog();
+    QString askForDropFile(const QString& title);
     void rebuildRecentMenu();
     void onDropChanged();
     void onRegionSelected(const QString& code);
