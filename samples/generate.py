@@ -424,6 +424,9 @@ class Scenario:
         self.add("unknown_code", variant, None, None, None, True,
                  "412 is not in the region register (it is the variant of 0412).",
                  canonical=code)
+        self.add("revision", variant, None, None, None, True,
+                 "The code 412 appeared since the previous release (it is the variant of 0412).",
+                 previous_file=FILE_PREVIOUS, change="region_appeared", canonical=code)
 
         # Revisions: late reports raised Orrin Fell's cases on six days; Wendlecombe's deaths were
         # reclassified on three days. The previous release holds the old values.
@@ -437,7 +440,7 @@ class Scenario:
             cells.append({"date": iso(d), "old": old, "new": rc(code)[d]})
         self.add("revision", code, "cases", 255, 260, True,
                  "Late reports raised six days of cases since the previous release.",
-                 previous_file=FILE_PREVIOUS, cells=cells)
+                 previous_file=FILE_PREVIOUS, change="values_changed", cells=cells)
         code = "1408"
         cells = []
         candidates = [d for d in range(226, 252) if self.reported[code]["deaths"][d] >= 1]
@@ -451,7 +454,7 @@ class Scenario:
             cells.append({"date": iso(d), "old": old, "new": new})
         self.add("revision", code, "deaths", revised_days[0], revised_days[-1], True,
                  "Deaths reclassified on three days since the previous release.",
-                 previous_file=FILE_PREVIOUS, cells=cells)
+                 previous_file=FILE_PREVIOUS, change="values_changed", cells=cells)
 
         # Province rows: sums of the districts' reported rows, except a hierarchy mismatch in
         # Kelvarra, whose province cases for five days were compiled before Cobble Reach reported.
@@ -708,6 +711,9 @@ def verify(files):
             check(m is None, tag + ": a missing row misses every measure")
             check(all((r, d) not in cur for d in days(p["first"], p["last"])), tag + ": rows present")
             check(len(days(p["first"], p["last"])) == p["days"], tag + ": day count")
+        elif k == "revision" and p["change"] == "region_appeared":
+            check(any(reg == r for reg, _ in cur) and not any(reg == r for reg, _ in prev),
+                  tag + ": region did not appear")
         elif k == "revision":
             for c in p["cells"]:
                 check(value(cur, r, c["date"], m) == c["new"] and value(prev, r, c["date"], m) == c["old"]
@@ -725,7 +731,7 @@ def verify(files):
     # Everything not planted agrees: province rows sum their children outside the mismatch, and
     # the previous release equals the current one outside the revised cells.
     revised = {(p["region"], c["date"], p["measure"]) for p in manifest["problems"] if p["kind"] == "revision"
-               for c in p["cells"]}
+               for c in p.get("cells", [])}
     for (region, day), v in prev.items():
         for m, i in measure_index.items():
             if (region, day, m) not in revised:
