@@ -107,7 +107,7 @@ PARAMETERS = {
     "nb_size_cases": 50.0,
     "nb_size_deaths": 80.0,
     # weekday reporting factors Monday..Sunday (mean 1): low weekends, Monday catch-up
-    "weekday_factors": [1.24, 1.10, 1.04, 1.02, 0.98, 0.68, 0.54],
+    "weekday_factors": [1.30, 1.16, 1.10, 1.08, 1.04, 0.72, 0.60],
     "weekday_strength_by_province": {"KV": 0.7, "OS": 1.0, "BR": 0.85, "LM": 0.6},
     "weekday_strength_deaths": 0.5,  # fraction of the cases' weekday effect seen in deaths
 }
@@ -269,6 +269,7 @@ class Scenario:
         self.true = {}  # code -> {"cases": [...], "deaths": [...]} as drawn, before planting
         self.reported = {}  # code -> {"cases": [...], "deaths": [...]}; None = no row that day
         self.factors = {}
+        self.factors_deaths = {}
         self.problems = []
         self.previous_overrides = {}  # (code, measure, day) -> value in the previous release
         self.code_on_day = {}  # (code, day) -> code written in the file
@@ -284,6 +285,7 @@ class Scenario:
             deaths_mu = [m * fd[weekday(t)] for t, m in enumerate(deaths_mu)]
             self.expected[code] = (cases_mu, deaths_mu)
             self.factors[code] = fc
+            self.factors_deaths[code] = fd
             cases = [negative_binomial(self.rng, m, PARAMETERS["nb_size_cases"]) for m in cases_mu]
             deaths = [negative_binomial(self.rng, m, PARAMETERS["nb_size_deaths"]) for m in deaths_mu]
             self.true[code] = {"cases": cases, "deaths": deaths}
@@ -396,14 +398,16 @@ class Scenario:
                  over_reported_first=iso(over_days[0]), over_reported_last=iso(over_days[-1]),
                  over_reported=over)
 
-        # Missing dates: Tollisant sent no rows on two stretches.
+        # Missing dates: Tollisant sent no rows on two stretches. No row means neither measure,
+        # so each run is one problem with measure null (as the scan reports a run missing in
+        # every measure).
         code = "1310"
         for first, last in ((140, 143), (221, 222)):
-            for measure in ("cases", "deaths"):
-                truth = self.true[code][measure]
-                self.add("missing_dates", code, measure, first, last, True,
-                         "No rows for %s from %s to %s." % (code, iso(first), iso(last)),
-                         days=last - first + 1, true_values=[truth[d] for d in range(first, last + 1)])
+            self.add("missing_dates", code, None, first, last, True,
+                     "No rows for %s from %s to %s." % (code, iso(first), iso(last)),
+                     measures=["cases", "deaths"], days=last - first + 1,
+                     true_values={m: [self.true[code][m][d] for d in range(first, last + 1)]
+                                  for m in ("cases", "deaths")})
             for d in range(first, last + 1):
                 self.reported[code]["cases"][d] = None
                 self.reported[code]["deaths"][d] = None
@@ -420,6 +424,9 @@ class Scenario:
         self.add("unknown_code", variant, None, None, None, True,
                  "412 is not in the region register (it is the variant of 0412).",
                  canonical=code)
+        self.add("revision", variant, None, None, None, True,
+                 "The code 412 appeared since the previous release (it is the variant of 0412).",
+                 previous_file=FILE_PREVIOUS, change="region_appeared", canonical=code)
 
         # Revisions: late reports raised Orrin Fell's cases on six days; Wendlecombe's deaths were
         # reclassified on three days. The previous release holds the old values.
@@ -433,7 +440,7 @@ class Scenario:
             cells.append({"date": iso(d), "old": old, "new": rc(code)[d]})
         self.add("revision", code, "cases", 255, 260, True,
                  "Late reports raised six days of cases since the previous release.",
-                 previous_file=FILE_PREVIOUS, cells=cells)
+                 previous_file=FILE_PREVIOUS, change="values_changed", cells=cells)
         code = "1408"
         cells = []
         candidates = [d for d in range(226, 252) if self.reported[code]["deaths"][d] >= 1]
@@ -447,7 +454,7 @@ class Scenario:
             cells.append({"date": iso(d), "old": old, "new": new})
         self.add("revision", code, "deaths", revised_days[0], revised_days[-1], True,
                  "Deaths reclassified on three days since the previous release.",
-                 previous_file=FILE_PREVIOUS, cells=cells)
+                 previous_file=FILE_PREVIOUS, change="values_changed", cells=cells)
 
         # Province rows: sums of the districts' reported rows, except a hierarchy mismatch in
         # Kelvarra, whose province cases for five days were compiled before Cobble Reach reported.
@@ -471,21 +478,37 @@ class Scenario:
                  "Kelvarra's province cases on five days leave out Cobble Reach (1109).",
                  children=children, days=days)
 
-        # Weekday effect: every series carries it (the districts by province strength; the
-        # province rows through their sums).
-        for code, _name, parent, _pop in REGIONS:
-            if parent == "" and code not in REPORTED_PROVINCES:
-                continue
-            prov = parent or code
-            strength = PARAMETERS["weekday_strength_by_province"][prov]
-            factors = [1.0 + strength * (f - 1.0) for f in PARAMETERS["weekday_factors"]]
-            last_day = DAYS - 1
-            if code == "0412":
-                last_day = PREVIOUS_DAYS - 1
-            self.add("weekday_effect", code, "cases", 0, last_day, True,
-                     "Reporting follows the week: low weekends, a Monday catch-up.",
-                     strength=strength,
-                     factors={WEEKDAY_NAMES[i]: round(factors[i], 4) for i in range(7)})
+        # Weekday effect: every series carries it, the districts at their province's strength
+        # (the province rows through their sums). A drop-wide problem, one per measure, as the
+        # scan pools all regions; the pooled factors are the ratio of expected counts with and
+        # without the effect, per weekday, over every district and day.
+        regions = []
+        for code, _name, parent, _pop in self.districts:
+            strength = PARAMETERS["weekday_strength_by_province"][parent]
+            regions.append({"region": code, "strength": strength,
+                            "factors": {WEEKDAY_NAMES[i]: round(self.factors[code][i], 4) for i in range(7)}})
+        for index, measure in enumerate(("cases", "deaths")):
+            with_effect = [0.0] * 7
+            without = [0.0] * 7
+            for code in self.expected:
+                factors = self.factors[code] if measure == "cases" else self.factors_deaths[code]
+                for t, mu in enumerate(self.expected[code][index]):
+                    with_effect[weekday(t)] += mu
+                    without[weekday(t)] += mu / factors[weekday(t)]
+            pooled = [a / b for a, b in zip(with_effect, without)]
+            mean = sum(pooled) / 7.0
+            pooled = [f / mean for f in pooled]
+            if measure == "cases":
+                self.add("weekday_effect", None, measure, 0, DAYS - 1, True,
+                         "Reporting follows the week: low weekends, a Monday catch-up.",
+                         pooled_factors={WEEKDAY_NAMES[i]: round(pooled[i], 4) for i in range(7)},
+                         regions=regions)
+            else:
+                self.add("weekday_effect", None, measure, 0, DAYS - 1, False,
+                         "Deaths carry the weekday effect at half the cases' strength; weak at these "
+                         "counts, so a scan may or may not report it.",
+                         pooled_factors={WEEKDAY_NAMES[i]: round(pooled[i], 4) for i in range(7)},
+                         strength_relative_to_cases=PARAMETERS["weekday_strength_deaths"])
 
     # -- files -------------------------------------------------------------------------------
     def row_order(self):
@@ -685,8 +708,12 @@ def verify(files):
         elif k == "negative_count":
             check(value(cur, r, p["first"], m) == p["reported"] < 0, tag + ": negative")
         elif k == "missing_dates":
+            check(m is None, tag + ": a missing row misses every measure")
             check(all((r, d) not in cur for d in days(p["first"], p["last"])), tag + ": rows present")
             check(len(days(p["first"], p["last"])) == p["days"], tag + ": day count")
+        elif k == "revision" and p["change"] == "region_appeared":
+            check(any(reg == r for reg, _ in cur) and not any(reg == r for reg, _ in prev),
+                  tag + ": region did not appear")
         elif k == "revision":
             for c in p["cells"]:
                 check(value(cur, r, c["date"], m) == c["new"] and value(prev, r, c["date"], m) == c["old"]
@@ -697,14 +724,14 @@ def verify(files):
                 check(s == day["children_sum"] and value(cur, r, day["date"], m) == day["parent_reported"]
                       and day["difference"] != 0, tag + ": day %s" % day["date"])
         elif k == "weekday_effect":
-            check(r in codes, tag + ": region")
+            check(r is None and all(x["region"] in codes for x in p.get("regions", [])), tag + ": regions")
         else:
             check(False, tag + ": unknown kind")
 
     # Everything not planted agrees: province rows sum their children outside the mismatch, and
     # the previous release equals the current one outside the revised cells.
     revised = {(p["region"], c["date"], p["measure"]) for p in manifest["problems"] if p["kind"] == "revision"
-               for c in p["cells"]}
+               for c in p.get("cells", [])}
     for (region, day), v in prev.items():
         for m, i in measure_index.items():
             if (region, day, m) not in revised:
