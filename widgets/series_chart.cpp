@@ -79,6 +79,7 @@ void SeriesChart::draw(const SeriesView& view) {
     m_plot->clearPlottables();
     m_plot->clearItems();
     m_preview = nullptr;
+    m_fitGraphs.clear();
     m_windowRect = nullptr;
     m_windowStart = nullptr;
     m_windowEnd = nullptr;
@@ -103,21 +104,7 @@ void SeriesChart::draw(const SeriesView& view) {
     }
     bars->setData(rawKeys, rawValues, true);
 
-    if (m_view.fit && !m_view.fit->mid.empty()) {
-        if (!m_view.fit->low.empty() && !m_view.fit->high.empty()) {
-            QCPGraph* low = addLine(m_plot, m_plot->yAxis, keys,
-                                    toVector(m_view.fit->low, m_view.days), Qt::NoPen, QString());
-            QCPGraph* high =
-                addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->high, m_view.days),
-                        Qt::NoPen, QObject::tr("Fit band"));
-            high->setBrush(plot_style::fitBandBrush());
-            high->setChannelFillGraph(low);
-            low->removeFromLegend();
-        }
-        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->mid, m_view.days),
-                plot_style::fitPen(),
-                m_view.fit->label.isEmpty() ? QObject::tr("Fitted") : m_view.fit->label);
-    }
+    drawFit();
     if (!m_view.previous.empty()) {
         QCPGraph* previous =
             addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.previous, m_view.days),
@@ -163,6 +150,35 @@ void SeriesChart::draw(const SeriesView& view) {
     if (m_view.fitWindow)
         setWindow(m_view.fitWindow, QObject::tr("fit window"));
     resetRange();
+}
+
+void SeriesChart::drawFit() {
+    if (!m_view.fit || m_view.fit->mid.empty()) return;
+    const QVector<double> keys = keysOf(m_view);
+    if (!m_view.fit->low.empty() && !m_view.fit->high.empty()) {
+        QCPGraph* low = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->low, m_view.days),
+                                Qt::NoPen, QString());
+        QCPGraph* high = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->high, m_view.days),
+                                 Qt::NoPen, QObject::tr("Fit band"));
+        high->setBrush(plot_style::fitBandBrush());
+        high->setChannelFillGraph(low);
+        low->removeFromLegend();
+        m_fitGraphs.push_back(low);
+        m_fitGraphs.push_back(high);
+    }
+    QCPGraph* mid = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->mid, m_view.days),
+                            plot_style::fitPen(),
+                            m_view.fit->label.isEmpty() ? QObject::tr("Fitted") : m_view.fit->label);
+    mid->setAdaptiveSampling(false);
+    m_fitGraphs.push_back(mid);
+}
+
+void SeriesChart::setFit(const std::optional<FittedCurve>& fit) {
+    for (QCPGraph* graph : m_fitGraphs) m_plot->removeGraph(graph);
+    m_fitGraphs.clear();
+    m_view.fit = fit;
+    drawFit();
+    rescaleValueAxis();
 }
 
 void SeriesChart::drawFindings() {

@@ -37,6 +37,9 @@ public:
     void draw(const SeriesView& view);
     const SeriesView& view() const { return m_view; }
 
+    /// Replaces the fitted curve (and its band) without touching the rest or the visible range.
+    void setFit(const std::optional<FittedCurve>& fit);
+
     /// Shows (or, with nullopt, hides) a shaded window with its edges.
     void setWindow(std::optional<DayIndexRange> window, const QString& label = {});
     std::optional<DayIndexRange> window() const { return m_window; }
@@ -58,11 +61,13 @@ public:
 
 private:
     void drawFindings();
+    void drawFit();
     void rescaleValueAxis();
 
     QCustomPlot* m_plot;
     SeriesView m_view;
     QCPBars* m_preview = nullptr;
+    std::vector<QCPGraph*> m_fitGraphs;
     QCPItemRect* m_windowRect = nullptr;
     QCPItemStraightLine* m_windowStart = nullptr;
     QCPItemStraightLine* m_windowEnd = nullptr;

@@ -130,6 +130,11 @@ std::optional<DayIndexRange> SeriesPlot::editableWindow() const {
     return m_windowEditable ? m_chart->window() : std::nullopt;
 }
 
+void SeriesPlot::setFit(const std::optional<FittedCurve>& fit) {
+    m_chart->setFit(fit);
+    m_plot->replot(QCustomPlot::rpQueuedReplot);
+}
+
 void SeriesPlot::setPreview(const std::vector<double>& values, const QString& label) {
     m_chart->setPreview(values, label);
     m_plot->replot();

@@ -43,6 +43,8 @@ public:
     /// Shows a window with draggable edges (nullopt hides it).
     void setEditableWindow(std::optional<DayIndexRange> window);
     std::optional<DayIndexRange> editableWindow() const;
+    /// Replaces the fitted curve, keeping the visible range (a live refit while dragging).
+    void setFit(const std::optional<FittedCurve>& fit);
     /// Draws preview values over the series (empty clears).
     void setPreview(const std::vector<double>& values, const QString& label = {});
 

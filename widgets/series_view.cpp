@@ -76,6 +76,18 @@ void addPreviousRelease(SeriesView& view, const Drop& previous, const QString& l
     }
 }
 
+FittedCurve curveFromFit(const fit::FitResult& fit, int days) {
+    FittedCurve curve;
+    curve.label = QCoreApplication::translate("SeriesView", "%1 fit (%2)")
+                      .arg(QString::fromLatin1(fit::modelName(fit.model)), QString::fromLatin1(fit::methodName(fit.method)));
+    curve.mid.assign(days, kNaN);
+    for (std::size_t i = 0; i < fit.fitted.size(); ++i) {
+        const int day = fit.first + static_cast<int>(i);
+        if (day >= 0 && day < days) curve.mid[day] = fit.fitted[i];
+    }
+    return curve;
+}
+
 QString hoverText(const SeriesView& view, int day) {
     if (day < 0 || day >= view.days)
         return {};

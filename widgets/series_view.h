@@ -9,6 +9,7 @@
 
 #include "siftwave/date.h"
 #include "siftwave/drop.h"
+#include "siftwave/fit/fit.h"
 
 #include <QString>
 #include <QStringList>
@@ -78,6 +79,10 @@ void addSecondMeasure(SeriesView& view, const Drop& drop, std::size_t region, st
 /// Adds another release's raw counts of the same region and measure, aligned by date
 /// (NaN where it has no number). Nothing when it lacks the region or the measure.
 void addPreviousRelease(SeriesView& view, const Drop& previous, const QString& label);
+
+/// The fitted curve of a FitResult on a calendar of `days` days (NaN outside the window).
+/// The band is left empty: the core's FitResult has no pointwise interval of the curve yet.
+FittedCurve curveFromFit(const fit::FitResult& fit, int days);
 
 /// The hover text for one day: date and weekday, raw (or its state), cleaned,
 /// smoothed, fitted, the source line and the ledger entries that touched the cell.
