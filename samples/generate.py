@@ -338,8 +338,12 @@ class Scenario:
                  reason="leading zero")
 
     def plant_stale_values(self):
-        # Stale values: Ferrisk's cases copied forward from day 127 for six days.
+        # Stale values: Ferrisk's cases copied forward from day 127 (on the default seed) for six days.
         code, src, n = "1105", 127, 6
+        # Start where the neighbours differ from the copied value, so the run is exactly n + 1 days.
+        cases = self.rc(code)
+        while cases[src - 1] == cases[src] or cases[src + n + 1] == cases[src]:
+            src += 1
         value = self.rc(code)[src]
         true_values = []
         for d in range(src + 1, src + 1 + n):
