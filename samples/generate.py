@@ -36,6 +36,7 @@ Province rows (Kelvarra and Ostmere only) are the sums of their districts' repor
 import argparse
 import csv
 import datetime
+import hashlib
 import io
 import json
 import math
@@ -649,6 +650,10 @@ class Scenario:
             "district_waves": self.waves,
             "problems": self.problems,
         }
+        # The bytes each entry describes, so a reader without Python can tell the files still match.
+        for name, info in manifest["files"].items():
+            info["bytes"] = len(files[name])
+            info["sha256"] = hashlib.sha256(files[name]).hexdigest()
         files[FILE_MANIFEST] = (json.dumps(manifest, indent=2, ensure_ascii=False) + "\n").encode("utf-8")
         return files
 
@@ -682,6 +687,8 @@ def verify(files):
             problems.append(message)
 
     manifest = json.loads(files[FILE_MANIFEST].decode("utf-8"))
+    for name, info in manifest["files"].items():
+        check(hashlib.sha256(files[name]).hexdigest() == info["sha256"], "%s: sha256 differs" % name)
     register = list(csv.reader(io.StringIO(files[FILE_REGIONS].decode("utf-8"), newline="")))
     check(register[0] == ["code", "name", "parent", "population"], "register header")
     codes = [r[0] for r in register[1:]]
