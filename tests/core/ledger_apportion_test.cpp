@@ -20,7 +20,8 @@ std::vector<std::int64_t> apportion(std::int64_t total, std::vector<std::int64_t
 // standard divisor 12,500,000 / 250 = 50,000; quotas 32.92, 138.72, 3.08, 41.82, 13.70,
 // 19.76; lower quotas sum to 246; the 4 surplus seats go to A (.92), D (.82), F (.76), B (.72).
 TEST(LargestRemainder, ReproducesTheParadorWorkedExample) {
-    const std::vector<std::int64_t> populations{1'646'000, 6'936'000, 154'000, 2'091'000, 685'000, 988'000};
+    const std::vector<std::int64_t> populations{1'646'000, 6'936'000, 154'000,
+                                                2'091'000, 685'000,   988'000};
     EXPECT_EQ(apportion(250, populations), (std::vector<std::int64_t>{33, 139, 3, 42, 13, 20}));
 }
 
@@ -69,7 +70,8 @@ TEST(LargestRemainder, AlwaysSumsToTheTotalAndKeepsTheQuotaRule) {
     for (int trial = 0; trial < 2000; ++trial) {
         const int n = 1 + static_cast<int>(rng() % 12);
         std::vector<std::int64_t> w(static_cast<std::size_t>(n));
-        for (auto& x : w) x = static_cast<std::int64_t>(rng() % 1000);
+        for (auto& x : w)
+            x = static_cast<std::int64_t>(rng() % 1000);
         w[rng() % w.size()] += 1;  // at least one positive weight
         const std::int64_t total = static_cast<std::int64_t>(rng() % 100000);
         const auto parts = apportion(total, w);
@@ -78,7 +80,8 @@ TEST(LargestRemainder, AlwaysSumsToTheTotalAndKeepsTheQuotaRule) {
         const std::int64_t sum = std::accumulate(w.begin(), w.end(), std::int64_t{0});
         for (std::size_t i = 0; i < w.size(); ++i) {
             const std::int64_t lower = total * w[i] / sum;
-            EXPECT_TRUE(parts[i] == lower || parts[i] == lower + 1) << "quota rule broken at part " << i;
+            EXPECT_TRUE(parts[i] == lower || parts[i] == lower + 1)
+                << "quota rule broken at part " << i;
         }
     }
 }

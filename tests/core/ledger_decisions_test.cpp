@@ -18,7 +18,8 @@ protected:
         drop = makeDrop({"0412", "412", "A"}, {"cases"}, "2026-03-01", 10);
         setSeries(drop, 0, 0, {10, 12, 0, 0, 0, 95, 11, 10, -4, 9});
         setSeries(drop, 0, 1, {5, 0, 0, 0, 13, 0, 0, 0, 0, 0});
-        for (int d = 1; d <= 3; ++d) setAbsent(drop, 0, 1, d);
+        for (int d = 1; d <= 3; ++d)
+            setAbsent(drop, 0, 1, d);
         setSeries(drop, 0, 2, {20, 22, 24, 26, 28, 30, 32, 100, 34, 36});
         cleaned = Cleaned(drop);
     }
@@ -31,8 +32,9 @@ protected:
 
 TEST_F(Decisions, UniformRedistributionSplitsByLargestRemainderAndKeepsTheTotal) {
     // 80 over 3 days: quotas 26.67 each, floors 26 (78), 2 left to the lowest indices (ties).
-    record(drop, ledger, cleaned, redistribution("0412", "2026-03-06", 80, "2026-03-03", "2026-03-05",
-                                                 RedistributeMethod::Uniform));
+    record(drop, ledger, cleaned,
+           redistribution("0412", "2026-03-06", 80, "2026-03-03", "2026-03-05",
+                          RedistributeMethod::Uniform));
     EXPECT_EQ(values(cleaned, 0, 0), (V{10, 12, 27, 27, 26, 15, 11, 10, -4, 9}));
     EXPECT_EQ(cleaned.total(0, 0), 143);
     ASSERT_EQ(ledger.entries.size(), 1u);
@@ -50,8 +52,9 @@ TEST_F(Decisions, UniformRedistributionSplitsByLargestRemainderAndKeepsTheTotal)
 
 TEST_F(Decisions, ProportionalRedistributionFollowsTheValuesInTheWindow) {
     // 11 over (10, 12): 110/22 = 5 and 132/22 = 6 exactly.
-    record(drop, ledger, cleaned, redistribution("0412", "2026-03-06", 11, "2026-03-01", "2026-03-02",
-                                                 RedistributeMethod::Proportional));
+    record(drop, ledger, cleaned,
+           redistribution("0412", "2026-03-06", 11, "2026-03-01", "2026-03-02",
+                          RedistributeMethod::Proportional));
     EXPECT_EQ(values(cleaned, 0, 0), (V{15, 18, 0, 0, 0, 84, 11, 10, -4, 9}));
 }
 
@@ -66,7 +69,8 @@ TEST_F(Decisions, BaselineRedistributionFollowsACentredMovingAverageWithoutTheDu
     // Width 3 worked by hand: averages (26+28+30)/3 = 28, (28+30+32)/3 = 30, (30+32)/2 = 31
     // (the dump day 03-08 left out). 60 x 28/89 = 18.88, 60 x 30/89 = 20.22, 60 x 31/89 = 20.90:
     // floors 18, 20, 20 (58); the 2 left go to the remainders .90 and .88 -> 19, 20, 21.
-    Decision d = redistribution("A", "2026-03-08", 60, "2026-03-05", "2026-03-07", RedistributeMethod::Baseline);
+    Decision d = redistribution("A", "2026-03-08", 60, "2026-03-05", "2026-03-07",
+                                RedistributeMethod::Baseline);
     d.baselineWidth = 3;
     record(drop, ledger, cleaned, d);
     EXPECT_EQ(values(cleaned, 0, 2), (V{20, 22, 24, 26, 47, 50, 53, 40, 34, 36}));
@@ -117,7 +121,8 @@ TEST_F(Decisions, SpreadNegativeThatWouldMakeDaysNegativeIsRefused) {
     EXPECT_FALSE(preview(d).ok());
 }
 
-Decision fill(FillMethod method, const char* first = "2026-03-02", const char* last = "2026-03-04") {
+Decision fill(FillMethod method, const char* first = "2026-03-02",
+              const char* last = "2026-03-04") {
     Decision d;
     d.kind = DecisionKind::FillMissing;
     d.region = "412";
@@ -176,7 +181,8 @@ protected:
         d.duplicateRule = rule;
         auto e = preview(d);
         EXPECT_TRUE(e.ok());
-        if (!e.ok() || e->cells.empty()) return cleaned.cell(0, 2, 0).value;
+        if (!e.ok() || e->cells.empty())
+            return cleaned.cell(0, 2, 0).value;
         return e->cells[0].after.value;
     }
 };
@@ -212,11 +218,13 @@ TEST_F(Decisions, MergeCodesFoldsTheVariantIntoTheCanonicalCode) {
     EXPECT_EQ(values(cleaned, 0, 0), (V{15, 12, 0, 0, 13, 95, 11, 10, -4, 9}));
     EXPECT_EQ(cleaned.total(0, 0), 161);
     EXPECT_EQ(cleaned.total(0, 1), 0);
-    for (std::int32_t d = 0; d < 10; ++d) EXPECT_EQ(cleaned.cell(0, 1, d).state, CleanedState::Merged);
+    for (std::int32_t d = 0; d < 10; ++d)
+        EXPECT_EQ(cleaned.cell(0, 1, d).state, CleanedState::Merged);
     ASSERT_EQ(e.effect.totals.size(), 2u);
     EXPECT_EQ(e.effect.netChange(), 0);
     // The variant can no longer be decided on.
-    auto r = preview(redistribution("412", "2026-03-05", 3, "2026-03-01", "2026-03-02", RedistributeMethod::Uniform));
+    auto r = preview(redistribution("412", "2026-03-05", 3, "2026-03-01", "2026-03-02",
+                                    RedistributeMethod::Uniform));
     EXPECT_FALSE(r.ok());
 }
 
@@ -245,8 +253,9 @@ TEST_F(Decisions, AcceptChangesNothingButIsRecordedWithTheTotals) {
 
 TEST_F(Decisions, WithdrawRestoresTheValuesAndWithdrawingTheWithdrawalRedoesIt) {
     const V raw = values(cleaned, 0, 0);
-    record(drop, ledger, cleaned, redistribution("0412", "2026-03-06", 80, "2026-03-03", "2026-03-05",
-                                                 RedistributeMethod::Uniform));
+    record(drop, ledger, cleaned,
+           redistribution("0412", "2026-03-06", 80, "2026-03-03", "2026-03-05",
+                          RedistributeMethod::Uniform));
     const V redistributed = values(cleaned, 0, 0);
     record(drop, ledger, cleaned, withdrawal(1));
     EXPECT_EQ(values(cleaned, 0, 0), raw);
@@ -257,19 +266,23 @@ TEST_F(Decisions, WithdrawRestoresTheValuesAndWithdrawingTheWithdrawalRedoesIt) 
     EXPECT_FALSE(cleaned.inEffect(2));
     // Every cell knows which entries touched it, history included.
     const auto touched = cleaned.touchedBy(0, 0, 2);
-    EXPECT_EQ(std::vector<std::uint64_t>(touched.begin(), touched.end()), (std::vector<std::uint64_t>{1, 2, 3}));
+    EXPECT_EQ(std::vector<std::uint64_t>(touched.begin(), touched.end()),
+              (std::vector<std::uint64_t>{1, 2, 3}));
     EXPECT_TRUE(cleaned.touchedBy(0, 0, 0).empty());
 }
 
 TEST_F(Decisions, UndoIsLastInFirstOutOnSharedCells) {
     const V raw = values(cleaned, 0, 0);
-    record(drop, ledger, cleaned, redistribution("0412", "2026-03-06", 30, "2026-03-03", "2026-03-05",
-                                                 RedistributeMethod::Uniform));
-    record(drop, ledger, cleaned, redistribution("0412", "2026-03-06", 20, "2026-03-04", "2026-03-05",
-                                                 RedistributeMethod::Uniform));
+    record(drop, ledger, cleaned,
+           redistribution("0412", "2026-03-06", 30, "2026-03-03", "2026-03-05",
+                          RedistributeMethod::Uniform));
+    record(drop, ledger, cleaned,
+           redistribution("0412", "2026-03-06", 20, "2026-03-04", "2026-03-05",
+                          RedistributeMethod::Uniform));
     auto refused = preview(withdrawal(1));
     ASSERT_FALSE(refused.ok());
-    EXPECT_NE(refused.error().message.find("withdraw entry 2 first"), std::string::npos) << refused.error().message;
+    EXPECT_NE(refused.error().message.find("withdraw entry 2 first"), std::string::npos)
+        << refused.error().message;
     // Undo, undo (as a GUI undo stack does), then redo both.
     record(drop, ledger, cleaned, withdrawal(2));
     record(drop, ledger, cleaned, withdrawal(1));
@@ -302,7 +315,8 @@ TEST_F(Decisions, AnEntryNeedsAReasonAndTheRightDrop) {
 }
 
 TEST_F(Decisions, PreviewDoesNotChangeAnything) {
-    auto e = preview(redistribution("0412", "2026-03-06", 80, "2026-03-03", "2026-03-05", RedistributeMethod::Uniform));
+    auto e = preview(redistribution("0412", "2026-03-06", 80, "2026-03-03", "2026-03-05",
+                                    RedistributeMethod::Uniform));
     ASSERT_TRUE(e.ok());
     EXPECT_EQ(e->cells.size(), 4u);
     EXPECT_EQ(cleaned.entryCount(), 0u);
@@ -310,11 +324,13 @@ TEST_F(Decisions, PreviewDoesNotChangeAnything) {
 }
 
 TEST_F(Decisions, UnknownRegionMeasureOrDayIsNamed) {
-    auto r = preview(redistribution("9999", "2026-03-06", 1, "2026-03-03", "2026-03-05", RedistributeMethod::Uniform));
+    auto r = preview(redistribution("9999", "2026-03-06", 1, "2026-03-03", "2026-03-05",
+                                    RedistributeMethod::Uniform));
     ASSERT_FALSE(r.ok());
     EXPECT_EQ(r.error().code, ErrorCode::NotFound);
     EXPECT_EQ(r.error().region, "9999");
-    auto late = preview(redistribution("0412", "2026-04-06", 1, "2026-03-03", "2026-03-05", RedistributeMethod::Uniform));
+    auto late = preview(redistribution("0412", "2026-04-06", 1, "2026-03-03", "2026-03-05",
+                                       RedistributeMethod::Uniform));
     ASSERT_FALSE(late.ok());
     EXPECT_EQ(late.error().date, "2026-04-06");
 }

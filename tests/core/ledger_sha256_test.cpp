@@ -11,7 +11,8 @@ namespace {
 
 // FIPS 180-2, Appendix B.1 "SHA-256 Example (One-Block Message)": "abc".
 TEST(LedgerSha256, MatchesTheFips180OneBlockExample) {
-    EXPECT_EQ(detail::sha256HexOf("abc"), "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
+    EXPECT_EQ(detail::sha256HexOf("abc"),
+              "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
 }
 
 // FIPS 180-2, Appendix B.2 "SHA-256 Example (Multi-Block Message)".
@@ -29,7 +30,8 @@ TEST(LedgerSha256, MatchesTheFips180LongMessageExample) {
 // The empty message, from the NIST CSRC "Example Values" for SHA-256 (SHA256.pdf),
 // value quoted from memory.
 TEST(LedgerSha256, MatchesTheEmptyMessageValue) {
-    EXPECT_EQ(detail::sha256HexOf(""), "e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855");
+    EXPECT_EQ(detail::sha256HexOf(""),
+              "e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855");
 }
 
 }  // namespace

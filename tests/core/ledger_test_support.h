@@ -14,11 +14,14 @@
 
 namespace siftwave::testing {
 
-inline Date day(const char* iso) { return *Date::fromIso(iso); }
+inline Date day(const char* iso) {
+    return *Date::fromIso(iso);
+}
 
 /// A drop of `regions` x `days` for the given measures, every cell absent.
-inline Drop makeDrop(std::vector<std::string> regions, std::vector<std::string> measures, const char* firstDay,
-                     std::int32_t days, std::string sha = std::string(64, 'a')) {
+inline Drop makeDrop(std::vector<std::string> regions, std::vector<std::string> measures,
+                     const char* firstDay, std::int32_t days,
+                     std::string sha = std::string(64, 'a')) {
     Drop drop;
     drop.source.path = "hand-built.csv";
     drop.source.sha256 = std::move(sha);
@@ -26,13 +29,15 @@ inline Drop makeDrop(std::vector<std::string> regions, std::vector<std::string> 
     drop.measures = std::move(measures);
     drop.firstDay = day(firstDay);
     drop.days = days;
-    for (std::size_t m = 0; m < drop.measures.size(); ++m) drop.tables.emplace_back(drop.regionCodes.size(), days);
+    for (std::size_t m = 0; m < drop.measures.size(); ++m)
+        drop.tables.emplace_back(drop.regionCodes.size(), days);
     drop.indexRegions();
     return drop;
 }
 
 /// Sets a region's series of one measure to reported values, line numbers made up.
-inline void setSeries(Drop& drop, std::size_t measure, std::size_t region, std::initializer_list<int> values) {
+inline void setSeries(Drop& drop, std::size_t measure, std::size_t region,
+                      std::initializer_list<int> values) {
     std::int32_t d = 0;
     for (int v : values) {
         Cell& c = drop.tables[measure].at(region, static_cast<std::size_t>(d));
@@ -47,14 +52,17 @@ inline void setAbsent(Drop& drop, std::size_t measure, std::size_t region, std::
     drop.tables[measure].at(region, static_cast<std::size_t>(d)) = Cell{};
 }
 
-inline std::vector<std::int64_t> values(const Cleaned& cleaned, std::size_t measure, std::size_t region) {
+inline std::vector<std::int64_t> values(const Cleaned& cleaned, std::size_t measure,
+                                        std::size_t region) {
     std::vector<std::int64_t> out;
-    for (const CleanedCell& c : cleaned.series(measure, region)) out.push_back(c.hasValue() ? c.value : -999);
+    for (const CleanedCell& c : cleaned.series(measure, region))
+        out.push_back(c.hasValue() ? c.value : -999);
     return out;
 }
 
 /// Records a decision through the one door and returns its entry (fails the test on error).
-inline LedgerEntry record(const Drop& drop, Ledger& ledger, Cleaned& cleaned, const Decision& decision,
+inline LedgerEntry record(const Drop& drop, Ledger& ledger, Cleaned& cleaned,
+                          const Decision& decision,
                           const std::string& reason = "checked with the regional office") {
     EntryMeta meta;
     meta.author = "tester";
@@ -62,15 +70,16 @@ inline LedgerEntry record(const Drop& drop, Ledger& ledger, Cleaned& cleaned, co
     meta.reason = reason;
     auto entry = draftEntry(drop, ledger, cleaned, decision, meta);
     EXPECT_TRUE(entry.ok()) << (entry.ok() ? "" : entry.error().describe());
-    if (!entry.ok()) return {};
+    if (!entry.ok())
+        return {};
     auto applied = applyEntry(drop, cleaned, *entry);
     EXPECT_TRUE(applied.ok()) << (applied.ok() ? "" : applied.error().describe());
     ledger.entries.push_back(*entry);
     return *entry;
 }
 
-inline Decision redistribution(const std::string& region, const char* date, std::int64_t excess, const char* first,
-                               const char* last, RedistributeMethod method) {
+inline Decision redistribution(const std::string& region, const char* date, std::int64_t excess,
+                               const char* first, const char* last, RedistributeMethod method) {
     Decision d;
     d.kind = DecisionKind::Redistribute;
     d.region = region;

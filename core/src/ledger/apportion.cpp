@@ -8,17 +8,21 @@
 namespace siftwave {
 
 Result<std::vector<std::int64_t>> apportionLargestRemainder(std::int64_t total,
-                                                           std::span<const std::int64_t> weights) {
-    if (total < 0) return makeError(ErrorCode::InvalidValue, "cannot apportion a negative amount");
+                                                            std::span<const std::int64_t> weights) {
+    if (total < 0)
+        return makeError(ErrorCode::InvalidValue, "cannot apportion a negative amount");
     detail::WideInt weightSum = 0;
     for (std::int64_t w : weights) {
-        if (w < 0) return makeError(ErrorCode::InvalidValue, "apportionment weights must not be negative");
+        if (w < 0)
+            return makeError(ErrorCode::InvalidValue, "apportionment weights must not be negative");
         weightSum += w;
     }
     std::vector<std::int64_t> parts(weights.size(), 0);
-    if (total == 0) return parts;
+    if (total == 0)
+        return parts;
     if (weightSum == 0) {
-        return makeError(ErrorCode::InvalidValue, "cannot apportion over weights that are all zero");
+        return makeError(ErrorCode::InvalidValue,
+                         "cannot apportion over weights that are all zero");
     }
     // Exact quota total * w_i / W as floor and remainder.
     std::vector<detail::WideInt> remainders(weights.size(), 0);
@@ -34,7 +38,8 @@ Result<std::vector<std::int64_t>> apportionLargestRemainder(std::int64_t total,
     std::iota(order.begin(), order.end(), std::size_t{0});
     std::stable_sort(order.begin(), order.end(),
                      [&](std::size_t a, std::size_t b) { return remainders[a] > remainders[b]; });
-    for (std::size_t k = 0; k < order.size() && left > 0; ++k, --left) ++parts[order[k]];
+    for (std::size_t k = 0; k < order.size() && left > 0; ++k, --left)
+        ++parts[order[k]];
     return parts;
 }
 

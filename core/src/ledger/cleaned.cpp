@@ -4,31 +4,44 @@ namespace siftwave {
 
 const char* cleanedStateName(CleanedState state) {
     switch (state) {
-        case CleanedState::Reported: return "reported";
-        case CleanedState::Filled: return "filled";
-        case CleanedState::Absent: return "absent";
-        case CleanedState::Blank: return "blank";
-        case CleanedState::Unparsable: return "unparsable";
-        case CleanedState::Excluded: return "excluded";
-        case CleanedState::Merged: return "merged";
+        case CleanedState::Reported:
+            return "reported";
+        case CleanedState::Filled:
+            return "filled";
+        case CleanedState::Absent:
+            return "absent";
+        case CleanedState::Blank:
+            return "blank";
+        case CleanedState::Unparsable:
+            return "unparsable";
+        case CleanedState::Excluded:
+            return "excluded";
+        case CleanedState::Merged:
+            return "merged";
     }
     return "absent";
 }
 
 std::optional<CleanedState> cleanedStateFromName(std::string_view name) {
-    for (auto s : {CleanedState::Reported, CleanedState::Filled, CleanedState::Absent, CleanedState::Blank,
-                   CleanedState::Unparsable, CleanedState::Excluded, CleanedState::Merged}) {
-        if (name == cleanedStateName(s)) return s;
+    for (auto s :
+         {CleanedState::Reported, CleanedState::Filled, CleanedState::Absent, CleanedState::Blank,
+          CleanedState::Unparsable, CleanedState::Excluded, CleanedState::Merged}) {
+        if (name == cleanedStateName(s))
+            return s;
     }
     return std::nullopt;
 }
 
 CleanedState cleanedStateOf(CellState raw) {
     switch (raw) {
-        case CellState::Reported: return CleanedState::Reported;
-        case CellState::Absent: return CleanedState::Absent;
-        case CellState::Blank: return CleanedState::Blank;
-        case CellState::Unparsable: return CleanedState::Unparsable;
+        case CellState::Reported:
+            return CleanedState::Reported;
+        case CellState::Absent:
+            return CleanedState::Absent;
+        case CellState::Blank:
+            return CleanedState::Blank;
+        case CellState::Unparsable:
+            return CleanedState::Unparsable;
     }
     return CleanedState::Absent;
 }
@@ -55,14 +68,16 @@ Cleaned::Cleaned(const Drop& drop)
 }
 
 std::span<const std::uint64_t> Cleaned::touchedBy(std::size_t measure, std::size_t region,
-                                                 std::int32_t day) const {
+                                                  std::int32_t day) const {
     auto it = m_touches.find(index(measure, region, day));
-    if (it == m_touches.end()) return {};
+    if (it == m_touches.end())
+        return {};
     return it->second;
 }
 
 bool Cleaned::inEffect(std::uint64_t sequence) const {
-    if (sequence == 0 || sequence > m_inEffect.size()) return false;
+    if (sequence == 0 || sequence > m_inEffect.size())
+        return false;
     return m_inEffect[sequence - 1];
 }
 

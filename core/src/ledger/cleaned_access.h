@@ -6,18 +6,24 @@
 namespace siftwave {
 
 struct Cleaned::Access {
-    static std::size_t cellIndex(const Cleaned& c, std::size_t measure, std::size_t region, std::int32_t day) {
+    static std::size_t cellIndex(const Cleaned& c, std::size_t measure, std::size_t region,
+                                 std::int32_t day) {
         return c.index(measure, region, day);
     }
-    static CleanedCell& cell(Cleaned& c, std::size_t measure, std::size_t region, std::int32_t day) {
+    static CleanedCell& cell(Cleaned& c, std::size_t measure, std::size_t region,
+                             std::int32_t day) {
         return c.m_cells[c.index(measure, region, day)];
     }
     static std::int64_t& total(Cleaned& c, std::size_t measure, std::size_t region) {
         return c.m_totals[measure * c.m_regions + region];
     }
-    static std::vector<std::uint64_t>& touches(Cleaned& c, std::size_t cellIndex) { return c.m_touches[cellIndex]; }
+    static std::vector<std::uint64_t>& touches(Cleaned& c, std::size_t cellIndex) {
+        return c.m_touches[cellIndex];
+    }
     /// Entries in effect on a cell, oldest first (withdrawals are never on it).
-    static std::vector<std::uint64_t>& writers(Cleaned& c, std::size_t cellIndex) { return c.m_writers[cellIndex]; }
+    static std::vector<std::uint64_t>& writers(Cleaned& c, std::size_t cellIndex) {
+        return c.m_writers[cellIndex];
+    }
     static const std::vector<std::uint64_t>* writersIfAny(const Cleaned& c, std::size_t cellIndex) {
         auto it = c.m_writers.find(cellIndex);
         return it == c.m_writers.end() ? nullptr : &it->second;
@@ -27,14 +33,18 @@ struct Cleaned::Access {
         c.m_applied.push_back(Applied{kind, target, std::move(effect)});
         ++c.m_entryCount;
     }
-    static DecisionKind kindOf(const Cleaned& c, std::uint64_t sequence) { return c.m_applied[sequence - 1].kind; }
+    static DecisionKind kindOf(const Cleaned& c, std::uint64_t sequence) {
+        return c.m_applied[sequence - 1].kind;
+    }
     static std::uint64_t targetOf(const Cleaned& c, std::uint64_t sequence) {
         return c.m_applied[sequence - 1].target;
     }
     static const Effect& effectOf(const Cleaned& c, std::uint64_t sequence) {
         return c.m_applied[sequence - 1].effect;
     }
-    static void setInEffect(Cleaned& c, std::uint64_t sequence, bool value) { c.m_inEffect[sequence - 1] = value; }
+    static void setInEffect(Cleaned& c, std::uint64_t sequence, bool value) {
+        c.m_inEffect[sequence - 1] = value;
+    }
 };
 
 }  // namespace siftwave

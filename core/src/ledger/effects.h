@@ -14,6 +14,7 @@ Result<Effect> deriveEffect(const Drop& drop, const Cleaned& cleaned, const Deci
 
 /// Moves `cleaned` on by one entry with sequence number cleaned.entryCount() + 1.
 /// `effect` must come from deriveEffect on the same state.
-Status applyEffect(const Drop& drop, Cleaned& cleaned, const Decision& decision, const Effect& effect);
+Status applyEffect(const Drop& drop, Cleaned& cleaned, const Decision& decision,
+                   const Effect& effect);
 
 }  // namespace siftwave::detail

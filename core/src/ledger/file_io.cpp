@@ -2,15 +2,15 @@
 
 #include <openssl/evp.h>
 
+#include <fcntl.h>
+#include <sys/stat.h>
+#include <unistd.h>
 #include <cerrno>
 #include <cstdio>
 #include <cstring>
-#include <fcntl.h>
 #include <filesystem>
 #include <fstream>
 #include <sstream>
-#include <sys/stat.h>
-#include <unistd.h>
 #include <vector>
 
 namespace siftwave::detail {
@@ -29,19 +29,22 @@ Status writeFileAtomically(const std::string& path, std::string_view bytes) {
     namespace fs = std::filesystem;
     const fs::path target(path);
     fs::path folder = target.parent_path();
-    if (folder.empty()) folder = ".";
+    if (folder.empty())
+        folder = ".";
     std::string temp = (folder / ("." + target.filename().string() + ".tmp-XXXXXX")).string();
     std::vector<char> name(temp.begin(), temp.end());
     name.push_back('\0');
     const int fd = ::mkstemp(name.data());
-    if (fd < 0) return ioError(path, "cannot create a temporary file beside it");
+    if (fd < 0)
+        return ioError(path, "cannot create a temporary file beside it");
     const std::string tempPath(name.data());
     const char* data = bytes.data();
     std::size_t left = bytes.size();
     while (left > 0) {
         const ssize_t n = ::write(fd, data, left);
         if (n < 0) {
-            if (errno == EINTR) continue;
+            if (errno == EINTR)
+                continue;
             Error e = ioError(path, "cannot write");
             ::close(fd);
             ::unlink(tempPath.c_str());
@@ -82,10 +85,12 @@ Result<std::string> readWholeFile(const std::string& path) {
         return e;
     }
     std::ifstream in(path, std::ios::binary);
-    if (!in) return ioError(path, "cannot open");
+    if (!in)
+        return ioError(path, "cannot open");
     std::ostringstream buffer;
     buffer << in.rdbuf();
-    if (in.bad()) return ioError(path, "cannot read");
+    if (in.bad())
+        return ioError(path, "cannot read");
     return buffer.str();
 }
 

@@ -2,12 +2,12 @@
 
 #include "ledger/file_io.h"
 
-#include <cerrno>
-#include <cstring>
 #include <fcntl.h>
-#include <filesystem>
 #include <sys/stat.h>
 #include <unistd.h>
+#include <cerrno>
+#include <cstring>
+#include <filesystem>
 
 namespace siftwave {
 
@@ -21,9 +21,11 @@ Result<Ledger> parseLedger(std::string_view bytes, const std::string& displayPat
         const bool torn = end == std::string_view::npos;
         const std::string_view line = bytes.substr(pos, torn ? std::string_view::npos : end - pos);
         if (torn) {
-            Error e = makeError(ErrorCode::Integrity,
-                                "the last line is incomplete (no line end): a write was interrupted. The entry on it "
-                                "was never completed; remove that line to continue, then make the decision again");
+            Error e = makeError(
+                ErrorCode::Integrity,
+                "the last line is incomplete (no line end): a write was interrupted. The entry on "
+                "it "
+                "was never completed; remove that line to continue, then make the decision again");
             e.file = displayPath;
             e.line = lineNumber;
             return e;
@@ -55,13 +57,15 @@ Result<Ledger> readLedgerFile(const std::string& path) {
         return e;
     }
     auto bytes = detail::readWholeFile(path);
-    if (!bytes) return bytes.error();
+    if (!bytes)
+        return bytes.error();
     return parseLedger(*bytes, path);
 }
 
 Status appendLedgerEntry(const std::string& path, const LedgerEntry& entry) {
     auto line = entryLine(entry);
-    if (!line) return line.error();
+    if (!line)
+        return line.error();
     std::string bytes = *line + "\n";
     auto fail = [&](const char* what) {
         Error e = makeError(ErrorCode::Io, std::string(what) + ": " + std::strerror(errno));
@@ -71,13 +75,15 @@ Status appendLedgerEntry(const std::string& path, const LedgerEntry& entry) {
     std::error_code ec;
     const bool created = !std::filesystem::exists(path, ec);
     const int fd = ::open(path.c_str(), O_WRONLY | O_APPEND | O_CREAT | O_CLOEXEC, 0644);
-    if (fd < 0) return fail("cannot open the ledger for appending");
+    if (fd < 0)
+        return fail("cannot open the ledger for appending");
     const char* data = bytes.data();
     std::size_t left = bytes.size();
     while (left > 0) {
         const ssize_t n = ::write(fd, data, left);
         if (n < 0) {
-            if (errno == EINTR) continue;
+            if (errno == EINTR)
+                continue;
             Error e = fail("cannot append to the ledger");
             ::close(fd);
             return e;
@@ -90,10 +96,12 @@ Status appendLedgerEntry(const std::string& path, const LedgerEntry& entry) {
         ::close(fd);
         return e;
     }
-    if (::close(fd) != 0) return fail("cannot close the ledger");
+    if (::close(fd) != 0)
+        return fail("cannot close the ledger");
     if (created) {
         std::filesystem::path folder = std::filesystem::path(path).parent_path();
-        if (folder.empty()) folder = ".";
+        if (folder.empty())
+            folder = ".";
         const int dirFd = ::open(folder.c_str(), O_RDONLY | O_DIRECTORY);
         if (dirFd >= 0) {
             ::fsync(dirFd);

@@ -13,14 +13,18 @@ using nlohmann::json;
 namespace {
 
 bool isHex64(const std::string& s) {
-    if (s.size() != 64) return false;
+    if (s.size() != 64)
+        return false;
     for (char c : s) {
-        if (!((c >= '0' && c <= '9') || (c >= 'a' && c <= 'f'))) return false;
+        if (!((c >= '0' && c <= '9') || (c >= 'a' && c <= 'f')))
+            return false;
     }
     return true;
 }
 
-json optionalDate(const std::optional<Date>& d) { return d ? json(d->iso()) : json(nullptr); }
+json optionalDate(const std::optional<Date>& d) {
+    return d ? json(d->iso()) : json(nullptr);
+}
 
 Error projectError(const std::string& path, std::string message) {
     Error e = makeError(ErrorCode::Syntax, std::move(message));
@@ -31,27 +35,33 @@ Error projectError(const std::string& path, std::string message) {
 }  // namespace
 
 Status ProjectFile::validate() const {
-    if (dropPath.empty()) return makeError(ErrorCode::Usage, "the project needs the drop's path");
-    if (ledgerPath.empty()) return makeError(ErrorCode::Usage, "the project needs the ledger's path");
-    if (!isHex64(dropSha256)) return makeError(ErrorCode::Usage, "the drop's SHA-256 must be 64 lower-case hex digits");
+    if (dropPath.empty())
+        return makeError(ErrorCode::Usage, "the project needs the drop's path");
+    if (ledgerPath.empty())
+        return makeError(ErrorCode::Usage, "the project needs the ledger's path");
+    if (!isHex64(dropSha256))
+        return makeError(ErrorCode::Usage, "the drop's SHA-256 must be 64 lower-case hex digits");
     if (!previousDropPath.empty() && !isHex64(previousDropSha256)) {
-        return makeError(ErrorCode::Usage, "the previous drop's SHA-256 must be 64 lower-case hex digits");
+        return makeError(ErrorCode::Usage,
+                         "the previous drop's SHA-256 must be 64 lower-case hex digits");
     }
     if (!ledgerHeadHash.empty() && !isHex64(ledgerHeadHash)) {
         return makeError(ErrorCode::Usage, "the ledger head hash must be 64 lower-case hex digits");
     }
-    if (fit.smoothingDays < 1) return makeError(ErrorCode::Usage, "the smoothing width must be at least 1 day");
+    if (fit.smoothingDays < 1)
+        return makeError(ErrorCode::Usage, "the smoothing width must be at least 1 day");
     return Ok{};
 }
 
 Status writeProjectFile(const std::string& path, const ProjectFile& p) {
-    if (auto s = p.validate(); !s) return s;
+    if (auto s = p.validate(); !s)
+        return s;
     json j{{"format", "siftwave-project"},
            {"version", 1},
            {"drop", {{"path", p.dropPath}, {"sha256", p.dropSha256}}},
-           {"previous_drop", p.previousDropPath.empty()
-                                 ? json(nullptr)
-                                 : json{{"path", p.previousDropPath}, {"sha256", p.previousDropSha256}}},
+           {"previous_drop", p.previousDropPath.empty() ? json(nullptr)
+                                                        : json{{"path", p.previousDropPath},
+                                                               {"sha256", p.previousDropSha256}}},
            {"register", p.registerPath.empty() ? json(nullptr) : json{{"path", p.registerPath}}},
            {"ledger",
             {{"path", p.ledgerPath},
@@ -74,7 +84,8 @@ Status writeProjectFile(const std::string& path, const ProjectFile& p) {
     try {
         text = j.dump(2, ' ', false, json::error_handler_t::strict) + "\n";
     } catch (const std::exception& ex) {
-        Error e = makeError(ErrorCode::Encoding, std::string("the project holds text that is not UTF-8: ") + ex.what());
+        Error e = makeError(ErrorCode::Encoding,
+                            std::string("the project holds text that is not UTF-8: ") + ex.what());
         e.file = path;
         return e;
     }
@@ -83,19 +94,25 @@ Status writeProjectFile(const std::string& path, const ProjectFile& p) {
 
 Result<ProjectFile> readProjectFile(const std::string& path) {
     auto bytes = detail::readWholeFile(path);
-    if (!bytes) return bytes.error();
+    if (!bytes)
+        return bytes.error();
     json j = json::parse(*bytes, nullptr, false);
-    if (j.is_discarded() || !j.is_object()) return projectError(path, "the project file is not a JSON object");
+    if (j.is_discarded() || !j.is_object())
+        return projectError(path, "the project file is not a JSON object");
     if (j.value("format", std::string()) != "siftwave-project") {
-        return projectError(path, "not a Siftwave project file (no \"format\": \"siftwave-project\")");
+        return projectError(path,
+                            "not a Siftwave project file (no \"format\": \"siftwave-project\")");
     }
-    if (j.value("version", 0) != 1) return projectError(path, "unsupported project file version");
+    if (j.value("version", 0) != 1)
+        return projectError(path, "unsupported project file version");
     ProjectFile p;
     try {
         auto date = [&](const json& obj, const char* key) -> Result<std::optional<Date>> {
-            if (!obj.contains(key) || obj.at(key).is_null()) return std::optional<Date>();
+            if (!obj.contains(key) || obj.at(key).is_null())
+                return std::optional<Date>();
             auto d = Date::fromIso(obj.at(key).get<std::string>());
-            if (!d) return projectError(path, std::string("\"") + key + "\" is not an ISO 8601 date");
+            if (!d)
+                return projectError(path, std::string("\"") + key + "\" is not an ISO 8601 date");
             return std::optional<Date>(*d);
         };
         const json& drop = j.at("drop");
@@ -118,10 +135,12 @@ Result<ProjectFile> readProjectFile(const std::string& path) {
             p.view.measure = v.value("measure", std::string());
             p.view.secondMeasure = v.value("second_measure", std::string());
             auto a = date(v, "visible_first");
-            if (!a) return a.error();
+            if (!a)
+                return a.error();
             p.view.visibleFirst = *a;
             auto b = date(v, "visible_last");
-            if (!b) return b.error();
+            if (!b)
+                return b.error();
             p.view.visibleLast = *b;
         }
         if (j.contains("fit")) {
@@ -130,13 +149,16 @@ Result<ProjectFile> readProjectFile(const std::string& path) {
             p.fit.method = f.value("method", p.fit.method);
             p.fit.smoothingDays = f.value("smoothing_days", p.fit.smoothingDays);
             auto a = date(f, "window_first");
-            if (!a) return a.error();
+            if (!a)
+                return a.error();
             p.fit.windowFirst = *a;
             auto b = date(f, "window_last");
-            if (!b) return b.error();
+            if (!b)
+                return b.error();
             p.fit.windowLast = *b;
         }
-        if (j.contains("extra")) p.extra = j.at("extra").get<std::map<std::string, std::string>>();
+        if (j.contains("extra"))
+            p.extra = j.at("extra").get<std::map<std::string, std::string>>();
     } catch (const std::exception& ex) {
         return projectError(path, std::string("malformed project file: ") + ex.what());
     }
@@ -151,14 +173,17 @@ Result<ProjectFile> readProjectFile(const std::string& path) {
 
 std::string resolveProjectPath(const std::string& projectPath, const std::string& relative) {
     namespace fs = std::filesystem;
-    if (relative.empty() || fs::path(relative).is_absolute()) return relative;
+    if (relative.empty() || fs::path(relative).is_absolute())
+        return relative;
     return (fs::path(projectPath).parent_path() / relative).lexically_normal().string();
 }
 
 Status checkLedgerHead(const ProjectFile& project, const Ledger& ledger) {
-    if (project.ledgerEntries == 0) return Ok{};
+    if (project.ledgerEntries == 0)
+        return Ok{};
     if (ledger.entries.size() < project.ledgerEntries) {
-        Error e = makeError(ErrorCode::Integrity, "the ledger has " + std::to_string(ledger.entries.size()) +
+        Error e = makeError(ErrorCode::Integrity, "the ledger has " +
+                                                      std::to_string(ledger.entries.size()) +
                                                       " entries but the project recorded " +
                                                       std::to_string(project.ledgerEntries) +
                                                       "; entries were removed from its end");
@@ -166,8 +191,9 @@ Status checkLedgerHead(const ProjectFile& project, const Ledger& ledger) {
         return e;
     }
     if (ledger.entries[project.ledgerEntries - 1].hash != project.ledgerHeadHash) {
-        Error e = makeError(ErrorCode::Integrity, "entry " + std::to_string(project.ledgerEntries) +
-                                                      " is not the one the project recorded; the ledger was replaced");
+        Error e = makeError(ErrorCode::Integrity,
+                            "entry " + std::to_string(project.ledgerEntries) +
+                                " is not the one the project recorded; the ledger was replaced");
         e.file = project.ledgerPath;
         e.line = project.ledgerEntries;
         return e;

@@ -29,6 +29,6 @@ namespace siftwave {
 /// Errors (InvalidValue): total < 0, a negative weight, or all weights zero
 /// while total > 0. With total == 0 every part is 0.
 Result<std::vector<std::int64_t>> apportionLargestRemainder(std::int64_t total,
-                                                           std::span<const std::int64_t> weights);
+                                                            std::span<const std::int64_t> weights);
 
 }  // namespace siftwave

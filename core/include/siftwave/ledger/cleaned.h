@@ -44,7 +44,9 @@ struct CleanedCell {
     std::int64_t value = 0;  // meaningful when hasValue()
     CleanedState state = CleanedState::Absent;
 
-    bool hasValue() const { return state == CleanedState::Reported || state == CleanedState::Filled; }
+    bool hasValue() const {
+        return state == CleanedState::Reported || state == CleanedState::Filled;
+    }
     /// What the cell adds to its region's total.
     std::int64_t counted() const { return hasValue() ? value : 0; }
     friend bool operator==(const CleanedCell&, const CleanedCell&) = default;
@@ -124,15 +126,15 @@ private:
     std::int32_t m_days = 0;
     std::vector<CleanedCell> m_cells;
     std::vector<std::int64_t> m_totals;
-    std::map<std::size_t, std::vector<std::uint64_t>> m_touches;      // cell index -> entries
-    std::map<std::size_t, std::vector<std::uint64_t>> m_writers;      // cell index -> entries in effect
-    std::vector<bool> m_inEffect;                                     // per entry, 0-based
+    std::map<std::size_t, std::vector<std::uint64_t>> m_touches;  // cell index -> entries
+    std::map<std::size_t, std::vector<std::uint64_t>> m_writers;  // cell index -> entries in effect
+    std::vector<bool> m_inEffect;                                 // per entry, 0-based
     struct Applied {
         DecisionKind kind = DecisionKind::Accept;
         std::uint64_t target = 0;
         Effect effect;
     };
-    std::vector<Applied> m_applied;                                   // per entry, 0-based
+    std::vector<Applied> m_applied;  // per entry, 0-based
     std::uint64_t m_entryCount = 0;
 };
 

@@ -81,18 +81,18 @@ struct Decision {
 
     std::string region;   // all kinds but merge_codes and withdraw; exclude: empty = every region
     std::string measure;  // cell kinds (required); exclude and accept: empty = every measure
-    std::optional<Date> date;         // redistribute (dump day), spread_negative, resolve_duplicate
-    std::optional<DayRange> window;   // redistribute (required), spread_negative (default: every
-                                      // earlier day), fill_missing (required), exclude, accept
+    std::optional<Date> date;        // redistribute (dump day), spread_negative, resolve_duplicate
+    std::optional<DayRange> window;  // redistribute (required), spread_negative (default: every
+                                     // earlier day), fill_missing (required), exclude, accept
 
     std::int64_t excess = 0;  // redistribute: counts to move, > 0
     RedistributeMethod redistributeMethod = RedistributeMethod::Uniform;
-    int baselineWidth = 7;    // redistribute/baseline: odd moving-average width, 3..21 (default 7)
+    int baselineWidth = 7;  // redistribute/baseline: odd moving-average width, 3..21 (default 7)
     FillMethod fillMethod = FillMethod::Zero;
     DuplicateRule duplicateRule = DuplicateRule::First;
 
-    std::string variant;      // merge_codes: the code folded away (e.g. "412")
-    std::string into;         // merge_codes: the canonical code kept (e.g. "0412")
+    std::string variant;  // merge_codes: the code folded away (e.g. "412")
+    std::string into;     // merge_codes: the canonical code kept (e.g. "0412")
 
     std::uint64_t target = 0;  // withdraw: sequence number of the entry undone
 
@@ -105,7 +105,8 @@ struct Decision {
 /// Stable names used in the ledger file and on the command line.
 const char* decisionKindName(DecisionKind kind);  // "redistribute", "spread_negative", ...
 std::optional<DecisionKind> decisionKindFromName(std::string_view name);
-const char* redistributeMethodName(RedistributeMethod method);  // "uniform", "proportional", "baseline"
+const char* redistributeMethodName(
+    RedistributeMethod method);  // "uniform", "proportional", "baseline"
 std::optional<RedistributeMethod> redistributeMethodFromName(std::string_view name);
 const char* fillMethodName(FillMethod method);  // "zero", "linear", "share"
 std::optional<FillMethod> fillMethodFromName(std::string_view name);

@@ -34,19 +34,21 @@ struct LedgerEntry {
     std::uint64_t sequence = 0;  // 1-based position in the ledger; the entry's id
     std::string timestamp;       // UTC, ISO 8601 "YYYY-MM-DDTHH:MM:SSZ"
     std::string author;
-    std::string reason;          // required, not blank
+    std::string reason;  // required, not blank
     Decision decision;
     Effect effect;
-    std::string dropSha256;      // lower-case hex
-    std::string previousHash;    // lower-case hex; 64 zeros for the first entry
-    std::string hash;            // lower-case hex of the canonical JSON without "hash"
+    std::string dropSha256;    // lower-case hex
+    std::string previousHash;  // lower-case hex; 64 zeros for the first entry
+    std::string hash;          // lower-case hex of the canonical JSON without "hash"
 };
 
 struct Ledger {
     std::vector<LedgerEntry> entries;
 
     /// The drop hash the entries are bound to ("" for an empty ledger).
-    std::string dropSha256() const { return entries.empty() ? std::string() : entries.front().dropSha256; }
+    std::string dropSha256() const {
+        return entries.empty() ? std::string() : entries.front().dropSha256;
+    }
     /// Hash of the last entry, or 64 zeros for an empty ledger.
     std::string headHash() const;
 };

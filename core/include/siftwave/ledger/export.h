@@ -53,7 +53,8 @@ struct ReconciliationRow {
 std::vector<bool> entriesInEffect(const Ledger& ledger);
 
 /// Every region and measure of the drop, from the drop and its replay.
-std::vector<ReconciliationRow> reconcile(const Drop& drop, const Cleaned& cleaned, const Ledger& ledger);
+std::vector<ReconciliationRow> reconcile(const Drop& drop, const Cleaned& cleaned,
+                                         const Ledger& ledger);
 /// Without the drop: the regions and measures the entries touched, the raw
 /// total being the first recorded "before" and the cleaned total the last "after".
 std::vector<ReconciliationRow> reconcileFromLedger(const Ledger& ledger);
@@ -64,7 +65,7 @@ std::optional<ReportFormat> reportFormatFromPath(std::string_view path);
 
 struct ReportContext {
     std::string ledgerPath;
-    std::string dropPath;    // "" when the report was made without the drop
+    std::string dropPath;  // "" when the report was made without the drop
     std::string dropSha256;
     bool chainVerified = false;
 };

@@ -24,30 +24,30 @@
 namespace siftwave {
 
 struct ProjectViewSettings {
-    std::string region;                 // selected region code ("" = none)
-    std::string measure;                // shown measure ("" = the first)
-    std::string secondMeasure;          // "" = none
-    std::optional<Date> visibleFirst;   // unset = the whole calendar
+    std::string region;                // selected region code ("" = none)
+    std::string measure;               // shown measure ("" = the first)
+    std::string secondMeasure;         // "" = none
+    std::optional<Date> visibleFirst;  // unset = the whole calendar
     std::optional<Date> visibleLast;
 };
 
 struct ProjectFitSettings {
-    std::string model = "gumbel";      // gumbel | logistic | richards | lognormal | best
-    std::string method = "lsq";        // lsq | poisson | negbin
-    std::optional<Date> windowFirst;   // unset = automatic window
+    std::string model = "gumbel";     // gumbel | logistic | richards | lognormal | best
+    std::string method = "lsq";       // lsq | poisson | negbin
+    std::optional<Date> windowFirst;  // unset = automatic window
     std::optional<Date> windowLast;
-    int smoothingDays = 7;             // centred moving-average width
+    int smoothingDays = 7;  // centred moving-average width
 };
 
 struct ProjectFile {
     std::string dropPath;
     std::string dropSha256;
-    std::string previousDropPath;    // "" = none
+    std::string previousDropPath;  // "" = none
     std::string previousDropSha256;
-    std::string registerPath;        // "" = none
+    std::string registerPath;  // "" = none
     std::string ledgerPath;
-    std::uint64_t ledgerEntries = 0; // entries the ledger had when saved
-    std::string ledgerHeadHash;      // hash of its last entry (64 zeros when empty)
+    std::uint64_t ledgerEntries = 0;  // entries the ledger had when saved
+    std::string ledgerHeadHash;       // hash of its last entry (64 zeros when empty)
     ProjectViewSettings view;
     ProjectFitSettings fit;
     std::map<std::string, std::string> extra;  // further settings, kept verbatim
