@@ -1,0 +1,108 @@
+#include "common.h"
+
+#include <cstdio>
+#include <iostream>
+
+namespace siftwave::cli {
+
+std::vector<FlagSpec> ingestFlagSpecs() {
+    return {
+        {"date-col", true, false, "NAME", "the column that holds the dates (default: detected)"},
+        {"region-col", true, false, "NAME",
+         "the column that holds the region codes (default: detected)"},
+        {"value-col", true, true, "NAME",
+         "a column of counts; each becomes a measure (default: detected)"},
+        {"measure-col", true, false, "NAME",
+         "long layout: the column that names the measure of each row"},
+        {"measure-name", true, false, "NAME",
+         "wide layouts: the name of the one measure (default: cases)"},
+        {"layout", true, false, "LAYOUT", "long, dates-down or dates-across (default: detected)"},
+        {"date-format", true, false, "FMT",
+         "YYYY-MM-DD, YYYYMMDD, DD/MM/YYYY or MM/DD/YYYY (default: detected)"},
+        {"delimiter", true, false, "C", "field delimiter: ',' ';' '|' or tab (default: detected)"},
+        {"header", false, false, "", "the first line is a header (default: detected)"},
+        {"no-header", false, false, "", "the first line is data"},
+        {"missing", true, true, "TOKEN",
+         "a cell text meaning 'no value', in addition to the empty cell (e.g. --missing NA for "
+         "values; never "
+         "applied to region codes)"},
+    };
+}
+
+Result<IngestOptions> ingestOptionsFrom(const ParsedArgs& args) {
+    IngestOptions o;
+    auto usage = [](std::string message) {
+        return makeError(ErrorCode::Usage, std::move(message));
+    };
+    o.dateColumn = args.value("date-col");
+    o.regionColumn = args.value("region-col");
+    o.valueColumns = args.values("value-col");
+    o.measureColumn = args.value("measure-col");
+    o.measureName = args.value("measure-name");
+    o.dateFormat = args.value("date-format");
+    if (auto layout = args.optionalValue("layout")) {
+        o.layout = layoutFromName(*layout);
+        if (!o.layout)
+            return usage("unknown layout '" + *layout + "'; use long, dates-down or dates-across");
+    }
+    if (auto d = args.optionalValue("delimiter")) {
+        if (*d == "tab" || *d == "\\t" || *d == "\t")
+            o.delimiter = '\t';
+        else if (*d == "comma")
+            o.delimiter = ',';
+        else if (*d == "semicolon")
+            o.delimiter = ';';
+        else if (*d == "pipe")
+            o.delimiter = '|';
+        else if (d->size() == 1)
+            o.delimiter = (*d)[0];
+        else
+            return usage("--delimiter takes one character (',' ';' '|') or 'tab', not '" + *d +
+                         "'");
+    }
+    if (args.has("header") && args.has("no-header"))
+        return usage("--header and --no-header contradict each other");
+    if (args.has("header"))
+        o.header = true;
+    if (args.has("no-header"))
+        o.header = false;
+    for (const std::string& token : args.values("missing"))
+        o.missingTokens.push_back(token);
+    if (Status s = o.validate(); !s)
+        return s.error();
+    return o;
+}
+
+Result<Drop> loadDrop(const std::string& path, const ParsedArgs& args) {
+    Result<IngestOptions> options = ingestOptionsFrom(args);
+    if (!options)
+        return options.error();
+    return readDrop(path, *options);
+}
+
+nlohmann::json errorToJson(const Error& error) {
+    nlohmann::json e = {{"code", errorCodeName(error.code)}, {"message", error.message}};
+    e["file"] = error.file.empty() ? nlohmann::json(nullptr) : nlohmann::json(error.file);
+    e["line"] = error.line > 0 ? nlohmann::json(error.line) : nlohmann::json(nullptr);
+    e["column"] = error.column > 0 ? nlohmann::json(error.column) : nlohmann::json(nullptr);
+    if (!error.region.empty())
+        e["region"] = error.region;
+    if (!error.date.empty())
+        e["date"] = error.date;
+    return e;
+}
+
+void printError(const Error& error, bool json) {
+    if (json) {
+        printJson({{"error", errorToJson(error)}});
+        return;
+    }
+    std::fprintf(stderr, "siftwave-cli: %s\n", error.describe().c_str());
+}
+
+void printJson(const nlohmann::json& value) {
+    std::cout << value.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) << '\n';
+    std::cout.flush();
+}
+
+}  // namespace siftwave::cli

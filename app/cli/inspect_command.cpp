@@ -1,0 +1,214 @@
+// siftwave-cli inspect FILE [ingest flags] [--json]: what was read, and how.
+#include "commands.h"
+#include "common.h"
+
+#include <algorithm>
+#include <cstdio>
+#include <set>
+
+namespace siftwave::cli {
+namespace {
+
+std::string delimiterText(char d) {
+    if (d == '\t')
+        return "\t";
+    return std::string(1, d);
+}
+
+std::string delimiterLabel(char d) {
+    switch (d) {
+        case ',':
+            return "comma (,)";
+        case ';':
+            return "semicolon (;)";
+        case '\t':
+            return "tab";
+        case '|':
+            return "pipe (|)";
+    }
+    return std::string("'") + d + "'";
+}
+
+std::size_t duplicateRowCount(const Drop& drop) {
+    std::set<std::uint32_t> lines;
+    for (const DuplicateRow& d : drop.duplicates)
+        lines.insert(d.cell.line);
+    return lines.size();
+}
+
+nlohmann::json inspectJson(const Drop& drop) {
+    const Provenance& p = drop.source;
+    const CellCounts counts = drop.countCells();
+    nlohmann::json j;
+    j["source"] = {
+        {"path", p.path},
+        {"bytes", p.bytes},
+        {"sha256", p.sha256},
+        {"delimiter", delimiterText(p.dialect.delimiter)},
+        {"header", p.dialect.header},
+        {"bom", p.dialect.bom},
+        {"line_endings", p.dialect.crlf ? "crlf" : "lf"},
+        {"decimal_separator", std::string(1, p.dialect.decimalSeparator)},
+        {"thousands_separator", p.dialect.thousandsSeparator
+                                    ? nlohmann::json(std::string(1, p.dialect.thousandsSeparator))
+                                    : nlohmann::json(nullptr)},
+    };
+    j["layout"] = layoutName(p.layout);
+    j["columns"] = {
+        {"date", p.columns.date.empty() ? nlohmann::json(nullptr) : nlohmann::json(p.columns.date)},
+        {"region",
+         p.columns.region.empty() ? nlohmann::json(nullptr) : nlohmann::json(p.columns.region)},
+        {"values", p.columns.values},
+        {"measure",
+         p.columns.measure.empty() ? nlohmann::json(nullptr) : nlohmann::json(p.columns.measure)},
+    };
+    j["date_format"] = p.dateFormat;
+    j["rows"] = drop.rows;
+    j["regions"] = drop.regionCodes.size();
+    j["region_codes"] = drop.regionCodes;
+    j["measures"] = drop.measures;
+    j["first_date"] = drop.days > 0 ? nlohmann::json(drop.firstDay.iso()) : nlohmann::json(nullptr);
+    j["last_date"] = drop.days > 0 ? nlohmann::json(drop.lastDay().iso()) : nlohmann::json(nullptr);
+    j["days"] = drop.days;
+    j["cells"] = {{"reported", counts.reported},
+                  {"absent", counts.absent},
+                  {"blank", counts.blank},
+                  {"unparsable", counts.unparsable}};
+    j["duplicates"] = duplicateRowCount(drop);
+    nlohmann::json warnings = nlohmann::json::array();
+    for (const Warning& w : drop.warnings) {
+        warnings.push_back(
+            {{"message", w.message},
+             {"line", w.line > 0 ? nlohmann::json(w.line) : nlohmann::json(nullptr)},
+             {"column", w.column > 0 ? nlohmann::json(w.column) : nlohmann::json(nullptr)}});
+    }
+    j["warnings"] = warnings;
+    return j;
+}
+
+void printText(const Drop& drop) {
+    const Provenance& p = drop.source;
+    const CellCounts counts = drop.countCells();
+    std::printf("file        %s\n", p.path.c_str());
+    std::printf("bytes       %llu\n", static_cast<unsigned long long>(p.bytes));
+    std::printf("sha256      %s\n", p.sha256.c_str());
+    std::printf("dialect     %s delimited, %s, %s line endings%s, decimal '%c'",
+                delimiterLabel(p.dialect.delimiter).c_str(),
+                p.dialect.header ? "header row" : "no header row", p.dialect.crlf ? "CRLF" : "LF",
+                p.dialect.bom ? ", UTF-8 byte-order mark" : "", p.dialect.decimalSeparator);
+    if (p.dialect.thousandsSeparator)
+        std::printf(", thousands '%c'", p.dialect.thousandsSeparator);
+    std::printf("\nlayout      %s\n", layoutName(p.layout));
+    if (!p.columns.date.empty())
+        std::printf("date column %s (%s)\n", p.columns.date.c_str(), p.dateFormat.c_str());
+    else
+        std::printf("dates       in the header (%s)\n", p.dateFormat.c_str());
+    if (!p.columns.region.empty())
+        std::printf("region col  %s\n", p.columns.region.c_str());
+    if (!p.columns.measure.empty())
+        std::printf("measure col %s\n", p.columns.measure.c_str());
+    std::string values;
+    for (std::size_t i = 0; i < p.columns.values.size(); ++i) {
+        if (i == 8) {
+            values += ", ... (" + std::to_string(p.columns.values.size()) + " in all)";
+            break;
+        }
+        values += (i ? ", " : "") + p.columns.values[i];
+    }
+    std::printf("value cols  %s\n", values.c_str());
+    std::printf("rows        %zu\n", drop.rows);
+    std::string codes;
+    for (std::size_t i = 0; i < drop.regionCodes.size(); ++i) {
+        if (i == 12) {
+            codes += ", ...";
+            break;
+        }
+        codes += (i ? ", " : "") + drop.regionCodes[i];
+    }
+    std::printf("regions     %zu: %s\n", drop.regionCodes.size(), codes.c_str());
+    std::string measures;
+    for (std::size_t i = 0; i < drop.measures.size(); ++i)
+        measures += (i ? ", " : "") + drop.measures[i];
+    std::printf("measures    %s\n", measures.c_str());
+    if (drop.days > 0) {
+        std::printf("dates       %s .. %s (%d days)\n", drop.firstDay.iso().c_str(),
+                    drop.lastDay().iso().c_str(), drop.days);
+    }
+    std::printf("cells       %zu reported, %zu absent, %zu blank, %zu unparsable\n",
+                counts.reported, counts.absent, counts.blank, counts.unparsable);
+    std::printf("duplicates  %zu rows\n", duplicateRowCount(drop));
+    std::printf("warnings    %zu\n", drop.warnings.size());
+    for (const Warning& w : drop.warnings) {
+        std::string where;
+        if (w.line > 0)
+            where = "line " + std::to_string(w.line) +
+                    (w.column > 0 ? ", column " + std::to_string(w.column) : "") + ": ";
+        std::printf("  - %s%s\n", where.c_str(), w.message.c_str());
+    }
+}
+
+void printUsage(std::FILE* to, const std::vector<FlagSpec>& specs) {
+    std::fprintf(
+        to,
+        "usage: siftwave-cli inspect FILE [ingest flags] [--json]\n\n"
+        "Reads a data drop (CSV) and reports what was read: the dialect, the layout, the columns\n"
+        "used, the regions (codes exactly as written), the calendar, the cells by state, "
+        "duplicate\n"
+        "rows and warnings. Exit codes: 0 read, 1 the file cannot be read as a drop, 2 wrong "
+        "usage.\n\n"
+        "options:\n%s",
+        formatFlags(specs).c_str());
+}
+
+}  // namespace
+
+int runInspect(int argc, char** argv, int first) {
+    std::vector<FlagSpec> specs = ingestFlagSpecs();
+    specs.push_back({"json", false, false, "", "print JSON instead of text"});
+    specs.push_back({"help", false, false, "", "show this help"});
+    bool wantsJson = false;
+    for (int i = first; i < argc; ++i) {
+        const std::string a = argv[i];
+        if (a == "--help" || a == "-h") {
+            printUsage(stdout, specs);
+            return kExitOk;
+        }
+        if (a == "--json")
+            wantsJson = true;
+    }
+    std::string parseError;
+    std::optional<ParsedArgs> args = parseArgs(argc, argv, first, specs, parseError);
+    if (!args) {
+        printError(makeError(ErrorCode::Usage, parseError), wantsJson);
+        if (!wantsJson)
+            printUsage(stderr, specs);
+        return kExitUsage;
+    }
+    const bool json = args->has("json");
+    if (args->positional.size() != 1) {
+        printError(makeError(ErrorCode::Usage, args->positional.empty()
+                                                   ? "inspect needs a FILE to read"
+                                                   : "inspect reads one FILE at a time"),
+                   json);
+        if (!json)
+            printUsage(stderr, specs);
+        return kExitUsage;
+    }
+    Result<IngestOptions> options = ingestOptionsFrom(*args);
+    if (!options) {
+        printError(options.error(), json);
+        return kExitUsage;
+    }
+    Result<Drop> drop = readDrop(args->positional[0], *options);
+    if (!drop) {
+        printError(drop.error(), json);
+        return drop.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+    }
+    if (json)
+        printJson(inspectJson(*drop));
+    else
+        printText(*drop);
+    return kExitOk;
+}
+
+}  // namespace siftwave::cli

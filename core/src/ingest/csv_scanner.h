@@ -1,0 +1,85 @@
+#pragma once
+// An RFC 4180 record scanner that works in place over a byte buffer.
+//
+// RFC 4180, section 2: records end in CRLF (we also accept LF alone); fields
+// are separated by the delimiter; a field may be enclosed in double quotes, and
+// then may hold delimiters, line breaks and quotes (a quote written twice, "").
+// Unquoted fields are returned as views into the buffer; only a quoted field
+// with a doubled quote is copied (into a per-record scratch string), so a
+// record costs no allocation in the common case.
+//
+// Line numbers are physical lines (1-based): a record whose quoted field holds
+// a line break spans several lines, and `CsvRecord::line` is the first one.
+
+#include <cstddef>
+#include <cstdint>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace siftwave::detail {
+
+struct CsvField {
+    std::string_view text;  // the field's content, quotes removed and "" unescaped
+    bool quoted = false;
+};
+
+struct CsvRecord {
+    std::vector<CsvField> fields;
+    std::uint64_t line = 0;   // physical line where the record starts
+    std::size_t offset = 0;   // byte offset of the record's first byte
+    bool strayQuote = false;  // an unquoted field holds a '"' (kept as data)
+
+    /// A record that is just an empty line.
+    bool isEmptyLine() const {
+        return fields.size() == 1 && fields[0].text.empty() && !fields[0].quoted;
+    }
+};
+
+struct CsvSyntaxError {
+    std::string message;
+    std::uint64_t line = 0;
+    std::uint64_t column = 0;  // 1-based field number
+    std::size_t offset = 0;    // byte offset where the problem is
+};
+
+class CsvScanner {
+public:
+    /// Scans `data` from byte `start`; `firstLine` is the line number at `start`.
+    CsvScanner(std::string_view data, char delimiter, std::size_t start = 0,
+               std::uint64_t firstLine = 1);
+
+    /// Reads the next record. Returns false at the end of the data or on a syntax
+    /// error (then `failed()` is true and `error()` says what and where).
+    bool next(CsvRecord& record);
+
+    bool failed() const { return m_failed; }
+    const CsvSyntaxError& error() const { return m_error; }
+    /// Byte offset of the next unread byte.
+    std::size_t position() const { return static_cast<std::size_t>(m_pos - m_begin); }
+    std::uint64_t line() const { return m_line; }
+
+private:
+    bool fail(std::string message, std::uint64_t line, std::size_t column, const char* at);
+
+    const char* m_begin;
+    const char* m_pos;
+    const char* m_end;
+    char m_delimiter;
+    std::uint64_t m_line;
+    bool m_special[256];
+    std::string m_scratch;
+    struct Pending {
+        std::size_t field;
+        std::size_t offset;
+        std::size_t length;
+    };
+    std::vector<Pending> m_pending;
+    bool m_failed = false;
+    CsvSyntaxError m_error;
+};
+
+/// Human name of a delimiter: "comma", "semicolon", "tab", "pipe" or the character.
+std::string delimiterName(char delimiter);
+
+}  // namespace siftwave::detail

@@ -1,0 +1,37 @@
+#include "ingest/date_parsing.h"
+#include "siftwave/ingest/ingest.h"
+
+namespace siftwave {
+
+Status IngestOptions::validate() const {
+    if (!dateFormat.empty() && !detail::dateFormatFromName(dateFormat)) {
+        return makeError(ErrorCode::Usage,
+                         "unknown date format '" + dateFormat +
+                             "'; use YYYY-MM-DD, YYYYMMDD, DD/MM/YYYY or MM/DD/YYYY");
+    }
+    if (delimiter) {
+        const char d = *delimiter;
+        if (d == '"' || d == '\n' || d == '\r' || d == '\0') {
+            return makeError(ErrorCode::Usage,
+                             "the delimiter cannot be a quote, a line break or NUL");
+        }
+    }
+    if (layout && *layout == Layout::DatesAcross && !dateColumn.empty()) {
+        return makeError(
+            ErrorCode::Usage,
+            "--date-col does not apply to the dates-across layout (the dates are the header)");
+    }
+    for (std::size_t i = 0; i < valueColumns.size(); ++i) {
+        if (valueColumns[i].empty())
+            return makeError(ErrorCode::Usage, "a value column name is empty");
+        for (std::size_t j = 0; j < i; ++j) {
+            if (valueColumns[i] == valueColumns[j]) {
+                return makeError(ErrorCode::Usage,
+                                 "value column '" + valueColumns[i] + "' is named twice");
+            }
+        }
+    }
+    return Ok{};
+}
+
+}  // namespace siftwave

@@ -1,0 +1,237 @@
+#include "ingest/input_source.h"
+
+#include <fcntl.h>
+#include <sys/mman.h>
+#include <sys/stat.h>
+#include <unistd.h>
+
+#include <algorithm>
+#include <cerrno>
+#include <cstdio>
+#include <cstring>
+
+namespace siftwave::detail {
+
+TextPosition positionOf(std::string_view data, std::size_t offset) {
+    TextPosition pos;
+    std::size_t lineStart = 0;
+    for (std::size_t i = 0; i < offset && i < data.size(); ++i) {
+        if (data[i] == '\n') {
+            ++pos.line;
+            lineStart = i + 1;
+        }
+    }
+    for (std::size_t i = lineStart; i < offset && i < data.size(); ++i) {
+        if ((static_cast<unsigned char>(data[i]) & 0xC0) != 0x80)
+            ++pos.column;
+    }
+    return pos;
+}
+
+std::size_t findInvalidUtf8(std::string_view data) {
+    const auto* s = reinterpret_cast<const unsigned char*>(data.data());
+    const std::size_t n = data.size();
+    std::size_t i = 0;
+    while (i < n) {
+        // ASCII fast path, eight bytes at a time.
+        while (i + 8 <= n) {
+            std::uint64_t word;
+            std::memcpy(&word, s + i, 8);
+            if (word & 0x8080808080808080ull)
+                break;
+            i += 8;
+        }
+        if (i >= n)
+            break;
+        const unsigned char c = s[i];
+        if (c < 0x80) {
+            ++i;
+            continue;
+        }
+        std::size_t len;
+        std::uint32_t cp;
+        if (c >= 0xC2 && c <= 0xDF) {
+            len = 2;
+            cp = c & 0x1Fu;
+        } else if (c >= 0xE0 && c <= 0xEF) {
+            len = 3;
+            cp = c & 0x0Fu;
+        } else if (c >= 0xF0 && c <= 0xF4) {
+            len = 4;
+            cp = c & 0x07u;
+        } else {
+            return i;  // a continuation byte without a lead, C0/C1 or F5..FF
+        }
+        if (i + len > n)
+            return i;
+        for (std::size_t k = 1; k < len; ++k) {
+            if ((s[i + k] & 0xC0) != 0x80)
+                return i;
+            cp = (cp << 6) | (s[i + k] & 0x3Fu);
+        }
+        if ((len == 3 && cp < 0x800) || (len == 4 && (cp < 0x10000 || cp > 0x10FFFF)) ||
+            (cp >= 0xD800 && cp <= 0xDFFF)) {
+            return i;  // overlong form, surrogate or beyond Unicode
+        }
+        i += len;
+    }
+    return std::string_view::npos;
+}
+
+Sha256::Sha256() : m_ctx(EVP_MD_CTX_new()) {
+    if (m_ctx)
+        EVP_DigestInit_ex(m_ctx, EVP_sha256(), nullptr);
+}
+
+Sha256::~Sha256() {
+    EVP_MD_CTX_free(m_ctx);
+}
+
+void Sha256::update(const char* data, std::size_t size) {
+    if (m_ctx && size > 0)
+        EVP_DigestUpdate(m_ctx, data, size);
+}
+
+std::string Sha256::hexDigest() {
+    unsigned char digest[EVP_MAX_MD_SIZE];
+    unsigned int length = 0;
+    if (!m_ctx || EVP_DigestFinal_ex(m_ctx, digest, &length) != 1)
+        return {};
+    static const char* hex = "0123456789abcdef";
+    std::string out;
+    out.reserve(length * 2);
+    for (unsigned int i = 0; i < length; ++i) {
+        out += hex[digest[i] >> 4];
+        out += hex[digest[i] & 15];
+    }
+    EVP_DigestInit_ex(m_ctx, EVP_sha256(), nullptr);
+    return out;
+}
+
+InputFile::~InputFile() {
+    if (m_mapped)
+        munmap(const_cast<char*>(m_data), m_size);
+}
+
+Status InputFile::open(const std::string& path) {
+    const int fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
+    if (fd < 0) {
+        Error e =
+            makeError(ErrorCode::Io, std::string("cannot open the file: ") + std::strerror(errno));
+        e.file = path;
+        return e;
+    }
+    struct stat st {};
+    if (fstat(fd, &st) == 0 && S_ISDIR(st.st_mode)) {
+        ::close(fd);
+        Error e = makeError(ErrorCode::Io, "this is a folder, not a file");
+        e.file = path;
+        return e;
+    }
+    if (fstat(fd, &st) == 0 && S_ISREG(st.st_mode) && st.st_size > 0) {
+        void* p =
+            mmap(nullptr, static_cast<std::size_t>(st.st_size), PROT_READ, MAP_PRIVATE, fd, 0);
+        if (p != MAP_FAILED) {
+            ::close(fd);
+            m_data = static_cast<const char*>(p);
+            m_size = static_cast<std::size_t>(st.st_size);
+            m_mapped = true;
+            madvise(p, m_size, MADV_SEQUENTIAL);
+            return Ok{};
+        }
+    }
+    // Not mappable (a pipe, an empty file, ...): read it all.
+    char buffer[1 << 16];
+    for (;;) {
+        const ssize_t got = ::read(fd, buffer, sizeof buffer);
+        if (got < 0) {
+            if (errno == EINTR)
+                continue;
+            const int err = errno;
+            ::close(fd);
+            Error e = makeError(ErrorCode::Io,
+                                std::string("cannot read the file: ") + std::strerror(err));
+            e.file = path;
+            return e;
+        }
+        if (got == 0)
+            break;
+        m_fallback.append(buffer, static_cast<std::size_t>(got));
+    }
+    ::close(fd);
+    m_data = m_fallback.data();
+    m_size = m_fallback.size();
+    return Ok{};
+}
+
+void InputFile::release(std::size_t offset) {
+    if (!m_mapped)
+        return;
+    static const std::size_t page = static_cast<std::size_t>(sysconf(_SC_PAGESIZE));
+    const std::size_t upTo = (offset / page) * page;
+    // Release in steps of at least 4 MiB so the system calls stay rare.
+    if (upTo < m_released + (std::size_t{4} << 20) && offset < m_size)
+        return;
+    const std::size_t limit = offset >= m_size ? ((m_size + page - 1) / page) * page : upTo;
+    if (limit > m_released) {
+        madvise(const_cast<char*>(m_data) + m_released, limit - m_released, MADV_DONTNEED);
+        m_released = limit;
+    }
+}
+
+Status InputChecker::checkUpTo(std::size_t offset) {
+    constexpr std::size_t kBlock = std::size_t{1} << 20;
+    if (offset > m_data.size())
+        offset = m_data.size();
+    while (m_hashed < offset) {
+        std::size_t blockEnd = std::min(m_data.size(), m_hashed + kBlock);
+        m_sha.update(m_data.data() + m_hashed, blockEnd - m_hashed);
+        m_hashed = blockEnd;
+        // Validate up to a character boundary; a sequence cut by the block end waits for the next
+        // one.
+        std::size_t validEnd = blockEnd;
+        if (validEnd < m_data.size()) {
+            int back = 0;
+            while (back < 3 && validEnd > m_validated &&
+                   (static_cast<unsigned char>(m_data[validEnd]) & 0xC0) == 0x80) {
+                --validEnd;
+                ++back;
+            }
+        }
+        std::string_view block = m_data.substr(m_validated, validEnd - m_validated);
+        const std::size_t bad = findInvalidUtf8(block);
+        const void* nul = std::memchr(block.data(), 0, block.size());
+        if (bad != std::string_view::npos || nul) {
+            std::size_t at = bad != std::string_view::npos ? m_validated + bad : m_data.size();
+            bool isNul = false;
+            if (nul) {
+                const std::size_t nulAt =
+                    static_cast<std::size_t>(static_cast<const char*>(nul) - m_data.data());
+                if (nulAt < at) {
+                    at = nulAt;
+                    isNul = true;
+                }
+            }
+            const TextPosition pos = positionOf(m_data, at);
+            char byteText[8];
+            std::snprintf(byteText, sizeof byteText, "0x%02X",
+                          static_cast<unsigned char>(m_data[at]));
+            Error e = makeError(
+                ErrorCode::Encoding,
+                isNul ? "byte offset " + std::to_string(at) +
+                            " is a NUL byte: this looks like a binary or UTF-16 file; save it as "
+                            "UTF-8 CSV"
+                      : "byte offset " + std::to_string(at) + " (" + byteText +
+                            ") is not valid UTF-8; save the file as UTF-8 (it may be in Latin-1 or "
+                            "Windows-1252)");
+            e.line = pos.line;
+            e.column = pos.column;
+            e.file = m_path;
+            return e;
+        }
+        m_validated = validEnd;
+    }
+    return Ok{};
+}
+
+}  // namespace siftwave::detail

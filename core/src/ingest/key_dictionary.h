@@ -1,0 +1,67 @@
+#pragma once
+// Text keys (region codes, date texts, measure names) -> dense indices in
+// first-seen order, compared byte for byte (never trimmed or case-folded).
+//
+// Rows of a drop repeat their keys in a regular order (all regions for one
+// date, or all dates for one region), so a lookup first tries the key seen
+// last and the one after it before it hashes; the hash map takes string_view
+// directly (transparent lookup), so no lookup allocates.
+
+#include <cstdint>
+#include <functional>
+#include <optional>
+#include <string>
+#include <string_view>
+#include <unordered_map>
+#include <vector>
+
+namespace siftwave::detail {
+
+struct TransparentStringHash {
+    using is_transparent = void;
+    std::size_t operator()(std::string_view s) const { return std::hash<std::string_view>{}(s); }
+};
+
+class KeyDictionary {
+public:
+    static constexpr std::uint32_t kNone = UINT32_MAX;
+
+    std::uint32_t find(std::string_view key) {
+        const std::size_t n = m_keys.size();
+        if (m_last < n && m_keys[m_last] == key)
+            return m_last;
+        if (m_last + 1 < n && m_keys[m_last + 1] == key)
+            return ++m_last;
+        if (n > 0 && m_keys[0] == key)
+            return m_last = 0;
+        auto it = m_index.find(key);
+        if (it == m_index.end())
+            return kNone;
+        return m_last = it->second;
+    }
+
+    /// Index of `key`, adding it at the end when new (`added` tells which).
+    std::uint32_t intern(std::string_view key, bool& added) {
+        std::uint32_t i = find(key);
+        added = i == kNone;
+        if (added) {
+            i = static_cast<std::uint32_t>(m_keys.size());
+            m_keys.emplace_back(key);
+            m_index.emplace(m_keys.back(), i);
+            m_last = i;
+        }
+        return i;
+    }
+
+    std::size_t size() const { return m_keys.size(); }
+    const std::string& key(std::uint32_t i) const { return m_keys[i]; }
+    const std::vector<std::string>& keys() const { return m_keys; }
+    std::vector<std::string> takeKeys() { return std::move(m_keys); }
+
+private:
+    std::vector<std::string> m_keys;
+    std::unordered_map<std::string, std::uint32_t, TransparentStringHash, std::equal_to<>> m_index;
+    std::uint32_t m_last = 0;
+};
+
+}  // namespace siftwave::detail

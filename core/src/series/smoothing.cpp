@@ -1,0 +1,84 @@
+#include "siftwave/series/smoothing.h"
+
+#include <algorithm>
+#include <cassert>
+#include <cmath>
+#include <limits>
+#include <string>
+
+namespace siftwave::series {
+namespace {
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+// s_i = sum_k w_k x_{i + k - offset} over finite, in-range x, renormalised by the weights used.
+std::vector<double> weightedAverage(std::span<const double> x, std::span<const double> weights,
+                                    int offset, EdgeRule edges) {
+    const int n = static_cast<int>(x.size());
+    const int len = static_cast<int>(weights.size());
+    std::vector<double> out(x.size(), kNaN);
+    for (int i = 0; i < n; ++i) {
+        const int first = i - offset;
+        const int last = first + len - 1;
+        if (edges == EdgeRule::Missing && (first < 0 || last >= n))
+            continue;
+        double sum = 0.0;
+        double weight = 0.0;
+        for (int k = std::max(0, -first); k < len && first + k < n; ++k) {
+            const double v = x[static_cast<std::size_t>(first + k)];
+            if (!std::isfinite(v))
+                continue;
+            sum += weights[static_cast<std::size_t>(k)] * v;
+            weight += weights[static_cast<std::size_t>(k)];
+        }
+        if (weight > 0.0)
+            out[static_cast<std::size_t>(i)] = sum / weight;
+    }
+    return out;
+}
+
+}  // namespace
+
+Status MovingAverageOptions::validate() const {
+    if (window < 1 || window > 365) {
+        return makeError(
+            ErrorCode::Usage,
+            "the smoothing window must be between 1 and 365 days, not " + std::to_string(window));
+    }
+    return Ok{};
+}
+
+std::vector<double> trailingMovingAverage(std::span<const double> values, int window,
+                                          EdgeRule edges) {
+    assert(window >= 1);
+    const std::vector<double> weights(static_cast<std::size_t>(window), 1.0);
+    return weightedAverage(values, weights, window - 1, edges);
+}
+
+std::vector<double> centredMovingAverage(std::span<const double> values, int window,
+                                         EdgeRule edges) {
+    assert(window >= 1);
+    if (window % 2 == 1) {
+        const std::vector<double> weights(static_cast<std::size_t>(window), 1.0);
+        return weightedAverage(values, weights, window / 2, edges);
+    }
+    // 2 x w: w + 1 taps, half weight at both ends.
+    std::vector<double> weights(static_cast<std::size_t>(window) + 1, 1.0);
+    weights.front() = 0.5;
+    weights.back() = 0.5;
+    return weightedAverage(values, weights, window / 2, edges);
+}
+
+std::vector<double> trailingMovingAverage(std::span<const double> values,
+                                          const MovingAverageOptions& options) {
+    assert(options.validate().ok());
+    return trailingMovingAverage(values, options.window, options.edges);
+}
+
+std::vector<double> centredMovingAverage(std::span<const double> values,
+                                         const MovingAverageOptions& options) {
+    assert(options.validate().ok());
+    return centredMovingAverage(values, options.window, options.edges);
+}
+
+}  // namespace siftwave::series
