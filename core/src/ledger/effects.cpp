@@ -2,10 +2,11 @@
 
 #include "ledger/cleaned_access.h"
 #include "siftwave/ledger/apportion.h"
-
-#include "ledger/wide_int.h"
+#include "siftwave/series/smoothing.h"
 
 #include <algorithm>
+#include <cmath>
+#include <limits>
 #include <map>
 #include <numeric>
 #include <set>
@@ -157,41 +158,25 @@ std::int64_t floorDiv(std::int64_t a, std::int64_t b) {
     return q;
 }
 
-/// Centred moving-average weights for the baseline method, exactly in integers:
-/// w_i = L * (sum of the values in [i-h, i+h]) / n_i with L = lcm(1..width), the
-/// dump day and days without a value left out (n_i = how many remain), and
-/// negative sums counted as 0. Proportional to the average, so apportionment
-/// by w_i is apportionment by the average.
-Result<std::vector<std::int64_t>> baselineWeights(const Cleaned& cleaned, std::size_t m,
-                                                  std::size_t r, DaySpan window,
-                                                  std::int32_t dumpDay, int width) {
-    std::int64_t lcm = 1;
-    for (int k = 2; k <= width; ++k)
-        lcm = std::lcm(lcm, static_cast<std::int64_t>(k));
-    const int half = width / 2;
+/// Weights for the baseline method: the centred moving average of width `width`
+/// (series/smoothing.h, partial windows at the ends) of the region's series, with
+/// the dump day and the days without a value left out of every window (NaN).
+/// The averages are quantised to 1e-6 of a count (llround) so that the largest
+/// remainder step runs in exact integers; negative or missing averages weigh 0.
+std::vector<std::int64_t> baselineWeights(const Cleaned& cleaned, std::size_t m, std::size_t r,
+                                          DaySpan window, std::int32_t dumpDay, int width) {
+    std::vector<double> series(static_cast<std::size_t>(cleaned.days()),
+                               std::numeric_limits<double>::quiet_NaN());
+    for (std::int32_t d = 0; d < cleaned.days(); ++d) {
+        const CleanedCell& c = cleaned.cell(m, r, d);
+        if (d != dumpDay && c.hasValue())
+            series[static_cast<std::size_t>(d)] = static_cast<double>(c.value);
+    }
+    const std::vector<double> average = series::centredMovingAverage(series, width);
     std::vector<std::int64_t> weights;
-    for (std::int32_t i = window.first; i <= window.last; ++i) {
-        WideInt sum = 0;
-        std::int64_t n = 0;
-        for (std::int32_t j = std::max(0, i - half); j <= std::min(cleaned.days() - 1, i + half);
-             ++j) {
-            if (j == dumpDay)
-                continue;
-            const CleanedCell& c = cleaned.cell(m, r, j);
-            if (!c.hasValue())
-                continue;
-            sum += c.value;
-            ++n;
-        }
-        if (n == 0 || sum <= 0) {
-            weights.push_back(0);
-            continue;
-        }
-        const WideInt w = sum * (lcm / n);
-        if (w > std::numeric_limits<std::int64_t>::max()) {
-            return makeError(ErrorCode::Numerical, "counts too large for the baseline weights");
-        }
-        weights.push_back(static_cast<std::int64_t>(w));
+    for (std::int32_t d = window.first; d <= window.last; ++d) {
+        const double a = average[static_cast<std::size_t>(d)];
+        weights.push_back(std::isfinite(a) && a > 0 ? std::llround(a * 1e6) : 0);
     }
     return weights;
 }
@@ -241,10 +226,7 @@ Status redistribute(const Drop& drop, const Cleaned& cleaned, const Decision& de
         }
     }
     if (dec.redistributeMethod == RedistributeMethod::Baseline) {
-        auto w = baselineWeights(cleaned, *m, *r, *window, *dump, dec.baselineWidth);
-        if (!w)
-            return w.error();
-        weights = std::move(*w);
+        weights = baselineWeights(cleaned, *m, *r, *window, *dump, dec.baselineWidth);
     }
     auto parts = apportionLargestRemainder(dec.excess, weights);
     if (!parts) {

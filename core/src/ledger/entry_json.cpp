@@ -2,7 +2,7 @@
 #include "siftwave/ledger/entry.h"
 
 #include "ledger/entry_json.h"
-#include "ledger/file_io.h"
+#include "siftwave/ingest/ingest.h"
 
 #include <nlohmann/json.hpp>
 
@@ -453,7 +453,7 @@ Status sealEntry(LedgerEntry& entry, const LedgerEntry* previous) {
     auto text = canonicalEntryJson(entry);
     if (!text)
         return text.error();
-    entry.hash = detail::sha256HexOf(*text);
+    entry.hash = sha256Hex(*text);
     return Ok{};
 }
 
@@ -481,7 +481,7 @@ Status verifyChain(const Ledger& ledger) {
         auto text = canonicalEntryJson(e);
         if (!text)
             return fail(text.error().message);
-        if (detail::sha256HexOf(*text) != e.hash)
+        if (sha256Hex(*text) != e.hash)
             return fail("its content does not match its hash; it was edited");
         if (e.dropSha256 != drop)
             return fail("it names another drop than entry 1");

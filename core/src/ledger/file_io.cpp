@@ -1,7 +1,5 @@
 #include "ledger/file_io.h"
 
-#include <openssl/evp.h>
-
 #include <fcntl.h>
 #include <sys/stat.h>
 #include <unistd.h>
@@ -92,20 +90,6 @@ Result<std::string> readWholeFile(const std::string& path) {
     if (in.bad())
         return ioError(path, "cannot read");
     return buffer.str();
-}
-
-std::string sha256HexOf(std::string_view bytes) {
-    unsigned char digest[EVP_MAX_MD_SIZE];
-    unsigned int length = 0;
-    EVP_Digest(bytes.data(), bytes.size(), digest, &length, EVP_sha256(), nullptr);
-    static const char* hex = "0123456789abcdef";
-    std::string out;
-    out.reserve(2 * length);
-    for (unsigned int i = 0; i < length; ++i) {
-        out += hex[digest[i] >> 4];
-        out += hex[digest[i] & 15];
-    }
-    return out;
 }
 
 }  // namespace siftwave::detail

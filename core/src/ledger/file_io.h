@@ -16,7 +16,4 @@ Status writeFileAtomically(const std::string& path, std::string_view bytes);
 /// The whole file; NotFound when it does not exist, Io otherwise.
 Result<std::string> readWholeFile(const std::string& path);
 
-/// Lower-case hex SHA-256 (FIPS 180-4) of bytes, via OpenSSL's EVP interface.
-std::string sha256HexOf(std::string_view bytes);
-
 }  // namespace siftwave::detail

@@ -14,7 +14,7 @@
 //                     method (apportion.h) with weights per `redistribute`
 //                     method: uniform (equal), proportional (the values
 //                     already in the window) or baseline (a centred moving
-//                     average of width `baselineWidth` of the series, the dump
+//                     average of width `baselineWidth`, series/smoothing.h, the dump
 //                     day left out). Region total unchanged; no day negative.
 //   spread_negative   the negative value on `date` is set to 0 and the same
 //                     amount taken from the earlier days in `window` (default:
