@@ -33,7 +33,8 @@ Drop makeDrop(int regions, int days) {
         }
         for (int d = 0; d < days; ++d) {
             double lambda = 1.0;
-            for (const auto& p : params) lambda += gumbel.incidenceAt(d, p);
+            for (const auto& p : params)
+                lambda += gumbel.incidenceAt(d, p);
             lambda *= weekday[d % 7];
             std::gamma_distribution<double> gamma(30.0, lambda / 30.0);
             std::poisson_distribution<int> poisson(gamma(rng));
@@ -65,7 +66,8 @@ void BM_FitAllRegions(benchmark::State& state) {
         }
         const auto results = fit::fitRegions(regions, options);
         failed = 0;
-        for (const auto& f : results) failed += f.fit ? 0 : 1;
+        for (const auto& f : results)
+            failed += f.fit ? 0 : 1;
         benchmark::DoNotOptimize(results.data());
     }
     state.counters["regions"] = static_cast<double>(drop.regionCodes.size());

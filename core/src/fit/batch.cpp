@@ -36,14 +36,16 @@ RegionFit fitOne(const RegionSeries& region, const BatchOptions& options) {
     } catch (const std::exception& e) {  // e.g. std::bad_alloc: this region only
         out.error = makeError(ErrorCode::Numerical, std::string("fit aborted: ") + e.what());
     }
-    if (out.error) out.error->region = region.region;
+    if (out.error)
+        out.error->region = region.region;
     return out;
 }
 
 }  // namespace
 
 Status BatchOptions::validate() const {
-    if (threads < 0) return makeError(ErrorCode::Usage, "threads must be 0 (one per core) or more");
+    if (threads < 0)
+        return makeError(ErrorCode::Usage, "threads must be 0 (one per core) or more");
     return fit.validate();
 }
 
@@ -59,7 +61,8 @@ std::vector<RegionFit> fitRegions(std::span<const RegionSeries> regions,
     }
     unsigned threads = options.threads > 0 ? static_cast<unsigned>(options.threads)
                                            : std::max(1u, std::thread::hardware_concurrency());
-    threads = std::min<unsigned>(threads, static_cast<unsigned>(std::max<std::size_t>(regions.size(), 1)));
+    threads = std::min<unsigned>(threads,
+                                 static_cast<unsigned>(std::max<std::size_t>(regions.size(), 1)));
     std::atomic<std::size_t> next{0};
     auto work = [&]() {
         for (std::size_t i = next.fetch_add(1); i < regions.size(); i = next.fetch_add(1)) {
@@ -71,8 +74,10 @@ std::vector<RegionFit> fitRegions(std::span<const RegionSeries> regions,
         return results;
     }
     std::vector<std::thread> pool;
-    for (unsigned t = 0; t < threads; ++t) pool.emplace_back(work);
-    for (auto& th : pool) th.join();
+    for (unsigned t = 0; t < threads; ++t)
+        pool.emplace_back(work);
+    for (auto& th : pool)
+        th.join();
     return results;
 }
 

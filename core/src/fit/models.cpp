@@ -100,12 +100,14 @@ std::optional<Line> linearisedAt(const GuessData& d, double size, Transform tran
     std::vector<double> xs, ys;
     for (std::size_t i = 0; i < d.t.size(); ++i) {
         const double q = d.cumulative[i] / size;
-        if (q <= 0.02 || q >= 0.98) continue;
+        if (q <= 0.02 || q >= 0.98)
+            continue;
         xs.push_back(logTime ? std::log(d.t[i] + 1.0) : d.t[i]);
         ys.push_back(transform(q));
     }
     auto line = fitLine(xs, ys);
-    if (!line || !(line->slope > 0)) return std::nullopt;
+    if (!line || !(line->slope > 0))
+        return std::nullopt;
     return line;
 }
 
@@ -115,13 +117,20 @@ std::optional<Line> linearisedAt(const GuessData& d, double size, Transform tran
 template <class Transform>
 std::optional<Line> linearised(const GuessData& d, double shareAtPeak, Transform transform,
                                bool logTime) {
-    const double candidates[] = {d.total * 1.005, d.total * 1.03, d.total * 1.1, d.total * 1.3,
-                                 d.total * 1.8,   d.total * 3.0,  d.cumulativeAtPeak / shareAtPeak};
+    const double candidates[] = {d.total * 1.005,
+                                 d.total * 1.03,
+                                 d.total * 1.1,
+                                 d.total * 1.3,
+                                 d.total * 1.8,
+                                 d.total * 3.0,
+                                 d.cumulativeAtPeak / shareAtPeak};
     std::optional<Line> best;
     for (double size : candidates) {
-        if (!(size > d.total)) continue;
+        if (!(size > d.total))
+            continue;
         auto line = linearisedAt(d, size, transform, logTime);
-        if (line && (!best || line->r2 > best->r2)) best = line;
+        if (line && (!best || line->r2 > best->r2))
+            best = line;
     }
     return best;
 }

@@ -28,11 +28,12 @@ struct BatchOptions {
 
 struct RegionFit {
     std::string region;
-    std::optional<FitResult> fit;               // empty when the region failed
-    std::optional<Error> error;                 // why it failed
-    std::vector<ModelComparisonRow> comparison; // with bestModel
+    std::optional<FitResult> fit;                // empty when the region failed
+    std::optional<Error> error;                  // why it failed
+    std::vector<ModelComparisonRow> comparison;  // with bestModel
 };
 
-std::vector<RegionFit> fitRegions(std::span<const RegionSeries> regions, const BatchOptions& options);
+std::vector<RegionFit> fitRegions(std::span<const RegionSeries> regions,
+                                  const BatchOptions& options);
 
 }  // namespace siftwave::fit
