@@ -237,6 +237,18 @@ TEST(Samples, EveryPlantedRegionIsInTheRegisterOrIsThePlantedVariant) {
     }
 }
 
+TEST(Samples, FilesAreTheBytesTheManifestDescribes) {
+    // The manifest records each file's size and SHA-256 (FIPS 180-4), so a file edited by hand
+    // without rerunning the generator is caught even where Python is not installed.
+    const json manifest = loadManifest();
+    ASSERT_FALSE(manifest.is_discarded());
+    for (const auto& [name, info] : manifest["files"].items()) {
+        const std::string bytes = readBytes(kSamples / name);
+        EXPECT_EQ(bytes.size(), info.at("bytes").get<std::size_t>()) << name;
+        EXPECT_EQ(sha256Hex(bytes), info.at("sha256").get<std::string>()) << name;
+    }
+}
+
 TEST(Samples, StayUnderTwoMegabytesInAll) {
     std::uintmax_t total = 0;
     for (const auto& entry : std::filesystem::recursive_directory_iterator(kSamples)) {
@@ -274,6 +286,8 @@ TEST(SamplesDrop, CurrentReleaseReadsWithTheNaAnd0412CodesIntact) {
     EXPECT_TRUE(drop->source.dialect.crlf);
     EXPECT_EQ(drop->measures, (std::vector<std::string>{"cases", "deaths"}));
     EXPECT_EQ(drop->rows, info["rows"].get<std::size_t>());
+    EXPECT_EQ(drop->source.sha256, info["sha256"].get<std::string>());
+    EXPECT_EQ(drop->source.bytes, info["bytes"].get<std::uint64_t>());
     EXPECT_EQ(drop->firstDay.iso(), info["first"].get<std::string>());
     EXPECT_EQ(drop->lastDay().iso(), info["last"].get<std::string>());
     // 16 registered codes with rows (two provinces send none) and the variant
