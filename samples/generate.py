@@ -36,6 +36,7 @@ Province rows (Kelvarra and Ostmere only) are the sums of their districts' repor
 import argparse
 import csv
 import datetime
+import hashlib
 import io
 import json
 import math
@@ -107,7 +108,7 @@ PARAMETERS = {
     "nb_size_cases": 50.0,
     "nb_size_deaths": 80.0,
     # weekday reporting factors Monday..Sunday (mean 1): low weekends, Monday catch-up
-    "weekday_factors": [1.24, 1.10, 1.04, 1.02, 0.98, 0.68, 0.54],
+    "weekday_factors": [1.30, 1.16, 1.10, 1.08, 1.04, 0.72, 0.60],
     "weekday_strength_by_province": {"KV": 0.7, "OS": 1.0, "BR": 0.85, "LM": 0.6},
     "weekday_strength_deaths": 0.5,  # fraction of the cases' weekday effect seen in deaths
 }
@@ -235,7 +236,8 @@ def expected_series(population, waves, province):
     components = []
     for w in waves:
         components.append(
-            [scale * w["height_per_100k"] * bump(t, w["peak"], w["rise"], w["fall"]) for t in range(-horizon, DAYS)]
+            [scale * w["height_per_100k"] * bump(t, w["peak"], w["rise"], w["fall"])
+             for t in range(-horizon, DAYS)]
         )
     cases = []
     deaths = []
@@ -262,13 +264,12 @@ class Scenario:
         self.seed = seed
         self.rng = random.Random(seed)
         self.districts = [r for r in REGIONS if r[2]]
-        self.provinces = [r for r in REGIONS if not r[2]]
-        self.parent = {r[0]: r[2] for r in REGIONS}
         self.waves = {}
         self.expected = {}  # code -> (cases, deaths) expected incl. weekday effect
         self.true = {}  # code -> {"cases": [...], "deaths": [...]} as drawn, before planting
         self.reported = {}  # code -> {"cases": [...], "deaths": [...]}; None = no row that day
         self.factors = {}
+        self.factors_deaths = {}
         self.problems = []
         self.previous_overrides = {}  # (code, measure, day) -> value in the previous release
         self.code_on_day = {}  # (code, day) -> code written in the file
@@ -284,6 +285,7 @@ class Scenario:
             deaths_mu = [m * fd[weekday(t)] for t, m in enumerate(deaths_mu)]
             self.expected[code] = (cases_mu, deaths_mu)
             self.factors[code] = fc
+            self.factors_deaths[code] = fd
             cases = [negative_binomial(self.rng, m, PARAMETERS["nb_size_cases"]) for m in cases_mu]
             deaths = [negative_binomial(self.rng, m, PARAMETERS["nb_size_deaths"]) for m in deaths_mu]
             self.true[code] = {"cases": cases, "deaths": deaths}
@@ -305,10 +307,29 @@ class Scenario:
         self.problems.append(entry)
 
     # -- planted problems --------------------------------------------------------------------
-    def plant(self):
-        rc = lambda code: self.reported[code]["cases"]  # noqa: E731
-        tc = lambda code: self.true[code]["cases"]  # noqa: E731
+    def rc(self, code):
+        """The reported cases of a district (planting edits this list)."""
+        return self.reported[code]["cases"]
 
+    def tc(self, code):
+        """The true cases of a district (as drawn, before planting)."""
+        return self.true[code]["cases"]
+
+    def plant(self):
+        """Plants every problem, in the order of the manifest."""
+        self.plant_code_collisions()
+        self.plant_stale_values()
+        self.plant_duplicate_row()
+        self.plant_backlog_dump()
+        self.plant_reporting_gap()
+        self.plant_negative_correction()
+        self.plant_missing_dates()
+        self.plant_code_variant()
+        self.plant_revisions()
+        self.build_province_rows()
+        self.describe_weekday_effect()
+
+    def plant_code_collisions(self):
         # Code collisions: correct in Siftwave, lost by tools that coerce codes.
         self.add("code_collision", "NA", None, None, None, True,
                  "District code NA (Nalvara City) is a missing-value token in many tools.",
@@ -317,17 +338,23 @@ class Scenario:
                  "District code 0412 (Skaldrin) loses its leading zero in a spreadsheet.",
                  reason="leading zero")
 
-        # Stale values: Ferrisk's cases copied forward from day 127 for six days.
+    def plant_stale_values(self):
+        # Stale values: Ferrisk's cases copied forward from day 127 (on the default seed) for six days.
         code, src, n = "1105", 127, 6
-        value = rc(code)[src]
+        # Start where the neighbours differ from the copied value, so the run is exactly n + 1 days.
+        cases = self.rc(code)
+        while cases[src - 1] == cases[src] or cases[src + n + 1] == cases[src]:
+            src += 1
+        value = self.rc(code)[src]
         true_values = []
         for d in range(src + 1, src + 1 + n):
-            true_values.append({"date": iso(d), "true": tc(code)[d]})
-            rc(code)[d] = value
+            true_values.append({"date": iso(d), "true": self.tc(code)[d]})
+            self.rc(code)[d] = value
         self.add("stale_values", code, "cases", src, src + n, True,
                  "Cases copied forward: the value of %s repeated on the next %d days." % (iso(src), n),
                  value=value, copied_from=iso(src), run_days=n + 1, true_values=true_values)
 
+    def plant_duplicate_row(self):
         # Duplicate row: one Saltrève row sent twice (appended at the end of the file).
         code, d = "1207", 96
         self.extra_rows.append((code, d))
@@ -336,23 +363,25 @@ class Scenario:
                      "The row for %s on %s appears twice with the same values." % (code, iso(d)),
                      value=self.reported[code][measure][d], values_agree=True, lines=None)
 
+    def plant_backlog_dump(self):
         # Backlog dump: Aubrenne withheld 45 % of its cases for three weeks, then sent them at once.
         code, dump, window, share = "1301", 182, 21, 0.45
         withheld_days = []
         excess = 0
         for d in range(dump - window, dump):
-            held = int(round(tc(code)[d] * share))
-            rc(code)[d] = tc(code)[d] - held
+            held = int(round(self.tc(code)[d] * share))
+            self.rc(code)[d] = self.tc(code)[d] - held
             excess += held
-            withheld_days.append({"date": iso(d), "true": tc(code)[d], "reported": rc(code)[d]})
-        rc(code)[dump] = tc(code)[dump] + excess
+            withheld_days.append({"date": iso(d), "true": self.tc(code)[d], "reported": self.rc(code)[d]})
+        self.rc(code)[dump] = self.tc(code)[dump] + excess
         self.add("backlog_dump", code, "cases", dump, dump, True,
                  "A backlog: %d%% of three weeks' cases were held back and reported on %s." %
                  (round(share * 100), iso(dump)),
-                 reported=rc(code)[dump], true_value=tc(code)[dump], excess=excess,
+                 reported=self.rc(code)[dump], true_value=self.tc(code)[dump], excess=excess,
                  window_first=iso(dump - window), window_last=iso(dump - 1), withheld_share=share,
                  window=withheld_days)
 
+    def plant_reporting_gap(self):
         # Reporting gap with catch-up: Kestrelby sent zeros Wednesday..Sunday, then everything Monday.
         code = "1304"
         gap_first = next(d for d in range(56, 80) if weekday(d) == 2)
@@ -378,36 +407,42 @@ class Scenario:
                      reported=series[catch], true_value=truth[catch], excess=held,
                      window_first=iso(gap_first), window_last=iso(gap_last), after_gap=True)
 
+    def plant_negative_correction(self):
         # Negative correction: Merrowdale removed cases entered twice over the ten days before.
         code, neg = "1306", 108
-        correction = tc(code)[neg] + 33
+        correction = self.tc(code)[neg] + 33
         over_days = list(range(neg - 10, neg))
         shares = [correction // len(over_days)] * len(over_days)
         for i in range(correction - sum(shares)):
             shares[i] += 1
         over = []
         for d, s in zip(over_days, shares):
-            rc(code)[d] = tc(code)[d] + s
-            over.append({"date": iso(d), "true": tc(code)[d], "reported": rc(code)[d]})
-        rc(code)[neg] = tc(code)[neg] - correction
+            self.rc(code)[d] = self.tc(code)[d] + s
+            over.append({"date": iso(d), "true": self.tc(code)[d], "reported": self.rc(code)[d]})
+        self.rc(code)[neg] = self.tc(code)[neg] - correction
         self.add("negative_count", code, "cases", neg, neg, True,
-                 "A negative day: %d cases entered twice earlier were removed on %s." % (correction, iso(neg)),
-                 reported=rc(code)[neg], true_value=tc(code)[neg], correction=correction,
+                 "A negative day: %d cases entered twice earlier were removed on %s."
+                 % (correction, iso(neg)),
+                 reported=self.rc(code)[neg], true_value=self.tc(code)[neg], correction=correction,
                  over_reported_first=iso(over_days[0]), over_reported_last=iso(over_days[-1]),
                  over_reported=over)
 
-        # Missing dates: Tollisant sent no rows on two stretches.
+    def plant_missing_dates(self):
+        # Missing dates: Tollisant sent no rows on two stretches. No row means neither measure,
+        # so each run is one problem with measure null (as the scan reports a run missing in
+        # every measure).
         code = "1310"
         for first, last in ((140, 143), (221, 222)):
-            for measure in ("cases", "deaths"):
-                truth = self.true[code][measure]
-                self.add("missing_dates", code, measure, first, last, True,
-                         "No rows for %s from %s to %s." % (code, iso(first), iso(last)),
-                         days=last - first + 1, true_values=[truth[d] for d in range(first, last + 1)])
+            self.add("missing_dates", code, None, first, last, True,
+                     "No rows for %s from %s to %s." % (code, iso(first), iso(last)),
+                     measures=["cases", "deaths"], days=last - first + 1,
+                     true_values={m: [self.true[code][m][d] for d in range(first, last + 1)]
+                                  for m in ("cases", "deaths")})
             for d in range(first, last + 1):
                 self.reported[code]["cases"][d] = None
                 self.reported[code]["deaths"][d] = None
 
+    def plant_code_variant(self):
         # Code variant: this week's rows for Skaldrin came from a system that drops leading zeros.
         code, variant = "0412", "412"
         new_days = range(PREVIOUS_DAYS, DAYS)
@@ -420,20 +455,24 @@ class Scenario:
         self.add("unknown_code", variant, None, None, None, True,
                  "412 is not in the region register (it is the variant of 0412).",
                  canonical=code)
+        self.add("revision", variant, None, None, None, True,
+                 "The code 412 appeared since the previous release (it is the variant of 0412).",
+                 previous_file=FILE_PREVIOUS, change="region_appeared", canonical=code)
 
+    def plant_revisions(self):
         # Revisions: late reports raised Orrin Fell's cases on six days; Wendlecombe's deaths were
         # reclassified on three days. The previous release holds the old values.
         code = "1405"
         cells = []
         for d, late in zip(range(255, 261), (9, 6, 4, 11, 3, 5)):
-            old = rc(code)[d] - late
+            old = self.rc(code)[d] - late
             if old < 0:
                 old = 0
             self.previous_overrides[(code, "cases", d)] = old
-            cells.append({"date": iso(d), "old": old, "new": rc(code)[d]})
+            cells.append({"date": iso(d), "old": old, "new": self.rc(code)[d]})
         self.add("revision", code, "cases", 255, 260, True,
                  "Late reports raised six days of cases since the previous release.",
-                 previous_file=FILE_PREVIOUS, cells=cells)
+                 previous_file=FILE_PREVIOUS, change="values_changed", cells=cells)
         code = "1408"
         cells = []
         candidates = [d for d in range(226, 252) if self.reported[code]["deaths"][d] >= 1]
@@ -447,8 +486,9 @@ class Scenario:
             cells.append({"date": iso(d), "old": old, "new": new})
         self.add("revision", code, "deaths", revised_days[0], revised_days[-1], True,
                  "Deaths reclassified on three days since the previous release.",
-                 previous_file=FILE_PREVIOUS, cells=cells)
+                 previous_file=FILE_PREVIOUS, change="values_changed", cells=cells)
 
+    def build_province_rows(self):
         # Province rows: sums of the districts' reported rows, except a hierarchy mismatch in
         # Kelvarra, whose province cases for five days were compiled before Cobble Reach reported.
         for prov in REPORTED_PROVINCES:
@@ -463,7 +503,7 @@ class Scenario:
         days = []
         for d in range(first, last + 1):
             children_sum = self.reported[prov]["cases"][d]
-            self.reported[prov]["cases"][d] = children_sum - rc(left_out)[d]
+            self.reported[prov]["cases"][d] = children_sum - self.rc(left_out)[d]
             days.append({"date": iso(d), "parent_reported": self.reported[prov]["cases"][d],
                          "children_sum": children_sum,
                          "difference": self.reported[prov]["cases"][d] - children_sum})
@@ -471,21 +511,38 @@ class Scenario:
                  "Kelvarra's province cases on five days leave out Cobble Reach (1109).",
                  children=children, days=days)
 
-        # Weekday effect: every series carries it (the districts by province strength; the
-        # province rows through their sums).
-        for code, _name, parent, _pop in REGIONS:
-            if parent == "" and code not in REPORTED_PROVINCES:
-                continue
-            prov = parent or code
-            strength = PARAMETERS["weekday_strength_by_province"][prov]
-            factors = [1.0 + strength * (f - 1.0) for f in PARAMETERS["weekday_factors"]]
-            last_day = DAYS - 1
-            if code == "0412":
-                last_day = PREVIOUS_DAYS - 1
-            self.add("weekday_effect", code, "cases", 0, last_day, True,
-                     "Reporting follows the week: low weekends, a Monday catch-up.",
-                     strength=strength,
-                     factors={WEEKDAY_NAMES[i]: round(factors[i], 4) for i in range(7)})
+    def describe_weekday_effect(self):
+        # Weekday effect: every series carries it, the districts at their province's strength
+        # (the province rows through their sums). A drop-wide problem, one per measure, as the
+        # scan pools all regions; the pooled factors are the ratio of expected counts with and
+        # without the effect, per weekday, over every district and day.
+        regions = []
+        for code, _name, parent, _pop in self.districts:
+            strength = PARAMETERS["weekday_strength_by_province"][parent]
+            regions.append({"region": code, "strength": strength,
+                            "factors": {WEEKDAY_NAMES[i]: round(self.factors[code][i], 4) for i in range(7)}})
+        for index, measure in enumerate(("cases", "deaths")):
+            with_effect = [0.0] * 7
+            without = [0.0] * 7
+            for code in self.expected:
+                factors = self.factors[code] if measure == "cases" else self.factors_deaths[code]
+                for t, mu in enumerate(self.expected[code][index]):
+                    with_effect[weekday(t)] += mu
+                    without[weekday(t)] += mu / factors[weekday(t)]
+            pooled = [a / b for a, b in zip(with_effect, without)]
+            mean = sum(pooled) / 7.0
+            pooled = [f / mean for f in pooled]
+            if measure == "cases":
+                self.add("weekday_effect", None, measure, 0, DAYS - 1, True,
+                         "Reporting follows the week: low weekends, a Monday catch-up.",
+                         pooled_factors={WEEKDAY_NAMES[i]: round(pooled[i], 4) for i in range(7)},
+                         regions=regions)
+            else:
+                self.add("weekday_effect", None, measure, 0, DAYS - 1, False,
+                         "Deaths carry the weekday effect at half the cases' strength; weak at these "
+                         "counts, so a scan may or may not report it.",
+                         pooled_factors={WEEKDAY_NAMES[i]: round(pooled[i], 4) for i in range(7)},
+                         strength_relative_to_cases=PARAMETERS["weekday_strength_deaths"])
 
     # -- files -------------------------------------------------------------------------------
     def row_order(self):
@@ -512,7 +569,8 @@ class Scenario:
                 rows.append((iso(d), written, cases, deaths, code, d))
         for code, d in self.extra_rows:
             if d < days:
-                rows.append((iso(d), code, self.reported[code]["cases"][d], self.reported[code]["deaths"][d], code, d))
+                row = self.reported[code]
+                rows.append((iso(d), code, row["cases"][d], row["deaths"][d], code, d))
         return rows
 
     def render_long(self, rows):
@@ -592,6 +650,10 @@ class Scenario:
             "district_waves": self.waves,
             "problems": self.problems,
         }
+        # The bytes each entry describes, so a reader without Python can tell the files still match.
+        for name, info in manifest["files"].items():
+            info["bytes"] = len(files[name])
+            info["sha256"] = hashlib.sha256(files[name]).hexdigest()
         files[FILE_MANIFEST] = (json.dumps(manifest, indent=2, ensure_ascii=False) + "\n").encode("utf-8")
         return files
 
@@ -625,6 +687,8 @@ def verify(files):
             problems.append(message)
 
     manifest = json.loads(files[FILE_MANIFEST].decode("utf-8"))
+    for name, info in manifest["files"].items():
+        check(hashlib.sha256(files[name]).hexdigest() == info["sha256"], "%s: sha256 differs" % name)
     register = list(csv.reader(io.StringIO(files[FILE_REGIONS].decode("utf-8"), newline="")))
     check(register[0] == ["code", "name", "parent", "population"], "register header")
     codes = [r[0] for r in register[1:]]
@@ -685,8 +749,12 @@ def verify(files):
         elif k == "negative_count":
             check(value(cur, r, p["first"], m) == p["reported"] < 0, tag + ": negative")
         elif k == "missing_dates":
+            check(m is None, tag + ": a missing row misses every measure")
             check(all((r, d) not in cur for d in days(p["first"], p["last"])), tag + ": rows present")
             check(len(days(p["first"], p["last"])) == p["days"], tag + ": day count")
+        elif k == "revision" and p["change"] == "region_appeared":
+            check(any(reg == r for reg, _ in cur) and not any(reg == r for reg, _ in prev),
+                  tag + ": region did not appear")
         elif k == "revision":
             for c in p["cells"]:
                 check(value(cur, r, c["date"], m) == c["new"] and value(prev, r, c["date"], m) == c["old"]
@@ -697,18 +765,19 @@ def verify(files):
                 check(s == day["children_sum"] and value(cur, r, day["date"], m) == day["parent_reported"]
                       and day["difference"] != 0, tag + ": day %s" % day["date"])
         elif k == "weekday_effect":
-            check(r in codes, tag + ": region")
+            check(r is None and all(x["region"] in codes for x in p.get("regions", [])), tag + ": regions")
         else:
             check(False, tag + ": unknown kind")
 
     # Everything not planted agrees: province rows sum their children outside the mismatch, and
     # the previous release equals the current one outside the revised cells.
     revised = {(p["region"], c["date"], p["measure"]) for p in manifest["problems"] if p["kind"] == "revision"
-               for c in p["cells"]}
+               for c in p.get("cells", [])}
     for (region, day), v in prev.items():
         for m, i in measure_index.items():
             if (region, day, m) not in revised:
-                check(cur.get((region, day), (None, None))[i] == v[i], "previous differs at %s %s %s" % (region, day, m))
+                check(cur.get((region, day), (None, None))[i] == v[i],
+                      "previous differs at %s %s %s" % (region, day, m))
     for (region, day) in cur:
         check((region, day) in prev or day > manifest["files"][FILE_PREVIOUS]["last"],
               "current has a row missing from previous at %s %s" % (region, day))
@@ -734,7 +803,8 @@ def verify(files):
         day = datetime.date(int(yyyy), int(mm), int(dd)).isoformat()
         for code, cell in zip(header[1:], r[1:]):
             want = value(cur, code, day, "cases")
-            check((cell == "" and want is None) or (cell != "" and int(cell) == want), "wide cell %s %s" % (code, day))
+            check((cell == "" and want is None) or (cell != "" and int(cell) == want),
+                  "wide cell %s %s" % (code, day))
     return problems
 
 

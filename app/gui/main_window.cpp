@@ -1,0 +1,372 @@
+#include "main_window.h"
+
+#include "settings.h"
+
+#include "widgets/background_task.h"
+#include "widgets/drop_loading.h"
+#include "widgets/region_browser.h"
+#include "widgets/region_model.h"
+#include "widgets/series_plot.h"
+#include "widgets/series_view.h"
+#include "widgets/workbench.h"
+
+#include <QAction>
+#include <QApplication>
+#include <QCloseEvent>
+#include <QDockWidget>
+#include <QDragEnterEvent>
+#include <QDropEvent>
+#include <QFileDialog>
+#include <QFileInfo>
+#include <QKeySequence>
+#include <QLabel>
+#include <QLineEdit>
+#include <QLocale>
+#include <QMenu>
+#include <QMenuBar>
+#include <QMessageBox>
+#include <QMimeData>
+#include <QProgressBar>
+#include <QPushButton>
+#include <QStatusBar>
+#include <QTextBrowser>
+
+#include <cstdio>
+
+namespace siftwave::gui {
+
+using widgets::BackgroundTask;
+
+MainWindow::MainWindow(Options options, QWidget* parent)
+    : QMainWindow(parent),
+      m_options(options),
+      m_workbench(new widgets::Workbench(this)),
+      m_regionModel(new widgets::RegionModel(m_workbench, this)),
+      m_browser(new widgets::RegionBrowser(m_regionModel)),
+      m_plot(new widgets::SeriesPlot),
+      m_release(new QTextBrowser),
+      m_dropLabel(new QLabel),
+      m_taskLabel(new QLabel),
+      m_progress(new QProgressBar),
+      m_cancel(new QPushButton(tr("Cancel"))) {
+    setObjectName(QStringLiteral("mainWindow"));
+    setWindowTitle(tr("Siftwave"));
+    setAcceptDrops(true);
+    setDockOptions(AnimatedDocks | AllowNestedDocks | AllowTabbedDocks);
+    setCentralWidget(m_plot);
+
+    buildDocks();
+    buildActions();
+
+    m_progress->setMaximumWidth(180);
+    m_progress->setTextVisible(false);
+    m_cancel->setObjectName(QStringLiteral("cancelTask"));
+    statusBar()->addWidget(m_dropLabel, 1);
+    statusBar()->addPermanentWidget(m_taskLabel);
+    statusBar()->addPermanentWidget(m_progress);
+    statusBar()->addPermanentWidget(m_cancel);
+    setBusy(nullptr);
+    connect(m_cancel, &QPushButton::clicked, this, &MainWindow::cancelBackgroundWork);
+
+    connect(m_workbench, &widgets::Workbench::dropChanged, this, &MainWindow::onDropChanged);
+    connect(m_browser, &widgets::RegionBrowser::regionSelected, this,
+            &MainWindow::onRegionSelected);
+    connect(m_plot, &widgets::SeriesPlot::measureChosen, this, [this](int measure) {
+        m_regionModel->setMeasure(measure);
+        redrawSeries();
+    });
+    connect(m_plot, &widgets::SeriesPlot::secondMeasureChosen, this,
+            [this](int) { redrawSeries(); });
+
+    resize(1360, 860);
+    if (m_options.rememberLayout) {
+        restoreGeometry(settings::windowGeometry());
+        restoreState(settings::windowState());
+    }
+    onDropChanged();
+}
+
+MainWindow::~MainWindow() = default;
+
+void MainWindow::buildDocks() {
+    auto* regions = new QDockWidget(tr("Regions"), this);
+    regions->setObjectName(QStringLiteral("regionsDock"));
+    regions->setWidget(m_browser);
+    addDockWidget(Qt::LeftDockWidgetArea, regions);
+
+    m_release->setObjectName(QStringLiteral("releaseSummary"));
+    m_release->setOpenLinks(false);
+    auto* release = new QDockWidget(tr("Release"), this);
+    release->setObjectName(QStringLiteral("releaseDock"));
+    release->setWidget(m_release);
+    addDockWidget(Qt::LeftDockWidgetArea, release);
+    resizeDocks({regions}, {470}, Qt::Horizontal);
+    resizeDocks({regions, release}, {560, 240}, Qt::Vertical);
+}
+
+void MainWindow::buildActions() {
+    QMenu* file = menuBar()->addMenu(tr("&File"));
+    QAction* open = file->addAction(tr("&Open drop…"), this, &MainWindow::showOpenDialog);
+    open->setShortcut(QKeySequence::Open);
+    open->setObjectName(QStringLiteral("actionOpenDrop"));
+    m_recentMenu = file->addMenu(tr("Open &recent"));
+    rebuildRecentMenu();
+    file->addSeparator();
+    QAction* close = file->addAction(tr("&Close drop"), m_workbench, &widgets::Workbench::close);
+    close->setShortcut(QKeySequence::Close);
+    file->addSeparator();
+    QAction* quit = file->addAction(tr("&Quit"), this, &QWidget::close);
+    quit->setShortcut(QKeySequence::Quit);
+
+    QMenu* view = menuBar()->addMenu(tr("&View"));
+    view->addAction(tr("&Reset plot view"), m_plot, &widgets::SeriesPlot::resetView);
+    QAction* find = view->addAction(tr("&Find region"), this, [this] {
+        m_browser->searchBox()->setFocus();
+        m_browser->searchBox()->selectAll();
+    });
+    find->setShortcut(QKeySequence::Find);
+    view->addSeparator();
+    for (QDockWidget* dock : findChildren<QDockWidget*>())
+        view->addAction(dock->toggleViewAction());
+
+    QMenu* help = menuBar()->addMenu(tr("&Help"));
+    help->addAction(tr("&About Siftwave"), this, [this] {
+        QMessageBox::about(
+            this, tr("About Siftwave"),
+            tr("<p><b>Siftwave %1</b> — a workbench for surveillance case-count releases.</p>"
+               "<p>A fitted curve describes reported counts under the assumption that "
+               "conditions stayed constant; it is not a forecast to act on by itself. "
+               "Defer to the responsible public-health authority and its methods.</p>")
+                .arg(QApplication::applicationVersion()));
+    });
+}
+
+void MainWindow::showOpenDialog() {
+    QString start = m_options.rememberLayout ? settings::lastDirectory() : QString();
+    const QString path = QFileDialog::getOpenFileName(
+        this, tr("Open a data drop"), start, tr("Data drops (*.csv *.tsv *.txt);;All files (*)"));
+    if (path.isEmpty())
+        return;
+    if (m_options.rememberLayout)
+        settings::setLastDirectory(QFileInfo(path).absolutePath());
+    openDrop(path);
+}
+
+void MainWindow::rebuildRecentMenu() {
+    m_recentMenu->clear();
+    const QStringList files = m_options.rememberLayout ? settings::recentFiles() : QStringList();
+    for (const QString& path : files) {
+        QAction* action = m_recentMenu->addAction(QFileInfo(path).fileName(), this,
+                                                  [this, path] { openDrop(path); });
+        action->setToolTip(path);
+        action->setStatusTip(path);
+        action->setEnabled(QFileInfo::exists(path));
+    }
+    if (files.isEmpty())
+        m_recentMenu->addAction(tr("(none yet)"))->setEnabled(false);
+    else {
+        m_recentMenu->addSeparator();
+        m_recentMenu->addAction(tr("Clear the list"), this, [this] {
+            settings::clearRecentFiles();
+            rebuildRecentMenu();
+        });
+    }
+}
+
+void MainWindow::openDrop(const QString& path) {
+    if (m_task)
+        m_task->cancel();
+    widgets::LoadRequest request;
+    request.dropPath = path;
+    BackgroundTask* task = BackgroundTask::start(
+        this, tr("Reading %1").arg(QFileInfo(path).fileName()),
+        [request] { return widgets::loadDrop(request); },
+        [this, path](const widgets::LoadedDrop& loaded) {
+            if (!loaded.ok()) {
+                const QString message = widgets::describeError(*loaded.error);
+                showError(tr("The drop could not be read"), message);
+                Q_EMIT dropFailed(message);
+                return;
+            }
+            m_workbench->setDrop(loaded.drop, loaded.regionRegister);
+            if (loaded.registerError)
+                showError(tr("The region register could not be read"),
+                          widgets::describeError(*loaded.registerError) +
+                              tr("\n\nThe drop is open without region names."));
+            if (m_options.rememberLayout) {
+                settings::addRecentFile(QFileInfo(path).absoluteFilePath());
+                rebuildRecentMenu();
+            }
+            Q_EMIT dropOpened(path);
+        });
+    setBusy(task);
+}
+
+void MainWindow::cancelBackgroundWork() {
+    if (m_task)
+        m_task->cancel();
+}
+
+void MainWindow::setBusy(BackgroundTask* task) {
+    m_task = task;
+    const bool busy = task != nullptr;
+    m_taskLabel->setVisible(busy);
+    m_progress->setVisible(busy);
+    m_cancel->setVisible(busy);
+    if (!busy)
+        return;
+    m_taskLabel->setText(task->title());
+    m_progress->setRange(0, 0);  // busy until the work reports how far it is
+    connect(task, &BackgroundTask::progressChanged, m_progress, [this](int done, int total) {
+        m_progress->setRange(0, total);
+        m_progress->setValue(done);
+    });
+    connect(task, &BackgroundTask::finished, this, [this] { setBusy(nullptr); });
+}
+
+void MainWindow::showError(const QString& title, const QString& message) {
+    std::fprintf(stderr, "siftwave: %s\n", qPrintable(message));
+    if (!m_options.dialogs)
+        return;
+    auto* box = new QMessageBox(QMessageBox::Warning, title, message, QMessageBox::Ok, this);
+    box->setObjectName(QStringLiteral("errorDialog"));
+    box->setAttribute(Qt::WA_DeleteOnClose);
+    box->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    box->open();  // window-modal, does not block the event loop
+}
+
+void MainWindow::onDropChanged() {
+    QStringList measures;
+    if (m_workbench->hasDrop()) {
+        const Drop& drop = m_workbench->drop();
+        for (const std::string& m : drop.measures)
+            measures << QString::fromStdString(m);
+        const QFileInfo info(m_workbench->dropPath());
+        setWindowTitle(tr("%1 — Siftwave").arg(info.fileName()));
+        m_dropLabel->setText(tr("%1 · %2 regions · %3 to %4 · SHA-256 %5…")
+                                 .arg(info.fileName())
+                                 .arg(drop.regionCodes.size())
+                                 .arg(QString::fromStdString(drop.firstDay.iso()),
+                                      QString::fromStdString(drop.lastDay().iso()),
+                                      QString::fromStdString(drop.source.sha256.substr(0, 12))));
+    } else {
+        setWindowTitle(tr("Siftwave"));
+        m_dropLabel->setText(tr("No drop open — File ▸ Open drop, or drop a CSV file here"));
+    }
+    m_plot->setMeasures(measures);
+    updateReleaseSummary();
+    // The browser selects the previous region again if the new drop has it; otherwise the first
+    // one.
+    if (m_workbench->hasDrop() && m_browser->currentRegion().isEmpty()) {
+        const QString first = m_browser->firstRegionWithData();
+        if (!first.isEmpty())
+            m_browser->selectRegion(first);
+    }
+    if (!m_workbench->hasDrop())
+        m_plot->setView(widgets::SeriesView{});
+}
+
+bool MainWindow::selectRegion(const QString& code) {
+    return m_browser->selectRegion(code);
+}
+
+QString MainWindow::currentRegion() const {
+    return m_currentRegion;
+}
+
+void MainWindow::onRegionSelected(const QString& code) {
+    m_currentRegion = code;
+    redrawSeries();
+}
+
+void MainWindow::redrawSeries() {
+    m_plot->setView(
+        m_workbench->seriesView(m_currentRegion, m_plot->measure(), m_plot->secondMeasure()));
+}
+
+void MainWindow::updateReleaseSummary() {
+    if (!m_workbench->hasDrop()) {
+        m_release->setHtml(tr("<p><i>No drop open.</i></p>"));
+        return;
+    }
+    const Drop& drop = m_workbench->drop();
+    const Provenance& src = drop.source;
+    const CellCounts cells = drop.countCells();
+    auto row = [](const QString& label, const QString& value) {
+        return QStringLiteral(
+                   "<tr><td style='color:#555;padding-right:8px'>%1</td><td>%2</td></tr>")
+            .arg(label, value);
+    };
+    auto text = [](const std::string& s) { return QString::fromStdString(s).toHtmlEscaped(); };
+    const QLocale c = QLocale::c();
+    QString delimiter =
+        src.dialect.delimiter == '\t' ? tr("tab") : QString(QLatin1Char(src.dialect.delimiter));
+    QStringList measures;
+    for (const std::string& m : drop.measures)
+        measures << QString::fromStdString(m).toHtmlEscaped();
+    QString html = QStringLiteral("<table cellspacing='0'>");
+    html += row(tr("File"), text(src.path));
+    html += row(tr("Size"), tr("%1 bytes").arg(c.toString(static_cast<qulonglong>(src.bytes))));
+    html += row(tr("SHA-256"), QStringLiteral("<tt>%1</tt>").arg(text(src.sha256)));
+    html += row(tr("Layout"), tr("%1, delimiter “%2”, %3")
+                                  .arg(QString::fromLatin1(layoutName(src.layout)), delimiter,
+                                       src.dialect.header ? tr("with header") : tr("no header")));
+    html += row(tr("Dates"), tr("%1 to %2 (%3 days, read as %4)")
+                                 .arg(QString::fromStdString(drop.firstDay.iso()),
+                                      QString::fromStdString(drop.lastDay().iso()))
+                                 .arg(drop.days)
+                                 .arg(text(src.dateFormat)));
+    html += row(tr("Rows"), c.toString(static_cast<qulonglong>(drop.rows)));
+    html += row(tr("Regions"), c.toString(static_cast<qulonglong>(drop.regionCodes.size())));
+    html += row(tr("Measures"), measures.join(QStringLiteral(", ")));
+    html += row(tr("Cells"), tr("%1 reported, %2 absent, %3 blank, %4 unparsable")
+                                 .arg(c.toString(static_cast<qulonglong>(cells.reported)),
+                                      c.toString(static_cast<qulonglong>(cells.absent)),
+                                      c.toString(static_cast<qulonglong>(cells.blank)),
+                                      c.toString(static_cast<qulonglong>(cells.unparsable))));
+    html += row(tr("Duplicate rows"), c.toString(static_cast<qulonglong>(drop.duplicates.size())));
+    if (const RegionRegister* reg = m_workbench->regionRegister())
+        html += row(tr("Register"), text(reg->path));
+    html += QStringLiteral("</table>");
+    if (!drop.warnings.empty()) {
+        html += tr("<p><b>%1 warning(s) from the reader</b></p><ul>").arg(drop.warnings.size());
+        const std::size_t shown = std::min<std::size_t>(drop.warnings.size(), 25);
+        for (std::size_t i = 0; i < shown; ++i) {
+            const Warning& w = drop.warnings[i];
+            QString where = w.line ? tr("line %1").arg(w.line) : QString();
+            if (w.column)
+                where += tr(", column %1").arg(w.column);
+            html += QStringLiteral("<li>%1%2</li>")
+                        .arg(where.isEmpty() ? QString() : where + QStringLiteral(": "),
+                             text(w.message));
+        }
+        if (shown < drop.warnings.size())
+            html += tr("<li>… and %1 more</li>").arg(drop.warnings.size() - shown);
+        html += QStringLiteral("</ul>");
+    }
+    m_release->setHtml(html);
+}
+
+void MainWindow::closeEvent(QCloseEvent* event) {
+    if (m_options.rememberLayout) {
+        settings::setWindowGeometry(saveGeometry());
+        settings::setWindowState(saveState());
+    }
+    QMainWindow::closeEvent(event);
+}
+
+void MainWindow::dragEnterEvent(QDragEnterEvent* event) {
+    const QMimeData* mime = event->mimeData();
+    if (mime->hasUrls() && !mime->urls().isEmpty() && mime->urls().front().isLocalFile())
+        event->acceptProposedAction();
+}
+
+void MainWindow::dropEvent(QDropEvent* event) {
+    const QList<QUrl> urls = event->mimeData()->urls();
+    if (urls.isEmpty() || !urls.front().isLocalFile())
+        return;
+    event->acceptProposedAction();
+    openDrop(urls.front().toLocalFile());
+}
+
+}  // namespace siftwave::gui

@@ -1,0 +1,568 @@
+#include "siftwave/fit/fit.h"
+
+#include "fit/likelihood.h"
+#include "siftwave/series/smoothing.h"
+
+#include <Eigen/Dense>
+#include <boost/math/distributions/normal.hpp>
+#include <boost/math/distributions/students_t.hpp>
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <limits>
+#include <numbers>
+
+namespace siftwave::fit {
+namespace {
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+using Matrix = Eigen::MatrixXd;
+
+// Smoothing kernel of the centred average: weights a_k, k = -h..h.
+std::vector<double> centredKernel(int window) {
+    if (window % 2 == 1)
+        return std::vector<double>(static_cast<std::size_t>(window), 1.0 / window);
+    std::vector<double> k(static_cast<std::size_t>(window) + 1, 1.0 / window);
+    k.front() = k.back() = 0.5 / window;
+    return k;
+}
+
+// ---------------------------------------------------------------- least squares on the average
+// Residual i: w_i ((A f)(t_i) - y_i), where y is the centred average of the counts and A f the
+// same average applied to the model, so that smoothing widens model and data alike and the
+// parameters keep their meaning (no smoothing bias in the peak or the width).
+class SmoothedLeastSquares final : public LeastSquaresProblem {
+public:
+    SmoothedLeastSquares(const WaveModel& model, std::vector<double> t, std::vector<double> y,
+                         std::vector<double> w, std::vector<double> kernel, int span)
+        : m_model(model),
+          m_t(std::move(t)),
+          m_y(std::move(y)),
+          m_w(std::move(w)),
+          m_kernel(std::move(kernel)),
+          m_h(static_cast<int>(m_kernel.size()) / 2) {
+        // Model days: every day from t_0 - h to t_last + h (the window spans `span` days).
+        for (int d = -m_h; d < span + m_h; ++d)
+            m_days.push_back(d);
+        m_f.resize(m_days.size());
+        m_jf.resize(m_days.size() * static_cast<std::size_t>(model.parameterCount()));
+    }
+    int residualCount() const override { return static_cast<int>(m_t.size()); }
+    int parameterCount() const override { return m_model.parameterCount(); }
+    bool evaluate(std::span<const double> p, std::span<double> r,
+                  std::span<double> jac) const override {
+        if (!m_model.valid(p))
+            return false;
+        m_model.incidence(m_days, p, m_f,
+                          jac.empty() ? std::span<double>{} : std::span<double>(m_jf));
+        const std::size_t np = p.size();
+        for (std::size_t i = 0; i < m_t.size(); ++i) {
+            const int centre = static_cast<int>(m_t[i]) + m_h;  // index into m_days
+            double model = 0;
+            if (!jac.empty())
+                std::fill_n(&jac[i * np], np, 0.0);
+            for (int k = -m_h; k <= m_h; ++k) {
+                const double a = m_kernel[static_cast<std::size_t>(k + m_h)];
+                const std::size_t d = static_cast<std::size_t>(centre + k);
+                model += a * m_f[d];
+                if (!jac.empty()) {
+                    for (std::size_t j = 0; j < np; ++j)
+                        jac[i * np + j] += a * m_jf[d * np + j];
+                }
+            }
+            r[i] = m_w[i] * (model - m_y[i]);
+            if (!jac.empty()) {
+                for (std::size_t j = 0; j < np; ++j)
+                    jac[i * np + j] *= m_w[i];
+            }
+        }
+        return true;
+    }
+
+private:
+    const WaveModel& m_model;
+    std::vector<double> m_t, m_y, m_w, m_kernel;
+    int m_h;
+    std::vector<double> m_days;
+    mutable std::vector<double> m_f, m_jf;
+};
+
+// ---------------------------------------------------------------- small numerical helpers
+template <class F>
+double goldenMaximum(F g, double a, double b, int iterations = 60) {
+    const double r = (std::sqrt(5.0) - 1.0) / 2.0;
+    double c = b - r * (b - a), d = a + r * (b - a);
+    double gc = g(c), gd = g(d);
+    for (int i = 0; i < iterations && std::abs(b - a) > 1e-9; ++i) {
+        if (gc > gd) {
+            b = d;
+            d = c;
+            gd = gc;
+            c = b - r * (b - a);
+            gc = g(c);
+        } else {
+            a = c;
+            c = d;
+            gc = gd;
+            d = a + r * (b - a);
+            gd = g(d);
+        }
+    }
+    return 0.5 * (a + b);
+}
+
+enum DerivedIndex {
+    kPeakDay,
+    kPeakIncidence,
+    kWaveSize,
+    kFraction,
+    kStart,
+    kEnd,
+    kFastest,
+    kDoubling,
+    kLoad,
+    kDerivedCount
+};
+
+std::array<double, kDerivedCount> derive(const WaveModel& model, std::span<const double> p,
+                                         const FitOptions& o, double lastDataDay) {
+    std::array<double, kDerivedCount> d{};
+    const double K = p[0];
+    const double peak = model.peakTime(p);
+    d[kPeakDay] = peak;
+    d[kPeakIncidence] = model.incidenceAt(peak, p);
+    d[kWaveSize] = K;
+    d[kFraction] = model.cumulative(lastDataDay + 0.5, p) / K;
+    d[kStart] = model.quantileTime(o.startQuantile, p);
+    d[kEnd] = model.quantileTime(o.endQuantile, p);
+    const double scale = std::max(1e-3, d[kEnd] - d[kStart]);
+    const double h = 1e-4 * scale;
+    auto slope = [&](double t) {
+        return (model.incidenceAt(t + h, p) - model.incidenceAt(t - h, p)) / (2 * h);
+    };
+    const double early = model.quantileTime(1e-6, p);
+    d[kFastest] = goldenMaximum(slope, std::min(early, peak - h), peak);
+    const double f1 = model.incidenceAt(d[kStart] + h, p), f0 = model.incidenceAt(d[kStart] - h, p);
+    const double growth = (f1 > 0 && f0 > 0) ? (std::log(f1) - std::log(f0)) / (2 * h) : kNaN;
+    d[kDoubling] = growth > 0 ? std::numbers::ln2 / growth : kNaN;
+    const double W = o.infectiousWindowDays;
+    auto load = [&](double t) { return model.cumulative(t, p) - model.cumulative(t - W, p); };
+    const double at = goldenMaximum(load, peak - 1.0, peak + W + 1.0);
+    d[kLoad] = load(at);
+    return d;
+}
+
+Estimate estimateFrom(double value, double se, double q) {
+    Estimate e;
+    e.value = value;
+    e.se = se;
+    e.lower = std::isfinite(se) ? value - q * se : kNaN;
+    e.upper = std::isfinite(se) ? value + q * se : kNaN;
+    return e;
+}
+
+double quantileFor(FitMethod method, int dof) {
+    if (method == FitMethod::LeastSquares && dof > 0) {
+        return boost::math::quantile(boost::math::students_t(static_cast<double>(dof)), 0.975);
+    }
+    return boost::math::quantile(boost::math::normal(), 0.975);
+}
+
+// ---------------------------------------------------------------- window choice
+Result<std::pair<int, int>> chooseWindow(std::span<const double> counts, const FitOptions& o,
+                                         std::vector<Wave>& waves) {
+    waves = detectWaves(counts, o.detection);
+    const int n = static_cast<int>(counts.size());
+    if (o.window) {
+        auto [a, b] = *o.window;
+        if (a < 0 || b >= n || b < a) {
+            return makeError(ErrorCode::Usage,
+                             "the fit window " + std::to_string(a) + ".." + std::to_string(b) +
+                                 " lies outside the series (0.." + std::to_string(n - 1) + ")");
+        }
+        return std::pair{a, b};
+    }
+    if (waves.empty()) {
+        return makeError(ErrorCode::NotFound,
+                         "no wave found: the smoothed series never rises by the required share "
+                         "(give the window as FIRST:LAST)");
+    }
+    const Wave* chosen = &waves.front();
+    switch (o.wave) {
+        case WaveChoice::Largest:
+            for (const Wave& w : waves) {
+                if (w.peakValue > chosen->peakValue)
+                    chosen = &w;
+            }
+            break;
+        case WaveChoice::Latest:
+            chosen = &waves.back();
+            break;
+        case WaveChoice::Index:
+            if (o.waveIndex < 0 || o.waveIndex >= static_cast<int>(waves.size())) {
+                return makeError(ErrorCode::NotFound, "wave " + std::to_string(o.waveIndex + 1) +
+                                                          " asked for, " +
+                                                          std::to_string(waves.size()) + " found");
+            }
+            chosen = &waves[static_cast<std::size_t>(o.waveIndex)];
+            break;
+    }
+    return std::pair{chosen->first, chosen->last};
+}
+
+}  // namespace
+
+// ---------------------------------------------------------------- names, options, summary
+const char* methodName(FitMethod method) {
+    switch (method) {
+        case FitMethod::LeastSquares:
+            return "lsq";
+        case FitMethod::Poisson:
+            return "poisson";
+        case FitMethod::NegativeBinomial:
+            return "negbin";
+    }
+    return "unknown";
+}
+
+std::optional<FitMethod> methodFromName(std::string_view name) {
+    for (FitMethod m : {FitMethod::LeastSquares, FitMethod::Poisson, FitMethod::NegativeBinomial}) {
+        if (name == methodName(m))
+            return m;
+    }
+    return std::nullopt;
+}
+
+Status FitOptions::validate() const {
+    if (smoothingWindow < 1 || smoothingWindow > 365) {
+        return makeError(ErrorCode::Usage, "the smoothing window must be between 1 and 365 days");
+    }
+    if (!(startQuantile > 0 && startQuantile < endQuantile && endQuantile < 1)) {
+        return makeError(ErrorCode::Usage,
+                         "start and end quantiles must satisfy 0 < start < end < 1");
+    }
+    if (infectiousWindowDays < 1 || infectiousWindowDays > 365) {
+        return makeError(ErrorCode::Usage, "the infectious window must be between 1 and 365 days");
+    }
+    if (window && (window->first < 0 || window->second < window->first)) {
+        return makeError(ErrorCode::Usage, "the fit window must satisfy 0 <= FIRST <= LAST");
+    }
+    if (weekdayFactors && method == FitMethod::LeastSquares) {
+        return makeError(
+            ErrorCode::Usage,
+            "weekday factors are estimated by the likelihood methods (poisson, negbin); "
+            "least squares fits the 7-day average, which has no weekday effect");
+    }
+    if (auto s = detection.validate(); !s)
+        return s;
+    return solver.validate();
+}
+
+std::string FitSummary::brief() const {
+    char buf[160];
+    std::snprintf(buf, sizeof buf, "%s (%s) after %d iterations",
+                  converged() ? "converged" : "not converged", terminationName(termination),
+                  iterations);
+    std::string out = buf;
+    if (!message.empty() && message != "converged")
+        out += ": " + message;
+    for (const auto& n : notes)
+        out += "; " + n;
+    return out;
+}
+
+Date FitResult::dateOf(double day) const {
+    return windowFirst() + static_cast<int>(std::lround(std::isfinite(day) ? day : 0.0));
+}
+
+std::vector<double> FitResult::parameterValues() const {
+    std::vector<double> v;
+    for (const auto& p : parameters)
+        v.push_back(p.estimate.value);
+    return v;
+}
+
+// ---------------------------------------------------------------- the fit
+Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
+                            std::optional<double> population) {
+    if (auto s = o.validate(); !s)
+        return s.error();
+    const auto counts = series.counts;
+    const int n = static_cast<int>(counts.size());
+    if (n < 5)
+        return makeError(ErrorCode::NotFound, "the series has fewer than 5 days");
+
+    FitResult res;
+    res.model = o.model;
+    res.method = o.method;
+    res.seriesFirstDay = series.firstDay;
+    res.options = o;
+    auto window = chooseWindow(counts, o, res.waves);
+    if (!window)
+        return window.error();
+    res.first = window->first;
+    res.last = window->second;
+    const WaveModel& model = waveModel(o.model);
+    const int np = model.parameterCount();
+
+    int lastData = -1;
+    for (int i = n - 1; i >= 0; --i) {
+        if (std::isfinite(counts[static_cast<std::size_t>(i)])) {
+            lastData = i;
+            break;
+        }
+    }
+    const double lastDataDay = lastData - res.first;
+
+    // Starting values from the centred average over the window (partial edges).
+    const std::vector<double> smoothedPartial =
+        series::centredMovingAverage(counts, std::max(o.smoothingWindow, 1));
+    std::vector<double> tAll, yAll;
+    for (int i = res.first; i <= res.last; ++i) {
+        tAll.push_back(i - res.first);
+        yAll.push_back(smoothedPartial[static_cast<std::size_t>(i)]);
+    }
+    auto start = model.initialGuess(tAll, yAll);
+    if (!start) {
+        return makeError(ErrorCode::Numerical,
+                         "the window holds too few positive counts for a starting guess");
+    }
+
+    std::vector<double> params;
+    std::vector<double> covariance;  // model parameters, np x np
+    Matrix fullCov;
+    int dof = 0;
+    if (o.method == FitMethod::LeastSquares) {
+        const std::vector<double> target =
+            series::centredMovingAverage(counts, o.smoothingWindow, series::EdgeRule::Missing);
+        std::vector<double> t, y, w;
+        for (int i = res.first; i <= res.last; ++i) {
+            const double v = target[static_cast<std::size_t>(i)];
+            if (!std::isfinite(v))
+                continue;
+            t.push_back(i - res.first);
+            y.push_back(v);
+            w.push_back(o.weighted ? 1.0 / std::sqrt(std::max(v, 1.0)) : 1.0);
+        }
+        if (static_cast<int>(t.size()) <= np + 1) {
+            return makeError(ErrorCode::NotFound, "the window has too few days for this model");
+        }
+        SmoothedLeastSquares problem(model, t, y, w, centredKernel(o.smoothingWindow),
+                                     res.last - res.first + 1);
+        const SolverResult sr = solveLeastSquares(problem, *start, o.solver);
+        if (sr.summary.termination == Termination::InvalidStart) {
+            return makeError(ErrorCode::Numerical, "the model cannot be evaluated at its start");
+        }
+        params = sr.parameters;
+        res.summary.termination = sr.summary.termination;
+        res.summary.iterations = sr.summary.iterations;
+        res.summary.evaluations = sr.summary.evaluations;
+        res.summary.message = sr.summary.message;
+        const int m = static_cast<int>(t.size());
+        dof = m - np;
+
+        // Sandwich covariance through the smoothing operator (see fit.h).
+        covariance.assign(static_cast<std::size_t>(np * np), kNaN);
+        if (sr.covarianceAvailable) {
+            std::vector<double> jac(static_cast<std::size_t>(m * np)),
+                r(static_cast<std::size_t>(m));
+            problem.evaluate(params, r, jac);
+            const std::vector<double> kernel = centredKernel(o.smoothingWindow);
+            const int h = static_cast<int>(kernel.size()) / 2;
+            const int kFirst = res.first - h, kLast = res.last + h;
+            Matrix G = Matrix::Zero(kLast - kFirst + 1, np);
+            for (int i = 0; i < m; ++i) {
+                const int day = res.first + static_cast<int>(t[static_cast<std::size_t>(i)]);
+                for (int k = -h; k <= h; ++k) {
+                    const double a = kernel[static_cast<std::size_t>(k + h)];
+                    for (int j = 0; j < np; ++j) {
+                        G(day + k - kFirst, j) += a * w[static_cast<std::size_t>(i)] *
+                                                  jac[static_cast<std::size_t>(i * np + j)];
+                    }
+                }
+            }
+            Matrix meat = Matrix::Zero(np, np);
+            std::vector<double> tk(1);
+            std::vector<double> fk(1);
+            for (int k = kFirst; k <= kLast; ++k) {
+                if (k < 0 || k >= n)
+                    continue;
+                const double x = counts[static_cast<std::size_t>(k)];
+                if (!std::isfinite(x))
+                    continue;
+                tk[0] = k - res.first;
+                model.incidence(tk, params, fk);
+                const double e = x - fk[0];
+                const Eigen::VectorXd g = G.row(k - kFirst).transpose();
+                meat += g * g.transpose() * (e * e);
+            }
+            meat *= static_cast<double>(m) / std::max(1, m - np);  // HC1 small-sample factor
+            const Eigen::Map<
+                const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>
+                bread(sr.unscaledCovariance.data(), np, np);
+            const Matrix cov = bread * meat * bread;
+            for (int a = 0; a < np; ++a) {
+                for (int b = 0; b < np; ++b)
+                    covariance[static_cast<std::size_t>(a * np + b)] = cov(a, b);
+            }
+        }
+
+        // Goodness of fit on the smoothed target.
+        double rss = 0, wrss = 0, mean = 0;
+        for (double v : y)
+            mean += v;
+        mean /= m;
+        double tss = 0;
+        std::vector<double> f(static_cast<std::size_t>(m));
+        problem.evaluate(params, f, {});  // w_i (A f - y)_i
+        for (int i = 0; i < m; ++i) {
+            const double e = -f[static_cast<std::size_t>(i)] / w[static_cast<std::size_t>(i)];
+            rss += e * e;
+            wrss += e * e * w[static_cast<std::size_t>(i)] * w[static_cast<std::size_t>(i)];
+            tss +=
+                (y[static_cast<std::size_t>(i)] - mean) * (y[static_cast<std::size_t>(i)] - mean);
+        }
+        GoodnessOfFit& g = res.goodness;
+        g.observations = m;
+        g.parameters = np + 1;
+        g.rss = rss;
+        g.r2 = tss > 0 ? 1.0 - rss / tss : kNaN;
+        g.rmse = std::sqrt(rss / m);
+        g.logLikelihood = -0.5 * m * (std::log(2.0 * std::numbers::pi * wrss / m) + 1.0);
+    } else {
+        detail::LikelihoodFit lf =
+            detail::fitLikelihood(model, counts, series.firstDay, res.first, res.last, *start, o);
+        if (!lf.ok)
+            return makeError(ErrorCode::Numerical, lf.message);
+        params = lf.parameters;
+        covariance = lf.modelCovariance;
+        res.weekdayFactors = lf.weekdayFactors;
+        res.dispersion = lf.dispersion;
+        res.summary.termination = lf.summary.termination;
+        res.summary.iterations = lf.summary.iterations;
+        res.summary.evaluations = lf.summary.evaluations;
+        res.summary.message = lf.summary.message;
+        res.goodness = lf.goodness;
+        dof = res.goodness.observations - np;
+    }
+
+    // Parameters with intervals.
+    const double q = quantileFor(o.method, dof);
+    const auto names = model.names();
+    for (int j = 0; j < np; ++j) {
+        const double var = covariance[static_cast<std::size_t>(j * np + j)];
+        res.parameters.push_back({names[static_cast<std::size_t>(j)],
+                                  estimateFrom(params[static_cast<std::size_t>(j)],
+                                               var >= 0 ? std::sqrt(var) : kNaN, q)});
+    }
+
+    // Fitted incidence over the window.
+    res.fitted.resize(static_cast<std::size_t>(res.last - res.first + 1));
+    model.incidence(tAll, params, res.fitted);
+    if (!res.weekdayFactors.empty()) {
+        for (int i = res.first; i <= res.last; ++i) {
+            res.fitted[static_cast<std::size_t>(i - res.first)] *=
+                res.weekdayFactors[static_cast<std::size_t>((series.firstDay + i).isoWeekday() -
+                                                            1)];
+        }
+    }
+    const GoodnessOfFit& g = res.goodness;
+    res.goodness.aic = -2.0 * g.logLikelihood + 2.0 * g.parameters;
+    const int denom = g.observations - g.parameters - 1;
+    res.goodness.aicc =
+        denom > 0 ? res.goodness.aic + 2.0 * g.parameters * (g.parameters + 1) / denom : kNaN;
+
+    // Derived quantities, delta method.
+    const auto d0 = derive(model, params, o, lastDataDay);
+    std::array<double, kDerivedCount> se;
+    se.fill(kNaN);
+    const bool haveCov = std::all_of(covariance.begin(), covariance.end(),
+                                     [](double v) { return std::isfinite(v); });
+    if (o.derivedIntervals && haveCov) {
+        Matrix grad(kDerivedCount, np);
+        for (int j = 0; j < np; ++j) {
+            std::vector<double> up = params, down = params;
+            const double step =
+                1e-5 * std::max(std::abs(params[static_cast<std::size_t>(j)]), 1e-2);
+            up[static_cast<std::size_t>(j)] += step;
+            down[static_cast<std::size_t>(j)] -= step;
+            if (!model.valid(up) || !model.valid(down)) {
+                grad.col(j).setConstant(kNaN);
+                continue;
+            }
+            const auto du = derive(model, up, o, lastDataDay);
+            const auto dd = derive(model, down, o, lastDataDay);
+            for (int k = 0; k < kDerivedCount; ++k)
+                grad(k, j) = (du[k] - dd[k]) / (2 * step);
+        }
+        const Eigen::Map<
+            const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>
+            cov(covariance.data(), np, np);
+        const Matrix v = grad * cov * grad.transpose();
+        for (int k = 0; k < kDerivedCount; ++k)
+            se[k] = v(k, k) >= 0 ? std::sqrt(v(k, k)) : kNaN;
+    }
+    DerivedQuantities& dq = res.derived;
+    dq.peakDay = estimateFrom(d0[kPeakDay], se[kPeakDay], q);
+    dq.peakIncidence = estimateFrom(d0[kPeakIncidence], se[kPeakIncidence], q);
+    dq.waveSize = estimateFrom(d0[kWaveSize], se[kWaveSize], q);
+    dq.fractionObserved = estimateFrom(d0[kFraction], se[kFraction], q);
+    dq.startDay = estimateFrom(d0[kStart], se[kStart], q);
+    dq.endDay = estimateFrom(d0[kEnd], se[kEnd], q);
+    dq.fastestGrowthDay = estimateFrom(d0[kFastest], se[kFastest], q);
+    dq.doublingTimeDays = estimateFrom(d0[kDoubling], se[kDoubling], q);
+    dq.peakInfectiousLoad = estimateFrom(d0[kLoad], se[kLoad], q);
+    if (population && *population > 0) {
+        const double pop = *population;
+        dq.peakInfectiousLoadPer100k =
+            estimateFrom(d0[kLoad] * 1e5 / pop, se[kLoad] * 1e5 / pop, q);
+        dq.log10InfectiousShare = estimateFrom(std::log10(d0[kLoad] / pop),
+                                               se[kLoad] / (d0[kLoad] * std::numbers::ln10), q);
+    }
+
+    // Notes a reader should see.
+    if (d0[kPeakDay] < 0 || d0[kPeakDay] > res.last - res.first) {
+        res.summary.notes.push_back("the fitted peak lies outside the window");
+    }
+    if (d0[kFraction] < 0.5) {
+        res.summary.notes.push_back(
+            "less than half of the fitted wave is observed: K is uncertain");
+    }
+    if (!haveCov)
+        res.summary.notes.push_back("standard errors unavailable (singular information)");
+    return res;
+}
+
+std::vector<ModelComparisonRow> compareModels(const DailySeries& series, const FitOptions& options,
+                                              std::optional<double> population) {
+    std::vector<ModelComparisonRow> rows;
+    for (ModelKind kind : kAllModels) {
+        FitOptions o = options;
+        o.model = kind;
+        ModelComparisonRow row;
+        row.model = kind;
+        auto r = fitSeries(series, o, population);
+        if (r) {
+            row.fit = std::move(r.value());
+        } else {
+            row.error = r.error().message;
+        }
+        rows.push_back(std::move(row));
+    }
+    return rows;
+}
+
+const ModelComparisonRow* bestByAicc(const std::vector<ModelComparisonRow>& rows) {
+    const ModelComparisonRow* best = nullptr;
+    for (const auto& row : rows) {
+        if (!row.fit || !row.fit->summary.converged() || !std::isfinite(row.fit->goodness.aicc)) {
+            continue;
+        }
+        if (!best || row.fit->goodness.aicc < best->fit->goodness.aicc)
+            best = &row;
+    }
+    return best;
+}
+
+}  // namespace siftwave::fit

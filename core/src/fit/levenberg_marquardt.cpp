@@ -1,0 +1,315 @@
+#include "siftwave/fit/levenberg_marquardt.h"
+
+#include <Eigen/Dense>
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <limits>
+
+namespace siftwave::fit {
+namespace {
+
+using Matrix = Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>;
+using Vector = Eigen::VectorXd;
+
+bool allFinite(const double* v, std::size_t n) {
+    for (std::size_t i = 0; i < n; ++i) {
+        if (!std::isfinite(v[i]))
+            return false;
+    }
+    return true;
+}
+
+// Residuals and Jacobian at x, analytic or by central differences.
+class Evaluator {
+public:
+    Evaluator(const LeastSquaresProblem& problem, SolverSummary& summary)
+        : m_problem(problem),
+          m_summary(summary),
+          m_m(problem.residualCount()),
+          m_n(problem.parameterCount()),
+          m_scratch(static_cast<std::size_t>(m_m)),
+          m_scratch2(static_cast<std::size_t>(m_m)) {}
+
+    bool residuals(const Vector& x, Vector& r) {
+        ++m_summary.evaluations;
+        r.resize(m_m);
+        const bool ok = m_problem.evaluate({x.data(), static_cast<std::size_t>(m_n)},
+                                           {r.data(), static_cast<std::size_t>(m_m)}, {});
+        return ok && allFinite(r.data(), static_cast<std::size_t>(m_m));
+    }
+
+    bool residualsAndJacobian(const Vector& x, Vector& r, Matrix& J) {
+        r.resize(m_m);
+        J.resize(m_m, m_n);
+        if (m_problem.hasJacobian()) {
+            ++m_summary.evaluations;
+            const bool ok = m_problem.evaluate(
+                {x.data(), static_cast<std::size_t>(m_n)},
+                {r.data(), static_cast<std::size_t>(m_m)},
+                {J.data(), static_cast<std::size_t>(m_m) * static_cast<std::size_t>(m_n)});
+            return ok && allFinite(r.data(), static_cast<std::size_t>(m_m)) &&
+                   allFinite(J.data(), static_cast<std::size_t>(J.size()));
+        }
+        if (!residuals(x, r))
+            return false;
+        Vector xp = x;
+        for (int j = 0; j < m_n; ++j) {
+            const double step =
+                std::cbrt(std::numeric_limits<double>::epsilon()) * std::max(std::abs(x[j]), 1e-3);
+            xp[j] = x[j] + step;
+            ++m_summary.evaluations;
+            const bool up =
+                m_problem.evaluate({xp.data(), static_cast<std::size_t>(m_n)}, m_scratch, {});
+            xp[j] = x[j] - step;
+            ++m_summary.evaluations;
+            const bool down =
+                m_problem.evaluate({xp.data(), static_cast<std::size_t>(m_n)}, m_scratch2, {});
+            xp[j] = x[j];
+            if (!up || !down)
+                return false;
+            for (int i = 0; i < m_m; ++i) {
+                J(i, j) = (m_scratch[static_cast<std::size_t>(i)] -
+                           m_scratch2[static_cast<std::size_t>(i)]) /
+                          (2.0 * step);
+            }
+        }
+        return allFinite(J.data(), static_cast<std::size_t>(J.size()));
+    }
+
+private:
+    const LeastSquaresProblem& m_problem;
+    SolverSummary& m_summary;
+    int m_m;
+    int m_n;
+    std::vector<double> m_scratch;
+    std::vector<double> m_scratch2;
+};
+
+void fillCovariance(const Matrix& J, SolverResult& result) {
+    const auto n = static_cast<std::size_t>(J.cols());
+    result.unscaledCovariance.assign(n * n, std::numeric_limits<double>::quiet_NaN());
+    result.covarianceAvailable = false;
+    if (J.rows() < J.cols())
+        return;
+    // Column scaling first, so that parameters of very different sizes do not fake a rank loss.
+    Vector scale = J.colwise().norm().transpose();
+    for (Eigen::Index j = 0; j < scale.size(); ++j) {
+        if (!(scale[j] > 0))
+            return;
+    }
+    const Matrix Js = J * scale.cwiseInverse().asDiagonal();
+    Eigen::ColPivHouseholderQR<Matrix> qr(Js);
+    qr.setThreshold(1e-14);
+    if (qr.rank() < J.cols())
+        return;
+    const Matrix R = qr.matrixR().topLeftCorner(J.cols(), J.cols()).triangularView<Eigen::Upper>();
+    const Matrix Rinv =
+        R.triangularView<Eigen::Upper>().solve(Matrix::Identity(J.cols(), J.cols()));
+    const Matrix inner = Rinv * Rinv.transpose();  // (R^T R)^-1 in pivoted order
+    const auto& perm = qr.colsPermutation();
+    const Matrix covScaled = perm * inner * perm.transpose();
+    for (std::size_t a = 0; a < n; ++a) {
+        for (std::size_t b = 0; b < n; ++b) {
+            result.unscaledCovariance[a * n + b] =
+                covScaled(static_cast<Eigen::Index>(a), static_cast<Eigen::Index>(b)) /
+                (scale[static_cast<Eigen::Index>(a)] * scale[static_cast<Eigen::Index>(b)]);
+        }
+    }
+    result.covarianceAvailable = allFinite(result.unscaledCovariance.data(), n * n);
+}
+
+}  // namespace
+
+Status SolverOptions::validate() const {
+    if (maxIterations < 1)
+        return makeError(ErrorCode::Usage, "maxIterations must be at least 1");
+    if (!(functionTolerance >= 0) || !(parameterTolerance >= 0) || !(gradientTolerance >= 0)) {
+        return makeError(ErrorCode::Usage, "solver tolerances must be zero or positive");
+    }
+    if (!(initialDamping > 0))
+        return makeError(ErrorCode::Usage, "initialDamping must be positive");
+    return Ok{};
+}
+
+const char* terminationName(Termination termination) {
+    switch (termination) {
+        case Termination::FunctionTolerance:
+            return "function_tolerance";
+        case Termination::ParameterTolerance:
+            return "parameter_tolerance";
+        case Termination::GradientTolerance:
+            return "gradient_tolerance";
+        case Termination::NoFurtherReduction:
+            return "no_further_reduction";
+        case Termination::MaxIterations:
+            return "max_iterations";
+        case Termination::InvalidStart:
+            return "invalid_start";
+        case Termination::NumericalFailure:
+            return "numerical_failure";
+    }
+    return "unknown";
+}
+
+bool isConverged(Termination t) {
+    return t == Termination::FunctionTolerance || t == Termination::ParameterTolerance ||
+           t == Termination::GradientTolerance || t == Termination::NoFurtherReduction;
+}
+
+std::string SolverSummary::brief() const {
+    char buf[200];
+    std::snprintf(buf, sizeof buf, "%s (%s) in %d iterations, cost %.3g -> %.3g",
+                  converged() ? "converged" : "not converged", terminationName(termination),
+                  iterations, initialCost, finalCost);
+    return buf;
+}
+
+SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<const double> start,
+                               const SolverOptions& options) {
+    SolverResult result;
+    SolverSummary& summary = result.summary;
+    const int m = problem.residualCount();
+    const int n = problem.parameterCount();
+    Vector x = Eigen::Map<const Vector>(start.data(), static_cast<Eigen::Index>(start.size()));
+    result.parameters.assign(start.begin(), start.end());
+    if (static_cast<int>(start.size()) != n || m < 1 || n < 1) {
+        summary.message = "the problem and the starting point disagree on the parameter count";
+        return result;
+    }
+    Evaluator eval(problem, summary);
+    Vector r, rNew;
+    Matrix J;
+    if (!eval.residualsAndJacobian(x, r, J)) {
+        summary.termination = Termination::InvalidStart;
+        summary.message = "the model cannot be evaluated at the starting point";
+        return result;
+    }
+    double cost = 0.5 * r.squaredNorm();
+    summary.initialCost = cost;
+
+    Vector D = J.colwise().squaredNorm().transpose();
+    for (Eigen::Index j = 0; j < n; ++j)
+        D[j] = std::max(D[j], 1e-300);
+    double lambda = options.initialDamping;
+    double nu = 2.0;
+    Matrix A(m + n, n);
+    Vector b(m + n);
+    Vector xNew(n);
+    summary.termination = Termination::MaxIterations;
+    bool haveTermination = false;
+
+    auto gradientSmall = [&]() {
+        const double rnorm = r.norm();
+        if (rnorm == 0.0)
+            return true;
+        const Vector g = J.transpose() * r;
+        double worst = 0;
+        for (Eigen::Index j = 0; j < n; ++j) {
+            const double cn = J.col(j).norm();
+            if (cn > 0)
+                worst = std::max(worst, std::abs(g[j]) / (cn * rnorm));
+        }
+        return worst <= options.gradientTolerance;
+    };
+    if (gradientSmall()) {
+        summary.termination = Termination::GradientTolerance;
+        haveTermination = true;
+    }
+
+    while (!haveTermination && summary.iterations < options.maxIterations) {
+        ++summary.iterations;
+        A.topRows(m) = J;
+        A.bottomRows(n).setZero();
+        for (Eigen::Index j = 0; j < n; ++j)
+            A(m + j, j) = std::sqrt(lambda * D[j]);
+        b.head(m) = -r;
+        b.tail(n).setZero();
+        const Vector h = A.householderQr().solve(b);
+        if (!allFinite(h.data(), static_cast<std::size_t>(n))) {
+            summary.termination = Termination::NumericalFailure;
+            summary.message = "the damped linear system gave a non-finite step";
+            break;
+        }
+        if (h.norm() <= options.parameterTolerance * (x.norm() + options.parameterTolerance)) {
+            summary.termination = Termination::ParameterTolerance;
+            break;
+        }
+        xNew = x + h;
+        const double predicted = 0.5 * (r.squaredNorm() - (r + J * h).squaredNorm());
+        double rho = -1.0;
+        double costNew = cost;
+        if (eval.residuals(xNew, rNew)) {
+            costNew = 0.5 * rNew.squaredNorm();
+            if (predicted > 0)
+                rho = (cost - costNew) / predicted;
+        }
+        if (rho > 0) {
+            const double reduction = cost - costNew;
+            x = xNew;
+            cost = costNew;
+            if (!eval.residualsAndJacobian(x, r, J)) {
+                summary.termination = Termination::NumericalFailure;
+                summary.message = "the Jacobian is not finite at an accepted point";
+                break;
+            }
+            D = D.cwiseMax(J.colwise().squaredNorm().transpose());
+            lambda *= std::max(1.0 / 3.0, 1.0 - std::pow(2.0 * rho - 1.0, 3));
+            nu = 2.0;
+            if (reduction <= options.functionTolerance * cost) {
+                summary.termination = Termination::FunctionTolerance;
+                break;
+            }
+            if (gradientSmall()) {
+                summary.termination = Termination::GradientTolerance;
+                break;
+            }
+        } else {
+            lambda *= nu;
+            nu *= 2.0;
+            if (lambda > 1e30 || nu > 1e30) {
+                summary.termination = Termination::NoFurtherReduction;
+                summary.message = "no step lowers the cost any more";
+                break;
+            }
+        }
+    }
+
+    // Gauss-Newton polish: near the minimum the cost cannot resolve steps finer than about
+    // sqrt(machine epsilon), but undamped Gauss-Newton steps converge on J^T r = 0 to working
+    // precision. A step is kept while it does not raise the cost beyond rounding.
+    for (int k = 0; summary.converged() && k < options.refinementSteps; ++k) {
+        const Vector h = J.householderQr().solve(-r);
+        if (!allFinite(h.data(), static_cast<std::size_t>(n)))
+            break;
+        xNew = x + h;
+        if (!eval.residuals(xNew, rNew))
+            break;
+        const double costNew = 0.5 * rNew.squaredNorm();
+        if (costNew > cost * (1.0 + 1e-12))
+            break;
+        Matrix JNew;
+        Vector rCheck;
+        if (!eval.residualsAndJacobian(xNew, rCheck, JNew))
+            break;
+        const bool tiny = h.norm() <= 1e-15 * x.norm();
+        x = xNew;
+        r = rCheck;
+        J = JNew;
+        cost = costNew;
+        if (tiny)
+            break;
+    }
+
+    summary.finalCost = cost;
+    result.parameters.assign(x.data(), x.data() + n);
+    result.residuals.assign(r.data(), r.data() + m);
+    fillCovariance(J, result);
+    if (summary.message.empty()) {
+        summary.message = summary.converged() ? "converged" : "stopped before convergence";
+    }
+    return result;
+}
+
+}  // namespace siftwave::fit

@@ -1,0 +1,378 @@
+#include "siftwave/fit/models.h"
+
+#include <boost/math/special_functions/erf.hpp>
+
+#include <algorithm>
+#include <cassert>
+#include <cmath>
+#include <numbers>
+
+namespace siftwave::fit {
+namespace {
+
+struct Line {
+    double slope = 0;
+    double intercept = 0;
+};
+
+// Ordinary least-squares line through (x_i, y_i); nullopt with fewer than 3 points or no spread.
+std::optional<Line> fitLine(const std::vector<double>& x, const std::vector<double>& y) {
+    const std::size_t n = x.size();
+    if (n < 3)
+        return std::nullopt;
+    double mx = 0, my = 0;
+    for (std::size_t i = 0; i < n; ++i) {
+        mx += x[i];
+        my += y[i];
+    }
+    mx /= static_cast<double>(n);
+    my /= static_cast<double>(n);
+    double sxx = 0, sxy = 0;
+    for (std::size_t i = 0; i < n; ++i) {
+        sxx += (x[i] - mx) * (x[i] - mx);
+        sxy += (x[i] - mx) * (y[i] - my);
+    }
+    if (!(sxx > 0))
+        return std::nullopt;
+    Line line;
+    line.slope = sxy / sxx;
+    line.intercept = my - line.slope * mx;
+    return line;
+}
+
+double standardNormalCdf(double w) {
+    return 0.5 * std::erfc(-w / std::numbers::sqrt2);
+}
+double standardNormalQuantile(double q) {
+    return -std::numbers::sqrt2 * boost::math::erfc_inv(2.0 * q);
+}
+
+// What the linearisations share: the observed points, a running cumulative and a first K.
+struct GuessData {
+    std::vector<double> t, y, cumulative;
+    double total = 0;
+    double peakT = 0;
+    double peakY = 0;
+    double cumulativeAtPeak = 0;
+};
+
+std::optional<GuessData> prepareGuess(std::span<const double> t, std::span<const double> y) {
+    GuessData d;
+    double running = 0;
+    for (std::size_t i = 0; i < t.size() && i < y.size(); ++i) {
+        if (!std::isfinite(y[i]) || !std::isfinite(t[i]))
+            continue;
+        const double v = std::max(0.0, y[i]);
+        d.t.push_back(t[i]);
+        d.y.push_back(v);
+        d.cumulative.push_back(running + 0.5 * v);  // C at the middle of day i
+        running += v;
+        if (v > d.peakY) {
+            d.peakY = v;
+            d.peakT = t[i];
+            d.cumulativeAtPeak = d.cumulative.back();
+        }
+    }
+    d.total = running;
+    if (d.t.size() < 3 || !(d.total > 0) || !(d.peakY > 0))
+        return std::nullopt;
+    return d;
+}
+
+// Best K for fixed shape: minimises sum (y - K g)^2, g = unit-size incidence.
+double bestSize(const WaveModel& model, const GuessData& d, std::vector<double> p) {
+    p[0] = 1.0;
+    std::vector<double> g(d.t.size());
+    model.incidence(d.t, p, g);
+    double gy = 0, gg = 0;
+    for (std::size_t i = 0; i < g.size(); ++i) {
+        gy += g[i] * d.y[i];
+        gg += g[i] * g[i];
+    }
+    return gg > 0 && gy > 0 ? gy / gg : d.total;
+}
+
+// Points (t, transform(C/K)) for 0.02 < C/K < 0.98, fitted by a line.
+template <class Transform>
+std::optional<Line> linearised(const GuessData& d, double size, Transform transform, bool logTime) {
+    std::vector<double> xs, ys;
+    for (std::size_t i = 0; i < d.t.size(); ++i) {
+        const double q = d.cumulative[i] / size;
+        if (q <= 0.02 || q >= 0.98)
+            continue;
+        xs.push_back(logTime ? std::log(d.t[i] + 1.0) : d.t[i]);
+        ys.push_back(transform(q));
+    }
+    auto line = fitLine(xs, ys);
+    if (!line || !(line->slope > 0))
+        return std::nullopt;
+    return line;
+}
+
+double firstSize(const GuessData& d, double shareAtPeak) {
+    return std::max(d.total * 1.02, d.cumulativeAtPeak / shareAtPeak);
+}
+
+constexpr const char* kGumbelNames[] = {"K", "mu", "beta"};
+constexpr const char* kLogisticNames[] = {"K", "mu", "s"};
+constexpr const char* kRichardsNames[] = {"K", "mu", "s", "a"};
+constexpr const char* kLogNormalNames[] = {"K", "mu", "sigma"};
+
+class GumbelModel final : public WaveModel {
+public:
+    ModelKind kind() const override { return ModelKind::Gumbel; }
+    std::span<const char* const> names() const override { return kGumbelNames; }
+    bool valid(std::span<const double> p) const override {
+        return p.size() == 3 && std::isfinite(p[0]) && std::isfinite(p[1]) && p[0] > 0 &&
+               p[2] > 1e-6 && std::isfinite(p[2]);
+    }
+    void incidence(std::span<const double> t, std::span<const double> p, std::span<double> out,
+                   std::span<double> jac) const override {
+        const double K = p[0], mu = p[1], beta = p[2];
+        for (std::size_t i = 0; i < t.size(); ++i) {
+            const double z = (t[i] - mu) / beta;
+            const double u = std::exp(-z);
+            const double f = std::isfinite(u) ? K / beta * u * std::exp(-u) : 0.0;
+            out[i] = f;
+            if (!jac.empty()) {
+                double* row = &jac[3 * i];
+                row[0] = f / K;
+                row[1] = f * (1.0 - u) / beta;
+                row[2] = f * (z * (1.0 - u) - 1.0) / beta;
+                if (f == 0.0)
+                    row[1] = row[2] = 0.0;
+            }
+        }
+    }
+    double cumulative(double t, std::span<const double> p) const override {
+        return p[0] * std::exp(-std::exp(-(t - p[1]) / p[2]));
+    }
+    double quantileTime(double q, std::span<const double> p) const override {
+        return p[1] - p[2] * std::log(-std::log(q));
+    }
+    double peakTime(std::span<const double> p) const override { return p[1]; }
+    std::optional<std::vector<double>> initialGuess(std::span<const double> t,
+                                                    std::span<const double> y) const override {
+        auto d = prepareGuess(t, y);
+        if (!d)
+            return std::nullopt;
+        const double size = firstSize(*d, std::exp(-1.0));
+        std::vector<double> p{size, d->peakT, std::max(1.0, size / (std::numbers::e * d->peakY))};
+        if (auto line = linearised(
+                *d, size, [](double q) { return -std::log(-std::log(q)); }, false)) {
+            p[2] = 1.0 / line->slope;
+            p[1] = -line->intercept * p[2];
+        }
+        p[2] = std::max(p[2], 0.5);
+        p[0] = bestSize(*this, *d, p);
+        return p;
+    }
+};
+
+class LogisticModel final : public WaveModel {
+public:
+    ModelKind kind() const override { return ModelKind::Logistic; }
+    std::span<const char* const> names() const override { return kLogisticNames; }
+    bool valid(std::span<const double> p) const override {
+        return p.size() == 3 && std::isfinite(p[0]) && std::isfinite(p[1]) && p[0] > 0 &&
+               p[2] > 1e-6 && std::isfinite(p[2]);
+    }
+    void incidence(std::span<const double> t, std::span<const double> p, std::span<double> out,
+                   std::span<double> jac) const override {
+        const double K = p[0], mu = p[1], s = p[2];
+        for (std::size_t i = 0; i < t.size(); ++i) {
+            const double z = (t[i] - mu) / s;
+            const double F = 1.0 / (1.0 + std::exp(-z));
+            const double f = K / s * F * (1.0 - F);
+            out[i] = f;
+            if (!jac.empty()) {
+                double* row = &jac[3 * i];
+                row[0] = f / K;
+                row[1] = f * (2.0 * F - 1.0) / s;
+                row[2] = f * (z * (2.0 * F - 1.0) - 1.0) / s;
+            }
+        }
+    }
+    double cumulative(double t, std::span<const double> p) const override {
+        return p[0] / (1.0 + std::exp(-(t - p[1]) / p[2]));
+    }
+    double quantileTime(double q, std::span<const double> p) const override {
+        return p[1] + p[2] * std::log(q / (1.0 - q));
+    }
+    double peakTime(std::span<const double> p) const override { return p[1]; }
+    std::optional<std::vector<double>> initialGuess(std::span<const double> t,
+                                                    std::span<const double> y) const override {
+        auto d = prepareGuess(t, y);
+        if (!d)
+            return std::nullopt;
+        const double size = firstSize(*d, 0.5);
+        std::vector<double> p{size, d->peakT, std::max(1.0, size / (4.0 * d->peakY))};
+        if (auto line = linearised(
+                *d, size, [](double q) { return std::log(q / (1.0 - q)); }, false)) {
+            p[2] = 1.0 / line->slope;
+            p[1] = -line->intercept * p[2];
+        }
+        p[2] = std::max(p[2], 0.5);
+        p[0] = bestSize(*this, *d, p);
+        return p;
+    }
+};
+
+class RichardsModel final : public WaveModel {
+public:
+    ModelKind kind() const override { return ModelKind::Richards; }
+    std::span<const char* const> names() const override { return kRichardsNames; }
+    bool valid(std::span<const double> p) const override {
+        return p.size() == 4 && std::isfinite(p[0]) && std::isfinite(p[1]) && p[0] > 0 &&
+               p[2] > 1e-6 && std::isfinite(p[2]) && p[3] > 1e-4 && p[3] < 1e3;
+    }
+    void incidence(std::span<const double> t, std::span<const double> p, std::span<double> out,
+                   std::span<double> jac) const override {
+        const double K = p[0], mu = p[1], s = p[2], a = p[3];
+        for (std::size_t i = 0; i < t.size(); ++i) {
+            const double z = (t[i] - mu) / s;
+            const double v = a * std::exp(-z);
+            double f = 0.0, dlnfdz = 0.0, dlnfda = 0.0;
+            if (std::isfinite(v)) {
+                const double l1p = std::log1p(v);
+                f = K * std::exp(std::log(v) - (1.0 / a + 1.0) * l1p) / (a * s);
+                dlnfdz = -1.0 + (1.0 / a + 1.0) * v / (1.0 + v);
+                dlnfda = l1p / (a * a) - (1.0 + a) * v / (a * a * (1.0 + v));
+            }
+            out[i] = f;
+            if (!jac.empty()) {
+                double* row = &jac[4 * i];
+                row[0] = f / K;
+                row[1] = -f * dlnfdz / s;
+                row[2] = f * (-1.0 - dlnfdz * z) / s;
+                row[3] = f * dlnfda;
+                if (f == 0.0)
+                    row[1] = row[2] = row[3] = 0.0;
+            }
+        }
+    }
+    double cumulative(double t, std::span<const double> p) const override {
+        const double v = p[3] * std::exp(-(t - p[1]) / p[2]);
+        return p[0] * std::exp(-std::log1p(v) / p[3]);
+    }
+    double quantileTime(double q, std::span<const double> p) const override {
+        const double a = p[3];
+        return p[1] - p[2] * std::log(std::expm1(-a * std::log(q)) / a);
+    }
+    double peakTime(std::span<const double> p) const override { return p[1]; }
+    std::optional<std::vector<double>> initialGuess(std::span<const double> t,
+                                                    std::span<const double> y) const override {
+        auto logistic = waveModel(ModelKind::Logistic).initialGuess(t, y);
+        if (!logistic)
+            return std::nullopt;
+        return std::vector<double>{(*logistic)[0], (*logistic)[1], (*logistic)[2], 1.0};
+    }
+};
+
+class LogNormalModel final : public WaveModel {
+public:
+    ModelKind kind() const override { return ModelKind::LogNormal; }
+    std::span<const char* const> names() const override { return kLogNormalNames; }
+    bool valid(std::span<const double> p) const override {
+        return p.size() == 3 && std::isfinite(p[0]) && std::isfinite(p[1]) && p[0] > 0 &&
+               p[2] > 1e-4 && std::isfinite(p[2]);
+    }
+    void incidence(std::span<const double> t, std::span<const double> p, std::span<double> out,
+                   std::span<double> jac) const override {
+        const double K = p[0], mu = p[1], sigma = p[2];
+        const double norm = 1.0 / (sigma * std::sqrt(2.0 * std::numbers::pi));
+        for (std::size_t i = 0; i < t.size(); ++i) {
+            const double tau = t[i] + 1.0;
+            double f = 0.0, w = 0.0;
+            if (tau > 0) {
+                w = (std::log(tau) - mu) / sigma;
+                f = K * norm / tau * std::exp(-0.5 * w * w);
+            }
+            out[i] = f;
+            if (!jac.empty()) {
+                double* row = &jac[3 * i];
+                row[0] = f / K;
+                row[1] = f * w / sigma;
+                row[2] = f * (w * w - 1.0) / sigma;
+            }
+        }
+    }
+    double cumulative(double t, std::span<const double> p) const override {
+        const double tau = t + 1.0;
+        if (tau <= 0)
+            return 0.0;
+        return p[0] * standardNormalCdf((std::log(tau) - p[1]) / p[2]);
+    }
+    double quantileTime(double q, std::span<const double> p) const override {
+        return std::exp(p[1] + p[2] * standardNormalQuantile(q)) - 1.0;
+    }
+    double peakTime(std::span<const double> p) const override {
+        return std::exp(p[1] - p[2] * p[2]) - 1.0;
+    }
+    std::optional<std::vector<double>> initialGuess(std::span<const double> t,
+                                                    std::span<const double> y) const override {
+        auto d = prepareGuess(t, y);
+        if (!d)
+            return std::nullopt;
+        const double size = firstSize(*d, 0.45);
+        std::vector<double> p{size, std::log(std::max(d->peakT, 0.0) + 2.0), 0.5};
+        if (auto line = linearised(*d, size, standardNormalQuantile, true)) {
+            p[2] = 1.0 / line->slope;
+            p[1] = -line->intercept * p[2];
+        }
+        p[2] = std::clamp(p[2], 0.02, 5.0);
+        p[0] = bestSize(*this, *d, p);
+        return p;
+    }
+};
+
+}  // namespace
+
+const char* modelName(ModelKind kind) {
+    switch (kind) {
+        case ModelKind::Gumbel:
+            return "gumbel";
+        case ModelKind::Logistic:
+            return "logistic";
+        case ModelKind::Richards:
+            return "richards";
+        case ModelKind::LogNormal:
+            return "lognormal";
+    }
+    return "unknown";
+}
+
+std::optional<ModelKind> modelFromName(std::string_view name) {
+    for (ModelKind k : kAllModels) {
+        if (name == modelName(k))
+            return k;
+    }
+    return std::nullopt;
+}
+
+double WaveModel::incidenceAt(double t, std::span<const double> p) const {
+    double out = 0;
+    incidence(std::span<const double>(&t, 1), p, std::span<double>(&out, 1));
+    return out;
+}
+
+const WaveModel& waveModel(ModelKind kind) {
+    static const GumbelModel gumbel;
+    static const LogisticModel logistic;
+    static const RichardsModel richards;
+    static const LogNormalModel lognormal;
+    switch (kind) {
+        case ModelKind::Gumbel:
+            return gumbel;
+        case ModelKind::Logistic:
+            return logistic;
+        case ModelKind::Richards:
+            return richards;
+        case ModelKind::LogNormal:
+            return lognormal;
+    }
+    assert(false);
+    return gumbel;
+}
+
+}  // namespace siftwave::fit

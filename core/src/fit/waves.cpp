@@ -1,0 +1,116 @@
+#include "siftwave/fit/waves.h"
+
+#include "siftwave/series/smoothing.h"
+
+#include <algorithm>
+#include <cmath>
+#include <string>
+
+namespace siftwave::fit {
+
+Status WaveDetectionOptions::validate() const {
+    if (smoothingWindow < 1 || smoothingWindow > 365) {
+        return makeError(ErrorCode::Usage,
+                         "the wave-detection smoothing window must be 1..365 days");
+    }
+    if (!(minProminenceShare > 0 && minProminenceShare < 1) || !(riseShare >= 0 && riseShare < 1)) {
+        return makeError(ErrorCode::Usage, "wave-detection shares must lie between 0 and 1");
+    }
+    if (!(minPeak >= 0))
+        return makeError(ErrorCode::Usage, "minPeak must not be negative");
+    if (minDays < 3)
+        return makeError(ErrorCode::Usage, "minDays must be at least 3");
+    return Ok{};
+}
+
+std::vector<Wave> detectWaves(std::span<const double> counts, const WaveDetectionOptions& options) {
+    std::vector<Wave> waves;
+    const std::vector<double> s = series::centredMovingAverage(counts, options.smoothingWindow);
+    const int n = static_cast<int>(s.size());
+    double top = 0;
+    for (double v : s) {
+        if (std::isfinite(v))
+            top = std::max(top, v);
+    }
+    if (n == 0 || top < options.minPeak || !(top > 0))
+        return waves;
+    const double delta = std::max(options.minProminenceShare * top, options.minPeak / 2.0);
+
+    // Zig-zag: alternate troughs and peaks, each confirmed by a move of delta.
+    std::vector<int> troughs;  // troughs[k] precedes peaks[k]
+    std::vector<int> peaks;
+    bool seekingPeak = true;
+    int minIndex = -1, maxIndex = -1;
+    for (int i = 0; i < n; ++i) {
+        const double v = s[static_cast<std::size_t>(i)];
+        if (!std::isfinite(v))
+            continue;
+        if (minIndex < 0) {
+            minIndex = maxIndex = i;
+            continue;
+        }
+        if (seekingPeak) {
+            if (v > s[static_cast<std::size_t>(maxIndex)])
+                maxIndex = i;
+            const double hi = s[static_cast<std::size_t>(maxIndex)];
+            const double lo = s[static_cast<std::size_t>(minIndex)];
+            if (hi - lo >= delta && v < hi - delta) {
+                troughs.push_back(minIndex);
+                peaks.push_back(maxIndex);
+                seekingPeak = false;
+                minIndex = i;
+            } else if (v < lo) {
+                minIndex = maxIndex = i;  // no significant rise yet: the trough moves on
+            }
+        } else {
+            if (v < s[static_cast<std::size_t>(minIndex)])
+                minIndex = i;
+            if (v > s[static_cast<std::size_t>(minIndex)] + delta) {
+                seekingPeak = true;
+                maxIndex = i;
+            }
+        }
+    }
+    // A last rise that has not turned yet is a wave with an unconfirmed peak.
+    bool openRise = false;
+    if (seekingPeak && maxIndex > minIndex && minIndex >= 0 &&
+        s[static_cast<std::size_t>(maxIndex)] - s[static_cast<std::size_t>(minIndex)] >= delta) {
+        troughs.push_back(minIndex);
+        peaks.push_back(maxIndex);
+        openRise = true;
+    }
+    int lastFinite = n - 1;
+    while (lastFinite > 0 && !std::isfinite(s[static_cast<std::size_t>(lastFinite)]))
+        --lastFinite;
+
+    for (std::size_t k = 0; k < peaks.size(); ++k) {
+        Wave w;
+        w.peak = peaks[k];
+        w.peakValue = s[static_cast<std::size_t>(w.peak)];
+        const int trough = troughs[k];
+        const double troughValue = s[static_cast<std::size_t>(trough)];
+        const double level = troughValue + options.riseShare * (w.peakValue - troughValue);
+        w.first = trough;
+        for (int i = trough; i < w.peak; ++i) {
+            const double v = s[static_cast<std::size_t>(i)];
+            if (std::isfinite(v) && v <= level)
+                w.first = i;
+        }
+        if (k + 1 < peaks.size()) {
+            w.last = troughs[k + 1];
+            w.troughSeen = true;
+        } else {
+            w.last = lastFinite;
+            w.troughSeen = false;
+        }
+        w.peakConfirmed = !(openRise && k + 1 == peaks.size());
+        if (w.peakValue < options.minPeak)
+            continue;
+        if (w.last - w.first + 1 < options.minDays)
+            continue;
+        waves.push_back(w);
+    }
+    return waves;
+}
+
+}  // namespace siftwave::fit

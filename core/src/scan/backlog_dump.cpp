@@ -1,0 +1,128 @@
+// backlog_dump: a day far above what the surrounding days make plausible,
+// including the catch-up after a gap (method in siftwave/scan/backlog.h).
+//
+// Severity: critical when the excess is at least critical_share of the region's
+// total, or when the day is among the last 14 of the drop (it bends the current
+// trend that a briefing reads); warning otherwise. Measures that are cumulative
+// are left to cumulative_decrease.
+
+#include "scan/backlog_estimate.h"
+#include "scan/scan_input.h"
+#include "siftwave/scan/backlog.h"
+
+#include <cmath>
+
+namespace siftwave::scan {
+namespace detail {
+namespace {
+
+constexpr int kRecentDays = 14;
+
+Finding toFinding(const ScanInput& in, std::size_t r, std::size_t m, const BacklogEstimate& e,
+                  std::uint32_t line) {
+    const Drop& drop = in.drop;
+    const std::int32_t t = e.day.serial;
+    const double total = in.measures[m].regionTotals[r];
+    const bool recent = t >= drop.days - kRecentDays;
+    const bool large = total > 0 && e.excess >= in.options.backlogDump.criticalShare * total;
+    Finding f = makeFinding(in, FindingKind::BacklogDump,
+                            large || recent ? Severity::Critical : Severity::Warning, r, m);
+    f.first = f.last = drop.dayAt(t);
+    f.impact = static_cast<double>(e.excess);
+    f.evidence = {
+        {"observed", e.observed},
+        {"expected", std::round(e.expected * 10) / 10},
+        {"excess", e.excess},
+        {"z", std::round(e.z * 100) / 100},
+        {"ratio", e.expected > 0 ? nlohmann::json(std::round(e.observed / e.expected * 100) / 100)
+                                 : nlohmann::json(nullptr)},
+        {"baseline_days", e.neighbours},
+        {"overdispersion", std::round(in.measures[m].overdispersion * 10000) / 10000},
+        {"weekday_factor",
+         std::round(in.measures[m].weekday.factor[static_cast<std::size_t>(in.weekdayOf(t))] *
+                    1000) /
+             1000},
+        {"line", line},
+        {"region_total", total}};
+    if (e.gapFirst) {
+        f.evidence["after_gap"] =
+            nlohmann::json{{"first", drop.dayAt(e.gapFirst->serial).iso()},
+                           {"last", drop.dayAt(e.gapLast->serial).iso()},
+                           {"days", e.gapLast->serial - e.gapFirst->serial + 1}};
+    }
+    f.suggestion = {{"decision", "redistribute"},
+                    {"date", drop.dayAt(t).iso()},
+                    {"excess", e.excess},
+                    {"window_first", drop.dayAt(e.windowFirst.serial).iso()},
+                    {"window_last", drop.dayAt(e.windowLast.serial).iso()},
+                    {"method", e.gapFirst ? "baseline" : "proportional"}};
+    return f;
+}
+
+}  // namespace
+
+void findBacklogDumps(const ScanInput& in, std::vector<Finding>& out) {
+    const Drop& drop = in.drop;
+    for (std::size_t m = 0; m < drop.measures.size(); ++m) {
+        if (in.measures[m].cumulative)
+            continue;
+        BacklogSeries series(in.options.backlogDump, in.measures[m].weekday,
+                             in.measures[m].overdispersion, in.firstWeekday);
+        for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
+            const std::span<const Cell> cells = drop.series(m, r);
+            series.load(cells);
+            for (std::int32_t t = 1; t < drop.days; ++t) {
+                if (!series.mightBeFlagged(t))
+                    continue;
+                const std::optional<BacklogEstimate> e = series.estimate(t);
+                if (!e || !e->flagged)
+                    continue;
+                out.push_back(toFinding(in, r, m, *e, cells[static_cast<std::size_t>(t)].line));
+            }
+        }
+    }
+}
+
+}  // namespace detail
+
+Result<BacklogEstimate> estimateBacklog(const Drop& drop, std::string_view measure,
+                                        std::string_view region, Date day,
+                                        const ScanOptions& options) {
+    if (Status s = options.validate(); !s)
+        return s.error();
+    const std::optional<std::size_t> m = drop.measureIndex(measure);
+    if (!m)
+        return makeError(ErrorCode::NotFound, "no measure '" + std::string(measure) + "'");
+    const std::optional<std::size_t> r = drop.regionIndex(region);
+    if (!r)
+        return makeError(ErrorCode::NotFound, "no region '" + std::string(region) + "'");
+    const std::optional<std::int32_t> t = drop.dayIndex(day);
+    if (!t) {
+        return makeError(ErrorCode::NotFound, day.iso() + " is outside the drop's calendar");
+    }
+    const int firstWeekday = drop.firstDay.isoWeekday() - 1;
+    const detail::WeekdayFactors factors = detail::estimateWeekdayFactors(
+        drop, *m, firstWeekday, {}, options.weekdayEffect.minLevel, options.weekdayEffect.minWeeks);
+    const double phi = detail::estimateOverdispersion(drop, *m, firstWeekday, factors);
+    detail::BacklogSeries series(options.backlogDump, factors, phi, firstWeekday);
+    series.load(drop.series(*m, *r));
+    std::optional<BacklogEstimate> e = series.estimate(*t);
+    if (!e) {
+        Error err = makeError(ErrorCode::InvalidValue,
+                              "no backlog estimate: the day has no reported value or too few "
+                              "reported neighbours");
+        err.region = std::string(region);
+        err.date = day.iso();
+        return err;
+    }
+    e->day = drop.dayAt(e->day.serial);
+    e->windowFirst = drop.dayAt(e->windowFirst.serial);
+    e->windowLast = drop.dayAt(e->windowLast.serial);
+    if (e->gapFirst)
+        e->gapFirst = drop.dayAt(e->gapFirst->serial);
+    if (e->gapLast)
+        e->gapLast = drop.dayAt(e->gapLast->serial);
+    return *e;
+}
+
+}  // namespace siftwave::scan

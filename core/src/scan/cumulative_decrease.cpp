@@ -1,0 +1,75 @@
+// cumulative_decrease: a cumulative measure that goes down.
+//
+// A measure is taken as cumulative when, over all regions, at least
+// min_rising_share of the day-to-day changes between reported values are
+// rises (and there are at least min_changes changes); daily counts rise and
+// fall about equally often. In a cumulative measure, each run of days below the
+// highest value reported so far is one finding, with the suggestion to work on
+// the daily differences (where the decrease becomes one negative daily count).
+
+#include "scan/scan_input.h"
+
+#include <algorithm>
+
+namespace siftwave::scan::detail {
+
+void findCumulativeDecreases(const ScanInput& in, std::vector<Finding>& out) {
+    const Drop& drop = in.drop;
+    for (std::size_t m = 0; m < drop.measures.size(); ++m) {
+        const MeasureFacts& facts = in.measures[m];
+        if (!facts.cumulative)
+            continue;
+        for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
+            const std::span<const Cell> cells = drop.series(m, r);
+            bool seen = false;
+            std::int32_t peak = 0;
+            std::int32_t peakDay = 0;
+            for (std::int32_t t = 0; t < drop.days; ++t) {
+                const Cell& c = cells[static_cast<std::size_t>(t)];
+                if (!c.reported())
+                    continue;
+                if (!seen || c.value >= peak) {
+                    seen = true;
+                    peak = c.value;
+                    peakDay = t;
+                    continue;
+                }
+                // A run of days below the running peak.
+                std::int32_t end = t, lowest = c.value, lastBelow = t;
+                for (std::int32_t j = t + 1; j < drop.days; ++j) {
+                    const Cell& n = cells[static_cast<std::size_t>(j)];
+                    if (!n.reported())
+                        continue;
+                    if (n.value >= peak)
+                        break;
+                    lowest = std::min(lowest, n.value);
+                    lastBelow = j;
+                }
+                end = lastBelow;
+                Finding f =
+                    makeFinding(in, FindingKind::CumulativeDecrease, Severity::Warning, r, m);
+                f.first = drop.dayAt(t);
+                f.last = drop.dayAt(end);
+                f.impact = static_cast<double>(peak - lowest);
+                f.evidence = {{"before", peak},
+                              {"before_date", drop.dayAt(peakDay).iso()},
+                              {"value", c.value},
+                              {"lowest", lowest},
+                              {"decrease", peak - lowest},
+                              {"line", c.line},
+                              {"measure_rising_changes", facts.rises},
+                              {"measure_falling_changes", facts.falls}};
+                f.suggestion = {{"decision", "accept"},
+                                {"action", "use_daily_differences"},
+                                {"note",
+                                 "the measure is cumulative: its daily differences "
+                                 "turn this decrease into a negative daily count "
+                                 "that spread_negative can absorb"}};
+                out.push_back(std::move(f));
+                t = end;
+            }
+        }
+    }
+}
+
+}  // namespace siftwave::scan::detail

@@ -1,0 +1,65 @@
+// negative_count: a negative daily value, usually a correction of earlier days.
+//
+// Every reported value below zero in a measure that is not cumulative (a
+// cumulative measure's decreases are `cumulative_decrease`). The suggestion
+// spreads the correction over the `spread_days` days before it, in proportion
+// to them (the ledger's spread_negative). Critical when the correction is at
+// least 2 % of the region's total, or larger than the earlier window can absorb.
+
+#include "scan/scan_input.h"
+
+#include <algorithm>
+#include <cmath>
+
+namespace siftwave::scan::detail {
+
+void findNegativeCounts(const ScanInput& in, std::vector<Finding>& out) {
+    const Drop& drop = in.drop;
+    const int spread = in.options.negativeCount.spreadDays;
+    for (std::size_t m = 0; m < drop.measures.size(); ++m) {
+        if (in.measures[m].cumulative)
+            continue;
+        for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
+            const std::span<const Cell> cells = drop.series(m, r);
+            for (std::int32_t t = 0; t < drop.days; ++t) {
+                const Cell& c = cells[static_cast<std::size_t>(t)];
+                if (!c.reported() || c.value >= 0)
+                    continue;
+                const std::int32_t from = std::max(0, t - spread);
+                double before = 0;
+                for (std::int32_t j = from; j < t; ++j) {
+                    const Cell& p = cells[static_cast<std::size_t>(j)];
+                    if (p.reported() && p.value > 0)
+                        before += p.value;
+                }
+                const double total = in.measures[m].regionTotals[r];
+                const double size = -static_cast<double>(c.value);
+                const bool absorbable = before >= size;
+                const bool large = total > 0 ? size >= 0.02 * total : true;
+                Finding f = makeFinding(
+                    in, FindingKind::NegativeCount,
+                    large || !absorbable ? Severity::Critical : Severity::Warning, r, m);
+                f.first = f.last = drop.dayAt(t);
+                f.impact = size;
+                f.evidence = {{"value", c.value},
+                              {"line", c.line},
+                              {"earlier_days_sum", before},
+                              {"earlier_days", t - from},
+                              {"region_total", total}};
+                if (t > from) {
+                    f.suggestion = {{"decision", "spread_negative"},
+                                    {"date", drop.dayAt(t).iso()},
+                                    {"window_first", drop.dayAt(from).iso()},
+                                    {"window_last", drop.dayAt(t - 1).iso()},
+                                    {"absorbable", absorbable}};
+                } else {
+                    f.suggestion = {{"decision", "accept"},
+                                    {"note", "no earlier days in the drop to absorb it"}};
+                }
+                out.push_back(std::move(f));
+            }
+        }
+    }
+}
+
+}  // namespace siftwave::scan::detail

@@ -1,0 +1,92 @@
+// reporting_gap: a run of zeros inside an active period.
+//
+// A run of at least min_days reported zeros, with a non-zero value somewhere
+// before and after it (the quiet tails of a series are not gaps), where the
+// median of the window_days reported days on each side is at least min_level:
+// under Poisson noise a run of L zeros at level mu has chance exp(-L mu),
+// which at the defaults (L = 2, mu = 5) is below 5e-5. When the day after the
+// run is more than twice the level it is the catch-up, and the suggestion is
+// to redistribute it over the run; otherwise to treat the zeros as unreported.
+
+#include "scan/scan_input.h"
+
+#include <cmath>
+
+namespace siftwave::scan::detail {
+
+void findReportingGaps(const ScanInput& in, std::vector<Finding>& out) {
+    const Drop& drop = in.drop;
+    const ReportingGapOptions& o = in.options.reportingGap;
+    for (std::size_t m = 0; m < drop.measures.size(); ++m) {
+        if (in.measures[m].cumulative)
+            continue;
+        for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
+            const std::span<const Cell> cells = drop.series(m, r);
+            std::int32_t firstPositive = -1, lastPositive = -1;
+            for (std::int32_t t = 0; t < drop.days; ++t) {
+                const Cell& c = cells[static_cast<std::size_t>(t)];
+                if (c.reported() && c.value > 0) {
+                    if (firstPositive < 0)
+                        firstPositive = t;
+                    lastPositive = t;
+                }
+            }
+            if (firstPositive < 0)
+                continue;
+            std::vector<double> values;  // filled on the first candidate only
+            for (std::int32_t t = firstPositive + 1; t < lastPositive; ++t) {
+                const Cell& c = cells[static_cast<std::size_t>(t)];
+                if (!c.reported() || c.value != 0)
+                    continue;
+                std::int32_t end = t;
+                while (end + 1 < lastPositive &&
+                       cells[static_cast<std::size_t>(end) + 1].reported() &&
+                       cells[static_cast<std::size_t>(end) + 1].value == 0) {
+                    ++end;
+                }
+                const int days = end - t + 1;
+                if (days >= o.minDays) {
+                    if (values.empty())
+                        values = seriesValues(cells);
+                    const double level = levelAround(values, t, end, o.windowDays);
+                    if (!std::isnan(level) && level >= o.minLevel) {
+                        Finding f =
+                            makeFinding(in, FindingKind::ReportingGap, Severity::Warning, r, m);
+                        f.first = drop.dayAt(t);
+                        f.last = drop.dayAt(end);
+                        f.impact = level * days;
+                        f.evidence = {{"days", days},
+                                      {"level_around", level},
+                                      {"chance_under_poisson", std::exp(-level * days)},
+                                      {"first_line", c.line}};
+                        const Cell& after = cells[static_cast<std::size_t>(end) + 1];
+                        const bool catchUp = after.reported() && after.value > 2.0 * level;
+                        if (after.reported())
+                            f.evidence["value_after"] = after.value;
+                        f.evidence["catch_up"] = catchUp;
+                        if (catchUp) {
+                            f.suggestion = {{"decision", "redistribute"},
+                                            {"date", drop.dayAt(end + 1).iso()},
+                                            {"excess", std::max<long long>(
+                                                           0, std::llround(after.value - level))},
+                                            {"window_first", f.first->iso()},
+                                            {"window_last", f.last->iso()},
+                                            {"method", "baseline"}};
+                        } else {
+                            f.suggestion = {{"decision", "exclude"},
+                                            {"first", f.first->iso()},
+                                            {"last", f.last->iso()},
+                                            {"note",
+                                             "zeros inside an active period are probably days "
+                                             "that were not reported"}};
+                        }
+                        out.push_back(std::move(f));
+                    }
+                }
+                t = end;
+            }
+        }
+    }
+}
+
+}  // namespace siftwave::scan::detail

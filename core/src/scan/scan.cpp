@@ -1,0 +1,167 @@
+#include "siftwave/scan/scan.h"
+
+#include "scan/scan_input.h"
+
+#include <algorithm>
+#include <cstdint>
+#include <cstdio>
+#include <unordered_map>
+
+namespace siftwave::scan {
+namespace {
+
+std::uint64_t fnv1a(std::string_view text) {
+    std::uint64_t h = 14695981039346656037ull;
+    for (unsigned char c : text) {
+        h ^= c;
+        h *= 1099511628211ull;
+    }
+    return h;
+}
+
+std::string idKey(const Finding& f) {
+    std::string key = findingKindName(f.kind);
+    key += '|';
+    key += f.region ? *f.region : std::string("\x01*");
+    key += '|';
+    key += f.measure ? *f.measure : std::string("\x01*");
+    key += '|';
+    key += f.first ? f.first->iso() : std::string();
+    key += '|';
+    key += f.last ? f.last->iso() : std::string();
+    return key;
+}
+
+int severityOrder(Severity s) {
+    switch (s) {
+        case Severity::Critical:
+            return 0;
+        case Severity::Warning:
+            return 1;
+        case Severity::Info:
+            return 2;
+    }
+    return 2;
+}
+
+}  // namespace
+
+std::string findingId(const Finding& finding) {
+    char hex[17];
+    std::snprintf(hex, sizeof hex, "%016llx",
+                  static_cast<unsigned long long>(fnv1a(idKey(finding))));
+    return std::string(findingKindName(finding.kind)) + "-" + std::string(hex, 12);
+}
+
+Result<ScanReport> scanDrop(const Drop& drop, const ScanOptions& options,
+                            const ScanContext& context) {
+    if (Status s = options.validate(); !s)
+        return s.error();
+    const detail::ScanInput in = detail::prepareScanInput(drop, options, context);
+
+    ScanReport report;
+    std::vector<Finding>& all = report.findings;
+    if (options.missingDates.enabled)
+        detail::findMissingDates(in, all);
+    if (options.duplicateRow.enabled)
+        detail::findDuplicateRows(in, all);
+    if (options.negativeCount.enabled)
+        detail::findNegativeCounts(in, all);
+    if (options.backlogDump.enabled)
+        detail::findBacklogDumps(in, all);
+    if (options.reportingGap.enabled)
+        detail::findReportingGaps(in, all);
+    if (options.staleValues.enabled)
+        detail::findStaleValues(in, all);
+    if (options.codeCollision.enabled)
+        detail::findCodeCollisions(in, all);
+    if (options.codeVariant.enabled)
+        detail::findCodeVariants(in, all);
+    if (options.unknownCode.enabled && context.regions)
+        detail::findUnknownCodes(in, all);
+    if (options.weekdayEffect.enabled)
+        detail::findWeekdayEffects(in, all);
+    if (options.cumulativeDecrease.enabled)
+        detail::findCumulativeDecreases(in, all);
+    if (options.hierarchyMismatch.enabled && context.regions) {
+        detail::findHierarchyMismatches(in, all);
+    }
+    if (options.revision.enabled && context.previous) {
+        detail::findRevisions(in, all, report.revisions);
+    }
+
+    // Review order: severity, then counts in doubt, then kind, region order, date.
+    std::unordered_map<std::string, std::size_t> regionOrder;
+    for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
+        regionOrder.emplace(drop.regionCodes[r], r);
+    }
+    auto regionRank = [&](const Finding& f) -> std::size_t {
+        if (!f.region)
+            return 0;
+        auto it = regionOrder.find(*f.region);
+        return it == regionOrder.end() ? drop.regionCodes.size() + 1 : it->second + 1;
+    };
+    std::stable_sort(all.begin(), all.end(), [&](const Finding& a, const Finding& b) {
+        if (severityOrder(a.severity) != severityOrder(b.severity)) {
+            return severityOrder(a.severity) < severityOrder(b.severity);
+        }
+        if (a.impact != b.impact)
+            return a.impact > b.impact;
+        if (a.kind != b.kind)
+            return a.kind < b.kind;
+        const std::size_t ra = regionRank(a), rb = regionRank(b);
+        if (ra != rb)
+            return ra < rb;
+        if (a.first != b.first)
+            return a.first < b.first;
+        return a.measure < b.measure;
+    });
+
+    std::unordered_map<std::string, int> seen;
+    for (std::size_t i = 0; i < all.size(); ++i) {
+        Finding& f = all[i];
+        f.rank = static_cast<int>(i) + 1;
+        std::string id = findingId(f);
+        const int n = ++seen[id];
+        if (n > 1)
+            id += "-" + std::to_string(n);
+        f.id = std::move(id);
+    }
+
+    for (FindingKind kind : kAllFindingKinds)
+        report.byKind[findingKindName(kind)] = 0;
+    for (Severity s : {Severity::Info, Severity::Warning, Severity::Critical}) {
+        report.bySeverity[severityName(s)] = 0;
+    }
+    for (const Finding& f : all) {
+        ++report.byKind[findingKindName(f.kind)];
+        ++report.bySeverity[severityName(f.severity)];
+    }
+    return report;
+}
+
+nlohmann::json scanReportToJson(const ScanReport& report) {
+    nlohmann::json findings = nlohmann::json::array();
+    for (const Finding& f : report.findings)
+        findings.push_back(findingToJson(f));
+    nlohmann::json summary = nlohmann::json::object();
+    summary["by_kind"] = report.byKind;
+    summary["by_severity"] = report.bySeverity;
+    if (report.revisions.compared) {
+        const RevisionSummary& r = report.revisions;
+        summary["revisions"] = {
+            {"cells_compared", r.cellsCompared},
+            {"cells_changed", r.cellsChanged},
+            {"cells_appeared", r.cellsAppeared},
+            {"cells_vanished", r.cellsVanished},
+            {"regions_revised", r.regionsRevised},
+            {"net_change", r.netChange},
+            {"absolute_change", r.absoluteChange},
+            {"previous_total", r.previousTotal},
+            {"share_changed", r.previousTotal > 0 ? r.absoluteChange / r.previousTotal : 0.0},
+        };
+    }
+    return {{"findings", std::move(findings)}, {"summary", std::move(summary)}};
+}
+
+}  // namespace siftwave::scan

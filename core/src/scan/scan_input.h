@@ -1,0 +1,104 @@
+#pragma once
+// What every detector reads: the drop, the options, the optional previous drop
+// and register, and facts about each measure computed once (weekday factors,
+// whether the measure is cumulative, region totals).
+
+#include "siftwave/drop.h"
+#include "siftwave/scan/finding.h"
+#include "siftwave/scan/scan.h"
+#include "siftwave/scan/scan_options.h"
+
+#include <array>
+#include <cmath>
+#include <cstddef>
+#include <limits>
+#include <span>
+#include <string>
+#include <vector>
+
+namespace siftwave::scan::detail {
+
+inline constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+/// Multiplicative weekday factors, index 0 = Monday .. 6 = Sunday, mean 1.
+struct WeekdayFactors {
+    std::array<double, 7> factor{1, 1, 1, 1, 1, 1, 1};
+    std::array<std::size_t, 7> daysUsed{};  // ratios behind each factor
+    bool estimated = false;                 // false: too little data, factors are all 1
+    /// Highest factor / lowest factor - 1.
+    double strength() const;
+};
+
+struct MeasureFacts {
+    std::size_t index = 0;
+    bool cumulative = false;
+    std::size_t rises = 0;  // day-to-day increases over all regions
+    std::size_t falls = 0;  // day-to-day decreases
+    WeekdayFactors weekday;
+    double overdispersion = 0;         // phi in Var = mu + phi mu^2 (1 / negative-binomial size)
+    std::vector<double> regionTotals;  // sum of reported values per region
+};
+
+struct ScanInput {
+    const Drop& drop;
+    const ScanOptions& options;
+    ScanContext context;
+    int firstWeekday = 0;  // 0 = Monday, for day index 0
+    std::vector<MeasureFacts> measures;
+
+    int weekdayOf(std::int32_t day) const { return (firstWeekday + day) % 7; }
+};
+
+/// Computes the measure facts. The options must validate.
+ScanInput prepareScanInput(const Drop& drop, const ScanOptions& options,
+                           const ScanContext& context = {});
+
+/// The reported values of one series as doubles, NaN where not reported.
+std::vector<double> seriesValues(std::span<const Cell> cells);
+
+/// Median of the reported (non-NaN) values within `window` days before `first`
+/// and after `last` (the run itself excluded); NaN when there are none.
+double levelAround(std::span<const double> values, std::int32_t first, std::int32_t last,
+                   int window);
+
+/// Weekday factors by ratio to a centred 7-day moving average (classical
+/// multiplicative decomposition; Hyndman and Athanasopoulos, "Forecasting:
+/// Principles and Practice", 3rd ed., section 3.4): for every day t whose
+/// window t-3..t+3 is fully reported with mean a_t >= minLevel, r_t = x_t / a_t;
+/// the factor of weekday w is the median of its r_t; factors are scaled to mean 1.
+/// `regions` selects the series pooled (all of them when empty).
+WeekdayFactors estimateWeekdayFactors(const Drop& drop, std::size_t measure, int firstWeekday,
+                                      std::span<const std::size_t> regions, double minLevel,
+                                      int minWeeks);
+
+/// Overdispersion phi (Var x = mu + phi mu^2, phi = 1/k of a negative binomial),
+/// pooled over the regions of a measure: with weekday-adjusted values y_t and
+/// their centred 7-day mean a_t (a_t >= 10), the residuals r_t = y_t - a_t have
+/// variance about (6/7) Var y_t; phi is the value at which the median of
+/// |r_t| / sqrt((6/7)(a_t + phi a_t^2)) equals 0.6745, the median of |N(0,1)|
+/// (found by bisection on [0, 2], over at most 20,000 evenly spaced days).
+/// 0 when fewer than 50 days qualify.
+double estimateOverdispersion(const Drop& drop, std::size_t measure, int firstWeekday,
+                              const WeekdayFactors& factors);
+
+/// A finding with kind, severity, region (by index) and measure (by index) filled in.
+Finding makeFinding(const ScanInput& in, FindingKind kind, Severity severity,
+                    std::optional<std::size_t> region, std::optional<std::size_t> measure);
+
+// One detector per file, each appending its findings.
+void findMissingDates(const ScanInput& in, std::vector<Finding>& out);
+void findDuplicateRows(const ScanInput& in, std::vector<Finding>& out);
+void findNegativeCounts(const ScanInput& in, std::vector<Finding>& out);
+void findBacklogDumps(const ScanInput& in, std::vector<Finding>& out);
+void findReportingGaps(const ScanInput& in, std::vector<Finding>& out);
+void findStaleValues(const ScanInput& in, std::vector<Finding>& out);
+void findCodeCollisions(const ScanInput& in, std::vector<Finding>& out);
+void findCodeVariants(const ScanInput& in, std::vector<Finding>& out);
+void findUnknownCodes(const ScanInput& in, std::vector<Finding>& out);
+void findWeekdayEffects(const ScanInput& in, std::vector<Finding>& out);
+void findCumulativeDecreases(const ScanInput& in, std::vector<Finding>& out);
+void findHierarchyMismatches(const ScanInput& in, std::vector<Finding>& out);
+/// Appends revision findings and fills `summary`.
+void findRevisions(const ScanInput& in, std::vector<Finding>& out, RevisionSummary& summary);
+
+}  // namespace siftwave::scan::detail

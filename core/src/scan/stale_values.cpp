@@ -1,0 +1,67 @@
+// stale_values: a run of one repeated non-zero value (copied forward).
+//
+// A run of L >= min_days identical reported values v > 0 is reported when the
+// chance of L - 1 consecutive equal draws under Poisson noise at level v,
+// q(v)^(L-1) with q(v) = sum_k P(k)^2 = exp(-2v) I_0(2v), is at most
+// max_chance. Poisson is the least dispersed count model in use, so real
+// (overdispersed) counts repeat even less often: the test errs towards silence.
+// Small counts repeat by chance (1, 1, 1 has chance 0.095) and are not reported.
+
+#include "scan/robust_stats.h"
+#include "scan/scan_input.h"
+
+#include <cmath>
+#include <unordered_map>
+
+namespace siftwave::scan::detail {
+
+void findStaleValues(const ScanInput& in, std::vector<Finding>& out) {
+    const Drop& drop = in.drop;
+    const StaleValuesOptions& o = in.options.staleValues;
+    std::unordered_map<std::int32_t, double> equalChance;  // memo per value
+    for (std::size_t m = 0; m < drop.measures.size(); ++m) {
+        if (in.measures[m].cumulative)
+            continue;
+        for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
+            const std::span<const Cell> cells = drop.series(m, r);
+            for (std::int32_t t = 0; t < drop.days; ++t) {
+                const Cell& c = cells[static_cast<std::size_t>(t)];
+                if (!c.reported() || c.value <= 0)
+                    continue;
+                std::int32_t end = t;
+                while (end + 1 < drop.days && cells[static_cast<std::size_t>(end) + 1].reported() &&
+                       cells[static_cast<std::size_t>(end) + 1].value == c.value) {
+                    ++end;
+                }
+                const int days = end - t + 1;
+                if (days >= o.minDays) {
+                    auto it = equalChance.find(c.value);
+                    if (it == equalChance.end()) {
+                        it = equalChance.emplace(c.value, poissonEqualChance(c.value)).first;
+                    }
+                    const double chance = std::pow(it->second, days - 1);
+                    if (chance <= o.maxChance) {
+                        Finding f =
+                            makeFinding(in, FindingKind::StaleValues, Severity::Warning, r, m);
+                        f.first = drop.dayAt(t);
+                        f.last = drop.dayAt(end);
+                        f.impact = static_cast<double>(c.value) * (days - 1);
+                        f.evidence = {{"value", c.value},
+                                      {"days", days},
+                                      {"chance_under_poisson", chance},
+                                      {"first_line", c.line}};
+                        // The first day of the run may be genuine; the copies follow it.
+                        f.suggestion = {{"decision", "exclude"},
+                                        {"first", drop.dayAt(t + 1).iso()},
+                                        {"last", f.last->iso()},
+                                        {"note", "values copied forward carry no new count"}};
+                        out.push_back(std::move(f));
+                    }
+                }
+                t = end;
+            }
+        }
+    }
+}
+
+}  // namespace siftwave::scan::detail

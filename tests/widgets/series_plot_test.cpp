@@ -1,0 +1,132 @@
+// SeriesPlot: the date axis, the draggable window edges, the reset, the hover text.
+#include "widgets/series_plot.h"
+#include "widgets/qcustomplot_include.h"
+#include "widgets/series_chart.h"
+#include "widgets/series_view.h"
+
+#include <QSignalSpy>
+#include <QTest>
+
+#include <cmath>
+#include <limits>
+
+using siftwave::Date;
+using siftwave::widgets::DayRange;
+using siftwave::widgets::SeriesPlot;
+using siftwave::widgets::SeriesView;
+
+namespace {
+
+SeriesView syntheticView() {
+    SeriesView view;
+    view.regionCode = QStringLiteral("T1");
+    view.measure = QStringLiteral("cases");
+    view.firstDay = *Date::fromIso("2026-03-02");
+    view.days = 60;
+    for (int d = 0; d < view.days; ++d) {
+        view.raw.push_back(10 + d % 7);
+        view.rawState.push_back(siftwave::CellState::Reported);
+        view.sourceLine.push_back(static_cast<std::uint32_t>(d + 2));
+    }
+    view.raw[5] = std::numeric_limits<double>::quiet_NaN();
+    view.rawState[5] = siftwave::CellState::Absent;
+    view.sourceLine[5] = 0;
+    view.cleaned = view.raw;
+    view.touchedBy.assign(view.days, {});
+    view.touchedBy[7] << QStringLiteral("#3 redistribute backlog (alice)");
+    return view;
+}
+
+void sendMouse(QWidget* target, QEvent::Type type, QPointF pos, Qt::MouseButtons buttons) {
+    QMouseEvent event(type, pos, target->mapToGlobal(pos), Qt::LeftButton, buttons, Qt::NoModifier);
+    QCoreApplication::sendEvent(target, &event);
+}
+
+}  // namespace
+
+class SeriesPlotTest : public QObject {
+    Q_OBJECT
+
+private Q_SLOTS:
+    void daysSitOnTheirUtcMidnightOnTheDateAxis() {
+        // 2026-03-02 is 20514 days after 1970-01-01 (Date's own arithmetic; QDate cross-check
+        // below).
+        const Date day = *Date::fromIso("2026-03-02");
+        const QDateTime midnight(QDate(2026, 3, 2), QTime(0, 0), Qt::UTC);
+        QCOMPARE(siftwave::widgets::plotKeyOfDay(day),
+                 static_cast<double>(midnight.toSecsSinceEpoch()));
+        QCOMPARE(siftwave::widgets::dayOfPlotKey(midnight.toSecsSinceEpoch() + 3600.0 * 11), day);
+    }
+
+    void draggingAWindowEdgeMovesItAndReportsTheNewWindow() {
+        SeriesPlot plot;
+        plot.resize(900, 500);
+        plot.show();
+        QVERIFY(QTest::qWaitForWindowExposed(&plot));
+        plot.setView(syntheticView());
+        plot.setEditableWindow(DayRange{10, 30});
+        plot.customPlot()->replot();
+        QSignalSpy changing(&plot, &SeriesPlot::windowChanging);
+        QSignalSpy changed(&plot, &SeriesPlot::windowChanged);
+
+        QWidget* canvas = plot.customPlot();
+        auto* chart = plot.chart();
+        const double halfDay = (chart->pixelOfDayIndex(1) - chart->pixelOfDayIndex(0)) / 2;
+        const double y = plot.customPlot()->axisRect()->center().y();
+        const QPointF endEdge(chart->pixelOfDayIndex(30) + halfDay, y);
+        const QPointF target(chart->pixelOfDayIndex(40), y);
+        sendMouse(canvas, QEvent::MouseButtonPress, endEdge, Qt::LeftButton);
+        sendMouse(canvas, QEvent::MouseMove, (endEdge + target) / 2, Qt::LeftButton);
+        sendMouse(canvas, QEvent::MouseMove, target, Qt::LeftButton);
+        sendMouse(canvas, QEvent::MouseButtonRelease, target, Qt::NoButton);
+
+        QVERIFY(changing.count() >= 2);  // live, while dragging
+        QCOMPARE(changed.count(), 1);
+        const auto window = changed.front().front().value<DayRange>();
+        QCOMPARE(window.first, 10);
+        QCOMPARE(window.last, 40);
+        QCOMPARE(plot.editableWindow()->last, 40);
+    }
+
+    void draggingAwayFromAnEdgePansInsteadOfMovingTheWindow() {
+        SeriesPlot plot;
+        plot.resize(900, 500);
+        plot.show();
+        QVERIFY(QTest::qWaitForWindowExposed(&plot));
+        plot.setView(syntheticView());
+        plot.setEditableWindow(DayRange{10, 30});
+        QSignalSpy changed(&plot, &SeriesPlot::windowChanged);
+        const double before = plot.customPlot()->xAxis->range().lower;
+        QWidget* canvas = plot.customPlot();
+        const double y = plot.customPlot()->axisRect()->center().y();
+        const QPointF start(plot.chart()->pixelOfDayIndex(45), y);
+        sendMouse(canvas, QEvent::MouseButtonPress, start, Qt::LeftButton);
+        sendMouse(canvas, QEvent::MouseMove, start + QPointF(-120, 0), Qt::LeftButton);
+        sendMouse(canvas, QEvent::MouseButtonRelease, start + QPointF(-120, 0), Qt::NoButton);
+        QCOMPARE(changed.count(), 0);
+        QCOMPARE(*plot.editableWindow(), (DayRange{10, 30}));
+        QVERIFY(plot.customPlot()->xAxis->range().lower >
+                before);  // the view moved right (data left)
+
+        plot.resetView();
+        QCOMPARE(plot.customPlot()->xAxis->range().lower, before);
+    }
+
+    void hoverTextNamesTheDayItsNumbersSourceAndLedgerEntries() {
+        const SeriesView view = syntheticView();
+        const QString text = siftwave::widgets::hoverText(view, 7);
+        QVERIFY(text.contains(QStringLiteral("2026-03-09")));
+        QVERIFY(
+            text.contains(QStringLiteral("Mon")));  // 2026-03-09 is a Monday (ISO 8601 week day 1)
+        QVERIFY(text.contains(QStringLiteral("Raw cases: 10")));
+        QVERIFY(text.contains(QStringLiteral("Source line 9")));
+        QVERIFY(text.contains(QStringLiteral("#3 redistribute backlog (alice)")));
+        const QString absent = siftwave::widgets::hoverText(view, 5);
+        QVERIFY(absent.contains(QStringLiteral("absent")));
+        QVERIFY(absent.contains(QStringLiteral("No source row")));
+        QVERIFY(siftwave::widgets::hoverText(view, 60).isEmpty());
+    }
+};
+
+QTEST_MAIN(SeriesPlotTest)
+#include "series_plot_test.moc"

@@ -1,0 +1,256 @@
+#include "widgets/region_model.h"
+
+#include "widgets/workbench.h"
+
+#include <QBrush>
+#include <QFont>
+#include <QGuiApplication>
+#include <QLocale>
+#include <QPalette>
+
+#include <unordered_map>
+
+namespace siftwave::widgets {
+
+RegionModel::RegionModel(Workbench* workbench, QObject* parent)
+    : QAbstractItemModel(parent), m_workbench(workbench) {
+    connect(m_workbench, &Workbench::dropChanged, this, &RegionModel::rebuild);
+    rebuild();
+}
+
+void RegionModel::rebuild() {
+    beginResetModel();
+    m_nodes.clear();
+    m_topLevel.clear();
+    if (m_workbench->hasDrop()) {
+        const Drop& drop = m_workbench->drop();
+        if (m_measure >= static_cast<int>(drop.measures.size()))
+            m_measure = 0;
+        const RegionRegister* reg = m_workbench->regionRegister();
+        std::unordered_map<std::string, int> nodeByCode;
+        if (reg) {
+            for (const RegionEntry& entry : reg->entries) {
+                if (nodeByCode.count(entry.code))
+                    continue;  // a repeated code: the first one counts
+                Node node;
+                node.code = QString::fromStdString(entry.code);
+                node.name = QString::fromStdString(entry.name);
+                node.dropRegion = drop.regionIndex(entry.code);
+                nodeByCode.emplace(entry.code, static_cast<int>(m_nodes.size()));
+                m_nodes.push_back(std::move(node));
+            }
+            // Link parents; a parent the register does not list (or a cycle) leaves the node at the
+            // top.
+            for (const RegionEntry& entry : reg->entries) {
+                const int self = nodeByCode.at(entry.code);
+                if (m_nodes[self].parent != -1 || entry.parent.empty())
+                    continue;
+                auto parent = nodeByCode.find(entry.parent);
+                if (parent == nodeByCode.end() || parent->second == self)
+                    continue;
+                bool cycle = false;
+                for (int up = parent->second; up != -1; up = m_nodes[up].parent)
+                    if (up == self)
+                        cycle = true;
+                if (cycle)
+                    continue;
+                m_nodes[self].parent = parent->second;
+                m_nodes[parent->second].children.push_back(self);
+            }
+        }
+        for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
+            if (nodeByCode.count(drop.regionCodes[r]))
+                continue;
+            Node node;
+            node.code = QString::fromStdString(drop.regionCodes[r]);
+            node.dropRegion = r;
+            nodeByCode.emplace(drop.regionCodes[r], static_cast<int>(m_nodes.size()));
+            m_nodes.push_back(std::move(node));
+        }
+        for (int i = 0; i < static_cast<int>(m_nodes.size()); ++i)
+            if (m_nodes[i].parent == -1)
+                m_topLevel.push_back(i);
+        computeTotals();
+    }
+    endResetModel();
+}
+
+void RegionModel::computeTotals() {
+    const Drop& drop = m_workbench->drop();
+    if (drop.measures.empty())
+        return;
+    for (Node& node : m_nodes) {
+        node.rawTotal = 0;
+        node.reportedDays = 0;
+        if (!node.dropRegion)
+            continue;
+        for (const Cell& cell :
+             drop.series(static_cast<std::size_t>(m_measure), *node.dropRegion)) {
+            if (!cell.reported())
+                continue;
+            node.rawTotal += cell.value;
+            ++node.reportedDays;
+        }
+    }
+}
+
+void RegionModel::setMeasure(int measure) {
+    if (measure == m_measure)
+        return;
+    m_measure = measure;
+    rebuild();
+}
+
+int RegionModel::nodeOf(const QModelIndex& index) const {
+    return index.isValid() ? static_cast<int>(index.internalId()) : -1;
+}
+
+const std::vector<int>& RegionModel::childrenOf(int node) const {
+    return node == -1 ? m_topLevel : m_nodes[node].children;
+}
+
+int RegionModel::rowInParent(int node) const {
+    const std::vector<int>& siblings = childrenOf(m_nodes[node].parent);
+    for (int i = 0; i < static_cast<int>(siblings.size()); ++i)
+        if (siblings[i] == node)
+            return i;
+    return -1;
+}
+
+QModelIndex RegionModel::index(int row, int column, const QModelIndex& parent) const {
+    if (column < 0 || column >= ColumnCount || row < 0)
+        return {};
+    const std::vector<int>& children = childrenOf(nodeOf(parent));
+    if (row >= static_cast<int>(children.size()))
+        return {};
+    return createIndex(row, column, static_cast<quintptr>(children[row]));
+}
+
+QModelIndex RegionModel::parent(const QModelIndex& child) const {
+    const int node = nodeOf(child);
+    if (node == -1)
+        return {};
+    const int parent = m_nodes[node].parent;
+    if (parent == -1)
+        return {};
+    return createIndex(rowInParent(parent), 0, static_cast<quintptr>(parent));
+}
+
+int RegionModel::rowCount(const QModelIndex& parent) const {
+    if (parent.isValid() && parent.column() != 0)
+        return 0;
+    return static_cast<int>(childrenOf(nodeOf(parent)).size());
+}
+
+int RegionModel::columnCount(const QModelIndex&) const {
+    return ColumnCount;
+}
+
+QVariant RegionModel::data(const QModelIndex& index, int role) const {
+    const int id = nodeOf(index);
+    if (id < 0)
+        return {};
+    const Node& node = m_nodes[id];
+    const bool inDrop = node.dropRegion.has_value();
+    switch (role) {
+        case CodeRole:
+            return node.code;
+        case InDropRole:
+            return inDrop;
+        case Qt::DisplayRole:
+            switch (index.column()) {
+                case CodeColumn:
+                    return node.code;
+                case NameColumn:
+                    return node.name;
+                case RawTotalColumn:
+                case CleanedTotalColumn:
+                    // With no decisions yet, the cleaned series is the raw one (replay of an empty
+                    // ledger).
+                    return inDrop ? QLocale::c().toString(node.rawTotal) : QString();
+                case OpenFindingsColumn:
+                    return QString();
+            }
+            return {};
+        case SortRole:
+            switch (index.column()) {
+                case CodeColumn:
+                    return node.code;
+                case NameColumn:
+                    return node.name;
+                case RawTotalColumn:
+                case CleanedTotalColumn:
+                    return inDrop ? node.rawTotal : -1;
+                case OpenFindingsColumn:
+                    return 0;
+            }
+            return {};
+        case Qt::TextAlignmentRole:
+            if (index.column() >= RawTotalColumn)
+                return QVariant::fromValue(Qt::AlignRight | Qt::AlignVCenter);
+            return {};
+        case Qt::ForegroundRole:
+            if (!inDrop)
+                return QGuiApplication::palette().brush(QPalette::Disabled, QPalette::Text);
+            return {};
+        case Qt::FontRole:
+            if (index.column() == CodeColumn) {
+                QFont font;
+                font.setFamilies({QStringLiteral("DejaVu Sans Mono"), QStringLiteral("monospace")});
+                return font;
+            }
+            return {};
+        case Qt::ToolTipRole:
+            if (!inDrop)
+                return tr("No rows for %1 in this release").arg(node.code);
+            if (node.name.isEmpty() && m_workbench->regionRegister())
+                return tr("%1 is not in the region register").arg(node.code);
+            return tr("%1: %2 reported days").arg(node.code).arg(node.reportedDays);
+    }
+    return {};
+}
+
+QVariant RegionModel::headerData(int section, Qt::Orientation orientation, int role) const {
+    if (orientation != Qt::Horizontal)
+        return {};
+    if (role == Qt::DisplayRole) {
+        switch (section) {
+            case CodeColumn:
+                return tr("Code");
+            case NameColumn:
+                return tr("Name");
+            case RawTotalColumn:
+                return tr("Raw");
+            case CleanedTotalColumn:
+                return tr("Cleaned");
+            case OpenFindingsColumn:
+                return tr("Open");
+        }
+    }
+    if (role == Qt::ToolTipRole) {
+        switch (section) {
+            case CodeColumn:
+                return tr("Region code, exactly as written in the release");
+            case NameColumn:
+                return tr("Name from the region register");
+            case RawTotalColumn:
+                return tr("Total of the reported counts, as read");
+            case CleanedTotalColumn:
+                return tr("Total after the ledger's decisions are replayed");
+            case OpenFindingsColumn:
+                return tr("Findings not yet decided");
+        }
+    }
+    return {};
+}
+
+QModelIndex RegionModel::indexOfCode(const QString& code) const {
+    for (int i = 0; i < static_cast<int>(m_nodes.size()); ++i) {
+        if (m_nodes[i].code != code)
+            continue;
+        return createIndex(rowInParent(i), 0, static_cast<quintptr>(i));
+    }
+    return {};
+}
+
+}  // namespace siftwave::widgets

@@ -1,0 +1,275 @@
+#include "widgets/series_chart.h"
+
+#include "widgets/plot_style.h"
+#include "widgets/qcustomplot_include.h"
+
+#include <algorithm>
+#include <cmath>
+
+namespace siftwave::widgets {
+
+namespace {
+
+constexpr double kSecondsPerDay = 86400.0;
+
+QVector<double> keysOf(const SeriesView& view) {
+    QVector<double> keys(view.days);
+    for (int d = 0; d < view.days; ++d)
+        keys[d] = plotKeyOfDay(view.dayAt(d));
+    return keys;
+}
+
+QVector<double> toVector(const std::vector<double>& values, int days) {
+    QVector<double> out(days, std::numeric_limits<double>::quiet_NaN());
+    for (int d = 0; d < days && d < static_cast<int>(values.size()); ++d)
+        out[d] = values[d];
+    return out;
+}
+
+QCPGraph* addLine(QCustomPlot* plot, QCPAxis* valueAxis, const QVector<double>& keys,
+                  const QVector<double>& values, const QPen& pen, const QString& name) {
+    QCPGraph* graph = plot->addGraph(plot->xAxis, valueAxis);
+    graph->setData(keys, values, true);
+    graph->setPen(pen);
+    graph->setName(name);
+    graph->setAdaptiveSampling(true);
+    return graph;
+}
+
+double maxIn(const std::vector<double>& values, int first, int last) {
+    double best = 0;
+    for (int d = std::max(first, 0); d <= last && d < static_cast<int>(values.size()); ++d)
+        if (!std::isnan(values[d]))
+            best = std::max(best, values[d]);
+    return best;
+}
+
+}  // namespace
+
+double plotKeyOfDay(Date day) {
+    return static_cast<double>(day.serial) * kSecondsPerDay;
+}
+
+Date dayOfPlotKey(double key) {
+    return Date{static_cast<std::int32_t>(std::lround(key / kSecondsPerDay))};
+}
+
+SeriesChart::SeriesChart(QCustomPlot* plot) : m_plot(plot) {
+    auto ticker = QSharedPointer<QCPAxisTickerDateTime>::create();
+    ticker->setDateTimeFormat(QStringLiteral("yyyy-MM-dd"));
+    ticker->setDateTimeSpec(Qt::UTC);
+    ticker->setTickCount(6);
+    m_plot->xAxis->setTicker(ticker);
+    m_plot->xAxis->setTickLabelRotation(0);
+    m_plot->yAxis->setNumberFormat(QStringLiteral("gb"));
+    m_plot->yAxis->grid()->setSubGridVisible(false);
+    m_plot->xAxis->grid()->setPen(QPen(QColor(0xE3, 0xE5, 0xE8), 0, Qt::SolidLine));
+    m_plot->yAxis->grid()->setPen(QPen(QColor(0xE3, 0xE5, 0xE8), 0, Qt::SolidLine));
+    m_plot->legend->setVisible(true);
+    m_plot->legend->setBrush(QBrush(QColor(255, 255, 255, 220)));
+    m_plot->legend->setBorderPen(QPen(QColor(0xB0, 0xB4, 0xBA)));
+    m_plot->axisRect()->insetLayout()->setInsetAlignment(0, Qt::AlignTop | Qt::AlignLeft);
+    m_plot->setNotAntialiasedElements(QCP::aeNone);
+    QObject::connect(m_plot->xAxis, qOverload<const QCPRange&>(&QCPAxis::rangeChanged), m_plot,
+                     [this](const QCPRange&) { rescaleValueAxis(); });
+}
+
+void SeriesChart::draw(const SeriesView& view) {
+    m_view = view;
+    m_plot->clearPlottables();
+    m_plot->clearItems();
+    m_preview = nullptr;
+    m_windowRect = nullptr;
+    m_windowStart = nullptr;
+    m_windowEnd = nullptr;
+    m_window.reset();
+
+    const QVector<double> keys = keysOf(m_view);
+    m_plot->yAxis->setLabel(m_view.measure.isEmpty() ? QString()
+                                                     : QObject::tr("Daily %1").arg(m_view.measure));
+
+    // Raw counts: only the days a number was reported.
+    auto* bars = new QCPBars(m_plot->xAxis, m_plot->yAxis);
+    bars->setWidth(kSecondsPerDay * 0.78);
+    bars->setBrush(plot_style::rawBarBrush());
+    bars->setPen(plot_style::rawBarPen());
+    bars->setName(QObject::tr("Raw, as reported"));
+    QVector<double> rawKeys, rawValues;
+    for (int d = 0; d < m_view.days; ++d) {
+        if (d >= static_cast<int>(m_view.raw.size()) || std::isnan(m_view.raw[d]))
+            continue;
+        rawKeys << keys[d];
+        rawValues << m_view.raw[d];
+    }
+    bars->setData(rawKeys, rawValues, true);
+
+    if (m_view.fit && !m_view.fit->mid.empty()) {
+        if (!m_view.fit->low.empty() && !m_view.fit->high.empty()) {
+            QCPGraph* low = addLine(m_plot, m_plot->yAxis, keys,
+                                    toVector(m_view.fit->low, m_view.days), Qt::NoPen, QString());
+            QCPGraph* high =
+                addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->high, m_view.days),
+                        Qt::NoPen, QObject::tr("Fit band"));
+            high->setBrush(plot_style::fitBandBrush());
+            high->setChannelFillGraph(low);
+            low->removeFromLegend();
+        }
+        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->mid, m_view.days),
+                plot_style::fitPen(),
+                m_view.fit->label.isEmpty() ? QObject::tr("Fitted") : m_view.fit->label);
+    }
+    if (!m_view.cleaned.empty())
+        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.cleaned, m_view.days),
+                plot_style::cleanedPen(), QObject::tr("Cleaned"));
+    if (!m_view.smoothed.empty())
+        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.smoothed, m_view.days),
+                plot_style::smoothedPen(),
+                m_view.smoothedLabel.isEmpty() ? QObject::tr("Smoothed") : m_view.smoothedLabel);
+
+    const bool second = !m_view.secondMeasure.isEmpty() && !m_view.second.empty();
+    m_plot->yAxis2->setVisible(second);
+    if (second) {
+        addLine(m_plot, m_plot->yAxis2, keys, toVector(m_view.second, m_view.days),
+                plot_style::secondMeasurePen(),
+                QObject::tr("%1 (right axis)").arg(m_view.secondMeasure));
+        m_plot->yAxis2->setLabel(QObject::tr("Daily %1").arg(m_view.secondMeasure));
+        m_plot->yAxis2->setNumberFormat(QStringLiteral("gb"));
+    }
+
+    drawFindings();
+    if (m_view.fitWindow)
+        setWindow(m_view.fitWindow, QObject::tr("fit window"));
+    resetRange();
+}
+
+void SeriesChart::drawFindings() {
+    for (const FindingMark& mark : m_view.findings) {
+        auto* rect = new QCPItemRect(m_plot);
+        rect->setClipToAxisRect(true);
+        for (QCPItemPosition* p : {rect->topLeft, rect->bottomRight}) {
+            p->setTypeX(QCPItemPosition::ptPlotCoords);
+            p->setTypeY(QCPItemPosition::ptAxisRectRatio);
+        }
+        rect->topLeft->setCoords(plotKeyOfDay(m_view.dayAt(mark.days.first)) - kSecondsPerDay * 0.5,
+                                 0.965);
+        rect->bottomRight->setCoords(
+            plotKeyOfDay(m_view.dayAt(mark.days.last)) + kSecondsPerDay * 0.5, 1.0);
+        const QColor colour = plot_style::findingColor(mark.severity);
+        rect->setBrush(QBrush(colour));
+        rect->setPen(QPen(colour.darker(140), 1));
+        rect->setSelectable(false);
+    }
+}
+
+void SeriesChart::setWindow(std::optional<DayRange> window, const QString& label) {
+    m_window = window;
+    if (!window) {
+        for (QCPAbstractItem* item : {static_cast<QCPAbstractItem*>(m_windowRect),
+                                      static_cast<QCPAbstractItem*>(m_windowStart),
+                                      static_cast<QCPAbstractItem*>(m_windowEnd)})
+            if (item)
+                m_plot->removeItem(item);
+        m_windowRect = nullptr;
+        m_windowStart = nullptr;
+        m_windowEnd = nullptr;
+        return;
+    }
+    if (!m_windowRect) {
+        m_windowRect = new QCPItemRect(m_plot);
+        m_windowRect->setBrush(plot_style::windowBrush());
+        m_windowRect->setPen(Qt::NoPen);
+        m_windowRect->setSelectable(false);
+        for (QCPItemPosition* p : {m_windowRect->topLeft, m_windowRect->bottomRight}) {
+            p->setTypeX(QCPItemPosition::ptPlotCoords);
+            p->setTypeY(QCPItemPosition::ptAxisRectRatio);
+        }
+        m_windowStart = new QCPItemStraightLine(m_plot);
+        m_windowEnd = new QCPItemStraightLine(m_plot);
+        for (QCPItemStraightLine* edge : {m_windowStart, m_windowEnd}) {
+            edge->setPen(plot_style::windowEdgePen());
+            edge->setSelectable(false);
+        }
+    }
+    const double start = plotKeyOfDay(m_view.dayAt(window->first)) - kSecondsPerDay * 0.5;
+    const double end = plotKeyOfDay(m_view.dayAt(window->last)) + kSecondsPerDay * 0.5;
+    m_windowRect->topLeft->setCoords(start, 0.0);
+    m_windowRect->bottomRight->setCoords(end, 1.0);
+    m_windowStart->point1->setCoords(start, 0);
+    m_windowStart->point2->setCoords(start, 1);
+    m_windowEnd->point1->setCoords(end, 0);
+    m_windowEnd->point2->setCoords(end, 1);
+    m_windowRect->setObjectName(label);
+}
+
+void SeriesChart::setPreview(const std::vector<double>& values, const QString& label) {
+    if (m_preview) {
+        m_plot->removePlottable(m_preview);
+        m_preview = nullptr;
+    }
+    if (values.empty())
+        return;
+    m_preview = new QCPBars(m_plot->xAxis, m_plot->yAxis);
+    m_preview->setWidth(kSecondsPerDay * 0.5);
+    m_preview->setBrush(plot_style::previewBrush());
+    m_preview->setPen(plot_style::previewPen());
+    m_preview->setName(label.isEmpty() ? QObject::tr("Preview") : label);
+    QVector<double> keys, shown;
+    for (int d = 0; d < m_view.days && d < static_cast<int>(values.size()); ++d) {
+        if (std::isnan(values[d]))
+            continue;
+        keys << plotKeyOfDay(m_view.dayAt(d));
+        shown << values[d];
+    }
+    m_preview->setData(keys, shown, true);
+    rescaleValueAxis();
+}
+
+void SeriesChart::resetRange() {
+    if (m_view.days == 0) {
+        m_plot->xAxis->setRange(plotKeyOfDay(Date{0}), plotKeyOfDay(Date{30}));
+        m_plot->yAxis->setRange(0, 10);
+        return;
+    }
+    focusOn({0, m_view.days - 1});
+}
+
+void SeriesChart::focusOn(DayRange days) {
+    const int span = std::max(days.last - days.first, 6);
+    const int margin = std::max(1, span / 10);
+    m_plot->xAxis->setRange(
+        plotKeyOfDay(m_view.dayAt(days.first - margin)) - kSecondsPerDay * 0.6,
+        plotKeyOfDay(m_view.dayAt(days.first + span + margin)) + kSecondsPerDay * 0.6);
+    rescaleValueAxis();
+}
+
+void SeriesChart::rescaleValueAxis() {
+    if (m_view.days == 0)
+        return;
+    const QCPRange x = m_plot->xAxis->range();
+    const int first = std::max(0, dayOfPlotKey(x.lower) - m_view.firstDay);
+    const int last = std::min(m_view.days - 1, dayOfPlotKey(x.upper) - m_view.firstDay);
+    double top = std::max({maxIn(m_view.raw, first, last), maxIn(m_view.cleaned, first, last),
+                           maxIn(m_view.smoothed, first, last)});
+    if (m_view.fit)
+        top = std::max(
+            {top, maxIn(m_view.fit->mid, first, last), maxIn(m_view.fit->high, first, last)});
+    if (m_preview)
+        for (auto it = m_preview->data()->constBegin(); it != m_preview->data()->constEnd(); ++it)
+            if (it->key >= x.lower && it->key <= x.upper)
+                top = std::max(top, it->value);
+    m_plot->yAxis->setRange(0, top > 0 ? top * 1.1 : 10);
+    if (m_plot->yAxis2->visible()) {
+        const double top2 = maxIn(m_view.second, first, last);
+        m_plot->yAxis2->setRange(0, top2 > 0 ? top2 * 1.1 : 10);
+    }
+}
+
+int SeriesChart::dayIndexAtPixel(double x) const {
+    return dayOfPlotKey(m_plot->xAxis->pixelToCoord(x)) - m_view.firstDay;
+}
+
+double SeriesChart::pixelOfDayIndex(int day) const {
+    return m_plot->xAxis->coordToPixel(plotKeyOfDay(m_view.dayAt(day)));
+}
+
+}  // namespace siftwave::widgets

@@ -1,0 +1,72 @@
+#pragma once
+// SeriesChart: draws a SeriesView into a QCustomPlot — the one rendering used
+// on screen (SeriesPlot) and in exported figures.
+//
+// Time runs on a real date axis: a day is placed at its UTC midnight in seconds
+// since 1970-01-01 (QCustomPlot's date-time convention), ticks labelled ISO 8601.
+// Raw counts are bars, the cleaned and smoothed series lines, the fitted curve a
+// line over its band; findings are marks in a strip along the time axis; the
+// second measure, when chosen, is a dotted line on the right axis. Overlays
+// (a shaded window, a decision preview) are drawn on top and replaced in place.
+
+#include "widgets/series_view.h"
+
+#include <QString>
+
+#include <optional>
+#include <vector>
+
+class QCustomPlot;
+class QCPBars;
+class QCPGraph;
+class QCPItemRect;
+class QCPItemStraightLine;
+
+namespace siftwave::widgets {
+
+/// Seconds since 1970-01-01T00:00Z of a day's midnight.
+double plotKeyOfDay(Date day);
+/// The day whose bar is nearest to a plot key.
+Date dayOfPlotKey(double key);
+
+class SeriesChart {
+public:
+    explicit SeriesChart(QCustomPlot* plot);
+
+    /// Clears the plot and draws the view; the view is copied and kept.
+    void draw(const SeriesView& view);
+    const SeriesView& view() const { return m_view; }
+
+    /// Shows (or, with nullopt, hides) a shaded window with its edges.
+    void setWindow(std::optional<DayRange> window, const QString& label = {});
+    std::optional<DayRange> window() const { return m_window; }
+
+    /// Draws preview values (per day, NaN where unchanged) over the raw bars; empty clears.
+    void setPreview(const std::vector<double>& values, const QString& label = {});
+
+    /// Shows the whole calendar (x) and all values (y).
+    void resetRange();
+    /// Shows the given days (with a little margin).
+    void focusOn(DayRange days);
+
+    /// Day index under a pixel x position (may be outside the calendar).
+    int dayIndexAtPixel(double x) const;
+    /// Pixel x position of a day's centre.
+    double pixelOfDayIndex(int day) const;
+
+    QCustomPlot* plot() const { return m_plot; }
+
+private:
+    void drawFindings();
+    void rescaleValueAxis();
+
+    QCustomPlot* m_plot;
+    SeriesView m_view;
+    QCPBars* m_preview = nullptr;
+    QCPItemRect* m_windowRect = nullptr;
+    QCPItemStraightLine* m_windowStart = nullptr;
+    QCPItemStraightLine* m_windowEnd = nullptr;
+    std::optional<DayRange> m_window;
+};
+
+}  // namespace siftwave::widgets

@@ -1,0 +1,240 @@
+#include "widgets/series_plot.h"
+
+#include "widgets/qcustomplot_include.h"
+#include "widgets/series_chart.h"
+
+#include <QComboBox>
+#include <QHBoxLayout>
+#include <QLabel>
+#include <QMouseEvent>
+#include <QSignalBlocker>
+#include <QToolButton>
+#include <QToolTip>
+#include <QVBoxLayout>
+
+#include <algorithm>
+#include <cmath>
+
+namespace siftwave::widgets {
+
+namespace {
+constexpr double kEdgeGrabPixels = 6.0;
+}
+
+SeriesPlot::SeriesPlot(QWidget* parent)
+    : QWidget(parent),
+      m_title(new QLabel(this)),
+      m_measure(new QComboBox(this)),
+      m_second(new QComboBox(this)),
+      m_reset(new QToolButton(this)),
+      m_plot(new QCustomPlot(this)),
+      m_chart(std::make_unique<SeriesChart>(m_plot)) {
+    m_title->setObjectName(QStringLiteral("seriesTitle"));
+    m_title->setTextFormat(Qt::RichText);
+    m_measure->setObjectName(QStringLiteral("measureChoice"));
+    m_measure->setToolTip(tr("Measure drawn as bars and lines (left axis)"));
+    m_second->setObjectName(QStringLiteral("secondMeasureChoice"));
+    m_second->setToolTip(tr("A second measure drawn on the right axis"));
+    m_reset->setText(tr("Reset view"));
+    m_reset->setToolTip(tr("Show the whole release (Home)"));
+    m_reset->setShortcut(QKeySequence(Qt::Key_Home));
+    m_plot->setObjectName(QStringLiteral("seriesCanvas"));
+    m_plot->setInteractions(QCP::iRangeDrag | QCP::iRangeZoom);
+    m_plot->axisRect()->setRangeDrag(Qt::Horizontal);
+    m_plot->axisRect()->setRangeZoom(Qt::Horizontal);
+    m_plot->setMouseTracking(true);
+    m_plot->installEventFilter(this);
+    m_plot->setMinimumSize(320, 200);
+
+    auto* bar = new QHBoxLayout;
+    bar->setContentsMargins(6, 4, 6, 0);
+    bar->addWidget(m_title, 1);
+    bar->addWidget(new QLabel(tr("Measure"), this));
+    bar->addWidget(m_measure);
+    bar->addWidget(new QLabel(tr("and"), this));
+    bar->addWidget(m_second);
+    bar->addWidget(m_reset);
+    auto* layout = new QVBoxLayout(this);
+    layout->setContentsMargins(0, 0, 0, 0);
+    layout->setSpacing(2);
+    layout->addLayout(bar);
+    layout->addWidget(m_plot, 1);
+
+    connect(m_reset, &QToolButton::clicked, this, &SeriesPlot::resetView);
+    connect(m_measure, &QComboBox::currentIndexChanged, this, [this](int index) {
+        if (index >= 0)
+            Q_EMIT measureChosen(index);
+    });
+    connect(m_second, &QComboBox::currentIndexChanged, this,
+            [this](int) { Q_EMIT secondMeasureChosen(secondMeasure()); });
+    setMeasures({});
+    updateTitle();
+}
+
+SeriesPlot::~SeriesPlot() = default;
+
+void SeriesPlot::setMeasures(const QStringList& measures) {
+    const QSignalBlocker blockMeasure(m_measure);
+    const QSignalBlocker blockSecond(m_second);
+    m_measure->clear();
+    m_measure->addItems(measures);
+    m_second->clear();
+    m_second->addItem(tr("nothing else"), -1);
+    for (int i = 0; i < measures.size(); ++i)
+        m_second->addItem(measures[i], i);
+    m_measure->setEnabled(measures.size() > 1);
+    m_second->setEnabled(measures.size() > 1);
+}
+
+int SeriesPlot::measure() const {
+    return std::max(0, m_measure->currentIndex());
+}
+
+int SeriesPlot::secondMeasure() const {
+    return m_second->currentIndex() <= 0 ? -1 : m_second->currentData().toInt();
+}
+
+void SeriesPlot::setView(const SeriesView& view) {
+    m_chart->draw(view);
+    m_windowEditable = false;
+    updateTitle();
+    m_plot->replot();
+}
+
+const SeriesView& SeriesPlot::view() const {
+    return m_chart->view();
+}
+
+void SeriesPlot::updateTitle() {
+    const SeriesView& v = m_chart->view();
+    if (v.empty()) {
+        m_title->setText(tr("<i>No region selected</i>"));
+        return;
+    }
+    QString text = QStringLiteral("<b>%1</b>").arg(v.regionCode.toHtmlEscaped());
+    if (!v.regionName.isEmpty())
+        text += QStringLiteral(" &nbsp;%1").arg(v.regionName.toHtmlEscaped());
+    text += QStringLiteral(" &nbsp;<span style='color:#555'>%1 – %2</span>")
+                .arg(QString::fromStdString(v.firstDay.iso()),
+                     QString::fromStdString(v.dayAt(v.days - 1).iso()));
+    m_title->setText(text);
+}
+
+void SeriesPlot::setEditableWindow(std::optional<DayRange> window) {
+    m_windowEditable = window.has_value();
+    m_chart->setWindow(window);
+    m_plot->replot();
+}
+
+std::optional<DayRange> SeriesPlot::editableWindow() const {
+    return m_windowEditable ? m_chart->window() : std::nullopt;
+}
+
+void SeriesPlot::setPreview(const std::vector<double>& values, const QString& label) {
+    m_chart->setPreview(values, label);
+    m_plot->replot();
+}
+
+void SeriesPlot::resetView() {
+    m_chart->resetRange();
+    m_plot->replot();
+}
+
+void SeriesPlot::focusOn(DayRange days) {
+    m_chart->focusOn(days);
+    m_plot->replot();
+}
+
+SeriesPlot::Edge SeriesPlot::edgeNear(double x) const {
+    const std::optional<DayRange> window = editableWindow();
+    if (!window)
+        return Edge::None;
+    const double halfDay = (m_chart->pixelOfDayIndex(1) - m_chart->pixelOfDayIndex(0)) / 2;
+    const double start = m_chart->pixelOfDayIndex(window->first) - halfDay;
+    const double end = m_chart->pixelOfDayIndex(window->last) + halfDay;
+    if (std::abs(x - start) <= kEdgeGrabPixels)
+        return Edge::Start;
+    if (std::abs(x - end) <= kEdgeGrabPixels)
+        return Edge::End;
+    return Edge::None;
+}
+
+void SeriesPlot::showHover(QMouseEvent* event) {
+    const SeriesView& v = m_chart->view();
+    if (v.empty() || !m_plot->axisRect()->rect().contains(event->pos())) {
+        QToolTip::hideText();
+        return;
+    }
+    const int day = m_chart->dayIndexAtPixel(event->position().x());
+    const QString text = hoverText(v, day);
+    if (text.isEmpty())
+        QToolTip::hideText();
+    else
+        QToolTip::showText(event->globalPosition().toPoint(), text, m_plot);
+}
+
+bool SeriesPlot::eventFilter(QObject* watched, QEvent* event) {
+    if (watched != m_plot)
+        return QWidget::eventFilter(watched, event);
+    switch (event->type()) {
+        case QEvent::MouseButtonPress: {
+            auto* mouse = static_cast<QMouseEvent*>(event);
+            m_pressPos = mouse->pos();
+            if (mouse->button() == Qt::LeftButton) {
+                m_dragging = edgeNear(mouse->position().x());
+                if (m_dragging != Edge::None) {
+                    m_plot->setInteraction(QCP::iRangeDrag, false);
+                    return true;
+                }
+            }
+            break;
+        }
+        case QEvent::MouseMove: {
+            auto* mouse = static_cast<QMouseEvent*>(event);
+            if (m_dragging != Edge::None) {
+                DayRange window = *editableWindow();
+                const int day = std::clamp(m_chart->dayIndexAtPixel(mouse->position().x()), 0,
+                                           std::max(0, m_chart->view().days - 1));
+                if (m_dragging == Edge::Start)
+                    window.first = std::min(day, window.last);
+                else
+                    window.last = std::max(day, window.first);
+                if (window != *editableWindow()) {
+                    m_chart->setWindow(window);
+                    m_plot->replot(QCustomPlot::rpQueuedReplot);
+                    Q_EMIT windowChanging(window);
+                }
+                return true;
+            }
+            m_plot->setCursor(edgeNear(mouse->position().x()) != Edge::None ? Qt::SizeHorCursor
+                                                                            : Qt::ArrowCursor);
+            if (mouse->buttons() == Qt::NoButton)
+                showHover(mouse);
+            break;
+        }
+        case QEvent::MouseButtonRelease: {
+            auto* mouse = static_cast<QMouseEvent*>(event);
+            if (m_dragging != Edge::None) {
+                m_dragging = Edge::None;
+                m_plot->setInteraction(QCP::iRangeDrag, true);
+                Q_EMIT windowChanged(*editableWindow());
+                return true;
+            }
+            if ((mouse->pos() - m_pressPos).manhattanLength() < 4 &&
+                mouse->button() == Qt::LeftButton) {
+                const int day = m_chart->dayIndexAtPixel(mouse->position().x());
+                if (day >= 0 && day < m_chart->view().days)
+                    Q_EMIT dayClicked(day);
+            }
+            break;
+        }
+        case QEvent::Leave:
+            QToolTip::hideText();
+            break;
+        default:
+            break;
+    }
+    return QWidget::eventFilter(watched, event);
+}
+
+}  // namespace siftwave::widgets

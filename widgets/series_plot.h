@@ -1,0 +1,84 @@
+#pragma once
+// SeriesPlot: one region's series on screen, with the ways to look at it.
+//
+// Wheel zooms and dragging pans the time axis; "Reset view" shows everything;
+// hovering shows the day's numbers (see hoverText()). A window (the fit window
+// or a redistribution window) can be shown with draggable edges: dragging an
+// edge emits windowChanging() as it moves and windowChanged() on release, so the
+// owner can preview or refit live. The measure and an optional second measure
+// are chosen in the bar above the plot.
+
+#include "widgets/series_view.h"
+
+#include <QStringList>
+#include <QWidget>
+
+#include <memory>
+#include <optional>
+
+class QComboBox;
+class QCustomPlot;
+class QLabel;
+class QMouseEvent;
+class QToolButton;
+
+namespace siftwave::widgets {
+
+class SeriesChart;
+
+class SeriesPlot : public QWidget {
+    Q_OBJECT
+
+public:
+    explicit SeriesPlot(QWidget* parent = nullptr);
+    ~SeriesPlot() override;
+
+    /// Shows a series; the measure lists are the drop's (index 0.. in drop order).
+    void setView(const SeriesView& view);
+    void setMeasures(const QStringList& measures);
+    int measure() const;
+    /// -1 when no second measure is shown.
+    int secondMeasure() const;
+
+    /// Shows a window with draggable edges (nullopt hides it).
+    void setEditableWindow(std::optional<DayRange> window);
+    std::optional<DayRange> editableWindow() const;
+    /// Draws preview values over the series (empty clears).
+    void setPreview(const std::vector<double>& values, const QString& label = {});
+
+    void resetView();
+    void focusOn(DayRange days);
+
+    const SeriesView& view() const;
+    SeriesChart* chart() const { return m_chart.get(); }
+    QCustomPlot* customPlot() const { return m_plot; }
+
+Q_SIGNALS:
+    void measureChosen(int measure);
+    void secondMeasureChosen(int measure);  // -1: none
+    void windowChanging(siftwave::widgets::DayRange window);
+    void windowChanged(siftwave::widgets::DayRange window);
+    /// A bar was clicked (a day index into the view's calendar).
+    void dayClicked(int day);
+
+protected:
+    bool eventFilter(QObject* watched, QEvent* event) override;
+
+private:
+    enum class Edge { None, Start, End };
+    Edge edgeNear(double x) const;
+    void updateTitle();
+    void showHover(QMouseEvent* event);
+
+    QLabel* m_title;
+    QComboBox* m_measure;
+    QComboBox* m_second;
+    QToolButton* m_reset;
+    QCustomPlot* m_plot;
+    std::unique_ptr<SeriesChart> m_chart;
+    bool m_windowEditable = false;
+    Edge m_dragging = Edge::None;
+    QPoint m_pressPos;
+};
+
+}  // namespace siftwave::widgets

@@ -1,0 +1,105 @@
+#include "widgets/series_view.h"
+
+#include <QCoreApplication>
+#include <QLocale>
+
+#include <cmath>
+#include <limits>
+
+namespace siftwave::widgets {
+
+namespace {
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+QString tr(const char* text) {
+    return QCoreApplication::translate("SeriesView", text);
+}
+
+QString weekdayName(int isoWeekday) {
+    static const char* const names[] = {"Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"};
+    return tr(names[(isoWeekday - 1) % 7]);
+}
+
+QString number(double value, int decimals = 0) {
+    return QLocale::c().toString(value, 'f', decimals);
+}
+
+bool has(const std::vector<double>& values, int day) {
+    return day >= 0 && day < static_cast<int>(values.size()) && !std::isnan(values[day]);
+}
+
+}  // namespace
+
+SeriesView seriesViewFromDrop(const Drop& drop, std::size_t region, std::size_t measure) {
+    SeriesView view;
+    view.regionCode = QString::fromStdString(drop.regionCodes.at(region));
+    view.measure = QString::fromStdString(drop.measures.at(measure));
+    view.firstDay = drop.firstDay;
+    view.days = drop.days;
+    view.raw.assign(view.days, kNaN);
+    view.rawState.assign(view.days, CellState::Absent);
+    view.sourceLine.assign(view.days, 0);
+    const auto cells = drop.series(measure, region);
+    for (int d = 0; d < view.days; ++d) {
+        const Cell& cell = cells[static_cast<std::size_t>(d)];
+        view.rawState[d] = cell.state;
+        view.sourceLine[d] = cell.line;
+        if (cell.reported())
+            view.raw[d] = cell.value;
+    }
+    view.cleaned = view.raw;
+    view.touchedBy.assign(view.days, {});
+    return view;
+}
+
+void addSecondMeasure(SeriesView& view, const Drop& drop, std::size_t region, std::size_t measure) {
+    view.secondMeasure = QString::fromStdString(drop.measures.at(measure));
+    view.second.assign(view.days, kNaN);
+    const auto cells = drop.series(measure, region);
+    for (int d = 0; d < view.days && d < static_cast<int>(cells.size()); ++d)
+        if (cells[static_cast<std::size_t>(d)].reported())
+            view.second[d] = cells[static_cast<std::size_t>(d)].value;
+}
+
+QString hoverText(const SeriesView& view, int day) {
+    if (day < 0 || day >= view.days)
+        return {};
+    const Date date = view.dayAt(day);
+    QStringList lines;
+    lines << QStringLiteral("<b>%1</b> %2")
+                 .arg(QString::fromStdString(date.iso()), weekdayName(date.isoWeekday()));
+    const CellState state =
+        day < static_cast<int>(view.rawState.size()) ? view.rawState[day] : CellState::Absent;
+    QString raw = has(view.raw, day)
+                      ? number(view.raw[day])
+                      : QStringLiteral("<i>%1</i>").arg(QString::fromLatin1(cellStateName(state)));
+    lines << tr("Raw %1: %2").arg(view.measure, raw);
+    if (has(view.cleaned, day))
+        lines << tr("Cleaned: %1").arg(number(view.cleaned[day]));
+    if (has(view.smoothed, day))
+        lines << tr("Smoothed: %1").arg(number(view.smoothed[day], 1));
+    if (view.fit && has(view.fit->mid, day)) {
+        QString fitted = tr("Fitted: %1").arg(number(view.fit->mid[day], 1));
+        if (has(view.fit->low, day) && has(view.fit->high, day))
+            fitted += QStringLiteral(" (%1 – %2)")
+                          .arg(number(view.fit->low[day], 1), number(view.fit->high[day], 1));
+        lines << fitted;
+    }
+    if (!view.secondMeasure.isEmpty() && has(view.second, day))
+        lines << tr("Raw %1: %2").arg(view.secondMeasure, number(view.second[day]));
+    const std::uint32_t line =
+        day < static_cast<int>(view.sourceLine.size()) ? view.sourceLine[day] : 0;
+    lines << (line > 0 ? tr("Source line %1").arg(line) : tr("No source row"));
+    if (day < static_cast<int>(view.touchedBy.size()) && !view.touchedBy[day].isEmpty()) {
+        lines << tr("Ledger:");
+        for (const QString& entry : view.touchedBy[day])
+            lines << QStringLiteral("&nbsp;&nbsp;") + entry.toHtmlEscaped();
+    }
+    for (const FindingMark& mark : view.findings)
+        if (day >= mark.days.first && day <= mark.days.last)
+            lines << tr("Finding %1: %2").arg(mark.id, mark.label.toHtmlEscaped());
+    return lines.join(QStringLiteral("<br>"));
+}
+
+}  // namespace siftwave::widgets

@@ -1,0 +1,79 @@
+#pragma once
+// SeriesView: everything one region's plot shows, as plain numbers by day.
+//
+// It is filled from core results (the drop's cells, the replayed cleaned
+// series, the smoothed series, a FitResult, the findings) and drawn by
+// drawSeries() — on screen by SeriesPlot and, later, in exported figures. It
+// computes nothing itself; a value that was not computed is NaN (or an empty
+// vector), and the plot leaves it out.
+
+#include "siftwave/date.h"
+#include "siftwave/drop.h"
+
+#include <QString>
+#include <QStringList>
+
+#include <cstdint>
+#include <optional>
+#include <vector>
+
+namespace siftwave::widgets {
+
+/// An inclusive range of day indices into the view's calendar.
+struct DayRange {
+    int first = 0;
+    int last = 0;
+    friend bool operator==(const DayRange&, const DayRange&) = default;
+};
+
+struct FindingMark {
+    QString id;
+    QString label;  // short, e.g. "backlog dump"
+    DayRange days;
+    int severity = 1;  // 0 low, 1 medium, 2 high
+};
+
+struct FittedCurve {
+    QString label;             // e.g. "Richards (Poisson ML)"
+    std::vector<double> mid;   // per day of the calendar; NaN outside the curve
+    std::vector<double> low;   // lower band edge, same length (may be empty)
+    std::vector<double> high;  // upper band edge
+};
+
+struct SeriesView {
+    QString regionCode;  // verbatim
+    QString regionName;
+    QString measure;
+    Date firstDay;
+    int days = 0;
+
+    std::vector<double> raw;                // NaN where no number was reported
+    std::vector<CellState> rawState;        // per day
+    std::vector<std::uint32_t> sourceLine;  // 0 where no row
+    std::vector<double> cleaned;            // empty: not computed
+    std::vector<double> smoothed;           // empty: not computed
+    QString smoothedLabel;                  // e.g. "7-day centred mean"
+    std::optional<FittedCurve> fit;
+    std::optional<DayRange> fitWindow;
+    std::vector<FindingMark> findings;
+    std::vector<QStringList>
+        touchedBy;  // per day: ledger entries that changed the cell (may be empty)
+
+    QString secondMeasure;       // empty: none
+    std::vector<double> second;  // raw counts of the second measure
+
+    bool empty() const { return days == 0; }
+    Date dayAt(int index) const { return firstDay + index; }
+};
+
+/// The drop's raw counts for one region and measure (cleaned = raw until decisions exist).
+SeriesView seriesViewFromDrop(const Drop& drop, std::size_t region, std::size_t measure);
+
+/// Adds a second measure's raw counts to `view` (same calendar).
+void addSecondMeasure(SeriesView& view, const Drop& drop, std::size_t region, std::size_t measure);
+
+/// The hover text for one day: date and weekday, raw (or its state), cleaned,
+/// smoothed, fitted, the source line and the ledger entries that touched the cell.
+QString hoverText(const SeriesView& view, int day);
+
+}  // namespace siftwave::widgets
