@@ -277,6 +277,8 @@ void printUsage(std::FILE* to, const std::vector<FlagSpec>& specs) {
 int runFit(int argc, char** argv, int first) {
     std::vector<FlagSpec> specs = ingestFlagSpecs();
     specs.push_back(
+        {"ledger", true, false, "L", "fit the cleaned series: replay this ledger over the drop"});
+    specs.push_back(
         {"regions", true, false, "REG", "region register (populations for per-100k figures)"});
     specs.push_back(
         {"region", true, false, "CODE", "fit this region (code as written in the drop)"});
