@@ -171,10 +171,10 @@ TEST(IngestBadInput, EmptyKeyCellsSkipTheRowWithAWarning) {
     int warned = 0;
     for (const Warning& w : drop->warnings) {
         if (w.line == 3 && w.column == 2 &&
-            mentions(Error{ErrorCode::Syntax, w.message}, "region cell is empty"))
+            w.message.find("region cell is empty") != std::string::npos)
             ++warned;
         if (w.line == 4 && w.column == 1 &&
-            mentions(Error{ErrorCode::Syntax, w.message}, "date cell is empty"))
+            w.message.find("date cell is empty") != std::string::npos)
             ++warned;
     }
     EXPECT_EQ(warned, 2);
