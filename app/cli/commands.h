@@ -10,5 +10,6 @@ int runInspect(int argc, char** argv, int first);
 int runDecide(int argc, char** argv, int first);
 int runApply(int argc, char** argv, int first);
 int runLedger(int argc, char** argv, int first);
+int runFit(int argc, char** argv, int first);
 
 }  // namespace siftwave::cli
