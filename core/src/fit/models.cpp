@@ -208,14 +208,17 @@ public:
         const double K = p[0], mu = p[1], s = p[2];
         for (std::size_t i = 0; i < t.size(); ++i) {
             const double z = (t[i] - mu) / s;
-            const double F = 1.0 / (1.0 + std::exp(-z));
-            const double f = K / s * F * (1.0 - F);
+            // F and 1 - F without cancellation on either side of mu.
+            const double e = std::exp(-std::abs(z));
+            const double F = z >= 0 ? 1.0 / (1.0 + e) : e / (1.0 + e);
+            const double G = z >= 0 ? e / (1.0 + e) : 1.0 / (1.0 + e);  // 1 - F
+            const double f = K / s * F * G;
             out[i] = f;
             if (!jac.empty()) {
                 double* row = &jac[3 * i];
                 row[0] = f / K;
-                row[1] = f * (2.0 * F - 1.0) / s;
-                row[2] = f * (z * (2.0 * F - 1.0) - 1.0) / s;
+                row[1] = f * (F - G) / s;
+                row[2] = f * (z * (F - G) - 1.0) / s;
             }
         }
     }
