@@ -16,6 +16,7 @@ struct Command {
 
 constexpr Command kCommands[] = {
     {"inspect", "read a data drop and report what was read", siftwave::cli::runInspect},
+    {"scan", "find what is wrong with a drop, ranked for review", siftwave::cli::runScan},
 };
 
 void printUsage(std::FILE* to) {
