@@ -1,0 +1,122 @@
+#pragma once
+// Decision: one cleaning act an analyst asks for, before it is recorded.
+//
+// A Decision names what to do (its kind), where (region, measure, days) and
+// how (method, amounts). It carries no reason, author or time: those belong to
+// the ledger entry that records it (see entry.h). One flat struct serves every
+// kind; each field says which kinds read it, and validate() checks that the
+// kind has what it needs.
+//
+// Kinds and what they do to the cleaned cells (see replay.h for the cells):
+//
+//   redistribute      move `excess` counts from the dump day `date` over the
+//                     earlier days `window`, split by the largest remainder
+//                     method (apportion.h) with weights per `redistribute`
+//                     method: uniform (equal), proportional (the values
+//                     already in the window) or baseline (a centred moving
+//                     average of width `baselineWidth`, series/smoothing.h, the dump
+//                     day left out). Region total unchanged; no day negative.
+//   spread_negative   the negative value on `date` is set to 0 and the same
+//                     amount taken from the earlier days in `window` (default:
+//                     every earlier day) in proportion to their positive
+//                     values. Total unchanged; an error when the earlier days
+//                     hold less than the correction.
+//   fill_missing      the days of `window` (all without a value) are filled:
+//                     zero; linear (rounded interpolation between the days
+//                     just before and after); share (the next day's catch-up
+//                     value is split uniformly over the gap and that day).
+//                     share keeps the total; zero and linear state the change.
+//   resolve_duplicate the cell on `date` is set from its duplicate rows
+//                     (Drop::duplicates): keep first, last, sum or max.
+//   merge_codes       every cell of region `variant` is added into region
+//                     `into` (all measures); the variant's cells become merged.
+//   exclude           the cells of `region` (empty: every region), `measure`
+//                     (empty: every measure) and `window` (unset: every day)
+//                     are left out; the total drops by their sum.
+//   accept            keeps `region` (and `measure`, `window`) as reported;
+//                     changes nothing, documents that it was looked at.
+//   withdraw          undoes the entry with sequence number `target`.
+
+#include "siftwave/date.h"
+#include "siftwave/result.h"
+
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <string_view>
+
+namespace siftwave {
+
+enum class DecisionKind {
+    Redistribute,
+    SpreadNegative,
+    FillMissing,
+    ResolveDuplicate,
+    MergeCodes,
+    Exclude,
+    Accept,
+    Withdraw,
+};
+
+enum class RedistributeMethod { Uniform, Proportional, Baseline };
+enum class FillMethod { Zero, Linear, Share };
+enum class DuplicateRule { First, Last, Sum, Max };
+
+/// An inclusive range of calendar days.
+struct DayRange {
+    Date first;
+    Date last;
+
+    friend bool operator==(const DayRange&, const DayRange&) = default;
+    int length() const { return last - first + 1; }
+    bool contains(Date d) const { return first <= d && d <= last; }
+    /// "YYYY-MM-DD:YYYY-MM-DD".
+    std::string iso() const;
+    /// Parses "FIRST:LAST" (ISO dates, FIRST <= LAST); nullopt otherwise.
+    static std::optional<DayRange> fromIso(std::string_view text);
+};
+
+struct Decision {
+    DecisionKind kind = DecisionKind::Accept;
+
+    std::string region;   // all kinds but merge_codes and withdraw; exclude: empty = every region
+    std::string measure;  // cell kinds (required); exclude and accept: empty = every measure
+    std::optional<Date> date;        // redistribute (dump day), spread_negative, resolve_duplicate
+    std::optional<DayRange> window;  // redistribute (required), spread_negative (default: every
+                                     // earlier day), fill_missing (required), exclude, accept
+
+    std::int64_t excess = 0;  // redistribute: counts to move, > 0
+    RedistributeMethod redistributeMethod = RedistributeMethod::Uniform;
+    int baselineWidth = 7;  // redistribute/baseline: odd moving-average width, 3..21 (default 7)
+    FillMethod fillMethod = FillMethod::Zero;
+    DuplicateRule duplicateRule = DuplicateRule::First;
+
+    std::string variant;  // merge_codes: the code folded away (e.g. "412")
+    std::string into;     // merge_codes: the canonical code kept (e.g. "0412")
+
+    std::uint64_t target = 0;  // withdraw: sequence number of the entry undone
+
+    std::string finding;  // optional, any kind: id of the scan finding this answers
+
+    /// Usage errors: a field the kind needs is missing or out of range.
+    Status validate() const;
+};
+
+/// Stable names used in the ledger file and on the command line.
+const char* decisionKindName(DecisionKind kind);  // "redistribute", "spread_negative", ...
+std::optional<DecisionKind> decisionKindFromName(std::string_view name);
+const char* redistributeMethodName(
+    RedistributeMethod method);  // "uniform", "proportional", "baseline"
+std::optional<RedistributeMethod> redistributeMethodFromName(std::string_view name);
+const char* fillMethodName(FillMethod method);  // "zero", "linear", "share"
+std::optional<FillMethod> fillMethodFromName(std::string_view name);
+const char* duplicateRuleName(DuplicateRule rule);  // "first", "last", "sum", "max"
+std::optional<DuplicateRule> duplicateRuleFromName(std::string_view name);
+
+/// True for the kinds after which every region and measure total must equal
+/// its total before, exactly (redistribute, spread_negative, fill_missing with
+/// share, accept). merge_codes conserves the sum of the two regions; withdraw
+/// exactly reverses (or restores) the entry it names.
+bool decisionConservesTotals(const Decision& decision);
+
+}  // namespace siftwave

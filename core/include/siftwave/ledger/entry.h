@@ -1,0 +1,73 @@
+#pragma once
+// Ledger entries and the ledger: the audit trail of one Drop.
+//
+// An entry records one Decision with its reason, author and time, what it did
+// (the cells before and after, the region totals before and after) and the
+// SHA-256 of the Drop it applies to. Entries form a hash chain:
+//
+//   hash_k = SHA-256( canonical JSON of entry k without "hash",
+//                     which includes "previous_hash" = hash_(k-1) )
+//
+// with previous_hash of the first entry = 64 zeros. Canonical JSON is object
+// keys sorted by byte value, no insignificant whitespace, integers only (no
+// floating point anywhere in an entry), strings in UTF-8 with only the
+// characters JSON requires escaped: the subset of RFC 8785 (JSON
+// Canonicalization Scheme) our entries need. Changing any field of an entry
+// changes its hash; deleting, inserting or reordering entries breaks the
+// sequence numbers or the previous_hash links. verifyChain() names the first
+// entry that does not fit. (Removing trailing entries leaves a valid shorter
+// chain; a project file can pin the head, see project.h.)
+//
+// SHA-256 is FIPS 180-4 (OpenSSL libcrypto).
+
+#include "siftwave/ledger/cleaned.h"
+#include "siftwave/ledger/decision.h"
+#include "siftwave/result.h"
+
+#include <cstdint>
+#include <string>
+#include <vector>
+
+namespace siftwave {
+
+struct LedgerEntry {
+    std::uint64_t sequence = 0;  // 1-based position in the ledger; the entry's id
+    std::string timestamp;       // UTC, ISO 8601 "YYYY-MM-DDTHH:MM:SSZ"
+    std::string author;
+    std::string reason;  // required, not blank
+    Decision decision;
+    Effect effect;
+    std::string dropSha256;    // lower-case hex
+    std::string previousHash;  // lower-case hex; 64 zeros for the first entry
+    std::string hash;          // lower-case hex of the canonical JSON without "hash"
+};
+
+struct Ledger {
+    std::vector<LedgerEntry> entries;
+
+    /// The drop hash the entries are bound to ("" for an empty ledger).
+    std::string dropSha256() const {
+        return entries.empty() ? std::string() : entries.front().dropSha256;
+    }
+    /// Hash of the last entry, or 64 zeros for an empty ledger.
+    std::string headHash() const;
+};
+
+/// 64 zeros: previous_hash of the first entry.
+const std::string& genesisHash();
+
+/// Canonical JSON of the entry without "hash" (what the hash covers).
+Result<std::string> canonicalEntryJson(const LedgerEntry& entry);
+/// Canonical JSON of the whole entry, "hash" included: one ledger file line.
+Result<std::string> entryLine(const LedgerEntry& entry);
+/// Parses one ledger line; `lineNumber` goes into error messages.
+Result<LedgerEntry> parseEntryLine(std::string_view line, std::uint64_t lineNumber);
+/// Sets previousHash from `previous` (or genesis) and computes hash.
+Status sealEntry(LedgerEntry& entry, const LedgerEntry* previous);
+
+/// Checks sequence numbers, previous_hash links, each hash against its
+/// content and that every entry names the same drop. The Integrity error names
+/// the first bad entry (its sequence number in Error::line is the file line).
+Status verifyChain(const Ledger& ledger);
+
+}  // namespace siftwave

@@ -1,0 +1,492 @@
+// Canonical JSON of ledger entries, the hash chain and its verification.
+#include "siftwave/ledger/entry.h"
+
+#include "ledger/entry_json.h"
+#include "siftwave/ingest/ingest.h"
+
+#include <nlohmann/json.hpp>
+
+#include <set>
+
+namespace siftwave {
+
+using nlohmann::json;
+
+namespace {
+
+constexpr int kEntryVersion = 1;
+
+json cellToJson(const CleanedCell& c) {
+    return json{{"state", cleanedStateName(c.state)}, {"value", c.value}};
+}
+
+json rangeToJson(const DayRange& r) {
+    return json{{"first", r.first.iso()}, {"last", r.last.iso()}};
+}
+
+Error syntax(std::uint64_t line, std::string message) {
+    Error e = makeError(ErrorCode::Syntax, std::move(message));
+    e.line = line;
+    return e;
+}
+
+}  // namespace
+
+namespace detail {
+
+json decisionParameters(const Decision& d) {
+    json p = json::object();
+    auto put = [&](const char* key, const std::string& value) {
+        if (!value.empty())
+            p[key] = value;
+    };
+    switch (d.kind) {
+        case DecisionKind::Redistribute:
+            put("region", d.region);
+            put("measure", d.measure);
+            if (d.date)
+                p["date"] = d.date->iso();
+            if (d.window)
+                p["window"] = rangeToJson(*d.window);
+            p["excess"] = d.excess;
+            p["method"] = redistributeMethodName(d.redistributeMethod);
+            if (d.redistributeMethod == RedistributeMethod::Baseline)
+                p["baseline_width"] = d.baselineWidth;
+            break;
+        case DecisionKind::SpreadNegative:
+        case DecisionKind::ResolveDuplicate:
+            put("region", d.region);
+            put("measure", d.measure);
+            if (d.date)
+                p["date"] = d.date->iso();
+            if (d.kind == DecisionKind::SpreadNegative && d.window)
+                p["window"] = rangeToJson(*d.window);
+            if (d.kind == DecisionKind::ResolveDuplicate)
+                p["keep"] = duplicateRuleName(d.duplicateRule);
+            break;
+        case DecisionKind::FillMissing:
+            put("region", d.region);
+            put("measure", d.measure);
+            if (d.window)
+                p["window"] = rangeToJson(*d.window);
+            p["method"] = fillMethodName(d.fillMethod);
+            break;
+        case DecisionKind::MergeCodes:
+            put("variant", d.variant);
+            put("into", d.into);
+            break;
+        case DecisionKind::Exclude:
+        case DecisionKind::Accept:
+            put("region", d.region);
+            put("measure", d.measure);
+            if (d.window)
+                p["window"] = rangeToJson(*d.window);
+            break;
+        case DecisionKind::Withdraw:
+            p["entry"] = d.target;
+            break;
+    }
+    put("finding", d.finding);
+    return p;
+}
+
+json entryToJson(const LedgerEntry& e, bool withHash) {
+    json cells = json::array();
+    for (const CellChange& c : e.effect.cells) {
+        cells.push_back(json{{"measure", c.measure},
+                             {"region", c.region},
+                             {"date", c.date.iso()},
+                             {"before", cellToJson(c.before)},
+                             {"after", cellToJson(c.after)}});
+    }
+    json totals = json::array();
+    for (const TotalChange& t : e.effect.totals) {
+        totals.push_back(json{{"measure", t.measure},
+                              {"region", t.region},
+                              {"before", t.before},
+                              {"after", t.after}});
+    }
+    json j{{"version", kEntryVersion},
+           {"sequence", e.sequence},
+           {"time", e.timestamp},
+           {"author", e.author},
+           {"reason", e.reason},
+           {"kind", decisionKindName(e.decision.kind)},
+           {"parameters", decisionParameters(e.decision)},
+           {"cells", std::move(cells)},
+           {"totals", std::move(totals)},
+           {"drop_sha256", e.dropSha256},
+           {"previous_hash", e.previousHash}};
+    if (withHash)
+        j["hash"] = e.hash;
+    return j;
+}
+
+Result<std::string> canonicalDump(const json& j) {
+    try {
+        return j.dump(-1, ' ', false, json::error_handler_t::strict);
+    } catch (const std::exception& ex) {
+        return makeError(ErrorCode::Encoding,
+                         std::string("text in the entry is not valid UTF-8: ") + ex.what());
+    }
+}
+
+}  // namespace detail
+
+namespace {
+
+// Typed reading with the line number in every message.
+class Reader {
+public:
+    explicit Reader(std::uint64_t line) : m_line(line) {}
+
+    Result<std::string> text(const json& obj, const char* key, bool required = true) const {
+        auto it = obj.find(key);
+        if (it == obj.end()) {
+            if (!required)
+                return std::string();
+            return syntax(m_line, std::string("the entry has no \"") + key + "\"");
+        }
+        if (!it->is_string())
+            return syntax(m_line, std::string("\"") + key + "\" must be text");
+        return it->get<std::string>();
+    }
+    Result<std::int64_t> integer(const json& obj, const char* key) const {
+        auto it = obj.find(key);
+        if (it == obj.end())
+            return syntax(m_line, std::string("the entry has no \"") + key + "\"");
+        if (!it->is_number_integer())
+            return syntax(m_line, std::string("\"") + key + "\" must be a whole number");
+        return it->get<std::int64_t>();
+    }
+    Result<Date> date(const json& obj, const char* key) const {
+        auto t = text(obj, key);
+        if (!t)
+            return t.error();
+        auto d = Date::fromIso(*t);
+        if (!d)
+            return syntax(m_line, std::string("\"") + key + "\" is not an ISO 8601 date: " + *t);
+        return *d;
+    }
+    Result<DayRange> range(const json& obj, const char* key) const {
+        auto it = obj.find(key);
+        if (it == obj.end() || !it->is_object())
+            return syntax(m_line, std::string("\"") + key + "\" must be an object");
+        auto first = date(*it, "first");
+        if (!first)
+            return first.error();
+        auto last = date(*it, "last");
+        if (!last)
+            return last.error();
+        if (*last < *first)
+            return syntax(m_line, std::string("\"") + key + "\" ends before it starts");
+        return DayRange{*first, *last};
+    }
+    Result<CleanedCell> cell(const json& obj, const char* key) const {
+        auto it = obj.find(key);
+        if (it == obj.end() || !it->is_object())
+            return syntax(m_line, std::string("\"") + key + "\" must be an object");
+        auto state = text(*it, "state");
+        if (!state)
+            return state.error();
+        auto s = cleanedStateFromName(*state);
+        if (!s)
+            return syntax(m_line, "unknown cell state \"" + *state + "\"");
+        auto value = integer(*it, "value");
+        if (!value)
+            return value.error();
+        return CleanedCell{*value, *s};
+    }
+    Status onlyKeys(const json& obj, std::initializer_list<const char*> keys,
+                    const char* what) const {
+        std::set<std::string> allowed(keys.begin(), keys.end());
+        for (auto it = obj.begin(); it != obj.end(); ++it) {
+            if (!allowed.count(it.key()))
+                return syntax(m_line, std::string("unknown field \"") + it.key() + "\" in " + what);
+        }
+        return Ok{};
+    }
+    std::uint64_t line() const { return m_line; }
+
+private:
+    std::uint64_t m_line;
+};
+
+Result<Decision> parseDecision(const Reader& rd, DecisionKind kind, const json& p) {
+    Decision d;
+    d.kind = kind;
+    if (!p.is_object())
+        return syntax(rd.line(), "\"parameters\" must be an object");
+    if (auto s = rd.onlyKeys(p,
+                             {"region", "measure", "date", "window", "excess", "method",
+                              "baseline_width", "keep", "variant", "into", "entry", "finding"},
+                             "parameters");
+        !s) {
+        return s.error();
+    }
+    auto str = [&](const char* key, std::string& out) -> Status {
+        auto t = rd.text(p, key, false);
+        if (!t)
+            return t.error();
+        out = *t;
+        return Ok{};
+    };
+    for (auto s : {str("region", d.region), str("measure", d.measure), str("variant", d.variant),
+                   str("into", d.into), str("finding", d.finding)}) {
+        if (!s)
+            return s.error();
+    }
+    if (p.contains("date")) {
+        auto x = rd.date(p, "date");
+        if (!x)
+            return x.error();
+        d.date = *x;
+    }
+    if (p.contains("window")) {
+        auto x = rd.range(p, "window");
+        if (!x)
+            return x.error();
+        d.window = *x;
+    }
+    if (p.contains("excess")) {
+        auto x = rd.integer(p, "excess");
+        if (!x)
+            return x.error();
+        d.excess = *x;
+    }
+    if (p.contains("baseline_width")) {
+        auto x = rd.integer(p, "baseline_width");
+        if (!x)
+            return x.error();
+        d.baselineWidth = static_cast<int>(*x);
+    }
+    if (p.contains("entry")) {
+        auto x = rd.integer(p, "entry");
+        if (!x)
+            return x.error();
+        if (*x <= 0)
+            return syntax(rd.line(), "\"entry\" must be a positive id");
+        d.target = static_cast<std::uint64_t>(*x);
+    }
+    if (p.contains("method")) {
+        auto x = rd.text(p, "method");
+        if (!x)
+            return x.error();
+        if (kind == DecisionKind::Redistribute) {
+            auto m = redistributeMethodFromName(*x);
+            if (!m)
+                return syntax(rd.line(), "unknown redistribution method \"" + *x + "\"");
+            d.redistributeMethod = *m;
+        } else {
+            auto m = fillMethodFromName(*x);
+            if (!m)
+                return syntax(rd.line(), "unknown fill method \"" + *x + "\"");
+            d.fillMethod = *m;
+        }
+    }
+    if (p.contains("keep")) {
+        auto x = rd.text(p, "keep");
+        if (!x)
+            return x.error();
+        auto r = duplicateRuleFromName(*x);
+        if (!r)
+            return syntax(rd.line(), "unknown duplicate rule \"" + *x + "\"");
+        d.duplicateRule = *r;
+    }
+    if (auto s = d.validate(); !s) {
+        Error e = s.error();
+        e.code = ErrorCode::Syntax;
+        e.line = rd.line();
+        return e;
+    }
+    return d;
+}
+
+bool isLowerHex64(const std::string& s) {
+    if (s.size() != 64)
+        return false;
+    for (char c : s) {
+        if (!((c >= '0' && c <= '9') || (c >= 'a' && c <= 'f')))
+            return false;
+    }
+    return true;
+}
+
+}  // namespace
+
+namespace detail {
+
+Result<LedgerEntry> entryFromJson(const json& j, std::uint64_t lineNumber) {
+    Reader rd(lineNumber);
+    if (!j.is_object())
+        return syntax(lineNumber, "a ledger line must be a JSON object");
+    if (auto s =
+            rd.onlyKeys(j,
+                        {"version", "sequence", "time", "author", "reason", "kind", "parameters",
+                         "cells", "totals", "drop_sha256", "previous_hash", "hash"},
+                        "the entry");
+        !s) {
+        return s.error();
+    }
+    LedgerEntry e;
+    auto version = rd.integer(j, "version");
+    if (!version)
+        return version.error();
+    if (*version != kEntryVersion)
+        return syntax(lineNumber, "unsupported entry version " + std::to_string(*version));
+    auto seq = rd.integer(j, "sequence");
+    if (!seq)
+        return seq.error();
+    if (*seq <= 0)
+        return syntax(lineNumber, "\"sequence\" must be positive");
+    e.sequence = static_cast<std::uint64_t>(*seq);
+    for (auto [key, out] : {std::pair<const char*, std::string*>{"time", &e.timestamp},
+                            {"author", &e.author},
+                            {"reason", &e.reason},
+                            {"drop_sha256", &e.dropSha256},
+                            {"previous_hash", &e.previousHash},
+                            {"hash", &e.hash}}) {
+        auto t = rd.text(j, key);
+        if (!t)
+            return t.error();
+        *out = *t;
+    }
+    for (const std::string* h : {&e.dropSha256, &e.previousHash, &e.hash}) {
+        if (!isLowerHex64(*h))
+            return syntax(lineNumber, "a hash must be 64 lower-case hex digits");
+    }
+    auto kindName = rd.text(j, "kind");
+    if (!kindName)
+        return kindName.error();
+    auto kind = decisionKindFromName(*kindName);
+    if (!kind)
+        return syntax(lineNumber, "unknown decision kind \"" + *kindName + "\"");
+    auto decision = parseDecision(rd, *kind, j.value("parameters", json()));
+    if (!decision)
+        return decision.error();
+    e.decision = std::move(*decision);
+    const json& cells = j.at("cells");
+    if (!cells.is_array())
+        return syntax(lineNumber, "\"cells\" must be an array");
+    for (const json& c : cells) {
+        if (!c.is_object())
+            return syntax(lineNumber, "each cell must be an object");
+        CellChange change;
+        auto measure = rd.text(c, "measure");
+        if (!measure)
+            return measure.error();
+        auto region = rd.text(c, "region");
+        if (!region)
+            return region.error();
+        auto date = rd.date(c, "date");
+        if (!date)
+            return date.error();
+        auto before = rd.cell(c, "before");
+        if (!before)
+            return before.error();
+        auto after = rd.cell(c, "after");
+        if (!after)
+            return after.error();
+        e.effect.cells.push_back(CellChange{*measure, *region, *date, *before, *after});
+    }
+    if (!j.contains("totals") || !j.at("totals").is_array())
+        return syntax(lineNumber, "\"totals\" must be an array");
+    for (const json& t : j.at("totals")) {
+        if (!t.is_object())
+            return syntax(lineNumber, "each total must be an object");
+        auto measure = rd.text(t, "measure");
+        if (!measure)
+            return measure.error();
+        auto region = rd.text(t, "region");
+        if (!region)
+            return region.error();
+        auto before = rd.integer(t, "before");
+        if (!before)
+            return before.error();
+        auto after = rd.integer(t, "after");
+        if (!after)
+            return after.error();
+        e.effect.totals.push_back(TotalChange{*measure, *region, *before, *after});
+    }
+    return e;
+}
+
+}  // namespace detail
+
+const std::string& genesisHash() {
+    static const std::string zeros(64, '0');
+    return zeros;
+}
+
+std::string Ledger::headHash() const {
+    return entries.empty() ? genesisHash() : entries.back().hash;
+}
+
+std::int64_t Effect::netChange() const {
+    std::int64_t sum = 0;
+    for (const TotalChange& t : totals)
+        sum += t.change();
+    return sum;
+}
+
+Result<std::string> canonicalEntryJson(const LedgerEntry& entry) {
+    return detail::canonicalDump(detail::entryToJson(entry, false));
+}
+
+Result<std::string> entryLine(const LedgerEntry& entry) {
+    return detail::canonicalDump(detail::entryToJson(entry, true));
+}
+
+Result<LedgerEntry> parseEntryLine(std::string_view line, std::uint64_t lineNumber) {
+    json j = json::parse(line.begin(), line.end(), nullptr, false);
+    if (j.is_discarded())
+        return syntax(lineNumber, "the line is not valid JSON");
+    try {
+        return detail::entryFromJson(j, lineNumber);
+    } catch (const std::exception& ex) {
+        return syntax(lineNumber, std::string("malformed entry: ") + ex.what());
+    }
+}
+
+Status sealEntry(LedgerEntry& entry, const LedgerEntry* previous) {
+    entry.previousHash = previous ? previous->hash : genesisHash();
+    auto text = canonicalEntryJson(entry);
+    if (!text)
+        return text.error();
+    entry.hash = sha256Hex(*text);
+    return Ok{};
+}
+
+Status verifyChain(const Ledger& ledger) {
+    const std::string drop = ledger.dropSha256();
+    for (std::size_t i = 0; i < ledger.entries.size(); ++i) {
+        const LedgerEntry& e = ledger.entries[i];
+        const std::uint64_t position = i + 1;
+        auto fail = [&](std::string message) {
+            Error err = makeError(ErrorCode::Integrity,
+                                  "entry " + std::to_string(position) + ": " + message);
+            err.line = position;
+            return err;
+        };
+        if (e.sequence != position) {
+            return fail("its sequence number is " + std::to_string(e.sequence) +
+                        "; entries were deleted, inserted or reordered");
+        }
+        const std::string& expectedPrevious = i == 0 ? genesisHash() : ledger.entries[i - 1].hash;
+        if (e.previousHash != expectedPrevious) {
+            return fail("its previous_hash does not match entry " + std::to_string(i) +
+                        (i == 0 ? std::string(" (none)") : std::string()) +
+                        "; entries were deleted, inserted, reordered or edited");
+        }
+        auto text = canonicalEntryJson(e);
+        if (!text)
+            return fail(text.error().message);
+        if (sha256Hex(*text) != e.hash)
+            return fail("its content does not match its hash; it was edited");
+        if (e.dropSha256 != drop)
+            return fail("it names another drop than entry 1");
+    }
+    return Ok{};
+}
+
+}  // namespace siftwave

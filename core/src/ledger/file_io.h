@@ -1,0 +1,19 @@
+#pragma once
+// Small file helpers of the ledger: atomic writes and whole-file reads.
+
+#include "siftwave/result.h"
+
+#include <string>
+#include <string_view>
+
+namespace siftwave::detail {
+
+/// Writes `bytes` to a temporary file beside `path`, flushes and fsyncs it,
+/// renames it over `path` and fsyncs the folder. On any failure the temporary
+/// file is removed and `path` is untouched.
+Status writeFileAtomically(const std::string& path, std::string_view bytes);
+
+/// The whole file; NotFound when it does not exist, Io otherwise.
+Result<std::string> readWholeFile(const std::string& path);
+
+}  // namespace siftwave::detail

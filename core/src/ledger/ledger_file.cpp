@@ -1,0 +1,114 @@
+#include "siftwave/ledger/ledger_file.h"
+
+#include "ledger/file_io.h"
+
+#include <fcntl.h>
+#include <sys/stat.h>
+#include <unistd.h>
+#include <cerrno>
+#include <cstring>
+#include <filesystem>
+
+namespace siftwave {
+
+Result<Ledger> parseLedger(std::string_view bytes, const std::string& displayPath) {
+    Ledger ledger;
+    std::size_t pos = 0;
+    std::uint64_t lineNumber = 0;
+    while (pos < bytes.size()) {
+        ++lineNumber;
+        const std::size_t end = bytes.find('\n', pos);
+        const bool torn = end == std::string_view::npos;
+        const std::string_view line = bytes.substr(pos, torn ? std::string_view::npos : end - pos);
+        if (torn) {
+            Error e = makeError(
+                ErrorCode::Integrity,
+                "the last line is incomplete (no line end): a write was interrupted. The entry on "
+                "it "
+                "was never completed; remove that line to continue, then make the decision again");
+            e.file = displayPath;
+            e.line = lineNumber;
+            return e;
+        }
+        auto entry = parseEntryLine(line, lineNumber);
+        if (!entry) {
+            Error e = entry.error();
+            e.file = displayPath;
+            e.line = lineNumber;
+            e.message = "entry " + std::to_string(lineNumber) + ": " + e.message;
+            return e;
+        }
+        ledger.entries.push_back(std::move(*entry));
+        pos = end + 1;
+    }
+    if (auto s = verifyChain(ledger); !s) {
+        Error e = s.error();
+        e.file = displayPath;
+        return e;
+    }
+    return ledger;
+}
+
+Result<Ledger> readLedgerFile(const std::string& path) {
+    std::error_code ec;
+    if (!std::filesystem::exists(path, ec)) {
+        Error e = makeError(ErrorCode::NotFound, "no ledger file here");
+        e.file = path;
+        return e;
+    }
+    auto bytes = detail::readWholeFile(path);
+    if (!bytes)
+        return bytes.error();
+    return parseLedger(*bytes, path);
+}
+
+Status appendLedgerEntry(const std::string& path, const LedgerEntry& entry) {
+    auto line = entryLine(entry);
+    if (!line)
+        return line.error();
+    std::string bytes = *line + "\n";
+    auto fail = [&](const char* what) {
+        Error e = makeError(ErrorCode::Io, std::string(what) + ": " + std::strerror(errno));
+        e.file = path;
+        return e;
+    };
+    std::error_code ec;
+    const bool created = !std::filesystem::exists(path, ec);
+    const int fd = ::open(path.c_str(), O_WRONLY | O_APPEND | O_CREAT | O_CLOEXEC, 0644);
+    if (fd < 0)
+        return fail("cannot open the ledger for appending");
+    const char* data = bytes.data();
+    std::size_t left = bytes.size();
+    while (left > 0) {
+        const ssize_t n = ::write(fd, data, left);
+        if (n < 0) {
+            if (errno == EINTR)
+                continue;
+            Error e = fail("cannot append to the ledger");
+            ::close(fd);
+            return e;
+        }
+        data += n;
+        left -= static_cast<std::size_t>(n);
+    }
+    if (::fsync(fd) != 0) {
+        Error e = fail("cannot flush the ledger to disk");
+        ::close(fd);
+        return e;
+    }
+    if (::close(fd) != 0)
+        return fail("cannot close the ledger");
+    if (created) {
+        std::filesystem::path folder = std::filesystem::path(path).parent_path();
+        if (folder.empty())
+            folder = ".";
+        const int dirFd = ::open(folder.c_str(), O_RDONLY | O_DIRECTORY);
+        if (dirFd >= 0) {
+            ::fsync(dirFd);
+            ::close(dirFd);
+        }
+    }
+    return Ok{};
+}
+
+}  // namespace siftwave

@@ -1,0 +1,204 @@
+#include "siftwave/ledger/project.h"
+
+#include "ledger/file_io.h"
+
+#include <nlohmann/json.hpp>
+
+#include <filesystem>
+
+namespace siftwave {
+
+using nlohmann::json;
+
+namespace {
+
+bool isHex64(const std::string& s) {
+    if (s.size() != 64)
+        return false;
+    for (char c : s) {
+        if (!((c >= '0' && c <= '9') || (c >= 'a' && c <= 'f')))
+            return false;
+    }
+    return true;
+}
+
+json optionalDate(const std::optional<Date>& d) {
+    return d ? json(d->iso()) : json(nullptr);
+}
+
+Error projectError(const std::string& path, std::string message) {
+    Error e = makeError(ErrorCode::Syntax, std::move(message));
+    e.file = path;
+    return e;
+}
+
+}  // namespace
+
+Status ProjectFile::validate() const {
+    if (dropPath.empty())
+        return makeError(ErrorCode::Usage, "the project needs the drop's path");
+    if (ledgerPath.empty())
+        return makeError(ErrorCode::Usage, "the project needs the ledger's path");
+    if (!isHex64(dropSha256))
+        return makeError(ErrorCode::Usage, "the drop's SHA-256 must be 64 lower-case hex digits");
+    if (!previousDropPath.empty() && !isHex64(previousDropSha256)) {
+        return makeError(ErrorCode::Usage,
+                         "the previous drop's SHA-256 must be 64 lower-case hex digits");
+    }
+    if (!ledgerHeadHash.empty() && !isHex64(ledgerHeadHash)) {
+        return makeError(ErrorCode::Usage, "the ledger head hash must be 64 lower-case hex digits");
+    }
+    if (fit.smoothingDays < 1)
+        return makeError(ErrorCode::Usage, "the smoothing width must be at least 1 day");
+    return Ok{};
+}
+
+Status writeProjectFile(const std::string& path, const ProjectFile& p) {
+    if (auto s = p.validate(); !s)
+        return s;
+    json j{{"format", "siftwave-project"},
+           {"version", 1},
+           {"drop", {{"path", p.dropPath}, {"sha256", p.dropSha256}}},
+           {"previous_drop", p.previousDropPath.empty() ? json(nullptr)
+                                                        : json{{"path", p.previousDropPath},
+                                                               {"sha256", p.previousDropSha256}}},
+           {"register", p.registerPath.empty() ? json(nullptr) : json{{"path", p.registerPath}}},
+           {"ledger",
+            {{"path", p.ledgerPath},
+             {"entries", p.ledgerEntries},
+             {"head_hash", p.ledgerHeadHash.empty() ? genesisHash() : p.ledgerHeadHash}}},
+           {"view",
+            {{"region", p.view.region},
+             {"measure", p.view.measure},
+             {"second_measure", p.view.secondMeasure},
+             {"visible_first", optionalDate(p.view.visibleFirst)},
+             {"visible_last", optionalDate(p.view.visibleLast)}}},
+           {"fit",
+            {{"model", p.fit.model},
+             {"method", p.fit.method},
+             {"window_first", optionalDate(p.fit.windowFirst)},
+             {"window_last", optionalDate(p.fit.windowLast)},
+             {"smoothing_days", p.fit.smoothingDays}}},
+           {"extra", p.extra}};
+    std::string text;
+    try {
+        text = j.dump(2, ' ', false, json::error_handler_t::strict) + "\n";
+    } catch (const std::exception& ex) {
+        Error e = makeError(ErrorCode::Encoding,
+                            std::string("the project holds text that is not UTF-8: ") + ex.what());
+        e.file = path;
+        return e;
+    }
+    return detail::writeFileAtomically(path, text);
+}
+
+Result<ProjectFile> readProjectFile(const std::string& path) {
+    auto bytes = detail::readWholeFile(path);
+    if (!bytes)
+        return bytes.error();
+    json j = json::parse(*bytes, nullptr, false);
+    if (j.is_discarded() || !j.is_object())
+        return projectError(path, "the project file is not a JSON object");
+    if (j.value("format", std::string()) != "siftwave-project") {
+        return projectError(path,
+                            "not a Siftwave project file (no \"format\": \"siftwave-project\")");
+    }
+    if (j.value("version", 0) != 1)
+        return projectError(path, "unsupported project file version");
+    ProjectFile p;
+    try {
+        auto date = [&](const json& obj, const char* key) -> Result<std::optional<Date>> {
+            if (!obj.contains(key) || obj.at(key).is_null())
+                return std::optional<Date>();
+            auto d = Date::fromIso(obj.at(key).get<std::string>());
+            if (!d)
+                return projectError(path, std::string("\"") + key + "\" is not an ISO 8601 date");
+            return std::optional<Date>(*d);
+        };
+        const json& drop = j.at("drop");
+        p.dropPath = drop.at("path").get<std::string>();
+        p.dropSha256 = drop.at("sha256").get<std::string>();
+        if (j.contains("previous_drop") && !j.at("previous_drop").is_null()) {
+            p.previousDropPath = j.at("previous_drop").at("path").get<std::string>();
+            p.previousDropSha256 = j.at("previous_drop").at("sha256").get<std::string>();
+        }
+        if (j.contains("register") && !j.at("register").is_null()) {
+            p.registerPath = j.at("register").at("path").get<std::string>();
+        }
+        const json& ledger = j.at("ledger");
+        p.ledgerPath = ledger.at("path").get<std::string>();
+        p.ledgerEntries = ledger.value("entries", std::uint64_t{0});
+        p.ledgerHeadHash = ledger.value("head_hash", genesisHash());
+        if (j.contains("view")) {
+            const json& v = j.at("view");
+            p.view.region = v.value("region", std::string());
+            p.view.measure = v.value("measure", std::string());
+            p.view.secondMeasure = v.value("second_measure", std::string());
+            auto a = date(v, "visible_first");
+            if (!a)
+                return a.error();
+            p.view.visibleFirst = *a;
+            auto b = date(v, "visible_last");
+            if (!b)
+                return b.error();
+            p.view.visibleLast = *b;
+        }
+        if (j.contains("fit")) {
+            const json& f = j.at("fit");
+            p.fit.model = f.value("model", p.fit.model);
+            p.fit.method = f.value("method", p.fit.method);
+            p.fit.smoothingDays = f.value("smoothing_days", p.fit.smoothingDays);
+            auto a = date(f, "window_first");
+            if (!a)
+                return a.error();
+            p.fit.windowFirst = *a;
+            auto b = date(f, "window_last");
+            if (!b)
+                return b.error();
+            p.fit.windowLast = *b;
+        }
+        if (j.contains("extra"))
+            p.extra = j.at("extra").get<std::map<std::string, std::string>>();
+    } catch (const std::exception& ex) {
+        return projectError(path, std::string("malformed project file: ") + ex.what());
+    }
+    if (auto s = p.validate(); !s) {
+        Error e = s.error();
+        e.code = ErrorCode::Syntax;
+        e.file = path;
+        return e;
+    }
+    return p;
+}
+
+std::string resolveProjectPath(const std::string& projectPath, const std::string& relative) {
+    namespace fs = std::filesystem;
+    if (relative.empty() || fs::path(relative).is_absolute())
+        return relative;
+    return (fs::path(projectPath).parent_path() / relative).lexically_normal().string();
+}
+
+Status checkLedgerHead(const ProjectFile& project, const Ledger& ledger) {
+    if (project.ledgerEntries == 0)
+        return Ok{};
+    if (ledger.entries.size() < project.ledgerEntries) {
+        Error e = makeError(ErrorCode::Integrity, "the ledger has " +
+                                                      std::to_string(ledger.entries.size()) +
+                                                      " entries but the project recorded " +
+                                                      std::to_string(project.ledgerEntries) +
+                                                      "; entries were removed from its end");
+        e.file = project.ledgerPath;
+        return e;
+    }
+    if (ledger.entries[project.ledgerEntries - 1].hash != project.ledgerHeadHash) {
+        Error e = makeError(ErrorCode::Integrity,
+                            "entry " + std::to_string(project.ledgerEntries) +
+                                " is not the one the project recorded; the ledger was replaced");
+        e.file = project.ledgerPath;
+        e.line = project.ledgerEntries;
+        return e;
+    }
+    return Ok{};
+}
+
+}  // namespace siftwave
