@@ -22,7 +22,7 @@ packages=(
     qt6-base-dev qt6-svg-dev libqcustomplot-dev libgl-dev
     libeigen3-dev libboost-date-time-dev libboost-dev nlohmann-json3-dev libssl-dev
     googletest libgtest-dev libbenchmark-dev
-    poppler-utils fonts-dejavu-core
+    poppler-utils fonts-dejavu-core python3
 )
 
 missing=()

@@ -8,5 +8,6 @@ namespace siftwave::cli {
 // the first argument after the subcommand name.
 int runInspect(int argc, char** argv, int first);
 int runScan(int argc, char** argv, int first);
+int runFit(int argc, char** argv, int first);
 
 }  // namespace siftwave::cli

@@ -17,6 +17,7 @@ struct Command {
 constexpr Command kCommands[] = {
     {"inspect", "read a data drop and report what was read", siftwave::cli::runInspect},
     {"scan", "find what is wrong with a drop, ranked for review", siftwave::cli::runScan},
+    {"fit", "fit wave curves to one region or all, with 95% intervals", siftwave::cli::runFit},
 };
 
 void printUsage(std::FILE* to) {
