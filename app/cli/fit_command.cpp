@@ -5,10 +5,13 @@
 #include "common.h"
 
 #include "siftwave/fit/batch.h"
+#include "siftwave/ledger/ledger_file.h"
+#include "siftwave/ledger/replay.h"
 #include "siftwave/series/daily.h"
 
 #include <cmath>
 #include <cstdio>
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -274,6 +277,8 @@ void printUsage(std::FILE* to, const std::vector<FlagSpec>& specs) {
 int runFit(int argc, char** argv, int first) {
     std::vector<FlagSpec> specs = ingestFlagSpecs();
     specs.push_back(
+        {"ledger", true, false, "L", "fit the cleaned series: replay this ledger over the drop"});
+    specs.push_back(
         {"regions", true, false, "REG", "region register (populations for per-100k figures)"});
     specs.push_back(
         {"region", true, false, "CODE", "fit this region (code as written in the drop)"});
@@ -410,10 +415,33 @@ int runFit(int argc, char** argv, int first) {
         for (std::size_t i = 0; i < drop->regionCodes.size(); ++i)
             indices.push_back(i);
     }
+    std::optional<Cleaned> cleaned;
+    if (auto path = args->optionalValue("ledger")) {
+        auto ledger = readLedgerFile(*path);
+        if (!ledger) {
+            printError(ledger.error(), json);
+            return kExitBadInput;
+        }
+        auto replayed = replay(*drop, *ledger);
+        if (!replayed) {
+            printError(replayed.error(), json);
+            return kExitBadInput;
+        }
+        cleaned = std::move(replayed.value());
+    }
     std::vector<std::vector<double>> counts(indices.size());
     std::vector<fit::RegionSeries> regions(indices.size());
     for (std::size_t k = 0; k < indices.size(); ++k) {
-        counts[k] = series::countsOf(*drop, measure, indices[k]);
+        if (cleaned) {
+            const auto cells = cleaned->series(measure, indices[k]);
+            counts[k].assign(cells.size(), std::numeric_limits<double>::quiet_NaN());
+            for (std::size_t d = 0; d < cells.size(); ++d) {
+                if (cells[d].hasValue())
+                    counts[k][d] = static_cast<double>(cells[d].value);
+            }
+        } else {
+            counts[k] = series::countsOf(*drop, measure, indices[k]);
+        }
         const std::string& code = drop->regionCodes[indices[k]];
         std::optional<double> population;
         if (reg) {

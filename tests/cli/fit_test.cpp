@@ -116,6 +116,7 @@ TEST(CliFit, WrongUsageExitsWithTwoAndBadInputWithOne) {
     EXPECT_EQ(run(kDrop + " --region KV --method lsq --weekday").exitCode, 2);
     EXPECT_EQ(run(kDrop + " --region NOPE").exitCode, 1);
     EXPECT_EQ(run("/nonexistent/drop.csv --all").exitCode, 1);
+    EXPECT_EQ(run(kDrop + " --region KV --ledger /nonexistent/ledger.jsonl").exitCode, 1);
 }
 
 TEST(CliFit, ExplicitWindowIsUsed) {
