@@ -83,7 +83,8 @@ std::vector<ColumnProfile> profile(std::size_t columns, const std::vector<Sample
 bool isDateColumn(const ColumnProfile& p) {
     if (p.nonEmpty() == 0)
         return false;
-    if (p.date == p.nonEmpty())
+    // Most cells are dates: a stray text ("Total") is then reported where it is.
+    if (p.date * 2 > p.nonEmpty())
         return true;
     return p.allCompactDates && p.integer + p.leadingZero == p.nonEmpty();
 }
