@@ -8,6 +8,9 @@ namespace siftwave::cli {
 // the first argument after the subcommand name.
 int runInspect(int argc, char** argv, int first);
 int runScan(int argc, char** argv, int first);
+int runDecide(int argc, char** argv, int first);
+int runApply(int argc, char** argv, int first);
+int runLedger(int argc, char** argv, int first);
 int runFit(int argc, char** argv, int first);
 
 }  // namespace siftwave::cli
