@@ -93,11 +93,15 @@ TEST(IngestIso3166, NumericCodesKeepTheirLeadingZeros) {
 TEST(IngestIso3166, CodesAsHeaderNamesSurviveBothWideLayouts) {
     const std::vector<Country> countries = referenceCountries();
     std::string down = "date";
-    for (const Country& c : countries)
-        down += "," + c.alpha2;
+    for (const Country& c : countries) {
+        down += ',';
+        down += c.alpha2;
+    }
     down += "\n2026-01-01";
-    for (std::size_t i = 0; i < countries.size(); ++i)
-        down += "," + std::to_string(i);
+    for (std::size_t i = 0; i < countries.size(); ++i) {
+        down += ',';
+        down += std::to_string(i);
+    }
     down += "\n";
     Result<Drop> datesDown = parseDrop(down, "iso-down.csv");
     ASSERT_TRUE(datesDown.ok()) << datesDown.error().describe();

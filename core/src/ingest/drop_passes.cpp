@@ -482,7 +482,7 @@ Status DropReader::settleDates() {
     return Ok{};
 }
 
-Cell DropReader::parseCell(std::string_view text, std::uint32_t line, std::uint64_t column) {
+Cell DropReader::parseCellSlowly(std::string_view text, std::uint32_t line, std::uint64_t column) {
     Cell cell;
     cell.line = line;
     bool missing = text.empty() && m_emptyIsMissing;

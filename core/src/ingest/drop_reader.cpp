@@ -61,6 +61,13 @@ Status DropReader::sniff() {
     if (firstContent >= m_bytes.size())
         return fail(ErrorCode::Syntax, "the file is empty; there is nothing to read");
 
+    if (m_bytes.find('\n', m_start) == std::string_view::npos &&
+        m_bytes.find('\r', m_start) != std::string_view::npos) {
+        return fail(ErrorCode::Syntax,
+                    "the lines end in a carriage return alone (an old Mac format); save the file "
+                    "with LF or CR LF line endings",
+                    1, 0);
+    }
     const std::size_t sampleEnd = std::min(m_bytes.size(), m_start + kSampleBytes);
     if (Status s = m_checker.checkUpTo(sampleEnd); !s)
         return s;
@@ -154,6 +161,20 @@ Status DropReader::sniff() {
             if (it->first.empty()) {
                 return fail(ErrorCode::Layout, "a region column has an empty name in the header", 1,
                             static_cast<std::uint64_t>(c) + 1);
+            }
+        }
+    }
+    if (m_roles.layout == Layout::Long && m_roles.measureColumn < 0) {
+        std::map<std::string_view, int> seen;
+        for (int c : m_roles.valueColumns) {
+            auto [it, added] = seen.emplace(m_names[static_cast<std::size_t>(c)], c);
+            if (!added) {
+                return fail(ErrorCode::Layout,
+                            "columns " + std::to_string(it->second + 1) + " and " +
+                                std::to_string(c + 1) + " are both named " + quoted(it->first) +
+                                ", so their measures cannot be told apart; rename one or pick "
+                                "the value columns with --value-col",
+                            1, static_cast<std::uint64_t>(c) + 1);
             }
         }
     }

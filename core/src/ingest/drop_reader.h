@@ -71,15 +71,25 @@ private:
     Error dateError(const std::string& text, std::uint64_t line, std::uint64_t column) const;
     Status checkFieldCount(const CsvRecord& record);
 
-    Cell parseCell(std::string_view text, std::uint32_t line, std::uint64_t column);
+    Cell parseCell(std::string_view text, std::uint32_t line, std::uint64_t column) {
+        // The common case inline: plain digits and no missing-value token to compare with.
+        Cell cell;
+        if (m_otherMissing.empty() && parsePlainCount(text, cell.value)) {
+            cell.line = line;
+            cell.state = CellState::Reported;
+            return cell;
+        }
+        return parseCellSlowly(text, line, column);
+    }
+    Cell parseCellSlowly(std::string_view text, std::uint32_t line, std::uint64_t column);
     void place(std::size_t measure, std::uint32_t region, std::int32_t day, const Cell& cell) {
         const std::size_t index =
             static_cast<std::size_t>(region) * m_days + static_cast<std::size_t>(day);
         Cell& target = m_cells[measure][index];
         // Rows usually come date by date, so this region's next cells are written a
         // whole round of regions later: fetch their cache line now.
-        if (static_cast<std::size_t>(day) + 8 < m_days)
-            __builtin_prefetch(&target + 8, 1);
+        if (static_cast<std::size_t>(day) + 5 < m_days)
+            __builtin_prefetch(&target + 5, 1);
         // A day after the last one written for this region cannot be filled yet, so
         // the cell is written without reading it first (reads here miss the cache).
         std::int32_t& lastDay = m_lastDay[measure][region];
