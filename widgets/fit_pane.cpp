@@ -23,28 +23,35 @@ namespace siftwave::widgets {
 
 namespace {
 
-QDate toQDate(Date day) { return QDate(day.year(), day.month(), day.day()); }
+QDate toQDate(Date day) {
+    return QDate(day.year(), day.month(), day.day());
+}
 
 Date fromQDate(const QDate& date) {
     return Date::fromYmd(date.year(), date.month(), date.day()).value_or(Date{});
 }
 
 QString number(double value, int decimals) {
-    if (!std::isfinite(value)) return QStringLiteral("–");
+    if (!std::isfinite(value))
+        return QStringLiteral("–");
     return QLocale::c().toString(value, 'f', decimals);
 }
 
 /// Decimals that show about three significant digits.
 int decimalsFor(double value) {
     const double magnitude = std::abs(value);
-    if (!std::isfinite(magnitude) || magnitude >= 100) return 0;
-    if (magnitude >= 10) return 1;
-    if (magnitude >= 1) return 2;
+    if (!std::isfinite(magnitude) || magnitude >= 100)
+        return 0;
+    if (magnitude >= 10)
+        return 1;
+    if (magnitude >= 1)
+        return 2;
     return 3;
 }
 
 QString interval(const fit::Estimate& e, int decimals) {
-    if (!std::isfinite(e.lower) || !std::isfinite(e.upper)) return QStringLiteral("–");
+    if (!std::isfinite(e.lower) || !std::isfinite(e.upper))
+        return QStringLiteral("–");
     return QStringLiteral("%1 – %2").arg(number(e.lower, decimals), number(e.upper, decimals));
 }
 
@@ -70,14 +77,20 @@ QTableView* makeTable(TextTableModel* model, QWidget* parent) {
 }  // namespace
 
 FitPane::FitPane(QWidget* parent)
-    : QWidget(parent), m_model(new QComboBox(this)), m_method(new QComboBox(this)),
+    : QWidget(parent),
+      m_model(new QComboBox(this)),
+      m_method(new QComboBox(this)),
       m_weekday(new QCheckBox(tr("weekday factors"), this)),
-      m_auto(new QRadioButton(tr("automatic"), this)), m_wave(new QComboBox(this)),
-      m_manual(new QRadioButton(tr("days"), this)), m_from(new QDateEdit(this)), m_to(new QDateEdit(this)),
+      m_auto(new QRadioButton(tr("automatic"), this)),
+      m_wave(new QComboBox(this)),
+      m_manual(new QRadioButton(tr("days"), this)),
+      m_from(new QDateEdit(this)),
+      m_to(new QDateEdit(this)),
       m_summary(new QLabel(this)),
       m_parameters(new TextTableModel({tr("Parameter"), tr("Estimate"), tr("95% interval")}, this)),
       m_derived(new TextTableModel({tr("Quantity"), tr("Estimate"), tr("95% interval")}, this)),
-      m_comparison(new TextTableModel({tr("Model"), tr("AICc"), tr("ΔAICc"), tr("R²"), tr("Note")}, this)),
+      m_comparison(
+          new TextTableModel({tr("Model"), tr("AICc"), tr("ΔAICc"), tr("R²"), tr("Note")}, this)),
       m_caution(new QLabel(QString::fromUtf8(fit::caution), this)) {
     m_model->setObjectName(QStringLiteral("fitModel"));
     for (fit::ModelKind kind : fit::kAllModels)
@@ -88,9 +101,11 @@ FitPane::FitPane(QWidget* parent)
     m_model->setItemText(2, tr("Richards"));
     m_model->setItemText(3, tr("log-normal"));
     m_method->setObjectName(QStringLiteral("fitMethod"));
-    m_method->addItem(tr("least squares on the 7-day mean"), static_cast<int>(fit::FitMethod::LeastSquares));
+    m_method->addItem(tr("least squares on the 7-day mean"),
+                      static_cast<int>(fit::FitMethod::LeastSquares));
     m_method->addItem(tr("Poisson, daily counts"), static_cast<int>(fit::FitMethod::Poisson));
-    m_method->addItem(tr("negative binomial, daily counts"), static_cast<int>(fit::FitMethod::NegativeBinomial));
+    m_method->addItem(tr("negative binomial, daily counts"),
+                      static_cast<int>(fit::FitMethod::NegativeBinomial));
     m_weekday->setToolTip(tr("Likelihood fits: one reporting factor per weekday"));
     m_wave->addItem(tr("largest wave"), static_cast<int>(fit::WaveChoice::Largest));
     m_wave->addItem(tr("latest wave"), static_cast<int>(fit::WaveChoice::Latest));
@@ -145,10 +160,12 @@ FitPane::FitPane(QWidget* parent)
     connect(m_auto, &QRadioButton::toggled, this, &FitPane::onWindowModeChanged);
     for (QDateEdit* edit : {m_from, m_to})
         connect(edit, &QDateEdit::dateChanged, this, [this] {
-            if (m_manual->isChecked()) Q_EMIT optionsChanged();
+            if (m_manual->isChecked())
+                Q_EMIT optionsChanged();
         });
     connect(m_method, &QComboBox::currentIndexChanged, this, [this] {
-        m_weekday->setEnabled(m_method->currentData().toInt() != static_cast<int>(fit::FitMethod::LeastSquares));
+        m_weekday->setEnabled(m_method->currentData().toInt() !=
+                              static_cast<int>(fit::FitMethod::LeastSquares));
     });
     m_weekday->setEnabled(false);
     onWindowModeChanged();
@@ -170,14 +187,18 @@ fit::FitOptions FitPane::options() const {
     options.method = static_cast<fit::FitMethod>(m_method->currentData().toInt());
     options.weekdayFactors = m_weekday->isEnabled() && m_weekday->isChecked();
     options.wave = static_cast<fit::WaveChoice>(m_wave->currentData().toInt());
-    if (const auto window = manualWindow()) options.window = std::make_pair(window->first, window->last);
+    if (const auto window = manualWindow())
+        options.window = std::make_pair(window->first, window->last);
     return options;
 }
 
-bool FitPane::bestModelWanted() const { return m_model->currentData().toInt() < 0; }
+bool FitPane::bestModelWanted() const {
+    return m_model->currentData().toInt() < 0;
+}
 
 std::optional<DayIndexRange> FitPane::manualWindow() const {
-    if (!m_manual->isChecked() || m_days == 0) return std::nullopt;
+    if (!m_manual->isChecked() || m_days == 0)
+        return std::nullopt;
     int first = fromQDate(m_from->date()) - m_firstDay;
     int last = fromQDate(m_to->date()) - m_firstDay;
     first = std::clamp(first, 0, m_days - 1);
@@ -188,9 +209,11 @@ std::optional<DayIndexRange> FitPane::manualWindow() const {
 void FitPane::setCalendar(Date firstDay, int days) {
     m_firstDay = firstDay;
     m_days = days;
-    if (days <= 0) return;
+    if (days <= 0)
+        return;
     const QSignalBlocker a(m_from), b(m_to);
-    for (QDateEdit* edit : {m_from, m_to}) edit->setDateRange(toQDate(firstDay), toQDate(firstDay + (days - 1)));
+    for (QDateEdit* edit : {m_from, m_to})
+        edit->setDateRange(toQDate(firstDay), toQDate(firstDay + (days - 1)));
 }
 
 void FitPane::setManualWindow(DayIndexRange window) {
@@ -209,7 +232,9 @@ void FitPane::showWindow(DayIndexRange window) {
     m_to->setDate(toQDate(m_firstDay + window.last));
 }
 
-QString FitPane::summaryText() const { return m_summary->text(); }
+QString FitPane::summaryText() const {
+    return m_summary->text();
+}
 
 void FitPane::clear(const QString& why) {
     m_summary->setText(why);
@@ -223,7 +248,8 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
     QVector<TextTableModel::Row> comparisonRows;
     double bestAicc = INFINITY;
     for (const fit::ModelComparisonRow& row : comparison)
-        if (row.fit && row.fit->summary.converged()) bestAicc = std::min(bestAicc, row.fit->goodness.aicc);
+        if (row.fit && row.fit->summary.converged())
+            bestAicc = std::min(bestAicc, row.fit->goodness.aicc);
     for (const fit::ModelComparisonRow& row : comparison) {
         TextTableModel::Row out;
         const QString name = QString::fromLatin1(fit::modelName(row.model));
@@ -257,7 +283,8 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
                           .arg(fit.last - fit.first + 1)
                           .arg(QString::fromStdString(fit.summary.brief()).toHtmlEscaped());
     summary += tr("<br>R² %1 · RMSE %2 · AICc %3")
-                   .arg(number(fit.goodness.r2, 3), number(fit.goodness.rmse, 1), number(fit.goodness.aicc, 1));
+                   .arg(number(fit.goodness.r2, 3), number(fit.goodness.rmse, 1),
+                        number(fit.goodness.aicc, 1));
     for (const std::string& note : fit.summary.notes)
         summary += QStringLiteral("<br>⚠ %1").arg(QString::fromStdString(note).toHtmlEscaped());
     m_summary->setText(summary);
@@ -266,25 +293,31 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
     for (const fit::NamedEstimate& p : fit.parameters) {
         const int decimals = decimalsFor(p.estimate.value);
         parameters << TextTableModel::Row{
-            {QString::fromStdString(p.name), number(p.estimate.value, decimals), interval(p.estimate, decimals)},
+            {QString::fromStdString(p.name), number(p.estimate.value, decimals),
+             interval(p.estimate, decimals)},
             {},
             tr("standard error %1").arg(number(p.estimate.se, decimalsFor(p.estimate.se))),
             false};
     }
     if (fit.dispersion)
-        parameters << TextTableModel::Row{{tr("r (negative-binomial size)"), number(*fit.dispersion, 2), QString()},
-                                          {},
-                                          {},
-                                          false};
+        parameters << TextTableModel::Row{
+            {tr("r (negative-binomial size)"), number(*fit.dispersion, 2), QString()},
+            {},
+            {},
+            false};
     static const char* const weekdays[] = {"Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"};
     for (std::size_t i = 0; i < fit.weekdayFactors.size() && i < 7; ++i)
         parameters << TextTableModel::Row{
-            {tr("factor %1").arg(tr(weekdays[i])), number(fit.weekdayFactors[i], 3), QString()}, {}, {}, false};
+            {tr("factor %1").arg(tr(weekdays[i])), number(fit.weekdayFactors[i], 3), QString()},
+            {},
+            {},
+            false};
     m_parameters->setRows(parameters);
 
     const fit::DerivedQuantities& d = fit.derived;
     auto dateOf = [&fit](double day) {
-        return std::isfinite(day) ? QString::fromStdString(fit.dateOf(day).iso()) : QStringLiteral("–");
+        return std::isfinite(day) ? QString::fromStdString(fit.dateOf(day).iso())
+                                  : QStringLiteral("–");
     };
     auto dateRow = [&](const QString& name, const fit::Estimate& e) {
         const QString range = std::isfinite(e.lower) && std::isfinite(e.upper)
@@ -296,30 +329,35 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
                                        .arg(number(e.value, 1), number(e.se, 1)),
                                    false};
     };
-    auto valueRow = [](const QString& name, const fit::Estimate& e, int decimals, const QString& unit = {}) {
-        return TextTableModel::Row{{name, number(e.value, decimals) + unit, interval(e, decimals)},
-                                   {},
-                                   {},
-                                   false};
+    auto valueRow = [](const QString& name, const fit::Estimate& e, int decimals,
+                       const QString& unit = {}) {
+        return TextTableModel::Row{
+            {name, number(e.value, decimals) + unit, interval(e, decimals)}, {}, {}, false};
     };
     QVector<TextTableModel::Row> derived;
     derived << dateRow(tr("Peak day"), d.peakDay);
-    derived << valueRow(tr("Peak incidence (per day)"), d.peakIncidence, decimalsFor(d.peakIncidence.value));
+    derived << valueRow(tr("Peak incidence (per day)"), d.peakIncidence,
+                        decimalsFor(d.peakIncidence.value));
     derived << valueRow(tr("Wave size K"), d.waveSize, 0);
-    derived << TextTableModel::Row{{tr("Fraction observed"), number(d.fractionObserved.value * 100, 1) + QStringLiteral(" %"),
-                                    std::isfinite(d.fractionObserved.lower)
-                                        ? QStringLiteral("%1 – %2 %").arg(number(d.fractionObserved.lower * 100, 1),
-                                                                          number(d.fractionObserved.upper * 100, 1))
-                                        : QStringLiteral("–")},
-                                   {},
-                                   tr("Cumulative fitted cases at the last day with data, as a share of K"),
-                                   false};
-    derived << dateRow(tr("Start (%1 % of K)").arg(number(fit.options.startQuantile * 100, 1)), d.startDay);
-    derived << dateRow(tr("End (%1 % of K)").arg(number(fit.options.endQuantile * 100, 1)), d.endDay);
+    derived << TextTableModel::Row{
+        {tr("Fraction observed"), number(d.fractionObserved.value * 100, 1) + QStringLiteral(" %"),
+         std::isfinite(d.fractionObserved.lower)
+             ? QStringLiteral("%1 – %2 %")
+                   .arg(number(d.fractionObserved.lower * 100, 1),
+                        number(d.fractionObserved.upper * 100, 1))
+             : QStringLiteral("–")},
+        {},
+        tr("Cumulative fitted cases at the last day with data, as a share of K"),
+        false};
+    derived << dateRow(tr("Start (%1 % of K)").arg(number(fit.options.startQuantile * 100, 1)),
+                       d.startDay);
+    derived << dateRow(tr("End (%1 % of K)").arg(number(fit.options.endQuantile * 100, 1)),
+                       d.endDay);
     derived << dateRow(tr("Fastest growth"), d.fastestGrowthDay);
     derived << valueRow(tr("Doubling time at the start (days)"), d.doublingTimeDays, 1);
-    derived << valueRow(tr("Peak infectious load (%1-day cases)").arg(fit.options.infectiousWindowDays),
-                        d.peakInfectiousLoad, 0);
+    derived << valueRow(
+        tr("Peak infectious load (%1-day cases)").arg(fit.options.infectiousWindowDays),
+        d.peakInfectiousLoad, 0);
     if (d.peakInfectiousLoadPer100k)
         derived << valueRow(tr("… per 100,000 people"), *d.peakInfectiousLoadPer100k, 1);
     m_derived->setRows(derived);

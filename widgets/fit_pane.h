@@ -51,7 +51,8 @@ public:
     /// Shows the window a fit used in the date fields (automatic mode stays automatic).
     void showWindow(DayIndexRange window);
     /// Shows a fit (or why there is none) and the comparison rows (may be empty).
-    void showFit(const Result<fit::FitResult>& result, const std::vector<fit::ModelComparisonRow>& comparison);
+    void showFit(const Result<fit::FitResult>& result,
+                 const std::vector<fit::ModelComparisonRow>& comparison);
     void clear(const QString& why);
 
     TextTableModel* parameterTable() const { return m_parameters; }

@@ -15,6 +15,8 @@ namespace siftwave::widgets {
 RegionModel::RegionModel(Workbench* workbench, QObject* parent)
     : QAbstractItemModel(parent), m_workbench(workbench) {
     connect(m_workbench, &Workbench::dropChanged, this, &RegionModel::rebuild);
+    connect(m_workbench, &Workbench::ledgerChanged, this, &RegionModel::refreshColumns);
+    connect(m_workbench, &Workbench::findingsChanged, this, &RegionModel::refreshColumns);
     rebuild();
 }
 
@@ -94,6 +96,14 @@ void RegionModel::computeTotals() {
     }
 }
 
+void RegionModel::refreshColumns() {
+    for (int i = 0; i < static_cast<int>(m_nodes.size()); ++i) {
+        const int row = rowInParent(i);
+        Q_EMIT dataChanged(createIndex(row, CleanedTotalColumn, static_cast<quintptr>(i)),
+                           createIndex(row, OpenFindingsColumn, static_cast<quintptr>(i)));
+    }
+}
+
 void RegionModel::setMeasure(int measure) {
     if (measure == m_measure)
         return;
@@ -164,12 +174,16 @@ QVariant RegionModel::data(const QModelIndex& index, int role) const {
                 case NameColumn:
                     return node.name;
                 case RawTotalColumn:
-                case CleanedTotalColumn:
-                    // With no decisions yet, the cleaned series is the raw one (replay of an empty
-                    // ledger).
                     return inDrop ? QLocale::c().toString(node.rawTotal) : QString();
-                case OpenFindingsColumn:
-                    return QString();
+                case CleanedTotalColumn: {
+                    const auto total = m_workbench->cleanedTotal(node.code, m_measure);
+                    return total ? QLocale::c().toString(static_cast<qlonglong>(*total))
+                                 : QString();
+                }
+                case OpenFindingsColumn: {
+                    const int open = m_workbench->openFindings(node.code);
+                    return open > 0 ? QString::number(open) : QString();
+                }
             }
             return {};
         case SortRole:
@@ -179,10 +193,12 @@ QVariant RegionModel::data(const QModelIndex& index, int role) const {
                 case NameColumn:
                     return node.name;
                 case RawTotalColumn:
-                case CleanedTotalColumn:
                     return inDrop ? node.rawTotal : -1;
+                case CleanedTotalColumn:
+                    return static_cast<qlonglong>(
+                        m_workbench->cleanedTotal(node.code, m_measure).value_or(-1));
                 case OpenFindingsColumn:
-                    return 0;
+                    return m_workbench->openFindings(node.code);
             }
             return {};
         case Qt::TextAlignmentRole:

@@ -53,6 +53,8 @@ public:
 
     /// Rebuilds from the workbench (called when the drop changes).
     void rebuild();
+    /// The cleaned totals and open findings changed (a decision, a scan).
+    void refreshColumns();
 
 private:
     struct Node {

@@ -108,7 +108,8 @@ void SeriesChart::draw(const SeriesView& view) {
     if (!m_view.previous.empty()) {
         QCPGraph* previous =
             addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.previous, m_view.days),
-                    plot_style::previousPen(), QObject::tr("Previous release (%1)").arg(m_view.previousLabel));
+                    plot_style::previousPen(),
+                    QObject::tr("Previous release (%1)").arg(m_view.previousLabel));
         previous->setLineStyle(QCPGraph::lsStepCenter);
         previous->setAdaptiveSampling(false);
         // Where the two releases disagree, the old value is marked with a cross.
@@ -116,7 +117,8 @@ void SeriesChart::draw(const SeriesView& view) {
         for (int d = 0; d < m_view.days && d < static_cast<int>(m_view.previous.size()); ++d) {
             const double old = m_view.previous[d];
             const double now = d < static_cast<int>(m_view.raw.size()) ? m_view.raw[d] : old;
-            if (std::isnan(old) || std::isnan(now) || old == now) continue;
+            if (std::isnan(old) || std::isnan(now) || old == now)
+                continue;
             revisedKeys << keys[d];
             revisedValues << old;
         }
@@ -124,7 +126,8 @@ void SeriesChart::draw(const SeriesView& view) {
             QCPGraph* revised = m_plot->addGraph(m_plot->xAxis, m_plot->yAxis);
             revised->setData(revisedKeys, revisedValues, true);
             revised->setLineStyle(QCPGraph::lsNone);
-            revised->setScatterStyle(QCPScatterStyle(QCPScatterStyle::ssCross, plot_style::kInk, 7));
+            revised->setScatterStyle(
+                QCPScatterStyle(QCPScatterStyle::ssCross, plot_style::kInk, 7));
             revised->setName(QObject::tr("Revised since (old value)"));
         }
     }
@@ -153,28 +156,31 @@ void SeriesChart::draw(const SeriesView& view) {
 }
 
 void SeriesChart::drawFit() {
-    if (!m_view.fit || m_view.fit->mid.empty()) return;
+    if (!m_view.fit || m_view.fit->mid.empty())
+        return;
     const QVector<double> keys = keysOf(m_view);
     if (!m_view.fit->low.empty() && !m_view.fit->high.empty()) {
         QCPGraph* low = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->low, m_view.days),
                                 Qt::NoPen, QString());
-        QCPGraph* high = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->high, m_view.days),
-                                 Qt::NoPen, QObject::tr("Fit band"));
+        QCPGraph* high =
+            addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->high, m_view.days), Qt::NoPen,
+                    QObject::tr("Fit band"));
         high->setBrush(plot_style::fitBandBrush());
         high->setChannelFillGraph(low);
         low->removeFromLegend();
         m_fitGraphs.push_back(low);
         m_fitGraphs.push_back(high);
     }
-    QCPGraph* mid = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->mid, m_view.days),
-                            plot_style::fitPen(),
-                            m_view.fit->label.isEmpty() ? QObject::tr("Fitted") : m_view.fit->label);
+    QCPGraph* mid = addLine(
+        m_plot, m_plot->yAxis, keys, toVector(m_view.fit->mid, m_view.days), plot_style::fitPen(),
+        m_view.fit->label.isEmpty() ? QObject::tr("Fitted") : m_view.fit->label);
     mid->setAdaptiveSampling(false);
     m_fitGraphs.push_back(mid);
 }
 
 void SeriesChart::setFit(const std::optional<FittedCurve>& fit) {
-    for (QCPGraph* graph : m_fitGraphs) m_plot->removeGraph(graph);
+    for (QCPGraph* graph : m_fitGraphs)
+        m_plot->removeGraph(graph);
     m_fitGraphs.clear();
     m_view.fit = fit;
     drawFit();
@@ -287,8 +293,9 @@ void SeriesChart::rescaleValueAxis() {
     const QCPRange x = m_plot->xAxis->range();
     const int first = std::max(0, dayOfPlotKey(x.lower) - m_view.firstDay);
     const int last = std::min(m_view.days - 1, dayOfPlotKey(x.upper) - m_view.firstDay);
-    double top = std::max({maxIn(m_view.raw, first, last), maxIn(m_view.cleaned, first, last),
-                           maxIn(m_view.smoothed, first, last), maxIn(m_view.previous, first, last)});
+    double top =
+        std::max({maxIn(m_view.raw, first, last), maxIn(m_view.cleaned, first, last),
+                  maxIn(m_view.smoothed, first, last), maxIn(m_view.previous, first, last)});
     if (m_view.fit)
         top = std::max(
             {top, maxIn(m_view.fit->mid, first, last), maxIn(m_view.fit->high, first, last)});

@@ -14,7 +14,8 @@ void TextTableModel::setRows(QVector<Row> rows) {
 }
 
 QString TextTableModel::text(int row, int column) const {
-    if (row < 0 || row >= m_rows.size()) return {};
+    if (row < 0 || row >= m_rows.size())
+        return {};
     return m_rows[row].cells.value(column);
 }
 
@@ -27,33 +28,36 @@ int TextTableModel::columnCount(const QModelIndex& parent) const {
 }
 
 QVariant TextTableModel::data(const QModelIndex& index, int role) const {
-    if (!index.isValid() || index.row() >= m_rows.size()) return {};
+    if (!index.isValid() || index.row() >= m_rows.size())
+        return {};
     const Row& row = m_rows[index.row()];
     switch (role) {
-    case Qt::DisplayRole:
-        return row.cells.value(index.column());
-    case SortRole:
-        if (index.column() < row.sortKeys.size() && row.sortKeys[index.column()].isValid())
-            return row.sortKeys[index.column()];
-        return row.cells.value(index.column());
-    case Qt::ToolTipRole:
-        return row.toolTip.isEmpty() ? QVariant() : QVariant(row.toolTip);
-    case Qt::FontRole:
-        if (row.emphasised) {
-            QFont font;
-            font.setBold(true);
-            return font;
-        }
-        return {};
-    case Qt::TextAlignmentRole:
-        if (index.column() > 0) return QVariant::fromValue(Qt::AlignRight | Qt::AlignVCenter);
-        return {};
+        case Qt::DisplayRole:
+            return row.cells.value(index.column());
+        case SortRole:
+            if (index.column() < row.sortKeys.size() && row.sortKeys[index.column()].isValid())
+                return row.sortKeys[index.column()];
+            return row.cells.value(index.column());
+        case Qt::ToolTipRole:
+            return row.toolTip.isEmpty() ? QVariant() : QVariant(row.toolTip);
+        case Qt::FontRole:
+            if (row.emphasised) {
+                QFont font;
+                font.setBold(true);
+                return font;
+            }
+            return {};
+        case Qt::TextAlignmentRole:
+            if (index.column() > 0)
+                return QVariant::fromValue(Qt::AlignRight | Qt::AlignVCenter);
+            return {};
     }
     return {};
 }
 
 QVariant TextTableModel::headerData(int section, Qt::Orientation orientation, int role) const {
-    if (orientation == Qt::Horizontal && role == Qt::DisplayRole) return m_headers.value(section);
+    if (orientation == Qt::Horizontal && role == Qt::DisplayRole)
+        return m_headers.value(section);
     return {};
 }
 

@@ -1,9 +1,13 @@
 #include "widgets/workbench.h"
 
+#include "siftwave/ledger/ledger_file.h"
+#include "siftwave/ledger/replay.h"
 #include "siftwave/series/smoothing.h"
 
 #include <QCoreApplication>
 #include <QFileInfo>
+
+#include <limits>
 
 namespace siftwave::widgets {
 
@@ -20,6 +24,37 @@ SeriesView Workbench::seriesView(const QString& regionCode, int measure, int sec
     if (!region)
         return {};
     SeriesView view = seriesViewFromDrop(*m_drop, *region, static_cast<std::size_t>(measure));
+    view.cleaned = cleanedCounts(regionCode, measure);
+    for (int d = 0; d < view.days; ++d) {
+        for (std::uint64_t sequence :
+             m_cleaned.touchedBy(static_cast<std::size_t>(measure), *region, d)) {
+            if (sequence == 0 || sequence > m_ledger.entries.size())
+                continue;
+            const LedgerEntry& e = m_ledger.entries[sequence - 1];
+            view.touchedBy[d] << QStringLiteral("#%1 %2%3 (%4): %5")
+                                     .arg(sequence)
+                                     .arg(QString::fromLatin1(decisionKindName(e.decision.kind)),
+                                          m_cleaned.inEffect(sequence)
+                                              ? QString()
+                                              : QStringLiteral(", withdrawn"),
+                                          QString::fromStdString(e.author),
+                                          QString::fromStdString(e.reason));
+        }
+    }
+    for (const scan::Finding& f : findings()) {
+        if (!f.region || *f.region != m_drop->regionCodes[*region] || !f.first || !f.last)
+            continue;
+        if (f.measure && *f.measure != m_drop->measures[static_cast<std::size_t>(measure)])
+            continue;
+        FindingMark mark;
+        mark.id = QString::fromStdString(f.id);
+        mark.label = QString::fromLatin1(scan::findingKindName(f.kind));
+        mark.days = {*f.first - m_drop->firstDay, *f.last - m_drop->firstDay};
+        mark.severity = f.severity == scan::Severity::Critical  ? 2
+                        : f.severity == scan::Severity::Warning ? 1
+                                                                : 0;
+        view.findings.push_back(mark);
+    }
     if (m_register)
         if (const RegionEntry* entry = m_register->find(m_drop->regionCodes[*region]))
             view.regionName = QString::fromStdString(entry->name);
@@ -35,17 +70,158 @@ SeriesView Workbench::seriesView(const QString& regionCode, int measure, int sec
 }
 
 std::vector<double> Workbench::cleanedCounts(const QString& regionCode, int measure) const {
-    if (!m_drop || measure < 0 || measure >= static_cast<int>(m_drop->measures.size())) return {};
+    if (!m_drop || measure < 0 || measure >= static_cast<int>(m_drop->measures.size()))
+        return {};
     const std::optional<std::size_t> region = m_drop->regionIndex(regionCode.toStdString());
-    if (!region) return {};
-    // With no decisions recorded, the cleaned series is the raw one (replay of an empty ledger).
-    return seriesViewFromDrop(*m_drop, *region, static_cast<std::size_t>(measure)).cleaned;
+    if (!region)
+        return {};
+    std::vector<double> counts(static_cast<std::size_t>(m_drop->days),
+                               std::numeric_limits<double>::quiet_NaN());
+    const auto cells = m_cleaned.series(static_cast<std::size_t>(measure), *region);
+    for (std::size_t d = 0; d < cells.size(); ++d)
+        if (cells[d].hasValue())
+            counts[d] = static_cast<double>(cells[d].value);
+    return counts;
+}
+
+std::optional<std::int64_t> Workbench::cleanedTotal(const QString& regionCode, int measure) const {
+    if (!m_drop || measure < 0 || measure >= static_cast<int>(m_drop->measures.size()))
+        return std::nullopt;
+    const std::optional<std::size_t> region = m_drop->regionIndex(regionCode.toStdString());
+    if (!region)
+        return std::nullopt;
+    return m_cleaned.total(static_cast<std::size_t>(measure), *region);
+}
+
+Status Workbench::openLedger(const QString& path) {
+    m_ledgerPath = path;
+    m_ledger = Ledger{};
+    m_cleaned = m_drop ? Cleaned(*m_drop) : Cleaned{};
+    m_ledgerWritable = false;
+    Status result = Ok{};
+    if (m_drop) {
+        Result<Ledger> read = readLedgerFile(path.toStdString());
+        if (!read && read.error().code == ErrorCode::NotFound) {
+            m_ledgerWritable = true;
+        } else if (!read) {
+            result = read.error();
+        } else if (Result<Cleaned> replayed = replay(*m_drop, *read); !replayed) {
+            result = replayed.error();
+        } else {
+            m_ledger = std::move(read).value();
+            m_cleaned = std::move(replayed).value();
+            m_ledgerWritable = true;
+        }
+    }
+    if (!result) {
+        m_chainOk = false;
+        m_chainStatus = QCoreApplication::translate("Workbench", "ledger not usable: %1")
+                            .arg(QString::fromStdString(result.error().describe()));
+    } else {
+        updateChainStatus();
+    }
+    Q_EMIT ledgerChanged();
+    return result;
+}
+
+void Workbench::updateChainStatus() {
+    const Status chain = verifyChain(m_ledger);
+    Status conservation = Ok{};
+    if (chain && m_drop)
+        conservation = checkConservation(*m_drop, m_cleaned, m_ledger);
+    m_chainOk = chain.ok() && conservation.ok();
+    if (!chain)
+        m_chainStatus = QCoreApplication::translate("Workbench", "chain broken: %1")
+                            .arg(QString::fromStdString(chain.error().describe()));
+    else if (!conservation)
+        m_chainStatus = QCoreApplication::translate("Workbench", "totals do not reconcile: %1")
+                            .arg(QString::fromStdString(conservation.error().describe()));
+    else
+        m_chainStatus =
+            QCoreApplication::translate("Workbench", "chain verified · %1 entries · head %2")
+                .arg(m_ledger.entries.size())
+                .arg(QString::fromStdString(m_ledger.headHash().substr(0, 12)));
+}
+
+Result<Effect> Workbench::preview(const Decision& decision) const {
+    if (!m_drop)
+        return makeError(ErrorCode::Usage, "no drop is open");
+    return previewDecision(*m_drop, m_cleaned, decision);
+}
+
+Result<std::uint64_t> Workbench::apply(const Decision& decision, const QString& reason) {
+    if (!m_drop)
+        return makeError(ErrorCode::Usage, "no drop is open");
+    if (!m_ledgerWritable || m_ledgerPath.isEmpty())
+        return makeError(ErrorCode::Integrity,
+                         "the ledger is not open for writing: " + m_chainStatus.toStdString());
+    EntryMeta meta;
+    meta.reason = reason.trimmed().toStdString();
+    Result<LedgerEntry> entry = draftEntry(*m_drop, m_ledger, m_cleaned, decision, meta);
+    if (!entry)
+        return entry.error();
+    // The file first: an entry exists only once it is on disk.
+    if (Status appended = appendLedgerEntry(m_ledgerPath.toStdString(), *entry); !appended)
+        return appended.error();
+    if (Status applied = applyEntry(*m_drop, m_cleaned, *entry); !applied) {
+        // On disk but refused in memory: re-read so the window shows what the file says.
+        openLedger(m_ledgerPath);
+        return applied.error();
+    }
+    m_ledger.entries.push_back(*entry);
+    updateChainStatus();
+    Q_EMIT ledgerChanged();
+    return entry->sequence;
+}
+
+Result<std::uint64_t> Workbench::withdraw(std::uint64_t sequence, const QString& reason) {
+    Decision d;
+    d.kind = DecisionKind::Withdraw;
+    d.target = sequence;
+    return apply(d, reason);
+}
+
+void Workbench::setScanReport(std::shared_ptr<const scan::ScanReport> report) {
+    m_scan = std::move(report);
+    Q_EMIT findingsChanged();
+}
+
+const std::vector<scan::Finding>& Workbench::findings() const {
+    static const std::vector<scan::Finding> none;
+    return m_scan ? m_scan->findings : none;
+}
+
+const scan::Finding* Workbench::finding(const QString& id) const {
+    const std::string key = id.toStdString();
+    for (const scan::Finding& f : findings())
+        if (f.id == key)
+            return &f;
+    return nullptr;
+}
+
+bool Workbench::isDecided(const std::string& findingId) const {
+    for (const LedgerEntry& e : m_ledger.entries)
+        if (e.decision.finding == findingId && e.decision.kind != DecisionKind::Withdraw &&
+            m_cleaned.inEffect(e.sequence))
+            return true;
+    return false;
+}
+
+int Workbench::openFindings(const QString& regionCode) const {
+    const std::string code = regionCode.toStdString();
+    int open = 0;
+    for (const scan::Finding& f : findings())
+        if (f.region && *f.region == code && !isDecided(f.id))
+            ++open;
+    return open;
 }
 
 std::optional<double> Workbench::population(const QString& regionCode) const {
-    if (!m_register) return std::nullopt;
+    if (!m_register)
+        return std::nullopt;
     const RegionEntry* entry = m_register->find(regionCode.toStdString());
-    if (!entry || !entry->population) return std::nullopt;
+    if (!entry || !entry->population)
+        return std::nullopt;
     return static_cast<double>(*entry->population);
 }
 
@@ -54,14 +230,17 @@ Result<fit::FitResult> Workbench::fitRegion(const QString& regionCode, int measu
     const std::vector<double> counts = cleanedCounts(regionCode, measure);
     if (counts.empty())
         return makeError(ErrorCode::NotFound, "no such region or measure in the open drop");
-    return fit::fitSeries(fit::DailySeries{m_drop->firstDay, counts}, options, population(regionCode));
+    return fit::fitSeries(fit::DailySeries{m_drop->firstDay, counts}, options,
+                          population(regionCode));
 }
 
-std::vector<fit::ModelComparisonRow> Workbench::compareModels(const QString& regionCode, int measure,
-                                                              const fit::FitOptions& options) const {
+std::vector<fit::ModelComparisonRow> Workbench::compareModels(
+    const QString& regionCode, int measure, const fit::FitOptions& options) const {
     const std::vector<double> counts = cleanedCounts(regionCode, measure);
-    if (counts.empty()) return {};
-    return fit::compareModels(fit::DailySeries{m_drop->firstDay, counts}, options, population(regionCode));
+    if (counts.empty())
+        return {};
+    return fit::compareModels(fit::DailySeries{m_drop->firstDay, counts}, options,
+                              population(regionCode));
 }
 
 void Workbench::setDrop(std::shared_ptr<const Drop> drop,
@@ -69,6 +248,12 @@ void Workbench::setDrop(std::shared_ptr<const Drop> drop,
     m_drop = std::move(drop);
     m_register = std::move(regionRegister);
     m_previous.reset();  // it was the previous release of another drop
+    m_scan.reset();
+    m_ledger = Ledger{};
+    m_cleaned = m_drop ? Cleaned(*m_drop) : Cleaned{};
+    m_ledgerPath.clear();
+    m_ledgerWritable = false;
+    updateChainStatus();
     Q_EMIT dropChanged();
 }
 
@@ -85,6 +270,12 @@ void Workbench::close() {
     m_drop.reset();
     m_register.reset();
     m_previous.reset();
+    m_scan.reset();
+    m_ledger = Ledger{};
+    m_cleaned = Cleaned{};
+    m_ledgerPath.clear();
+    m_ledgerWritable = false;
+    updateChainStatus();
     Q_EMIT dropChanged();
 }
 

@@ -7,8 +7,12 @@
 
 #include "siftwave/drop.h"
 #include "siftwave/fit/fit.h"
-#include "siftwave/result.h"
+#include "siftwave/ledger/cleaned.h"
+#include "siftwave/ledger/decision.h"
+#include "siftwave/ledger/entry.h"
 #include "siftwave/region_register.h"
+#include "siftwave/result.h"
+#include "siftwave/scan/scan.h"
 #include "widgets/series_view.h"
 
 #include <QObject>
@@ -40,8 +44,8 @@ public:
     void setPreviousDrop(std::shared_ptr<const Drop> previous);
 
     /// Everything the plot shows for one region: raw, cleaned, smoothed (7-day centred
-    /// mean of the cleaned series), the previous release when one is open, and a second measure when `secondMeasure` >= 0.
-    /// An empty view when the drop has no such region or measure.
+    /// mean of the cleaned series), the previous release when one is open, and a second measure
+    /// when `secondMeasure` >= 0. An empty view when the drop has no such region or measure.
     SeriesView seriesView(const QString& regionCode, int measure, int secondMeasure = -1) const;
 
     /// The cleaned daily counts of a region (NaN where there is no value); empty when unknown.
@@ -49,7 +53,8 @@ public:
     /// The region's population from the register, when known.
     std::optional<double> population(const QString& regionCode) const;
     /// Fits one wave of the region's cleaned counts (fit::fitSeries).
-    Result<fit::FitResult> fitRegion(const QString& regionCode, int measure, const fit::FitOptions& options) const;
+    Result<fit::FitResult> fitRegion(const QString& regionCode, int measure,
+                                     const fit::FitOptions& options) const;
     /// The four models on the same window and method (fit::compareModels).
     std::vector<fit::ModelComparisonRow> compareModels(const QString& regionCode, int measure,
                                                        const fit::FitOptions& options) const;
@@ -59,7 +64,45 @@ public:
                  std::shared_ptr<const RegionRegister> regionRegister);
     void close();
 
+    // --- Ledger: the one door for changes -----------------------------------------------
+
+    /// Binds the ledger file for the open drop: reads it when it exists (and replays it),
+    /// else starts an empty one there. The error (broken chain, other drop) is returned and
+    /// the ledger is then read-only until another file is chosen.
+    Status openLedger(const QString& path);
+    QString ledgerPath() const { return m_ledgerPath; }
+    const Ledger& ledger() const { return m_ledger; }
+    const Cleaned& cleaned() const { return m_cleaned; }
+    /// "verified: N entries, head abc123…" or what is wrong; always current.
+    QString chainStatus() const { return m_chainStatus; }
+    bool chainOk() const { return m_chainOk; }
+
+    /// What a decision would do; nothing is recorded.
+    Result<Effect> preview(const Decision& decision) const;
+    /// Records a decision with its reason: drafts the entry, appends it to the ledger file
+    /// (fsynced), then applies it. Returns the entry's sequence number.
+    Result<std::uint64_t> apply(const Decision& decision, const QString& reason);
+    /// Undoes an entry by appending a withdrawal (history is never rewritten).
+    Result<std::uint64_t> withdraw(std::uint64_t sequence, const QString& reason);
+    /// Cleaned total of a region for one measure (the raw total before any decision).
+    std::optional<std::int64_t> cleanedTotal(const QString& regionCode, int measure) const;
+
+    // --- Findings ------------------------------------------------------------------------
+
+    void setScanReport(std::shared_ptr<const scan::ScanReport> report);
+    /// Findings of the last scan, ranked (empty before the scan finished).
+    const std::vector<scan::Finding>& findings() const;
+    const scan::Finding* finding(const QString& id) const;
+    /// True when an entry in effect names this finding.
+    bool isDecided(const std::string& findingId) const;
+    /// Findings of a region that no entry in effect answers.
+    int openFindings(const QString& regionCode) const;
+
 Q_SIGNALS:
+    /// An entry was appended (or the ledger was opened): cleaned data and totals moved.
+    void ledgerChanged();
+    /// A scan finished.
+    void findingsChanged();
     /// A different drop is open (or none): every view rebuilds.
     void dropChanged();
     /// A previous release was opened or closed.
@@ -69,6 +112,14 @@ private:
     std::shared_ptr<const Drop> m_drop;
     std::shared_ptr<const RegionRegister> m_register;
     std::shared_ptr<const Drop> m_previous;
+    Ledger m_ledger;
+    Cleaned m_cleaned;
+    QString m_ledgerPath;
+    bool m_ledgerWritable = false;
+    bool m_chainOk = true;
+    QString m_chainStatus;
+    std::shared_ptr<const scan::ScanReport> m_scan;
+    void updateChainStatus();
 };
 
 }  // namespace siftwave::widgets

@@ -64,9 +64,10 @@ int main(int argc, char** argv) {
     const QCommandLineOption finding(QStringLiteral("finding"),
                                      QStringLiteral("Focus on the finding with this id."),
                                      QStringLiteral("ID"));
-    const QCommandLineOption previous(QStringLiteral("previous"),
-                                      QStringLiteral("Also open the previous release FILE to compare against."),
-                                      QStringLiteral("FILE"));
+    const QCommandLineOption previous(
+        QStringLiteral("previous"),
+        QStringLiteral("Also open the previous release FILE to compare against."),
+        QStringLiteral("FILE"));
     parser.addOption(screenshot);
     parser.addOption(previous);
     parser.addOption(select);
@@ -99,7 +100,8 @@ int main(int argc, char** argv) {
     // (with --screenshot) render and exit. Each step runs when the one before reported back.
     int exitCode = 0;
     auto finish = [&](bool ok) {
-        if (!shooting) return;
+        if (!shooting)
+            return;
         // One more turn of the event loop so docks and the plot have their final sizes.
         QTimer::singleShot(0, &window, [&, ok] {
             exitCode = saveScreenshot(window, out) && ok ? 0 : 1;
@@ -118,18 +120,30 @@ int main(int argc, char** argv) {
         }
         finish(ok);
     };
-    QObject::connect(&window, &MainWindow::dropOpened, &window, [&](const QString&) {
-        if (previousPath.isEmpty()) {
-            selectAndFinish();
-            return;
-        }
-        QObject::connect(&window, &MainWindow::previousOpened, &window, [&](const QString&) { selectAndFinish(); },
-                         Qt::SingleShotConnection);
-        window.openPreviousRelease(previousPath);
-    }, Qt::SingleShotConnection);
-    QObject::connect(&window, &MainWindow::dropFailed, &window, [&](const QString&) { finish(false); });
+    // Findings are only there once the (last) scan has finished.
+    auto afterScan = [&] {
+        QObject::connect(
+            &window, &MainWindow::scanFinished, &window, [&] { selectAndFinish(); },
+            Qt::SingleShotConnection);
+    };
+    QObject::connect(
+        &window, &MainWindow::dropOpened, &window,
+        [&](const QString&) {
+            if (previousPath.isEmpty()) {
+                afterScan();
+                return;
+            }
+            QObject::connect(
+                &window, &MainWindow::previousOpened, &window, [&](const QString&) { afterScan(); },
+                Qt::SingleShotConnection);
+            window.openPreviousRelease(previousPath);
+        },
+        Qt::SingleShotConnection);
+    QObject::connect(&window, &MainWindow::dropFailed, &window,
+                     [&](const QString&) { finish(false); });
 
-    if (shooting) window.resize(1440, 900);
+    if (shooting)
+        window.resize(1440, 900);
     window.show();
     if (drop.isEmpty())
         finish(false);

@@ -2,9 +2,17 @@
 
 #include "settings.h"
 
+#include "decision_command.h"
 #include "widgets/background_task.h"
+#include "widgets/decision_pane.h"
 #include "widgets/drop_loading.h"
+#include "widgets/finding_model.h"
+#include "widgets/finding_review.h"
 #include "widgets/fit_pane.h"
+#include "widgets/ledger_view.h"
+
+#include "siftwave/scan/scan.h"
+#include "siftwave/scan/suggested_decision.h"
 #include "widgets/region_browser.h"
 #include "widgets/region_model.h"
 #include "widgets/series_plot.h"
@@ -14,11 +22,14 @@
 #include <QAction>
 #include <QApplication>
 #include <QCloseEvent>
+#include <QComboBox>
+#include <QDir>
 #include <QDockWidget>
 #include <QDragEnterEvent>
 #include <QDropEvent>
 #include <QFileDialog>
 #include <QFileInfo>
+#include <QInputDialog>
 #include <QKeySequence>
 #include <QLabel>
 #include <QLineEdit>
@@ -29,8 +40,10 @@
 #include <QMimeData>
 #include <QProgressBar>
 #include <QPushButton>
+#include <QStandardPaths>
 #include <QStatusBar>
 #include <QTextBrowser>
+#include <QUndoStack>
 
 #include <cstdio>
 
@@ -45,7 +58,13 @@ MainWindow::MainWindow(Options options, QWidget* parent)
       m_regionModel(new widgets::RegionModel(m_workbench, this)),
       m_browser(new widgets::RegionBrowser(m_regionModel)),
       m_plot(new widgets::SeriesPlot),
-      m_release(new QTextBrowser), m_fitPane(new widgets::FitPane),
+      m_release(new QTextBrowser),
+      m_fitPane(new widgets::FitPane),
+      m_findingModel(new widgets::FindingModel(m_workbench, this)),
+      m_findings(new widgets::FindingReview(m_findingModel)),
+      m_decisionPane(new widgets::DecisionPane),
+      m_ledgerView(new widgets::LedgerView(m_workbench)),
+      m_undo(new QUndoStack(this)),
       m_dropLabel(new QLabel),
       m_taskLabel(new QLabel),
       m_progress(new QProgressBar),
@@ -80,9 +99,32 @@ MainWindow::MainWindow(Options options, QWidget* parent)
             [this](int) { redrawSeries(); });
     connect(m_fitPane, &widgets::FitPane::optionsChanged, this, [this] { refit(true); });
     connect(m_plot, &widgets::SeriesPlot::windowChanging, this,
-            [this](widgets::DayIndexRange window) { onFitWindowDragged(window, false); });
+            [this](widgets::DayIndexRange window) { onWindowDragged(window, false); });
     connect(m_plot, &widgets::SeriesPlot::windowChanged, this,
-            [this](widgets::DayIndexRange window) { onFitWindowDragged(window, true); });
+            [this](widgets::DayIndexRange window) { onWindowDragged(window, true); });
+    connect(m_workbench, &widgets::Workbench::ledgerChanged, this, [this] {
+        if (!m_decisionPane->isActive())
+            redrawSeries();
+    });
+    connect(m_workbench, &widgets::Workbench::findingsChanged, this, [this] {
+        if (!m_decisionPane->isActive())
+            redrawSeries();
+    });
+    connect(m_findings, &widgets::FindingReview::findingSelected, this, [this](const QString& id) {
+        if (m_decisionPane->isActive())
+            return;  // finish or discard the decision first
+        if (const scan::Finding* f = m_workbench->finding(id))
+            focusPlotOn(*f);
+    });
+    connect(m_findings, &widgets::FindingReview::decideRequested, this,
+            [this](const QString& id) { decideFinding(id); });
+    connect(m_decisionPane, &widgets::DecisionPane::decisionEdited, this,
+            &MainWindow::previewDecision);
+    connect(m_decisionPane, &widgets::DecisionPane::applyRequested, this,
+            &MainWindow::applyCurrentDecision);
+    connect(m_decisionPane, &widgets::DecisionPane::cancelled, this, &MainWindow::endDecision);
+    connect(m_ledgerView, &widgets::LedgerView::withdrawRequested, this,
+            [this](std::uint64_t sequence) { withdrawEntry(sequence); });
     connect(m_workbench, &widgets::Workbench::previousChanged, this, [this] {
         redrawSeries();
         updateReleaseSummary();
@@ -117,6 +159,25 @@ void MainWindow::buildDocks() {
     fit->setWidget(m_fitPane);
     addDockWidget(Qt::RightDockWidgetArea, fit);
 
+    m_findings->setObjectName(QStringLiteral("findingReview"));
+    auto* findings = new QDockWidget(tr("Findings"), this);
+    findings->setObjectName(QStringLiteral("findingsDock"));
+    findings->setWidget(m_findings);
+    addDockWidget(Qt::LeftDockWidgetArea, findings);
+
+    m_decisionPane->setObjectName(QStringLiteral("decisionPane"));
+    auto* decision = new QDockWidget(tr("Decision"), this);
+    decision->setObjectName(QStringLiteral("decisionDock"));
+    decision->setWidget(m_decisionPane);
+    addDockWidget(Qt::RightDockWidgetArea, decision);
+
+    m_ledgerView->setObjectName(QStringLiteral("ledgerView"));
+    auto* ledger = new QDockWidget(tr("Ledger"), this);
+    ledger->setObjectName(QStringLiteral("ledgerDock"));
+    ledger->setWidget(m_ledgerView);
+    addDockWidget(Qt::BottomDockWidgetArea, ledger);
+    tabifyDockWidget(ledger, release);
+    ledger->raise();
 }
 
 void MainWindow::buildActions() {
@@ -124,18 +185,20 @@ void MainWindow::buildActions() {
     QAction* open = file->addAction(tr("&Open drop…"), this, &MainWindow::showOpenDialog);
     open->setShortcut(QKeySequence::Open);
     open->setObjectName(QStringLiteral("actionOpenDrop"));
-    QAction* previous = file->addAction(tr("Open &previous release…"), this, &MainWindow::showOpenPreviousDialog);
+    QAction* previous =
+        file->addAction(tr("Open &previous release…"), this, &MainWindow::showOpenPreviousDialog);
     previous->setObjectName(QStringLiteral("actionOpenPrevious"));
-    previous->setStatusTip(tr("Draw an earlier release of the same data over this one to see revisions"));
+    previous->setStatusTip(
+        tr("Draw an earlier release of the same data over this one to see revisions"));
     QAction* closePrevious = file->addAction(tr("Close previous release"), this,
                                              [this] { m_workbench->setPreviousDrop(nullptr); });
-    connect(m_workbench, &widgets::Workbench::dropChanged, this, [this, previous] {
-        previous->setEnabled(m_workbench->hasDrop());
-    });
+    connect(m_workbench, &widgets::Workbench::dropChanged, this,
+            [this, previous] { previous->setEnabled(m_workbench->hasDrop()); });
     connect(m_workbench, &widgets::Workbench::previousChanged, this, [this, closePrevious] {
         closePrevious->setEnabled(m_workbench->previousDrop() != nullptr);
     });
-    connect(m_workbench, &widgets::Workbench::dropChanged, closePrevious, [closePrevious] { closePrevious->setEnabled(false); });
+    connect(m_workbench, &widgets::Workbench::dropChanged, closePrevious,
+            [closePrevious] { closePrevious->setEnabled(false); });
     previous->setEnabled(false);
     closePrevious->setEnabled(false);
     m_recentMenu = file->addMenu(tr("Open &recent"));
@@ -146,6 +209,32 @@ void MainWindow::buildActions() {
     file->addSeparator();
     QAction* quit = file->addAction(tr("&Quit"), this, &QWidget::close);
     quit->setShortcut(QKeySequence::Quit);
+
+    QMenu* edit = menuBar()->addMenu(tr("&Edit"));
+    QAction* undo = m_undo->createUndoAction(this, tr("&Undo (appends a withdrawal)"));
+    undo->setShortcut(QKeySequence::Undo);
+    QAction* redo = m_undo->createRedoAction(this, tr("&Redo"));
+    redo->setShortcut(QKeySequence::Redo);
+    edit->addAction(undo);
+    edit->addAction(redo);
+
+    QMenu* review = menuBar()->addMenu(tr("&Review"));
+    QAction* next =
+        review->addAction(tr("&Next open finding"), this, [this] { m_findings->selectNextOpen(); });
+    next->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_J));
+    QAction* decide = review->addAction(tr("&Decide the selected finding"), this, [this] {
+        if (!m_findings->currentFinding().isEmpty())
+            decideFinding(m_findings->currentFinding());
+    });
+    decide->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_D));
+    QAction* apply =
+        review->addAction(tr("&Apply the decision"), this, [this] { applyCurrentDecision(); });
+    apply->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_Return));
+    QAction* discard = review->addAction(tr("D&iscard the decision"), this, [this] {
+        m_decisionPane->clear();
+        endDecision();
+    });
+    discard->setShortcut(QKeySequence(Qt::Key_Escape));
 
     QMenu* view = menuBar()->addMenu(tr("&View"));
     view->addAction(tr("&Reset plot view"), m_plot, &widgets::SeriesPlot::resetView);
@@ -211,6 +300,7 @@ void MainWindow::openPreviousRelease(const QString& path) {
                 return;
             }
             m_workbench->setPreviousDrop(loaded.drop);
+            startScan();
             Q_EMIT previousOpened(path);
         });
     setBusy(task);
@@ -252,7 +342,13 @@ void MainWindow::openDrop(const QString& path) {
                 Q_EMIT dropFailed(message);
                 return;
             }
+            m_undo->clear();
+            m_decisionPane->clear();
             m_workbench->setDrop(loaded.drop, loaded.regionRegister);
+            if (Status ledger = m_workbench->openLedger(ledgerPathFor(*loaded.drop)); !ledger)
+                showError(tr("The ledger of this drop cannot be used"),
+                          widgets::describeError(ledger.error()));
+            startScan();
             if (loaded.registerError)
                 showError(tr("The region register could not be read"),
                           widgets::describeError(*loaded.registerError) +
@@ -339,8 +435,180 @@ QString MainWindow::currentRegion() const {
 }
 
 bool MainWindow::focusFinding(const QString& id) {
-    Q_UNUSED(id);
-    return false;  // the findings arrive with the scan (see the finding review dock)
+    if (!m_findings->selectFinding(id))
+        return false;
+    if (const scan::Finding* f = m_workbench->finding(id))
+        focusPlotOn(*f);
+    return true;
+}
+
+QString MainWindow::ledgerPathFor(const Drop& drop) const {
+    QString folder = m_options.ledgerFolder;
+    if (folder.isEmpty())
+        folder = QStandardPaths::writableLocation(QStandardPaths::AppDataLocation) +
+                 QStringLiteral("/ledgers");
+    QDir().mkpath(folder);
+    return QDir(folder).filePath(QString::fromStdString(drop.source.sha256) +
+                                 QStringLiteral(".jsonl"));
+}
+
+void MainWindow::startScan() {
+    if (!m_workbench->hasDrop())
+        return;
+    if (m_scanTask)
+        m_scanTask->cancel();
+    // The scan reads shared, immutable drops; the workbench keeps them alive for the task.
+    auto drop = m_workbench->sharedDrop();
+    std::shared_ptr<const Drop> previous;
+    if (m_workbench->previousDrop())
+        previous = std::make_shared<const Drop>(*m_workbench->previousDrop());
+    std::shared_ptr<const RegionRegister> regions;
+    if (m_workbench->regionRegister())
+        regions = std::make_shared<const RegionRegister>(*m_workbench->regionRegister());
+    const std::string sha = drop->source.sha256;
+    m_scanTask = BackgroundTask::start(
+        this, tr("Scanning"),
+        [drop, previous, regions] {
+            scan::ScanContext context;
+            context.previous = previous.get();
+            context.regions = regions.get();
+            return std::make_shared<Result<scan::ScanReport>>(scan::scanDrop(*drop, {}, context));
+        },
+        [this, sha](const std::shared_ptr<Result<scan::ScanReport>>& report) {
+            if (!m_workbench->hasDrop() || m_workbench->drop().source.sha256 != sha)
+                return;
+            if (!*report) {
+                showError(tr("The scan failed"), widgets::describeError(report->error()));
+                Q_EMIT scanFinished();
+                return;
+            }
+            m_workbench->setScanReport(
+                std::make_shared<const scan::ScanReport>(std::move(*report).value()));
+            Q_EMIT scanFinished();
+        });
+    if (!m_task)
+        setBusy(m_scanTask);
+}
+
+void MainWindow::focusPlotOn(const scan::Finding& finding) {
+    if (finding.region && finding.region->c_str() != m_currentRegion.toStdString())
+        selectRegion(QString::fromStdString(*finding.region));
+    if (finding.measure) {
+        const auto measure = m_workbench->drop().measureIndex(*finding.measure);
+        if (measure && static_cast<int>(*measure) != m_plot->measure()) {
+            auto* box = m_plot->findChild<QComboBox*>(QStringLiteral("measureChoice"));
+            if (box)
+                box->setCurrentIndex(static_cast<int>(*measure));
+        }
+    }
+    if (finding.first && finding.last) {
+        const int first = *finding.first - m_workbench->drop().firstDay;
+        const int last = *finding.last - m_workbench->drop().firstDay;
+        m_plot->focusOn(widgets::DayIndexRange{first - 21, last + 21});
+    }
+}
+
+bool MainWindow::decideFinding(const QString& id) {
+    const scan::Finding* finding = m_workbench->finding(id);
+    if (!finding || !m_workbench->hasDrop())
+        return false;
+    const std::string measure =
+        m_workbench->drop().measures.at(static_cast<std::size_t>(m_plot->measure()));
+    Result<Decision> decision = scan::suggestedDecision(*finding, measure);
+    if (!decision) {
+        showError(tr("No decision to prepare"), widgets::describeError(decision.error()));
+        return false;
+    }
+    focusPlotOn(*finding);
+    m_decisionPane->setCalendar(m_workbench->drop().firstDay, m_workbench->drop().days);
+    m_decisionPane->begin(*decision,
+                          tr("<b>%1</b> for %2 — finding %3")
+                              .arg(QString::fromLatin1(decisionKindName(decision->kind)),
+                                   QString::fromStdString(decision->region), id),
+                          widgets::reasonDraftFor(*finding, *decision));
+    if (auto* dock = findChild<QDockWidget*>(QStringLiteral("decisionDock")))
+        dock->raise();
+    previewDecision();
+    return true;
+}
+
+void MainWindow::previewDecision() {
+    if (!m_decisionPane->isActive())
+        return;
+    const Decision decision = m_decisionPane->decision();
+    const Result<Effect> effect = m_workbench->preview(decision);
+    m_decisionPane->showPreview(effect);
+    // Draw the cells of the shown region and measure as they would be after.
+    std::vector<double> values;
+    if (effect) {
+        const widgets::SeriesView& view = m_plot->view();
+        values.assign(static_cast<std::size_t>(view.days),
+                      std::numeric_limits<double>::quiet_NaN());
+        for (const CellChange& c : effect->cells) {
+            if (QString::fromStdString(c.region) != view.regionCode ||
+                QString::fromStdString(c.measure) != view.measure)
+                continue;
+            const int day = c.date - view.firstDay;
+            if (day >= 0 && day < view.days)
+                values[static_cast<std::size_t>(day)] = static_cast<double>(c.after.counted());
+        }
+    }
+    m_plot->setPreview(values, tr("Preview: after the decision"));
+    if (const auto window = m_decisionPane->window())
+        m_plot->setEditableWindow(*window);
+}
+
+bool MainWindow::applyCurrentDecision() {
+    if (!m_decisionPane->isActive())
+        return false;
+    if (m_decisionPane->reason().isEmpty() || !m_decisionPane->previewOk())
+        return false;
+    const std::uint64_t before = m_workbench->ledger().entries.size();
+    bool failed = false;
+    m_undo->push(
+        new ApplyDecisionCommand(m_workbench, m_decisionPane->decision(), m_decisionPane->reason(),
+                                 [this, &failed](const QString& message) {
+                                     failed = true;
+                                     showError(tr("The ledger refused the decision"), message);
+                                 }));
+    if (failed || m_workbench->ledger().entries.size() == before)
+        return false;
+    m_decisionPane->clear();
+    endDecision();
+    return true;
+}
+
+bool MainWindow::withdrawEntry(std::uint64_t sequence, QString reason) {
+    if (reason.trimmed().isEmpty()) {
+        if (!m_options.dialogs)
+            return false;
+        bool ok = false;
+        reason = QInputDialog::getText(
+            this, tr("Withdraw entry %1").arg(sequence),
+            tr("Why is entry %1 withdrawn? (required, kept in the ledger)").arg(sequence),
+            QLineEdit::Normal, QString(), &ok);
+        if (!ok || reason.trimmed().isEmpty())
+            return false;
+    }
+    const Result<std::uint64_t> result = m_workbench->withdraw(sequence, reason);
+    if (!result) {
+        showError(tr("The entry cannot be withdrawn"), widgets::describeError(result.error()));
+        return false;
+    }
+    return true;
+}
+
+void MainWindow::endDecision() {
+    m_plot->setPreview({});
+    redrawSeries();
+}
+
+void MainWindow::onWindowDragged(widgets::DayIndexRange window, bool finished) {
+    if (m_decisionPane->isActive()) {
+        m_decisionPane->setWindow(window);  // previews through decisionEdited
+        return;
+    }
+    onFitWindowDragged(window, finished);
 }
 
 void MainWindow::onRegionSelected(const QString& code) {
@@ -374,7 +642,8 @@ void MainWindow::refit(bool compare) {
             chosen = fit::bestByAicc(rows);
         } else {
             for (const fit::ModelComparisonRow& row : rows)
-                if (row.model == options.model) chosen = &row;
+                if (row.model == options.model)
+                    chosen = &row;
         }
         if (chosen && chosen->fit)
             result.emplace(*chosen->fit);
@@ -382,7 +651,8 @@ void MainWindow::refit(bool compare) {
             result.emplace(makeError(ErrorCode::Numerical, chosen->error));
         else
             result.emplace(makeError(ErrorCode::Numerical, "no model converged on this window"));
-        if (!compare) rows.clear();
+        if (!compare)
+            rows.clear();
     } else {
         result.emplace(m_workbench->fitRegion(m_currentRegion, measure, options));
     }
@@ -391,7 +661,8 @@ void MainWindow::refit(bool compare) {
     if (result->ok()) {
         m_fit = result->value();
         m_plot->setFit(widgets::curveFromFit(*m_fit, view.days));
-        m_plot->setEditableWindow(widgets::DayIndexRange{m_fit->first, m_fit->last});
+        if (!m_decisionPane->isActive())
+            m_plot->setEditableWindow(widgets::DayIndexRange{m_fit->first, m_fit->last});
         m_fitPane->showWindow(widgets::DayIndexRange{m_fit->first, m_fit->last});
     } else {
         m_plot->setFit(std::nullopt);
@@ -404,7 +675,8 @@ void MainWindow::refit(bool compare) {
 
 void MainWindow::onFitWindowDragged(widgets::DayIndexRange window, bool finished) {
     m_fitPane->setManualWindow(window);
-    // While dragging: one model, no comparison, so the curve follows the hand; on release: everything.
+    // While dragging: one model, no comparison, so the curve follows the hand; on release:
+    // everything.
     refit(finished);
 }
 
@@ -452,10 +724,11 @@ void MainWindow::updateReleaseSummary() {
     if (const RegionRegister* reg = m_workbench->regionRegister())
         html += row(tr("Register"), text(reg->path));
     if (const Drop* previous = m_workbench->previousDrop())
-        html += row(tr("Previous release"), tr("%1 (%2 to %3)")
-                                                .arg(text(previous->source.path),
-                                                     QString::fromStdString(previous->firstDay.iso()),
-                                                     QString::fromStdString(previous->lastDay().iso())));
+        html += row(
+            tr("Previous release"),
+            tr("%1 (%2 to %3)")
+                .arg(text(previous->source.path), QString::fromStdString(previous->firstDay.iso()),
+                     QString::fromStdString(previous->lastDay().iso())));
     html += QStringLiteral("</table>");
     if (!drop.warnings.empty()) {
         html += tr("<p><b>%1 warning(s) from the reader</b></p><ul>").arg(drop.warnings.size());
@@ -478,7 +751,8 @@ void MainWindow::updateReleaseSummary() {
 
 void MainWindow::showEvent(QShowEvent* event) {
     QMainWindow::showEvent(event);
-    if (m_layoutRestored) return;
+    if (m_layoutRestored)
+        return;
     m_layoutRestored = true;
     // The first arrangement (docks only size properly once the window has its size).
     auto* regions = findChild<QDockWidget*>(QStringLiteral("regionsDock"));

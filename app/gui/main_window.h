@@ -5,6 +5,7 @@
 // or command line; recent files), and a progress area for background work.
 
 #include "siftwave/fit/fit.h"
+#include "siftwave/scan/finding.h"
 #include "widgets/background_task.h"
 #include "widgets/series_view.h"
 
@@ -20,7 +21,13 @@ class QProgressBar;
 class QPushButton;
 class QTextBrowser;
 
+class QUndoStack;
+
 namespace siftwave::widgets {
+class DecisionPane;
+class FindingModel;
+class FindingReview;
+class LedgerView;
 class FitPane;
 class RegionBrowser;
 class RegionModel;
@@ -37,6 +44,7 @@ public:
     struct Options {
         bool rememberLayout = true;  // restore and save geometry, dock state and recent files
         bool dialogs = true;         // false: errors go to stderr only (screenshots, scripts)
+        QString ledgerFolder;  // where each drop's ledger lives ("<sha256>.jsonl"); empty: app data
     };
 
     explicit MainWindow(Options options, QWidget* parent = nullptr);
@@ -61,6 +69,20 @@ public:
     widgets::RegionBrowser* regionBrowser() const { return m_browser; }
     widgets::SeriesPlot* seriesPlot() const { return m_plot; }
     widgets::FitPane* fitPane() const { return m_fitPane; }
+    widgets::FindingReview* findingReview() const { return m_findings; }
+    widgets::DecisionPane* decisionPane() const { return m_decisionPane; }
+    widgets::LedgerView* ledgerView() const { return m_ledgerView; }
+    QUndoStack* undoStack() const { return m_undo; }
+
+    /// Starts preparing the finding's suggested decision (region selected, plot focused,
+    /// preview drawn); false when the finding suggests none.
+    bool decideFinding(const QString& id);
+    /// Applies the decision in preparation through the undo stack; false when the ledger refused.
+    bool applyCurrentDecision();
+    /// Withdraws a ledger entry with a reason (asked for when empty and dialogs are on).
+    bool withdrawEntry(std::uint64_t sequence, QString reason = {});
+    /// The ledger file used for a drop.
+    QString ledgerPathFor(const Drop& drop) const;
     /// The fit shown for the current region (nullptr when there is none).
     const fit::FitResult* currentFit() const { return m_fit ? &*m_fit : nullptr; }
 
@@ -69,6 +91,8 @@ Q_SIGNALS:
     /// The message is the core's own, with file, line and column where known.
     void dropFailed(const QString& message);
     void previousOpened(const QString& path);
+    /// The scan of the open drop finished (findings are in the workbench).
+    void scanFinished();
 
 protected:
     void closeEvent(QCloseEvent* event) override;
@@ -92,6 +116,11 @@ private:
     /// Refits the current region; `compare` also runs the model comparison (slower).
     void refit(bool compare);
     void onFitWindowDragged(widgets::DayIndexRange window, bool finished);
+    void onWindowDragged(widgets::DayIndexRange window, bool finished);
+    void startScan();
+    void previewDecision();
+    void endDecision();
+    void focusPlotOn(const scan::Finding& finding);
 
     Options m_options;
     widgets::Workbench* m_workbench;
@@ -100,6 +129,12 @@ private:
     widgets::SeriesPlot* m_plot;
     QTextBrowser* m_release;
     widgets::FitPane* m_fitPane;
+    widgets::FindingModel* m_findingModel;
+    widgets::FindingReview* m_findings;
+    widgets::DecisionPane* m_decisionPane;
+    widgets::LedgerView* m_ledgerView;
+    QUndoStack* m_undo;
+    QPointer<widgets::BackgroundTask> m_scanTask;
     std::optional<fit::FitResult> m_fit;
     QMenu* m_recentMenu = nullptr;
     QLabel* m_dropLabel;

@@ -63,7 +63,8 @@ private Q_SLOTS:
         QElapsedTimer clock;
         clock.start();
         sendMouse(canvas, QEvent::MouseMove, (edge + target) / 2, Qt::LeftButton);
-        qInfo("one live refit while dragging: %lld ms", static_cast<long long>(clock.elapsed()));  // informative only
+        qInfo("one live refit while dragging: %lld ms",
+              static_cast<long long>(clock.elapsed()));  // informative only
         // Live: the fit already follows before the button is released.
         QVERIFY(window.currentFit());
         QVERIFY(window.currentFit()->last < last);

@@ -129,7 +129,8 @@ private Q_SLOTS:
         QCOMPARE(static_cast<int>(view.previous.size()), view.days);
         int revised = 0;
         for (int d = 0; d < view.days; ++d) {
-            if (std::isnan(view.previous[d]) || std::isnan(view.raw[d]) || view.previous[d] == view.raw[d])
+            if (std::isnan(view.previous[d]) || std::isnan(view.raw[d]) ||
+                view.previous[d] == view.raw[d])
                 continue;
             ++revised;
             QVERIFY(siftwave::widgets::hoverText(view, d).contains(QStringLiteral("revised by")));

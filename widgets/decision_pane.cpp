@@ -1,0 +1,244 @@
+#include "widgets/decision_pane.h"
+
+#include <QComboBox>
+#include <QCoreApplication>
+#include <QFormLayout>
+#include <QHBoxLayout>
+#include <QLabel>
+#include <QLineEdit>
+#include <QLocale>
+#include <QPushButton>
+#include <QSignalBlocker>
+#include <QVBoxLayout>
+
+namespace siftwave::widgets {
+
+namespace {
+QString count(std::int64_t value) {
+    return QLocale::c().toString(static_cast<qlonglong>(value));
+}
+}  // namespace
+
+DecisionPane::DecisionPane(QWidget* parent)
+    : QWidget(parent),
+      m_title(new QLabel(this)),
+      m_method(new QComboBox(this)),
+      m_windowLabel(new QLabel(this)),
+      m_preview(new QLabel(this)),
+      m_reason(new QLineEdit(this)),
+      m_apply(new QPushButton(tr("Apply"), this)),
+      m_cancel(new QPushButton(tr("Discard"), this)) {
+    m_title->setObjectName(QStringLiteral("decisionTitle"));
+    m_title->setWordWrap(true);
+    m_method->setObjectName(QStringLiteral("decisionMethod"));
+    m_preview->setObjectName(QStringLiteral("decisionPreview"));
+    m_preview->setWordWrap(true);
+    m_preview->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    m_reason->setObjectName(QStringLiteral("decisionReason"));
+    m_reason->setPlaceholderText(tr("Why: required, kept in the ledger"));
+    m_apply->setObjectName(QStringLiteral("applyDecision"));
+    m_apply->setToolTip(tr("Append this decision to the ledger (Ctrl+Return)"));
+    m_apply->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_Return));
+    m_cancel->setObjectName(QStringLiteral("discardDecision"));
+
+    auto* form = new QFormLayout;
+    form->addRow(tr("Method"), m_method);
+    form->addRow(tr("Window"), m_windowLabel);
+    form->addRow(tr("Reason"), m_reason);
+    auto* buttons = new QHBoxLayout;
+    buttons->addStretch(1);
+    buttons->addWidget(m_cancel);
+    buttons->addWidget(m_apply);
+    auto* layout = new QVBoxLayout(this);
+    layout->setContentsMargins(4, 4, 4, 4);
+    layout->addWidget(m_title);
+    layout->addLayout(form);
+    layout->addWidget(m_preview, 1);
+    layout->addLayout(buttons);
+
+    connect(m_method, &QComboBox::currentIndexChanged, this, [this] {
+        if (m_decision)
+            Q_EMIT decisionEdited();
+    });
+    connect(m_reason, &QLineEdit::textChanged, this, &DecisionPane::updateApply);
+    connect(m_apply, &QPushButton::clicked, this, [this] {
+        if (m_apply->isEnabled())
+            Q_EMIT applyRequested();
+    });
+    connect(m_cancel, &QPushButton::clicked, this, [this] {
+        clear();
+        Q_EMIT cancelled();
+    });
+    clear();
+}
+
+void DecisionPane::setCalendar(Date firstDay, int days) {
+    m_firstDay = firstDay;
+    m_days = days;
+}
+
+void DecisionPane::begin(const Decision& decision, const QString& title, const QString& reason) {
+    m_decision = decision;
+    m_title->setText(title);
+    const QSignalBlocker block(m_method);
+    m_method->clear();
+    switch (decision.kind) {
+        case DecisionKind::Redistribute:
+            for (RedistributeMethod m :
+                 {RedistributeMethod::Uniform, RedistributeMethod::Proportional,
+                  RedistributeMethod::Baseline})
+                m_method->addItem(QString::fromLatin1(redistributeMethodName(m)),
+                                  static_cast<int>(m));
+            m_method->setCurrentIndex(
+                m_method->findData(static_cast<int>(decision.redistributeMethod)));
+            break;
+        case DecisionKind::FillMissing:
+            for (FillMethod m : {FillMethod::Zero, FillMethod::Linear, FillMethod::Share})
+                m_method->addItem(QString::fromLatin1(fillMethodName(m)), static_cast<int>(m));
+            m_method->setCurrentIndex(m_method->findData(static_cast<int>(decision.fillMethod)));
+            break;
+        case DecisionKind::ResolveDuplicate:
+            for (DuplicateRule m : {DuplicateRule::First, DuplicateRule::Last, DuplicateRule::Sum,
+                                    DuplicateRule::Max})
+                m_method->addItem(QString::fromLatin1(duplicateRuleName(m)), static_cast<int>(m));
+            m_method->setCurrentIndex(m_method->findData(static_cast<int>(decision.duplicateRule)));
+            break;
+        default:
+            m_method->addItem(QString::fromLatin1(decisionKindName(decision.kind)), -1);
+            break;
+    }
+    m_method->setEnabled(m_method->count() > 1);
+    m_reason->setText(reason);
+    m_reason->setEnabled(true);
+    m_cancel->setEnabled(true);
+    m_windowLabel->setText(decision.window ? QString::fromStdString(decision.window->iso())
+                                                 .replace(QLatin1Char(':'), QStringLiteral(" … "))
+                                           : tr("(none)"));
+    m_previewOk = false;
+    updateApply();
+}
+
+void DecisionPane::clear() {
+    m_decision.reset();
+    m_title->setText(tr("<i>No decision in preparation. Pick a finding and press Decide.</i>"));
+    const QSignalBlocker block(m_method);
+    m_method->clear();
+    m_method->setEnabled(false);
+    m_windowLabel->clear();
+    m_preview->clear();
+    m_reason->clear();
+    m_reason->setEnabled(false);
+    m_cancel->setEnabled(false);
+    m_previewOk = false;
+    updateApply();
+}
+
+Decision DecisionPane::decision() const {
+    Decision d = m_decision.value_or(Decision{});
+    const int method = m_method->currentData().toInt();
+    if (method >= 0) {
+        if (d.kind == DecisionKind::Redistribute)
+            d.redistributeMethod = static_cast<RedistributeMethod>(method);
+        if (d.kind == DecisionKind::FillMissing)
+            d.fillMethod = static_cast<FillMethod>(method);
+        if (d.kind == DecisionKind::ResolveDuplicate)
+            d.duplicateRule = static_cast<DuplicateRule>(method);
+    }
+    return d;
+}
+
+std::optional<DayIndexRange> DecisionPane::window() const {
+    if (!m_decision || !m_decision->window)
+        return std::nullopt;
+    return DayIndexRange{m_decision->window->first - m_firstDay,
+                         m_decision->window->last - m_firstDay};
+}
+
+void DecisionPane::setWindow(DayIndexRange window) {
+    if (!m_decision || !m_decision->window)
+        return;
+    DayRange range{m_firstDay + window.first, m_firstDay + window.last};
+    // A redistribution spreads over days before the dump day; keep the window there.
+    if (m_decision->kind == DecisionKind::Redistribute && m_decision->date &&
+        range.last >= *m_decision->date)
+        range.last = *m_decision->date - 1;
+    if (range.last < range.first)
+        range.first = range.last;
+    m_decision->window = range;
+    m_windowLabel->setText(
+        QString::fromStdString(range.iso()).replace(QLatin1Char(':'), QStringLiteral(" … ")));
+    Q_EMIT decisionEdited();
+}
+
+void DecisionPane::showPreview(const Result<Effect>& effect) {
+    m_previewOk = effect.ok();
+    if (!effect) {
+        m_preview->setText(
+            tr("<b>The core refuses this:</b> %1")
+                .arg(QString::fromStdString(effect.error().message).toHtmlEscaped()));
+        updateApply();
+        return;
+    }
+    QString text = tr("Changes %n cell(s).", nullptr, static_cast<int>(effect->cells.size()));
+    for (const TotalChange& t : effect->totals) {
+        text +=
+            QStringLiteral("<br>") +
+            tr("%1 %2 total: %3 → %4 %5")
+                .arg(QString::fromStdString(t.region), QString::fromStdString(t.measure),
+                     count(t.before), count(t.after),
+                     t.change() == 0 ? tr("<b>(conserved)</b>")
+                                     : tr("<b>(%1%2)</b>")
+                                           .arg(t.change() > 0 ? QStringLiteral("+") : QString())
+                                           .arg(t.change()));
+    }
+    if (m_decision && m_decision->kind == DecisionKind::Redistribute)
+        text += QStringLiteral("<br>") + tr("Moves %1 counts off %2.")
+                                             .arg(count(m_decision->excess),
+                                                  QString::fromStdString(m_decision->date->iso()));
+    m_preview->setText(text);
+    updateApply();
+}
+
+QString DecisionPane::previewText() const {
+    return m_preview->text();
+}
+
+QString DecisionPane::reason() const {
+    return m_reason->text().trimmed();
+}
+
+void DecisionPane::setReason(const QString& reason) {
+    m_reason->setText(reason);
+}
+
+void DecisionPane::updateApply() {
+    const bool ready = m_decision && m_previewOk && !reason().isEmpty();
+    m_apply->setEnabled(ready);
+    m_apply->setToolTip(!m_decision    ? tr("Nothing to apply")
+                        : !m_previewOk ? tr("The preview must succeed first")
+                        : reason().isEmpty()
+                            ? tr("A reason is required")
+                            : tr("Append this decision to the ledger (Ctrl+Return)"));
+}
+
+QString reasonDraftFor(const scan::Finding& finding, const Decision& decision) {
+    QStringList evidence;
+    if (finding.evidence.is_object())
+        for (auto it = finding.evidence.begin(); it != finding.evidence.end(); ++it)
+            if (it->is_number() || it->is_string())
+                evidence << QStringLiteral("%1 %2").arg(
+                    QString::fromStdString(it.key()).replace(QLatin1Char('_'), QLatin1Char(' ')),
+                    QString::fromStdString(it->is_string() ? it->get<std::string>() : it->dump()));
+    QString where = QString::fromStdString(finding.region.value_or(std::string()));
+    if (finding.first)
+        where += QStringLiteral(" ") + QString::fromStdString(finding.first->iso());
+    return QCoreApplication::translate("DecisionPane", "%1 in %2 (finding %3): %4; %5 as suggested")
+        .arg(QString::fromLatin1(scan::findingKindName(finding.kind))
+                 .replace(QLatin1Char('_'), QLatin1Char(' ')),
+             where.trimmed(), QString::fromStdString(finding.id),
+             evidence.join(QStringLiteral(", ")),
+             QString::fromLatin1(decisionKindName(decision.kind))
+                 .replace(QLatin1Char('_'), QLatin1Char(' ')));
+}
+
+}  // namespace siftwave::widgets

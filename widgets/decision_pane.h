@@ -1,0 +1,82 @@
+#pragma once
+// DecisionPane: one decision being prepared, previewed, then applied.
+//
+// It starts from a finding's suggested decision (or a bar picked on the plot),
+// lets the analyst change the method and the window (also by dragging the
+// window's edges on the plot), shows what the core's preview says it would do
+// — the cells it changes and the region total before and after — and asks for
+// the reason, prefilled from the finding's evidence, editable and required.
+// Apply emits applyRequested(); the window applies through Workbench::apply().
+
+#include "siftwave/date.h"
+#include "siftwave/ledger/cleaned.h"
+#include "siftwave/ledger/decision.h"
+#include "siftwave/result.h"
+#include "siftwave/scan/finding.h"
+#include "widgets/series_view.h"
+
+#include <QWidget>
+
+#include <optional>
+
+class QComboBox;
+class QLabel;
+class QLineEdit;
+class QPushButton;
+
+namespace siftwave::widgets {
+
+class DecisionPane : public QWidget {
+    Q_OBJECT
+
+public:
+    explicit DecisionPane(QWidget* parent = nullptr);
+
+    /// The drop's calendar (for day indices on the plot).
+    void setCalendar(Date firstDay, int days);
+    /// Starts preparing `decision`; `reason` is the draft shown in the reason field.
+    void begin(const Decision& decision, const QString& title, const QString& reason);
+    void clear();
+    bool isActive() const { return m_decision.has_value(); }
+
+    /// The decision with the chosen method and window.
+    Decision decision() const;
+    /// The decision's window in day indices, when it has one.
+    std::optional<DayIndexRange> window() const;
+    void setWindow(DayIndexRange window);
+
+    /// Shows the core's preview (or why it refuses) for `region` and `measure`.
+    void showPreview(const Result<Effect>& effect);
+    /// The preview allows Apply (the core accepted it).
+    bool previewOk() const { return m_previewOk; }
+
+    QString reason() const;
+    void setReason(const QString& reason);
+    QString previewText() const;
+
+Q_SIGNALS:
+    /// The method or the window changed: preview again.
+    void decisionEdited();
+    void applyRequested();
+    void cancelled();
+
+private:
+    void updateApply();
+
+    std::optional<Decision> m_decision;
+    Date m_firstDay;
+    int m_days = 0;
+    bool m_previewOk = false;
+    QLabel* m_title;
+    QComboBox* m_method;
+    QLabel* m_windowLabel;
+    QLabel* m_preview;
+    QLineEdit* m_reason;
+    QPushButton* m_apply;
+    QPushButton* m_cancel;
+};
+
+/// A draft reason from a finding: what it is, where, and its evidence in numbers.
+QString reasonDraftFor(const scan::Finding& finding, const Decision& decision);
+
+}  // namespace siftwave::widgets

@@ -1,0 +1,181 @@
+#include "widgets/ledger_view.h"
+
+#include "widgets/workbench.h"
+
+#include "siftwave/ledger/replay.h"
+
+#include <QFileInfo>
+#include <QHBoxLayout>
+#include <QHeaderView>
+#include <QItemSelectionModel>
+#include <QLabel>
+#include <QLocale>
+#include <QPushButton>
+#include <QStyle>
+#include <QTableView>
+#include <QVBoxLayout>
+
+namespace siftwave::widgets {
+
+LedgerModel::LedgerModel(Workbench* workbench, QObject* parent)
+    : QAbstractTableModel(parent), m_workbench(workbench) {
+    auto reset = [this] {
+        beginResetModel();
+        endResetModel();
+    };
+    connect(m_workbench, &Workbench::dropChanged, this, reset);
+    connect(m_workbench, &Workbench::ledgerChanged, this, reset);
+}
+
+int LedgerModel::rowCount(const QModelIndex& parent) const {
+    return parent.isValid() ? 0 : static_cast<int>(m_workbench->ledger().entries.size());
+}
+
+int LedgerModel::columnCount(const QModelIndex& parent) const {
+    return parent.isValid() ? 0 : ColumnCount;
+}
+
+QVariant LedgerModel::data(const QModelIndex& index, int role) const {
+    const auto& entries = m_workbench->ledger().entries;
+    if (!index.isValid() || index.row() >= static_cast<int>(entries.size()))
+        return {};
+    const LedgerEntry& e = entries[index.row()];
+    const Decision& d = e.decision;
+    const bool inEffect = m_workbench->cleaned().inEffect(e.sequence);
+    if (role == SequenceRole)
+        return static_cast<qulonglong>(e.sequence);
+    if (role == Qt::ToolTipRole)
+        return tr("entry %1 · hash %2 · previous %3")
+            .arg(e.sequence)
+            .arg(QString::fromStdString(e.hash.substr(0, 16)),
+                 QString::fromStdString(e.previousHash.substr(0, 16)));
+    if (role != Qt::DisplayRole)
+        return {};
+    switch (index.column()) {
+        case SequenceColumn:
+            return static_cast<qulonglong>(e.sequence);
+        case TimeColumn:
+            return QString::fromStdString(e.timestamp);
+        case AuthorColumn:
+            return QString::fromStdString(e.author);
+        case KindColumn:
+            if (d.kind == DecisionKind::Withdraw)
+                return tr("withdraw #%1").arg(d.target);
+            return QString::fromLatin1(decisionKindName(d.kind))
+                .replace(QLatin1Char('_'), QLatin1Char(' '));
+        case WhereColumn: {
+            QString where = d.kind == DecisionKind::MergeCodes
+                                ? QStringLiteral("%1 → %2").arg(QString::fromStdString(d.variant),
+                                                                QString::fromStdString(d.into))
+                                : QString::fromStdString(d.region);
+            if (!d.measure.empty())
+                where += QStringLiteral(" ") + QString::fromStdString(d.measure);
+            if (d.date)
+                where += QStringLiteral(" ") + QString::fromStdString(d.date->iso());
+            else if (d.window)
+                where += QStringLiteral(" ") + QString::fromStdString(d.window->iso());
+            return where.trimmed();
+        }
+        case MovedColumn: {
+            // The totals the entry moved: "conserved" or the net change, and how many cells.
+            const std::int64_t net = e.effect.netChange();
+            const QString cells =
+                tr("%n cell(s)", nullptr, static_cast<int>(e.effect.cells.size()));
+            if (net == 0)
+                return tr("%1, totals kept").arg(cells);
+            return tr("%1, total %2%3")
+                .arg(cells, net > 0 ? QStringLiteral("+") : QString())
+                .arg(net);
+        }
+        case ReasonColumn:
+            return QString::fromStdString(e.reason);
+        case StateColumn:
+            return inEffect ? tr("in effect") : tr("withdrawn");
+    }
+    return {};
+}
+
+QVariant LedgerModel::headerData(int section, Qt::Orientation orientation, int role) const {
+    if (orientation != Qt::Horizontal || role != Qt::DisplayRole)
+        return {};
+    static const char* const names[] = {"#",     "Time (UTC)", "Author", "Decision",
+                                        "Where", "Moved",      "Reason", "State"};
+    return section >= 0 && section < ColumnCount ? tr(names[section]) : QVariant();
+}
+
+LedgerView::LedgerView(Workbench* workbench, QWidget* parent)
+    : QWidget(parent),
+      m_workbench(workbench),
+      m_model(new LedgerModel(workbench, this)),
+      m_status(new QLabel(this)),
+      m_view(new QTableView(this)),
+      m_withdraw(new QPushButton(tr("Withdraw…"), this)) {
+    m_status->setObjectName(QStringLiteral("chainStatusOk"));
+    m_status->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    m_view->setObjectName(QStringLiteral("ledgerTable"));
+    m_view->setModel(m_model);
+    m_view->setSelectionBehavior(QAbstractItemView::SelectRows);
+    m_view->setSelectionMode(QAbstractItemView::SingleSelection);
+    m_view->setEditTriggers(QAbstractItemView::NoEditTriggers);
+    m_view->verticalHeader()->hide();
+    m_view->verticalHeader()->setDefaultSectionSize(m_view->fontMetrics().height() + 6);
+    m_view->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+    m_view->horizontalHeader()->setSectionResizeMode(LedgerModel::ReasonColumn,
+                                                     QHeaderView::Stretch);
+    m_view->setAlternatingRowColors(true);
+    m_withdraw->setObjectName(QStringLiteral("withdrawEntry"));
+    m_withdraw->setToolTip(tr("Append a withdrawal of the selected entry (history is kept)"));
+
+    auto* top = new QHBoxLayout;
+    top->addWidget(m_status, 1);
+    top->addWidget(m_withdraw);
+    auto* layout = new QVBoxLayout(this);
+    layout->setContentsMargins(4, 4, 4, 4);
+    layout->addLayout(top);
+    layout->addWidget(m_view, 1);
+
+    connect(m_workbench, &Workbench::ledgerChanged, this, &LedgerView::updateStatus);
+    connect(m_workbench, &Workbench::dropChanged, this, &LedgerView::updateStatus);
+    connect(m_withdraw, &QPushButton::clicked, this, [this] {
+        if (const std::uint64_t sequence = currentEntry())
+            Q_EMIT withdrawRequested(sequence);
+    });
+    connect(m_model, &QAbstractItemModel::modelReset, this, [this] {
+        m_withdraw->setEnabled(false);
+        m_view->scrollToBottom();
+    });
+    connect(m_view->selectionModel(), &QItemSelectionModel::currentRowChanged, this, [this] {
+        const std::uint64_t sequence = currentEntry();
+        m_withdraw->setEnabled(sequence > 0 && m_workbench->cleaned().inEffect(sequence));
+    });
+    m_withdraw->setEnabled(false);
+    updateStatus();
+}
+
+void LedgerView::updateStatus() {
+    const bool ok = m_workbench->chainOk();
+    QString text = (ok ? QStringLiteral("✔ ") : QStringLiteral("✖ ")) + m_workbench->chainStatus();
+    if (!m_workbench->ledgerPath().isEmpty())
+        text += QStringLiteral(" · ") + QFileInfo(m_workbench->ledgerPath()).fileName();
+    m_status->setText(text);
+    m_status->setToolTip(m_workbench->ledgerPath());
+    m_status->setObjectName(ok ? QStringLiteral("chainStatusOk")
+                               : QStringLiteral("chainStatusBroken"));
+    m_status->style()->unpolish(m_status);
+    m_status->style()->polish(m_status);
+}
+
+std::uint64_t LedgerView::currentEntry() const {
+    const QModelIndex current = m_view->selectionModel()->currentIndex();
+    return current.isValid() ? current.data(LedgerModel::SequenceRole).toULongLong() : 0;
+}
+
+void LedgerView::selectEntry(std::uint64_t sequence) {
+    if (sequence == 0 || sequence > static_cast<std::uint64_t>(m_model->rowCount()))
+        return;
+    m_view->selectionModel()->setCurrentIndex(
+        m_model->index(static_cast<int>(sequence - 1), 0),
+        QItemSelectionModel::ClearAndSelect | QItemSelectionModel::Rows);
+}
+
+}  // namespace siftwave::widgets
