@@ -143,8 +143,12 @@ enum DerivedIndex {
     kDerivedCount
 };
 
+// `loadDay`: where the infectious load peaks. Empty: found by search (and returned); given: the
+// load is taken there. The delta method uses the latter, which is exact to first order (the
+// envelope theorem: at a maximum the derivative of the location does not enter).
 std::array<double, kDerivedCount> derive(const WaveModel& model, std::span<const double> p,
-                                         const FitOptions& o, double lastDataDay) {
+                                         const FitOptions& o, double lastDataDay,
+                                         double& loadDay, bool searchLoad) {
     std::array<double, kDerivedCount> d{};
     const double K = p[0];
     const double peak = model.peakTime(p);
@@ -162,8 +166,9 @@ std::array<double, kDerivedCount> derive(const WaveModel& model, std::span<const
     d[kDoubling] = growth > 0 ? std::numbers::ln2 / growth : kNaN;
     const double W = o.infectiousWindowDays;
     auto load = [&](double t) { return model.cumulative(t, p) - model.cumulative(t - W, p); };
-    const double at = goldenMaximum(load, peak - 1.0, peak + W + 1.0, 1e-6 * scale);
-    d[kLoad] = load(at);
+    if (searchLoad)
+        loadDay = goldenMaximum(load, peak - 1.0, peak + W + 1.0, 1e-4);
+    d[kLoad] = load(loadDay);
     return d;
 }
 
@@ -178,15 +183,27 @@ Estimate estimateFrom(double value, double se, double q) {
 
 double quantileFor(FitMethod method, int dof) {
     if (method == FitMethod::LeastSquares && dof > 0) {
+        thread_local std::vector<double> cache;  // by degrees of freedom (costly to compute)
+        if (dof < 4096) {
+            if (cache.size() <= static_cast<std::size_t>(dof))
+                cache.resize(static_cast<std::size_t>(dof) + 1, 0.0);
+            double& q = cache[static_cast<std::size_t>(dof)];
+            if (q == 0.0)
+                q = boost::math::quantile(boost::math::students_t(static_cast<double>(dof)), 0.975);
+            return q;
+        }
         return boost::math::quantile(boost::math::students_t(static_cast<double>(dof)), 0.975);
     }
     return boost::math::quantile(boost::math::normal(), 0.975);
 }
 
 // ---------------------------------------------------------------- window choice
-Result<std::pair<int, int>> chooseWindow(std::span<const double> counts, const FitOptions& o,
+Result<std::pair<int, int>> chooseWindow(std::span<const double> counts,
+                                         std::span<const double> smoothed, const FitOptions& o,
                                          std::vector<Wave>& waves) {
-    waves = detectWaves(counts, o.detection);
+    waves = o.detection.smoothingWindow == o.smoothingWindow
+                ? detectWavesInSmoothed(smoothed, o.detection)
+                : detectWaves(counts, o.detection);
     const int n = static_cast<int>(counts.size());
     if (o.window) {
         auto [a, b] = *o.window;
@@ -312,7 +329,10 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     res.method = o.method;
     res.seriesFirstDay = series.firstDay;
     res.options = o;
-    auto window = chooseWindow(counts, o, res.waves);
+    // The centred average (partial edges), shared by wave detection, the start and the target.
+    const std::vector<double> smoothedPartial =
+        series::centredMovingAverage(counts, std::max(o.smoothingWindow, 1));
+    auto window = chooseWindow(counts, smoothedPartial, o, res.waves);
     if (!window)
         return window.error();
     res.first = window->first;
@@ -329,9 +349,7 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     }
     const double lastDataDay = lastData - res.first;
 
-    // Starting values from the centred average over the window (partial edges).
-    const std::vector<double> smoothedPartial =
-        series::centredMovingAverage(counts, std::max(o.smoothingWindow, 1));
+    // Starting values from the centred average over the window.
     std::vector<double> tAll, yAll;
     for (int i = res.first; i <= res.last; ++i) {
         tAll.push_back(i - res.first);
@@ -348,11 +366,11 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     Matrix fullCov;
     int dof = 0;
     if (o.method == FitMethod::LeastSquares) {
-        const std::vector<double> target =
-            series::centredMovingAverage(counts, o.smoothingWindow, series::EdgeRule::Missing);
+        // Target: the centred average where its window lies inside the series.
+        const int half = o.smoothingWindow / 2;
         std::vector<double> t, y, w;
-        for (int i = res.first; i <= res.last; ++i) {
-            const double v = target[static_cast<std::size_t>(i)];
+        for (int i = std::max(res.first, half); i <= std::min(res.last, n - 1 - half); ++i) {
+            const double v = smoothedPartial[static_cast<std::size_t>(i)];
             if (!std::isfinite(v))
                 continue;
             t.push_back(i - res.first);
@@ -397,19 +415,21 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
                 }
             }
             Matrix meat = Matrix::Zero(np, np);
-            std::vector<double> tk(1);
-            std::vector<double> fk(1);
-            for (int k = kFirst; k <= kLast; ++k) {
-                if (k < 0 || k >= n)
-                    continue;
+            std::vector<double> fk(static_cast<std::size_t>(kLast - kFirst + 1));
+            model.incidenceOnDays(kFirst - res.first, params, fk);
+            for (int k = std::max(kFirst, 0); k <= std::min(kLast, n - 1); ++k) {
                 const double x = counts[static_cast<std::size_t>(k)];
                 if (!std::isfinite(x))
                     continue;
-                tk[0] = k - res.first;
-                model.incidence(tk, params, fk);
-                const double e = x - fk[0];
-                const Eigen::VectorXd g = G.row(k - kFirst).transpose();
-                meat += g * g.transpose() * (e * e);
+                const double e = x - fk[static_cast<std::size_t>(k - kFirst)];
+                for (int a = 0; a < np; ++a) {
+                    for (int b = 0; b <= a; ++b)
+                        meat(a, b) += G(k - kFirst, a) * G(k - kFirst, b) * e * e;
+                }
+            }
+            for (int a = 0; a < np; ++a) {
+                for (int b = a + 1; b < np; ++b)
+                    meat(a, b) = meat(b, a);
             }
             meat *= static_cast<double>(m) / std::max(1, m - np);  // HC1 small-sample factor
             const Eigen::Map<
@@ -488,7 +508,8 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
         denom > 0 ? res.goodness.aic + 2.0 * g.parameters * (g.parameters + 1) / denom : kNaN;
 
     // Derived quantities, delta method.
-    const auto d0 = derive(model, params, o, lastDataDay);
+    double loadDay = 0;
+    const auto d0 = derive(model, params, o, lastDataDay, loadDay, true);
     std::array<double, kDerivedCount> se;
     se.fill(kNaN);
     const bool haveCov = std::all_of(covariance.begin(), covariance.end(),
@@ -505,8 +526,8 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
                 grad.col(j).setConstant(kNaN);
                 continue;
             }
-            const auto du = derive(model, up, o, lastDataDay);
-            const auto dd = derive(model, down, o, lastDataDay);
+            const auto du = derive(model, up, o, lastDataDay, loadDay, false);
+            const auto dd = derive(model, down, o, lastDataDay, loadDay, false);
             for (int k = 0; k < kDerivedCount; ++k)
                 grad(k, j) = (du[k] - dd[k]) / (2 * step);
         }

@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <cstdlib>
 #include <limits>
 
 namespace siftwave::fit {
@@ -99,8 +100,8 @@ void fillCovariance(const Matrix& J, SolverResult& result) {
         if (!(scale[j] > 0))
             return;
     }
-    const Matrix Js = J * scale.cwiseInverse().asDiagonal();
-    Eigen::ColPivHouseholderQR<Matrix> qr(Js);
+    const Eigen::MatrixXd Js = J * scale.cwiseInverse().asDiagonal();  // column-major for QR
+    Eigen::ColPivHouseholderQR<Eigen::MatrixXd> qr(Js);
     qr.setThreshold(1e-14);
     if (qr.rank() < J.cols())
         return;
@@ -218,6 +219,8 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
     factorise();
 
     auto gradientSmall = [&]() {
+        if (options.gradientTolerance <= 0)
+            return false;
         const double rnorm = r.norm();
         if (rnorm == 0.0)
             return true;
@@ -264,6 +267,8 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
             if (predicted > 0)
                 rho = (cost - costNew) / predicted;
         }
+        if (std::getenv("LMTRACE"))
+            std::fprintf(stderr, "  it %d lambda %.2e cost %.10g -> %.10g rho %.3f\n", summary.iterations, lambda, cost, costNew, rho);
         if (rho > 0) {
             const double reduction = cost - costNew;
             x = xNew;
