@@ -43,9 +43,7 @@ public:
           m_kernel(std::move(kernel)),
           m_h(static_cast<int>(m_kernel.size()) / 2) {
         // Model days: every day from t_0 - h to t_last + h (the window spans `span` days).
-        const std::size_t days = static_cast<std::size_t>(span + 2 * m_h);
-        m_f.resize(days);
-        m_jf.resize(days * static_cast<std::size_t>(model.parameterCount()));
+        m_days = static_cast<std::size_t>(span + 2 * m_h);
     }
     int residualCount() const override { return static_cast<int>(m_t.size()); }
     int parameterCount() const override { return m_model.parameterCount(); }
@@ -54,19 +52,26 @@ public:
         if (!m_model.valid(p))
             return false;
         const bool withJacobian = !jac.empty();
-        m_model.incidenceOnDays(-m_h, p, m_f,
-                                withJacobian ? std::span<double>(m_jf) : std::span<double>{});
+        // Scratch per thread (see the solver): model values, Jacobian and prefix sums.
+        thread_local std::vector<double> fBuffer, jfBuffer, prefixBuffer;
+        fBuffer.resize(m_days);
+        jfBuffer.resize(m_days * p.size());
+        const std::span<double> f(fBuffer), jf(jfBuffer);
+        std::vector<double>& prefix = prefixBuffer;
+        m_model.incidenceOnDays(-m_h, p, f,
+                                withJacobian ? std::span<double>(jf) : std::span<double>{});
         const std::size_t np = p.size();
         const std::size_t cols = withJacobian ? np + 1 : 1;
         const bool uniform = m_kernel.size() % 2 == 1;
         if (uniform) {
             // Equal weights: window sums from prefix sums of the model and its Jacobian.
-            const std::size_t days = m_f.size();
-            m_prefix.assign((days + 1) * cols, 0.0);
+            const std::size_t days = f.size();
+            prefix.resize((days + 1) * cols);
+            std::fill_n(prefix.begin(), cols, 0.0);
             for (std::size_t d = 0; d < days; ++d) {
-                m_prefix[(d + 1) * cols] = m_prefix[d * cols] + m_f[d];
+                prefix[(d + 1) * cols] = prefix[d * cols] + f[d];
                 for (std::size_t j = 1; j < cols; ++j) {
-                    m_prefix[(d + 1) * cols + j] = m_prefix[d * cols + j] + m_jf[d * np + j - 1];
+                    prefix[(d + 1) * cols + j] = prefix[d * cols + j] + jf[d * np + j - 1];
                 }
             }
         }
@@ -77,9 +82,9 @@ public:
             if (uniform) {
                 const std::size_t lo = static_cast<std::size_t>(centre - m_h) * cols;
                 const std::size_t hi = static_cast<std::size_t>(centre + m_h + 1) * cols;
-                model = a * (m_prefix[hi] - m_prefix[lo]);
+                model = a * (prefix[hi] - prefix[lo]);
                 for (std::size_t j = 1; j < cols; ++j) {
-                    jac[i * np + j - 1] = m_w[i] * a * (m_prefix[hi + j] - m_prefix[lo + j]);
+                    jac[i * np + j - 1] = m_w[i] * a * (prefix[hi + j] - prefix[lo + j]);
                 }
             } else {
                 if (withJacobian)
@@ -87,10 +92,10 @@ public:
                 for (int k = -m_h; k <= m_h; ++k) {
                     const double wk = m_kernel[static_cast<std::size_t>(k + m_h)];
                     const std::size_t d = static_cast<std::size_t>(centre + k);
-                    model += wk * m_f[d];
+                    model += wk * f[d];
                     if (withJacobian) {
                         for (std::size_t j = 0; j < np; ++j)
-                            jac[i * np + j] += wk * m_w[i] * m_jf[d * np + j];
+                            jac[i * np + j] += wk * m_w[i] * jf[d * np + j];
                     }
                 }
             }
@@ -103,7 +108,7 @@ private:
     const WaveModel& m_model;
     std::vector<double> m_t, m_y, m_w, m_kernel;
     int m_h;
-    mutable std::vector<double> m_f, m_jf, m_prefix;
+    std::size_t m_days = 0;
 };
 
 // ---------------------------------------------------------------- small numerical helpers
@@ -147,8 +152,8 @@ enum DerivedIndex {
 // load is taken there. The delta method uses the latter, which is exact to first order (the
 // envelope theorem: at a maximum the derivative of the location does not enter).
 std::array<double, kDerivedCount> derive(const WaveModel& model, std::span<const double> p,
-                                         const FitOptions& o, double lastDataDay,
-                                         double& loadDay, bool searchLoad) {
+                                         const FitOptions& o, double lastDataDay, double& loadDay,
+                                         bool searchLoad) {
     std::array<double, kDerivedCount> d{};
     const double K = p[0];
     const double peak = model.peakTime(p);

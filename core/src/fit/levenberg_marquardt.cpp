@@ -5,7 +5,6 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
-#include <cstdlib>
 #include <limits>
 
 namespace siftwave::fit {
@@ -180,8 +179,12 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
         return result;
     }
     Evaluator eval(problem, summary);
-    Vector r, rNew;
-    Matrix J;
+    // Working memory is kept per thread: a batch fit calls the solver thousands of times and
+    // fresh allocations of these sizes make the allocator return and re-fault pages each time.
+    thread_local Vector r, rNew;
+    thread_local Matrix J, JNew;
+    thread_local Eigen::MatrixXd
+        Jc;  // column-major copy: Householder QR runs down contiguous columns
     if (!eval.residualsAndJacobian(x, r, J)) {
         summary.termination = Termination::InvalidStart;
         summary.message = "the model cannot be evaluated at the starting point";
@@ -196,7 +199,6 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
     double lambda = options.initialDamping;
     double nu = 2.0;
     Vector xNew(n);
-    Matrix JNew;
     summary.termination = Termination::MaxIterations;
     bool haveTermination = false;
     // With an analytic Jacobian, a trial point is evaluated with its Jacobian at once (shared
@@ -209,10 +211,10 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
     Vector qtr(n);
     Matrix S(2 * n, n);
     Vector rhs(2 * n);
-    Eigen::MatrixXd Jc;  // column-major copy: Householder QR runs down contiguous columns
     auto factorise = [&]() {
         Jc = J;
-        Eigen::HouseholderQR<Eigen::Ref<Eigen::MatrixXd>> qr(Jc);
+        thread_local Eigen::HouseholderQR<Eigen::MatrixXd> qr;
+        qr.compute(Jc);
         R = qr.matrixQR().topRows(n).triangularView<Eigen::Upper>();
         qtr = (qr.householderQ().transpose() * r).head(n);
     };
@@ -267,8 +269,6 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
             if (predicted > 0)
                 rho = (cost - costNew) / predicted;
         }
-        if (std::getenv("LMTRACE"))
-            std::fprintf(stderr, "  it %d lambda %.2e cost %.10g -> %.10g rho %.3f\n", summary.iterations, lambda, cost, costNew, rho);
         if (rho > 0) {
             const double reduction = cost - costNew;
             x = xNew;
