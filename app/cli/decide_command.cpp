@@ -7,6 +7,7 @@
 #include "siftwave/ledger/decision.h"
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/replay.h"
+#include "siftwave/scan/backlog.h"
 
 #include <cstdio>
 #include <cstdlib>
@@ -316,7 +317,8 @@ int runDecide(int argc, char** argv, int first) {
     Result<Decision> decision = decisionFrom(*args, *kind, *drop);
     if (!decision)
         return usageError(decision.error().message, json, usageText());
-    if (*kind == DecisionKind::Redistribute && args->value("excess") == "auto") {
+    const bool autoExcess = *kind == DecisionKind::Redistribute && args->value("excess") == "auto";
+    if (autoExcess) {
         if (Status s = resolveAutoExcess(*drop, *decision, args->has("window")); !s) {
             printError(s.error(), json);
             return s.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
@@ -367,11 +369,17 @@ int runDecide(int argc, char** argv, int first) {
         return kExitBadInput;
     }
     if (json) {
-        printJson({{"ledger", ledgerPath}, {"entry", entryToJsonObject(*entry)}});
+        nlohmann::json out = {{"ledger", ledgerPath}, {"entry", entryToJsonObject(*entry)}};
+        if (autoExcess)
+            out["excess_from"] = "scan backlog estimate";
+        printJson(out);
     } else {
         std::printf("entry %llu recorded in %s: %s by %s\n",
                     static_cast<unsigned long long>(entry->sequence), ledgerPath.c_str(),
                     decisionKindName(*kind), entry->author.c_str());
+        if (autoExcess)
+            std::printf("  excess %lld and window %s from the scan's backlog estimate\n",
+                        static_cast<long long>(decision->excess), decision->window->iso().c_str());
         printEffectText(entry->effect);
     }
     return kExitOk;
@@ -380,13 +388,29 @@ int runDecide(int argc, char** argv, int first) {
 namespace {
 
 Status resolveAutoExcess(const Drop& drop, Decision& d, bool windowGiven) {
-    (void)drop;
-    (void)d;
-    (void)windowGiven;
-    return makeError(
-        ErrorCode::Usage,
-        "--excess auto needs the scan's backlog estimate, which this build does not have yet; give "
-        "--excess N");
+    if (d.region.empty() || d.measure.empty() || !d.date)
+        return makeError(ErrorCode::Usage, "--excess auto needs --region, --measure and --date");
+    Result<scan::BacklogEstimate> estimate =
+        scan::estimateBacklog(drop, d.measure, d.region, *d.date);
+    if (!estimate) {
+        Error e = estimate.error();
+        e.message = "the scan cannot estimate an excess for this day: " + e.message;
+        return e;
+    }
+    if (estimate->excess <= 0) {
+        Error e = makeError(ErrorCode::InvalidValue,
+                            "the scan estimates no excess for this day (observed " +
+                                std::to_string(estimate->observed) + ", expected about " +
+                                std::to_string(static_cast<long long>(estimate->expected + 0.5)) +
+                                "); give --excess N to move counts anyway");
+        e.region = d.region;
+        e.date = d.date->iso();
+        return e;
+    }
+    d.excess = estimate->excess;
+    if (!windowGiven)
+        d.window = DayRange{estimate->windowFirst, estimate->windowLast};
+    return Ok{};
 }
 
 }  // namespace

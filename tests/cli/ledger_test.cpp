@@ -1,4 +1,7 @@
 // End-to-end: siftwave-cli decide, apply and ledger on a small drop written here.
+#include "siftwave/ingest/ingest.h"
+#include "siftwave/scan/backlog.h"
+
 #include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
 
@@ -174,7 +177,8 @@ TEST_F(LedgerCli, EveryKindCanBeRecordedAndWithdrawn) {
         cli(base + "accept --region N7 --days 2026-03-01:2026-03-04 --reason 'looked fine'").code,
         0);
     EXPECT_EQ(cli(base + "withdraw --entry 5 --reason 'they are real after all'").code, 0);
-    CliRun dup = cli(base + "resolve_duplicate --region N7 --date 2026-03-01 --keep max --reason x");
+    CliRun dup =
+        cli(base + "resolve_duplicate --region N7 --date 2026-03-01 --keep max --reason x");
     EXPECT_EQ(dup.code, 1) << "no duplicate rows in this drop";
     CliRun v = cli("ledger " + L() + " --verify --drop " + D() + " --json");
     ASSERT_EQ(v.code, 0) << v.out << v.err;
@@ -251,6 +255,30 @@ TEST_F(LedgerCli, ReportsInHtmlAndCsvAndAWrongExtensionIsAUsageError) {
         << slurp(dir / "a.csv");
     EXPECT_EQ(cli("ledger " + L() + " --report " + quote((dir / "a.txt").string())).code, 2);
     EXPECT_FALSE(fs::exists(dir / "a.txt"));
+}
+
+// --excess auto takes the scan's own estimate (scan/backlog.h) for the day and, without
+// --window, the window it suggests. The bundled sample's manifest plants a catch-up in
+// region 1304 on 2026-04-27 after a reporting gap of 2026-04-22..26 (problem P08).
+TEST_F(LedgerCli, ExcessAutoTakesTheScansBacklogEstimateAndSuggestedWindow) {
+    const std::string sample = std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_current.csv";
+    CliRun d = cli("decide " + L() + " --drop " + quote(sample) +
+                   " redistribute --region 1304 --measure cases --date 2026-04-27 --excess auto"
+                   " --method uniform --reason 'catch-up after the gap' --json");
+    ASSERT_EQ(d.code, 0) << d.out << d.err;
+    const auto j = nlohmann::json::parse(d.out);
+    const auto& p = j.at("entry").at("parameters");
+    auto drop = siftwave::readDrop(sample);
+    ASSERT_TRUE(drop.ok());
+    auto estimate = siftwave::scan::estimateBacklog(*drop, "cases", "1304",
+                                                    *siftwave::Date::fromIso("2026-04-27"));
+    ASSERT_TRUE(estimate.ok());
+    EXPECT_EQ(p.at("excess"), estimate->excess);
+    EXPECT_EQ(p.at("window").at("first"), "2026-04-22");  // the planted gap (manifest P08)
+    EXPECT_EQ(p.at("window").at("last"), "2026-04-26");
+    EXPECT_EQ(j.at("excess_from"), "scan backlog estimate");
+    const auto& t = j.at("entry").at("totals").at(0);
+    EXPECT_EQ(t.at("before"), t.at("after"));
 }
 
 TEST_F(LedgerCli, UsageErrorsExitTwoAndHelpListsEveryKind) {
