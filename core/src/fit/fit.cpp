@@ -8,6 +8,7 @@
 #include <boost/math/distributions/students_t.hpp>
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <cstdio>
 #include <limits>
@@ -53,40 +54,37 @@ public:
             return false;
         const bool withJacobian = !jac.empty();
         // Scratch per thread (see the solver): model values, Jacobian and prefix sums.
-        thread_local std::vector<double> fBuffer, jfBuffer, prefixBuffer;
+        thread_local std::vector<double> fBuffer, jfBuffer;
         fBuffer.resize(m_days);
         jfBuffer.resize(m_days * p.size());
         const std::span<double> f(fBuffer), jf(jfBuffer);
-        std::vector<double>& prefix = prefixBuffer;
         m_model.incidenceOnDays(-m_h, p, f,
                                 withJacobian ? std::span<double>(jf) : std::span<double>{});
         const std::size_t np = p.size();
         const std::size_t cols = withJacobian ? np + 1 : 1;
         const bool uniform = m_kernel.size() % 2 == 1;
         if (uniform) {
-            // Equal weights: window sums from prefix sums of the model and its Jacobian.
-            const std::size_t days = f.size();
-            prefix.resize((days + 1) * cols);
-            std::fill_n(prefix.begin(), cols, 0.0);
-            for (std::size_t d = 0; d < days; ++d) {
-                prefix[(d + 1) * cols] = prefix[d * cols] + f[d];
-                for (std::size_t j = 1; j < cols; ++j) {
-                    prefix[(d + 1) * cols + j] = prefix[d * cols + j] + jf[d * np + j - 1];
-                }
+            // Equal weights: sliding window sums of the model and its Jacobian columns.
+            switch (cols) {
+                case 1:
+                    slidingSums<1>(f, jf, r, jac);
+                    break;
+                case 4:
+                    slidingSums<4>(f, jf, r, jac);
+                    break;
+                case 5:
+                    slidingSums<5>(f, jf, r, jac);
+                    break;
+                default:
+                    slidingSums<0>(f, jf, r, jac);
+                    break;
             }
+            return true;
         }
-        const double a = 1.0 / static_cast<double>(m_kernel.size());
         for (std::size_t i = 0; i < m_t.size(); ++i) {
             const int centre = static_cast<int>(m_t[i]) + m_h;  // index into the model days
             double model = 0;
-            if (uniform) {
-                const std::size_t lo = static_cast<std::size_t>(centre - m_h) * cols;
-                const std::size_t hi = static_cast<std::size_t>(centre + m_h + 1) * cols;
-                model = a * (prefix[hi] - prefix[lo]);
-                for (std::size_t j = 1; j < cols; ++j) {
-                    jac[i * np + j - 1] = m_w[i] * a * (prefix[hi + j] - prefix[lo + j]);
-                }
-            } else {
+            {
                 if (withJacobian)
                     std::fill_n(&jac[i * np], np, 0.0);
                 for (int k = -m_h; k <= m_h; ++k) {
@@ -105,6 +103,45 @@ public:
     }
 
 private:
+    // Residuals (and weighted Jacobian rows) from window sums over the model days, kept as a
+    // running sum of the columns (f, df/dp...). Cols = 1 + parameters when the Jacobian is
+    // wanted, 1 without; 0 means "any" (run-time count). Re-summed from scratch every 64 target
+    // days so rounding cannot drift.
+    template <int Cols>
+    void slidingSums(std::span<const double> f, std::span<const double> jf, std::span<double> r,
+                     std::span<double> jac) const {
+        const std::size_t cols = Cols > 0 ? static_cast<std::size_t>(Cols)
+                                          : (jac.empty() ? 1 : 1 + jf.size() / f.size());
+        const std::size_t np = cols - 1;
+        const double a = 1.0 / static_cast<double>(m_kernel.size());
+        std::array<double, 8> sum{};
+        auto column = [&](std::size_t d, std::size_t j) {
+            return j == 0 ? f[d] : jf[d * np + j - 1];
+        };
+        std::size_t lo = 0, hi = 0;  // the sums cover model days [lo, hi)
+        for (std::size_t i = 0; i < m_t.size(); ++i) {
+            const std::size_t centre =
+                static_cast<std::size_t>(m_t[i]) + static_cast<std::size_t>(m_h);
+            const std::size_t first = centre - static_cast<std::size_t>(m_h);
+            const std::size_t end = centre + static_cast<std::size_t>(m_h) + 1;
+            if (i % 64 == 0 || first >= hi) {
+                sum.fill(0.0);
+                lo = hi = first;
+            }
+            for (; hi < end; ++hi) {
+                for (std::size_t j = 0; j < cols; ++j)
+                    sum[j] += column(hi, j);
+            }
+            for (; lo < first; ++lo) {
+                for (std::size_t j = 0; j < cols; ++j)
+                    sum[j] -= column(lo, j);
+            }
+            r[i] = m_w[i] * (a * sum[0] - m_y[i]);
+            for (std::size_t j = 1; j < cols; ++j)
+                jac[i * np + j - 1] = m_w[i] * a * sum[j];
+        }
+    }
+
     const WaveModel& m_model;
     std::vector<double> m_t, m_y, m_w, m_kernel;
     int m_h;
