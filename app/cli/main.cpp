@@ -16,6 +16,8 @@ struct Command {
 
 constexpr Command kCommands[] = {
     {"inspect", "read a data drop and report what was read", siftwave::cli::runInspect},
+    {"figure", "draw an annotated briefing figure (PNG, SVG, PDF; needs Qt)", siftwave::cli::runFigure},
+    {"report", "write the briefing report (PDF, HTML; needs Qt)", siftwave::cli::runReport},
 };
 
 void printUsage(std::FILE* to) {
