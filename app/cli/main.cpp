@@ -16,6 +16,7 @@ struct Command {
 
 constexpr Command kCommands[] = {
     {"inspect", "read a data drop and report what was read", siftwave::cli::runInspect},
+    {"fit", "fit wave curves to one region or all, with 95% intervals", siftwave::cli::runFit},
     {"figure", "draw an annotated briefing figure (PNG, SVG, PDF; needs Qt)", siftwave::cli::runFigure},
     {"report", "write the briefing report (PDF, HTML; needs Qt)", siftwave::cli::runReport},
 };

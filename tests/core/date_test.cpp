@@ -17,7 +17,8 @@ TEST(Date, RoundTripsThroughIsoText) {
     for (int serial = -800000; serial <= 800000; serial += 997) {
         Date d{serial};
         auto back = Date::fromIso(d.iso());
-        if (d.year() < 1400 || d.year() > 9999) continue;
+        if (d.year() < 1400 || d.year() > 9999)
+            continue;
         ASSERT_TRUE(back) << d.iso();
         EXPECT_EQ(back->serial, serial);
     }

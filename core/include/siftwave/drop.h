@@ -16,6 +16,7 @@
 #include <string>
 #include <string_view>
 #include <unordered_map>
+#include <utility>
 #include <vector>
 
 namespace siftwave {
@@ -43,6 +44,8 @@ class CellTable {
 public:
     CellTable() = default;
     CellTable(std::size_t regions, std::size_t days) : m_days(days), m_cells(regions * days) {}
+    /// Adopts cells already laid out region by region; `cells.size()` must be a multiple of `days`.
+    CellTable(std::size_t days, std::vector<Cell> cells) : m_days(days), m_cells(std::move(cells)) {}
 
     std::size_t regions() const { return m_days == 0 ? 0 : m_cells.size() / m_days; }
     std::size_t days() const { return m_days; }

@@ -13,6 +13,7 @@ namespace {
 struct Line {
     double slope = 0;
     double intercept = 0;
+    double r2 = 0;
 };
 
 // Ordinary least-squares line through (x_i, y_i); nullopt with fewer than 3 points or no spread.
@@ -94,7 +95,8 @@ double bestSize(const WaveModel& model, const GuessData& d, std::vector<double> 
 
 // Points (t, transform(C/K)) for 0.02 < C/K < 0.98, fitted by a line.
 template <class Transform>
-std::optional<Line> linearised(const GuessData& d, double size, Transform transform, bool logTime) {
+std::optional<Line> linearisedAt(const GuessData& d, double size, Transform transform,
+                                 bool logTime) {
     std::vector<double> xs, ys;
     for (std::size_t i = 0; i < d.t.size(); ++i) {
         const double q = d.cumulative[i] / size;
@@ -107,6 +109,30 @@ std::optional<Line> linearised(const GuessData& d, double size, Transform transf
     if (!line || !(line->slope > 0))
         return std::nullopt;
     return line;
+}
+
+// The linearisation needs K, which the window may not show in full: try final sizes from
+// "the window holds the whole wave" to "the peak is at the share the model puts there" and
+// keep the one whose transformed cumulative is the straightest line (largest R^2).
+template <class Transform>
+std::optional<Line> linearised(const GuessData& d, double shareAtPeak, Transform transform,
+                               bool logTime) {
+    const double candidates[] = {d.total * 1.005,
+                                 d.total * 1.03,
+                                 d.total * 1.1,
+                                 d.total * 1.3,
+                                 d.total * 1.8,
+                                 d.total * 3.0,
+                                 d.cumulativeAtPeak / shareAtPeak};
+    std::optional<Line> best;
+    for (double size : candidates) {
+        if (!(size > d.total))
+            continue;
+        auto line = linearisedAt(d, size, transform, logTime);
+        if (line && (!best || line->r2 > best->r2))
+            best = line;
+    }
+    return best;
 }
 
 double firstSize(const GuessData& d, double shareAtPeak) {
@@ -159,7 +185,7 @@ public:
         const double size = firstSize(*d, std::exp(-1.0));
         std::vector<double> p{size, d->peakT, std::max(1.0, size / (std::numbers::e * d->peakY))};
         if (auto line = linearised(
-                *d, size, [](double q) { return -std::log(-std::log(q)); }, false)) {
+                *d, std::exp(-1.0), [](double q) { return -std::log(-std::log(q)); }, false)) {
             p[2] = 1.0 / line->slope;
             p[1] = -line->intercept * p[2];
         }
@@ -182,14 +208,17 @@ public:
         const double K = p[0], mu = p[1], s = p[2];
         for (std::size_t i = 0; i < t.size(); ++i) {
             const double z = (t[i] - mu) / s;
-            const double F = 1.0 / (1.0 + std::exp(-z));
-            const double f = K / s * F * (1.0 - F);
+            // F and 1 - F without cancellation on either side of mu.
+            const double e = std::exp(-std::abs(z));
+            const double F = z >= 0 ? 1.0 / (1.0 + e) : e / (1.0 + e);
+            const double G = z >= 0 ? e / (1.0 + e) : 1.0 / (1.0 + e);  // 1 - F
+            const double f = K / s * F * G;
             out[i] = f;
             if (!jac.empty()) {
                 double* row = &jac[3 * i];
                 row[0] = f / K;
-                row[1] = f * (2.0 * F - 1.0) / s;
-                row[2] = f * (z * (2.0 * F - 1.0) - 1.0) / s;
+                row[1] = f * (F - G) / s;
+                row[2] = f * (z * (F - G) - 1.0) / s;
             }
         }
     }
@@ -208,7 +237,7 @@ public:
         const double size = firstSize(*d, 0.5);
         std::vector<double> p{size, d->peakT, std::max(1.0, size / (4.0 * d->peakY))};
         if (auto line = linearised(
-                *d, size, [](double q) { return std::log(q / (1.0 - q)); }, false)) {
+                *d, 0.5, [](double q) { return std::log(q / (1.0 - q)); }, false)) {
             p[2] = 1.0 / line->slope;
             p[1] = -line->intercept * p[2];
         }
@@ -316,7 +345,7 @@ public:
             return std::nullopt;
         const double size = firstSize(*d, 0.45);
         std::vector<double> p{size, std::log(std::max(d->peakT, 0.0) + 2.0), 0.5};
-        if (auto line = linearised(*d, size, standardNormalQuantile, true)) {
+        if (auto line = linearised(*d, 0.45, standardNormalQuantile, true)) {
             p[2] = 1.0 / line->slope;
             p[1] = -line->intercept * p[2];
         }

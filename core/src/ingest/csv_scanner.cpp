@@ -1,6 +1,11 @@
 #include "ingest/csv_scanner.h"
 
+#include <algorithm>
 #include <cstring>
+
+#if defined(__SSE2__)
+#include <emmintrin.h>
+#endif
 
 namespace siftwave::detail {
 
@@ -18,6 +23,35 @@ CsvScanner::CsvScanner(std::string_view data, char delimiter, std::size_t start,
     m_special[static_cast<unsigned char>('"')] = true;
 }
 
+void CsvScanner::loadBlock(const char* base) {
+    m_blockBase = base;
+    std::uint64_t mask = 0;
+#if defined(__SSE2__)
+    if (base + 64 <= m_end) {
+        const __m128i delimiter = _mm_set1_epi8(m_delimiter);
+        const __m128i lf = _mm_set1_epi8('\n');
+        const __m128i cr = _mm_set1_epi8('\r');
+        const __m128i quote = _mm_set1_epi8('"');
+        for (int k = 0; k < 4; ++k) {
+            const __m128i v = _mm_loadu_si128(reinterpret_cast<const __m128i*>(base + 16 * k));
+            const __m128i hit =
+                _mm_or_si128(_mm_or_si128(_mm_cmpeq_epi8(v, delimiter), _mm_cmpeq_epi8(v, lf)),
+                             _mm_or_si128(_mm_cmpeq_epi8(v, cr), _mm_cmpeq_epi8(v, quote)));
+            mask |= static_cast<std::uint64_t>(static_cast<std::uint16_t>(_mm_movemask_epi8(hit)))
+                    << (16 * k);
+        }
+        m_blockMask = mask;
+        return;
+    }
+#endif
+    const std::size_t n = static_cast<std::size_t>(std::min<std::ptrdiff_t>(64, m_end - base));
+    for (std::size_t i = 0; i < n; ++i) {
+        if (m_special[static_cast<unsigned char>(base[i])])
+            mask |= std::uint64_t{1} << i;
+    }
+    m_blockMask = mask;
+}
+
 bool CsvScanner::fail(std::string message, std::uint64_t line, std::size_t column, const char* at) {
     m_failed = true;
     m_error.message = std::move(message);
@@ -31,7 +65,16 @@ bool CsvScanner::fail(std::string message, std::uint64_t line, std::size_t colum
 bool CsvScanner::next(CsvRecord& record) {
     if (m_failed || m_pos >= m_end)
         return false;
-    record.fields.clear();
+    // Fields are assigned over the previous record's slots: no allocation per record.
+    std::vector<CsvField>& fields = record.fields;
+    std::size_t count = 0;
+    auto put = [&](const char* data, std::size_t size, bool quoted) {
+        if (count == fields.size())
+            fields.emplace_back();
+        CsvField& f = fields[count++];
+        f.text = std::string_view(data, size);
+        f.quoted = quoted;
+    };
     record.line = m_line;
     record.offset = position();
     record.strayQuote = false;
@@ -41,7 +84,7 @@ bool CsvScanner::next(CsvRecord& record) {
     const char* p = m_pos;
     const char* const end = m_end;
     for (;;) {
-        const std::size_t fieldNumber = record.fields.size() + 1;
+        const std::size_t fieldNumber = count + 1;
         if (p < end && *p == '"') {
             // RFC 4180, section 2, rules 5-7: a quoted field; "" stands for one quote.
             const std::uint64_t openLine = m_line;
@@ -74,12 +117,10 @@ bool CsvScanner::next(CsvRecord& record) {
                 }
                 if (copied) {
                     m_scratch.append(segment, static_cast<std::size_t>(q - segment));
-                    m_pending.push_back(
-                        {record.fields.size(), scratchStart, m_scratch.size() - scratchStart});
-                    record.fields.push_back({std::string_view(), true});
+                    m_pending.push_back({count, scratchStart, m_scratch.size() - scratchStart});
+                    put(nullptr, 0, true);
                 } else {
-                    record.fields.push_back(
-                        {std::string_view(segment, static_cast<std::size_t>(q - segment)), true});
+                    put(segment, static_cast<std::size_t>(q - segment), true);
                 }
                 p = q + 1;
                 break;
@@ -94,8 +135,7 @@ bool CsvScanner::next(CsvRecord& record) {
         } else {
             const char* start = p;
             for (;;) {
-                while (p < end && !m_special[static_cast<unsigned char>(*p)])
-                    ++p;
+                p = findSpecial(p);
                 if (p < end && *p == '"') {
                     record.strayQuote = true;  // a quote inside an unquoted field is kept as data
                     ++p;
@@ -107,8 +147,7 @@ bool CsvScanner::next(CsvRecord& record) {
                 }
                 break;
             }
-            record.fields.push_back(
-                {std::string_view(start, static_cast<std::size_t>(p - start)), false});
+            put(start, static_cast<std::size_t>(p - start), false);
         }
         // After a field: delimiter, end of line, or end of data.
         if (p >= end)
@@ -116,7 +155,7 @@ bool CsvScanner::next(CsvRecord& record) {
         if (*p == m_delimiter) {
             ++p;
             if (p >= end) {  // a delimiter at the very end: one more, empty field
-                record.fields.push_back({std::string_view(p, 0), false});
+                put(p, 0, false);
                 break;
             }
             continue;
@@ -128,6 +167,7 @@ bool CsvScanner::next(CsvRecord& record) {
         ++m_line;
         break;
     }
+    fields.resize(count);
     for (const Pending& pending : m_pending) {
         record.fields[pending.field].text =
             std::string_view(m_scratch.data() + pending.offset, pending.length);

@@ -60,6 +60,24 @@ public:
     std::uint64_t line() const { return m_line; }
 
 private:
+    /// First byte at or after `p` that is the delimiter, LF, CR or '"' (m_end if none).
+    const char* findSpecial(const char* p) {
+        for (;;) {
+            if (p >= m_end)
+                return m_end;
+            const auto offset = static_cast<std::size_t>(p - m_blockBase);
+            if (p < m_blockBase || offset >= 64) {
+                loadBlock(m_begin + ((static_cast<std::size_t>(p - m_begin)) & ~std::size_t{63}));
+                continue;
+            }
+            const std::uint64_t bits = m_blockMask >> offset;
+            if (bits)
+                return p + __builtin_ctzll(bits);
+            p = m_blockBase + 64;
+        }
+    }
+    /// Computes the bit mask of special bytes in the 64 bytes at `base`.
+    void loadBlock(const char* base);
     bool fail(std::string message, std::uint64_t line, std::size_t column, const char* at);
 
     const char* m_begin;
@@ -68,6 +86,8 @@ private:
     char m_delimiter;
     std::uint64_t m_line;
     bool m_special[256];
+    const char* m_blockBase = nullptr;  // the 64-byte block whose special bytes m_blockMask marks
+    std::uint64_t m_blockMask = 0;
     std::string m_scratch;
     struct Pending {
         std::size_t field;

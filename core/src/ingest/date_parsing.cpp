@@ -24,8 +24,8 @@ DateShape dateShapeOf(std::string_view t) {
     if (t.size() == 10 && t[4] == '-' && t[7] == '-') {
         return splitDate(t, DateShape::Iso, a, b, c) ? DateShape::Iso : DateShape::None;
     }
-    if (t.size() == 8)
-        return splitDate(t, DateShape::Compact, a, b, c) ? DateShape::Compact : DateShape::None;
+    if (t.size() == 8 && splitDate(t, DateShape::Compact, a, b, c))
+        return DateShape::Compact;
     if (t.size() >= 8 && t.size() <= 10) {
         return splitDate(t, DateShape::Slash, a, b, c) ? DateShape::Slash : DateShape::None;
     }

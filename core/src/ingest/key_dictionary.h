@@ -22,17 +22,31 @@ struct TransparentStringHash {
     std::size_t operator()(std::string_view s) const { return std::hash<std::string_view>{}(s); }
 };
 
+/// Byte equality, inlined: keys are short, and a library call per row costs more than the compare.
+inline bool sameBytes(const std::string& a, std::string_view b) {
+    const std::size_t n = a.size();
+    if (n != b.size())
+        return false;
+    const char* x = a.data();
+    const char* y = b.data();
+    for (std::size_t i = 0; i < n; ++i) {
+        if (x[i] != y[i])
+            return false;
+    }
+    return true;
+}
+
 class KeyDictionary {
 public:
     static constexpr std::uint32_t kNone = UINT32_MAX;
 
     std::uint32_t find(std::string_view key) {
         const std::size_t n = m_keys.size();
-        if (m_last < n && m_keys[m_last] == key)
+        if (m_last < n && sameBytes(m_keys[m_last], key))
             return m_last;
-        if (m_last + 1 < n && m_keys[m_last + 1] == key)
+        if (m_last + 1 < n && sameBytes(m_keys[m_last + 1], key))
             return ++m_last;
-        if (n > 0 && m_keys[0] == key)
+        if (n > 0 && sameBytes(m_keys[0], key))
             return m_last = 0;
         auto it = m_index.find(key);
         if (it == m_index.end())

@@ -83,7 +83,8 @@ std::vector<ColumnProfile> profile(std::size_t columns, const std::vector<Sample
 bool isDateColumn(const ColumnProfile& p) {
     if (p.nonEmpty() == 0)
         return false;
-    if (p.date == p.nonEmpty())
+    // Most cells are dates: a stray text ("Total") is then reported where it is.
+    if (p.date * 2 > p.nonEmpty())
         return true;
     return p.allCompactDates && p.integer + p.leadingZero == p.nonEmpty();
 }
@@ -316,9 +317,23 @@ Result<RoleMapping> detectRoles(const std::vector<std::string>& names, bool head
         for (int c : others) {
             if (c == m.regionColumn || c == m.measureColumn)
                 continue;
-            if (isNumericColumn(profiles[static_cast<std::size_t>(c)]))
+            const bool countName =
+                header && nameHasAny(names[static_cast<std::size_t>(c)],
+                                     {"case", "death", "count", "value", "number", "total",
+                                      "confirmed", "hospital", "admission", "test", "positive"});
+            if (countName || isNumericColumn(profiles[static_cast<std::size_t>(c)]))
                 m.valueColumns.push_back(c);
         }
+    }
+    if (m.valueColumns.empty()) {
+        // One column left: it is the value column, whatever its cells hold (they are
+        // then reported as unparsable, cell by cell, rather than the column being dropped).
+        std::vector<int> rest;
+        for (int c : others)
+            if (c != m.regionColumn && c != m.measureColumn)
+                rest.push_back(c);
+        if (rest.size() == 1)
+            m.valueColumns = rest;
     }
     if (m.valueColumns.empty()) {
         return makeError(ErrorCode::Layout,

@@ -47,7 +47,7 @@ struct SolverOptions {
     double gradientTolerance =
         1e-14;                     // stop when max_j |J_j . r| / (|J_j| |r|) <= this (MINPACK gtol)
     double initialDamping = 1e-3;  // lambda_0 (dimensionless: the damping is lambda D)
-    int refinementSteps = 2;       // undamped Gauss-Newton steps after convergence (0: none)
+    int refinementSteps = 0;       // undamped Gauss-Newton steps after convergence (0: none)
 
     /// Usage error when a count or a tolerance is not positive.
     Status validate() const;

@@ -1,0 +1,489 @@
+// siftwave-cli fit FILE [--regions REG] (--region CODE | --all) [--measure NAME]
+//     [--model gumbel|logistic|richards|lognormal|best] [--method lsq|poisson|negbin]
+//     [--window FIRST:LAST|auto] [--wave largest|latest|N] [--json|--csv]
+#include "commands.h"
+#include "common.h"
+
+#include "siftwave/fit/batch.h"
+#include "siftwave/ledger/ledger_file.h"
+#include "siftwave/ledger/replay.h"
+#include "siftwave/series/daily.h"
+
+#include <cmath>
+#include <cstdio>
+#include <limits>
+#include <string>
+#include <vector>
+
+namespace siftwave::cli {
+namespace {
+
+using nlohmann::json;
+
+json number(double v) {
+    return std::isfinite(v) ? json(v) : json(nullptr);
+}
+
+json estimateJson(const fit::Estimate& e) {
+    return {{"value", number(e.value)},
+            {"se", number(e.se)},
+            {"ci95", json::array({number(e.lower), number(e.upper)})}};
+}
+
+json dateOrNull(const fit::FitResult& f, double day) {
+    return std::isfinite(day) ? json(f.dateOf(day).iso()) : json(nullptr);
+}
+
+json dateInterval(const fit::FitResult& f, const fit::Estimate& e) {
+    return json::array({dateOrNull(f, e.lower), dateOrNull(f, e.upper)});
+}
+
+json fitJson(const std::string& region, const fit::FitResult& f,
+             const std::vector<fit::ModelComparisonRow>& comparison) {
+    json j;
+    j["region"] = region;
+    j["model"] = fit::modelName(f.model);
+    j["method"] = fit::methodName(f.method);
+    j["window"] = {{"first", f.windowFirst().iso()}, {"last", f.windowLast().iso()}};
+    json params = json::object();
+    for (const auto& p : f.parameters)
+        params[p.name] = estimateJson(p.estimate);
+    j["parameters"] = params;
+    const auto& d = f.derived;
+    j["peak_date"] = dateOrNull(f, d.peakDay.value);
+    j["peak_incidence"] = number(d.peakIncidence.value);
+    j["wave_size"] = number(d.waveSize.value);
+    j["fraction_observed"] = number(d.fractionObserved.value);
+    j["start_date"] = dateOrNull(f, d.startDay.value);
+    j["end_date"] = dateOrNull(f, d.endDay.value);
+    j["fastest_growth_date"] = dateOrNull(f, d.fastestGrowthDay.value);
+    j["doubling_time_days"] = number(d.doublingTimeDays.value);
+    j["peak_infectious_load"] = number(d.peakInfectiousLoad.value);
+    j["peak_infectious_load_per_100k"] =
+        d.peakInfectiousLoadPer100k ? number(d.peakInfectiousLoadPer100k->value) : json(nullptr);
+    j["log10_infectious_share"] =
+        d.log10InfectiousShare ? number(d.log10InfectiousShare->value) : json(nullptr);
+    j["aic"] = number(f.goodness.aic);
+    j["aicc"] = number(f.goodness.aicc);
+    j["r2"] = number(f.goodness.r2);
+    j["rmse"] = number(f.goodness.rmse);
+    // Uncertainty of the derived quantities (delta method): values in days from the window
+    // start or in cases, dates for the date-valued ones.
+    j["uncertainty"] = {
+        {"peak_date_ci95", dateInterval(f, d.peakDay)},
+        {"peak_day", estimateJson(d.peakDay)},
+        {"peak_incidence", estimateJson(d.peakIncidence)},
+        {"wave_size", estimateJson(d.waveSize)},
+        {"fraction_observed", estimateJson(d.fractionObserved)},
+        {"start_date_ci95", dateInterval(f, d.startDay)},
+        {"end_date_ci95", dateInterval(f, d.endDay)},
+        {"doubling_time_days", estimateJson(d.doublingTimeDays)},
+        {"peak_infectious_load", estimateJson(d.peakInfectiousLoad)},
+    };
+    if (!f.weekdayFactors.empty())
+        j["weekday_factors"] = f.weekdayFactors;
+    if (f.dispersion)
+        j["dispersion"] = number(*f.dispersion);
+    j["infectious_window_days"] = f.options.infectiousWindowDays;
+    j["observations"] = f.goodness.observations;
+    j["summary"] = {{"converged", f.summary.converged()},
+                    {"termination", fit::terminationName(f.summary.termination)},
+                    {"iterations", f.summary.iterations},
+                    {"message", f.summary.message},
+                    {"notes", f.summary.notes},
+                    {"brief", f.summary.brief()}};
+    if (!comparison.empty()) {
+        json rows = json::array();
+        for (const auto& row : comparison) {
+            json r = {{"model", fit::modelName(row.model)}};
+            if (row.fit) {
+                r["aic"] = number(row.fit->goodness.aic);
+                r["aicc"] = number(row.fit->goodness.aicc);
+                r["r2"] = number(row.fit->goodness.r2);
+                r["rmse"] = number(row.fit->goodness.rmse);
+                r["converged"] = row.fit->summary.converged();
+                r["peak_date"] = dateOrNull(*row.fit, row.fit->derived.peakDay.value);
+            } else {
+                r["error"] = row.error;
+            }
+            rows.push_back(r);
+        }
+        j["comparison"] = rows;
+    }
+    j["caution"] = fit::caution;
+    return j;
+}
+
+// RFC 4180 field, neutralised for spreadsheets (= + - @ TAB at the start get a leading ').
+std::string csvField(const std::string& text) {
+    std::string v = text;
+    if (!v.empty() && (v[0] == '=' || v[0] == '+' || v[0] == '-' || v[0] == '@' || v[0] == '\t')) {
+        v = "'" + v;
+    }
+    if (v.find_first_of(",\"\r\n") == std::string::npos)
+        return v;
+    std::string out = "\"";
+    for (char c : v) {
+        if (c == '"')
+            out += '"';
+        out += c;
+    }
+    return out + "\"";
+}
+
+std::string csvNumber(double v) {
+    if (!std::isfinite(v))
+        return "";
+    char buf[64];
+    std::snprintf(buf, sizeof buf, "%.10g", v);
+    return buf;
+}
+
+const char* kCsvHeader =
+    "region,model,method,window_first,window_last,peak_date,peak_incidence,wave_size,"
+    "fraction_observed,start_date,end_date,fastest_growth_date,doubling_time_days,"
+    "peak_infectious_load,peak_infectious_load_per_100k,aic,aicc,r2,rmse,converged,parameters,"
+    "error";
+
+std::string csvRow(const fit::RegionFit& r) {
+    std::vector<std::string> c;
+    c.push_back(csvField(r.region));
+    if (!r.fit) {
+        for (int i = 0; i < 20; ++i)
+            c.emplace_back();
+        c.push_back(csvField(r.error ? r.error->message : "failed"));
+    } else {
+        const auto& f = *r.fit;
+        const auto& d = f.derived;
+        auto date = [&](double day) {
+            return std::isfinite(day) ? f.dateOf(day).iso() : std::string();
+        };
+        c.push_back(fit::modelName(f.model));
+        c.push_back(fit::methodName(f.method));
+        c.push_back(f.windowFirst().iso());
+        c.push_back(f.windowLast().iso());
+        c.push_back(date(d.peakDay.value));
+        c.push_back(csvNumber(d.peakIncidence.value));
+        c.push_back(csvNumber(d.waveSize.value));
+        c.push_back(csvNumber(d.fractionObserved.value));
+        c.push_back(date(d.startDay.value));
+        c.push_back(date(d.endDay.value));
+        c.push_back(date(d.fastestGrowthDay.value));
+        c.push_back(csvNumber(d.doublingTimeDays.value));
+        c.push_back(csvNumber(d.peakInfectiousLoad.value));
+        c.push_back(d.peakInfectiousLoadPer100k ? csvNumber(d.peakInfectiousLoadPer100k->value)
+                                                : "");
+        c.push_back(csvNumber(f.goodness.aic));
+        c.push_back(csvNumber(f.goodness.aicc));
+        c.push_back(csvNumber(f.goodness.r2));
+        c.push_back(csvNumber(f.goodness.rmse));
+        c.push_back(f.summary.converged() ? "true" : "false");
+        std::string params;
+        for (const auto& p : f.parameters) {
+            params += (params.empty() ? "" : ";") + p.name + "=" + csvNumber(p.estimate.value);
+        }
+        c.push_back(csvField(params));
+        c.emplace_back();
+    }
+    std::string line;
+    for (std::size_t i = 0; i < c.size(); ++i)
+        line += (i ? "," : "") + c[i];
+    return line;
+}
+
+void printText(const fit::RegionFit& r) {
+    if (!r.fit) {
+        std::printf("%s: fit failed: %s\n", r.region.c_str(),
+                    r.error ? r.error->message.c_str() : "");
+        return;
+    }
+    const auto& f = *r.fit;
+    const auto& d = f.derived;
+    auto date = [&](double day) {
+        return std::isfinite(day) ? f.dateOf(day).iso() : std::string("-");
+    };
+    std::printf("%s: %s by %s, window %s .. %s (%d days)\n", r.region.c_str(),
+                fit::modelName(f.model), fit::methodName(f.method), f.windowFirst().iso().c_str(),
+                f.windowLast().iso().c_str(), f.last - f.first + 1);
+    for (const auto& p : f.parameters) {
+        std::printf("  %-6s %12.4g  se %10.3g  95%% [%.4g, %.4g]\n", p.name.c_str(),
+                    p.estimate.value, p.estimate.se, p.estimate.lower, p.estimate.upper);
+    }
+    std::printf("  peak            %s (95%% %s .. %s), %.1f cases/day\n",
+                date(d.peakDay.value).c_str(), date(d.peakDay.lower).c_str(),
+                date(d.peakDay.upper).c_str(), d.peakIncidence.value);
+    std::printf("  wave size K     %.0f (95%% %.0f .. %.0f), %.1f%% observed\n", d.waveSize.value,
+                d.waveSize.lower, d.waveSize.upper, 100.0 * d.fractionObserved.value);
+    std::printf("  start .. end    %s .. %s\n", date(d.startDay.value).c_str(),
+                date(d.endDay.value).c_str());
+    std::printf("  fastest growth  %s, early doubling time %.1f days\n",
+                date(d.fastestGrowthDay.value).c_str(), d.doublingTimeDays.value);
+    std::printf("  infectious load %.0f (%d-day window)", d.peakInfectiousLoad.value,
+                f.options.infectiousWindowDays);
+    if (d.peakInfectiousLoadPer100k) {
+        std::printf(", %.1f per 100,000, log10 share %.2f", d.peakInfectiousLoadPer100k->value,
+                    d.log10InfectiousShare->value);
+    }
+    std::printf("\n  fit             R2 %.4f, RMSE %.3g, AIC %.1f, AICc %.1f; %s\n", f.goodness.r2,
+                f.goodness.rmse, f.goodness.aic, f.goodness.aicc, f.summary.brief().c_str());
+    for (const auto& row : r.comparison) {
+        if (row.fit) {
+            std::printf("    %-10s AICc %10.1f  R2 %.4f%s\n", fit::modelName(row.model),
+                        row.fit->goodness.aicc, row.fit->goodness.r2,
+                        row.fit->summary.converged() ? "" : "  (not converged)");
+        } else {
+            std::printf("    %-10s failed: %s\n", fit::modelName(row.model), row.error.c_str());
+        }
+    }
+}
+
+Result<std::pair<int, int>> parseWindow(const std::string& text, const Drop& drop) {
+    const auto colon = text.find(':');
+    auto bad = [&]() {
+        return makeError(
+            ErrorCode::Usage,
+            "--window wants FIRST:LAST as ISO dates (YYYY-MM-DD:YYYY-MM-DD) or auto, not '" + text +
+                "'");
+    };
+    if (colon == std::string::npos)
+        return bad();
+    auto a = Date::fromIso(text.substr(0, colon));
+    auto b = Date::fromIso(text.substr(colon + 1));
+    if (!a || !b || *b < *a)
+        return bad();
+    auto ia = drop.dayIndex(*a), ib = drop.dayIndex(*b);
+    if (!ia || !ib) {
+        return makeError(ErrorCode::Usage, "--window " + text +
+                                               " lies outside the drop's calendar " +
+                                               drop.firstDay.iso() + " .. " + drop.lastDay().iso());
+    }
+    return std::pair{*ia, *ib};
+}
+
+void printUsage(std::FILE* to, const std::vector<FlagSpec>& specs) {
+    std::fprintf(to,
+                 "usage: siftwave-cli fit FILE (--region CODE | --all) [options] [--json|--csv]\n\n"
+                 "Fits a wave model to each region's daily counts and reports the peak, the wave\n"
+                 "size, how much of it is observed, start and end, growth, and the peak\n"
+                 "infectious load, with 95%% intervals. Exit codes: 0 fitted (with --all, regions\n"
+                 "that fail are reported in the output), 1 bad input or the region failed, 2 wrong "
+                 "usage.\n\n"
+                 "%s\n\noptions:\n%s",
+                 fit::caution, formatFlags(specs).c_str());
+}
+
+}  // namespace
+
+int runFit(int argc, char** argv, int first) {
+    std::vector<FlagSpec> specs = ingestFlagSpecs();
+    specs.push_back(
+        {"ledger", true, false, "L", "fit the cleaned series: replay this ledger over the drop"});
+    specs.push_back(
+        {"regions", true, false, "REG", "region register (populations for per-100k figures)"});
+    specs.push_back(
+        {"region", true, false, "CODE", "fit this region (code as written in the drop)"});
+    specs.push_back({"all", false, false, "", "fit every region (in parallel)"});
+    specs.push_back({"measure", true, false, "NAME", "measure to fit (default: the first)"});
+    specs.push_back(
+        {"model", true, false, "NAME", "gumbel (default), logistic, richards, lognormal, best"});
+    specs.push_back(
+        {"method", true, false, "NAME", "lsq (default, 7-day centred average), poisson, negbin"});
+    specs.push_back(
+        {"window", true, false, "FIRST:LAST", "fit window as ISO dates, or auto (default)"});
+    specs.push_back({"wave", true, false, "WHICH",
+                     "automatic window: largest (default), latest or N (1-based)"});
+    specs.push_back({"weekday", false, false, "", "poisson/negbin: estimate weekday factors"});
+    specs.push_back({"json", false, false, "", "print JSON"});
+    specs.push_back({"csv", false, false, "", "print CSV (RFC 4180), one row per region"});
+    specs.push_back({"help", false, false, "", "show this help"});
+    bool wantsJson = false;
+    for (int i = first; i < argc; ++i) {
+        const std::string a = argv[i];
+        if (a == "--help" || a == "-h") {
+            printUsage(stdout, specs);
+            return kExitOk;
+        }
+        if (a == "--json")
+            wantsJson = true;
+    }
+    std::string parseError;
+    std::optional<ParsedArgs> args = parseArgs(argc, argv, first, specs, parseError);
+    auto usage = [&](const std::string& message) {
+        printError(makeError(ErrorCode::Usage, message), wantsJson);
+        if (!wantsJson)
+            printUsage(stderr, specs);
+        return kExitUsage;
+    };
+    if (!args)
+        return usage(parseError);
+    const bool json = args->has("json");
+    const bool csv = args->has("csv");
+    if (json && csv)
+        return usage("--json and --csv exclude each other");
+    if (args->positional.size() != 1)
+        return usage("fit needs exactly one FILE");
+    if (args->has("region") == args->has("all"))
+        return usage("give either --region CODE or --all");
+
+    fit::BatchOptions batch;
+    if (auto m = args->optionalValue("model")) {
+        if (*m == "best") {
+            batch.bestModel = true;
+        } else if (auto k = fit::modelFromName(*m)) {
+            batch.fit.model = *k;
+        } else {
+            return usage("unknown --model '" + *m +
+                         "' (gumbel, logistic, richards, lognormal, best)");
+        }
+    }
+    if (auto m = args->optionalValue("method")) {
+        auto k = fit::methodFromName(*m);
+        if (!k)
+            return usage("unknown --method '" + *m + "' (lsq, poisson, negbin)");
+        batch.fit.method = *k;
+    }
+    batch.fit.weekdayFactors = args->has("weekday");
+    if (auto w = args->optionalValue("wave")) {
+        if (*w == "largest") {
+            batch.fit.wave = fit::WaveChoice::Largest;
+        } else if (*w == "latest") {
+            batch.fit.wave = fit::WaveChoice::Latest;
+        } else {
+            char* end = nullptr;
+            const long n = std::strtol(w->c_str(), &end, 10);
+            if (w->empty() || *end != '\0' || n < 1)
+                return usage("--wave wants largest, latest or a number from 1");
+            batch.fit.wave = fit::WaveChoice::Index;
+            batch.fit.waveIndex = static_cast<int>(n - 1);
+        }
+    }
+    if (auto s = batch.validate(); !s) {
+        printError(s.error(), json);
+        return kExitUsage;
+    }
+
+    Result<Drop> drop = loadDrop(args->positional[0], *args);
+    if (!drop) {
+        printError(drop.error(), json);
+        return drop.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+    }
+    std::optional<RegionRegister> reg;
+    if (auto path = args->optionalValue("regions")) {
+        auto r = readRegister(*path);
+        if (!r) {
+            printError(r.error(), json);
+            return kExitBadInput;
+        }
+        reg = std::move(r.value());
+    }
+    std::size_t measure = 0;
+    if (auto m = args->optionalValue("measure")) {
+        auto idx = drop->measureIndex(*m);
+        if (!idx) {
+            Error e = makeError(ErrorCode::NotFound, "the drop has no measure '" + *m + "'");
+            e.file = drop->source.path;
+            printError(e, json);
+            return kExitBadInput;
+        }
+        measure = *idx;
+    }
+    if (drop->measures.empty() || drop->days == 0) {
+        printError(makeError(ErrorCode::NotFound, "the drop holds no counts to fit"), json);
+        return kExitBadInput;
+    }
+    if (auto w = args->optionalValue("window"); w && *w != "auto") {
+        auto win = parseWindow(*w, *drop);
+        if (!win) {
+            printError(win.error(), json);
+            return kExitUsage;
+        }
+        batch.fit.window = *win;
+    }
+
+    std::vector<std::size_t> indices;
+    if (auto code = args->optionalValue("region")) {
+        auto idx = drop->regionIndex(*code);
+        if (!idx) {
+            Error e = makeError(ErrorCode::NotFound, "the drop has no region '" + *code + "'");
+            e.file = drop->source.path;
+            e.region = *code;
+            printError(e, json);
+            return kExitBadInput;
+        }
+        indices.push_back(*idx);
+    } else {
+        for (std::size_t i = 0; i < drop->regionCodes.size(); ++i)
+            indices.push_back(i);
+    }
+    std::optional<Cleaned> cleaned;
+    if (auto path = args->optionalValue("ledger")) {
+        auto ledger = readLedgerFile(*path);
+        if (!ledger) {
+            printError(ledger.error(), json);
+            return kExitBadInput;
+        }
+        auto replayed = replay(*drop, *ledger);
+        if (!replayed) {
+            printError(replayed.error(), json);
+            return kExitBadInput;
+        }
+        cleaned = std::move(replayed.value());
+    }
+    std::vector<std::vector<double>> counts(indices.size());
+    std::vector<fit::RegionSeries> regions(indices.size());
+    for (std::size_t k = 0; k < indices.size(); ++k) {
+        if (cleaned) {
+            const auto cells = cleaned->series(measure, indices[k]);
+            counts[k].assign(cells.size(), std::numeric_limits<double>::quiet_NaN());
+            for (std::size_t d = 0; d < cells.size(); ++d) {
+                if (cells[d].hasValue())
+                    counts[k][d] = static_cast<double>(cells[d].value);
+            }
+        } else {
+            counts[k] = series::countsOf(*drop, measure, indices[k]);
+        }
+        const std::string& code = drop->regionCodes[indices[k]];
+        std::optional<double> population;
+        if (reg) {
+            if (const RegionEntry* e = reg->find(code); e && e->population) {
+                population = static_cast<double>(*e->population);
+            }
+        }
+        regions[k] = {code, {drop->firstDay, counts[k]}, population};
+    }
+    const auto results = fit::fitRegions(regions, batch);
+
+    const bool single = args->has("region");
+    if (single && !results[0].fit) {
+        printError(*results[0].error, json);
+        return kExitBadInput;
+    }
+    if (json) {
+        if (single) {
+            printJson(fitJson(results[0].region, *results[0].fit, results[0].comparison));
+        } else {
+            nlohmann::json all = nlohmann::json::array();
+            for (const auto& r : results) {
+                if (r.fit) {
+                    all.push_back(fitJson(r.region, *r.fit, r.comparison));
+                } else {
+                    nlohmann::json e = {{"region", r.region}, {"error", errorToJson(*r.error)}};
+                    all.push_back(e);
+                }
+            }
+            printJson(all);
+        }
+    } else if (csv) {
+        std::printf("%s\n", kCsvHeader);
+        for (const auto& r : results)
+            std::printf("%s\n", csvRow(r).c_str());
+        std::fprintf(stderr, "siftwave-cli: %s\n", fit::caution);
+    } else {
+        for (const auto& r : results)
+            printText(r);
+        std::printf("\nCaution: %s\n", fit::caution);
+    }
+    return kExitOk;
+}
+
+}  // namespace siftwave::cli

@@ -1,0 +1,84 @@
+#include "siftwave/fit/batch.h"
+
+#include <atomic>
+#include <exception>
+#include <thread>
+
+namespace siftwave::fit {
+namespace {
+
+RegionFit fitOne(const RegionSeries& region, const BatchOptions& options) {
+    RegionFit out;
+    out.region = region.region;
+    try {
+        if (options.bestModel) {
+            out.comparison = compareModels(region.series, options.fit, region.population);
+            if (const ModelComparisonRow* best = bestByAicc(out.comparison)) {
+                out.fit = *best->fit;
+            } else {
+                Error e = makeError(ErrorCode::Numerical, "no model converged for this region");
+                for (const auto& row : out.comparison) {
+                    if (!row.error.empty()) {
+                        e.message = std::string(modelName(row.model)) + ": " + row.error;
+                        break;
+                    }
+                }
+                out.error = e;
+            }
+        } else {
+            auto r = fitSeries(region.series, options.fit, region.population);
+            if (r) {
+                out.fit = std::move(r.value());
+            } else {
+                out.error = r.error();
+            }
+        }
+    } catch (const std::exception& e) {  // e.g. std::bad_alloc: this region only
+        out.error = makeError(ErrorCode::Numerical, std::string("fit aborted: ") + e.what());
+    }
+    if (out.error)
+        out.error->region = region.region;
+    return out;
+}
+
+}  // namespace
+
+Status BatchOptions::validate() const {
+    if (threads < 0)
+        return makeError(ErrorCode::Usage, "threads must be 0 (one per core) or more");
+    return fit.validate();
+}
+
+std::vector<RegionFit> fitRegions(std::span<const RegionSeries> regions,
+                                  const BatchOptions& options) {
+    std::vector<RegionFit> results(regions.size());
+    if (auto s = options.validate(); !s) {
+        for (std::size_t i = 0; i < regions.size(); ++i) {
+            results[i].region = regions[i].region;
+            results[i].error = s.error();
+        }
+        return results;
+    }
+    unsigned threads = options.threads > 0 ? static_cast<unsigned>(options.threads)
+                                           : std::max(1u, std::thread::hardware_concurrency());
+    threads = std::min<unsigned>(threads,
+                                 static_cast<unsigned>(std::max<std::size_t>(regions.size(), 1)));
+    std::atomic<std::size_t> next{0};
+    auto work = [&]() {
+        for (std::size_t i = next.fetch_add(1); i < regions.size(); i = next.fetch_add(1)) {
+            results[i] = fitOne(regions[i], options);
+        }
+    };
+    if (threads <= 1) {
+        work();
+        return results;
+    }
+    std::vector<std::thread> pool;
+    for (unsigned t = 0; t < threads; ++t)
+        pool.emplace_back(work);
+    for (auto& th : pool)
+        th.join();
+    return results;
+}
+
+}  // namespace siftwave::fit

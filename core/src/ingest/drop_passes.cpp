@@ -1,0 +1,687 @@
+// The passes over a drop's records (see drop_reader.h).
+#include "ingest/drop_reader.h"
+
+#include <sys/mman.h>
+
+#include <algorithm>
+#include <cctype>
+#include <limits>
+#include <new>
+#include <set>
+
+namespace siftwave::detail {
+namespace {
+
+constexpr std::size_t kCheckAhead = std::size_t{1} << 20;
+constexpr std::size_t kTailBytes = std::size_t{64} << 10;
+constexpr double kMaxCells = 1.5e9;
+
+/// Asks for huge pages on the reserved part of `cells` (a hint). Rows usually come
+/// date by date, so consecutive writes land a region's length apart; huge pages keep
+/// those writes from missing the TLB each time.
+void adviseHugePages(const std::vector<Cell>& cells) {
+#ifdef MADV_HUGEPAGE
+    constexpr std::uintptr_t kHuge = std::uintptr_t{2} << 20;
+    const auto begin = reinterpret_cast<std::uintptr_t>(cells.data());
+    const std::uintptr_t end = begin + cells.capacity() * sizeof(Cell);
+    const std::uintptr_t alignedBegin = (begin + kHuge - 1) & ~(kHuge - 1);
+    if (end > alignedBegin + kHuge) {
+        madvise(reinterpret_cast<void*>(alignedBegin), ((end - alignedBegin) / kHuge) * kHuge,
+                MADV_HUGEPAGE);
+    }
+#else
+    (void)cells;
+#endif
+}
+
+/// Reserves room for `capacity` cells and makes the first `size` of them (Absent).
+bool makeCells(std::vector<Cell>& cells, std::size_t capacity, std::size_t size) {
+    try {
+        cells.reserve(capacity);
+        adviseHugePages(cells);
+        cells.resize(size);
+        return true;
+    } catch (const std::bad_alloc&) {
+        cells = {};
+        return false;
+    }
+}
+
+bool hasEdgeSpace(std::string_view code) {
+    return std::isspace(static_cast<unsigned char>(code.front())) ||
+           std::isspace(static_cast<unsigned char>(code.back()));
+}
+
+}  // namespace
+
+std::size_t DropReader::measureCount() const {
+    if (m_roles.layout != Layout::Long)
+        return 1;
+    return m_roles.measureColumn >= 0 ? m_measureNames.size() : m_roles.valueColumns.size();
+}
+
+Status DropReader::advance(std::size_t offset) {
+    if (offset < m_nextCheck)
+        return Ok{};
+    if (Status s = m_checker.checkUpTo(offset + kCheckAhead); !s)
+        return s;
+    m_nextCheck = offset + kCheckAhead / 2;
+    if (m_file)
+        m_file->release(offset);
+    return Ok{};
+}
+
+Status DropReader::admit(const CsvRecord& record, bool& keep) {
+    keep = false;
+    if (record.isEmptyLine()) {
+        if (m_emptyLines++ == 0)
+            m_firstEmptyLine = record.line;
+        return Ok{};
+    }
+    if (Status s = checkFieldCount(record); !s)
+        return s;
+    if (record.strayQuote && !m_strayReported) {
+        m_strayReported = true;
+        m_log.add("quote",
+                  "a '\"' inside a value that is not quoted is kept as part of the value (RFC "
+                  "4180 expects such values in quotes)",
+                  record.line, 0);
+    }
+    ++m_drop.rows;
+    const auto line = static_cast<std::uint32_t>(record.line);
+    if (m_roles.layout != Layout::DatesAcross) {
+        const std::size_t col = static_cast<std::size_t>(m_roles.dateColumn);
+        if (record.fields[col].text.empty()) {
+            m_log.add("empty date", "the date cell is empty; the row is not read", line, col + 1);
+            return Ok{};
+        }
+    }
+    if (m_roles.layout != Layout::DatesDown) {
+        const std::size_t col = static_cast<std::size_t>(m_roles.regionColumn);
+        if (record.fields[col].text.empty()) {
+            m_log.add("empty region", "the region cell is empty; the row is not read", line,
+                      col + 1);
+            return Ok{};
+        }
+    }
+    if (m_roles.measureColumn >= 0) {
+        const std::size_t col = static_cast<std::size_t>(m_roles.measureColumn);
+        if (record.fields[col].text.empty()) {
+            m_log.add("empty measure", "the measure-name cell is empty; the row is not read", line,
+                      col + 1);
+            return Ok{};
+        }
+    }
+    keep = true;
+    return Ok{};
+}
+
+void DropReader::noteNewRegion(std::string_view code, std::uint32_t line) {
+    if (hasEdgeSpace(code)) {
+        m_log.add("spaces in code",
+                  "region code " + quoted(code) +
+                      " has spaces at its start or end; it is kept exactly as written",
+                  line, static_cast<std::uint64_t>(m_roles.regionColumn) + 1);
+    }
+}
+
+Error DropReader::dateError(const std::string& text, std::uint64_t line,
+                            std::uint64_t column) const {
+    const char* formatName = dateFormatName(m_dateFormat);
+    const DateShape shape = dateShapeOf(text);
+    std::string why;
+    if (shape == shapeOfFormat(m_dateFormat)) {
+        why = quoted(text) + " is not a real day of the calendar (read as " + formatName + ")";
+    } else if (shape == DateShape::None) {
+        why = quoted(text) + " in the date column is not a date; the dates in this file are " +
+              formatName;
+    } else {
+        why = quoted(text) + " is written in another date format than the rest of the file (" +
+              formatName + ")";
+    }
+    return fail(ErrorCode::InvalidValue, why, line, column);
+}
+
+bool DropReader::predictCalendar() {
+    if (m_roles.layout != Layout::Long || m_sample.empty())
+        return false;
+    const std::size_t dateCol = static_cast<std::size_t>(m_roles.dateColumn);
+    const std::size_t regionCol = static_cast<std::size_t>(m_roles.regionColumn);
+    DateFormat format = m_dateFormat;
+    if (format == DateFormat::Unknown) {
+        const DateShape shape = dateShapeOf(m_sample.front().fields[dateCol]);
+        if (shape == DateShape::Iso)
+            format = DateFormat::Iso;
+        else if (shape == DateShape::Compact)
+            format = DateFormat::Compact;
+        else
+            return false;  // a slash order is settled only after every date was seen
+    }
+    std::int32_t lo = std::numeric_limits<std::int32_t>::max();
+    std::int32_t hi = std::numeric_limits<std::int32_t>::min();
+    auto see = [&](std::string_view text) {
+        if (std::optional<Date> d = parseDateAs(text, format)) {
+            lo = std::min(lo, d->serial);
+            hi = std::max(hi, d->serial);
+        }
+    };
+    std::set<std::string_view> sampleRegions;
+    for (const SampleRecord& r : m_sample) {
+        if (r.fields.size() != m_names.size())
+            continue;
+        see(r.fields[dateCol]);
+        sampleRegions.insert(r.fields[regionCol]);
+    }
+    // The last records: a guess only (the tail may start inside a quoted field).
+    std::size_t tail = m_bytes.size() > kTailBytes ? m_bytes.size() - kTailBytes : 0;
+    if (tail <= m_dataStart) {
+        tail = m_dataStart;
+    } else {
+        const std::size_t nl = m_bytes.find('\n', tail);
+        tail = nl == std::string_view::npos ? m_bytes.size() : nl + 1;
+    }
+    CsvScanner scanner(m_bytes, m_delimiter, tail);
+    CsvRecord record;
+    while (scanner.next(record)) {
+        if (record.fields.size() == m_names.size())
+            see(record.fields[dateCol].text);
+    }
+    if (lo > hi)
+        return false;
+    const std::size_t days = static_cast<std::size_t>(hi - lo) + 1;
+    if (days > 100 * 366)
+        return false;
+    const std::size_t sampleRows = std::max<std::size_t>(m_sample.size(), 1);
+    const double bytesPerRow =
+        std::max(1.0, static_cast<double>(m_sampleBytes) / static_cast<double>(sampleRows));
+    const double rows = static_cast<double>(m_bytes.size() - m_dataStart) / bytesPerRow;
+    const double regions =
+        std::max(static_cast<double>(sampleRegions.size()), rows / static_cast<double>(days));
+    const std::size_t capacity = static_cast<std::size_t>(regions * 1.5) + 64;
+    const std::size_t measures = m_roles.measureColumn >= 0 ? 4 : m_roles.valueColumns.size();
+    if (static_cast<double>(capacity) * static_cast<double>(days) * static_cast<double>(measures) >
+        kMaxCells)
+        return false;
+    m_dateFormat = format;
+    m_firstSerial = lo;
+    m_days = days;
+    m_regionCapacity = capacity;
+    return true;
+}
+
+Result<bool> DropReader::onePass() {
+    const std::size_t dateCol = static_cast<std::size_t>(m_roles.dateColumn);
+    const std::size_t regionCol = static_cast<std::size_t>(m_roles.regionColumn);
+    const int measureCol = m_roles.measureColumn;
+    const std::size_t reserve = m_regionCapacity * m_days;
+    if (measureCol < 0) {
+        m_cells.resize(m_roles.valueColumns.size());
+        m_lastDay.resize(m_roles.valueColumns.size());
+        for (std::vector<Cell>& cells : m_cells) {
+            if (!makeCells(cells, reserve, 0))
+                return false;
+        }
+    }
+    const std::int32_t last = m_firstSerial + static_cast<std::int32_t>(m_days) - 1;
+    std::int32_t lo = last, hi = m_firstSerial;
+    CsvScanner scanner(m_bytes, m_delimiter, m_dataStart, m_dataLine);
+    CsvRecord record;
+    while (scanner.next(record)) {
+        if (Status s = advance(record.offset); !s)
+            return s.error();
+        bool keep = false;
+        if (Status s = admit(record, keep); !s)
+            return s.error();
+        if (!keep)
+            continue;
+        const auto line = static_cast<std::uint32_t>(record.line);
+        const std::vector<CsvField>& f = record.fields;
+
+        const std::string_view dateText = f[dateCol].text;
+        std::uint32_t di = m_dates.find(dateText);
+        if (di == KeyDictionary::kNone) {
+            const std::optional<Date> d = parseDateAs(dateText, m_dateFormat);
+            if (!d)
+                return dateError(std::string(dateText), line, dateCol + 1);
+            if (d->serial < m_firstSerial || d->serial > last)
+                return false;  // outside the predicted calendar: read in two passes
+            bool added = false;
+            di = m_dates.intern(dateText, added);
+            m_dayOfDate.push_back(d->serial - m_firstSerial);
+            m_dateLine.push_back(line);
+            m_dateColumn.push_back(dateCol + 1);
+            lo = std::min(lo, d->serial);
+            hi = std::max(hi, d->serial);
+        }
+        const std::int32_t day = m_dayOfDate[di];
+
+        const std::string_view code = f[regionCol].text;
+        std::uint32_t region = m_regions.find(code);
+        if (region == KeyDictionary::kNone) {
+            if (m_regions.size() == m_regionCapacity)
+                return false;  // more regions than reserved for: read in two passes
+            bool added = false;
+            region = m_regions.intern(code, added);
+            noteNewRegion(code, line);
+            for (std::size_t m = 0; m < m_cells.size(); ++m)
+                growRegions(m, m_regions.size());
+        }
+
+        if (measureCol >= 0) {
+            const std::string_view name = f[static_cast<std::size_t>(measureCol)].text;
+            std::uint32_t measure = m_measureNames.find(name);
+            if (measure == KeyDictionary::kNone) {
+                bool added = false;
+                measure = m_measureNames.intern(name, added);
+                m_cells.emplace_back();
+                m_lastDay.emplace_back();
+                if (!makeCells(m_cells.back(), reserve, 0))
+                    return false;
+                growRegions(measure, m_regions.size());
+            }
+            const std::size_t col = static_cast<std::size_t>(m_roles.valueColumns[0]);
+            place(measure, region, day, parseCell(f[col].text, line, col + 1));
+        } else {
+            for (std::size_t m = 0; m < m_roles.valueColumns.size(); ++m) {
+                const std::size_t col = static_cast<std::size_t>(m_roles.valueColumns[m]);
+                place(m, region, day, parseCell(f[col].text, line, col + 1));
+            }
+        }
+    }
+    if (scanner.failed())
+        return syntaxFailure(scanner.error());
+    if (lo != m_firstSerial || hi != last)
+        return false;  // the guessed ends were wrong (e.g. a tail inside a quoted field)
+    if (Status s = m_checker.checkAll(); !s)
+        return s.error();
+    m_drop.source.sha256 = m_checker.sha256();
+    if (m_file)
+        m_file->release(m_bytes.size());
+    return true;
+}
+
+void DropReader::resetForTwoPasses() {
+    m_regions = KeyDictionary();
+    m_dates = KeyDictionary();
+    m_measureNames = KeyDictionary();
+    m_dateLine.clear();
+    m_dateColumn.clear();
+    m_dayOfDate.clear();
+    m_cells.clear();
+    m_cells.shrink_to_fit();
+    m_lastDay.clear();
+    m_drop.duplicates.clear();
+    m_drop.rows = 0;
+    m_drop.source.dialect.thousandsSeparator = 0;
+    m_log = m_sniffLog;
+    m_emptyLines = 0;
+    m_firstEmptyLine = 0;
+    m_strayReported = false;
+    m_nextCheck = 0;
+    if (!m_options.dateFormat.empty())
+        m_dateFormat = *dateFormatFromName(m_options.dateFormat);
+    else
+        m_dateFormat = DateFormat::Unknown;
+    if (m_file)
+        m_file->rewind();
+}
+
+Status DropReader::keyPass() {
+    CsvScanner scanner(m_bytes, m_delimiter, m_dataStart, m_dataLine);
+    CsvRecord record;
+    const std::size_t dateCol = static_cast<std::size_t>(std::max(m_roles.dateColumn, 0));
+    const std::size_t regionCol = static_cast<std::size_t>(std::max(m_roles.regionColumn, 0));
+    const bool hasDates = m_roles.layout != Layout::DatesAcross;
+    const bool hasRegions = m_roles.layout != Layout::DatesDown;
+    while (scanner.next(record)) {
+        if (Status s = advance(record.offset); !s)
+            return s;
+        bool keep = false;
+        if (Status s = admit(record, keep); !s)
+            return s;
+        if (!keep)
+            continue;
+        const auto line = static_cast<std::uint32_t>(record.line);
+        bool added = false;
+        if (hasDates) {
+            m_dates.intern(record.fields[dateCol].text, added);
+            if (added) {
+                m_dateLine.push_back(line);
+                m_dateColumn.push_back(dateCol + 1);
+            }
+        }
+        if (hasRegions) {
+            const std::string_view code = record.fields[regionCol].text;
+            m_regions.intern(code, added);
+            if (added)
+                noteNewRegion(code, line);
+        }
+        if (m_roles.measureColumn >= 0)
+            m_measureNames.intern(
+                record.fields[static_cast<std::size_t>(m_roles.measureColumn)].text, added);
+    }
+    if (scanner.failed())
+        return syntaxFailure(scanner.error());
+    if (Status s = m_checker.checkAll(); !s)
+        return s;
+    m_drop.source.sha256 = m_checker.sha256();
+    if (m_file)
+        m_file->release(m_bytes.size());
+    if (m_drop.rows == 0)
+        return fail(ErrorCode::Layout, "the file has a header but no data rows", 1, 0);
+    return Ok{};
+}
+
+Status DropReader::settleDates() {
+    // The date texts: from the rows, or (dates-across) from the header.
+    if (m_roles.layout == Layout::DatesAcross) {
+        for (int c : m_roles.dateColumns) {
+            bool added = false;
+            m_dates.intern(m_names[static_cast<std::size_t>(c)], added);
+            if (added) {
+                m_dateLine.push_back(1);
+                m_dateColumn.push_back(static_cast<std::uint64_t>(c) + 1);
+            }
+        }
+    }
+    const std::size_t n = m_dates.size();
+    if (n == 0)
+        return fail(ErrorCode::Layout, "no row has a date");
+
+    if (m_dateFormat == DateFormat::Unknown) {
+        const std::string& first = m_dates.key(0);
+        const DateShape shape = dateShapeOf(first);
+        if (shape == DateShape::None) {
+            return fail(
+                ErrorCode::InvalidValue,
+                quoted(first) +
+                    " in the date column is not a date (YYYY-MM-DD, YYYYMMDD, D/M/Y or M/D/Y)",
+                m_dateLine[0], m_dateColumn[0]);
+        }
+        if (shape == DateShape::Iso)
+            m_dateFormat = DateFormat::Iso;
+        if (shape == DateShape::Compact)
+            m_dateFormat = DateFormat::Compact;
+        if (shape == DateShape::Slash) {
+            // Day or month first: settled only by a number above 12, never guessed.
+            std::size_t firstAbove12 = n, secondAbove12 = n;
+            for (std::size_t i = 0; i < n; ++i) {
+                int a, b, y;
+                if (!splitDate(m_dates.key(static_cast<std::uint32_t>(i)), DateShape::Slash, a, b,
+                               y))
+                    continue;
+                if (a > 12 && firstAbove12 == n)
+                    firstAbove12 = i;
+                if (b > 12 && secondAbove12 == n)
+                    secondAbove12 = i;
+            }
+            if (firstAbove12 < n && secondAbove12 < n) {
+                return fail(ErrorCode::InvalidValue,
+                            "dates mix day-first and month-first orders: " +
+                                quoted(m_dates.key(static_cast<std::uint32_t>(firstAbove12))) +
+                                " (line " + std::to_string(m_dateLine[firstAbove12]) +
+                                ") is day first, " +
+                                quoted(m_dates.key(static_cast<std::uint32_t>(secondAbove12))) +
+                                " is month first; fix the file",
+                            m_dateLine[secondAbove12], m_dateColumn[secondAbove12]);
+            }
+            if (firstAbove12 < n) {
+                m_dateFormat = DateFormat::DayFirst;
+            } else if (secondAbove12 < n) {
+                m_dateFormat = DateFormat::MonthFirst;
+            } else {
+                return fail(ErrorCode::Ambiguous,
+                            "dates such as " + first +
+                                " could be day/month or month/day (no day of the month in the file "
+                                "is above 12); "
+                                "rerun with --date-format DD/MM/YYYY or MM/DD/YYYY",
+                            m_dateLine[0], m_dateColumn[0]);
+            }
+        }
+    }
+
+    m_dayOfDate.resize(n);
+    std::int32_t lo = std::numeric_limits<std::int32_t>::max();
+    std::int32_t hi = std::numeric_limits<std::int32_t>::min();
+    std::vector<std::int32_t> serials(n);
+    for (std::size_t i = 0; i < n; ++i) {
+        const std::string& text = m_dates.key(static_cast<std::uint32_t>(i));
+        std::optional<Date> d = parseDateAs(text, m_dateFormat);
+        if (!d)
+            return dateError(text, m_dateLine[i], m_dateColumn[i]);
+        serials[i] = d->serial;
+        lo = std::min(lo, d->serial);
+        hi = std::max(hi, d->serial);
+    }
+    const std::int64_t span = static_cast<std::int64_t>(hi) - lo + 1;
+    const std::size_t measures =
+        m_roles.measureColumn >= 0
+            ? m_measureNames.size()
+            : (m_roles.layout == Layout::Long ? m_roles.valueColumns.size() : 1);
+    const std::size_t regions =
+        m_roles.layout == Layout::DatesDown ? m_roles.valueColumns.size() : m_regions.size();
+    const double cells =
+        static_cast<double>(span) * static_cast<double>(regions) * static_cast<double>(measures);
+    if (span > 100 * 366 || cells > 1.5e9) {
+        return fail(ErrorCode::InvalidValue,
+                    "the dates run from " + Date{lo}.iso() + " to " + Date{hi}.iso() + " (" +
+                        std::to_string(span) +
+                        " days), too long a calendar for a drop; is a year mistyped?");
+    }
+    for (std::size_t i = 0; i < n; ++i)
+        m_dayOfDate[i] = serials[i] - lo;
+    m_firstSerial = lo;
+    m_days = static_cast<std::size_t>(span);
+    if (m_roles.layout == Layout::DatesAcross) {
+        m_dayOfColumn.assign(m_names.size(), -1);
+        for (int c : m_roles.dateColumns) {
+            m_dayOfColumn[static_cast<std::size_t>(c)] =
+                m_dayOfDate[m_dates.find(m_names[static_cast<std::size_t>(c)])];
+        }
+    }
+    return Ok{};
+}
+
+Cell DropReader::parseCellSlowly(std::string_view text, std::uint32_t line, std::uint64_t column) {
+    Cell cell;
+    cell.line = line;
+    bool missing = text.empty() && m_emptyIsMissing;
+    for (const std::string& token : m_otherMissing)
+        missing = missing || text == token;
+    if (missing) {
+        cell.state = CellState::Blank;
+        return cell;
+    }
+    if (parsePlainCount(text, cell.value)) {
+        cell.state = CellState::Reported;
+        return cell;
+    }
+    const ParsedCount parsed = parseCount(text, m_style);
+    if (parsed.ok) {
+        cell.state = CellState::Reported;
+        cell.value = parsed.value;
+        switch (parsed.note) {
+            case NumberNote::Thousands:
+                if (m_drop.source.dialect.thousandsSeparator == 0)
+                    m_drop.source.dialect.thousandsSeparator = parsed.thousandsSeparator;
+                m_log.count("thousands", line, column, std::string(text));
+                break;
+            case NumberNote::ZeroFraction:
+                m_log.count("zero fraction", line, column, std::string(text));
+                break;
+            case NumberNote::Spaces:
+                m_log.count("spaces", line, column, std::string(text));
+                break;
+            default:
+                break;
+        }
+        return cell;
+    }
+    cell.state = CellState::Unparsable;
+    cell.value = 0;
+    std::string why;
+    if (text.empty())
+        why = "the cell is empty and the empty cell is not a missing-value token here";
+    else if (parsed.note == NumberNote::NotWhole)
+        why = quoted(text) + " is not a whole number";
+    else if (parsed.note == NumberNote::OutOfRange)
+        why = quoted(text) + " is too large for a count";
+    else
+        why = quoted(text) + " is not a number";
+    if (!text.empty() && parsed.note == NumberNote::NotANumber)
+        why += "; the cell is kept as unparsable (if it means 'no value', pass --missing " +
+               quoted(text) + ")";
+    else
+        why += "; the cell is kept as unparsable";
+    m_log.add("unparsable", why, line, column);
+    return cell;
+}
+
+void DropReader::addDuplicate(std::size_t measure, std::uint32_t region, std::int32_t day,
+                              const Cell& cell, std::uint32_t firstLine) {
+    DuplicateRow dup;
+    dup.measure = measure;
+    dup.region = region;
+    dup.day = day;
+    dup.cell = cell;
+    dup.firstLine = firstLine;
+    m_drop.duplicates.push_back(dup);
+}
+
+Status DropReader::cellPass() {
+    const std::size_t regions =
+        m_roles.layout == Layout::DatesDown ? m_roles.valueColumns.size() : m_regions.size();
+    m_cells.resize(measureCount());
+    m_lastDay.assign(measureCount(), std::vector<std::int32_t>(regions, -1));
+    for (std::vector<Cell>& cells : m_cells) {
+        if (!makeCells(cells, regions * m_days, regions * m_days))
+            return fail(ErrorCode::Io, "not enough memory for the cell tables");
+    }
+    if (m_file)
+        m_file->rewind();
+    CsvScanner scanner(m_bytes, m_delimiter, m_dataStart, m_dataLine);
+    CsvRecord record;
+    std::size_t nextRelease = 0;
+    const std::size_t dateCol = static_cast<std::size_t>(std::max(m_roles.dateColumn, 0));
+    const std::size_t regionCol = static_cast<std::size_t>(std::max(m_roles.regionColumn, 0));
+    const int measureCol = m_roles.measureColumn;
+    while (scanner.next(record)) {
+        if (m_file && record.offset >= nextRelease) {
+            m_file->release(record.offset);
+            nextRelease = record.offset + kCheckAhead;
+        }
+        if (record.isEmptyLine())
+            continue;
+        const auto line = static_cast<std::uint32_t>(record.line);
+        const std::vector<CsvField>& f = record.fields;
+        // Rows the key pass did not read (an empty key) are skipped the same way here.
+        if (m_roles.layout != Layout::DatesAcross && f[dateCol].text.empty())
+            continue;
+        if (m_roles.layout != Layout::DatesDown && f[regionCol].text.empty())
+            continue;
+        if (measureCol >= 0 && f[static_cast<std::size_t>(measureCol)].text.empty())
+            continue;
+        switch (m_roles.layout) {
+            case Layout::Long: {
+                const std::int32_t day = m_dayOfDate[m_dates.find(f[dateCol].text)];
+                const std::uint32_t region = m_regions.find(f[regionCol].text);
+                if (measureCol >= 0) {
+                    const std::size_t col = static_cast<std::size_t>(m_roles.valueColumns[0]);
+                    place(m_measureNames.find(f[static_cast<std::size_t>(measureCol)].text), region,
+                          day, parseCell(f[col].text, line, col + 1));
+                } else {
+                    for (std::size_t m = 0; m < m_roles.valueColumns.size(); ++m) {
+                        const std::size_t col = static_cast<std::size_t>(m_roles.valueColumns[m]);
+                        place(m, region, day, parseCell(f[col].text, line, col + 1));
+                    }
+                }
+                break;
+            }
+            case Layout::DatesDown: {
+                const std::int32_t day = m_dayOfDate[m_dates.find(f[dateCol].text)];
+                for (std::size_t r = 0; r < m_roles.valueColumns.size(); ++r) {
+                    const std::size_t col = static_cast<std::size_t>(m_roles.valueColumns[r]);
+                    place(0, static_cast<std::uint32_t>(r), day,
+                          parseCell(f[col].text, line, col + 1));
+                }
+                break;
+            }
+            case Layout::DatesAcross: {
+                const std::uint32_t region = m_regions.find(f[regionCol].text);
+                for (int c : m_roles.dateColumns) {
+                    const std::size_t col = static_cast<std::size_t>(c);
+                    place(0, region, m_dayOfColumn[col], parseCell(f[col].text, line, col + 1));
+                }
+                break;
+            }
+        }
+    }
+    if (scanner.failed())
+        return syntaxFailure(scanner.error());
+    if (m_file)
+        m_file->release(m_bytes.size());
+    return Ok{};
+}
+
+Status DropReader::finish() {
+    if (m_drop.rows == 0)
+        return fail(ErrorCode::Layout, "the file has a header but no data rows", 1, 0);
+    m_drop.firstDay = Date{m_firstSerial};
+    m_drop.days = static_cast<std::int32_t>(m_days);
+    m_drop.source.dateFormat = dateFormatName(m_dateFormat);
+    if (m_roles.layout == Layout::DatesDown) {
+        for (int c : m_roles.valueColumns)
+            m_drop.regionCodes.push_back(m_names[static_cast<std::size_t>(c)]);
+    } else {
+        m_drop.regionCodes = m_regions.takeKeys();
+    }
+    if (m_roles.layout == Layout::Long) {
+        if (m_roles.measureColumn >= 0) {
+            m_drop.measures = m_measureNames.keys();
+        } else {
+            for (int c : m_roles.valueColumns)
+                m_drop.measures.push_back(m_names[static_cast<std::size_t>(c)]);
+        }
+    } else {
+        m_drop.measures.push_back(m_options.measureName.empty() ? std::string("cases")
+                                                                : m_options.measureName);
+    }
+    m_drop.tables.reserve(m_cells.size());
+    for (std::vector<Cell>& cells : m_cells)
+        m_drop.tables.emplace_back(m_days, std::move(cells));
+    m_cells.clear();
+    m_lastDay.clear();
+    m_drop.indexRegions();
+
+    if (m_emptyLines > 0) {
+        m_log.add("empty line",
+                  std::to_string(m_emptyLines) +
+                      (m_emptyLines == 1 ? " empty line was" : " empty lines were") + " skipped",
+                  m_firstEmptyLine, 0);
+    }
+    if (!m_drop.duplicates.empty()) {
+        const DuplicateRow& d = m_drop.duplicates.front();
+        m_log.add("duplicates",
+                  std::to_string(m_drop.duplicates.size()) +
+                      " cells repeat a region, date and measure already read; the first "
+                      "occurrence is kept, the repeats are listed as duplicates (first repeat: "
+                      "region " +
+                      quoted(m_drop.regionCodes[d.region]) + ", " + m_drop.dayAt(d.day).iso() +
+                      ", first seen on line " + std::to_string(d.firstLine) + ")",
+                  d.cell.line, 0);
+    }
+    const char sep = m_drop.source.dialect.thousandsSeparator;
+    const std::string sepName = sep == ' ' ? "a space" : std::string("'") + sep + "'";
+    m_log.moveTo(m_drop.warnings,
+                 {
+                     {"thousands", "cells are written with " + sepName +
+                                       " as thousands separator; they were read as whole numbers"},
+                     {"zero fraction",
+                      "cells are written with a zero decimal part (like 12.0); they were read as "
+                      "whole numbers"},
+                     {"spaces", "cells have spaces around the number; they were read as numbers"},
+                 });
+    return Ok{};
+}
+
+}  // namespace siftwave::detail

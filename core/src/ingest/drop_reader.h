@@ -1,0 +1,160 @@
+#pragma once
+// DropReader: the passes of readDrop / parseDrop over a drop's bytes.
+//
+//  1. sniff (drop_reader.cpp): BOM, delimiter, header, decimal separator,
+//     layout and roles from the first records;
+//  2a. one pass (drop_passes.cpp), for a long file whose dates are ISO 8601:
+//     the calendar is predicted from the first and the last records, the cell
+//     tables are reserved at that size and filled while the region codes are
+//     collected. Any date outside the prediction (an unsorted file) abandons
+//     the pass and falls back to 2b; the result is the same either way;
+//  2b. two passes: a key pass collects region codes, dates and measure names,
+//     the date format is settled (refusing an ambiguous day/month order), then
+//     a cell pass fills the tables allocated at their final size.
+// Along the first pass the bytes are hashed (SHA-256) and checked for UTF-8.
+// Peak memory is the cell tables plus a window of the file (input_source.h).
+
+#include "ingest/csv_scanner.h"
+#include "ingest/date_parsing.h"
+#include "ingest/input_source.h"
+#include "ingest/key_dictionary.h"
+#include "ingest/number_parsing.h"
+#include "ingest/role_detection.h"
+#include "ingest/sniffing.h"
+#include "ingest/warning_log.h"
+#include "siftwave/drop.h"
+#include "siftwave/ingest/ingest.h"
+
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace siftwave::detail {
+
+/// 'text' in quotes, shortened when long (for messages).
+std::string quoted(std::string_view text);
+
+class DropReader {
+public:
+    DropReader(std::string_view bytes, std::string path, const IngestOptions& options,
+               InputFile* file)
+        : m_bytes(bytes),
+          m_path(std::move(path)),
+          m_options(options),
+          m_file(file),
+          m_checker(bytes, m_path) {}
+
+    Result<Drop> run();
+
+private:
+    Error fail(ErrorCode code, std::string message, std::uint64_t line = 0,
+               std::uint64_t column = 0) const;
+    /// A syntax error, unless an encoding error comes before it.
+    Error syntaxFailure(const CsvSyntaxError& s);
+
+    Status sniff();
+    /// True when the one-pass read may be tried; sets the predicted calendar.
+    bool predictCalendar();
+    /// Ok(true) when done, Ok(false) when the prediction failed (nothing kept).
+    Result<bool> onePass();
+    void resetForTwoPasses();
+    Status keyPass();
+    Status settleDates();
+    Status cellPass();
+    Status finish();
+
+    /// Housekeeping every record gets once: encoding checks ahead, page release.
+    Status advance(std::size_t offset);
+    /// The checks every data record gets once; `keep` false when the row is not read.
+    Status admit(const CsvRecord& record, bool& keep);
+    void noteNewRegion(std::string_view code, std::uint32_t line);
+    Error dateError(const std::string& text, std::uint64_t line, std::uint64_t column) const;
+    Status checkFieldCount(const CsvRecord& record);
+
+    Cell parseCell(std::string_view text, std::uint32_t line, std::uint64_t column) {
+        // The common case inline: plain digits and no missing-value token to compare with.
+        Cell cell;
+        if (m_otherMissing.empty() && parsePlainCount(text, cell.value)) {
+            cell.line = line;
+            cell.state = CellState::Reported;
+            return cell;
+        }
+        return parseCellSlowly(text, line, column);
+    }
+    Cell parseCellSlowly(std::string_view text, std::uint32_t line, std::uint64_t column);
+    void place(std::size_t measure, std::uint32_t region, std::int32_t day, const Cell& cell) {
+        const std::size_t index =
+            static_cast<std::size_t>(region) * m_days + static_cast<std::size_t>(day);
+        Cell& target = m_cells[measure][index];
+        // Rows usually come date by date, so this region's next cells are written a
+        // whole round of regions later: fetch their cache line now.
+        if (static_cast<std::size_t>(day) + 5 < m_days)
+            __builtin_prefetch(&target + 5, 1);
+        // A day after the last one written for this region cannot be filled yet, so
+        // the cell is written without reading it first (reads here miss the cache).
+        std::int32_t& lastDay = m_lastDay[measure][region];
+        if (day > lastDay) {
+            lastDay = day;
+            target = cell;
+            return;
+        }
+        if (target.state != CellState::Absent) {
+            addDuplicate(measure, region, day, cell, target.line);
+            return;
+        }
+        target = cell;
+    }
+    /// Makes room for `regions` regions in measure `m`'s table (and its last-day list).
+    void growRegions(std::size_t m, std::size_t regions) {
+        m_cells[m].resize(regions * m_days);
+        m_lastDay[m].resize(regions, -1);
+    }
+    void addDuplicate(std::size_t measure, std::uint32_t region, std::int32_t day, const Cell& cell,
+                      std::uint32_t firstLine);
+    std::string columnName(int c) const { return m_names[static_cast<std::size_t>(c)]; }
+    std::size_t measureCount() const;
+
+    std::string_view m_bytes;
+    std::string m_path;
+    const IngestOptions& m_options;
+    InputFile* m_file;
+    InputChecker m_checker;
+
+    Drop m_drop;
+    std::size_t m_start = 0;       // first byte after the BOM
+    std::size_t m_dataStart = 0;   // first byte after the header
+    std::uint64_t m_dataLine = 1;  // line number at m_dataStart
+    char m_delimiter = ',';
+    bool m_header = true;
+    NumberStyle m_style;
+    std::vector<std::string> m_names;
+    RoleMapping m_roles;
+    std::vector<SampleRecord> m_sample;  // the first data records
+    std::size_t m_sampleBytes = 0;       // bytes of the data records in m_sample
+    WarningLog m_sniffLog;               // warnings of the sniff, kept for a restart
+
+    KeyDictionary m_regions;
+    KeyDictionary m_dates;
+    KeyDictionary m_measureNames;
+    std::vector<std::uint64_t> m_dateLine, m_dateColumn;  // where each date text was first seen
+    std::vector<std::int32_t> m_dayOfDate;                // day index per distinct date text
+    DateFormat m_dateFormat = DateFormat::Unknown;
+    std::vector<std::int32_t> m_dayOfColumn;  // dates-across: day index per column (-1: none)
+
+    std::int32_t m_firstSerial = 0;  // the calendar: first day and length
+    std::size_t m_days = 0;
+    std::size_t m_regionCapacity = 0;        // one pass: regions the tables are reserved for
+    std::vector<std::vector<Cell>> m_cells;  // per measure, region-major, m_days per region
+    std::vector<std::vector<std::int32_t>> m_lastDay;  // per measure and region: last day written
+
+    std::size_t m_nextCheck = 0;
+    std::size_t m_emptyLines = 0;
+    std::uint64_t m_firstEmptyLine = 0;
+    bool m_strayReported = false;
+
+    bool m_emptyIsMissing = false;
+    std::vector<std::string> m_otherMissing;
+    WarningLog m_log;
+};
+
+}  // namespace siftwave::detail

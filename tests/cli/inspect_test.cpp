@@ -1,0 +1,196 @@
+// End-to-end: siftwave-cli inspect on files written by the test.
+#include "siftwave/ingest/ingest.h"
+
+#include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
+
+#include <sys/wait.h>
+
+#include <array>
+#include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <string>
+
+namespace {
+
+struct CliRun {
+    int exitCode = -1;
+    std::string out;
+    std::string err;
+};
+
+std::string slurp(const std::filesystem::path& path) {
+    std::ifstream in(path, std::ios::binary);
+    return std::string((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+}
+
+CliRun run(const std::string& args) {
+    const std::filesystem::path errPath =
+        std::filesystem::temp_directory_path() / "siftwave_inspect_test.err";
+    const std::string cmd = std::string(SIFTWAVE_CLI_PATH) + " " + args + " 2>" + errPath.string();
+    CliRun r;
+    FILE* p = popen(cmd.c_str(), "r");
+    if (!p)
+        return r;
+    std::array<char, 4096> buf{};
+    std::size_t n;
+    while ((n = fread(buf.data(), 1, buf.size(), p)) > 0)
+        r.out.append(buf.data(), n);
+    const int status = pclose(p);
+    r.exitCode = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+    r.err = slurp(errPath);
+    std::filesystem::remove(errPath);
+    return r;
+}
+
+std::string writeDrop(const std::string& name, const std::string& text) {
+    const std::filesystem::path path = std::filesystem::temp_directory_path() / name;
+    std::ofstream out(path, std::ios::binary);
+    out << text;
+    return path.string();
+}
+
+TEST(CliInspect, JsonHasEveryFieldTheIssueNames) {
+    const std::string text =
+        "date,region,cases,deaths\n"
+        "2026-03-01,NA,5,0\n"
+        "2026-03-01,004,3,1\n"
+        "2026-03-02,NA,,x\n"
+        "2026-03-03,004,7,2\n"
+        "2026-03-03,004,8,2\n";
+    const std::string path = writeDrop("siftwave_inspect_fields.csv", text);
+    const CliRun r = run("inspect " + path + " --json");
+    ASSERT_EQ(r.exitCode, 0) << r.out << r.err;
+    const auto j = nlohmann::json::parse(r.out);
+    EXPECT_EQ(j["source"]["path"], path);
+    EXPECT_EQ(j["source"]["bytes"], text.size());
+    EXPECT_EQ(j["source"]["sha256"], siftwave::sha256Hex(text));
+    EXPECT_EQ(j["source"]["delimiter"], ",");
+    EXPECT_EQ(j["source"]["header"], true);
+    EXPECT_EQ(j["layout"], "long");
+    EXPECT_EQ(j["columns"]["date"], "date");
+    EXPECT_EQ(j["columns"]["region"], "region");
+    EXPECT_EQ(j["columns"]["values"], nlohmann::json({"cases", "deaths"}));
+    EXPECT_EQ(j["rows"], 5);
+    EXPECT_EQ(j["regions"], 2);
+    EXPECT_EQ(j["region_codes"], nlohmann::json({"NA", "004"}));
+    EXPECT_EQ(j["measures"], nlohmann::json({"cases", "deaths"}));
+    EXPECT_EQ(j["first_date"], "2026-03-01");
+    EXPECT_EQ(j["last_date"], "2026-03-03");
+    // 2 regions x 3 days x 2 measures = 12 cells: 6 reported, 1 blank, 1 unparsable, 4 absent.
+    EXPECT_EQ(j["cells"]["reported"], 6);
+    EXPECT_EQ(j["cells"]["blank"], 1);
+    EXPECT_EQ(j["cells"]["unparsable"], 1);
+    EXPECT_EQ(j["cells"]["absent"], 4);
+    EXPECT_EQ(j["duplicates"], 1);  // one row repeats (004, 2026-03-03) for both measures
+    ASSERT_TRUE(j["warnings"].is_array());
+    bool unparsableNamed = false;
+    for (const auto& w : j["warnings"]) {
+        ASSERT_TRUE(w.contains("message") && w.contains("line") && w.contains("column"));
+        if (w["line"] == 4 && w["column"] == 4)
+            unparsableNamed =
+                w["message"].get<std::string>().find("'x' is not a number") != std::string::npos;
+    }
+    EXPECT_TRUE(unparsableNamed);
+    std::filesystem::remove(path);
+}
+
+TEST(CliInspect, PlainTextSaysWhatWasRead) {
+    const std::string path =
+        writeDrop("siftwave_inspect_text.csv", "date;NA;007\n01/02/2026;1;2\n13/02/2026;3;4\n");
+    const CliRun r = run("inspect " + path);
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    EXPECT_NE(r.out.find("semicolon (;) delimited"), std::string::npos) << r.out;
+    EXPECT_NE(r.out.find("layout      dates-down"), std::string::npos) << r.out;
+    EXPECT_NE(r.out.find("DD/MM/YYYY"), std::string::npos);
+    EXPECT_NE(r.out.find("regions     2: NA, 007"), std::string::npos) << r.out;
+    EXPECT_NE(r.out.find("2026-02-01 .. 2026-02-13 (13 days)"), std::string::npos) << r.out;
+    std::filesystem::remove(path);
+}
+
+TEST(CliInspect, IngestFlagsOverrideWhatIsDetected) {
+    const std::string path =
+        writeDrop("siftwave_inspect_flags.csv", "a|b|c|d\nX|03/04/2026|5|NA\nY|03/04/2026|6|1\n");
+    const CliRun r = run("inspect " + path +
+                         " --delimiter '|' --date-col b --region-col a --value-col d --value-col c"
+                         " --date-format MM/DD/YYYY --missing NA --header --json");
+    ASSERT_EQ(r.exitCode, 0) << r.out << r.err;
+    const auto j = nlohmann::json::parse(r.out);
+    EXPECT_EQ(j["source"]["delimiter"], "|");
+    EXPECT_EQ(j["first_date"], "2026-03-04");
+    EXPECT_EQ(j["measures"], nlohmann::json({"d", "c"}));
+    EXPECT_EQ(j["region_codes"], nlohmann::json({"X", "Y"}));
+    EXPECT_EQ(j["cells"]["blank"], 1);
+    EXPECT_EQ(j["cells"]["reported"], 3);
+    std::filesystem::remove(path);
+}
+
+TEST(CliInspect, AmbiguousDatesExitOneAndSayWhatToRerun) {
+    const std::string path = writeDrop("siftwave_inspect_ambiguous.csv",
+                                       "date,region,cases\n03/04/2026,A,1\n04/04/2026,A,2\n");
+    const CliRun r = run("inspect " + path);
+    EXPECT_EQ(r.exitCode, 1);
+    EXPECT_EQ(r.err,
+              "siftwave-cli: " + path +
+                  ":2:1: dates such as 03/04/2026 could be day/month or month/day (no day of "
+                  "the month in the file is above 12); rerun with --date-format DD/MM/YYYY or "
+                  "MM/DD/YYYY\n");
+    const CliRun j = run("inspect " + path + " --json");
+    EXPECT_EQ(j.exitCode, 1);
+    const auto e = nlohmann::json::parse(j.out)["error"];
+    EXPECT_EQ(e["code"], "ambiguous");
+    EXPECT_EQ(e["file"], path);
+    EXPECT_EQ(e["line"], 2);
+    EXPECT_EQ(e["column"], 1);
+    std::filesystem::remove(path);
+}
+
+TEST(CliInspect, BadInputNamesFileLineAndColumn) {
+    const std::string path = writeDrop("siftwave_inspect_bad.csv",
+                                       "date,region,cases\n2026-01-01,A,1\n2026-02-30,A,2\n");
+    const CliRun r = run("inspect " + path);
+    EXPECT_EQ(r.exitCode, 1);
+    EXPECT_EQ(r.err,
+              "siftwave-cli: " + path +
+                  ":3:1: '2026-02-30' is not a real day of the calendar (read as YYYY-MM-DD)\n");
+    const CliRun missing = run("inspect /nonexistent/drop.csv");
+    EXPECT_EQ(missing.exitCode, 1);
+    EXPECT_NE(missing.err.find("/nonexistent/drop.csv: cannot open the file"), std::string::npos);
+    std::filesystem::remove(path);
+}
+
+TEST(CliInspect, UsageErrorsExitTwoAndHelpExitsZero) {
+    EXPECT_EQ(run("inspect").exitCode, 2);
+    EXPECT_EQ(run("inspect a.csv b.csv").exitCode, 2);
+    EXPECT_EQ(run("inspect a.csv --no-such-flag").exitCode, 2);
+    EXPECT_EQ(run("inspect a.csv --layout sideways").exitCode, 2);
+    EXPECT_EQ(run("inspect a.csv --date-format DD.MM.YYYY").exitCode, 2);
+    EXPECT_EQ(run("inspect a.csv --delimiter ab").exitCode, 2);
+    EXPECT_EQ(run("inspect a.csv --header --no-header").exitCode, 2);
+    const CliRun help = run("inspect --help");
+    EXPECT_EQ(help.exitCode, 0);
+    EXPECT_NE(help.out.find("usage: siftwave-cli inspect FILE"), std::string::npos);
+    EXPECT_NE(help.out.find("--date-format"), std::string::npos);
+    const std::string path =
+        writeDrop("siftwave_inspect_usage.csv", "date,region,cases\n2026-01-01,A,1\n");
+    const CliRun wrongColumn = run("inspect " + path + " --value-col deaths");
+    EXPECT_EQ(wrongColumn.exitCode, 2);
+    EXPECT_NE(wrongColumn.err.find("--value-col names 'deaths', but there is no such column"),
+              std::string::npos);
+    std::filesystem::remove(path);
+}
+
+TEST(CliInspect, ReadsTheBundledSampleDrop) {
+    const CliRun r =
+        run("inspect " + std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_current.csv --json");
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    const auto j = nlohmann::json::parse(r.out);
+    EXPECT_EQ(j["layout"], "long");
+    bool hasNa = false;
+    for (const auto& code : j["region_codes"])
+        hasNa = hasNa || code == "NA";
+    EXPECT_TRUE(hasNa);  // the sample's district whose code collides with a missing-value token
+}
+
+}  // namespace

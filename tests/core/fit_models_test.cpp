@@ -1,0 +1,151 @@
+// The wave models against Boost.Math's distributions (a general-purpose reference library) and
+// handbook formulas.
+#include "siftwave/fit/models.h"
+
+#include <gtest/gtest.h>
+#include <boost/math/distributions/extreme_value.hpp>
+#include <boost/math/distributions/logistic.hpp>
+#include <boost/math/distributions/lognormal.hpp>
+
+#include <cmath>
+#include <numbers>
+#include <vector>
+
+namespace siftwave::fit {
+namespace {
+
+// Boost.Math extreme_value(location a, scale b) is the Gumbel (maximum) distribution.
+TEST(FitModels, GumbelDensityCumulativeAndQuantileAgreeWithBoostExtremeValue) {
+    const auto& m = waveModel(ModelKind::Gumbel);
+    const double K = 5000, mu = 40, beta = 9;
+    const std::vector<double> p{K, mu, beta};
+    const boost::math::extreme_value_distribution<double> ref(mu, beta);
+    for (double t = 0; t <= 120; t += 3.5) {
+        EXPECT_NEAR(m.incidenceAt(t, p) / K, boost::math::pdf(ref, t), 1e-14) << t;
+        EXPECT_NEAR(m.cumulative(t, p) / K, boost::math::cdf(ref, t), 1e-14) << t;
+    }
+    for (double q : {0.001, 0.025, 0.5, 0.975, 0.999}) {
+        EXPECT_NEAR(m.quantileTime(q, p), boost::math::quantile(ref, q), 1e-10) << q;
+    }
+}
+
+TEST(FitModels, LogisticDensityCumulativeAndQuantileAgreeWithBoostLogistic) {
+    const auto& m = waveModel(ModelKind::Logistic);
+    const std::vector<double> p{800, 30, 4};
+    const boost::math::logistic_distribution<double> ref(30, 4);
+    for (double t = -10; t <= 80; t += 2.5) {
+        EXPECT_NEAR(m.incidenceAt(t, p) / 800, boost::math::pdf(ref, t), 1e-14) << t;
+        EXPECT_NEAR(m.cumulative(t, p) / 800, boost::math::cdf(ref, t), 1e-14) << t;
+    }
+    for (double q : {0.01, 0.025, 0.5, 0.975}) {
+        EXPECT_NEAR(m.quantileTime(q, p), boost::math::quantile(ref, q), 1e-10) << q;
+    }
+}
+
+// Our log-normal counts time from the day before the window: tau = t + 1.
+TEST(FitModels, LogNormalDensityCumulativeAndQuantileAgreeWithBoostLognormal) {
+    const auto& m = waveModel(ModelKind::LogNormal);
+    const std::vector<double> p{1200, 3.2, 0.4};
+    const boost::math::lognormal_distribution<double> ref(3.2, 0.4);
+    for (double t = 0; t <= 100; t += 2.5) {
+        EXPECT_NEAR(m.incidenceAt(t, p) / 1200, boost::math::pdf(ref, t + 1), 1e-14) << t;
+        EXPECT_NEAR(m.cumulative(t, p) / 1200, boost::math::cdf(ref, t + 1), 1e-13) << t;
+    }
+    for (double q : {0.025, 0.5, 0.975}) {
+        EXPECT_NEAR(m.quantileTime(q, p) + 1, boost::math::quantile(ref, q), 1e-9) << q;
+    }
+    EXPECT_NEAR(m.peakTime(p) + 1, boost::math::mode(ref), 1e-9);
+}
+
+// NIST/SEMATECH e-Handbook of Statistical Methods, section 1.3.6.6.16 (Extreme Value Type I):
+// mode mu, mean mu + gamma beta (Euler's gamma), variance pi^2 beta^2 / 6. Checked here by
+// integrating our density numerically.
+TEST(FitModels, GumbelMomentsMatchTheHandbook) {
+    const auto& m = waveModel(ModelKind::Gumbel);
+    const double mu = 50, beta = 7;
+    const std::vector<double> p{1, mu, beta};
+    double mass = 0, mean = 0, second = 0;
+    const double h = 0.001;
+    for (double t = mu - 30 * beta; t <= mu + 60 * beta; t += h) {
+        const double f = m.incidenceAt(t, p) * h;
+        mass += f;
+        mean += t * f;
+        second += t * t * f;
+    }
+    mean /= mass;
+    EXPECT_NEAR(mass, 1.0, 1e-9);
+    EXPECT_NEAR(mean, mu + std::numbers::egamma * beta, 1e-6);
+    EXPECT_NEAR(second / mass - mean * mean, std::numbers::pi * std::numbers::pi * beta * beta / 6,
+                1e-5);
+    EXPECT_DOUBLE_EQ(m.peakTime(p), mu);
+    // The mode: the density falls on both sides of mu.
+    EXPECT_GT(m.incidenceAt(mu, p), m.incidenceAt(mu - 0.01, p));
+    EXPECT_GT(m.incidenceAt(mu, p), m.incidenceAt(mu + 0.01, p));
+}
+
+// Closed form: the Richards curve's share of K at peak incidence is (1 + a)^(-1/a); 1/2 for the
+// logistic (a = 1), tending to 1/e (the Gumbel) as a -> 0. Derived in models.h.
+TEST(FitModels, RichardsShareAtPeakIsTheClosedForm) {
+    const auto& m = waveModel(ModelKind::Richards);
+    for (double a : {0.01, 0.2, 0.5, 1.0, 2.0, 5.0}) {
+        const std::vector<double> p{1000, 60, 8, a};
+        const double peak = m.peakTime(p);
+        // the peak is a maximum of the incidence
+        EXPECT_GT(m.incidenceAt(peak, p), m.incidenceAt(peak - 0.05, p)) << a;
+        EXPECT_GT(m.incidenceAt(peak, p), m.incidenceAt(peak + 0.05, p)) << a;
+        EXPECT_NEAR(m.cumulative(peak, p) / 1000, std::pow(1 + a, -1 / a), 1e-12) << a;
+    }
+    const std::vector<double> logistic{1000, 60, 8, 1.0};
+    EXPECT_NEAR(m.cumulative(60, logistic) / 1000, 0.5, 1e-14);
+    const std::vector<double> nearGumbel{1000, 60, 8, 1e-4};
+    EXPECT_NEAR(m.cumulative(60, nearGumbel) / 1000, std::exp(-1.0), 1e-4);
+}
+
+// Every analytic Jacobian agrees with central differences.
+TEST(FitModels, AnalyticJacobiansAgreeWithCentralDifferences) {
+    const std::vector<std::vector<double>> params{
+        {5000, 40, 9}, {800, 30, 4}, {1000, 60, 8, 0.6}, {1200, 3.2, 0.4}};
+    for (std::size_t k = 0; k < kAllModels.size(); ++k) {
+        const auto& m = waveModel(kAllModels[k]);
+        const auto& p = params[k];
+        const std::size_t np = p.size();
+        std::vector<double> t;
+        for (double x = 1; x < 100; x += 7)
+            t.push_back(x);
+        std::vector<double> f(t.size()), jac(t.size() * np), fu(t.size()), fd(t.size());
+        m.incidence(t, p, f, jac);
+        for (std::size_t j = 0; j < np; ++j) {
+            auto up = p, down = p;
+            const double h = 1e-6 * std::max(1.0, std::abs(p[j]));
+            up[j] += h;
+            down[j] -= h;
+            m.incidence(t, up, fu);
+            m.incidence(t, down, fd);
+            for (std::size_t i = 0; i < t.size(); ++i) {
+                const double numeric = (fu[i] - fd[i]) / (2 * h);
+                EXPECT_NEAR(jac[i * np + j], numeric, 1e-6 * (std::abs(numeric) + f[i] + 1e-3))
+                    << modelName(kAllModels[k]) << " param " << j << " t " << t[i];
+            }
+        }
+    }
+}
+
+TEST(FitModels, InitialGuessByLinearisationIsCloseToTheTruthOnAFullWave) {
+    for (ModelKind kind : {ModelKind::Gumbel, ModelKind::Logistic}) {
+        const auto& m = waveModel(kind);
+        const std::vector<double> truth{10000, 50, 8};
+        std::vector<double> t, y;
+        for (int i = 0; i < 150; ++i) {
+            t.push_back(i);
+            y.push_back(m.incidenceAt(i, truth));
+        }
+        auto g = m.initialGuess(t, y);
+        ASSERT_TRUE(g);
+        EXPECT_NEAR((*g)[0], 10000, 500) << modelName(kind);
+        EXPECT_NEAR((*g)[1], 50, 2) << modelName(kind);
+        EXPECT_NEAR((*g)[2], 8, 1.5) << modelName(kind);
+    }
+}
+
+}  // namespace
+}  // namespace siftwave::fit
