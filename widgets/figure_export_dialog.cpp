@@ -122,8 +122,9 @@ void FigureExportDialog::accept() {
 
 Result<QStringList> FigureExportDialog::exportFigures() {
     QStringList codes;
-    for (QListWidgetItem* item : m_regionList->selectedItems())
-        codes << item->data(Qt::UserRole).toString();
+    for (int i = 0; i < m_regionList->count(); ++i)  // in the drop's order
+        if (m_regionList->item(i)->isSelected())
+            codes << m_regionList->item(i)->data(Qt::UserRole).toString();
     if (codes.isEmpty())
         return makeError(ErrorCode::Usage, "choose at least one region");
     FigureExportOptions options;

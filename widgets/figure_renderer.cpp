@@ -177,9 +177,46 @@ SeriesView seriesViewFromSpec(const report::FigureSpec& spec) {
     return view;
 }
 
+namespace {
+
+// Lifts the smoothed line and the fitted curve above the bars on a white casing, so that
+// in greyscale (where the orange and the bars' grey come close) they still stand out.
+void caseLines(QCustomPlot* plot, const report::FigureSpec& spec) {
+    QStringList names{QString::fromStdString(spec.smoothedLabel)};
+    if (spec.fit)
+        names << QString::fromStdString(spec.fit->label);
+    std::vector<QCPGraph*> lines;
+    for (int i = 0; i < plot->graphCount(); ++i)
+        if (names.contains(plot->graph(i)->name()))
+            lines.push_back(plot->graph(i));
+    if (lines.empty())
+        return;
+    if (!plot->layer(QStringLiteral("casing"))) {
+        plot->addLayer(QStringLiteral("casing"), plot->layer(QStringLiteral("main")),
+                       QCustomPlot::limAbove);
+        plot->addLayer(QStringLiteral("cased"), plot->layer(QStringLiteral("casing")),
+                       QCustomPlot::limAbove);
+    }
+    for (QCPGraph* line : lines) {
+        QCPGraph* casing = plot->addGraph(line->keyAxis(), line->valueAxis());
+        casing->setData(line->data());
+        QPen pen(Qt::white, line->pen().widthF() + 2.4, Qt::SolidLine, Qt::RoundCap, Qt::RoundJoin);
+        casing->setPen(pen);
+        casing->removeFromLegend();
+        casing->setLayer(QStringLiteral("casing"));
+        casing->setSelectable(QCP::stNone);
+        line->setLayer(QStringLiteral("cased"));
+    }
+}
+
+}  // namespace
+
 void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
     QCustomPlot* plot = chart.plot();
     const double scale = 1.0;
+    caseLines(plot, spec);
+    const int itemsBefore = plot->itemCount();
+    const int graphsBefore = plot->graphCount();
     // Headroom for the labels above the highest bar.
     const QCPRange y = plot->yAxis->range();
     plot->yAxis->setRange(0, std::max(y.upper * kLabelHeadroom, 10.0));
@@ -267,6 +304,15 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
         label->setColor(plot_style::kInk);
         label->setSelectable(false);
     }
+
+    // The marks above every line (the window and findings items SeriesChart made stay below).
+    const QString marksLayer = QStringLiteral("annotations");
+    if (!plot->layer(marksLayer))
+        plot->addLayer(marksLayer, plot->layer(plot->layerCount() - 1), QCustomPlot::limAbove);
+    for (int i = itemsBefore; i < plot->itemCount(); ++i)
+        plot->item(i)->setLayer(marksLayer);
+    for (int i = graphsBefore; i < plot->graphCount(); ++i)
+        plot->graph(i)->setLayer(marksLayer);
 }
 
 namespace {

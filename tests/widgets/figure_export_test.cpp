@@ -5,6 +5,7 @@
 #include "siftwave/ledger/replay.h"
 #include "siftwave/report/briefing.h"
 #include "siftwave/report/figure_spec.h"
+#include "widgets/figure_export_dialog.h"
 #include "widgets/figure_renderer.h"
 #include "widgets/report_writer.h"
 #include "widgets/series_chart.h"
@@ -341,6 +342,42 @@ private Q_SLOTS:
         QVERIFY(pdfText.contains(QStringLiteral("Reconciliation")));
         QVERIFY(page.contains(QStringLiteral("withdrawn")));
         QVERIFY(page.contains(QString::fromLatin1(fit::caution)));
+    }
+
+    void theExportDialogWritesSmallMultiplesOrOneFilePerRegion() {
+        const Fixture f = sampleWithDecisions(true);
+        widgets::FigureExportDialog::Inputs inputs;
+        inputs.drop = &f.drop;
+        inputs.ledger = &f.ledger;
+        inputs.cleaned = &f.cleaned;
+        inputs.regions = &f.regions;
+        inputs.currentRegion = QStringLiteral("1301");
+        widgets::FigureExportDialog dialog(inputs);
+        dialog.setRegions({QStringLiteral("1301"), QStringLiteral("1304"), QStringLiteral("KV")});
+        dialog.setSizePreset(3);  // custom pixels
+        dialog.setCustomSize(1500, 1000);
+        dialog.setDpi(150);
+        const QString page = m_dir.filePath(QStringLiteral("multiples.png"));
+        dialog.setOutputPath(page);
+        auto written = dialog.exportFigures();
+        QVERIFY2(written.ok(), written.ok() ? "" : written.error().message.c_str());
+        QCOMPARE(*written, QStringList{page});
+        QCOMPARE(QImage(page).size(), QSize(1500, 1000));
+
+        dialog.setSmallMultiples(false);
+        dialog.setSizePreset(0);  // slide
+        dialog.setOutputPath(m_dir.filePath(QStringLiteral("each.svg")));
+        written = dialog.exportFigures();
+        QVERIFY(written.ok());
+        QCOMPARE(written->size(), 3);
+        for (const QString& one : *written) {
+            QVERIFY2(QFile::exists(one), qPrintable(one));
+            QVERIFY(svgText(one).contains(QString::fromLatin1(fit::caution)));
+        }
+        QVERIFY(written->at(0).endsWith(QStringLiteral("each-1301.svg")));
+
+        dialog.setRegions({});
+        QVERIFY(!dialog.exportFigures().ok());
     }
 
 private:
