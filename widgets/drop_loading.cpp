@@ -39,6 +39,7 @@ LoadedDrop loadDrop(const LoadRequest& request) {
     }
     loaded.drop = std::make_shared<const Drop>(std::move(drop).value());
 
+    if (!request.withRegister) return loaded;
     const QString registerPath =
         request.registerPath.isEmpty() ? registerBeside(request.dropPath) : request.registerPath;
     if (!registerPath.isEmpty()) {

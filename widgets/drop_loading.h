@@ -18,6 +18,7 @@ namespace siftwave::widgets {
 struct LoadRequest {
     QString dropPath;
     QString registerPath;  // empty: use registerBeside(dropPath)
+    bool withRegister = true;  // false: read the drop only
     IngestOptions options;
 };
 

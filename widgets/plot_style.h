@@ -49,6 +49,10 @@ inline QBrush fitBandBrush() {
 inline QPen secondMeasurePen() {
     return QPen(kBluishGreen, 1.8, Qt::DotLine, Qt::FlatCap, Qt::RoundJoin);
 }
+/// The previous release: a thin dotted grey step line; revised days get an ink cross.
+inline QPen previousPen() {
+    return QPen(QColor(0x55, 0x55, 0x55), 1.0, Qt::DotLine, Qt::FlatCap, Qt::MiterJoin);
+}
 /// Finding marks on the time axis: reddish purple, darker for higher severity.
 inline QColor findingColor(int severity /* 0 low .. 2 high */) {
     return severity >= 2   ? kReddishPurple.darker(150)

@@ -79,6 +79,7 @@ void SeriesChart::draw(const SeriesView& view) {
     m_plot->clearPlottables();
     m_plot->clearItems();
     m_preview = nullptr;
+    m_fitGraphs.clear();
     m_windowRect = nullptr;
     m_windowStart = nullptr;
     m_windowEnd = nullptr;
@@ -103,20 +104,29 @@ void SeriesChart::draw(const SeriesView& view) {
     }
     bars->setData(rawKeys, rawValues, true);
 
-    if (m_view.fit && !m_view.fit->mid.empty()) {
-        if (!m_view.fit->low.empty() && !m_view.fit->high.empty()) {
-            QCPGraph* low = addLine(m_plot, m_plot->yAxis, keys,
-                                    toVector(m_view.fit->low, m_view.days), Qt::NoPen, QString());
-            QCPGraph* high =
-                addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->high, m_view.days),
-                        Qt::NoPen, QObject::tr("Fit band"));
-            high->setBrush(plot_style::fitBandBrush());
-            high->setChannelFillGraph(low);
-            low->removeFromLegend();
+    drawFit();
+    if (!m_view.previous.empty()) {
+        QCPGraph* previous =
+            addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.previous, m_view.days),
+                    plot_style::previousPen(), QObject::tr("Previous release (%1)").arg(m_view.previousLabel));
+        previous->setLineStyle(QCPGraph::lsStepCenter);
+        previous->setAdaptiveSampling(false);
+        // Where the two releases disagree, the old value is marked with a cross.
+        QVector<double> revisedKeys, revisedValues;
+        for (int d = 0; d < m_view.days && d < static_cast<int>(m_view.previous.size()); ++d) {
+            const double old = m_view.previous[d];
+            const double now = d < static_cast<int>(m_view.raw.size()) ? m_view.raw[d] : old;
+            if (std::isnan(old) || std::isnan(now) || old == now) continue;
+            revisedKeys << keys[d];
+            revisedValues << old;
         }
-        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->mid, m_view.days),
-                plot_style::fitPen(),
-                m_view.fit->label.isEmpty() ? QObject::tr("Fitted") : m_view.fit->label);
+        if (!revisedKeys.isEmpty()) {
+            QCPGraph* revised = m_plot->addGraph(m_plot->xAxis, m_plot->yAxis);
+            revised->setData(revisedKeys, revisedValues, true);
+            revised->setLineStyle(QCPGraph::lsNone);
+            revised->setScatterStyle(QCPScatterStyle(QCPScatterStyle::ssCross, plot_style::kInk, 7));
+            revised->setName(QObject::tr("Revised since (old value)"));
+        }
     }
     if (!m_view.cleaned.empty())
         addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.cleaned, m_view.days),
@@ -142,6 +152,35 @@ void SeriesChart::draw(const SeriesView& view) {
     resetRange();
 }
 
+void SeriesChart::drawFit() {
+    if (!m_view.fit || m_view.fit->mid.empty()) return;
+    const QVector<double> keys = keysOf(m_view);
+    if (!m_view.fit->low.empty() && !m_view.fit->high.empty()) {
+        QCPGraph* low = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->low, m_view.days),
+                                Qt::NoPen, QString());
+        QCPGraph* high = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->high, m_view.days),
+                                 Qt::NoPen, QObject::tr("Fit band"));
+        high->setBrush(plot_style::fitBandBrush());
+        high->setChannelFillGraph(low);
+        low->removeFromLegend();
+        m_fitGraphs.push_back(low);
+        m_fitGraphs.push_back(high);
+    }
+    QCPGraph* mid = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->mid, m_view.days),
+                            plot_style::fitPen(),
+                            m_view.fit->label.isEmpty() ? QObject::tr("Fitted") : m_view.fit->label);
+    mid->setAdaptiveSampling(false);
+    m_fitGraphs.push_back(mid);
+}
+
+void SeriesChart::setFit(const std::optional<FittedCurve>& fit) {
+    for (QCPGraph* graph : m_fitGraphs) m_plot->removeGraph(graph);
+    m_fitGraphs.clear();
+    m_view.fit = fit;
+    drawFit();
+    rescaleValueAxis();
+}
+
 void SeriesChart::drawFindings() {
     for (const FindingMark& mark : m_view.findings) {
         auto* rect = new QCPItemRect(m_plot);
@@ -161,7 +200,7 @@ void SeriesChart::drawFindings() {
     }
 }
 
-void SeriesChart::setWindow(std::optional<DayRange> window, const QString& label) {
+void SeriesChart::setWindow(std::optional<DayIndexRange> window, const QString& label) {
     m_window = window;
     if (!window) {
         for (QCPAbstractItem* item : {static_cast<QCPAbstractItem*>(m_windowRect),
@@ -233,7 +272,7 @@ void SeriesChart::resetRange() {
     focusOn({0, m_view.days - 1});
 }
 
-void SeriesChart::focusOn(DayRange days) {
+void SeriesChart::focusOn(DayIndexRange days) {
     const int span = std::max(days.last - days.first, 6);
     const int margin = std::max(1, span / 10);
     m_plot->xAxis->setRange(
@@ -249,7 +288,7 @@ void SeriesChart::rescaleValueAxis() {
     const int first = std::max(0, dayOfPlotKey(x.lower) - m_view.firstDay);
     const int last = std::min(m_view.days - 1, dayOfPlotKey(x.upper) - m_view.firstDay);
     double top = std::max({maxIn(m_view.raw, first, last), maxIn(m_view.cleaned, first, last),
-                           maxIn(m_view.smoothed, first, last)});
+                           maxIn(m_view.smoothed, first, last), maxIn(m_view.previous, first, last)});
     if (m_view.fit)
         top = std::max(
             {top, maxIn(m_view.fit->mid, first, last), maxIn(m_view.fit->high, first, last)});

@@ -37,9 +37,12 @@ public:
     void draw(const SeriesView& view);
     const SeriesView& view() const { return m_view; }
 
+    /// Replaces the fitted curve (and its band) without touching the rest or the visible range.
+    void setFit(const std::optional<FittedCurve>& fit);
+
     /// Shows (or, with nullopt, hides) a shaded window with its edges.
-    void setWindow(std::optional<DayRange> window, const QString& label = {});
-    std::optional<DayRange> window() const { return m_window; }
+    void setWindow(std::optional<DayIndexRange> window, const QString& label = {});
+    std::optional<DayIndexRange> window() const { return m_window; }
 
     /// Draws preview values (per day, NaN where unchanged) over the raw bars; empty clears.
     void setPreview(const std::vector<double>& values, const QString& label = {});
@@ -47,7 +50,7 @@ public:
     /// Shows the whole calendar (x) and all values (y).
     void resetRange();
     /// Shows the given days (with a little margin).
-    void focusOn(DayRange days);
+    void focusOn(DayIndexRange days);
 
     /// Day index under a pixel x position (may be outside the calendar).
     int dayIndexAtPixel(double x) const;
@@ -58,15 +61,17 @@ public:
 
 private:
     void drawFindings();
+    void drawFit();
     void rescaleValueAxis();
 
     QCustomPlot* m_plot;
     SeriesView m_view;
     QCPBars* m_preview = nullptr;
+    std::vector<QCPGraph*> m_fitGraphs;
     QCPItemRect* m_windowRect = nullptr;
     QCPItemStraightLine* m_windowStart = nullptr;
     QCPItemStraightLine* m_windowEnd = nullptr;
-    std::optional<DayRange> m_window;
+    std::optional<DayIndexRange> m_window;
 };
 
 }  // namespace siftwave::widgets

@@ -120,14 +120,19 @@ void SeriesPlot::updateTitle() {
     m_title->setText(text);
 }
 
-void SeriesPlot::setEditableWindow(std::optional<DayRange> window) {
+void SeriesPlot::setEditableWindow(std::optional<DayIndexRange> window) {
     m_windowEditable = window.has_value();
     m_chart->setWindow(window);
     m_plot->replot();
 }
 
-std::optional<DayRange> SeriesPlot::editableWindow() const {
+std::optional<DayIndexRange> SeriesPlot::editableWindow() const {
     return m_windowEditable ? m_chart->window() : std::nullopt;
+}
+
+void SeriesPlot::setFit(const std::optional<FittedCurve>& fit) {
+    m_chart->setFit(fit);
+    m_plot->replot(QCustomPlot::rpQueuedReplot);
 }
 
 void SeriesPlot::setPreview(const std::vector<double>& values, const QString& label) {
@@ -140,13 +145,13 @@ void SeriesPlot::resetView() {
     m_plot->replot();
 }
 
-void SeriesPlot::focusOn(DayRange days) {
+void SeriesPlot::focusOn(DayIndexRange days) {
     m_chart->focusOn(days);
     m_plot->replot();
 }
 
 SeriesPlot::Edge SeriesPlot::edgeNear(double x) const {
-    const std::optional<DayRange> window = editableWindow();
+    const std::optional<DayIndexRange> window = editableWindow();
     if (!window)
         return Edge::None;
     const double halfDay = (m_chart->pixelOfDayIndex(1) - m_chart->pixelOfDayIndex(0)) / 2;
@@ -192,7 +197,7 @@ bool SeriesPlot::eventFilter(QObject* watched, QEvent* event) {
         case QEvent::MouseMove: {
             auto* mouse = static_cast<QMouseEvent*>(event);
             if (m_dragging != Edge::None) {
-                DayRange window = *editableWindow();
+                DayIndexRange window = *editableWindow();
                 const int day = std::clamp(m_chart->dayIndexAtPixel(mouse->position().x()), 0,
                                            std::max(0, m_chart->view().days - 1));
                 if (m_dragging == Edge::Start)

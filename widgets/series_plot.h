@@ -41,13 +41,15 @@ public:
     int secondMeasure() const;
 
     /// Shows a window with draggable edges (nullopt hides it).
-    void setEditableWindow(std::optional<DayRange> window);
-    std::optional<DayRange> editableWindow() const;
+    void setEditableWindow(std::optional<DayIndexRange> window);
+    std::optional<DayIndexRange> editableWindow() const;
+    /// Replaces the fitted curve, keeping the visible range (a live refit while dragging).
+    void setFit(const std::optional<FittedCurve>& fit);
     /// Draws preview values over the series (empty clears).
     void setPreview(const std::vector<double>& values, const QString& label = {});
 
     void resetView();
-    void focusOn(DayRange days);
+    void focusOn(DayIndexRange days);
 
     const SeriesView& view() const;
     SeriesChart* chart() const { return m_chart.get(); }
@@ -56,8 +58,8 @@ public:
 Q_SIGNALS:
     void measureChosen(int measure);
     void secondMeasureChosen(int measure);  // -1: none
-    void windowChanging(siftwave::widgets::DayRange window);
-    void windowChanged(siftwave::widgets::DayRange window);
+    void windowChanging(siftwave::widgets::DayIndexRange window);
+    void windowChanged(siftwave::widgets::DayIndexRange window);
     /// A bar was clicked (a day index into the view's calendar).
     void dayClicked(int day);
 

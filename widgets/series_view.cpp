@@ -62,6 +62,32 @@ void addSecondMeasure(SeriesView& view, const Drop& drop, std::size_t region, st
             view.second[d] = cells[static_cast<std::size_t>(d)].value;
 }
 
+void addPreviousRelease(SeriesView& view, const Drop& previous, const QString& label) {
+    const auto region = previous.regionIndex(view.regionCode.toStdString());
+    const auto measure = previous.measureIndex(view.measure.toStdString());
+    if (!region || !measure) return;
+    view.previousLabel = label;
+    view.previous.assign(view.days, kNaN);
+    for (int d = 0; d < view.days; ++d) {
+        const auto index = previous.dayIndex(view.dayAt(d));
+        if (!index) continue;
+        const Cell& cell = previous.cell(*measure, *region, *index);
+        if (cell.reported()) view.previous[d] = cell.value;
+    }
+}
+
+FittedCurve curveFromFit(const fit::FitResult& fit, int days) {
+    FittedCurve curve;
+    curve.label = QCoreApplication::translate("SeriesView", "%1 fit (%2)")
+                      .arg(QString::fromLatin1(fit::modelName(fit.model)), QString::fromLatin1(fit::methodName(fit.method)));
+    curve.mid.assign(days, kNaN);
+    for (std::size_t i = 0; i < fit.fitted.size(); ++i) {
+        const int day = fit.first + static_cast<int>(i);
+        if (day >= 0 && day < days) curve.mid[day] = fit.fitted[i];
+    }
+    return curve;
+}
+
 QString hoverText(const SeriesView& view, int day) {
     if (day < 0 || day >= view.days)
         return {};
@@ -85,6 +111,18 @@ QString hoverText(const SeriesView& view, int day) {
             fitted += QStringLiteral(" (%1 – %2)")
                           .arg(number(view.fit->low[day], 1), number(view.fit->high[day], 1));
         lines << fitted;
+    }
+    if (!view.previousLabel.isEmpty()) {
+        if (has(view.previous, day)) {
+            QString previous = tr("Previous release: %1").arg(number(view.previous[day]));
+            if (has(view.raw, day) && view.raw[day] != view.previous[day])
+                previous += tr(" (revised by %1%2)")
+                                .arg(view.raw[day] > view.previous[day] ? QStringLiteral("+") : QString())
+                                .arg(number(view.raw[day] - view.previous[day]));
+            lines << previous;
+        } else {
+            lines << tr("Previous release: no number");
+        }
     }
     if (!view.secondMeasure.isEmpty() && has(view.second, day))
         lines << tr("Raw %1: %2").arg(view.secondMeasure, number(view.second[day]));

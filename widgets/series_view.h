@@ -9,6 +9,7 @@
 
 #include "siftwave/date.h"
 #include "siftwave/drop.h"
+#include "siftwave/fit/fit.h"
 
 #include <QString>
 #include <QStringList>
@@ -20,16 +21,16 @@
 namespace siftwave::widgets {
 
 /// An inclusive range of day indices into the view's calendar.
-struct DayRange {
+struct DayIndexRange {
     int first = 0;
     int last = 0;
-    friend bool operator==(const DayRange&, const DayRange&) = default;
+    friend bool operator==(const DayIndexRange&, const DayIndexRange&) = default;
 };
 
 struct FindingMark {
     QString id;
     QString label;  // short, e.g. "backlog dump"
-    DayRange days;
+    DayIndexRange days;
     int severity = 1;  // 0 low, 1 medium, 2 high
 };
 
@@ -54,10 +55,13 @@ struct SeriesView {
     std::vector<double> smoothed;           // empty: not computed
     QString smoothedLabel;                  // e.g. "7-day centred mean"
     std::optional<FittedCurve> fit;
-    std::optional<DayRange> fitWindow;
+    std::optional<DayIndexRange> fitWindow;
     std::vector<FindingMark> findings;
-    std::vector<QStringList>
-        touchedBy;  // per day: ledger entries that changed the cell (may be empty)
+    // Per day: the ledger entries that changed the cell (may be empty).
+    std::vector<QStringList> touchedBy;
+
+    QString previousLabel;         // e.g. the previous release's file name; empty: none
+    std::vector<double> previous;  // the previous release's raw counts, on this calendar
 
     QString secondMeasure;       // empty: none
     std::vector<double> second;  // raw counts of the second measure
@@ -71,6 +75,14 @@ SeriesView seriesViewFromDrop(const Drop& drop, std::size_t region, std::size_t 
 
 /// Adds a second measure's raw counts to `view` (same calendar).
 void addSecondMeasure(SeriesView& view, const Drop& drop, std::size_t region, std::size_t measure);
+
+/// Adds another release's raw counts of the same region and measure, aligned by date
+/// (NaN where it has no number). Nothing when it lacks the region or the measure.
+void addPreviousRelease(SeriesView& view, const Drop& previous, const QString& label);
+
+/// The fitted curve of a FitResult on a calendar of `days` days (NaN outside the window).
+/// The band is left empty: the core's FitResult has no pointwise interval of the curve yet.
+FittedCurve curveFromFit(const fit::FitResult& fit, int days);
 
 /// The hover text for one day: date and weekday, raw (or its state), cleaned,
 /// smoothed, fitted, the source line and the ledger entries that touched the cell.

@@ -16,6 +16,10 @@ struct Command {
 
 constexpr Command kCommands[] = {
     {"inspect", "read a data drop and report what was read", siftwave::cli::runInspect},
+    {"scan", "find what is wrong with a drop, ranked for review", siftwave::cli::runScan},
+    {"decide", "record a cleaning decision, with its reason, in a ledger", siftwave::cli::runDecide},
+    {"apply", "replay a ledger on a drop and write the cleaned data", siftwave::cli::runApply},
+    {"ledger", "verify a ledger or write its audit report", siftwave::cli::runLedger},
     {"fit", "fit wave curves to one region or all, with 95% intervals", siftwave::cli::runFit},
     {"figure", "draw an annotated briefing figure (PNG, SVG, PDF; needs Qt)", siftwave::cli::runFigure},
     {"report", "write the briefing report (PDF, HTML; needs Qt)", siftwave::cli::runReport},

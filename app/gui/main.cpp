@@ -64,7 +64,11 @@ int main(int argc, char** argv) {
     const QCommandLineOption finding(QStringLiteral("finding"),
                                      QStringLiteral("Focus on the finding with this id."),
                                      QStringLiteral("ID"));
+    const QCommandLineOption previous(QStringLiteral("previous"),
+                                      QStringLiteral("Also open the previous release FILE to compare against."),
+                                      QStringLiteral("FILE"));
     parser.addOption(screenshot);
+    parser.addOption(previous);
     parser.addOption(select);
     parser.addOption(finding);
     parser.addPositionalArgument(
@@ -77,6 +81,7 @@ int main(int argc, char** argv) {
     options.rememberLayout = !shooting;
     options.dialogs = !shooting;
     siftwave::gui::MainWindow window(options);
+    using siftwave::gui::MainWindow;
 
     QString drop = parser.positionalArguments().value(0);
     if (drop.isEmpty()) {
@@ -85,54 +90,51 @@ int main(int argc, char** argv) {
             std::fprintf(stderr, "siftwave: the bundled sample drop was not found (looked in %s)\n",
                          qPrintable(siftwave::gui::sampleFolders().join(QStringLiteral(", "))));
     }
+    const QString previousPath = parser.value(previous);
     const QString region = parser.value(select);
     const QString findingId = parser.value(finding);
+    const QString out = parser.value(screenshot);
 
+    // The start-up sequence: open the drop, then the previous release, then select; then
+    // (with --screenshot) render and exit. Each step runs when the one before reported back.
     int exitCode = 0;
-    if (shooting) {
-        const QString out = parser.value(screenshot);
-        auto finishShot = [&window, &exitCode, out](bool readOk) {
-            // One more turn of the event loop so docks and the plot have their final sizes.
-            QTimer::singleShot(0, &window, [&window, &exitCode, out, readOk] {
-                exitCode = saveScreenshot(window, out) && readOk ? 0 : 1;
-                QApplication::exit(exitCode);
-            });
-        };
-        QObject::connect(&window, &siftwave::gui::MainWindow::dropOpened, &window,
-                         [&, finishShot](const QString&) {
-                             if (!region.isEmpty() && !window.selectRegion(region)) {
-                                 std::fprintf(stderr, "siftwave: no region %s in this drop\n",
-                                              qPrintable(region));
-                                 finishShot(false);
-                                 return;
-                             }
-                             if (!findingId.isEmpty())
-                                 std::fprintf(stderr,
-                                              "siftwave: findings are not available in this build; "
-                                              "--finding %s ignored\n",
-                                              qPrintable(findingId));
-                             finishShot(true);
-                         });
-        QObject::connect(&window, &siftwave::gui::MainWindow::dropFailed, &window,
-                         [finishShot](const QString&) { finishShot(false); });
-        window.resize(1440, 900);
-        window.show();
-        if (drop.isEmpty())
-            finishShot(false);
-        else
-            window.openDrop(drop);
-        app.exec();
-        return exitCode;
-    }
+    auto finish = [&](bool ok) {
+        if (!shooting) return;
+        // One more turn of the event loop so docks and the plot have their final sizes.
+        QTimer::singleShot(0, &window, [&, ok] {
+            exitCode = saveScreenshot(window, out) && ok ? 0 : 1;
+            QApplication::exit(exitCode);
+        });
+    };
+    auto selectAndFinish = [&] {
+        bool ok = true;
+        if (!region.isEmpty() && !window.selectRegion(region)) {
+            std::fprintf(stderr, "siftwave: no region %s in this drop\n", qPrintable(region));
+            ok = false;
+        }
+        if (!findingId.isEmpty() && !window.focusFinding(findingId)) {
+            std::fprintf(stderr, "siftwave: no finding %s in this drop\n", qPrintable(findingId));
+            ok = false;
+        }
+        finish(ok);
+    };
+    QObject::connect(&window, &MainWindow::dropOpened, &window, [&](const QString&) {
+        if (previousPath.isEmpty()) {
+            selectAndFinish();
+            return;
+        }
+        QObject::connect(&window, &MainWindow::previousOpened, &window, [&](const QString&) { selectAndFinish(); },
+                         Qt::SingleShotConnection);
+        window.openPreviousRelease(previousPath);
+    }, Qt::SingleShotConnection);
+    QObject::connect(&window, &MainWindow::dropFailed, &window, [&](const QString&) { finish(false); });
 
+    if (shooting) window.resize(1440, 900);
     window.show();
-    if (!drop.isEmpty()) {
-        if (!region.isEmpty())
-            QObject::connect(
-                &window, &siftwave::gui::MainWindow::dropOpened, &window,
-                [&window, region](const QString&) { window.selectRegion(region); },
-                Qt::SingleShotConnection);
+    if (drop.isEmpty())
+        finish(false);
+    else
         window.openDrop(drop);
-    }
-    return app.exec();
+    const int status = app.exec();
+    return shooting ? exitCode : status;
 }

@@ -6,6 +6,7 @@
 
 #include "widgets/background_task.h"
 #include "widgets/drop_loading.h"
+#include "widgets/fit_pane.h"
 #include "widgets/region_browser.h"
 #include "widgets/region_model.h"
 #include "widgets/series_plot.h"
@@ -46,7 +47,7 @@ MainWindow::MainWindow(Options options, QWidget* parent)
       m_regionModel(new widgets::RegionModel(m_workbench, this)),
       m_browser(new widgets::RegionBrowser(m_regionModel)),
       m_plot(new widgets::SeriesPlot),
-      m_release(new QTextBrowser),
+      m_release(new QTextBrowser), m_fitPane(new widgets::FitPane),
       m_dropLabel(new QLabel),
       m_taskLabel(new QLabel),
       m_progress(new QProgressBar),
@@ -79,11 +80,20 @@ MainWindow::MainWindow(Options options, QWidget* parent)
     });
     connect(m_plot, &widgets::SeriesPlot::secondMeasureChosen, this,
             [this](int) { redrawSeries(); });
+    connect(m_fitPane, &widgets::FitPane::optionsChanged, this, [this] { refit(true); });
+    connect(m_plot, &widgets::SeriesPlot::windowChanging, this,
+            [this](widgets::DayIndexRange window) { onFitWindowDragged(window, false); });
+    connect(m_plot, &widgets::SeriesPlot::windowChanged, this,
+            [this](widgets::DayIndexRange window) { onFitWindowDragged(window, true); });
+    connect(m_workbench, &widgets::Workbench::previousChanged, this, [this] {
+        redrawSeries();
+        updateReleaseSummary();
+    });
 
     resize(1360, 860);
     if (m_options.rememberLayout) {
         restoreGeometry(settings::windowGeometry());
-        restoreState(settings::windowState());
+        m_layoutRestored = restoreState(settings::windowState());
     }
     onDropChanged();
 }
@@ -101,9 +111,14 @@ void MainWindow::buildDocks() {
     auto* release = new QDockWidget(tr("Release"), this);
     release->setObjectName(QStringLiteral("releaseDock"));
     release->setWidget(m_release);
-    addDockWidget(Qt::LeftDockWidgetArea, release);
-    resizeDocks({regions}, {470}, Qt::Horizontal);
-    resizeDocks({regions, release}, {560, 240}, Qt::Vertical);
+    addDockWidget(Qt::BottomDockWidgetArea, release);
+
+    m_fitPane->setObjectName(QStringLiteral("fitPane"));
+    auto* fit = new QDockWidget(tr("Wave fit"), this);
+    fit->setObjectName(QStringLiteral("fitDock"));
+    fit->setWidget(m_fitPane);
+    addDockWidget(Qt::RightDockWidgetArea, fit);
+
 }
 
 void MainWindow::buildActions() {
@@ -111,6 +126,20 @@ void MainWindow::buildActions() {
     QAction* open = file->addAction(tr("&Open drop…"), this, &MainWindow::showOpenDialog);
     open->setShortcut(QKeySequence::Open);
     open->setObjectName(QStringLiteral("actionOpenDrop"));
+    QAction* previous = file->addAction(tr("Open &previous release…"), this, &MainWindow::showOpenPreviousDialog);
+    previous->setObjectName(QStringLiteral("actionOpenPrevious"));
+    previous->setStatusTip(tr("Draw an earlier release of the same data over this one to see revisions"));
+    QAction* closePrevious = file->addAction(tr("Close previous release"), this,
+                                             [this] { m_workbench->setPreviousDrop(nullptr); });
+    connect(m_workbench, &widgets::Workbench::dropChanged, this, [this, previous] {
+        previous->setEnabled(m_workbench->hasDrop());
+    });
+    connect(m_workbench, &widgets::Workbench::previousChanged, this, [this, closePrevious] {
+        closePrevious->setEnabled(m_workbench->previousDrop() != nullptr);
+    });
+    connect(m_workbench, &widgets::Workbench::dropChanged, closePrevious, [closePrevious] { closePrevious->setEnabled(false); });
+    previous->setEnabled(false);
+    closePrevious->setEnabled(false);
     m_recentMenu = file->addMenu(tr("Open &recent"));
     rebuildRecentMenu();
     file->addSeparator();
@@ -144,15 +173,50 @@ void MainWindow::buildActions() {
     });
 }
 
-void MainWindow::showOpenDialog() {
+QString MainWindow::askForDropFile(const QString& title) {
     QString start = m_options.rememberLayout ? settings::lastDirectory() : QString();
     const QString path = QFileDialog::getOpenFileName(
-        this, tr("Open a data drop"), start, tr("Data drops (*.csv *.tsv *.txt);;All files (*)"));
-    if (path.isEmpty())
-        return;
-    if (m_options.rememberLayout)
+        this, title, start, tr("Data drops (*.csv *.tsv *.txt);;All files (*)"));
+    if (!path.isEmpty() && m_options.rememberLayout)
         settings::setLastDirectory(QFileInfo(path).absolutePath());
-    openDrop(path);
+    return path;
+}
+
+void MainWindow::showOpenDialog() {
+    if (const QString path = askForDropFile(tr("Open a data drop")); !path.isEmpty())
+        openDrop(path);
+}
+
+void MainWindow::showOpenPreviousDialog() {
+    if (const QString path = askForDropFile(tr("Open the previous release")); !path.isEmpty())
+        openPreviousRelease(path);
+}
+
+void MainWindow::openPreviousRelease(const QString& path) {
+    if (m_task)
+        m_task->cancel();
+    widgets::LoadRequest request;
+    request.dropPath = path;
+    request.withRegister = false;
+    const std::string expectedDrop =
+        m_workbench->hasDrop() ? m_workbench->drop().source.sha256 : std::string();
+    BackgroundTask* task = BackgroundTask::start(
+        this, tr("Reading %1").arg(QFileInfo(path).fileName()),
+        [request] { return widgets::loadDrop(request); },
+        [this, path, expectedDrop](const widgets::LoadedDrop& loaded) {
+            // Only for the drop it was asked for.
+            if (!m_workbench->hasDrop() || m_workbench->drop().source.sha256 != expectedDrop)
+                return;
+            if (!loaded.ok()) {
+                const QString message = widgets::describeError(*loaded.error);
+                showError(tr("The previous release could not be read"), message);
+                Q_EMIT dropFailed(message);
+                return;
+            }
+            m_workbench->setPreviousDrop(loaded.drop);
+            Q_EMIT previousOpened(path);
+        });
+    setBusy(task);
 }
 
 void MainWindow::rebuildRecentMenu() {
@@ -277,6 +341,11 @@ QString MainWindow::currentRegion() const {
     return m_currentRegion;
 }
 
+bool MainWindow::focusFinding(const QString& id) {
+    Q_UNUSED(id);
+    return false;  // the findings arrive with the scan (see the finding review dock)
+}
+
 void MainWindow::onRegionSelected(const QString& code) {
     m_currentRegion = code;
     redrawSeries();
@@ -285,6 +354,61 @@ void MainWindow::onRegionSelected(const QString& code) {
 void MainWindow::redrawSeries() {
     m_plot->setView(
         m_workbench->seriesView(m_currentRegion, m_plot->measure(), m_plot->secondMeasure()));
+    refit(true);
+}
+
+void MainWindow::refit(bool compare) {
+    m_fit.reset();
+    const widgets::SeriesView& view = m_plot->view();
+    if (!m_workbench->hasDrop() || view.empty()) {
+        m_fitPane->clear(tr("No region selected."));
+        m_plot->setFit(std::nullopt);
+        m_plot->setEditableWindow(std::nullopt);
+        return;
+    }
+    const int measure = m_plot->measure();
+    fit::FitOptions options = m_fitPane->options();
+    std::vector<fit::ModelComparisonRow> rows;
+    std::optional<Result<fit::FitResult>> result;
+    if (compare || m_fitPane->bestModelWanted()) {
+        rows = m_workbench->compareModels(m_currentRegion, measure, options);
+        const fit::ModelComparisonRow* chosen = nullptr;
+        if (m_fitPane->bestModelWanted()) {
+            chosen = fit::bestByAicc(rows);
+        } else {
+            for (const fit::ModelComparisonRow& row : rows)
+                if (row.model == options.model) chosen = &row;
+        }
+        if (chosen && chosen->fit)
+            result.emplace(*chosen->fit);
+        else if (chosen)
+            result.emplace(makeError(ErrorCode::Numerical, chosen->error));
+        else
+            result.emplace(makeError(ErrorCode::Numerical, "no model converged on this window"));
+        if (!compare) rows.clear();
+    } else {
+        result.emplace(m_workbench->fitRegion(m_currentRegion, measure, options));
+    }
+    m_fitPane->setCalendar(view.firstDay, view.days);
+    m_fitPane->showFit(*result, rows);
+    if (result->ok()) {
+        m_fit = result->value();
+        m_plot->setFit(widgets::curveFromFit(*m_fit, view.days));
+        m_plot->setEditableWindow(widgets::DayIndexRange{m_fit->first, m_fit->last});
+        m_fitPane->showWindow(widgets::DayIndexRange{m_fit->first, m_fit->last});
+    } else {
+        m_plot->setFit(std::nullopt);
+        if (const auto window = m_fitPane->manualWindow())
+            m_plot->setEditableWindow(*window);
+        else
+            m_plot->setEditableWindow(std::nullopt);
+    }
+}
+
+void MainWindow::onFitWindowDragged(widgets::DayIndexRange window, bool finished) {
+    m_fitPane->setManualWindow(window);
+    // While dragging: one model, no comparison, so the curve follows the hand; on release: everything.
+    refit(finished);
 }
 
 void MainWindow::updateReleaseSummary() {
@@ -330,6 +454,11 @@ void MainWindow::updateReleaseSummary() {
     html += row(tr("Duplicate rows"), c.toString(static_cast<qulonglong>(drop.duplicates.size())));
     if (const RegionRegister* reg = m_workbench->regionRegister())
         html += row(tr("Register"), text(reg->path));
+    if (const Drop* previous = m_workbench->previousDrop())
+        html += row(tr("Previous release"), tr("%1 (%2 to %3)")
+                                                .arg(text(previous->source.path),
+                                                     QString::fromStdString(previous->firstDay.iso()),
+                                                     QString::fromStdString(previous->lastDay().iso())));
     html += QStringLiteral("</table>");
     if (!drop.warnings.empty()) {
         html += tr("<p><b>%1 warning(s) from the reader</b></p><ul>").arg(drop.warnings.size());
@@ -348,6 +477,18 @@ void MainWindow::updateReleaseSummary() {
         html += QStringLiteral("</ul>");
     }
     m_release->setHtml(html);
+}
+
+void MainWindow::showEvent(QShowEvent* event) {
+    QMainWindow::showEvent(event);
+    if (m_layoutRestored) return;
+    m_layoutRestored = true;
+    // The first arrangement (docks only size properly once the window has its size).
+    auto* regions = findChild<QDockWidget*>(QStringLiteral("regionsDock"));
+    auto* fit = findChild<QDockWidget*>(QStringLiteral("fitDock"));
+    auto* release = findChild<QDockWidget*>(QStringLiteral("releaseDock"));
+    resizeDocks({regions, fit}, {width() * 27 / 100, width() * 28 / 100}, Qt::Horizontal);
+    resizeDocks({release}, {height() * 19 / 100}, Qt::Vertical);
 }
 
 void MainWindow::closeEvent(QCloseEvent* event) {

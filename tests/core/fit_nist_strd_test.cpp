@@ -246,7 +246,7 @@ Outcome solveNist(const test::NistDataset& d, const std::vector<double>& start) 
     options.functionTolerance = 0;
     options.parameterTolerance = 0;
     options.gradientTolerance = 0;
-    options.refinementSteps = 10;
+    options.refinementSteps = 50;
     const SolverResult result = solveLeastSquares(problem, start, options);
     Outcome out;
     out.summary = result.summary;
@@ -281,12 +281,12 @@ TEST(NistStrd, ReaderReadsEveryFileWithItsHeaderCounts) {
     EXPECT_EQ(models().size(), 27u);
 }
 
-// Digits required: NIST certifies 11 significant digits; the certified values are themselves
-// rounded to 11, so about 10.5 is the most any solver can show. We require 7 digits in every
-// parameter and standard deviation and 9 in the residual sum of squares; most sets reach 10-11
-// (table in the printed output and in notes/fit.md).
-constexpr double kParameterDigits = 7.0;
-constexpr double kRssDigits = 9.0;
+// Digits required: NIST certifies 11 significant digits, and the certified values are
+// themselves rounded to 11, so about 10.5 is the most any solver can show. We require 10 digits
+// in every parameter, every standard deviation and the residual sum of squares, from both
+// starting points; the table (printed, and in notes/fit.md) shows 10.2 to 11.7.
+constexpr double kParameterDigits = 10.0;
+constexpr double kRssDigits = 10.0;
 
 // Cases that fail, with the reason (recorded in notes/fit.md). The test below checks that they
 // still fail as described, so this list cannot silently go stale.

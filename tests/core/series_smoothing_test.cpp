@@ -122,5 +122,44 @@ TEST(Smoothing, WindowLongerThanTheSeriesAveragesEverythingWithPartialEdges) {
         EXPECT_DOUBLE_EQ(v, 2.0);
 }
 
+// The running sums must give what a direct sum gives, on a long series with gaps (beyond the
+// 256-day re-anchoring) and for both edge rules.
+TEST(Smoothing, RunningSumsAgreeWithDirectSumsOnALongSeriesWithGaps) {
+    std::vector<double> x(1500);
+    for (std::size_t i = 0; i < x.size(); ++i) {
+        x[i] = (i % 97 == 5 || i % 131 < 3) ? kNaN : static_cast<double>((i * 7919) % 1000) / 7.0;
+    }
+    for (int w : {1, 3, 7, 15}) {
+        for (EdgeRule edges : {EdgeRule::Partial, EdgeRule::Missing}) {
+            const auto c = centredMovingAverage(x, w, edges);
+            const auto t = trailingMovingAverage(x, w, edges);
+            const int n = static_cast<int>(x.size());
+            for (int i = 0; i < n; ++i) {
+                auto direct = [&](int first) {
+                    double sum = 0;
+                    int count = 0;
+                    const int last = first + w - 1;
+                    if (edges == EdgeRule::Missing && (first < 0 || last >= n))
+                        return kNaN;
+                    for (int k = std::max(0, first); k <= std::min(n - 1, last); ++k) {
+                        if (std::isfinite(x[k])) {
+                            sum += x[k];
+                            ++count;
+                        }
+                    }
+                    return count ? sum / count : kNaN;
+                };
+                const double dc = direct(i - w / 2), dt = direct(i - w + 1);
+                ASSERT_EQ(std::isnan(c[i]), std::isnan(dc)) << w << " " << i;
+                ASSERT_EQ(std::isnan(t[i]), std::isnan(dt)) << w << " " << i;
+                if (!std::isnan(dc))
+                    ASSERT_NEAR(c[i], dc, 1e-9) << w << " " << i;
+                if (!std::isnan(dt))
+                    ASSERT_NEAR(t[i], dt, 1e-9) << w << " " << i;
+            }
+        }
+    }
+}
+
 }  // namespace
 }  // namespace siftwave::series

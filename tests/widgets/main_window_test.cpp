@@ -116,6 +116,29 @@ private Q_SLOTS:
                  window.workbench()->drop().days);
     }
 
+    void thePreviousReleaseIsDrawnAndItsRevisionsNamed() {
+        MainWindow window(testOptions());
+        window.show();
+        QVERIFY(openAndWait(window, kSample));
+        QSignalSpy previous(&window, &MainWindow::previousOpened);
+        window.openPreviousRelease(QStringLiteral(SIFTWAVE_SAMPLES_DIR "/quenmara_previous.csv"));
+        QVERIFY(previous.wait(20000));
+        // The samples README plants revisions of 1405's historic cases between the releases.
+        QVERIFY(window.selectRegion(QStringLiteral("1405")));
+        const siftwave::widgets::SeriesView& view = window.seriesPlot()->view();
+        QCOMPARE(static_cast<int>(view.previous.size()), view.days);
+        int revised = 0;
+        for (int d = 0; d < view.days; ++d) {
+            if (std::isnan(view.previous[d]) || std::isnan(view.raw[d]) || view.previous[d] == view.raw[d])
+                continue;
+            ++revised;
+            QVERIFY(siftwave::widgets::hoverText(view, d).contains(QStringLiteral("revised by")));
+        }
+        QVERIFY(revised > 0);
+        // The previous release is a week shorter: its last week has no number.
+        QVERIFY(std::isnan(view.previous[view.days - 1]));
+    }
+
     void aBadFileShowsTheReadersMessageAndTheWindowStaysUsable() {
         QTemporaryDir dir;
         QVERIFY(dir.isValid());

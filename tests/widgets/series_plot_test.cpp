@@ -11,7 +11,7 @@
 #include <limits>
 
 using siftwave::Date;
-using siftwave::widgets::DayRange;
+using siftwave::widgets::DayIndexRange;
 using siftwave::widgets::SeriesPlot;
 using siftwave::widgets::SeriesView;
 
@@ -64,7 +64,7 @@ private Q_SLOTS:
         plot.show();
         QVERIFY(QTest::qWaitForWindowExposed(&plot));
         plot.setView(syntheticView());
-        plot.setEditableWindow(DayRange{10, 30});
+        plot.setEditableWindow(DayIndexRange{10, 30});
         plot.customPlot()->replot();
         QSignalSpy changing(&plot, &SeriesPlot::windowChanging);
         QSignalSpy changed(&plot, &SeriesPlot::windowChanged);
@@ -82,7 +82,7 @@ private Q_SLOTS:
 
         QVERIFY(changing.count() >= 2);  // live, while dragging
         QCOMPARE(changed.count(), 1);
-        const auto window = changed.front().front().value<DayRange>();
+        const auto window = changed.front().front().value<DayIndexRange>();
         QCOMPARE(window.first, 10);
         QCOMPARE(window.last, 40);
         QCOMPARE(plot.editableWindow()->last, 40);
@@ -94,7 +94,7 @@ private Q_SLOTS:
         plot.show();
         QVERIFY(QTest::qWaitForWindowExposed(&plot));
         plot.setView(syntheticView());
-        plot.setEditableWindow(DayRange{10, 30});
+        plot.setEditableWindow(DayIndexRange{10, 30});
         QSignalSpy changed(&plot, &SeriesPlot::windowChanged);
         const double before = plot.customPlot()->xAxis->range().lower;
         QWidget* canvas = plot.customPlot();
@@ -104,7 +104,7 @@ private Q_SLOTS:
         sendMouse(canvas, QEvent::MouseMove, start + QPointF(-120, 0), Qt::LeftButton);
         sendMouse(canvas, QEvent::MouseButtonRelease, start + QPointF(-120, 0), Qt::NoButton);
         QCOMPARE(changed.count(), 0);
-        QCOMPARE(*plot.editableWindow(), (DayRange{10, 30}));
+        QCOMPARE(*plot.editableWindow(), (DayIndexRange{10, 30}));
         QVERIFY(plot.customPlot()->xAxis->range().lower >
                 before);  // the view moved right (data left)
 

@@ -43,10 +43,9 @@ public:
           m_kernel(std::move(kernel)),
           m_h(static_cast<int>(m_kernel.size()) / 2) {
         // Model days: every day from t_0 - h to t_last + h (the window spans `span` days).
-        for (int d = -m_h; d < span + m_h; ++d)
-            m_days.push_back(d);
-        m_f.resize(m_days.size());
-        m_jf.resize(m_days.size() * static_cast<std::size_t>(model.parameterCount()));
+        const std::size_t days = static_cast<std::size_t>(span + 2 * m_h);
+        m_f.resize(days);
+        m_jf.resize(days * static_cast<std::size_t>(model.parameterCount()));
     }
     int residualCount() const override { return static_cast<int>(m_t.size()); }
     int parameterCount() const override { return m_model.parameterCount(); }
@@ -54,28 +53,48 @@ public:
                   std::span<double> jac) const override {
         if (!m_model.valid(p))
             return false;
-        m_model.incidence(m_days, p, m_f,
-                          jac.empty() ? std::span<double>{} : std::span<double>(m_jf));
+        const bool withJacobian = !jac.empty();
+        m_model.incidenceOnDays(-m_h, p, m_f,
+                                withJacobian ? std::span<double>(m_jf) : std::span<double>{});
         const std::size_t np = p.size();
+        const std::size_t cols = withJacobian ? np + 1 : 1;
+        const bool uniform = m_kernel.size() % 2 == 1;
+        if (uniform) {
+            // Equal weights: window sums from prefix sums of the model and its Jacobian.
+            const std::size_t days = m_f.size();
+            m_prefix.assign((days + 1) * cols, 0.0);
+            for (std::size_t d = 0; d < days; ++d) {
+                m_prefix[(d + 1) * cols] = m_prefix[d * cols] + m_f[d];
+                for (std::size_t j = 1; j < cols; ++j) {
+                    m_prefix[(d + 1) * cols + j] = m_prefix[d * cols + j] + m_jf[d * np + j - 1];
+                }
+            }
+        }
+        const double a = 1.0 / static_cast<double>(m_kernel.size());
         for (std::size_t i = 0; i < m_t.size(); ++i) {
-            const int centre = static_cast<int>(m_t[i]) + m_h;  // index into m_days
+            const int centre = static_cast<int>(m_t[i]) + m_h;  // index into the model days
             double model = 0;
-            if (!jac.empty())
-                std::fill_n(&jac[i * np], np, 0.0);
-            for (int k = -m_h; k <= m_h; ++k) {
-                const double a = m_kernel[static_cast<std::size_t>(k + m_h)];
-                const std::size_t d = static_cast<std::size_t>(centre + k);
-                model += a * m_f[d];
-                if (!jac.empty()) {
-                    for (std::size_t j = 0; j < np; ++j)
-                        jac[i * np + j] += a * m_jf[d * np + j];
+            if (uniform) {
+                const std::size_t lo = static_cast<std::size_t>(centre - m_h) * cols;
+                const std::size_t hi = static_cast<std::size_t>(centre + m_h + 1) * cols;
+                model = a * (m_prefix[hi] - m_prefix[lo]);
+                for (std::size_t j = 1; j < cols; ++j) {
+                    jac[i * np + j - 1] = m_w[i] * a * (m_prefix[hi + j] - m_prefix[lo + j]);
+                }
+            } else {
+                if (withJacobian)
+                    std::fill_n(&jac[i * np], np, 0.0);
+                for (int k = -m_h; k <= m_h; ++k) {
+                    const double wk = m_kernel[static_cast<std::size_t>(k + m_h)];
+                    const std::size_t d = static_cast<std::size_t>(centre + k);
+                    model += wk * m_f[d];
+                    if (withJacobian) {
+                        for (std::size_t j = 0; j < np; ++j)
+                            jac[i * np + j] += wk * m_w[i] * m_jf[d * np + j];
+                    }
                 }
             }
             r[i] = m_w[i] * (model - m_y[i]);
-            if (!jac.empty()) {
-                for (std::size_t j = 0; j < np; ++j)
-                    jac[i * np + j] *= m_w[i];
-            }
         }
         return true;
     }
@@ -84,17 +103,16 @@ private:
     const WaveModel& m_model;
     std::vector<double> m_t, m_y, m_w, m_kernel;
     int m_h;
-    std::vector<double> m_days;
-    mutable std::vector<double> m_f, m_jf;
+    mutable std::vector<double> m_f, m_jf, m_prefix;
 };
 
 // ---------------------------------------------------------------- small numerical helpers
 template <class F>
-double goldenMaximum(F g, double a, double b, int iterations = 60) {
+double goldenMaximum(F g, double a, double b, double tolerance) {
     const double r = (std::sqrt(5.0) - 1.0) / 2.0;
     double c = b - r * (b - a), d = a + r * (b - a);
     double gc = g(c), gd = g(d);
-    for (int i = 0; i < iterations && std::abs(b - a) > 1e-9; ++i) {
+    while (std::abs(b - a) > tolerance) {
         if (gc > gd) {
             b = d;
             d = c;
@@ -138,17 +156,13 @@ std::array<double, kDerivedCount> derive(const WaveModel& model, std::span<const
     d[kEnd] = model.quantileTime(o.endQuantile, p);
     const double scale = std::max(1e-3, d[kEnd] - d[kStart]);
     const double h = 1e-4 * scale;
-    auto slope = [&](double t) {
-        return (model.incidenceAt(t + h, p) - model.incidenceAt(t - h, p)) / (2 * h);
-    };
-    const double early = model.quantileTime(1e-6, p);
-    d[kFastest] = goldenMaximum(slope, std::min(early, peak - h), peak);
+    d[kFastest] = model.fastestGrowthTime(p);
     const double f1 = model.incidenceAt(d[kStart] + h, p), f0 = model.incidenceAt(d[kStart] - h, p);
     const double growth = (f1 > 0 && f0 > 0) ? (std::log(f1) - std::log(f0)) / (2 * h) : kNaN;
     d[kDoubling] = growth > 0 ? std::numbers::ln2 / growth : kNaN;
     const double W = o.infectiousWindowDays;
     auto load = [&](double t) { return model.cumulative(t, p) - model.cumulative(t - W, p); };
-    const double at = goldenMaximum(load, peak - 1.0, peak + W + 1.0);
+    const double at = goldenMaximum(load, peak - 1.0, peak + W + 1.0, 1e-6 * scale);
     d[kLoad] = load(at);
     return d;
 }

@@ -194,11 +194,28 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
         D[j] = std::max(D[j], 1e-300);
     double lambda = options.initialDamping;
     double nu = 2.0;
-    Matrix A(m + n, n);
-    Vector b(m + n);
     Vector xNew(n);
+    Matrix JNew;
     summary.termination = Termination::MaxIterations;
     bool haveTermination = false;
+    // With an analytic Jacobian, a trial point is evaluated with its Jacobian at once (shared
+    // work, and most trial points are accepted); with numerical differences only on acceptance.
+    const bool jacobianWithTrial = problem.hasJacobian();
+
+    // J = Q R once per Jacobian; every damped step then solves the small system
+    // [R; sqrt(lambda D)] h = [-Q^T r; 0] (MINPACK's approach: More 1978, section 3).
+    Matrix R(n, n);
+    Vector qtr(n);
+    Matrix S(2 * n, n);
+    Vector rhs(2 * n);
+    Eigen::MatrixXd Jc;  // column-major copy: Householder QR runs down contiguous columns
+    auto factorise = [&]() {
+        Jc = J;
+        Eigen::HouseholderQR<Eigen::Ref<Eigen::MatrixXd>> qr(Jc);
+        R = qr.matrixQR().topRows(n).triangularView<Eigen::Upper>();
+        qtr = (qr.householderQ().transpose() * r).head(n);
+    };
+    factorise();
 
     auto gradientSmall = [&]() {
         const double rnorm = r.norm();
@@ -220,13 +237,13 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
 
     while (!haveTermination && summary.iterations < options.maxIterations) {
         ++summary.iterations;
-        A.topRows(m) = J;
-        A.bottomRows(n).setZero();
+        S.topRows(n) = R;
+        S.bottomRows(n).setZero();
         for (Eigen::Index j = 0; j < n; ++j)
-            A(m + j, j) = std::sqrt(lambda * D[j]);
-        b.head(m) = -r;
-        b.tail(n).setZero();
-        const Vector h = A.householderQr().solve(b);
+            S(n + j, j) = std::sqrt(lambda * D[j]);
+        rhs.head(n) = -qtr;
+        rhs.tail(n).setZero();
+        const Vector h = S.householderQr().solve(rhs);
         if (!allFinite(h.data(), static_cast<std::size_t>(n))) {
             summary.termination = Termination::NumericalFailure;
             summary.message = "the damped linear system gave a non-finite step";
@@ -237,10 +254,12 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
             break;
         }
         xNew = x + h;
-        const double predicted = 0.5 * (r.squaredNorm() - (r + J * h).squaredNorm());
+        const double predicted = 0.5 * (qtr.squaredNorm() - (qtr + R * h).squaredNorm());
         double rho = -1.0;
         double costNew = cost;
-        if (eval.residuals(xNew, rNew)) {
+        const bool evaluated = jacobianWithTrial ? eval.residualsAndJacobian(xNew, rNew, JNew)
+                                                 : eval.residuals(xNew, rNew);
+        if (evaluated) {
             costNew = 0.5 * rNew.squaredNorm();
             if (predicted > 0)
                 rho = (cost - costNew) / predicted;
@@ -249,11 +268,15 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
             const double reduction = cost - costNew;
             x = xNew;
             cost = costNew;
-            if (!eval.residualsAndJacobian(x, r, J)) {
+            if (jacobianWithTrial) {
+                r.swap(rNew);
+                J.swap(JNew);
+            } else if (!eval.residualsAndJacobian(x, r, J)) {
                 summary.termination = Termination::NumericalFailure;
                 summary.message = "the Jacobian is not finite at an accepted point";
                 break;
             }
+            factorise();
             D = D.cwiseMax(J.colwise().squaredNorm().transpose());
             lambda *= std::max(1.0 / 3.0, 1.0 - std::pow(2.0 * rho - 1.0, 3));
             nu = 2.0;
@@ -277,26 +300,33 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
     }
 
     // Gauss-Newton polish: near the minimum the cost cannot resolve steps finer than about
-    // sqrt(machine epsilon), but undamped Gauss-Newton steps converge on J^T r = 0 to working
-    // precision. A step is kept while it does not raise the cost beyond rounding.
+    // sqrt(machine epsilon), but the Gauss-Newton iteration converges on J^T r = 0 to working
+    // precision. Steps are taken while they keep shrinking (a converging fixed-point iteration)
+    // and do not raise the cost by more than 1e-9 of itself (rounding noise in small costs);
+    // a step is halved up to 8 times in a curved valley.
+    double previousStep = std::numeric_limits<double>::infinity();
     for (int k = 0; summary.converged() && k < options.refinementSteps; ++k) {
-        const Vector h = J.householderQr().solve(-r);
+        Vector h = J.colPivHouseholderQr().solve(-r);
         if (!allFinite(h.data(), static_cast<std::size_t>(n)))
             break;
-        xNew = x + h;
-        if (!eval.residuals(xNew, rNew))
+        bool accepted = false;
+        double costNew = cost;
+        for (int halving = 0; halving <= 8 && !accepted; ++halving, h *= 0.5) {
+            if (h.norm() >= previousStep)
+                continue;
+            xNew = x + h;
+            if (!eval.residualsAndJacobian(xNew, rNew, JNew))
+                continue;
+            costNew = 0.5 * rNew.squaredNorm();
+            accepted = costNew <= cost * (1.0 + 1e-9);
+        }
+        if (!accepted)
             break;
-        const double costNew = 0.5 * rNew.squaredNorm();
-        if (costNew > cost * (1.0 + 1e-12))
-            break;
-        Matrix JNew;
-        Vector rCheck;
-        if (!eval.residualsAndJacobian(xNew, rCheck, JNew))
-            break;
-        const bool tiny = h.norm() <= 1e-15 * x.norm();
+        previousStep = (xNew - x).norm();
+        const bool tiny = previousStep <= 1e-15 * x.norm();
         x = xNew;
-        r = rCheck;
-        J = JNew;
+        r.swap(rNew);
+        J.swap(JNew);
         cost = costNew;
         if (tiny)
             break;

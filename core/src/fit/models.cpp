@@ -170,6 +170,28 @@ public:
             }
         }
     }
+    void incidenceOnDays(double t0, std::span<const double> p, std::span<double> out,
+                         std::span<double> jac) const override {
+        const double K = p[0], mu = p[1], beta = p[2];
+        const double step = std::exp(-1.0 / beta);
+        double u = 0;
+        for (std::size_t i = 0; i < out.size(); ++i) {
+            const double t = t0 + static_cast<double>(i);
+            const double z = (t - mu) / beta;
+            u = (i % 32 == 0) ? std::exp(-z) : u * step;
+            const double f = std::isfinite(u) ? K / beta * u * std::exp(-u) : 0.0;
+            out[i] = f;
+            if (!jac.empty()) {
+                double* row = &jac[3 * i];
+                row[0] = f / K;
+                row[1] = f == 0.0 ? 0.0 : f * (1.0 - u) / beta;
+                row[2] = f == 0.0 ? 0.0 : f * (z * (1.0 - u) - 1.0) / beta;
+            }
+        }
+    }
+    double fastestGrowthTime(std::span<const double> p) const override {
+        return p[1] - p[2] * std::log((3.0 + std::sqrt(5.0)) / 2.0);
+    }
     double cumulative(double t, std::span<const double> p) const override {
         return p[0] * std::exp(-std::exp(-(t - p[1]) / p[2]));
     }
@@ -221,6 +243,9 @@ public:
                 row[2] = f * (z * (F - G) - 1.0) / s;
             }
         }
+    }
+    double fastestGrowthTime(std::span<const double> p) const override {
+        return p[1] - p[2] * std::log(2.0 + std::sqrt(3.0));
     }
     double cumulative(double t, std::span<const double> p) const override {
         return p[0] / (1.0 + std::exp(-(t - p[1]) / p[2]));
@@ -383,6 +408,45 @@ double WaveModel::incidenceAt(double t, std::span<const double> p) const {
     double out = 0;
     incidence(std::span<const double>(&t, 1), p, std::span<double>(&out, 1));
     return out;
+}
+
+void WaveModel::incidenceOnDays(double t0, std::span<const double> p, std::span<double> out,
+                                std::span<double> jacobian) const {
+    thread_local std::vector<double> days;
+    days.resize(out.size());
+    for (std::size_t i = 0; i < out.size(); ++i)
+        days[i] = t0 + static_cast<double>(i);
+    incidence(days, p, out, jacobian);
+}
+
+double WaveModel::fastestGrowthTime(std::span<const double> p) const {
+    const double peak = peakTime(p);
+    const double early = std::min(quantileTime(1e-6, p), peak - 1e-3);
+    const double h = 1e-4 * std::max(1e-3, quantileTime(0.975, p) - quantileTime(0.025, p));
+    auto slope = [&](double t) {
+        return (incidenceAt(t + h, p) - incidenceAt(t - h, p)) / (2 * h);
+    };
+    // Golden-section search for the maximum of f' on [early, peak] (f' is unimodal there).
+    const double g = (std::sqrt(5.0) - 1.0) / 2.0;
+    double a = early, b = peak;
+    double c = b - g * (b - a), d = a + g * (b - a);
+    double fc = slope(c), fd = slope(d);
+    while (b - a > 1e-7 * (1.0 + std::abs(peak))) {
+        if (fc > fd) {
+            b = d;
+            d = c;
+            fd = fc;
+            c = b - g * (b - a);
+            fc = slope(c);
+        } else {
+            a = c;
+            c = d;
+            fc = fd;
+            d = a + g * (b - a);
+            fd = slope(d);
+        }
+    }
+    return 0.5 * (a + b);
 }
 
 const WaveModel& waveModel(ModelKind kind) {

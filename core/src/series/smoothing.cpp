@@ -37,6 +37,45 @@ std::vector<double> weightedAverage(std::span<const double> x, std::span<const d
     return out;
 }
 
+// The same for equal weights, with a running sum and count of the finite values: O(n) for any
+// window. The sum is recomputed from scratch every 256 days so rounding cannot drift (for
+// integer counts it is exact anyway).
+std::vector<double> uniformAverage(std::span<const double> x, int len, int offset, EdgeRule edges) {
+    const int n = static_cast<int>(x.size());
+    std::vector<double> out(x.size(), kNaN);
+    double sum = 0.0;
+    int count = 0;
+    int lo = 0, hi = 0;  // the running sum covers x[lo, hi)
+    for (int i = 0; i < n; ++i) {
+        const int first = std::max(0, i - offset);
+        const int end = std::min(n, i - offset + len);
+        if (i % 256 == 0) {
+            sum = 0.0;
+            count = 0;
+            lo = hi = first;
+        }
+        for (; hi < end; ++hi) {
+            const double v = x[static_cast<std::size_t>(hi)];
+            if (std::isfinite(v)) {
+                sum += v;
+                ++count;
+            }
+        }
+        for (; lo < first; ++lo) {
+            const double v = x[static_cast<std::size_t>(lo)];
+            if (std::isfinite(v)) {
+                sum -= v;
+                --count;
+            }
+        }
+        if (edges == EdgeRule::Missing && (i - offset < 0 || i - offset + len > n))
+            continue;
+        if (count > 0)
+            out[static_cast<std::size_t>(i)] = sum / count;
+    }
+    return out;
+}
+
 }  // namespace
 
 Status MovingAverageOptions::validate() const {
@@ -51,17 +90,14 @@ Status MovingAverageOptions::validate() const {
 std::vector<double> trailingMovingAverage(std::span<const double> values, int window,
                                           EdgeRule edges) {
     assert(window >= 1);
-    const std::vector<double> weights(static_cast<std::size_t>(window), 1.0);
-    return weightedAverage(values, weights, window - 1, edges);
+    return uniformAverage(values, window, window - 1, edges);
 }
 
 std::vector<double> centredMovingAverage(std::span<const double> values, int window,
                                          EdgeRule edges) {
     assert(window >= 1);
-    if (window % 2 == 1) {
-        const std::vector<double> weights(static_cast<std::size_t>(window), 1.0);
-        return weightedAverage(values, weights, window / 2, edges);
-    }
+    if (window % 2 == 1)
+        return uniformAverage(values, window, window / 2, edges);
     // 2 x w: w + 1 taps, half weight at both ends.
     std::vector<double> weights(static_cast<std::size_t>(window) + 1, 1.0);
     weights.front() = 0.5;

@@ -74,6 +74,15 @@ public:
     /// row-major (t.size() x parameterCount()). Parameters must be valid().
     virtual void incidence(std::span<const double> t, std::span<const double> p,
                            std::span<double> out, std::span<double> jacobian = {}) const = 0;
+    /// Incidence on the consecutive days t0, t0 + 1, ..., t0 + out.size() - 1: the same values
+    /// as incidence() on that grid (the Gumbel uses a recurrence for exp(-z) there, re-anchored
+    /// every 32 days, which halves its exponentials).
+    virtual void incidenceOnDays(double t0, std::span<const double> p, std::span<double> out,
+                                 std::span<double> jacobian = {}) const;
+    /// The day of fastest growth (largest f') before the peak. Closed forms for the Gumbel,
+    /// t = mu - beta ln((3 + sqrt 5)/2), and the logistic, t = mu - s ln(2 + sqrt 3) (zeros of
+    /// f''); golden-section search on f' otherwise.
+    virtual double fastestGrowthTime(std::span<const double> p) const;
     /// Cumulative incidence K F(t).
     virtual double cumulative(double t, std::span<const double> p) const = 0;
     /// The day t at which F(t) = q, 0 < q < 1.

@@ -84,4 +84,8 @@ struct Finding {
 /// The JSON object described above.
 nlohmann::json findingToJson(const Finding& finding);
 
+/// One line for a person, from the evidence: "observed 2643 where about 199 was expected
+/// (excess 2444)". For tables and list views.
+std::string describeFinding(const Finding& finding);
+
 }  // namespace siftwave::scan

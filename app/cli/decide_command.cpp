@@ -1,0 +1,418 @@
+// siftwave-cli decide LEDGER --drop FILE KIND [parameters] --reason TEXT [--author NAME]:
+// appends one decision to the ledger (created if needed).
+#include "commands.h"
+#include "common.h"
+#include "ledger_support.h"
+
+#include "siftwave/ledger/decision.h"
+#include "siftwave/ledger/ledger_file.h"
+#include "siftwave/ledger/replay.h"
+#include "siftwave/scan/backlog.h"
+
+#include <cstdio>
+#include <cstdlib>
+
+namespace siftwave::cli {
+namespace {
+
+const char* kUsage =
+    "usage: siftwave-cli decide LEDGER --drop FILE KIND [parameters] --reason TEXT\n"
+    "                           [--author NAME] [--dry-run] [ingest flags] [--json]\n"
+    "\n"
+    "Records one cleaning decision in the ledger LEDGER (JSON Lines, created if needed),\n"
+    "after checking it on the drop FILE and the decisions already in the ledger. Every\n"
+    "decision needs a reason. Decisions that move counts keep each region's total exactly.\n"
+    "\n"
+    "KIND and its parameters:\n"
+    "  redistribute       --region CODE --measure NAME --date DAY --excess N|auto\n"
+    "                     --window FIRST:LAST --method uniform|proportional|baseline\n"
+    "                     [--baseline-width N]\n"
+    "                     moves N counts from DAY over the earlier days FIRST..LAST (largest\n"
+    "                     remainder method); auto takes the excess the scan estimates for DAY\n"
+    "                     and, without --window, the window it suggests\n"
+    "  spread_negative    --region CODE --measure NAME --date DAY [--window FIRST:LAST]\n"
+    "                     sets the negative value on DAY to 0 and takes it from the earlier\n"
+    "                     days (default: all of them) in proportion to their counts\n"
+    "  fill_missing       --region CODE --measure NAME --days FIRST:LAST --method "
+    "zero|linear|share\n"
+    "                     fills days without a value; share splits the next day's catch-up\n"
+    "                     value over the gap and itself (total kept), zero and linear state\n"
+    "                     their change\n"
+    "  resolve_duplicate  --region CODE --measure NAME --date DAY --keep first|last|sum|max\n"
+    "  merge_codes        --variant CODE --into CODE   (all measures; e.g. 412 into 0412)\n"
+    "  exclude            [--region CODE] [--measure NAME] [--days FIRST:LAST]\n"
+    "                     leaves cells out (a region, a day range, or both); the total drops\n"
+    "                     by their sum\n"
+    "  accept             --region CODE [--measure NAME] [--days FIRST:LAST]\n"
+    "                     keeps the data as reported; records that it was looked at and why\n"
+    "  withdraw           --entry N   undoes entry N (withdrawing a withdrawal redoes it)\n"
+    "Any kind takes --finding ID, the scan finding the decision answers. --measure may be\n"
+    "left out when the drop has one measure. Days are YYYY-MM-DD.\n"
+    "\n"
+    "Exit codes: 0 recorded, 1 bad input or a decision refused (nothing written), 2 wrong usage.\n"
+    "\n"
+    "options:\n";
+
+std::vector<FlagSpec> decideFlagSpecs() {
+    std::vector<FlagSpec> specs = {
+        {"drop", true, false, "FILE", "the data drop the ledger belongs to (required)"},
+        {"reason", true, false, "TEXT", "why: required, not blank"},
+        {"author", true, false, "NAME", "who decides (default: the OS user)"},
+        {"region", true, false, "CODE", "region code, verbatim"},
+        {"measure", true, false, "NAME", "measure (default: the drop's only measure)"},
+        {"date", true, false, "DAY",
+         "the day decided on (redistribute, spread_negative, resolve_duplicate)"},
+        {"excess", true, false, "N|auto",
+         "redistribute: counts to move, or auto (the scan's estimate)"},
+        {"window", true, false, "FIRST:LAST",
+         "redistribute: receiving days; spread_negative: absorbing days"},
+        {"days", true, false, "FIRST:LAST", "fill_missing, exclude, accept: the days"},
+        {"method", true, false, "NAME",
+         "redistribute: uniform|proportional|baseline; fill_missing: zero|linear|share"},
+        {"baseline-width", true, false, "N",
+         "redistribute --method baseline: moving-average width, odd 3..21 (default 7)"},
+        {"keep", true, false, "RULE", "resolve_duplicate: first|last|sum|max"},
+        {"variant", true, false, "CODE", "merge_codes: the code folded away"},
+        {"into", true, false, "CODE", "merge_codes: the canonical code kept"},
+        {"entry", true, false, "N", "withdraw: the id of the entry to undo"},
+        {"finding", true, false, "ID", "the scan finding this decision answers"},
+        {"dry-run", false, false, "", "show what the decision would do; write nothing"},
+        {"json", false, false, "", "print JSON instead of text"},
+        {"help", false, false, "", "show this help"},
+    };
+    for (FlagSpec& s : ingestFlagSpecs())
+        specs.push_back(std::move(s));
+    return specs;
+}
+
+std::string usageText() {
+    return std::string(kUsage) + formatFlags(decideFlagSpecs());
+}
+
+Error usage(std::string message) {
+    return makeError(ErrorCode::Usage, std::move(message));
+}
+
+Result<DayRange> rangeFlag(const ParsedArgs& args, const char* name) {
+    const std::string text = args.value(name);
+    auto r = DayRange::fromIso(text);
+    if (!r)
+        return usage(std::string("--") + name +
+                     " takes FIRST:LAST as YYYY-MM-DD:YYYY-MM-DD, FIRST <= LAST, not '" + text +
+                     "'");
+    return *r;
+}
+
+Result<std::int64_t> positiveFlag(const ParsedArgs& args, const char* name) {
+    const std::string text = args.value(name);
+    char* end = nullptr;
+    const long long v = std::strtoll(text.c_str(), &end, 10);
+    if (text.empty() || *end != '\0' || v <= 0)
+        return usage(std::string("--") + name + " takes a whole number greater than 0, not '" +
+                     text + "'");
+    return static_cast<std::int64_t>(v);
+}
+
+/// The flags each kind accepts besides the common ones.
+std::vector<std::string> kindFlags(DecisionKind kind) {
+    switch (kind) {
+        case DecisionKind::Redistribute:
+            return {"region", "measure", "date", "excess", "window", "method", "baseline-width"};
+        case DecisionKind::SpreadNegative:
+            return {"region", "measure", "date", "window"};
+        case DecisionKind::FillMissing:
+            return {"region", "measure", "days", "method"};
+        case DecisionKind::ResolveDuplicate:
+            return {"region", "measure", "date", "keep"};
+        case DecisionKind::MergeCodes:
+            return {"variant", "into"};
+        case DecisionKind::Exclude:
+        case DecisionKind::Accept:
+            return {"region", "measure", "days"};
+        case DecisionKind::Withdraw:
+            return {"entry"};
+    }
+    return {};
+}
+
+/// The decision the flags describe (the excess left at 0 for --excess auto).
+Result<Decision> decisionFrom(const ParsedArgs& args, DecisionKind kind, const Drop& drop) {
+    const std::vector<std::string> allowed = kindFlags(kind);
+    for (const char* flag : {"region", "measure", "date", "excess", "window", "days", "method",
+                             "baseline-width", "keep", "variant", "into", "entry"}) {
+        if (args.has(flag) && std::find(allowed.begin(), allowed.end(), flag) == allowed.end())
+            return usage(std::string("--") + flag + " does not apply to " + decisionKindName(kind));
+    }
+    Decision d;
+    d.kind = kind;
+    d.region = args.value("region");
+    d.measure = args.value("measure");
+    d.finding = args.value("finding");
+    const bool namesCells = kind != DecisionKind::MergeCodes && kind != DecisionKind::Withdraw &&
+                            kind != DecisionKind::Exclude && kind != DecisionKind::Accept;
+    if (namesCells && d.measure.empty() && drop.measures.size() == 1)
+        d.measure = drop.measures.front();
+    if (args.has("date")) {
+        auto date = Date::fromIso(args.value("date"));
+        if (!date)
+            return usage("--date takes a real day as YYYY-MM-DD, not '" + args.value("date") + "'");
+        d.date = *date;
+    }
+    if (args.has("window")) {
+        auto r = rangeFlag(args, "window");
+        if (!r)
+            return r.error();
+        d.window = *r;
+    }
+    if (args.has("days")) {
+        auto r = rangeFlag(args, "days");
+        if (!r)
+            return r.error();
+        d.window = *r;
+    }
+    if (args.has("excess") && args.value("excess") != "auto") {
+        auto n = positiveFlag(args, "excess");
+        if (!n)
+            return n.error();
+        d.excess = *n;
+    }
+    if (args.has("baseline-width")) {
+        auto n = positiveFlag(args, "baseline-width");
+        if (!n)
+            return n.error();
+        d.baselineWidth = static_cast<int>(*n);
+    }
+    if (args.has("method")) {
+        const std::string m = args.value("method");
+        if (kind == DecisionKind::Redistribute) {
+            auto method = redistributeMethodFromName(m);
+            if (!method)
+                return usage(
+                    "--method for redistribute is uniform, proportional or baseline, not '" + m +
+                    "'");
+            d.redistributeMethod = *method;
+        } else {
+            auto method = fillMethodFromName(m);
+            if (!method)
+                return usage("--method for fill_missing is zero, linear or share, not '" + m + "'");
+            d.fillMethod = *method;
+        }
+    } else if (kind == DecisionKind::Redistribute || kind == DecisionKind::FillMissing) {
+        return usage(std::string(decisionKindName(kind)) + " needs --method");
+    }
+    if (args.has("keep")) {
+        auto rule = duplicateRuleFromName(args.value("keep"));
+        if (!rule)
+            return usage("--keep is first, last, sum or max, not '" + args.value("keep") + "'");
+        d.duplicateRule = *rule;
+    } else if (kind == DecisionKind::ResolveDuplicate) {
+        return usage("resolve_duplicate needs --keep first|last|sum|max");
+    }
+    d.variant = args.value("variant");
+    d.into = args.value("into");
+    if (args.has("entry")) {
+        auto n = positiveFlag(args, "entry");
+        if (!n)
+            return n.error();
+        d.target = static_cast<std::uint64_t>(*n);
+    }
+    if (kind == DecisionKind::Redistribute && !args.has("excess"))
+        return usage("redistribute needs --excess N or --excess auto");
+    return d;
+}
+
+/// --excess auto: the scan's backlog estimate for the day (and its window when none is given).
+Status resolveAutoExcess(const Drop& drop, Decision& d, bool windowGiven);
+
+nlohmann::json effectSummaryJson(const Effect& effect) {
+    nlohmann::json totals = nlohmann::json::array();
+    for (const TotalChange& t : effect.totals)
+        totals.push_back({{"region", t.region},
+                          {"measure", t.measure},
+                          {"before", t.before},
+                          {"after", t.after}});
+    nlohmann::json cells = nlohmann::json::array();
+    for (const CellChange& c : effect.cells) {
+        cells.push_back({{"region", c.region},
+                         {"measure", c.measure},
+                         {"date", c.date.iso()},
+                         {"before", c.before.hasValue() ? nlohmann::json(c.before.value)
+                                                        : nlohmann::json(nullptr)},
+                         {"after", c.after.hasValue() ? nlohmann::json(c.after.value)
+                                                      : nlohmann::json(nullptr)},
+                         {"state_before", cleanedStateName(c.before.state)},
+                         {"state_after", cleanedStateName(c.after.state)}});
+    }
+    return {{"cells", cells}, {"totals", totals}};
+}
+
+void printEffectText(const Effect& effect) {
+    const std::size_t shown = std::min<std::size_t>(effect.cells.size(), 40);
+    for (std::size_t i = 0; i < shown; ++i) {
+        const CellChange& c = effect.cells[i];
+        auto value = [](const CleanedCell& cell) {
+            return cell.hasValue() ? std::to_string(cell.value)
+                                   : std::string(cleanedStateName(cell.state));
+        };
+        std::printf("  %s %s %s: %s -> %s\n", c.date.iso().c_str(), c.region.c_str(),
+                    c.measure.c_str(), value(c.before).c_str(), value(c.after).c_str());
+    }
+    if (effect.cells.size() > shown)
+        std::printf("  ... %zu more cells\n", effect.cells.size() - shown);
+    for (const TotalChange& t : effect.totals) {
+        std::printf("  total %s %s: %lld -> %lld%s\n", t.region.c_str(), t.measure.c_str(),
+                    static_cast<long long>(t.before), static_cast<long long>(t.after),
+                    t.before == t.after ? " (unchanged)" : "");
+    }
+}
+
+}  // namespace
+
+int runDecide(int argc, char** argv, int first) {
+    const std::vector<FlagSpec> specs = decideFlagSpecs();
+    bool wantsJson = false;
+    for (int i = first; i < argc; ++i) {
+        const std::string a = argv[i];
+        if (a == "--help" || a == "-h") {
+            std::printf("%s", usageText().c_str());
+            return kExitOk;
+        }
+        if (a == "--json")
+            wantsJson = true;
+    }
+    std::string parseError;
+    std::optional<ParsedArgs> args = parseArgs(argc, argv, first, specs, parseError);
+    if (!args)
+        return usageError(parseError, wantsJson, usageText());
+    const bool json = args->has("json");
+    if (args->positional.size() != 2)
+        return usageError("decide needs LEDGER and KIND", json, usageText());
+    const std::string ledgerPath = args->positional[0];
+    const std::optional<DecisionKind> kind = decisionKindFromName(args->positional[1]);
+    if (!kind) {
+        return usageError(
+            "unknown decision kind '" + args->positional[1] +
+                "'; use redistribute, spread_negative, fill_missing, resolve_duplicate, "
+                "merge_codes, exclude, accept or withdraw",
+            json, usageText());
+    }
+    if (!args->has("drop"))
+        return usageError("decide needs --drop FILE, the drop the ledger belongs to", json,
+                          usageText());
+    const bool dryRun = args->has("dry-run");
+    if (!dryRun && args->value("reason").find_first_not_of(" \t\r\n") == std::string::npos)
+        return usageError("every decision needs a reason: --reason TEXT", json, usageText());
+    if (samePath(ledgerPath, args->value("drop")))
+        return usageError("the ledger cannot be the drop file itself", json, usageText());
+    if (Result<IngestOptions> o = ingestOptionsFrom(*args); !o) {
+        printError(o.error(), json);
+        return kExitUsage;
+    }
+
+    Result<Drop> drop = loadDrop(args->value("drop"), *args);
+    if (!drop) {
+        printError(drop.error(), json);
+        return kExitBadInput;
+    }
+    Result<Decision> decision = decisionFrom(*args, *kind, *drop);
+    if (!decision)
+        return usageError(decision.error().message, json, usageText());
+    const bool autoExcess = *kind == DecisionKind::Redistribute && args->value("excess") == "auto";
+    if (autoExcess) {
+        if (Status s = resolveAutoExcess(*drop, *decision, args->has("window")); !s) {
+            printError(s.error(), json);
+            return s.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+        }
+    }
+    if (Status s = decision->validate(); !s)
+        return usageError(s.error().message, json, usageText());
+
+    Result<Ledger> ledger = openLedger(ledgerPath, true);
+    if (!ledger) {
+        printError(ledger.error(), json);
+        return kExitBadInput;
+    }
+    Result<Cleaned> cleaned = replayLedger(*drop, *ledger, ledgerPath);
+    if (!cleaned) {
+        printError(cleaned.error(), json);
+        return kExitBadInput;
+    }
+
+    if (dryRun) {
+        Result<Effect> effect = previewDecision(*drop, *cleaned, *decision);
+        if (!effect) {
+            printError(effect.error(), json);
+            return kExitBadInput;
+        }
+        if (json) {
+            nlohmann::json out = effectSummaryJson(*effect);
+            out["dry_run"] = true;
+            out["kind"] = decisionKindName(*kind);
+            printJson(out);
+        } else {
+            std::printf("%s (dry run, nothing written):\n", decisionKindName(*kind));
+            printEffectText(*effect);
+        }
+        return kExitOk;
+    }
+
+    EntryMeta meta;
+    meta.author = args->value("author");
+    meta.reason = args->value("reason");
+    Result<LedgerEntry> entry = draftEntry(*drop, *ledger, *cleaned, *decision, meta);
+    if (!entry) {
+        printError(entry.error(), json);
+        return entry.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+    }
+    if (Status s = appendLedgerEntry(ledgerPath, *entry); !s) {
+        printError(s.error(), json);
+        return kExitBadInput;
+    }
+    if (json) {
+        nlohmann::json out = {{"ledger", ledgerPath}, {"entry", entryToJsonObject(*entry)}};
+        if (autoExcess)
+            out["excess_from"] = "scan backlog estimate";
+        printJson(out);
+    } else {
+        std::printf("entry %llu recorded in %s: %s by %s\n",
+                    static_cast<unsigned long long>(entry->sequence), ledgerPath.c_str(),
+                    decisionKindName(*kind), entry->author.c_str());
+        if (autoExcess)
+            std::printf("  excess %lld and window %s from the scan's backlog estimate\n",
+                        static_cast<long long>(decision->excess), decision->window->iso().c_str());
+        printEffectText(entry->effect);
+    }
+    return kExitOk;
+}
+
+namespace {
+
+Status resolveAutoExcess(const Drop& drop, Decision& d, bool windowGiven) {
+    if (d.region.empty() || d.measure.empty() || !d.date)
+        return makeError(ErrorCode::Usage, "--excess auto needs --region, --measure and --date");
+    Result<scan::BacklogEstimate> estimate =
+        scan::estimateBacklog(drop, d.measure, d.region, *d.date);
+    if (!estimate) {
+        Error e = estimate.error();
+        e.message = "the scan cannot estimate an excess for this day: " + e.message;
+        return e;
+    }
+    if (estimate->excess <= 0) {
+        Error e = makeError(ErrorCode::InvalidValue,
+                            "the scan estimates no excess for this day (observed " +
+                                std::to_string(estimate->observed) + ", expected about " +
+                                std::to_string(static_cast<long long>(estimate->expected + 0.5)) +
+                                "); give --excess N to move counts anyway");
+        e.region = d.region;
+        e.date = d.date->iso();
+        return e;
+    }
+    d.excess = estimate->excess;
+    if (!windowGiven)
+        d.window = DayRange{estimate->windowFirst, estimate->windowLast};
+    return Ok{};
+}
+
+}  // namespace
+
+}  // namespace siftwave::cli

@@ -1,0 +1,169 @@
+// siftwave-cli scan FILE [--previous FILE] [--regions FILE] [--set NAME=VALUE]... [ingest flags]
+// [--json]: every finding of the anomaly scan, ranked for review.
+#include "commands.h"
+#include "common.h"
+
+#include "siftwave/scan/scan.h"
+
+#include <cstdio>
+#include <string>
+
+namespace siftwave::cli {
+namespace {
+
+void printUsage(std::FILE* to, const std::vector<FlagSpec>& specs) {
+    std::fprintf(to,
+                 "usage: siftwave-cli scan FILE [--previous FILE] [--regions FILE] "
+                 "[--set NAME=VALUE]... [ingest flags] [--json]\n\n"
+                 "Scans a data drop for missing dates, duplicate rows, negative counts, backlog "
+                 "dumps,\nreporting gaps, stale values, code problems, weekday effects, "
+                 "cumulative decreases,\nhierarchy mismatches and (with --previous) revisions. "
+                 "Findings are ranked: the ones\nthat would change a briefing come first. The "
+                 "previous drop is read with the same ingest\nflags. Exit codes: 0 scanned (with "
+                 "or without findings), 1 an input cannot be read,\n2 wrong usage.\n\n"
+                 "options:\n%s\nscan settings for --set (default in brackets):\n",
+                 formatFlags(specs).c_str());
+    for (const scan::OptionDescription& d : scan::describeScanOptions()) {
+        std::fprintf(to, "  %-38s %s [%s]\n", d.name.c_str(), d.help.c_str(),
+                     d.defaultValue.c_str());
+    }
+}
+
+std::string dates(const scan::Finding& f) {
+    if (!f.first)
+        return "-";
+    if (*f.first == *f.last)
+        return f.first->iso();
+    return f.first->iso() + ".." + f.last->iso();
+}
+
+void printTable(const scan::ScanReport& report, const Drop& drop) {
+    std::printf("%s: %zu finding(s)", drop.source.path.c_str(), report.findings.size());
+    std::string sep = " (";
+    for (const char* s : {"critical", "warning", "info"}) {
+        const std::size_t n = report.bySeverity.at(s);
+        if (n == 0)
+            continue;
+        std::printf("%s%zu %s", sep.c_str(), n, s);
+        sep = ", ";
+    }
+    std::printf("%s\n", sep == " (" ? "" : ")");
+    if (report.findings.empty())
+        return;
+    std::printf("\n%4s  %-8s  %-19s  %-10s  %-8s  %-22s  %s\n", "rank", "severity", "kind",
+                "region", "measure", "dates", "what");
+    for (const scan::Finding& f : report.findings) {
+        std::printf("%4d  %-8s  %-19s  %-10s  %-8s  %-22s  %s\n", f.rank,
+                    scan::severityName(f.severity), scan::findingKindName(f.kind),
+                    f.region ? (f.region->empty() ? "\"\"" : f.region->c_str()) : "(all)",
+                    f.measure ? f.measure->c_str() : "(all)", dates(f).c_str(),
+                    scan::describeFinding(f).c_str());
+    }
+    if (report.revisions.compared) {
+        const scan::RevisionSummary& r = report.revisions;
+        std::printf(
+            "\nrevisions: %zu of %zu compared cells changed, %zu appeared, %zu vanished, in %zu "
+            "region(s); net change %.0f, absolute %.0f (%.2f %% of the previous total)\n",
+            r.cellsChanged, r.cellsCompared, r.cellsAppeared, r.cellsVanished, r.regionsRevised,
+            r.netChange, r.absoluteChange,
+            r.previousTotal > 0 ? 100.0 * r.absoluteChange / r.previousTotal : 0.0);
+    }
+}
+
+}  // namespace
+
+int runScan(int argc, char** argv, int first) {
+    std::vector<FlagSpec> specs = ingestFlagSpecs();
+    specs.push_back({"previous", true, false, "FILE", "the previous release, to find revisions"});
+    specs.push_back({"regions", true, false, "FILE",
+                     "a region register (code,name,parent,population): unknown codes, "
+                     "hierarchy"});
+    specs.push_back({"set", true, true, "NAME=VALUE",
+                     "change a scan setting, e.g. backlog_dump.min_excess=50"});
+    specs.push_back({"json", false, false, "", "print JSON instead of a table"});
+    specs.push_back({"help", false, false, "", "show this help and the scan settings"});
+    bool wantsJson = false;
+    for (int i = first; i < argc; ++i) {
+        const std::string a = argv[i];
+        if (a == "--help" || a == "-h") {
+            printUsage(stdout, specs);
+            return kExitOk;
+        }
+        if (a == "--json")
+            wantsJson = true;
+    }
+    std::string parseError;
+    std::optional<ParsedArgs> args = parseArgs(argc, argv, first, specs, parseError);
+    if (!args) {
+        printError(makeError(ErrorCode::Usage, parseError), wantsJson);
+        return kExitUsage;
+    }
+    const bool json = args->has("json");
+    if (args->positional.size() != 1) {
+        printError(
+            makeError(ErrorCode::Usage, args->positional.empty() ? "scan needs a FILE to read"
+                                                                 : "scan reads one FILE at a time"),
+            json);
+        return kExitUsage;
+    }
+    scan::ScanOptions options;
+    for (const std::string& setting : args->values("set")) {
+        const std::size_t eq = setting.find('=');
+        if (eq == std::string::npos) {
+            printError(makeError(ErrorCode::Usage,
+                                 "--set takes NAME=VALUE, e.g. backlog_dump.min_excess=50, not '" +
+                                     setting + "'"),
+                       json);
+            return kExitUsage;
+        }
+        if (Status s = options.set(setting.substr(0, eq), setting.substr(eq + 1)); !s) {
+            printError(s.error(), json);
+            return kExitUsage;
+        }
+    }
+    if (Result<IngestOptions> o = ingestOptionsFrom(*args); !o) {
+        printError(o.error(), json);
+        return kExitUsage;
+    }
+
+    Result<Drop> drop = loadDrop(args->positional[0], *args);
+    if (!drop) {
+        printError(drop.error(), json);
+        return kExitBadInput;
+    }
+    scan::ScanContext context;
+    std::optional<Drop> previous;
+    if (auto path = args->optionalValue("previous")) {
+        Result<Drop> p = loadDrop(*path, *args);
+        if (!p) {
+            printError(p.error(), json);
+            return kExitBadInput;
+        }
+        previous = std::move(*p);
+        context.previous = &*previous;
+    }
+    std::optional<RegionRegister> regions;
+    if (auto path = args->optionalValue("regions")) {
+        Result<RegionRegister> r = readRegister(*path);
+        if (!r) {
+            printError(r.error(), json);
+            return kExitBadInput;
+        }
+        regions = std::move(*r);
+        context.regions = &*regions;
+    }
+
+    Result<scan::ScanReport> report = scan::scanDrop(*drop, options, context);
+    if (!report) {
+        printError(report.error(), json);
+        return report.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+    }
+    if (json) {
+        printJson(scan::scanReportToJson(*report));
+    } else {
+        printTable(*report, *drop);
+    }
+    return kExitOk;
+}
+
+}  // namespace siftwave::cli

@@ -1,0 +1,305 @@
+// End-to-end: siftwave-cli decide, apply and ledger on a small drop written here.
+#include "siftwave/ingest/ingest.h"
+#include "siftwave/scan/backlog.h"
+
+#include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
+
+#include <sys/wait.h>
+
+#include <cstdlib>
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+#include <string>
+
+namespace {
+
+namespace fs = std::filesystem;
+
+struct CliRun {
+    int code = -1;
+    std::string out;
+    std::string err;
+};
+
+std::string slurp(const fs::path& p) {
+    std::ifstream in(p, std::ios::binary);
+    std::ostringstream s;
+    s << in.rdbuf();
+    return s.str();
+}
+
+void spit(const fs::path& p, const std::string& bytes) {
+    std::ofstream out(p, std::ios::binary | std::ios::trunc);
+    out << bytes;
+}
+
+std::string quote(const std::string& s) {
+    std::string q = "'";
+    for (char c : s) {
+        if (c == '\'')
+            q += "'\\''";
+        else
+            q += c;
+    }
+    return q + "'";
+}
+
+class LedgerCli : public ::testing::Test {
+protected:
+    void SetUp() override {
+        dir = fs::temp_directory_path() /
+              ("siftwave-cli-ledger-" +
+               std::string(::testing::UnitTest::GetInstance()->current_test_info()->name()));
+        fs::remove_all(dir);
+        fs::create_directories(dir);
+        drop = dir / "release.csv";
+        ledger = dir / "decisions.jsonl";
+        // An invented release: region 0412 has a backlog dump on 03-06 after three zero
+        // days; 412 is a variant code of it; +41 is a code a spreadsheet would read as a
+        // formula; N7 has a negative correction on 03-05.
+        spit(drop,
+             "date,region,cases\n"
+             "2026-03-01,0412,10\n2026-03-02,0412,12\n2026-03-03,0412,0\n2026-03-04,0412,0\n"
+             "2026-03-05,0412,0\n2026-03-06,0412,95\n2026-03-07,0412,11\n"
+             "2026-03-01,412,5\n2026-03-05,412,13\n"
+             "2026-03-01,+41,3\n2026-03-02,+41,4\n"
+             "2026-03-01,N7,6\n2026-03-02,N7,8\n2026-03-03,N7,5\n2026-03-04,N7,7\n2026-03-05,N7,-"
+             "3\n");
+    }
+    void TearDown() override { fs::remove_all(dir); }
+
+    CliRun cli(const std::string& args) {
+        const fs::path out = dir / "stdout.txt";
+        const fs::path err = dir / "stderr.txt";
+        const std::string command = std::string(SIFTWAVE_CLI_PATH) + " " + args + " >" +
+                                    quote(out.string()) + " 2>" + quote(err.string());
+        const int status = std::system(command.c_str());
+        CliRun r;
+        r.code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+        r.out = slurp(out);
+        r.err = slurp(err);
+        return r;
+    }
+    std::string L() { return quote(ledger.string()); }
+    std::string D() { return quote(drop.string()); }
+    CliRun redistribute(const std::string& extra = "") {
+        return cli("decide " + L() + " --drop " + D() +
+                   " redistribute --region 0412 --measure cases --date 2026-03-06 --excess 80"
+                   " --window 2026-03-03:2026-03-05 --method uniform --author tester"
+                   " --reason 'backlog after the holiday, confirmed by the regional office' " +
+                   extra);
+    }
+
+    fs::path dir;
+    fs::path drop;
+    fs::path ledger;
+};
+
+TEST_F(LedgerCli, DecideAppendsAnEntryAndApplyWritesTheCleanedLongCsv) {
+    CliRun d = redistribute();
+    ASSERT_EQ(d.code, 0) << d.err;
+    EXPECT_NE(d.out.find("entry 1 recorded"), std::string::npos) << d.out;
+    const fs::path cleaned = dir / "cleaned.csv";
+    CliRun a = cli("apply " + D() + " --ledger " + L() + " --out " + quote(cleaned.string()));
+    ASSERT_EQ(a.code, 0) << a.err;
+    const std::string csv = slurp(cleaned);
+    // 80 over 3 days by the largest remainder method: 27, 27, 26; the dump keeps 15.
+    EXPECT_NE(csv.find("date,region,measure,value,raw_value,entries\r\n"
+                       "2026-03-01,0412,cases,10,10,\r\n"
+                       "2026-03-02,0412,cases,12,12,\r\n"
+                       "2026-03-03,0412,cases,27,0,1\r\n"
+                       "2026-03-04,0412,cases,27,0,1\r\n"
+                       "2026-03-05,0412,cases,26,0,1\r\n"
+                       "2026-03-06,0412,cases,15,95,1\r\n"
+                       "2026-03-07,0412,cases,11,11,\r\n"),
+              std::string::npos)
+        << csv;
+    EXPECT_NE(csv.find("2026-03-01,'+41,cases,3,3,\r\n"), std::string::npos)
+        << "spreadsheet-safe code";
+    // Byte-identical on a second run.
+    const fs::path again = dir / "again.csv";
+    ASSERT_EQ(cli("apply " + D() + " --ledger " + L() + " --out " + quote(again.string())).code, 0);
+    EXPECT_EQ(slurp(again), csv);
+}
+
+TEST_F(LedgerCli, DecideJsonPrintsTheSealedEntry) {
+    CliRun d = redistribute("--json");
+    ASSERT_EQ(d.code, 0) << d.err;
+    auto j = nlohmann::json::parse(d.out);
+    const auto& e = j.at("entry");
+    EXPECT_EQ(e.at("sequence"), 1);
+    EXPECT_EQ(e.at("kind"), "redistribute");
+    EXPECT_EQ(e.at("author"), "tester");
+    EXPECT_EQ(e.at("previous_hash"), std::string(64, '0'));
+    EXPECT_EQ(e.at("hash").get<std::string>().size(), 64u);
+    EXPECT_EQ(e.at("totals").at(0).at("before"), e.at("totals").at(0).at("after"));
+    EXPECT_EQ(e.at("time").get<std::string>().back(), 'Z');
+}
+
+TEST_F(LedgerCli, ADecisionWithoutAReasonIsAUsageErrorAndWritesNothing) {
+    CliRun d = cli("decide " + L() + " --drop " + D() + " accept --region N7 --reason '  '");
+    EXPECT_EQ(d.code, 2);
+    EXPECT_FALSE(fs::exists(ledger));
+}
+
+TEST_F(LedgerCli, ARefusedDecisionNamesTheReasonAndLeavesTheLedgerAsItWas) {
+    ASSERT_EQ(redistribute().code, 0);
+    const std::string before = slurp(ledger);
+    CliRun d = cli(
+        "decide " + L() + " --drop " + D() +
+        " redistribute --region 0412 --date 2026-03-06 --excess 50 --window 2026-03-01:2026-03-02"
+        " --method uniform --reason 'too much'");
+    EXPECT_EQ(d.code, 1);
+    EXPECT_NE(d.err.find("negative"), std::string::npos) << d.err;
+    EXPECT_NE(d.err.find("0412"), std::string::npos) << d.err;
+    EXPECT_EQ(slurp(ledger), before);
+}
+
+TEST_F(LedgerCli, EveryKindCanBeRecordedAndWithdrawn) {
+    ASSERT_EQ(redistribute().code, 0);
+    const std::string base = "decide " + L() + " --drop " + D() + " ";
+    EXPECT_EQ(
+        cli(base + "spread_negative --region N7 --date 2026-03-05 --reason 'correction of 03-02'")
+            .code,
+        0);
+    EXPECT_EQ(
+        cli(base +
+            "fill_missing --region 412 --days 2026-03-02:2026-03-04 --method share --reason gap")
+            .code,
+        0);
+    EXPECT_EQ(
+        cli(base + "merge_codes --variant 412 --into 0412 --reason 'one region, two codes'").code,
+        0);
+    EXPECT_EQ(cli(base + "exclude --region '+41' --reason 'test records'").code, 0);
+    EXPECT_EQ(
+        cli(base + "accept --region N7 --days 2026-03-01:2026-03-04 --reason 'looked fine'").code,
+        0);
+    EXPECT_EQ(cli(base + "withdraw --entry 5 --reason 'they are real after all'").code, 0);
+    CliRun dup =
+        cli(base + "resolve_duplicate --region N7 --date 2026-03-01 --keep max --reason x");
+    EXPECT_EQ(dup.code, 1) << "no duplicate rows in this drop";
+    CliRun v = cli("ledger " + L() + " --verify --drop " + D() + " --json");
+    ASSERT_EQ(v.code, 0) << v.out << v.err;
+    auto j = nlohmann::json::parse(v.out);
+    EXPECT_EQ(j.at("entries"), 7);
+    EXPECT_EQ(j.at("conservation"), "verified");
+    const fs::path report = dir / "audit.md";
+    CliRun r = cli("ledger " + L() + " --report " + quote(report.string()) + " --drop " + D());
+    ASSERT_EQ(r.code, 0) << r.err;
+    const std::string md = slurp(report);
+    EXPECT_NE(md.find("| 5 | "), std::string::npos);
+    EXPECT_NE(md.find("withdrawn"), std::string::npos);
+    EXPECT_NE(md.find("| 0412 | cases | 128 | 146 | +18 | 4 |"), std::string::npos) << md;
+    EXPECT_NE(md.find("| +41 | cases | 7 | 7 | 0 | - |"), std::string::npos) << md;
+}
+
+TEST_F(LedgerCli, ATamperedLedgerIsRefusedNamingTheEntryAndNothingIsWritten) {
+    ASSERT_EQ(redistribute().code, 0);
+    ASSERT_EQ(
+        cli("decide " + L() + " --drop " + D() + " accept --region N7 --reason 'looked at it'")
+            .code,
+        0);
+    std::string text = slurp(ledger);
+    const auto at = text.find("looked at it");
+    ASSERT_NE(at, std::string::npos);
+    text.replace(at, 6, "LOOKED");
+    spit(ledger, text);
+    CliRun v = cli("ledger " + L() + " --verify");
+    EXPECT_EQ(v.code, 1);
+    EXPECT_NE(v.err.find("entry 2"), std::string::npos) << v.err;
+    const fs::path out = dir / "cleaned.csv";
+    CliRun a = cli("apply " + D() + " --ledger " + L() + " --out " + quote(out.string()));
+    EXPECT_EQ(a.code, 1);
+    EXPECT_FALSE(fs::exists(out));
+    const fs::path report = dir / "audit.html";
+    EXPECT_EQ(cli("ledger " + L() + " --report " + quote(report.string())).code, 1);
+    EXPECT_FALSE(fs::exists(report));
+    const std::string before = slurp(ledger);
+    EXPECT_EQ(cli("decide " + L() + " --drop " + D() + " accept --region N7 --reason again").code,
+              1);
+    EXPECT_EQ(slurp(ledger), before);
+}
+
+TEST_F(LedgerCli, ATornLastLineIsReportedWithItsLine) {
+    ASSERT_EQ(redistribute().code, 0);
+    std::string text = slurp(ledger);
+    text.pop_back();
+    spit(ledger, text);
+    CliRun v = cli("ledger " + L() + " --verify");
+    EXPECT_EQ(v.code, 1);
+    EXPECT_NE(v.err.find(":1: "), std::string::npos) << v.err;
+    EXPECT_NE(v.err.find("incomplete"), std::string::npos) << v.err;
+}
+
+TEST_F(LedgerCli, ALedgerOfAnotherDropIsRefused) {
+    ASSERT_EQ(redistribute().code, 0);
+    const fs::path other = dir / "other.csv";
+    spit(other, slurp(drop) + "2026-03-07,N7,1\n");
+    CliRun v = cli("ledger " + L() + " --verify --drop " + quote(other.string()));
+    EXPECT_EQ(v.code, 1);
+    EXPECT_NE(v.err.find("another drop"), std::string::npos) << v.err;
+}
+
+TEST_F(LedgerCli, ReportsInHtmlAndCsvAndAWrongExtensionIsAUsageError) {
+    ASSERT_EQ(redistribute().code, 0);
+    EXPECT_EQ(cli("ledger " + L() + " --report " + quote((dir / "a.html").string())).code, 0);
+    EXPECT_NE(slurp(dir / "a.html").find("<table>"), std::string::npos);
+    EXPECT_EQ(
+        cli("ledger " + L() + " --report " + quote((dir / "a.csv").string()) + " --drop " + D())
+            .code,
+        0);
+    EXPECT_NE(slurp(dir / "a.csv").find("reconciliation,,,,,,,,0412,cases,128,128,0,\r\n"),
+              std::string::npos)
+        << slurp(dir / "a.csv");
+    EXPECT_EQ(cli("ledger " + L() + " --report " + quote((dir / "a.txt").string())).code, 2);
+    EXPECT_FALSE(fs::exists(dir / "a.txt"));
+}
+
+// --excess auto takes the scan's own estimate (scan/backlog.h) for the day and, without
+// --window, the window it suggests. The bundled sample's manifest plants a catch-up in
+// region 1304 on 2026-04-27 after a reporting gap of 2026-04-22..26 (problem P08).
+TEST_F(LedgerCli, ExcessAutoTakesTheScansBacklogEstimateAndSuggestedWindow) {
+    const std::string sample = std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_current.csv";
+    CliRun d = cli("decide " + L() + " --drop " + quote(sample) +
+                   " redistribute --region 1304 --measure cases --date 2026-04-27 --excess auto"
+                   " --method uniform --reason 'catch-up after the gap' --json");
+    ASSERT_EQ(d.code, 0) << d.out << d.err;
+    const auto j = nlohmann::json::parse(d.out);
+    const auto& p = j.at("entry").at("parameters");
+    auto drop = siftwave::readDrop(sample);
+    ASSERT_TRUE(drop.ok());
+    auto estimate = siftwave::scan::estimateBacklog(*drop, "cases", "1304",
+                                                    *siftwave::Date::fromIso("2026-04-27"));
+    ASSERT_TRUE(estimate.ok());
+    EXPECT_EQ(p.at("excess"), estimate->excess);
+    EXPECT_EQ(p.at("window").at("first"), "2026-04-22");  // the planted gap (manifest P08)
+    EXPECT_EQ(p.at("window").at("last"), "2026-04-26");
+    EXPECT_EQ(j.at("excess_from"), "scan backlog estimate");
+    const auto& t = j.at("entry").at("totals").at(0);
+    EXPECT_EQ(t.at("before"), t.at("after"));
+}
+
+TEST_F(LedgerCli, UsageErrorsExitTwoAndHelpListsEveryKind) {
+    EXPECT_EQ(cli("decide " + L() + " --drop " + D() + " tidy_up --reason x").code, 2);
+    EXPECT_EQ(cli("decide " + L() + " --drop " + D() +
+                  " merge_codes --variant 412 --into 0412 --date 2026-03-01 "
+                  "--reason x")
+                  .code,
+              2)
+        << "--date does not apply to merge_codes";
+    EXPECT_EQ(cli("apply " + D() + " --ledger " + L()).code, 2);
+    EXPECT_EQ(cli("apply " + D() + " --ledger " + L() + " --out " + D()).code, 2)
+        << "never write the input";
+    EXPECT_EQ(cli("ledger " + L()).code, 2);
+    CliRun help = cli("decide --help");
+    EXPECT_EQ(help.code, 0);
+    for (const char* kind :
+         {"redistribute", "spread_negative", "fill_missing", "resolve_duplicate", "merge_codes",
+          "exclude", "accept", "withdraw", "--excess N|auto", "--keep", "--variant", "--entry"}) {
+        EXPECT_NE(help.out.find(kind), std::string::npos) << kind;
+    }
+}
+
+}  // namespace

@@ -1,0 +1,127 @@
+// End-to-end: siftwave-cli scan on the sample and on bad input.
+
+#include "support/synthetic_drop.h"
+
+#include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
+
+#include <sys/wait.h>
+#include <array>
+#include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <string>
+
+namespace {
+
+const std::string kCli = SIFTWAVE_CLI_PATH;
+const std::filesystem::path kSamples{SIFTWAVE_SAMPLES_DIR};
+
+struct CliRun {
+    int exitCode = -1;
+    std::string out;
+};
+
+CliRun run(const std::string& arguments) {
+    CliRun r;
+    const std::string command = kCli + " " + arguments + " 2>/dev/null";
+    FILE* pipe = popen(command.c_str(), "r");
+    if (pipe == nullptr)
+        return r;
+    std::array<char, 4096> buffer{};
+    std::size_t n = 0;
+    while ((n = std::fread(buffer.data(), 1, buffer.size(), pipe)) > 0)
+        r.out.append(buffer.data(), n);
+    const int status = pclose(pipe);
+    r.exitCode = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+    return r;
+}
+
+std::string sample(const char* name) {
+    return (kSamples / name).string();
+}
+
+TEST(ScanCommand, PrintsRankedFindingsAndASummaryAsJson) {
+    const CliRun r = run("scan " + sample("quenmara_current.csv") + " --previous " +
+                         sample("quenmara_previous.csv") + " --regions " +
+                         sample("quenmara_regions.csv") + " --json");
+    ASSERT_EQ(r.exitCode, 0) << r.out;
+    const auto j = nlohmann::json::parse(r.out);
+    ASSERT_TRUE(j["findings"].is_array());
+    ASSERT_FALSE(j["findings"].empty());
+    int rank = 0;
+    std::size_t total = 0;
+    for (const auto& f : j["findings"]) {
+        for (const char* key :
+             {"id", "kind", "severity", "rank", "region", "measure", "evidence", "suggestion"}) {
+            EXPECT_TRUE(f.contains(key)) << key << " in " << f.dump();
+        }
+        EXPECT_EQ(f["rank"].get<int>(), ++rank);
+        const std::string s = f["severity"];
+        EXPECT_TRUE(s == "info" || s == "warning" || s == "critical");
+        if (f["kind"] == "code_collision") {
+            EXPECT_FALSE(f.contains("first"));
+        }
+    }
+    for (const auto& [kind, n] : j["summary"]["by_kind"].items())
+        total += n.get<std::size_t>();
+    EXPECT_EQ(total, j["findings"].size());
+    EXPECT_EQ(j["summary"]["by_kind"]["backlog_dump"], 2);
+    EXPECT_TRUE(j["summary"].contains("revisions"));
+    EXPECT_EQ(j["summary"]["revisions"]["regions_revised"], 2);
+}
+
+TEST(ScanCommand, GivesTheSameIdsOnEveryRun) {
+    const std::string args = "scan " + sample("quenmara_current.csv") + " --json";
+    const auto a = nlohmann::json::parse(run(args).out);
+    const auto b = nlohmann::json::parse(run(args).out);
+    ASSERT_EQ(a["findings"].size(), b["findings"].size());
+    for (std::size_t i = 0; i < a["findings"].size(); ++i) {
+        EXPECT_EQ(a["findings"][i]["id"], b["findings"][i]["id"]);
+    }
+}
+
+TEST(ScanCommand, PrintsAReadableTableWithoutJson) {
+    const CliRun r = run("scan " + sample("quenmara_current.csv"));
+    ASSERT_EQ(r.exitCode, 0);
+    EXPECT_NE(r.out.find("rank"), std::string::npos);
+    EXPECT_NE(r.out.find("backlog_dump"), std::string::npos);
+    EXPECT_NE(r.out.find("2026-08-24"), std::string::npos);
+}
+
+TEST(ScanCommand, SetChangesAThresholdAndRejectsUnknownNames) {
+    const std::string file = sample("quenmara_current.csv");
+    const auto off =
+        nlohmann::json::parse(run("scan " + file + " --set backlog_dump.enabled=false --json").out);
+    EXPECT_EQ(off["summary"]["by_kind"]["backlog_dump"], 0);
+    const auto strict = nlohmann::json::parse(
+        run("scan " + file + " --set backlog_dump.min_excess=1000 --json").out);
+    EXPECT_EQ(strict["summary"]["by_kind"]["backlog_dump"], 1);  // only the 2,444 excess remains
+    EXPECT_EQ(run("scan " + file + " --set backlog_dump.no_such=1").exitCode, 2);
+    EXPECT_EQ(run("scan " + file + " --set backlog_dump.min_excess=-5").exitCode, 2);
+    EXPECT_EQ(run("scan " + file + " --set backlog_dump.min_excess").exitCode, 2);
+}
+
+TEST(ScanCommand, ExitsZeroOnACleanDropOneOnUnreadableInputTwoOnWrongUsage) {
+    siftwave::testing::SyntheticOptions o;
+    o.regions = 5;
+    o.days = 60;
+    const auto s = siftwave::testing::makeSyntheticDrop(o);
+    const std::filesystem::path clean =
+        std::filesystem::temp_directory_path() /
+        ("siftwave_scan_clean_" + std::to_string(getpid()) + ".csv");
+    {
+        std::ofstream out(clean);
+        out << siftwave::testing::toLongCsv(s.drop);
+    }
+    EXPECT_EQ(run("scan " + clean.string()).exitCode, 0);
+    std::filesystem::remove(clean);
+    EXPECT_EQ(run("scan /nonexistent/drop.csv").exitCode, 1);
+    EXPECT_EQ(
+        run("scan " + sample("quenmara_current.csv") + " --previous /nonexistent.csv").exitCode, 1);
+    EXPECT_EQ(run("scan").exitCode, 2);
+    EXPECT_EQ(run("scan a.csv b.csv").exitCode, 2);
+    EXPECT_EQ(run("scan --bogus x.csv").exitCode, 2);
+}
+
+}  // namespace

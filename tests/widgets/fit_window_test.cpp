@@ -1,0 +1,90 @@
+// The fit follows the window: dragging the fit window's edge on the plot refits.
+#include "main_window.h"
+
+#include "widgets/fit_pane.h"
+#include "widgets/qcustomplot_include.h"
+#include "widgets/series_chart.h"
+#include "widgets/series_plot.h"
+#include "widgets/text_table_model.h"
+#include "widgets/workbench.h"
+
+#include <QElapsedTimer>
+#include <QSignalSpy>
+#include <QStandardPaths>
+#include <QTest>
+
+using siftwave::gui::MainWindow;
+
+namespace {
+
+void sendMouse(QWidget* target, QEvent::Type type, QPointF pos, Qt::MouseButtons buttons) {
+    QMouseEvent event(type, pos, target->mapToGlobal(pos), Qt::LeftButton, buttons, Qt::NoModifier);
+    QCoreApplication::sendEvent(target, &event);
+}
+
+}  // namespace
+
+class FitWindowTest : public QObject {
+    Q_OBJECT
+
+private Q_SLOTS:
+    void initTestCase() { QStandardPaths::setTestModeEnabled(true); }
+
+    void draggingTheFitWindowEdgeRefitsOnTheNewWindow() {
+        MainWindow::Options options;
+        options.rememberLayout = false;
+        MainWindow window(options);
+        window.resize(1400, 900);
+        window.show();
+        QVERIFY(QTest::qWaitForWindowExposed(&window));
+        QSignalSpy opened(&window, &MainWindow::dropOpened);
+        window.openDrop(QStringLiteral(SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv"));
+        QVERIFY(opened.wait(20000));
+        QVERIFY(window.selectRegion(QStringLiteral("1203")));
+
+        // The automatic window: the core's largest wave.
+        QVERIFY(window.currentFit());
+        const int first = window.currentFit()->first;
+        const int last = window.currentFit()->last;
+        const double sizeBefore = window.currentFit()->derived.waveSize.value;
+        QVERIFY(last - first > 60);
+        QCOMPARE(window.seriesPlot()->editableWindow()->first, first);
+
+        // Drag the end edge 40 days to the left.
+        siftwave::widgets::SeriesPlot* plot = window.seriesPlot();
+        plot->customPlot()->replot();
+        auto* chart = plot->chart();
+        const double halfDay = (chart->pixelOfDayIndex(1) - chart->pixelOfDayIndex(0)) / 2;
+        const double y = plot->customPlot()->axisRect()->center().y();
+        const QPointF edge(chart->pixelOfDayIndex(last) + halfDay, y);
+        const QPointF target(chart->pixelOfDayIndex(last - 40), y);
+        QWidget* canvas = plot->customPlot();
+        sendMouse(canvas, QEvent::MouseButtonPress, edge, Qt::LeftButton);
+        QElapsedTimer clock;
+        clock.start();
+        sendMouse(canvas, QEvent::MouseMove, (edge + target) / 2, Qt::LeftButton);
+        qInfo("one live refit while dragging: %lld ms", static_cast<long long>(clock.elapsed()));  // informative only
+        // Live: the fit already follows before the button is released.
+        QVERIFY(window.currentFit());
+        QVERIFY(window.currentFit()->last < last);
+        QVERIFY(window.currentFit()->last > last - 40);
+        sendMouse(canvas, QEvent::MouseMove, target, Qt::LeftButton);
+        sendMouse(canvas, QEvent::MouseButtonRelease, target, Qt::NoButton);
+
+        QVERIFY(window.currentFit());
+        QCOMPARE(window.currentFit()->first, first);
+        QCOMPARE(window.currentFit()->last, last - 40);
+        QVERIFY(window.currentFit()->derived.waveSize.value != sizeBefore);
+        // The pane now holds chosen days, and they are the dragged window.
+        const auto manual = window.fitPane()->manualWindow();
+        QVERIFY(manual.has_value());
+        QCOMPARE(manual->last, last - 40);
+        QVERIFY(window.fitPane()->summaryText().contains(
+            QString::fromStdString(window.currentFit()->windowLast().iso())));
+        // On release the comparison of the four models was run on the new window.
+        QCOMPARE(window.fitPane()->comparisonTable()->rowCount(), 4);
+    }
+};
+
+QTEST_MAIN(FitWindowTest)
+#include "fit_window_test.moc"

@@ -1,0 +1,328 @@
+#include "widgets/fit_pane.h"
+
+#include "widgets/text_table_model.h"
+
+#include <QCheckBox>
+#include <QComboBox>
+#include <QDateEdit>
+#include <QFormLayout>
+#include <QHBoxLayout>
+#include <QHeaderView>
+#include <QLabel>
+#include <QLocale>
+#include <QRadioButton>
+#include <QSignalBlocker>
+#include <QSortFilterProxyModel>
+#include <QTabWidget>
+#include <QTableView>
+#include <QVBoxLayout>
+
+#include <cmath>
+
+namespace siftwave::widgets {
+
+namespace {
+
+QDate toQDate(Date day) { return QDate(day.year(), day.month(), day.day()); }
+
+Date fromQDate(const QDate& date) {
+    return Date::fromYmd(date.year(), date.month(), date.day()).value_or(Date{});
+}
+
+QString number(double value, int decimals) {
+    if (!std::isfinite(value)) return QStringLiteral("–");
+    return QLocale::c().toString(value, 'f', decimals);
+}
+
+/// Decimals that show about three significant digits.
+int decimalsFor(double value) {
+    const double magnitude = std::abs(value);
+    if (!std::isfinite(magnitude) || magnitude >= 100) return 0;
+    if (magnitude >= 10) return 1;
+    if (magnitude >= 1) return 2;
+    return 3;
+}
+
+QString interval(const fit::Estimate& e, int decimals) {
+    if (!std::isfinite(e.lower) || !std::isfinite(e.upper)) return QStringLiteral("–");
+    return QStringLiteral("%1 – %2").arg(number(e.lower, decimals), number(e.upper, decimals));
+}
+
+QTableView* makeTable(TextTableModel* model, QWidget* parent) {
+    auto* view = new QTableView(parent);
+    auto* proxy = new QSortFilterProxyModel(view);
+    proxy->setSourceModel(model);
+    proxy->setSortRole(TextTableModel::SortRole);
+    view->setModel(proxy);
+    view->setSortingEnabled(false);
+    view->verticalHeader()->hide();
+    view->horizontalHeader()->setStretchLastSection(false);
+    view->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+    view->horizontalHeader()->setSectionResizeMode(0, QHeaderView::Stretch);
+    view->setSelectionBehavior(QAbstractItemView::SelectRows);
+    view->setEditTriggers(QAbstractItemView::NoEditTriggers);
+    view->setAlternatingRowColors(true);
+    view->setWordWrap(false);
+    view->verticalHeader()->setDefaultSectionSize(view->fontMetrics().height() + 6);
+    return view;
+}
+
+}  // namespace
+
+FitPane::FitPane(QWidget* parent)
+    : QWidget(parent), m_model(new QComboBox(this)), m_method(new QComboBox(this)),
+      m_weekday(new QCheckBox(tr("weekday factors"), this)),
+      m_auto(new QRadioButton(tr("automatic"), this)), m_wave(new QComboBox(this)),
+      m_manual(new QRadioButton(tr("days"), this)), m_from(new QDateEdit(this)), m_to(new QDateEdit(this)),
+      m_summary(new QLabel(this)),
+      m_parameters(new TextTableModel({tr("Parameter"), tr("Estimate"), tr("95% interval")}, this)),
+      m_derived(new TextTableModel({tr("Quantity"), tr("Estimate"), tr("95% interval")}, this)),
+      m_comparison(new TextTableModel({tr("Model"), tr("AICc"), tr("ΔAICc"), tr("R²"), tr("Note")}, this)),
+      m_caution(new QLabel(QString::fromUtf8(fit::caution), this)) {
+    m_model->setObjectName(QStringLiteral("fitModel"));
+    for (fit::ModelKind kind : fit::kAllModels)
+        m_model->addItem(QString::fromLatin1(fit::modelName(kind)), static_cast<int>(kind));
+    m_model->addItem(tr("lowest AICc"), -1);
+    m_model->setItemText(0, tr("Gumbel"));
+    m_model->setItemText(1, tr("logistic"));
+    m_model->setItemText(2, tr("Richards"));
+    m_model->setItemText(3, tr("log-normal"));
+    m_method->setObjectName(QStringLiteral("fitMethod"));
+    m_method->addItem(tr("least squares on the 7-day mean"), static_cast<int>(fit::FitMethod::LeastSquares));
+    m_method->addItem(tr("Poisson, daily counts"), static_cast<int>(fit::FitMethod::Poisson));
+    m_method->addItem(tr("negative binomial, daily counts"), static_cast<int>(fit::FitMethod::NegativeBinomial));
+    m_weekday->setToolTip(tr("Likelihood fits: one reporting factor per weekday"));
+    m_wave->addItem(tr("largest wave"), static_cast<int>(fit::WaveChoice::Largest));
+    m_wave->addItem(tr("latest wave"), static_cast<int>(fit::WaveChoice::Latest));
+    m_auto->setChecked(true);
+    m_auto->setObjectName(QStringLiteral("fitWindowAuto"));
+    m_manual->setObjectName(QStringLiteral("fitWindowManual"));
+    for (QDateEdit* edit : {m_from, m_to}) {
+        edit->setDisplayFormat(QStringLiteral("yyyy-MM-dd"));
+        edit->setCalendarPopup(true);
+    }
+    m_summary->setObjectName(QStringLiteral("fitSummary"));
+    m_summary->setWordWrap(true);
+    m_summary->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    m_caution->setObjectName(QStringLiteral("cautionLine"));
+    m_caution->setWordWrap(true);
+
+    auto* autoRow = new QHBoxLayout;
+    autoRow->addWidget(m_auto);
+    autoRow->addWidget(m_wave, 1);
+    auto* daysRow = new QHBoxLayout;
+    daysRow->addWidget(m_manual);
+    daysRow->addWidget(m_from, 1);
+    daysRow->addWidget(new QLabel(QStringLiteral("–"), this));
+    daysRow->addWidget(m_to, 1);
+    auto* windowRows = new QVBoxLayout;
+    windowRows->addLayout(autoRow);
+    windowRows->addLayout(daysRow);
+    auto* form = new QFormLayout;
+    form->addRow(tr("Model"), m_model);
+    form->addRow(tr("Method"), m_method);
+    form->addRow(QString(), m_weekday);
+    form->addRow(tr("Window"), windowRows);
+
+    auto* tabs = new QTabWidget(this);
+    tabs->addTab(makeTable(m_parameters, tabs), tr("Parameters"));
+    tabs->addTab(makeTable(m_derived, tabs), tr("Derived"));
+    QTableView* comparison = makeTable(m_comparison, tabs);
+    comparison->setSortingEnabled(true);
+    tabs->addTab(comparison, tr("Compare models"));
+    tabs->setCurrentIndex(1);
+
+    auto* layout = new QVBoxLayout(this);
+    layout->setContentsMargins(4, 4, 4, 4);
+    layout->addLayout(form);
+    layout->addWidget(m_summary);
+    layout->addWidget(tabs, 1);
+    layout->addWidget(m_caution);
+
+    for (QComboBox* box : {m_model, m_method, m_wave})
+        connect(box, &QComboBox::currentIndexChanged, this, [this] { Q_EMIT optionsChanged(); });
+    connect(m_weekday, &QCheckBox::toggled, this, [this] { Q_EMIT optionsChanged(); });
+    connect(m_auto, &QRadioButton::toggled, this, &FitPane::onWindowModeChanged);
+    for (QDateEdit* edit : {m_from, m_to})
+        connect(edit, &QDateEdit::dateChanged, this, [this] {
+            if (m_manual->isChecked()) Q_EMIT optionsChanged();
+        });
+    connect(m_method, &QComboBox::currentIndexChanged, this, [this] {
+        m_weekday->setEnabled(m_method->currentData().toInt() != static_cast<int>(fit::FitMethod::LeastSquares));
+    });
+    m_weekday->setEnabled(false);
+    onWindowModeChanged();
+    clear(tr("No region selected."));
+}
+
+void FitPane::onWindowModeChanged() {
+    const bool manual = m_manual->isChecked();
+    m_from->setEnabled(manual);
+    m_to->setEnabled(manual);
+    m_wave->setEnabled(!manual);
+    Q_EMIT optionsChanged();
+}
+
+fit::FitOptions FitPane::options() const {
+    fit::FitOptions options;
+    const int model = m_model->currentData().toInt();
+    options.model = model >= 0 ? static_cast<fit::ModelKind>(model) : fit::ModelKind::Gumbel;
+    options.method = static_cast<fit::FitMethod>(m_method->currentData().toInt());
+    options.weekdayFactors = m_weekday->isEnabled() && m_weekday->isChecked();
+    options.wave = static_cast<fit::WaveChoice>(m_wave->currentData().toInt());
+    if (const auto window = manualWindow()) options.window = std::make_pair(window->first, window->last);
+    return options;
+}
+
+bool FitPane::bestModelWanted() const { return m_model->currentData().toInt() < 0; }
+
+std::optional<DayIndexRange> FitPane::manualWindow() const {
+    if (!m_manual->isChecked() || m_days == 0) return std::nullopt;
+    int first = fromQDate(m_from->date()) - m_firstDay;
+    int last = fromQDate(m_to->date()) - m_firstDay;
+    first = std::clamp(first, 0, m_days - 1);
+    last = std::clamp(last, first, m_days - 1);
+    return DayIndexRange{first, last};
+}
+
+void FitPane::setCalendar(Date firstDay, int days) {
+    m_firstDay = firstDay;
+    m_days = days;
+    if (days <= 0) return;
+    const QSignalBlocker a(m_from), b(m_to);
+    for (QDateEdit* edit : {m_from, m_to}) edit->setDateRange(toQDate(firstDay), toQDate(firstDay + (days - 1)));
+}
+
+void FitPane::setManualWindow(DayIndexRange window) {
+    const QSignalBlocker a(m_from), b(m_to), c(m_auto), d(m_manual);
+    m_manual->setChecked(true);
+    m_from->setDate(toQDate(m_firstDay + window.first));
+    m_to->setDate(toQDate(m_firstDay + window.last));
+    m_from->setEnabled(true);
+    m_to->setEnabled(true);
+    m_wave->setEnabled(false);
+}
+
+void FitPane::showWindow(DayIndexRange window) {
+    const QSignalBlocker a(m_from), b(m_to);
+    m_from->setDate(toQDate(m_firstDay + window.first));
+    m_to->setDate(toQDate(m_firstDay + window.last));
+}
+
+QString FitPane::summaryText() const { return m_summary->text(); }
+
+void FitPane::clear(const QString& why) {
+    m_summary->setText(why);
+    m_parameters->setRows({});
+    m_derived->setRows({});
+    m_comparison->setRows({});
+}
+
+void FitPane::showFit(const Result<fit::FitResult>& result,
+                      const std::vector<fit::ModelComparisonRow>& comparison) {
+    QVector<TextTableModel::Row> comparisonRows;
+    double bestAicc = INFINITY;
+    for (const fit::ModelComparisonRow& row : comparison)
+        if (row.fit && row.fit->summary.converged()) bestAicc = std::min(bestAicc, row.fit->goodness.aicc);
+    for (const fit::ModelComparisonRow& row : comparison) {
+        TextTableModel::Row out;
+        const QString name = QString::fromLatin1(fit::modelName(row.model));
+        if (row.fit) {
+            const fit::GoodnessOfFit& g = row.fit->goodness;
+            out.cells = {name, number(g.aicc, 1), number(g.aicc - bestAicc, 1), number(g.r2, 3),
+                         row.fit->summary.converged() ? QString() : tr("not converged")};
+            out.sortKeys = {name, g.aicc, g.aicc - bestAicc, g.r2, QVariant()};
+            out.toolTip = QString::fromStdString(row.fit->summary.brief());
+            out.emphasised = result.ok() && row.model == result->model;
+        } else {
+            out.cells = {name, QStringLiteral("–"), QStringLiteral("–"), QStringLiteral("–"),
+                         QString::fromStdString(row.error)};
+        }
+        comparisonRows << out;
+    }
+    m_comparison->setRows(comparisonRows);
+
+    if (!result) {
+        m_summary->setText(tr("No fit: %1").arg(QString::fromStdString(result.error().message)));
+        m_parameters->setRows({});
+        m_derived->setRows({});
+        return;
+    }
+    const fit::FitResult& fit = *result;
+    QString summary = tr("<b>%1</b>, %2, %3 to %4 (%5 days): %6")
+                          .arg(QString::fromLatin1(fit::modelName(fit.model)),
+                               QString::fromLatin1(fit::methodName(fit.method)),
+                               QString::fromStdString(fit.windowFirst().iso()),
+                               QString::fromStdString(fit.windowLast().iso()))
+                          .arg(fit.last - fit.first + 1)
+                          .arg(QString::fromStdString(fit.summary.brief()).toHtmlEscaped());
+    summary += tr("<br>R² %1 · RMSE %2 · AICc %3")
+                   .arg(number(fit.goodness.r2, 3), number(fit.goodness.rmse, 1), number(fit.goodness.aicc, 1));
+    for (const std::string& note : fit.summary.notes)
+        summary += QStringLiteral("<br>⚠ %1").arg(QString::fromStdString(note).toHtmlEscaped());
+    m_summary->setText(summary);
+
+    QVector<TextTableModel::Row> parameters;
+    for (const fit::NamedEstimate& p : fit.parameters) {
+        const int decimals = decimalsFor(p.estimate.value);
+        parameters << TextTableModel::Row{
+            {QString::fromStdString(p.name), number(p.estimate.value, decimals), interval(p.estimate, decimals)},
+            {},
+            tr("standard error %1").arg(number(p.estimate.se, decimalsFor(p.estimate.se))),
+            false};
+    }
+    if (fit.dispersion)
+        parameters << TextTableModel::Row{{tr("r (negative-binomial size)"), number(*fit.dispersion, 2), QString()},
+                                          {},
+                                          {},
+                                          false};
+    static const char* const weekdays[] = {"Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"};
+    for (std::size_t i = 0; i < fit.weekdayFactors.size() && i < 7; ++i)
+        parameters << TextTableModel::Row{
+            {tr("factor %1").arg(tr(weekdays[i])), number(fit.weekdayFactors[i], 3), QString()}, {}, {}, false};
+    m_parameters->setRows(parameters);
+
+    const fit::DerivedQuantities& d = fit.derived;
+    auto dateOf = [&fit](double day) {
+        return std::isfinite(day) ? QString::fromStdString(fit.dateOf(day).iso()) : QStringLiteral("–");
+    };
+    auto dateRow = [&](const QString& name, const fit::Estimate& e) {
+        const QString range = std::isfinite(e.lower) && std::isfinite(e.upper)
+                                  ? QStringLiteral("%1 – %2").arg(dateOf(e.lower), dateOf(e.upper))
+                                  : QStringLiteral("–");
+        return TextTableModel::Row{{name, dateOf(e.value), range},
+                                   {},
+                                   tr("day %1 of the window, standard error %2 days")
+                                       .arg(number(e.value, 1), number(e.se, 1)),
+                                   false};
+    };
+    auto valueRow = [](const QString& name, const fit::Estimate& e, int decimals, const QString& unit = {}) {
+        return TextTableModel::Row{{name, number(e.value, decimals) + unit, interval(e, decimals)},
+                                   {},
+                                   {},
+                                   false};
+    };
+    QVector<TextTableModel::Row> derived;
+    derived << dateRow(tr("Peak day"), d.peakDay);
+    derived << valueRow(tr("Peak incidence (per day)"), d.peakIncidence, decimalsFor(d.peakIncidence.value));
+    derived << valueRow(tr("Wave size K"), d.waveSize, 0);
+    derived << TextTableModel::Row{{tr("Fraction observed"), number(d.fractionObserved.value * 100, 1) + QStringLiteral(" %"),
+                                    std::isfinite(d.fractionObserved.lower)
+                                        ? QStringLiteral("%1 – %2 %").arg(number(d.fractionObserved.lower * 100, 1),
+                                                                          number(d.fractionObserved.upper * 100, 1))
+                                        : QStringLiteral("–")},
+                                   {},
+                                   tr("Cumulative fitted cases at the last day with data, as a share of K"),
+                                   false};
+    derived << dateRow(tr("Start (%1 % of K)").arg(number(fit.options.startQuantile * 100, 1)), d.startDay);
+    derived << dateRow(tr("End (%1 % of K)").arg(number(fit.options.endQuantile * 100, 1)), d.endDay);
+    derived << dateRow(tr("Fastest growth"), d.fastestGrowthDay);
+    derived << valueRow(tr("Doubling time at the start (days)"), d.doublingTimeDays, 1);
+    derived << valueRow(tr("Peak infectious load (%1-day cases)").arg(fit.options.infectiousWindowDays),
+                        d.peakInfectiousLoad, 0);
+    if (d.peakInfectiousLoadPer100k)
+        derived << valueRow(tr("… per 100,000 people"), *d.peakInfectiousLoadPer100k, 1);
+    m_derived->setRows(derived);
+}
+
+}  // namespace siftwave::widgets

@@ -1,0 +1,45 @@
+#pragma once
+// TextTableModel: a read-only table of already formatted cells, for panes that
+// show one core result (a fit's parameters, its derived quantities, a model
+// comparison). The pane formats the core's numbers; the model only holds them
+// for the view. Numeric columns sort by the number stored in SortRole.
+
+#include <QAbstractTableModel>
+#include <QStringList>
+#include <QVariant>
+#include <QVector>
+
+namespace siftwave::widgets {
+
+class TextTableModel : public QAbstractTableModel {
+    Q_OBJECT
+
+public:
+    static constexpr int SortRole = Qt::UserRole;
+
+    struct Row {
+        QStringList cells;
+        QVector<QVariant> sortKeys;  // optional, per column
+        QString toolTip;
+        bool emphasised = false;  // shown in bold (e.g. the chosen model)
+    };
+
+    explicit TextTableModel(QStringList headers, QObject* parent = nullptr);
+
+    void setRows(QVector<Row> rows);
+    const QVector<Row>& rows() const { return m_rows; }
+    /// The text of one cell, or empty.
+    QString text(int row, int column) const;
+
+    int rowCount(const QModelIndex& parent = {}) const override;
+    int columnCount(const QModelIndex& parent = {}) const override;
+    QVariant data(const QModelIndex& index, int role = Qt::DisplayRole) const override;
+    QVariant headerData(int section, Qt::Orientation orientation,
+                        int role = Qt::DisplayRole) const override;
+
+private:
+    QStringList m_headers;
+    QVector<Row> m_rows;
+};
+
+}  // namespace siftwave::widgets
