@@ -374,7 +374,10 @@ private Q_SLOTS:
             QVERIFY2(QFile::exists(one), qPrintable(one));
             QVERIFY(svgText(one).contains(QString::fromLatin1(fit::caution)));
         }
-        QVERIFY(written->at(0).endsWith(QStringLiteral("each-1301.svg")));
+        // One file per region, named after it, in the drop's order (KV is the sample's first code).
+        QVERIFY(written->at(0).endsWith(QStringLiteral("each-KV.svg")));
+        QVERIFY(written->at(1).endsWith(QStringLiteral("each-1301.svg")));
+        QVERIFY(written->at(2).endsWith(QStringLiteral("each-1304.svg")));
 
         dialog.setRegions({});
         QVERIFY(!dialog.exportFigures().ok());
