@@ -8,6 +8,7 @@
 #include <sys/wait.h>
 #include <array>
 #include <cstdio>
+#include <cstdlib>
 #include <fstream>
 #include <string>
 
@@ -125,6 +126,30 @@ TEST(CliFit, ExplicitWindowIsUsed) {
     const auto j = nlohmann::json::parse(r.out);
     EXPECT_EQ(j["window"]["first"], "2026-06-01");
     EXPECT_EQ(j["window"]["last"], "2026-09-30");
+}
+
+// --ledger: the fit reads the cleaned series from replay(drop, ledger). An exclusion of ten
+// days (recorded with `siftwave-cli decide`) leaves those days out of a likelihood fit.
+TEST(CliFit, LedgerExclusionsLeaveTheExcludedDaysOutOfTheFit) {
+    const std::string ledger = ::testing::TempDir() + "fit_test_ledger.jsonl";
+    std::remove(ledger.c_str());
+    const std::string decide = std::string(SIFTWAVE_CLI_PATH) + " decide " + ledger + " --drop " +
+                               kDrop +
+                               " exclude --region KV --measure cases --days "
+                               "2026-07-01:2026-07-10 --reason 'fit test' >/dev/null 2>&1";
+    ASSERT_EQ(std::system(decide.c_str()), 0);
+    const std::string common =
+        kDrop + " --region KV --method poisson --window 2026-06-01:2026-09-30 --json";
+    const CliRun plain = run(common);
+    const CliRun cleaned = run(common + " --ledger " + ledger);
+    ASSERT_EQ(plain.exitCode, 0);
+    ASSERT_EQ(cleaned.exitCode, 0) << cleaned.out;
+    const auto a = nlohmann::json::parse(plain.out);
+    const auto b = nlohmann::json::parse(cleaned.out);
+    EXPECT_EQ(a["observations"].get<int>() - b["observations"].get<int>(), 10);
+    EXPECT_NE(a["parameters"]["K"]["value"].get<double>(),
+              b["parameters"]["K"]["value"].get<double>());
+    std::remove(ledger.c_str());
 }
 
 }  // namespace

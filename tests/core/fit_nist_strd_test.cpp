@@ -360,8 +360,8 @@ std::vector<Case> allCases() {
 }
 
 INSTANTIATE_TEST_SUITE_P(AllDatasets, NistStrdCase, ::testing::ValuesIn(allCases()),
-                         [](const ::testing::TestParamInfo<Case>& info) {
-                             return info.param.name + "_start" + std::to_string(info.param.start);
+                         [](const ::testing::TestParamInfo<Case>& param) {
+                             return param.param.name + "_start" + std::to_string(param.param.start);
                          });
 
 }  // namespace

@@ -74,6 +74,27 @@ TEST_F(LedgerFile, AppendedEntriesReadBackAsOneLineEach) {
     ASSERT_TRUE(cleaned.ok()) << cleaned.error().describe();
 }
 
+TEST_F(LedgerFile, AnEntryMadeOnAnOlderStateOfTheFileIsNotAppended) {
+    // Two writers read the same ledger; the second one's entry 3 arrives after the first's.
+    Cleaned cleaned = *replay(drop, ledger);
+    Decision accept;
+    accept.kind = DecisionKind::Accept;
+    accept.region = "N1";
+    EntryMeta meta{"one", "2026-03-21T08:00:00Z", "first writer"};
+    auto first = draftEntry(drop, ledger, cleaned, accept, meta);
+    meta.author = "two";
+    meta.reason = "second writer";
+    auto second = draftEntry(drop, ledger, cleaned, accept, meta);
+    ASSERT_TRUE(first.ok() && second.ok());
+    ASSERT_TRUE(appendLedgerEntry(path, *first).ok());
+    const std::string before = slurp(path);
+    auto s = appendLedgerEntry(path, *second);
+    ASSERT_FALSE(s.ok());
+    EXPECT_EQ(s.error().code, ErrorCode::Integrity);
+    EXPECT_EQ(slurp(path), before);
+    EXPECT_FALSE(appendLedgerEntry(path, ledger.entries[1]).ok()) << "appending an entry twice";
+}
+
 TEST_F(LedgerFile, ATornLastLineIsReportedWithItsLineNumber) {
     std::string bytes = slurp(path);
     bytes.resize(bytes.size() - 30);  // the crash cut the second line short

@@ -43,9 +43,7 @@ public:
           m_kernel(std::move(kernel)),
           m_h(static_cast<int>(m_kernel.size()) / 2) {
         // Model days: every day from t_0 - h to t_last + h (the window spans `span` days).
-        const std::size_t days = static_cast<std::size_t>(span + 2 * m_h);
-        m_f.resize(days);
-        m_jf.resize(days * static_cast<std::size_t>(model.parameterCount()));
+        m_days = static_cast<std::size_t>(span + 2 * m_h);
     }
     int residualCount() const override { return static_cast<int>(m_t.size()); }
     int parameterCount() const override { return m_model.parameterCount(); }
@@ -54,19 +52,26 @@ public:
         if (!m_model.valid(p))
             return false;
         const bool withJacobian = !jac.empty();
-        m_model.incidenceOnDays(-m_h, p, m_f,
-                                withJacobian ? std::span<double>(m_jf) : std::span<double>{});
+        // Scratch per thread (see the solver): model values, Jacobian and prefix sums.
+        thread_local std::vector<double> fBuffer, jfBuffer, prefixBuffer;
+        fBuffer.resize(m_days);
+        jfBuffer.resize(m_days * p.size());
+        const std::span<double> f(fBuffer), jf(jfBuffer);
+        std::vector<double>& prefix = prefixBuffer;
+        m_model.incidenceOnDays(-m_h, p, f,
+                                withJacobian ? std::span<double>(jf) : std::span<double>{});
         const std::size_t np = p.size();
         const std::size_t cols = withJacobian ? np + 1 : 1;
         const bool uniform = m_kernel.size() % 2 == 1;
         if (uniform) {
             // Equal weights: window sums from prefix sums of the model and its Jacobian.
-            const std::size_t days = m_f.size();
-            m_prefix.assign((days + 1) * cols, 0.0);
+            const std::size_t days = f.size();
+            prefix.resize((days + 1) * cols);
+            std::fill_n(prefix.begin(), cols, 0.0);
             for (std::size_t d = 0; d < days; ++d) {
-                m_prefix[(d + 1) * cols] = m_prefix[d * cols] + m_f[d];
+                prefix[(d + 1) * cols] = prefix[d * cols] + f[d];
                 for (std::size_t j = 1; j < cols; ++j) {
-                    m_prefix[(d + 1) * cols + j] = m_prefix[d * cols + j] + m_jf[d * np + j - 1];
+                    prefix[(d + 1) * cols + j] = prefix[d * cols + j] + jf[d * np + j - 1];
                 }
             }
         }
@@ -77,9 +82,9 @@ public:
             if (uniform) {
                 const std::size_t lo = static_cast<std::size_t>(centre - m_h) * cols;
                 const std::size_t hi = static_cast<std::size_t>(centre + m_h + 1) * cols;
-                model = a * (m_prefix[hi] - m_prefix[lo]);
+                model = a * (prefix[hi] - prefix[lo]);
                 for (std::size_t j = 1; j < cols; ++j) {
-                    jac[i * np + j - 1] = m_w[i] * a * (m_prefix[hi + j] - m_prefix[lo + j]);
+                    jac[i * np + j - 1] = m_w[i] * a * (prefix[hi + j] - prefix[lo + j]);
                 }
             } else {
                 if (withJacobian)
@@ -87,10 +92,10 @@ public:
                 for (int k = -m_h; k <= m_h; ++k) {
                     const double wk = m_kernel[static_cast<std::size_t>(k + m_h)];
                     const std::size_t d = static_cast<std::size_t>(centre + k);
-                    model += wk * m_f[d];
+                    model += wk * f[d];
                     if (withJacobian) {
                         for (std::size_t j = 0; j < np; ++j)
-                            jac[i * np + j] += wk * m_w[i] * m_jf[d * np + j];
+                            jac[i * np + j] += wk * m_w[i] * jf[d * np + j];
                     }
                 }
             }
@@ -103,7 +108,7 @@ private:
     const WaveModel& m_model;
     std::vector<double> m_t, m_y, m_w, m_kernel;
     int m_h;
-    mutable std::vector<double> m_f, m_jf, m_prefix;
+    std::size_t m_days = 0;
 };
 
 // ---------------------------------------------------------------- small numerical helpers
@@ -143,8 +148,12 @@ enum DerivedIndex {
     kDerivedCount
 };
 
+// `loadDay`: where the infectious load peaks. Empty: found by search (and returned); given: the
+// load is taken there. The delta method uses the latter, which is exact to first order (the
+// envelope theorem: at a maximum the derivative of the location does not enter).
 std::array<double, kDerivedCount> derive(const WaveModel& model, std::span<const double> p,
-                                         const FitOptions& o, double lastDataDay) {
+                                         const FitOptions& o, double lastDataDay, double& loadDay,
+                                         bool searchLoad) {
     std::array<double, kDerivedCount> d{};
     const double K = p[0];
     const double peak = model.peakTime(p);
@@ -162,8 +171,9 @@ std::array<double, kDerivedCount> derive(const WaveModel& model, std::span<const
     d[kDoubling] = growth > 0 ? std::numbers::ln2 / growth : kNaN;
     const double W = o.infectiousWindowDays;
     auto load = [&](double t) { return model.cumulative(t, p) - model.cumulative(t - W, p); };
-    const double at = goldenMaximum(load, peak - 1.0, peak + W + 1.0, 1e-6 * scale);
-    d[kLoad] = load(at);
+    if (searchLoad)
+        loadDay = goldenMaximum(load, peak - 1.0, peak + W + 1.0, 1e-4);
+    d[kLoad] = load(loadDay);
     return d;
 }
 
@@ -178,15 +188,27 @@ Estimate estimateFrom(double value, double se, double q) {
 
 double quantileFor(FitMethod method, int dof) {
     if (method == FitMethod::LeastSquares && dof > 0) {
+        thread_local std::vector<double> cache;  // by degrees of freedom (costly to compute)
+        if (dof < 4096) {
+            if (cache.size() <= static_cast<std::size_t>(dof))
+                cache.resize(static_cast<std::size_t>(dof) + 1, 0.0);
+            double& q = cache[static_cast<std::size_t>(dof)];
+            if (q == 0.0)
+                q = boost::math::quantile(boost::math::students_t(static_cast<double>(dof)), 0.975);
+            return q;
+        }
         return boost::math::quantile(boost::math::students_t(static_cast<double>(dof)), 0.975);
     }
     return boost::math::quantile(boost::math::normal(), 0.975);
 }
 
 // ---------------------------------------------------------------- window choice
-Result<std::pair<int, int>> chooseWindow(std::span<const double> counts, const FitOptions& o,
+Result<std::pair<int, int>> chooseWindow(std::span<const double> counts,
+                                         std::span<const double> smoothed, const FitOptions& o,
                                          std::vector<Wave>& waves) {
-    waves = detectWaves(counts, o.detection);
+    waves = o.detection.smoothingWindow == o.smoothingWindow
+                ? detectWavesInSmoothed(smoothed, o.detection)
+                : detectWaves(counts, o.detection);
     const int n = static_cast<int>(counts.size());
     if (o.window) {
         auto [a, b] = *o.window;
@@ -312,7 +334,10 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     res.method = o.method;
     res.seriesFirstDay = series.firstDay;
     res.options = o;
-    auto window = chooseWindow(counts, o, res.waves);
+    // The centred average (partial edges), shared by wave detection, the start and the target.
+    const std::vector<double> smoothedPartial =
+        series::centredMovingAverage(counts, std::max(o.smoothingWindow, 1));
+    auto window = chooseWindow(counts, smoothedPartial, o, res.waves);
     if (!window)
         return window.error();
     res.first = window->first;
@@ -329,9 +354,7 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     }
     const double lastDataDay = lastData - res.first;
 
-    // Starting values from the centred average over the window (partial edges).
-    const std::vector<double> smoothedPartial =
-        series::centredMovingAverage(counts, std::max(o.smoothingWindow, 1));
+    // Starting values from the centred average over the window.
     std::vector<double> tAll, yAll;
     for (int i = res.first; i <= res.last; ++i) {
         tAll.push_back(i - res.first);
@@ -348,11 +371,11 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     Matrix fullCov;
     int dof = 0;
     if (o.method == FitMethod::LeastSquares) {
-        const std::vector<double> target =
-            series::centredMovingAverage(counts, o.smoothingWindow, series::EdgeRule::Missing);
+        // Target: the centred average where its window lies inside the series.
+        const int half = o.smoothingWindow / 2;
         std::vector<double> t, y, w;
-        for (int i = res.first; i <= res.last; ++i) {
-            const double v = target[static_cast<std::size_t>(i)];
+        for (int i = std::max(res.first, half); i <= std::min(res.last, n - 1 - half); ++i) {
+            const double v = smoothedPartial[static_cast<std::size_t>(i)];
             if (!std::isfinite(v))
                 continue;
             t.push_back(i - res.first);
@@ -397,19 +420,21 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
                 }
             }
             Matrix meat = Matrix::Zero(np, np);
-            std::vector<double> tk(1);
-            std::vector<double> fk(1);
-            for (int k = kFirst; k <= kLast; ++k) {
-                if (k < 0 || k >= n)
-                    continue;
+            std::vector<double> fk(static_cast<std::size_t>(kLast - kFirst + 1));
+            model.incidenceOnDays(kFirst - res.first, params, fk);
+            for (int k = std::max(kFirst, 0); k <= std::min(kLast, n - 1); ++k) {
                 const double x = counts[static_cast<std::size_t>(k)];
                 if (!std::isfinite(x))
                     continue;
-                tk[0] = k - res.first;
-                model.incidence(tk, params, fk);
-                const double e = x - fk[0];
-                const Eigen::VectorXd g = G.row(k - kFirst).transpose();
-                meat += g * g.transpose() * (e * e);
+                const double e = x - fk[static_cast<std::size_t>(k - kFirst)];
+                for (int a = 0; a < np; ++a) {
+                    for (int b = 0; b <= a; ++b)
+                        meat(a, b) += G(k - kFirst, a) * G(k - kFirst, b) * e * e;
+                }
+            }
+            for (int a = 0; a < np; ++a) {
+                for (int b = a + 1; b < np; ++b)
+                    meat(a, b) = meat(b, a);
             }
             meat *= static_cast<double>(m) / std::max(1, m - np);  // HC1 small-sample factor
             const Eigen::Map<
@@ -488,7 +513,8 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
         denom > 0 ? res.goodness.aic + 2.0 * g.parameters * (g.parameters + 1) / denom : kNaN;
 
     // Derived quantities, delta method.
-    const auto d0 = derive(model, params, o, lastDataDay);
+    double loadDay = 0;
+    const auto d0 = derive(model, params, o, lastDataDay, loadDay, true);
     std::array<double, kDerivedCount> se;
     se.fill(kNaN);
     const bool haveCov = std::all_of(covariance.begin(), covariance.end(),
@@ -505,8 +531,8 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
                 grad.col(j).setConstant(kNaN);
                 continue;
             }
-            const auto du = derive(model, up, o, lastDataDay);
-            const auto dd = derive(model, down, o, lastDataDay);
+            const auto du = derive(model, up, o, lastDataDay, loadDay, false);
+            const auto dd = derive(model, down, o, lastDataDay, loadDay, false);
             for (int k = 0; k < kDerivedCount; ++k)
                 grad(k, j) = (du[k] - dd[k]) / (2 * step);
         }

@@ -99,8 +99,8 @@ void fillCovariance(const Matrix& J, SolverResult& result) {
         if (!(scale[j] > 0))
             return;
     }
-    const Matrix Js = J * scale.cwiseInverse().asDiagonal();
-    Eigen::ColPivHouseholderQR<Matrix> qr(Js);
+    const Eigen::MatrixXd Js = J * scale.cwiseInverse().asDiagonal();  // column-major for QR
+    Eigen::ColPivHouseholderQR<Eigen::MatrixXd> qr(Js);
     qr.setThreshold(1e-14);
     if (qr.rank() < J.cols())
         return;
@@ -179,8 +179,12 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
         return result;
     }
     Evaluator eval(problem, summary);
-    Vector r, rNew;
-    Matrix J;
+    // Working memory is kept per thread: a batch fit calls the solver thousands of times and
+    // fresh allocations of these sizes make the allocator return and re-fault pages each time.
+    thread_local Vector r, rNew;
+    thread_local Matrix J, JNew;
+    thread_local Eigen::MatrixXd
+        Jc;  // column-major copy: Householder QR runs down contiguous columns
     if (!eval.residualsAndJacobian(x, r, J)) {
         summary.termination = Termination::InvalidStart;
         summary.message = "the model cannot be evaluated at the starting point";
@@ -195,7 +199,6 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
     double lambda = options.initialDamping;
     double nu = 2.0;
     Vector xNew(n);
-    Matrix JNew;
     summary.termination = Termination::MaxIterations;
     bool haveTermination = false;
     // With an analytic Jacobian, a trial point is evaluated with its Jacobian at once (shared
@@ -208,16 +211,18 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
     Vector qtr(n);
     Matrix S(2 * n, n);
     Vector rhs(2 * n);
-    Eigen::MatrixXd Jc;  // column-major copy: Householder QR runs down contiguous columns
     auto factorise = [&]() {
         Jc = J;
-        Eigen::HouseholderQR<Eigen::Ref<Eigen::MatrixXd>> qr(Jc);
+        thread_local Eigen::HouseholderQR<Eigen::MatrixXd> qr;
+        qr.compute(Jc);
         R = qr.matrixQR().topRows(n).triangularView<Eigen::Upper>();
         qtr = (qr.householderQ().transpose() * r).head(n);
     };
     factorise();
 
     auto gradientSmall = [&]() {
+        if (options.gradientTolerance <= 0)
+            return false;
         const double rnorm = r.norm();
         if (rnorm == 0.0)
             return true;

@@ -77,6 +77,24 @@ std::optional<GuessData> prepareGuess(std::span<const double> t, std::span<const
     d.total = running;
     if (d.t.size() < 3 || !(d.total > 0) || !(d.peakY > 0))
         return std::nullopt;
+    // The guess describes the main wave only: stop where the curve, after its peak, has fallen
+    // below 2% of the peak, so that a later small rise inside the window does not inflate K.
+    std::size_t end = d.t.size();
+    bool pastPeak = false;
+    for (std::size_t i = 0; i < d.t.size(); ++i) {
+        if (d.t[i] >= d.peakT)
+            pastPeak = true;
+        if (pastPeak && d.y[i] < 0.02 * d.peakY) {
+            end = i + 1;
+            break;
+        }
+    }
+    if (end < d.t.size() && end >= 3) {
+        d.t.resize(end);
+        d.y.resize(end);
+        d.cumulative.resize(end);
+        d.total = d.cumulative.back() + 0.5 * d.y.back();
+    }
     return d;
 }
 
@@ -98,9 +116,17 @@ template <class Transform>
 std::optional<Line> linearisedAt(const GuessData& d, double size, Transform transform,
                                  bool logTime) {
     std::vector<double> xs, ys;
+    // A line needs few points: at most about 60 (every k-th day of a long rise).
+    std::size_t inRange = 0;
+    for (double c : d.cumulative)
+        inRange += (c / size > 0.02 && c / size < 0.98) ? 1 : 0;
+    const std::size_t stride = std::max<std::size_t>(1, inRange / 60);
+    std::size_t seen = 0;
     for (std::size_t i = 0; i < d.t.size(); ++i) {
         const double q = d.cumulative[i] / size;
         if (q <= 0.02 || q >= 0.98)
+            continue;
+        if (seen++ % stride != 0)
             continue;
         xs.push_back(logTime ? std::log(d.t[i] + 1.0) : d.t[i]);
         ys.push_back(transform(q));

@@ -24,8 +24,13 @@ Status WaveDetectionOptions::validate() const {
 }
 
 std::vector<Wave> detectWaves(std::span<const double> counts, const WaveDetectionOptions& options) {
+    return detectWavesInSmoothed(series::centredMovingAverage(counts, options.smoothingWindow),
+                                 options);
+}
+
+std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
+                                        const WaveDetectionOptions& options) {
     std::vector<Wave> waves;
-    const std::vector<double> s = series::centredMovingAverage(counts, options.smoothingWindow);
     const int n = static_cast<int>(s.size());
     double top = 0;
     for (double v : s) {

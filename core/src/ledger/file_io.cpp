@@ -29,7 +29,10 @@ Status writeFileAtomically(const std::string& path, std::string_view bytes) {
     fs::path folder = target.parent_path();
     if (folder.empty())
         folder = ".";
-    std::string temp = (folder / ("." + target.filename().string() + ".tmp-XXXXXX")).string();
+    std::string leaf = ".";
+    leaf += target.filename().string();
+    leaf += ".tmp-XXXXXX";
+    std::string temp = (folder / leaf).string();
     std::vector<char> name(temp.begin(), temp.end());
     name.push_back('\0');
     const int fd = ::mkstemp(name.data());

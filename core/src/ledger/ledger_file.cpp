@@ -3,6 +3,7 @@
 #include "ledger/file_io.h"
 
 #include <fcntl.h>
+#include <sys/file.h>
 #include <sys/stat.h>
 #include <unistd.h>
 #include <cerrno>
@@ -74,9 +75,45 @@ Status appendLedgerEntry(const std::string& path, const LedgerEntry& entry) {
     };
     std::error_code ec;
     const bool created = !std::filesystem::exists(path, ec);
-    const int fd = ::open(path.c_str(), O_WRONLY | O_APPEND | O_CREAT | O_CLOEXEC, 0644);
+    const int fd = ::open(path.c_str(), O_RDWR | O_APPEND | O_CREAT | O_CLOEXEC, 0644);
     if (fd < 0)
         return fail("cannot open the ledger for appending");
+    // One writer at a time, and only onto the entry this one was made after: under the
+    // lock, the file must end exactly at the entry's predecessor.
+    if (::flock(fd, LOCK_EX) != 0) {
+        Error e = fail("cannot lock the ledger");
+        ::close(fd);
+        return e;
+    }
+    std::string current;
+    for (char buffer[65536];;) {
+        const ssize_t n = ::pread(fd, buffer, sizeof buffer, static_cast<off_t>(current.size()));
+        if (n < 0 && errno == EINTR)
+            continue;
+        if (n < 0) {
+            Error e = fail("cannot read the ledger");
+            ::close(fd);
+            return e;
+        }
+        if (n == 0)
+            break;
+        current.append(buffer, static_cast<std::size_t>(n));
+    }
+    Result<Ledger> onDisk = parseLedger(current, path);
+    if (!onDisk) {
+        ::close(fd);
+        return onDisk.error();
+    }
+    if (onDisk->entries.size() + 1 != entry.sequence || onDisk->headHash() != entry.previousHash) {
+        ::close(fd);
+        Error e = makeError(ErrorCode::Integrity,
+                            "the ledger changed since it was read (it now has " +
+                                std::to_string(onDisk->entries.size()) +
+                                " entries; this is entry " + std::to_string(entry.sequence) +
+                                "); nothing was appended: read it again and redo the decision");
+        e.file = path;
+        return e;
+    }
     const char* data = bytes.data();
     std::size_t left = bytes.size();
     while (left > 0) {

@@ -44,8 +44,8 @@ struct SolverOptions {
     int maxIterations = 200;            // linear solves (accepted or not)
     double functionTolerance = 1e-10;   // stop when a step lowers the cost by <= this * cost
     double parameterTolerance = 1e-10;  // stop when |h| <= this * (|x| + this)
-    double gradientTolerance =
-        1e-14;                     // stop when max_j |J_j . r| / (|J_j| |r|) <= this (MINPACK gtol)
+    double gradientTolerance = 0;  // > 0: stop when max_j |J_j . r| / (|J_j| |r|) <= this
+                                   // (MINPACK gtol); 0: not checked
     double initialDamping = 1e-3;  // lambda_0 (dimensionless: the damping is lambda D)
     int refinementSteps = 0;       // undamped Gauss-Newton steps after convergence (0: none)
 

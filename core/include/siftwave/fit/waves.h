@@ -42,4 +42,8 @@ struct Wave {
 std::vector<Wave> detectWaves(std::span<const double> counts,
                               const WaveDetectionOptions& options = {});
 
+/// The same on a series already smoothed with the centred average of options.smoothingWindow.
+std::vector<Wave> detectWavesInSmoothed(std::span<const double> smoothed,
+                                        const WaveDetectionOptions& options = {});
+
 }  // namespace siftwave::fit

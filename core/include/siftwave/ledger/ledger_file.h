@@ -25,6 +25,9 @@ Result<Ledger> readLedgerFile(const std::string& path);
 Result<Ledger> parseLedger(std::string_view bytes, const std::string& displayPath);
 
 /// Appends one sealed entry as a line and fsyncs; creates the file if needed.
+/// Holds an exclusive flock while it checks that the file (verified again) ends
+/// exactly at the entry's predecessor, so two writers cannot fork the chain:
+/// Integrity error, nothing appended, when another entry got there first.
 Status appendLedgerEntry(const std::string& path, const LedgerEntry& entry);
 
 }  // namespace siftwave
