@@ -1,6 +1,8 @@
 // End-to-end: siftwave-cli inspect on files written by the test.
 #include "siftwave/ingest/ingest.h"
 
+#include "support/temp_path.h"
+
 #include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
 
@@ -27,7 +29,7 @@ std::string slurp(const std::filesystem::path& path) {
 
 CliRun run(const std::string& args) {
     const std::filesystem::path errPath =
-        std::filesystem::temp_directory_path() / "siftwave_inspect_test.err";
+        siftwave::testing::testTempPath("siftwave_inspect_test.err");
     const std::string cmd = std::string(SIFTWAVE_CLI_PATH) + " " + args + " 2>" + errPath.string();
     CliRun r;
     FILE* p = popen(cmd.c_str(), "r");
@@ -45,7 +47,7 @@ CliRun run(const std::string& args) {
 }
 
 std::string writeDrop(const std::string& name, const std::string& text) {
-    const std::filesystem::path path = std::filesystem::temp_directory_path() / name;
+    const std::filesystem::path path = siftwave::testing::testTempPath(name);
     std::ofstream out(path, std::ios::binary);
     out << text;
     return path.string();

@@ -2,6 +2,8 @@
 // is one, and nothing crashes or hangs.
 #include "siftwave/ingest/ingest.h"
 
+#include "support/temp_path.h"
+
 #include <gtest/gtest.h>
 
 #include <filesystem>
@@ -196,7 +198,7 @@ TEST(IngestBadInput, EmptyKeyCellsSkipTheRowWithAWarning) {
 
 TEST(IngestBadInput, ReadingNeverWritesTheInput) {
     const std::filesystem::path path =
-        std::filesystem::temp_directory_path() / "siftwave_bad_input.csv";
+        siftwave::testing::testTempPath("siftwave_bad_input.csv");
     const std::string text = "date,region,cases\n2026-02-30,A,1\n";
     {
         std::ofstream out(path, std::ios::binary);

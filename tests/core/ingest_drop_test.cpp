@@ -1,6 +1,8 @@
 // Reading whole drops: dialects, layouts, roles, cells, duplicates, provenance.
 #include "siftwave/ingest/ingest.h"
 
+#include "support/temp_path.h"
+
 #include <gtest/gtest.h>
 
 #include <cstdio>
@@ -359,7 +361,7 @@ TEST(IngestDrop, SparseFilesWithManyRegionsAreReadCompletely) {
 
 TEST(IngestDrop, RecordsProvenanceOfTheFile) {
     const std::filesystem::path path =
-        std::filesystem::temp_directory_path() / "siftwave_ingest_provenance.csv";
+        siftwave::testing::testTempPath("siftwave_ingest_provenance.csv");
     const std::string text = "date,region,cases\n2026-01-01,A,1\n";
     {
         std::ofstream out(path, std::ios::binary);

@@ -6,6 +6,8 @@
 // numeric codes are three digits with leading zeros (Afghanistan is 004).
 #include "siftwave/ingest/ingest.h"
 
+#include "support/temp_path.h"
+
 #include <gtest/gtest.h>
 
 #include <filesystem>
@@ -130,7 +132,7 @@ TEST(IngestIso3166, Utf8NamesAsCodesAreKeptByteForByte) {
 TEST(IngestIso3166, TheRegisterReaderKeepsEveryCode) {
     const std::vector<Country> countries = referenceCountries();
     const std::filesystem::path path =
-        std::filesystem::temp_directory_path() / "siftwave_iso3166_register.csv";
+        siftwave::testing::testTempPath("siftwave_iso3166_register.csv");
     {
         std::ofstream out(path, std::ios::binary);
         out << "code,name,parent,population\n";

@@ -1,6 +1,8 @@
 // The region register: code, name, parent, population; codes verbatim.
 #include "siftwave/ingest/ingest.h"
 
+#include "support/temp_path.h"
+
 #include <gtest/gtest.h>
 
 #include <filesystem>
@@ -10,7 +12,7 @@ namespace siftwave {
 namespace {
 
 std::string writeTemp(const std::string& name, const std::string& text) {
-    const std::filesystem::path path = std::filesystem::temp_directory_path() / name;
+    const std::filesystem::path path = siftwave::testing::testTempPath(name);
     std::ofstream out(path, std::ios::binary);
     out << text;
     return path.string();

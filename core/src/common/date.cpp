@@ -77,7 +77,7 @@ int Date::isoWeekday() const {
 
 std::string Date::iso() const {
     const Ymd c = civilFromDays(serial);
-    char buf[16];
+    char buf[32];  // room for any int year, so -Wformat-truncation has nothing to warn about
     std::snprintf(buf, sizeof buf, "%04d-%02u-%02u", c.y, c.m, c.d);
     return buf;
 }

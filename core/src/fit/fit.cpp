@@ -1,6 +1,7 @@
 #include "siftwave/fit/fit.h"
 
 #include "fit/likelihood.h"
+#include "fit/smoothed_least_squares.h"
 #include "siftwave/series/smoothing.h"
 
 #include <Eigen/Dense>
@@ -8,6 +9,7 @@
 #include <boost/math/distributions/students_t.hpp>
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <cstdio>
 #include <limits>
@@ -16,100 +18,11 @@
 namespace siftwave::fit {
 namespace {
 
+using detail::centredKernel;
+using detail::SmoothedLeastSquares;
+
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 using Matrix = Eigen::MatrixXd;
-
-// Smoothing kernel of the centred average: weights a_k, k = -h..h.
-std::vector<double> centredKernel(int window) {
-    if (window % 2 == 1)
-        return std::vector<double>(static_cast<std::size_t>(window), 1.0 / window);
-    std::vector<double> k(static_cast<std::size_t>(window) + 1, 1.0 / window);
-    k.front() = k.back() = 0.5 / window;
-    return k;
-}
-
-// ---------------------------------------------------------------- least squares on the average
-// Residual i: w_i ((A f)(t_i) - y_i), where y is the centred average of the counts and A f the
-// same average applied to the model, so that smoothing widens model and data alike and the
-// parameters keep their meaning (no smoothing bias in the peak or the width).
-class SmoothedLeastSquares final : public LeastSquaresProblem {
-public:
-    SmoothedLeastSquares(const WaveModel& model, std::vector<double> t, std::vector<double> y,
-                         std::vector<double> w, std::vector<double> kernel, int span)
-        : m_model(model),
-          m_t(std::move(t)),
-          m_y(std::move(y)),
-          m_w(std::move(w)),
-          m_kernel(std::move(kernel)),
-          m_h(static_cast<int>(m_kernel.size()) / 2) {
-        // Model days: every day from t_0 - h to t_last + h (the window spans `span` days).
-        m_days = static_cast<std::size_t>(span + 2 * m_h);
-    }
-    int residualCount() const override { return static_cast<int>(m_t.size()); }
-    int parameterCount() const override { return m_model.parameterCount(); }
-    bool evaluate(std::span<const double> p, std::span<double> r,
-                  std::span<double> jac) const override {
-        if (!m_model.valid(p))
-            return false;
-        const bool withJacobian = !jac.empty();
-        // Scratch per thread (see the solver): model values, Jacobian and prefix sums.
-        thread_local std::vector<double> fBuffer, jfBuffer, prefixBuffer;
-        fBuffer.resize(m_days);
-        jfBuffer.resize(m_days * p.size());
-        const std::span<double> f(fBuffer), jf(jfBuffer);
-        std::vector<double>& prefix = prefixBuffer;
-        m_model.incidenceOnDays(-m_h, p, f,
-                                withJacobian ? std::span<double>(jf) : std::span<double>{});
-        const std::size_t np = p.size();
-        const std::size_t cols = withJacobian ? np + 1 : 1;
-        const bool uniform = m_kernel.size() % 2 == 1;
-        if (uniform) {
-            // Equal weights: window sums from prefix sums of the model and its Jacobian.
-            const std::size_t days = f.size();
-            prefix.resize((days + 1) * cols);
-            std::fill_n(prefix.begin(), cols, 0.0);
-            for (std::size_t d = 0; d < days; ++d) {
-                prefix[(d + 1) * cols] = prefix[d * cols] + f[d];
-                for (std::size_t j = 1; j < cols; ++j) {
-                    prefix[(d + 1) * cols + j] = prefix[d * cols + j] + jf[d * np + j - 1];
-                }
-            }
-        }
-        const double a = 1.0 / static_cast<double>(m_kernel.size());
-        for (std::size_t i = 0; i < m_t.size(); ++i) {
-            const int centre = static_cast<int>(m_t[i]) + m_h;  // index into the model days
-            double model = 0;
-            if (uniform) {
-                const std::size_t lo = static_cast<std::size_t>(centre - m_h) * cols;
-                const std::size_t hi = static_cast<std::size_t>(centre + m_h + 1) * cols;
-                model = a * (prefix[hi] - prefix[lo]);
-                for (std::size_t j = 1; j < cols; ++j) {
-                    jac[i * np + j - 1] = m_w[i] * a * (prefix[hi + j] - prefix[lo + j]);
-                }
-            } else {
-                if (withJacobian)
-                    std::fill_n(&jac[i * np], np, 0.0);
-                for (int k = -m_h; k <= m_h; ++k) {
-                    const double wk = m_kernel[static_cast<std::size_t>(k + m_h)];
-                    const std::size_t d = static_cast<std::size_t>(centre + k);
-                    model += wk * f[d];
-                    if (withJacobian) {
-                        for (std::size_t j = 0; j < np; ++j)
-                            jac[i * np + j] += wk * m_w[i] * jf[d * np + j];
-                    }
-                }
-            }
-            r[i] = m_w[i] * (model - m_y[i]);
-        }
-        return true;
-    }
-
-private:
-    const WaveModel& m_model;
-    std::vector<double> m_t, m_y, m_w, m_kernel;
-    int m_h;
-    std::size_t m_days = 0;
-};
 
 // ---------------------------------------------------------------- small numerical helpers
 template <class F>
@@ -368,7 +281,6 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
 
     std::vector<double> params;
     std::vector<double> covariance;  // model parameters, np x np
-    Matrix fullCov;
     int dof = 0;
     if (o.method == FitMethod::LeastSquares) {
         // Target: the centred average where its window lies inside the series.

@@ -212,6 +212,33 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
     Matrix S(2 * n, n);
     Vector rhs(2 * n);
     auto factorise = [&]() {
+        if (options.linearSolver == LinearSolver::NormalEquations) {
+            // R from the Cholesky factor of J^T J and Q^T r = R^-T J^T r: the same small system
+            // at a fraction of the cost; QR when J^T J is not numerically positive definite.
+            // J^T J and J^T r by plain loops over the rows (tall, thin J: cheaper than GEMM).
+            Matrix A = Matrix::Zero(n, n);
+            Vector g = Vector::Zero(n);
+            for (Eigen::Index i = 0; i < m; ++i) {
+                const double* row = J.data() + i * n;
+                for (Eigen::Index a = 0; a < n; ++a) {
+                    g[a] += row[a] * r[i];
+                    for (Eigen::Index b = 0; b <= a; ++b)
+                        A(a, b) += row[a] * row[b];
+                }
+            }
+            for (Eigen::Index a = 0; a < n; ++a) {
+                for (Eigen::Index b = a + 1; b < n; ++b)
+                    A(a, b) = A(b, a);
+            }
+            const Eigen::LLT<Matrix> llt(A);
+            if (llt.info() == Eigen::Success) {
+                R = llt.matrixU();
+                qtr = llt.matrixL().solve(g);
+                if (allFinite(R.data(), static_cast<std::size_t>(R.size())) &&
+                    allFinite(qtr.data(), static_cast<std::size_t>(n)))
+                    return;
+            }
+        }
         Jc = J;
         thread_local Eigen::HouseholderQR<Eigen::MatrixXd> qr;
         qr.compute(Jc);

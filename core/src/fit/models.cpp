@@ -116,11 +116,11 @@ template <class Transform>
 std::optional<Line> linearisedAt(const GuessData& d, double size, Transform transform,
                                  bool logTime) {
     std::vector<double> xs, ys;
-    // A line needs few points: at most about 60 (every k-th day of a long rise).
+    // A line needs few points: at most about 30 (every k-th day of a long rise).
     std::size_t inRange = 0;
     for (double c : d.cumulative)
         inRange += (c / size > 0.02 && c / size < 0.98) ? 1 : 0;
-    const std::size_t stride = std::max<std::size_t>(1, inRange / 60);
+    const std::size_t stride = std::max<std::size_t>(1, inRange / 30);
     std::size_t seen = 0;
     for (std::size_t i = 0; i < d.t.size(); ++i) {
         const double q = d.cumulative[i] / size;

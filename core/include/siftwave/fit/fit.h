@@ -84,7 +84,9 @@ struct FitOptions {
     double endQuantile = 0.975;      // wave end = this quantile of F
     int infectiousWindowDays = 14;   // W of the peak infectious load (common practice, no source)
     bool derivedIntervals = true;    // delta-method intervals for derived quantities
-    SolverOptions solver;            // defaults of levenberg_marquardt.h
+    // Solver: the defaults of levenberg_marquardt.h, but with the normal equations (wave fits
+    // have 3-4 well-scaled parameters; the NIST checks use QR).
+    SolverOptions solver{.linearSolver = LinearSolver::NormalEquations};
 
     /// Usage errors for inconsistent values (quantiles outside (0, 1), window reversed, ...).
     Status validate() const;

@@ -40,14 +40,22 @@ public:
     virtual bool hasJacobian() const { return true; }
 };
 
+enum class LinearSolver {
+    QR,               // Householder QR of J: keeps every digit (default; the NIST checks use it)
+    NormalEquations,  // Cholesky of J^T J: several times faster for tall, small problems, loses
+                      // digits when J is ill-conditioned (falls back to QR if not positive
+                      // definite)
+};
+
 struct SolverOptions {
     int maxIterations = 200;            // linear solves (accepted or not)
     double functionTolerance = 1e-10;   // stop when a step lowers the cost by <= this * cost
     double parameterTolerance = 1e-10;  // stop when |h| <= this * (|x| + this)
-    double gradientTolerance = 0;  // > 0: stop when max_j |J_j . r| / (|J_j| |r|) <= this
-                                   // (MINPACK gtol); 0: not checked
-    double initialDamping = 1e-3;  // lambda_0 (dimensionless: the damping is lambda D)
-    int refinementSteps = 0;       // undamped Gauss-Newton steps after convergence (0: none)
+    double gradientTolerance = 0;       // > 0: stop when max_j |J_j . r| / (|J_j| |r|) <= this
+                                        // (MINPACK gtol); 0: not checked
+    double initialDamping = 1e-3;       // lambda_0 (dimensionless: the damping is lambda D)
+    int refinementSteps = 0;            // undamped Gauss-Newton steps after convergence (0: none)
+    LinearSolver linearSolver = LinearSolver::QR;
 
     /// Usage error when a count or a tolerance is not positive.
     Status validate() const;

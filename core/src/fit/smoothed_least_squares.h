@@ -1,0 +1,145 @@
+#pragma once
+// Least squares on the centred moving average (internal to fit.cpp).
+//
+// Residual i: w_i ((A f)(t_i) - y_i), where y is the centred average of the counts and A f the
+// same average applied to the model, so that smoothing widens model and data alike and the
+// parameters keep their meaning (no smoothing bias in the peak or the width).
+
+#include "siftwave/fit/levenberg_marquardt.h"
+#include "siftwave/fit/models.h"
+
+#include <algorithm>
+#include <array>
+#include <span>
+#include <vector>
+
+namespace siftwave::fit::detail {
+
+// Smoothing kernel of the centred average: weights a_k, k = -h..h.
+inline std::vector<double> centredKernel(int window) {
+    if (window % 2 == 1)
+        return std::vector<double>(static_cast<std::size_t>(window), 1.0 / window);
+    std::vector<double> k(static_cast<std::size_t>(window) + 1, 1.0 / window);
+    k.front() = k.back() = 0.5 / window;
+    return k;
+}
+
+// Residual i: w_i ((A f)(t_i) - y_i), where y is the centred average of the counts and A f the
+// same average applied to the model, so that smoothing widens model and data alike and the
+// parameters keep their meaning (no smoothing bias in the peak or the width).
+class SmoothedLeastSquares final : public LeastSquaresProblem {
+public:
+    SmoothedLeastSquares(const WaveModel& model, std::vector<double> t, std::vector<double> y,
+                         std::vector<double> w, std::vector<double> kernel, int span)
+        : m_model(model),
+          m_t(std::move(t)),
+          m_y(std::move(y)),
+          m_w(std::move(w)),
+          m_kernel(std::move(kernel)),
+          m_h(static_cast<int>(m_kernel.size()) / 2) {
+        // Model days: every day from t_0 - h to t_last + h (the window spans `span` days).
+        m_days = static_cast<std::size_t>(span + 2 * m_h);
+    }
+    int residualCount() const override { return static_cast<int>(m_t.size()); }
+    int parameterCount() const override { return m_model.parameterCount(); }
+    bool evaluate(std::span<const double> p, std::span<double> r,
+                  std::span<double> jac) const override {
+        if (!m_model.valid(p))
+            return false;
+        const bool withJacobian = !jac.empty();
+        // Scratch per thread (see the solver): model values, Jacobian and prefix sums.
+        thread_local std::vector<double> fBuffer, jfBuffer;
+        fBuffer.resize(m_days);
+        jfBuffer.resize(m_days * p.size());
+        const std::span<double> f(fBuffer), jf(jfBuffer);
+        m_model.incidenceOnDays(-m_h, p, f,
+                                withJacobian ? std::span<double>(jf) : std::span<double>{});
+        const std::size_t np = p.size();
+        const std::size_t cols = withJacobian ? np + 1 : 1;
+        const bool uniform = m_kernel.size() % 2 == 1;
+        if (uniform) {
+            // Equal weights: sliding window sums of the model and its Jacobian columns.
+            switch (cols) {
+                case 1:
+                    slidingSums<1>(f, jf, r, jac);
+                    break;
+                case 4:
+                    slidingSums<4>(f, jf, r, jac);
+                    break;
+                case 5:
+                    slidingSums<5>(f, jf, r, jac);
+                    break;
+                default:
+                    slidingSums<0>(f, jf, r, jac);
+                    break;
+            }
+            return true;
+        }
+        for (std::size_t i = 0; i < m_t.size(); ++i) {
+            const int centre = static_cast<int>(m_t[i]) + m_h;  // index into the model days
+            double model = 0;
+            {
+                if (withJacobian)
+                    std::fill_n(&jac[i * np], np, 0.0);
+                for (int k = -m_h; k <= m_h; ++k) {
+                    const double wk = m_kernel[static_cast<std::size_t>(k + m_h)];
+                    const std::size_t d = static_cast<std::size_t>(centre + k);
+                    model += wk * f[d];
+                    if (withJacobian) {
+                        for (std::size_t j = 0; j < np; ++j)
+                            jac[i * np + j] += wk * m_w[i] * jf[d * np + j];
+                    }
+                }
+            }
+            r[i] = m_w[i] * (model - m_y[i]);
+        }
+        return true;
+    }
+
+private:
+    // Residuals (and weighted Jacobian rows) from window sums over the model days, kept as a
+    // running sum of the columns (f, df/dp...). Cols = 1 + parameters when the Jacobian is
+    // wanted, 1 without; 0 means "any" (run-time count). Re-summed from scratch every 64 target
+    // days so rounding cannot drift.
+    template <int Cols>
+    void slidingSums(std::span<const double> f, std::span<const double> jf, std::span<double> r,
+                     std::span<double> jac) const {
+        const std::size_t cols = Cols > 0 ? static_cast<std::size_t>(Cols)
+                                          : (jac.empty() ? 1 : 1 + jf.size() / f.size());
+        const std::size_t np = cols - 1;
+        const double a = 1.0 / static_cast<double>(m_kernel.size());
+        std::array<double, 8> sum{};
+        auto column = [&](std::size_t d, std::size_t j) {
+            return j == 0 ? f[d] : jf[d * np + j - 1];
+        };
+        std::size_t lo = 0, hi = 0;  // the sums cover model days [lo, hi)
+        for (std::size_t i = 0; i < m_t.size(); ++i) {
+            const std::size_t centre =
+                static_cast<std::size_t>(m_t[i]) + static_cast<std::size_t>(m_h);
+            const std::size_t first = centre - static_cast<std::size_t>(m_h);
+            const std::size_t end = centre + static_cast<std::size_t>(m_h) + 1;
+            if (i % 64 == 0 || first >= hi) {
+                sum.fill(0.0);
+                lo = hi = first;
+            }
+            for (; hi < end; ++hi) {
+                for (std::size_t j = 0; j < cols; ++j)
+                    sum[j] += column(hi, j);
+            }
+            for (; lo < first; ++lo) {
+                for (std::size_t j = 0; j < cols; ++j)
+                    sum[j] -= column(lo, j);
+            }
+            r[i] = m_w[i] * (a * sum[0] - m_y[i]);
+            for (std::size_t j = 1; j < cols; ++j)
+                jac[i * np + j - 1] = m_w[i] * a * sum[j];
+        }
+    }
+
+    const WaveModel& m_model;
+    std::vector<double> m_t, m_y, m_w, m_kernel;
+    int m_h;
+    std::size_t m_days = 0;
+};
+
+}  // namespace siftwave::fit::detail
