@@ -25,7 +25,7 @@ Drop makeDrop(int regions, int days) {
     const auto& gumbel = fit::waveModel(fit::ModelKind::Gumbel);
     const double weekday[7] = {1.2, 1.1, 1.0, 1.0, 0.95, 0.85, 0.9};
     for (int r = 0; r < regions; ++r) {
-        char code[16];
+        char code[32];
         std::snprintf(code, sizeof code, "R%d", 1000 + r);
         drop.regionCodes.emplace_back(code);
         const int waves = 1 + static_cast<int>(u(rng) * 3);

@@ -154,6 +154,7 @@ Status ScanOptions::validate() const {
 }
 
 Status ScanOptions::set(std::string_view name, std::string_view value) {
+    const ScanOptions before = *this;  // restored when the new value does not validate
     for (const Entry& e : optionTable(*this)) {
         if (name != e.name)
             continue;
@@ -182,7 +183,10 @@ Status ScanOptions::set(std::string_view name, std::string_view value) {
             }
             **d = parsed;
         }
-        return validate();
+        Status valid = validate();
+        if (!valid)
+            *this = before;
+        return valid;
     }
     return usage("unknown scan option '" + std::string(name) +
                  "' (see 'siftwave-cli scan --help' for the names)");

@@ -111,7 +111,8 @@ struct ScanOptions {
     Status validate() const;
 
     /// Sets one value by its name, "detector.param" (snake_case, as in the README and
-    /// in optionNames()), from text. Usage error for an unknown name or a bad value.
+    /// in describeScanOptions()), from text. Usage error for an unknown name, a bad value or
+    /// one out of range; the options are then left as they were.
     Status set(std::string_view name, std::string_view value);
 };
 

@@ -1,0 +1,47 @@
+// reporting_gap: a run of zeros inside an active period.
+
+#include "scan/scan_input.h"
+#include "support/synthetic_drop.h"
+
+#include <gtest/gtest.h>
+
+namespace siftwave::scan {
+namespace {
+
+std::vector<Finding> run(const Drop& drop) {
+    const ScanOptions options;
+    const detail::ScanInput in = detail::prepareScanInput(drop, options);
+    std::vector<Finding> out;
+    detail::findReportingGaps(in, out);
+    return out;
+}
+
+TEST(ReportingGap, ReportsZerosInsideAnActivePeriodAndTheCatchUp) {
+    const Drop drop = siftwave::testing::handBuiltDrop(
+        {"A"}, {{0, 0, 20, 22, 19, 21, 0, 0, 0, 83, 20, 18, 22, 0, 0}});
+    const auto found = run(drop);
+    ASSERT_EQ(found.size(), 1u);  // the leading and trailing zeros are tails, not gaps
+    const Finding& f = found[0];
+    EXPECT_EQ(*f.first, drop.dayAt(6));
+    EXPECT_EQ(*f.last, drop.dayAt(8));
+    EXPECT_EQ(f.evidence["days"], 3);
+    EXPECT_TRUE(f.evidence["catch_up"].get<bool>());
+    EXPECT_EQ(f.suggestion["decision"], "redistribute");
+    EXPECT_EQ(f.suggestion["date"], drop.dayAt(9).iso());
+    EXPECT_EQ(f.suggestion["window_first"], drop.dayAt(6).iso());
+}
+
+TEST(ReportingGap, ZerosAreUnremarkableWhereCountsAreLow) {
+    // Around 1 a day, two zeros in a row happen by chance (exp(-2) = 0.14).
+    EXPECT_TRUE(run(siftwave::testing::handBuiltDrop(
+                        {"A"}, {{1, 2, 1, 0, 0, 1, 3, 0, 1, 2, 0, 0, 0, 1, 2}}))
+                    .empty());
+}
+
+TEST(ReportingGap, ASingleZeroIsBelowTheDefaultRunLength) {
+    EXPECT_TRUE(
+        run(siftwave::testing::handBuiltDrop({"A"}, {{30, 31, 29, 0, 30, 32, 28}})).empty());
+}
+
+}  // namespace
+}  // namespace siftwave::scan
