@@ -174,26 +174,20 @@ private Q_SLOTS:
 
     void reopeningTheDropReplaysItsLedger() {
         MainWindow& window = *m_window;
-        const auto* dump =
-            findingOf(*window.workbench(), siftwave::scan::FindingKind::BacklogDump, "1301");
+        const auto* dump = findingOf(*window.workbench(), siftwave::scan::FindingKind::BacklogDump, "1301");
         QVERIFY(dump);
+        const int day = *dump->first - window.workbench()->drop().firstDay;  // copied: reopening drops the findings
         QVERIFY(window.decideFinding(QString::fromStdString(dump->id)));
         QVERIFY(window.applyCurrentDecision());  // the prefilled reason is a reason
         const auto region = *window.workbench()->drop().regionIndex("1301");
-        const auto value = window.workbench()
-                               ->cleaned()
-                               .cell(0, region, *dump->first - window.workbench()->drop().firstDay)
-                               .value;
+        const auto value = window.workbench()->cleaned().cell(0, region, day).value;
+        QVERIFY(value != window.workbench()->drop().cell(0, region, day).value);
 
         QSignalSpy opened(&window, &MainWindow::dropOpened);
         window.openDrop(QStringLiteral(SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv"));
         QVERIFY(opened.wait(30000));
         QCOMPARE(window.workbench()->ledger().entries.size(), std::size_t(1));
-        QCOMPARE(window.workbench()
-                     ->cleaned()
-                     .cell(0, region, *dump->first - window.workbench()->drop().firstDay)
-                     .value,
-                 value);
+        QCOMPARE(window.workbench()->cleaned().cell(0, region, day).value, value);
     }
 };
 
