@@ -21,6 +21,8 @@ constexpr Command kCommands[] = {
     {"apply", "replay a ledger on a drop and write the cleaned data", siftwave::cli::runApply},
     {"ledger", "verify a ledger or write its audit report", siftwave::cli::runLedger},
     {"fit", "fit wave curves to one region or all, with 95% intervals", siftwave::cli::runFit},
+    {"figure", "draw an annotated briefing figure (PNG, SVG, PDF; needs Qt)", siftwave::cli::runFigure},
+    {"report", "write the briefing report (PDF, HTML; needs Qt)", siftwave::cli::runReport},
 };
 
 void printUsage(std::FILE* to) {

@@ -1,5 +1,7 @@
 #include "main_window.h"
 
+#include "export_figure_action.h"
+
 #include "settings.h"
 
 #include "widgets/background_task.h"
@@ -143,6 +145,7 @@ void MainWindow::buildActions() {
     file->addSeparator();
     QAction* close = file->addAction(tr("&Close drop"), m_workbench, &widgets::Workbench::close);
     close->setShortcut(QKeySequence::Close);
+    addExportFigureAction(this, file);
     file->addSeparator();
     QAction* quit = file->addAction(tr("&Quit"), this, &QWidget::close);
     quit->setShortcut(QKeySequence::Quit);

@@ -1,0 +1,111 @@
+#include "briefing_inputs.h"
+
+#include "../common.h"
+
+#include "siftwave/ingest/ingest.h"
+#include "siftwave/ledger/decision.h"
+#include "siftwave/ledger/ledger_file.h"
+#include "siftwave/ledger/replay.h"
+
+#include <QApplication>
+
+#include <cstdlib>
+
+namespace siftwave::cli {
+
+std::vector<FlagSpec> briefingFlagSpecs(bool fitFlags) {
+    std::vector<FlagSpec> specs = ingestFlagSpecs();
+    specs.push_back({"ledger", true, false, "LEDGER", "the ledger whose decisions are shown"});
+    specs.push_back({"regions", true, false, "REG", "region register (names, populations)"});
+    specs.push_back({"measure", true, false, "NAME", "measure to draw (default: the first)"});
+    if (fitFlags)
+        specs.push_back({"fit", true, false, "MODEL",
+                         "fit the cleaned series: gumbel, logistic, richards or lognormal"});
+    specs.push_back(
+        {"method", true, false, "METHOD", "fit method: lsq (default), poisson, negbin"});
+    specs.push_back(
+        {"window", true, false, "FIRST:LAST", "fit window (default: the largest wave)"});
+    specs.push_back({"help", false, false, "", "show this help"});
+    return specs;
+}
+
+Result<BriefingInputs> loadBriefingInputs(const std::string& path, const ParsedArgs& args,
+                                          bool ledgerRequired) {
+    auto drop = loadDrop(path, args);
+    if (!drop)
+        return drop.error();
+    BriefingInputs in;
+    in.drop = std::move(drop.value());
+    if (auto ledgerPath = args.optionalValue("ledger")) {
+        auto ledger = readLedgerFile(*ledgerPath);
+        if (!ledger)
+            return ledger.error();
+        in.ledger = std::move(ledger.value());
+    } else if (ledgerRequired) {
+        return makeError(ErrorCode::Usage, "--ledger LEDGER is required");
+    }
+    auto cleaned = replay(in.drop, in.ledger);
+    if (!cleaned)
+        return cleaned.error();
+    in.cleaned = std::move(cleaned.value());
+    if (auto registerPath = args.optionalValue("regions")) {
+        auto reg = readRegister(*registerPath);
+        if (!reg)
+            return reg.error();
+        in.regions = std::move(reg.value());
+    }
+    return in;
+}
+
+Result<std::optional<fit::FitOptions>> fitOptionsFrom(const ParsedArgs& args, const Drop& drop,
+                                                      bool fitByDefault) {
+    const bool asked = args.has("fit") || (fitByDefault && !args.has("no-fit"));
+    if (!asked && (args.has("method") || args.has("window")))
+        return makeError(ErrorCode::Usage, "--method and --window need --fit MODEL");
+    fit::FitOptions options;
+    if (args.has("fit")) {
+        const auto model = fit::modelFromName(args.value("fit"));
+        if (!model)
+            return makeError(ErrorCode::Usage,
+                             "--fit takes gumbel, logistic, richards or "
+                             "lognormal, not '" +
+                                 args.value("fit") + "'");
+        options.model = *model;
+    }
+    if (auto method = args.optionalValue("method")) {
+        const auto m = fit::methodFromName(*method);
+        if (!m)
+            return makeError(ErrorCode::Usage,
+                             "--method takes lsq, poisson or negbin, not '" + *method + "'");
+        options.method = *m;
+    }
+    if (auto window = args.optionalValue("window"); window && *window != "auto") {
+        const auto range = DayRange::fromIso(*window);
+        if (!range)
+            return makeError(ErrorCode::Usage,
+                             "--window takes FIRST:LAST (ISO 8601 dates), not '" + *window + "'");
+        const auto first = drop.dayIndex(range->first);
+        const auto last = drop.dayIndex(range->last);
+        if (!first || !last)
+            return makeError(ErrorCode::Usage, "--window " + *window + " is outside the drop's " +
+                                                   drop.firstDay.iso() + " to " +
+                                                   drop.lastDay().iso());
+        options.window = std::make_pair(static_cast<int>(*first), static_cast<int>(*last));
+    }
+    if (Status s = options.validate(); !s)
+        return s.error();
+    if (!asked)
+        return std::optional<fit::FitOptions>{};
+    return std::optional<fit::FitOptions>{options};
+}
+
+std::unique_ptr<QApplication> startOffscreenApplication() {
+    if (std::getenv("QT_QPA_PLATFORM") == nullptr)
+        setenv("QT_QPA_PLATFORM", "offscreen", 1);
+    static int argc = 1;
+    static char name[] = "siftwave-cli";
+    static char* argv[] = {name, nullptr};
+    return std::make_unique<QApplication>(argc, argv);
+}
+
+}  // namespace siftwave::cli

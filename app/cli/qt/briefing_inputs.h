@@ -1,0 +1,47 @@
+#pragma once
+// What `figure` and `report` share: the drop, its ledger replayed, the region
+// register, the fit options from the flags, and the Qt application these two
+// commands need (they draw with the workbench's plot code; every other
+// subcommand stays core-only). Compiled only with SIFTWAVE_WITH_QT.
+
+#include "../args.h"
+
+#include "siftwave/drop.h"
+#include "siftwave/fit/fit.h"
+#include "siftwave/ledger/cleaned.h"
+#include "siftwave/ledger/entry.h"
+#include "siftwave/region_register.h"
+#include "siftwave/result.h"
+
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+class QApplication;
+
+namespace siftwave::cli {
+
+struct BriefingInputs {
+    Drop drop;
+    Ledger ledger;  // empty without --ledger
+    Cleaned cleaned;
+    std::optional<RegionRegister> regions;  // with --regions
+};
+
+/// --ledger, --regions, --measure, --fit, --method, --window flags shared by both commands.
+std::vector<FlagSpec> briefingFlagSpecs(bool fitFlags);
+
+/// Reads FILE, the ledger (required when `ledgerRequired`) and the register, and replays.
+Result<BriefingInputs> loadBriefingInputs(const std::string& path, const ParsedArgs& args,
+                                          bool ledgerRequired);
+
+/// The fit options the flags ask for; nullopt when no fit is wanted (no --fit, or
+/// --no-fit when `fitByDefault`).
+Result<std::optional<fit::FitOptions>> fitOptionsFrom(const ParsedArgs& args, const Drop& drop,
+                                                      bool fitByDefault);
+
+/// A QApplication for drawing without a screen: sets QT_QPA_PLATFORM=offscreen when unset.
+std::unique_ptr<QApplication> startOffscreenApplication();
+
+}  // namespace siftwave::cli

@@ -1,0 +1,181 @@
+// siftwave-cli figure FILE [--ledger L] --region CODE [--region CODE ...] [--measure NAME]
+//     [--fit MODEL [--method M] [--window FIRST:LAST]] --out FIG.png|FIG.svg|FIG.pdf
+//     [--size slide|half-a4|WxHmm|WxHpx] [--dpi N] [--columns N] [--each]
+//     [--title T] [--subtitle S] [--regions REG] [--json]
+// Draws the annotated briefing figure with the workbench's plot code, headless.
+#include "../commands.h"
+#include "../common.h"
+#include "briefing_inputs.h"
+
+#include "siftwave/report/figure_spec.h"
+#include "widgets/figure_renderer.h"
+
+#include <QApplication>
+#include <QDir>
+#include <QFileInfo>
+
+#include <cstdio>
+
+namespace siftwave::cli {
+namespace {
+
+std::vector<FlagSpec> figureFlags() {
+    std::vector<FlagSpec> specs = briefingFlagSpecs(true);
+    specs.push_back(
+        {"region", true, true, "CODE", "region to draw (repeat for small multiples on one page)"});
+    specs.push_back({"out", true, false, "FIG", "output file: .png, .svg or .pdf"});
+    specs.push_back(
+        {"size", true, false, "SIZE", "slide (16:9), half-a4 (default), WxHmm or WxHpx"});
+    specs.push_back({"dpi", true, false, "N", "PNG resolution (default 200)"});
+    specs.push_back({"columns", true, false, "N", "small multiples: panels per row"});
+    specs.push_back({"each", false, false, "",
+                     "one file per region (FIG-CODE.ext) instead of small multiples"});
+    specs.push_back({"title", true, false, "TEXT", "title (default: region name and measure)"});
+    specs.push_back(
+        {"subtitle", true, false, "TEXT", "subtitle (default: calendar, decisions, fit)"});
+    specs.push_back({"json", false, false, "", "print what was written as JSON"});
+    return specs;
+}
+
+void printHelp() {
+    std::printf(
+        "usage: siftwave-cli figure FILE [--ledger L] --region CODE [--measure NAME]\n"
+        "           [--fit MODEL] --out FIG.png|FIG.svg|FIG.pdf [--size slide|half-a4|WxH]\n"
+        "           [--dpi N]\n\n"
+        "Draws a region's series as a briefing figure: raw bars, cleaned and smoothed lines,\n"
+        "each ledger decision marked, the fit with its band, window and peak, and a caption\n"
+        "with the provenance and the caution. Headless (offscreen platform).\n\n%s",
+        formatFlags(figureFlags()).c_str());
+}
+
+int usageError(const std::string& message) {
+    std::fprintf(stderr, "siftwave-cli figure: %s\n", message.c_str());
+    return kExitUsage;
+}
+
+QString pathForRegion(const QString& out, const std::string& code) {
+    const QFileInfo info(out);
+    QString safe;
+    for (QChar c : QString::fromStdString(code))
+        safe += c.isLetterOrNumber() || c == QLatin1Char('-') || c == QLatin1Char('_')
+                    ? c
+                    : QLatin1Char('_');
+    return info.dir().filePath(info.completeBaseName() + QLatin1Char('-') + safe +
+                               QLatin1Char('.') + info.suffix());
+}
+
+}  // namespace
+
+int runFigure(int argc, char** argv, int first) {
+    const std::vector<FlagSpec> specs = figureFlags();
+    std::string error;
+    auto args = parseArgs(argc, argv, first, specs, error);
+    if (!args)
+        return usageError(error);
+    if (args->has("help")) {
+        printHelp();
+        return kExitOk;
+    }
+    const bool json = args->has("json");
+    if (args->positional.size() != 1)
+        return usageError("expects one data file (FILE)");
+    const std::vector<std::string> regions = args->values("region");
+    if (regions.empty())
+        return usageError("--region CODE is required");
+    if (!args->has("out"))
+        return usageError("--out FIG.png|FIG.svg|FIG.pdf is required");
+    const QString out = QString::fromStdString(args->value("out"));
+    if (!widgets::figureFormatFromPath(out))
+        return usageError("--out must end in .png, .svg or .pdf");
+    widgets::FigureExportOptions options;
+    if (auto dpi = args->optionalValue("dpi")) {
+        try {
+            std::size_t used = 0;
+            options.dpi = std::stoi(*dpi, &used);
+            if (used != dpi->size())
+                throw std::invalid_argument(*dpi);
+        } catch (...) {
+            return usageError("--dpi takes a whole number, not '" + *dpi + "'");
+        }
+        if (options.dpi < 50 || options.dpi > 1200)
+            return usageError("--dpi must be between 50 and 1200");
+    }
+    if (auto size = args->optionalValue("size")) {
+        auto parsed = widgets::FigureSize::parse(QString::fromStdString(*size), options.dpi);
+        if (!parsed)
+            return usageError(parsed.error().message);
+        options.size = *parsed;
+    }
+    if (auto columns = args->optionalValue("columns")) {
+        options.columns = std::atoi(columns->c_str());
+        if (options.columns < 1 || options.columns > 12)
+            return usageError("--columns takes 1 to 12");
+    }
+
+    auto inputs = loadBriefingInputs(args->positional[0], *args, false);
+    if (!inputs) {
+        printError(inputs.error(), json);
+        return inputs.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+    }
+    auto fitOptions = fitOptionsFrom(*args, inputs->drop, false);
+    if (!fitOptions)
+        return usageError(fitOptions.error().message);
+
+    std::vector<report::FigureSpec> figures;
+    for (const std::string& code : regions) {
+        report::FigureRequest request;
+        request.region = code;
+        request.measure = args->value("measure");
+        request.fit = *fitOptions;
+        request.title = regions.size() == 1 || args->has("each") ? args->value("title") : "";
+        request.subtitle = regions.size() == 1 || args->has("each") ? args->value("subtitle") : "";
+        request.regions = inputs->regions ? &*inputs->regions : nullptr;
+        auto spec = report::buildFigureSpec(inputs->drop, inputs->ledger, inputs->cleaned, request);
+        if (!spec) {
+            printError(spec.error(), json);
+            return kExitBadInput;
+        }
+        if (!spec->fitError.empty())
+            std::fprintf(stderr, "siftwave-cli figure: %s: no fit drawn: %s\n", code.c_str(),
+                         spec->fitError.c_str());
+        figures.push_back(std::move(spec.value()));
+    }
+
+    const auto app = startOffscreenApplication();
+    nlohmann::json written = nlohmann::json::array();
+    auto writeOne = [&](const QString& path, const std::vector<report::FigureSpec>& page) {
+        if (Status s = widgets::exportFigures(path, page, options); !s) {
+            printError(s.error(), json);
+            return false;
+        }
+        const QSize px = options.size.pixelsAt(options.dpi);
+        nlohmann::json entry = {{"path", path.toStdString()},
+                                {"width_mm", options.size.widthMm},
+                                {"height_mm", options.size.heightMm}};
+        if (widgets::figureFormatFromPath(path) == widgets::FigureFormat::Png) {
+            entry["width_px"] = px.width();
+            entry["height_px"] = px.height();
+            entry["dpi"] = options.dpi;
+        }
+        nlohmann::json codes = nlohmann::json::array();
+        for (const auto& f : page)
+            codes.push_back(f.regionCode);
+        entry["regions"] = codes;
+        written.push_back(entry);
+        if (!json)
+            std::printf("wrote %s\n", path.toLocal8Bit().constData());
+        return true;
+    };
+    if (args->has("each") && figures.size() > 1) {
+        for (const report::FigureSpec& f : figures)
+            if (!writeOne(pathForRegion(out, f.regionCode), {f}))
+                return kExitBadInput;
+    } else if (!writeOne(out, figures)) {
+        return kExitBadInput;
+    }
+    if (json)
+        printJson({{"figures", written}});
+    return kExitOk;
+}
+
+}  // namespace siftwave::cli

@@ -1,0 +1,63 @@
+#pragma once
+// The caption block every exported figure carries, so a chart that travels
+// without its context still says where its numbers came from.
+//
+// The facts (CaptionFacts) are gathered from the Drop's provenance, the Ledger
+// and the FitResult; captionLines() turns them into a few short lines of plain
+// text that the renderer prints under the plot, in this order:
+//
+//   Source: <file name>, <first date> to <last date>, SHA-256 <12 hex>
+//   Ledger: <n> entries, head <12 hex>        (or "Ledger: none, raw counts as reported")
+//   Fit: <model>, <method>, <first> to <last> (or "Fit: none")
+//   Exported <YYYY-MM-DD> by Siftwave <version>
+//   <fit::caution>
+//
+// Twelve hex digits (48 bits) identify a file among the releases an analyst
+// keeps; the full hashes are in the drop's provenance and the ledger file
+// (common practice for short hash prefixes, no source).
+
+#include "siftwave/drop.h"
+#include "siftwave/fit/fit.h"
+#include "siftwave/ledger/entry.h"
+
+#include <cstddef>
+#include <string>
+#include <vector>
+
+namespace siftwave::report {
+
+/// Hex digits of a SHA-256 shown in captions and reports.
+inline constexpr std::size_t kHashPrefixLength = 12;
+
+struct CaptionFacts {
+    std::string sourceFile;         // file name without its folders
+    std::string firstDate;          // ISO 8601, the release's calendar
+    std::string lastDate;           // ISO 8601
+    std::string dropSha256Prefix;   // kHashPrefixLength hex digits
+    std::size_t ledgerEntries = 0;  // entries in the ledger file, withdrawals included
+    std::string ledgerHeadPrefix;   // kHashPrefixLength hex digits; empty without a ledger
+    std::string model;              // e.g. "gumbel"; empty without a fit
+    std::string method;             // e.g. "lsq"
+    std::string fitFirstDate;       // the fit window, ISO 8601
+    std::string fitLastDate;
+    std::string exportDate;  // ISO 8601 date of the export (UTC)
+    std::string caution = fit::caution;
+};
+
+/// The facts for one figure; `fit` may be null, `exportDate` empty = today (UTC).
+CaptionFacts captionFacts(const Drop& drop, const Ledger& ledger, const fit::FitResult* fit,
+                          const std::string& exportDate = {});
+
+/// The caption as short lines (see the header comment); the caution is the last line.
+std::vector<std::string> captionLines(const CaptionFacts& facts);
+
+/// Today's date in UTC, "YYYY-MM-DD".
+std::string todayUtc();
+
+/// The last component of a path ("a/b/c.csv" -> "c.csv").
+std::string fileNameOf(const std::string& path);
+
+/// Siftwave's version, as in captions ("0.1.0").
+const char* siftwaveVersion();
+
+}  // namespace siftwave::report

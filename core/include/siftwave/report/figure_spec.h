@@ -1,0 +1,124 @@
+#pragma once
+// FigureSpec: what one exported figure shows, as plain numbers and short texts.
+//
+// buildFigureSpec() gathers it from the Drop, the Ledger replayed into Cleaned
+// and, when asked, a fit of the cleaned series: the raw, cleaned and smoothed
+// daily counts, the fitted curve with its band (count_band.h), the fit window
+// and the peak, one mark per ledger decision in effect on this region and
+// measure, the excluded ranges, the title, subtitle and caption. Nothing here is
+// typed by hand: every annotation comes from an entry or the fit, so a figure
+// cannot disagree with the audit trail. The widgets layer draws it
+// (widgets/figure_renderer.h); the report (briefing.h) lists it.
+//
+// Marks, per decision kind (entries in effect only; withdrawn ones are in the
+// report's ledger listing, not on the figure):
+//   redistribute      on the dump day: "#<seq> <n> moved to earlier days", n = excess;
+//                     `window` holds the days the counts went to
+//   spread_negative   on the negative day: "#<seq> negative <n> spread back"
+//   fill_missing      over the window: "#<seq> <d> days filled (<n>)"
+//   resolve_duplicate on the day: "#<seq> duplicate resolved"
+//   merge_codes       over the days it added to: "#<seq> <variant> merged in (+<n>)"
+//   accept            over its window (or the calendar): "#<seq> accepted as reported"
+//   exclude           an ExcludedRange, shaded: "#<seq> excluded (<n>)"
+
+#include "siftwave/date.h"
+#include "siftwave/drop.h"
+#include "siftwave/fit/fit.h"
+#include "siftwave/ledger/cleaned.h"
+#include "siftwave/ledger/decision.h"
+#include "siftwave/ledger/entry.h"
+#include "siftwave/region_register.h"
+#include "siftwave/report/caption.h"
+#include "siftwave/result.h"
+
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace siftwave::report {
+
+struct DecisionMark {
+    std::uint64_t sequence = 0;
+    DecisionKind kind = DecisionKind::Accept;
+    Date first;  // the day(s) the mark points at
+    Date last;
+    std::optional<DayRange> window;  // redistribute: the days the counts went to
+    std::int64_t count = 0;          // counts moved, spread, filled or merged
+    double anchorValue = 0;          // the highest raw count in first..last (0 when none)
+    std::string label;               // short, see the header comment
+};
+
+struct ExcludedRange {
+    std::uint64_t sequence = 0;
+    Date first;
+    Date last;
+    std::int64_t count = 0;  // counts left out of this region and measure
+    std::string label;
+};
+
+struct FittedCurveSpec {
+    fit::FitResult result;    // the fit itself (parameters, derived quantities, summary)
+    std::string label;        // legend text, e.g. "Gumbel fit (lsq)"
+    std::string bandLabel;    // legend text of the band
+    std::vector<double> mid;  // per calendar day; NaN outside the window
+    std::vector<double> low;  // band, same length
+    std::vector<double> high;
+    Date windowFirst;
+    Date windowLast;
+    Date peakDate;
+    double peakValue = 0;  // cases per day at the peak
+};
+
+struct FigureSpec {
+    std::string regionCode;  // verbatim
+    std::string regionName;  // from the register; empty when unknown
+    std::string measure;
+    std::string title;
+    std::string subtitle;
+
+    Date firstDay;
+    int days = 0;
+    std::vector<double> raw;       // NaN where no number was reported
+    std::vector<double> cleaned;   // NaN where the cleaned cell holds no value
+    std::vector<double> smoothed;  // 7-day centred mean of the cleaned series
+    std::string smoothedLabel;
+
+    std::optional<FittedCurveSpec> fit;
+    std::string fitError;  // why a requested fit is missing ("" when none was asked or it worked)
+    std::vector<DecisionMark> decisions;
+    std::vector<ExcludedRange> excluded;
+
+    CaptionFacts caption;
+    std::vector<std::string> captionLines;
+
+    Date dayAt(int index) const { return firstDay + index; }
+};
+
+struct FigureRequest {
+    std::string region;   // verbatim code (required)
+    std::string measure;  // empty: the drop's first measure
+    /// Fit the cleaned series with these options (nullopt: no fit, unless `fitResult`).
+    std::optional<fit::FitOptions> fit;
+    /// A fit already made on the cleaned series (e.g. the GUI's live fit); wins over `fit`.
+    std::optional<fit::FitResult> fitResult;
+    std::string title;       // empty: "<name> (<code>): daily <measure>"
+    std::string subtitle;    // empty: the calendar, the decisions and the fit in one line
+    std::string exportDate;  // empty: today (UTC)
+    const RegionRegister* regions = nullptr;  // names and populations; may be null
+
+    /// Usage errors: no region, invalid fit options.
+    Status validate() const;
+};
+
+/// The figure of one region and measure. `cleaned` is replay(drop, ledger).
+/// Errors: usage (request), not_found (region or measure not in the drop).
+/// A fit that fails is not an error: the figure is drawn without it and
+/// `fitError` says why.
+Result<FigureSpec> buildFigureSpec(const Drop& drop, const Ledger& ledger, const Cleaned& cleaned,
+                                   const FigureRequest& request);
+
+/// "1,234" (thousands grouped with commas; common practice in English briefings).
+std::string groupedCount(std::int64_t value);
+
+}  // namespace siftwave::report

@@ -1,0 +1,279 @@
+#include "siftwave/report/figure_spec.h"
+
+#include "siftwave/report/count_band.h"
+#include "siftwave/series/smoothing.h"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+
+namespace siftwave::report {
+namespace {
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+constexpr int kSmoothingDays = 7;
+
+// The total change an entry made to this region and measure.
+std::int64_t totalChangeOf(const LedgerEntry& entry, const std::string& region,
+                           const std::string& measure) {
+    std::int64_t change = 0;
+    for (const TotalChange& t : entry.effect.totals)
+        if (t.region == region && t.measure == measure)
+            change += t.change();
+    return change;
+}
+
+// The days of this region and measure whose cells the entry changed.
+std::optional<DayRange> changedDays(const LedgerEntry& entry, const std::string& region,
+                                    const std::string& measure) {
+    std::optional<DayRange> range;
+    for (const CellChange& c : entry.effect.cells) {
+        if (c.region != region || c.measure != measure)
+            continue;
+        if (!range)
+            range = DayRange{c.date, c.date};
+        range->first = std::min(range->first, c.date);
+        range->last = std::max(range->last, c.date);
+    }
+    return range;
+}
+
+bool aboutThisSeries(const Decision& d, const std::string& region, const std::string& measure) {
+    switch (d.kind) {
+        case DecisionKind::Withdraw:
+            return false;
+        case DecisionKind::MergeCodes:
+            return d.into == region;
+        case DecisionKind::Exclude:
+        case DecisionKind::Accept:
+            return (d.region.empty() || d.region == region) &&
+                   (d.measure.empty() || d.measure == measure);
+        default:
+            return d.region == region && d.measure == measure;
+    }
+}
+
+double highestRaw(const FigureSpec& spec, Date first, Date last) {
+    double best = 0;
+    for (int i = std::max(0, first - spec.firstDay); i < spec.days && spec.dayAt(i) <= last; ++i)
+        if (!std::isnan(spec.raw[i]))
+            best = std::max(best, spec.raw[i]);
+    return best;
+}
+
+DayRange clampToCalendar(DayRange r, const FigureSpec& spec) {
+    const Date last = spec.dayAt(std::max(spec.days - 1, 0));
+    return {std::clamp(r.first, spec.firstDay, last), std::clamp(r.last, spec.firstDay, last)};
+}
+
+void addMarks(FigureSpec& spec, const Ledger& ledger, const Cleaned& cleaned) {
+    const DayRange calendar{spec.firstDay, spec.dayAt(std::max(spec.days - 1, 0))};
+    for (const LedgerEntry& entry : ledger.entries) {
+        const Decision& d = entry.decision;
+        if (!cleaned.inEffect(entry.sequence) || !aboutThisSeries(d, spec.regionCode, spec.measure))
+            continue;
+        const std::string tag = "#" + std::to_string(entry.sequence) + " ";
+        const std::int64_t change = totalChangeOf(entry, spec.regionCode, spec.measure);
+        if (d.kind == DecisionKind::Exclude) {
+            const DayRange r = clampToCalendar(d.window.value_or(calendar), spec);
+            ExcludedRange ex{entry.sequence, r.first, r.last, -change, {}};
+            ex.label = tag + "excluded (" + groupedCount(-change) + ")";
+            spec.excluded.push_back(ex);
+            continue;
+        }
+        DecisionMark mark;
+        mark.sequence = entry.sequence;
+        mark.kind = d.kind;
+        DayRange at = calendar;
+        switch (d.kind) {
+            case DecisionKind::Redistribute:
+                at = DayRange{*d.date, *d.date};
+                mark.window = d.window;
+                mark.count = d.excess;
+                mark.label = tag + groupedCount(d.excess) + " moved to earlier days";
+                break;
+            case DecisionKind::SpreadNegative: {
+                at = DayRange{*d.date, *d.date};
+                const auto& cell = entry.effect.cells;
+                std::int64_t negative = 0;
+                for (const CellChange& c : cell)
+                    if (c.region == spec.regionCode && c.measure == spec.measure &&
+                        c.date == *d.date)
+                        negative = c.before.value;
+                mark.count = -negative;
+                mark.label = tag + "negative " + groupedCount(negative) + " spread back";
+                break;
+            }
+            case DecisionKind::FillMissing:
+                at = *d.window;
+                mark.count = change;
+                mark.label = tag + std::to_string(d.window->length()) + " days filled (" +
+                             groupedCount(change) + ")";
+                break;
+            case DecisionKind::ResolveDuplicate:
+                at = DayRange{*d.date, *d.date};
+                mark.count = change;
+                mark.label = tag + "duplicate resolved";
+                break;
+            case DecisionKind::MergeCodes:
+                at = changedDays(entry, spec.regionCode, spec.measure).value_or(calendar);
+                mark.count = change;
+                mark.label = tag + d.variant + " merged in (+" + groupedCount(change) + ")";
+                break;
+            case DecisionKind::Accept:
+                at = d.window.value_or(calendar);
+                mark.label = tag + "accepted as reported";
+                break;
+            default:
+                continue;
+        }
+        at = clampToCalendar(at, spec);
+        mark.first = at.first;
+        mark.last = at.last;
+        mark.anchorValue = highestRaw(spec, at.first, at.last);
+        spec.decisions.push_back(mark);
+    }
+}
+
+std::string defaultTitle(const FigureSpec& spec) {
+    const std::string who = spec.regionName.empty()
+                                ? "Region " + spec.regionCode
+                                : spec.regionName + " (" + spec.regionCode + ")";
+    return who + ": daily " + spec.measure;
+}
+
+std::string defaultSubtitle(const FigureSpec& spec) {
+    std::string s =
+        "Reported " + spec.firstDay.iso() + " to " + spec.dayAt(std::max(spec.days - 1, 0)).iso();
+    const std::size_t marks = spec.decisions.size() + spec.excluded.size();
+    s += marks == 0 ? "; no ledger decision on this series"
+                    : "; " + std::to_string(marks) +
+                          (marks == 1 ? " ledger decision" : " ledger decisions") + " applied";
+    if (spec.fit)
+        s += "; " + spec.fit->label + ", window " + spec.fit->windowFirst.iso() + " to " +
+             spec.fit->windowLast.iso();
+    return s;
+}
+
+std::string capitalised(std::string text) {
+    if (!text.empty() && text[0] >= 'a' && text[0] <= 'z')
+        text[0] = static_cast<char>(text[0] - 'a' + 'A');
+    return text;
+}
+
+FittedCurveSpec curveOf(const fit::FitResult& result, const FigureSpec& spec) {
+    FittedCurveSpec curve;
+    curve.result = result;
+    curve.label =
+        capitalised(fit::modelName(result.model)) + " fit (" + fit::methodName(result.method) + ")";
+    curve.bandLabel = "95% range of daily counts";
+    curve.mid.assign(spec.days, kNaN);
+    curve.low.assign(spec.days, kNaN);
+    curve.high.assign(spec.days, kNaN);
+    const CountBand band = countBand(result, spec.cleaned);
+    const int offset = result.seriesFirstDay - spec.firstDay;
+    for (std::size_t i = 0; i < result.fitted.size(); ++i) {
+        const int day = offset + result.first + static_cast<int>(i);
+        if (day < 0 || day >= spec.days)
+            continue;
+        curve.mid[day] = result.fitted[i];
+        curve.low[day] = band.low[i];
+        curve.high[day] = band.high[i];
+    }
+    curve.windowFirst = result.windowFirst();
+    curve.windowLast = result.windowLast();
+    curve.peakDate = result.dateOf(result.derived.peakDay.value);
+    curve.peakValue = result.derived.peakIncidence.value;
+    return curve;
+}
+
+}  // namespace
+
+std::string groupedCount(std::int64_t value) {
+    const bool negative = value < 0;
+    std::string digits = std::to_string(negative ? -value : value);
+    for (int i = static_cast<int>(digits.size()) - 3; i > 0; i -= 3)
+        digits.insert(static_cast<std::size_t>(i), ",");
+    return negative ? "-" + digits : digits;
+}
+
+Status FigureRequest::validate() const {
+    if (region.empty())
+        return makeError(ErrorCode::Usage, "a figure needs a region code");
+    if (fit && !fitResult) {
+        Status s = fit->validate();
+        if (!s)
+            return s;
+    }
+    return Ok{};
+}
+
+Result<FigureSpec> buildFigureSpec(const Drop& drop, const Ledger& ledger, const Cleaned& cleaned,
+                                   const FigureRequest& request) {
+    if (Status s = request.validate(); !s)
+        return s.error();
+    const auto region = drop.regionIndex(request.region);
+    if (!region) {
+        Error e =
+            makeError(ErrorCode::NotFound, "region '" + request.region + "' is not in the drop");
+        e.region = request.region;
+        e.file = drop.source.path;
+        return e;
+    }
+    if (drop.measures.empty())
+        return makeError(ErrorCode::NotFound, "the drop has no measure");
+    const auto measure = request.measure.empty() ? std::optional<std::size_t>(0)
+                                                 : drop.measureIndex(request.measure);
+    if (!measure) {
+        Error e =
+            makeError(ErrorCode::NotFound, "measure '" + request.measure + "' is not in the drop");
+        e.file = drop.source.path;
+        return e;
+    }
+
+    FigureSpec spec;
+    spec.regionCode = request.region;
+    spec.measure = drop.measures[*measure];
+    if (request.regions)
+        if (const RegionEntry* entry = request.regions->find(request.region))
+            spec.regionName = entry->name;
+    spec.firstDay = drop.firstDay;
+    spec.days = drop.days;
+    spec.raw.assign(spec.days, kNaN);
+    spec.cleaned.assign(spec.days, kNaN);
+    const auto rawCells = drop.series(*measure, *region);
+    const auto cleanCells = cleaned.series(*measure, *region);
+    for (int d = 0; d < spec.days; ++d) {
+        if (rawCells[d].reported())
+            spec.raw[d] = rawCells[d].value;
+        if (cleanCells[d].hasValue())
+            spec.cleaned[d] = static_cast<double>(cleanCells[d].value);
+    }
+    spec.smoothed = series::centredMovingAverage(spec.cleaned, kSmoothingDays);
+    spec.smoothedLabel = "7-day centred mean (cleaned)";
+
+    std::optional<fit::FitResult> result = request.fitResult;
+    if (!result && request.fit) {
+        std::optional<double> population;
+        if (request.regions)
+            if (const RegionEntry* entry = request.regions->find(request.region);
+                entry && entry->population)
+                population = static_cast<double>(*entry->population);
+        auto fitted = fit::fitSeries({spec.firstDay, spec.cleaned}, *request.fit, population);
+        if (fitted)
+            result = std::move(fitted.value());
+        else
+            spec.fitError = fitted.error().message;
+    }
+    if (result)
+        spec.fit = curveOf(*result, spec);
+
+    addMarks(spec, ledger, cleaned);
+    spec.title = request.title.empty() ? defaultTitle(spec) : request.title;
+    spec.subtitle = request.subtitle.empty() ? defaultSubtitle(spec) : request.subtitle;
+    spec.caption = captionFacts(drop, ledger, result ? &*result : nullptr, request.exportDate);
+    spec.captionLines = captionLines(spec.caption);
+    return spec;
+}
+
+}  // namespace siftwave::report

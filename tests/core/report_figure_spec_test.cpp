@@ -1,0 +1,261 @@
+// report: the caption, the figure specification from drop + ledger, the count band.
+#include "siftwave/ingest/ingest.h"
+#include "siftwave/ledger/replay.h"
+#include "siftwave/report/briefing.h"
+#include "siftwave/report/caption.h"
+#include "siftwave/report/count_band.h"
+#include "siftwave/report/figure_spec.h"
+
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <numeric>
+
+using namespace siftwave;
+
+namespace {
+
+const std::string kDrop = std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_current.csv";
+
+struct Sample {
+    Drop drop;
+    Ledger ledger;
+    Cleaned cleaned;
+};
+
+void record(Sample& s, const Decision& d, const std::string& reason) {
+    auto entry =
+        draftEntry(s.drop, s.ledger, s.cleaned, d, {"tester", "2026-12-01T09:00:00Z", reason});
+    ASSERT_TRUE(entry.ok()) << entry.error().describe();
+    ASSERT_TRUE(applyEntry(s.drop, s.cleaned, *entry).ok());
+    s.ledger.entries.push_back(*entry);
+}
+
+Date day(const char* iso) {
+    return *Date::fromIso(iso);
+}
+
+// The sample's planted backlog (samples/manifest.json, P06) redistributed, a week of
+// 1301 excluded, an accept of 1304 and its withdrawal.
+Sample sample() {
+    Sample s;
+    s.drop = readDrop(kDrop).value();
+    s.cleaned = Cleaned(s.drop);
+    Decision backlog;
+    backlog.kind = DecisionKind::Redistribute;
+    backlog.region = "1301";
+    backlog.measure = "cases";
+    backlog.date = day("2026-08-24");
+    backlog.window = DayRange{day("2026-08-03"), day("2026-08-23")};
+    backlog.excess = 2444;
+    record(s, backlog, "three weeks held back");
+    Decision exclude;
+    exclude.kind = DecisionKind::Exclude;
+    exclude.region = "1301";
+    exclude.measure = "cases";
+    exclude.window = DayRange{day("2026-03-02"), day("2026-03-08")};
+    record(s, exclude, "test week");
+    Decision accept;
+    accept.kind = DecisionKind::Accept;
+    accept.region = "1301";
+    accept.measure = "cases";
+    record(s, accept, "looked at");
+    Decision withdraw;
+    withdraw.kind = DecisionKind::Withdraw;
+    withdraw.target = 3;
+    record(s, withdraw, "not yet");
+    return s;
+}
+
+double poissonPmf(int k, double mu) {
+    return std::exp(k * std::log(mu) - mu - std::lgamma(k + 1.0));
+}
+
+// Negative binomial with size r and mean mu: C(k + r - 1, k) p^r (1 - p)^k, p = r / (r + mu).
+double negbinPmf(int k, double r, double mu) {
+    const double p = r / (r + mu);
+    return std::exp(std::lgamma(k + r) - std::lgamma(r) - std::lgamma(k + 1.0) + r * std::log(p) +
+                    k * std::log1p(-p));
+}
+
+template <class Pmf>
+void expectCentral95(double low, double high, Pmf pmf) {
+    double below = 0, inside = 0, above = 0;
+    for (int k = 0; k < 5000; ++k) {
+        const double p = pmf(k);
+        (k < low ? below : k > high ? above : inside) += p;
+    }
+    // The interval holds at least 95% and leaves at most 2.5% in each tail.
+    EXPECT_GE(inside, 0.95);
+    EXPECT_LE(below, 0.025);
+    EXPECT_LE(above, 0.025);
+    // ... and is not wider than needed: one step in from either end loses the 2.5%.
+    EXPECT_GT(below + pmf(static_cast<int>(low)), 0.025 - 1e-12);
+    EXPECT_GT(above + pmf(static_cast<int>(high)), 0.025 - 1e-12);
+}
+
+}  // namespace
+
+TEST(ReportCaption, LinesNameTheFileHashesLedgerFitAndTheCaution) {
+    const Sample s = sample();
+    fit::FitResult f;
+    f.model = fit::ModelKind::Richards;
+    f.method = fit::FitMethod::Poisson;
+    f.seriesFirstDay = s.drop.firstDay;
+    f.first = 10;
+    f.last = 20;
+    const auto lines =
+        report::captionLines(report::captionFacts(s.drop, s.ledger, &f, "2026-12-01"));
+    ASSERT_EQ(lines.size(), 5u);
+    EXPECT_EQ(lines[0], "Source: quenmara_current.csv, 2026-02-23 to 2026-11-29, SHA-256 " +
+                            s.drop.source.sha256.substr(0, 12));
+    EXPECT_EQ(lines[1], "Ledger: 4 entries, head " + s.ledger.headHash().substr(0, 12));
+    EXPECT_EQ(lines[2], "Fit: richards, poisson, 2026-03-05 to 2026-03-15");
+    EXPECT_EQ(lines[3], "Exported 2026-12-01 by Siftwave 0.1.0");
+    EXPECT_EQ(lines[4], fit::caution);
+    const auto none =
+        report::captionLines(report::captionFacts(s.drop, Ledger{}, nullptr, "2026-12-01"));
+    EXPECT_EQ(none[1], "Ledger: none, raw counts as reported");
+    EXPECT_EQ(none[2], "Fit: none");
+}
+
+TEST(ReportFigureSpec, MarksEachDecisionInEffectFromTheLedger) {
+    const Sample s = sample();
+    report::FigureRequest request;
+    request.region = "1301";
+    auto spec = report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request);
+    ASSERT_TRUE(spec.ok()) << spec.error().describe();
+    EXPECT_EQ(spec->measure, "cases");
+    EXPECT_EQ(spec->title, "Region 1301: daily cases");
+    // The redistribution: on the dump day, the excess moved, pointing at the raw bar.
+    ASSERT_EQ(spec->decisions.size(), 1u);  // the accept (#3) is withdrawn
+    const report::DecisionMark& m = spec->decisions[0];
+    EXPECT_EQ(m.sequence, 1u);
+    EXPECT_EQ(m.kind, DecisionKind::Redistribute);
+    EXPECT_EQ(m.first, day("2026-08-24"));
+    EXPECT_EQ(m.last, day("2026-08-24"));
+    EXPECT_EQ(m.count, 2444);
+    EXPECT_EQ(m.anchorValue, 2643);  // samples/manifest.json, P06 "reported"
+    EXPECT_EQ(m.label, "#1 2,444 moved to earlier days");
+    ASSERT_TRUE(m.window);
+    EXPECT_EQ(m.window->first, day("2026-08-03"));
+    // The exclusion: the week's raw counts, left out.
+    ASSERT_EQ(spec->excluded.size(), 1u);
+    std::int64_t week = 0;
+    for (Date d = day("2026-03-02"); d <= day("2026-03-08"); d = d + 1)
+        week += spec->raw[static_cast<std::size_t>(d - spec->firstDay)];
+    EXPECT_GT(week, 0);
+    EXPECT_EQ(spec->excluded[0].count, week);
+    EXPECT_EQ(spec->excluded[0].label, "#2 excluded (" + report::groupedCount(week) + ")");
+    // The cleaned series: the dump day lowered by the excess, the excluded days without value.
+    const auto dump = static_cast<std::size_t>(day("2026-08-24") - spec->firstDay);
+    EXPECT_EQ(spec->cleaned[dump], 2643 - 2444);
+    EXPECT_TRUE(
+        std::isnan(spec->cleaned[static_cast<std::size_t>(day("2026-03-04") - spec->firstDay)]));
+    EXPECT_NE(spec->subtitle.find("2 ledger decisions applied"), std::string::npos)
+        << spec->subtitle;
+}
+
+TEST(ReportFigureSpec, UnknownRegionOrMeasureIsNotFound) {
+    const Sample s = sample();
+    report::FigureRequest request;
+    request.region = "9999";
+    auto missing = report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request);
+    ASSERT_FALSE(missing.ok());
+    EXPECT_EQ(missing.error().code, ErrorCode::NotFound);
+    request.region = "1301";
+    request.measure = "hospitalisations";
+    EXPECT_EQ(report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request).error().code,
+              ErrorCode::NotFound);
+    request.region.clear();
+    EXPECT_EQ(report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request).error().code,
+              ErrorCode::Usage);
+}
+
+TEST(ReportFigureSpec, AFitBringsItsCurveBandWindowAndPeak) {
+    const Sample s = sample();
+    report::FigureRequest request;
+    request.region = "1301";
+    fit::FitOptions options;
+    options.window = std::make_pair(100, 200);
+    request.fit = options;
+    auto spec = report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request);
+    ASSERT_TRUE(spec.ok());
+    ASSERT_TRUE(spec->fit) << spec->fitError;
+    EXPECT_EQ(spec->fit->windowFirst, s.drop.firstDay + 100);
+    EXPECT_EQ(spec->fit->windowLast, s.drop.firstDay + 200);
+    EXPECT_TRUE(std::isnan(spec->fit->mid[99]));
+    EXPECT_FALSE(std::isnan(spec->fit->mid[150]));
+    for (int d = 100; d <= 200; ++d) {
+        EXPECT_LE(spec->fit->low[d], spec->fit->mid[d]);
+        EXPECT_GE(spec->fit->high[d], spec->fit->mid[d]);
+    }
+    EXPECT_EQ(spec->caption.model, "gumbel");
+    EXPECT_GT(spec->fit->peakValue, 0);
+}
+
+TEST(ReportCountBand, PoissonAndNegativeBinomialBandsAreCentral95PercentRanges) {
+    fit::FitResult f;
+    f.method = fit::FitMethod::Poisson;
+    f.fitted = {10.0, 0.7, 250.0};
+    const std::vector<double> counts = {9, 1, 260};
+    report::CountBand band = report::countBand(f, counts);
+    for (std::size_t i = 0; i < f.fitted.size(); ++i)
+        expectCentral95(band.low[i], band.high[i],
+                        [mu = f.fitted[i]](int k) { return poissonPmf(k, mu); });
+    f.method = fit::FitMethod::NegativeBinomial;
+    f.dispersion = 4.0;
+    band = report::countBand(f, counts);
+    for (std::size_t i = 0; i < f.fitted.size(); ++i)
+        expectCentral95(band.low[i], band.high[i],
+                        [mu = f.fitted[i]](int k) { return negbinPmf(k, 4.0, mu); });
+}
+
+TEST(ReportCountBand, LeastSquaresBandUsesPearsonDispersion) {
+    fit::FitResult f;
+    f.method = fit::FitMethod::LeastSquares;
+    f.parameters.resize(3);
+    f.first = 1;
+    f.fitted = {100, 100, 100, 100, 100};
+    // Counts of the window days 1..5: Pearson's X^2 = (4*400)/100 + 0 = 16 over 5 - 3 = 2: phi 8.
+    const std::vector<double> counts = {std::nan(""), 120, 80, 120, 80, 100};
+    const report::CountBand band = report::countBand(f, counts);
+    EXPECT_DOUBLE_EQ(band.dispersion, 8.0);
+    EXPECT_NEAR(band.high[0], 100 + 1.959963984540054 * std::sqrt(800.0), 1e-9);
+    EXPECT_NEAR(band.low[0], 100 - 1.959963984540054 * std::sqrt(800.0), 1e-9);
+}
+
+TEST(ReportBriefing, ListsEveryEntryAndReconcilesTheTotals) {
+    const Sample s = sample();
+    report::BriefingRequest request;
+    request.fitRegions = false;
+    auto briefing = report::buildBriefing(s.drop, s.ledger, s.cleaned, request);
+    ASSERT_TRUE(briefing.ok()) << briefing.error().describe();
+    ASSERT_EQ(briefing->ledger.size(), 4u);
+    EXPECT_FALSE(briefing->ledger[2].inEffect);
+    EXPECT_TRUE(briefing->chainVerified);
+    ASSERT_EQ(briefing->figures.size(), 1u);
+    EXPECT_EQ(briefing->figures[0].regionCode, "1301");
+    bool found = false;
+    for (const ReconciliationRow& row : briefing->reconciliation)
+        if (row.region == "1301" && row.measure == "cases") {
+            found = true;
+            EXPECT_EQ(row.difference(), -briefing->figures[0].excluded[0].count);
+            EXPECT_EQ(row.entries, std::vector<std::uint64_t>{2});
+        }
+    EXPECT_TRUE(found);
+    const std::string html = report::briefingHtml(*briefing, {});
+    for (const LedgerEntry& e : s.ledger.entries) {
+        EXPECT_NE(html.find(report::htmlEscaped(e.reason)), std::string::npos) << e.reason;
+        EXPECT_NE(html.find(e.hash.substr(0, 12)), std::string::npos);
+    }
+    EXPECT_NE(html.find(fit::caution), std::string::npos);
+}
+
+TEST(ReportText, GroupsThousandsAndEscapesHtml) {
+    EXPECT_EQ(report::groupedCount(0), "0");
+    EXPECT_EQ(report::groupedCount(999), "999");
+    EXPECT_EQ(report::groupedCount(1234567), "1,234,567");
+    EXPECT_EQ(report::groupedCount(-2444), "-2,444");
+    EXPECT_EQ(report::htmlEscaped("<a href=\"x\">&'"), "&lt;a href=&quot;x&quot;&gt;&amp;&#39;");
+}

@@ -1,0 +1,391 @@
+// Briefing figures and the report: sizes and DPI as asked, caption text kept as
+// text in SVG and PDF, a redistributed spike marked where the data say, every
+// ledger entry in the report.
+#include "siftwave/ingest/ingest.h"
+#include "siftwave/ledger/replay.h"
+#include "siftwave/report/briefing.h"
+#include "siftwave/report/figure_spec.h"
+#include "widgets/figure_export_dialog.h"
+#include "widgets/figure_renderer.h"
+#include "widgets/report_writer.h"
+#include "widgets/series_chart.h"
+
+#include <QFile>
+#include <QImage>
+#include <QProcess>
+#include <QRegularExpression>
+#include <QStandardPaths>
+#include <QTemporaryDir>
+#include <QTest>
+#include <QXmlStreamReader>
+#include <QtEndian>
+
+#include <cmath>
+
+using namespace siftwave;
+
+namespace {
+
+const char* kCurrent = SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv";
+const char* kRegister = SIFTWAVE_SAMPLES_DIR "/quenmara_regions.csv";
+
+// The sample's planted backlog (samples/manifest.json, P06): 2,444 extra cases of
+// district 1301 reported on 2026-08-24, held back from 2026-08-03..2026-08-23.
+constexpr std::int64_t kExcess = 2444;
+
+struct Fixture {
+    Drop drop;
+    RegionRegister regions;
+    Ledger ledger;
+    Cleaned cleaned;
+};
+
+// Records one decision through the ledger's door; a refusal stops the test program.
+void record(Fixture& f, const Decision& d, const std::string& reason, const char* time) {
+    auto entry = draftEntry(f.drop, f.ledger, f.cleaned, d, EntryMeta{"tester", time, reason});
+    if (!entry)
+        qFatal("draftEntry refused: %s", entry.error().describe().c_str());
+    if (Status s = applyEntry(f.drop, f.cleaned, *entry); !s)
+        qFatal("applyEntry refused: %s", s.error().describe().c_str());
+    f.ledger.entries.push_back(*entry);
+}
+
+Fixture sampleWithDecisions(bool decisions) {
+    Fixture f;
+    f.drop = readDrop(kCurrent).value();
+    f.regions = readRegister(kRegister).value();
+    f.cleaned = Cleaned(f.drop);
+    if (!decisions)
+        return f;
+    Decision backlog;
+    backlog.kind = DecisionKind::Redistribute;
+    backlog.region = "1301";
+    backlog.measure = "cases";
+    backlog.date = Date::fromIso("2026-08-24");
+    backlog.window = DayRange{*Date::fromIso("2026-08-03"), *Date::fromIso("2026-08-23")};
+    backlog.excess = kExcess;
+    backlog.redistributeMethod = RedistributeMethod::Proportional;
+    record(f, backlog, "three weeks held back, sent on 24 August", "2026-12-01T09:00:00Z");
+    Decision exclude;
+    exclude.kind = DecisionKind::Exclude;
+    exclude.region = "1301";
+    exclude.measure = "cases";
+    exclude.window = DayRange{*Date::fromIso("2026-03-01"), *Date::fromIso("2026-03-07")};
+    record(f, exclude, "test week of the new lab system", "2026-12-01T09:05:00Z");
+    Decision accept;
+    accept.kind = DecisionKind::Accept;
+    accept.region = "1304";
+    accept.measure = "cases";
+    record(f, accept, "looked at, kept as reported", "2026-12-01T09:10:00Z");
+    Decision withdraw;
+    withdraw.kind = DecisionKind::Withdraw;
+    withdraw.target = 3;
+    record(f, withdraw, "accepted the wrong district", "2026-12-01T09:12:00Z");
+    return f;
+}
+
+report::FigureSpec specOf(const Fixture& f, const std::string& region, bool fitIt) {
+    report::FigureRequest request;
+    request.region = region;
+    request.measure = "cases";
+    request.regions = &f.regions;
+    request.exportDate = "2026-12-01";
+    if (fitIt) {
+        fit::FitOptions options;
+        options.window = std::make_pair(100, 200);
+        request.fit = options;
+    }
+    return report::buildFigureSpec(f.drop, f.ledger, f.cleaned, request).value();
+}
+
+// Whitespace runs as one space; compatibility forms (the "fi" ligature a PDF may hold) as
+// their letters (Unicode normalisation form KC).
+QString normalised(QString text) {
+    text = text.normalized(QString::NormalizationForm_KC);
+    return text.replace(QRegularExpression(QStringLiteral("\\s+")), QStringLiteral(" "));
+}
+
+// Text of every <text>/<tspan> element of an SVG, read as XML.
+QString svgText(const QString& path) {
+    QFile file(path);
+    if (!file.open(QIODevice::ReadOnly))
+        return {};
+    QXmlStreamReader xml(&file);
+    QString text;
+    int depth = 0;
+    while (!xml.atEnd()) {
+        xml.readNext();
+        if (xml.isStartElement() && xml.name() == QLatin1String("text"))
+            ++depth;
+        else if (xml.isEndElement() && xml.name() == QLatin1String("text")) {
+            --depth;
+            text += QLatin1Char(' ');
+        } else if (xml.isCharacters() && depth > 0)
+            text += xml.text();
+    }
+    return xml.hasError() ? QStringLiteral("XML ERROR: ") + xml.errorString() : normalised(text);
+}
+
+QString runTool(const QString& tool, const QStringList& args) {
+    QProcess p;
+    p.start(tool, args);
+    if (!p.waitForFinished(30000) || p.exitCode() != 0)
+        return QStringLiteral("TOOL FAILED: ") + QString::fromLocal8Bit(p.readAllStandardError());
+    return QString::fromUtf8(p.readAllStandardOutput());
+}
+
+bool isInk(QRgb c) {
+    return qRed(c) < 100 && qGreen(c) < 100 && qBlue(c) < 100;
+}
+
+}  // namespace
+
+class FigureExportTest : public QObject {
+    Q_OBJECT
+
+private Q_SLOTS:
+    void initTestCase() {
+        QVERIFY(m_dir.isValid());
+        // To look at the figures: SIFTWAVE_KEEP_TEST_FILES=1 keeps them (the folder is printed).
+        if (qEnvironmentVariableIsSet("SIFTWAVE_KEEP_TEST_FILES")) {
+            m_dir.setAutoRemove(false);
+            qInfo("figures in %s", qPrintable(m_dir.path()));
+        }
+    }
+
+    void pngHasTheRequestedPixelsAndDpi() {
+        const Fixture f = sampleWithDecisions(true);
+        widgets::FigureExportOptions options;
+        options.size = widgets::FigureSize::halfA4();
+        options.dpi = 150;
+        const QString path = m_dir.filePath(QStringLiteral("half.png"));
+        QVERIFY(widgets::exportFigures(path, {specOf(f, "1301", false)}, options).ok());
+
+        // PNG (ISO/IEC 15948, W3C PNG 2nd ed.): the IHDR chunk follows the 8-byte signature;
+        // width and height are big-endian at bytes 16..23; pHYs holds pixels per metre.
+        QFile file(path);
+        QVERIFY(file.open(QIODevice::ReadOnly));
+        const QByteArray bytes = file.readAll();
+        QCOMPARE(bytes.left(8), QByteArray("\x89PNG\r\n\x1a\n", 8));
+        QCOMPARE(bytes.mid(12, 4), QByteArray("IHDR"));
+        const auto u32 = [&](int at) {
+            return qFromBigEndian<quint32>(reinterpret_cast<const uchar*>(bytes.constData() + at));
+        };
+        // 210 mm x 148.5 mm at 150 dpi: 210 / 25.4 * 150 = 1240.2 -> 1240; 148.5 -> 877.0.
+        QCOMPARE(u32(16), 1240u);
+        QCOMPARE(u32(20), 877u);
+        const int phys = bytes.indexOf("pHYs");
+        QVERIFY(phys > 0);
+        // 150 dpi = 150 / 0.0254 = 5905.5 -> 5906 pixels per metre, unit byte 1 (metre).
+        QCOMPARE(u32(phys + 4), 5906u);
+        QCOMPARE(u32(phys + 8), 5906u);
+        QCOMPARE(static_cast<int>(bytes[phys + 12]), 1);
+        QImage image(path);
+        QCOMPARE(image.size(), QSize(1240, 877));
+        QCOMPARE(image.dotsPerMeterX(), 5906);
+    }
+
+    void sizesInPixelsAndTheSlidePresetAreKept() {
+        const Fixture f = sampleWithDecisions(false);
+        widgets::FigureExportOptions options;
+        options.dpi = 120;
+        options.size = widgets::FigureSize::parse(QStringLiteral("1600x900px"), 120).value();
+        const QString px = m_dir.filePath(QStringLiteral("px.png"));
+        QVERIFY(widgets::exportFigures(px, {specOf(f, "KV", false)}, options).ok());
+        QCOMPARE(QImage(px).size(), QSize(1600, 900));
+
+        options.size = widgets::FigureSize::slide();
+        options.dpi = 96;
+        const QString slide = m_dir.filePath(QStringLiteral("slide.png"));
+        QVERIFY(widgets::exportFigures(slide, {specOf(f, "KV", false)}, options).ok());
+        // 10 x 5.625 inches at 96 dpi: 960 x 540, 16:9.
+        QCOMPARE(QImage(slide).size(), QSize(960, 540));
+
+        QVERIFY(!widgets::FigureSize::parse(QStringLiteral("12x"), 96).ok());
+        QVERIFY(!widgets::FigureSize::parse(QStringLiteral("-5x20mm"), 96).ok());
+        QCOMPARE(widgets::FigureSize::parse(QStringLiteral("180x120mm"), 96)->widthMm, 180.0);
+    }
+
+    void svgKeepsTheCaptionAsText() {
+        const Fixture f = sampleWithDecisions(true);
+        const report::FigureSpec spec = specOf(f, "1301", true);
+        widgets::FigureExportOptions options;
+        const QString path = m_dir.filePath(QStringLiteral("fig.svg"));
+        QVERIFY(widgets::exportFigures(path, {spec}, options).ok());
+        const QString text = svgText(path);
+        QVERIFY2(!text.startsWith(QStringLiteral("XML ERROR")), qPrintable(text));
+        const QString sha = QString::fromStdString(f.drop.source.sha256.substr(0, 12));
+        QVERIFY2(text.contains(sha), qPrintable(text.left(2000)));
+        QVERIFY2(text.contains(QString::fromLatin1(fit::caution)), qPrintable(text.right(1500)));
+        QVERIFY(text.contains(QStringLiteral("2,444 moved to earlier days")));
+        QVERIFY(text.contains(QStringLiteral("head ") +
+                              QString::fromStdString(f.ledger.headHash().substr(0, 12))));
+    }
+
+    void pdfHasTheCaptionAsTextAndEmbeddedFonts() {
+        if (QStandardPaths::findExecutable(QStringLiteral("pdftotext")).isEmpty())
+            QFAIL(
+                "pdftotext (Debian's poppler-utils) is needed: bash tools/workbench.sh installs "
+                "it");
+        const Fixture f = sampleWithDecisions(true);
+        widgets::FigureExportOptions options;
+        options.size = widgets::FigureSize::slide();
+        const QString path = m_dir.filePath(QStringLiteral("fig.pdf"));
+        QVERIFY(widgets::exportFigures(path, {specOf(f, "1301", true)}, options).ok());
+        const QString text =
+            normalised(runTool(QStringLiteral("pdftotext"), {path, QStringLiteral("-")}));
+        QVERIFY2(text.contains(QString::fromStdString(f.drop.source.sha256.substr(0, 12))),
+                 qPrintable(text));
+        QVERIFY2(text.contains(QString::fromLatin1(fit::caution)), qPrintable(text));
+        // pdffonts: one row per font after two header lines; the "emb" column says yes.
+        const QStringList fonts = runTool(QStringLiteral("pdffonts"), {path})
+                                      .split(QLatin1Char('\n'), Qt::SkipEmptyParts);
+        QVERIFY2(fonts.size() >= 3, qPrintable(fonts.join(QLatin1Char('\n'))));
+        for (int i = 2; i < fonts.size(); ++i)
+            QVERIFY2(fonts[i].contains(QStringLiteral(" yes ")), qPrintable(fonts[i]));
+        // pdfinfo: 254 x 142.875 mm = 720 x 405 pt (1 pt = 1/72 inch).
+        const QString info = runTool(QStringLiteral("pdfinfo"), {path});
+        QVERIFY2(
+            info.contains(QRegularExpression(QStringLiteral("Page size:\\s+720(\\.0+)? x 405"))),
+            qPrintable(info));
+    }
+
+    void theRedistributedSpikeIsMarkedWhereTheDataSay() {
+        const QDate dumpDay(2026, 8, 24);
+        for (const bool withLedger : {true, false}) {
+            const Fixture f = sampleWithDecisions(withLedger);
+            const report::FigureSpec spec = specOf(f, "1301", false);
+            const int dumpIndex = *Date::fromIso("2026-08-24") - spec.firstDay;
+            const double raw = spec.raw[static_cast<std::size_t>(dumpIndex)];
+            QCOMPARE(raw, 2643.0);  // samples/manifest.json, P06 "reported"
+            widgets::FigureExportOptions options;
+            options.dpi = 300;
+            const double px = 300.0 / 96.0;  // image pixels per logical pixel
+            std::vector<widgets::FigureGeometry> geometry;
+            const QString path = m_dir.filePath(QStringLiteral("spike-%1.png").arg(withLedger));
+            QVERIFY(widgets::exportFigures(path, {spec}, options, &geometry).ok());
+            QCOMPARE(geometry.size(), std::size_t(1));
+            const widgets::FigureGeometry& g = geometry.front();
+            const QImage image(path);
+
+            // Where the day and the count fall: linear axes over the plotting area.
+            const double key = QDateTime(dumpDay, QTime(0, 0), Qt::UTC).toSecsSinceEpoch();
+            const int x = static_cast<int>(
+                std::lround(px * (g.axisRect.left() +
+                                  (key - g.xLower) / (g.xUpper - g.xLower) * g.axisRect.width())));
+            const int yTop = static_cast<int>(
+                std::lround(px * (g.axisRect.bottom() -
+                                  (raw - g.yLower) / (g.yUpper - g.yLower) * g.axisRect.height())));
+
+            // The raw bar reaches the count: bar grey just below its top (with the ledger; without
+            // it the cleaned line, equal to the raw count, runs up the bar), and background
+            // beside it above (the neighbouring days hold about 200 cases, far lower).
+            const int inBar = qGray(image.pixel(x, yTop + 10));
+            if (withLedger)
+                QVERIFY2(inBar > 120 && inBar < 215, qPrintable(QString::number(inBar)));
+            else
+                QVERIFY2(inBar < 215, qPrintable(QString::number(inBar)));
+            QVERIFY2(qGray(image.pixel(x + 14, yTop - 14)) > 220,
+                     qPrintable(QString::number(qGray(image.pixel(x + 14, yTop - 14)))));
+            QVERIFY2(qGray(image.pixel(x, yTop - 14)) > 220 || withLedger,
+                     "nothing above the bar without a ledger");
+
+            // The arrow: ink in the column above the bar, its head ending at the bar top.
+            int inkRows = 0, lowest = -1;
+            for (int y = yTop - 150; y < yTop + 2; ++y)
+                for (int dx = -2; dx <= 2; ++dx)
+                    if (isInk(image.pixel(x + dx, y))) {
+                        ++inkRows;
+                        lowest = std::max(lowest, y);
+                        break;
+                    }
+            if (withLedger) {
+                QVERIFY2(inkRows > 120, qPrintable(QString::number(inkRows)));
+                QVERIFY2(std::abs(yTop - lowest) <= 10,
+                         qPrintable(QStringLiteral("%1 %2").arg(lowest).arg(yTop)));
+            } else {
+                QCOMPARE(inkRows, 0);
+            }
+        }
+    }
+
+    void theReportListsEveryLedgerEntry() {
+        const Fixture f = sampleWithDecisions(true);
+        report::BriefingRequest request;
+        request.regionRegister = &f.regions;
+        request.exportDate = "2026-12-01";
+        request.fit.window = std::make_pair(100, 200);
+        const report::BriefingReport briefing =
+            report::buildBriefing(f.drop, f.ledger, f.cleaned, request).value();
+        // The regions the entries in effect touched: 1301 (the accept of 1304 is withdrawn).
+        QCOMPARE(briefing.figures.size(), std::size_t(1));
+        QCOMPARE(briefing.ledger.size(), f.ledger.entries.size());
+
+        const QString html = m_dir.filePath(QStringLiteral("brief.html"));
+        QVERIFY(widgets::writeBriefingReport(html, briefing).ok());
+        QFile file(html);
+        QVERIFY(file.open(QIODevice::ReadOnly));
+        const QString page = QString::fromUtf8(file.readAll());
+        const QString pdf = m_dir.filePath(QStringLiteral("brief.pdf"));
+        QVERIFY(widgets::writeBriefingReport(pdf, briefing).ok());
+        const QString pdfText =
+            normalised(runTool(QStringLiteral("pdftotext"), {pdf, QStringLiteral("-")}));
+        for (const LedgerEntry& e : f.ledger.entries) {
+            const QString reason = QString::fromStdString(e.reason);
+            const QString hash = QString::fromStdString(e.hash.substr(0, 12));
+            QVERIFY2(page.contains(reason), qPrintable(reason));
+            QVERIFY2(page.contains(hash), qPrintable(hash));
+            QVERIFY2(pdfText.contains(reason),
+                     qPrintable(reason + QStringLiteral(" | ") + pdfText.left(3000)));
+        }
+        // The reconciliation row of 1301: raw total, cleaned total lower by the excluded week.
+        QVERIFY(pdfText.contains(QStringLiteral("Reconciliation")));
+        QVERIFY(page.contains(QStringLiteral("withdrawn")));
+        QVERIFY(page.contains(QString::fromLatin1(fit::caution)));
+    }
+
+    void theExportDialogWritesSmallMultiplesOrOneFilePerRegion() {
+        const Fixture f = sampleWithDecisions(true);
+        widgets::FigureExportDialog::Inputs inputs;
+        inputs.drop = &f.drop;
+        inputs.ledger = &f.ledger;
+        inputs.cleaned = &f.cleaned;
+        inputs.regions = &f.regions;
+        inputs.currentRegion = QStringLiteral("1301");
+        widgets::FigureExportDialog dialog(inputs);
+        dialog.setRegions({QStringLiteral("1301"), QStringLiteral("1304"), QStringLiteral("KV")});
+        dialog.setSizePreset(3);  // custom pixels
+        dialog.setCustomSize(1500, 1000);
+        dialog.setDpi(150);
+        const QString page = m_dir.filePath(QStringLiteral("multiples.png"));
+        dialog.setOutputPath(page);
+        auto written = dialog.exportFigures();
+        QVERIFY2(written.ok(), written.ok() ? "" : written.error().message.c_str());
+        QCOMPARE(*written, QStringList{page});
+        QCOMPARE(QImage(page).size(), QSize(1500, 1000));
+
+        dialog.setSmallMultiples(false);
+        dialog.setSizePreset(0);  // slide
+        dialog.setOutputPath(m_dir.filePath(QStringLiteral("each.svg")));
+        written = dialog.exportFigures();
+        QVERIFY(written.ok());
+        QCOMPARE(written->size(), 3);
+        for (const QString& one : *written) {
+            QVERIFY2(QFile::exists(one), qPrintable(one));
+            QVERIFY(svgText(one).contains(QString::fromLatin1(fit::caution)));
+        }
+        // One file per region, named after it, in the drop's order (KV is the sample's first code).
+        QVERIFY(written->at(0).endsWith(QStringLiteral("each-KV.svg")));
+        QVERIFY(written->at(1).endsWith(QStringLiteral("each-1301.svg")));
+        QVERIFY(written->at(2).endsWith(QStringLiteral("each-1304.svg")));
+
+        dialog.setRegions({});
+        QVERIFY(!dialog.exportFigures().ok());
+    }
+
+private:
+    QTemporaryDir m_dir;
+};
+
+QTEST_MAIN(FigureExportTest)
+#include "figure_export_test.moc"

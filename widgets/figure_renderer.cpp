@@ -1,0 +1,602 @@
+#include "widgets/figure_renderer.h"
+
+#include "widgets/plot_style.h"
+#include "widgets/qcustomplot_include.h"
+#include "widgets/series_chart.h"
+
+#include <QFileInfo>
+#include <QImage>
+#include <QPageSize>
+#include <QPainter>
+#include <QPdfWriter>
+#include <QSaveFile>
+#include <QSvgGenerator>
+
+#include <algorithm>
+#include <cmath>
+#include <memory>
+
+namespace siftwave::widgets {
+namespace {
+
+constexpr double kLogicalDpi = 96.0;
+constexpr double kMmPerInch = 25.4;
+constexpr double kSecondsPerDay = 86400.0;
+// Room above the highest bar for the decision labels (a share of the value range).
+constexpr double kLabelHeadroom = 1.45;
+
+QString qs(const std::string& s) {
+    return QString::fromStdString(s);
+}
+
+QFont pageFont(double pixelSize, bool bold = false) {
+    QFont font(QStringLiteral("DejaVu Sans"));
+    font.setPixelSize(std::max(1, static_cast<int>(std::lround(pixelSize))));
+    font.setBold(bold);
+    return font;
+}
+
+void stylePlotFonts(QCustomPlot* plot, double scale) {
+    const QFont tick = pageFont(10.5 * scale);
+    const QFont label = pageFont(11.5 * scale);
+    for (QCPAxis* axis : {plot->xAxis, plot->yAxis, plot->yAxis2}) {
+        axis->setTickLabelFont(tick);
+        axis->setLabelFont(label);
+    }
+    plot->legend->setFont(pageFont(10 * scale));
+    plot->setBackground(Qt::white);
+}
+
+QCPItemText* addLabel(QCustomPlot* plot, double key, double yRatio, const QString& text,
+                      Qt::Alignment alignment, double scale) {
+    auto* label = new QCPItemText(plot);
+    label->setClipToAxisRect(true);
+    label->position->setTypeX(QCPItemPosition::ptPlotCoords);
+    label->position->setTypeY(QCPItemPosition::ptAxisRectRatio);
+    label->position->setCoords(key, yRatio);
+    label->setPositionAlignment(alignment);
+    label->setText(text);
+    label->setFont(pageFont(10 * scale));
+    label->setColor(plot_style::kInk);
+    label->setBrush(QBrush(QColor(255, 255, 255, 235)));
+    label->setPen(QPen(plot_style::kInk, 0.8));
+    const int pad = std::max(1, static_cast<int>(std::lround(2 * scale)));
+    label->setPadding(QMargins(pad + 1, pad, pad + 1, pad));
+    label->setSelectable(false);
+    return label;
+}
+
+Qt::Alignment alignmentFor(double key, const QCPRange& x) {
+    const double share = (key - x.lower) / x.size();
+    const Qt::Alignment h = share > 0.72   ? Qt::AlignRight
+                            : share < 0.28 ? Qt::AlignLeft
+                                           : Qt::AlignHCenter;
+    return h | Qt::AlignBottom;
+}
+
+double keyOf(Date day) {
+    return plotKeyOfDay(day);
+}
+
+}  // namespace
+
+std::optional<FigureFormat> figureFormatFromPath(const QString& path) {
+    const QString suffix = QFileInfo(path).suffix().toLower();
+    if (suffix == QLatin1String("png"))
+        return FigureFormat::Png;
+    if (suffix == QLatin1String("svg"))
+        return FigureFormat::Svg;
+    if (suffix == QLatin1String("pdf"))
+        return FigureFormat::Pdf;
+    return std::nullopt;
+}
+
+FigureSize FigureSize::slide() {
+    return {254.0, 142.875, std::nullopt};
+}
+
+FigureSize FigureSize::halfA4() {
+    return {210.0, 148.5, std::nullopt};
+}
+
+Result<FigureSize> FigureSize::parse(const QString& text, int dpi) {
+    const QString t = text.trimmed().toLower();
+    if (t == QLatin1String("slide"))
+        return slide();
+    if (t == QLatin1String("half-a4"))
+        return halfA4();
+    QString body = t;
+    bool pixels = false;
+    if (body.endsWith(QLatin1String("px"))) {
+        pixels = true;
+        body.chop(2);
+    } else if (body.endsWith(QLatin1String("mm"))) {
+        body.chop(2);
+    } else {
+        return makeError(
+            ErrorCode::Usage,
+            "size '" + text.toStdString() +
+                "' is not slide, half-a4, WxHmm or WxHpx (e.g. 180x120mm, 1600x900px)");
+    }
+    const QStringList parts = body.split(QLatin1Char('x'));
+    bool okW = false, okH = false;
+    const double w = parts.size() == 2 ? parts[0].toDouble(&okW) : 0;
+    const double h = parts.size() == 2 ? parts[1].toDouble(&okH) : 0;
+    if (!okW || !okH || !(w > 0) || !(h > 0))
+        return makeError(
+            ErrorCode::Usage,
+            "size '" + text.toStdString() + "' needs a positive width and height, e.g. 180x120mm");
+    if (pixels) {
+        if (w != std::floor(w) || h != std::floor(h) || w > 20000 || h > 20000 || w < 100 ||
+            h < 100)
+            return makeError(ErrorCode::Usage,
+                             "a size in pixels takes whole numbers from 100 "
+                             "to 20000, e.g. 1600x900px");
+        FigureSize s{w / dpi * kMmPerInch, h / dpi * kMmPerInch,
+                     QSize(static_cast<int>(w), static_cast<int>(h))};
+        return s;
+    }
+    if (w < 40 || h < 30 || w > 2000 || h > 2000)
+        return makeError(ErrorCode::Usage, "a size in millimetres must be 40x30mm to 2000x2000mm");
+    return FigureSize{w, h, std::nullopt};
+}
+
+QSize FigureSize::pixelsAt(int dpi) const {
+    if (pixels)
+        return *pixels;
+    return {static_cast<int>(std::lround(widthMm / kMmPerInch * dpi)),
+            static_cast<int>(std::lround(heightMm / kMmPerInch * dpi))};
+}
+
+QSizeF FigureSize::logical() const {
+    return {widthMm / kMmPerInch * kLogicalDpi, heightMm / kMmPerInch * kLogicalDpi};
+}
+
+SeriesView seriesViewFromSpec(const report::FigureSpec& spec) {
+    SeriesView view;
+    view.regionCode = qs(spec.regionCode);
+    view.regionName = qs(spec.regionName);
+    view.measure = qs(spec.measure);
+    view.firstDay = spec.firstDay;
+    view.days = spec.days;
+    view.raw = spec.raw;
+    view.cleaned = spec.cleaned;
+    view.smoothed = spec.smoothed;
+    view.smoothedLabel = qs(spec.smoothedLabel);
+    if (spec.fit) {
+        FittedCurve curve;
+        curve.label = qs(spec.fit->label);
+        curve.mid = spec.fit->mid;
+        curve.low = spec.fit->low;
+        curve.high = spec.fit->high;
+        view.fit = curve;
+        using IndexRange = decltype(view.fitWindow)::value_type;
+        view.fitWindow =
+            IndexRange{spec.fit->windowFirst - spec.firstDay, spec.fit->windowLast - spec.firstDay};
+    }
+    return view;
+}
+
+namespace {
+
+// Lifts the smoothed line and the fitted curve above the bars on a white casing, so that
+// in greyscale (where the orange and the bars' grey come close) they still stand out.
+void caseLines(QCustomPlot* plot, const report::FigureSpec& spec) {
+    QStringList names{QString::fromStdString(spec.smoothedLabel)};
+    if (spec.fit)
+        names << QString::fromStdString(spec.fit->label);
+    std::vector<QCPGraph*> lines;
+    for (int i = 0; i < plot->graphCount(); ++i)
+        if (names.contains(plot->graph(i)->name()))
+            lines.push_back(plot->graph(i));
+    if (lines.empty())
+        return;
+    if (!plot->layer(QStringLiteral("casing"))) {
+        plot->addLayer(QStringLiteral("casing"), plot->layer(QStringLiteral("main")),
+                       QCustomPlot::limAbove);
+        plot->addLayer(QStringLiteral("cased"), plot->layer(QStringLiteral("casing")),
+                       QCustomPlot::limAbove);
+    }
+    for (QCPGraph* line : lines) {
+        QCPGraph* casing = plot->addGraph(line->keyAxis(), line->valueAxis());
+        casing->setData(line->data());
+        QPen pen(Qt::white, line->pen().widthF() + 2.4, Qt::SolidLine, Qt::RoundCap, Qt::RoundJoin);
+        casing->setPen(pen);
+        casing->removeFromLegend();
+        casing->setLayer(QStringLiteral("casing"));
+        casing->setSelectable(QCP::stNone);
+        line->setLayer(QStringLiteral("cased"));
+    }
+}
+
+}  // namespace
+
+void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
+    QCustomPlot* plot = chart.plot();
+    const double scale = 1.0;
+    caseLines(plot, spec);
+    const int itemsBefore = plot->itemCount();
+    const int graphsBefore = plot->graphCount();
+    // Headroom for the labels above the highest bar.
+    const QCPRange y = plot->yAxis->range();
+    plot->yAxis->setRange(0, std::max(y.upper * kLabelHeadroom, 10.0));
+    const double top = plot->yAxis->range().upper;
+    const QCPRange x = plot->xAxis->range();
+
+    // Excluded ranges: grey hatching over the days, labelled at the top.
+    for (const report::ExcludedRange& ex : spec.excluded) {
+        auto* rect = new QCPItemRect(plot);
+        rect->setClipToAxisRect(true);
+        for (QCPItemPosition* p : {rect->topLeft, rect->bottomRight}) {
+            p->setTypeX(QCPItemPosition::ptPlotCoords);
+            p->setTypeY(QCPItemPosition::ptAxisRectRatio);
+        }
+        rect->topLeft->setCoords(keyOf(ex.first) - kSecondsPerDay * 0.5, 0.0);
+        rect->bottomRight->setCoords(keyOf(ex.last) + kSecondsPerDay * 0.5, 1.0);
+        rect->setBrush(QBrush(QColor(0x55, 0x55, 0x55, 110), Qt::FDiagPattern));
+        rect->setPen(QPen(QColor(0x55, 0x55, 0x55), 1.0, Qt::DotLine));
+        rect->setSelectable(false);
+        const double mid = (keyOf(ex.first) + keyOf(ex.last)) / 2;
+        addLabel(plot, mid, 0.06, qs(ex.label), alignmentFor(mid, x) | Qt::AlignTop, scale)
+            ->setPositionAlignment((alignmentFor(mid, x) & Qt::AlignHorizontal_Mask) |
+                                   Qt::AlignTop);
+    }
+
+    // Decisions: a label in a band near the top, staggered so neighbours do not collide,
+    // with an arrow to the highest raw bar of the day(s) it is about.
+    int row = 0;
+    for (const report::DecisionMark& mark : spec.decisions) {
+        const double key = (keyOf(mark.first) + keyOf(mark.last)) / 2;
+        const double labelRatio = 0.1 + 0.075 * (row++ % 3);
+        QCPItemText* label =
+            addLabel(plot, key, labelRatio, qs(mark.label), alignmentFor(key, x), scale);
+        label->setObjectName(QStringLiteral("decision-%1").arg(mark.sequence));
+        auto* arrow = new QCPItemLine(plot);
+        arrow->setClipToAxisRect(true);
+        // From the label's lower edge (y) straight down at the mark's day (x) to the bar.
+        arrow->start->setTypeX(QCPItemPosition::ptPlotCoords);
+        arrow->start->setParentAnchorY(label->bottom);
+        arrow->start->setCoords(key, 0);
+        arrow->end->setCoords(key, std::min(mark.anchorValue, top));
+        arrow->setPen(QPen(plot_style::kInk, 1.3));
+        arrow->setHead(QCPLineEnding(QCPLineEnding::esSpikeArrow, 8, 10));
+        arrow->setSelectable(false);
+        arrow->setObjectName(QStringLiteral("decision-arrow-%1").arg(mark.sequence));
+        if (mark.window) {
+            // A bracket under the label over the days the counts went to.
+            auto* span = new QCPItemLine(plot);
+            span->setClipToAxisRect(true);
+            for (QCPItemPosition* p : {span->start, span->end}) {
+                p->setTypeX(QCPItemPosition::ptPlotCoords);
+                p->setTypeY(QCPItemPosition::ptAxisRectRatio);
+            }
+            const double ratio = labelRatio + 0.045;
+            span->start->setCoords(keyOf(mark.window->first) - kSecondsPerDay * 0.5, ratio);
+            span->end->setCoords(keyOf(mark.window->last) + kSecondsPerDay * 0.5, ratio);
+            span->setPen(QPen(plot_style::kInk, 1.0, Qt::DashLine));
+            span->setHead(QCPLineEnding(QCPLineEnding::esBar, 6));
+            span->setTail(QCPLineEnding(QCPLineEnding::esBar, 6));
+            span->setSelectable(false);
+        }
+    }
+
+    // The peak of the fit: a diamond on the curve and its date and height.
+    if (spec.fit && std::isfinite(spec.fit->peakValue)) {
+        const double key = keyOf(spec.fit->peakDate);
+        QCPGraph* peak = plot->addGraph(plot->xAxis, plot->yAxis);
+        peak->setData(QVector<double>{key}, QVector<double>{spec.fit->peakValue}, true);
+        peak->setLineStyle(QCPGraph::lsNone);
+        peak->setScatterStyle(QCPScatterStyle(QCPScatterStyle::ssDiamond,
+                                              QPen(plot_style::kInk, 1.2),
+                                              QBrush(plot_style::kVermillion), 10));
+        peak->setName(QObject::tr("Peak of the fit"));
+        auto* label = new QCPItemText(plot);
+        label->setClipToAxisRect(true);
+        label->position->setCoords(key, spec.fit->peakValue);
+        label->setPositionAlignment(alignmentFor(key, x) == (Qt::AlignRight | Qt::AlignBottom)
+                                        ? Qt::AlignRight | Qt::AlignBottom
+                                        : Qt::AlignLeft | Qt::AlignBottom);
+        label->setPadding(QMargins(8, 0, 8, 6));
+        label->setText(QObject::tr("peak %1, %2/day")
+                           .arg(qs(spec.fit->peakDate.iso()))
+                           .arg(spec.fit->peakValue, 0, 'f', 0));
+        label->setFont(pageFont(10 * scale, true));
+        label->setColor(plot_style::kInk);
+        label->setSelectable(false);
+    }
+
+    // The marks above every line (the window and findings items SeriesChart made stay below).
+    const QString marksLayer = QStringLiteral("annotations");
+    if (!plot->layer(marksLayer))
+        plot->addLayer(marksLayer, plot->layer(plot->layerCount() - 1), QCustomPlot::limAbove);
+    for (int i = itemsBefore; i < plot->itemCount(); ++i)
+        plot->item(i)->setLayer(marksLayer);
+    for (int i = graphsBefore; i < plot->graphCount(); ++i)
+        plot->graph(i)->setLayer(marksLayer);
+}
+
+namespace {
+
+// Caption lines wrapped into `width`; returns the height used (or needed when painter is null).
+double paintCaption(QPainter* painter, const std::vector<std::string>& lines, const QRectF& box,
+                    double fontPx) {
+    const QFont font = pageFont(fontPx);
+    const QFontMetricsF metrics(font);
+    double y = box.top();
+    for (std::size_t i = 0; i < lines.size(); ++i) {
+        const bool caution = i + 1 == lines.size();
+        QFont f = font;
+        f.setBold(caution);
+        const QFontMetricsF m(f);
+        const QRectF bounds =
+            m.boundingRect(QRectF(box.left(), y, box.width(), 1e6), Qt::TextWordWrap, qs(lines[i]));
+        if (painter) {
+            painter->setFont(f);
+            painter->setPen(caution ? plot_style::kInk : QColor(0x44, 0x44, 0x44));
+            painter->drawText(QRectF(box.left(), y, box.width(), bounds.height() + 2),
+                              Qt::TextWordWrap | Qt::AlignLeft | Qt::AlignTop, qs(lines[i]));
+        }
+        y += bounds.height() + metrics.leading();
+    }
+    return y - box.top();
+}
+
+struct PanelLayout {
+    double titlePx = 17;
+    double subtitlePx = 11.5;
+    double scale = 1.0;  // of the plot's fonts
+};
+
+// Title, subtitle and the annotated plot into `panel`.
+FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report::FigureSpec& spec,
+                          const PanelLayout& layout) {
+    double y = panel.top();
+    painter.setPen(plot_style::kInk);
+    const QFont titleFont = pageFont(layout.titlePx, true);
+    painter.setFont(titleFont);
+    const QRectF titleBounds = QFontMetricsF(titleFont).boundingRect(
+        QRectF(panel.left(), y, panel.width(), 1e6), Qt::TextWordWrap, qs(spec.title));
+    painter.drawText(QRectF(panel.left(), y, panel.width(), titleBounds.height() + 2),
+                     Qt::TextWordWrap | Qt::AlignLeft | Qt::AlignTop, qs(spec.title));
+    y += titleBounds.height() + 2;
+    const QFont subtitleFont = pageFont(layout.subtitlePx);
+    painter.setFont(subtitleFont);
+    painter.setPen(QColor(0x44, 0x44, 0x44));
+    const QRectF subBounds = QFontMetricsF(subtitleFont)
+                                 .boundingRect(QRectF(panel.left(), y, panel.width(), 1e6),
+                                               Qt::TextWordWrap, qs(spec.subtitle));
+    painter.drawText(QRectF(panel.left(), y, panel.width(), subBounds.height() + 2),
+                     Qt::TextWordWrap | Qt::AlignLeft | Qt::AlignTop, qs(spec.subtitle));
+    y += subBounds.height() + 6;
+
+    const QRectF plotRect(panel.left(), y, panel.width(), std::max(40.0, panel.bottom() - y));
+    const int w = static_cast<int>(std::floor(plotRect.width()));
+    const int h = static_cast<int>(std::floor(plotRect.height()));
+
+    auto plot = std::make_unique<QCustomPlot>();
+    plot->setAttribute(Qt::WA_DontShowOnScreen);
+    plot->resize(w, h);
+    plot->setViewport(QRect(0, 0, w, h));  // a widget never shown gets no resize event
+    stylePlotFonts(plot.get(), layout.scale);
+    SeriesChart chart(plot.get());
+    chart.draw(seriesViewFromSpec(spec));
+    annotateFigure(chart, spec);
+    // On paper the legend goes under the plot, in rows, so it hides no data or label.
+    if (plot->axisRect()->insetLayout()->take(plot->legend)) {
+        plot->axisRect()->insetLayout()->simplify();
+        plot->plotLayout()->addElement(1, 0, plot->legend);
+        plot->plotLayout()->setRowStretchFactor(1, 0.001);
+        plot->plotLayout()->setRowSpacing(0);
+        plot->legend->setWrap(4);
+        plot->legend->setFillOrder(QCPLegend::foColumnsFirst, true);
+        plot->legend->setBorderPen(Qt::NoPen);
+        plot->legend->setBrush(Qt::NoBrush);
+        plot->legend->setMargins(QMargins(8, 2, 8, 0));
+    }
+    plot->replot(QCustomPlot::rpImmediateRefresh);
+
+    FigureGeometry geometry;
+    const QRect axisRect = plot->axisRect()->rect();
+    geometry.axisRect = QRectF(axisRect).translated(plotRect.topLeft());
+    geometry.xLower = plot->xAxis->range().lower;
+    geometry.xUpper = plot->xAxis->range().upper;
+    geometry.yLower = plot->yAxis->range().lower;
+    geometry.yUpper = plot->yAxis->range().upper;
+
+    painter.save();
+    painter.translate(plotRect.topLeft());
+    plot->toPainter(&painter, w, h);
+    painter.restore();
+    return geometry;
+}
+
+}  // namespace
+
+std::vector<std::string> pageCaptionLines(const std::vector<report::FigureSpec>& specs) {
+    if (specs.empty())
+        return {};
+    std::vector<std::string> lines = specs.front().captionLines;
+    if (specs.size() == 1 || lines.size() < 3)
+        return lines;
+    std::string fits;
+    for (const report::FigureSpec& s : specs) {
+        if (!s.fit)
+            continue;
+        const std::string one = s.caption.model + ", " + s.caption.method;
+        if (fits.find(one) == std::string::npos)
+            fits += (fits.empty() ? "" : "; ") + one;
+    }
+    lines[2] =
+        fits.empty() ? "Fit: none" : "Fit: " + fits + " (each panel's window in its subtitle)";
+    return lines;
+}
+
+FigureGeometry paintFigure(QCPPainter& painter, const QRectF& page,
+                           const report::FigureSpec& spec) {
+    const double margin = std::max(10.0, page.width() * 0.03);
+    const QRectF inner = page.adjusted(margin, margin * 0.8, -margin, -margin * 0.8);
+    const double captionPx = 10.0;
+    const double captionHeight = paintCaption(nullptr, spec.captionLines, inner, captionPx);
+    const QRectF captionBox(inner.left(), inner.bottom() - captionHeight, inner.width(),
+                            captionHeight);
+    painter.fillRect(page, Qt::white);
+    const QRectF panel(inner.left(), inner.top(), inner.width(),
+                       captionBox.top() - inner.top() - 8);
+    FigureGeometry g = paintPanel(painter, panel, spec, PanelLayout{});
+    painter.setPen(QPen(QColor(0xB0, 0xB4, 0xBA), 0.8));
+    painter.drawLine(QPointF(inner.left(), captionBox.top() - 4),
+                     QPointF(inner.right(), captionBox.top() - 4));
+    paintCaption(&painter, spec.captionLines, captionBox, captionPx);
+    return g;
+}
+
+std::vector<FigureGeometry> paintSmallMultiples(QCPPainter& painter, const QRectF& page,
+                                                const std::vector<report::FigureSpec>& specs,
+                                                int columns) {
+    std::vector<FigureGeometry> out;
+    if (specs.empty())
+        return out;
+    if (specs.size() == 1) {
+        out.push_back(paintFigure(painter, page, specs.front()));
+        return out;
+    }
+    const int n = static_cast<int>(specs.size());
+    const int cols = columns > 0 ? std::min(columns, n)
+                                 : static_cast<int>(std::ceil(std::sqrt(static_cast<double>(n))));
+    const int rows = (n + cols - 1) / cols;
+    const double margin = std::max(10.0, page.width() * 0.025);
+    const QRectF inner = page.adjusted(margin, margin * 0.8, -margin, -margin * 0.8);
+    const std::vector<std::string> caption = pageCaptionLines(specs);
+    const double captionPx = 9.5;
+    const double captionHeight = paintCaption(nullptr, caption, inner, captionPx);
+    const QRectF captionBox(inner.left(), inner.bottom() - captionHeight, inner.width(),
+                            captionHeight);
+    painter.fillRect(page, Qt::white);
+    const double gap = 12;
+    const double cellW = (inner.width() - gap * (cols - 1)) / cols;
+    const double cellH = (captionBox.top() - 8 - inner.top() - gap * (rows - 1)) / rows;
+    PanelLayout layout;
+    layout.titlePx = 13;
+    layout.subtitlePx = 9.5;
+    layout.scale = 0.9;
+    for (int i = 0; i < n; ++i) {
+        const QRectF cell(inner.left() + (i % cols) * (cellW + gap),
+                          inner.top() + (i / cols) * (cellH + gap), cellW, cellH);
+        out.push_back(paintPanel(painter, cell, specs[static_cast<std::size_t>(i)], layout));
+    }
+    painter.setPen(QPen(QColor(0xB0, 0xB4, 0xBA), 0.8));
+    painter.drawLine(QPointF(inner.left(), captionBox.top() - 4),
+                     QPointF(inner.right(), captionBox.top() - 4));
+    paintCaption(&painter, caption, captionBox, captionPx);
+    return out;
+}
+
+Status writeFigures(QIODevice& device, FigureFormat format,
+                    const std::vector<report::FigureSpec>& specs,
+                    const FigureExportOptions& options, std::vector<FigureGeometry>* geometry) {
+    if (specs.empty())
+        return makeError(ErrorCode::Usage, "no figure to export");
+    if (options.dpi < 50 || options.dpi > 1200)
+        return makeError(ErrorCode::Usage, "the DPI must be between 50 and 1200");
+    const QSizeF logical = options.size.logical();
+    const QRectF page(QPointF(0, 0), logical);
+    std::vector<FigureGeometry> painted;
+    bool written = true;
+    switch (format) {
+        case FigureFormat::Png: {
+            const QSize pixels = options.size.pixelsAt(options.dpi);
+            QImage image(pixels, QImage::Format_ARGB32_Premultiplied);
+            image.fill(Qt::white);
+            // Laid out at 96 logical dpi, then scaled to the pixels.
+            const int logicalDpm = static_cast<int>(std::lround(kLogicalDpi / 0.0254));
+            image.setDotsPerMeterX(logicalDpm);
+            image.setDotsPerMeterY(logicalDpm);
+            const double scale = options.dpi / kLogicalDpi;
+            const QRectF logicalPage(QPointF(0, 0),
+                                     QSizeF(pixels.width() / scale, pixels.height() / scale));
+            {
+                QCPPainter painter(&image);
+                painter.setRenderHint(QPainter::Antialiasing);
+                painter.setRenderHint(QPainter::TextAntialiasing);
+                painter.scale(scale, scale);
+                painted = paintSmallMultiples(painter, logicalPage, specs, options.columns);
+            }
+            const int dpm = static_cast<int>(std::lround(options.dpi / 0.0254));
+            QImage rgb = image.convertToFormat(QImage::Format_RGB32);
+            rgb.setDotsPerMeterX(dpm);
+            rgb.setDotsPerMeterY(dpm);
+            written = rgb.save(&device, "PNG");
+            break;
+        }
+        case FigureFormat::Svg: {
+            QSvgGenerator svg;
+            svg.setOutputDevice(&device);
+            svg.setResolution(static_cast<int>(kLogicalDpi));
+            svg.setSize(QSize(static_cast<int>(std::lround(logical.width())),
+                              static_cast<int>(std::lround(logical.height()))));
+            svg.setViewBox(page);
+            svg.setTitle(qs(specs.front().title));
+            std::string description;
+            for (const std::string& line : pageCaptionLines(specs))
+                description += line + "\n";
+            svg.setDescription(qs(description));
+            QCPPainter painter(&svg);
+            painter.setMode(QCPPainter::pmVectorized);
+            painter.setMode(QCPPainter::pmNoCaching);
+            painted = paintSmallMultiples(painter, page, specs, options.columns);
+            written = painter.end();
+            break;
+        }
+        case FigureFormat::Pdf: {
+            QPdfWriter pdf(&device);
+            pdf.setPageSize(QPageSize(QSizeF(options.size.widthMm, options.size.heightMm),
+                                      QPageSize::Millimeter, QString(), QPageSize::ExactMatch));
+            pdf.setPageMargins(QMarginsF(0, 0, 0, 0));
+            pdf.setResolution(static_cast<int>(kLogicalDpi));
+            pdf.setTitle(qs(specs.front().title));
+            pdf.setCreator(
+                QStringLiteral("Siftwave %1").arg(QLatin1String(report::siftwaveVersion())));
+            QCPPainter painter(&pdf);
+            painter.setMode(QCPPainter::pmVectorized);
+            painter.setMode(QCPPainter::pmNoCaching);
+            painted = paintSmallMultiples(painter, page, specs, options.columns);
+            written = painter.end();
+            break;
+        }
+    }
+    if (!written)
+        return makeError(ErrorCode::Io, "the figure could not be drawn");
+    if (geometry)
+        *geometry = std::move(painted);
+    return Ok{};
+}
+
+Status exportFigures(const QString& path, const std::vector<report::FigureSpec>& specs,
+                     const FigureExportOptions& options, std::vector<FigureGeometry>* geometry) {
+    const auto format = figureFormatFromPath(path);
+    if (!format)
+        return makeError(ErrorCode::Usage,
+                         "the figure file must end in .png, .svg or .pdf: " + path.toStdString());
+    QSaveFile file(path);
+    if (!file.open(QIODevice::WriteOnly)) {
+        Error e = makeError(ErrorCode::Io,
+                            "cannot write the figure: " + file.errorString().toStdString());
+        e.file = path.toStdString();
+        return e;
+    }
+    if (Status s = writeFigures(file, *format, specs, options, geometry); !s) {
+        file.cancelWriting();
+        Error e = s.error();
+        e.file = path.toStdString();
+        return e;
+    }
+    if (!file.commit()) {
+        Error e = makeError(ErrorCode::Io,
+                            "cannot write the figure: " + file.errorString().toStdString());
+        e.file = path.toStdString();
+        return e;
+    }
+    return Ok{};
+}
+
+}  // namespace siftwave::widgets
