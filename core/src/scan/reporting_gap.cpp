@@ -10,6 +10,7 @@
 
 #include "scan/scan_input.h"
 
+#include <algorithm>
 #include <cmath>
 
 namespace siftwave::scan::detail {
@@ -45,7 +46,14 @@ void findReportingGaps(const ScanInput& in, std::vector<Finding>& out) {
                     ++end;
                 }
                 const int days = end - t + 1;
-                if (days >= o.minDays) {
+                // Cheap bound first: the median around the run is at most its largest value.
+                bool mayBeActive = false;
+                for (std::int32_t j = std::max(0, t - o.windowDays);
+                     j <= std::min(drop.days - 1, end + o.windowDays) && !mayBeActive; ++j) {
+                    const Cell& n = cells[static_cast<std::size_t>(j)];
+                    mayBeActive = n.reported() && n.value >= o.minLevel;
+                }
+                if (days >= o.minDays && mayBeActive) {
                     if (values.empty())
                         values = seriesValues(cells);
                     const double level = levelAround(values, t, end, o.windowDays);

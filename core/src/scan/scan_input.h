@@ -66,7 +66,8 @@ double levelAround(std::span<const double> values, std::int32_t first, std::int3
 /// Principles and Practice", 3rd ed., section 3.4): for every day t whose
 /// window t-3..t+3 is fully reported with mean a_t >= minLevel, r_t = x_t / a_t;
 /// the factor of weekday w is the median of its r_t; factors are scaled to mean 1.
-/// `regions` selects the series pooled (all of them when empty).
+/// `regions` selects the series pooled (all of them when empty; a drop with more
+/// than 350,000 region-days then pools every k-th region so that about 350,000 are used).
 WeekdayFactors estimateWeekdayFactors(const Drop& drop, std::size_t measure, int firstWeekday,
                                       std::span<const std::size_t> regions, double minLevel,
                                       int minWeeks);
