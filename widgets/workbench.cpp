@@ -165,7 +165,8 @@ Result<std::uint64_t> Workbench::apply(const Decision& decision, const QString& 
         return appended.error();
     if (Status applied = applyEntry(*m_drop, m_cleaned, *entry); !applied) {
         // On disk but refused in memory: re-read so the window shows what the file says.
-        openLedger(m_ledgerPath);
+        // The refusal is what the caller must see; a failure to re-read shows in the chain status.
+        static_cast<void>(openLedger(m_ledgerPath));
         return applied.error();
     }
     m_ledger.entries.push_back(*entry);
