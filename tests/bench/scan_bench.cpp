@@ -3,7 +3,7 @@
 //   the whole scan command on the 3 M-row file             <= 0.5 s
 // The drop is the seeded synthetic one of tests/support (negative-binomial
 // noise, weekday effect, three waves) with a few planted problems. Run:
-//   build/bench/scan_bench --benchmark_min_time=1s   (figures in /work/notes/scan.md)
+//   build/bench/scan_bench --benchmark_min_time=1s
 
 #include "siftwave/ingest/ingest.h"
 #include "siftwave/scan/scan.h"
