@@ -1,4 +1,5 @@
 #include "siftwave/ledger/export.h"
+#include "common/text_escape.h"
 
 #include "ledger/entry_json.h"
 #include "ledger/file_io.h"
@@ -191,31 +192,7 @@ std::optional<ReportFormat> reportFormatFromPath(std::string_view path) {
 
 namespace {
 
-std::string htmlEscape(std::string_view s) {
-    std::string out;
-    for (char c : s) {
-        switch (c) {
-            case '&':
-                out += "&amp;";
-                break;
-            case '<':
-                out += "&lt;";
-                break;
-            case '>':
-                out += "&gt;";
-                break;
-            case '"':
-                out += "&quot;";
-                break;
-            case '\'':
-                out += "&#39;";
-                break;
-            default:
-                out += c;
-        }
-    }
-    return out;
-}
+using detail::htmlEscaped;
 
 /// Markdown table cell: pipes escaped, line breaks flattened.
 std::string mdCell(std::string_view s) {
@@ -333,10 +310,10 @@ std::string renderReport(const Ledger& ledger, const std::vector<ReconciliationR
         "td,th{border:1px solid #999;padding:2px "
         "6px;vertical-align:top}td.n{text-align:right}</style>"
         "</head><body>\n<h1>Ledger audit report</h1>\n<ul>\n";
-    out += "<li>Ledger: " + htmlEscape(ctx.ledgerPath) + "</li>\n";
-    out += "<li>Drop: " + htmlEscape(drop) + "</li>\n";
+    out += "<li>Ledger: " + htmlEscaped(ctx.ledgerPath) + "</li>\n";
+    out += "<li>Drop: " + htmlEscaped(drop) + "</li>\n";
     out += "<li>Drop SHA-256: " +
-           htmlEscape(ctx.dropSha256.empty() ? ledger.dropSha256() : ctx.dropSha256) + "</li>\n";
+           htmlEscaped(ctx.dropSha256.empty() ? ledger.dropSha256() : ctx.dropSha256) + "</li>\n";
     out += "<li>Entries: " + std::to_string(ledger.entries.size()) + "; hash chain " + chain +
            "</li>\n</ul>\n";
     out +=
@@ -345,17 +322,17 @@ std::string renderReport(const Ledger& ledger, const std::vector<ReconciliationR
         "<th>Parameters</th><th>Totals moved</th><th>Reason</th></tr>\n";
     for (const LedgerEntry& e : ledger.entries) {
         out += "<tr><td class=\"n\">" + std::to_string(e.sequence) + "</td><td>" +
-               htmlEscape(e.timestamp) + "</td><td>" + htmlEscape(e.author) + "</td><td>" +
+               htmlEscaped(e.timestamp) + "</td><td>" + htmlEscaped(e.author) + "</td><td>" +
                decisionKindName(e.decision.kind) + "</td><td>" + statusText(e, inEffect) +
-               "</td><td>" + htmlEscape(parametersText(e)) + "</td><td>" +
-               htmlEscape(totalsText(e)) + "</td><td>" + htmlEscape(e.reason) + "</td></tr>\n";
+               "</td><td>" + htmlEscaped(parametersText(e)) + "</td><td>" +
+               htmlEscaped(totalsText(e)) + "</td><td>" + htmlEscaped(e.reason) + "</td></tr>\n";
     }
     out +=
         "</table>\n<h2>Reconciliation per region</h2>\n<table><tr><th>Region</th><th>Measure</th>"
         "<th>Raw total</th><th>Cleaned total</th><th>Difference</th><th>Explained by "
         "entries</th></tr>\n";
     for (const ReconciliationRow& r : rows) {
-        out += "<tr><td>" + htmlEscape(r.region) + "</td><td>" + htmlEscape(r.measure) +
+        out += "<tr><td>" + htmlEscaped(r.region) + "</td><td>" + htmlEscaped(r.measure) +
                "</td><td class=\"n\">" + std::to_string(r.rawTotal) + "</td><td class=\"n\">" +
                std::to_string(r.cleanedTotal) + "</td><td class=\"n\">" +
                signedNumber(r.difference()) + "</td><td>" +

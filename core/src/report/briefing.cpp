@@ -1,4 +1,5 @@
 #include "siftwave/report/briefing.h"
+#include "common/text_escape.h"
 
 #include "siftwave/ledger/replay.h"
 
@@ -85,32 +86,7 @@ const char* kStyle =
 
 }  // namespace
 
-std::string htmlEscaped(const std::string& text) {
-    std::string out;
-    out.reserve(text.size());
-    for (char c : text) {
-        switch (c) {
-            case '&':
-                out += "&amp;";
-                break;
-            case '<':
-                out += "&lt;";
-                break;
-            case '>':
-                out += "&gt;";
-                break;
-            case '"':
-                out += "&quot;";
-                break;
-            case '\'':
-                out += "&#39;";
-                break;
-            default:
-                out += c;
-        }
-    }
-    return out;
-}
+std::string htmlEscaped(const std::string& text) { return detail::htmlEscaped(text); }
 
 std::vector<FitTableRow> fitTable(const fit::FitResult& f) {
     std::vector<FitTableRow> rows;
