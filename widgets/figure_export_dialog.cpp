@@ -153,6 +153,7 @@ Result<QStringList> FigureExportDialog::exportFigures() {
         request.region = code.toStdString();
         request.measure = m_inputs.measure.toStdString();
         request.regions = m_inputs.regions;
+        request.previous = m_inputs.previous;
         if (codes.size() == 1 || !m_onePage->isChecked()) {
             request.title = m_title->text().toStdString();
             request.subtitle = m_subtitle->text().toStdString();

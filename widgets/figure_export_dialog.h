@@ -36,6 +36,7 @@ public:
         const Ledger* ledger = nullptr;    // null: no decisions
         const Cleaned* cleaned = nullptr;  // replay(drop, ledger); null: the raw counts
         const RegionRegister* regions = nullptr;
+        const Drop* previous = nullptr;  // the release before: drawn dotted when given
         QString currentRegion;
         QString measure;  // empty: the first
     };

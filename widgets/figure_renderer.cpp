@@ -163,6 +163,8 @@ SeriesView seriesViewFromSpec(const report::FigureSpec& spec) {
     view.cleaned = spec.cleaned;
     view.smoothed = spec.smoothed;
     view.smoothedLabel = qs(spec.smoothedLabel);
+    view.previous = spec.previous;
+    view.previousLabel = qs(spec.previousLabel);
     if (spec.fit) {
         FittedCurve curve;
         curve.label = qs(spec.fit->label);
@@ -387,11 +389,16 @@ FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report
         plot->plotLayout()->addElement(1, 0, plot->legend);
         plot->plotLayout()->setRowStretchFactor(1, 0.001);
         plot->plotLayout()->setRowSpacing(0);
-        plot->legend->setWrap(4);
-        plot->legend->setFillOrder(QCPLegend::foColumnsFirst, true);
         plot->legend->setBorderPen(Qt::NoPen);
         plot->legend->setBrush(Qt::NoBrush);
         plot->legend->setMargins(QMargins(8, 2, 8, 0));
+        // As many entries per row as fit whole (a squeezed column would cut its text).
+        for (int columns = 4; columns >= 1; --columns) {
+            plot->legend->setWrap(columns);
+            plot->legend->setFillOrder(QCPLegend::foColumnsFirst, true);
+            if (plot->legend->minimumOuterSizeHint().width() <= w)
+                break;
+        }
     }
     plot->replot(QCustomPlot::rpImmediateRefresh);
 

@@ -194,6 +194,41 @@ TEST(ReportFigureSpec, AFitBringsItsCurveBandWindowAndPeak) {
     EXPECT_GT(spec->fit->peakValue, 0);
 }
 
+TEST(ReportFigureSpec, ThePreviousReleaseIsAlignedByDate) {
+    const Sample s = sample();
+    const Drop previous =
+        readDrop(std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_previous.csv").value();
+    report::FigureRequest request;
+    request.region = "1405";
+    request.previous = &previous;
+    auto spec = report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request);
+    ASSERT_TRUE(spec.ok()) << spec.error().describe();
+    ASSERT_EQ(spec->previous.size(), static_cast<std::size_t>(spec->days));
+    EXPECT_EQ(spec->previousLabel, "quenmara_previous.csv");
+    // samples/manifest.json: "Late reports raised six days of cases since the previous
+    // release", 1405, 2026-11-05 to 2026-11-10; every other day reads the same in both.
+    std::vector<std::string> revised;
+    int compared = 0;
+    for (int d = 0; d < spec->days; ++d) {
+        const double old = spec->previous[d];
+        if (std::isnan(old) || std::isnan(spec->raw[d]))
+            continue;
+        ++compared;
+        if (old != spec->raw[d]) {
+            revised.push_back(spec->dayAt(d).iso());
+            EXPECT_LT(old, spec->raw[d]);
+        }
+    }
+    EXPECT_GT(compared, 200);
+    EXPECT_EQ(revised, (std::vector<std::string>{"2026-11-05", "2026-11-06", "2026-11-07",
+                                                 "2026-11-08", "2026-11-09", "2026-11-10"}));
+    // A region the previous release lacks draws nothing (412 appeared since, manifest).
+    request.region = "412";
+    spec = report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request);
+    ASSERT_TRUE(spec.ok()) << spec.error().describe();
+    EXPECT_TRUE(spec->previous.empty());
+}
+
 TEST(ReportCountBand, PoissonAndNegativeBinomialBandsAreCentral95PercentRanges) {
     fit::FitResult f;
     f.method = fit::FitMethod::Poisson;

@@ -187,6 +187,20 @@ FittedCurveSpec curveOf(const fit::FitResult& result, const FigureSpec& spec) {
     return curve;
 }
 
+// The previous release's raw counts aligned by date on the spec's calendar.
+void addPrevious(FigureSpec& spec, const Drop& previous) {
+    const auto region = previous.regionIndex(spec.regionCode);
+    const auto measure = previous.measureIndex(spec.measure);
+    if (!region || !measure)
+        return;
+    spec.previous.assign(spec.days, kNaN);
+    const auto cells = previous.series(*measure, *region);
+    for (int d = 0; d < spec.days; ++d)
+        if (const auto at = previous.dayIndex(spec.dayAt(d)); at && cells[*at].reported())
+            spec.previous[d] = cells[*at].value;
+    spec.previousLabel = fileNameOf(previous.source.path);
+}
+
 }  // namespace
 
 std::string groupedCount(std::int64_t value) {
@@ -251,6 +265,8 @@ Result<FigureSpec> buildFigureSpec(const Drop& drop, const Ledger& ledger, const
     }
     spec.smoothed = series::centredMovingAverage(spec.cleaned, kSmoothingDays);
     spec.smoothedLabel = "7-day centred mean (cleaned)";
+    if (request.previous)
+        addPrevious(spec, *request.previous);
 
     std::optional<fit::FitResult> result = request.fitResult;
     if (!result && request.fit) {

@@ -100,8 +100,9 @@ Result<BriefingReport> buildBriefing(const Drop& drop, const Ledger& ledger, con
                                      const BriefingRequest& request);
 
 /// The report as one HTML page (UTF-8, no external resources). `figureMarkup[i]`
-/// is placed verbatim as the figure of region i (e.g. inline SVG); missing or
-/// empty entries leave the figure out.
+/// is placed verbatim as the figure of region i (e.g. inline SVG), which carries its
+/// own caption block; for a missing or empty entry the figure is left out and its
+/// caption lines are printed as text instead.
 std::string briefingHtml(const BriefingReport& report,
                          const std::vector<std::string>& figureMarkup);
 

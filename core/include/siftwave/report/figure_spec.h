@@ -83,6 +83,10 @@ struct FigureSpec {
     std::vector<double> cleaned;   // NaN where the cleaned cell holds no value
     std::vector<double> smoothed;  // 7-day centred mean of the cleaned series
     std::string smoothedLabel;
+    // The previous release's raw counts of the same region and measure, on this calendar
+    // (NaN where it has no number); empty without a previous release.
+    std::vector<double> previous;
+    std::string previousLabel;  // its file name
 
     std::optional<FittedCurveSpec> fit;
     std::string fitError;  // why a requested fit is missing ("" when none was asked or it worked)
@@ -106,6 +110,9 @@ struct FigureRequest {
     std::string subtitle;    // empty: the calendar, the decisions and the fit in one line
     std::string exportDate;  // empty: today (UTC)
     const RegionRegister* regions = nullptr;  // names and populations; may be null
+    /// The release before this one: its raw counts are drawn too, and the days it
+    /// differs on are marked (may be null; a region or measure it lacks draws nothing).
+    const Drop* previous = nullptr;
 
     /// Usage errors: no region, invalid fit options.
     Status validate() const;
