@@ -55,6 +55,7 @@ public:
     void setDpi(int dpi);
     void setTitle(const QString& title);
     void setFitModel(int index);  // 0 none, 1.. the models in fit::kAllModels order
+    void setCountRange(bool shown);
 
 private:
     void browse();
@@ -72,6 +73,7 @@ private:
     QDoubleSpinBox* m_height;
     QSpinBox* m_dpi;
     QComboBox* m_fit;
+    QCheckBox* m_countRange;
     QLineEdit* m_path;
 };
 

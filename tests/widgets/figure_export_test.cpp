@@ -220,6 +220,31 @@ private Q_SLOTS:
         QVERIFY(text.contains(QStringLiteral("2,444 moved to earlier days")));
         QVERIFY(text.contains(QStringLiteral("head ") +
                               QString::fromStdString(f.ledger.headHash().substr(0, 12))));
+        // The legend and the caption say which band is drawn: the curve's own, not the counts'.
+        QVERIFY2(text.contains(QStringLiteral("95% confidence band of the fitted curve")),
+                 qPrintable(text));
+        QVERIFY(
+            text.contains(QStringLiteral("shaded: pointwise 95% confidence band of the curve")));
+        QVERIFY(!text.contains(QStringLiteral("range of daily counts")));
+        QVERIFY(!text.contains(QStringLiteral("Fit band")));
+
+        // With the range of daily counts asked for, both are named.
+        report::FigureRequest request;
+        request.region = "1301";
+        request.regions = &f.regions;
+        request.exportDate = "2026-12-01";
+        request.fit = fit::FitOptions{};
+        request.fit->window = std::make_pair(100, 200);
+        request.countRange = true;
+        const report::FigureSpec both =
+            report::buildFigureSpec(f.drop, f.ledger, f.cleaned, request).value();
+        const QString bothPath = m_dir.filePath(QStringLiteral("fig-count-range.svg"));
+        QVERIFY(widgets::exportFigures(bothPath, {both}, options).ok());
+        const QString bothText = svgText(bothPath);
+        QVERIFY(bothText.contains(QStringLiteral("95% confidence band of the fitted curve")));
+        QVERIFY2(bothText.contains(QStringLiteral("95% range of daily counts around the fit")),
+                 qPrintable(bothText));
+        QVERIFY(bothText.contains(QStringLiteral("dotted: 95% range of daily counts")));
     }
 
     void pdfHasTheCaptionAsTextAndEmbeddedFonts() {

@@ -45,8 +45,9 @@ void printHelp() {
         "           [--fit MODEL] --out FIG.png|FIG.svg|FIG.pdf [--size slide|half-a4|WxH]\n"
         "           [--dpi N]\n\n"
         "Draws a region's series as a briefing figure: raw bars, cleaned and smoothed lines,\n"
-        "each ledger decision marked, the fit with its band, window and peak, and a caption\n"
-        "with the provenance and the caution. Headless (offscreen platform).\n\n%s",
+        "each ledger decision marked, the fit with the 95%% confidence band of the curve, its\n"
+        "window and peak, and a caption with the provenance and the caution. Headless\n"
+        "(offscreen platform).\n\n%s",
         formatFlags(figureFlags()).c_str());
 }
 
@@ -143,6 +144,7 @@ int runFigure(int argc, char** argv, int first) {
         request.subtitle = regions.size() == 1 || args->has("each") ? args->value("subtitle") : "";
         request.regions = inputs->regions ? &*inputs->regions : nullptr;
         request.previous = previous ? &*previous : nullptr;
+        request.countRange = args->has("count-range");
         auto spec = report::buildFigureSpec(inputs->drop, inputs->ledger, inputs->cleaned, request);
         if (!spec) {
             printError(spec.error(), json);

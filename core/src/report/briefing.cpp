@@ -141,6 +141,7 @@ Result<BriefingReport> buildBriefing(const Drop& drop, const Ledger& ledger, con
         fr.exportDate = report.caption.exportDate;
         fr.regions = request.regionRegister;
         fr.previous = request.previous;
+        fr.countRange = request.countRange;
         auto spec = buildFigureSpec(drop, ledger, cleaned, fr);
         if (!spec)
             return spec.error();

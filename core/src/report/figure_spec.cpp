@@ -161,24 +161,68 @@ std::string capitalised(std::string text) {
     return text;
 }
 
-FittedCurveSpec curveOf(const fit::FitResult& result, const FigureSpec& spec) {
+constexpr char kCurveBandLabel[] = "95% confidence band of the fitted curve";
+constexpr char kCountRangeLabel[] = "95% range of daily counts around the fit";
+
+// What the caption says about the bands (figure_renderer draws the confidence band shaded
+// and the range of daily counts as dotted lines).
+std::string bandsDescription(const FittedCurveSpec& curve) {
+    std::string text = curve.bandNote.empty()
+                           ? std::string(
+                                 "shaded: pointwise 95% confidence band of the curve "
+                                 "(delta method), not a range for daily counts")
+                           : curve.bandNote;
+    if (!curve.countLow.empty())
+        text += "; dotted: 95% range of daily counts if the fit were their mean";
+    return text;
+}
+
+FittedCurveSpec curveOf(const fit::FitResult& result, const FigureSpec& spec, bool countRange) {
     FittedCurveSpec curve;
     curve.result = result;
     curve.label =
         capitalised(fit::modelName(result.model)) + " fit (" + fit::methodName(result.method) + ")";
-    curve.bandLabel = "95% range of daily counts";
+    curve.bandLabel = kCurveBandLabel;
     curve.mid.assign(spec.days, kNaN);
     curve.low.assign(spec.days, kNaN);
     curve.high.assign(spec.days, kNaN);
-    const CountBand band = countBand(result, spec.cleaned);
     const int offset = result.seriesFirstDay - spec.firstDay;
-    for (std::size_t i = 0; i < result.fitted.size(); ++i) {
-        const int day = offset + result.first + static_cast<int>(i);
-        if (day < 0 || day >= spec.days)
-            continue;
-        curve.mid[day] = result.fitted[i];
-        curve.low[day] = band.low[i];
-        curve.high[day] = band.high[i];
+    // Calendar index of series day `first + i`, or -1 off the calendar.
+    auto dayOf = [&](int seriesDay) {
+        const int day = offset + seriesDay;
+        return day >= 0 && day < spec.days ? day : -1;
+    };
+    // The wave and its confidence band over the fit window only: not a forecast.
+    auto band = fit::curveBand(result, result.first, result.last);
+    if (band) {
+        for (std::size_t i = 0; i < band->fitted.size(); ++i) {
+            const int day = dayOf(band->first + static_cast<int>(i));
+            if (day < 0)
+                continue;
+            curve.mid[day] = band->fitted[i];
+            if (i < band->lower.size() && i < band->upper.size()) {
+                curve.low[day] = band->lower[i];
+                curve.high[day] = band->upper[i];
+            }
+        }
+        if (band->lower.empty())
+            curve.bandNote = "no confidence band: the fit's parameter covariance is not available";
+    } else {
+        for (std::size_t i = 0; i < result.fitted.size(); ++i)
+            if (const int day = dayOf(result.first + static_cast<int>(i)); day >= 0)
+                curve.mid[day] = result.fitted[i];
+        curve.bandNote = "no confidence band: " + band.error().message;
+    }
+    if (countRange) {
+        curve.countRangeLabel = kCountRangeLabel;
+        curve.countLow.assign(spec.days, kNaN);
+        curve.countHigh.assign(spec.days, kNaN);
+        const CountBand counts = countBand(result, spec.cleaned);
+        for (std::size_t i = 0; i < counts.low.size(); ++i)
+            if (const int day = dayOf(result.first + static_cast<int>(i)); day >= 0) {
+                curve.countLow[day] = counts.low[i];
+                curve.countHigh[day] = counts.high[i];
+            }
     }
     curve.windowFirst = result.windowFirst();
     curve.windowLast = result.windowLast();
@@ -282,12 +326,14 @@ Result<FigureSpec> buildFigureSpec(const Drop& drop, const Ledger& ledger, const
             spec.fitError = fitted.error().message;
     }
     if (result)
-        spec.fit = curveOf(*result, spec);
+        spec.fit = curveOf(*result, spec, request.countRange);
 
     addMarks(spec, ledger, cleaned);
     spec.title = request.title.empty() ? defaultTitle(spec) : request.title;
     spec.subtitle = request.subtitle.empty() ? defaultSubtitle(spec) : request.subtitle;
     spec.caption = captionFacts(drop, ledger, result ? &*result : nullptr, request.exportDate);
+    if (spec.fit)
+        spec.caption.bands = bandsDescription(*spec.fit);
     spec.captionLines = captionLines(spec.caption);
     return spec;
 }

@@ -86,6 +86,7 @@ struct BriefingRequest {
     std::string measure;  // empty: the drop's first measure
     fit::FitOptions fit;  // each region's cleaned series is fitted with these
     bool fitRegions = true;
+    bool countRange = false;  // also the range of daily counts on each figure (FigureRequest)
     const RegionRegister* regionRegister = nullptr;
     const Drop* previous = nullptr;  // the release before (revisions in the findings)
     std::size_t topFindings = 12;    // findings listed by name

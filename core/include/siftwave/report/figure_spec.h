@@ -3,11 +3,12 @@
 //
 // buildFigureSpec() gathers it from the Drop, the Ledger replayed into Cleaned
 // and, when asked, a fit of the cleaned series: the raw, cleaned and smoothed
-// daily counts, the fitted curve with its band (count_band.h), the fit window
-// and the peak, one mark per ledger decision in effect on this region and
-// measure, the excluded ranges, the title, subtitle and caption. Nothing here is
-// typed by hand: every annotation comes from an entry or the fit, so a figure
-// cannot disagree with the audit trail. The widgets layer draws it
+// daily counts, the fitted curve with its own uncertainty (the pointwise 95%
+// confidence band of the curve, fit::curveBand: delta method), optionally the
+// 95% range of daily counts around it (count_band.h), the fit window and the peak, one mark per
+// ledger decision in effect on this region and measure, the excluded ranges, the title, subtitle
+// and caption. Nothing here is typed by hand: every annotation comes from an entry or the fit, so a
+// figure cannot disagree with the audit trail. The widgets layer draws it
 // (widgets/figure_renderer.h); the report (briefing.h) lists it.
 //
 // Marks, per decision kind (entries in effect only; withdrawn ones are in the
@@ -58,12 +59,23 @@ struct ExcludedRange {
 };
 
 struct FittedCurveSpec {
-    fit::FitResult result;    // the fit itself (parameters, derived quantities, summary)
-    std::string label;        // legend text, e.g. "Gumbel fit (lsq)"
-    std::string bandLabel;    // legend text of the band
-    std::vector<double> mid;  // per calendar day; NaN outside the window
-    std::vector<double> low;  // band, same length
+    fit::FitResult result;  // the fit itself (parameters, derived quantities, summary)
+    std::string label;      // legend text, e.g. "Gumbel fit (lsq)"
+    // The wave itself per calendar day (fit::CurveBand::fitted, K f(t): no weekday factors);
+    // NaN outside the fit window: the figure draws no curve where nothing was fitted.
+    std::vector<double> mid;
+    // The curve's own uncertainty: its pointwise 95% confidence band (fit::curveBand, delta
+    // method), same length; all NaN when the fit has no usable covariance (see bandNote).
+    std::vector<double> low;
     std::vector<double> high;
+    std::string bandLabel;  // legend text of that band
+    std::string bandNote;   // why there is no band; "" when there is one
+    // Only when FigureRequest::countRange: where 95% of the daily counts would fall if the
+    // fitted incidence (weekday factors included) were their mean (count_band.h); same length,
+    // NaN outside the window. Empty otherwise.
+    std::vector<double> countLow;
+    std::vector<double> countHigh;
+    std::string countRangeLabel;  // legend text of that range
     Date windowFirst;
     Date windowLast;
     Date peakDate;
@@ -106,6 +118,9 @@ struct FigureRequest {
     std::optional<fit::FitOptions> fit;
     /// A fit already made on the cleaned series (e.g. the GUI's live fit); wins over `fit`.
     std::optional<fit::FitResult> fitResult;
+    /// Also draw the 95% range of daily counts around the fit (count_band.h), dotted, beside
+    /// the curve's confidence band. Off by default: the band a figure shows is the fit's own.
+    bool countRange = false;
     std::string title;       // empty: "<name> (<code>): daily <measure>"
     std::string subtitle;    // empty: the calendar, the decisions and the fit in one line
     std::string exportDate;  // empty: today (UTC)
