@@ -1,12 +1,11 @@
 #include "siftwave/fit/fit.h"
 
+#include "fit/curve_band.h"
 #include "fit/likelihood.h"
 #include "fit/smoothed_least_squares.h"
 #include "siftwave/series/smoothing.h"
 
 #include <Eigen/Dense>
-#include <boost/math/distributions/normal.hpp>
-#include <boost/math/distributions/students_t.hpp>
 
 #include <algorithm>
 #include <array>
@@ -97,22 +96,6 @@ Estimate estimateFrom(double value, double se, double q) {
     e.lower = std::isfinite(se) ? value - q * se : kNaN;
     e.upper = std::isfinite(se) ? value + q * se : kNaN;
     return e;
-}
-
-double quantileFor(FitMethod method, int dof) {
-    if (method == FitMethod::LeastSquares && dof > 0) {
-        thread_local std::vector<double> cache;  // by degrees of freedom (costly to compute)
-        if (dof < 4096) {
-            if (cache.size() <= static_cast<std::size_t>(dof))
-                cache.resize(static_cast<std::size_t>(dof) + 1, 0.0);
-            double& q = cache[static_cast<std::size_t>(dof)];
-            if (q == 0.0)
-                q = boost::math::quantile(boost::math::students_t(static_cast<double>(dof)), 0.975);
-            return q;
-        }
-        return boost::math::quantile(boost::math::students_t(static_cast<double>(dof)), 0.975);
-    }
-    return boost::math::quantile(boost::math::normal(), 0.975);
 }
 
 // ---------------------------------------------------------------- window choice
@@ -399,7 +382,7 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     }
 
     // Parameters with intervals.
-    const double q = quantileFor(o.method, dof);
+    const double q = detail::intervalQuantile(o.method, dof);
     const auto names = model.names();
     for (int j = 0; j < np; ++j) {
         const double var = covariance[static_cast<std::size_t>(j * np + j)];
@@ -408,14 +391,31 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
                                                var >= 0 ? std::sqrt(var) : kNaN, q)});
     }
 
-    // Fitted incidence over the window.
-    res.fitted.resize(static_cast<std::size_t>(res.last - res.first + 1));
-    model.incidence(tAll, params, res.fitted);
+    // Fitted incidence over the window and its delta-method band (fit.h, step 5).
+    const bool haveCov = detail::covarianceUsable(covariance, np);
+    const std::size_t windowDays = static_cast<std::size_t>(res.last - res.first + 1);
+    res.fitted.resize(windowDays);
+    if (haveCov) {
+        res.covariance = covariance;
+        std::vector<double> jacobian(windowDays * static_cast<std::size_t>(np));
+        model.incidence(tAll, params, res.fitted, jacobian);
+        res.fittedLower.resize(windowDays);
+        res.fittedUpper.resize(windowDays);
+        detail::deltaMethodBand(res.fitted, jacobian, covariance, np, q, res.fittedLower,
+                                res.fittedUpper);
+    } else {
+        model.incidence(tAll, params, res.fitted);
+    }
     if (!res.weekdayFactors.empty()) {
         for (int i = res.first; i <= res.last; ++i) {
-            res.fitted[static_cast<std::size_t>(i - res.first)] *=
-                res.weekdayFactors[static_cast<std::size_t>((series.firstDay + i).isoWeekday() -
-                                                            1)];
+            const std::size_t k = static_cast<std::size_t>(i - res.first);
+            const double factor = res.weekdayFactors[static_cast<std::size_t>(
+                (series.firstDay + i).isoWeekday() - 1)];
+            res.fitted[k] *= factor;
+            if (haveCov) {
+                res.fittedLower[k] *= factor;
+                res.fittedUpper[k] *= factor;
+            }
         }
     }
     const GoodnessOfFit& g = res.goodness;
@@ -429,8 +429,6 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     const auto d0 = derive(model, params, o, lastDataDay, loadDay, true);
     std::array<double, kDerivedCount> se;
     se.fill(kNaN);
-    const bool haveCov = std::all_of(covariance.begin(), covariance.end(),
-                                     [](double v) { return std::isfinite(v); });
     if (o.derivedIntervals && haveCov) {
         Matrix grad(kDerivedCount, np);
         for (int j = 0; j < np; ++j) {
