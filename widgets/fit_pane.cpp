@@ -295,8 +295,7 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
     }
     const fit::FitResult& fit = *result;
     QString summary = tr("<b>%1</b>, %2, %3 to %4 (%5 days): %6")
-                          .arg(QString::fromLatin1(fit::modelName(fit.model)),
-                               QString::fromLatin1(fit::methodName(fit.method)),
+                          .arg(modelDisplayName(fit.model), methodDisplayName(fit.method),
                                QString::fromStdString(fit.windowFirst().iso()),
                                QString::fromStdString(fit.windowLast().iso()))
                           .arg(fit.last - fit.first + 1)

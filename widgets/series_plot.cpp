@@ -30,6 +30,7 @@ SeriesPlot::SeriesPlot(QWidget* parent)
       m_reset(new QToolButton(this)),
       m_plot(new QCustomPlot(this)),
       m_chart(std::make_unique<SeriesChart>(m_plot)) {
+    m_chart->setScaleToCleaned(true);
     m_title->setObjectName(QStringLiteral("seriesTitle"));
     m_title->setTextFormat(Qt::RichText);
     m_measure->setObjectName(QStringLiteral("measureChoice"));
@@ -241,7 +242,10 @@ void SeriesPlot::showHover(QMouseEvent* event) {
         return;
     }
     const int day = m_chart->dayIndexAtPixel(event->position().x());
-    const QString text = hoverText(v, day);
+    QString text = hoverText(v, day);
+    if (!text.isEmpty() && m_dayPicking && day < static_cast<int>(v.raw.size()) &&
+        !std::isnan(v.raw[day]))
+        text += tr("<br><i>Shift+click or right-click: redistribute this day</i>");
     if (text.isEmpty())
         QToolTip::hideText();
     else

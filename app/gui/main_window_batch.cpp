@@ -5,6 +5,7 @@
 #include "widgets/batch_fit.h"
 #include "widgets/fit_pane.h"
 #include "widgets/series_plot.h"
+#include "widgets/series_view.h"
 #include "widgets/text_table_model.h"
 #include "widgets/workbench.h"
 
@@ -43,8 +44,8 @@ void MainWindow::startBatchFit() {
     const QString what =
         tr("%1, %2, %3 (automatic windows)")
             .arg(request.options.bestModel ? tr("lowest AICc")
-                                           : QString::fromLatin1(fit::modelName(options.model)),
-                 QString::fromLatin1(fit::methodName(options.method)),
+                                           : widgets::modelDisplayName(options.model),
+                 widgets::methodDisplayName(options.method),
                  QString::fromStdString(drop.measures.at(static_cast<std::size_t>(measure))));
     const std::string sha = drop.source.sha256;
     m_batchView->setRunning(true);

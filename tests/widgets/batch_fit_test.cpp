@@ -65,7 +65,7 @@ private Q_SLOTS:
         QVERIFY(!window.isBatchFitRunning());
         const auto& drop = window.workbench()->drop();
         QCOMPARE(view->table()->rowCount(), static_cast<int>(drop.regionCodes.size()));
-        QVERIFY2(view->summaryText().contains(QStringLiteral("gumbel")),
+        QVERIFY2(view->summaryText().contains(QStringLiteral("Gumbel")),
                  qPrintable(view->summaryText()));
 
         // The row of 1203 shows what the core's single fit of the same series says.
