@@ -32,6 +32,7 @@ void CellTableBuilder::reset(std::size_t days) {
     m_days = days;
     m_regions = 0;
     m_blockStart = 0;
+    m_stride = 0;
     m_stagedLow = UINT32_MAX;
     m_stagedHigh = 0;
     m_tables.clear();
@@ -47,7 +48,7 @@ bool CellTableBuilder::addMeasure(std::size_t reserveCells) {
         table.reserve(std::max(reserveCells, m_regions * m_days));
         adviseHugePages(table);
         table.resize(m_regions * m_days);
-        m_staging.back().resize(kBlockDays * m_regions);
+        m_staging.back().resize(kBlockDays * m_stride);
         return true;
     } catch (const std::bad_alloc&) {
         reset(m_days);
@@ -59,8 +60,19 @@ bool CellTableBuilder::growTo(std::size_t regions) {
     try {
         for (std::vector<Cell>& table : m_tables)
             table.resize(regions * m_days);
-        for (std::vector<Cell>& staging : m_staging)
-            staging.resize(regions * kBlockDays);
+        if (regions > m_stride) {
+            // Room for more regions per staged day: lay the staged days out anew.
+            const std::size_t stride = std::max({regions, 2 * m_stride, std::size_t{64}});
+            for (std::vector<Cell>& staging : m_staging) {
+                std::vector<Cell> wider(kBlockDays * stride);
+                for (std::size_t k = 0; k < kBlockDays && m_stride > 0; ++k) {
+                    std::copy_n(staging.begin() + static_cast<std::ptrdiff_t>(k * m_stride),
+                                m_stride, wider.begin() + static_cast<std::ptrdiff_t>(k * stride));
+                }
+                staging = std::move(wider);
+            }
+            m_stride = stride;
+        }
         m_regions = regions;
         return true;
     } catch (const std::bad_alloc&) {
@@ -90,10 +102,11 @@ void CellTableBuilder::copyBlock() {
                     __builtin_prefetch(ahead + byte, 1);
             }
             Cell* target = table + r * m_days;
-            std::memcpy(static_cast<void*>(target),
-                        static_cast<const void*>(staging + r * kBlockDays), run * sizeof(Cell));
+            for (std::size_t k = 0; k < run; ++k)
+                target[k] = staging[k * m_stride + r];
         }
-        std::fill(staging + low * kBlockDays, staging + (high + 1) * kBlockDays, Cell{});
+        for (std::size_t k = 0; k < run; ++k)
+            std::fill(staging + k * m_stride + low, staging + k * m_stride + high + 1, Cell{});
     }
     m_stagedLow = UINT32_MAX;
     m_stagedHigh = 0;

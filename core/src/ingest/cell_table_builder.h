@@ -8,8 +8,10 @@
 // kBlockDays days for every region (small enough to stay in the cache): a cell
 // whose day falls in the block is written there, and when a row's day passes
 // the block, the block is copied into the tables as one short contiguous run
-// per region. A cell before the block (a file sorted region by region, or not
-// sorted) is written to its table directly.
+// per region. The block is day-major (a day's regions side by side), so rows
+// that come date by date also write it front to back. A cell before the block
+// (a file sorted region by region, or not sorted) is written to its table
+// directly.
 //
 // The block only moves forward, and a direct write only ever goes to a day
 // before it, so the tables' days of a block are untouched (Absent) when the
@@ -49,12 +51,12 @@ public:
              std::uint32_t& firstLine) {
         const auto d = static_cast<std::size_t>(day);
         if (d - m_blockStart < kBlockDays) {  // also false for d < m_blockStart (wraps)
-            Cell& staged = m_staging[measure][region * kBlockDays + (d - m_blockStart)];
+            Cell& staged = m_staging[measure][(d - m_blockStart) * m_stride + region];
             if (staged.state != CellState::Absent) {
                 firstLine = staged.line;
                 return false;
             }
-            staged = cell;
+            store(staged, cell);
             m_stagedLow = std::min(m_stagedLow, region);
             m_stagedHigh = std::max(m_stagedHigh, region);
             return true;
@@ -68,7 +70,7 @@ public:
             firstLine = target.line;
             return false;
         }
-        target = cell;
+        store(target, cell);
         return true;
     }
 
@@ -78,16 +80,25 @@ public:
     std::vector<std::vector<Cell>> takeTables();
 
 private:
+    /// Field by field: a cell just parsed often sits on the stack as two 4-byte
+    /// stores, and copying it as one 8-byte load would wait for both (a failed
+    /// store-to-load forward).
+    static void store(Cell& target, const Cell& cell) {
+        target.value = cell.value;
+        target.line = cell.line;
+        target.state = cell.state;
+    }
     void moveBlockTo(std::size_t day);
     void copyBlock();
 
     std::size_t m_days = 0;
     std::size_t m_regions = 0;
+    std::size_t m_stride = 0;                  // cells per staged day (>= regions)
     std::size_t m_blockStart = 0;              // first day of the staging block
     std::uint32_t m_stagedLow = UINT32_MAX;    // the regions with a staged cell lie in
     std::uint32_t m_stagedHigh = 0;            // m_stagedLow .. m_stagedHigh
     std::vector<std::vector<Cell>> m_tables;   // per measure, m_regions * m_days
-    std::vector<std::vector<Cell>> m_staging;  // per measure, m_regions * kBlockDays
+    std::vector<std::vector<Cell>> m_staging;  // per measure, kBlockDays * m_stride, day-major
 };
 
 }  // namespace siftwave::detail
