@@ -24,6 +24,9 @@ packages=(
     googletest libgtest-dev libbenchmark-dev
     poppler-utils fonts-dejavu-core python3
 )
+# The test suite also cross-checks the fitting engine against SciPy's curve_fit (a reference
+# library, never a runtime dependency of Siftwave).
+[ "$mode" = test ] && packages+=(python3-scipy)
 
 missing=()
 for p in "${packages[@]}"; do

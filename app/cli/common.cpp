@@ -2,6 +2,7 @@
 
 #include <cstdio>
 #include <iostream>
+#include <string_view>
 
 namespace siftwave::cli {
 
@@ -103,6 +104,35 @@ void printError(const Error& error, bool json) {
 void printJson(const nlohmann::json& value) {
     std::cout << value.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) << '\n';
     std::cout.flush();
+}
+
+int usageError(const std::string& message, bool json, const std::string& usage) {
+    printError(makeError(ErrorCode::Usage, message), json);
+    if (!json) {
+        // The synopsis (the usage text up to its first blank line), not every option.
+        const std::string synopsis = usage.substr(0, usage.find("\n\n"));
+        std::fprintf(stderr, "%s\n(--help lists every option)\n", synopsis.c_str());
+    }
+    return kExitUsage;
+}
+
+CommandLine parseCommandLine(int argc, char** argv, int first, const std::vector<FlagSpec>& specs,
+                             const std::string& usage) {
+    CommandLine line;
+    for (int i = first; i < argc; ++i) {
+        const std::string_view a = argv[i];
+        if (a == "--help" || a == "-h") {
+            std::printf("%s", usage.c_str());
+            return line;
+        }
+        if (a == "--json")
+            line.json = true;
+    }
+    std::string parseError;
+    line.args = parseArgs(argc, argv, first, specs, parseError);
+    if (!line.args)
+        line.exitCode = usageError(parseError, line.json, usage);
+    return line;
 }
 
 }  // namespace siftwave::cli

@@ -10,6 +10,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -34,5 +35,21 @@ void printJson(const nlohmann::json& value);
 
 /// Converts an Error to its JSON object.
 nlohmann::json errorToJson(const Error& error);
+
+/// Prints a usage error (and, without --json, the usage synopsis on stderr); returns kExitUsage.
+int usageError(const std::string& message, bool json, const std::string& usage);
+
+/// What a subcommand's arguments came to: the parsed flags, or the exit code to return at once.
+struct CommandLine {
+    std::optional<ParsedArgs> args;  // empty: return `exitCode`
+    int exitCode = kExitOk;
+    bool json = false;  // --json was given (errors are then printed as JSON)
+};
+
+/// The first step every subcommand shares: "--help" or "-h" anywhere prints `usage` on stdout
+/// (exit 0); a flag the command does not take, or a missing value, is a usage error (exit 2)
+/// printed as JSON when --json is among the arguments, else with the synopsis on stderr.
+CommandLine parseCommandLine(int argc, char** argv, int first, const std::vector<FlagSpec>& specs,
+                             const std::string& usage);
 
 }  // namespace siftwave::cli

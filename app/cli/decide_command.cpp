@@ -270,21 +270,11 @@ void printEffectText(const Effect& effect) {
 
 int runDecide(int argc, char** argv, int first) {
     const std::vector<FlagSpec> specs = decideFlagSpecs();
-    bool wantsJson = false;
-    for (int i = first; i < argc; ++i) {
-        const std::string a = argv[i];
-        if (a == "--help" || a == "-h") {
-            std::printf("%s", usageText().c_str());
-            return kExitOk;
-        }
-        if (a == "--json")
-            wantsJson = true;
-    }
-    std::string parseError;
-    std::optional<ParsedArgs> args = parseArgs(argc, argv, first, specs, parseError);
-    if (!args)
-        return usageError(parseError, wantsJson, usageText());
-    const bool json = args->has("json");
+    CommandLine line = parseCommandLine(argc, argv, first, specs, usageText());
+    if (!line.args)
+        return line.exitCode;
+    const ParsedArgs* args = &*line.args;
+    const bool json = line.json;
     if (args->positional.size() != 2)
         return usageError("decide needs LEDGER and KIND", json, usageText());
     const std::string ledgerPath = args->positional[0];

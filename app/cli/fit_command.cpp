@@ -1,6 +1,6 @@
 // siftwave-cli fit FILE [--regions REG] (--region CODE | --all) [--measure NAME]
 //     [--model gumbel|logistic|richards|lognormal|best] [--method lsq|poisson|negbin]
-//     [--window FIRST:LAST|auto] [--wave largest|latest|N] [--json|--csv]
+//     [--window FIRST:LAST|auto] [--wave largest|latest|N] [--json [--curve]|--csv]
 #include "commands.h"
 #include "common.h"
 
@@ -38,8 +38,22 @@ json dateInterval(const fit::FitResult& f, const fit::Estimate& e) {
     return json::array({dateOrNull(f, e.lower), dateOrNull(f, e.upper)});
 }
 
+// One row per window day: the fitted incidence and its pointwise 95% interval (delta method,
+// fit.h step 5); lower/upper are null when the covariance is unavailable.
+json curveJson(const fit::FitResult& f) {
+    json rows = json::array();
+    const bool band = f.fittedLower.size() == f.fitted.size();
+    for (std::size_t i = 0; i < f.fitted.size(); ++i) {
+        rows.push_back({{"date", (f.windowFirst() + static_cast<int>(i)).iso()},
+                        {"fitted", number(f.fitted[i])},
+                        {"lower", band ? number(f.fittedLower[i]) : json(nullptr)},
+                        {"upper", band ? number(f.fittedUpper[i]) : json(nullptr)}});
+    }
+    return rows;
+}
+
 json fitJson(const std::string& region, const fit::FitResult& f,
-             const std::vector<fit::ModelComparisonRow>& comparison) {
+             const std::vector<fit::ModelComparisonRow>& comparison, bool withCurve) {
     json j;
     j["region"] = region;
     j["model"] = fit::modelName(f.model);
@@ -110,6 +124,8 @@ json fitJson(const std::string& region, const fit::FitResult& f,
         }
         j["comparison"] = rows;
     }
+    if (withCurve)
+        j["curve"] = curveJson(f);
     j["caution"] = fit::caution;
     return j;
 }
@@ -294,6 +310,9 @@ int runFit(int argc, char** argv, int first) {
                      "automatic window: largest (default), latest or N (1-based)"});
     specs.push_back({"weekday", false, false, "", "poisson/negbin: estimate weekday factors"});
     specs.push_back({"json", false, false, "", "print JSON"});
+    specs.push_back({"curve", false, false, "",
+                     "with --json: add \"curve\", the fitted incidence per window day with its "
+                     "pointwise 95% interval"});
     specs.push_back({"csv", false, false, "", "print CSV (RFC 4180), one row per region"});
     specs.push_back({"help", false, false, "", "show this help"});
     bool wantsJson = false;
@@ -320,6 +339,9 @@ int runFit(int argc, char** argv, int first) {
     const bool csv = args->has("csv");
     if (json && csv)
         return usage("--json and --csv exclude each other");
+    const bool withCurve = args->has("curve");
+    if (withCurve && !json)
+        return usage("--curve needs --json");
     if (args->positional.size() != 1)
         return usage("fit needs exactly one FILE");
     if (args->has("region") == args->has("all"))
@@ -460,12 +482,13 @@ int runFit(int argc, char** argv, int first) {
     }
     if (json) {
         if (single) {
-            printJson(fitJson(results[0].region, *results[0].fit, results[0].comparison));
+            printJson(
+                fitJson(results[0].region, *results[0].fit, results[0].comparison, withCurve));
         } else {
             nlohmann::json all = nlohmann::json::array();
             for (const auto& r : results) {
                 if (r.fit) {
-                    all.push_back(fitJson(r.region, *r.fit, r.comparison));
+                    all.push_back(fitJson(r.region, *r.fit, r.comparison, withCurve));
                 } else {
                     nlohmann::json e = {{"region", r.region}, {"error", errorToJson(*r.error)}};
                     all.push_back(e);

@@ -147,17 +147,15 @@ void printText(const Drop& drop) {
     }
 }
 
-void printUsage(std::FILE* to, const std::vector<FlagSpec>& specs) {
-    std::fprintf(
-        to,
-        "usage: siftwave-cli inspect FILE [ingest flags] [--json]\n\n"
-        "Reads a data drop (CSV) and reports what was read: the dialect, the layout, the columns\n"
-        "used, the regions (codes exactly as written), the calendar, the cells by state, "
-        "duplicate\n"
-        "rows and warnings. Exit codes: 0 read, 1 the file cannot be read as a drop, 2 wrong "
-        "usage.\n\n"
-        "options:\n%s",
-        formatFlags(specs).c_str());
+std::string usageText(const std::vector<FlagSpec>& specs) {
+    return "usage: siftwave-cli inspect FILE [ingest flags] [--json]\n\n"
+           "Reads a data drop (CSV) and reports what was read: the dialect, the layout, the columns\n"
+           "used, the regions (codes exactly as written), the calendar, the cells by state, "
+           "duplicate\n"
+           "rows and warnings. Exit codes: 0 read, 1 the file cannot be read as a drop, 2 wrong "
+           "usage.\n\n"
+           "options:\n" +
+           formatFlags(specs);
 }
 
 }  // namespace
@@ -166,33 +164,16 @@ int runInspect(int argc, char** argv, int first) {
     std::vector<FlagSpec> specs = ingestFlagSpecs();
     specs.push_back({"json", false, false, "", "print JSON instead of text"});
     specs.push_back({"help", false, false, "", "show this help"});
-    bool wantsJson = false;
-    for (int i = first; i < argc; ++i) {
-        const std::string a = argv[i];
-        if (a == "--help" || a == "-h") {
-            printUsage(stdout, specs);
-            return kExitOk;
-        }
-        if (a == "--json")
-            wantsJson = true;
-    }
-    std::string parseError;
-    std::optional<ParsedArgs> args = parseArgs(argc, argv, first, specs, parseError);
-    if (!args) {
-        printError(makeError(ErrorCode::Usage, parseError), wantsJson);
-        if (!wantsJson)
-            printUsage(stderr, specs);
-        return kExitUsage;
-    }
-    const bool json = args->has("json");
+    const std::string usage = usageText(specs);
+    CommandLine line = parseCommandLine(argc, argv, first, specs, usage);
+    if (!line.args)
+        return line.exitCode;
+    const ParsedArgs* args = &*line.args;
+    const bool json = line.json;
     if (args->positional.size() != 1) {
-        printError(makeError(ErrorCode::Usage, args->positional.empty()
-                                                   ? "inspect needs a FILE to read"
-                                                   : "inspect reads one FILE at a time"),
-                   json);
-        if (!json)
-            printUsage(stderr, specs);
-        return kExitUsage;
+        return usageError(args->positional.empty() ? "inspect needs a FILE to read"
+                                                   : "inspect reads one FILE at a time",
+                          json, usage);
     }
     Result<IngestOptions> options = ingestOptionsFrom(*args);
     if (!options) {

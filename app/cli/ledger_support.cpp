@@ -43,11 +43,4 @@ bool samePath(const std::string& a, const std::string& b) {
     return fs::weakly_canonical(a, ec) == fs::weakly_canonical(b, ec);
 }
 
-int usageError(const std::string& message, bool json, const std::string& usage) {
-    printError(makeError(ErrorCode::Usage, message), json);
-    if (!json)
-        std::fprintf(stderr, "\n%s", usage.c_str());
-    return kExitUsage;
-}
-
 }  // namespace siftwave::cli

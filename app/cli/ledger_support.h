@@ -27,7 +27,4 @@ nlohmann::json entryToJsonObject(const LedgerEntry& entry);
 /// True when two paths name the same file (or the same not-yet-existing path).
 bool samePath(const std::string& a, const std::string& b);
 
-/// Prints a usage error (and the usage text on stderr without --json); returns kExitUsage.
-int usageError(const std::string& message, bool json, const std::string& usage);
-
 }  // namespace siftwave::cli

@@ -5,28 +5,31 @@
 
 #include "siftwave/scan/scan.h"
 
+#include <algorithm>
 #include <cstdio>
 #include <string>
 
 namespace siftwave::cli {
 namespace {
 
-void printUsage(std::FILE* to, const std::vector<FlagSpec>& specs) {
-    std::fprintf(to,
-                 "usage: siftwave-cli scan FILE [--previous FILE] [--regions FILE] "
-                 "[--set NAME=VALUE]... [ingest flags] [--json]\n\n"
-                 "Scans a data drop for missing dates, duplicate rows, negative counts, backlog "
-                 "dumps,\nreporting gaps, stale values, code problems, weekday effects, "
-                 "cumulative decreases,\nhierarchy mismatches and (with --previous) revisions. "
-                 "Findings are ranked: the ones\nthat would change a briefing come first. The "
-                 "previous drop is read with the same ingest\nflags. Exit codes: 0 scanned (with "
-                 "or without findings), 1 an input cannot be read,\n2 wrong usage.\n\n"
-                 "options:\n%s\nscan settings for --set (default in brackets):\n",
-                 formatFlags(specs).c_str());
+std::string usageText(const std::vector<FlagSpec>& specs) {
+    std::string text =
+        "usage: siftwave-cli scan FILE [--previous FILE] [--regions FILE] "
+        "[--set NAME=VALUE]... [ingest flags] [--json]\n\n"
+        "Scans a data drop for missing dates, duplicate rows, negative counts, backlog "
+        "dumps,\nreporting gaps, stale values, code problems, weekday effects, "
+        "cumulative decreases,\nhierarchy mismatches and (with --previous) revisions. "
+        "Findings are ranked: the ones\nthat would change a briefing come first. The "
+        "previous drop is read with the same ingest\nflags. Exit codes: 0 scanned (with "
+        "or without findings), 1 an input cannot be read,\n2 wrong usage.\n\n"
+        "options:\n" +
+        formatFlags(specs) + "\nscan settings for --set (default in brackets):\n";
     for (const scan::OptionDescription& d : scan::describeScanOptions()) {
-        std::fprintf(to, "  %-38s %s [%s]\n", d.name.c_str(), d.help.c_str(),
-                     d.defaultValue.c_str());
+        std::string name = d.name;
+        name.resize(std::max<std::size_t>(name.size(), 38), ' ');
+        text += "  " + name + " " + d.help + " [" + d.defaultValue + "]\n";
     }
+    return text;
 }
 
 std::string dates(const scan::Finding& f) {
@@ -82,29 +85,16 @@ int runScan(int argc, char** argv, int first) {
                      "change a scan setting, e.g. backlog_dump.min_excess=50"});
     specs.push_back({"json", false, false, "", "print JSON instead of a table"});
     specs.push_back({"help", false, false, "", "show this help and the scan settings"});
-    bool wantsJson = false;
-    for (int i = first; i < argc; ++i) {
-        const std::string a = argv[i];
-        if (a == "--help" || a == "-h") {
-            printUsage(stdout, specs);
-            return kExitOk;
-        }
-        if (a == "--json")
-            wantsJson = true;
-    }
-    std::string parseError;
-    std::optional<ParsedArgs> args = parseArgs(argc, argv, first, specs, parseError);
-    if (!args) {
-        printError(makeError(ErrorCode::Usage, parseError), wantsJson);
-        return kExitUsage;
-    }
-    const bool json = args->has("json");
+    const std::string usage = usageText(specs);
+    CommandLine line = parseCommandLine(argc, argv, first, specs, usage);
+    if (!line.args)
+        return line.exitCode;
+    const ParsedArgs* args = &*line.args;
+    const bool json = line.json;
     if (args->positional.size() != 1) {
-        printError(
-            makeError(ErrorCode::Usage, args->positional.empty() ? "scan needs a FILE to read"
-                                                                 : "scan reads one FILE at a time"),
-            json);
-        return kExitUsage;
+        return usageError(args->positional.empty() ? "scan needs a FILE to read"
+                                                   : "scan reads one FILE at a time",
+                          json, usage);
     }
     scan::ScanOptions options;
     for (const std::string& setting : args->values("set")) {

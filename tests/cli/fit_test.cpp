@@ -6,6 +6,7 @@
 #include <nlohmann/json.hpp>
 
 #include <sys/wait.h>
+#include <algorithm>
 #include <array>
 #include <cstdio>
 #include <cstdlib>
@@ -126,6 +127,33 @@ TEST(CliFit, ExplicitWindowIsUsed) {
     const auto j = nlohmann::json::parse(r.out);
     EXPECT_EQ(j["window"]["first"], "2026-06-01");
     EXPECT_EQ(j["window"]["last"], "2026-09-30");
+}
+
+// --curve adds the fitted incidence per window day with its pointwise 95% interval
+// (fit.h step 5); without --json it is a usage error.
+TEST(CliFit, CurveGivesEveryWindowDayWithItsInterval) {
+    const CliRun r = run(kDrop + " --region KV --window 2026-06-01:2026-09-30 --json --curve");
+    ASSERT_EQ(r.exitCode, 0) << r.out;
+    const auto j = nlohmann::json::parse(r.out);
+    ASSERT_TRUE(j.contains("curve"));
+    const auto& curve = j["curve"];
+    ASSERT_EQ(curve.size(), 122u);  // June 1 .. September 30
+    EXPECT_EQ(curve.front()["date"], "2026-06-01");
+    EXPECT_EQ(curve.back()["date"], "2026-09-30");
+    double widest = 0;
+    for (const auto& day : curve) {
+        const double f = day["fitted"], lo = day["lower"], hi = day["upper"];
+        EXPECT_LE(lo, f);
+        EXPECT_GE(hi, f);
+        EXPECT_GE(lo, 0.0);
+        widest = std::max(widest, hi - lo);
+    }
+    EXPECT_GT(widest, 0.0);
+    EXPECT_EQ(j["caution"], siftwave::fit::caution);
+    // Without --curve the field is absent; --curve alone is wrong usage.
+    const auto plain = nlohmann::json::parse(run(kDrop + " --region KV --json").out);
+    EXPECT_FALSE(plain.contains("curve"));
+    EXPECT_EQ(run(kDrop + " --region KV --curve").exitCode, 2);
 }
 
 // --ledger: the fit reads the cleaned series from replay(drop, ledger). An exclusion of ten

@@ -21,7 +21,21 @@
 //      log-likelihood). Intervals are estimate +- q se, q the 97.5% Student-t quantile with
 //      n - p degrees of freedom (LSQ) or the normal quantile (likelihood). Derived quantities
 //      get their standard errors by the delta method (numerical gradient).
-//   5. goodness of fit: R^2 and RMSE on the fitted target; AIC = -2 ln L + 2k and
+//   5. the fitted curve's pointwise interval (FitResult::fittedLower/fittedUpper, curveBand()):
+//      the delta method applied to the incidence itself, h(theta) = K f(t; theta):
+//          var(h(t)) ~= g(t)^T Cov g(t),   g(t) = d (K f(t)) / d theta at the estimate,
+//      g the model's analytic Jacobian (models.h), Cov the covariance of step 4 (the sandwich for
+//      LSQ, the inverse observed information for likelihood fits), and the interval
+//      h(t) +- q sqrt(var) with the same quantile q as the parameter intervals (Student t with
+//      n - p degrees of freedom for LSQ, normal for likelihood), cut at 0 below (incidence
+//      cannot be negative; the cut keeps the coverage). Weekday factors, where estimated, scale
+//      the fitted value and its interval and are treated as known (their own uncertainty is not
+//      included). This is a confidence interval of the *mean* curve, not a prediction interval
+//      for daily counts (those scatter far more). Sources: D. M. Bates & D. G. Watts,
+//      "Nonlinear Regression Analysis and Its Applications" (1988), section 2.3 (approximate
+//      inference bands for the expected response); G. Casella & R. L. Berger, "Statistical
+//      Inference", 2nd ed. (2002), section 5.5.4 (the delta method) -- both cited from memory.
+//   6. goodness of fit: R^2 and RMSE on the fitted target; AIC = -2 ln L + 2k and
 //      AICc = AIC + 2k(k+1)/(n-k-1) (Burnham & Anderson, "Model Selection and Multimodel
 //      Inference", 2nd ed. 2002, sections 2.2 and 2.4), with the Gaussian likelihood for LSQ
 //      (k counts the variance). Compare AIC only between fits of the same window and target.
@@ -155,7 +169,15 @@ struct FitResult {
     GoodnessOfFit goodness;
     FitSummary summary;
     std::vector<double> fitted;  // model incidence for each window day (weekday factors applied)
-    std::vector<Wave> waves;     // every wave detected in the series
+    // Covariance of the model parameters (names() order), row-major p x p; empty when not
+    // available (singular information).
+    std::vector<double> covariance;
+    // Pointwise 95% confidence interval of the fitted incidence for each window day (same length
+    // as `fitted`), by the delta method: var(f(t)) = g(t)^T Cov g(t), g = d f / d theta (see
+    // step 5 above). Empty when the covariance is unavailable.
+    std::vector<double> fittedLower;
+    std::vector<double> fittedUpper;
+    std::vector<Wave> waves;  // every wave detected in the series
     FitOptions options;
 
     Date windowFirst() const { return seriesFirstDay + first; }
@@ -177,6 +199,20 @@ struct DailySeries {
 /// summary saying so.
 Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& options = {},
                             std::optional<double> population = std::nullopt);
+
+/// The fitted incidence and its pointwise interval on days firstDay..lastDay (day indices into
+/// the series, may extend past the window, e.g. to draw the curve over the whole plot).
+struct CurveBand {
+    int first = 0;               // day index of values[0]
+    std::vector<double> fitted;  // the wave itself, K f(t): no weekday factors (draw this)
+    std::vector<double> lower;   // empty when the covariance is unavailable
+    std::vector<double> upper;
+};
+
+/// The band of step 5 (fit.h header) at confidence `level` (0 < level < 1; 0.95 matches the
+/// parameter intervals). Usage errors: level outside (0, 1), lastDay < firstDay, more than
+/// 100,000 days, or a fit without parameters.
+Result<CurveBand> curveBand(const FitResult& fit, int firstDay, int lastDay, double level = 0.95);
 
 struct ModelComparisonRow {
     ModelKind model = ModelKind::Gumbel;

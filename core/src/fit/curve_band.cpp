@@ -1,0 +1,92 @@
+#include "fit/curve_band.h"
+
+#include <boost/math/distributions/normal.hpp>
+#include <boost/math/distributions/students_t.hpp>
+
+#include <algorithm>
+#include <cmath>
+#include <string>
+#include <vector>
+
+namespace siftwave::fit {
+namespace detail {
+
+double intervalQuantile(FitMethod method, int dof, double level) {
+    const double tail = 0.5 + 0.5 * level;
+    if (method == FitMethod::LeastSquares && dof > 0) {
+        if (level == 0.95 && dof < 4096) {
+            thread_local std::vector<double> cache;  // by degrees of freedom (costly to compute)
+            if (cache.size() <= static_cast<std::size_t>(dof))
+                cache.resize(static_cast<std::size_t>(dof) + 1, 0.0);
+            double& q = cache[static_cast<std::size_t>(dof)];
+            if (q == 0.0)
+                q = boost::math::quantile(boost::math::students_t(static_cast<double>(dof)), tail);
+            return q;
+        }
+        return boost::math::quantile(boost::math::students_t(static_cast<double>(dof)), tail);
+    }
+    return boost::math::quantile(boost::math::normal(), tail);
+}
+
+bool covarianceUsable(std::span<const double> covariance, int p) {
+    return p > 0 && covariance.size() == static_cast<std::size_t>(p * p) &&
+           std::all_of(covariance.begin(), covariance.end(),
+                       [](double v) { return std::isfinite(v); });
+}
+
+void deltaMethodBand(std::span<const double> value, std::span<const double> jacobian,
+                     std::span<const double> covariance, int p, double q, std::span<double> lower,
+                     std::span<double> upper) {
+    const std::size_t np = static_cast<std::size_t>(p);
+    for (std::size_t i = 0; i < value.size(); ++i) {
+        const double* g = &jacobian[i * np];
+        double var = 0;
+        for (std::size_t a = 0; a < np; ++a) {
+            double row = 0;
+            for (std::size_t b = 0; b < np; ++b)
+                row += covariance[a * np + b] * g[b];
+            var += g[a] * row;
+        }
+        const double half = q * std::sqrt(std::max(var, 0.0));  // >= 0 up to rounding
+        lower[i] = std::max(0.0, value[i] - half);
+        upper[i] = value[i] + half;
+    }
+}
+
+}  // namespace detail
+
+Result<CurveBand> curveBand(const FitResult& fit, int firstDay, int lastDay, double level) {
+    if (!(level > 0 && level < 1))
+        return makeError(ErrorCode::Usage, "the band's confidence level must lie in (0, 1)");
+    if (lastDay < firstDay)
+        return makeError(ErrorCode::Usage, "the band's last day lies before its first day");
+    if (static_cast<long long>(lastDay) - firstDay >= 100000)
+        return makeError(ErrorCode::Usage, "the band spans more than 100,000 days");
+    const WaveModel& model = waveModel(fit.model);
+    const int np = model.parameterCount();
+    const std::vector<double> p = fit.parameterValues();
+    if (static_cast<int>(p.size()) != np || !model.valid(p))
+        return makeError(ErrorCode::Usage, "the fit has no valid parameters to draw a band from");
+
+    const std::size_t days = static_cast<std::size_t>(lastDay - firstDay) + 1;
+    CurveBand band;
+    band.first = firstDay;
+    band.fitted.resize(days);
+    std::vector<double> t(days);
+    for (std::size_t i = 0; i < days; ++i)
+        t[i] = static_cast<double>(firstDay - fit.first) + static_cast<double>(i);
+    if (!detail::covarianceUsable(fit.covariance, np)) {
+        model.incidence(t, p, band.fitted);
+        return band;
+    }
+    std::vector<double> jacobian(days * static_cast<std::size_t>(np));
+    model.incidence(t, p, band.fitted, jacobian);
+    const int dof = fit.goodness.observations - np;
+    const double q = detail::intervalQuantile(fit.method, dof, level);
+    band.lower.resize(days);
+    band.upper.resize(days);
+    detail::deltaMethodBand(band.fitted, jacobian, fit.covariance, np, q, band.lower, band.upper);
+    return band;
+}
+
+}  // namespace siftwave::fit
