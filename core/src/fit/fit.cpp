@@ -1,6 +1,7 @@
 #include "siftwave/fit/fit.h"
 
 #include "fit/curve_band.h"
+#include "fit/gram.h"
 #include "fit/likelihood.h"
 #include "fit/smoothed_least_squares.h"
 #include "siftwave/series/smoothing.h"
@@ -252,6 +253,8 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
 
     // Starting values from the centred average over the window.
     std::vector<double> tAll, yAll;
+    tAll.reserve(static_cast<std::size_t>(res.last - res.first + 1));
+    yAll.reserve(static_cast<std::size_t>(res.last - res.first + 1));
     for (int i = res.first; i <= res.last; ++i) {
         tAll.push_back(i - res.first);
         yAll.push_back(smoothedPartial[static_cast<std::size_t>(i)]);
@@ -265,10 +268,21 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     std::vector<double> params;
     std::vector<double> covariance;  // model parameters, np x np
     int dof = 0;
+    // The model and its Jacobian on every window day and, for LSQ, the h days either side that
+    // the centred average reaches: shared by the sandwich, the fitted curve and its band.
+    const std::vector<double> kernel = centredKernel(o.smoothingWindow);
+    const int h = o.method == FitMethod::LeastSquares ? static_cast<int>(kernel.size()) / 2 : 0;
+    const int modelFirst = res.first - h;
+    const std::size_t modelDays = static_cast<std::size_t>(res.last - res.first + 1 + 2 * h);
+    std::vector<double> modelValues(modelDays),
+        modelJacobian(modelDays * static_cast<std::size_t>(np));
     if (o.method == FitMethod::LeastSquares) {
         // Target: the centred average where its window lies inside the series.
         const int half = o.smoothingWindow / 2;
         std::vector<double> t, y, w;
+        t.reserve(tAll.size());
+        y.reserve(tAll.size());
+        w.reserve(tAll.size());
         for (int i = std::max(res.first, half); i <= std::min(res.last, n - 1 - half); ++i) {
             const double v = smoothedPartial[static_cast<std::size_t>(i)];
             if (!std::isfinite(v))
@@ -280,8 +294,7 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
         if (static_cast<int>(t.size()) <= np + 1) {
             return makeError(ErrorCode::NotFound, "the window has too few days for this model");
         }
-        SmoothedLeastSquares problem(model, t, y, w, centredKernel(o.smoothingWindow),
-                                     res.last - res.first + 1);
+        SmoothedLeastSquares problem(model, t, y, w, kernel, res.last - res.first + 1);
         const SolverResult sr = solveLeastSquares(problem, *start, o.solver);
         if (sr.summary.termination == Termination::InvalidStart) {
             return makeError(ErrorCode::Numerical, "the model cannot be evaluated at its start");
@@ -293,44 +306,36 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
         res.summary.message = sr.summary.message;
         const int m = static_cast<int>(t.size());
         dof = m - np;
+        model.incidenceOnDays(modelFirst - res.first, params, modelValues, modelJacobian);
 
-        // Sandwich covariance through the smoothing operator (see fit.h).
+        // Sandwich covariance through the smoothing operator (see fit.h, step 4), from the
+        // solver's residuals and Jacobian at the solution.
         covariance.assign(static_cast<std::size_t>(np * np), kNaN);
         if (sr.covarianceAvailable) {
-            std::vector<double> jac(static_cast<std::size_t>(m * np)),
-                r(static_cast<std::size_t>(m));
-            problem.evaluate(params, r, jac);
-            const std::vector<double> kernel = centredKernel(o.smoothingWindow);
-            const int h = static_cast<int>(kernel.size()) / 2;
-            const int kFirst = res.first - h, kLast = res.last + h;
-            Matrix G = Matrix::Zero(kLast - kFirst + 1, np);
+            // G row k: the weighted Jacobian rows smoothed back onto model day k.
+            const std::size_t npu = static_cast<std::size_t>(np);
+            std::vector<double> G(modelDays * npu, 0.0);
             for (int i = 0; i < m; ++i) {
-                const int day = res.first + static_cast<int>(t[static_cast<std::size_t>(i)]);
-                for (int k = -h; k <= h; ++k) {
-                    const double a = kernel[static_cast<std::size_t>(k + h)];
-                    for (int j = 0; j < np; ++j) {
-                        G(day + k - kFirst, j) += a * w[static_cast<std::size_t>(i)] *
-                                                  jac[static_cast<std::size_t>(i * np + j)];
-                    }
+                // Target day t_i is model day t_i + h; its average reaches t_i .. t_i + 2h.
+                const std::size_t from = static_cast<std::size_t>(t[static_cast<std::size_t>(i)]);
+                const double* row = &sr.jacobian[static_cast<std::size_t>(i) * npu];
+                for (std::size_t k = 0; k < kernel.size(); ++k) {
+                    const double a = kernel[k];
+                    double* g = &G[(from + k) * npu];
+                    for (std::size_t j = 0; j < npu; ++j)
+                        g[j] += a * row[j];
                 }
             }
-            Matrix meat = Matrix::Zero(np, np);
-            std::vector<double> fk(static_cast<std::size_t>(kLast - kFirst + 1));
-            model.incidenceOnDays(kFirst - res.first, params, fk);
-            for (int k = std::max(kFirst, 0); k <= std::min(kLast, n - 1); ++k) {
+            // Squared raw-count residuals e_k^2 (0 where the day is missing or outside the series).
+            std::vector<double> e2(modelDays, 0.0);
+            for (int k = std::max(modelFirst, 0); k <= std::min(res.last + h, n - 1); ++k) {
                 const double x = counts[static_cast<std::size_t>(k)];
-                if (!std::isfinite(x))
-                    continue;
-                const double e = x - fk[static_cast<std::size_t>(k - kFirst)];
-                for (int a = 0; a < np; ++a) {
-                    for (int b = 0; b <= a; ++b)
-                        meat(a, b) += G(k - kFirst, a) * G(k - kFirst, b) * e * e;
-                }
+                const std::size_t d = static_cast<std::size_t>(k - modelFirst);
+                if (std::isfinite(x))
+                    e2[d] = (x - modelValues[d]) * (x - modelValues[d]);
             }
-            for (int a = 0; a < np; ++a) {
-                for (int b = a + 1; b < np; ++b)
-                    meat(a, b) = meat(b, a);
-            }
+            Matrix meat(np, np);  // sum_k e_k^2 g_k g_k^T
+            detail::gram(G.data(), modelDays, npu, e2, {}, meat.data(), nullptr);
             meat *= static_cast<double>(m) / std::max(1, m - np);  // HC1 small-sample factor
             const Eigen::Map<
                 const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>
@@ -342,18 +347,17 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
             }
         }
 
-        // Goodness of fit on the smoothed target.
+        // Goodness of fit on the smoothed target; the solver's residuals are w_i (A f - y)_i.
         double rss = 0, wrss = 0, mean = 0;
         for (double v : y)
             mean += v;
         mean /= m;
         double tss = 0;
-        std::vector<double> f(static_cast<std::size_t>(m));
-        problem.evaluate(params, f, {});  // w_i (A f - y)_i
         for (int i = 0; i < m; ++i) {
-            const double e = -f[static_cast<std::size_t>(i)] / w[static_cast<std::size_t>(i)];
+            const double wi = w[static_cast<std::size_t>(i)];
+            const double e = -sr.residuals[static_cast<std::size_t>(i)] / wi;
             rss += e * e;
-            wrss += e * e * w[static_cast<std::size_t>(i)] * w[static_cast<std::size_t>(i)];
+            wrss += e * e * wi * wi;
             tss +=
                 (y[static_cast<std::size_t>(i)] - mean) * (y[static_cast<std::size_t>(i)] - mean);
         }
@@ -379,6 +383,7 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
         res.summary.message = lf.summary.message;
         res.goodness = lf.goodness;
         dof = res.goodness.observations - np;
+        model.incidenceOnDays(0.0, params, modelValues, modelJacobian);
     }
 
     // Parameters with intervals.
@@ -394,17 +399,17 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     // Fitted incidence over the window and its delta-method band (fit.h, step 5).
     const bool haveCov = detail::covarianceUsable(covariance, np);
     const std::size_t windowDays = static_cast<std::size_t>(res.last - res.first + 1);
-    res.fitted.resize(windowDays);
+    const std::size_t hu = static_cast<std::size_t>(h);
+    res.fitted.assign(modelValues.begin() + static_cast<std::ptrdiff_t>(hu),
+                      modelValues.begin() + static_cast<std::ptrdiff_t>(hu + windowDays));
     if (haveCov) {
         res.covariance = covariance;
-        std::vector<double> jacobian(windowDays * static_cast<std::size_t>(np));
-        model.incidence(tAll, params, res.fitted, jacobian);
         res.fittedLower.resize(windowDays);
         res.fittedUpper.resize(windowDays);
-        detail::deltaMethodBand(res.fitted, jacobian, covariance, np, q, res.fittedLower,
-                                res.fittedUpper);
-    } else {
-        model.incidence(tAll, params, res.fitted);
+        detail::deltaMethodBand(
+            res.fitted,
+            std::span<const double>(modelJacobian).subspan(hu * static_cast<std::size_t>(np)),
+            covariance, np, q, res.fittedLower, res.fittedUpper);
     }
     if (!res.weekdayFactors.empty()) {
         for (int i = res.first; i <= res.last; ++i) {

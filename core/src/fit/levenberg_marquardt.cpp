@@ -1,5 +1,7 @@
 #include "siftwave/fit/levenberg_marquardt.h"
 
+#include "fit/gram.h"
+
 #include <Eigen/Dense>
 
 #include <algorithm>
@@ -13,12 +15,12 @@ namespace {
 using Matrix = Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>;
 using Vector = Eigen::VectorXd;
 
+// v * 0 is 0 for finite v and NaN for NaN or +-Inf, so one sum tells (branch-free, vectorised).
 bool allFinite(const double* v, std::size_t n) {
-    for (std::size_t i = 0; i < n; ++i) {
-        if (!std::isfinite(v[i]))
-            return false;
-    }
-    return true;
+    double s = 0.0;
+    for (std::size_t i = 0; i < n; ++i)
+        s += v[i] * 0.0;
+    return s == 0.0;
 }
 
 // Residuals and Jacobian at x, analytic or by central differences.
@@ -87,11 +89,55 @@ private:
     std::vector<double> m_scratch2;
 };
 
-void fillCovariance(const Matrix& J, SolverResult& result) {
+// (J^T J)^-1 from the Cholesky factor of the column-scaled normal matrix when its condition
+// number is at most 1e8 (cond(J) <= 1e4: the normal equations then lose at most ~1e-8 of
+// relative accuracy); false otherwise, and the caller uses the rank-revealing QR below.
+bool covarianceFromNormalEquations(const Matrix& J, SolverResult& result) {
+    const Eigen::Index n = J.cols();
+    Matrix A(n, n);
+    detail::gram(J.data(), static_cast<std::size_t>(J.rows()), static_cast<std::size_t>(n), {}, {},
+                 A.data(), nullptr);
+    Vector scale(n);
+    for (Eigen::Index a = 0; a < n; ++a) {
+        if (!(A(a, a) > 0) || !std::isfinite(A(a, a)))
+            return false;
+        scale[a] = std::sqrt(A(a, a));
+    }
+    for (Eigen::Index a = 0; a < n; ++a) {
+        for (Eigen::Index b = 0; b <= a; ++b) {
+            A(a, b) /= scale[a] * scale[b];
+            A(b, a) = A(a, b);
+        }
+    }
+    const Eigen::SelfAdjointEigenSolver<Matrix> eigen(A, Eigen::EigenvaluesOnly);
+    if (eigen.info() != Eigen::Success)
+        return false;
+    const Vector& lambda = eigen.eigenvalues();  // ascending
+    if (!(lambda[0] >= 1e-8 * lambda[n - 1]))
+        return false;
+    const Eigen::LLT<Matrix> llt(A);
+    if (llt.info() != Eigen::Success)
+        return false;
+    const Matrix inverse = llt.solve(Matrix::Identity(n, n));
+    const auto nu = static_cast<std::size_t>(n);
+    for (std::size_t a = 0; a < nu; ++a) {
+        for (std::size_t b = 0; b < nu; ++b) {
+            result.unscaledCovariance[a * nu + b] =
+                inverse(static_cast<Eigen::Index>(a), static_cast<Eigen::Index>(b)) /
+                (scale[static_cast<Eigen::Index>(a)] * scale[static_cast<Eigen::Index>(b)]);
+        }
+    }
+    result.covarianceAvailable = allFinite(result.unscaledCovariance.data(), nu * nu);
+    return result.covarianceAvailable;
+}
+
+void fillCovariance(const Matrix& J, LinearSolver solver, SolverResult& result) {
     const auto n = static_cast<std::size_t>(J.cols());
     result.unscaledCovariance.assign(n * n, std::numeric_limits<double>::quiet_NaN());
     result.covarianceAvailable = false;
     if (J.rows() < J.cols())
+        return;
+    if (solver == LinearSolver::NormalEquations && covarianceFromNormalEquations(J, result))
         return;
     // Column scaling first, so that parameters of very different sizes do not fake a rank loss.
     Vector scale = J.colwise().norm().transpose();
@@ -216,20 +262,10 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
             // R from the Cholesky factor of J^T J and Q^T r = R^-T J^T r: the same small system
             // at a fraction of the cost; QR when J^T J is not numerically positive definite.
             // J^T J and J^T r by plain loops over the rows (tall, thin J: cheaper than GEMM).
-            Matrix A = Matrix::Zero(n, n);
-            Vector g = Vector::Zero(n);
-            for (Eigen::Index i = 0; i < m; ++i) {
-                const double* row = J.data() + i * n;
-                for (Eigen::Index a = 0; a < n; ++a) {
-                    g[a] += row[a] * r[i];
-                    for (Eigen::Index b = 0; b <= a; ++b)
-                        A(a, b) += row[a] * row[b];
-                }
-            }
-            for (Eigen::Index a = 0; a < n; ++a) {
-                for (Eigen::Index b = a + 1; b < n; ++b)
-                    A(a, b) = A(b, a);
-            }
+            Matrix A(n, n);
+            Vector g(n);
+            detail::gram(J.data(), static_cast<std::size_t>(m), static_cast<std::size_t>(n), {},
+                         {r.data(), static_cast<std::size_t>(m)}, A.data(), g.data());
             const Eigen::LLT<Matrix> llt(A);
             if (llt.info() == Eigen::Success) {
                 R = llt.matrixU();
@@ -367,7 +403,8 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
     summary.finalCost = cost;
     result.parameters.assign(x.data(), x.data() + n);
     result.residuals.assign(r.data(), r.data() + m);
-    fillCovariance(J, result);
+    result.jacobian.assign(J.data(), J.data() + J.size());
+    fillCovariance(J, options.linearSolver, result);
     if (summary.message.empty()) {
         summary.message = summary.converged() ? "converged" : "stopped before convergence";
     }

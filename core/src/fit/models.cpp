@@ -59,6 +59,9 @@ struct GuessData {
 
 std::optional<GuessData> prepareGuess(std::span<const double> t, std::span<const double> y) {
     GuessData d;
+    d.t.reserve(t.size());
+    d.y.reserve(t.size());
+    d.cumulative.reserve(t.size());
     double running = 0;
     for (std::size_t i = 0; i < t.size() && i < y.size(); ++i) {
         if (!std::isfinite(y[i]) || !std::isfinite(t[i]))
@@ -121,6 +124,8 @@ std::optional<Line> linearisedAt(const GuessData& d, double size, Transform tran
     for (double c : d.cumulative)
         inRange += (c / size > 0.02 && c / size < 0.98) ? 1 : 0;
     const std::size_t stride = std::max<std::size_t>(1, inRange / 30);
+    xs.reserve(inRange / stride + 1);
+    ys.reserve(inRange / stride + 1);
     std::size_t seen = 0;
     for (std::size_t i = 0; i < d.t.size(); ++i) {
         const double q = d.cumulative[i] / size;
@@ -199,19 +204,20 @@ public:
     void incidenceOnDays(double t0, std::span<const double> p, std::span<double> out,
                          std::span<double> jac) const override {
         const double K = p[0], mu = p[1], beta = p[2];
-        const double step = std::exp(-1.0 / beta);
+        const double invBeta = 1.0 / beta, invK = 1.0 / K, scale = K / beta;
+        const double step = std::exp(-invBeta);
         double u = 0;
         for (std::size_t i = 0; i < out.size(); ++i) {
             const double t = t0 + static_cast<double>(i);
-            const double z = (t - mu) / beta;
+            const double z = (t - mu) * invBeta;
             u = (i % 32 == 0) ? std::exp(-z) : u * step;
-            const double f = std::isfinite(u) ? K / beta * u * std::exp(-u) : 0.0;
+            const double f = std::isfinite(u) ? scale * u * std::exp(-u) : 0.0;
             out[i] = f;
             if (!jac.empty()) {
                 double* row = &jac[3 * i];
-                row[0] = f / K;
-                row[1] = f == 0.0 ? 0.0 : f * (1.0 - u) / beta;
-                row[2] = f == 0.0 ? 0.0 : f * (z * (1.0 - u) - 1.0) / beta;
+                row[0] = f * invK;
+                row[1] = f == 0.0 ? 0.0 : f * (1.0 - u) * invBeta;
+                row[2] = f == 0.0 ? 0.0 : f * (z * (1.0 - u) - 1.0) * invBeta;
             }
         }
     }

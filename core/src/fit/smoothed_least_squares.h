@@ -29,13 +29,15 @@ inline std::vector<double> centredKernel(int window) {
 // parameters keep their meaning (no smoothing bias in the peak or the width).
 class SmoothedLeastSquares final : public LeastSquaresProblem {
 public:
-    SmoothedLeastSquares(const WaveModel& model, std::vector<double> t, std::vector<double> y,
-                         std::vector<double> w, std::vector<double> kernel, int span)
+    // The spans are kept, not copied: they must outlive the problem.
+    SmoothedLeastSquares(const WaveModel& model, std::span<const double> t,
+                         std::span<const double> y, std::span<const double> w,
+                         std::span<const double> kernel, int span)
         : m_model(model),
-          m_t(std::move(t)),
-          m_y(std::move(y)),
-          m_w(std::move(w)),
-          m_kernel(std::move(kernel)),
+          m_t(t),
+          m_y(y),
+          m_w(w),
+          m_kernel(kernel),
           m_h(static_cast<int>(m_kernel.size()) / 2) {
         // Model days: every day from t_0 - h to t_last + h (the window spans `span` days).
         m_days = static_cast<std::size_t>(span + 2 * m_h);
@@ -137,7 +139,7 @@ private:
     }
 
     const WaveModel& m_model;
-    std::vector<double> m_t, m_y, m_w, m_kernel;
+    std::span<const double> m_t, m_y, m_w, m_kernel;
     int m_h;
     std::size_t m_days = 0;
 };

@@ -14,7 +14,11 @@
 // Problems", 2nd ed., DTU, section 3.2 (the damping update).
 //
 // At the solution, the unscaled covariance (J^T J)^-1 is returned; multiplied by
-// s^2 = 2 cost / (m - n) it is the usual asymptotic covariance of the estimates.
+// s^2 = 2 cost / (m - n) it is the usual asymptotic covariance of the estimates. It comes from a
+// column-pivoted QR of the column-scaled J (rank-revealing); with LinearSolver::NormalEquations
+// it comes from the Cholesky factor of the column-scaled J^T J instead when that is well
+// conditioned (condition number <= 1e8, i.e. cond(J) <= 1e4, so at most ~1e-8 of relative
+// accuracy is lost), and from the QR otherwise.
 //
 // The solver is compiled once; problems implement LeastSquaresProblem. Eigen stays inside.
 
@@ -92,6 +96,8 @@ struct SolverSummary {
 struct SolverResult {
     std::vector<double> parameters;
     std::vector<double> residuals;
+    /// dr/dx at the solution, row-major m x n (the Jacobian the covariance comes from).
+    std::vector<double> jacobian;
     /// (J^T J)^-1 at the solution, row-major n x n; NaN when J is rank-deficient.
     std::vector<double> unscaledCovariance;
     bool covarianceAvailable = false;
