@@ -171,6 +171,7 @@ SeriesView seriesViewFromSpec(const report::FigureSpec& spec) {
         curve.mid = spec.fit->mid;
         curve.low = spec.fit->low;
         curve.high = spec.fit->high;
+        curve.bandLabel = qs(spec.fit->bandLabel);
         view.fit = curve;
         using IndexRange = decltype(view.fitWindow)::value_type;
         view.fitWindow =
