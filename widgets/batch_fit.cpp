@@ -78,6 +78,7 @@ BatchFitView::BatchFitView(QWidget* parent)
            "in the background"));
     m_summary->setObjectName(QStringLiteral("batchFitSummary"));
     m_summary->setWordWrap(true);
+    m_rows->setTextColumns({1, 6});  // name and status
     m_proxy->setSourceModel(m_rows);
     m_proxy->setSortRole(TextTableModel::SortRole);
     m_view->setObjectName(QStringLiteral("batchFitTable"));
@@ -122,6 +123,7 @@ void BatchFitView::setOutcome(const BatchFitOutcome& outcome,
     QVector<TextTableModel::Row> rows;
     int failed = 0;
     int unconverged = 0;
+    QStringList failedCodes;
     for (const fit::RegionFit& r : outcome.fits) {
         const QString code = QString::fromStdString(r.region);
         const auto name = names.find(r.region);
@@ -130,6 +132,7 @@ void BatchFitView::setOutcome(const BatchFitOutcome& outcome,
         TextTableModel::Row row;
         if (!r.fit) {
             ++failed;
+            failedCodes << code;
             const QString why = r.error ? QString::fromStdString(r.error->message) : tr("no fit");
             row.cells = {code,
                          nameText,
@@ -191,7 +194,10 @@ void BatchFitView::setOutcome(const BatchFitOutcome& outcome,
     QString summary = tr("%1: %n region(s) in %2 s", nullptr, static_cast<int>(outcome.fits.size()))
                           .arg(what, number(outcome.seconds, 3));
     if (failed)
-        summary += tr(", %n failed", nullptr, failed);
+        summary += tr(", %n failed", nullptr, failed) +
+                   QStringLiteral(" (%1)").arg(
+                       failedCodes.mid(0, 5).join(QStringLiteral(", ")) +
+                       (failedCodes.size() > 5 ? QStringLiteral(", …") : QString()));
     if (unconverged)
         summary += tr(", %n not converged", nullptr, unconverged);
     if (outcome.cancelled)

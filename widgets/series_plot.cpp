@@ -8,6 +8,7 @@
 #include <QLabel>
 #include <QMenu>
 #include <QMouseEvent>
+#include <QResizeEvent>
 #include <QSignalBlocker>
 #include <QToolButton>
 #include <QToolTip>
@@ -313,6 +314,12 @@ bool SeriesPlot::eventFilter(QObject* watched, QEvent* event) {
         case QEvent::Leave:
             QToolTip::hideText();
             break;
+        case QEvent::Resize: {
+            // About one ISO date label per 120 pixels, so labels never run into each other.
+            const int width = static_cast<QResizeEvent*>(event)->size().width();
+            m_plot->xAxis->ticker()->setTickCount(std::clamp(width / 120, 2, 8));
+            break;
+        }
         default:
             break;
     }

@@ -97,6 +97,8 @@ bool MainWindow::decideDay(int day) {
         decision.window = DayRange{date - std::min(day, 7), date - 1};
         decision.redistributeMethod = RedistributeMethod::Proportional;
     }
+    // As from a finding: the window and the day in view, with three weeks either side.
+    m_plot->focusOn(widgets::DayIndexRange{decision.window->first - view.firstDay - 21, day + 21});
     beginDecision(
         decision,
         tr("<b>redistribute</b> for %1 — %2 picked on the plot")
