@@ -301,6 +301,37 @@ TEST(IngestDrop, RolesCanBeNamed) {
     EXPECT_EQ(cellOf(drop, "n", "X", "2026-01-06").value, 4);
 }
 
+std::vector<std::uint64_t> unusedColumnsWarned(const Drop& drop) {
+    std::vector<std::uint64_t> columns;
+    for (const Warning& w : drop.warnings) {
+        if (w.message.find("is not used") != std::string::npos)
+            columns.push_back(w.column);
+    }
+    return columns;
+}
+
+TEST(IngestDrop, EveryColumnWithoutARoleIsReportedInEveryLayout) {
+    IngestOptions named;
+    named.dateColumn = "reported_on";
+    named.regionColumn = "unit";
+    named.valueColumns = {"n"};
+    EXPECT_EQ(unusedColumnsWarned(readOk("reported_on,onset,unit,n,other\n"
+                                         "2026-01-05,2026-01-01,X,3,9\n"
+                                         "2026-01-06,2026-01-02,X,4,9\n",
+                                         named)),
+              (std::vector<std::uint64_t>{2, 5}));
+    EXPECT_EQ(unusedColumnsWarned(readOk("region,name,2026-01-01,2026-01-02\n"
+                                         "NA,North,1,2\n")),
+              (std::vector<std::uint64_t>{2}));
+    IngestOptions someRegions;
+    someRegions.valueColumns = {"B", "D"};
+    EXPECT_EQ(unusedColumnsWarned(readOk("date,A,B,C,D\n"
+                                         "2026-01-01,1,2,3,4\n"
+                                         "2026-01-02,1,2,3,4\n",
+                                         someRegions)),
+              (std::vector<std::uint64_t>{2, 4}));
+}
+
 std::string row(int day, int region, int value) {
     return (*Date::fromIso("2026-01-01") + day).iso() + ",R" + std::to_string(region) + "," +
            std::to_string(value) + "\n";
