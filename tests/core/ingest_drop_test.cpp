@@ -2,6 +2,7 @@
 #include "siftwave/ingest/ingest.h"
 
 #include "support/temp_path.h"
+#include "support/xorshift.h"
 
 #include <gtest/gtest.h>
 
@@ -446,13 +447,8 @@ TEST(IngestDrop, EveryRowOrderGivesTheCellsAndDuplicatesOfAPlainReading) {
     // (cell_table_builder.h). Rows date by date, region by region, backwards, shuffled,
     // with repeats inside a block, across blocks and after a block was written out, and
     // with regions that first appear late must all give what a plain reading gives.
-    std::uint64_t state = 0x2545F4914F6CDD1Dull;  // xorshift, fixed seed
-    auto next = [&](std::uint64_t bound) {
-        state ^= state << 13;
-        state ^= state >> 7;
-        state ^= state << 17;
-        return static_cast<int>(state % bound);
-    };
+    siftwave::testing::Xorshift64 random(0x2545F4914F6CDD1Dull);
+    auto next = [&](std::uint64_t bound) { return static_cast<int>(random.below(bound)); };
     constexpr int kDays = 70, kRegions = 23;
     for (int order = 0; order < 5; ++order) {
         std::vector<std::array<int, 3>> rows;
