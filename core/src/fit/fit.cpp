@@ -274,12 +274,13 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     const int h = o.method == FitMethod::LeastSquares ? static_cast<int>(kernel.size()) / 2 : 0;
     const int modelFirst = res.first - h;
     const std::size_t modelDays = static_cast<std::size_t>(res.last - res.first + 1 + 2 * h);
-    std::vector<double> modelValues(modelDays),
-        modelJacobian(modelDays * static_cast<std::size_t>(np));
+    std::span<const double> modelValues, modelJacobian;
+    std::vector<double> modelStorage;  // likelihood fits (LSQ reuses the problem's last one)
+    std::vector<double> t, y, w;       // LSQ target days, values and weights
+    std::optional<SmoothedLeastSquares> lsq;
     if (o.method == FitMethod::LeastSquares) {
         // Target: the centred average where its window lies inside the series.
         const int half = o.smoothingWindow / 2;
-        std::vector<double> t, y, w;
         t.reserve(tAll.size());
         y.reserve(tAll.size());
         w.reserve(tAll.size());
@@ -294,7 +295,8 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
         if (static_cast<int>(t.size()) <= np + 1) {
             return makeError(ErrorCode::NotFound, "the window has too few days for this model");
         }
-        SmoothedLeastSquares problem(model, t, y, w, kernel, res.last - res.first + 1);
+        const SmoothedLeastSquares& problem =
+            lsq.emplace(model, t, y, w, kernel, res.last - res.first + 1);
         const SolverResult sr = solveLeastSquares(problem, *start, o.solver);
         if (sr.summary.termination == Termination::InvalidStart) {
             return makeError(ErrorCode::Numerical, "the model cannot be evaluated at its start");
@@ -306,7 +308,7 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
         res.summary.message = sr.summary.message;
         const int m = static_cast<int>(t.size());
         dof = m - np;
-        model.incidenceOnDays(modelFirst - res.first, params, modelValues, modelJacobian);
+        problem.modelDays(params, modelValues, modelJacobian);
 
         // Sandwich covariance through the smoothing operator (see fit.h, step 4), from the
         // solver's residuals and Jacobian at the solution.
@@ -383,7 +385,12 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
         res.summary.message = lf.summary.message;
         res.goodness = lf.goodness;
         dof = res.goodness.observations - np;
-        model.incidenceOnDays(0.0, params, modelValues, modelJacobian);
+        modelStorage.resize(modelDays * static_cast<std::size_t>(np + 1));
+        const std::span<double> values(modelStorage.data(), modelDays),
+            jacobian(modelStorage.data() + modelDays, modelDays * static_cast<std::size_t>(np));
+        model.incidenceOnDays(0.0, params, values, jacobian);
+        modelValues = values;
+        modelJacobian = jacobian;
     }
 
     // Parameters with intervals.
