@@ -314,18 +314,50 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
         // solver's residuals and Jacobian at the solution.
         covariance.assign(static_cast<std::size_t>(np * np), kNaN);
         if (sr.covarianceAvailable) {
-            // G row k: the weighted Jacobian rows smoothed back onto model day k.
+            // G row d: the weighted Jacobian rows smoothed back onto model day d,
+            // G_d = sum_i a_(d - t_i) w_i Jt_i over the targets whose average reaches day d
+            // (target t_i is model day t_i + h; its average covers model days t_i .. t_i + 2h).
+            // The solver's row Jt_i is already w_i (A J)_i; the residual carries w_i once more.
             const std::size_t npu = static_cast<std::size_t>(np);
             std::vector<double> G(modelDays * npu, 0.0);
-            for (int i = 0; i < m; ++i) {
-                // Target day t_i is model day t_i + h; its average reaches t_i .. t_i + 2h.
-                const std::size_t from = static_cast<std::size_t>(t[static_cast<std::size_t>(i)]);
-                const double* row = &sr.jacobian[static_cast<std::size_t>(i) * npu];
-                for (std::size_t k = 0; k < kernel.size(); ++k) {
-                    const double a = kernel[k];
-                    double* g = &G[(from + k) * npu];
+            const std::size_t taps = kernel.size();
+            if (taps % 2 == 1) {
+                // Equal weights a: scatter w_i Jt_i onto day t_i, then a window sum of `taps`.
+                std::vector<double> P(modelDays * npu, 0.0);
+                for (int i = 0; i < m; ++i) {
+                    const std::size_t d = static_cast<std::size_t>(t[static_cast<std::size_t>(i)]);
+                    const double wi = w[static_cast<std::size_t>(i)] * kernel[0];
                     for (std::size_t j = 0; j < npu; ++j)
-                        g[j] += a * row[j];
+                        P[d * npu + j] = wi * sr.jacobian[static_cast<std::size_t>(i) * npu + j];
+                }
+                // Running sums over days d - taps + 1 .. d, re-summed every 64 days (no drift).
+                std::array<double, 4> sum{};  // wave models have at most 4 parameters
+                for (std::size_t d = 0; d < modelDays; ++d) {
+                    for (std::size_t j = 0; j < npu; ++j) {
+                        if (d % 64 == 0) {
+                            sum[j] = 0.0;
+                            for (std::size_t e = d - std::min(d, taps - 1); e <= d; ++e)
+                                sum[j] += P[e * npu + j];
+                        } else {
+                            sum[j] += P[d * npu + j];
+                            if (d >= taps)
+                                sum[j] -= P[(d - taps) * npu + j];
+                        }
+                        G[d * npu + j] = sum[j];
+                    }
+                }
+            } else {
+                for (int i = 0; i < m; ++i) {
+                    const std::size_t from =
+                        static_cast<std::size_t>(t[static_cast<std::size_t>(i)]);
+                    const double* row = &sr.jacobian[static_cast<std::size_t>(i) * npu];
+                    const double wi = w[static_cast<std::size_t>(i)];
+                    for (std::size_t k = 0; k < taps; ++k) {
+                        const double a = kernel[k] * wi;
+                        double* g = &G[(from + k) * npu];
+                        for (std::size_t j = 0; j < npu; ++j)
+                            g[j] += a * row[j];
+                    }
                 }
             }
             // Squared raw-count residuals e_k^2 (0 where the day is missing or outside the series).

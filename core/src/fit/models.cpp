@@ -35,9 +35,13 @@ std::optional<Line> fitLine(const std::vector<double>& x, const std::vector<doub
     }
     if (!(sxx > 0))
         return std::nullopt;
+    double syy = 0;
+    for (std::size_t i = 0; i < n; ++i)
+        syy += (y[i] - my) * (y[i] - my);
     Line line;
     line.slope = sxy / sxx;
     line.intercept = my - line.slope * mx;
+    line.r2 = syy > 0 ? sxy * sxy / (sxx * syy) : 1.0;
     return line;
 }
 
