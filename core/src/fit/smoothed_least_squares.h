@@ -138,6 +138,13 @@ private:
                 sum.fill(0.0);
                 lo = hi = first;
             }
+            if (end == hi + 1 && first == lo + 1) {
+                // The next consecutive target day (the usual case): one day in, one day out.
+                for (std::size_t j = 0; j < cols; ++j)
+                    sum[j] += column(hi, j) - column(lo, j);
+                hi = end;
+                lo = first;
+            }
             for (; hi < end; ++hi) {
                 for (std::size_t j = 0; j < cols; ++j)
                     sum[j] += column(hi, j);
