@@ -9,7 +9,11 @@
 #include <QLocale>
 #include <QPushButton>
 #include <QSignalBlocker>
+#include <QSpinBox>
 #include <QVBoxLayout>
+
+#include <algorithm>
+#include <limits>
 
 namespace siftwave::widgets {
 
@@ -23,6 +27,8 @@ DecisionPane::DecisionPane(QWidget* parent)
     : QWidget(parent),
       m_title(new QLabel(this)),
       m_method(new QComboBox(this)),
+      m_excess(new QSpinBox(this)),
+      m_excessLabel(new QLabel(tr("Counts to move"), this)),
       m_windowLabel(new QLabel(this)),
       m_preview(new QLabel(this)),
       m_reason(new QLineEdit(this)),
@@ -31,6 +37,10 @@ DecisionPane::DecisionPane(QWidget* parent)
     m_title->setObjectName(QStringLiteral("decisionTitle"));
     m_title->setWordWrap(true);
     m_method->setObjectName(QStringLiteral("decisionMethod"));
+    m_excess->setObjectName(QStringLiteral("decisionExcess"));
+    m_excess->setRange(0, std::numeric_limits<int>::max());
+    m_excess->setGroupSeparatorShown(true);
+    m_excess->setToolTip(tr("How many counts are moved off the day onto the window's days"));
     m_preview->setObjectName(QStringLiteral("decisionPreview"));
     m_preview->setWordWrap(true);
     m_preview->setTextInteractionFlags(Qt::TextSelectableByMouse);
@@ -43,6 +53,7 @@ DecisionPane::DecisionPane(QWidget* parent)
 
     auto* form = new QFormLayout;
     form->addRow(tr("Method"), m_method);
+    form->addRow(m_excessLabel, m_excess);
     form->addRow(tr("Window"), m_windowLabel);
     form->addRow(tr("Reason"), m_reason);
     auto* buttons = new QHBoxLayout;
@@ -57,6 +68,10 @@ DecisionPane::DecisionPane(QWidget* parent)
     layout->addLayout(buttons);
 
     connect(m_method, &QComboBox::currentIndexChanged, this, [this] {
+        if (m_decision)
+            Q_EMIT decisionEdited();
+    });
+    connect(m_excess, &QSpinBox::valueChanged, this, [this] {
         if (m_decision)
             Q_EMIT decisionEdited();
     });
@@ -108,6 +123,15 @@ void DecisionPane::begin(const Decision& decision, const QString& title, const Q
             break;
     }
     m_method->setEnabled(m_method->count() > 1);
+    {
+        const QSignalBlocker blockExcess(m_excess);
+        const bool redistribute = decision.kind == DecisionKind::Redistribute;
+        m_excess->setValue(static_cast<int>(
+            std::clamp<std::int64_t>(decision.excess, 0, std::numeric_limits<int>::max())));
+        m_excess->setVisible(redistribute);
+        m_excessLabel->setVisible(redistribute);
+        m_excess->setEnabled(redistribute);
+    }
     m_reason->setText(reason);
     m_reason->setEnabled(true);
     m_cancel->setEnabled(true);
@@ -124,6 +148,12 @@ void DecisionPane::clear() {
     const QSignalBlocker block(m_method);
     m_method->clear();
     m_method->setEnabled(false);
+    {
+        const QSignalBlocker blockExcess(m_excess);
+        m_excess->setValue(0);
+        m_excess->setVisible(false);
+        m_excessLabel->setVisible(false);
+    }
     m_windowLabel->clear();
     m_preview->clear();
     m_reason->clear();
@@ -144,6 +174,8 @@ Decision DecisionPane::decision() const {
         if (d.kind == DecisionKind::ResolveDuplicate)
             d.duplicateRule = static_cast<DuplicateRule>(method);
     }
+    if (d.kind == DecisionKind::Redistribute)
+        d.excess = m_excess->value();
     return d;
 }
 
@@ -192,9 +224,9 @@ void DecisionPane::showPreview(const Result<Effect>& effect) {
                                            .arg(t.change()));
     }
     if (m_decision && m_decision->kind == DecisionKind::Redistribute)
-        text += QStringLiteral("<br>") + tr("Moves %1 counts off %2.")
-                                             .arg(count(m_decision->excess),
-                                                  QString::fromStdString(m_decision->date->iso()));
+        text += QStringLiteral("<br>") +
+                tr("Moves %1 counts off %2.")
+                    .arg(count(m_excess->value()), QString::fromStdString(m_decision->date->iso()));
     m_preview->setText(text);
     updateApply();
 }
@@ -239,6 +271,29 @@ QString reasonDraftFor(const scan::Finding& finding, const Decision& decision) {
              evidence.join(QStringLiteral(", ")),
              QString::fromLatin1(decisionKindName(decision.kind))
                  .replace(QLatin1Char('_'), QLatin1Char(' ')));
+}
+
+QString reasonDraftForPickedDay(const Decision& decision, std::int64_t reported,
+                                const scan::BacklogEstimate* estimate, const QString& noEstimate) {
+    const QString where =
+        QStringLiteral("%1 %2 %3")
+            .arg(QString::fromStdString(decision.region), QString::fromStdString(decision.measure),
+                 decision.date ? QString::fromStdString(decision.date->iso()) : QString());
+    QString evidence;
+    if (estimate)
+        evidence = QCoreApplication::translate(
+                       "DecisionPane",
+                       "reported %1, expected %2 from %3 neighbouring days (z %4), excess %5")
+                       .arg(count(reported), QLocale::c().toString(estimate->expected, 'f', 1))
+                       .arg(estimate->neighbours)
+                       .arg(QLocale::c().toString(estimate->z, 'f', 1), count(estimate->excess));
+    else
+        evidence = QCoreApplication::translate("DecisionPane", "reported %1; no baseline (%2)")
+                       .arg(count(reported), noEstimate);
+    return QCoreApplication::translate("DecisionPane",
+                                       "backlog picked on the plot in %1: %2; redistributed over "
+                                       "the earlier days")
+        .arg(where, evidence);
 }
 
 }  // namespace siftwave::widgets

@@ -12,6 +12,7 @@
 #include "siftwave/ledger/cleaned.h"
 #include "siftwave/ledger/decision.h"
 #include "siftwave/result.h"
+#include "siftwave/scan/backlog.h"
 #include "siftwave/scan/finding.h"
 #include "widgets/series_view.h"
 
@@ -23,6 +24,7 @@ class QComboBox;
 class QLabel;
 class QLineEdit;
 class QPushButton;
+class QSpinBox;
 
 namespace siftwave::widgets {
 
@@ -39,7 +41,7 @@ public:
     void clear();
     bool isActive() const { return m_decision.has_value(); }
 
-    /// The decision with the chosen method and window.
+    /// The decision with the chosen method, counts to move and window.
     Decision decision() const;
     /// The decision's window in day indices, when it has one.
     std::optional<DayIndexRange> window() const;
@@ -69,6 +71,8 @@ private:
     bool m_previewOk = false;
     QLabel* m_title;
     QComboBox* m_method;
+    QSpinBox* m_excess;  // redistribute: the counts to move
+    QLabel* m_excessLabel;
     QLabel* m_windowLabel;
     QLabel* m_preview;
     QLineEdit* m_reason;
@@ -78,5 +82,10 @@ private:
 
 /// A draft reason from a finding: what it is, where, and its evidence in numbers.
 QString reasonDraftFor(const scan::Finding& finding, const Decision& decision);
+
+/// A draft reason for a redistribution of a day picked on the plot: the day, what was reported
+/// and the core's backlog estimate (or, when there is none, why not).
+QString reasonDraftForPickedDay(const Decision& decision, std::int64_t reported,
+                                const scan::BacklogEstimate* estimate, const QString& noEstimate);
 
 }  // namespace siftwave::widgets

@@ -226,6 +226,25 @@ void FitPane::setManualWindow(DayIndexRange window) {
     m_wave->setEnabled(false);
 }
 
+void FitPane::setAutomaticWindow() {
+    const QSignalBlocker a(m_auto), b(m_manual);
+    m_auto->setChecked(true);
+    m_from->setEnabled(false);
+    m_to->setEnabled(false);
+    m_wave->setEnabled(true);
+}
+
+void FitPane::setChoices(std::optional<fit::ModelKind> model, fit::FitMethod method,
+                         bool weekdayFactors, fit::WaveChoice wave) {
+    const QSignalBlocker a(m_model), b(m_method), c(m_weekday), d(m_wave);
+    m_model->setCurrentIndex(m_model->findData(model ? static_cast<int>(*model) : -1));
+    m_method->setCurrentIndex(m_method->findData(static_cast<int>(method)));
+    m_weekday->setChecked(weekdayFactors);
+    m_weekday->setEnabled(method != fit::FitMethod::LeastSquares);
+    if (const int index = m_wave->findData(static_cast<int>(wave)); index >= 0)
+        m_wave->setCurrentIndex(index);
+}
+
 void FitPane::showWindow(DayIndexRange window) {
     const QSignalBlocker a(m_from), b(m_to);
     m_from->setDate(toQDate(m_firstDay + window.first));
@@ -276,8 +295,7 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
     }
     const fit::FitResult& fit = *result;
     QString summary = tr("<b>%1</b>, %2, %3 to %4 (%5 days): %6")
-                          .arg(QString::fromLatin1(fit::modelName(fit.model)),
-                               QString::fromLatin1(fit::methodName(fit.method)),
+                          .arg(modelDisplayName(fit.model), methodDisplayName(fit.method),
                                QString::fromStdString(fit.windowFirst().iso()),
                                QString::fromStdString(fit.windowLast().iso()))
                           .arg(fit.last - fit.first + 1)

@@ -47,6 +47,12 @@ public:
     void setCalendar(Date firstDay, int days);
     /// Sets chosen days (e.g. dragged on the plot) without emitting optionsChanged().
     void setManualWindow(DayIndexRange window);
+    /// Back to the automatic window, without emitting optionsChanged().
+    void setAutomaticWindow();
+    /// Sets the model (nullopt: lowest AICc), method, weekday factors and wave choice without
+    /// emitting optionsChanged() (e.g. from a project file).
+    void setChoices(std::optional<fit::ModelKind> model, fit::FitMethod method, bool weekdayFactors,
+                    fit::WaveChoice wave);
 
     /// Shows the window a fit used in the date fields (automatic mode stays automatic).
     void showWindow(DayIndexRange window);

@@ -42,7 +42,7 @@ inline QPen fitPen() {
 }
 inline QBrush fitBandBrush() {
     QColor c = kVermillion;
-    c.setAlpha(48);
+    c.setAlpha(80);
     return QBrush(c);
 }
 /// The second measure (right axis): dotted bluish green.

@@ -3,6 +3,8 @@
 #include "widgets/plot_style.h"
 #include "widgets/qcustomplot_include.h"
 
+#include <QLocale>
+
 #include <algorithm>
 #include <cmath>
 
@@ -78,6 +80,7 @@ void SeriesChart::draw(const SeriesView& view) {
     m_view = view;
     m_plot->clearPlottables();
     m_plot->clearItems();
+    m_clipLabels.clear();
     m_preview = nullptr;
     m_fitGraphs.clear();
     m_windowRect = nullptr;
@@ -162,9 +165,9 @@ void SeriesChart::drawFit() {
     if (!m_view.fit->low.empty() && !m_view.fit->high.empty()) {
         QCPGraph* low = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->low, m_view.days),
                                 Qt::NoPen, QString());
-        QCPGraph* high =
-            addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->high, m_view.days), Qt::NoPen,
-                    QObject::tr("Fit band"));
+        QCPGraph* high = addLine(
+            m_plot, m_plot->yAxis, keys, toVector(m_view.fit->high, m_view.days), Qt::NoPen,
+            m_view.fit->bandLabel.isEmpty() ? QObject::tr("Fit band") : m_view.fit->bandLabel);
         high->setBrush(plot_style::fitBandBrush());
         high->setChannelFillGraph(low);
         low->removeFromLegend();
@@ -293,20 +296,60 @@ void SeriesChart::rescaleValueAxis() {
     const QCPRange x = m_plot->xAxis->range();
     const int first = std::max(0, dayOfPlotKey(x.lower) - m_view.firstDay);
     const int last = std::min(m_view.days - 1, dayOfPlotKey(x.upper) - m_view.firstDay);
+    // The raw bars count where there is no cleaned value to scale by instead.
+    double rawTop = 0;
+    for (int d = first; d <= last && d < static_cast<int>(m_view.raw.size()); ++d) {
+        const bool cleanedThere =
+            d < static_cast<int>(m_view.cleaned.size()) && !std::isnan(m_view.cleaned[d]);
+        if (!std::isnan(m_view.raw[d]) && (!m_scaleToCleaned || !cleanedThere))
+            rawTop = std::max(rawTop, m_view.raw[d]);
+    }
     double top =
-        std::max({maxIn(m_view.raw, first, last), maxIn(m_view.cleaned, first, last),
-                  maxIn(m_view.smoothed, first, last), maxIn(m_view.previous, first, last)});
-    if (m_view.fit)
-        top = std::max(
-            {top, maxIn(m_view.fit->mid, first, last), maxIn(m_view.fit->high, first, last)});
+        std::max({rawTop, maxIn(m_view.cleaned, first, last), maxIn(m_view.smoothed, first, last),
+                  maxIn(m_view.previous, first, last)});
+    if (m_view.fit) {
+        // A wide band of a poorly determined fit may run off the top rather than flatten the
+        // data: it counts up to twice the highest value otherwise shown.
+        top = std::max(top, maxIn(m_view.fit->mid, first, last));
+        top = std::max(top, std::min(maxIn(m_view.fit->high, first, last), 2 * top));
+    }
     if (m_preview)
         for (auto it = m_preview->data()->constBegin(); it != m_preview->data()->constEnd(); ++it)
             if (it->key >= x.lower && it->key <= x.upper)
                 top = std::max(top, it->value);
     m_plot->yAxis->setRange(0, top > 0 ? top * 1.1 : 10);
+    labelClippedBars(first, last, m_plot->yAxis->range().upper);
     if (m_plot->yAxis2->visible()) {
         const double top2 = maxIn(m_view.second, first, last);
         m_plot->yAxis2->setRange(0, top2 > 0 ? top2 * 1.1 : 10);
+    }
+}
+
+void SeriesChart::setScaleToCleaned(bool on) {
+    m_scaleToCleaned = on;
+    rescaleValueAxis();
+}
+
+void SeriesChart::labelClippedBars(int first, int last, double top) {
+    for (QCPAbstractItem* item : m_clipLabels)
+        m_plot->removeItem(item);
+    m_clipLabels.clear();
+    if (!m_scaleToCleaned)
+        return;
+    for (int d = first; d <= last && d < static_cast<int>(m_view.raw.size()); ++d) {
+        if (std::isnan(m_view.raw[d]) || m_view.raw[d] <= top)
+            continue;
+        auto* label = new QCPItemText(m_plot);
+        label->setClipToAxisRect(true);
+        label->position->setTypeX(QCPItemPosition::ptPlotCoords);
+        label->position->setTypeY(QCPItemPosition::ptAxisRectRatio);
+        label->position->setCoords(plotKeyOfDay(m_view.dayAt(d)), 0.04);
+        label->setPositionAlignment(Qt::AlignLeft | Qt::AlignTop);
+        label->setPadding(QMargins(3, 0, 0, 0));
+        label->setText(QObject::tr("↑ raw %1").arg(QLocale::c().toString(m_view.raw[d], 'f', 0)));
+        label->setColor(plot_style::kInk);
+        label->setSelectable(false);
+        m_clipLabels.push_back(label);
     }
 }
 

@@ -17,6 +17,7 @@
 #include <vector>
 
 class QCustomPlot;
+class QCPAbstractItem;
 class QCPBars;
 class QCPGraph;
 class QCPItemRect;
@@ -49,6 +50,12 @@ public:
 
     /// Shows the whole calendar (x) and all values (y).
     void resetRange();
+
+    /// Scale the value axis to the cleaned series rather than the raw one (off by default):
+    /// a raw bar the ledger lowered (a backlog spread back) then runs off the top, labelled
+    /// with its value, instead of flattening the cleaned curve. Where no decision changed a
+    /// day, raw and cleaned are equal and nothing changes.
+    void setScaleToCleaned(bool on);
     /// Shows the given days (with a little margin).
     void focusOn(DayIndexRange days);
 
@@ -67,6 +74,9 @@ private:
     QCustomPlot* m_plot;
     SeriesView m_view;
     QCPBars* m_preview = nullptr;
+    bool m_scaleToCleaned = false;
+    std::vector<QCPAbstractItem*> m_clipLabels;  // values of raw bars above the axis
+    void labelClippedBars(int first, int last, double top);
     std::vector<QCPGraph*> m_fitGraphs;
     QCPItemRect* m_windowRect = nullptr;
     QCPItemStraightLine* m_windowStart = nullptr;

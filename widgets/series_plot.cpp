@@ -6,7 +6,9 @@
 #include <QComboBox>
 #include <QHBoxLayout>
 #include <QLabel>
+#include <QMenu>
 #include <QMouseEvent>
+#include <QResizeEvent>
 #include <QSignalBlocker>
 #include <QToolButton>
 #include <QToolTip>
@@ -29,6 +31,7 @@ SeriesPlot::SeriesPlot(QWidget* parent)
       m_reset(new QToolButton(this)),
       m_plot(new QCustomPlot(this)),
       m_chart(std::make_unique<SeriesChart>(m_plot)) {
+    m_chart->setScaleToCleaned(true);
     m_title->setObjectName(QStringLiteral("seriesTitle"));
     m_title->setTextFormat(Qt::RichText);
     m_measure->setObjectName(QStringLiteral("measureChoice"));
@@ -45,6 +48,12 @@ SeriesPlot::SeriesPlot(QWidget* parent)
     m_plot->setMouseTracking(true);
     m_plot->installEventFilter(this);
     m_plot->setMinimumSize(320, 200);
+    m_plot->setContextMenuPolicy(Qt::CustomContextMenu);
+    connect(m_plot, &QWidget::customContextMenuRequested, this, [this](const QPoint& pos) {
+        QMenu* menu = createContextMenu(m_chart->dayIndexAtPixel(pos.x()));
+        menu->setAttribute(Qt::WA_DeleteOnClose);
+        menu->popup(m_plot->mapToGlobal(pos));
+    });
 
     auto* bar = new QHBoxLayout;
     bar->setContentsMargins(6, 4, 6, 0);
@@ -94,8 +103,44 @@ int SeriesPlot::secondMeasure() const {
     return m_second->currentIndex() <= 0 ? -1 : m_second->currentData().toInt();
 }
 
+void SeriesPlot::chooseMeasure(int measure) {
+    if (measure >= 0 && measure < m_measure->count())
+        m_measure->setCurrentIndex(measure);
+}
+
+void SeriesPlot::chooseSecondMeasure(int measure) {
+    const int index = m_second->findData(measure);
+    m_second->setCurrentIndex(index >= 0 ? index : 0);
+}
+
+DayIndexRange SeriesPlot::visibleDays() const {
+    // Half a day in from each edge: the days whose centre is on screen.
+    const QCPRange range = m_plot->xAxis->range();
+    const Date first = m_chart->view().firstDay;
+    return DayIndexRange{dayOfPlotKey(range.lower + 43200.0) - first,
+                         dayOfPlotKey(range.upper - 43200.0) - first};
+}
+
+void SeriesPlot::setVisibleDays(DayIndexRange days) {
+    const SeriesView& v = m_chart->view();
+    if (v.empty() || days.last < days.first)
+        return;
+    m_plot->xAxis->setRange(plotKeyOfDay(v.dayAt(days.first)) - 43200.0,
+                            plotKeyOfDay(v.dayAt(days.last)) + 43200.0);
+    m_plot->replot();
+}
+
 void SeriesPlot::setView(const SeriesView& view) {
+    // The same series drawn again (a decision applied, a scan finished): keep the time axis
+    // where the analyst put it.
+    const SeriesView& old = m_chart->view();
+    const bool sameSeries = !old.empty() && old.regionCode == view.regionCode &&
+                            old.measure == view.measure && old.firstDay == view.firstDay &&
+                            old.days == view.days;
+    const QCPRange keep = m_plot->xAxis->range();
     m_chart->draw(view);
+    if (sameSeries)
+        m_plot->xAxis->setRange(keep);
     m_windowEditable = false;
     updateTitle();
     m_plot->replot();
@@ -123,7 +168,9 @@ void SeriesPlot::updateTitle() {
 void SeriesPlot::setEditableWindow(std::optional<DayIndexRange> window) {
     m_windowEditable = window.has_value();
     m_chart->setWindow(window);
-    m_plot->replot();
+    // Queued: a refit while dragging sets the window again, and one repaint per event-loop
+    // turn is enough (a full replot costs more than the fit itself).
+    m_plot->replot(QCustomPlot::rpQueuedReplot);
 }
 
 std::optional<DayIndexRange> SeriesPlot::editableWindow() const {
@@ -137,7 +184,7 @@ void SeriesPlot::setFit(const std::optional<FittedCurve>& fit) {
 
 void SeriesPlot::setPreview(const std::vector<double>& values, const QString& label) {
     m_chart->setPreview(values, label);
-    m_plot->replot();
+    m_plot->replot(QCustomPlot::rpQueuedReplot);
 }
 
 void SeriesPlot::resetView() {
@@ -148,6 +195,31 @@ void SeriesPlot::resetView() {
 void SeriesPlot::focusOn(DayIndexRange days) {
     m_chart->focusOn(days);
     m_plot->replot();
+}
+
+void SeriesPlot::setDayPickingEnabled(bool enabled) {
+    m_dayPicking = enabled;
+}
+
+QMenu* SeriesPlot::createContextMenu(int day) {
+    auto* menu = new QMenu(this);
+    menu->setObjectName(QStringLiteral("seriesContextMenu"));
+    const SeriesView& v = m_chart->view();
+    if (day >= 0 && day < v.days) {
+        const bool hasValue = day < static_cast<int>(v.raw.size()) && !std::isnan(v.raw[day]);
+        QAction* redistribute =
+            menu->addAction(tr("Redistribute %1 over earlier days…")
+                                .arg(QString::fromStdString(v.dayAt(day).iso())),
+                            this, [this, day] { Q_EMIT redistributeDayRequested(day); });
+        redistribute->setObjectName(QStringLiteral("redistributeDay"));
+        redistribute->setEnabled(m_dayPicking && hasValue);
+        redistribute->setStatusTip(
+            m_dayPicking ? tr("Prepare a redistribution of this day's counts (also Shift+click)")
+                         : tr("Finish or discard the decision in preparation first"));
+        menu->addSeparator();
+    }
+    menu->addAction(tr("Reset view"), this, &SeriesPlot::resetView);
+    return menu;
 }
 
 SeriesPlot::Edge SeriesPlot::edgeNear(double x) const {
@@ -171,7 +243,10 @@ void SeriesPlot::showHover(QMouseEvent* event) {
         return;
     }
     const int day = m_chart->dayIndexAtPixel(event->position().x());
-    const QString text = hoverText(v, day);
+    QString text = hoverText(v, day);
+    if (!text.isEmpty() && m_dayPicking && day < static_cast<int>(v.raw.size()) &&
+        !std::isnan(v.raw[day]))
+        text += tr("<br><i>Shift+click or right-click: redistribute this day</i>");
     if (text.isEmpty())
         QToolTip::hideText();
     else
@@ -228,14 +303,23 @@ bool SeriesPlot::eventFilter(QObject* watched, QEvent* event) {
             if ((mouse->pos() - m_pressPos).manhattanLength() < 4 &&
                 mouse->button() == Qt::LeftButton) {
                 const int day = m_chart->dayIndexAtPixel(mouse->position().x());
-                if (day >= 0 && day < m_chart->view().days)
+                if (day >= 0 && day < m_chart->view().days) {
                     Q_EMIT dayClicked(day);
+                    if (m_dayPicking && mouse->modifiers().testFlag(Qt::ShiftModifier))
+                        Q_EMIT redistributeDayRequested(day);
+                }
             }
             break;
         }
         case QEvent::Leave:
             QToolTip::hideText();
             break;
+        case QEvent::Resize: {
+            // About one ISO date label per 120 pixels, so labels never run into each other.
+            const int width = static_cast<QResizeEvent*>(event)->size().width();
+            m_plot->xAxis->ticker()->setTickCount(std::clamp(width / 120, 2, 8));
+            break;
+        }
         default:
             break;
     }

@@ -6,7 +6,9 @@
 // or a redistribution window) can be shown with draggable edges: dragging an
 // edge emits windowChanging() as it moves and windowChanged() on release, so the
 // owner can preview or refit live. The measure and an optional second measure
-// are chosen in the bar above the plot.
+// are chosen in the bar above the plot. A day's bar can be picked for a
+// decision: Shift+click, or the context menu's "Redistribute this day…"
+// (redistributeDayRequested()); the owner decides what that prepares.
 
 #include "widgets/series_view.h"
 
@@ -19,6 +21,7 @@
 class QComboBox;
 class QCustomPlot;
 class QLabel;
+class QMenu;
 class QMouseEvent;
 class QToolButton;
 
@@ -39,6 +42,9 @@ public:
     int measure() const;
     /// -1 when no second measure is shown.
     int secondMeasure() const;
+    /// Chooses the measures as the analyst would (emits measureChosen / secondMeasureChosen).
+    void chooseMeasure(int measure);
+    void chooseSecondMeasure(int measure);  // -1: none
 
     /// Shows a window with draggable edges (nullopt hides it).
     void setEditableWindow(std::optional<DayIndexRange> window);
@@ -50,6 +56,17 @@ public:
 
     void resetView();
     void focusOn(DayIndexRange days);
+    /// The days the time axis shows (day indices; may reach outside the calendar).
+    DayIndexRange visibleDays() const;
+    /// Shows exactly these days (no margin), e.g. a view restored from a project.
+    void setVisibleDays(DayIndexRange days);
+
+    /// Whether picking a day for a decision is offered (off while a decision is in preparation).
+    void setDayPickingEnabled(bool enabled);
+    bool dayPickingEnabled() const { return m_dayPicking; }
+    /// The plot's context menu for a day (a day index; outside the calendar: view actions only).
+    /// Owned by the caller; shown by the right mouse button.
+    QMenu* createContextMenu(int day);
 
     const SeriesView& view() const;
     SeriesChart* chart() const { return m_chart.get(); }
@@ -62,6 +79,8 @@ Q_SIGNALS:
     void windowChanged(siftwave::widgets::DayIndexRange window);
     /// A bar was clicked (a day index into the view's calendar).
     void dayClicked(int day);
+    /// The analyst picked a day's bar to redistribute it (Shift+click or the context menu).
+    void redistributeDayRequested(int day);
 
 protected:
     bool eventFilter(QObject* watched, QEvent* event) override;
@@ -79,6 +98,7 @@ private:
     QCustomPlot* m_plot;
     std::unique_ptr<SeriesChart> m_chart;
     bool m_windowEditable = false;
+    bool m_dayPicking = true;
     Edge m_dragging = Edge::None;
     QPoint m_pressPos;
 };

@@ -3,6 +3,7 @@
 #include <QCoreApplication>
 #include <QLocale>
 
+#include <algorithm>
 #include <cmath>
 #include <limits>
 
@@ -82,15 +83,65 @@ void addPreviousRelease(SeriesView& view, const Drop& previous, const QString& l
 FittedCurve curveFromFit(const fit::FitResult& fit, int days) {
     FittedCurve curve;
     curve.label = QCoreApplication::translate("SeriesView", "%1 fit (%2)")
-                      .arg(QString::fromLatin1(fit::modelName(fit.model)),
-                           QString::fromLatin1(fit::methodName(fit.method)));
+                      .arg(modelDisplayName(fit.model), methodDisplayName(fit.method));
     curve.mid.assign(days, kNaN);
-    for (std::size_t i = 0; i < fit.fitted.size(); ++i) {
-        const int day = fit.first + static_cast<int>(i);
-        if (day >= 0 && day < days)
-            curve.mid[day] = fit.fitted[i];
+    const int last = std::min(fit.last, days - 1);
+    const Result<fit::CurveBand> band =
+        fit.first <= last ? fit::curveBand(fit, fit.first, last)
+                          : Result<fit::CurveBand>(makeError(ErrorCode::Usage, "empty window"));
+    if (!band) {
+        // No band to be had: the fitted values as the fit gives them.
+        for (std::size_t i = 0; i < fit.fitted.size(); ++i) {
+            const int day = fit.first + static_cast<int>(i);
+            if (day >= 0 && day < days)
+                curve.mid[day] = fit.fitted[i];
+        }
+        return curve;
+    }
+    const bool withBand =
+        band->lower.size() == band->fitted.size() && band->upper.size() == band->fitted.size();
+    if (withBand) {
+        curve.low.assign(days, kNaN);
+        curve.high.assign(days, kNaN);
+        curve.bandLabel = QCoreApplication::translate("SeriesView", "95% interval of the fit");
+    }
+    for (std::size_t i = 0; i < band->fitted.size(); ++i) {
+        const int day = band->first + static_cast<int>(i);
+        if (day < 0 || day >= days)
+            continue;
+        curve.mid[day] = band->fitted[i];
+        if (withBand) {
+            curve.low[day] = band->lower[i];
+            curve.high[day] = band->upper[i];
+        }
     }
     return curve;
+}
+
+QString modelDisplayName(fit::ModelKind model) {
+    switch (model) {
+        case fit::ModelKind::Gumbel:
+            return tr("Gumbel");
+        case fit::ModelKind::Logistic:
+            return tr("logistic");
+        case fit::ModelKind::Richards:
+            return tr("Richards");
+        case fit::ModelKind::LogNormal:
+            return tr("log-normal");
+    }
+    return QString::fromLatin1(fit::modelName(model));
+}
+
+QString methodDisplayName(fit::FitMethod method) {
+    switch (method) {
+        case fit::FitMethod::LeastSquares:
+            return tr("least squares");
+        case fit::FitMethod::Poisson:
+            return tr("Poisson");
+        case fit::FitMethod::NegativeBinomial:
+            return tr("negative binomial");
+    }
+    return QString::fromLatin1(fit::methodName(method));
 }
 
 QString hoverText(const SeriesView& view, int day) {

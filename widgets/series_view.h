@@ -39,6 +39,7 @@ struct FittedCurve {
     std::vector<double> mid;   // per day of the calendar; NaN outside the curve
     std::vector<double> low;   // lower band edge, same length (may be empty)
     std::vector<double> high;  // upper band edge
+    QString bandLabel;         // what the band is (legend); empty: "Fit band"
 };
 
 struct SeriesView {
@@ -80,9 +81,16 @@ void addSecondMeasure(SeriesView& view, const Drop& drop, std::size_t region, st
 /// (NaN where it has no number). Nothing when it lacks the region or the measure.
 void addPreviousRelease(SeriesView& view, const Drop& previous, const QString& label);
 
-/// The fitted curve of a FitResult on a calendar of `days` days (NaN outside the window).
-/// The band is left empty: the core's FitResult has no pointwise interval of the curve yet.
+/// The fitted wave of a FitResult on a calendar of `days` days (NaN outside the window) with
+/// its pointwise 95% confidence band, both from fit::curveBand(): the wave itself, K f(t),
+/// without weekday factors, and the delta-method interval of that mean curve (not a range for
+/// daily counts). Without a covariance the band is empty and the curve is still drawn.
 FittedCurve curveFromFit(const fit::FitResult& fit, int days);
+
+/// Names for people: "Gumbel", "logistic", "Richards", "log-normal"; "least squares",
+/// "Poisson", "negative binomial".
+QString modelDisplayName(fit::ModelKind model);
+QString methodDisplayName(fit::FitMethod method);
 
 /// The hover text for one day: date and weekday, raw (or its state), cleaned,
 /// smoothed, fitted, the source line and the ledger entries that touched the cell.

@@ -48,7 +48,7 @@ QVariant TextTableModel::data(const QModelIndex& index, int role) const {
             }
             return {};
         case Qt::TextAlignmentRole:
-            if (index.column() > 0)
+            if (index.column() > 0 && !m_textColumns.contains(index.column()))
                 return QVariant::fromValue(Qt::AlignRight | Qt::AlignVCenter);
             return {};
     }

@@ -9,6 +9,8 @@
 #include <QVariant>
 #include <QVector>
 
+#include <utility>
+
 namespace siftwave::widgets {
 
 class TextTableModel : public QAbstractTableModel {
@@ -27,6 +29,8 @@ public:
     explicit TextTableModel(QStringList headers, QObject* parent = nullptr);
 
     void setRows(QVector<Row> rows);
+    /// Columns shown left-aligned (text); the others after the first are right-aligned (numbers).
+    void setTextColumns(QVector<int> columns) { m_textColumns = std::move(columns); }
     const QVector<Row>& rows() const { return m_rows; }
     /// The text of one cell, or empty.
     QString text(int row, int column) const;
@@ -40,6 +44,7 @@ public:
 private:
     QStringList m_headers;
     QVector<Row> m_rows;
+    QVector<int> m_textColumns;
 };
 
 }  // namespace siftwave::widgets

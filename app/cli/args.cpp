@@ -11,7 +11,8 @@ std::string ParsedArgs::value(const std::string& name, const std::string& fallba
 
 std::optional<std::string> ParsedArgs::optionalValue(const std::string& name) const {
     auto it = m_values.find(name);
-    if (it == m_values.end() || it->second.empty()) return std::nullopt;
+    if (it == m_values.end() || it->second.empty())
+        return std::nullopt;
     return it->second.back();
 }
 
@@ -20,8 +21,8 @@ std::vector<std::string> ParsedArgs::values(const std::string& name) const {
     return it == m_values.end() ? std::vector<std::string>{} : it->second;
 }
 
-std::optional<ParsedArgs> parseArgs(int argc, char** argv, int first, const std::vector<FlagSpec>& specs,
-                                    std::string& error) {
+std::optional<ParsedArgs> parseArgs(int argc, char** argv, int first,
+                                    const std::vector<FlagSpec>& specs, std::string& error) {
     ParsedArgs out;
     bool onlyPositional = false;
     for (int i = first; i < argc; ++i) {
@@ -44,7 +45,8 @@ std::optional<ParsedArgs> parseArgs(int argc, char** argv, int first, const std:
             inlineValue = name.substr(eq + 1);
             name = name.substr(0, eq);
         }
-        auto spec = std::find_if(specs.begin(), specs.end(), [&](const FlagSpec& s) { return s.name == name; });
+        auto spec = std::find_if(specs.begin(), specs.end(),
+                                 [&](const FlagSpec& s) { return s.name == name; });
         if (spec == specs.end()) {
             error = "unknown option '--" + name + "'";
             return std::nullopt;
@@ -80,9 +82,12 @@ std::string formatFlags(const std::vector<FlagSpec>& specs) {
     std::string out;
     for (const FlagSpec& s : specs) {
         std::string left = "  --" + s.name;
-        if (s.takesValue) left += ' ' + (s.valueName.empty() ? std::string("VALUE") : s.valueName);
-        if (left.size() < 28) left.resize(28, ' ');
-        else left += "  ";
+        if (s.takesValue)
+            left += ' ' + (s.valueName.empty() ? std::string("VALUE") : s.valueName);
+        if (left.size() < 28)
+            left.resize(28, ' ');
+        else
+            left += "  ";
         out += left + s.help + (s.repeatable ? " (repeatable)" : "") + '\n';
     }
     return out;

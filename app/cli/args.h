@@ -13,11 +13,11 @@
 namespace siftwave::cli {
 
 struct FlagSpec {
-    std::string name;         // without the leading "--"
-    bool takesValue = true;   // false: a switch
+    std::string name;        // without the leading "--"
+    bool takesValue = true;  // false: a switch
     bool repeatable = false;
-    std::string valueName;    // for help text, e.g. "FILE"
-    std::string help;         // one line
+    std::string valueName;  // for help text, e.g. "FILE"
+    std::string help;       // one line
 };
 
 class ParsedArgs {
@@ -31,15 +31,17 @@ public:
     /// Every value of a repeatable flag, in order.
     std::vector<std::string> values(const std::string& name) const;
 
-    void add(const std::string& name, std::string value) { m_values[name].push_back(std::move(value)); }
+    void add(const std::string& name, std::string value) {
+        m_values[name].push_back(std::move(value));
+    }
 
 private:
     std::map<std::string, std::vector<std::string>> m_values;
 };
 
 /// Parses argv[first..argc). On a usage error returns nullopt and sets `error`.
-std::optional<ParsedArgs> parseArgs(int argc, char** argv, int first, const std::vector<FlagSpec>& specs,
-                                    std::string& error);
+std::optional<ParsedArgs> parseArgs(int argc, char** argv, int first,
+                                    const std::vector<FlagSpec>& specs, std::string& error);
 
 /// Lines "  --name VALUE   help" for a usage message.
 std::string formatFlags(const std::vector<FlagSpec>& specs);

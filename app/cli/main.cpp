@@ -17,17 +17,20 @@ struct Command {
 constexpr Command kCommands[] = {
     {"inspect", "read a data drop and report what was read", siftwave::cli::runInspect},
     {"scan", "find what is wrong with a drop, ranked for review", siftwave::cli::runScan},
-    {"decide", "record a cleaning decision, with its reason, in a ledger", siftwave::cli::runDecide},
+    {"decide", "record a cleaning decision, with its reason, in a ledger",
+     siftwave::cli::runDecide},
     {"apply", "replay a ledger on a drop and write the cleaned data", siftwave::cli::runApply},
     {"ledger", "verify a ledger or write its audit report", siftwave::cli::runLedger},
     {"fit", "fit wave curves to one region or all, with 95% intervals", siftwave::cli::runFit},
-    {"figure", "draw an annotated briefing figure (PNG, SVG, PDF; needs Qt)", siftwave::cli::runFigure},
+    {"figure", "draw an annotated briefing figure (PNG, SVG, PDF; needs Qt)",
+     siftwave::cli::runFigure},
     {"report", "write the briefing report (PDF, HTML; needs Qt)", siftwave::cli::runReport},
 };
 
 void printUsage(std::FILE* to) {
     std::fprintf(to, "usage: siftwave-cli COMMAND [ARGS] [--json]\n\ncommands:\n");
-    for (const Command& c : kCommands) std::fprintf(to, "  %-10s %s\n", c.name, c.summary);
+    for (const Command& c : kCommands)
+        std::fprintf(to, "  %-10s %s\n", c.name, c.summary);
     std::fprintf(to, "\nRun 'siftwave-cli COMMAND --help' for the options of one command.\n");
 }
 
@@ -48,7 +51,8 @@ int main(int argc, char** argv) {
         return siftwave::cli::kExitOk;
     }
     for (const Command& c : kCommands) {
-        if (name == c.name) return c.run(argc, argv, 2);
+        if (name == c.name)
+            return c.run(argc, argv, 2);
     }
     std::fprintf(stderr, "siftwave-cli: unknown command '%s'\n\n", name.c_str());
     printUsage(stderr);

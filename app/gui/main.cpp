@@ -2,6 +2,7 @@
 // bundled sample; with --screenshot it renders the window to a PNG and exits
 // (works under QT_QPA_PLATFORM=offscreen, where there is no display).
 #include "main_window.h"
+#include "project_session.h"
 #include "sample_location.h"
 
 #include "widgets/series_plot.h"
@@ -15,6 +16,7 @@
 #include <QTimer>
 
 #include <cstdio>
+#include <utility>
 
 namespace {
 
@@ -68,13 +70,19 @@ int main(int argc, char** argv) {
         QStringLiteral("previous"),
         QStringLiteral("Also open the previous release FILE to compare against."),
         QStringLiteral("FILE"));
+    const QCommandLineOption project(
+        QStringLiteral("project"),
+        QStringLiteral("Open the project FILE (its drop, ledger, previous release and view)."),
+        QStringLiteral("FILE"));
     parser.addOption(screenshot);
+    parser.addOption(project);
     parser.addOption(previous);
     parser.addOption(select);
     parser.addOption(finding);
     parser.addPositionalArgument(
         QStringLiteral("DROP"),
-        QStringLiteral("A data drop (CSV) to open; default: the bundled sample."));
+        QStringLiteral("A data drop (CSV) or a project (*.siftwave.json) to open; default: the "
+                       "bundled sample."));
     parser.process(app);
 
     const bool shooting = parser.isSet(screenshot);
@@ -85,7 +93,10 @@ int main(int argc, char** argv) {
     using siftwave::gui::MainWindow;
 
     QString drop = parser.positionalArguments().value(0);
-    if (drop.isEmpty()) {
+    QString projectPath = parser.value(project);
+    if (projectPath.isEmpty() && siftwave::gui::isProjectPath(drop))
+        std::swap(projectPath, drop);
+    if (drop.isEmpty() && projectPath.isEmpty()) {
         drop = siftwave::gui::bundledSampleDrop();
         if (drop.isEmpty())
             std::fprintf(stderr, "siftwave: the bundled sample drop was not found (looked in %s)\n",
@@ -126,26 +137,38 @@ int main(int argc, char** argv) {
             &window, &MainWindow::scanFinished, &window, [&] { selectAndFinish(); },
             Qt::SingleShotConnection);
     };
-    QObject::connect(
-        &window, &MainWindow::dropOpened, &window,
-        [&](const QString&) {
-            if (previousPath.isEmpty()) {
-                afterScan();
-                return;
-            }
-            QObject::connect(
-                &window, &MainWindow::previousOpened, &window, [&](const QString&) { afterScan(); },
-                Qt::SingleShotConnection);
-            window.openPreviousRelease(previousPath);
-        },
-        Qt::SingleShotConnection);
-    QObject::connect(&window, &MainWindow::dropFailed, &window,
-                     [&](const QString&) { finish(false); });
+    if (!projectPath.isEmpty()) {
+        // A project brings its own previous release and selection; --select and --finding
+        // still apply on top.
+        QObject::connect(
+            &window, &MainWindow::projectOpened, &window, [&](const QString&) { afterScan(); },
+            Qt::SingleShotConnection);
+        QObject::connect(&window, &MainWindow::projectFailed, &window,
+                         [&](const QString&) { finish(false); });
+    } else {
+        QObject::connect(
+            &window, &MainWindow::dropOpened, &window,
+            [&](const QString&) {
+                if (previousPath.isEmpty()) {
+                    afterScan();
+                    return;
+                }
+                QObject::connect(
+                    &window, &MainWindow::previousOpened, &window,
+                    [&](const QString&) { afterScan(); }, Qt::SingleShotConnection);
+                window.openPreviousRelease(previousPath);
+            },
+            Qt::SingleShotConnection);
+        QObject::connect(&window, &MainWindow::dropFailed, &window,
+                         [&](const QString&) { finish(false); });
+    }
 
     if (shooting)
         window.resize(1440, 900);
     window.show();
-    if (drop.isEmpty())
+    if (!projectPath.isEmpty())
+        window.openProject(projectPath);
+    else if (drop.isEmpty())
         finish(false);
     else
         window.openDrop(drop);

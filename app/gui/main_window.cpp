@@ -5,20 +5,25 @@
 #include "settings.h"
 
 #include "decision_command.h"
+#include "project_session.h"
 #include "widgets/background_task.h"
+#include "widgets/batch_fit.h"
 #include "widgets/decision_pane.h"
 #include "widgets/drop_loading.h"
 #include "widgets/finding_model.h"
 #include "widgets/finding_review.h"
 #include "widgets/fit_pane.h"
 #include "widgets/ledger_view.h"
+#include "widgets/qcustomplot_include.h"
 
+#include "siftwave/scan/backlog.h"
 #include "siftwave/scan/scan.h"
 #include "siftwave/scan/suggested_decision.h"
 #include "widgets/region_browser.h"
 #include "widgets/region_model.h"
 #include "widgets/series_plot.h"
 #include "widgets/series_view.h"
+#include "widgets/text_table_model.h"
 #include "widgets/workbench.h"
 
 #include <QAction>
@@ -29,6 +34,7 @@
 #include <QDockWidget>
 #include <QDragEnterEvent>
 #include <QDropEvent>
+#include <QElapsedTimer>
 #include <QFileDialog>
 #include <QFileInfo>
 #include <QInputDialog>
@@ -36,6 +42,7 @@
 #include <QLabel>
 #include <QLineEdit>
 #include <QLocale>
+#include <QLoggingCategory>
 #include <QMenu>
 #include <QMenuBar>
 #include <QMessageBox>
@@ -47,9 +54,16 @@
 #include <QTextBrowser>
 #include <QUndoStack>
 
+#include <array>
+#include <cmath>
 #include <cstdio>
+#include <map>
+#include <memory>
 
 namespace siftwave::gui {
+
+// QT_LOGGING_RULES="siftwave.refit.debug=true" prints how long each refit takes.
+Q_LOGGING_CATEGORY(lcRefit, "siftwave.refit", QtWarningMsg)
 
 using widgets::BackgroundTask;
 
@@ -66,6 +80,7 @@ MainWindow::MainWindow(Options options, QWidget* parent)
       m_findings(new widgets::FindingReview(m_findingModel)),
       m_decisionPane(new widgets::DecisionPane),
       m_ledgerView(new widgets::LedgerView(m_workbench)),
+      m_batchView(new widgets::BatchFitView),
       m_undo(new QUndoStack(this)),
       m_dropLabel(new QLabel),
       m_taskLabel(new QLabel),
@@ -120,6 +135,8 @@ MainWindow::MainWindow(Options options, QWidget* parent)
     });
     connect(m_findings, &widgets::FindingReview::decideRequested, this,
             [this](const QString& id) { decideFinding(id); });
+    connect(m_plot, &widgets::SeriesPlot::redistributeDayRequested, this,
+            [this](int day) { decideDay(day); });
     connect(m_decisionPane, &widgets::DecisionPane::decisionEdited, this,
             &MainWindow::previewDecision);
     connect(m_decisionPane, &widgets::DecisionPane::applyRequested, this,
@@ -131,6 +148,18 @@ MainWindow::MainWindow(Options options, QWidget* parent)
         redrawSeries();
         updateReleaseSummary();
     });
+    connect(m_batchView, &widgets::BatchFitView::runRequested, this, &MainWindow::startBatchFit);
+    connect(m_batchView, &widgets::BatchFitView::regionActivated, this,
+            [this](const QString& code) { selectRegion(code); });
+    connect(m_workbench, &widgets::Workbench::ledgerChanged, m_batchView,
+            [this] { m_batchView->setStale(tr("the ledger changed the cleaned counts since")); });
+    connect(m_workbench, &widgets::Workbench::dropChanged, m_batchView, [this] {
+        if (m_batchTask)
+            m_batchTask->cancel();
+        m_batchView->clear(m_workbench->hasDrop() ? tr("Not run yet.") : tr("No drop open."));
+    });
+    connect(m_plot, &widgets::SeriesPlot::measureChosen, m_batchView,
+            [this](int) { m_batchView->setStale(tr("another measure is shown now")); });
 
     resize(1360, 860);
     if (m_options.rememberLayout) {
@@ -179,6 +208,13 @@ void MainWindow::buildDocks() {
     ledger->setWidget(m_ledgerView);
     addDockWidget(Qt::BottomDockWidgetArea, ledger);
     tabifyDockWidget(ledger, release);
+
+    m_batchView->setObjectName(QStringLiteral("batchFitView"));
+    auto* batch = new QDockWidget(tr("All regions"), this);
+    batch->setObjectName(QStringLiteral("batchFitDock"));
+    batch->setWidget(m_batchView);
+    addDockWidget(Qt::BottomDockWidgetArea, batch);
+    tabifyDockWidget(release, batch);
     ledger->raise();
 }
 
@@ -187,6 +223,26 @@ void MainWindow::buildActions() {
     QAction* open = file->addAction(tr("&Open drop…"), this, &MainWindow::showOpenDialog);
     open->setShortcut(QKeySequence::Open);
     open->setObjectName(QStringLiteral("actionOpenDrop"));
+    QAction* openProjectAction =
+        file->addAction(tr("Open pro&ject…"), this, &MainWindow::showOpenProjectDialog);
+    openProjectAction->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_O));
+    openProjectAction->setObjectName(QStringLiteral("actionOpenProject"));
+    QAction* saveProjectAction =
+        file->addAction(tr("&Save project"), this, &MainWindow::saveProjectInPlace);
+    saveProjectAction->setShortcut(QKeySequence::Save);
+    saveProjectAction->setObjectName(QStringLiteral("actionSaveProject"));
+    saveProjectAction->setStatusTip(
+        tr("Save the drop, its ledger, the previous release and this view as a project"));
+    QAction* saveProjectAs =
+        file->addAction(tr("Save project &as…"), this, &MainWindow::showSaveProjectDialog);
+    saveProjectAs->setShortcut(QKeySequence::SaveAs);
+    saveProjectAs->setObjectName(QStringLiteral("actionSaveProjectAs"));
+    for (QAction* action : {saveProjectAction, saveProjectAs}) {
+        action->setEnabled(false);
+        connect(m_workbench, &widgets::Workbench::dropChanged, action,
+                [this, action] { action->setEnabled(m_workbench->hasDrop()); });
+    }
+    file->addSeparator();
     QAction* previous =
         file->addAction(tr("Open &previous release…"), this, &MainWindow::showOpenPreviousDialog);
     previous->setObjectName(QStringLiteral("actionOpenPrevious"));
@@ -314,7 +370,7 @@ void MainWindow::rebuildRecentMenu() {
     const QStringList files = m_options.rememberLayout ? settings::recentFiles() : QStringList();
     for (const QString& path : files) {
         QAction* action = m_recentMenu->addAction(QFileInfo(path).fileName(), this,
-                                                  [this, path] { openDrop(path); });
+                                                  [this, path] { openFile(path); });
         action->setToolTip(path);
         action->setStatusTip(path);
         action->setEnabled(QFileInfo::exists(path));
@@ -331,38 +387,117 @@ void MainWindow::rebuildRecentMenu() {
 }
 
 void MainWindow::openDrop(const QString& path) {
+    startOpening(path, std::nullopt);
+}
+
+void MainWindow::openFile(const QString& path) {
+    if (isProjectPath(path))
+        openProject(path);
+    else
+        openDrop(path);
+}
+
+void MainWindow::startOpening(const QString& path, std::optional<OpeningProject> project) {
     if (m_task)
         m_task->cancel();
     widgets::LoadRequest request;
     request.dropPath = path;
+    if (project) {
+        request.registerPath = resolvedProjectPath(project->path, project->file.registerPath);
+        request.withRegister = !request.registerPath.isEmpty();
+    }
     BackgroundTask* task = BackgroundTask::start(
         this, tr("Reading %1").arg(QFileInfo(path).fileName()),
         [request] { return widgets::loadDrop(request); },
-        [this, path](const widgets::LoadedDrop& loaded) {
-            if (!loaded.ok()) {
-                const QString message = widgets::describeError(*loaded.error);
-                showError(tr("The drop could not be read"), message);
+        [this, path, project](const widgets::LoadedDrop& loaded) {
+            auto fail = [this, &project](const QString& title, const QString& message) {
+                showError(title, message);
                 Q_EMIT dropFailed(message);
+                if (project)
+                    Q_EMIT projectFailed(message);
+            };
+            if (!loaded.ok()) {
+                fail(project ? tr("The project's drop could not be read")
+                             : tr("The drop could not be read"),
+                     widgets::describeError(*loaded.error));
+                return;
+            }
+            // A project's ledger belongs to one drop, named by its hash: a changed file would
+            // replay someone else's decisions, so nothing is opened.
+            if (project && loaded.drop->source.sha256 != project->file.dropSha256) {
+                fail(tr("The project's drop has changed"),
+                     tr("%1: the file's SHA-256 is %2, the project was saved with %3. The "
+                        "project's ledger belongs to that release; open the file as a drop to "
+                        "start a new ledger.")
+                         .arg(path, QString::fromStdString(loaded.drop->source.sha256),
+                              QString::fromStdString(project->file.dropSha256)));
                 return;
             }
             m_undo->clear();
             m_decisionPane->clear();
+            m_projectPath = project ? project->path : QString();
             m_workbench->setDrop(loaded.drop, loaded.regionRegister);
-            if (Status ledger = m_workbench->openLedger(ledgerPathFor(*loaded.drop)); !ledger)
+            const QString ledgerPath =
+                project ? resolvedProjectPath(project->path, project->file.ledgerPath)
+                        : ledgerPathFor(*loaded.drop);
+            if (Status ledger = m_workbench->openLedger(ledgerPath); !ledger)
                 showError(tr("The ledger of this drop cannot be used"),
                           widgets::describeError(ledger.error()));
-            startScan();
+            else if (project) {
+                if (Status head = checkLedgerHead(project->file, m_workbench->ledger()); !head)
+                    showError(tr("The project's ledger is not the one it was saved with"),
+                              widgets::describeError(head.error()));
+            }
             if (loaded.registerError)
                 showError(tr("The region register could not be read"),
                           widgets::describeError(*loaded.registerError) +
                               tr("\n\nThe drop is open without region names."));
             if (m_options.rememberLayout) {
-                settings::addRecentFile(QFileInfo(path).absoluteFilePath());
+                settings::addRecentFile(project ? project->path
+                                                : QFileInfo(path).absoluteFilePath());
                 rebuildRecentMenu();
             }
+            updateWindowTitle();
             Q_EMIT dropOpened(path);
+            if (!project) {
+                startScan();
+                return;
+            }
+            restoreProjectView(project->file);
+            const QString previous =
+                resolvedProjectPath(project->path, project->file.previousDropPath);
+            const QString projectFile = project->path;
+            if (previous.isEmpty()) {
+                startScan();
+                Q_EMIT projectOpened(projectFile);
+                return;
+            }
+            // Opened with or without its previous release (a failure to read it is shown).
+            auto waiting = std::make_shared<std::array<QMetaObject::Connection, 2>>();
+            auto done = [this, projectFile, waiting] {
+                for (const QMetaObject::Connection& c : *waiting)
+                    disconnect(c);
+                Q_EMIT projectOpened(projectFile);
+            };
+            (*waiting)[0] = connect(this, &MainWindow::previousOpened, this,
+                                    [done](const QString&) { done(); });
+            (*waiting)[1] =
+                connect(this, &MainWindow::dropFailed, this, [done](const QString&) { done(); });
+            openPreviousRelease(previous);
         });
     setBusy(task);
+}
+
+void MainWindow::updateWindowTitle() {
+    if (!m_workbench->hasDrop()) {
+        setWindowTitle(tr("Siftwave"));
+        return;
+    }
+    const QString drop = QFileInfo(m_workbench->dropPath()).fileName();
+    if (m_projectPath.isEmpty())
+        setWindowTitle(tr("%1 — Siftwave").arg(drop));
+    else
+        setWindowTitle(tr("%1 (%2) — Siftwave").arg(QFileInfo(m_projectPath).fileName(), drop));
 }
 
 void MainWindow::cancelBackgroundWork() {
@@ -384,7 +519,10 @@ void MainWindow::setBusy(BackgroundTask* task) {
         m_progress->setRange(0, total);
         m_progress->setValue(done);
     });
-    connect(task, &BackgroundTask::finished, this, [this] { setBusy(nullptr); });
+    connect(task, &BackgroundTask::finished, this, [this, task] {
+        if (m_task == task)
+            setBusy(nullptr);
+    });
 }
 
 void MainWindow::showError(const QString& title, const QString& message) {
@@ -405,7 +543,7 @@ void MainWindow::onDropChanged() {
         for (const std::string& m : drop.measures)
             measures << QString::fromStdString(m);
         const QFileInfo info(m_workbench->dropPath());
-        setWindowTitle(tr("%1 — Siftwave").arg(info.fileName()));
+        updateWindowTitle();
         m_dropLabel->setText(tr("%1 · %2 regions · %3 to %4 · SHA-256 %5…")
                                  .arg(info.fileName())
                                  .arg(drop.regionCodes.size())
@@ -413,7 +551,8 @@ void MainWindow::onDropChanged() {
                                       QString::fromStdString(drop.lastDay().iso()),
                                       QString::fromStdString(drop.source.sha256.substr(0, 12))));
     } else {
-        setWindowTitle(tr("Siftwave"));
+        m_projectPath.clear();
+        updateWindowTitle();
         m_dropLabel->setText(tr("No drop open — File ▸ Open drop, or drop a CSV file here"));
     }
     m_plot->setMeasures(measures);
@@ -511,101 +650,6 @@ void MainWindow::focusPlotOn(const scan::Finding& finding) {
     }
 }
 
-bool MainWindow::decideFinding(const QString& id) {
-    const scan::Finding* finding = m_workbench->finding(id);
-    if (!finding || !m_workbench->hasDrop())
-        return false;
-    const std::string measure =
-        m_workbench->drop().measures.at(static_cast<std::size_t>(m_plot->measure()));
-    Result<Decision> decision = scan::suggestedDecision(*finding, measure);
-    if (!decision) {
-        showError(tr("No decision to prepare"), widgets::describeError(decision.error()));
-        return false;
-    }
-    focusPlotOn(*finding);
-    m_decisionPane->setCalendar(m_workbench->drop().firstDay, m_workbench->drop().days);
-    m_decisionPane->begin(*decision,
-                          tr("<b>%1</b> for %2 — finding %3")
-                              .arg(QString::fromLatin1(decisionKindName(decision->kind)),
-                                   QString::fromStdString(decision->region), id),
-                          widgets::reasonDraftFor(*finding, *decision));
-    if (auto* dock = findChild<QDockWidget*>(QStringLiteral("decisionDock")))
-        dock->raise();
-    previewDecision();
-    return true;
-}
-
-void MainWindow::previewDecision() {
-    if (!m_decisionPane->isActive())
-        return;
-    const Decision decision = m_decisionPane->decision();
-    const Result<Effect> effect = m_workbench->preview(decision);
-    m_decisionPane->showPreview(effect);
-    // Draw the cells of the shown region and measure as they would be after.
-    std::vector<double> values;
-    if (effect) {
-        const widgets::SeriesView& view = m_plot->view();
-        values.assign(static_cast<std::size_t>(view.days),
-                      std::numeric_limits<double>::quiet_NaN());
-        for (const CellChange& c : effect->cells) {
-            if (QString::fromStdString(c.region) != view.regionCode ||
-                QString::fromStdString(c.measure) != view.measure)
-                continue;
-            const int day = c.date - view.firstDay;
-            if (day >= 0 && day < view.days)
-                values[static_cast<std::size_t>(day)] = static_cast<double>(c.after.counted());
-        }
-    }
-    m_plot->setPreview(values, tr("Preview: after the decision"));
-    if (const auto window = m_decisionPane->window())
-        m_plot->setEditableWindow(*window);
-}
-
-bool MainWindow::applyCurrentDecision() {
-    if (!m_decisionPane->isActive())
-        return false;
-    if (m_decisionPane->reason().isEmpty() || !m_decisionPane->previewOk())
-        return false;
-    const std::uint64_t before = m_workbench->ledger().entries.size();
-    bool failed = false;
-    m_undo->push(
-        new ApplyDecisionCommand(m_workbench, m_decisionPane->decision(), m_decisionPane->reason(),
-                                 [this, &failed](const QString& message) {
-                                     failed = true;
-                                     showError(tr("The ledger refused the decision"), message);
-                                 }));
-    if (failed || m_workbench->ledger().entries.size() == before)
-        return false;
-    m_decisionPane->clear();
-    endDecision();
-    return true;
-}
-
-bool MainWindow::withdrawEntry(std::uint64_t sequence, QString reason) {
-    if (reason.trimmed().isEmpty()) {
-        if (!m_options.dialogs)
-            return false;
-        bool ok = false;
-        reason = QInputDialog::getText(
-            this, tr("Withdraw entry %1").arg(sequence),
-            tr("Why is entry %1 withdrawn? (required, kept in the ledger)").arg(sequence),
-            QLineEdit::Normal, QString(), &ok);
-        if (!ok || reason.trimmed().isEmpty())
-            return false;
-    }
-    const Result<std::uint64_t> result = m_workbench->withdraw(sequence, reason);
-    if (!result) {
-        showError(tr("The entry cannot be withdrawn"), widgets::describeError(result.error()));
-        return false;
-    }
-    return true;
-}
-
-void MainWindow::endDecision() {
-    m_plot->setPreview({});
-    redrawSeries();
-}
-
 void MainWindow::onWindowDragged(widgets::DayIndexRange window, bool finished) {
     if (m_decisionPane->isActive()) {
         m_decisionPane->setWindow(window);  // previews through decisionEdited
@@ -626,6 +670,16 @@ void MainWindow::redrawSeries() {
 }
 
 void MainWindow::refit(bool compare) {
+    QElapsedTimer clock;
+    clock.start();
+    refitNow(compare);
+    m_lastRefitMs = static_cast<double>(clock.nsecsElapsed()) * 1e-6;
+    qCDebug(lcRefit, "refit %s: %.2f ms (the plot's last repaint took %.1f ms)",
+            compare ? "with comparison" : "one model", m_lastRefitMs,
+            m_plot->customPlot()->replotTime());
+}
+
+void MainWindow::refitNow(bool compare) {
     m_fit.reset();
     const widgets::SeriesView& view = m_plot->view();
     if (!m_workbench->hasDrop() || view.empty()) {
@@ -784,7 +838,7 @@ void MainWindow::dropEvent(QDropEvent* event) {
     if (urls.isEmpty() || !urls.front().isLocalFile())
         return;
     event->acceptProposedAction();
-    openDrop(urls.front().toLocalFile());
+    openFile(urls.front().toLocalFile());
 }
 
 }  // namespace siftwave::gui

@@ -5,6 +5,7 @@
 // or command line; recent files), and a progress area for background work.
 
 #include "siftwave/fit/fit.h"
+#include "siftwave/ledger/project.h"
 #include "siftwave/scan/finding.h"
 #include "widgets/background_task.h"
 #include "widgets/series_view.h"
@@ -24,6 +25,7 @@ class QTextBrowser;
 class QUndoStack;
 
 namespace siftwave::widgets {
+class BatchFitView;
 class DecisionPane;
 class FindingModel;
 class FindingReview;
@@ -55,8 +57,26 @@ public:
     void openDrop(const QString& path);
     /// Reads another release of the same data to compare against; emits previousOpened().
     void openPreviousRelease(const QString& path);
-    /// Stops waiting for the background read (the window keeps what it had).
+    /// Opens a project (project.h): its drop, register, ledger, previous release and the
+    /// selection it was saved with; emits projectOpened() when all is shown, or projectFailed().
+    void openProject(const QString& path);
+    /// Saves the open drop as a project (the ".siftwave.json" ending is added when missing);
+    /// the project gets its own ledger beside it (project_session.h). False with the reason
+    /// shown when it cannot be saved.
+    bool saveProject(const QString& path);
+    /// The project file the window shows (empty: none, the drop was opened by itself).
+    QString projectPath() const { return m_projectPath; }
+    /// Opens a drop or a project, by the file's ending (recent files, drag and drop).
+    void openFile(const QString& path);
+    /// Stops waiting for the background work shown in the status bar (the window keeps what
+    /// it had).
     void cancelBackgroundWork();
+    /// Fits every region of the shown measure in the background (the fit pane's model and
+    /// method, each region's automatic window); emits batchFitFinished() unless cancelled.
+    void startBatchFit();
+    bool isBatchFitRunning() const { return m_batchTask != nullptr; }
+    /// How long the last refit of the current region took on the GUI thread (milliseconds).
+    double lastRefitMilliseconds() const { return m_lastRefitMs; }
     bool isBusy() const { return m_task != nullptr; }
 
     /// Makes a region current (browser and plot); false when the drop has no such code.
@@ -72,11 +92,17 @@ public:
     widgets::FindingReview* findingReview() const { return m_findings; }
     widgets::DecisionPane* decisionPane() const { return m_decisionPane; }
     widgets::LedgerView* ledgerView() const { return m_ledgerView; }
+    widgets::BatchFitView* batchFitView() const { return m_batchView; }
     QUndoStack* undoStack() const { return m_undo; }
 
     /// Starts preparing the finding's suggested decision (region selected, plot focused,
     /// preview drawn); false when the finding suggests none.
     bool decideFinding(const QString& id);
+    /// Starts preparing a redistribution of a day picked on the plot (a day index of the shown
+    /// series): a backlog_dump finding on that day is decided as from the list; otherwise the
+    /// core's backlog estimate for the day gives the counts to move and the window. False when
+    /// the day has no value, no earlier days, or a decision is already in preparation.
+    bool decideDay(int day);
     /// Applies the decision in preparation through the undo stack; false when the ledger refused.
     bool applyCurrentDecision();
     /// Withdraws a ledger entry with a reason (asked for when empty and dialogs are on).
@@ -91,8 +117,14 @@ Q_SIGNALS:
     /// The message is the core's own, with file, line and column where known.
     void dropFailed(const QString& message);
     void previousOpened(const QString& path);
+    /// A project is open and shows its selection (scanFinished() follows for its findings).
+    void projectOpened(const QString& path);
+    /// The message says why (the core's, with file and line where known).
+    void projectFailed(const QString& message);
     /// The scan of the open drop finished (findings are in the workbench).
     void scanFinished();
+    /// The batch fit finished and its table is filled.
+    void batchFitFinished();
 
 protected:
     void closeEvent(QCloseEvent* event) override;
@@ -105,6 +137,19 @@ private:
     void buildDocks();
     void showOpenDialog();
     void showOpenPreviousDialog();
+    void showOpenProjectDialog();
+    void showSaveProjectDialog();
+    void saveProjectInPlace();
+    /// A project being opened: the file as read and its path.
+    struct OpeningProject {
+        QString path;
+        ProjectFile file;
+    };
+    void startOpening(const QString& dropPath, std::optional<OpeningProject> project);
+    /// The project's view and fit settings shown (region, measures, fit choices, visible days).
+    void restoreProjectView(const ProjectFile& project);
+    ProjectFile projectOfWindow(const QString& projectPath) const;
+    void updateWindowTitle();
     QString askForDropFile(const QString& title);
     void rebuildRecentMenu();
     void onDropChanged();
@@ -115,11 +160,13 @@ private:
     void updateReleaseSummary();
     /// Refits the current region; `compare` also runs the model comparison (slower).
     void refit(bool compare);
+    void refitNow(bool compare);
     void onFitWindowDragged(widgets::DayIndexRange window, bool finished);
     void onWindowDragged(widgets::DayIndexRange window, bool finished);
     void startScan();
     void previewDecision();
     void endDecision();
+    void beginDecision(const Decision& decision, const QString& title, const QString& reason);
     void focusPlotOn(const scan::Finding& finding);
 
     Options m_options;
@@ -133,6 +180,9 @@ private:
     widgets::FindingReview* m_findings;
     widgets::DecisionPane* m_decisionPane;
     widgets::LedgerView* m_ledgerView;
+    widgets::BatchFitView* m_batchView;
+    QPointer<widgets::BackgroundTask> m_batchTask;
+    double m_lastRefitMs = 0;
     QUndoStack* m_undo;
     QPointer<widgets::BackgroundTask> m_scanTask;
     std::optional<fit::FitResult> m_fit;
@@ -143,6 +193,7 @@ private:
     QPushButton* m_cancel;
     QPointer<widgets::BackgroundTask> m_task;
     QString m_currentRegion;
+    QString m_projectPath;
     bool m_layoutRestored = false;
 };
 

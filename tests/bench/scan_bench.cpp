@@ -11,10 +11,10 @@
 
 #include <benchmark/benchmark.h>
 
+#include <unistd.h>
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
-#include <unistd.h>
 
 namespace {
 
@@ -28,9 +28,12 @@ const testing::SyntheticDrop& bigDrop() {
         o.days = 1000;
         o.waves = 6;
         testing::SyntheticDrop d = testing::makeSyntheticDrop(o);
-        for (std::size_t r = 0; r < 3000; r += 97) testing::plantBacklogDump(d, r, 500, 5);
-        for (std::size_t r = 11; r < 3000; r += 131) testing::plantReportingGap(d, r, 300, 3);
-        for (std::size_t r = 5; r < 3000; r += 211) testing::plantNegative(d, r, 700, -40);
+        for (std::size_t r = 0; r < 3000; r += 97)
+            testing::plantBacklogDump(d, r, 500, 5);
+        for (std::size_t r = 11; r < 3000; r += 131)
+            testing::plantReportingGap(d, r, 300, 3);
+        for (std::size_t r = 5; r < 3000; r += 211)
+            testing::plantNegative(d, r, 700, -40);
         return d;
     }();
     return s;
@@ -100,6 +103,7 @@ int main(int argc, char** argv) {
     benchmark::Initialize(&argc, argv);
     benchmark::RunSpecifiedBenchmarks();
     benchmark::Shutdown();
-    if (!g_writtenFile.empty()) std::filesystem::remove(g_writtenFile);
+    if (!g_writtenFile.empty())
+        std::filesystem::remove(g_writtenFile);
     return 0;
 }

@@ -106,5 +106,150 @@ TEST(CsvScanner, TextAfterAClosingQuoteIsAnError) {
     EXPECT_EQ(scanner.error().column, 1u);
 }
 
+// A plain reading of RFC 4180, section 2, written for this test only and byte by byte,
+// with the scanner's documented extensions (LF alone ends a line; a quote inside an
+// unquoted field and a CR not followed by LF are data; a CR at the very end ends the
+// line). The scanner reads most records from 64-byte bit masks instead; both must agree.
+struct ReferenceRecord {
+    std::vector<std::string> fields;
+    std::vector<bool> quoted;
+    std::uint64_t line = 0;
+    std::size_t offset = 0;
+    bool strayQuote = false;
+};
+
+std::vector<ReferenceRecord> referenceScan(const std::string& s, char delimiter) {
+    std::vector<ReferenceRecord> records;
+    std::size_t i = 0;
+    std::uint64_t line = 1;
+    const std::size_t n = s.size();
+    auto lineEndsAt = [&](std::size_t k) {
+        return s[k] == '\n' || (s[k] == '\r' && (k + 1 == n || s[k + 1] == '\n'));
+    };
+    while (i < n) {
+        ReferenceRecord r;
+        r.line = line;
+        r.offset = i;
+        for (;;) {
+            std::string field;
+            bool quoted = false;
+            if (i < n && s[i] == '"') {
+                quoted = true;
+                ++i;
+                for (;;) {
+                    if (s[i] == '"' && i + 1 < n && s[i + 1] == '"') {
+                        field += '"';
+                        i += 2;
+                    } else if (s[i] == '"') {
+                        ++i;
+                        break;
+                    } else {
+                        line += s[i] == '\n';
+                        field += s[i++];
+                    }
+                }
+            } else {
+                while (i < n && s[i] != delimiter && !lineEndsAt(i)) {
+                    r.strayQuote = r.strayQuote || s[i] == '"';
+                    field += s[i++];
+                }
+            }
+            r.fields.push_back(field);
+            r.quoted.push_back(quoted);
+            if (i < n && s[i] == delimiter) {
+                ++i;
+                if (i == n) {
+                    r.fields.emplace_back();
+                    r.quoted.push_back(false);
+                    break;
+                }
+                continue;
+            }
+            if (i < n && s[i] == '\r')
+                ++i;
+            if (i < n && s[i] == '\n')
+                ++i;
+            ++line;
+            break;
+        }
+        records.push_back(r);
+    }
+    return records;
+}
+
+TEST(CsvScanner, BitMaskReadingAgreesWithAPlainReading) {
+    std::uint64_t state = 0xD1B54A32D192ED03ull;  // xorshift, fixed seed
+    auto next = [&](std::uint64_t bound) {
+        state ^= state << 13;
+        state ^= state >> 7;
+        state ^= state << 17;
+        return state % bound;
+    };
+    for (int file = 0; file < 60; ++file) {
+        const char delimiter = ",;\t|"[file % 4];
+        // Mostly plain records, as in real drops; now and then a quoted field (with
+        // delimiters, line breaks and doubled quotes), a stray quote, a lone CR, an
+        // empty line, a long field over several 64-byte blocks, or CR LF line ends.
+        const bool crlf = file % 3 == 1;
+        std::string text;
+        const int records = 50 + static_cast<int>(next(400));
+        for (int r = 0; r < records; ++r) {
+            const int fields = 1 + static_cast<int>(next(6));
+            for (int f = 0; f < fields; ++f) {
+                if (f > 0)
+                    text += delimiter;
+                const std::uint64_t kind = next(100);
+                if (kind < 80) {
+                    for (std::uint64_t k = next(12); k > 0; --k)
+                        text += "0123456789-DAZ "[next(15)];
+                } else if (kind < 86) {
+                    text += '"';
+                    for (std::uint64_t k = next(10); k > 0; --k) {
+                        const std::uint64_t c = next(8);
+                        text += c == 0   ? std::string("\"\"")
+                                : c == 1 ? std::string(1, delimiter)
+                                : c == 2 ? std::string("\n")
+                                : c == 3 ? std::string("\r\n")
+                                         : std::string(1, "xyz7"[c % 4]);
+                    }
+                    text += '"';
+                } else if (kind < 89) {
+                    text += "a\"b";
+                } else if (kind < 91) {
+                    text += "c\rd";
+                } else if (kind < 95) {
+                    text += std::string(40 + next(150), 'w');
+                }  // else an empty field
+            }
+            if (next(40) == 0)
+                text += crlf ? "\r\n" : "\n";  // an empty line
+            text += crlf ? "\r\n" : "\n";
+        }
+        if (file % 5 == 0)
+            text.pop_back();  // no line break after the last record
+        SCOPED_TRACE("file " + std::to_string(file));
+        const std::vector<ReferenceRecord> expected = referenceScan(text, delimiter);
+        CsvScanner scanner(text, delimiter);
+        CsvRecord record;
+        std::size_t k = 0;
+        while (scanner.next(record)) {
+            ASSERT_LT(k, expected.size());
+            const ReferenceRecord& e = expected[k];
+            ASSERT_EQ(record.fields.size(), e.fields.size()) << "record " << k;
+            for (std::size_t f = 0; f < e.fields.size(); ++f) {
+                ASSERT_EQ(record.fields[f].text, e.fields[f]) << "record " << k << " field " << f;
+                ASSERT_EQ(record.fields[f].quoted, e.quoted[f]) << "record " << k;
+            }
+            ASSERT_EQ(record.line, e.line) << "record " << k;
+            ASSERT_EQ(record.offset, e.offset) << "record " << k;
+            ASSERT_EQ(record.strayQuote, e.strayQuote) << "record " << k;
+            ++k;
+        }
+        EXPECT_FALSE(scanner.failed()) << scanner.error().message;
+        EXPECT_EQ(k, expected.size());
+        EXPECT_EQ(scanner.position(), text.size());
+    }
+}
+
 }  // namespace
 }  // namespace siftwave::detail

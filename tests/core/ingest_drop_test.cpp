@@ -5,10 +5,14 @@
 
 #include <gtest/gtest.h>
 
+#include <array>
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
+#include <map>
 #include <string>
+#include <utility>
+#include <vector>
 
 namespace siftwave {
 namespace {
@@ -357,6 +361,100 @@ TEST(IngestDrop, SparseFilesWithManyRegionsAreReadCompletely) {
         EXPECT_EQ(c.line, static_cast<std::uint32_t>(r + 2));
     }
     EXPECT_EQ(drop.countCells().reported, 3000u);
+}
+
+// The cells a file of (day, region, value) rows must give, worked out the plain way: the
+// first row of a region and day is kept, every later one is a duplicate, in file order.
+struct ExpectedDrop {
+    std::map<std::pair<int, int>, std::pair<int, std::uint32_t>>
+        cells;  // (region, day) -> value, line
+    std::vector<std::pair<std::uint32_t, std::uint32_t>> duplicates;  // line, first line
+};
+
+std::string longFile(const std::vector<std::array<int, 3>>& rows, ExpectedDrop& expected) {
+    std::string text = "date,region,cases\n";
+    std::uint32_t line = 1;
+    for (const auto& [day, region, value] : rows) {
+        text += row(day, region, value);
+        ++line;
+        auto [it, added] = expected.cells.try_emplace({region, day}, value, line);
+        if (!added)
+            expected.duplicates.emplace_back(line, it->second.second);
+    }
+    return text;
+}
+
+void expectDrop(const Drop& drop, const ExpectedDrop& expected) {
+    std::size_t reported = 0;
+    for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
+        const int region = std::stoi(drop.regionCodes[r].substr(1));
+        for (int d = 0; d < drop.days; ++d) {
+            const Cell& c = drop.cell(0, r, d);
+            const int day = d + (drop.firstDay.serial - Date::fromIso("2026-01-01")->serial);
+            auto it = expected.cells.find({region, day});
+            if (it == expected.cells.end()) {
+                ASSERT_EQ(c.state, CellState::Absent) << region << " " << day;
+                continue;
+            }
+            ++reported;
+            ASSERT_EQ(c.state, CellState::Reported) << region << " " << day;
+            ASSERT_EQ(c.value, it->second.first) << region << " " << day;
+            ASSERT_EQ(c.line, it->second.second) << region << " " << day;
+        }
+    }
+    EXPECT_EQ(reported, expected.cells.size());
+    ASSERT_EQ(drop.duplicates.size(), expected.duplicates.size());
+    for (std::size_t i = 0; i < drop.duplicates.size(); ++i) {
+        EXPECT_EQ(drop.duplicates[i].cell.line, expected.duplicates[i].first) << i;
+        EXPECT_EQ(drop.duplicates[i].firstLine, expected.duplicates[i].second) << i;
+    }
+}
+
+TEST(IngestDrop, EveryRowOrderGivesTheCellsAndDuplicatesOfAPlainReading) {
+    // Cells are gathered in blocks of days before they reach the region-major tables
+    // (cell_table_builder.h). Rows date by date, region by region, backwards, shuffled,
+    // with repeats inside a block, across blocks and after a block was written out, and
+    // with regions that first appear late must all give what a plain reading gives.
+    std::uint64_t state = 0x2545F4914F6CDD1Dull;  // xorshift, fixed seed
+    auto next = [&](std::uint64_t bound) {
+        state ^= state << 13;
+        state ^= state >> 7;
+        state ^= state << 17;
+        return static_cast<int>(state % bound);
+    };
+    constexpr int kDays = 70, kRegions = 23;
+    for (int order = 0; order < 5; ++order) {
+        std::vector<std::array<int, 3>> rows;
+        for (int a = 0; a < (order == 1 ? kRegions : kDays); ++a)
+            for (int b = 0; b < (order == 1 ? kDays : kRegions); ++b) {
+                const int day = order == 1 ? b : (order == 2 ? kDays - 1 - a : a);
+                const int region = order == 1 ? a : b;
+                if (order == 4 && region > 10 && day < 40)
+                    continue;  // these regions appear on day 40 only
+                rows.push_back({day, region, next(500)});
+            }
+        if (order == 3) {
+            for (std::size_t i = rows.size() - 1; i > 0; --i)
+                std::swap(rows[i], rows[static_cast<std::size_t>(next(i + 1))]);
+        }
+        // Repeats: of the row just before (same block), of a row 20 days back (a block
+        // already written out), and a few at random.
+        for (int k = 0; k < 12; ++k) {
+            const std::size_t at = 1 + static_cast<std::size_t>(next(rows.size() - 1));
+            std::array<int, 3> repeat = rows[at - (k % 3 == 0 ? 1 : 0)];
+            if (k % 3 == 1 && at > 20 * kRegions)
+                repeat = rows[at - 20 * kRegions];
+            repeat[2] = 1000 + k;
+            rows.insert(rows.begin() + static_cast<std::ptrdiff_t>(at), repeat);
+        }
+        ExpectedDrop expected;
+        const std::string text = longFile(rows, expected);
+        SCOPED_TRACE("row order " + std::to_string(order));
+        const Drop drop = readOk(text);
+        EXPECT_EQ(drop.regionCodes.size(), static_cast<std::size_t>(kRegions));
+        EXPECT_EQ(drop.days, kDays);
+        expectDrop(drop, expected);
+    }
 }
 
 TEST(IngestDrop, RecordsProvenanceOfTheFile) {

@@ -4,6 +4,9 @@
 
 #include <gtest/gtest.h>
 
+#include <cstdint>
+#include <string>
+
 namespace siftwave::detail {
 namespace {
 
@@ -24,6 +27,73 @@ TEST(IngestNumbers, ReadsPlainSignedCounts) {
     EXPECT_FALSE(parse("2147483648").ok);
     EXPECT_EQ(parse("2147483648").note, NumberNote::OutOfRange);
     EXPECT_FALSE(parse("99999999999999999999").ok);
+}
+
+TEST(IngestNumbers, TheDigitWindowAgreesWithTheDigitLoop) {
+    // parsePlainCountIn reads up to eight digits as one word (the SWAR step, see
+    // number_parsing.h); the byte-by-byte loop of parsePlainCount is the reference.
+    // Each text is placed after other bytes of a buffer, as a cell in a file is.
+    std::uint64_t state = 0x9E3779B97F4A7C15ull;  // xorshift, fixed seed
+    auto next = [&] {
+        state ^= state << 13;
+        state ^= state >> 7;
+        state ^= state << 17;
+        return state;
+    };
+    const std::string bytesAround = "0123456789,;-+ .\"/:aZ\x7F\x80\xFF";
+    auto check = [&](const std::string& text) {
+        for (std::size_t lead = 0; lead <= 9; ++lead) {
+            std::string buffer(lead, bytesAround[next() % bytesAround.size()]);
+            buffer += text;
+            buffer += ",";
+            const std::string_view cell = std::string_view(buffer).substr(lead, text.size());
+            std::int32_t fast = -1, slow = -2;
+            const bool fastOk = parsePlainCountIn(cell, buffer, fast);
+            const bool slowOk = parsePlainCount(cell, slow);
+            ASSERT_EQ(fastOk, slowOk) << "'" << text << "' after " << lead << " bytes";
+            if (slowOk) {
+                ASSERT_EQ(fast, slow) << "'" << text << "' after " << lead << " bytes";
+            }
+        }
+    };
+    for (int v = 0; v <= 1000; ++v)
+        check(std::to_string(v));
+    for (const char* text : {"99999999",
+                             "10000000",
+                             "00000000",
+                             "01234567",
+                             "12345678",
+                             "123456789",
+                             "2147483647",
+                             "2147483648",
+                             "-5",
+                             "+5",
+                             "-",
+                             "",
+                             "1a",
+                             "a1",
+                             "1 2",
+                             "1.0",
+                             "1/2",
+                             "12345678a",
+                             "1234567:",
+                             "/1234567",
+                             "\x80"
+                             "1",
+                             "1"
+                             "\xB0"}) {
+        check(std::string(text));
+    }
+    check(
+        std::string("12\0"
+                    "39",
+                    5));  // a NUL byte among the digits
+    for (int k = 0; k < 20000; ++k) {
+        std::string text = std::to_string(next() % 100000000);
+        if (k % 3 == 0)  // one byte replaced by any byte: still a digit or not
+            text[next() % text.size()] = static_cast<char>(next() % 256);
+        check(text);
+    }
 }
 
 TEST(IngestNumbers, ReadsThousandsGroupsOfThree) {

@@ -1,6 +1,6 @@
 // duplicate_row: the same region, date and measure more than once.
 
-#include "scan/scan_input.h"
+#include "support/run_detector.h"
 #include "support/synthetic_drop.h"
 
 #include <gtest/gtest.h>
@@ -9,11 +9,7 @@ namespace siftwave::scan {
 namespace {
 
 std::vector<Finding> run(const Drop& drop) {
-    const ScanOptions options;
-    const detail::ScanInput in = detail::prepareScanInput(drop, options);
-    std::vector<Finding> out;
-    detail::findDuplicateRows(in, out);
-    return out;
+    return siftwave::testing::runDetector(drop, detail::findDuplicateRows);
 }
 
 DuplicateRow repeat(const Drop& drop, std::size_t region, std::int32_t day, std::int32_t value,

@@ -1,6 +1,6 @@
 // missing_dates: runs of days with no value inside a region's reporting span.
 
-#include "scan/scan_input.h"
+#include "support/run_detector.h"
 #include "support/synthetic_drop.h"
 
 #include <gtest/gtest.h>
@@ -14,11 +14,7 @@ using siftwave::testing::kNoRow;
 constexpr std::int32_t X = kNoRow;
 
 std::vector<Finding> run(const Drop& drop) {
-    const ScanOptions options;
-    const detail::ScanInput in = detail::prepareScanInput(drop, options);
-    std::vector<Finding> out;
-    detail::findMissingDates(in, out);
-    return out;
+    return siftwave::testing::runDetector(drop, detail::findMissingDates);
 }
 
 TEST(MissingDates, OneFindingPerRunInsideTheSpanNoneForTheTails) {

@@ -1,6 +1,6 @@
 // reporting_gap: a run of zeros inside an active period.
 
-#include "scan/scan_input.h"
+#include "support/run_detector.h"
 #include "support/synthetic_drop.h"
 
 #include <gtest/gtest.h>
@@ -9,11 +9,7 @@ namespace siftwave::scan {
 namespace {
 
 std::vector<Finding> run(const Drop& drop) {
-    const ScanOptions options;
-    const detail::ScanInput in = detail::prepareScanInput(drop, options);
-    std::vector<Finding> out;
-    detail::findReportingGaps(in, out);
-    return out;
+    return siftwave::testing::runDetector(drop, detail::findReportingGaps);
 }
 
 TEST(ReportingGap, ReportsZerosInsideAnActivePeriodAndTheCatchUp) {

@@ -13,6 +13,8 @@
 #include <QStandardPaths>
 #include <QTest>
 
+#include <cmath>
+
 using siftwave::gui::MainWindow;
 
 namespace {
@@ -29,6 +31,50 @@ class FitWindowTest : public QObject {
 
 private Q_SLOTS:
     void initTestCase() { QStandardPaths::setTestModeEnabled(true); }
+
+    void theFitIsDrawnWithTheCoresPointwiseBand() {
+        MainWindow::Options options;
+        options.rememberLayout = false;
+        MainWindow window(options);
+        window.resize(1400, 900);
+        window.show();
+        QSignalSpy opened(&window, &MainWindow::dropOpened);
+        window.openDrop(QStringLiteral(SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv"));
+        QVERIFY(opened.wait(20000));
+        QVERIFY(window.selectRegion(QStringLiteral("1203")));
+        const siftwave::fit::FitResult* fit = window.currentFit();
+        QVERIFY(fit);
+        QCOMPARE(fit->method, siftwave::fit::FitMethod::LeastSquares);  // no weekday factors
+        QCOMPARE(fit->fittedLower.size(), fit->fitted.size());
+
+        // On every window day the plot shows the core's curve and interval (least squares has no
+        // weekday factors, so the drawn wave K f(t) is the fitted value itself).
+        const auto& curve = window.seriesPlot()->view().fit;
+        QVERIFY(curve);
+        QCOMPARE(static_cast<int>(curve->low.size()), window.seriesPlot()->view().days);
+        for (int d = fit->first; d <= fit->last; ++d) {
+            const std::size_t i = static_cast<std::size_t>(d - fit->first);
+            QVERIFY(std::abs(curve->mid[d] - fit->fitted[i]) <= 1e-9 * (1 + fit->fitted[i]));
+            QCOMPARE(curve->low[d], fit->fittedLower[i]);
+            QCOMPARE(curve->high[d], fit->fittedUpper[i]);
+            QVERIFY(curve->low[d] <= curve->mid[d] && curve->mid[d] <= curve->high[d]);
+        }
+        // Nothing is drawn outside the window (it may end on the last day of the release).
+        QVERIFY(fit->first > 0);
+        QVERIFY(std::isnan(curve->mid[fit->first - 1]) && std::isnan(curve->low[fit->first - 1]));
+        if (fit->last + 1 < window.seriesPlot()->view().days)
+            QVERIFY(std::isnan(curve->low[fit->last + 1]));
+        // The band is in the legend under what it is, filled, and the hover gives its edges.
+        QCustomPlot* plot = window.seriesPlot()->customPlot();
+        bool legend = false;
+        for (int g = 0; g < plot->graphCount(); ++g)
+            if (plot->graph(g)->name() == QStringLiteral("95% interval of the fit"))
+                legend = plot->graph(g)->brush().style() != Qt::NoBrush;
+        QVERIFY(legend);
+        const int peak = fit->first + static_cast<int>(std::lround(fit->derived.peakDay.value));
+        const QString hover = siftwave::widgets::hoverText(window.seriesPlot()->view(), peak);
+        QVERIFY2(hover.contains(QStringLiteral(" – ")), qPrintable(hover));
+    }
 
     void draggingTheFitWindowEdgeRefitsOnTheNewWindow() {
         MainWindow::Options options;

@@ -112,6 +112,28 @@ private Q_SLOTS:
         QCOMPARE(plot.customPlot()->xAxis->range().lower, before);
     }
 
+    void aRawBarTheLedgerLoweredRunsOffTheTopWithItsValue() {
+        SeriesPlot plot;
+        plot.resize(900, 500);
+        plot.show();
+        SeriesView view = syntheticView();
+        view.raw[20] = 500;     // a backlog dump as reported ...
+        view.cleaned[20] = 15;  // ... and spread back by a decision
+        plot.setView(view);
+        QCustomPlot* canvas = plot.customPlot();
+        // Scaled to the cleaned series (at most 16 here), not to the raw spike.
+        QVERIFY(canvas->yAxis->range().upper < 30);
+        bool labelled = false;
+        for (int i = 0; i < canvas->itemCount(); ++i)
+            if (auto* text = qobject_cast<QCPItemText*>(canvas->item(i)))
+                labelled = labelled || text->text().contains(QStringLiteral("raw 500"));
+        QVERIFY(labelled);
+        // Where raw and cleaned agree, the raw bars set the scale as before.
+        view.cleaned[20] = 500;
+        plot.setView(view);
+        QVERIFY(canvas->yAxis->range().upper >= 500);
+    }
+
     void hoverTextNamesTheDayItsNumbersSourceAndLedgerEntries() {
         const SeriesView view = syntheticView();
         const QString text = siftwave::widgets::hoverText(view, 7);

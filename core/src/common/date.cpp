@@ -40,34 +40,44 @@ Ymd civilFromDays(std::int32_t z) {
 }  // namespace
 
 bool isValidYmd(int year, int month, int day) {
-    if (year < 1400 || year > 9999 || month < 1 || month > 12 || day < 1) return false;
+    if (year < 1400 || year > 9999 || month < 1 || month > 12 || day < 1)
+        return false;
     return day <= boost::gregorian::gregorian_calendar::end_of_month_day(
                       static_cast<unsigned short>(year), static_cast<unsigned short>(month));
 }
 
 std::optional<Date> Date::fromYmd(int year, int month, int day) {
-    if (!isValidYmd(year, month, day)) return std::nullopt;
+    if (!isValidYmd(year, month, day))
+        return std::nullopt;
     return Date{daysFromCivil(year, static_cast<unsigned>(month), static_cast<unsigned>(day))};
 }
 
 std::optional<Date> Date::fromIso(std::string_view t) {
-    if (t.size() != 10 || t[4] != '-' || t[7] != '-') return std::nullopt;
+    if (t.size() != 10 || t[4] != '-' || t[7] != '-')
+        return std::nullopt;
     int v[3] = {0, 0, 0};
     const int starts[3] = {0, 5, 8};
     const int lens[3] = {4, 2, 2};
     for (int k = 0; k < 3; ++k) {
         for (int i = 0; i < lens[k]; ++i) {
             const char c = t[static_cast<size_t>(starts[k] + i)];
-            if (c < '0' || c > '9') return std::nullopt;
+            if (c < '0' || c > '9')
+                return std::nullopt;
             v[k] = v[k] * 10 + (c - '0');
         }
     }
     return fromYmd(v[0], v[1], v[2]);
 }
 
-int Date::year() const { return civilFromDays(serial).y; }
-int Date::month() const { return static_cast<int>(civilFromDays(serial).m); }
-int Date::day() const { return static_cast<int>(civilFromDays(serial).d); }
+int Date::year() const {
+    return civilFromDays(serial).y;
+}
+int Date::month() const {
+    return static_cast<int>(civilFromDays(serial).m);
+}
+int Date::day() const {
+    return static_cast<int>(civilFromDays(serial).d);
+}
 
 int Date::isoWeekday() const {
     // 1970-01-01 was a Thursday (ISO weekday 4).

@@ -4,17 +4,28 @@ namespace siftwave {
 
 const char* errorCodeName(ErrorCode code) {
     switch (code) {
-        case ErrorCode::Io: return "io";
-        case ErrorCode::Encoding: return "encoding";
-        case ErrorCode::Syntax: return "syntax";
-        case ErrorCode::Ambiguous: return "ambiguous";
-        case ErrorCode::InvalidValue: return "invalid_value";
-        case ErrorCode::Layout: return "layout";
-        case ErrorCode::Usage: return "usage";
-        case ErrorCode::Integrity: return "integrity";
-        case ErrorCode::Conservation: return "conservation";
-        case ErrorCode::NotFound: return "not_found";
-        case ErrorCode::Numerical: return "numerical";
+        case ErrorCode::Io:
+            return "io";
+        case ErrorCode::Encoding:
+            return "encoding";
+        case ErrorCode::Syntax:
+            return "syntax";
+        case ErrorCode::Ambiguous:
+            return "ambiguous";
+        case ErrorCode::InvalidValue:
+            return "invalid_value";
+        case ErrorCode::Layout:
+            return "layout";
+        case ErrorCode::Usage:
+            return "usage";
+        case ErrorCode::Integrity:
+            return "integrity";
+        case ErrorCode::Conservation:
+            return "conservation";
+        case ErrorCode::NotFound:
+            return "not_found";
+        case ErrorCode::Numerical:
+            return "numerical";
     }
     return "unknown";
 }
@@ -25,20 +36,25 @@ std::string Error::describe() const {
         out += file;
         if (line > 0) {
             out += ':' + std::to_string(line);
-            if (column > 0) out += ':' + std::to_string(column);
+            if (column > 0)
+                out += ':' + std::to_string(column);
         }
         out += ": ";
     } else if (line > 0) {
         out += "line " + std::to_string(line);
-        if (column > 0) out += ", column " + std::to_string(column);
+        if (column > 0)
+            out += ", column " + std::to_string(column);
         out += ": ";
     }
     out += message;
     if (!region.empty() || !date.empty()) {
         out += " (";
-        if (!region.empty()) out += "region " + region;
-        if (!region.empty() && !date.empty()) out += ", ";
-        if (!date.empty()) out += date;
+        if (!region.empty())
+            out += "region " + region;
+        if (!region.empty() && !date.empty())
+            out += ", ";
+        if (!date.empty())
+            out += date;
         out += ')';
     }
     return out;

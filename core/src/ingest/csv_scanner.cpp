@@ -15,41 +15,102 @@ CsvScanner::CsvScanner(std::string_view data, char delimiter, std::size_t start,
       m_pos(data.data() + start),
       m_end(data.data() + data.size()),
       m_delimiter(delimiter),
-      m_line(firstLine) {
-    std::memset(m_special, 0, sizeof m_special);
-    m_special[static_cast<unsigned char>(delimiter)] = true;
-    m_special[static_cast<unsigned char>('\n')] = true;
-    m_special[static_cast<unsigned char>('\r')] = true;
-    m_special[static_cast<unsigned char>('"')] = true;
-}
+      m_line(firstLine) {}
 
 void CsvScanner::loadBlock(const char* base) {
     m_blockBase = base;
-    std::uint64_t mask = 0;
+    std::uint64_t delimiters = 0, lfs = 0, crs = 0, quotes = 0;
 #if defined(__SSE2__)
     if (base + 64 <= m_end) {
         const __m128i delimiter = _mm_set1_epi8(m_delimiter);
         const __m128i lf = _mm_set1_epi8('\n');
         const __m128i cr = _mm_set1_epi8('\r');
         const __m128i quote = _mm_set1_epi8('"');
+        auto bits = [](__m128i hit, int k) {
+            return static_cast<std::uint64_t>(static_cast<std::uint16_t>(_mm_movemask_epi8(hit)))
+                   << (16 * k);
+        };
         for (int k = 0; k < 4; ++k) {
             const __m128i v = _mm_loadu_si128(reinterpret_cast<const __m128i*>(base + 16 * k));
-            const __m128i hit =
-                _mm_or_si128(_mm_or_si128(_mm_cmpeq_epi8(v, delimiter), _mm_cmpeq_epi8(v, lf)),
-                             _mm_or_si128(_mm_cmpeq_epi8(v, cr), _mm_cmpeq_epi8(v, quote)));
-            mask |= static_cast<std::uint64_t>(static_cast<std::uint16_t>(_mm_movemask_epi8(hit)))
-                    << (16 * k);
+            delimiters |= bits(_mm_cmpeq_epi8(v, delimiter), k);
+            lfs |= bits(_mm_cmpeq_epi8(v, lf), k);
+            crs |= bits(_mm_cmpeq_epi8(v, cr), k);
+            quotes |= bits(_mm_cmpeq_epi8(v, quote), k);
         }
-        m_blockMask = mask;
-        return;
-    }
+    } else
 #endif
-    const std::size_t n = static_cast<std::size_t>(std::min<std::ptrdiff_t>(64, m_end - base));
-    for (std::size_t i = 0; i < n; ++i) {
-        if (m_special[static_cast<unsigned char>(base[i])])
-            mask |= std::uint64_t{1} << i;
+    {
+        const std::size_t n = static_cast<std::size_t>(std::min<std::ptrdiff_t>(64, m_end - base));
+        for (std::size_t i = 0; i < n; ++i) {
+            const std::uint64_t bit = std::uint64_t{1} << i;
+            const char c = base[i];
+            delimiters |= c == m_delimiter ? bit : 0;
+            lfs |= c == '\n' ? bit : 0;
+            crs |= c == '\r' ? bit : 0;
+            quotes |= c == '"' ? bit : 0;
+        }
     }
-    m_blockMask = mask;
+    m_blockMask = delimiters | lfs | crs | quotes;
+    // For the plain records: a CR right before an LF ends the field and the line (RFC 4180,
+    // section 2, rule 1: CR LF); any other CR, and one on the block's last byte (its LF
+    // would be in the next block), is left to the full scanner, as are quotes.
+    const std::uint64_t crlf = crs & (lfs >> 1);
+    const std::uint64_t loneLf = lfs & ~(crlf << 1);
+    m_fieldEndMask = delimiters | loneLf | crlf;
+    m_lineEndMask = loneLf | crlf;
+    m_crlfMask = crlf;
+    m_unusualMask = quotes | (crs & ~crlf);
+}
+
+bool CsvScanner::nextPlain(CsvRecord& record) {
+    const char* p = m_pos;
+    const char* base = m_begin + ((static_cast<std::size_t>(p - m_begin)) & ~std::size_t{63});
+    if (base != m_blockBase) {
+        if (base + 64 > m_end)
+            return false;
+        loadBlock(base);
+    }
+    const unsigned offset = static_cast<unsigned>(p - base);
+    std::uint64_t ends = m_fieldEndMask & (~std::uint64_t{0} << offset);
+    std::uint64_t unusual = m_unusualMask & (~std::uint64_t{0} << offset);
+    std::vector<CsvField>& fields = record.fields;
+    std::size_t count = 0;
+    const char* start = p;
+    for (;;) {
+        if (ends == 0) {
+            // The record goes on into the next block (it must have no unusual byte left here).
+            if (unusual != 0 || base + 128 > m_end)
+                return false;
+            base += 64;
+            loadBlock(base);
+            ends = m_fieldEndMask;
+            unusual = m_unusualMask;
+            continue;
+        }
+        const std::uint64_t upToEnd = ends ^ (ends - 1);  // bits up to the next field end
+        if (unusual & upToEnd)
+            return false;  // a quote or CR in this field: the full scanner reads it
+        const unsigned at = static_cast<unsigned>(__builtin_ctzll(ends));
+        const char* q = base + at;
+        if (count == fields.size())
+            fields.emplace_back();
+        CsvField& f = fields[count++];
+        f.text = std::string_view(start, static_cast<std::size_t>(q - start));
+        f.quoted = false;
+        start = q + 1;
+        if ((m_lineEndMask >> at) & 1) {
+            start += (m_crlfMask >> at) & 1;  // the LF after a CR
+            break;
+        }
+        ends &= ends - 1;
+    }
+    fields.resize(count);
+    record.line = m_line;
+    record.offset = position();
+    record.strayQuote = false;
+    ++m_line;
+    m_pos = start;
+    return true;
 }
 
 bool CsvScanner::fail(std::string message, std::uint64_t line, std::size_t column, const char* at) {
@@ -65,6 +126,8 @@ bool CsvScanner::fail(std::string message, std::uint64_t line, std::size_t colum
 bool CsvScanner::next(CsvRecord& record) {
     if (m_failed || m_pos >= m_end)
         return false;
+    if (nextPlain(record))
+        return true;
     // Fields are assigned over the previous record's slots: no allocation per record.
     std::vector<CsvField>& fields = record.fields;
     std::size_t count = 0;

@@ -76,8 +76,12 @@ private:
             p = m_blockBase + 64;
         }
     }
-    /// Computes the bit mask of special bytes in the 64 bytes at `base`.
+    /// Computes the bit masks of special bytes in the 64 bytes at `base`.
     void loadBlock(const char* base);
+    /// The common record, read from the bit masks alone: no quote, no CR other than
+    /// the one of a CR LF, and its line end before the last 64 bytes of the data.
+    /// False (nothing consumed) otherwise: next() then reads it byte by byte.
+    bool nextPlain(CsvRecord& record);
     bool fail(std::string message, std::uint64_t line, std::size_t column, const char* at);
 
     const char* m_begin;
@@ -85,9 +89,12 @@ private:
     const char* m_end;
     char m_delimiter;
     std::uint64_t m_line;
-    bool m_special[256];
-    const char* m_blockBase = nullptr;  // the 64-byte block whose special bytes m_blockMask marks
-    std::uint64_t m_blockMask = 0;
+    const char* m_blockBase = nullptr;  // the 64-byte block whose special bytes the masks mark
+    std::uint64_t m_blockMask = 0;      // delimiter, LF, CR or quote
+    std::uint64_t m_fieldEndMask = 0;   // delimiter, LF, or the CR of a CR LF
+    std::uint64_t m_lineEndMask = 0;    // LF, or the CR of a CR LF
+    std::uint64_t m_crlfMask = 0;       // the CR of a CR LF
+    std::uint64_t m_unusualMask = 0;    // quote, or a CR not followed by LF in the block
     std::string m_scratch;
     struct Pending {
         std::size_t field;

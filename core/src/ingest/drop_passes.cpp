@@ -1,51 +1,17 @@
 // The passes over a drop's records (see drop_reader.h).
 #include "ingest/drop_reader.h"
 
-#include <sys/mman.h>
-
 #include <algorithm>
 #include <cctype>
 #include <limits>
-#include <new>
 #include <set>
 
 namespace siftwave::detail {
 namespace {
 
-constexpr std::size_t kCheckAhead = std::size_t{1} << 20;
+constexpr std::size_t kCheckAhead = std::size_t{256} << 10;
 constexpr std::size_t kTailBytes = std::size_t{64} << 10;
 constexpr double kMaxCells = 1.5e9;
-
-/// Asks for huge pages on the reserved part of `cells` (a hint). Rows usually come
-/// date by date, so consecutive writes land a region's length apart; huge pages keep
-/// those writes from missing the TLB each time.
-void adviseHugePages(const std::vector<Cell>& cells) {
-#ifdef MADV_HUGEPAGE
-    constexpr std::uintptr_t kHuge = std::uintptr_t{2} << 20;
-    const auto begin = reinterpret_cast<std::uintptr_t>(cells.data());
-    const std::uintptr_t end = begin + cells.capacity() * sizeof(Cell);
-    const std::uintptr_t alignedBegin = (begin + kHuge - 1) & ~(kHuge - 1);
-    if (end > alignedBegin + kHuge) {
-        madvise(reinterpret_cast<void*>(alignedBegin), ((end - alignedBegin) / kHuge) * kHuge,
-                MADV_HUGEPAGE);
-    }
-#else
-    (void)cells;
-#endif
-}
-
-/// Reserves room for `capacity` cells and makes the first `size` of them (Absent).
-bool makeCells(std::vector<Cell>& cells, std::size_t capacity, std::size_t size) {
-    try {
-        cells.reserve(capacity);
-        adviseHugePages(cells);
-        cells.resize(size);
-        return true;
-    } catch (const std::bad_alloc&) {
-        cells = {};
-        return false;
-    }
-}
 
 bool hasEdgeSpace(std::string_view code) {
     return std::isspace(static_cast<unsigned char>(code.front())) ||
@@ -71,7 +37,7 @@ Status DropReader::advance(std::size_t offset) {
     return Ok{};
 }
 
-Status DropReader::admit(const CsvRecord& record, bool& keep) {
+Status DropReader::admitSlowly(const CsvRecord& record, bool& keep) {
     keep = false;
     if (record.isEmptyLine()) {
         if (m_emptyLines++ == 0)
@@ -214,11 +180,10 @@ Result<bool> DropReader::onePass() {
     const std::size_t regionCol = static_cast<std::size_t>(m_roles.regionColumn);
     const int measureCol = m_roles.measureColumn;
     const std::size_t reserve = m_regionCapacity * m_days;
+    m_tables.reset(m_days);
     if (measureCol < 0) {
-        m_cells.resize(m_roles.valueColumns.size());
-        m_lastDay.resize(m_roles.valueColumns.size());
-        for (std::vector<Cell>& cells : m_cells) {
-            if (!makeCells(cells, reserve, 0))
+        for (std::size_t m = 0; m < m_roles.valueColumns.size(); ++m) {
+            if (!m_tables.addMeasure(reserve))
                 return false;
         }
     }
@@ -263,8 +228,8 @@ Result<bool> DropReader::onePass() {
             bool added = false;
             region = m_regions.intern(code, added);
             noteNewRegion(code, line);
-            for (std::size_t m = 0; m < m_cells.size(); ++m)
-                growRegions(m, m_regions.size());
+            if (!m_tables.growTo(m_regions.size()))
+                return false;
         }
 
         if (measureCol >= 0) {
@@ -273,11 +238,8 @@ Result<bool> DropReader::onePass() {
             if (measure == KeyDictionary::kNone) {
                 bool added = false;
                 measure = m_measureNames.intern(name, added);
-                m_cells.emplace_back();
-                m_lastDay.emplace_back();
-                if (!makeCells(m_cells.back(), reserve, 0))
+                if (!m_tables.addMeasure(reserve))
                     return false;
-                growRegions(measure, m_regions.size());
             }
             const std::size_t col = static_cast<std::size_t>(m_roles.valueColumns[0]);
             place(measure, region, day, parseCell(f[col].text, line, col + 1));
@@ -290,6 +252,7 @@ Result<bool> DropReader::onePass() {
     }
     if (scanner.failed())
         return syntaxFailure(scanner.error());
+    m_tables.finish();
     if (lo != m_firstSerial || hi != last)
         return false;  // the guessed ends were wrong (e.g. a tail inside a quoted field)
     if (Status s = m_checker.checkAll(); !s)
@@ -307,9 +270,7 @@ void DropReader::resetForTwoPasses() {
     m_dateLine.clear();
     m_dateColumn.clear();
     m_dayOfDate.clear();
-    m_cells.clear();
-    m_cells.shrink_to_fit();
-    m_lastDay.clear();
+    m_tables.reset(0);
     m_drop.duplicates.clear();
     m_drop.rows = 0;
     m_drop.source.dialect.thousandsSeparator = 0;
@@ -551,12 +512,13 @@ void DropReader::addDuplicate(std::size_t measure, std::uint32_t region, std::in
 Status DropReader::cellPass() {
     const std::size_t regions =
         m_roles.layout == Layout::DatesDown ? m_roles.valueColumns.size() : m_regions.size();
-    m_cells.resize(measureCount());
-    m_lastDay.assign(measureCount(), std::vector<std::int32_t>(regions, -1));
-    for (std::vector<Cell>& cells : m_cells) {
-        if (!makeCells(cells, regions * m_days, regions * m_days))
+    m_tables.reset(m_days);
+    for (std::size_t m = 0; m < measureCount(); ++m) {
+        if (!m_tables.addMeasure(regions * m_days))
             return fail(ErrorCode::Io, "not enough memory for the cell tables");
     }
+    if (!m_tables.growTo(regions))
+        return fail(ErrorCode::Io, "not enough memory for the cell tables");
     if (m_file)
         m_file->rewind();
     CsvScanner scanner(m_bytes, m_delimiter, m_dataStart, m_dataLine);
@@ -618,6 +580,7 @@ Status DropReader::cellPass() {
     }
     if (scanner.failed())
         return syntaxFailure(scanner.error());
+    m_tables.finish();
     if (m_file)
         m_file->release(m_bytes.size());
     return Ok{};
@@ -646,11 +609,10 @@ Status DropReader::finish() {
         m_drop.measures.push_back(m_options.measureName.empty() ? std::string("cases")
                                                                 : m_options.measureName);
     }
-    m_drop.tables.reserve(m_cells.size());
-    for (std::vector<Cell>& cells : m_cells)
+    std::vector<std::vector<Cell>> tables = m_tables.takeTables();
+    m_drop.tables.reserve(tables.size());
+    for (std::vector<Cell>& cells : tables)
         m_drop.tables.emplace_back(m_days, std::move(cells));
-    m_cells.clear();
-    m_lastDay.clear();
     m_drop.indexRegions();
 
     if (m_emptyLines > 0) {

@@ -14,6 +14,7 @@
 // Along the first pass the bytes are hashed (SHA-256) and checked for UTF-8.
 // Peak memory is the cell tables plus a window of the file (input_source.h).
 
+#include "ingest/cell_table_builder.h"
 #include "ingest/csv_scanner.h"
 #include "ingest/date_parsing.h"
 #include "ingest/input_source.h"
@@ -66,7 +67,24 @@ private:
     /// Housekeeping every record gets once: encoding checks ahead, page release.
     Status advance(std::size_t offset);
     /// The checks every data record gets once; `keep` false when the row is not read.
-    Status admit(const CsvRecord& record, bool& keep);
+    /// Inline for the common record: the right number of fields, no stray quote, and
+    /// its date, region and measure cells not empty.
+    Status admit(const CsvRecord& record, bool& keep) {
+        const std::vector<CsvField>& f = record.fields;
+        if (f.size() == m_names.size() && !record.strayQuote &&
+            (m_roles.layout == Layout::DatesAcross ||
+             !f[static_cast<std::size_t>(m_roles.dateColumn)].text.empty()) &&
+            (m_roles.layout == Layout::DatesDown ||
+             !f[static_cast<std::size_t>(m_roles.regionColumn)].text.empty()) &&
+            (m_roles.measureColumn < 0 ||
+             !f[static_cast<std::size_t>(m_roles.measureColumn)].text.empty())) {
+            ++m_drop.rows;
+            keep = true;
+            return Ok{};
+        }
+        return admitSlowly(record, keep);
+    }
+    Status admitSlowly(const CsvRecord& record, bool& keep);
     void noteNewRegion(std::string_view code, std::uint32_t line);
     Error dateError(const std::string& text, std::uint64_t line, std::uint64_t column) const;
     Status checkFieldCount(const CsvRecord& record);
@@ -74,7 +92,7 @@ private:
     Cell parseCell(std::string_view text, std::uint32_t line, std::uint64_t column) {
         // The common case inline: plain digits and no missing-value token to compare with.
         Cell cell;
-        if (m_otherMissing.empty() && parsePlainCount(text, cell.value)) {
+        if (m_otherMissing.empty() && parsePlainCountIn(text, m_bytes, cell.value)) {
             cell.line = line;
             cell.state = CellState::Reported;
             return cell;
@@ -83,31 +101,9 @@ private:
     }
     Cell parseCellSlowly(std::string_view text, std::uint32_t line, std::uint64_t column);
     void place(std::size_t measure, std::uint32_t region, std::int32_t day, const Cell& cell) {
-        const std::size_t index =
-            static_cast<std::size_t>(region) * m_days + static_cast<std::size_t>(day);
-        Cell& target = m_cells[measure][index];
-        // Rows usually come date by date, so this region's next cells are written a
-        // whole round of regions later: fetch their cache line now.
-        if (static_cast<std::size_t>(day) + 5 < m_days)
-            __builtin_prefetch(&target + 5, 1);
-        // A day after the last one written for this region cannot be filled yet, so
-        // the cell is written without reading it first (reads here miss the cache).
-        std::int32_t& lastDay = m_lastDay[measure][region];
-        if (day > lastDay) {
-            lastDay = day;
-            target = cell;
-            return;
-        }
-        if (target.state != CellState::Absent) {
-            addDuplicate(measure, region, day, cell, target.line);
-            return;
-        }
-        target = cell;
-    }
-    /// Makes room for `regions` regions in measure `m`'s table (and its last-day list).
-    void growRegions(std::size_t m, std::size_t regions) {
-        m_cells[m].resize(regions * m_days);
-        m_lastDay[m].resize(regions, -1);
+        std::uint32_t firstLine = 0;
+        if (!m_tables.put(measure, region, day, cell, firstLine))
+            addDuplicate(measure, region, day, cell, firstLine);
     }
     void addDuplicate(std::size_t measure, std::uint32_t region, std::int32_t day, const Cell& cell,
                       std::uint32_t firstLine);
@@ -143,9 +139,8 @@ private:
 
     std::int32_t m_firstSerial = 0;  // the calendar: first day and length
     std::size_t m_days = 0;
-    std::size_t m_regionCapacity = 0;        // one pass: regions the tables are reserved for
-    std::vector<std::vector<Cell>> m_cells;  // per measure, region-major, m_days per region
-    std::vector<std::vector<std::int32_t>> m_lastDay;  // per measure and region: last day written
+    std::size_t m_regionCapacity = 0;  // one pass: regions the tables are reserved for
+    CellTableBuilder m_tables;         // per measure, region-major, m_days per region
 
     std::size_t m_nextCheck = 0;
     std::size_t m_emptyLines = 0;

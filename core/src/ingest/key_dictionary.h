@@ -8,6 +8,7 @@
 // directly (transparent lookup), so no lookup allocates.
 
 #include <cstdint>
+#include <cstring>
 #include <functional>
 #include <optional>
 #include <string>
@@ -22,13 +23,31 @@ struct TransparentStringHash {
     std::size_t operator()(std::string_view s) const { return std::hash<std::string_view>{}(s); }
 };
 
-/// Byte equality, inlined: keys are short, and a library call per row costs more than the compare.
-inline bool sameBytes(const std::string& a, std::string_view b) {
+/// Byte equality, inlined: keys are short, and a library call per row costs more than the
+/// compare. Keys of 4 to 16 bytes are compared as two overlapping words each (no loop, so no
+/// branch that depends on where the first difference is).
+[[gnu::always_inline]] inline bool sameBytes(const std::string& a, std::string_view b) {
     const std::size_t n = a.size();
     if (n != b.size())
         return false;
     const char* x = a.data();
     const char* y = b.data();
+    if (n >= 8 && n <= 16) {
+        std::uint64_t x0, x1, y0, y1;
+        std::memcpy(&x0, x, 8);
+        std::memcpy(&y0, y, 8);
+        std::memcpy(&x1, x + n - 8, 8);
+        std::memcpy(&y1, y + n - 8, 8);
+        return ((x0 ^ y0) | (x1 ^ y1)) == 0;
+    }
+    if (n >= 4 && n < 8) {
+        std::uint32_t x0, x1, y0, y1;
+        std::memcpy(&x0, x, 4);
+        std::memcpy(&y0, y, 4);
+        std::memcpy(&x1, x + n - 4, 4);
+        std::memcpy(&y1, y + n - 4, 4);
+        return ((x0 ^ y0) | (x1 ^ y1)) == 0;
+    }
     for (std::size_t i = 0; i < n; ++i) {
         if (x[i] != y[i])
             return false;
@@ -40,18 +59,15 @@ class KeyDictionary {
 public:
     static constexpr std::uint32_t kNone = UINT32_MAX;
 
-    std::uint32_t find(std::string_view key) {
+    /// Index of `key`, or kNone. Tries the key found last and the one after it
+    /// first, inline; the rest out of line.
+    [[gnu::always_inline]] std::uint32_t find(std::string_view key) {
         const std::size_t n = m_keys.size();
         if (m_last < n && sameBytes(m_keys[m_last], key))
             return m_last;
         if (m_last + 1 < n && sameBytes(m_keys[m_last + 1], key))
             return ++m_last;
-        if (n > 0 && sameBytes(m_keys[0], key))
-            return m_last = 0;
-        auto it = m_index.find(key);
-        if (it == m_index.end())
-            return kNone;
-        return m_last = it->second;
+        return findElsewhere(key);
     }
 
     /// Index of `key`, adding it at the end when new (`added` tells which).
@@ -73,6 +89,15 @@ public:
     std::vector<std::string> takeKeys() { return std::move(m_keys); }
 
 private:
+    [[gnu::noinline]] std::uint32_t findElsewhere(std::string_view key) {
+        if (!m_keys.empty() && sameBytes(m_keys[0], key))
+            return m_last = 0;
+        auto it = m_index.find(key);
+        if (it == m_index.end())
+            return kNone;
+        return m_last = it->second;
+    }
+
     std::vector<std::string> m_keys;
     std::unordered_map<std::string, std::uint32_t, TransparentStringHash, std::equal_to<>> m_index;
     std::uint32_t m_last = 0;

@@ -113,6 +113,40 @@ Result<std::int32_t> findDay(const Drop& drop, Date date, const std::string& reg
     return *d;
 }
 
+/// The (measure, region) series a decision or a recorded change names.
+struct SeriesAt {
+    std::size_t measure;
+    std::size_t region;
+};
+
+Result<SeriesAt> findSeries(const Drop& drop, const std::string& measure,
+                            const std::string& region) {
+    auto r = findRegion(drop, region);
+    if (!r)
+        return r.error();
+    auto m = findMeasure(drop, measure);
+    if (!m)
+        return m.error();
+    return SeriesAt{*m, *r};
+}
+
+struct CellAt {
+    std::size_t measure;
+    std::size_t region;
+    std::int32_t day;
+};
+
+Result<CellAt> locate(const Drop& drop, const std::string& measure, const std::string& region,
+                      Date date) {
+    auto series = findSeries(drop, measure, region);
+    if (!series)
+        return series.error();
+    auto d = findDay(drop, date, region);
+    if (!d)
+        return d.error();
+    return CellAt{series->measure, series->region, *d};
+}
+
 struct DaySpan {
     std::int32_t first = 0;
     std::int32_t last = -1;
@@ -183,20 +217,15 @@ std::vector<std::int64_t> baselineWeights(const Cleaned& cleaned, std::size_t m,
 
 Status redistribute(const Drop& drop, const Cleaned& cleaned, const Decision& dec,
                     EffectBuilder& out) {
-    auto r = findRegion(drop, dec.region);
-    if (!r)
-        return r.error();
-    auto m = findMeasure(drop, dec.measure);
-    if (!m)
-        return m.error();
-    auto dump = findDay(drop, *dec.date, dec.region);
-    if (!dump)
-        return dump.error();
+    auto at = locate(drop, dec.measure, dec.region, *dec.date);
+    if (!at)
+        return at.error();
+    const auto [m, r, dump] = *at;
     auto window = findDays(drop, *dec.window, dec.region);
     if (!window)
         return window.error();
-    const CleanedCell& from = cleaned.cell(*m, *r, *dump);
-    if (auto s = requireWritable(drop, from, *r, *dump); !s)
+    const CleanedCell& from = cleaned.cell(m, r, dump);
+    if (auto s = requireWritable(drop, from, r, dump); !s)
         return s;
     if (!from.hasValue()) {
         return cellError(ErrorCode::InvalidValue, "the day has no value to take an excess from",
@@ -211,8 +240,8 @@ Status redistribute(const Drop& drop, const Cleaned& cleaned, const Decision& de
     }
     std::vector<std::int64_t> weights;
     for (std::int32_t d = window->first; d <= window->last; ++d) {
-        const CleanedCell& c = cleaned.cell(*m, *r, d);
-        if (auto s = requireWritable(drop, c, *r, d); !s)
+        const CleanedCell& c = cleaned.cell(m, r, d);
+        if (auto s = requireWritable(drop, c, r, d); !s)
             return s;
         switch (dec.redistributeMethod) {
             case RedistributeMethod::Uniform:
@@ -226,7 +255,7 @@ Status redistribute(const Drop& drop, const Cleaned& cleaned, const Decision& de
         }
     }
     if (dec.redistributeMethod == RedistributeMethod::Baseline) {
-        weights = baselineWeights(cleaned, *m, *r, *window, *dump, dec.baselineWidth);
+        weights = baselineWeights(cleaned, m, r, *window, dump, dec.baselineWidth);
     }
     auto parts = apportionLargestRemainder(dec.excess, weights);
     if (!parts) {
@@ -238,32 +267,27 @@ Status redistribute(const Drop& drop, const Cleaned& cleaned, const Decision& de
     }
     for (std::int32_t d = window->first; d <= window->last; ++d) {
         const std::int64_t part = (*parts)[static_cast<std::size_t>(d - window->first)];
-        out.set(*m, *r, d, withAdded(cleaned.cell(*m, *r, d), part));
+        out.set(m, r, d, withAdded(cleaned.cell(m, r, d), part));
     }
-    out.set(*m, *r, *dump, CleanedCell{from.value - dec.excess, from.state});
-    out.addScope(*m, *r);
+    out.set(m, r, dump, CleanedCell{from.value - dec.excess, from.state});
+    out.addScope(m, r);
     return Ok{};
 }
 
 Status spreadNegative(const Drop& drop, const Cleaned& cleaned, const Decision& dec,
                       EffectBuilder& out) {
-    auto r = findRegion(drop, dec.region);
-    if (!r)
-        return r.error();
-    auto m = findMeasure(drop, dec.measure);
-    if (!m)
-        return m.error();
-    auto day = findDay(drop, *dec.date, dec.region);
-    if (!day)
-        return day.error();
-    const CleanedCell& negative = cleaned.cell(*m, *r, *day);
-    if (auto s = requireWritable(drop, negative, *r, *day); !s)
+    auto at = locate(drop, dec.measure, dec.region, *dec.date);
+    if (!at)
+        return at.error();
+    const auto [m, r, day] = *at;
+    const CleanedCell& negative = cleaned.cell(m, r, day);
+    if (auto s = requireWritable(drop, negative, r, day); !s)
         return s;
     if (!negative.hasValue() || negative.value >= 0) {
         return cellError(ErrorCode::InvalidValue, "the day holds no negative value to spread",
                          dec.region, dec.date->iso());
     }
-    DaySpan window{0, *day - 1};
+    DaySpan window{0, day - 1};
     if (dec.window) {
         auto w = findDays(drop, *dec.window, dec.region);
         if (!w)
@@ -278,7 +302,7 @@ Status spreadNegative(const Drop& drop, const Cleaned& cleaned, const Decision& 
     std::vector<std::int64_t> weights;
     std::int64_t available = 0;
     for (std::int32_t d = window.first; d <= window.last; ++d) {
-        const CleanedCell& c = cleaned.cell(*m, *r, d);
+        const CleanedCell& c = cleaned.cell(m, r, d);
         const std::int64_t w = c.hasValue() ? std::max<std::int64_t>(0, c.value) : 0;
         weights.push_back(w);
         available += w;
@@ -297,27 +321,25 @@ Status spreadNegative(const Drop& drop, const Cleaned& cleaned, const Decision& 
     for (std::int32_t d = window.first; d <= window.last; ++d) {
         const std::int64_t part = (*parts)[static_cast<std::size_t>(d - window.first)];
         if (part > 0)
-            out.set(*m, *r, d, withAdded(cleaned.cell(*m, *r, d), -part));
+            out.set(m, r, d, withAdded(cleaned.cell(m, r, d), -part));
     }
-    out.set(*m, *r, *day, CleanedCell{0, negative.state});
-    out.addScope(*m, *r);
+    out.set(m, r, day, CleanedCell{0, negative.state});
+    out.addScope(m, r);
     return Ok{};
 }
 
 Status fillMissing(const Drop& drop, const Cleaned& cleaned, const Decision& dec,
                    EffectBuilder& out) {
-    auto r = findRegion(drop, dec.region);
-    if (!r)
-        return r.error();
-    auto m = findMeasure(drop, dec.measure);
-    if (!m)
-        return m.error();
+    auto series = findSeries(drop, dec.measure, dec.region);
+    if (!series)
+        return series.error();
+    const auto [m, r] = *series;
     auto gap = findDays(drop, *dec.window, dec.region);
     if (!gap)
         return gap.error();
     for (std::int32_t d = gap->first; d <= gap->last; ++d) {
-        const CleanedCell& c = cleaned.cell(*m, *r, d);
-        if (auto s = requireWritable(drop, c, *r, d); !s)
+        const CleanedCell& c = cleaned.cell(m, r, d);
+        if (auto s = requireWritable(drop, c, r, d); !s)
             return s;
         if (c.hasValue()) {
             return cellError(ErrorCode::InvalidValue,
@@ -327,18 +349,18 @@ Status fillMissing(const Drop& drop, const Cleaned& cleaned, const Decision& dec
     }
     const std::int64_t n = gap->last - gap->first + 1;
     auto neighbour = [&](std::int32_t d, const char* side) -> Result<std::int64_t> {
-        if (d < 0 || d >= drop.days || !cleaned.cell(*m, *r, d).hasValue()) {
+        if (d < 0 || d >= drop.days || !cleaned.cell(m, r, d).hasValue()) {
             return cellError(ErrorCode::InvalidValue,
                              std::string(fillMethodName(dec.fillMethod)) +
                                  " filling needs a value on the day " + side + " the gap",
                              dec.region, dec.window->iso());
         }
-        return cleaned.cell(*m, *r, d).value;
+        return cleaned.cell(m, r, d).value;
     };
     switch (dec.fillMethod) {
         case FillMethod::Zero:
             for (std::int32_t d = gap->first; d <= gap->last; ++d)
-                out.set(*m, *r, d, {0, CleanedState::Filled});
+                out.set(m, r, d, {0, CleanedState::Filled});
             break;
         case FillMethod::Linear: {
             auto a = neighbour(gap->first - 1, "before");
@@ -351,7 +373,7 @@ Status fillMissing(const Drop& drop, const Cleaned& cleaned, const Decision& dec
             for (std::int64_t k = 1; k <= n; ++k) {
                 const std::int64_t num = *a * (n + 1 - k) + *b * k;
                 const std::int64_t value = floorDiv(2 * num + (n + 1), 2 * (n + 1));
-                out.set(*m, *r, gap->first + static_cast<std::int32_t>(k) - 1,
+                out.set(m, r, gap->first + static_cast<std::int32_t>(k) - 1,
                         {value, CleanedState::Filled});
             }
             break;
@@ -370,15 +392,15 @@ Status fillMissing(const Drop& drop, const Cleaned& cleaned, const Decision& dec
             if (!parts)
                 return parts.error();
             for (std::int64_t k = 0; k < n; ++k) {
-                out.set(*m, *r, gap->first + static_cast<std::int32_t>(k),
+                out.set(m, r, gap->first + static_cast<std::int32_t>(k),
                         {(*parts)[static_cast<std::size_t>(k)], CleanedState::Filled});
             }
-            const CleanedCell& nextCell = cleaned.cell(*m, *r, gap->last + 1);
-            out.set(*m, *r, gap->last + 1, {parts->back(), nextCell.state});
+            const CleanedCell& nextCell = cleaned.cell(m, r, gap->last + 1);
+            out.set(m, r, gap->last + 1, {parts->back(), nextCell.state});
             break;
         }
     }
-    out.addScope(*m, *r);
+    out.addScope(m, r);
     return Ok{};
 }
 
@@ -388,26 +410,21 @@ CleanedCell cleanedFromRaw(const Cell& raw) {
 
 Status resolveDuplicate(const Drop& drop, const Cleaned& cleaned, const Decision& dec,
                         EffectBuilder& out) {
-    auto r = findRegion(drop, dec.region);
-    if (!r)
-        return r.error();
-    auto m = findMeasure(drop, dec.measure);
-    if (!m)
-        return m.error();
-    auto day = findDay(drop, *dec.date, dec.region);
-    if (!day)
-        return day.error();
-    std::vector<Cell> occurrences{drop.cell(*m, *r, *day)};
+    auto at = locate(drop, dec.measure, dec.region, *dec.date);
+    if (!at)
+        return at.error();
+    const auto [m, r, day] = *at;
+    std::vector<Cell> occurrences{drop.cell(m, r, day)};
     for (const DuplicateRow& dup : drop.duplicates) {
-        if (dup.measure == *m && dup.region == *r && dup.day == *day)
+        if (dup.measure == m && dup.region == r && dup.day == day)
             occurrences.push_back(dup.cell);
     }
     if (occurrences.size() < 2) {
         return cellError(ErrorCode::NotFound, "the drop has no duplicate rows for this day",
                          dec.region, dec.date->iso());
     }
-    if (cleaned.cell(*m, *r, *day) != cleanedFromRaw(occurrences.front()) ||
-        !cleaned.touchedBy(*m, *r, *day).empty()) {
+    if (cleaned.cell(m, r, day) != cleanedFromRaw(occurrences.front()) ||
+        !cleaned.touchedBy(m, r, day).empty()) {
         return cellError(
             ErrorCode::InvalidValue,
             "an earlier entry changed this day; resolve duplicates before other decisions on it",
@@ -439,8 +456,8 @@ Status resolveDuplicate(const Drop& drop, const Cleaned& cleaned, const Decision
             break;
         }
     }
-    out.set(*m, *r, *day, after);
-    out.addScope(*m, *r);
+    out.set(m, r, day, after);
+    out.addScope(m, r);
     return Ok{};
 }
 
@@ -553,26 +570,6 @@ Status accept(const Drop& drop, const Decision& dec, EffectBuilder& out) {
     return Ok{};
 }
 
-struct CellAt {
-    std::size_t measure;
-    std::size_t region;
-    std::int32_t day;
-};
-
-Result<CellAt> locate(const Drop& drop, const std::string& measure, const std::string& region,
-                      Date date) {
-    auto m = findMeasure(drop, measure);
-    if (!m)
-        return m.error();
-    auto r = findRegion(drop, region);
-    if (!r)
-        return r.error();
-    auto d = findDay(drop, date, region);
-    if (!d)
-        return d.error();
-    return CellAt{*m, *r, *d};
-}
-
 /// The non-withdraw entry a withdrawal of `target` toggles, and whether it ends up in effect.
 std::pair<std::uint64_t, bool> withdrawalBase(const Cleaned& cleaned, std::uint64_t target) {
     std::uint64_t cur = target;
@@ -624,13 +621,10 @@ Status withdraw(const Drop& drop, const Cleaned& cleaned, const Decision& dec, E
         }
     }
     for (const TotalChange& t : effect.totals) {
-        auto m = findMeasure(drop, t.measure);
-        if (!m)
-            return m.error();
-        auto r = findRegion(drop, t.region);
-        if (!r)
-            return r.error();
-        out.addScope(*m, *r);
+        auto series = findSeries(drop, t.measure, t.region);
+        if (!series)
+            return series.error();
+        out.addScope(series->measure, series->region);
     }
     return Ok{};
 }

@@ -1,0 +1,184 @@
+// MainWindow: decisions — from a finding or a bar picked on the plot, previewed in the
+// decision pane, applied through the undo stack (Workbench::apply(), the one door), withdrawn.
+#include "main_window.h"
+
+#include "decision_command.h"
+
+#include "widgets/decision_pane.h"
+#include "widgets/drop_loading.h"
+#include "widgets/series_plot.h"
+#include "widgets/workbench.h"
+
+#include "siftwave/scan/backlog.h"
+#include "siftwave/scan/suggested_decision.h"
+
+#include <QDockWidget>
+#include <QInputDialog>
+#include <QLineEdit>
+#include <QUndoStack>
+
+#include <cmath>
+#include <limits>
+
+namespace siftwave::gui {
+
+bool MainWindow::decideFinding(const QString& id) {
+    const scan::Finding* finding = m_workbench->finding(id);
+    if (!finding || !m_workbench->hasDrop())
+        return false;
+    const std::string measure =
+        m_workbench->drop().measures.at(static_cast<std::size_t>(m_plot->measure()));
+    Result<Decision> decision = scan::suggestedDecision(*finding, measure);
+    if (!decision) {
+        showError(tr("No decision to prepare"), widgets::describeError(decision.error()));
+        return false;
+    }
+    focusPlotOn(*finding);
+    beginDecision(*decision,
+                  tr("<b>%1</b> for %2 — finding %3")
+                      .arg(QString::fromLatin1(decisionKindName(decision->kind)),
+                           QString::fromStdString(decision->region), id),
+                  widgets::reasonDraftFor(*finding, *decision));
+    return true;
+}
+
+void MainWindow::beginDecision(const Decision& decision, const QString& title,
+                               const QString& reason) {
+    m_decisionPane->setCalendar(m_workbench->drop().firstDay, m_workbench->drop().days);
+    m_decisionPane->begin(decision, title, reason);
+    m_plot->setDayPickingEnabled(false);
+    if (auto* dock = findChild<QDockWidget*>(QStringLiteral("decisionDock")))
+        dock->raise();
+    previewDecision();
+}
+
+bool MainWindow::decideDay(int day) {
+    const widgets::SeriesView& view = m_plot->view();
+    if (!m_workbench->hasDrop() || m_decisionPane->isActive() || view.empty() || day < 0 ||
+        day >= view.days)
+        return false;
+    const Date date = view.dayAt(day);
+    const std::string region = view.regionCode.toStdString();
+    const std::string measure = view.measure.toStdString();
+    // A backlog the scan found on that day is decided exactly as from the finding list.
+    for (const scan::Finding& f : m_workbench->findings())
+        if (f.kind == scan::FindingKind::BacklogDump && f.region == region && f.first == date &&
+            (!f.measure || *f.measure == measure) && !m_workbench->isDecided(f.id))
+            return decideFinding(QString::fromStdString(f.id));
+    if (day >= static_cast<int>(view.raw.size()) || std::isnan(view.raw[day])) {
+        showError(tr("Nothing to redistribute"),
+                  tr("%1 has no reported %2 on %3.")
+                      .arg(view.regionCode, view.measure, QString::fromStdString(date.iso())));
+        return false;
+    }
+    if (day == 0) {
+        showError(tr("Nothing to redistribute"),
+                  tr("%1 is the first day of the release: there are no earlier days to move "
+                     "counts to.")
+                      .arg(QString::fromStdString(date.iso())));
+        return false;
+    }
+    Decision decision;
+    decision.kind = DecisionKind::Redistribute;
+    decision.region = region;
+    decision.measure = measure;
+    decision.date = date;
+    // The same estimate the scan's backlog detector makes (scan/backlog.h), with the scan's
+    // default options, so a picked day and a found one get the same proposal.
+    const Result<scan::BacklogEstimate> estimate =
+        scan::estimateBacklog(m_workbench->drop(), measure, region, date);
+    if (estimate) {
+        decision.excess = estimate->excess;
+        decision.window = DayRange{estimate->windowFirst, estimate->windowLast};
+        decision.redistributeMethod =
+            estimate->gapFirst ? RedistributeMethod::Baseline : RedistributeMethod::Proportional;
+    } else {
+        // No baseline: the week before, and the analyst sets the counts to move.
+        decision.window = DayRange{date - std::min(day, 7), date - 1};
+        decision.redistributeMethod = RedistributeMethod::Proportional;
+    }
+    // As from a finding: the window and the day in view, with three weeks either side.
+    m_plot->focusOn(widgets::DayIndexRange{decision.window->first - view.firstDay - 21, day + 21});
+    beginDecision(
+        decision,
+        tr("<b>redistribute</b> for %1 — %2 picked on the plot")
+            .arg(view.regionCode, QString::fromStdString(date.iso())),
+        widgets::reasonDraftForPickedDay(
+            decision, static_cast<std::int64_t>(view.raw[day]), estimate ? &*estimate : nullptr,
+            estimate ? QString() : widgets::describeError(estimate.error())));
+    return true;
+}
+
+void MainWindow::previewDecision() {
+    if (!m_decisionPane->isActive())
+        return;
+    const Decision decision = m_decisionPane->decision();
+    const Result<Effect> effect = m_workbench->preview(decision);
+    m_decisionPane->showPreview(effect);
+    // Draw the cells of the shown region and measure as they would be after.
+    std::vector<double> values;
+    if (effect) {
+        const widgets::SeriesView& view = m_plot->view();
+        values.assign(static_cast<std::size_t>(view.days),
+                      std::numeric_limits<double>::quiet_NaN());
+        for (const CellChange& c : effect->cells) {
+            if (QString::fromStdString(c.region) != view.regionCode ||
+                QString::fromStdString(c.measure) != view.measure)
+                continue;
+            const int day = c.date - view.firstDay;
+            if (day >= 0 && day < view.days)
+                values[static_cast<std::size_t>(day)] = static_cast<double>(c.after.counted());
+        }
+    }
+    m_plot->setPreview(values, tr("Preview: after the decision"));
+    if (const auto window = m_decisionPane->window())
+        m_plot->setEditableWindow(*window);
+}
+
+bool MainWindow::applyCurrentDecision() {
+    if (!m_decisionPane->isActive())
+        return false;
+    if (m_decisionPane->reason().isEmpty() || !m_decisionPane->previewOk())
+        return false;
+    const std::uint64_t before = m_workbench->ledger().entries.size();
+    bool failed = false;
+    m_undo->push(
+        new ApplyDecisionCommand(m_workbench, m_decisionPane->decision(), m_decisionPane->reason(),
+                                 [this, &failed](const QString& message) {
+                                     failed = true;
+                                     showError(tr("The ledger refused the decision"), message);
+                                 }));
+    if (failed || m_workbench->ledger().entries.size() == before)
+        return false;
+    m_decisionPane->clear();
+    endDecision();
+    return true;
+}
+
+bool MainWindow::withdrawEntry(std::uint64_t sequence, QString reason) {
+    if (reason.trimmed().isEmpty()) {
+        if (!m_options.dialogs)
+            return false;
+        bool ok = false;
+        reason = QInputDialog::getText(
+            this, tr("Withdraw entry %1").arg(sequence),
+            tr("Why is entry %1 withdrawn? (required, kept in the ledger)").arg(sequence),
+            QLineEdit::Normal, QString(), &ok);
+        if (!ok || reason.trimmed().isEmpty())
+            return false;
+    }
+    const Result<std::uint64_t> result = m_workbench->withdraw(sequence, reason);
+    if (!result) {
+        showError(tr("The entry cannot be withdrawn"), widgets::describeError(result.error()));
+        return false;
+    }
+    return true;
+}
+
+void MainWindow::endDecision() {
+    m_plot->setDayPickingEnabled(!m_decisionPane->isActive());
+    m_plot->setPreview({});
+    redrawSeries();
+}
+
+}  // namespace siftwave::gui
