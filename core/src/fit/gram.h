@@ -14,23 +14,35 @@ namespace siftwave::fit::detail {
 /// Lower triangle and mirror of A = sum_i c_i x_i x_i^T (row-major n x n into `a`), and
 /// b = sum_i c_i x_i y_i when `y` is not empty (`b` may be null otherwise). `c` empty means
 /// c_i = 1.
+template <std::size_t N, bool Weighted, bool WithRhs>
+void gramRows(const double* x, std::size_t m, std::span<const double> c, std::span<const double> y,
+              std::array<double, N*(N + 1) / 2>& s, std::array<double, N>& g) {
+    for (std::size_t i = 0; i < m; ++i) {
+        const double* row = x + i * N;
+        std::size_t k = 0;
+        for (std::size_t p = 0; p < N; ++p) {
+            const double cp = Weighted ? c[i] * row[p] : row[p];
+            for (std::size_t q = 0; q <= p; ++q)
+                s[k++] += cp * row[q];
+            if constexpr (WithRhs)
+                g[p] += cp * y[i];
+        }
+    }
+}
+
 template <std::size_t N>
 void gramFixed(const double* x, std::size_t m, std::span<const double> c, std::span<const double> y,
                double* a, double* b) {
     std::array<double, N*(N + 1) / 2> s{};
     std::array<double, N> g{};
-    for (std::size_t i = 0; i < m; ++i) {
-        const double* row = x + i * N;
-        const double ci = c.empty() ? 1.0 : c[i];
-        std::size_t k = 0;
-        for (std::size_t p = 0; p < N; ++p) {
-            const double cp = ci * row[p];
-            for (std::size_t q = 0; q <= p; ++q)
-                s[k++] += cp * row[q];
-            if (!y.empty())
-                g[p] += cp * y[i];
-        }
-    }
+    if (c.empty() && y.empty())
+        gramRows<N, false, false>(x, m, c, y, s, g);
+    else if (c.empty())
+        gramRows<N, false, true>(x, m, c, y, s, g);
+    else if (y.empty())
+        gramRows<N, true, false>(x, m, c, y, s, g);
+    else
+        gramRows<N, true, true>(x, m, c, y, s, g);
     std::size_t k = 0;
     for (std::size_t p = 0; p < N; ++p) {
         for (std::size_t q = 0; q <= p; ++q, ++k)

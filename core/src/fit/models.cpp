@@ -35,9 +35,13 @@ std::optional<Line> fitLine(const std::vector<double>& x, const std::vector<doub
     }
     if (!(sxx > 0))
         return std::nullopt;
+    double syy = 0;
+    for (std::size_t i = 0; i < n; ++i)
+        syy += (y[i] - my) * (y[i] - my);
     Line line;
     line.slope = sxy / sxx;
     line.intercept = my - line.slope * mx;
+    line.r2 = syy > 0 ? sxy * sxy / (sxx * syy) : 1.0;
     return line;
 }
 
@@ -105,7 +109,14 @@ std::optional<GuessData> prepareGuess(std::span<const double> t, std::span<const
 double bestSize(const WaveModel& model, const GuessData& d, std::vector<double> p) {
     p[0] = 1.0;
     std::vector<double> g(d.t.size());
-    model.incidence(d.t, p, g);
+    bool consecutive = true;  // days t0, t0 + 1, ...: the cheaper day-grid evaluation
+    for (std::size_t i = 1; i < d.t.size() && consecutive; ++i)
+        consecutive = d.t[i] == d.t[0] + static_cast<double>(i);
+    if (consecutive && !d.t.empty()) {
+        model.incidenceOnDays(d.t[0], p, g);
+    } else {
+        model.incidence(d.t, p, g);
+    }
     double gy = 0, gg = 0;
     for (std::size_t i = 0; i < g.size(); ++i) {
         gy += g[i] * d.y[i];
@@ -119,22 +130,19 @@ template <class Transform>
 std::optional<Line> linearisedAt(const GuessData& d, double size, Transform transform,
                                  bool logTime) {
     std::vector<double> xs, ys;
+    // The days with 0.02 < C/K < 0.98: one run, the cumulative being nondecreasing.
+    const auto begin = d.cumulative.begin(), end = d.cumulative.end();
+    const auto lo = std::partition_point(begin, end, [&](double c) { return c / size <= 0.02; });
+    const auto hi = std::partition_point(lo, end, [&](double c) { return c / size < 0.98; });
+    const std::size_t first = static_cast<std::size_t>(lo - begin);
+    const std::size_t inRange = static_cast<std::size_t>(hi - lo);
     // A line needs few points: at most about 30 (every k-th day of a long rise).
-    std::size_t inRange = 0;
-    for (double c : d.cumulative)
-        inRange += (c / size > 0.02 && c / size < 0.98) ? 1 : 0;
     const std::size_t stride = std::max<std::size_t>(1, inRange / 30);
     xs.reserve(inRange / stride + 1);
     ys.reserve(inRange / stride + 1);
-    std::size_t seen = 0;
-    for (std::size_t i = 0; i < d.t.size(); ++i) {
-        const double q = d.cumulative[i] / size;
-        if (q <= 0.02 || q >= 0.98)
-            continue;
-        if (seen++ % stride != 0)
-            continue;
+    for (std::size_t i = first; i < first + inRange; i += stride) {
         xs.push_back(logTime ? std::log(d.t[i] + 1.0) : d.t[i]);
-        ys.push_back(transform(q));
+        ys.push_back(transform(d.cumulative[i] / size));
     }
     auto line = fitLine(xs, ys);
     if (!line || !(line->slope > 0))
