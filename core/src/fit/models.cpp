@@ -178,6 +178,46 @@ double firstSize(const GuessData& d, double shareAtPeak) {
     return std::max(d.total * 1.02, d.cumulativeAtPeak / shareAtPeak);
 }
 
+// The start of the Gumbel and the logistic, location-scale curves whose linearisation is
+// transform(C / K) = (t - mu) / scale: K from the share of the final size at the peak, the scale
+// from the peak height (the density at the mode is peakDensity / scale, 1/e for the Gumbel and
+// 1/4 for the logistic), then the line, and K refitted for that shape.
+template <class Transform>
+std::optional<std::vector<double>> locationScaleGuess(const WaveModel& model,
+                                                      std::span<const double> t,
+                                                      std::span<const double> y, double shareAtPeak,
+                                                      double peakDensity, Transform transform) {
+    auto d = prepareGuess(t, y);
+    if (!d)
+        return std::nullopt;
+    const double size = firstSize(*d, shareAtPeak);
+    std::vector<double> p{size, d->peakT, std::max(1.0, size * peakDensity / d->peakY)};
+    if (auto line = linearised(*d, shareAtPeak, transform, false)) {
+        p[2] = 1.0 / line->slope;
+        p[1] = -line->intercept * p[2];
+    }
+    p[2] = std::max(p[2], 0.5);
+    p[0] = bestSize(model, *d, p);
+    return p;
+}
+
+// The first three Jacobian columns, shared by the four models: each has a size K, a location mu
+// and a scale (beta, s, sigma) entering through z = (x - mu) / scale with K f = K phi(z) / scale
+// (x = t, or ln tau for the log-normal, whose 1/tau does not depend on the parameters). With
+// g = d ln phi / dz, the chain rule gives
+//     d(K f)/dK = f,   d(K f)/dmu = -K f g / scale,   d(K f)/dscale = -K f (1 + z g) / scale.
+// `value` is K f; a day where it underflows to 0 gets a zero row.
+inline void locationScaleRow(double* row, double value, double invK, double z, double g,
+                             double invScale) {
+    if (value == 0.0) {
+        row[0] = row[1] = row[2] = 0.0;
+        return;
+    }
+    row[0] = value * invK;
+    row[1] = -value * g * invScale;
+    row[2] = -value * (1.0 + z * g) * invScale;
+}
+
 constexpr const char* kGumbelNames[] = {"K", "mu", "beta"};
 constexpr const char* kLogisticNames[] = {"K", "mu", "s"};
 constexpr const char* kRichardsNames[] = {"K", "mu", "s", "a"};
@@ -194,19 +234,14 @@ public:
     void incidence(std::span<const double> t, std::span<const double> p, std::span<double> out,
                    std::span<double> jac) const override {
         const double K = p[0], mu = p[1], beta = p[2];
+        const double invBeta = 1.0 / beta, invK = 1.0 / K;
         for (std::size_t i = 0; i < t.size(); ++i) {
             const double z = (t[i] - mu) / beta;
             const double u = std::exp(-z);
             const double f = std::isfinite(u) ? K / beta * u * std::exp(-u) : 0.0;
             out[i] = f;
-            if (!jac.empty()) {
-                double* row = &jac[3 * i];
-                row[0] = f / K;
-                row[1] = f * (1.0 - u) / beta;
-                row[2] = f * (z * (1.0 - u) - 1.0) / beta;
-                if (f == 0.0)
-                    row[1] = row[2] = 0.0;
-            }
+            if (!jac.empty())
+                locationScaleRow(&jac[3 * i], f, invK, z, u - 1.0, invBeta);  // g = u - 1
         }
     }
     void incidenceOnDays(double t0, std::span<const double> p, std::span<double> out,
@@ -221,12 +256,8 @@ public:
             u = (i % 32 == 0) ? std::exp(-z) : u * step;
             const double f = std::isfinite(u) ? scale * u * std::exp(-u) : 0.0;
             out[i] = f;
-            if (!jac.empty()) {
-                double* row = &jac[3 * i];
-                row[0] = f * invK;
-                row[1] = f == 0.0 ? 0.0 : f * (1.0 - u) * invBeta;
-                row[2] = f == 0.0 ? 0.0 : f * (z * (1.0 - u) - 1.0) * invBeta;
-            }
+            if (!jac.empty())
+                locationScaleRow(&jac[3 * i], f, invK, z, u - 1.0, invBeta);
         }
     }
     double fastestGrowthTime(std::span<const double> p) const override {
@@ -241,19 +272,8 @@ public:
     double peakTime(std::span<const double> p) const override { return p[1]; }
     std::optional<std::vector<double>> initialGuess(std::span<const double> t,
                                                     std::span<const double> y) const override {
-        auto d = prepareGuess(t, y);
-        if (!d)
-            return std::nullopt;
-        const double size = firstSize(*d, std::exp(-1.0));
-        std::vector<double> p{size, d->peakT, std::max(1.0, size / (std::numbers::e * d->peakY))};
-        if (auto line = linearised(
-                *d, std::exp(-1.0), [](double q) { return -std::log(-std::log(q)); }, false)) {
-            p[2] = 1.0 / line->slope;
-            p[1] = -line->intercept * p[2];
-        }
-        p[2] = std::max(p[2], 0.5);
-        p[0] = bestSize(*this, *d, p);
-        return p;
+        return locationScaleGuess(*this, t, y, std::exp(-1.0), std::exp(-1.0),
+                                  [](double q) { return -std::log(-std::log(q)); });
     }
 };
 
@@ -276,12 +296,8 @@ public:
             const double G = z >= 0 ? e / (1.0 + e) : 1.0 / (1.0 + e);  // 1 - F
             const double f = K / s * F * G;
             out[i] = f;
-            if (!jac.empty()) {
-                double* row = &jac[3 * i];
-                row[0] = f / K;
-                row[1] = f * (F - G) / s;
-                row[2] = f * (z * (F - G) - 1.0) / s;
-            }
+            if (!jac.empty())
+                locationScaleRow(&jac[3 * i], f, 1.0 / K, z, G - F, 1.0 / s);  // g = G - F
         }
     }
     double fastestGrowthTime(std::span<const double> p) const override {
@@ -296,19 +312,8 @@ public:
     double peakTime(std::span<const double> p) const override { return p[1]; }
     std::optional<std::vector<double>> initialGuess(std::span<const double> t,
                                                     std::span<const double> y) const override {
-        auto d = prepareGuess(t, y);
-        if (!d)
-            return std::nullopt;
-        const double size = firstSize(*d, 0.5);
-        std::vector<double> p{size, d->peakT, std::max(1.0, size / (4.0 * d->peakY))};
-        if (auto line = linearised(
-                *d, 0.5, [](double q) { return std::log(q / (1.0 - q)); }, false)) {
-            p[2] = 1.0 / line->slope;
-            p[1] = -line->intercept * p[2];
-        }
-        p[2] = std::max(p[2], 0.5);
-        p[0] = bestSize(*this, *d, p);
-        return p;
+        return locationScaleGuess(*this, t, y, 0.5, 0.25,
+                                  [](double q) { return std::log(q / (1.0 - q)); });
     }
 };
 
@@ -336,12 +341,8 @@ public:
             out[i] = f;
             if (!jac.empty()) {
                 double* row = &jac[4 * i];
-                row[0] = f / K;
-                row[1] = -f * dlnfdz / s;
-                row[2] = f * (-1.0 - dlnfdz * z) / s;
-                row[3] = f * dlnfda;
-                if (f == 0.0)
-                    row[1] = row[2] = row[3] = 0.0;
+                locationScaleRow(row, f, 1.0 / K, z, dlnfdz, 1.0 / s);
+                row[3] = f == 0.0 ? 0.0 : f * dlnfda;
             }
         }
     }
@@ -383,12 +384,8 @@ public:
                 f = K * norm / tau * std::exp(-0.5 * w * w);
             }
             out[i] = f;
-            if (!jac.empty()) {
-                double* row = &jac[3 * i];
-                row[0] = f / K;
-                row[1] = f * w / sigma;
-                row[2] = f * (w * w - 1.0) / sigma;
-            }
+            if (!jac.empty())
+                locationScaleRow(&jac[3 * i], f, 1.0 / K, w, -w, 1.0 / sigma);  // g = -w
         }
     }
     double cumulative(double t, std::span<const double> p) const override {
