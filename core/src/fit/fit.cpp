@@ -319,11 +319,15 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
             // (target t_i is model day t_i + h; its average covers model days t_i .. t_i + 2h).
             // The solver's row Jt_i is already w_i (A J)_i; the residual carries w_i once more.
             const std::size_t npu = static_cast<std::size_t>(np);
-            std::vector<double> G(modelDays * npu, 0.0);
+            // Scratch per thread (a batch fit runs this thousands of times): G, P and e^2.
+            thread_local std::vector<double> scratch;
+            scratch.assign(modelDays * (2 * npu + 1), 0.0);
+            const std::span<double> G(scratch.data(), modelDays * npu),
+                P(scratch.data() + modelDays * npu, modelDays * npu),
+                e2(scratch.data() + 2 * modelDays * npu, modelDays);
             const std::size_t taps = kernel.size();
             if (taps % 2 == 1) {
                 // Equal weights a: scatter w_i Jt_i onto day t_i, then a window sum of `taps`.
-                std::vector<double> P(modelDays * npu, 0.0);
                 for (int i = 0; i < m; ++i) {
                     const std::size_t d = static_cast<std::size_t>(t[static_cast<std::size_t>(i)]);
                     const double wi = w[static_cast<std::size_t>(i)] * kernel[0];
@@ -361,7 +365,6 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
                 }
             }
             // Squared raw-count residuals e_k^2 (0 where the day is missing or outside the series).
-            std::vector<double> e2(modelDays, 0.0);
             for (int k = std::max(modelFirst, 0); k <= std::min(res.last + h, n - 1); ++k) {
                 const double x = counts[static_cast<std::size_t>(k)];
                 const std::size_t d = static_cast<std::size_t>(k - modelFirst);

@@ -32,9 +32,12 @@ public:
         : m_problem(problem),
           m_summary(summary),
           m_m(problem.residualCount()),
-          m_n(problem.parameterCount()),
-          m_scratch(static_cast<std::size_t>(m_m)),
-          m_scratch2(static_cast<std::size_t>(m_m)) {}
+          m_n(problem.parameterCount()) {
+        if (!problem.hasJacobian()) {  // scratch for the central differences only
+            m_scratch.resize(static_cast<std::size_t>(m_m));
+            m_scratch2.resize(static_cast<std::size_t>(m_m));
+        }
+    }
 
     bool residuals(const Vector& x, Vector& r) {
         ++m_summary.evaluations;
