@@ -80,6 +80,9 @@ void writeRun(char* to, const char* from, std::size_t bytes) {
 
 void CellTableBuilder::reset(std::size_t days) {
     m_days = days;
+    m_blockDays = std::min(kBlockDays, days / 8);
+    if (m_blockDays < 4)
+        m_blockDays = 0;
     m_regions = 0;
     m_blockStart = 0;
     m_stride = 0;
@@ -98,7 +101,7 @@ bool CellTableBuilder::addMeasure(std::size_t reserveCells) {
         table.reserve(std::max(reserveCells, m_regions * m_days));
         adviseHugePages(table);
         table.resize(m_regions * m_days);
-        m_staging.back().resize(kBlockDays * m_stride);
+        m_staging.back().resize(m_blockDays * m_stride);
         return true;
     } catch (const std::bad_alloc&) {
         reset(m_days);
@@ -114,8 +117,8 @@ bool CellTableBuilder::growTo(std::size_t regions) {
             // Room for more regions per staged day: lay the staged days out anew.
             const std::size_t stride = std::max({regions, 2 * m_stride, std::size_t{64}});
             for (std::vector<Cell>& staging : m_staging) {
-                std::vector<Cell> wider(kBlockDays * stride);
-                for (std::size_t k = 0; k < kBlockDays && m_stride > 0; ++k) {
+                std::vector<Cell> wider(m_blockDays * stride);
+                for (std::size_t k = 0; k < m_blockDays && m_stride > 0; ++k) {
                     std::copy_n(staging.begin() + static_cast<std::ptrdiff_t>(k * m_stride),
                                 m_stride, wider.begin() + static_cast<std::ptrdiff_t>(k * stride));
                 }
@@ -133,13 +136,13 @@ bool CellTableBuilder::growTo(std::size_t regions) {
 
 void CellTableBuilder::moveBlockTo(std::size_t day) {
     copyBlock();
-    m_blockStart = day - day % kBlockDays;
+    m_blockStart = day - day % m_blockDays;
 }
 
 void CellTableBuilder::copyBlock() {
     if (m_stagedLow > m_stagedHigh || m_blockStart >= m_days)
         return;
-    const std::size_t run = std::min(kBlockDays, m_days - m_blockStart);
+    const std::size_t run = std::min(m_blockDays, m_days - m_blockStart);
     const std::size_t low = m_stagedLow, high = m_stagedHigh;
     Cell gathered[kBlockDays];
     for (std::size_t m = 0; m < m_tables.size(); ++m) {
