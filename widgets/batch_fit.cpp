@@ -21,6 +21,7 @@ namespace siftwave::widgets {
 namespace {
 
 constexpr int kRegionColumn = 0;
+constexpr int kSizedRows = 200;  // rows measured to size the columns
 
 QString number(double value, int decimals) {
     if (!std::isfinite(value))
@@ -87,6 +88,8 @@ BatchFitView::BatchFitView(QWidget* parent)
     m_view->sortByColumn(kRegionColumn, Qt::AscendingOrder);
     m_view->verticalHeader()->hide();
     m_view->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+    // Sized from the first rows only: measuring every row of a big drop costs seconds.
+    m_view->horizontalHeader()->setResizeContentsPrecision(kSizedRows);
     m_view->horizontalHeader()->setStretchLastSection(true);
     m_view->setSelectionBehavior(QAbstractItemView::SelectRows);
     m_view->setSelectionMode(QAbstractItemView::SingleSelection);

@@ -69,6 +69,8 @@ FindingReview::FindingReview(FindingModel* model, QWidget* parent)
     m_view->verticalHeader()->hide();
     m_view->verticalHeader()->setDefaultSectionSize(m_view->fontMetrics().height() + 6);
     m_view->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+    // Sized from the first rows only: measuring every row of a big drop costs seconds.
+    m_view->horizontalHeader()->setResizeContentsPrecision(200);
     m_view->horizontalHeader()->setStretchLastSection(true);
     m_view->setAlternatingRowColors(true);
     m_decide->setObjectName(QStringLiteral("decideFinding"));

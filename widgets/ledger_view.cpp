@@ -120,6 +120,8 @@ LedgerView::LedgerView(Workbench* workbench, QWidget* parent)
     m_view->verticalHeader()->hide();
     m_view->verticalHeader()->setDefaultSectionSize(m_view->fontMetrics().height() + 6);
     m_view->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+    // Sized from the first rows only: measuring every row of a long ledger costs seconds.
+    m_view->horizontalHeader()->setResizeContentsPrecision(200);
     m_view->horizontalHeader()->setSectionResizeMode(LedgerModel::ReasonColumn,
                                                      QHeaderView::Stretch);
     m_view->setAlternatingRowColors(true);

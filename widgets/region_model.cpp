@@ -72,6 +72,11 @@ void RegionModel::rebuild() {
         for (int i = 0; i < static_cast<int>(m_nodes.size()); ++i)
             if (m_nodes[i].parent == -1)
                 m_topLevel.push_back(i);
+        for (int i = -1; i < static_cast<int>(m_nodes.size()); ++i) {
+            const std::vector<int>& children = childrenOf(i);
+            for (int row = 0; row < static_cast<int>(children.size()); ++row)
+                m_nodes[children[row]].row = row;
+        }
         computeTotals();
     }
     endResetModel();
@@ -97,10 +102,16 @@ void RegionModel::computeTotals() {
 }
 
 void RegionModel::refreshColumns() {
-    for (int i = 0; i < static_cast<int>(m_nodes.size()); ++i) {
-        const int row = rowInParent(i);
-        Q_EMIT dataChanged(createIndex(row, CleanedTotalColumn, static_cast<quintptr>(i)),
-                           createIndex(row, OpenFindingsColumn, static_cast<quintptr>(i)));
+    // One signal per group of siblings: a view re-measures its columns on every dataChanged,
+    // so one per row costs seconds on a drop with thousands of regions.
+    for (int parent = -1; parent < static_cast<int>(m_nodes.size()); ++parent) {
+        const std::vector<int>& children = childrenOf(parent);
+        if (children.empty())
+            continue;
+        Q_EMIT dataChanged(
+            createIndex(0, CleanedTotalColumn, static_cast<quintptr>(children.front())),
+            createIndex(static_cast<int>(children.size()) - 1, OpenFindingsColumn,
+                        static_cast<quintptr>(children.back())));
     }
 }
 
@@ -120,11 +131,7 @@ const std::vector<int>& RegionModel::childrenOf(int node) const {
 }
 
 int RegionModel::rowInParent(int node) const {
-    const std::vector<int>& siblings = childrenOf(m_nodes[node].parent);
-    for (int i = 0; i < static_cast<int>(siblings.size()); ++i)
-        if (siblings[i] == node)
-            return i;
-    return -1;
+    return m_nodes[node].row;
 }
 
 QModelIndex RegionModel::index(int row, int column, const QModelIndex& parent) const {

@@ -65,6 +65,7 @@ private:
         std::optional<std::size_t> dropRegion;  // index into the drop's regions
         long long rawTotal = 0;
         std::size_t reportedDays = 0;
+        int row = 0;  // position among its siblings
     };
 
     int nodeOf(const QModelIndex& index) const;

@@ -95,6 +95,7 @@ std::optional<std::int64_t> Workbench::cleanedTotal(const QString& regionCode, i
 
 Status Workbench::openLedger(const QString& path) {
     m_ledgerPath = path;
+    m_decisionIndex.reset();
     m_ledger = Ledger{};
     m_cleaned = m_drop ? Cleaned(*m_drop) : Cleaned{};
     m_ledgerWritable = false;
@@ -125,6 +126,7 @@ Status Workbench::openLedger(const QString& path) {
 }
 
 void Workbench::updateChainStatus() {
+    m_decisionIndex.reset();  // the ledger, the drop or what is in effect changed
     const Status chain = verifyChain(m_ledger);
     Status conservation = Ok{};
     if (chain && m_drop)
@@ -184,6 +186,7 @@ Result<std::uint64_t> Workbench::withdraw(std::uint64_t sequence, const QString&
 
 void Workbench::setScanReport(std::shared_ptr<const scan::ScanReport> report) {
     m_scan = std::move(report);
+    m_decisionIndex.reset();
     Q_EMIT findingsChanged();
 }
 
@@ -200,21 +203,29 @@ const scan::Finding* Workbench::finding(const QString& id) const {
     return nullptr;
 }
 
-bool Workbench::isDecided(const std::string& findingId) const {
+const Workbench::DecisionIndex& Workbench::decisionIndex() const {
+    if (m_decisionIndex)
+        return *m_decisionIndex;
+    DecisionIndex index;
     for (const LedgerEntry& e : m_ledger.entries)
-        if (e.decision.finding == findingId && e.decision.kind != DecisionKind::Withdraw &&
+        if (!e.decision.finding.empty() && e.decision.kind != DecisionKind::Withdraw &&
             m_cleaned.inEffect(e.sequence))
-            return true;
-    return false;
+            index.decided.insert(e.decision.finding);
+    for (const scan::Finding& f : findings())
+        if (f.region && !index.decided.contains(f.id))
+            ++index.openByRegion[*f.region];
+    m_decisionIndex = std::move(index);
+    return *m_decisionIndex;
+}
+
+bool Workbench::isDecided(const std::string& findingId) const {
+    return decisionIndex().decided.contains(findingId);
 }
 
 int Workbench::openFindings(const QString& regionCode) const {
-    const std::string code = regionCode.toStdString();
-    int open = 0;
-    for (const scan::Finding& f : findings())
-        if (f.region && *f.region == code && !isDecided(f.id))
-            ++open;
-    return open;
+    const auto& open = decisionIndex().openByRegion;
+    const auto it = open.find(regionCode.toStdString());
+    return it == open.end() ? 0 : it->second;
 }
 
 std::optional<double> Workbench::population(const QString& regionCode) const {

@@ -20,6 +20,9 @@
 
 #include <memory>
 #include <optional>
+#include <string>
+#include <unordered_map>
+#include <unordered_set>
 #include <vector>
 
 namespace siftwave::widgets {
@@ -120,6 +123,16 @@ private:
     QString m_chainStatus;
     std::shared_ptr<const scan::ScanReport> m_scan;
     void updateChainStatus();
+
+    // Which findings an entry in effect answers, and the open ones per region: built on first
+    // use after a change (one pass over the ledger and the findings), so views asking row by
+    // row stay fast on drops with thousands of regions and findings.
+    struct DecisionIndex {
+        std::unordered_set<std::string> decided;
+        std::unordered_map<std::string, int> openByRegion;
+    };
+    mutable std::optional<DecisionIndex> m_decisionIndex;
+    const DecisionIndex& decisionIndex() const;
 };
 
 }  // namespace siftwave::widgets

@@ -2,6 +2,8 @@
 #include "siftwave/ingest/ingest.h"
 #include "siftwave/scan/backlog.h"
 
+#include "support/temp_path.h"
+
 #include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
 
@@ -49,9 +51,10 @@ std::string quote(const std::string& s) {
 class LedgerCli : public ::testing::Test {
 protected:
     void SetUp() override {
-        dir = fs::temp_directory_path() /
-              ("siftwave-cli-ledger-" +
-               std::string(::testing::UnitTest::GetInstance()->current_test_info()->name()));
+        // One folder per test process (temp_path.h): other checkouts may run the same tests.
+        dir = siftwave::testing::testTempPath(
+            "siftwave-cli-ledger-" +
+            std::string(::testing::UnitTest::GetInstance()->current_test_info()->name()));
         fs::remove_all(dir);
         fs::create_directories(dir);
         drop = dir / "release.csv";

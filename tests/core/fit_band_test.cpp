@@ -26,18 +26,6 @@ namespace {
 
 const Date kMonday = *Date::fromIso("2026-03-02");
 
-test::GeneratedWave weekdayWave() {
-    test::GeneratedWave g;
-    g.weekday = {1.25, 1.1, 1.0, 1.0, 0.95, 0.85, 0.85};
-    double logSum = 0;  // geometric mean 1, as the fit's factors (K is the weekday-free size)
-    for (double f : g.weekday)
-        logSum += std::log(f);
-    for (double& f : g.weekday)
-        f /= std::exp(logSum / 7);
-    g.size = 20;
-    return g;
-}
-
 // The delta-method standard deviation of K f(t), computed independently of the library:
 // gradient by central differences, g^T Cov g with Eigen.
 double finiteDifferenceSd(const FitResult& fit, double t) {
@@ -91,7 +79,7 @@ void expectBandMatchesFiniteDifferences(const FitResult& fit, const CurveBand& b
 }
 
 TEST(FitBand, LeastSquaresBandIsTheDeltaMethodWithTheParameterQuantile) {
-    const auto g = weekdayWave();
+    const auto g = test::weekdayWave();
     const auto counts = test::generateCounts(g, 7);
     FitOptions o;
     o.window = std::pair{10, 120};
@@ -133,7 +121,7 @@ TEST(FitBand, LeastSquaresBandIsTheDeltaMethodWithTheParameterQuantile) {
 }
 
 TEST(FitBand, LikelihoodBandScalesWithTheWeekdayFactorsInTheWindow) {
-    const auto g = weekdayWave();
+    const auto g = test::weekdayWave();
     const auto counts = test::generateCounts(g, 11);
     FitOptions o;
     o.method = FitMethod::NegativeBinomial;
@@ -225,7 +213,7 @@ constexpr int kCoverageSeeds = 400;
 TEST(FitBand, BandAtThePeakCoversTheTrueIncidenceAtTheNominalRate) {
     // NB noise (r = 20), no weekday effect: the sandwich should be close to nominal;
     // accepted 0.92 .. 0.98 (about +-2.8 standard errors).
-    test::GeneratedWave g = weekdayWave();
+    test::GeneratedWave g = test::weekdayWave();
     g.weekday = {1, 1, 1, 1, 1, 1, 1};
     const PeakCoverage c = peakCoverage(g, kCoverageSeeds);
     std::printf("band at the peak, no weekday effect: coverage %.3f over %d fits (naive %.3f)\n",
@@ -240,7 +228,7 @@ TEST(FitBand, BandAtThePeakIsConservativeWithAWeekdayEffect) {
     // With a weekday effect the raw-count residuals of the sandwich carry it (the 7-day average
     // removes it from the target), so the band is a little wide, as the parameter intervals are
     // (fit_coverage_test): accepted 0.92 .. 0.99.
-    const PeakCoverage c = peakCoverage(weekdayWave(), kCoverageSeeds);
+    const PeakCoverage c = peakCoverage(test::weekdayWave(), kCoverageSeeds);
     std::printf("band at the peak, weekday effect: coverage %.3f over %d fits (naive %.3f)\n",
                 c.rate, c.fits, c.naiveRate);
     ASSERT_GE(c.fits, kCoverageSeeds - 4);
@@ -250,7 +238,7 @@ TEST(FitBand, BandAtThePeakIsConservativeWithAWeekdayEffect) {
 }
 
 TEST(FitBand, WithoutACovarianceTheBandIsEmptyNotNaN) {
-    const auto g = weekdayWave();
+    const auto g = test::weekdayWave();
     const auto counts = test::generateCounts(g, 3);
     FitOptions o;
     o.window = std::pair{0, g.days - 1};
@@ -276,7 +264,7 @@ TEST(FitBand, WithoutACovarianceTheBandIsEmptyNotNaN) {
 }
 
 TEST(FitBand, BadArgumentsAreUsageErrors) {
-    const auto g = weekdayWave();
+    const auto g = test::weekdayWave();
     const auto counts = test::generateCounts(g, 5);
     auto fit = fitSeries({kMonday, counts});
     ASSERT_TRUE(fit);

@@ -22,16 +22,8 @@ struct Coverage {
 };
 
 Coverage coverage(FitMethod method, bool weekdays) {
-    test::GeneratedWave g;
-    g.weekday = {1.25, 1.1, 1.0, 1.0, 0.95, 0.85, 0.85};
-    // The fit's weekday factors have geometric mean 1 (K is the weekday-free size), so the
-    // truth is stated the same way.
-    double logSum = 0;
-    for (double f : g.weekday)
-        logSum += std::log(f);
-    for (double& f : g.weekday)
-        f /= std::exp(logSum / 7);
-    g.size = 20;
+    // Weekday factors of geometric mean 1 (K is the weekday-free size), as the fit states them.
+    const test::GeneratedWave g = test::weekdayWave();
     Coverage c;
     for (int seed = 1; seed <= kSeeds; ++seed) {
         const auto counts = test::generateCounts(g, static_cast<unsigned>(seed));

@@ -19,6 +19,20 @@ struct GeneratedWave {
     int firstWeekday = 0;                                // weekday of day 0 (0 = Monday)
 };
 
+/// The coverage tests' wave: a weekday effect (Monday high, weekend low) scaled to geometric
+/// mean 1, as the fit's weekday factors are (K is then the weekday-free size), and NB size 20.
+inline GeneratedWave weekdayWave() {
+    GeneratedWave g;
+    g.weekday = {1.25, 1.1, 1.0, 1.0, 0.95, 0.85, 0.85};
+    double logSum = 0;
+    for (double f : g.weekday)
+        logSum += std::log(f);
+    for (double& f : g.weekday)
+        f /= std::exp(logSum / 7);
+    g.size = 20;
+    return g;
+}
+
 inline std::vector<double> expectedCounts(const GeneratedWave& g) {
     const auto& model = fit::waveModel(fit::ModelKind::Gumbel);
     const std::vector<double> p{g.K, g.mu, g.beta};

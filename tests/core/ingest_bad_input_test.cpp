@@ -197,8 +197,7 @@ TEST(IngestBadInput, EmptyKeyCellsSkipTheRowWithAWarning) {
 }
 
 TEST(IngestBadInput, ReadingNeverWritesTheInput) {
-    const std::filesystem::path path =
-        siftwave::testing::testTempPath("siftwave_bad_input.csv");
+    const std::filesystem::path path = siftwave::testing::testTempPath("siftwave_bad_input.csv");
     const std::string text = "date,region,cases\n2026-02-30,A,1\n";
     {
         std::ofstream out(path, std::ios::binary);

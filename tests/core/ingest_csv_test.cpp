@@ -2,6 +2,7 @@
 // Format and MIME Type for Comma-Separated Values (CSV) Files", Y. Shafranovich,
 // October 2005), section 2, quoted from the RFC's text.
 #include "ingest/csv_scanner.h"
+#include "support/xorshift.h"
 
 #include <gtest/gtest.h>
 
@@ -178,13 +179,8 @@ std::vector<ReferenceRecord> referenceScan(const std::string& s, char delimiter)
 }
 
 TEST(CsvScanner, BitMaskReadingAgreesWithAPlainReading) {
-    std::uint64_t state = 0xD1B54A32D192ED03ull;  // xorshift, fixed seed
-    auto next = [&](std::uint64_t bound) {
-        state ^= state << 13;
-        state ^= state >> 7;
-        state ^= state << 17;
-        return state % bound;
-    };
+    ::siftwave::testing::Xorshift64 random(0xD1B54A32D192ED03ull);
+    auto next = [&](std::uint64_t bound) { return random.below(bound); };
     for (int file = 0; file < 60; ++file) {
         const char delimiter = ",;\t|"[file % 4];
         // Mostly plain records, as in real drops; now and then a quoted field (with

@@ -2,6 +2,7 @@
 #include "siftwave/ingest/ingest.h"
 
 #include "support/temp_path.h"
+#include "support/xorshift.h"
 
 #include <gtest/gtest.h>
 
@@ -301,6 +302,37 @@ TEST(IngestDrop, RolesCanBeNamed) {
     EXPECT_EQ(cellOf(drop, "n", "X", "2026-01-06").value, 4);
 }
 
+std::vector<std::uint64_t> unusedColumnsWarned(const Drop& drop) {
+    std::vector<std::uint64_t> columns;
+    for (const Warning& w : drop.warnings) {
+        if (w.message.find("is not used") != std::string::npos)
+            columns.push_back(w.column);
+    }
+    return columns;
+}
+
+TEST(IngestDrop, EveryColumnWithoutARoleIsReportedInEveryLayout) {
+    IngestOptions named;
+    named.dateColumn = "reported_on";
+    named.regionColumn = "unit";
+    named.valueColumns = {"n"};
+    EXPECT_EQ(unusedColumnsWarned(readOk("reported_on,onset,unit,n,other\n"
+                                         "2026-01-05,2026-01-01,X,3,9\n"
+                                         "2026-01-06,2026-01-02,X,4,9\n",
+                                         named)),
+              (std::vector<std::uint64_t>{2, 5}));
+    EXPECT_EQ(unusedColumnsWarned(readOk("region,name,2026-01-01,2026-01-02\n"
+                                         "NA,North,1,2\n")),
+              (std::vector<std::uint64_t>{2}));
+    IngestOptions someRegions;
+    someRegions.valueColumns = {"B", "D"};
+    EXPECT_EQ(unusedColumnsWarned(readOk("date,A,B,C,D\n"
+                                         "2026-01-01,1,2,3,4\n"
+                                         "2026-01-02,1,2,3,4\n",
+                                         someRegions)),
+              (std::vector<std::uint64_t>{2, 4}));
+}
+
 std::string row(int day, int region, int value) {
     return (*Date::fromIso("2026-01-01") + day).iso() + ",R" + std::to_string(region) + "," +
            std::to_string(value) + "\n";
@@ -415,13 +447,8 @@ TEST(IngestDrop, EveryRowOrderGivesTheCellsAndDuplicatesOfAPlainReading) {
     // (cell_table_builder.h). Rows date by date, region by region, backwards, shuffled,
     // with repeats inside a block, across blocks and after a block was written out, and
     // with regions that first appear late must all give what a plain reading gives.
-    std::uint64_t state = 0x2545F4914F6CDD1Dull;  // xorshift, fixed seed
-    auto next = [&](std::uint64_t bound) {
-        state ^= state << 13;
-        state ^= state >> 7;
-        state ^= state << 17;
-        return static_cast<int>(state % bound);
-    };
+    siftwave::testing::Xorshift64 random(0x2545F4914F6CDD1Dull);
+    auto next = [&](std::uint64_t bound) { return static_cast<int>(random.below(bound)); };
     constexpr int kDays = 70, kRegions = 23;
     for (int order = 0; order < 5; ++order) {
         std::vector<std::array<int, 3>> rows;

@@ -1,6 +1,7 @@
 // Counts from value cells: what is read as a number, and what is kept unparsable.
 #include "ingest/number_parsing.h"
 #include "ingest/sniffing.h"
+#include "support/xorshift.h"
 
 #include <gtest/gtest.h>
 
@@ -33,13 +34,8 @@ TEST(IngestNumbers, TheDigitWindowAgreesWithTheDigitLoop) {
     // parsePlainCountIn reads up to eight digits as one word (the SWAR step, see
     // number_parsing.h); the byte-by-byte loop of parsePlainCount is the reference.
     // Each text is placed after other bytes of a buffer, as a cell in a file is.
-    std::uint64_t state = 0x9E3779B97F4A7C15ull;  // xorshift, fixed seed
-    auto next = [&] {
-        state ^= state << 13;
-        state ^= state >> 7;
-        state ^= state << 17;
-        return state;
-    };
+    ::siftwave::testing::Xorshift64 random(0x9E3779B97F4A7C15ull);
+    auto next = [&] { return random.next(); };
     const std::string bytesAround = "0123456789,;-+ .\"/:aZ\x7F\x80\xFF";
     auto check = [&](const std::string& text) {
         for (std::size_t lead = 0; lead <= 9; ++lead) {

@@ -4,6 +4,8 @@
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/project.h"
 
+#include "support/temp_path.h"
+
 #include <gtest/gtest.h>
 
 #include <algorithm>
@@ -32,9 +34,10 @@ void spit(const fs::path& p, const std::string& bytes) {
 class LedgerFile : public ::testing::Test {
 protected:
     void SetUp() override {
-        dir = fs::temp_directory_path() /
-              ("siftwave-ledger-file-" +
-               std::string(::testing::UnitTest::GetInstance()->current_test_info()->name()));
+        // One folder per test process (temp_path.h): other checkouts may run the same tests.
+        dir = siftwave::testing::testTempPath(
+            "siftwave-ledger-file-" +
+            std::string(::testing::UnitTest::GetInstance()->current_test_info()->name()));
         fs::remove_all(dir);
         fs::create_directories(dir);
         path = (dir / "decisions.jsonl").string();

@@ -68,6 +68,10 @@ private Q_SLOTS:
         QVERIFY(first->decideFinding(QString::fromStdString(dump->id)));
         QVERIFY(first->applyCurrentDecision());
         const QString appDataLedger = wb.ledgerPath();
+        QSignalSpy previousOpened(first.get(), &MainWindow::previousOpened);
+        first->openPreviousRelease(QStringLiteral(SIFTWAVE_SAMPLES_DIR "/quenmara_previous.csv"));
+        QVERIFY(previousOpened.wait(30000));
+        const std::string previousSha = wb.previousDrop()->source.sha256;
         // A selection to come back to: region, second measure, fit method and window, zoom.
         QVERIFY(first->selectRegion(QStringLiteral("1203")));
         first->seriesPlot()->chooseSecondMeasure(1);
@@ -120,6 +124,9 @@ private Q_SLOTS:
         QCOMPARE(again.cleaned().cell(0, *again.drop().regionIndex("1301"), dumpDay).value,
                  cleanedDump);
         QCOMPARE(second->currentRegion(), QStringLiteral("1203"));
+        QVERIFY(again.previousDrop());  // the previous release came back too
+        QCOMPARE(again.previousDrop()->source.sha256, previousSha);
+        QVERIFY(!second->seriesPlot()->view().previous.empty());
         QCOMPARE(second->seriesPlot()->measure(), 0);
         QCOMPARE(second->seriesPlot()->secondMeasure(), 1);
         QCOMPARE(second->fitPane()->options().method, siftwave::fit::FitMethod::Poisson);

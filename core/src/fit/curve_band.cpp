@@ -34,22 +34,43 @@ bool covarianceUsable(std::span<const double> covariance, int p) {
                        [](double v) { return std::isfinite(v); });
 }
 
-void deltaMethodBand(std::span<const double> value, std::span<const double> jacobian,
-                     std::span<const double> covariance, int p, double q, std::span<double> lower,
-                     std::span<double> upper) {
-    const std::size_t np = static_cast<std::size_t>(p);
+namespace {
+
+// The loop of deltaMethodBand with the parameter count known at compile time (0: at run time),
+// so that the small quadratic form unrolls.
+template <std::size_t N>
+void bandRows(std::span<const double> value, std::span<const double> jacobian,
+              std::span<const double> covariance, std::size_t np, double q, std::span<double> lower,
+              std::span<double> upper) {
+    const std::size_t p = N > 0 ? N : np;
     for (std::size_t i = 0; i < value.size(); ++i) {
-        const double* g = &jacobian[i * np];
+        const double* g = &jacobian[i * p];
         double var = 0;
-        for (std::size_t a = 0; a < np; ++a) {
+        for (std::size_t a = 0; a < p; ++a) {
             double row = 0;
-            for (std::size_t b = 0; b < np; ++b)
-                row += covariance[a * np + b] * g[b];
+            for (std::size_t b = 0; b < p; ++b)
+                row += covariance[a * p + b] * g[b];
             var += g[a] * row;
         }
         const double half = q * std::sqrt(std::max(var, 0.0));  // >= 0 up to rounding
         lower[i] = std::max(0.0, value[i] - half);
         upper[i] = value[i] + half;
+    }
+}
+
+}  // namespace
+
+void deltaMethodBand(std::span<const double> value, std::span<const double> jacobian,
+                     std::span<const double> covariance, int p, double q, std::span<double> lower,
+                     std::span<double> upper) {
+    const std::size_t np = static_cast<std::size_t>(p);
+    switch (np) {
+        case 3:
+            return bandRows<3>(value, jacobian, covariance, np, q, lower, upper);
+        case 4:
+            return bandRows<4>(value, jacobian, covariance, np, q, lower, upper);
+        default:
+            return bandRows<0>(value, jacobian, covariance, np, q, lower, upper);
     }
 }
 

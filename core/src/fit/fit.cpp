@@ -274,12 +274,13 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     const int h = o.method == FitMethod::LeastSquares ? static_cast<int>(kernel.size()) / 2 : 0;
     const int modelFirst = res.first - h;
     const std::size_t modelDays = static_cast<std::size_t>(res.last - res.first + 1 + 2 * h);
-    std::vector<double> modelValues(modelDays),
-        modelJacobian(modelDays * static_cast<std::size_t>(np));
+    std::span<const double> modelValues, modelJacobian;
+    std::vector<double> modelStorage;  // likelihood fits (LSQ reuses the problem's last one)
+    std::vector<double> t, y, w;       // LSQ target days, values and weights
+    std::optional<SmoothedLeastSquares> lsq;
     if (o.method == FitMethod::LeastSquares) {
         // Target: the centred average where its window lies inside the series.
         const int half = o.smoothingWindow / 2;
-        std::vector<double> t, y, w;
         t.reserve(tAll.size());
         y.reserve(tAll.size());
         w.reserve(tAll.size());
@@ -294,7 +295,8 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
         if (static_cast<int>(t.size()) <= np + 1) {
             return makeError(ErrorCode::NotFound, "the window has too few days for this model");
         }
-        SmoothedLeastSquares problem(model, t, y, w, kernel, res.last - res.first + 1);
+        const SmoothedLeastSquares& problem =
+            lsq.emplace(model, t, y, w, kernel, res.last - res.first + 1);
         const SolverResult sr = solveLeastSquares(problem, *start, o.solver);
         if (sr.summary.termination == Termination::InvalidStart) {
             return makeError(ErrorCode::Numerical, "the model cannot be evaluated at its start");
@@ -306,28 +308,63 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
         res.summary.message = sr.summary.message;
         const int m = static_cast<int>(t.size());
         dof = m - np;
-        model.incidenceOnDays(modelFirst - res.first, params, modelValues, modelJacobian);
+        problem.modelDays(params, modelValues, modelJacobian);
 
         // Sandwich covariance through the smoothing operator (see fit.h, step 4), from the
         // solver's residuals and Jacobian at the solution.
         covariance.assign(static_cast<std::size_t>(np * np), kNaN);
         if (sr.covarianceAvailable) {
-            // G row k: the weighted Jacobian rows smoothed back onto model day k.
+            // G row d: the weighted Jacobian rows smoothed back onto model day d,
+            // G_d = sum_i a_(d - t_i) w_i Jt_i over the targets whose average reaches day d
+            // (target t_i is model day t_i + h; its average covers model days t_i .. t_i + 2h).
+            // The solver's row Jt_i is already w_i (A J)_i; the residual carries w_i once more.
             const std::size_t npu = static_cast<std::size_t>(np);
-            std::vector<double> G(modelDays * npu, 0.0);
-            for (int i = 0; i < m; ++i) {
-                // Target day t_i is model day t_i + h; its average reaches t_i .. t_i + 2h.
-                const std::size_t from = static_cast<std::size_t>(t[static_cast<std::size_t>(i)]);
-                const double* row = &sr.jacobian[static_cast<std::size_t>(i) * npu];
-                for (std::size_t k = 0; k < kernel.size(); ++k) {
-                    const double a = kernel[k];
-                    double* g = &G[(from + k) * npu];
+            // Scratch per thread (a batch fit runs this thousands of times): G, P and e^2.
+            thread_local std::vector<double> scratch;
+            scratch.assign(modelDays * (2 * npu + 1), 0.0);
+            const std::span<double> G(scratch.data(), modelDays * npu),
+                P(scratch.data() + modelDays * npu, modelDays * npu),
+                e2(scratch.data() + 2 * modelDays * npu, modelDays);
+            const std::size_t taps = kernel.size();
+            if (taps % 2 == 1) {
+                // Equal weights a: scatter w_i Jt_i onto day t_i, then a window sum of `taps`.
+                for (int i = 0; i < m; ++i) {
+                    const std::size_t d = static_cast<std::size_t>(t[static_cast<std::size_t>(i)]);
+                    const double wi = w[static_cast<std::size_t>(i)] * kernel[0];
                     for (std::size_t j = 0; j < npu; ++j)
-                        g[j] += a * row[j];
+                        P[d * npu + j] = wi * sr.jacobian[static_cast<std::size_t>(i) * npu + j];
+                }
+                // Running sums over days d - taps + 1 .. d, re-summed every 64 days (no drift).
+                std::array<double, 4> sum{};  // wave models have at most 4 parameters
+                for (std::size_t d = 0; d < modelDays; ++d) {
+                    for (std::size_t j = 0; j < npu; ++j) {
+                        if (d % 64 == 0) {
+                            sum[j] = 0.0;
+                            for (std::size_t e = d - std::min(d, taps - 1); e <= d; ++e)
+                                sum[j] += P[e * npu + j];
+                        } else {
+                            sum[j] += P[d * npu + j];
+                            if (d >= taps)
+                                sum[j] -= P[(d - taps) * npu + j];
+                        }
+                        G[d * npu + j] = sum[j];
+                    }
+                }
+            } else {
+                for (int i = 0; i < m; ++i) {
+                    const std::size_t from =
+                        static_cast<std::size_t>(t[static_cast<std::size_t>(i)]);
+                    const double* row = &sr.jacobian[static_cast<std::size_t>(i) * npu];
+                    const double wi = w[static_cast<std::size_t>(i)];
+                    for (std::size_t k = 0; k < taps; ++k) {
+                        const double a = kernel[k] * wi;
+                        double* g = &G[(from + k) * npu];
+                        for (std::size_t j = 0; j < npu; ++j)
+                            g[j] += a * row[j];
+                    }
                 }
             }
             // Squared raw-count residuals e_k^2 (0 where the day is missing or outside the series).
-            std::vector<double> e2(modelDays, 0.0);
             for (int k = std::max(modelFirst, 0); k <= std::min(res.last + h, n - 1); ++k) {
                 const double x = counts[static_cast<std::size_t>(k)];
                 const std::size_t d = static_cast<std::size_t>(k - modelFirst);
@@ -383,7 +420,12 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
         res.summary.message = lf.summary.message;
         res.goodness = lf.goodness;
         dof = res.goodness.observations - np;
-        model.incidenceOnDays(0.0, params, modelValues, modelJacobian);
+        modelStorage.resize(modelDays * static_cast<std::size_t>(np + 1));
+        const std::span<double> values(modelStorage.data(), modelDays),
+            jacobian(modelStorage.data() + modelDays, modelDays * static_cast<std::size_t>(np));
+        model.incidenceOnDays(0.0, params, values, jacobian);
+        modelValues = values;
+        modelJacobian = jacobian;
     }
 
     // Parameters with intervals.

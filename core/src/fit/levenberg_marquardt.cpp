@@ -5,7 +5,9 @@
 #include <Eigen/Dense>
 
 #include <algorithm>
+#include <bit>
 #include <cmath>
+#include <cstdint>
 #include <cstdio>
 #include <limits>
 
@@ -15,12 +17,12 @@ namespace {
 using Matrix = Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>;
 using Vector = Eigen::VectorXd;
 
-// v * 0 is 0 for finite v and NaN for NaN or +-Inf, so one sum tells (branch-free, vectorised).
 bool allFinite(const double* v, std::size_t n) {
-    double s = 0.0;
-    for (std::size_t i = 0; i < n; ++i)
-        s += v[i] * 0.0;
-    return s == 0.0;
+    for (std::size_t i = 0; i < n; ++i) {
+        if (!std::isfinite(v[i]))
+            return false;
+    }
+    return true;
 }
 
 // Residuals and Jacobian at x, analytic or by central differences.
@@ -30,16 +32,19 @@ public:
         : m_problem(problem),
           m_summary(summary),
           m_m(problem.residualCount()),
-          m_n(problem.parameterCount()),
-          m_scratch(static_cast<std::size_t>(m_m)),
-          m_scratch2(static_cast<std::size_t>(m_m)) {}
+          m_n(problem.parameterCount()) {
+        if (!problem.hasJacobian()) {  // scratch for the central differences only
+            m_scratch.resize(static_cast<std::size_t>(m_m));
+            m_scratch2.resize(static_cast<std::size_t>(m_m));
+        }
+    }
 
     bool residuals(const Vector& x, Vector& r) {
         ++m_summary.evaluations;
         r.resize(m_m);
         const bool ok = m_problem.evaluate({x.data(), static_cast<std::size_t>(m_n)},
                                            {r.data(), static_cast<std::size_t>(m_m)}, {});
-        return ok && allFinite(r.data(), static_cast<std::size_t>(m_m));
+        return ok && std::isfinite(r.squaredNorm());
     }
 
     bool residualsAndJacobian(const Vector& x, Vector& r, Matrix& J) {
@@ -51,8 +56,9 @@ public:
                 {x.data(), static_cast<std::size_t>(m_n)},
                 {r.data(), static_cast<std::size_t>(m_m)},
                 {J.data(), static_cast<std::size_t>(m_m) * static_cast<std::size_t>(m_n)});
-            return ok && allFinite(r.data(), static_cast<std::size_t>(m_m)) &&
-                   allFinite(J.data(), static_cast<std::size_t>(J.size()));
+            // NaN or Inf anywhere makes the sum of squares non-finite (as does a square that
+            // overflows, which the solver could not use either); Eigen's sums are vectorised.
+            return ok && std::isfinite(r.squaredNorm()) && std::isfinite(J.squaredNorm());
         }
         if (!residuals(x, r))
             return false;

@@ -35,9 +35,13 @@ std::optional<Line> fitLine(const std::vector<double>& x, const std::vector<doub
     }
     if (!(sxx > 0))
         return std::nullopt;
+    double syy = 0;
+    for (std::size_t i = 0; i < n; ++i)
+        syy += (y[i] - my) * (y[i] - my);
     Line line;
     line.slope = sxy / sxx;
     line.intercept = my - line.slope * mx;
+    line.r2 = syy > 0 ? sxy * sxy / (sxx * syy) : 1.0;
     return line;
 }
 
@@ -105,7 +109,14 @@ std::optional<GuessData> prepareGuess(std::span<const double> t, std::span<const
 double bestSize(const WaveModel& model, const GuessData& d, std::vector<double> p) {
     p[0] = 1.0;
     std::vector<double> g(d.t.size());
-    model.incidence(d.t, p, g);
+    bool consecutive = true;  // days t0, t0 + 1, ...: the cheaper day-grid evaluation
+    for (std::size_t i = 1; i < d.t.size() && consecutive; ++i)
+        consecutive = d.t[i] == d.t[0] + static_cast<double>(i);
+    if (consecutive && !d.t.empty()) {
+        model.incidenceOnDays(d.t[0], p, g);
+    } else {
+        model.incidence(d.t, p, g);
+    }
     double gy = 0, gg = 0;
     for (std::size_t i = 0; i < g.size(); ++i) {
         gy += g[i] * d.y[i];
@@ -119,22 +130,19 @@ template <class Transform>
 std::optional<Line> linearisedAt(const GuessData& d, double size, Transform transform,
                                  bool logTime) {
     std::vector<double> xs, ys;
+    // The days with 0.02 < C/K < 0.98: one run, the cumulative being nondecreasing.
+    const auto begin = d.cumulative.begin(), end = d.cumulative.end();
+    const auto lo = std::partition_point(begin, end, [&](double c) { return c / size <= 0.02; });
+    const auto hi = std::partition_point(lo, end, [&](double c) { return c / size < 0.98; });
+    const std::size_t first = static_cast<std::size_t>(lo - begin);
+    const std::size_t inRange = static_cast<std::size_t>(hi - lo);
     // A line needs few points: at most about 30 (every k-th day of a long rise).
-    std::size_t inRange = 0;
-    for (double c : d.cumulative)
-        inRange += (c / size > 0.02 && c / size < 0.98) ? 1 : 0;
     const std::size_t stride = std::max<std::size_t>(1, inRange / 30);
     xs.reserve(inRange / stride + 1);
     ys.reserve(inRange / stride + 1);
-    std::size_t seen = 0;
-    for (std::size_t i = 0; i < d.t.size(); ++i) {
-        const double q = d.cumulative[i] / size;
-        if (q <= 0.02 || q >= 0.98)
-            continue;
-        if (seen++ % stride != 0)
-            continue;
+    for (std::size_t i = first; i < first + inRange; i += stride) {
         xs.push_back(logTime ? std::log(d.t[i] + 1.0) : d.t[i]);
-        ys.push_back(transform(q));
+        ys.push_back(transform(d.cumulative[i] / size));
     }
     auto line = fitLine(xs, ys);
     if (!line || !(line->slope > 0))
@@ -170,6 +178,46 @@ double firstSize(const GuessData& d, double shareAtPeak) {
     return std::max(d.total * 1.02, d.cumulativeAtPeak / shareAtPeak);
 }
 
+// The start of the Gumbel and the logistic, location-scale curves whose linearisation is
+// transform(C / K) = (t - mu) / scale: K from the share of the final size at the peak, the scale
+// from the peak height (the density at the mode is peakDensity / scale, 1/e for the Gumbel and
+// 1/4 for the logistic), then the line, and K refitted for that shape.
+template <class Transform>
+std::optional<std::vector<double>> locationScaleGuess(const WaveModel& model,
+                                                      std::span<const double> t,
+                                                      std::span<const double> y, double shareAtPeak,
+                                                      double peakDensity, Transform transform) {
+    auto d = prepareGuess(t, y);
+    if (!d)
+        return std::nullopt;
+    const double size = firstSize(*d, shareAtPeak);
+    std::vector<double> p{size, d->peakT, std::max(1.0, size * peakDensity / d->peakY)};
+    if (auto line = linearised(*d, shareAtPeak, transform, false)) {
+        p[2] = 1.0 / line->slope;
+        p[1] = -line->intercept * p[2];
+    }
+    p[2] = std::max(p[2], 0.5);
+    p[0] = bestSize(model, *d, p);
+    return p;
+}
+
+// The first three Jacobian columns, shared by the four models: each has a size K, a location mu
+// and a scale (beta, s, sigma) entering through z = (x - mu) / scale with K f = K phi(z) / scale
+// (x = t, or ln tau for the log-normal, whose 1/tau does not depend on the parameters). With
+// g = d ln phi / dz, the chain rule gives
+//     d(K f)/dK = f,   d(K f)/dmu = -K f g / scale,   d(K f)/dscale = -K f (1 + z g) / scale.
+// `value` is K f; a day where it underflows to 0 gets a zero row.
+inline void locationScaleRow(double* row, double value, double invK, double z, double g,
+                             double invScale) {
+    if (value == 0.0) {
+        row[0] = row[1] = row[2] = 0.0;
+        return;
+    }
+    row[0] = value * invK;
+    row[1] = -value * g * invScale;
+    row[2] = -value * (1.0 + z * g) * invScale;
+}
+
 constexpr const char* kGumbelNames[] = {"K", "mu", "beta"};
 constexpr const char* kLogisticNames[] = {"K", "mu", "s"};
 constexpr const char* kRichardsNames[] = {"K", "mu", "s", "a"};
@@ -186,19 +234,14 @@ public:
     void incidence(std::span<const double> t, std::span<const double> p, std::span<double> out,
                    std::span<double> jac) const override {
         const double K = p[0], mu = p[1], beta = p[2];
+        const double invBeta = 1.0 / beta, invK = 1.0 / K;
         for (std::size_t i = 0; i < t.size(); ++i) {
             const double z = (t[i] - mu) / beta;
             const double u = std::exp(-z);
             const double f = std::isfinite(u) ? K / beta * u * std::exp(-u) : 0.0;
             out[i] = f;
-            if (!jac.empty()) {
-                double* row = &jac[3 * i];
-                row[0] = f / K;
-                row[1] = f * (1.0 - u) / beta;
-                row[2] = f * (z * (1.0 - u) - 1.0) / beta;
-                if (f == 0.0)
-                    row[1] = row[2] = 0.0;
-            }
+            if (!jac.empty())
+                locationScaleRow(&jac[3 * i], f, invK, z, u - 1.0, invBeta);  // g = u - 1
         }
     }
     void incidenceOnDays(double t0, std::span<const double> p, std::span<double> out,
@@ -213,12 +256,8 @@ public:
             u = (i % 32 == 0) ? std::exp(-z) : u * step;
             const double f = std::isfinite(u) ? scale * u * std::exp(-u) : 0.0;
             out[i] = f;
-            if (!jac.empty()) {
-                double* row = &jac[3 * i];
-                row[0] = f * invK;
-                row[1] = f == 0.0 ? 0.0 : f * (1.0 - u) * invBeta;
-                row[2] = f == 0.0 ? 0.0 : f * (z * (1.0 - u) - 1.0) * invBeta;
-            }
+            if (!jac.empty())
+                locationScaleRow(&jac[3 * i], f, invK, z, u - 1.0, invBeta);
         }
     }
     double fastestGrowthTime(std::span<const double> p) const override {
@@ -233,19 +272,8 @@ public:
     double peakTime(std::span<const double> p) const override { return p[1]; }
     std::optional<std::vector<double>> initialGuess(std::span<const double> t,
                                                     std::span<const double> y) const override {
-        auto d = prepareGuess(t, y);
-        if (!d)
-            return std::nullopt;
-        const double size = firstSize(*d, std::exp(-1.0));
-        std::vector<double> p{size, d->peakT, std::max(1.0, size / (std::numbers::e * d->peakY))};
-        if (auto line = linearised(
-                *d, std::exp(-1.0), [](double q) { return -std::log(-std::log(q)); }, false)) {
-            p[2] = 1.0 / line->slope;
-            p[1] = -line->intercept * p[2];
-        }
-        p[2] = std::max(p[2], 0.5);
-        p[0] = bestSize(*this, *d, p);
-        return p;
+        return locationScaleGuess(*this, t, y, std::exp(-1.0), std::exp(-1.0),
+                                  [](double q) { return -std::log(-std::log(q)); });
     }
 };
 
@@ -268,12 +296,8 @@ public:
             const double G = z >= 0 ? e / (1.0 + e) : 1.0 / (1.0 + e);  // 1 - F
             const double f = K / s * F * G;
             out[i] = f;
-            if (!jac.empty()) {
-                double* row = &jac[3 * i];
-                row[0] = f / K;
-                row[1] = f * (F - G) / s;
-                row[2] = f * (z * (F - G) - 1.0) / s;
-            }
+            if (!jac.empty())
+                locationScaleRow(&jac[3 * i], f, 1.0 / K, z, G - F, 1.0 / s);  // g = G - F
         }
     }
     double fastestGrowthTime(std::span<const double> p) const override {
@@ -288,19 +312,8 @@ public:
     double peakTime(std::span<const double> p) const override { return p[1]; }
     std::optional<std::vector<double>> initialGuess(std::span<const double> t,
                                                     std::span<const double> y) const override {
-        auto d = prepareGuess(t, y);
-        if (!d)
-            return std::nullopt;
-        const double size = firstSize(*d, 0.5);
-        std::vector<double> p{size, d->peakT, std::max(1.0, size / (4.0 * d->peakY))};
-        if (auto line = linearised(
-                *d, 0.5, [](double q) { return std::log(q / (1.0 - q)); }, false)) {
-            p[2] = 1.0 / line->slope;
-            p[1] = -line->intercept * p[2];
-        }
-        p[2] = std::max(p[2], 0.5);
-        p[0] = bestSize(*this, *d, p);
-        return p;
+        return locationScaleGuess(*this, t, y, 0.5, 0.25,
+                                  [](double q) { return std::log(q / (1.0 - q)); });
     }
 };
 
@@ -328,12 +341,8 @@ public:
             out[i] = f;
             if (!jac.empty()) {
                 double* row = &jac[4 * i];
-                row[0] = f / K;
-                row[1] = -f * dlnfdz / s;
-                row[2] = f * (-1.0 - dlnfdz * z) / s;
-                row[3] = f * dlnfda;
-                if (f == 0.0)
-                    row[1] = row[2] = row[3] = 0.0;
+                locationScaleRow(row, f, 1.0 / K, z, dlnfdz, 1.0 / s);
+                row[3] = f == 0.0 ? 0.0 : f * dlnfda;
             }
         }
     }
@@ -375,12 +384,8 @@ public:
                 f = K * norm / tau * std::exp(-0.5 * w * w);
             }
             out[i] = f;
-            if (!jac.empty()) {
-                double* row = &jac[3 * i];
-                row[0] = f / K;
-                row[1] = f * w / sigma;
-                row[2] = f * (w * w - 1.0) / sigma;
-            }
+            if (!jac.empty())
+                locationScaleRow(&jac[3 * i], f, 1.0 / K, w, -w, 1.0 / sigma);  // g = -w
         }
     }
     double cumulative(double t, std::span<const double> p) const override {

@@ -49,13 +49,8 @@ public:
         if (!m_model.valid(p))
             return false;
         const bool withJacobian = !jac.empty();
-        // Scratch per thread (see the solver): model values, Jacobian and prefix sums.
-        thread_local std::vector<double> fBuffer, jfBuffer;
-        fBuffer.resize(m_days);
-        jfBuffer.resize(m_days * p.size());
-        const std::span<double> f(fBuffer), jf(jfBuffer);
-        m_model.incidenceOnDays(-m_h, p, f,
-                                withJacobian ? std::span<double>(jf) : std::span<double>{});
+        evaluateModelDays(p, withJacobian);
+        const std::span<const double> f(m_f), jf(m_jf);
         const std::size_t np = p.size();
         const std::size_t cols = withJacobian ? np + 1 : 1;
         const bool uniform = m_kernel.size() % 2 == 1;
@@ -98,7 +93,26 @@ public:
         return true;
     }
 
+    /// The model K f and its Jacobian (row-major) on the model days t_0 - h .. t_last + h of the
+    /// last evaluation with a Jacobian at `p`, evaluated again only when `p` differs (after the
+    /// solver, the final point is usually the last one it evaluated).
+    void modelDays(std::span<const double> p, std::span<const double>& values,
+                   std::span<const double>& jacobian) const {
+        if (!(m_haveJacobian && std::equal(p.begin(), p.end(), m_p.begin(), m_p.end())))
+            evaluateModelDays(p, true);
+        values = m_f;
+        jacobian = m_jf;
+    }
+
 private:
+    void evaluateModelDays(std::span<const double> p, bool withJacobian) const {
+        m_f.resize(m_days);
+        m_jf.resize(withJacobian ? m_days * p.size() : 0);
+        m_model.incidenceOnDays(-m_h, p, m_f, m_jf);
+        m_p.assign(p.begin(), p.end());
+        m_haveJacobian = withJacobian;
+    }
+
     // Residuals (and weighted Jacobian rows) from window sums over the model days, kept as a
     // running sum of the columns (f, df/dp...). Cols = 1 + parameters when the Jacobian is
     // wanted, 1 without; 0 means "any" (run-time count). Re-summed from scratch every 64 target
@@ -124,6 +138,13 @@ private:
                 sum.fill(0.0);
                 lo = hi = first;
             }
+            if (end == hi + 1 && first == lo + 1) {
+                // The next consecutive target day (the usual case): one day in, one day out.
+                for (std::size_t j = 0; j < cols; ++j)
+                    sum[j] += column(hi, j) - column(lo, j);
+                hi = end;
+                lo = first;
+            }
             for (; hi < end; ++hi) {
                 for (std::size_t j = 0; j < cols; ++j)
                     sum[j] += column(hi, j);
@@ -142,6 +163,9 @@ private:
     std::span<const double> m_t, m_y, m_w, m_kernel;
     int m_h;
     std::size_t m_days = 0;
+    // The last evaluation (the solver calls evaluate() from one thread).
+    mutable std::vector<double> m_f, m_jf, m_p;
+    mutable bool m_haveJacobian = false;
 };
 
 }  // namespace siftwave::fit::detail

@@ -46,33 +46,39 @@ std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
     std::vector<int> peaks;
     bool seekingPeak = true;
     int minIndex = -1, maxIndex = -1;
+    double lo = 0, hi = 0;  // s[minIndex], s[maxIndex]
     for (int i = 0; i < n; ++i) {
         const double v = s[static_cast<std::size_t>(i)];
         if (!std::isfinite(v))
             continue;
         if (minIndex < 0) {
             minIndex = maxIndex = i;
+            lo = hi = v;
             continue;
         }
         if (seekingPeak) {
-            if (v > s[static_cast<std::size_t>(maxIndex)])
-                maxIndex = i;
-            const double hi = s[static_cast<std::size_t>(maxIndex)];
-            const double lo = s[static_cast<std::size_t>(minIndex)];
+            // Select rather than branch: on a noisy rise the new-maximum test is unpredictable.
+            const bool higher = v > hi;
+            maxIndex = higher ? i : maxIndex;
+            hi = higher ? v : hi;
             if (hi - lo >= delta && v < hi - delta) {
                 troughs.push_back(minIndex);
                 peaks.push_back(maxIndex);
                 seekingPeak = false;
                 minIndex = i;
+                lo = v;
             } else if (v < lo) {
                 minIndex = maxIndex = i;  // no significant rise yet: the trough moves on
+                lo = hi = v;
             }
         } else {
-            if (v < s[static_cast<std::size_t>(minIndex)])
-                minIndex = i;
-            if (v > s[static_cast<std::size_t>(minIndex)] + delta) {
+            const bool lower = v < lo;
+            minIndex = lower ? i : minIndex;
+            lo = lower ? v : lo;
+            if (v > lo + delta) {
                 seekingPeak = true;
                 maxIndex = i;
+                hi = v;
             }
         }
     }

@@ -5,7 +5,7 @@
 // Rows usually come date by date, so two consecutive cells of a row order land
 // a whole region (days x 12 bytes) apart in a region-major table, and nearly
 // every write misses the cache. The builder therefore keeps a staging block of
-// kBlockDays days for every region (small enough to stay in the cache): a cell
+// up to kBlockDays days for every region (small enough to stay in the cache): a cell
 // whose day falls in the block is written there, and when a row's day passes
 // the block, the block is copied into the tables as one short contiguous run
 // per region. The block is day-major (a day's regions side by side), so rows
@@ -17,6 +17,9 @@
 // before it, so the tables' days of a block are untouched (Absent) when the
 // block is copied over them. Whether a cell was already filled (a duplicate) is
 // told by the staging block for the block's days and by the table otherwise.
+// The block has at most an eighth of the calendar's days (so it never takes more
+// than a quarter of the tables' memory), and a calendar under 32 days has none:
+// every cell is then written to its table directly.
 // (Common practice, no source: the write-combining of a scattered transpose.)
 
 #include "siftwave/drop.h"
@@ -30,7 +33,8 @@ namespace siftwave::detail {
 
 class CellTableBuilder {
 public:
-    /// Days of the staging block: 16 cells are 192 bytes, three cache lines per region.
+    /// Days of the staging block at most: 16 cells are 192 bytes, three cache lines
+    /// per region.
     static constexpr std::size_t kBlockDays = 16;
 
     /// Starts over with no measure and no region, for a calendar of `days` days.
@@ -50,7 +54,7 @@ public:
     bool put(std::size_t measure, std::uint32_t region, std::int32_t day, const Cell& cell,
              std::uint32_t& firstLine) {
         const auto d = static_cast<std::size_t>(day);
-        if (d - m_blockStart < kBlockDays) {  // also false for d < m_blockStart (wraps)
+        if (d - m_blockStart < m_blockDays) {  // also false for d < m_blockStart (wraps)
             Cell& staged = m_staging[measure][(d - m_blockStart) * m_stride + region];
             if (staged.state != CellState::Absent) {
                 firstLine = staged.line;
@@ -61,7 +65,7 @@ public:
             m_stagedHigh = std::max(m_stagedHigh, region);
             return true;
         }
-        if (d > m_blockStart) {
+        if (d > m_blockStart && m_blockDays > 0) {
             moveBlockTo(d);
             return put(measure, region, day, cell, firstLine);
         }
@@ -93,12 +97,13 @@ private:
 
     std::size_t m_days = 0;
     std::size_t m_regions = 0;
-    std::size_t m_stride = 0;                  // cells per staged day (>= regions)
-    std::size_t m_blockStart = 0;              // first day of the staging block
+    std::size_t m_stride = 0;      // cells per staged day (>= regions)
+    std::size_t m_blockDays = 0;   // days of the staging block: 0 (none) or 4 .. kBlockDays
+    std::size_t m_blockStart = 0;  // first day of the staging block
     std::uint32_t m_stagedLow = UINT32_MAX;    // the regions with a staged cell lie in
     std::uint32_t m_stagedHigh = 0;            // m_stagedLow .. m_stagedHigh
     std::vector<std::vector<Cell>> m_tables;   // per measure, m_regions * m_days
-    std::vector<std::vector<Cell>> m_staging;  // per measure, kBlockDays * m_stride, day-major
+    std::vector<std::vector<Cell>> m_staging;  // per measure, m_blockDays * m_stride, day-major
 };
 
 }  // namespace siftwave::detail

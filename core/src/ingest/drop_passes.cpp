@@ -37,7 +37,7 @@ Status DropReader::advance(std::size_t offset) {
     return Ok{};
 }
 
-Status DropReader::admit(const CsvRecord& record, bool& keep) {
+Status DropReader::admitSlowly(const CsvRecord& record, bool& keep) {
     keep = false;
     if (record.isEmptyLine()) {
         if (m_emptyLines++ == 0)

@@ -5,8 +5,8 @@
 //     layout and roles from the first records;
 //  2a. one pass (drop_passes.cpp), for a long file whose dates are ISO 8601:
 //     the calendar is predicted from the first and the last records, the cell
-//     tables are reserved at that size and filled while the region codes are
-//     collected. Any date outside the prediction (an unsorted file) abandons
+//     tables are reserved at that size and filled (cell_table_builder.h) while
+//     the region codes are collected. Any date outside the prediction (an unsorted file) abandons
 //     the pass and falls back to 2b; the result is the same either way;
 //  2b. two passes: a key pass collects region codes, dates and measure names,
 //     the date format is settled (refusing an ambiguous day/month order), then
@@ -67,7 +67,24 @@ private:
     /// Housekeeping every record gets once: encoding checks ahead, page release.
     Status advance(std::size_t offset);
     /// The checks every data record gets once; `keep` false when the row is not read.
-    Status admit(const CsvRecord& record, bool& keep);
+    /// Inline for the common record: the right number of fields, no stray quote, and
+    /// its date, region and measure cells not empty.
+    Status admit(const CsvRecord& record, bool& keep) {
+        const std::vector<CsvField>& f = record.fields;
+        if (f.size() == m_names.size() && !record.strayQuote &&
+            (m_roles.layout == Layout::DatesAcross ||
+             !f[static_cast<std::size_t>(m_roles.dateColumn)].text.empty()) &&
+            (m_roles.layout == Layout::DatesDown ||
+             !f[static_cast<std::size_t>(m_roles.regionColumn)].text.empty()) &&
+            (m_roles.measureColumn < 0 ||
+             !f[static_cast<std::size_t>(m_roles.measureColumn)].text.empty())) {
+            ++m_drop.rows;
+            keep = true;
+            return Ok{};
+        }
+        return admitSlowly(record, keep);
+    }
+    Status admitSlowly(const CsvRecord& record, bool& keep);
     void noteNewRegion(std::string_view code, std::uint32_t line);
     Error dateError(const std::string& text, std::uint64_t line, std::uint64_t column) const;
     Status checkFieldCount(const CsvRecord& record);

@@ -26,7 +26,7 @@ struct TransparentStringHash {
 /// Byte equality, inlined: keys are short, and a library call per row costs more than the
 /// compare. Keys of 4 to 16 bytes are compared as two overlapping words each (no loop, so no
 /// branch that depends on where the first difference is).
-inline bool sameBytes(const std::string& a, std::string_view b) {
+[[gnu::always_inline]] inline bool sameBytes(const std::string& a, std::string_view b) {
     const std::size_t n = a.size();
     if (n != b.size())
         return false;
@@ -59,18 +59,15 @@ class KeyDictionary {
 public:
     static constexpr std::uint32_t kNone = UINT32_MAX;
 
-    std::uint32_t find(std::string_view key) {
+    /// Index of `key`, or kNone. Tries the key found last and the one after it
+    /// first, inline; the rest out of line.
+    [[gnu::always_inline]] std::uint32_t find(std::string_view key) {
         const std::size_t n = m_keys.size();
         if (m_last < n && sameBytes(m_keys[m_last], key))
             return m_last;
         if (m_last + 1 < n && sameBytes(m_keys[m_last + 1], key))
             return ++m_last;
-        if (n > 0 && sameBytes(m_keys[0], key))
-            return m_last = 0;
-        auto it = m_index.find(key);
-        if (it == m_index.end())
-            return kNone;
-        return m_last = it->second;
+        return findElsewhere(key);
     }
 
     /// Index of `key`, adding it at the end when new (`added` tells which).
@@ -92,6 +89,15 @@ public:
     std::vector<std::string> takeKeys() { return std::move(m_keys); }
 
 private:
+    [[gnu::noinline]] std::uint32_t findElsewhere(std::string_view key) {
+        if (!m_keys.empty() && sameBytes(m_keys[0], key))
+            return m_last = 0;
+        auto it = m_index.find(key);
+        if (it == m_index.end())
+            return kNone;
+        return m_last = it->second;
+    }
+
     std::vector<std::string> m_keys;
     std::unordered_map<std::string, std::uint32_t, TransparentStringHash, std::equal_to<>> m_index;
     std::uint32_t m_last = 0;

@@ -2,6 +2,7 @@
 #include "ingest/csv_scanner.h"
 #include "ingest/input_source.h"
 #include "ingest/number_parsing.h"
+#include "ingest/role_detection.h"
 #include "ingest/sniffing.h"
 #include "siftwave/ingest/ingest.h"
 
@@ -10,21 +11,6 @@
 #include <unordered_map>
 
 namespace siftwave {
-namespace {
-
-std::string lowerTrimmed(std::string_view s) {
-    while (!s.empty() && std::isspace(static_cast<unsigned char>(s.front())))
-        s.remove_prefix(1);
-    while (!s.empty() && std::isspace(static_cast<unsigned char>(s.back())))
-        s.remove_suffix(1);
-    std::string out;
-    for (char c : s)
-        out += static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-    return out;
-}
-
-}  // namespace
-
 Result<RegionRegister> readRegister(const std::string& path) {
     auto fail = [&](ErrorCode code, std::string message, std::uint64_t line = 0,
                     std::uint64_t column = 0) {
@@ -60,7 +46,7 @@ Result<RegionRegister> readRegister(const std::string& path) {
     int codeCol = -1, nameCol = -1, parentCol = -1, populationCol = -1;
     const std::size_t columns = record.fields.size();
     for (std::size_t i = 0; i < columns; ++i) {
-        const std::string n = lowerTrimmed(record.fields[i].text);
+        const std::string n = detail::lowerTrimmed(record.fields[i].text);
         const int c = static_cast<int>(i);
         if (n == "code" && codeCol < 0)
             codeCol = c;

@@ -9,19 +9,8 @@
 namespace siftwave::detail {
 namespace {
 
-std::string normalized(std::string_view s) {
-    while (!s.empty() && std::isspace(static_cast<unsigned char>(s.front())))
-        s.remove_prefix(1);
-    while (!s.empty() && std::isspace(static_cast<unsigned char>(s.back())))
-        s.remove_suffix(1);
-    std::string out;
-    for (char c : s)
-        out += static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-    return out;
-}
-
 bool nameHasAny(const std::string& name, std::initializer_list<const char*> words) {
-    const std::string n = normalized(name);
+    const std::string n = lowerTrimmed(name);
     for (const char* w : words) {
         if (n.find(w) != std::string::npos)
             return true;
@@ -98,7 +87,45 @@ bool isCodeColumn(const ColumnProfile& p) {
     return p.nonEmpty() > 0 && (p.text + p.leadingZero) * 2 > p.nonEmpty();
 }
 
+/// The columns named by a repeatable flag (--value-col), in the order given.
+Result<std::vector<int>> namedColumns(const std::vector<std::string>& names,
+                                      const std::vector<std::string>& wanted, const char* flag) {
+    std::vector<int> out;
+    for (const std::string& w : wanted) {
+        Result<int> c = findColumn(names, w, flag);
+        if (!c)
+            return c.error();
+        out.push_back(*c);
+    }
+    return out;
+}
+
+/// The columns that play no role in `m`, in column order.
+std::vector<int> unusedColumnsOf(std::size_t columns, const RoleMapping& m) {
+    auto in = [](const std::vector<int>& list, int c) {
+        return std::find(list.begin(), list.end(), c) != list.end();
+    };
+    std::vector<int> out;
+    for (int c = 0; c < static_cast<int>(columns); ++c) {
+        if (c != m.dateColumn && c != m.regionColumn && c != m.measureColumn &&
+            !in(m.valueColumns, c) && !in(m.dateColumns, c))
+            out.push_back(c);
+    }
+    return out;
+}
+
 }  // namespace
+
+std::string lowerTrimmed(std::string_view s) {
+    while (!s.empty() && std::isspace(static_cast<unsigned char>(s.front())))
+        s.remove_prefix(1);
+    while (!s.empty() && std::isspace(static_cast<unsigned char>(s.back())))
+        s.remove_suffix(1);
+    std::string out;
+    for (char c : s)
+        out += static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+    return out;
+}
 
 Result<int> findColumn(const std::vector<std::string>& names, const std::string& wanted,
                        const char* flag) {
@@ -106,9 +133,9 @@ Result<int> findColumn(const std::vector<std::string>& names, const std::string&
         if (names[i] == wanted)
             return static_cast<int>(i);
     }
-    const std::string w = normalized(wanted);
+    const std::string w = lowerTrimmed(wanted);
     for (std::size_t i = 0; i < names.size(); ++i) {
-        if (normalized(names[i]) == w)
+        if (lowerTrimmed(names[i]) == w)
             return static_cast<int>(i);
     }
     std::string list;
@@ -171,13 +198,7 @@ Result<RoleMapping> detectRoles(const std::vector<std::string>& names, bool head
             if (c != m.regionColumn)
                 m.dateColumns.push_back(c);
         }
-        for (std::size_t c = 0; c < columns; ++c) {
-            const int ci = static_cast<int>(c);
-            if (ci != m.regionColumn &&
-                std::find(m.dateColumns.begin(), m.dateColumns.end(), ci) == m.dateColumns.end()) {
-                m.unusedColumns.push_back(ci);
-            }
-        }
+        m.unusedColumns = unusedColumnsOf(columns, m);
         return m;
     }
 
@@ -245,12 +266,11 @@ Result<RoleMapping> detectRoles(const std::vector<std::string>& names, bool head
 
     if (layout == Layout::DatesDown) {
         if (!options.valueColumns.empty()) {
-            for (const std::string& v : options.valueColumns) {
-                Result<int> c = findColumn(names, v, "--value-col");
-                if (!c)
-                    return c.error();
-                m.valueColumns.push_back(*c);
-            }
+            Result<std::vector<int>> named =
+                namedColumns(names, options.valueColumns, "--value-col");
+            if (!named)
+                return named.error();
+            m.valueColumns = std::move(*named);
         } else {
             m.valueColumns = others;
         }
@@ -259,10 +279,7 @@ Result<RoleMapping> detectRoles(const std::vector<std::string>& names, bool head
                              "the dates-down layout needs a header row with the region codes");
         if (m.valueColumns.empty())
             return makeError(ErrorCode::Layout, "there is no region column besides the dates");
-        for (int c : others) {
-            if (std::find(m.valueColumns.begin(), m.valueColumns.end(), c) == m.valueColumns.end())
-                m.unusedColumns.push_back(c);
-        }
+        m.unusedColumns = unusedColumnsOf(columns, m);
         return m;
     }
 
@@ -307,12 +324,10 @@ Result<RoleMapping> detectRoles(const std::vector<std::string>& names, bool head
         }
     }
     if (!options.valueColumns.empty()) {
-        for (const std::string& v : options.valueColumns) {
-            Result<int> c = findColumn(names, v, "--value-col");
-            if (!c)
-                return c.error();
-            m.valueColumns.push_back(*c);
-        }
+        Result<std::vector<int>> named = namedColumns(names, options.valueColumns, "--value-col");
+        if (!named)
+            return named.error();
+        m.valueColumns = std::move(*named);
     } else {
         for (int c : others) {
             if (c == m.regionColumn || c == m.measureColumn)
@@ -361,12 +376,7 @@ Result<RoleMapping> detectRoles(const std::vector<std::string>& names, bool head
         return makeError(ErrorCode::Usage,
                          "the date, region and measure columns must be different columns");
     }
-    for (int c : others) {
-        if (c == m.regionColumn || c == m.measureColumn)
-            continue;
-        if (std::find(m.valueColumns.begin(), m.valueColumns.end(), c) == m.valueColumns.end())
-            m.unusedColumns.push_back(c);
-    }
+    m.unusedColumns = unusedColumnsOf(columns, m);
     return m;
 }
 

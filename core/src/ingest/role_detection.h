@@ -23,6 +23,7 @@
 #include "siftwave/result.h"
 
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace siftwave::detail {
@@ -41,6 +42,10 @@ struct RoleMapping {
 Result<RoleMapping> detectRoles(const std::vector<std::string>& names, bool header,
                                 const std::vector<SampleRecord>& rows, const NumberStyle& style,
                                 const IngestOptions& options);
+
+/// `s` without surrounding spaces, in lower case (ASCII): how header names are
+/// compared when they are looked up by name.
+std::string lowerTrimmed(std::string_view s);
 
 /// Index of the column called `wanted`: exact match first, then ignoring case and
 /// surrounding spaces; a Usage error listing the columns when there is none.
