@@ -137,7 +137,7 @@ Result<QByteArray> briefingPdf(const report::BriefingReport& report) {
     // never stays behind at the foot of the page before its figure.
     for (int i = 0; i < static_cast<int>(report.figures.size()); ++i) {
         const QTextBlock heading = FigureTextObject::blockOf(document, i).previous();
-        if (heading.isValid() && i > 0) {
+        if (heading.isValid()) {
             QTextCursor cursor(heading);
             QTextBlockFormat format = heading.blockFormat();
             format.setPageBreakPolicy(QTextFormat::PageBreak_AlwaysBefore);
