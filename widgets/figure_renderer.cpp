@@ -454,10 +454,9 @@ FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report
         plot->legend->setBorderPen(Qt::NoPen);
         plot->legend->setBrush(Qt::NoBrush);
         plot->legend->setMargins(QMargins(8, 2, 8, 0));
-        // As many entries per row as fit whole (a squeezed column cuts its text); a
-        // small-multiples panel keeps at least 3 per row so that the legend does not take the
-        // plot's height (at narrow panels its longest entries may then be cut).
-        const int fewest = layout.scale < 1.0 ? 3 : 2;
+        // As many entries per row as fit whole (a squeezed column cuts its text), at least 2:
+        // a small-multiples panel gives up plot height rather than show cut legend entries.
+        const int fewest = 2;
         for (int columns = 4; columns >= fewest; --columns) {
             plot->legend->setWrap(columns);
             plot->legend->setFillOrder(QCPLegend::foColumnsFirst, true);
