@@ -78,6 +78,7 @@ SeriesPlot::SeriesPlot(QWidget* parent)
             [this](int) { Q_EMIT secondMeasureChosen(secondMeasure()); });
     setMeasures({});
     updateTitle();
+    showEmptyNote();
 }
 
 SeriesPlot::~SeriesPlot() = default;
@@ -138,12 +139,39 @@ void SeriesPlot::setView(const SeriesView& view) {
                             old.measure == view.measure && old.firstDay == view.firstDay &&
                             old.days == view.days;
     const QCPRange keep = m_plot->xAxis->range();
+    m_emptyNote = nullptr;  // draw() clears every item, the note too
     m_chart->draw(view);
     if (sameSeries)
         m_plot->xAxis->setRange(keep);
     m_windowEditable = false;
     updateTitle();
+    showEmptyNote();
     m_plot->replot();
+}
+
+void SeriesPlot::showEmptyNote() {
+    // Nothing to draw: say why and what to do, instead of a legend and a 1970 date axis.
+    const bool empty = m_chart->view().empty();
+    m_plot->legend->setVisible(!empty);
+    m_plot->xAxis->setTickLabels(!empty);
+    m_plot->yAxis->setTickLabels(!empty);
+    if (m_emptyNote)
+        m_plot->removeItem(m_emptyNote);
+    m_emptyNote = nullptr;
+    if (!empty)
+        return;
+    m_emptyNote = new QCPItemText(m_plot);
+    m_emptyNote->position->setType(QCPItemPosition::ptAxisRectRatio);
+    m_emptyNote->position->setCoords(0.5, 0.45);
+    m_emptyNote->setPositionAlignment(Qt::AlignCenter);
+    m_emptyNote->setTextAlignment(Qt::AlignCenter);
+    m_emptyNote->setColor(QColor(0x55, 0x55, 0x55));
+    m_emptyNote->setText(tr("Nothing to draw yet.\nOpen a drop (File ▸ Open drop, or drop a CSV "
+                            "file on the window),\nthen choose a region in Regions."));
+}
+
+QString SeriesPlot::emptyNote() const {
+    return m_emptyNote ? m_emptyNote->text() : QString();
 }
 
 const SeriesView& SeriesPlot::view() const {

@@ -19,6 +19,7 @@
 #include <optional>
 
 class QComboBox;
+class QCPItemText;
 class QCustomPlot;
 class QLabel;
 class QMenu;
@@ -69,6 +70,9 @@ public:
     QMenu* createContextMenu(int day);
 
     const SeriesView& view() const;
+
+    /// The text drawn over an empty plot (no drop or no region); empty while a series is shown.
+    QString emptyNote() const;
     SeriesChart* chart() const { return m_chart.get(); }
     QCustomPlot* customPlot() const { return m_plot; }
 
@@ -89,6 +93,7 @@ private:
     enum class Edge { None, Start, End };
     Edge edgeNear(double x) const;
     void updateTitle();
+    void showEmptyNote();
     void showHover(QMouseEvent* event);
 
     QLabel* m_title;
@@ -96,6 +101,7 @@ private:
     QComboBox* m_second;
     QToolButton* m_reset;
     QCustomPlot* m_plot;
+    QCPItemText* m_emptyNote = nullptr;  // owned by m_plot
     std::unique_ptr<SeriesChart> m_chart;
     bool m_windowEditable = false;
     bool m_dayPicking = true;
