@@ -34,8 +34,8 @@ std::optional<std::string> packedFormatOf(std::string_view bytes) {
     return std::nullopt;
 }
 
-/// How a delimiter is written in --delimiter's help.
-std::string delimiterName(char delimiter) {
+/// How a delimiter is written in --delimiter's help: ',' ';' '|' or tab.
+std::string delimiterAsTyped(char delimiter) {
     if (delimiter == '\t')
         return "tab";
     return std::string("'") + delimiter + "'";
@@ -169,9 +169,9 @@ Status DropReader::sniff() {
     if (m_names.size() < 2 && m_options.delimiter) {
         const char found = sniffDelimiter(m_bytes, m_start, sampleEnd);
         std::string message = "every line holds a single column with the delimiter " +
-                              delimiterName(*m_options.delimiter) + " named by --delimiter";
+                              delimiterAsTyped(*m_options.delimiter) + " named by --delimiter";
         if (found != *m_options.delimiter)
-            message += "; the file seems to use " + delimiterName(found);
+            message += "; the file seems to use " + delimiterAsTyped(found);
         message += ". Leave out --delimiter to detect it, or name the right one";
         return fail(ErrorCode::Layout, std::move(message), 1, 0);
     }
