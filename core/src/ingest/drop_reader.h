@@ -5,8 +5,8 @@
 //     layout and roles from the first records;
 //  2a. one pass (drop_passes.cpp), for a long file whose dates are ISO 8601:
 //     the calendar is predicted from the first and the last records, the cell
-//     tables are reserved at that size and filled while the region codes are
-//     collected. Any date outside the prediction (an unsorted file) abandons
+//     tables are reserved at that size and filled (cell_table_builder.h) while
+//     the region codes are collected. Any date outside the prediction (an unsorted file) abandons
 //     the pass and falls back to 2b; the result is the same either way;
 //  2b. two passes: a key pass collects region codes, dates and measure names,
 //     the date format is settled (refusing an ambiguous day/month order), then
