@@ -131,7 +131,8 @@ void SeriesPlot::setVisibleDays(DayIndexRange days) {
     m_plot->replot();
 }
 
-void SeriesPlot::setView(const SeriesView& view) {
+void SeriesPlot::setView(const SeriesView& view, const QString& regionWithoutRows) {
+    m_regionWithoutRows = view.empty() ? regionWithoutRows : QString();
     // The same series drawn again (a decision applied, a scan finished): keep the time axis
     // where the analyst put it.
     const SeriesView& old = m_chart->view();
@@ -166,8 +167,14 @@ void SeriesPlot::showEmptyNote() {
     m_emptyNote->setPositionAlignment(Qt::AlignCenter);
     m_emptyNote->setTextAlignment(Qt::AlignCenter);
     m_emptyNote->setColor(QColor(0x55, 0x55, 0x55));
-    m_emptyNote->setText(tr("Nothing to draw yet.\nOpen a drop (File ▸ Open drop, or drop a CSV "
-                            "file on the window),\nthen choose a region in Regions."));
+    if (!m_regionWithoutRows.isEmpty()) {
+        m_emptyNote->setText(tr("%1 has no rows in this release: nothing to draw.\nRegions in grey "
+                                "are in the register only; choose one in black.")
+                                 .arg(m_regionWithoutRows));
+    } else {
+        m_emptyNote->setText(tr("Nothing to draw yet.\nOpen a drop (File ▸ Open drop, or drop a "
+                                "CSV file on the window),\nthen choose a region in Regions."));
+    }
 }
 
 QString SeriesPlot::emptyNote() const {
@@ -181,7 +188,10 @@ const SeriesView& SeriesPlot::view() const {
 void SeriesPlot::updateTitle() {
     const SeriesView& v = m_chart->view();
     if (v.empty()) {
-        m_title->setText(tr("<i>No region selected</i>"));
+        m_title->setText(m_regionWithoutRows.isEmpty()
+                             ? tr("<i>No region selected</i>")
+                             : tr("<b>%1</b> &nbsp;<i>no rows in this release</i>")
+                                   .arg(m_regionWithoutRows.toHtmlEscaped()));
         return;
     }
     QString text = QStringLiteral("<b>%1</b>").arg(v.regionCode.toHtmlEscaped());

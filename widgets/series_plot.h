@@ -38,7 +38,9 @@ public:
     ~SeriesPlot() override;
 
     /// Shows a series; the measure lists are the drop's (index 0.. in drop order).
-    void setView(const SeriesView& view);
+    /// An empty view with `regionWithoutRows` set: that region (from the register) was chosen
+    /// but has no rows in this release; the title and the plot say so.
+    void setView(const SeriesView& view, const QString& regionWithoutRows = QString());
     void setMeasures(const QStringList& measures);
     int measure() const;
     /// -1 when no second measure is shown.
@@ -102,6 +104,7 @@ private:
     QToolButton* m_reset;
     QCustomPlot* m_plot;
     QCPItemText* m_emptyNote = nullptr;  // owned by m_plot
+    QString m_regionWithoutRows;
     std::unique_ptr<SeriesChart> m_chart;
     bool m_windowEditable = false;
     bool m_dayPicking = true;
