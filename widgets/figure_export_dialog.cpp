@@ -75,6 +75,11 @@ FigureExportDialog::FigureExportDialog(Inputs inputs, QWidget* parent)
     for (fit::ModelKind kind : fit::kAllModels)
         m_fit->addItem(
             tr("%1, least squares, largest wave").arg(QString::fromLatin1(fit::modelName(kind))));
+    m_countRange = new QCheckBox(tr("Also the 95% range of daily counts around the fit (dotted)"));
+    m_countRange->setToolTip(
+        tr("The shaded band is the fitted curve's own 95% confidence band. "
+           "The dotted lines show where daily counts would fall if the "
+           "curve were their mean."));
     m_path = new QLineEdit(QDir::home().filePath(QStringLiteral("figure.png")));
     auto* browseButton = new QPushButton(tr("Browse…"));
     connect(browseButton, &QPushButton::clicked, this, &FigureExportDialog::browse);
@@ -95,6 +100,7 @@ FigureExportDialog::FigureExportDialog(Inputs inputs, QWidget* parent)
     form->addRow(tr("Custom size"), sizeRow);
     form->addRow(tr("Resolution"), m_dpi);
     form->addRow(tr("Fit"), m_fit);
+    form->addRow(QString(), m_countRange);
     form->addRow(tr("File (.png, .svg, .pdf)"), pathRow);
     auto* buttons = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel);
     buttons->button(QDialogButtonBox::Ok)->setText(tr("Export"));
@@ -153,6 +159,7 @@ Result<QStringList> FigureExportDialog::exportFigures() {
         request.region = code.toStdString();
         request.measure = m_inputs.measure.toStdString();
         request.regions = m_inputs.regions;
+        request.previous = m_inputs.previous;
         if (codes.size() == 1 || !m_onePage->isChecked()) {
             request.title = m_title->text().toStdString();
             request.subtitle = m_subtitle->text().toStdString();
@@ -162,6 +169,7 @@ Result<QStringList> FigureExportDialog::exportFigures() {
             fitOptions.model = fit::kAllModels[static_cast<std::size_t>(m_fit->currentIndex() - 1)];
             request.fit = fitOptions;
         }
+        request.countRange = m_countRange->isChecked();
         auto spec =
             report::buildFigureSpec(*m_inputs.drop, *m_inputs.ledger, *m_inputs.cleaned, request);
         if (!spec)
@@ -222,6 +230,10 @@ void FigureExportDialog::setTitle(const QString& title) {
 
 void FigureExportDialog::setFitModel(int index) {
     m_fit->setCurrentIndex(index);
+}
+
+void FigureExportDialog::setCountRange(bool shown) {
+    m_countRange->setChecked(shown);
 }
 
 }  // namespace siftwave::widgets

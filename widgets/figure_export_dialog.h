@@ -36,6 +36,7 @@ public:
         const Ledger* ledger = nullptr;    // null: no decisions
         const Cleaned* cleaned = nullptr;  // replay(drop, ledger); null: the raw counts
         const RegionRegister* regions = nullptr;
+        const Drop* previous = nullptr;  // the release before: drawn dotted when given
         QString currentRegion;
         QString measure;  // empty: the first
     };
@@ -54,6 +55,7 @@ public:
     void setDpi(int dpi);
     void setTitle(const QString& title);
     void setFitModel(int index);  // 0 none, 1.. the models in fit::kAllModels order
+    void setCountRange(bool shown);
 
 private:
     void browse();
@@ -71,6 +73,7 @@ private:
     QDoubleSpinBox* m_height;
     QSpinBox* m_dpi;
     QComboBox* m_fit;
+    QCheckBox* m_countRange;
     QLineEdit* m_path;
 };
 

@@ -163,12 +163,15 @@ SeriesView seriesViewFromSpec(const report::FigureSpec& spec) {
     view.cleaned = spec.cleaned;
     view.smoothed = spec.smoothed;
     view.smoothedLabel = qs(spec.smoothedLabel);
+    view.previous = spec.previous;
+    view.previousLabel = qs(spec.previousLabel);
     if (spec.fit) {
         FittedCurve curve;
         curve.label = qs(spec.fit->label);
         curve.mid = spec.fit->mid;
         curve.low = spec.fit->low;
         curve.high = spec.fit->high;
+        curve.bandLabel = qs(spec.fit->bandLabel);
         view.fit = curve;
         using IndexRange = decltype(view.fitWindow)::value_type;
         view.fitWindow =
@@ -209,14 +212,75 @@ void caseLines(QCustomPlot* plot, const report::FigureSpec& spec) {
     }
 }
 
+// SeriesChart draws the fit's band as the one graph filled to another; on a figure its legend
+// entry says what the band is (FittedCurveSpec::bandLabel), and it lies above the white casing
+// of the lines (caseLines) and below the curve itself: a narrow band stays visible around the
+// curve instead of vanishing under its casing.
+void liftFitBand(QCustomPlot* plot, const report::FigureSpec& spec) {
+    if (!spec.fit)
+        return;
+    const QString layer = QStringLiteral("band");
+    for (int i = 0; i < plot->graphCount(); ++i) {
+        QCPGraph* upper = plot->graph(i);
+        if (!upper->channelFillGraph())
+            continue;
+        upper->setName(qs(spec.fit->bandLabel));
+        // On paper: a firmer wash with hairline edges, so that a narrow band still shows and
+        // reads in greyscale (the light blue of the fit window is close to the screen's wash).
+        QColor wash = plot_style::kVermillion;
+        wash.setAlpha(80);
+        upper->setBrush(QBrush(wash));
+        const QPen edge(plot_style::kVermillion, 0.7);
+        upper->setPen(edge);
+        upper->channelFillGraph()->setPen(edge);
+        if (!plot->layer(layer)) {
+            if (!plot->layer(QStringLiteral("casing")))
+                continue;  // no casing: the band stays where SeriesChart put it
+            plot->addLayer(layer, plot->layer(QStringLiteral("casing")), QCustomPlot::limAbove);
+        }
+        upper->channelFillGraph()->setLayer(layer);
+        upper->setLayer(layer);
+    }
+}
+
+// The range of daily counts (when asked): two thin dotted lines, lighter than the curve, so it
+// reads apart from the shaded confidence band in colour and in greyscale.
+void addCountRange(QCustomPlot* plot, const report::FigureSpec& spec) {
+    if (!spec.fit || spec.fit->countLow.empty())
+        return;
+    QVector<double> keys(spec.days);
+    for (int d = 0; d < spec.days; ++d)
+        keys[d] = plotKeyOfDay(spec.dayAt(d));
+    QPen pen(plot_style::kVermillion.darker(115), 1.1, Qt::DotLine, Qt::FlatCap, Qt::RoundJoin);
+    for (const std::vector<double>* edge : {&spec.fit->countHigh, &spec.fit->countLow}) {
+        QCPGraph* line = plot->addGraph(plot->xAxis, plot->yAxis);
+        line->setData(keys, QVector<double>(edge->begin(), edge->end()), true);
+        line->setPen(pen);
+        line->setAdaptiveSampling(false);
+        line->setSelectable(QCP::stNone);
+        if (edge == &spec.fit->countHigh)
+            line->setName(qs(spec.fit->countRangeLabel));
+        else
+            line->removeFromLegend();
+    }
+    double highest = 0;
+    for (double v : spec.fit->countHigh)
+        if (std::isfinite(v))
+            highest = std::max(highest, v);
+    if (highest > plot->yAxis->range().upper)
+        plot->yAxis->setRangeUpper(highest * 1.02);
+}
+
 }  // namespace
 
 void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
     QCustomPlot* plot = chart.plot();
     const double scale = 1.0;
     caseLines(plot, spec);
+    liftFitBand(plot, spec);
     const int itemsBefore = plot->itemCount();
     const int graphsBefore = plot->graphCount();
+    addCountRange(plot, spec);
     // Headroom for the labels above the highest bar.
     const QCPRange y = plot->yAxis->range();
     plot->yAxis->setRange(0, std::max(y.upper * kLabelHeadroom, 10.0));
@@ -387,11 +451,19 @@ FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report
         plot->plotLayout()->addElement(1, 0, plot->legend);
         plot->plotLayout()->setRowStretchFactor(1, 0.001);
         plot->plotLayout()->setRowSpacing(0);
-        plot->legend->setWrap(4);
-        plot->legend->setFillOrder(QCPLegend::foColumnsFirst, true);
         plot->legend->setBorderPen(Qt::NoPen);
         plot->legend->setBrush(Qt::NoBrush);
         plot->legend->setMargins(QMargins(8, 2, 8, 0));
+        // As many entries per row as fit whole (a squeezed column cuts its text); a
+        // small-multiples panel keeps at least 3 per row so that the legend does not take the
+        // plot's height (at narrow panels its longest entries may then be cut).
+        const int fewest = layout.scale < 1.0 ? 3 : 2;
+        for (int columns = 4; columns >= fewest; --columns) {
+            plot->legend->setWrap(columns);
+            plot->legend->setFillOrder(QCPLegend::foColumnsFirst, true);
+            if (plot->legend->minimumOuterSizeHint().width() <= w)
+                break;
+        }
     }
     plot->replot(QCustomPlot::rpImmediateRefresh);
 
@@ -418,16 +490,18 @@ std::vector<std::string> pageCaptionLines(const std::vector<report::FigureSpec>&
     std::vector<std::string> lines = specs.front().captionLines;
     if (specs.size() == 1 || lines.size() < 3)
         return lines;
-    std::string fits;
+    std::string fits, bands;
     for (const report::FigureSpec& s : specs) {
         if (!s.fit)
             continue;
         const std::string one = s.caption.model + ", " + s.caption.method;
         if (fits.find(one) == std::string::npos)
-            fits += (fits.empty() ? "" : "; ") + one;
+            fits += (fits.empty() ? "" : ", ") + one;
+        if (!s.caption.bands.empty() && bands.find(s.caption.bands) == std::string::npos)
+            bands += "; " + s.caption.bands;
     }
-    lines[2] =
-        fits.empty() ? "Fit: none" : "Fit: " + fits + " (each panel's window in its subtitle)";
+    lines[2] = fits.empty() ? "Fit: none"
+                            : "Fit: " + fits + " (each panel's window in its subtitle)" + bands;
     return lines;
 }
 

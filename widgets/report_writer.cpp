@@ -1,16 +1,22 @@
 #include "widgets/report_writer.h"
 
 #include "widgets/figure_renderer.h"
+#include "widgets/figure_text_object.h"
+#include "widgets/qcustomplot_include.h"
 
+#include <QAbstractTextDocumentLayout>
 #include <QBuffer>
 #include <QFileInfo>
-#include <QImage>
 #include <QPageLayout>
 #include <QPageSize>
 #include <QPdfWriter>
 #include <QSaveFile>
+#include <QTextBlock>
+#include <QTextCursor>
 #include <QTextDocument>
-#include <QUrl>
+#include <QTextLayout>
+
+#include <algorithm>
 
 namespace siftwave::widgets {
 namespace {
@@ -21,6 +27,13 @@ FigureExportOptions reportFigureOptions(int dpi) {
     o.size = FigureSize{180.0, 112.0, std::nullopt};
     o.dpi = dpi;
     return o;
+}
+
+constexpr double kDocumentDpi = 96.0;
+
+// Where figure i goes in the report's HTML until the PDF puts the figure object there.
+QString placeholderOf(std::size_t index) {
+    return QStringLiteral("[[siftwave figure %1]]").arg(index + 1);
 }
 
 Result<QByteArray> figureBytes(const report::FigureSpec& spec, FigureFormat format, int dpi) {
@@ -73,29 +86,101 @@ Status writeBriefingReport(const QString& path, const report::BriefingReport& re
         return writeBytes(path, QByteArray::fromStdString(report::briefingHtml(report, markup)));
     }
 
-    QTextDocument document;
-    std::vector<std::string> markup;
-    for (std::size_t i = 0; i < report.figures.size(); ++i) {
-        auto png = figureBytes(report.figures[i], FigureFormat::Png, 200);
-        if (!png)
-            return png.error();
-        const QString name = QStringLiteral("figure-%1.png").arg(i + 1);
-        document.addResource(QTextDocument::ImageResource, QUrl(name), QImage::fromData(*png));
-        markup.push_back("<img src=\"" + name.toStdString() + "\" width=\"640\">");
-    }
-    document.setHtml(QString::fromStdString(report::briefingHtml(report, markup)));
+    auto pdf = briefingPdf(report);
+    if (!pdf)
+        return pdf.error();
+    return writeBytes(path, *pdf);
+}
+
+Result<QByteArray> briefingPdf(const report::BriefingReport& report) {
     QByteArray bytes;
     QBuffer buffer(&bytes);
     buffer.open(QIODevice::WriteOnly);
-    {
-        QPdfWriter pdf(&buffer);
-        pdf.setPageLayout(QPageLayout(QPageSize(QPageSize::A4), QPageLayout::Portrait,
-                                      QMarginsF(15, 15, 15, 15), QPageLayout::Millimeter));
-        pdf.setTitle(QString::fromStdString(report.title));
-        pdf.setCreator(QStringLiteral("Siftwave %1").arg(QLatin1String(report::siftwaveVersion())));
-        document.print(&pdf);
+    QPdfWriter pdf(&buffer);
+    pdf.setPageLayout(QPageLayout(QPageSize(QPageSize::A4), QPageLayout::Portrait,
+                                  QMarginsF(15, 15, 15, 15), QPageLayout::Millimeter));
+    // Document units = the figures' logical pixels (1/96 inch); the PDF stays vector.
+    pdf.setResolution(static_cast<int>(kDocumentDpi));
+    pdf.setTitle(QString::fromStdString(report.title));
+    pdf.setCreator(QStringLiteral("Siftwave %1").arg(QLatin1String(report::siftwaveVersion())));
+
+    QTextDocument document;
+    document.documentLayout()->setPaintDevice(&pdf);  // fonts measured as the PDF draws them
+    std::vector<std::string> markup;
+    for (std::size_t i = 0; i < report.figures.size(); ++i)
+        markup.push_back(placeholderOf(i).toStdString());
+    QString html = QString::fromStdString(report::briefingHtml(report, markup));
+    // The page has its margins already: no browser margins around the body.
+    html.replace(QLatin1String("max-width:60em;margin:1.5em auto;"), QLatin1String("margin:0;"));
+    document.setHtml(html);
+
+    // The page body, less a footer line for the page number.
+    const QSizeF body(pdf.width(), pdf.height());
+    const double footer = 22;
+    document.setPageSize(QSizeF(body.width(), body.height() - footer));
+    // A figure spans the width of the lines around it (as laid out, whatever the style's block
+    // margins), in the proportions of a figure on its own (180 x 112 mm).
+    double lineWidth = body.width() - 2 * document.documentMargin();
+    if (!report.figures.empty()) {
+        const QTextCursor at =
+            document.find(placeholderOf(0), 0, QTextDocument::FindCaseSensitively);
+        if (!at.isNull() && at.block().layout() && at.block().layout()->lineCount() > 0)
+            lineWidth = std::min(lineWidth, at.block().layout()->lineAt(0).width());
     }
-    return writeBytes(path, bytes);
+    FigureTextObject figures(report.figures, QSizeF(lineWidth, lineWidth * 112.0 / 180.0));
+    figures.registerWith(document);
+    for (std::size_t i = 0; i < report.figures.size(); ++i)
+        if (!FigureTextObject::insertFigure(document, placeholderOf(i), static_cast<int>(i)))
+            return makeError(ErrorCode::Io,
+                             "the report lost the place of figure " + std::to_string(i + 1));
+    // Each region's section (its heading, then the figure) starts a page, so that a heading
+    // never stays behind at the foot of the page before its figure.
+    for (int i = 0; i < static_cast<int>(report.figures.size()); ++i) {
+        const QTextBlock heading = FigureTextObject::blockOf(document, i).previous();
+        if (heading.isValid()) {
+            QTextCursor cursor(heading);
+            QTextBlockFormat format = heading.blockFormat();
+            format.setPageBreakPolicy(QTextFormat::PageBreak_AlwaysBefore);
+            cursor.setBlockFormat(format);
+        }
+    }
+    // Lay the whole document out again: after the insertions QTextDocumentLayout has laid out
+    // only part of what follows, and blocks it has not reached would print empty.
+    document.markContentsDirty(0, document.characterCount());
+
+    QCPPainter painter;
+    if (!painter.begin(&pdf))
+        return makeError(ErrorCode::Io, "the report PDF could not be started");
+    painter.setMode(QCPPainter::pmVectorized);
+    painter.setMode(QCPPainter::pmNoCaching);
+    figures.setPainter(&painter);
+    const int pages = document.pageCount();
+    const QFont footerFont(QStringLiteral("DejaVu Sans"), 8);
+    for (int page = 0; page < pages; ++page) {
+        if (page > 0 && !pdf.newPage())
+            return makeError(ErrorCode::Io, "the report PDF could not start a new page");
+        const double top = page * document.pageSize().height();
+        painter.save();
+        painter.setClipRect(QRectF(0, 0, body.width(), document.pageSize().height()));
+        painter.translate(0, -top);
+        QAbstractTextDocumentLayout::PaintContext context;
+        context.palette.setColor(QPalette::Text, Qt::black);  // not the platform's text colour
+        context.clip = QRectF(0, top, body.width(), document.pageSize().height());
+        document.documentLayout()->draw(&painter, context);
+        painter.restore();
+        painter.setFont(footerFont);
+        painter.setPen(QColor(0x55, 0x55, 0x55));
+        painter.drawText(QRectF(0, body.height() - footer + 6, body.width(), footer - 6),
+                         Qt::AlignRight | Qt::AlignBottom,
+                         QStringLiteral("%1 \u2014 page %2 of %3")
+                             .arg(QString::fromStdString(report.title))
+                             .arg(page + 1)
+                             .arg(pages));
+    }
+    figures.setPainter(nullptr);
+    if (!painter.end())
+        return makeError(ErrorCode::Io, "the report PDF could not be finished");
+    return bytes;
 }
 
 }  // namespace siftwave::widgets

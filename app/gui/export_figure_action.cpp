@@ -10,6 +10,20 @@
 
 namespace siftwave::gui {
 
+widgets::FigureExportDialog::Inputs figureExportInputs(const MainWindow& window) {
+    const widgets::Workbench& workbench = *window.workbench();
+    widgets::FigureExportDialog::Inputs inputs;
+    inputs.drop = &workbench.drop();
+    // The ledger as the workbench holds it (every entry, withdrawals included) and its replay:
+    // the same pair `siftwave-cli figure --ledger` reads from the file.
+    inputs.ledger = &workbench.ledger();
+    inputs.cleaned = &workbench.cleaned();
+    inputs.regions = workbench.regionRegister();
+    inputs.previous = workbench.previousDrop();
+    inputs.currentRegion = window.currentRegion();
+    return inputs;
+}
+
 void addExportFigureAction(MainWindow* window, QMenu* menu) {
     QAction* action = menu->addAction(QObject::tr("&Export figure…"));
     action->setObjectName(QStringLiteral("actionExportFigure"));
@@ -21,13 +35,7 @@ void addExportFigureAction(MainWindow* window, QMenu* menu) {
     QObject::connect(action, &QAction::triggered, window, [window, workbench] {
         if (!workbench->hasDrop())
             return;
-        widgets::FigureExportDialog::Inputs inputs;
-        inputs.drop = &workbench->drop();
-        // The workbench holds no ledger yet: the figure shows the raw counts and says
-        // "Ledger: none". When it does, pass its Ledger and Cleaned here.
-        inputs.regions = workbench->regionRegister();
-        inputs.currentRegion = window->currentRegion();
-        widgets::FigureExportDialog dialog(inputs, window);
+        widgets::FigureExportDialog dialog(figureExportInputs(*window), window);
         dialog.exec();
     });
 }

@@ -194,6 +194,97 @@ TEST(ReportFigureSpec, AFitBringsItsCurveBandWindowAndPeak) {
     EXPECT_GT(spec->fit->peakValue, 0);
 }
 
+TEST(ReportFigureSpec, TheBandIsTheFittedCurvesOwnConfidenceBand) {
+    const Sample s = sample();
+    for (const fit::FitMethod method : {fit::FitMethod::LeastSquares, fit::FitMethod::Poisson}) {
+        report::FigureRequest request;
+        request.region = "1301";
+        fit::FitOptions options;
+        options.window = std::make_pair(100, 200);
+        options.method = method;
+        options.weekdayFactors = method == fit::FitMethod::Poisson;
+        request.fit = options;
+        auto spec = report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request);
+        ASSERT_TRUE(spec.ok()) << spec.error().describe();
+        ASSERT_TRUE(spec->fit) << spec->fitError;
+        const report::FittedCurveSpec& curve = *spec->fit;
+        // The drawn curve and band are fit::curveBand's over the window, day for day (the wave
+        // itself: with weekday factors, FitResult::fitted zigzags, the curve does not).
+        auto band = fit::curveBand(curve.result, 100, 200);
+        ASSERT_TRUE(band.ok()) << band.error().describe();
+        ASSERT_EQ(band->lower.size(), 101u) << "the fit should have its covariance";
+        EXPECT_TRUE(curve.bandNote.empty()) << curve.bandNote;
+        for (int d = 100; d <= 200; ++d) {
+            EXPECT_DOUBLE_EQ(curve.mid[d], band->fitted[d - 100]);
+            EXPECT_DOUBLE_EQ(curve.low[d], band->lower[d - 100]);
+            EXPECT_DOUBLE_EQ(curve.high[d], band->upper[d - 100]);
+        }
+        EXPECT_TRUE(std::isnan(curve.mid[99]) && std::isnan(curve.low[99]));
+        EXPECT_TRUE(std::isnan(curve.mid[201]) && std::isnan(curve.high[201]));
+        EXPECT_EQ(curve.bandLabel, "95% confidence band of the fitted curve");
+        // The caption says which band it is; no range of daily counts unless asked.
+        EXPECT_NE(spec->captionLines[2].find("shaded: pointwise 95% confidence band of the curve"),
+                  std::string::npos)
+            << spec->captionLines[2];
+        EXPECT_EQ(spec->captionLines[2].find("dotted"), std::string::npos);
+        EXPECT_TRUE(curve.countLow.empty());
+
+        // Asked for, the range of daily counts is count_band.h's on the window, and at the peak it
+        // is wider than the curve's band (a day's count scatters more than the mean is unsure).
+        request.countRange = true;
+        spec = report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request);
+        ASSERT_TRUE(spec.ok() && spec->fit);
+        const report::CountBand counts = report::countBand(spec->fit->result, spec->cleaned);
+        ASSERT_EQ(spec->fit->countLow.size(), static_cast<std::size_t>(spec->days));
+        for (int d = 100; d <= 200; ++d) {
+            EXPECT_DOUBLE_EQ(spec->fit->countLow[d], counts.low[d - 100]);
+            EXPECT_DOUBLE_EQ(spec->fit->countHigh[d], counts.high[d - 100]);
+        }
+        const int peak = spec->fit->peakDate - spec->firstDay;
+        ASSERT_TRUE(peak >= 100 && peak <= 200);
+        EXPECT_GT(spec->fit->countHigh[peak] - spec->fit->countLow[peak],
+                  spec->fit->high[peak] - spec->fit->low[peak]);
+        EXPECT_NE(spec->captionLines[2].find("dotted: 95% range of daily counts"),
+                  std::string::npos)
+            << spec->captionLines[2];
+    }
+}
+
+TEST(ReportFigureSpec, ThePreviousReleaseIsAlignedByDate) {
+    const Sample s = sample();
+    const Drop previous =
+        readDrop(std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_previous.csv").value();
+    report::FigureRequest request;
+    request.region = "1405";
+    request.previous = &previous;
+    auto spec = report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request);
+    ASSERT_TRUE(spec.ok()) << spec.error().describe();
+    ASSERT_EQ(spec->previous.size(), static_cast<std::size_t>(spec->days));
+    EXPECT_EQ(spec->previousLabel, "quenmara_previous.csv");
+    // samples/manifest.json: "Late reports raised six days of cases since the previous
+    // release", 1405, 2026-11-05 to 2026-11-10; every other day reads the same in both.
+    std::vector<std::string> revised;
+    int compared = 0;
+    for (int d = 0; d < spec->days; ++d) {
+        const double old = spec->previous[d];
+        if (std::isnan(old) || std::isnan(spec->raw[d]))
+            continue;
+        ++compared;
+        if (old != spec->raw[d]) {
+            revised.push_back(spec->dayAt(d).iso());
+            EXPECT_LT(old, spec->raw[d]);
+        }
+    }
+    EXPECT_GT(compared, 200);
+    EXPECT_EQ(revised, (std::vector<std::string>{"2026-11-05", "2026-11-06", "2026-11-07",
+                                                 "2026-11-08", "2026-11-09", "2026-11-10"}));
+    // A region the previous release lacks draws nothing (412 appeared since, manifest).
+    request.region = "412";
+    spec = report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request);
+    ASSERT_TRUE(spec.ok()) << spec.error().describe();
+    EXPECT_TRUE(spec->previous.empty());
+}
+
 TEST(ReportCountBand, PoissonAndNegativeBinomialBandsAreCentral95PercentRanges) {
     fit::FitResult f;
     f.method = fit::FitMethod::Poisson;

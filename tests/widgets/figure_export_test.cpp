@@ -220,6 +220,31 @@ private Q_SLOTS:
         QVERIFY(text.contains(QStringLiteral("2,444 moved to earlier days")));
         QVERIFY(text.contains(QStringLiteral("head ") +
                               QString::fromStdString(f.ledger.headHash().substr(0, 12))));
+        // The legend and the caption say which band is drawn: the curve's own, not the counts'.
+        QVERIFY2(text.contains(QStringLiteral("95% confidence band of the fitted curve")),
+                 qPrintable(text));
+        QVERIFY(
+            text.contains(QStringLiteral("shaded: pointwise 95% confidence band of the curve")));
+        QVERIFY(!text.contains(QStringLiteral("range of daily counts")));
+        QVERIFY(!text.contains(QStringLiteral("Fit band")));
+
+        // With the range of daily counts asked for, both are named.
+        report::FigureRequest request;
+        request.region = "1301";
+        request.regions = &f.regions;
+        request.exportDate = "2026-12-01";
+        request.fit = fit::FitOptions{};
+        request.fit->window = std::make_pair(100, 200);
+        request.countRange = true;
+        const report::FigureSpec both =
+            report::buildFigureSpec(f.drop, f.ledger, f.cleaned, request).value();
+        const QString bothPath = m_dir.filePath(QStringLiteral("fig-count-range.svg"));
+        QVERIFY(widgets::exportFigures(bothPath, {both}, options).ok());
+        const QString bothText = svgText(bothPath);
+        QVERIFY(bothText.contains(QStringLiteral("95% confidence band of the fitted curve")));
+        QVERIFY2(bothText.contains(QStringLiteral("95% range of daily counts around the fit")),
+                 qPrintable(bothText));
+        QVERIFY(bothText.contains(QStringLiteral("dotted: 95% range of daily counts")));
     }
 
     void pdfHasTheCaptionAsTextAndEmbeddedFonts() {
@@ -342,6 +367,75 @@ private Q_SLOTS:
         QVERIFY(pdfText.contains(QStringLiteral("Reconciliation")));
         QVERIFY(page.contains(QStringLiteral("withdrawn")));
         QVERIFY(page.contains(QString::fromLatin1(fit::caution)));
+    }
+
+    void theReportPdfDrawsItsFiguresAsVectors() {
+        const Fixture f = sampleWithDecisions(true);
+        report::BriefingRequest request;
+        request.regionRegister = &f.regions;
+        request.exportDate = "2026-12-01";
+        request.regions = {"1301", "KV"};
+        const report::BriefingReport briefing =
+            report::buildBriefing(f.drop, f.ledger, f.cleaned, request).value();
+        QCOMPARE(briefing.figures.size(), std::size_t(2));
+        const QString pdf = m_dir.filePath(QStringLiteral("vector-brief.pdf"));
+        QVERIFY(widgets::writeBriefingReport(pdf, briefing).ok());
+        const QString text =
+            normalised(runTool(QStringLiteral("pdftotext"), {pdf, QStringLiteral("-")}));
+        QVERIFY2(!text.startsWith(QStringLiteral("TOOL FAILED")), qPrintable(text));
+
+        // Text that only the figures hold (the report prints no caption paragraph beside a
+        // figure): the legend, the caption block's source line, a decision's mark, the peak.
+        QCOMPARE(text.count(QStringLiteral("7-day centred mean (cleaned)")), 2);
+        const QString source = QStringLiteral("Source: quenmara_current.csv, ");
+        QCOMPARE(text.count(source), 2);
+        QVERIFY(text.contains(QStringLiteral("#1 2,444 moved to earlier days")));
+        QVERIFY(text.contains(QStringLiteral("Daily cases")));  // the y axis of each plot
+        QVERIFY2(text.contains(QRegularExpression(QStringLiteral("peak 2026-\\d\\d-\\d\\d, "))),
+                 qPrintable(text.left(3000)));
+
+        // Every ledger entry (with its reason) and the reconciliation of the shown regions.
+        for (const LedgerEntry& e : f.ledger.entries)
+            QVERIFY2(text.contains(QString::fromStdString(e.reason)), e.reason.c_str());
+        QVERIFY(text.contains(QStringLiteral("Reconciliation")));
+        // Table rows read across with -layout (pdftotext's default may read a table by columns).
+        const QString layout = normalised(runTool(
+            QStringLiteral("pdftotext"), {QStringLiteral("-layout"), pdf, QStringLiteral("-")}));
+        QVERIFY(!briefing.reconciliation.empty());
+        for (const ReconciliationRow& row : briefing.reconciliation) {
+            const QString line =
+                QStringLiteral("%1 %2 %3 %4")
+                    .arg(QString::fromStdString(row.region), QString::fromStdString(row.measure),
+                         QString::fromStdString(report::groupedCount(row.rawTotal)),
+                         QString::fromStdString(report::groupedCount(row.cleanedTotal)));
+            QVERIFY2(layout.contains(line),
+                     qPrintable(line + QStringLiteral(" | ") + layout.right(1500)));
+        }
+        // 1301 lost the excluded test week: its cleaned total is below its raw total.
+        const std::size_t r1301 = *f.drop.regionIndex("1301");
+        QVERIFY(f.cleaned.total(0, r1301) < rawTotal(f.drop, 0, r1301));
+
+        // No raster image anywhere: pdfimages -list prints its two header lines only.
+        const QStringList images =
+            runTool(QStringLiteral("pdfimages"), {QStringLiteral("-list"), pdf})
+                .split(QLatin1Char('\n'), Qt::SkipEmptyParts);
+        QVERIFY2(images.size() == 2 && images[0].startsWith(QStringLiteral("page")),
+                 qPrintable(images.join(QLatin1Char('\n'))));
+        // Every font embedded (pdffonts: two header lines, then one row per font).
+        const QStringList fonts =
+            runTool(QStringLiteral("pdffonts"), {pdf}).split(QLatin1Char('\n'), Qt::SkipEmptyParts);
+        QVERIFY2(fonts.size() >= 3, qPrintable(fonts.join(QLatin1Char('\n'))));
+        for (int i = 2; i < fonts.size(); ++i)
+            QVERIFY2(fonts[i].contains(QStringLiteral(" yes ")), qPrintable(fonts[i]));
+        // A4 pages (210 x 297 mm = 595.28 x 841.89 pt), more than one of them.
+        const QString info = runTool(QStringLiteral("pdfinfo"), {pdf});
+        QVERIFY2(info.contains(
+                     QRegularExpression(QStringLiteral("Page size:\\s+595(\\.\\d+)? x 84[12]"))),
+                 qPrintable(info));
+        const QRegularExpressionMatch pages =
+            QRegularExpression(QStringLiteral("Pages:\\s+(\\d+)")).match(info);
+        QVERIFY(pages.hasMatch() && pages.captured(1).toInt() >= 2);
+        QVERIFY(text.contains(QStringLiteral("page 1 of ") + pages.captured(1)));
     }
 
     void theExportDialogWritesSmallMultiplesOrOneFilePerRegion() {

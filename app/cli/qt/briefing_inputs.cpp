@@ -25,6 +25,8 @@ std::vector<FlagSpec> briefingFlagSpecs(bool fitFlags) {
         {"method", true, false, "METHOD", "fit method: lsq (default), poisson, negbin"});
     specs.push_back(
         {"window", true, false, "FIRST:LAST", "fit window (default: the largest wave)"});
+    specs.push_back({"count-range", false, false, "",
+                     "also draw the 95% range of daily counts around the fit (dotted)"});
     specs.push_back({"help", false, false, "", "show this help"});
     return specs;
 }

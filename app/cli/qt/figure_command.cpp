@@ -1,7 +1,7 @@
 // siftwave-cli figure FILE [--ledger L] --region CODE [--region CODE ...] [--measure NAME]
 //     [--fit MODEL [--method M] [--window FIRST:LAST]] --out FIG.png|FIG.svg|FIG.pdf
 //     [--size slide|half-a4|WxHmm|WxHpx] [--dpi N] [--columns N] [--each]
-//     [--title T] [--subtitle S] [--regions REG] [--json]
+//     [--title T] [--subtitle S] [--regions REG] [--previous FILE] [--json]
 // Draws the annotated briefing figure with the workbench's plot code, headless.
 #include "../commands.h"
 #include "../common.h"
@@ -33,6 +33,8 @@ std::vector<FlagSpec> figureFlags() {
     specs.push_back({"title", true, false, "TEXT", "title (default: region name and measure)"});
     specs.push_back(
         {"subtitle", true, false, "TEXT", "subtitle (default: calendar, decisions, fit)"});
+    specs.push_back({"previous", true, false, "FILE",
+                     "the previous release: its counts drawn dotted, revised days marked"});
     specs.push_back({"json", false, false, "", "print what was written as JSON"});
     return specs;
 }
@@ -43,8 +45,9 @@ void printHelp() {
         "           [--fit MODEL] --out FIG.png|FIG.svg|FIG.pdf [--size slide|half-a4|WxH]\n"
         "           [--dpi N]\n\n"
         "Draws a region's series as a briefing figure: raw bars, cleaned and smoothed lines,\n"
-        "each ledger decision marked, the fit with its band, window and peak, and a caption\n"
-        "with the provenance and the caution. Headless (offscreen platform).\n\n%s",
+        "each ledger decision marked, the fit with the 95%% confidence band of the curve, its\n"
+        "window and peak, and a caption with the provenance and the caution. Headless\n"
+        "(offscreen platform).\n\n%s",
         formatFlags(figureFlags()).c_str());
 }
 
@@ -121,6 +124,16 @@ int runFigure(int argc, char** argv, int first) {
     if (!fitOptions)
         return usageError(fitOptions.error().message);
 
+    std::optional<Drop> previous;
+    if (auto path = args->optionalValue("previous")) {
+        auto read = loadDrop(*path, *args);
+        if (!read) {
+            printError(read.error(), json);
+            return kExitBadInput;
+        }
+        previous = std::move(read.value());
+    }
+
     std::vector<report::FigureSpec> figures;
     for (const std::string& code : regions) {
         report::FigureRequest request;
@@ -130,6 +143,8 @@ int runFigure(int argc, char** argv, int first) {
         request.title = regions.size() == 1 || args->has("each") ? args->value("title") : "";
         request.subtitle = regions.size() == 1 || args->has("each") ? args->value("subtitle") : "";
         request.regions = inputs->regions ? &*inputs->regions : nullptr;
+        request.previous = previous ? &*previous : nullptr;
+        request.countRange = args->has("count-range");
         auto spec = report::buildFigureSpec(inputs->drop, inputs->ledger, inputs->cleaned, request);
         if (!spec) {
             printError(spec.error(), json);

@@ -92,6 +92,7 @@ int runReport(int argc, char** argv, int first) {
     request.regionRegister = inputs->regions ? &*inputs->regions : nullptr;
     request.previous = previous ? &*previous : nullptr;
     request.title = args->value("title");
+    request.countRange = args->has("count-range");
     auto briefing = report::buildBriefing(inputs->drop, inputs->ledger, inputs->cleaned, request);
     if (!briefing) {
         printError(briefing.error(), json);

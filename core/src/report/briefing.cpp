@@ -86,7 +86,9 @@ const char* kStyle =
 
 }  // namespace
 
-std::string htmlEscaped(const std::string& text) { return detail::htmlEscaped(text); }
+std::string htmlEscaped(const std::string& text) {
+    return detail::htmlEscaped(text);
+}
 
 std::vector<FitTableRow> fitTable(const fit::FitResult& f) {
     std::vector<FitTableRow> rows;
@@ -138,6 +140,8 @@ Result<BriefingReport> buildBriefing(const Drop& drop, const Ledger& ledger, con
             fr.fit = request.fit;
         fr.exportDate = report.caption.exportDate;
         fr.regions = request.regionRegister;
+        fr.previous = request.previous;
+        fr.countRange = request.countRange;
         auto spec = buildFigureSpec(drop, ledger, cleaned, fr);
         if (!spec)
             return spec.error();
@@ -238,13 +242,22 @@ std::string briefingHtml(const BriefingReport& r, const std::vector<std::string>
     // Regions.
     for (std::size_t i = 0; i < r.figures.size(); ++i) {
         const FigureSpec& fig = r.figures[i];
-        h += "<h2>" + htmlEscaped(fig.title) + "</h2>\n<p>" + htmlEscaped(fig.subtitle) + "</p>\n";
-        if (i < figureMarkup.size() && !figureMarkup[i].empty())
-            h += "<div class=\"figure\">" + figureMarkup[i] + "</div>\n";
-        h += "<p class=\"caption\">";
-        for (std::size_t k = 0; k < fig.captionLines.size(); ++k)
-            h += (k ? "<br>" : "") + htmlEscaped(fig.captionLines[k]);
-        h += "</p>\n";
+        if (i < figureMarkup.size() && !figureMarkup[i].empty()) {
+            // The figure carries its own title, subtitle and caption block (source, ledger,
+            // fit, caution): the section is headed by the region alone.
+            h +=
+                "<h2>" +
+                htmlEscaped(fig.regionName.empty() ? "Region " + fig.regionCode
+                                                   : fig.regionName + " (" + fig.regionCode + ")") +
+                "</h2>\n<div class=\"figure\">" + figureMarkup[i] + "</div>\n";
+        } else {
+            h += "<h2>" + htmlEscaped(fig.title) + "</h2>\n<p>" + htmlEscaped(fig.subtitle) +
+                 "</p>\n";
+            h += "<p class=\"caption\">";
+            for (std::size_t k = 0; k < fig.captionLines.size(); ++k)
+                h += (k ? "<br>" : "") + htmlEscaped(fig.captionLines[k]);
+            h += "</p>\n";
+        }
         if (!fig.decisions.empty() || !fig.excluded.empty()) {
             h += "<p>On this figure:</p><ul>\n";
             for (const DecisionMark& m : fig.decisions)

@@ -62,7 +62,7 @@ std::vector<std::string> captionLines(const CaptionFacts& f) {
         lines.push_back("Fit: none");
     else
         lines.push_back("Fit: " + f.model + ", " + f.method + ", " + f.fitFirstDate + " to " +
-                        f.fitLastDate);
+                        f.fitLastDate + (f.bands.empty() ? std::string() : "; " + f.bands));
     lines.push_back("Exported " + f.exportDate + " by Siftwave " + siftwaveVersion());
     lines.push_back(f.caution);
     return lines;

@@ -161,30 +161,88 @@ std::string capitalised(std::string text) {
     return text;
 }
 
-FittedCurveSpec curveOf(const fit::FitResult& result, const FigureSpec& spec) {
+constexpr char kCurveBandLabel[] = "95% confidence band of the fitted curve";
+constexpr char kCountRangeLabel[] = "95% range of daily counts around the fit";
+
+// What the caption says about the bands (figure_renderer draws the confidence band shaded
+// and the range of daily counts as dotted lines).
+std::string bandsDescription(const FittedCurveSpec& curve) {
+    std::string text = curve.bandNote.empty()
+                           ? std::string(
+                                 "shaded: pointwise 95% confidence band of the curve "
+                                 "(delta method), not a range for daily counts")
+                           : curve.bandNote;
+    if (!curve.countLow.empty())
+        text += "; dotted: 95% range of daily counts if the fit were their mean";
+    return text;
+}
+
+FittedCurveSpec curveOf(const fit::FitResult& result, const FigureSpec& spec, bool countRange) {
     FittedCurveSpec curve;
     curve.result = result;
     curve.label =
         capitalised(fit::modelName(result.model)) + " fit (" + fit::methodName(result.method) + ")";
-    curve.bandLabel = "95% range of daily counts";
+    curve.bandLabel = kCurveBandLabel;
     curve.mid.assign(spec.days, kNaN);
     curve.low.assign(spec.days, kNaN);
     curve.high.assign(spec.days, kNaN);
-    const CountBand band = countBand(result, spec.cleaned);
     const int offset = result.seriesFirstDay - spec.firstDay;
-    for (std::size_t i = 0; i < result.fitted.size(); ++i) {
-        const int day = offset + result.first + static_cast<int>(i);
-        if (day < 0 || day >= spec.days)
-            continue;
-        curve.mid[day] = result.fitted[i];
-        curve.low[day] = band.low[i];
-        curve.high[day] = band.high[i];
+    // Calendar index of series day `first + i`, or -1 off the calendar.
+    auto dayOf = [&](int seriesDay) {
+        const int day = offset + seriesDay;
+        return day >= 0 && day < spec.days ? day : -1;
+    };
+    // The wave and its confidence band over the fit window only: not a forecast.
+    auto band = fit::curveBand(result, result.first, result.last);
+    if (band) {
+        for (std::size_t i = 0; i < band->fitted.size(); ++i) {
+            const int day = dayOf(band->first + static_cast<int>(i));
+            if (day < 0)
+                continue;
+            curve.mid[day] = band->fitted[i];
+            if (i < band->lower.size() && i < band->upper.size()) {
+                curve.low[day] = band->lower[i];
+                curve.high[day] = band->upper[i];
+            }
+        }
+        if (band->lower.empty())
+            curve.bandNote = "no confidence band: the fit's parameter covariance is not available";
+    } else {
+        for (std::size_t i = 0; i < result.fitted.size(); ++i)
+            if (const int day = dayOf(result.first + static_cast<int>(i)); day >= 0)
+                curve.mid[day] = result.fitted[i];
+        curve.bandNote = "no confidence band: " + band.error().message;
+    }
+    if (countRange) {
+        curve.countRangeLabel = kCountRangeLabel;
+        curve.countLow.assign(spec.days, kNaN);
+        curve.countHigh.assign(spec.days, kNaN);
+        const CountBand counts = countBand(result, spec.cleaned);
+        for (std::size_t i = 0; i < counts.low.size(); ++i)
+            if (const int day = dayOf(result.first + static_cast<int>(i)); day >= 0) {
+                curve.countLow[day] = counts.low[i];
+                curve.countHigh[day] = counts.high[i];
+            }
     }
     curve.windowFirst = result.windowFirst();
     curve.windowLast = result.windowLast();
     curve.peakDate = result.dateOf(result.derived.peakDay.value);
     curve.peakValue = result.derived.peakIncidence.value;
     return curve;
+}
+
+// The previous release's raw counts aligned by date on the spec's calendar.
+void addPrevious(FigureSpec& spec, const Drop& previous) {
+    const auto region = previous.regionIndex(spec.regionCode);
+    const auto measure = previous.measureIndex(spec.measure);
+    if (!region || !measure)
+        return;
+    spec.previous.assign(spec.days, kNaN);
+    const auto cells = previous.series(*measure, *region);
+    for (int d = 0; d < spec.days; ++d)
+        if (const auto at = previous.dayIndex(spec.dayAt(d)); at && cells[*at].reported())
+            spec.previous[d] = cells[*at].value;
+    spec.previousLabel = fileNameOf(previous.source.path);
 }
 
 }  // namespace
@@ -251,6 +309,8 @@ Result<FigureSpec> buildFigureSpec(const Drop& drop, const Ledger& ledger, const
     }
     spec.smoothed = series::centredMovingAverage(spec.cleaned, kSmoothingDays);
     spec.smoothedLabel = "7-day centred mean (cleaned)";
+    if (request.previous)
+        addPrevious(spec, *request.previous);
 
     std::optional<fit::FitResult> result = request.fitResult;
     if (!result && request.fit) {
@@ -266,12 +326,14 @@ Result<FigureSpec> buildFigureSpec(const Drop& drop, const Ledger& ledger, const
             spec.fitError = fitted.error().message;
     }
     if (result)
-        spec.fit = curveOf(*result, spec);
+        spec.fit = curveOf(*result, spec, request.countRange);
 
     addMarks(spec, ledger, cleaned);
     spec.title = request.title.empty() ? defaultTitle(spec) : request.title;
     spec.subtitle = request.subtitle.empty() ? defaultSubtitle(spec) : request.subtitle;
     spec.caption = captionFacts(drop, ledger, result ? &*result : nullptr, request.exportDate);
+    if (spec.fit)
+        spec.caption.bands = bandsDescription(*spec.fit);
     spec.captionLines = captionLines(spec.caption);
     return spec;
 }

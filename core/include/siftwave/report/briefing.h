@@ -86,6 +86,7 @@ struct BriefingRequest {
     std::string measure;  // empty: the drop's first measure
     fit::FitOptions fit;  // each region's cleaned series is fitted with these
     bool fitRegions = true;
+    bool countRange = false;  // also the range of daily counts on each figure (FigureRequest)
     const RegionRegister* regionRegister = nullptr;
     const Drop* previous = nullptr;  // the release before (revisions in the findings)
     std::size_t topFindings = 12;    // findings listed by name
@@ -100,8 +101,9 @@ Result<BriefingReport> buildBriefing(const Drop& drop, const Ledger& ledger, con
                                      const BriefingRequest& request);
 
 /// The report as one HTML page (UTF-8, no external resources). `figureMarkup[i]`
-/// is placed verbatim as the figure of region i (e.g. inline SVG); missing or
-/// empty entries leave the figure out.
+/// is placed verbatim as the figure of region i (e.g. inline SVG), which carries its
+/// own caption block; for a missing or empty entry the figure is left out and its
+/// caption lines are printed as text instead.
 std::string briefingHtml(const BriefingReport& report,
                          const std::vector<std::string>& figureMarkup);
 

@@ -8,7 +8,7 @@
 //
 //   Source: <file name>, <first date> to <last date>, SHA-256 <12 hex>
 //   Ledger: <n> entries, head <12 hex>        (or "Ledger: none, raw counts as reported")
-//   Fit: <model>, <method>, <first> to <last> (or "Fit: none")
+//   Fit: <model>, <method>, <first> to <last>[; <bands>] (or "Fit: none")
 //   Exported <YYYY-MM-DD> by Siftwave <version>
 //   <fit::caution>
 //
@@ -40,6 +40,7 @@ struct CaptionFacts {
     std::string method;             // e.g. "lsq"
     std::string fitFirstDate;       // the fit window, ISO 8601
     std::string fitLastDate;
+    std::string bands;       // what the figure's bands are (set by buildFigureSpec); "" = not said
     std::string exportDate;  // ISO 8601 date of the export (UTC)
     std::string caution = fit::caution;
 };

@@ -1,10 +1,11 @@
 #pragma once
-// The band drawn around a fitted curve in figures: where the daily reported
-// counts would fall, 95% of the time, if the fitted curve were their mean.
+// The optional range of daily counts drawn (dotted) around a fitted curve in
+// figures (FigureRequest::countRange): where the daily reported counts would
+// fall, 95% of the time, if the fitted incidence were their mean.
 //
 // It describes the day-to-day noise of reporting around the curve, not the
-// uncertainty of the curve itself (the FitResult has no pointwise interval of
-// the curve: its parameter intervals are in the fit table). Per fit method:
+// uncertainty of the curve itself: that is the shaded band, the curve's
+// pointwise confidence band (fit::curveBand, delta method). Per fit method:
 //
 //   poisson  the 2.5% and 97.5% quantiles of Poisson(mu_t);
 //   negbin   the same quantiles of the negative binomial with size r (the

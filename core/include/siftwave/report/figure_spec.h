@@ -3,11 +3,12 @@
 //
 // buildFigureSpec() gathers it from the Drop, the Ledger replayed into Cleaned
 // and, when asked, a fit of the cleaned series: the raw, cleaned and smoothed
-// daily counts, the fitted curve with its band (count_band.h), the fit window
-// and the peak, one mark per ledger decision in effect on this region and
-// measure, the excluded ranges, the title, subtitle and caption. Nothing here is
-// typed by hand: every annotation comes from an entry or the fit, so a figure
-// cannot disagree with the audit trail. The widgets layer draws it
+// daily counts, the fitted curve with its own uncertainty (the pointwise 95%
+// confidence band of the curve, fit::curveBand: delta method), optionally the
+// 95% range of daily counts around it (count_band.h), the fit window and the peak, one mark per
+// ledger decision in effect on this region and measure, the excluded ranges, the title, subtitle
+// and caption. Nothing here is typed by hand: every annotation comes from an entry or the fit, so a
+// figure cannot disagree with the audit trail. The widgets layer draws it
 // (widgets/figure_renderer.h); the report (briefing.h) lists it.
 //
 // Marks, per decision kind (entries in effect only; withdrawn ones are in the
@@ -58,12 +59,23 @@ struct ExcludedRange {
 };
 
 struct FittedCurveSpec {
-    fit::FitResult result;    // the fit itself (parameters, derived quantities, summary)
-    std::string label;        // legend text, e.g. "Gumbel fit (lsq)"
-    std::string bandLabel;    // legend text of the band
-    std::vector<double> mid;  // per calendar day; NaN outside the window
-    std::vector<double> low;  // band, same length
+    fit::FitResult result;  // the fit itself (parameters, derived quantities, summary)
+    std::string label;      // legend text, e.g. "Gumbel fit (lsq)"
+    // The wave itself per calendar day (fit::CurveBand::fitted, K f(t): no weekday factors);
+    // NaN outside the fit window: the figure draws no curve where nothing was fitted.
+    std::vector<double> mid;
+    // The curve's own uncertainty: its pointwise 95% confidence band (fit::curveBand, delta
+    // method), same length; all NaN when the fit has no usable covariance (see bandNote).
+    std::vector<double> low;
     std::vector<double> high;
+    std::string bandLabel;  // legend text of that band
+    std::string bandNote;   // why there is no band; "" when there is one
+    // Only when FigureRequest::countRange: where 95% of the daily counts would fall if the
+    // fitted incidence (weekday factors included) were their mean (count_band.h); same length,
+    // NaN outside the window. Empty otherwise.
+    std::vector<double> countLow;
+    std::vector<double> countHigh;
+    std::string countRangeLabel;  // legend text of that range
     Date windowFirst;
     Date windowLast;
     Date peakDate;
@@ -83,6 +95,10 @@ struct FigureSpec {
     std::vector<double> cleaned;   // NaN where the cleaned cell holds no value
     std::vector<double> smoothed;  // 7-day centred mean of the cleaned series
     std::string smoothedLabel;
+    // The previous release's raw counts of the same region and measure, on this calendar
+    // (NaN where it has no number); empty without a previous release.
+    std::vector<double> previous;
+    std::string previousLabel;  // its file name
 
     std::optional<FittedCurveSpec> fit;
     std::string fitError;  // why a requested fit is missing ("" when none was asked or it worked)
@@ -102,10 +118,16 @@ struct FigureRequest {
     std::optional<fit::FitOptions> fit;
     /// A fit already made on the cleaned series (e.g. the GUI's live fit); wins over `fit`.
     std::optional<fit::FitResult> fitResult;
+    /// Also draw the 95% range of daily counts around the fit (count_band.h), dotted, beside
+    /// the curve's confidence band. Off by default: the band a figure shows is the fit's own.
+    bool countRange = false;
     std::string title;       // empty: "<name> (<code>): daily <measure>"
     std::string subtitle;    // empty: the calendar, the decisions and the fit in one line
     std::string exportDate;  // empty: today (UTC)
     const RegionRegister* regions = nullptr;  // names and populations; may be null
+    /// The release before this one: its raw counts are drawn too, and the days it
+    /// differs on are marked (may be null; a region or measure it lacks draws nothing).
+    const Drop* previous = nullptr;
 
     /// Usage errors: no region, invalid fit options.
     Status validate() const;
