@@ -251,6 +251,19 @@ void FitPane::showWindow(DayIndexRange window) {
     m_to->setDate(toQDate(m_firstDay + window.last));
 }
 
+QString FitPane::noFitText(const Error& error) {
+    // The core's message is written for the command line; name the pane's controls instead of
+    // the CLI's FIRST:LAST argument.
+    QString message = QString::fromStdString(error.message);
+    static const QString cliHint = QStringLiteral(" (give the window as FIRST:LAST)");
+    const bool askedForWindow = message.contains(cliHint);
+    message.remove(cliHint);
+    QString text = tr("No fit: %1.").arg(message);
+    if (askedForWindow)
+        text += QLatin1Char(' ') + tr("Choose “days” under Window and set the days to fit.");
+    return text;
+}
+
 QString FitPane::summaryText() const {
     return m_summary->text();
 }
@@ -288,7 +301,7 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
     m_comparison->setRows(comparisonRows);
 
     if (!result) {
-        m_summary->setText(tr("No fit: %1").arg(QString::fromStdString(result.error().message)));
+        m_summary->setText(noFitText(result.error()));
         m_parameters->setRows({});
         m_derived->setRows({});
         return;
@@ -354,7 +367,7 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
     };
     QVector<TextTableModel::Row> derived;
     derived << dateRow(tr("Peak day"), d.peakDay);
-    derived << valueRow(tr("Peak incidence (per day)"), d.peakIncidence,
+    derived << valueRow(tr("Peak per day"), d.peakIncidence,
                         decimalsFor(d.peakIncidence.value));
     derived << valueRow(tr("Wave size K"), d.waveSize, 0);
     derived << TextTableModel::Row{

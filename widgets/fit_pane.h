@@ -66,6 +66,10 @@ public:
     TextTableModel* comparisonTable() const { return m_comparison; }
     QString summaryText() const;
 
+    /// The summary line shown when no fit could be made: the core's reason, with the pane's
+    /// own controls named where the core names a command-line argument.
+    static QString noFitText(const Error& error);
+
 Q_SIGNALS:
     /// The analyst changed a control: refit.
     void optionsChanged();

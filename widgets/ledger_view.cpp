@@ -155,6 +155,15 @@ LedgerView::LedgerView(Workbench* workbench, QWidget* parent)
 }
 
 void LedgerView::updateStatus() {
+    if (m_workbench->ledgerPath().isEmpty()) {
+        // No ledger open (no drop yet): a bare tick would read as "verified".
+        m_status->setText(tr("No ledger open: open a drop, and its ledger opens with it"));
+        m_status->setToolTip(QString());
+        m_status->setObjectName(QStringLiteral("chainStatusNone"));
+        m_status->style()->unpolish(m_status);
+        m_status->style()->polish(m_status);
+        return;
+    }
     const bool ok = m_workbench->chainOk();
     QString text = (ok ? QStringLiteral("✔ ") : QStringLiteral("✖ ")) + m_workbench->chainStatus();
     if (!m_workbench->ledgerPath().isEmpty())

@@ -228,6 +228,11 @@ QVariant RegionModel::data(const QModelIndex& index, int role) const {
                 return tr("No rows for %1 in this release").arg(node.code);
             if (node.name.isEmpty() && m_workbench->regionRegister())
                 return tr("%1 is not in the region register").arg(node.code);
+            // The name column is narrow in the dock: the tooltip gives the name in full.
+            if (!node.name.isEmpty())
+                return tr("%1 %2: %3 reported days")
+                    .arg(node.code, node.name)
+                    .arg(node.reportedDays);
             return tr("%1: %2 reported days").arg(node.code).arg(node.reportedDays);
     }
     return {};

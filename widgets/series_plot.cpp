@@ -78,6 +78,7 @@ SeriesPlot::SeriesPlot(QWidget* parent)
             [this](int) { Q_EMIT secondMeasureChosen(secondMeasure()); });
     setMeasures({});
     updateTitle();
+    showEmptyNote();
 }
 
 SeriesPlot::~SeriesPlot() = default;
@@ -130,7 +131,8 @@ void SeriesPlot::setVisibleDays(DayIndexRange days) {
     m_plot->replot();
 }
 
-void SeriesPlot::setView(const SeriesView& view) {
+void SeriesPlot::setView(const SeriesView& view, const QString& regionWithoutRows) {
+    m_regionWithoutRows = view.empty() ? regionWithoutRows : QString();
     // The same series drawn again (a decision applied, a scan finished): keep the time axis
     // where the analyst put it.
     const SeriesView& old = m_chart->view();
@@ -138,12 +140,45 @@ void SeriesPlot::setView(const SeriesView& view) {
                             old.measure == view.measure && old.firstDay == view.firstDay &&
                             old.days == view.days;
     const QCPRange keep = m_plot->xAxis->range();
+    m_emptyNote = nullptr;  // draw() clears every item, the note too
     m_chart->draw(view);
     if (sameSeries)
         m_plot->xAxis->setRange(keep);
     m_windowEditable = false;
     updateTitle();
+    showEmptyNote();
     m_plot->replot();
+}
+
+void SeriesPlot::showEmptyNote() {
+    // Nothing to draw: say why and what to do, instead of a legend and a 1970 date axis.
+    const bool empty = m_chart->view().empty();
+    m_plot->legend->setVisible(!empty);
+    m_plot->xAxis->setTickLabels(!empty);
+    m_plot->yAxis->setTickLabels(!empty);
+    if (m_emptyNote)
+        m_plot->removeItem(m_emptyNote);
+    m_emptyNote = nullptr;
+    if (!empty)
+        return;
+    m_emptyNote = new QCPItemText(m_plot);
+    m_emptyNote->position->setType(QCPItemPosition::ptAxisRectRatio);
+    m_emptyNote->position->setCoords(0.5, 0.45);
+    m_emptyNote->setPositionAlignment(Qt::AlignCenter);
+    m_emptyNote->setTextAlignment(Qt::AlignCenter);
+    m_emptyNote->setColor(QColor(0x55, 0x55, 0x55));
+    if (!m_regionWithoutRows.isEmpty()) {
+        m_emptyNote->setText(tr("%1 has no rows in this release: nothing to draw.\nRegions in grey "
+                                "are in the register only; choose one in black.")
+                                 .arg(m_regionWithoutRows));
+    } else {
+        m_emptyNote->setText(tr("Nothing to draw yet.\nOpen a drop (File ▸ Open drop, or drop a "
+                                "CSV file on the window),\nthen choose a region in Regions."));
+    }
+}
+
+QString SeriesPlot::emptyNote() const {
+    return m_emptyNote ? m_emptyNote->text() : QString();
 }
 
 const SeriesView& SeriesPlot::view() const {
@@ -153,7 +188,10 @@ const SeriesView& SeriesPlot::view() const {
 void SeriesPlot::updateTitle() {
     const SeriesView& v = m_chart->view();
     if (v.empty()) {
-        m_title->setText(tr("<i>No region selected</i>"));
+        m_title->setText(m_regionWithoutRows.isEmpty()
+                             ? tr("<i>No region selected</i>")
+                             : tr("<b>%1</b> &nbsp;<i>no rows in this release</i>")
+                                   .arg(m_regionWithoutRows.toHtmlEscaped()));
         return;
     }
     QString text = QStringLiteral("<b>%1</b>").arg(v.regionCode.toHtmlEscaped());

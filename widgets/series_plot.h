@@ -19,6 +19,7 @@
 #include <optional>
 
 class QComboBox;
+class QCPItemText;
 class QCustomPlot;
 class QLabel;
 class QMenu;
@@ -37,7 +38,9 @@ public:
     ~SeriesPlot() override;
 
     /// Shows a series; the measure lists are the drop's (index 0.. in drop order).
-    void setView(const SeriesView& view);
+    /// An empty view with `regionWithoutRows` set: that region (from the register) was chosen
+    /// but has no rows in this release; the title and the plot say so.
+    void setView(const SeriesView& view, const QString& regionWithoutRows = QString());
     void setMeasures(const QStringList& measures);
     int measure() const;
     /// -1 when no second measure is shown.
@@ -69,6 +72,9 @@ public:
     QMenu* createContextMenu(int day);
 
     const SeriesView& view() const;
+
+    /// The text drawn over an empty plot (no drop or no region); empty while a series is shown.
+    QString emptyNote() const;
     SeriesChart* chart() const { return m_chart.get(); }
     QCustomPlot* customPlot() const { return m_plot; }
 
@@ -89,6 +95,7 @@ private:
     enum class Edge { None, Start, End };
     Edge edgeNear(double x) const;
     void updateTitle();
+    void showEmptyNote();
     void showHover(QMouseEvent* event);
 
     QLabel* m_title;
@@ -96,6 +103,8 @@ private:
     QComboBox* m_second;
     QToolButton* m_reset;
     QCustomPlot* m_plot;
+    QCPItemText* m_emptyNote = nullptr;  // owned by m_plot
+    QString m_regionWithoutRows;
     std::unique_ptr<SeriesChart> m_chart;
     bool m_windowEditable = false;
     bool m_dayPicking = true;

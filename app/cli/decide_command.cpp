@@ -223,6 +223,7 @@ Result<Decision> decisionFrom(const ParsedArgs& args, DecisionKind kind, const D
 
 /// --excess auto: the scan's backlog estimate for the day (and its window when none is given).
 Status resolveAutoExcess(const Drop& drop, Decision& d, bool windowGiven);
+void printAutoExcessNote(const Decision& d, bool windowGiven);
 
 nlohmann::json effectSummaryJson(const Effect& effect) {
     nlohmann::json totals = nlohmann::json::array();
@@ -308,8 +309,9 @@ int runDecide(int argc, char** argv, int first) {
     if (!decision)
         return usageError(decision.error().message, json, usageText());
     const bool autoExcess = *kind == DecisionKind::Redistribute && args->value("excess") == "auto";
+    const bool windowGiven = args->has("window");
     if (autoExcess) {
-        if (Status s = resolveAutoExcess(*drop, *decision, args->has("window")); !s) {
+        if (Status s = resolveAutoExcess(*drop, *decision, windowGiven); !s) {
             printError(s.error(), json);
             return s.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
         }
@@ -341,6 +343,8 @@ int runDecide(int argc, char** argv, int first) {
             printJson(out);
         } else {
             std::printf("%s (dry run, nothing written):\n", decisionKindName(*kind));
+            if (autoExcess)
+                printAutoExcessNote(*decision, windowGiven);
             printEffectText(*effect);
         }
         return kExitOk;
@@ -360,22 +364,34 @@ int runDecide(int argc, char** argv, int first) {
     }
     if (json) {
         nlohmann::json out = {{"ledger", ledgerPath}, {"entry", entryToJsonObject(*entry)}};
-        if (autoExcess)
+        if (autoExcess) {
             out["excess_from"] = "scan backlog estimate";
+            out["window_from"] = windowGiven ? "--window" : "scan backlog estimate";
+        }
         printJson(out);
     } else {
         std::printf("entry %llu recorded in %s: %s by %s\n",
                     static_cast<unsigned long long>(entry->sequence), ledgerPath.c_str(),
                     decisionKindName(*kind), entry->author.c_str());
         if (autoExcess)
-            std::printf("  excess %lld and window %s from the scan's backlog estimate\n",
-                        static_cast<long long>(decision->excess), decision->window->iso().c_str());
+            printAutoExcessNote(*decision, windowGiven);
         printEffectText(entry->effect);
     }
     return kExitOk;
 }
 
 namespace {
+
+void printAutoExcessNote(const Decision& d, bool windowGiven) {
+    // Say where each number came from: --window given by hand is not the scan's suggestion.
+    if (windowGiven) {
+        std::printf("  excess %lld from the scan's backlog estimate; window %s as given\n",
+                    static_cast<long long>(d.excess), d.window->iso().c_str());
+    } else {
+        std::printf("  excess %lld and window %s from the scan's backlog estimate\n",
+                    static_cast<long long>(d.excess), d.window->iso().c_str());
+    }
+}
 
 Status resolveAutoExcess(const Drop& drop, Decision& d, bool windowGiven) {
     if (d.region.empty() || d.measure.empty() || !d.date)

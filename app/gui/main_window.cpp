@@ -664,8 +664,10 @@ void MainWindow::onRegionSelected(const QString& code) {
 }
 
 void MainWindow::redrawSeries() {
-    m_plot->setView(
-        m_workbench->seriesView(m_currentRegion, m_plot->measure(), m_plot->secondMeasure()));
+    const widgets::SeriesView view =
+        m_workbench->seriesView(m_currentRegion, m_plot->measure(), m_plot->secondMeasure());
+    // A register region without rows in this release draws nothing: the plot says why.
+    m_plot->setView(view, m_workbench->hasDrop() && view.empty() ? m_currentRegion : QString());
     refit(true);
 }
 
@@ -683,7 +685,9 @@ void MainWindow::refitNow(bool compare) {
     m_fit.reset();
     const widgets::SeriesView& view = m_plot->view();
     if (!m_workbench->hasDrop() || view.empty()) {
-        m_fitPane->clear(tr("No region selected."));
+        m_fitPane->clear(m_workbench->hasDrop() && !m_currentRegion.isEmpty()
+                             ? tr("No fit: %1 has no rows in this release.").arg(m_currentRegion)
+                             : tr("No region selected."));
         m_plot->setFit(std::nullopt);
         m_plot->setEditableWindow(std::nullopt);
         return;

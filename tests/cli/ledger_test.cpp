@@ -284,6 +284,40 @@ TEST_F(LedgerCli, ExcessAutoTakesTheScansBacklogEstimateAndSuggestedWindow) {
     EXPECT_EQ(t.at("before"), t.at("after"));
 }
 
+TEST_F(LedgerCli, ExcessAutoWithAGivenWindowSaysTheWindowWasGiven) {
+    // The README's morning walk-through: --excess auto with --window. The window is the
+    // analyst's, not the scan's suggestion, and the output must not credit it to the scan.
+    const std::string sample = std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_current.csv";
+    const std::string decide = "decide " + L() + " --drop " + quote(sample) +
+                               " redistribute --region 1301 --measure cases --date 2026-08-24"
+                               " --excess auto --window 2026-08-03:2026-08-23 --method uniform"
+                               " --reason 'backlog of three weeks'";
+    CliRun dry = cli(decide + " --dry-run");
+    ASSERT_EQ(dry.code, 0) << dry.out << dry.err;
+    EXPECT_NE(dry.out.find("from the scan's backlog estimate; window 2026-08-03:2026-08-23 as given"),
+              std::string::npos)
+        << dry.out;
+    EXPECT_FALSE(fs::exists(ledger));
+    CliRun text = cli(decide);
+    ASSERT_EQ(text.code, 0) << text.out << text.err;
+    EXPECT_NE(text.out.find("window 2026-08-03:2026-08-23 as given"), std::string::npos)
+        << text.out;
+    EXPECT_EQ(text.out.find("and window"), std::string::npos) << text.out;
+    fs::remove(ledger);  // the day was spread back; start again for the JSON form
+    CliRun json = cli(decide + " --json");
+    ASSERT_EQ(json.code, 0) << json.out << json.err;
+    const auto j = nlohmann::json::parse(json.out);
+    EXPECT_EQ(j.at("excess_from"), "scan backlog estimate");
+    EXPECT_EQ(j.at("window_from"), "--window");
+    // Without --window both numbers are the scan's.
+    fs::remove(ledger);
+    CliRun suggested = cli("decide " + L() + " --drop " + quote(sample) +
+                           " redistribute --region 1301 --measure cases --date 2026-08-24"
+                           " --excess auto --method uniform --reason 'backlog' --json");
+    ASSERT_EQ(suggested.code, 0) << suggested.out << suggested.err;
+    EXPECT_EQ(nlohmann::json::parse(suggested.out).at("window_from"), "scan backlog estimate");
+}
+
 TEST_F(LedgerCli, UsageErrorsExitTwoAndHelpListsEveryKind) {
     EXPECT_EQ(cli("decide " + L() + " --drop " + D() + " tidy_up --reason x").code, 2);
     EXPECT_EQ(cli("decide " + L() + " --drop " + D() +

@@ -4,6 +4,8 @@
 #include <algorithm>
 #include <cctype>
 #include <map>
+#include <optional>
+#include <string>
 
 namespace siftwave {
 namespace detail {
@@ -11,6 +13,33 @@ namespace {
 
 constexpr std::size_t kSampleBytes = std::size_t{256} << 10;
 constexpr int kSampleRecords = 400;
+
+/// A file that is not text but a packed container an analyst may pick by mistake, named by its
+/// magic number (the ZIP local file header "PK\3\4", PKWARE APPNOTE 4.3.7; gzip 1F 8B, RFC 1952
+/// section 2.3.1; "%PDF-", ISO 32000-1 section 7.5.2), with what to do instead.
+std::optional<std::string> packedFormatOf(std::string_view bytes) {
+    if (bytes.starts_with(std::string_view("PK\x03\x04", 4))) {
+        return "the file is a ZIP archive, not a CSV text file (an Excel .xlsx or OpenDocument "
+               ".ods workbook is one): save the sheet as CSV (UTF-8), or unzip the file first";
+    }
+    if (bytes.size() >= 2 && static_cast<unsigned char>(bytes[0]) == 0x1F &&
+        static_cast<unsigned char>(bytes[1]) == 0x8B) {
+        return std::string("the file is gzip-compressed, not a CSV text file: decompress it first "
+                           "(gunzip)");
+    }
+    if (bytes.starts_with("%PDF-")) {
+        return std::string("the file is a PDF document, not a CSV text file: ask for the data as "
+                           "CSV");
+    }
+    return std::nullopt;
+}
+
+/// How a delimiter is written in --delimiter's help: ',' ';' '|' or tab.
+std::string delimiterAsTyped(char delimiter) {
+    if (delimiter == '\t')
+        return "tab";
+    return std::string("'") + delimiter + "'";
+}
 
 }  // namespace
 
@@ -48,6 +77,9 @@ Status DropReader::sniff() {
             ErrorCode::Encoding,
             "the file is UTF-16 (it starts with a UTF-16 byte-order mark); save it as UTF-8", 1, 1);
     }
+    if (std::optional<std::string> kind = packedFormatOf(m_bytes)) {
+        return fail(ErrorCode::Encoding, *kind, 1, 1);
+    }
     if (m_bytes.size() >= 3 && u[0] == 0xEF && u[1] == 0xBB && u[2] == 0xBF) {
         m_start = 3;
         m_drop.source.dialect.bom = true;
@@ -61,6 +93,11 @@ Status DropReader::sniff() {
     if (firstContent >= m_bytes.size())
         return fail(ErrorCode::Syntax, "the file is empty; there is nothing to read");
 
+    // The encoding of the first block is checked before the line endings: a binary file often
+    // holds a CR byte and no LF, and is better named as binary than as old Mac text.
+    const std::size_t sampleEnd = std::min(m_bytes.size(), m_start + kSampleBytes);
+    if (Status s = m_checker.checkUpTo(sampleEnd); !s)
+        return s;
     if (m_bytes.find('\n', m_start) == std::string_view::npos &&
         m_bytes.find('\r', m_start) != std::string_view::npos) {
         return fail(ErrorCode::Syntax,
@@ -68,9 +105,6 @@ Status DropReader::sniff() {
                     "with LF or CR LF line endings",
                     1, 0);
     }
-    const std::size_t sampleEnd = std::min(m_bytes.size(), m_start + kSampleBytes);
-    if (Status s = m_checker.checkUpTo(sampleEnd); !s)
-        return s;
 
     m_delimiter =
         m_options.delimiter ? *m_options.delimiter : sniffDelimiter(m_bytes, m_start, sampleEnd);
@@ -131,6 +165,15 @@ Status DropReader::sniff() {
     }
     if (records.empty()) {
         return fail(ErrorCode::Layout, "the file has a header but no data rows", 1, 0);
+    }
+    if (m_names.size() < 2 && m_options.delimiter) {
+        const char found = sniffDelimiter(m_bytes, m_start, sampleEnd);
+        std::string message = "every line holds a single column with the delimiter " +
+                              delimiterAsTyped(*m_options.delimiter) + " named by --delimiter";
+        if (found != *m_options.delimiter)
+            message += "; the file seems to use " + delimiterAsTyped(found);
+        message += ". Leave out --delimiter to detect it, or name the right one";
+        return fail(ErrorCode::Layout, std::move(message), 1, 0);
     }
     if (m_names.size() < 2) {
         return fail(ErrorCode::Layout,

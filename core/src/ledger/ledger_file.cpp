@@ -11,6 +11,17 @@
 #include <filesystem>
 
 namespace siftwave {
+namespace {
+
+/// A ledger line is a JSON object: it starts with '{' (after blanks) and is text without NULs.
+bool looksLikeEntryLine(std::string_view line) {
+    if (line.find('\0') != std::string_view::npos)
+        return false;
+    const std::size_t first = line.find_first_not_of(" \t\r");
+    return first == std::string_view::npos || line[first] == '{';
+}
+
+}  // namespace
 
 Result<Ledger> parseLedger(std::string_view bytes, const std::string& displayPath) {
     Ledger ledger;
@@ -21,6 +32,17 @@ Result<Ledger> parseLedger(std::string_view bytes, const std::string& displayPat
         const std::size_t end = bytes.find('\n', pos);
         const bool torn = end == std::string_view::npos;
         const std::string_view line = bytes.substr(pos, torn ? std::string_view::npos : end - pos);
+        if (!line.empty() && !looksLikeEntryLine(line)) {
+            // Not a cut-short entry but another kind of file (a drop, a report, a binary file):
+            // say so, rather than advising to delete the line.
+            Error e = makeError(ErrorCode::Syntax,
+                                "this is not a ledger file: line " + std::to_string(lineNumber) +
+                                    " is not a JSON entry (a ledger is JSON Lines, one entry per "
+                                    "line, as siftwave-cli decide writes it); check the path");
+            e.file = displayPath;
+            e.line = lineNumber;
+            return e;
+        }
         if (torn) {
             Error e = makeError(
                 ErrorCode::Integrity,
@@ -52,8 +74,16 @@ Result<Ledger> parseLedger(std::string_view bytes, const std::string& displayPat
 
 Result<Ledger> readLedgerFile(const std::string& path) {
     std::error_code ec;
+    if (std::filesystem::is_directory(path, ec)) {
+        Error e = makeError(ErrorCode::Io, "this is a folder, not a ledger file; name the ledger "
+                                           "file itself (e.g. decisions.jsonl)");
+        e.file = path;
+        return e;
+    }
     if (!std::filesystem::exists(path, ec)) {
-        Error e = makeError(ErrorCode::NotFound, "no ledger file here");
+        Error e = makeError(ErrorCode::NotFound,
+                            "no ledger file here; check the path (siftwave-cli decide starts a new "
+                            "ledger with the first decision)");
         e.file = path;
         return e;
     }
