@@ -335,6 +335,28 @@ TEST_F(LedgerCli, OneEntryIsCountedInTheSingular) {
               std::string::npos);
 }
 
+TEST_F(LedgerCli, AnImpossibleWindowSaysWhichPartIsWrong) {
+    // 2026 is not a leap year: February has 28 days (ISO 8601 / Gregorian calendar).
+    const std::string base = "decide " + L() + " --drop " + D() +
+                             " redistribute --region 0412 --measure cases --date 2026-03-06"
+                             " --excess 80 --method uniform --reason 'backlog' --window ";
+    CliRun noDay = cli(base + "2026-02-30:2026-03-05");
+    EXPECT_EQ(noDay.code, 2);
+    EXPECT_NE(noDay.err.find("--window: '2026-02-30' is not a day of the calendar"),
+              std::string::npos)
+        << noDay.err;
+    CliRun backwards = cli(base + "2026-03-05:2026-03-03");
+    EXPECT_EQ(backwards.code, 2);
+    EXPECT_NE(backwards.err.find("'2026-03-05:2026-03-03' ends before it starts"),
+              std::string::npos)
+        << backwards.err;
+    CliRun garbled = cli(base + "last-week");
+    EXPECT_EQ(garbled.code, 2);
+    EXPECT_NE(garbled.err.find("takes FIRST:LAST as YYYY-MM-DD:YYYY-MM-DD"), std::string::npos)
+        << garbled.err;
+    EXPECT_FALSE(fs::exists(ledger));
+}
+
 TEST_F(LedgerCli, UsageErrorsExitTwoAndHelpListsEveryKind) {
     EXPECT_EQ(cli("decide " + L() + " --drop " + D() + " tidy_up --reason x").code, 2);
     EXPECT_EQ(cli("decide " + L() + " --drop " + D() +
