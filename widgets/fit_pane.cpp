@@ -367,8 +367,7 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
     };
     QVector<TextTableModel::Row> derived;
     derived << dateRow(tr("Peak day"), d.peakDay);
-    derived << valueRow(tr("Peak per day"), d.peakIncidence,
-                        decimalsFor(d.peakIncidence.value));
+    derived << valueRow(tr("Peak per day"), d.peakIncidence, decimalsFor(d.peakIncidence.value));
     derived << valueRow(tr("Wave size K"), d.waveSize, 0);
     derived << TextTableModel::Row{
         {tr("Fraction observed"), number(d.fractionObserved.value * 100, 1) + QStringLiteral(" %"),

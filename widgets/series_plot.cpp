@@ -172,8 +172,9 @@ void SeriesPlot::showEmptyNote() {
                                 "are in the register only; choose one in black.")
                                  .arg(m_regionWithoutRows));
     } else {
-        m_emptyNote->setText(tr("Nothing to draw yet.\nOpen a drop (File ▸ Open drop, or drop a "
-                                "CSV file on the window),\nthen choose a region in Regions."));
+        m_emptyNote->setText(
+            tr("Nothing to draw yet.\nOpen a drop (File ▸ Open drop, or drop a "
+               "CSV file on the window),\nthen choose a region in Regions."));
     }
 }
 

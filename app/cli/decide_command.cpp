@@ -96,11 +96,30 @@ Error usage(std::string message) {
 Result<DayRange> rangeFlag(const ParsedArgs& args, const char* name) {
     const std::string text = args.value(name);
     auto r = DayRange::fromIso(text);
-    if (!r)
-        return usage(std::string("--") + name +
-                     " takes FIRST:LAST as YYYY-MM-DD:YYYY-MM-DD, FIRST <= LAST, not '" + text +
-                     "'");
-    return *r;
+    if (r)
+        return *r;
+    // Say which part is wrong: a day the calendar does not have, or a range that runs backwards.
+    const std::size_t colon = text.find(':');
+    if (colon != std::string::npos && text.find(':', colon + 1) == std::string::npos) {
+        const std::string firstText = text.substr(0, colon);
+        const std::string lastText = text.substr(colon + 1);
+        const auto first = Date::fromIso(firstText);
+        const auto last = Date::fromIso(lastText);
+        for (const auto& [day, dayText] :
+             {std::pair{first, firstText}, std::pair{last, lastText}}) {
+            if (!day && dayText.size() == 10 && dayText[4] == '-' && dayText[7] == '-') {
+                return usage(std::string("--") + name + ": '" + dayText +
+                             "' is not a day of the calendar; give real days as "
+                             "YYYY-MM-DD:YYYY-MM-DD");
+            }
+        }
+        if (first && last && *last < *first) {
+            return usage(std::string("--") + name + " '" + text +
+                         "' ends before it starts; give FIRST:LAST with FIRST <= LAST");
+        }
+    }
+    return usage(std::string("--") + name +
+                 " takes FIRST:LAST as YYYY-MM-DD:YYYY-MM-DD, FIRST <= LAST, not '" + text + "'");
 }
 
 Result<std::int64_t> positiveFlag(const ParsedArgs& args, const char* name) {

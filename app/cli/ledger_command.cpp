@@ -118,8 +118,8 @@ int runLedger(int argc, char** argv, int first) {
     if (json) {
         printJson(out);
     } else {
-        std::printf("%s: %zu entries, hash chain verified", ledgerPath.c_str(),
-                    ledger->entries.size());
+        std::printf("%s: %zu %s, hash chain verified", ledgerPath.c_str(), ledger->entries.size(),
+                    ledger->entries.size() == 1 ? "entry" : "entries");
         if (drop)
             std::printf("; replayed on %s, every region's totals reconcile",
                         drop->source.path.c_str());

@@ -294,8 +294,9 @@ TEST_F(LedgerCli, ExcessAutoWithAGivenWindowSaysTheWindowWasGiven) {
                                " --reason 'backlog of three weeks'";
     CliRun dry = cli(decide + " --dry-run");
     ASSERT_EQ(dry.code, 0) << dry.out << dry.err;
-    EXPECT_NE(dry.out.find("from the scan's backlog estimate; window 2026-08-03:2026-08-23 as given"),
-              std::string::npos)
+    EXPECT_NE(
+        dry.out.find("from the scan's backlog estimate; window 2026-08-03:2026-08-23 as given"),
+        std::string::npos)
         << dry.out;
     EXPECT_FALSE(fs::exists(ledger));
     CliRun text = cli(decide);
@@ -316,6 +317,44 @@ TEST_F(LedgerCli, ExcessAutoWithAGivenWindowSaysTheWindowWasGiven) {
                            " --excess auto --method uniform --reason 'backlog' --json");
     ASSERT_EQ(suggested.code, 0) << suggested.out << suggested.err;
     EXPECT_EQ(nlohmann::json::parse(suggested.out).at("window_from"), "scan backlog estimate");
+}
+
+TEST_F(LedgerCli, OneEntryIsCountedInTheSingular) {
+    ASSERT_EQ(redistribute().code, 0);
+    CliRun v = cli("ledger " + L() + " --verify");
+    ASSERT_EQ(v.code, 0) << v.err;
+    EXPECT_NE(v.out.find(": 1 entry, hash chain verified"), std::string::npos) << v.out;
+    CliRun a =
+        cli("apply " + D() + " --ledger " + L() + " --out " + quote((dir / "c.csv").string()));
+    ASSERT_EQ(a.code, 0) << a.err;
+    EXPECT_NE(a.out.find("1 ledger entry replayed (1 in effect)"), std::string::npos) << a.out;
+    ASSERT_EQ(
+        cli("decide " + L() + " --drop " + D() + " accept --region N7 --reason 'looked at'").code,
+        0);
+    EXPECT_NE(cli("ledger " + L() + " --verify").out.find(": 2 entries, hash chain verified"),
+              std::string::npos);
+}
+
+TEST_F(LedgerCli, AnImpossibleWindowSaysWhichPartIsWrong) {
+    // 2026 is not a leap year: February has 28 days (ISO 8601 / Gregorian calendar).
+    const std::string base = "decide " + L() + " --drop " + D() +
+                             " redistribute --region 0412 --measure cases --date 2026-03-06"
+                             " --excess 80 --method uniform --reason 'backlog' --window ";
+    CliRun noDay = cli(base + "2026-02-30:2026-03-05");
+    EXPECT_EQ(noDay.code, 2);
+    EXPECT_NE(noDay.err.find("--window: '2026-02-30' is not a day of the calendar"),
+              std::string::npos)
+        << noDay.err;
+    CliRun backwards = cli(base + "2026-03-05:2026-03-03");
+    EXPECT_EQ(backwards.code, 2);
+    EXPECT_NE(backwards.err.find("'2026-03-05:2026-03-03' ends before it starts"),
+              std::string::npos)
+        << backwards.err;
+    CliRun garbled = cli(base + "last-week");
+    EXPECT_EQ(garbled.code, 2);
+    EXPECT_NE(garbled.err.find("takes FIRST:LAST as YYYY-MM-DD:YYYY-MM-DD"), std::string::npos)
+        << garbled.err;
+    EXPECT_FALSE(fs::exists(ledger));
 }
 
 TEST_F(LedgerCli, UsageErrorsExitTwoAndHelpListsEveryKind) {

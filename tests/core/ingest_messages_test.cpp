@@ -48,9 +48,10 @@ TEST(IngestMessages, APdfIsNamedAsAPdf) {
 TEST(IngestMessages, ABinaryFileWithACarriageReturnIsNotCalledOldMacText) {
     // The opening bytes of an ELF executable hold NUL bytes; one CR and no LF further on used
     // to be reported as "lines end in a carriage return alone".
-    std::string elf("\x7F"
-                    "ELF\x02\x01\x01\x00\x00\x00\x00\x00",
-                    12);
+    std::string elf(
+        "\x7F"
+        "ELF\x02\x01\x01\x00\x00\x00\x00\x00",
+        12);
     elf += "\r\x01\x02";
     const Error e = errorOf(elf);
     EXPECT_EQ(e.code, ErrorCode::Encoding);

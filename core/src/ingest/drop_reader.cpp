@@ -24,12 +24,14 @@ std::optional<std::string> packedFormatOf(std::string_view bytes) {
     }
     if (bytes.size() >= 2 && static_cast<unsigned char>(bytes[0]) == 0x1F &&
         static_cast<unsigned char>(bytes[1]) == 0x8B) {
-        return std::string("the file is gzip-compressed, not a CSV text file: decompress it first "
-                           "(gunzip)");
+        return std::string(
+            "the file is gzip-compressed, not a CSV text file: decompress it first "
+            "(gunzip)");
     }
     if (bytes.starts_with("%PDF-")) {
-        return std::string("the file is a PDF document, not a CSV text file: ask for the data as "
-                           "CSV");
+        return std::string(
+            "the file is a PDF document, not a CSV text file: ask for the data as "
+            "CSV");
     }
     return std::nullopt;
 }

@@ -75,8 +75,9 @@ Result<Ledger> parseLedger(std::string_view bytes, const std::string& displayPat
 Result<Ledger> readLedgerFile(const std::string& path) {
     std::error_code ec;
     if (std::filesystem::is_directory(path, ec)) {
-        Error e = makeError(ErrorCode::Io, "this is a folder, not a ledger file; name the ledger "
-                                           "file itself (e.g. decisions.jsonl)");
+        Error e = makeError(ErrorCode::Io,
+                            "this is a folder, not a ledger file; name the ledger "
+                            "file itself (e.g. decisions.jsonl)");
         e.file = path;
         return e;
     }
