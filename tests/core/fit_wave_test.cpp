@@ -56,3 +56,42 @@ TEST(FitWave, EveryModelAndMethodFitsANoisyWave) {
 
 }  // namespace
 }  // namespace siftwave::fit
+
+namespace siftwave::fit {
+namespace {
+
+// A wave seen only on its rise, in noisy counts: K and the peak are poorly determined, and
+// estimate - 1.96 se falls below zero. A count cannot be negative, so the reported interval is
+// cut at 0 (and the fraction observed kept within [0, 1]); common practice, no source.
+TEST(FitWave, IntervalsOfCountsAreCutAtZeroAndTheFractionObservedAtOne) {
+    test::GeneratedWave g;
+    g.K = 3000;
+    g.days = 52;  // the truth peaks on day 60: only the rise is observed
+    g.size = 4;
+    int cut = 0;
+    for (unsigned seed = 1; seed <= 30; ++seed) {
+        const auto counts = test::generateCounts(g, seed);
+        FitOptions o;
+        o.window = std::pair{0, g.days - 1};
+        auto r = fitSeries({kMonday, counts}, o);
+        if (!r)
+            continue;
+        const DerivedQuantities& d = r->derived;
+        for (const Estimate* e : {&d.peakIncidence, &d.waveSize, &d.peakInfectiousLoad}) {
+            if (!std::isfinite(e->se))
+                continue;
+            EXPECT_GE(e->lower, 0.0) << "seed " << seed;
+            EXPECT_GE(e->upper, e->lower) << "seed " << seed;
+            cut += e->value - 1.96 * e->se < 0 ? 1 : 0;
+        }
+        if (std::isfinite(d.fractionObserved.se)) {
+            EXPECT_GE(d.fractionObserved.lower, 0.0) << "seed " << seed;
+            EXPECT_LE(d.fractionObserved.upper, 1.0) << "seed " << seed;
+        }
+    }
+    // The fixture must exercise the cut, or the checks above prove nothing.
+    EXPECT_GT(cut, 0);
+}
+
+}  // namespace
+}  // namespace siftwave::fit

@@ -47,11 +47,14 @@ std::string Error::describe() const {
         out += ": ";
     }
     out += message;
-    if (!region.empty() || !date.empty()) {
+    // The place, unless the message already names it ("region '9999' is not in the drop").
+    const bool regionNamed =
+        !region.empty() && message.find("'" + region + "'") != std::string::npos;
+    if ((!region.empty() && !regionNamed) || !date.empty()) {
         out += " (";
-        if (!region.empty())
+        if (!region.empty() && !regionNamed)
             out += "region " + region;
-        if (!region.empty() && !date.empty())
+        if (!region.empty() && !regionNamed && !date.empty())
             out += ", ";
         if (!date.empty())
             out += date;

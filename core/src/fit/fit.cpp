@@ -99,6 +99,17 @@ Estimate estimateFrom(double value, double se, double q) {
     return e;
 }
 
+/// The interval of a quantity that cannot leave [lowest, highest] (a count, a share) is cut
+/// there, as the curve's band is cut at zero: "-575 cases per day" is never a possible value.
+Estimate withinBounds(Estimate e, double lowest,
+                      double highest = std::numeric_limits<double>::infinity()) {
+    if (std::isfinite(e.lower))
+        e.lower = std::clamp(e.lower, lowest, highest);
+    if (std::isfinite(e.upper))
+        e.upper = std::clamp(e.upper, lowest, highest);
+    return e;
+}
+
 // ---------------------------------------------------------------- window choice
 Result<std::pair<int, int>> chooseWindow(std::span<const double> counts,
                                          std::span<const double> smoothed, const FitOptions& o,
@@ -502,18 +513,18 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     }
     DerivedQuantities& dq = res.derived;
     dq.peakDay = estimateFrom(d0[kPeakDay], se[kPeakDay], q);
-    dq.peakIncidence = estimateFrom(d0[kPeakIncidence], se[kPeakIncidence], q);
-    dq.waveSize = estimateFrom(d0[kWaveSize], se[kWaveSize], q);
-    dq.fractionObserved = estimateFrom(d0[kFraction], se[kFraction], q);
+    dq.peakIncidence = withinBounds(estimateFrom(d0[kPeakIncidence], se[kPeakIncidence], q), 0);
+    dq.waveSize = withinBounds(estimateFrom(d0[kWaveSize], se[kWaveSize], q), 0);
+    dq.fractionObserved = withinBounds(estimateFrom(d0[kFraction], se[kFraction], q), 0, 1);
     dq.startDay = estimateFrom(d0[kStart], se[kStart], q);
     dq.endDay = estimateFrom(d0[kEnd], se[kEnd], q);
     dq.fastestGrowthDay = estimateFrom(d0[kFastest], se[kFastest], q);
     dq.doublingTimeDays = estimateFrom(d0[kDoubling], se[kDoubling], q);
-    dq.peakInfectiousLoad = estimateFrom(d0[kLoad], se[kLoad], q);
+    dq.peakInfectiousLoad = withinBounds(estimateFrom(d0[kLoad], se[kLoad], q), 0);
     if (population && *population > 0) {
         const double pop = *population;
         dq.peakInfectiousLoadPer100k =
-            estimateFrom(d0[kLoad] * 1e5 / pop, se[kLoad] * 1e5 / pop, q);
+            withinBounds(estimateFrom(d0[kLoad] * 1e5 / pop, se[kLoad] * 1e5 / pop, q), 0);
         dq.log10InfectiousShare = estimateFrom(std::log10(d0[kLoad] / pop),
                                                se[kLoad] / (d0[kLoad] * std::numbers::ln10), q);
     }

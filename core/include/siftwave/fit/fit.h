@@ -20,7 +20,9 @@
 //      Likelihood fits use the inverse observed information (numerical Hessian of the
 //      log-likelihood). Intervals are estimate +- q se, q the 97.5% Student-t quantile with
 //      n - p degrees of freedom (LSQ) or the normal quantile (likelihood). Derived quantities
-//      get their standard errors by the delta method (numerical gradient).
+//      get their standard errors by the delta method (numerical gradient); the intervals of
+//      those that cannot be negative (peak incidence, K, the infectious load) are cut at 0 and
+//      the fraction observed at [0, 1] (common practice, no source).
 //   5. the fitted curve's pointwise interval (FitResult::fittedLower/fittedUpper, curveBand()):
 //      the delta method applied to the incidence itself, h(theta) = K f(t; theta):
 //          var(h(t)) ~= g(t)^T Cov g(t),   g(t) = d (K f(t)) / d theta at the estimate,
