@@ -112,6 +112,8 @@ FitPane::FitPane(QWidget* parent)
     m_auto->setChecked(true);
     m_auto->setObjectName(QStringLiteral("fitWindowAuto"));
     m_manual->setObjectName(QStringLiteral("fitWindowManual"));
+    m_from->setObjectName(QStringLiteral("fitWindowFrom"));
+    m_to->setObjectName(QStringLiteral("fitWindowTo"));
     for (QDateEdit* edit : {m_from, m_to}) {
         edit->setDisplayFormat(QStringLiteral("yyyy-MM-dd"));
         edit->setCalendarPopup(true);

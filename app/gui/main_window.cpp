@@ -727,10 +727,15 @@ void MainWindow::refitNow(bool compare) {
         m_fitPane->showWindow(widgets::DayIndexRange{m_fit->first, m_fit->last});
     } else {
         m_plot->setFit(std::nullopt);
-        if (const auto window = m_fitPane->manualWindow())
+        if (const auto window = m_fitPane->manualWindow()) {
             m_plot->setEditableWindow(*window);
-        else
+        } else {
             m_plot->setEditableWindow(std::nullopt);
+            // No wave found: the (disabled) day fields show the span that was searched, not
+            // the window of the region fitted before.
+            if (view.days > 0)
+                m_fitPane->showWindow(widgets::DayIndexRange{0, view.days - 1});
+        }
     }
 }
 

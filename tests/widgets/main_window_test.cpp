@@ -1,6 +1,7 @@
 // The main window on the bundled sample: opening, selecting, a bad file, the screenshot.
 #include "main_window.h"
 
+#include "widgets/fit_pane.h"
 #include "widgets/region_browser.h"
 #include "widgets/region_model.h"
 #include "widgets/series_plot.h"
@@ -8,6 +9,7 @@
 #include "widgets/workbench.h"
 
 #include <QComboBox>
+#include <QDateEdit>
 #include <QFile>
 #include <QImage>
 #include <QMessageBox>
@@ -72,6 +74,25 @@ private Q_SLOTS:
         QVERIFY(window.selectRegion(QStringLiteral("0412")));
         QCOMPARE(window.seriesPlot()->view().regionCode, QStringLiteral("0412"));
         QCOMPARE(window.seriesPlot()->view().regionName, QStringLiteral("Skaldrin"));
+    }
+
+    void aRegionWithoutAWaveDoesNotShowTheWindowOfTheRegionBefore() {
+        MainWindow window(testOptions());
+        window.show();
+        QVERIFY(openAndWait(window, kSample));
+        auto* from = window.fitPane()->findChild<QDateEdit*>(QStringLiteral("fitWindowFrom"));
+        auto* to = window.fitPane()->findChild<QDateEdit*>(QStringLiteral("fitWindowTo"));
+        QVERIFY(from && to);
+        QVERIFY(window.selectRegion(QStringLiteral("KV")));
+        const QDate kvFirst = from->date();
+        // 412 is the variant code of Skaldrin's last week (samples/manifest.json P14): no wave.
+        QVERIFY(window.selectRegion(QStringLiteral("412")));
+        QVERIFY2(window.fitPane()->summaryText().startsWith(QStringLiteral("No fit")),
+                 qPrintable(window.fitPane()->summaryText()));
+        const auto& drop = window.workbench()->drop();
+        QCOMPARE(from->date().toString(Qt::ISODate), QString::fromStdString(drop.firstDay.iso()));
+        QCOMPARE(to->date().toString(Qt::ISODate), QString::fromStdString(drop.lastDay().iso()));
+        QVERIFY(from->date() != kvFirst);
     }
 
     void selectingARegionPlotsItsRowsFromTheFile() {
