@@ -2,6 +2,7 @@
 // "Redistribute … over earlier days". A day the scan flagged gets the finding's own proposal;
 // any other day gets the core's backlog estimate. Then the same preview, reason and Apply.
 #include "main_window.h"
+#include "sample_window.h"
 
 #include "widgets/decision_pane.h"
 #include "widgets/qcustomplot_include.h"
@@ -40,21 +41,12 @@ class BarPickTest : public QObject {
 
 private Q_SLOTS:
     void init() {
-        QStandardPaths::setTestModeEnabled(true);
         QVERIFY(m_ledgers.isValid());
-        QDir(m_ledgers.path()).removeRecursively();
-        QDir().mkpath(m_ledgers.path());
-        MainWindow::Options options;
-        options.rememberLayout = false;
-        options.dialogs = false;
-        options.ledgerFolder = m_ledgers.path();
-        m_window = std::make_unique<MainWindow>(options);
-        m_window->resize(1400, 900);
-        m_window->show();
-        QVERIFY(QTest::qWaitForWindowExposed(m_window.get()));
-        QSignalSpy scanned(m_window.get(), &MainWindow::scanFinished);
-        m_window->openDrop(QStringLiteral(SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv"));
-        QVERIFY(scanned.wait(30000));
+        siftwave::testing::SampleWindowOptions options;
+        options.size = QSize(1400, 900);
+        options.waitForExposed = true;  // the tests click on the plot
+        m_window = siftwave::testing::openSampleWindow(m_ledgers.path(), options);
+        QVERIFY(m_window);
     }
     void cleanup() { m_window.reset(); }
 

@@ -2,6 +2,7 @@
 // a click selects the region, cancel leaves the window as it was, a ledger change marks the
 // table out of date.
 #include "main_window.h"
+#include "sample_window.h"
 
 #include "widgets/batch_fit.h"
 #include "widgets/fit_pane.h"
@@ -37,20 +38,11 @@ class BatchFitTest : public QObject {
 
 private Q_SLOTS:
     void init() {
-        QStandardPaths::setTestModeEnabled(true);
         QVERIFY(m_ledgers.isValid());
-        QDir(m_ledgers.path()).removeRecursively();
-        QDir().mkpath(m_ledgers.path());
-        MainWindow::Options options;
-        options.rememberLayout = false;
-        options.dialogs = false;
-        options.ledgerFolder = m_ledgers.path();
-        m_window = std::make_unique<MainWindow>(options);
-        m_window->resize(1400, 900);
-        m_window->show();
-        QSignalSpy scanned(m_window.get(), &MainWindow::scanFinished);
-        m_window->openDrop(QStringLiteral(SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv"));
-        QVERIFY(scanned.wait(30000));
+        siftwave::testing::SampleWindowOptions options;
+        options.size = QSize(1400, 900);
+        m_window = siftwave::testing::openSampleWindow(m_ledgers.path(), options);
+        QVERIFY(m_window);
     }
     void cleanup() { m_window.reset(); }
 

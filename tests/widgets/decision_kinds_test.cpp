@@ -3,6 +3,7 @@
 // checked against the ledger entry, the totals the kind must keep (or state), and undo.
 // The planted problems are those of samples/manifest.json (P04, P12, P14).
 #include "main_window.h"
+#include "sample_window.h"
 
 #include "widgets/decision_pane.h"
 #include "widgets/finding_review.h"
@@ -82,19 +83,9 @@ class DecisionKindsTest : public QObject {
 
 private Q_SLOTS:
     void init() {
-        QStandardPaths::setTestModeEnabled(true);
         QVERIFY(m_ledgers.isValid());
-        QDir(m_ledgers.path()).removeRecursively();
-        QDir().mkpath(m_ledgers.path());
-        MainWindow::Options options;
-        options.rememberLayout = false;
-        options.dialogs = false;
-        options.ledgerFolder = m_ledgers.path();
-        m_window = std::make_unique<MainWindow>(options);
-        m_window->show();
-        QSignalSpy scanned(m_window.get(), &MainWindow::scanFinished);
-        m_window->openDrop(QStringLiteral(SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv"));
-        QVERIFY(scanned.wait(30000));
+        m_window = siftwave::testing::openSampleWindow(m_ledgers.path());
+        QVERIFY(m_window);
     }
     void cleanup() { m_window.reset(); }
 

@@ -1,6 +1,7 @@
 // The review loop through the widgets: finding -> preview -> apply with a reason ->
 // ledger entry with the region total conserved; withdraw and undo restore the values.
 #include "main_window.h"
+#include "sample_window.h"
 
 #include "widgets/decision_pane.h"
 #include "widgets/finding_review.h"
@@ -42,18 +43,11 @@ class RedistributionTest : public QObject {
 
 private Q_SLOTS:
     void init() {
-        QStandardPaths::setTestModeEnabled(true);
         QVERIFY(m_ledgers.isValid());
-        QDir(m_ledgers.path()).removeRecursively();
-        QDir().mkpath(m_ledgers.path());
-        MainWindow::Options options;
-        options.rememberLayout = false;
-        options.ledgerFolder = m_ledgers.path();
-        m_window = std::make_unique<MainWindow>(options);
-        m_window->show();
-        QSignalSpy scanned(m_window.get(), &MainWindow::scanFinished);
-        m_window->openDrop(QStringLiteral(SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv"));
-        QVERIFY(scanned.wait(30000));
+        siftwave::testing::SampleWindowOptions options;
+        options.dialogs = true;
+        m_window = siftwave::testing::openSampleWindow(m_ledgers.path(), options);
+        QVERIFY(m_window);
     }
     void cleanup() { m_window.reset(); }
 
@@ -174,9 +168,12 @@ private Q_SLOTS:
 
     void reopeningTheDropReplaysItsLedger() {
         MainWindow& window = *m_window;
-        const auto* dump = findingOf(*window.workbench(), siftwave::scan::FindingKind::BacklogDump, "1301");
+        const auto* dump =
+            findingOf(*window.workbench(), siftwave::scan::FindingKind::BacklogDump, "1301");
         QVERIFY(dump);
-        const int day = *dump->first - window.workbench()->drop().firstDay;  // copied: reopening drops the findings
+        const int day =
+            *dump->first -
+            window.workbench()->drop().firstDay;  // copied: reopening drops the findings
         QVERIFY(window.decideFinding(QString::fromStdString(dump->id)));
         QVERIFY(window.applyCurrentDecision());  // the prefilled reason is a reason
         const auto region = *window.workbench()->drop().regionIndex("1301");
