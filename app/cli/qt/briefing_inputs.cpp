@@ -31,6 +31,16 @@ std::vector<FlagSpec> briefingFlagSpecs(bool fitFlags) {
     return specs;
 }
 
+Result<std::optional<Drop>> loadPreviousRelease(const ParsedArgs& args) {
+    const std::optional<std::string> path = args.optionalValue("previous");
+    if (!path)
+        return std::optional<Drop>{};
+    Result<Drop> read = loadDrop(*path, args);
+    if (!read)
+        return read.error();
+    return std::optional<Drop>(std::move(read.value()));
+}
+
 Result<BriefingInputs> loadBriefingInputs(const std::string& path, const ParsedArgs& args,
                                           bool ledgerRequired) {
     auto drop = loadDrop(path, args);

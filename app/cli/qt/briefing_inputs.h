@@ -36,6 +36,9 @@ std::vector<FlagSpec> briefingFlagSpecs(bool fitFlags);
 Result<BriefingInputs> loadBriefingInputs(const std::string& path, const ParsedArgs& args,
                                           bool ledgerRequired);
 
+/// The previous release named by --previous, read with the same ingest flags; nullopt without it.
+Result<std::optional<Drop>> loadPreviousRelease(const ParsedArgs& args);
+
 /// The fit options the flags ask for; nullopt when no fit is wanted (no --fit, or
 /// --no-fit when `fitByDefault`).
 Result<std::optional<fit::FitOptions>> fitOptionsFrom(const ParsedArgs& args, const Drop& drop,

@@ -124,14 +124,10 @@ int runFigure(int argc, char** argv, int first) {
     if (!fitOptions)
         return usageError(fitOptions.error().message);
 
-    std::optional<Drop> previous;
-    if (auto path = args->optionalValue("previous")) {
-        auto read = loadDrop(*path, *args);
-        if (!read) {
-            printError(read.error(), json);
-            return kExitBadInput;
-        }
-        previous = std::move(read.value());
+    Result<std::optional<Drop>> previous = loadPreviousRelease(*args);
+    if (!previous) {
+        printError(previous.error(), json);
+        return kExitBadInput;
     }
 
     std::vector<report::FigureSpec> figures;
@@ -143,7 +139,7 @@ int runFigure(int argc, char** argv, int first) {
         request.title = regions.size() == 1 || args->has("each") ? args->value("title") : "";
         request.subtitle = regions.size() == 1 || args->has("each") ? args->value("subtitle") : "";
         request.regions = inputs->regions ? &*inputs->regions : nullptr;
-        request.previous = previous ? &*previous : nullptr;
+        request.previous = *previous ? &**previous : nullptr;
         request.countRange = args->has("count-range");
         auto spec = report::buildFigureSpec(inputs->drop, inputs->ledger, inputs->cleaned, request);
         if (!spec) {

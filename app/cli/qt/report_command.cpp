@@ -73,14 +73,10 @@ int runReport(int argc, char** argv, int first) {
     auto fitOptions = fitOptionsFrom(*args, inputs->drop, true);
     if (!fitOptions)
         return usageError(fitOptions.error().message);
-    std::optional<Drop> previous;
-    if (auto path = args->optionalValue("previous")) {
-        auto read = loadDrop(*path, *args);
-        if (!read) {
-            printError(read.error(), json);
-            return kExitBadInput;
-        }
-        previous = std::move(read.value());
+    Result<std::optional<Drop>> previous = loadPreviousRelease(*args);
+    if (!previous) {
+        printError(previous.error(), json);
+        return kExitBadInput;
     }
 
     report::BriefingRequest request;
@@ -90,7 +86,7 @@ int runReport(int argc, char** argv, int first) {
     if (*fitOptions)
         request.fit = **fitOptions;
     request.regionRegister = inputs->regions ? &*inputs->regions : nullptr;
-    request.previous = previous ? &*previous : nullptr;
+    request.previous = *previous ? &**previous : nullptr;
     request.title = args->value("title");
     request.countRange = args->has("count-range");
     auto briefing = report::buildBriefing(inputs->drop, inputs->ledger, inputs->cleaned, request);
