@@ -60,6 +60,7 @@ void BM_FitAllRegions(benchmark::State& state) {
     fit::BatchOptions options;
     options.threads = static_cast<int>(state.range(0));
     std::size_t failed = 0;
+    double iterations = 0, evaluations = 0;
     for (auto _ : state) {
         std::vector<std::vector<double>> counts(drop.regionCodes.size());
         std::vector<fit::RegionSeries> regions(drop.regionCodes.size());
@@ -69,12 +70,22 @@ void BM_FitAllRegions(benchmark::State& state) {
         }
         const auto results = fit::fitRegions(regions, options);
         failed = 0;
-        for (const auto& f : results)
+        iterations = evaluations = 0;
+        for (const auto& f : results) {
             failed += f.fit ? 0 : 1;
+            if (f.fit) {
+                iterations += f.fit->summary.iterations;
+                evaluations += f.fit->summary.evaluations;
+            }
+        }
         benchmark::DoNotOptimize(results.data());
     }
     state.counters["regions"] = static_cast<double>(drop.regionCodes.size());
     state.counters["failed"] = static_cast<double>(failed);
+    // Solver work per region: what the start and the stopping rule cost.
+    const double fitted = static_cast<double>(drop.regionCodes.size() - failed);
+    state.counters["iterations"] = fitted > 0 ? iterations / fitted : 0.0;
+    state.counters["evaluations"] = fitted > 0 ? evaluations / fitted : 0.0;
 }
 BENCHMARK(BM_FitAllRegions)->Arg(1)->Arg(2)->Unit(benchmark::kMillisecond)->UseRealTime();
 

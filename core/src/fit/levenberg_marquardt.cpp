@@ -245,12 +245,15 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
     double cost = 0.5 * r.squaredNorm();
     summary.initialCost = cost;
 
-    Vector D = J.colwise().squaredNorm().transpose();
-    for (Eigen::Index j = 0; j < n; ++j)
-        D[j] = std::max(D[j], 1e-300);
+    // The small n-sized work arrays are per thread too (resize keeps the storage of equal sizes).
+    thread_local Vector D, xNew, qtr, rhs, h, g, columnNorms2;
+    thread_local Matrix R, S, A;
+    thread_local Eigen::LLT<Matrix> llt;
+    thread_local Eigen::HouseholderQR<Matrix> dampedQr;
+    thread_local Eigen::HouseholderQR<Eigen::MatrixXd> qr;
+    xNew.resize(n);
     double lambda = options.initialDamping;
     double nu = 2.0;
-    Vector xNew(n);
     summary.termination = Termination::MaxIterations;
     bool haveTermination = false;
     // With an analytic Jacobian, a trial point is evaluated with its Jacobian at once (shared
@@ -259,20 +262,24 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
 
     // J = Q R once per Jacobian; every damped step then solves the small system
     // [R; sqrt(lambda D)] h = [-Q^T r; 0] (MINPACK's approach: More 1978, section 3).
-    Matrix R(n, n);
-    Vector qtr(n);
-    Matrix S(2 * n, n);
-    Vector rhs(2 * n);
+    // Each factorisation also gives the squared column norms of J (the diagonal of J^T J), from
+    // which the damping scale D is kept.
+    R.resize(n, n);
+    qtr.resize(n);
+    S.resize(2 * n, n);
+    rhs.resize(2 * n);
+    columnNorms2.resize(n);
     auto factorise = [&]() {
         if (options.linearSolver == LinearSolver::NormalEquations) {
             // R from the Cholesky factor of J^T J and Q^T r = R^-T J^T r: the same small system
             // at a fraction of the cost; QR when J^T J is not numerically positive definite.
             // J^T J and J^T r by plain loops over the rows (tall, thin J: cheaper than GEMM).
-            Matrix A(n, n);
-            Vector g(n);
+            A.resize(n, n);
+            g.resize(n);
             detail::gram(J.data(), static_cast<std::size_t>(m), static_cast<std::size_t>(n), {},
                          {r.data(), static_cast<std::size_t>(m)}, A.data(), g.data());
-            const Eigen::LLT<Matrix> llt(A);
+            columnNorms2 = A.diagonal();
+            llt.compute(A);
             if (llt.info() == Eigen::Success) {
                 R = llt.matrixU();
                 qtr = llt.matrixL().solve(g);
@@ -282,12 +289,13 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
             }
         }
         Jc = J;
-        thread_local Eigen::HouseholderQR<Eigen::MatrixXd> qr;
         qr.compute(Jc);
         R = qr.matrixQR().topRows(n).triangularView<Eigen::Upper>();
         qtr = (qr.householderQ().transpose() * r).head(n);
+        columnNorms2 = J.colwise().squaredNorm().transpose();
     };
     factorise();
+    D = columnNorms2.cwiseMax(1e-300);
 
     auto gradientSmall = [&]() {
         if (options.gradientTolerance <= 0)
@@ -295,12 +303,12 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
         const double rnorm = r.norm();
         if (rnorm == 0.0)
             return true;
-        const Vector g = J.transpose() * r;
+        const Vector gradient = J.transpose() * r;
         double worst = 0;
         for (Eigen::Index j = 0; j < n; ++j) {
             const double cn = J.col(j).norm();
             if (cn > 0)
-                worst = std::max(worst, std::abs(g[j]) / (cn * rnorm));
+                worst = std::max(worst, std::abs(gradient[j]) / (cn * rnorm));
         }
         return worst <= options.gradientTolerance;
     };
@@ -317,7 +325,8 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
             S(n + j, j) = std::sqrt(lambda * D[j]);
         rhs.head(n) = -qtr;
         rhs.tail(n).setZero();
-        const Vector h = S.householderQr().solve(rhs);
+        dampedQr.compute(S);
+        h = dampedQr.solve(rhs);
         if (!allFinite(h.data(), static_cast<std::size_t>(n))) {
             summary.termination = Termination::NumericalFailure;
             summary.message = "the damped linear system gave a non-finite step";
@@ -351,7 +360,7 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
                 break;
             }
             factorise();
-            D = D.cwiseMax(J.colwise().squaredNorm().transpose());
+            D = D.cwiseMax(columnNorms2);
             lambda *= std::max(1.0 / 3.0, 1.0 - std::pow(2.0 * rho - 1.0, 3));
             nu = 2.0;
             if (reduction <= options.functionTolerance * cost) {
@@ -380,15 +389,15 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
     // a step is halved up to 8 times in a curved valley.
     double previousStep = std::numeric_limits<double>::infinity();
     for (int k = 0; summary.converged() && k < options.refinementSteps; ++k) {
-        Vector h = J.colPivHouseholderQr().solve(-r);
-        if (!allFinite(h.data(), static_cast<std::size_t>(n)))
+        Vector step = J.colPivHouseholderQr().solve(-r);
+        if (!allFinite(step.data(), static_cast<std::size_t>(n)))
             break;
         bool accepted = false;
         double costNew = cost;
-        for (int halving = 0; halving <= 8 && !accepted; ++halving, h *= 0.5) {
-            if (h.norm() >= previousStep)
+        for (int halving = 0; halving <= 8 && !accepted; ++halving, step *= 0.5) {
+            if (step.norm() >= previousStep)
                 continue;
-            xNew = x + h;
+            xNew = x + step;
             if (!eval.residualsAndJacobian(xNew, rNew, JNew))
                 continue;
             costNew = 0.5 * rNew.squaredNorm();

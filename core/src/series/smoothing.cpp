@@ -39,36 +39,42 @@ std::vector<double> weightedAverage(std::span<const double> x, std::span<const d
 
 // The same for equal weights, with a running sum and count of the finite values: O(n) for any
 // window. The sum is recomputed from scratch every 256 days so rounding cannot drift (for
-// integer counts it is exact anyway).
+// integer counts it is exact anyway). Between re-sums the window moves by one day: the day
+// entering is added and then the day leaving removed, each only when it lies inside the series
+// (a missing day adds 0, selected rather than branched on, since gaps are irregular).
 std::vector<double> uniformAverage(std::span<const double> x, int len, int offset, EdgeRule edges) {
     const int n = static_cast<int>(x.size());
     std::vector<double> out(x.size(), kNaN);
+    const bool missingEdges = edges == EdgeRule::Missing;
     double sum = 0.0;
     int count = 0;
-    int lo = 0, hi = 0;  // the running sum covers x[lo, hi)
     for (int i = 0; i < n; ++i) {
-        const int first = std::max(0, i - offset);
-        const int end = std::min(n, i - offset + len);
+        const int first = i - offset;  // the window covers x[first, first + len) within [0, n)
+        const int end = first + len;
         if (i % 256 == 0) {
             sum = 0.0;
             count = 0;
-            lo = hi = first;
-        }
-        for (; hi < end; ++hi) {
-            const double v = x[static_cast<std::size_t>(hi)];
-            if (std::isfinite(v)) {
-                sum += v;
-                ++count;
+            for (int j = std::max(0, first); j < std::min(n, end); ++j) {
+                const double v = x[static_cast<std::size_t>(j)];
+                const bool finite = std::isfinite(v);
+                sum += finite ? v : 0.0;
+                count += finite ? 1 : 0;
+            }
+        } else {
+            if (end <= n) {  // end - 1 >= 0 always: offset < len
+                const double v = x[static_cast<std::size_t>(end - 1)];
+                const bool finite = std::isfinite(v);
+                sum += finite ? v : 0.0;
+                count += finite ? 1 : 0;
+            }
+            if (first >= 1) {
+                const double v = x[static_cast<std::size_t>(first - 1)];
+                const bool finite = std::isfinite(v);
+                sum -= finite ? v : 0.0;
+                count -= finite ? 1 : 0;
             }
         }
-        for (; lo < first; ++lo) {
-            const double v = x[static_cast<std::size_t>(lo)];
-            if (std::isfinite(v)) {
-                sum -= v;
-                --count;
-            }
-        }
-        if (edges == EdgeRule::Missing && (i - offset < 0 || i - offset + len > n))
+        if (missingEdges && (first < 0 || end > n))
             continue;
         if (count > 0)
             out[static_cast<std::size_t>(i)] = sum / count;
