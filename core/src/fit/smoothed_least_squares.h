@@ -41,6 +41,10 @@ public:
           m_h(static_cast<int>(m_kernel.size()) / 2) {
         // Model days: every day from t_0 - h to t_last + h (the window spans `span` days).
         m_days = static_cast<std::size_t>(span + 2 * m_h);
+        // Targets on consecutive days (no missing day in the window) take the plainer loop.
+        m_consecutive = !m_t.empty();
+        for (std::size_t i = 1; i < m_t.size() && m_consecutive; ++i)
+            m_consecutive = m_t[i] == m_t[0] + static_cast<double>(i);
     }
     int residualCount() const override { return static_cast<int>(m_t.size()); }
     int parameterCount() const override { return m_model.parameterCount(); }
@@ -128,6 +132,32 @@ private:
         auto column = [&](std::size_t d, std::size_t j) {
             return j == 0 ? f[d] : jf[d * np + j - 1];
         };
+        auto writeRow = [&](std::size_t i) {
+            r[i] = m_w[i] * (a * sum[0] - m_y[i]);
+            for (std::size_t j = 1; j < cols; ++j)
+                jac[i * np + j - 1] = m_w[i] * a * sum[j];
+        };
+        if (m_consecutive) {
+            // Target i averages model days d0 + i .. d0 + i + taps - 1: each step adds the day
+            // entering and removes the day leaving, in the same order as the general loop below.
+            const std::size_t taps = m_kernel.size();
+            const std::size_t d0 = static_cast<std::size_t>(m_t[0]);
+            for (std::size_t i = 0; i < m_t.size(); ++i) {
+                const std::size_t lo = d0 + i;
+                if (i % 64 == 0) {
+                    sum.fill(0.0);
+                    for (std::size_t d = lo; d < lo + taps; ++d) {
+                        for (std::size_t j = 0; j < cols; ++j)
+                            sum[j] += column(d, j);
+                    }
+                } else {
+                    for (std::size_t j = 0; j < cols; ++j)
+                        sum[j] += column(lo + taps - 1, j) - column(lo - 1, j);
+                }
+                writeRow(i);
+            }
+            return;
+        }
         std::size_t lo = 0, hi = 0;  // the sums cover model days [lo, hi)
         for (std::size_t i = 0; i < m_t.size(); ++i) {
             const std::size_t centre =
@@ -153,9 +183,7 @@ private:
                 for (std::size_t j = 0; j < cols; ++j)
                     sum[j] -= column(lo, j);
             }
-            r[i] = m_w[i] * (a * sum[0] - m_y[i]);
-            for (std::size_t j = 1; j < cols; ++j)
-                jac[i * np + j - 1] = m_w[i] * a * sum[j];
+            writeRow(i);
         }
     }
 
@@ -166,6 +194,7 @@ private:
     // The last evaluation (the solver calls evaluate() from one thread).
     mutable std::vector<double> m_f, m_jf, m_p;
     mutable bool m_haveJacobian = false;
+    bool m_consecutive = false;
 };
 
 }  // namespace siftwave::fit::detail
