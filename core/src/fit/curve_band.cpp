@@ -4,6 +4,7 @@
 #include <boost/math/distributions/students_t.hpp>
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <string>
 #include <vector>
@@ -43,13 +44,21 @@ void bandRows(std::span<const double> value, std::span<const double> jacobian,
               std::span<const double> covariance, std::size_t np, double q, std::span<double> lower,
               std::span<double> upper) {
     const std::size_t p = N > 0 ? N : np;
+    // With N fixed, a local copy of the covariance stays in registers (the output spans could
+    // alias it, so it would otherwise be reloaded on every day).
+    std::array<double, (N > 0 ? N * N : 1)> local{};
+    const double* cov = covariance.data();
+    if constexpr (N > 0) {
+        std::copy_n(covariance.begin(), N * N, local.begin());
+        cov = local.data();
+    }
     for (std::size_t i = 0; i < value.size(); ++i) {
         const double* g = &jacobian[i * p];
         double var = 0;
         for (std::size_t a = 0; a < p; ++a) {
             double row = 0;
             for (std::size_t b = 0; b < p; ++b)
-                row += covariance[a * p + b] * g[b];
+                row += cov[a * p + b] * g[b];
             var += g[a] * row;
         }
         const double half = q * std::sqrt(std::max(var, 0.0));  // >= 0 up to rounding

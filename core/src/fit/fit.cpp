@@ -110,6 +110,32 @@ Estimate withinBounds(Estimate e, double lowest,
     return e;
 }
 
+// G row d = sum of P rows d - taps + 1 .. d (rows of `cols` values; N > 0: cols = N at compile
+// time), as running sums re-summed every 64 days so rounding cannot drift.
+template <std::size_t N>
+void trailingWindowSums(std::span<const double> P, std::span<double> G, std::size_t days,
+                        std::size_t cols, std::size_t taps) {
+    const std::size_t c = N > 0 ? N : cols;
+    std::array<double, 4> sum{};  // wave models have at most 4 parameters
+    for (std::size_t d = 0; d < days; ++d) {
+        if (d % 64 == 0) {
+            for (std::size_t j = 0; j < c; ++j) {
+                sum[j] = 0.0;
+                for (std::size_t e = d - std::min(d, taps - 1); e <= d; ++e)
+                    sum[j] += P[e * c + j];
+            }
+        } else {
+            for (std::size_t j = 0; j < c; ++j) {
+                sum[j] += P[d * c + j];
+                if (d >= taps)
+                    sum[j] -= P[(d - taps) * c + j];
+            }
+        }
+        for (std::size_t j = 0; j < c; ++j)
+            G[d * c + j] = sum[j];
+    }
+}
+
 // ---------------------------------------------------------------- window choice
 Result<std::pair<int, int>> chooseWindow(std::span<const double> counts,
                                          std::span<const double> smoothed, const FitOptions& o,
@@ -345,21 +371,16 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
                     for (std::size_t j = 0; j < npu; ++j)
                         P[d * npu + j] = wi * sr.jacobian[static_cast<std::size_t>(i) * npu + j];
                 }
-                // Running sums over days d - taps + 1 .. d, re-summed every 64 days (no drift).
-                std::array<double, 4> sum{};  // wave models have at most 4 parameters
-                for (std::size_t d = 0; d < modelDays; ++d) {
-                    for (std::size_t j = 0; j < npu; ++j) {
-                        if (d % 64 == 0) {
-                            sum[j] = 0.0;
-                            for (std::size_t e = d - std::min(d, taps - 1); e <= d; ++e)
-                                sum[j] += P[e * npu + j];
-                        } else {
-                            sum[j] += P[d * npu + j];
-                            if (d >= taps)
-                                sum[j] -= P[(d - taps) * npu + j];
-                        }
-                        G[d * npu + j] = sum[j];
-                    }
+                switch (npu) {
+                    case 3:
+                        trailingWindowSums<3>(P, G, modelDays, npu, taps);
+                        break;
+                    case 4:
+                        trailingWindowSums<4>(P, G, modelDays, npu, taps);
+                        break;
+                    default:
+                        trailingWindowSums<0>(P, G, modelDays, npu, taps);
+                        break;
                 }
             } else {
                 for (int i = 0; i < m; ++i) {
