@@ -62,16 +62,16 @@ public:
             // Equal weights: sliding window sums of the model and its Jacobian columns.
             switch (cols) {
                 case 1:
-                    slidingSums<1>(f, jf, r, jac);
+                    slidingSums<1>(f, jf, r, jac, p[0]);
                     break;
                 case 4:
-                    slidingSums<4>(f, jf, r, jac);
+                    slidingSums<4>(f, jf, r, jac, p[0]);
                     break;
                 case 5:
-                    slidingSums<5>(f, jf, r, jac);
+                    slidingSums<5>(f, jf, r, jac, p[0]);
                     break;
                 default:
-                    slidingSums<0>(f, jf, r, jac);
+                    slidingSums<0>(f, jf, r, jac, p[0]);
                     break;
             }
             return true;
@@ -120,10 +120,12 @@ private:
     // Residuals (and weighted Jacobian rows) from window sums over the model days, kept as a
     // running sum of the columns (f, df/dp...). Cols = 1 + parameters when the Jacobian is
     // wanted, 1 without; 0 means "any" (run-time count). Re-summed from scratch every 64 target
-    // days so rounding cannot drift.
+    // days so rounding cannot drift. Every wave model is K times a curve of unit size (K =
+    // p[0], models.h), so the column of K is the model's own sum divided by K and is not
+    // summed separately (column 1 is skipped).
     template <int Cols>
     void slidingSums(std::span<const double> f, std::span<const double> jf, std::span<double> r,
-                     std::span<double> jac) const {
+                     std::span<double> jac, double K) const {
         const std::size_t cols = Cols > 0 ? static_cast<std::size_t>(Cols)
                                           : (jac.empty() ? 1 : 1 + jf.size() / f.size());
         const std::size_t np = cols - 1;
@@ -132,9 +134,18 @@ private:
         auto column = [&](std::size_t d, std::size_t j) {
             return j == 0 ? f[d] : jf[d * np + j - 1];
         };
+        const double invK = 1.0 / K;
+        // The columns that are summed: the model (0) and the Jacobian columns after K's (2..).
+        auto forSummedColumns = [&](auto&& op) {
+            op(std::size_t{0});
+            for (std::size_t j = 2; j < cols; ++j)
+                op(j);
+        };
         auto writeRow = [&](std::size_t i) {
             r[i] = m_w[i] * (a * sum[0] - m_y[i]);
-            for (std::size_t j = 1; j < cols; ++j)
+            if (cols > 1)
+                jac[i * np] = m_w[i] * a * sum[0] * invK;
+            for (std::size_t j = 2; j < cols; ++j)
                 jac[i * np + j - 1] = m_w[i] * a * sum[j];
         };
         if (m_consecutive) {
@@ -147,12 +158,12 @@ private:
                 if (i % 64 == 0) {
                     sum.fill(0.0);
                     for (std::size_t d = lo; d < lo + taps; ++d) {
-                        for (std::size_t j = 0; j < cols; ++j)
-                            sum[j] += column(d, j);
+                        forSummedColumns([&](std::size_t j) { sum[j] += column(d, j); });
                     }
                 } else {
-                    for (std::size_t j = 0; j < cols; ++j)
+                    forSummedColumns([&](std::size_t j) {
                         sum[j] += column(lo + taps - 1, j) - column(lo - 1, j);
+                    });
                 }
                 writeRow(i);
             }
@@ -170,18 +181,15 @@ private:
             }
             if (end == hi + 1 && first == lo + 1) {
                 // The next consecutive target day (the usual case): one day in, one day out.
-                for (std::size_t j = 0; j < cols; ++j)
-                    sum[j] += column(hi, j) - column(lo, j);
+                forSummedColumns([&](std::size_t j) { sum[j] += column(hi, j) - column(lo, j); });
                 hi = end;
                 lo = first;
             }
             for (; hi < end; ++hi) {
-                for (std::size_t j = 0; j < cols; ++j)
-                    sum[j] += column(hi, j);
+                forSummedColumns([&](std::size_t j) { sum[j] += column(hi, j); });
             }
             for (; lo < first; ++lo) {
-                for (std::size_t j = 0; j < cols; ++j)
-                    sum[j] -= column(lo, j);
+                forSummedColumns([&](std::size_t j) { sum[j] -= column(lo, j); });
             }
             writeRow(i);
         }
