@@ -136,8 +136,8 @@ std::optional<Line> linearisedAt(const GuessData& d, double size, Transform tran
     const auto hi = std::partition_point(lo, end, [&](double c) { return c / size < 0.98; });
     const std::size_t first = static_cast<std::size_t>(lo - begin);
     const std::size_t inRange = static_cast<std::size_t>(hi - lo);
-    // A line needs few points: at most about 30 (every k-th day of a long rise).
-    const std::size_t stride = std::max<std::size_t>(1, inRange / 30);
+    // A line needs few points: at most about 16 (every k-th day of a long rise).
+    const std::size_t stride = std::max<std::size_t>(1, inRange / 16);
     xs.reserve(inRange / stride + 1);
     ys.reserve(inRange / stride + 1);
     for (std::size_t i = first; i < first + inRange; i += stride) {
