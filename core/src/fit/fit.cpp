@@ -288,10 +288,18 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     }
     const double lastDataDay = lastData - res.first;
 
+    // Working vectors are kept per thread: a batch fit runs this thousands of times, and fresh
+    // allocations of these sizes cost more than the arithmetic that fills them.
+    thread_local std::vector<double> tAll, yAll;
+    thread_local std::vector<double> t, y, w;  // LSQ target days, values and weights
+    thread_local SolverResult sr;
+    tAll.clear();
+    yAll.clear();
+    t.clear();
+    y.clear();
+    w.clear();
+
     // Starting values from the centred average over the window.
-    std::vector<double> tAll, yAll;
-    tAll.reserve(static_cast<std::size_t>(res.last - res.first + 1));
-    yAll.reserve(static_cast<std::size_t>(res.last - res.first + 1));
     for (int i = res.first; i <= res.last; ++i) {
         tAll.push_back(i - res.first);
         yAll.push_back(smoothedPartial[static_cast<std::size_t>(i)]);
@@ -313,14 +321,11 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     const std::size_t modelDays = static_cast<std::size_t>(res.last - res.first + 1 + 2 * h);
     std::span<const double> modelValues, modelJacobian;
     std::vector<double> modelStorage;  // likelihood fits (LSQ reuses the problem's last one)
-    std::vector<double> t, y, w;       // LSQ target days, values and weights
     std::optional<SmoothedLeastSquares> lsq;
+    thread_local detail::SmoothedLeastSquares::Workspace lsqWorkspace;
     if (o.method == FitMethod::LeastSquares) {
         // Target: the centred average where its window lies inside the series.
         const int half = o.smoothingWindow / 2;
-        t.reserve(tAll.size());
-        y.reserve(tAll.size());
-        w.reserve(tAll.size());
         for (int i = std::max(res.first, half); i <= std::min(res.last, n - 1 - half); ++i) {
             const double v = smoothedPartial[static_cast<std::size_t>(i)];
             if (!std::isfinite(v))
@@ -333,8 +338,8 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
             return makeError(ErrorCode::NotFound, "the window has too few days for this model");
         }
         const SmoothedLeastSquares& problem =
-            lsq.emplace(model, t, y, w, kernel, res.last - res.first + 1);
-        const SolverResult sr = solveLeastSquares(problem, *start, o.solver);
+            lsq.emplace(model, t, y, w, kernel, res.last - res.first + 1, lsqWorkspace);
+        solveLeastSquares(problem, *start, o.solver, sr);
         if (sr.summary.termination == Termination::InvalidStart) {
             return makeError(ErrorCode::Numerical, "the model cannot be evaluated at its start");
         }

@@ -221,6 +221,17 @@ std::string SolverSummary::brief() const {
 SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<const double> start,
                                const SolverOptions& options) {
     SolverResult result;
+    solveLeastSquares(problem, start, options, result);
+    return result;
+}
+
+void solveLeastSquares(const LeastSquaresProblem& problem, std::span<const double> start,
+                       const SolverOptions& options, SolverResult& result) {
+    result.summary = SolverSummary{};
+    result.residuals.clear();
+    result.jacobian.clear();
+    result.unscaledCovariance.clear();
+    result.covarianceAvailable = false;
     SolverSummary& summary = result.summary;
     const int m = problem.residualCount();
     const int n = problem.parameterCount();
@@ -228,7 +239,7 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
     result.parameters.assign(start.begin(), start.end());
     if (static_cast<int>(start.size()) != n || m < 1 || n < 1) {
         summary.message = "the problem and the starting point disagree on the parameter count";
-        return result;
+        return;
     }
     Evaluator eval(problem, summary);
     // Working memory is kept per thread: a batch fit calls the solver thousands of times and
@@ -240,7 +251,7 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
     if (!eval.residualsAndJacobian(x, r, J)) {
         summary.termination = Termination::InvalidStart;
         summary.message = "the model cannot be evaluated at the starting point";
-        return result;
+        return;
     }
     double cost = 0.5 * r.squaredNorm();
     summary.initialCost = cost;
@@ -423,7 +434,6 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
     if (summary.message.empty()) {
         summary.message = summary.converged() ? "converged" : "stopped before convergence";
     }
-    return result;
 }
 
 }  // namespace siftwave::fit

@@ -29,16 +29,25 @@ inline std::vector<double> centredKernel(int window) {
 // parameters keep their meaning (no smoothing bias in the peak or the width).
 class SmoothedLeastSquares final : public LeastSquaresProblem {
 public:
-    // The spans are kept, not copied: they must outlive the problem.
+    /// The model days of the last evaluation; kept by the caller so that its storage serves
+    /// one problem after another (one workspace per thread, used by one problem at a time).
+    struct Workspace {
+        std::vector<double> f, jf, p;
+    };
+
+    // The spans and the workspace are kept, not copied: they must outlive the problem.
     SmoothedLeastSquares(const WaveModel& model, std::span<const double> t,
                          std::span<const double> y, std::span<const double> w,
-                         std::span<const double> kernel, int span)
+                         std::span<const double> kernel, int span, Workspace& workspace)
         : m_model(model),
           m_t(t),
           m_y(y),
           m_w(w),
           m_kernel(kernel),
-          m_h(static_cast<int>(m_kernel.size()) / 2) {
+          m_h(static_cast<int>(m_kernel.size()) / 2),
+          m_f(workspace.f),
+          m_jf(workspace.jf),
+          m_p(workspace.p) {
         // Model days: every day from t_0 - h to t_last + h (the window spans `span` days).
         m_days = static_cast<std::size_t>(span + 2 * m_h);
         // Targets on consecutive days (no missing day in the window) take the plainer loop.
@@ -199,8 +208,10 @@ private:
     std::span<const double> m_t, m_y, m_w, m_kernel;
     int m_h;
     std::size_t m_days = 0;
-    // The last evaluation (the solver calls evaluate() from one thread).
-    mutable std::vector<double> m_f, m_jf, m_p;
+    // The last evaluation (the solver calls evaluate() from one thread), in the workspace.
+    std::vector<double>& m_f;
+    std::vector<double>& m_jf;
+    std::vector<double>& m_p;
     mutable bool m_haveJacobian = false;
     bool m_consecutive = false;
 };

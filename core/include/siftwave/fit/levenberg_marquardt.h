@@ -107,4 +107,9 @@ struct SolverResult {
 SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<const double> start,
                                const SolverOptions& options = {});
 
+/// The same into `result`, whose vectors keep their storage: a batch fit that solves thousands
+/// of problems of similar size then allocates nothing per solve.
+void solveLeastSquares(const LeastSquaresProblem& problem, std::span<const double> start,
+                       const SolverOptions& options, SolverResult& result);
+
 }  // namespace siftwave::fit
