@@ -269,8 +269,9 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     res.seriesFirstDay = series.firstDay;
     res.options = o;
     // The centred average (partial edges), shared by wave detection, the start and the target.
-    const std::vector<double> smoothedPartial =
-        series::centredMovingAverage(counts, std::max(o.smoothingWindow, 1));
+    thread_local std::vector<double> smoothedPartial;
+    series::centredMovingAverage(counts, std::max(o.smoothingWindow, 1), series::EdgeRule::Partial,
+                                 smoothedPartial);
     auto window = chooseWindow(counts, smoothedPartial, o, res.waves);
     if (!window)
         return window.error();

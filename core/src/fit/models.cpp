@@ -61,11 +61,13 @@ struct GuessData {
     double cumulativeAtPeak = 0;
 };
 
-std::optional<GuessData> prepareGuess(std::span<const double> t, std::span<const double> y) {
-    GuessData d;
-    d.t.reserve(t.size());
-    d.y.reserve(t.size());
-    d.cumulative.reserve(t.size());
+// False when the points cannot start a fit. `d` is filled afresh; its vectors keep their storage
+// (the callers keep one GuessData per thread: a batch fit guesses thousands of starts).
+bool prepareGuess(std::span<const double> t, std::span<const double> y, GuessData& d) {
+    d.t.clear();
+    d.y.clear();
+    d.cumulative.clear();
+    d.total = d.peakT = d.peakY = d.cumulativeAtPeak = 0;
     double running = 0;
     for (std::size_t i = 0; i < t.size() && i < y.size(); ++i) {
         if (!std::isfinite(y[i]) || !std::isfinite(t[i]))
@@ -83,7 +85,7 @@ std::optional<GuessData> prepareGuess(std::span<const double> t, std::span<const
     }
     d.total = running;
     if (d.t.size() < 3 || !(d.total > 0) || !(d.peakY > 0))
-        return std::nullopt;
+        return false;
     // The guess describes the main wave only: stop where the curve, after its peak, has fallen
     // below 2% of the peak, so that a later small rise inside the window does not inflate K.
     std::size_t end = d.t.size();
@@ -102,13 +104,14 @@ std::optional<GuessData> prepareGuess(std::span<const double> t, std::span<const
         d.cumulative.resize(end);
         d.total = d.cumulative.back() + 0.5 * d.y.back();
     }
-    return d;
+    return true;
 }
 
 // Best K for fixed shape: minimises sum (y - K g)^2, g = unit-size incidence.
 double bestSize(const WaveModel& model, const GuessData& d, std::vector<double> p) {
     p[0] = 1.0;
-    std::vector<double> g(d.t.size());
+    thread_local std::vector<double> g;
+    g.resize(d.t.size());
     bool consecutive = true;  // days t0, t0 + 1, ...: the cheaper day-grid evaluation
     for (std::size_t i = 1; i < d.t.size() && consecutive; ++i)
         consecutive = d.t[i] == d.t[0] + static_cast<double>(i);
@@ -187,9 +190,10 @@ std::optional<std::vector<double>> locationScaleGuess(const WaveModel& model,
                                                       std::span<const double> t,
                                                       std::span<const double> y, double shareAtPeak,
                                                       double peakDensity, Transform transform) {
-    auto d = prepareGuess(t, y);
-    if (!d)
+    thread_local GuessData guess;
+    if (!prepareGuess(t, y, guess))
         return std::nullopt;
+    const GuessData* d = &guess;
     const double size = firstSize(*d, shareAtPeak);
     std::vector<double> p{size, d->peakT, std::max(1.0, size * peakDensity / d->peakY)};
     if (auto line = linearised(*d, shareAtPeak, transform, false)) {
@@ -402,9 +406,10 @@ public:
     }
     std::optional<std::vector<double>> initialGuess(std::span<const double> t,
                                                     std::span<const double> y) const override {
-        auto d = prepareGuess(t, y);
-        if (!d)
+        thread_local GuessData guess;
+        if (!prepareGuess(t, y, guess))
             return std::nullopt;
+        const GuessData* d = &guess;
         const double size = firstSize(*d, 0.45);
         std::vector<double> p{size, std::log(std::max(d->peakT, 0.0) + 2.0), 0.5};
         if (auto line = linearised(*d, 0.45, standardNormalQuantile, true)) {

@@ -12,11 +12,11 @@ namespace {
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
 // s_i = sum_k w_k x_{i + k - offset} over finite, in-range x, renormalised by the weights used.
-std::vector<double> weightedAverage(std::span<const double> x, std::span<const double> weights,
-                                    int offset, EdgeRule edges) {
+void weightedAverage(std::span<const double> x, std::span<const double> weights, int offset,
+                     EdgeRule edges, std::vector<double>& out) {
     const int n = static_cast<int>(x.size());
     const int len = static_cast<int>(weights.size());
-    std::vector<double> out(x.size(), kNaN);
+    out.assign(x.size(), kNaN);
     for (int i = 0; i < n; ++i) {
         const int first = i - offset;
         const int last = first + len - 1;
@@ -34,7 +34,6 @@ std::vector<double> weightedAverage(std::span<const double> x, std::span<const d
         if (weight > 0.0)
             out[static_cast<std::size_t>(i)] = sum / weight;
     }
-    return out;
 }
 
 // The same for equal weights, with a running sum and count of the finite values: O(n) for any
@@ -42,9 +41,10 @@ std::vector<double> weightedAverage(std::span<const double> x, std::span<const d
 // integer counts it is exact anyway). Between re-sums the window moves by one day: the day
 // entering is added and then the day leaving removed, each only when it lies inside the series
 // (a missing day adds 0, selected rather than branched on, since gaps are irregular).
-std::vector<double> uniformAverage(std::span<const double> x, int len, int offset, EdgeRule edges) {
+void uniformAverage(std::span<const double> x, int len, int offset, EdgeRule edges,
+                    std::vector<double>& out) {
     const int n = static_cast<int>(x.size());
-    std::vector<double> out(x.size(), kNaN);
+    out.assign(x.size(), kNaN);
     const bool missingEdges = edges == EdgeRule::Missing;
     double sum = 0.0;
     int count = 0;
@@ -79,7 +79,6 @@ std::vector<double> uniformAverage(std::span<const double> x, int len, int offse
         if (count > 0)
             out[static_cast<std::size_t>(i)] = sum / count;
     }
-    return out;
 }
 
 }  // namespace
@@ -96,19 +95,30 @@ Status MovingAverageOptions::validate() const {
 std::vector<double> trailingMovingAverage(std::span<const double> values, int window,
                                           EdgeRule edges) {
     assert(window >= 1);
-    return uniformAverage(values, window, window - 1, edges);
+    std::vector<double> out;
+    uniformAverage(values, window, window - 1, edges, out);
+    return out;
 }
 
 std::vector<double> centredMovingAverage(std::span<const double> values, int window,
                                          EdgeRule edges) {
+    std::vector<double> out;
+    centredMovingAverage(values, window, edges, out);
+    return out;
+}
+
+void centredMovingAverage(std::span<const double> values, int window, EdgeRule edges,
+                          std::vector<double>& out) {
     assert(window >= 1);
-    if (window % 2 == 1)
-        return uniformAverage(values, window, window / 2, edges);
+    if (window % 2 == 1) {
+        uniformAverage(values, window, window / 2, edges, out);
+        return;
+    }
     // 2 x w: w + 1 taps, half weight at both ends.
     std::vector<double> weights(static_cast<std::size_t>(window) + 1, 1.0);
     weights.front() = 0.5;
     weights.back() = 0.5;
-    return weightedAverage(values, weights, window / 2, edges);
+    weightedAverage(values, weights, window / 2, edges, out);
 }
 
 std::vector<double> trailingMovingAverage(std::span<const double> values,

@@ -49,6 +49,10 @@ std::vector<double> trailingMovingAverage(std::span<const double> values, int wi
 /// Centred moving average (2 x w for even w); the result has the input's length. No lag.
 std::vector<double> centredMovingAverage(std::span<const double> values, int window = 7,
                                          EdgeRule edges = EdgeRule::Partial);
+/// The same into `out` (resized to the input's length, its storage reused: for loops over
+/// many series).
+void centredMovingAverage(std::span<const double> values, int window, EdgeRule edges,
+                          std::vector<double>& out);
 
 /// The same with an options struct (asserts options.validate()).
 std::vector<double> trailingMovingAverage(std::span<const double> values,
