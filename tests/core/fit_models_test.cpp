@@ -7,6 +7,7 @@
 #include <boost/math/distributions/logistic.hpp>
 #include <boost/math/distributions/lognormal.hpp>
 
+#include <algorithm>
 #include <cmath>
 #include <numbers>
 #include <vector>
@@ -26,6 +27,35 @@ TEST(FitModels, GumbelDensityCumulativeAndQuantileAgreeWithBoostExtremeValue) {
     }
     for (double q : {0.001, 0.025, 0.5, 0.975, 0.999}) {
         EXPECT_NEAR(m.quantileTime(q, p), boost::math::quantile(ref, q), 1e-10) << q;
+    }
+}
+
+// The day-grid evaluation the fits use (a recurrence for exp(-z), a short series for exp(-u)
+// far into the right tail) against Boost.Math's extreme_value density, relative to each value
+// down to the far tail, and against the model's per-time evaluation with its Jacobian.
+TEST(FitModels, GumbelDayGridAgreesWithBoostExtremeValueIntoTheFarTail) {
+    const auto& m = waveModel(ModelKind::Gumbel);
+    const double K = 25000, mu = 80.3, beta = 7.7;
+    const std::vector<double> p{K, mu, beta};
+    const boost::math::extreme_value_distribution<double> ref(mu, beta);
+    const std::size_t days = 300;  // to mu + 28 beta: u falls below 1e-12
+    const double t0 = -3;
+    std::vector<double> grid(days), gridJac(3 * days), single(days), singleJac(3 * days), t(days);
+    m.incidenceOnDays(t0, p, grid, gridJac);
+    for (std::size_t i = 0; i < days; ++i)
+        t[i] = t0 + static_cast<double>(i);
+    m.incidence(t, p, single, singleJac);
+    // Relative to each value, except far into the rising side (below 1e-10 of the peak), where the
+    // recurrence for u loses relative digits in numbers that are nothing next to the peak.
+    const double peak = K / beta * std::exp(-1.0);
+    for (std::size_t i = 0; i < days; ++i) {
+        const double expected = K * boost::math::pdf(ref, t[i]);
+        EXPECT_NEAR(grid[i], expected, std::max(1e-13 * expected, 1e-23 * peak)) << t[i];
+        for (std::size_t j = 0; j < 3; ++j) {
+            const double v = singleJac[3 * i + j];
+            EXPECT_NEAR(gridJac[3 * i + j], v, std::max(1e-12 * std::abs(v), 1e-23 * peak))
+                << t[i] << " " << j;
+        }
     }
 }
 

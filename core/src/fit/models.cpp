@@ -222,6 +222,16 @@ inline void locationScaleRow(double* row, double value, double invK, double z, d
     row[2] = -value * (1.0 + z * g) * invScale;
 }
 
+// exp(-u) for u >= 0. Far into a Gumbel wave's right tail (t > mu + 6.9 beta, often half of a
+// window that runs on to the next trough) u < 1e-3, where the Taylor series to u^5 is exact to
+// rounding: its truncation error is below u^6 / 720 < 1.4e-21 while exp(-u) > 0.999, and a few
+// multiplications cost a fraction of the library call.
+inline double expOfMinus(double u) {
+    if (u < 1e-3)
+        return 1.0 - u * (1.0 - u * (0.5 - u * (1.0 / 6.0 - u * (1.0 / 24.0 - u * (1.0 / 120.0)))));
+    return std::exp(-u);
+}
+
 constexpr const char* kGumbelNames[] = {"K", "mu", "beta"};
 constexpr const char* kLogisticNames[] = {"K", "mu", "s"};
 constexpr const char* kRichardsNames[] = {"K", "mu", "s", "a"};
@@ -258,7 +268,7 @@ public:
             const double t = t0 + static_cast<double>(i);
             const double z = (t - mu) * invBeta;
             u = (i % 32 == 0) ? std::exp(-z) : u * step;
-            const double f = std::isfinite(u) ? scale * u * std::exp(-u) : 0.0;
+            const double f = std::isfinite(u) ? scale * u * expOfMinus(u) : 0.0;
             out[i] = f;
             if (!jac.empty())
                 locationScaleRow(&jac[3 * i], f, invK, z, u - 1.0, invBeta);

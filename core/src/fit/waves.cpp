@@ -34,8 +34,8 @@ std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
     const int n = static_cast<int>(s.size());
     double top = 0;
     for (double v : s) {
-        if (std::isfinite(v))
-            top = std::max(top, v);
+        const double finite = std::isfinite(v) ? v : 0.0;  // selected, not branched on
+        top = finite > top ? finite : top;
     }
     if (n == 0 || top < options.minPeak || !(top > 0))
         return waves;
@@ -47,15 +47,17 @@ std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
     bool seekingPeak = true;
     int minIndex = -1, maxIndex = -1;
     double lo = 0, hi = 0;  // s[minIndex], s[maxIndex]
-    for (int i = 0; i < n; ++i) {
+    int begin = 0;          // the first finite day starts the zig-zag
+    while (begin < n && !std::isfinite(s[static_cast<std::size_t>(begin)]))
+        ++begin;
+    if (begin < n) {
+        minIndex = maxIndex = begin;
+        lo = hi = s[static_cast<std::size_t>(begin)];
+    }
+    for (int i = begin + 1; i < n; ++i) {
         const double v = s[static_cast<std::size_t>(i)];
         if (!std::isfinite(v))
             continue;
-        if (minIndex < 0) {
-            minIndex = maxIndex = i;
-            lo = hi = v;
-            continue;
-        }
         if (seekingPeak) {
             // Select rather than branch: on a noisy rise the new-maximum test is unpredictable.
             const bool higher = v > hi;
@@ -67,9 +69,14 @@ std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
                 seekingPeak = false;
                 minIndex = i;
                 lo = v;
-            } else if (v < lo) {
-                minIndex = maxIndex = i;  // no significant rise yet: the trough moves on
-                lo = hi = v;
+            } else {
+                // No significant rise yet: a new low moves the trough on (selected, not branched
+                // on: on a flat, noisy stretch the test is unpredictable).
+                const bool lower = v < lo;
+                minIndex = lower ? i : minIndex;
+                maxIndex = lower ? i : maxIndex;
+                hi = lower ? v : hi;
+                lo = lower ? v : lo;
             }
         } else {
             const bool lower = v < lo;
