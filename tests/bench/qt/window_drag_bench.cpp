@@ -5,8 +5,10 @@
 // one model (no comparison while dragging, as in the GUI) and repaints.
 //
 // Counters (milliseconds per step, averages over the iterations):
+//   refit_ms   MainWindow's refit: the core fit, the fit pane, the new curve handed to the plot
+//   live_ms    the plot's repaint when it redrew the live layer alone (SeriesPlot)
+//   replot_ms  QCustomPlot::replotTime() of a full replot, when one ran during the step
 //   paint_ms   the QCustomPlot widget's paint event: its layer buffers drawn onto the window
-//   replot_ms  QCustomPlot::replotTime() of the last full replot, when one ran during the step
 //   full_replots  the share of steps that replotted every layer (the rest redrew one layer)
 // The Time column is wall time, including the event loop; CPU is the GUI thread's time.
 //
@@ -99,7 +101,10 @@ void BM_DragFitWindowEdge(benchmark::State& state) {
     sendMouse(canvas, QEvent::MouseButtonPress, edgeOf(last), Qt::LeftButton);
     int step = 0;
     int fullReplots = 0;
+    int liveReplots = 0;
     double replotMs = 0;
+    double liveMs = 0;
+    double refitMs = 0;
     const int paintsBefore = f->timer.paints;
     const double paintMsBefore = f->timer.paintMs;
     for (auto _ : state) {
@@ -120,10 +125,14 @@ void BM_DragFitWindowEdge(benchmark::State& state) {
             state.SkipWithError("the plot did not repaint within 2 s of a move");
             break;
         }
+        refitMs += f->window->lastRefitMilliseconds();
         // replotTime() changes (almost surely) when a full replot ran.
         if (canvas->replotTime() != replotBefore) {
             ++fullReplots;
             replotMs += canvas->replotTime();
+        } else if (plot->lastRepaintWasLiveOnly()) {
+            ++liveReplots;
+            liveMs += plot->lastRepaintMs();
         }
     }
     // Back where it started, so the next run drags the same window.
@@ -134,6 +143,8 @@ void BM_DragFitWindowEdge(benchmark::State& state) {
     const double steps = static_cast<double>(state.iterations());
     state.counters["paint_ms"] = (f->timer.paintMs - paintMsBefore) / steps;
     state.counters["paints_per_step"] = (f->timer.paints - paintsBefore) / steps;
+    state.counters["refit_ms"] = refitMs / steps;
+    state.counters["live_ms"] = liveReplots > 0 ? liveMs / liveReplots : 0.0;
     state.counters["replot_ms"] = fullReplots > 0 ? replotMs / fullReplots : 0.0;
     state.counters["full_replots"] = fullReplots / steps;
 }
