@@ -14,7 +14,9 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 #include <memory>
+#include <utility>
 
 namespace siftwave::widgets {
 namespace {
@@ -271,6 +273,135 @@ void addCountRange(QCustomPlot* plot, const report::FigureSpec& spec) {
         plot->yAxis->setRangeUpper(highest * 1.02);
 }
 
+// After a ledger decision lowered a raw bar (a backlog spread back), the value axis follows the
+// cleaned series, as on screen (SeriesChart::setScaleToCleaned): the highest of the cleaned and
+// smoothed series, the raw bars of days without a cleaned value, the previous release (except
+// on the days the ledger lowered), the fitted curve, its band up to twice the rest (a wide band
+// of a poorly determined fit runs off rather than flattening the data) and the range of daily
+// counts, plus 10%. The level returned is that top; a raw bar above it is cut there
+// (cutRawBars). nullopt when no lowered bar rises above it: the figure keeps the raw scale, so
+// a figure without a ledger (raw = cleaned) is drawn exactly as before.
+std::optional<double> rawCutLevel(const report::FigureSpec& spec) {
+    const auto at = [](const std::vector<double>& values, int d) {
+        return d < static_cast<int>(values.size()) ? values[static_cast<std::size_t>(d)]
+                                                   : std::numeric_limits<double>::quiet_NaN();
+    };
+    const auto lowered = [&](int d) {
+        const double raw = at(spec.raw, d), cleaned = at(spec.cleaned, d);
+        return !std::isnan(raw) && !std::isnan(cleaned) && cleaned < raw;
+    };
+    double top = 0;
+    const auto take = [&top](double v) {
+        if (std::isfinite(v))
+            top = std::max(top, v);
+    };
+    for (int d = 0; d < spec.days; ++d) {
+        if (std::isnan(at(spec.cleaned, d)))
+            take(at(spec.raw, d));
+        take(at(spec.cleaned, d));
+        take(at(spec.smoothed, d));
+        if (!lowered(d))
+            take(at(spec.previous, d));
+    }
+    if (spec.fit) {
+        for (int d = 0; d < spec.days; ++d)
+            take(at(spec.fit->mid, d));
+        double band = 0;
+        for (int d = 0; d < spec.days; ++d)
+            if (std::isfinite(at(spec.fit->high, d)))
+                band = std::max(band, at(spec.fit->high, d));
+        take(std::min(band, 2 * top));
+        for (int d = 0; d < spec.days; ++d)
+            take(at(spec.fit->countHigh, d));
+    }
+    if (!(top > 0))
+        return std::nullopt;
+    const double level = top * 1.1;
+    for (int d = 0; d < spec.days; ++d)
+        if (lowered(d) && at(spec.raw, d) > level)
+            return level;
+    return std::nullopt;
+}
+
+// Cuts the raw bars above `level` there (the previous release's line too, on those days), marks
+// each cut with the usual broken-bar sign (two parallel slanted strokes with a white gap, just
+// below the bar's top; common practice, no source) and labels it with its true value, beside
+// the bar so that it crosses neither the decision's arrow above it nor its bracket.
+void cutRawBars(QCustomPlot* plot, const report::FigureSpec& spec, double level, const QCPRange& x,
+                double scale) {
+    QCPBars* bars = nullptr;
+    for (int i = 0; i < plot->plottableCount() && !bars; ++i)
+        bars = qobject_cast<QCPBars*>(plot->plottable(i));
+    if (!bars)
+        return;
+    std::vector<std::pair<double, double>> cut;  // plot key, true value
+    for (auto it = bars->data()->begin(); it != bars->data()->end(); ++it)
+        if (it->value > level) {
+            cut.emplace_back(it->key, it->value);
+            it->value = level;
+        }
+    const QString previousName = QObject::tr("Previous release (%1)").arg(qs(spec.previousLabel));
+    std::vector<std::pair<double, double>> previousCut;  // plot key, previous release's value
+    for (int i = 0; i < plot->graphCount(); ++i) {
+        QCPGraph* previous = plot->graph(i);
+        if (spec.previous.empty() || previous->name() != previousName)
+            continue;
+        for (auto it = previous->data()->begin(); it != previous->data()->end(); ++it) {
+            const bool onCutDay = std::any_of(cut.begin(), cut.end(), [&](const auto& c) {
+                return std::abs(c.first - it->key) < kSecondsPerDay / 2;
+            });
+            if (onCutDay && it->value > level) {
+                previousCut.emplace_back(it->key, it->value);
+                it->value = level;
+            }
+        }
+    }
+    const double px = scale;  // logical pixels of the figure
+    for (const auto& [key, value] : cut) {
+        // The bar's visible top: the mark and the label hang from it in pixels.
+        auto* top = new QCPItemTracer(plot);
+        top->setStyle(QCPItemTracer::tsNone);
+        top->position->setCoords(key, level);
+        top->setSelectable(false);
+        const auto stroke = [&](double dy, const QPen& pen) {
+            auto* line = new QCPItemLine(plot);
+            line->setClipToAxisRect(true);
+            for (QCPItemPosition* p : {line->start, line->end}) {
+                p->setParentAnchor(top->position);
+                p->setType(QCPItemPosition::ptAbsolute);
+            }
+            line->start->setCoords(-7 * px, (dy + 5) * px);
+            line->end->setCoords(7 * px, (dy - 1) * px);
+            line->setPen(pen);
+            line->setSelectable(false);
+        };
+        stroke(6, QPen(Qt::white, 4.2 * px, Qt::SolidLine, Qt::FlatCap));
+        stroke(3.4, QPen(plot_style::kInk, 1.0 * px, Qt::SolidLine, Qt::FlatCap));
+        stroke(8.6, QPen(plot_style::kInk, 1.0 * px, Qt::SolidLine, Qt::FlatCap));
+
+        QString text =
+            QObject::tr("raw %1, bar cut").arg(qs(report::groupedCount(std::llround(value))));
+        for (const auto& [previousKey, previousValue] : previousCut)
+            if (std::abs(previousKey - key) < kSecondsPerDay / 2 && previousValue != value)
+                text += QObject::tr(" (previous release %1)")
+                            .arg(qs(report::groupedCount(std::llround(previousValue))));
+        const bool right = (key - x.lower) / x.size() > 0.72;
+        auto* label = new QCPItemText(plot);
+        label->setClipToAxisRect(true);
+        label->position->setParentAnchor(top->position);
+        label->position->setType(QCPItemPosition::ptAbsolute);
+        label->position->setCoords((right ? -9 : 9) * px, 0);
+        label->setPositionAlignment((right ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter);
+        label->setText(text);
+        label->setFont(pageFont(10 * scale, true));
+        label->setColor(plot_style::kInk);
+        label->setBrush(QBrush(QColor(255, 255, 255, 215)));
+        label->setPadding(QMargins(2, 1, 2, 1));
+        label->setSelectable(false);
+        label->setObjectName(QStringLiteral("raw-cut"));
+    }
+}
+
 }  // namespace
 
 void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
@@ -281,11 +412,19 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
     const int itemsBefore = plot->itemCount();
     const int graphsBefore = plot->graphCount();
     addCountRange(plot, spec);
+    // A raw bar the ledger lowered does not set the scale: it is cut (rawCutLevel, cutRawBars).
+    const std::optional<double> cutLevel = rawCutLevel(spec);
+    if (cutLevel)
+        plot->yAxis->setRange(0, *cutLevel);
     // Headroom for the labels above the highest bar.
     const QCPRange y = plot->yAxis->range();
     plot->yAxis->setRange(0, std::max(y.upper * kLabelHeadroom, 10.0));
     const double top = plot->yAxis->range().upper;
     const QCPRange x = plot->xAxis->range();
+    if (cutLevel)
+        cutRawBars(plot, spec, *cutLevel, x, scale);
+    // Where an arrow may end: the top of the plot, or the visible top of a cut bar.
+    const double highestShown = cutLevel ? *cutLevel : top;
 
     // Excluded ranges: grey hatching over the days, labelled at the top.
     for (const report::ExcludedRange& ex : spec.excluded) {
@@ -307,7 +446,8 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
     }
 
     // Decisions: a label in a band near the top, staggered so neighbours do not collide,
-    // with an arrow to the highest raw bar of the day(s) it is about.
+    // with an arrow to the highest raw bar of the day(s) it is about (to its visible top when
+    // the bar is cut).
     int row = 0;
     for (const report::DecisionMark& mark : spec.decisions) {
         const double key = (keyOf(mark.first) + keyOf(mark.last)) / 2;
@@ -321,7 +461,7 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
         arrow->start->setTypeX(QCPItemPosition::ptPlotCoords);
         arrow->start->setParentAnchorY(label->bottom);
         arrow->start->setCoords(key, 0);
-        arrow->end->setCoords(key, std::min(mark.anchorValue, top));
+        arrow->end->setCoords(key, std::min(mark.anchorValue, highestShown));
         arrow->setPen(QPen(plot_style::kInk, 1.3));
         arrow->setHead(QCPLineEnding(QCPLineEnding::esSpikeArrow, 8, 10));
         arrow->setSelectable(false);
