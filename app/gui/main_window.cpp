@@ -676,9 +676,10 @@ void MainWindow::refit(bool compare) {
     clock.start();
     refitNow(compare);
     m_lastRefitMs = static_cast<double>(clock.nsecsElapsed()) * 1e-6;
-    qCDebug(lcRefit, "refit %s: %.2f ms (the plot's last repaint took %.1f ms)",
+    qCDebug(lcRefit, "refit %s: %.2f ms (the plot's last repaint, %s, took %.1f ms)",
             compare ? "with comparison" : "one model", m_lastRefitMs,
-            m_plot->customPlot()->replotTime());
+            m_plot->lastRepaintWasLiveOnly() ? "its live layer only" : "every layer",
+            m_plot->lastRepaintMs());
 }
 
 void MainWindow::refitNow(bool compare) {
