@@ -594,6 +594,26 @@ void separateLabels(QCustomPlot* plot) {
                 for (QCPItemPosition* p : {line->start, line->end})
                     p->setCoords(p->key(), p->value() + shift);
     }
+    const auto turn = [](QCPItemText* label) {
+        const Qt::Alignment a = label->positionAlignment();
+        label->setPositionAlignment(((a & Qt::AlignLeft) ? Qt::AlignRight : Qt::AlignLeft) |
+                                    (a & Qt::AlignVertical_Mask));
+    };
+    // A peak label that a narrow panel would cut at its edge turns to the other side of its
+    // diamond, or else stands centred above it, where it fits (any figure: this only ever
+    // moves a label that is cut off).
+    const auto across = [&](const QRectF& r) {
+        return r.left() < area.left() || r.right() > area.right();
+    };
+    if (peak && across(textRect(peak))) {
+        const Qt::Alignment first = peak->positionAlignment();
+        turn(peak);
+        if (across(textRect(peak))) {
+            peak->setPositionAlignment(Qt::AlignHCenter | (first & Qt::AlignVertical_Mask));
+            if (across(textRect(peak)))
+                peak->setPositionAlignment(first);
+        }
+    }
     if (cuts.empty())
         return;
     const auto freeOf = [&](const QRectF& r, const QCPItemText* self) {
@@ -608,11 +628,6 @@ void separateLabels(QCustomPlot* plot) {
                 if (other != self && textRect(other).intersects(r))
                     return false;
         return !(peak && peak != self && textRect(peak).intersects(r));
-    };
-    const auto turn = [](QCPItemText* label) {
-        const Qt::Alignment a = label->positionAlignment();
-        label->setPositionAlignment(((a & Qt::AlignLeft) ? Qt::AlignRight : Qt::AlignLeft) |
-                                    (a & Qt::AlignVertical_Mask));
     };
     // The peak label turns round when it lies across a cut bar or its label and the other
     // side is free.
@@ -685,8 +700,99 @@ double paintCaption(QPainter* painter, const std::vector<std::string>& lines, co
 struct PanelLayout {
     double titlePx = 17;
     double subtitlePx = 11.5;
-    double scale = 1.0;  // of the plot's fonts
+    double scale = 1.0;     // of the plot's fonts
+    bool ownLegend = true;  // false: the page draws one legend for all panels
 };
+
+// One entry of a small-multiples page's shared legend: a plottable's name and look.
+struct LegendEntry {
+    QString name;
+    bool bars = false;
+    QPen pen;
+    QBrush brush;
+    QCPScatterStyle scatter;
+    QCPGraph::LineStyle lineStyle = QCPGraph::lsLine;
+};
+
+// The entries of a plot's legend not yet in `entries` (by name), in the legend's order.
+void appendLegendEntries(QCustomPlot* plot, std::vector<LegendEntry>& entries) {
+    for (int i = 0; i < plot->legend->itemCount(); ++i) {
+        auto* item = qobject_cast<QCPPlottableLegendItem*>(plot->legend->item(i));
+        if (!item || item->plottable()->name().isEmpty())
+            continue;
+        const QCPAbstractPlottable* p = item->plottable();
+        if (std::any_of(entries.begin(), entries.end(),
+                        [&](const LegendEntry& e) { return e.name == p->name(); }))
+            continue;
+        LegendEntry e;
+        e.name = p->name();
+        e.pen = p->pen();
+        e.brush = p->brush();
+        if (const auto* graph = qobject_cast<const QCPGraph*>(p)) {
+            e.scatter = graph->scatterStyle();
+            e.lineStyle = graph->lineStyle();
+        } else {
+            e.bars = qobject_cast<const QCPBars*>(p) != nullptr;
+        }
+        entries.push_back(e);
+    }
+}
+
+// The legend entries a figure's plot would show (the plot built as paintPanel builds it).
+void collectLegendEntries(const report::FigureSpec& spec, double scale,
+                          std::vector<LegendEntry>& entries) {
+    QCustomPlot plot;
+    plot.setAttribute(Qt::WA_DontShowOnScreen);
+    stylePlotFonts(&plot, scale);
+    SeriesChart chart(&plot);
+    chart.draw(seriesViewFromSpec(spec));
+    annotateFigure(chart, spec);
+    appendLegendEntries(&plot, entries);
+}
+
+// A plot that holds only a legend of `entries`, `width` wide, as many entries per row as fit
+// whole; its height is the legend's.
+std::unique_ptr<QCustomPlot> legendOnlyPlot(const std::vector<LegendEntry>& entries, int width,
+                                            double scale) {
+    auto plot = std::make_unique<QCustomPlot>();
+    plot->setAttribute(Qt::WA_DontShowOnScreen);
+    stylePlotFonts(plot.get(), scale);
+    for (const LegendEntry& e : entries) {
+        QCPAbstractPlottable* p = nullptr;
+        if (e.bars) {
+            p = new QCPBars(plot->xAxis, plot->yAxis);
+        } else {
+            QCPGraph* graph = plot->addGraph();
+            graph->setScatterStyle(e.scatter);
+            graph->setLineStyle(e.lineStyle);
+            p = graph;
+        }
+        p->setPen(e.pen);
+        p->setBrush(e.brush);
+        p->setName(e.name);
+    }
+    for (QCPAxis* axis : plot->axisRect()->axes())
+        axis->setVisible(false);
+    plot->legend->setVisible(true);
+    plot->axisRect()->insetLayout()->take(plot->legend);
+    plot->plotLayout()->take(plot->axisRect());
+    plot->plotLayout()->simplify();
+    plot->plotLayout()->addElement(0, 0, plot->legend);
+    plot->legend->setBorderPen(Qt::NoPen);
+    plot->legend->setBrush(Qt::NoBrush);
+    plot->legend->setMargins(QMargins(8, 2, 8, 0));
+    for (int columns = std::max<int>(1, static_cast<int>(entries.size())); columns >= 1;
+         --columns) {
+        plot->legend->setWrap(columns);
+        plot->legend->setFillOrder(QCPLegend::foColumnsFirst, true);
+        if (plot->legend->minimumOuterSizeHint().width() <= width)
+            break;
+    }
+    const int height = plot->legend->minimumOuterSizeHint().height();
+    plot->resize(width, height);
+    plot->setViewport(QRect(0, 0, width, height));
+    return plot;
+}
 
 // Title, subtitle and the annotated plot into `panel`.
 FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report::FigureSpec& spec,
@@ -722,8 +828,11 @@ FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report
     SeriesChart chart(plot.get());
     chart.draw(seriesViewFromSpec(spec));
     annotateFigure(chart, spec);
-    // On paper the legend goes under the plot, in rows, so it hides no data or label.
-    if (plot->axisRect()->insetLayout()->take(plot->legend)) {
+    // On paper the legend goes under the plot, in rows, so it hides no data or label; on a page
+    // of small multiples the page has one legend for all panels.
+    if (!layout.ownLegend) {
+        plot->legend->setVisible(false);
+    } else if (plot->axisRect()->insetLayout()->take(plot->legend)) {
         plot->axisRect()->insetLayout()->simplify();
         plot->plotLayout()->addElement(1, 0, plot->legend);
         plot->plotLayout()->setRowStretchFactor(1, 0.001);
@@ -829,17 +938,30 @@ std::vector<FigureGeometry> paintSmallMultiples(QCPPainter& painter, const QRect
                             captionHeight);
     painter.fillRect(page, Qt::white);
     const double gap = 12;
-    const double cellW = (inner.width() - gap * (cols - 1)) / cols;
-    const double cellH = (captionBox.top() - 8 - inner.top() - gap * (rows - 1)) / rows;
     PanelLayout layout;
     layout.titlePx = 13;
     layout.subtitlePx = 9.5;
     layout.scale = 0.9;
+    layout.ownLegend = false;
+    // One legend for the page, above the caption: each panel keeps its height for the plot,
+    // and every entry is written out whole.
+    std::vector<LegendEntry> entries;
+    for (const report::FigureSpec& spec : specs)
+        collectLegendEntries(spec, layout.scale, entries);
+    const int legendWidth = static_cast<int>(std::floor(inner.width()));
+    const std::unique_ptr<QCustomPlot> legend = legendOnlyPlot(entries, legendWidth, layout.scale);
+    const double legendTop = captionBox.top() - 8 - legend->height();
+    const double cellW = (inner.width() - gap * (cols - 1)) / cols;
+    const double cellH = (legendTop - 4 - inner.top() - gap * (rows - 1)) / rows;
     for (int i = 0; i < n; ++i) {
         const QRectF cell(inner.left() + (i % cols) * (cellW + gap),
                           inner.top() + (i / cols) * (cellH + gap), cellW, cellH);
         out.push_back(paintPanel(painter, cell, specs[static_cast<std::size_t>(i)], layout));
     }
+    painter.save();
+    painter.translate(inner.left(), legendTop);
+    legend->toPainter(&painter, legendWidth, legend->height());
+    painter.restore();
     painter.setPen(QPen(QColor(0xB0, 0xB4, 0xBA), 0.8));
     painter.drawLine(QPointF(inner.left(), captionBox.top() - 4),
                      QPointF(inner.right(), captionBox.top() - 4));

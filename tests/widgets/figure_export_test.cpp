@@ -478,6 +478,9 @@ private Q_SLOTS:
             {"half-a4", widgets::FigureSize::halfA4(), {spec}},
             {"report", widgets::FigureSize{180.0, 112.0, std::nullopt}, {spec}},
             {"two-panels", widgets::FigureSize::halfA4(), {spec, kv}},
+            {"four-panels-slide",
+             widgets::FigureSize::slide(),
+             {spec, kv, specOf(f, "1304", true), specOf(f, "OS", true)}},
         };
         for (const Case& c : cases) {
             widgets::FigureExportOptions options;
@@ -506,6 +509,34 @@ private Q_SLOTS:
                                             .arg(QLatin1String(c.name), a.text, g.labels[j].text)));
             }
         }
+    }
+
+    // Small multiples share one legend for the page: each entry is written once, whole (not
+    // cut to the width of a panel), and the panels keep their height for the plot. (The
+    // fit's legend entry, "Gumbel fit (lsq)", is in every subtitle too, so it is not counted.)
+    void smallMultiplesShareOneLegendWithWholeEntries() {
+        const Fixture f = sampleWithDecisions(true);
+        const std::vector<report::FigureSpec> specs = {
+            specOf(f, "1301", true), specOf(f, "KV", true), specOf(f, "1304", true),
+            specOf(f, "OS", true)};
+        widgets::FigureExportOptions options;
+        options.size = widgets::FigureSize::slide();
+        std::vector<widgets::FigureGeometry> geometry;
+        const QString path = m_dir.filePath(QStringLiteral("shared-legend.svg"));
+        QVERIFY(widgets::exportFigures(path, specs, options, &geometry).ok());
+        const QString text = svgText(path);
+        for (const char* entry : {"Raw, as reported", "95% confidence band of the fitted curve",
+                                  "Cleaned", "7-day centred mean (cleaned)", "Peak of the fit"})
+            QVERIFY2(text.count(QString::fromLatin1(entry)) == 1,
+                     qPrintable(QStringLiteral("%1: %2 times in %3")
+                                    .arg(QLatin1String(entry))
+                                    .arg(text.count(QString::fromLatin1(entry)))
+                                    .arg(text)));
+        // 2 x 2 panels on a 540-pixel-high slide: each plot is at least 100 logical pixels high
+        // (with a legend of three rows in each panel they had about 45).
+        QCOMPARE(geometry.size(), std::size_t(4));
+        for (const widgets::FigureGeometry& g : geometry)
+            QVERIFY2(g.axisRect.height() >= 100, qPrintable(QString::number(g.axisRect.height())));
     }
 
     void theReportListsEveryLedgerEntry() {
