@@ -363,6 +363,7 @@ void cutRawBars(QCustomPlot* plot, const report::FigureSpec& spec, double level,
         top->setStyle(QCPItemTracer::tsNone);
         top->position->setCoords(key, level);
         top->setSelectable(false);
+        top->setObjectName(QStringLiteral("raw-cut-top"));
         const auto stroke = [&](double dy, const QPen& pen) {
             auto* line = new QCPItemLine(plot);
             line->setClipToAxisRect(true);
@@ -440,9 +441,11 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
         rect->setPen(QPen(QColor(0x55, 0x55, 0x55), 1.0, Qt::DotLine));
         rect->setSelectable(false);
         const double mid = (keyOf(ex.first) + keyOf(ex.last)) / 2;
-        addLabel(plot, mid, 0.06, qs(ex.label), alignmentFor(mid, x) | Qt::AlignTop, scale)
-            ->setPositionAlignment((alignmentFor(mid, x) & Qt::AlignHorizontal_Mask) |
-                                   Qt::AlignTop);
+        QCPItemText* label =
+            addLabel(plot, mid, 0.06, qs(ex.label), alignmentFor(mid, x) | Qt::AlignTop, scale);
+        label->setPositionAlignment((alignmentFor(mid, x) & Qt::AlignHorizontal_Mask) |
+                                    Qt::AlignTop);
+        label->setObjectName(QStringLiteral("excluded-%1").arg(ex.sequence));
     }
 
     // Decisions: a label in a band near the top, staggered so neighbours do not collide,
@@ -481,6 +484,7 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
             span->setHead(QCPLineEnding(QCPLineEnding::esBar, 6));
             span->setTail(QCPLineEnding(QCPLineEnding::esBar, 6));
             span->setSelectable(false);
+            span->setObjectName(QStringLiteral("decision-span-%1").arg(mark.sequence));
         }
     }
 
@@ -501,6 +505,7 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
                                         ? Qt::AlignRight | Qt::AlignBottom
                                         : Qt::AlignLeft | Qt::AlignBottom);
         label->setPadding(QMargins(8, 0, 8, 6));
+        label->setObjectName(QStringLiteral("peak"));
         label->setText(QObject::tr("peak %1, %2/day")
                            .arg(qs(spec.fit->peakDate.iso()))
                            .arg(spec.fit->peakValue, 0, 'f', 0));
@@ -520,6 +525,138 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
 }
 
 namespace {
+
+QRectF textRect(const QCPItemText* label) {
+    return QRectF(label->topLeft->pixelPosition(), label->bottomRight->pixelPosition())
+        .normalized();
+}
+
+// Once the plot is laid out (a label's size in pixels is known only then), the marks of a short
+// plot (a report's figure, a small-multiples panel) are moved apart where they would overlap:
+// a decision label that would stick out of the top comes down inside (with its bracket; its
+// arrow hangs from it), and the label of a cut bar (cutRawBars) takes the first free place
+// beside its bar top, the fit's peak label turning to the other side of its diamond when that
+// frees one. Nothing moves where nothing overlaps, so a roomy figure keeps its layout, and a
+// figure without a ledger (no decision, no cut bar) is never touched.
+void separateLabels(QCustomPlot* plot) {
+    const QRectF area = plot->axisRect()->rect();
+    std::vector<QCPItemText*> decisions, cuts, excluded;
+    QCPItemText* peak = nullptr;
+    std::vector<QCPItemLine*> spans;
+    std::vector<QRectF> columns;
+    for (int i = 0; i < plot->itemCount(); ++i) {
+        QCPAbstractItem* item = plot->item(i);
+        const QString name = item->objectName();
+        if (auto* text = qobject_cast<QCPItemText*>(item)) {
+            if (name.startsWith(QLatin1String("decision-")))
+                decisions.push_back(text);
+            else if (name == QLatin1String("raw-cut"))
+                cuts.push_back(text);
+            else if (name.startsWith(QLatin1String("excluded-")))
+                excluded.push_back(text);
+            else if (name == QLatin1String("peak"))
+                peak = text;
+        } else if (auto* line = qobject_cast<QCPItemLine*>(item);
+                   line && name.startsWith(QLatin1String("decision-span-"))) {
+            spans.push_back(line);
+        } else if (auto* top = qobject_cast<QCPItemTracer*>(item);
+                   top && name == QLatin1String("raw-cut-top")) {
+            // A cut bar's top with its broken-bar mark: no label lies across it.
+            const QPointF at = top->position->pixelPosition();
+            columns.emplace_back(at.x() - 8, at.y() - 2, 16, 24);
+        }
+    }
+    // A decision label comes down (with its bracket) by what it needs to be inside the plot
+    // and clear of the excluded ranges' labels and of the decision labels placed before it.
+    std::vector<const QCPItemText*> settled(excluded.begin(), excluded.end());
+    for (QCPItemText* label : decisions) {
+        QRectF box = textRect(label);
+        double down = std::max(0.0, area.top() + 2 - box.top());
+        for (bool moved = true; moved;) {
+            moved = false;
+            for (const QCPItemText* other : settled) {
+                const QRectF o = textRect(other);
+                if (o.intersects(box.translated(0, down))) {
+                    down = o.bottom() + 2 - box.top();
+                    moved = true;
+                }
+            }
+        }
+        settled.push_back(label);
+        if (down <= 0 || area.height() <= 0)
+            continue;
+        const double shift = down / area.height();  // positions in axis-rect ratios
+        const QString span = QStringLiteral("decision-span-") +
+                             label->objectName().mid(QStringLiteral("decision-").size());
+        label->position->setCoords(label->position->key(), label->position->value() + shift);
+        for (QCPItemLine* line : spans)
+            if (line->objectName() == span)
+                for (QCPItemPosition* p : {line->start, line->end})
+                    p->setCoords(p->key(), p->value() + shift);
+    }
+    if (cuts.empty())
+        return;
+    const auto freeOf = [&](const QRectF& r, const QCPItemText* self) {
+        if (r.top() < area.top() || r.bottom() > area.bottom() || r.left() < area.left() ||
+            r.right() > area.right())
+            return false;
+        for (const QRectF& column : columns)
+            if (column.intersects(r))
+                return false;
+        for (const std::vector<QCPItemText*>* group : {&decisions, &cuts, &excluded})
+            for (const QCPItemText* other : *group)
+                if (other != self && textRect(other).intersects(r))
+                    return false;
+        return !(peak && peak != self && textRect(peak).intersects(r));
+    };
+    const auto turn = [](QCPItemText* label) {
+        const Qt::Alignment a = label->positionAlignment();
+        label->setPositionAlignment(((a & Qt::AlignLeft) ? Qt::AlignRight : Qt::AlignLeft) |
+                                    (a & Qt::AlignVertical_Mask));
+    };
+    // The peak label turns round when it lies across a cut bar or its label and the other
+    // side is free.
+    if (peak && !freeOf(textRect(peak), peak)) {
+        turn(peak);
+        if (!freeOf(textRect(peak), peak))
+            turn(peak);
+    }
+    for (QCPItemText* label : cuts) {
+        if (freeOf(textRect(label), label))
+            continue;
+        const QPointF original = label->position->coords();  // pixels from the bar top
+        const Qt::Alignment originalAlignment = label->positionAlignment();
+        const bool startRight = original.x() > 0;
+        const double gap = std::abs(original.x());
+        const double h = textRect(label).height();
+        bool placed = false;
+        // Beside the bar top, then just below it, above it, further below; each on the first
+        // side, then the other; each first as it is, then with the peak label turned round.
+        for (const double dy : {0.0, 0.6 * h, -0.6 * h, 1.2 * h}) {
+            for (const bool right : {startRight, !startRight}) {
+                label->position->setCoords(right ? gap : -gap, dy);
+                label->setPositionAlignment((right ? Qt::AlignLeft : Qt::AlignRight) |
+                                            Qt::AlignVCenter);
+                for (int turned = 0; turned < (peak ? 2 : 1) && !placed; ++turned) {
+                    if (turned)
+                        turn(peak);
+                    placed =
+                        freeOf(textRect(label), label) && (!turned || freeOf(textRect(peak), peak));
+                    if (!placed && turned)
+                        turn(peak);
+                }
+                if (placed)
+                    break;
+            }
+            if (placed)
+                break;
+        }
+        if (!placed) {  // no free place: as first drawn
+            label->position->setCoords(original);
+            label->setPositionAlignment(originalAlignment);
+        }
+    }
+}
 
 // Caption lines wrapped into `width`; returns the height used (or needed when painter is null).
 double paintCaption(QPainter* painter, const std::vector<std::string>& lines, const QRectF& box,
@@ -605,6 +742,7 @@ FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report
         }
     }
     plot->replot(QCustomPlot::rpImmediateRefresh);
+    separateLabels(plot.get());
 
     FigureGeometry geometry;
     const QRect axisRect = plot->axisRect()->rect();
@@ -613,6 +751,11 @@ FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report
     geometry.xUpper = plot->xAxis->range().upper;
     geometry.yLower = plot->yAxis->range().lower;
     geometry.yUpper = plot->yAxis->range().upper;
+    for (int i = 0; i < plot->itemCount(); ++i)
+        if (const auto* text = qobject_cast<const QCPItemText*>(plot->item(i));
+            text && !text->text().isEmpty())
+            geometry.labels.push_back(
+                {text->text(), textRect(text).translated(plotRect.topLeft())});
 
     painter.save();
     painter.translate(plotRect.topLeft());

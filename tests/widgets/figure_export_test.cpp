@@ -460,6 +460,54 @@ private Q_SLOTS:
         QVERIFY(fittedUpper < 2643.0 / 2);
     }
 
+    // The marks of a figure with a cut bar (decision label, the cut bar's value, the peak of the
+    // fit) lie inside the plot and apart from each other, at the sizes a briefing uses: a
+    // slide, half an A4 page, the report's 180 x 112 mm (report_writer.cpp) and two panels side
+    // by side on half an A4 page.
+    void theMarksOfACutFigureLieInsideThePlotApartAtBriefingSizes() {
+        const Fixture f = sampleWithDecisions(true);
+        const report::FigureSpec spec = specOf(f, "1301", true);
+        report::FigureSpec kv = specOf(f, "KV", true);
+        struct Case {
+            const char* name;
+            widgets::FigureSize size;
+            std::vector<report::FigureSpec> specs;
+        };
+        const std::vector<Case> cases = {
+            {"slide", widgets::FigureSize::slide(), {spec}},
+            {"half-a4", widgets::FigureSize::halfA4(), {spec}},
+            {"report", widgets::FigureSize{180.0, 112.0, std::nullopt}, {spec}},
+            {"two-panels", widgets::FigureSize::halfA4(), {spec, kv}},
+        };
+        for (const Case& c : cases) {
+            widgets::FigureExportOptions options;
+            options.size = c.size;
+            std::vector<widgets::FigureGeometry> geometry;
+            const QString path =
+                m_dir.filePath(QStringLiteral("marks-%1.svg").arg(QLatin1String(c.name)));
+            QVERIFY(widgets::exportFigures(path, c.specs, options, &geometry).ok());
+            const widgets::FigureGeometry& g = geometry.front();  // 1301's panel
+            QStringList texts;
+            for (const auto& label : g.labels)
+                texts << label.text;
+            const QString all = texts.join(QStringLiteral(" | "));
+            QVERIFY2(texts.contains(QStringLiteral("raw 2,643, bar cut")), qPrintable(all));
+            QVERIFY2(texts.contains(QStringLiteral("#1 2,444 moved to earlier days")),
+                     qPrintable(all));
+            QVERIFY2(all.contains(QStringLiteral("peak 2026-")), qPrintable(all));
+            const QRectF plot = g.axisRect.adjusted(-0.5, -0.5, 0.5, 0.5);
+            for (std::size_t i = 0; i < g.labels.size(); ++i) {
+                const auto& a = g.labels[i];
+                QVERIFY2(plot.contains(a.box), qPrintable(QStringLiteral("%1: '%2' leaves the plot")
+                                                              .arg(QLatin1String(c.name), a.text)));
+                for (std::size_t j = i + 1; j < g.labels.size(); ++j)
+                    QVERIFY2(!a.box.intersects(g.labels[j].box),
+                             qPrintable(QStringLiteral("%1: '%2' overlaps '%3'")
+                                            .arg(QLatin1String(c.name), a.text, g.labels[j].text)));
+            }
+        }
+    }
+
     void theReportListsEveryLedgerEntry() {
         const Fixture f = sampleWithDecisions(true);
         report::BriefingRequest request;
