@@ -112,6 +112,9 @@ LedgerView::LedgerView(Workbench* workbench, QWidget* parent)
       m_withdraw(new QPushButton(tr("Withdraw…"), this)) {
     m_status->setObjectName(QStringLiteral("chainStatusOk"));
     m_status->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    // Wraps rather than widening the dock; the ledger's full path is in the tooltip.
+    m_status->setWordWrap(true);
+    m_status->setSizePolicy(QSizePolicy::Ignored, QSizePolicy::Preferred);
     m_view->setObjectName(QStringLiteral("ledgerTable"));
     m_view->setModel(m_model);
     m_view->setSelectionBehavior(QAbstractItemView::SelectRows);
@@ -166,8 +169,13 @@ void LedgerView::updateStatus() {
     }
     const bool ok = m_workbench->chainOk();
     QString text = (ok ? QStringLiteral("✔ ") : QStringLiteral("✖ ")) + m_workbench->chainStatus();
-    if (!m_workbench->ledgerPath().isEmpty())
-        text += QStringLiteral(" · ") + QFileInfo(m_workbench->ledgerPath()).fileName();
+    if (!m_workbench->ledgerPath().isEmpty()) {
+        // A drop's own ledger is named by its SHA-256: the first and last digits say enough.
+        QString name = QFileInfo(m_workbench->ledgerPath()).fileName();
+        if (name.size() > 40)
+            name = name.left(12) + QStringLiteral("…") + name.right(14);
+        text += QStringLiteral(" · ") + name;
+    }
     m_status->setText(text);
     m_status->setToolTip(m_workbench->ledgerPath());
     m_status->setObjectName(ok ? QStringLiteral("chainStatusOk")
