@@ -44,11 +44,16 @@ QVariant LedgerModel::data(const QModelIndex& index, int role) const {
     const bool inEffect = m_workbench->cleaned().inEffect(e.sequence);
     if (role == SequenceRole)
         return static_cast<qulonglong>(e.sequence);
-    if (role == Qt::ToolTipRole)
-        return tr("entry %1 · hash %2 · previous %3")
-            .arg(e.sequence)
-            .arg(QString::fromStdString(e.hash.substr(0, 16)),
-                 QString::fromStdString(e.previousHash.substr(0, 16)));
+    if (role == Qt::ToolTipRole) {
+        const QString chain = tr("entry %1 · hash %2 · previous %3")
+                                  .arg(e.sequence)
+                                  .arg(QString::fromStdString(e.hash.substr(0, 16)),
+                                       QString::fromStdString(e.previousHash.substr(0, 16)));
+        // The reason in full, where a narrow dock cuts its column.
+        if (index.column() == ReasonColumn)
+            return QStringLiteral("%1\n%2").arg(QString::fromStdString(e.reason), chain);
+        return chain;
+    }
     if (role != Qt::DisplayRole)
         return {};
     switch (index.column()) {

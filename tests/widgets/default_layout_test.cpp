@@ -8,6 +8,7 @@
 #include <QHeaderView>
 #include <QScrollBar>
 #include <QTableView>
+#include <QTemporaryDir>
 #include <QTest>
 #include <QTreeView>
 #include <algorithm>
@@ -42,9 +43,9 @@ private Q_SLOTS:
     }
 
     void theFindingsTableShowsEveryColumnWholeAtTheDefaultSize() {
-        const QString ledgers = QDir::temp().filePath(
-            QStringLiteral("siftwave-default-layout-%1").arg(QCoreApplication::applicationPid()));
-        auto window = siftwave::testing::openSampleWindow(ledgers, {false, QSize(), true});
+        QTemporaryDir ledgers;
+        QVERIFY(ledgers.isValid());
+        auto window = siftwave::testing::openSampleWindow(ledgers.path(), {false, QSize(), true});
         QVERIFY(window);
         QCOMPARE(window->size(), QSize(1360, 860));  // MainWindow's own default
         auto* table = window->findChild<QTableView*>(QStringLiteral("findingTable"));
