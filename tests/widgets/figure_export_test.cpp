@@ -468,6 +468,10 @@ private Q_SLOTS:
         const Fixture f = sampleWithDecisions(true);
         const report::FigureSpec spec = specOf(f, "1301", true);
         report::FigureSpec kv = specOf(f, "KV", true);
+        // A second lowered bar four days before the dump (as if another decision had spread a
+        // day's excess): two cut bars whose labels must not collide.
+        report::FigureSpec twoCuts = spec;
+        twoCuts.raw[static_cast<std::size_t>(*Date::fromIso("2026-08-20") - spec.firstDay)] = 1800;
         struct Case {
             const char* name;
             widgets::FigureSize size;
@@ -478,6 +482,7 @@ private Q_SLOTS:
             {"half-a4", widgets::FigureSize::halfA4(), {spec}},
             {"report", widgets::FigureSize{180.0, 112.0, std::nullopt}, {spec}},
             {"two-panels", widgets::FigureSize::halfA4(), {spec, kv}},
+            {"two-cut-bars", widgets::FigureSize::halfA4(), {twoCuts}},
             {"four-panels-slide",
              widgets::FigureSize::slide(),
              {spec, kv, specOf(f, "1304", true), specOf(f, "OS", true)}},
@@ -495,6 +500,8 @@ private Q_SLOTS:
                 texts << label.text;
             const QString all = texts.join(QStringLiteral(" | "));
             QVERIFY2(texts.contains(QStringLiteral("raw 2,643, bar cut")), qPrintable(all));
+            QCOMPARE(texts.filter(QStringLiteral("bar cut")).size(),
+                     c.name == std::string("two-cut-bars") ? 2 : 1);
             QVERIFY2(texts.contains(QStringLiteral("#1 2,444 moved to earlier days")),
                      qPrintable(all));
             QVERIFY2(all.contains(QStringLiteral("peak 2026-")), qPrintable(all));
