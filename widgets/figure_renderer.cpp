@@ -14,7 +14,9 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 #include <memory>
+#include <utility>
 
 namespace siftwave::widgets {
 namespace {
@@ -271,6 +273,136 @@ void addCountRange(QCustomPlot* plot, const report::FigureSpec& spec) {
         plot->yAxis->setRangeUpper(highest * 1.02);
 }
 
+// After a ledger decision lowered a raw bar (a backlog spread back), the value axis follows the
+// cleaned series, as on screen (SeriesChart::setScaleToCleaned): the highest of the cleaned and
+// smoothed series, the raw bars of days without a cleaned value, the previous release (except
+// on the days the ledger lowered), the fitted curve, its band up to twice the rest (a wide band
+// of a poorly determined fit runs off rather than flattening the data) and the range of daily
+// counts, plus 10%. The level returned is that top; a raw bar above it is cut there
+// (cutRawBars). nullopt when no lowered bar rises above it: the figure keeps the raw scale, so
+// a figure without a ledger (raw = cleaned) is drawn exactly as before.
+std::optional<double> rawCutLevel(const report::FigureSpec& spec) {
+    const auto at = [](const std::vector<double>& values, int d) {
+        return d < static_cast<int>(values.size()) ? values[static_cast<std::size_t>(d)]
+                                                   : std::numeric_limits<double>::quiet_NaN();
+    };
+    const auto lowered = [&](int d) {
+        const double raw = at(spec.raw, d), cleaned = at(spec.cleaned, d);
+        return !std::isnan(raw) && !std::isnan(cleaned) && cleaned < raw;
+    };
+    double top = 0;
+    const auto take = [&top](double v) {
+        if (std::isfinite(v))
+            top = std::max(top, v);
+    };
+    for (int d = 0; d < spec.days; ++d) {
+        if (std::isnan(at(spec.cleaned, d)))
+            take(at(spec.raw, d));
+        take(at(spec.cleaned, d));
+        take(at(spec.smoothed, d));
+        if (!lowered(d))
+            take(at(spec.previous, d));
+    }
+    if (spec.fit) {
+        for (int d = 0; d < spec.days; ++d)
+            take(at(spec.fit->mid, d));
+        double band = 0;
+        for (int d = 0; d < spec.days; ++d)
+            if (std::isfinite(at(spec.fit->high, d)))
+                band = std::max(band, at(spec.fit->high, d));
+        take(std::min(band, 2 * top));
+        for (int d = 0; d < spec.days; ++d)
+            take(at(spec.fit->countHigh, d));
+    }
+    if (!(top > 0))
+        return std::nullopt;
+    const double level = top * 1.1;
+    for (int d = 0; d < spec.days; ++d)
+        if (lowered(d) && at(spec.raw, d) > level)
+            return level;
+    return std::nullopt;
+}
+
+// Cuts the raw bars above `level` there (the previous release's line too, on those days), marks
+// each cut with the usual broken-bar sign (two parallel slanted strokes with a white gap, just
+// below the bar's top; common practice, no source) and labels it with its true value, beside
+// the bar so that it crosses neither the decision's arrow above it nor its bracket.
+void cutRawBars(QCustomPlot* plot, const report::FigureSpec& spec, double level, const QCPRange& x,
+                double scale) {
+    QCPBars* bars = nullptr;
+    for (int i = 0; i < plot->plottableCount() && !bars; ++i)
+        bars = qobject_cast<QCPBars*>(plot->plottable(i));
+    if (!bars)
+        return;
+    std::vector<std::pair<double, double>> cut;  // plot key, true value
+    for (auto it = bars->data()->begin(); it != bars->data()->end(); ++it)
+        if (it->value > level) {
+            cut.emplace_back(it->key, it->value);
+            it->value = level;
+        }
+    const QString previousName = QObject::tr("Previous release (%1)").arg(qs(spec.previousLabel));
+    std::vector<std::pair<double, double>> previousCut;  // plot key, previous release's value
+    for (int i = 0; i < plot->graphCount(); ++i) {
+        QCPGraph* previous = plot->graph(i);
+        if (spec.previous.empty() || previous->name() != previousName)
+            continue;
+        for (auto it = previous->data()->begin(); it != previous->data()->end(); ++it) {
+            const bool onCutDay = std::any_of(cut.begin(), cut.end(), [&](const auto& c) {
+                return std::abs(c.first - it->key) < kSecondsPerDay / 2;
+            });
+            if (onCutDay && it->value > level) {
+                previousCut.emplace_back(it->key, it->value);
+                it->value = level;
+            }
+        }
+    }
+    const double px = scale;  // logical pixels of the figure
+    for (const auto& [key, value] : cut) {
+        // The bar's visible top: the mark and the label hang from it in pixels.
+        auto* top = new QCPItemTracer(plot);
+        top->setStyle(QCPItemTracer::tsNone);
+        top->position->setCoords(key, level);
+        top->setSelectable(false);
+        top->setObjectName(QStringLiteral("raw-cut-top"));
+        const auto stroke = [&](double dy, const QPen& pen) {
+            auto* line = new QCPItemLine(plot);
+            line->setClipToAxisRect(true);
+            for (QCPItemPosition* p : {line->start, line->end}) {
+                p->setParentAnchor(top->position);
+                p->setType(QCPItemPosition::ptAbsolute);
+            }
+            line->start->setCoords(-7 * px, (dy + 5) * px);
+            line->end->setCoords(7 * px, (dy - 1) * px);
+            line->setPen(pen);
+            line->setSelectable(false);
+        };
+        stroke(6, QPen(Qt::white, 4.2 * px, Qt::SolidLine, Qt::FlatCap));
+        stroke(3.4, QPen(plot_style::kInk, 1.0 * px, Qt::SolidLine, Qt::FlatCap));
+        stroke(8.6, QPen(plot_style::kInk, 1.0 * px, Qt::SolidLine, Qt::FlatCap));
+
+        QString text =
+            QObject::tr("raw %1, bar cut").arg(qs(report::groupedCount(std::llround(value))));
+        for (const auto& [previousKey, previousValue] : previousCut)
+            if (std::abs(previousKey - key) < kSecondsPerDay / 2 && previousValue != value)
+                text += QObject::tr(" (previous release %1)")
+                            .arg(qs(report::groupedCount(std::llround(previousValue))));
+        const bool right = (key - x.lower) / x.size() > 0.72;
+        auto* label = new QCPItemText(plot);
+        label->setClipToAxisRect(true);
+        label->position->setParentAnchor(top->position);
+        label->position->setType(QCPItemPosition::ptAbsolute);
+        label->position->setCoords((right ? -9 : 9) * px, 0);
+        label->setPositionAlignment((right ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter);
+        label->setText(text);
+        label->setFont(pageFont(10 * scale, true));
+        label->setColor(plot_style::kInk);
+        label->setBrush(QBrush(QColor(255, 255, 255, 215)));
+        label->setPadding(QMargins(2, 1, 2, 1));
+        label->setSelectable(false);
+        label->setObjectName(QStringLiteral("raw-cut"));
+    }
+}
+
 }  // namespace
 
 void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
@@ -281,11 +413,19 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
     const int itemsBefore = plot->itemCount();
     const int graphsBefore = plot->graphCount();
     addCountRange(plot, spec);
+    // A raw bar the ledger lowered does not set the scale: it is cut (rawCutLevel, cutRawBars).
+    const std::optional<double> cutLevel = rawCutLevel(spec);
+    if (cutLevel)
+        plot->yAxis->setRange(0, *cutLevel);
     // Headroom for the labels above the highest bar.
     const QCPRange y = plot->yAxis->range();
     plot->yAxis->setRange(0, std::max(y.upper * kLabelHeadroom, 10.0));
     const double top = plot->yAxis->range().upper;
     const QCPRange x = plot->xAxis->range();
+    if (cutLevel)
+        cutRawBars(plot, spec, *cutLevel, x, scale);
+    // Where an arrow may end: the top of the plot, or the visible top of a cut bar.
+    const double highestShown = cutLevel ? *cutLevel : top;
 
     // Excluded ranges: grey hatching over the days, labelled at the top.
     for (const report::ExcludedRange& ex : spec.excluded) {
@@ -301,13 +441,16 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
         rect->setPen(QPen(QColor(0x55, 0x55, 0x55), 1.0, Qt::DotLine));
         rect->setSelectable(false);
         const double mid = (keyOf(ex.first) + keyOf(ex.last)) / 2;
-        addLabel(plot, mid, 0.06, qs(ex.label), alignmentFor(mid, x) | Qt::AlignTop, scale)
-            ->setPositionAlignment((alignmentFor(mid, x) & Qt::AlignHorizontal_Mask) |
-                                   Qt::AlignTop);
+        QCPItemText* label =
+            addLabel(plot, mid, 0.06, qs(ex.label), alignmentFor(mid, x) | Qt::AlignTop, scale);
+        label->setPositionAlignment((alignmentFor(mid, x) & Qt::AlignHorizontal_Mask) |
+                                    Qt::AlignTop);
+        label->setObjectName(QStringLiteral("excluded-%1").arg(ex.sequence));
     }
 
     // Decisions: a label in a band near the top, staggered so neighbours do not collide,
-    // with an arrow to the highest raw bar of the day(s) it is about.
+    // with an arrow to the highest raw bar of the day(s) it is about (to its visible top when
+    // the bar is cut).
     int row = 0;
     for (const report::DecisionMark& mark : spec.decisions) {
         const double key = (keyOf(mark.first) + keyOf(mark.last)) / 2;
@@ -321,7 +464,7 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
         arrow->start->setTypeX(QCPItemPosition::ptPlotCoords);
         arrow->start->setParentAnchorY(label->bottom);
         arrow->start->setCoords(key, 0);
-        arrow->end->setCoords(key, std::min(mark.anchorValue, top));
+        arrow->end->setCoords(key, std::min(mark.anchorValue, highestShown));
         arrow->setPen(QPen(plot_style::kInk, 1.3));
         arrow->setHead(QCPLineEnding(QCPLineEnding::esSpikeArrow, 8, 10));
         arrow->setSelectable(false);
@@ -341,6 +484,7 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
             span->setHead(QCPLineEnding(QCPLineEnding::esBar, 6));
             span->setTail(QCPLineEnding(QCPLineEnding::esBar, 6));
             span->setSelectable(false);
+            span->setObjectName(QStringLiteral("decision-span-%1").arg(mark.sequence));
         }
     }
 
@@ -361,6 +505,7 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
                                         ? Qt::AlignRight | Qt::AlignBottom
                                         : Qt::AlignLeft | Qt::AlignBottom);
         label->setPadding(QMargins(8, 0, 8, 6));
+        label->setObjectName(QStringLiteral("peak"));
         label->setText(QObject::tr("peak %1, %2/day")
                            .arg(qs(spec.fit->peakDate.iso()))
                            .arg(spec.fit->peakValue, 0, 'f', 0));
@@ -380,6 +525,153 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
 }
 
 namespace {
+
+QRectF textRect(const QCPItemText* label) {
+    return QRectF(label->topLeft->pixelPosition(), label->bottomRight->pixelPosition())
+        .normalized();
+}
+
+// Once the plot is laid out (a label's size in pixels is known only then), the marks of a short
+// plot (a report's figure, a small-multiples panel) are moved apart where they would overlap:
+// a decision label that would stick out of the top comes down inside (with its bracket; its
+// arrow hangs from it), and the label of a cut bar (cutRawBars) takes the first free place
+// beside its bar top, the fit's peak label turning to the other side of its diamond when that
+// frees one. Nothing moves where nothing overlaps, so a roomy figure keeps its layout, and a
+// figure without a ledger (no decision, no cut bar) is never touched.
+void separateLabels(QCustomPlot* plot) {
+    const QRectF area = plot->axisRect()->rect();
+    std::vector<QCPItemText*> decisions, cuts, excluded;
+    QCPItemText* peak = nullptr;
+    std::vector<QCPItemLine*> spans;
+    std::vector<QRectF> columns;
+    for (int i = 0; i < plot->itemCount(); ++i) {
+        QCPAbstractItem* item = plot->item(i);
+        const QString name = item->objectName();
+        if (auto* text = qobject_cast<QCPItemText*>(item)) {
+            if (name.startsWith(QLatin1String("decision-")))
+                decisions.push_back(text);
+            else if (name == QLatin1String("raw-cut"))
+                cuts.push_back(text);
+            else if (name.startsWith(QLatin1String("excluded-")))
+                excluded.push_back(text);
+            else if (name == QLatin1String("peak"))
+                peak = text;
+        } else if (auto* line = qobject_cast<QCPItemLine*>(item);
+                   line && name.startsWith(QLatin1String("decision-span-"))) {
+            spans.push_back(line);
+        } else if (auto* top = qobject_cast<QCPItemTracer*>(item);
+                   top && name == QLatin1String("raw-cut-top")) {
+            // A cut bar's top with its broken-bar mark: no label lies across it.
+            const QPointF at = top->position->pixelPosition();
+            columns.emplace_back(at.x() - 8, at.y() - 2, 16, 24);
+        }
+    }
+    // A decision label comes down (with its bracket) by what it needs to be inside the plot
+    // and clear of the excluded ranges' labels and of the decision labels placed before it.
+    std::vector<const QCPItemText*> settled(excluded.begin(), excluded.end());
+    for (QCPItemText* label : decisions) {
+        QRectF box = textRect(label);
+        double down = std::max(0.0, area.top() + 2 - box.top());
+        for (bool moved = true; moved;) {
+            moved = false;
+            for (const QCPItemText* other : settled) {
+                const QRectF o = textRect(other);
+                if (o.intersects(box.translated(0, down))) {
+                    down = o.bottom() + 2 - box.top();
+                    moved = true;
+                }
+            }
+        }
+        settled.push_back(label);
+        if (down <= 0 || area.height() <= 0)
+            continue;
+        const double shift = down / area.height();  // positions in axis-rect ratios
+        const QString span = QStringLiteral("decision-span-") +
+                             label->objectName().mid(QStringLiteral("decision-").size());
+        label->position->setCoords(label->position->key(), label->position->value() + shift);
+        for (QCPItemLine* line : spans)
+            if (line->objectName() == span)
+                for (QCPItemPosition* p : {line->start, line->end})
+                    p->setCoords(p->key(), p->value() + shift);
+    }
+    const auto turn = [](QCPItemText* label) {
+        const Qt::Alignment a = label->positionAlignment();
+        label->setPositionAlignment(((a & Qt::AlignLeft) ? Qt::AlignRight : Qt::AlignLeft) |
+                                    (a & Qt::AlignVertical_Mask));
+    };
+    // A peak label that a narrow panel would cut at its edge turns to the other side of its
+    // diamond, or else stands centred above it, where it fits (any figure: this only ever
+    // moves a label that is cut off).
+    const auto across = [&](const QRectF& r) {
+        return r.left() < area.left() || r.right() > area.right();
+    };
+    if (peak && across(textRect(peak))) {
+        const Qt::Alignment first = peak->positionAlignment();
+        turn(peak);
+        if (across(textRect(peak))) {
+            peak->setPositionAlignment(Qt::AlignHCenter | (first & Qt::AlignVertical_Mask));
+            if (across(textRect(peak)))
+                peak->setPositionAlignment(first);
+        }
+    }
+    if (cuts.empty())
+        return;
+    const auto freeOf = [&](const QRectF& r, const QCPItemText* self) {
+        if (r.top() < area.top() || r.bottom() > area.bottom() || r.left() < area.left() ||
+            r.right() > area.right())
+            return false;
+        for (const QRectF& column : columns)
+            if (column.intersects(r))
+                return false;
+        for (const std::vector<QCPItemText*>* group : {&decisions, &cuts, &excluded})
+            for (const QCPItemText* other : *group)
+                if (other != self && textRect(other).intersects(r))
+                    return false;
+        return !(peak && peak != self && textRect(peak).intersects(r));
+    };
+    // The peak label turns round when it lies across a cut bar or its label and the other
+    // side is free.
+    if (peak && !freeOf(textRect(peak), peak)) {
+        turn(peak);
+        if (!freeOf(textRect(peak), peak))
+            turn(peak);
+    }
+    for (QCPItemText* label : cuts) {
+        if (freeOf(textRect(label), label))
+            continue;
+        const QPointF original = label->position->coords();  // pixels from the bar top
+        const Qt::Alignment originalAlignment = label->positionAlignment();
+        const bool startRight = original.x() > 0;
+        const double gap = std::abs(original.x());
+        const double h = textRect(label).height();
+        bool placed = false;
+        // Beside the bar top, then just below it, above it, further below; each on the first
+        // side, then the other; each first as it is, then with the peak label turned round.
+        for (const double dy : {0.0, 0.6 * h, -0.6 * h, 1.2 * h}) {
+            for (const bool right : {startRight, !startRight}) {
+                label->position->setCoords(right ? gap : -gap, dy);
+                label->setPositionAlignment((right ? Qt::AlignLeft : Qt::AlignRight) |
+                                            Qt::AlignVCenter);
+                for (int turned = 0; turned < (peak ? 2 : 1) && !placed; ++turned) {
+                    if (turned)
+                        turn(peak);
+                    placed =
+                        freeOf(textRect(label), label) && (!turned || freeOf(textRect(peak), peak));
+                    if (!placed && turned)
+                        turn(peak);
+                }
+                if (placed)
+                    break;
+            }
+            if (placed)
+                break;
+        }
+        if (!placed) {  // no free place: as first drawn
+            label->position->setCoords(original);
+            label->setPositionAlignment(originalAlignment);
+        }
+    }
+}
 
 // Caption lines wrapped into `width`; returns the height used (or needed when painter is null).
 double paintCaption(QPainter* painter, const std::vector<std::string>& lines, const QRectF& box,
@@ -408,8 +700,99 @@ double paintCaption(QPainter* painter, const std::vector<std::string>& lines, co
 struct PanelLayout {
     double titlePx = 17;
     double subtitlePx = 11.5;
-    double scale = 1.0;  // of the plot's fonts
+    double scale = 1.0;     // of the plot's fonts
+    bool ownLegend = true;  // false: the page draws one legend for all panels
 };
+
+// One entry of a small-multiples page's shared legend: a plottable's name and look.
+struct LegendEntry {
+    QString name;
+    bool bars = false;
+    QPen pen;
+    QBrush brush;
+    QCPScatterStyle scatter;
+    QCPGraph::LineStyle lineStyle = QCPGraph::lsLine;
+};
+
+// The entries of a plot's legend not yet in `entries` (by name), in the legend's order.
+void appendLegendEntries(QCustomPlot* plot, std::vector<LegendEntry>& entries) {
+    for (int i = 0; i < plot->legend->itemCount(); ++i) {
+        auto* item = qobject_cast<QCPPlottableLegendItem*>(plot->legend->item(i));
+        if (!item || item->plottable()->name().isEmpty())
+            continue;
+        const QCPAbstractPlottable* p = item->plottable();
+        if (std::any_of(entries.begin(), entries.end(),
+                        [&](const LegendEntry& e) { return e.name == p->name(); }))
+            continue;
+        LegendEntry e;
+        e.name = p->name();
+        e.pen = p->pen();
+        e.brush = p->brush();
+        if (const auto* graph = qobject_cast<const QCPGraph*>(p)) {
+            e.scatter = graph->scatterStyle();
+            e.lineStyle = graph->lineStyle();
+        } else {
+            e.bars = qobject_cast<const QCPBars*>(p) != nullptr;
+        }
+        entries.push_back(e);
+    }
+}
+
+// The legend entries a figure's plot would show (the plot built as paintPanel builds it).
+void collectLegendEntries(const report::FigureSpec& spec, double scale,
+                          std::vector<LegendEntry>& entries) {
+    QCustomPlot plot;
+    plot.setAttribute(Qt::WA_DontShowOnScreen);
+    stylePlotFonts(&plot, scale);
+    SeriesChart chart(&plot);
+    chart.draw(seriesViewFromSpec(spec));
+    annotateFigure(chart, spec);
+    appendLegendEntries(&plot, entries);
+}
+
+// A plot that holds only a legend of `entries`, `width` wide, as many entries per row as fit
+// whole; its height is the legend's.
+std::unique_ptr<QCustomPlot> legendOnlyPlot(const std::vector<LegendEntry>& entries, int width,
+                                            double scale) {
+    auto plot = std::make_unique<QCustomPlot>();
+    plot->setAttribute(Qt::WA_DontShowOnScreen);
+    stylePlotFonts(plot.get(), scale);
+    for (const LegendEntry& e : entries) {
+        QCPAbstractPlottable* p = nullptr;
+        if (e.bars) {
+            p = new QCPBars(plot->xAxis, plot->yAxis);
+        } else {
+            QCPGraph* graph = plot->addGraph();
+            graph->setScatterStyle(e.scatter);
+            graph->setLineStyle(e.lineStyle);
+            p = graph;
+        }
+        p->setPen(e.pen);
+        p->setBrush(e.brush);
+        p->setName(e.name);
+    }
+    for (QCPAxis* axis : plot->axisRect()->axes())
+        axis->setVisible(false);
+    plot->legend->setVisible(true);
+    plot->axisRect()->insetLayout()->take(plot->legend);
+    plot->plotLayout()->take(plot->axisRect());
+    plot->plotLayout()->simplify();
+    plot->plotLayout()->addElement(0, 0, plot->legend);
+    plot->legend->setBorderPen(Qt::NoPen);
+    plot->legend->setBrush(Qt::NoBrush);
+    plot->legend->setMargins(QMargins(8, 2, 8, 0));
+    for (int columns = std::max<int>(1, static_cast<int>(entries.size())); columns >= 1;
+         --columns) {
+        plot->legend->setWrap(columns);
+        plot->legend->setFillOrder(QCPLegend::foColumnsFirst, true);
+        if (plot->legend->minimumOuterSizeHint().width() <= width)
+            break;
+    }
+    const int height = plot->legend->minimumOuterSizeHint().height();
+    plot->resize(width, height);
+    plot->setViewport(QRect(0, 0, width, height));
+    return plot;
+}
 
 // Title, subtitle and the annotated plot into `panel`.
 FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report::FigureSpec& spec,
@@ -445,8 +828,11 @@ FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report
     SeriesChart chart(plot.get());
     chart.draw(seriesViewFromSpec(spec));
     annotateFigure(chart, spec);
-    // On paper the legend goes under the plot, in rows, so it hides no data or label.
-    if (plot->axisRect()->insetLayout()->take(plot->legend)) {
+    // On paper the legend goes under the plot, in rows, so it hides no data or label; on a page
+    // of small multiples the page has one legend for all panels.
+    if (!layout.ownLegend) {
+        plot->legend->setVisible(false);
+    } else if (plot->axisRect()->insetLayout()->take(plot->legend)) {
         plot->axisRect()->insetLayout()->simplify();
         plot->plotLayout()->addElement(1, 0, plot->legend);
         plot->plotLayout()->setRowStretchFactor(1, 0.001);
@@ -465,6 +851,7 @@ FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report
         }
     }
     plot->replot(QCustomPlot::rpImmediateRefresh);
+    separateLabels(plot.get());
 
     FigureGeometry geometry;
     const QRect axisRect = plot->axisRect()->rect();
@@ -473,6 +860,11 @@ FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report
     geometry.xUpper = plot->xAxis->range().upper;
     geometry.yLower = plot->yAxis->range().lower;
     geometry.yUpper = plot->yAxis->range().upper;
+    for (int i = 0; i < plot->itemCount(); ++i)
+        if (const auto* text = qobject_cast<const QCPItemText*>(plot->item(i));
+            text && !text->text().isEmpty())
+            geometry.labels.push_back(
+                {text->text(), textRect(text).translated(plotRect.topLeft())});
 
     painter.save();
     painter.translate(plotRect.topLeft());
@@ -546,17 +938,30 @@ std::vector<FigureGeometry> paintSmallMultiples(QCPPainter& painter, const QRect
                             captionHeight);
     painter.fillRect(page, Qt::white);
     const double gap = 12;
-    const double cellW = (inner.width() - gap * (cols - 1)) / cols;
-    const double cellH = (captionBox.top() - 8 - inner.top() - gap * (rows - 1)) / rows;
     PanelLayout layout;
     layout.titlePx = 13;
     layout.subtitlePx = 9.5;
     layout.scale = 0.9;
+    layout.ownLegend = false;
+    // One legend for the page, above the caption: each panel keeps its height for the plot,
+    // and every entry is written out whole.
+    std::vector<LegendEntry> entries;
+    for (const report::FigureSpec& spec : specs)
+        collectLegendEntries(spec, layout.scale, entries);
+    const int legendWidth = static_cast<int>(std::floor(inner.width()));
+    const std::unique_ptr<QCustomPlot> legend = legendOnlyPlot(entries, legendWidth, layout.scale);
+    const double legendTop = captionBox.top() - 8 - legend->height();
+    const double cellW = (inner.width() - gap * (cols - 1)) / cols;
+    const double cellH = (legendTop - 4 - inner.top() - gap * (rows - 1)) / rows;
     for (int i = 0; i < n; ++i) {
         const QRectF cell(inner.left() + (i % cols) * (cellW + gap),
                           inner.top() + (i / cols) * (cellH + gap), cellW, cellH);
         out.push_back(paintPanel(painter, cell, specs[static_cast<std::size_t>(i)], layout));
     }
+    painter.save();
+    painter.translate(inner.left(), legendTop);
+    legend->toPainter(&painter, legendWidth, legend->height());
+    painter.restore();
     painter.setPen(QPen(QColor(0xB0, 0xB4, 0xBA), 0.8));
     painter.drawLine(QPointF(inner.left(), captionBox.top() - 4),
                      QPointF(inner.right(), captionBox.top() - 4));

@@ -69,6 +69,13 @@ struct FigureGeometry {
     QRectF axisRect;                // the plotting area
     double xLower = 0, xUpper = 0;  // plot keys (seconds since 1970, see plotKeyOfDay)
     double yLower = 0, yUpper = 0;  // counts
+    /// The plot's text marks (decision, cut bar, peak, excluded range) as laid out: their
+    /// text and box (logical page coordinates, padding included).
+    struct Label {
+        QString text;
+        QRectF box;
+    };
+    std::vector<Label> labels;
 };
 
 /// Adds the spec's annotations to a plot that `chart` has drawn from the same spec.

@@ -1,5 +1,6 @@
 #include "widgets/finding_review.h"
 
+#include "widgets/compact_sort_header.h"
 #include "widgets/finding_model.h"
 
 #include <QComboBox>
@@ -60,6 +61,7 @@ FindingReview::FindingReview(FindingModel* model, QWidget* parent)
     rebuildKindFilter();
 
     m_view->setObjectName(QStringLiteral("findingTable"));
+    m_view->setHorizontalHeader(new CompactSortHeader(m_view));
     m_view->setModel(m_proxy);
     m_view->setSortingEnabled(true);
     m_view->sortByColumn(FindingModel::RankColumn, Qt::AscendingOrder);
@@ -71,26 +73,26 @@ FindingReview::FindingReview(FindingModel* model, QWidget* parent)
     m_view->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
     // Sized from the first rows only: measuring every row of a big drop costs seconds.
     m_view->horizontalHeader()->setResizeContentsPrecision(200);
-    m_view->horizontalHeader()->setStretchLastSection(true);
+    // No stretched last column: it would claim the default section size (100 px) for "open".
+    m_view->horizontalHeader()->setStretchLastSection(false);
     m_view->setAlternatingRowColors(true);
     m_decide->setObjectName(QStringLiteral("decideFinding"));
     m_decide->setToolTip(tr("Preview the suggested decision for the selected finding (Enter)"));
     m_next->setToolTip(tr("Go to the next open finding (N)"));
     m_next->setShortcut(QKeySequence(Qt::Key_N));
 
+    // One row of filters and actions above the table, so a short dock keeps its rows for findings.
     auto* filters = new QHBoxLayout;
     filters->addWidget(m_kind, 1);
     filters->addWidget(m_severity);
     filters->addWidget(m_state);
-    auto* actions = new QHBoxLayout;
-    actions->addStretch(1);
-    actions->addWidget(m_next);
-    actions->addWidget(m_decide);
+    filters->addSpacing(8);
+    filters->addWidget(m_next);
+    filters->addWidget(m_decide);
     auto* layout = new QVBoxLayout(this);
     layout->setContentsMargins(4, 4, 4, 4);
     layout->addLayout(filters);
     layout->addWidget(m_view, 1);
-    layout->addLayout(actions);
 
     auto filterChanged = [this] {
         m_proxy->kind = m_kind->currentData().toString();

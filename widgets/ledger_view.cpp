@@ -44,11 +44,16 @@ QVariant LedgerModel::data(const QModelIndex& index, int role) const {
     const bool inEffect = m_workbench->cleaned().inEffect(e.sequence);
     if (role == SequenceRole)
         return static_cast<qulonglong>(e.sequence);
-    if (role == Qt::ToolTipRole)
-        return tr("entry %1 · hash %2 · previous %3")
-            .arg(e.sequence)
-            .arg(QString::fromStdString(e.hash.substr(0, 16)),
-                 QString::fromStdString(e.previousHash.substr(0, 16)));
+    if (role == Qt::ToolTipRole) {
+        const QString chain = tr("entry %1 · hash %2 · previous %3")
+                                  .arg(e.sequence)
+                                  .arg(QString::fromStdString(e.hash.substr(0, 16)),
+                                       QString::fromStdString(e.previousHash.substr(0, 16)));
+        // The reason in full, where a narrow dock cuts its column.
+        if (index.column() == ReasonColumn)
+            return QStringLiteral("%1\n%2").arg(QString::fromStdString(e.reason), chain);
+        return chain;
+    }
     if (role != Qt::DisplayRole)
         return {};
     switch (index.column()) {
@@ -112,6 +117,9 @@ LedgerView::LedgerView(Workbench* workbench, QWidget* parent)
       m_withdraw(new QPushButton(tr("Withdraw…"), this)) {
     m_status->setObjectName(QStringLiteral("chainStatusOk"));
     m_status->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    // Wraps rather than widening the dock; the ledger's full path is in the tooltip.
+    m_status->setWordWrap(true);
+    m_status->setSizePolicy(QSizePolicy::Ignored, QSizePolicy::Preferred);
     m_view->setObjectName(QStringLiteral("ledgerTable"));
     m_view->setModel(m_model);
     m_view->setSelectionBehavior(QAbstractItemView::SelectRows);
@@ -166,8 +174,13 @@ void LedgerView::updateStatus() {
     }
     const bool ok = m_workbench->chainOk();
     QString text = (ok ? QStringLiteral("✔ ") : QStringLiteral("✖ ")) + m_workbench->chainStatus();
-    if (!m_workbench->ledgerPath().isEmpty())
-        text += QStringLiteral(" · ") + QFileInfo(m_workbench->ledgerPath()).fileName();
+    if (!m_workbench->ledgerPath().isEmpty()) {
+        // A drop's own ledger is named by its SHA-256: the first and last digits say enough.
+        QString name = QFileInfo(m_workbench->ledgerPath()).fileName();
+        if (name.size() > 40)
+            name = name.left(12) + QStringLiteral("…") + name.right(14);
+        text += QStringLiteral(" · ") + name;
+    }
     m_status->setText(text);
     m_status->setToolTip(m_workbench->ledgerPath());
     m_status->setObjectName(ok ? QStringLiteral("chainStatusOk")

@@ -1,5 +1,6 @@
 #include "widgets/region_browser.h"
 
+#include "widgets/compact_sort_header.h"
 #include "widgets/region_model.h"
 
 #include <QHeaderView>
@@ -28,6 +29,12 @@ RegionBrowser::RegionBrowser(RegionModel* model, QWidget* parent)
     m_search->setObjectName(QStringLiteral("regionSearch"));
 
     m_view->setObjectName(QStringLiteral("regionTree"));
+    // The short count columns keep no room for a sort arrow they do not show: the name gets it.
+    auto* header = new CompactSortHeader(m_view);
+    header->setSectionsMovable(true);  // as QTreeView's own header
+    header->setHighlightSections(false);
+    header->setDefaultAlignment(Qt::AlignLeft | Qt::AlignVCenter);
+    m_view->setHeader(header);
     m_view->setModel(m_proxy);
     m_view->setSortingEnabled(true);
     m_view->sortByColumn(-1, Qt::AscendingOrder);  // register order until the user sorts

@@ -76,13 +76,41 @@ SeriesChart::SeriesChart(QCustomPlot* plot) : m_plot(plot) {
                      [this](const QCPRange&) { rescaleValueAxis(); });
 }
 
+void SeriesChart::useLiveLayer() {
+    if (m_liveLayer)
+        return;
+    QCPLayer* main = m_plot->layer(QStringLiteral("main"));
+    m_plot->addLayer(QStringLiteral("seriesBars"), main, QCustomPlot::limBelow);
+    m_plot->addLayer(QStringLiteral("seriesLive"), main, QCustomPlot::limBelow);
+    m_barsLayer = m_plot->layer(QStringLiteral("seriesBars"));
+    m_liveLayer = m_plot->layer(QStringLiteral("seriesLive"));
+    m_liveLayer->setMode(QCPLayer::lmBuffered);
+    ++m_fullReplotRevision;
+}
+
+void SeriesChart::orderLiveLayer() {
+    if (!m_liveLayer)
+        return;
+    // Within the layer, in this order: the window's shading and edges, the band, the curve,
+    // the preview (setLayer appends).
+    for (QCPLayerable* layerable :
+         {static_cast<QCPLayerable*>(m_windowRect), static_cast<QCPLayerable*>(m_windowStart),
+          static_cast<QCPLayerable*>(m_windowEnd), static_cast<QCPLayerable*>(m_fitLow),
+          static_cast<QCPLayerable*>(m_fitHigh), static_cast<QCPLayerable*>(m_fitMid),
+          static_cast<QCPLayerable*>(m_preview)})
+        if (layerable)
+            layerable->setLayer(m_liveLayer);
+}
+
 void SeriesChart::draw(const SeriesView& view) {
     m_view = view;
     m_plot->clearPlottables();
     m_plot->clearItems();
+    ++m_fullReplotRevision;
     m_clipLabels.clear();
+    m_clippedDays.clear();
     m_preview = nullptr;
-    m_fitGraphs.clear();
+    m_fitLow = m_fitHigh = m_fitMid = nullptr;
     m_windowRect = nullptr;
     m_windowStart = nullptr;
     m_windowEnd = nullptr;
@@ -98,6 +126,8 @@ void SeriesChart::draw(const SeriesView& view) {
     bars->setBrush(plot_style::rawBarBrush());
     bars->setPen(plot_style::rawBarPen());
     bars->setName(QObject::tr("Raw, as reported"));
+    if (m_barsLayer)
+        bars->setLayer(m_barsLayer);
     QVector<double> rawKeys, rawValues;
     for (int d = 0; d < m_view.days; ++d) {
         if (d >= static_cast<int>(m_view.raw.size()) || std::isnan(m_view.raw[d]))
@@ -171,22 +201,48 @@ void SeriesChart::drawFit() {
         high->setBrush(plot_style::fitBandBrush());
         high->setChannelFillGraph(low);
         low->removeFromLegend();
-        m_fitGraphs.push_back(low);
-        m_fitGraphs.push_back(high);
+        m_fitLow = low;
+        m_fitHigh = high;
     }
-    QCPGraph* mid = addLine(
-        m_plot, m_plot->yAxis, keys, toVector(m_view.fit->mid, m_view.days), plot_style::fitPen(),
-        m_view.fit->label.isEmpty() ? QObject::tr("Fitted") : m_view.fit->label);
-    mid->setAdaptiveSampling(false);
-    m_fitGraphs.push_back(mid);
+    m_fitMid = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->mid, m_view.days),
+                       plot_style::fitPen(),
+                       m_view.fit->label.isEmpty() ? QObject::tr("Fitted") : m_view.fit->label);
+    m_fitMid->setAdaptiveSampling(false);
+    orderLiveLayer();
+}
+
+void SeriesChart::removeFitGraphs() {
+    for (QCPGraph* graph : {m_fitLow, m_fitHigh, m_fitMid})
+        if (graph)
+            m_plot->removeGraph(graph);
+    m_fitLow = m_fitHigh = m_fitMid = nullptr;
 }
 
 void SeriesChart::setFit(const std::optional<FittedCurve>& fit) {
-    for (QCPGraph* graph : m_fitGraphs)
-        m_plot->removeGraph(graph);
-    m_fitGraphs.clear();
+    // The same kind of curve again (a refit while dragging): new data in the same graphs, so
+    // the legend stays as it is and the live layer alone can be redrawn.
+    const bool withBand = fit && !fit->low.empty() && !fit->high.empty();
+    const bool sameLegend =
+        fit && !fit->mid.empty() && m_fitMid &&
+        m_fitMid->name() == (fit->label.isEmpty() ? QObject::tr("Fitted") : fit->label) &&
+        withBand == (m_fitHigh != nullptr) &&
+        (!withBand || m_fitHigh->name() ==
+                          (fit->bandLabel.isEmpty() ? QObject::tr("Fit band") : fit->bandLabel));
     m_view.fit = fit;
-    drawFit();
+    if (sameLegend) {
+        const QVector<double> keys = keysOf(m_view);
+        m_fitMid->setData(keys, toVector(fit->mid, m_view.days), true);
+        if (withBand) {
+            m_fitLow->setData(keys, toVector(fit->low, m_view.days), true);
+            m_fitHigh->setData(keys, toVector(fit->high, m_view.days), true);
+        }
+    } else {
+        const bool hadGraphs = m_fitMid != nullptr;
+        removeFitGraphs();
+        drawFit();
+        if (hadGraphs || m_fitMid)
+            ++m_fullReplotRevision;  // legend entries came or went
+    }
     rescaleValueAxis();
 }
 
@@ -237,6 +293,7 @@ void SeriesChart::setWindow(std::optional<DayIndexRange> window, const QString& 
             edge->setPen(plot_style::windowEdgePen());
             edge->setSelectable(false);
         }
+        orderLiveLayer();
     }
     const double start = plotKeyOfDay(m_view.dayAt(window->first)) - kSecondsPerDay * 0.5;
     const double end = plotKeyOfDay(m_view.dayAt(window->last)) + kSecondsPerDay * 0.5;
@@ -250,17 +307,27 @@ void SeriesChart::setWindow(std::optional<DayIndexRange> window, const QString& 
 }
 
 void SeriesChart::setPreview(const std::vector<double>& values, const QString& label) {
-    if (m_preview) {
+    const QString name = label.isEmpty() ? QObject::tr("Preview") : label;
+    // The same preview again with other values (its window dragged): new data in the same bars,
+    // the legend unchanged.
+    if (m_preview && (values.empty() || m_preview->name() != name)) {
         m_plot->removePlottable(m_preview);
         m_preview = nullptr;
+        ++m_fullReplotRevision;
     }
-    if (values.empty())
+    if (values.empty()) {
+        rescaleValueAxis();
         return;
-    m_preview = new QCPBars(m_plot->xAxis, m_plot->yAxis);
-    m_preview->setWidth(kSecondsPerDay * 0.5);
-    m_preview->setBrush(plot_style::previewBrush());
-    m_preview->setPen(plot_style::previewPen());
-    m_preview->setName(label.isEmpty() ? QObject::tr("Preview") : label);
+    }
+    if (!m_preview) {
+        m_preview = new QCPBars(m_plot->xAxis, m_plot->yAxis);
+        m_preview->setWidth(kSecondsPerDay * 0.5);
+        m_preview->setBrush(plot_style::previewBrush());
+        m_preview->setPen(plot_style::previewPen());
+        m_preview->setName(name);
+        orderLiveLayer();
+        ++m_fullReplotRevision;
+    }
     QVector<double> keys, shown;
     for (int d = 0; d < m_view.days && d < static_cast<int>(values.size()); ++d) {
         if (std::isnan(values[d]))
@@ -317,12 +384,16 @@ void SeriesChart::rescaleValueAxis() {
         for (auto it = m_preview->data()->constBegin(); it != m_preview->data()->constEnd(); ++it)
             if (it->key >= x.lower && it->key <= x.upper)
                 top = std::max(top, it->value);
+    const QCPRange before = m_plot->yAxis->range();
+    const QCPRange before2 = m_plot->yAxis2->range();
     m_plot->yAxis->setRange(0, top > 0 ? top * 1.1 : 10);
     labelClippedBars(first, last, m_plot->yAxis->range().upper);
     if (m_plot->yAxis2->visible()) {
         const double top2 = maxIn(m_view.second, first, last);
         m_plot->yAxis2->setRange(0, top2 > 0 ? top2 * 1.1 : 10);
     }
+    if (m_plot->yAxis->range() != before || m_plot->yAxis2->range() != before2)
+        ++m_fullReplotRevision;
 }
 
 void SeriesChart::setScaleToCleaned(bool on) {
@@ -331,14 +402,19 @@ void SeriesChart::setScaleToCleaned(bool on) {
 }
 
 void SeriesChart::labelClippedBars(int first, int last, double top) {
+    std::vector<int> clipped;
+    if (m_scaleToCleaned)
+        for (int d = first; d <= last && d < static_cast<int>(m_view.raw.size()); ++d)
+            if (!std::isnan(m_view.raw[d]) && m_view.raw[d] > top)
+                clipped.push_back(d);
+    if (clipped == m_clippedDays)
+        return;  // the same labels (the raw values of the same days)
     for (QCPAbstractItem* item : m_clipLabels)
         m_plot->removeItem(item);
     m_clipLabels.clear();
-    if (!m_scaleToCleaned)
-        return;
-    for (int d = first; d <= last && d < static_cast<int>(m_view.raw.size()); ++d) {
-        if (std::isnan(m_view.raw[d]) || m_view.raw[d] <= top)
-            continue;
+    m_clippedDays = clipped;
+    ++m_fullReplotRevision;
+    for (const int d : clipped) {
         auto* label = new QCPItemText(m_plot);
         label->setClipToAxisRect(true);
         label->position->setTypeX(QCPItemPosition::ptPlotCoords);

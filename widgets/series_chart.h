@@ -8,6 +8,14 @@
 // line over its band; findings are marks in a strip along the time axis; the
 // second measure, when chosen, is a dotted line on the right axis. Overlays
 // (a shaded window, a decision preview) are drawn on top and replaced in place.
+//
+// On screen (useLiveLayer()) what moves while a window edge is dragged — the window, the
+// fitted curve and its band, the decision preview — sits on a layer of its own with its own
+// paint buffer, above the raw bars and below the lines, so that one step of a drag redraws
+// that layer alone (QCPLayer::replot()). This holds only while nothing else changed:
+// fullReplotRevision() counts the changes that need every layer redrawn (the value axis
+// rescaled, a legend entry added or removed, the labels of clipped bars). Figures leave the
+// live layer off and keep one layer order.
 
 #include "widgets/series_view.h"
 
@@ -22,6 +30,7 @@ class QCPBars;
 class QCPGraph;
 class QCPItemRect;
 class QCPItemStraightLine;
+class QCPLayer;
 
 namespace siftwave::widgets {
 
@@ -66,18 +75,34 @@ public:
 
     QCustomPlot* plot() const { return m_plot; }
 
+    /// Puts the raw bars on a layer below the live one and the window, the fit and the preview
+    /// on the live layer (buffered). Call once, before draw(); off by default.
+    void useLiveLayer();
+    /// The layer of what moves while dragging; nullptr unless useLiveLayer() was called.
+    QCPLayer* liveLayer() const { return m_liveLayer; }
+    /// Grows whenever something outside the live layer changed since the last draw.
+    int fullReplotRevision() const { return m_fullReplotRevision; }
+
 private:
     void drawFindings();
     void drawFit();
     void rescaleValueAxis();
+    void orderLiveLayer();
+    void removeFitGraphs();
 
     QCustomPlot* m_plot;
     SeriesView m_view;
     QCPBars* m_preview = nullptr;
     bool m_scaleToCleaned = false;
     std::vector<QCPAbstractItem*> m_clipLabels;  // values of raw bars above the axis
+    std::vector<int> m_clippedDays;              // the days m_clipLabels label
     void labelClippedBars(int first, int last, double top);
-    std::vector<QCPGraph*> m_fitGraphs;
+    QCPGraph* m_fitLow = nullptr;  // the band's lower edge (filled up to m_fitHigh)
+    QCPGraph* m_fitHigh = nullptr;
+    QCPGraph* m_fitMid = nullptr;
+    QCPLayer* m_barsLayer = nullptr;
+    QCPLayer* m_liveLayer = nullptr;
+    int m_fullReplotRevision = 0;
     QCPItemRect* m_windowRect = nullptr;
     QCPItemStraightLine* m_windowStart = nullptr;
     QCPItemStraightLine* m_windowEnd = nullptr;

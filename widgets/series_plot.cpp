@@ -4,6 +4,7 @@
 #include "widgets/series_chart.h"
 
 #include <QComboBox>
+#include <QElapsedTimer>
 #include <QHBoxLayout>
 #include <QLabel>
 #include <QMenu>
@@ -31,7 +32,14 @@ SeriesPlot::SeriesPlot(QWidget* parent)
       m_reset(new QToolButton(this)),
       m_plot(new QCustomPlot(this)),
       m_chart(std::make_unique<SeriesChart>(m_plot)) {
+    m_chart->useLiveLayer();
     m_chart->setScaleToCleaned(true);
+    // Whatever asked for it, a full replot brings every layer up to date.
+    connect(m_plot, &QCustomPlot::afterReplot, this, [this] {
+        m_paintedRevision = m_chart->fullReplotRevision();
+        m_lastRepaintMs = m_plot->replotTime();
+        m_lastRepaintLiveOnly = false;
+    });
     m_title->setObjectName(QStringLiteral("seriesTitle"));
     m_title->setTextFormat(Qt::RichText);
     m_measure->setObjectName(QStringLiteral("measureChoice"));
@@ -209,7 +217,28 @@ void SeriesPlot::setEditableWindow(std::optional<DayIndexRange> window) {
     m_chart->setWindow(window);
     // Queued: a refit while dragging sets the window again, and one repaint per event-loop
     // turn is enough (a full replot costs more than the fit itself).
-    m_plot->replot(QCustomPlot::rpQueuedReplot);
+    repaintLater();
+}
+
+void SeriesPlot::repaintLater() {
+    if (m_repaintQueued)
+        return;
+    m_repaintQueued = true;
+    QMetaObject::invokeMethod(
+        this,
+        [this] {
+            m_repaintQueued = false;
+            if (m_chart->fullReplotRevision() != m_paintedRevision) {
+                m_plot->replot();  // afterReplot records it
+                return;
+            }
+            QElapsedTimer clock;
+            clock.start();
+            m_chart->liveLayer()->replot();  // its own buffer, then one widget update
+            m_lastRepaintMs = static_cast<double>(clock.nsecsElapsed()) * 1e-6;
+            m_lastRepaintLiveOnly = true;
+        },
+        Qt::QueuedConnection);
 }
 
 std::optional<DayIndexRange> SeriesPlot::editableWindow() const {
@@ -218,12 +247,12 @@ std::optional<DayIndexRange> SeriesPlot::editableWindow() const {
 
 void SeriesPlot::setFit(const std::optional<FittedCurve>& fit) {
     m_chart->setFit(fit);
-    m_plot->replot(QCustomPlot::rpQueuedReplot);
+    repaintLater();
 }
 
 void SeriesPlot::setPreview(const std::vector<double>& values, const QString& label) {
     m_chart->setPreview(values, label);
-    m_plot->replot(QCustomPlot::rpQueuedReplot);
+    repaintLater();
 }
 
 void SeriesPlot::resetView() {
@@ -320,7 +349,7 @@ bool SeriesPlot::eventFilter(QObject* watched, QEvent* event) {
                     window.last = std::max(day, window.first);
                 if (window != *editableWindow()) {
                     m_chart->setWindow(window);
-                    m_plot->replot(QCustomPlot::rpQueuedReplot);
+                    repaintLater();
                     Q_EMIT windowChanging(window);
                 }
                 return true;

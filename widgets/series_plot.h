@@ -9,6 +9,10 @@
 // are chosen in the bar above the plot. A day's bar can be picked for a
 // decision: Shift+click, or the context menu's "Redistribute this day…"
 // (redistributeDayRequested()); the owner decides what that prepares.
+//
+// Repaints while dragging are queued (one per event-loop turn) and redraw only the chart's
+// live layer (the window, the fit and its band, the preview) when nothing else changed; see
+// SeriesChart::useLiveLayer().
 
 #include "widgets/series_view.h"
 
@@ -77,6 +81,10 @@ public:
     QString emptyNote() const;
     SeriesChart* chart() const { return m_chart.get(); }
     QCustomPlot* customPlot() const { return m_plot; }
+    /// How long the last repaint of the plot took (milliseconds), and whether it redrew the live
+    /// layer alone (QT_LOGGING_RULES="siftwave.refit.debug=true" prints both).
+    double lastRepaintMs() const { return m_lastRepaintMs; }
+    bool lastRepaintWasLiveOnly() const { return m_lastRepaintLiveOnly; }
 
 Q_SIGNALS:
     void measureChosen(int measure);
@@ -97,6 +105,8 @@ private:
     void updateTitle();
     void showEmptyNote();
     void showHover(QMouseEvent* event);
+    /// Queues one repaint: the live layer alone when nothing outside it changed, else all.
+    void repaintLater();
 
     QLabel* m_title;
     QComboBox* m_measure;
@@ -110,6 +120,10 @@ private:
     bool m_dayPicking = true;
     Edge m_dragging = Edge::None;
     QPoint m_pressPos;
+    bool m_repaintQueued = false;
+    int m_paintedRevision = -1;  // the chart's fullReplotRevision() at the last full replot
+    double m_lastRepaintMs = 0;
+    bool m_lastRepaintLiveOnly = false;
 };
 
 }  // namespace siftwave::widgets

@@ -103,7 +103,10 @@ FittedCurve curveFromFit(const fit::FitResult& fit, int days) {
     if (withBand) {
         curve.low.assign(days, kNaN);
         curve.high.assign(days, kNaN);
-        curve.bandLabel = QCoreApplication::translate("SeriesView", "95% interval of the fit");
+        // The term of the exported figures ("95% confidence band of the fitted curve",
+        // report/figure_spec.cpp), shortened for the legend the way their caption shortens it.
+        curve.bandLabel =
+            QCoreApplication::translate("SeriesView", "95% confidence band of the curve");
     }
     for (std::size_t i = 0; i < band->fitted.size(); ++i) {
         const int day = band->first + static_cast<int>(i);
@@ -164,7 +167,7 @@ QString hoverText(const SeriesView& view, int day) {
     if (view.fit && has(view.fit->mid, day)) {
         QString fitted = tr("Fitted: %1").arg(number(view.fit->mid[day], 1));
         if (has(view.fit->low, day) && has(view.fit->high, day))
-            fitted += QStringLiteral(" (%1 – %2)")
+            fitted += tr(", 95% confidence band %1 – %2")
                           .arg(number(view.fit->low[day], 1), number(view.fit->high[day], 1));
         lines << fitted;
     }

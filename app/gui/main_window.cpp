@@ -65,6 +65,11 @@ namespace siftwave::gui {
 // QT_LOGGING_RULES="siftwave.refit.debug=true" prints how long each refit takes.
 Q_LOGGING_CATEGORY(lcRefit, "siftwave.refit", QtWarningMsg)
 
+// The version of the dock arrangement saved in the settings: a layout saved under another
+// (older) version is not restored, so a new default arrangement reaches every user once.
+// 1: Findings moved under the plot, beside the Ledger.
+constexpr int kDockLayoutVersion = 1;
+
 using widgets::BackgroundTask;
 
 MainWindow::MainWindow(Options options, QWidget* parent)
@@ -164,7 +169,7 @@ MainWindow::MainWindow(Options options, QWidget* parent)
     resize(1360, 860);
     if (m_options.rememberLayout) {
         restoreGeometry(settings::windowGeometry());
-        m_layoutRestored = restoreState(settings::windowState());
+        m_layoutRestored = restoreState(settings::windowState(), kDockLayoutVersion);
     }
     onDropChanged();
 }
@@ -194,7 +199,6 @@ void MainWindow::buildDocks() {
     auto* findings = new QDockWidget(tr("Findings"), this);
     findings->setObjectName(QStringLiteral("findingsDock"));
     findings->setWidget(m_findings);
-    addDockWidget(Qt::LeftDockWidgetArea, findings);
 
     m_decisionPane->setObjectName(QStringLiteral("decisionPane"));
     auto* decision = new QDockWidget(tr("Decision"), this);
@@ -206,7 +210,10 @@ void MainWindow::buildDocks() {
     auto* ledger = new QDockWidget(tr("Ledger"), this);
     ledger->setObjectName(QStringLiteral("ledgerDock"));
     ledger->setWidget(m_ledgerView);
-    addDockWidget(Qt::BottomDockWidgetArea, ledger);
+    // The findings table has seven columns (a day range among them): it takes the bottom's
+    // left part, where all of them fit at the default size; the ledger and its tabs the rest.
+    addDockWidget(Qt::BottomDockWidgetArea, findings);
+    splitDockWidget(findings, ledger, Qt::Horizontal);
     tabifyDockWidget(ledger, release);
 
     m_batchView->setObjectName(QStringLiteral("batchFitView"));
@@ -676,9 +683,10 @@ void MainWindow::refit(bool compare) {
     clock.start();
     refitNow(compare);
     m_lastRefitMs = static_cast<double>(clock.nsecsElapsed()) * 1e-6;
-    qCDebug(lcRefit, "refit %s: %.2f ms (the plot's last repaint took %.1f ms)",
+    qCDebug(lcRefit, "refit %s: %.2f ms (the plot's last repaint, %s, took %.1f ms)",
             compare ? "with comparison" : "one model", m_lastRefitMs,
-            m_plot->customPlot()->replotTime());
+            m_plot->lastRepaintWasLiveOnly() ? "its live layer only" : "every layer",
+            m_plot->lastRepaintMs());
 }
 
 void MainWindow::refitNow(bool compare) {
@@ -823,15 +831,18 @@ void MainWindow::showEvent(QShowEvent* event) {
     // The first arrangement (docks only size properly once the window has its size).
     auto* regions = findChild<QDockWidget*>(QStringLiteral("regionsDock"));
     auto* fit = findChild<QDockWidget*>(QStringLiteral("fitDock"));
-    auto* release = findChild<QDockWidget*>(QStringLiteral("releaseDock"));
+    auto* findings = findChild<QDockWidget*>(QStringLiteral("findingsDock"));
+    auto* ledger = findChild<QDockWidget*>(QStringLiteral("ledgerDock"));
     resizeDocks({regions, fit}, {width() * 27 / 100, width() * 28 / 100}, Qt::Horizontal);
-    resizeDocks({release}, {height() * 19 / 100}, Qt::Vertical);
+    resizeDocks({findings, ledger}, {width() * 48 / 100, width() * 52 / 100}, Qt::Horizontal);
+    resizeDocks({findings}, {height() * 26 / 100}, Qt::Vertical);
+    resizeDocks({fit}, {height() * 56 / 100}, Qt::Vertical);  // the decision pane below it
 }
 
 void MainWindow::closeEvent(QCloseEvent* event) {
     if (m_options.rememberLayout) {
         settings::setWindowGeometry(saveGeometry());
-        settings::setWindowState(saveState());
+        settings::setWindowState(saveState(kDockLayoutVersion));
     }
     QMainWindow::closeEvent(event);
 }

@@ -138,6 +138,34 @@ bool isInk(QRgb c) {
     return qRed(c) < 100 && qGreen(c) < 100 && qBlue(c) < 100;
 }
 
+// The raw bars' grey (fill #C9CDD3, edge #8C929B, plot_style.h): a little bluer than red,
+// between ink and background; the ink of labels, arrows and brackets is neutral (#222222).
+bool isBarGrey(QRgb c) {
+    const int blueOverRed = qBlue(c) - qRed(c);
+    return blueOverRed >= 5 && blueOverRed <= 30 && qGray(c) > 110 && qGray(c) < 225;
+}
+
+// A figure exported as a 300 dpi half-A4 PNG, with the linear maps of its axes into the image.
+struct PixelFigure {
+    QImage image;
+    widgets::FigureGeometry geometry;
+    double px = 300.0 / 96.0;  // image pixels per logical pixel
+
+    int xOfDay(const QDate& day) const {
+        const double key = QDateTime(day, QTime(0, 0), Qt::UTC).toSecsSinceEpoch();
+        const widgets::FigureGeometry& g = geometry;
+        return static_cast<int>(
+            std::lround(px * (g.axisRect.left() +
+                              (key - g.xLower) / (g.xUpper - g.xLower) * g.axisRect.width())));
+    }
+    int yOfValue(double value) const {
+        const widgets::FigureGeometry& g = geometry;
+        return static_cast<int>(
+            std::lround(px * (g.axisRect.bottom() -
+                              (value - g.yLower) / (g.yUpper - g.yLower) * g.axisRect.height())));
+    }
+};
+
 }  // namespace
 
 class FigureExportTest : public QObject {
@@ -275,63 +303,247 @@ private Q_SLOTS:
             qPrintable(info));
     }
 
-    void theRedistributedSpikeIsMarkedWhereTheDataSay() {
-        const QDate dumpDay(2026, 8, 24);
-        for (const bool withLedger : {true, false}) {
-            const Fixture f = sampleWithDecisions(withLedger);
-            const report::FigureSpec spec = specOf(f, "1301", false);
-            const int dumpIndex = *Date::fromIso("2026-08-24") - spec.firstDay;
-            const double raw = spec.raw[static_cast<std::size_t>(dumpIndex)];
-            QCOMPARE(raw, 2643.0);  // samples/manifest.json, P06 "reported"
-            widgets::FigureExportOptions options;
-            options.dpi = 300;
-            const double px = 300.0 / 96.0;  // image pixels per logical pixel
+    // After the redistribution the axis follows the cleaned series: the dump bar (2,643) is cut
+    // below the decision's label, says its true value beside it, and the arrow ends on its
+    // visible top, inside the plot.
+    void theRedistributedSpikeIsCutAndTheArrowEndsOnItsVisibleTop() {
+        const Fixture f = sampleWithDecisions(true);
+        const report::FigureSpec spec = specOf(f, "1301", false);
+        const int dumpIndex = *Date::fromIso("2026-08-24") - spec.firstDay;
+        const double raw = spec.raw[static_cast<std::size_t>(dumpIndex)];
+        QCOMPARE(raw, 2643.0);  // samples/manifest.json, P06 "reported"
+        const PixelFigure fig = exportForPixels(spec, QStringLiteral("spike-cut.png"));
+        QVERIFY(!fig.image.isNull());
+        const widgets::FigureGeometry& g = fig.geometry;
+
+        // The axis is not scaled to the raw spike: 2,643 lies above the plot's top.
+        QVERIFY2(g.yUpper < raw / 2, qPrintable(QString::number(g.yUpper)));
+        const int x = fig.xOfDay(QDate(2026, 8, 24));
+        const int axisTop = static_cast<int>(std::ceil(fig.px * g.axisRect.top()));
+        const int axisBottom = static_cast<int>(std::floor(fig.px * g.axisRect.bottom()));
+        QVERIFY(fig.yOfValue(raw) < axisTop);
+
+        // The bar's visible top: the first of 8 bar-grey pixels in a row, from the top down.
+        int barTop = -1;
+        for (int y = axisTop; y < axisBottom - 8 && barTop < 0; ++y) {
+            bool run = true;
+            for (int k = 0; k < 8 && run; ++k)
+                run = isBarGrey(fig.image.pixel(x, y + k));
+            if (run)
+                barTop = y;
+        }
+        QVERIFY2(barTop > 0, "no bar in the dump day's column");
+        // Inside the plot, with room above it for the arrow, and above every cleaned value:
+        // the cut bar still stands out from the wave.
+        double highestCleaned = 0;
+        for (double v : spec.cleaned)
+            if (!std::isnan(v))
+                highestCleaned = std::max(highestCleaned, v);
+        QVERIFY2(barTop > axisTop + 40 * fig.px,
+                 qPrintable(QStringLiteral("%1 %2").arg(barTop).arg(axisTop)));
+        QVERIFY2(barTop < fig.yOfValue(highestCleaned),
+                 qPrintable(QStringLiteral("%1 %2").arg(barTop).arg(fig.yOfValue(highestCleaned))));
+        // Drawn as cut: a white gap across the bar just below its top, bar grey again below it.
+        int gap = -1;
+        for (int y = barTop; y < barTop + 16 * fig.px && gap < 0; ++y)
+            if (qGray(fig.image.pixel(x, y)) > 235)
+                gap = y;
+        QVERIFY2(gap > barTop, "no cut mark across the bar");
+        QVERIFY(isBarGrey(fig.image.pixel(x, static_cast<int>(barTop + 20 * fig.px))));
+
+        // The arrow: ink in the column above the bar (from the label down), its head ending on
+        // the bar's visible top. An arrow aimed at 2,643 would run up, off the plot, instead.
+        int inkRows = 0, lowest = -1;
+        for (int y = axisTop; y < barTop; ++y)
+            for (int dx = -2; dx <= 2; ++dx)
+                if (isInk(fig.image.pixel(x + dx, y))) {
+                    ++inkRows;
+                    lowest = std::max(lowest, y);
+                    break;
+                }
+        QVERIFY2(inkRows > 40 * fig.px, qPrintable(QString::number(inkRows)));
+        QVERIFY2(barTop - lowest >= 0 && barTop - lowest <= 10,
+                 qPrintable(QStringLiteral("%1 %2").arg(lowest).arg(barTop)));
+        // The true value beside the bar top: ink of the label's text right of the bar.
+        int labelInk = 0;
+        for (int y = static_cast<int>(barTop - 8 * fig.px); y < barTop + 8 * fig.px; ++y)
+            for (int dx = static_cast<int>(10 * fig.px); dx < 100 * fig.px; ++dx)
+                labelInk += isInk(fig.image.pixel(x + dx, y)) ? 1 : 0;
+        QVERIFY2(labelInk > 200, qPrintable(QString::number(labelInk)));
+
+        const QString svg = m_dir.filePath(QStringLiteral("spike-cut.svg"));
+        QVERIFY(widgets::exportFigures(svg, {spec}, widgets::FigureExportOptions{}).ok());
+        const QString text = svgText(svg);
+        QVERIFY2(text.contains(QStringLiteral("raw 2,643, bar cut")), qPrintable(text));
+        QVERIFY(text.contains(QStringLiteral("#1 2,444 moved to earlier days")));
+    }
+
+    // Without a ledger nothing is cut: the spike sets the scale, reaches its count, no arrow.
+    void withoutALedgerTheSpikeSetsTheScaleAndHasNoArrow() {
+        const Fixture f = sampleWithDecisions(false);
+        const report::FigureSpec spec = specOf(f, "1301", false);
+        const int dumpIndex = *Date::fromIso("2026-08-24") - spec.firstDay;
+        const double raw = spec.raw[static_cast<std::size_t>(dumpIndex)];
+        QCOMPARE(raw, 2643.0);
+        const PixelFigure fig = exportForPixels(spec, QStringLiteral("spike-raw.png"));
+        QVERIFY(!fig.image.isNull());
+        QVERIFY2(fig.geometry.yUpper > raw, qPrintable(QString::number(fig.geometry.yUpper)));
+        const int x = fig.xOfDay(QDate(2026, 8, 24));
+        const int yTop = fig.yOfValue(raw);
+        // The bar (with the cleaned line, equal to the raw count, up its middle) reaches the
+        // count, with background beside and above it (the neighbouring days hold about 200).
+        QVERIFY2(qGray(fig.image.pixel(x, yTop + 10)) < 215,
+                 qPrintable(QString::number(qGray(fig.image.pixel(x, yTop + 10)))));
+        QVERIFY2(qGray(fig.image.pixel(x + 14, yTop - 14)) > 220,
+                 qPrintable(QString::number(qGray(fig.image.pixel(x + 14, yTop - 14)))));
+        QVERIFY(qGray(fig.image.pixel(x, yTop - 14)) > 220);
+        int inkRows = 0;
+        for (int y = yTop - 150; y < yTop + 2; ++y)
+            for (int dx = -2; dx <= 2; ++dx)
+                if (isInk(fig.image.pixel(x + dx, y))) {
+                    ++inkRows;
+                    break;
+                }
+        QCOMPARE(inkRows, 0);
+        const QString svg = m_dir.filePath(QStringLiteral("spike-raw.svg"));
+        QVERIFY(widgets::exportFigures(svg, {spec}, widgets::FigureExportOptions{}).ok());
+        QVERIFY(!svgText(svg).contains(QStringLiteral("bar cut")));
+    }
+
+    // The value axis of a figure after a ledger decision is set by the cleaned series (and the
+    // fit and its band), not by the raw bar the decision lowered.
+    void theValueAxisFollowsTheCleanedSeries() {
+        const Fixture f = sampleWithDecisions(true);
+        const auto upperOf = [this](const report::FigureSpec& spec, const QString& name) {
             std::vector<widgets::FigureGeometry> geometry;
-            const QString path = m_dir.filePath(QStringLiteral("spike-%1.png").arg(withLedger));
-            QVERIFY(widgets::exportFigures(path, {spec}, options, &geometry).ok());
-            QCOMPARE(geometry.size(), std::size_t(1));
-            const widgets::FigureGeometry& g = geometry.front();
-            const QImage image(path);
+            const QString path = m_dir.filePath(name);
+            if (!widgets::exportFigures(path, {spec}, widgets::FigureExportOptions{}, &geometry)
+                     .ok() ||
+                geometry.size() != 1)
+                return -1.0;
+            return geometry.front().yUpper;
+        };
+        const auto highest = [](const std::vector<double>& values) {
+            double best = 0;
+            for (double v : values)
+                if (std::isfinite(v))
+                    best = std::max(best, v);
+            return best;
+        };
+        report::FigureSpec spec = specOf(f, "1301", false);
+        const double shown = std::max(highest(spec.cleaned), highest(spec.smoothed));
+        const double upper = upperOf(spec, QStringLiteral("axis-cleaned.svg"));
+        // Every cleaned and smoothed value is on the plot, with room above for the labels,
+        // and the axis stops far below the raw dump (2,643, 5.8 times the highest cleaned day).
+        QVERIFY2(upper >= shown * 1.1 && upper <= shown * 1.7,
+                 qPrintable(QStringLiteral("%1 %2").arg(upper).arg(shown)));
+        QVERIFY(highest(spec.raw) > 2 * upper);
 
-            // Where the day and the count fall: linear axes over the plotting area.
-            const double key = QDateTime(dumpDay, QTime(0, 0), Qt::UTC).toSecsSinceEpoch();
-            const int x = static_cast<int>(
-                std::lround(px * (g.axisRect.left() +
-                                  (key - g.xLower) / (g.xUpper - g.xLower) * g.axisRect.width())));
-            const int yTop = static_cast<int>(
-                std::lround(px * (g.axisRect.bottom() -
-                                  (raw - g.yLower) / (g.yUpper - g.yLower) * g.axisRect.height())));
+        // A cleaned series half as high again (the same raw bars) lifts the axis by the same
+        // factor: it follows the cleaned series.
+        report::FigureSpec higher = spec;
+        for (std::vector<double>* series : {&higher.cleaned, &higher.smoothed})
+            for (double& v : *series)
+                v *= 1.5;
+        const double higherUpper = upperOf(higher, QStringLiteral("axis-cleaned-higher.svg"));
+        QVERIFY2(std::abs(higherUpper / upper - 1.5) < 1e-9,
+                 qPrintable(QStringLiteral("%1 %2").arg(higherUpper).arg(upper)));
 
-            // The raw bar reaches the count: bar grey just below its top (with the ledger; without
-            // it the cleaned line, equal to the raw count, runs up the bar), and background
-            // beside it above (the neighbouring days hold about 200 cases, far lower).
-            const int inBar = qGray(image.pixel(x, yTop + 10));
-            if (withLedger)
-                QVERIFY2(inBar > 120 && inBar < 215, qPrintable(QString::number(inBar)));
-            else
-                QVERIFY2(inBar < 215, qPrintable(QString::number(inBar)));
-            QVERIFY2(qGray(image.pixel(x + 14, yTop - 14)) > 220,
-                     qPrintable(QString::number(qGray(image.pixel(x + 14, yTop - 14)))));
-            QVERIFY2(qGray(image.pixel(x, yTop - 14)) > 220 || withLedger,
-                     "nothing above the bar without a ledger");
+        // With a fit, the curve and its confidence band are on the plot too.
+        const report::FigureSpec fitted = specOf(f, "1301", true);
+        QVERIFY(fitted.fit.has_value());
+        const double fittedUpper = upperOf(fitted, QStringLiteral("axis-fitted.svg"));
+        QVERIFY(highest(fitted.fit->high) > 0);
+        QVERIFY2(
+            fittedUpper >= highest(fitted.fit->high) && fittedUpper >= highest(fitted.fit->mid),
+            qPrintable(QStringLiteral("%1 %2").arg(fittedUpper).arg(highest(fitted.fit->high))));
+        QVERIFY(fittedUpper < 2643.0 / 2);
+    }
 
-            // The arrow: ink in the column above the bar, its head ending at the bar top.
-            int inkRows = 0, lowest = -1;
-            for (int y = yTop - 150; y < yTop + 2; ++y)
-                for (int dx = -2; dx <= 2; ++dx)
-                    if (isInk(image.pixel(x + dx, y))) {
-                        ++inkRows;
-                        lowest = std::max(lowest, y);
-                        break;
-                    }
-            if (withLedger) {
-                QVERIFY2(inkRows > 120, qPrintable(QString::number(inkRows)));
-                QVERIFY2(std::abs(yTop - lowest) <= 10,
-                         qPrintable(QStringLiteral("%1 %2").arg(lowest).arg(yTop)));
-            } else {
-                QCOMPARE(inkRows, 0);
+    // The marks of a figure with a cut bar (decision label, the cut bar's value, the peak of the
+    // fit) lie inside the plot and apart from each other, at the sizes a briefing uses: a
+    // slide, half an A4 page, the report's 180 x 112 mm (report_writer.cpp) and two panels side
+    // by side on half an A4 page.
+    void theMarksOfACutFigureLieInsideThePlotApartAtBriefingSizes() {
+        const Fixture f = sampleWithDecisions(true);
+        const report::FigureSpec spec = specOf(f, "1301", true);
+        report::FigureSpec kv = specOf(f, "KV", true);
+        // A second lowered bar four days before the dump (as if another decision had spread a
+        // day's excess): two cut bars whose labels must not collide.
+        report::FigureSpec twoCuts = spec;
+        twoCuts.raw[static_cast<std::size_t>(*Date::fromIso("2026-08-20") - spec.firstDay)] = 1800;
+        struct Case {
+            const char* name;
+            widgets::FigureSize size;
+            std::vector<report::FigureSpec> specs;
+        };
+        const std::vector<Case> cases = {
+            {"slide", widgets::FigureSize::slide(), {spec}},
+            {"half-a4", widgets::FigureSize::halfA4(), {spec}},
+            {"report", widgets::FigureSize{180.0, 112.0, std::nullopt}, {spec}},
+            {"two-panels", widgets::FigureSize::halfA4(), {spec, kv}},
+            {"two-cut-bars", widgets::FigureSize::halfA4(), {twoCuts}},
+            {"four-panels-slide",
+             widgets::FigureSize::slide(),
+             {spec, kv, specOf(f, "1304", true), specOf(f, "OS", true)}},
+        };
+        for (const Case& c : cases) {
+            widgets::FigureExportOptions options;
+            options.size = c.size;
+            std::vector<widgets::FigureGeometry> geometry;
+            const QString path =
+                m_dir.filePath(QStringLiteral("marks-%1.svg").arg(QLatin1String(c.name)));
+            QVERIFY(widgets::exportFigures(path, c.specs, options, &geometry).ok());
+            const widgets::FigureGeometry& g = geometry.front();  // 1301's panel
+            QStringList texts;
+            for (const auto& label : g.labels)
+                texts << label.text;
+            const QString all = texts.join(QStringLiteral(" | "));
+            QVERIFY2(texts.contains(QStringLiteral("raw 2,643, bar cut")), qPrintable(all));
+            QCOMPARE(texts.filter(QStringLiteral("bar cut")).size(),
+                     c.name == std::string("two-cut-bars") ? 2 : 1);
+            QVERIFY2(texts.contains(QStringLiteral("#1 2,444 moved to earlier days")),
+                     qPrintable(all));
+            QVERIFY2(all.contains(QStringLiteral("peak 2026-")), qPrintable(all));
+            const QRectF plot = g.axisRect.adjusted(-0.5, -0.5, 0.5, 0.5);
+            for (std::size_t i = 0; i < g.labels.size(); ++i) {
+                const auto& a = g.labels[i];
+                QVERIFY2(plot.contains(a.box), qPrintable(QStringLiteral("%1: '%2' leaves the plot")
+                                                              .arg(QLatin1String(c.name), a.text)));
+                for (std::size_t j = i + 1; j < g.labels.size(); ++j)
+                    QVERIFY2(!a.box.intersects(g.labels[j].box),
+                             qPrintable(QStringLiteral("%1: '%2' overlaps '%3'")
+                                            .arg(QLatin1String(c.name), a.text, g.labels[j].text)));
             }
         }
+    }
+
+    // Small multiples share one legend for the page: each entry is written once, whole (not
+    // cut to the width of a panel), and the panels keep their height for the plot. (The
+    // fit's legend entry, "Gumbel fit (lsq)", is in every subtitle too, so it is not counted.)
+    void smallMultiplesShareOneLegendWithWholeEntries() {
+        const Fixture f = sampleWithDecisions(true);
+        const std::vector<report::FigureSpec> specs = {
+            specOf(f, "1301", true), specOf(f, "KV", true), specOf(f, "1304", true),
+            specOf(f, "OS", true)};
+        widgets::FigureExportOptions options;
+        options.size = widgets::FigureSize::slide();
+        std::vector<widgets::FigureGeometry> geometry;
+        const QString path = m_dir.filePath(QStringLiteral("shared-legend.svg"));
+        QVERIFY(widgets::exportFigures(path, specs, options, &geometry).ok());
+        const QString text = svgText(path);
+        for (const char* entry : {"Raw, as reported", "95% confidence band of the fitted curve",
+                                  "Cleaned", "7-day centred mean (cleaned)", "Peak of the fit"})
+            QVERIFY2(text.count(QString::fromLatin1(entry)) == 1,
+                     qPrintable(QStringLiteral("%1: %2 times in %3")
+                                    .arg(QLatin1String(entry))
+                                    .arg(text.count(QString::fromLatin1(entry)))
+                                    .arg(text)));
+        // 2 x 2 panels on a 540-pixel-high slide: each plot is at least 100 logical pixels high
+        // (with a legend of three rows in each panel they had about 45).
+        QCOMPARE(geometry.size(), std::size_t(4));
+        for (const widgets::FigureGeometry& g : geometry)
+            QVERIFY2(g.axisRect.height() >= 100, qPrintable(QString::number(g.axisRect.height())));
     }
 
     void theReportListsEveryLedgerEntry() {
@@ -478,6 +690,20 @@ private Q_SLOTS:
     }
 
 private:
+    PixelFigure exportForPixels(const report::FigureSpec& spec, const QString& name) {
+        widgets::FigureExportOptions options;
+        options.dpi = 300;
+        PixelFigure fig;
+        std::vector<widgets::FigureGeometry> geometry;
+        const QString path = m_dir.filePath(name);
+        if (!widgets::exportFigures(path, {spec}, options, &geometry).ok() || geometry.size() != 1)
+            return fig;
+        fig.image = QImage(path);
+        fig.geometry = geometry.front();
+        fig.px = options.dpi / 96.0;
+        return fig;
+    }
+
     QTemporaryDir m_dir;
 };
 

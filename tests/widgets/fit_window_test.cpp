@@ -68,12 +68,16 @@ private Q_SLOTS:
         QCustomPlot* plot = window.seriesPlot()->customPlot();
         bool legend = false;
         for (int g = 0; g < plot->graphCount(); ++g)
-            if (plot->graph(g)->name() == QStringLiteral("95% interval of the fit"))
+            // The figures' term (report/figure_spec.cpp: "95% confidence band of the fitted
+            // curve"), shortened as their caption shortens it.
+            if (plot->graph(g)->name() == QStringLiteral("95% confidence band of the curve"))
                 legend = plot->graph(g)->brush().style() != Qt::NoBrush;
         QVERIFY(legend);
         const int peak = fit->first + static_cast<int>(std::lround(fit->derived.peakDay.value));
         const QString hover = siftwave::widgets::hoverText(window.seriesPlot()->view(), peak);
-        QVERIFY2(hover.contains(QStringLiteral(" – ")), qPrintable(hover));
+        QVERIFY2(hover.contains(QStringLiteral("95% confidence band ")) &&
+                     hover.contains(QStringLiteral(" – ")),
+                 qPrintable(hover));
     }
 
     void draggingTheFitWindowEdgeRefitsOnTheNewWindow() {

@@ -16,6 +16,7 @@
 #include <QPushButton>
 #include <QSignalSpy>
 #include <QStandardPaths>
+#include <QTableView>
 #include <QTemporaryDir>
 #include <QTest>
 #include <QUndoStack>
@@ -106,6 +107,12 @@ private Q_SLOTS:
                  dumpValue - entry.decision.excess);
         QVERIFY(wb.chainOk());
         QVERIFY(window.ledgerView()->chainStatus()->text().contains(QStringLiteral("verified")));
+        // The ledger's row gives the whole reason on hover, where its column is cut.
+        const QAbstractItemModel* rows = window.ledgerView()->view()->model();
+        QVERIFY(rows->index(0, siftwave::widgets::LedgerModel::ReasonColumn)
+                    .data(Qt::ToolTipRole)
+                    .toString()
+                    .startsWith(QString::fromStdString(entry.reason)));
         QVERIFY(wb.isDecided(dump->id));
         QCOMPARE(wb.openFindings(QStringLiteral("1301")), openBefore - 1);
         QVERIFY(!pane->isActive());

@@ -1,4 +1,5 @@
-// SeriesPlot: the date axis, the draggable window edges, the reset, the hover text.
+// SeriesPlot: the date axis, the draggable window edges, the reset, the hover text, and the
+// live layer that a drag step redraws alone.
 #include "widgets/series_plot.h"
 #include "widgets/qcustomplot_include.h"
 #include "widgets/series_chart.h"
@@ -35,6 +36,24 @@ SeriesView syntheticView() {
     view.touchedBy.assign(view.days, {});
     view.touchedBy[7] << QStringLiteral("#3 redistribute backlog (alice)");
     return view;
+}
+
+// A fitted curve over days 10..40 of syntheticView(): a bump of height `peak` over a floor of 8,
+// with a band of +-1.5 around it.
+siftwave::widgets::FittedCurve syntheticFit(double peak, double centre) {
+    siftwave::widgets::FittedCurve curve;
+    curve.label = QStringLiteral("Gumbel fit (least squares)");
+    curve.bandLabel = QStringLiteral("95% confidence band of the curve");
+    const double nan = std::numeric_limits<double>::quiet_NaN();
+    curve.mid.assign(60, nan);
+    curve.low.assign(60, nan);
+    curve.high.assign(60, nan);
+    for (int d = 10; d <= 40; ++d) {
+        curve.mid[d] = 8 + (peak - 8) * std::exp(-0.5 * std::pow((d - centre) / 5.0, 2));
+        curve.low[d] = curve.mid[d] - 1.5;
+        curve.high[d] = curve.mid[d] + 1.5;
+    }
+    return curve;
 }
 
 void sendMouse(QWidget* target, QEvent::Type type, QPointF pos, Qt::MouseButtons buttons) {
@@ -132,6 +151,97 @@ private Q_SLOTS:
         view.cleaned[20] = 500;
         plot.setView(view);
         QVERIFY(canvas->yAxis->range().upper >= 500);
+    }
+
+    void theWindowTheFitAndItsBandSitOnABufferedLayerBetweenTheBarsAndTheLines() {
+        SeriesPlot plot;
+        plot.resize(900, 500);
+        plot.show();
+        SeriesView view = syntheticView();
+        view.fit = syntheticFit(14, 25);
+        plot.setView(view);
+        plot.setEditableWindow(DayIndexRange{10, 40});
+        QCustomPlot* canvas = plot.customPlot();
+        QCPLayer* live = plot.chart()->liveLayer();
+        QVERIFY(live);
+        QCOMPARE(live->mode(), QCPLayer::lmBuffered);
+        QCPLayer* bars = canvas->layer(QStringLiteral("seriesBars"));
+        QCPLayer* main = canvas->layer(QStringLiteral("main"));
+        QVERIFY(bars && main);
+        QVERIFY(bars->index() < live->index() && live->index() < main->index());
+        int onLive = 0;
+        for (int i = 0; i < canvas->plottableCount(); ++i) {
+            QCPAbstractPlottable* p = canvas->plottable(i);
+            if (p->name() == QStringLiteral("Raw, as reported"))
+                QCOMPARE(p->layer(), bars);
+            else if (p->name() == QStringLiteral("Cleaned"))
+                QCOMPARE(p->layer(), main);
+            else if (p->layer() == live)
+                ++onLive;  // the band's two edges and the curve
+        }
+        QCOMPARE(onLive, 3);
+        QCOMPARE(live->children().size(), 6);  // and the window's shading and its two edges
+    }
+
+    void aDragStepRedrawsTheLiveLayerAloneAndShowsWhatAFullReplotShows() {
+        SeriesPlot plot;
+        plot.resize(900, 500);
+        plot.show();
+        QVERIFY(QTest::qWaitForWindowExposed(&plot));
+        SeriesView view = syntheticView();
+        view.fit = syntheticFit(14, 25);
+        plot.setView(view);
+        plot.setEditableWindow(DayIndexRange{10, 40});
+        QCustomPlot* canvas = plot.customPlot();
+        QCoreApplication::processEvents();  // the queued repaint of the window
+        canvas->replot();                   // and every layer after it
+        QVERIFY(!plot.lastRepaintWasLiveOnly());
+        const QImage before = canvas->grab().toImage();
+        const int revision = plot.chart()->fullReplotRevision();
+        const int legendItems = canvas->legend->itemCount();
+        QSignalSpy fullReplots(canvas, &QCustomPlot::afterReplot);
+
+        // What a refit while dragging does: a curve of the same kind, a window one day shorter.
+        plot.setFit(syntheticFit(13, 22));  // below the counts (at most 16): same axis
+        plot.setEditableWindow(DayIndexRange{10, 39});
+        QCOMPARE(plot.chart()->fullReplotRevision(), revision);
+        QCOMPARE(canvas->legend->itemCount(), legendItems);
+        QTRY_VERIFY(plot.lastRepaintWasLiveOnly());
+        QCOMPARE(fullReplots.count(), 0);
+        const QImage live = canvas->grab().toImage();  // paints the buffers as they are
+        QVERIFY(live != before);
+        canvas->replot();
+        QCOMPARE(fullReplots.count(), 1);
+        QCOMPARE(canvas->grab().toImage(), live);  // nothing stale on the other layers
+    }
+
+    void aRefitThatRaisesTheValueAxisRedrawsEveryLayer() {
+        SeriesPlot plot;
+        plot.resize(900, 500);
+        plot.show();
+        QVERIFY(QTest::qWaitForWindowExposed(&plot));
+        SeriesView view = syntheticView();
+        view.fit = syntheticFit(14, 25);
+        plot.setView(view);
+        QCustomPlot* canvas = plot.customPlot();
+        canvas->replot();
+        QCoreApplication::processEvents();
+        const int revision = plot.chart()->fullReplotRevision();
+        QSignalSpy fullReplots(canvas, &QCustomPlot::afterReplot);
+        plot.setFit(syntheticFit(40, 25));  // above every count: the axis grows
+        QVERIFY(canvas->yAxis->range().upper >= 40);
+        QVERIFY(plot.chart()->fullReplotRevision() != revision);
+        QTRY_COMPARE(fullReplots.count(), 1);
+        QVERIFY(!plot.lastRepaintWasLiveOnly());
+        // A fit without a band takes the band out of the legend: every layer again.
+        siftwave::widgets::FittedCurve bare = syntheticFit(40, 25);
+        bare.low.clear();
+        bare.high.clear();
+        bare.bandLabel.clear();
+        const int legendItems = canvas->legend->itemCount();
+        plot.setFit(bare);
+        QCOMPARE(canvas->legend->itemCount(), legendItems - 1);
+        QTRY_COMPARE(fullReplots.count(), 2);
     }
 
     void hoverTextNamesTheDayItsNumbersSourceAndLedgerEntries() {
