@@ -14,6 +14,7 @@
 #include <cstdio>
 #include <limits>
 #include <numbers>
+#include <span>
 
 namespace siftwave::fit {
 namespace {
@@ -23,6 +24,11 @@ using detail::SmoothedLeastSquares;
 
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 using Matrix = Eigen::MatrixXd;
+// The wave models' matrices (at most 4 parameters) on the stack: a batch fit would otherwise
+// make a dozen small heap allocations per region for them.
+constexpr int kMaxWaveParameters = 4;
+using SmallMatrix = Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor,
+                                  kMaxWaveParameters, kMaxWaveParameters>;
 
 // ---------------------------------------------------------------- small numerical helpers
 template <class F>
@@ -279,6 +285,9 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     res.last = window->second;
     const WaveModel& model = waveModel(o.model);
     const int np = model.parameterCount();
+    if (np > kMaxWaveParameters)
+        return makeError(ErrorCode::Numerical,
+                         "the model has more parameters than the fit handles");
 
     int lastData = -1;
     for (int i = n - 1; i >= 0; --i) {
@@ -409,13 +418,13 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
                 if (std::isfinite(x))
                     e2[d] = (x - modelValues[d]) * (x - modelValues[d]);
             }
-            Matrix meat(np, np);  // sum_k e_k^2 g_k g_k^T
+            SmallMatrix meat(np, np);  // sum_k e_k^2 g_k g_k^T
             detail::gram(G.data(), modelDays, npu, e2, {}, meat.data(), nullptr);
             meat *= static_cast<double>(m) / std::max(1, m - np);  // HC1 small-sample factor
-            const Eigen::Map<
-                const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>
-                bread(sr.unscaledCovariance.data(), np, np);
-            const Matrix cov = bread * meat * bread;
+            const SmallMatrix bread = Eigen::Map<
+                const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>(
+                sr.unscaledCovariance.data(), np, np);
+            const SmallMatrix cov = bread * meat * bread;
             for (int a = 0; a < np; ++a) {
                 for (int b = 0; b < np; ++b)
                     covariance[static_cast<std::size_t>(a * np + b)] = cov(a, b);
@@ -515,9 +524,14 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     std::array<double, kDerivedCount> se;
     se.fill(kNaN);
     if (o.derivedIntervals && haveCov) {
-        Matrix grad(kDerivedCount, np);
+        Eigen::Matrix<double, kDerivedCount, Eigen::Dynamic, 0, kDerivedCount, kMaxWaveParameters>
+            grad(kDerivedCount, np);
         for (int j = 0; j < np; ++j) {
-            std::vector<double> up = params, down = params;
+            std::array<double, kMaxWaveParameters> upStore{}, downStore{};
+            std::copy(params.begin(), params.end(), upStore.begin());
+            std::copy(params.begin(), params.end(), downStore.begin());
+            const std::span<double> up(upStore.data(), params.size()),
+                down(downStore.data(), params.size());
             const double step =
                 1e-5 * std::max(std::abs(params[static_cast<std::size_t>(j)]), 1e-2);
             up[static_cast<std::size_t>(j)] += step;
@@ -531,10 +545,10 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
             for (int k = 0; k < kDerivedCount; ++k)
                 grad(k, j) = (du[k] - dd[k]) / (2 * step);
         }
-        const Eigen::Map<
-            const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>
-            cov(covariance.data(), np, np);
-        const Matrix v = grad * cov * grad.transpose();
+        const SmallMatrix cov = Eigen::Map<
+            const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>(
+            covariance.data(), np, np);
+        const Eigen::Matrix<double, kDerivedCount, kDerivedCount> v = grad * cov * grad.transpose();
         for (int k = 0; k < kDerivedCount; ++k)
             se[k] = v(k, k) >= 0 ? std::sqrt(v(k, k)) : kNaN;
     }
