@@ -532,8 +532,13 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
             std::copy(params.begin(), params.end(), downStore.begin());
             const std::span<double> up(upStore.data(), params.size()),
                 down(downStore.data(), params.size());
-            const double step =
-                1e-5 * std::max(std::abs(params[static_cast<std::size_t>(j)]), 1e-2);
+            // The step is a hundredth of the parameter's standard error: the scale on which the
+            // delta method linearises, and far above the tolerance of the searches some
+            // quantities come from (the fastest growth of the Richards and log-normal curves), so
+            // that their rounding does not enter the slope. Capped at 1e-3 of the value.
+            const std::size_t ju = static_cast<std::size_t>(j);
+            const double sd = std::sqrt(covariance[ju * static_cast<std::size_t>(np) + ju]);
+            const double step = std::min(1e-2 * sd, 1e-3 * std::max(std::abs(params[ju]), 1e-2));
             up[static_cast<std::size_t>(j)] += step;
             down[static_cast<std::size_t>(j)] -= step;
             if (!model.valid(up) || !model.valid(down)) {

@@ -472,31 +472,27 @@ void WaveModel::incidenceOnDays(double t0, std::span<const double> p, std::span<
 }
 
 double WaveModel::fastestGrowthTime(std::span<const double> p) const {
+    // The fastest growth is where f' peaks, the inflection point on the rise: f'' > 0 before it
+    // and < 0 after, up to the peak. Bisection on the sign of f'' (central second difference)
+    // locates it far more finely than a search on the values of f' could, whose maximum is flat:
+    // there a change of t by d moves f' only by d^2, and the location is lost to rounding at
+    // about sqrt(machine epsilon) of the wave's width, enough to disturb the delta method.
     const double peak = peakTime(p);
     const double early = std::min(quantileTime(1e-6, p), peak - 1e-3);
-    const double h = 1e-4 * std::max(1e-3, quantileTime(0.975, p) - quantileTime(0.025, p));
-    auto slope = [&](double t) {
-        return (incidenceAt(t + h, p) - incidenceAt(t - h, p)) / (2 * h);
+    const double width = std::max(1e-3, quantileTime(0.975, p) - quantileTime(0.025, p));
+    const double h = 1e-3 * width;
+    auto curvature = [&](double t) {
+        return incidenceAt(t + h, p) - 2.0 * incidenceAt(t, p) + incidenceAt(t - h, p);
     };
-    // Golden-section search for the maximum of f' on [early, peak] (f' is unimodal there).
-    const double g = (std::sqrt(5.0) - 1.0) / 2.0;
     double a = early, b = peak;
-    double c = b - g * (b - a), d = a + g * (b - a);
-    double fc = slope(c), fd = slope(d);
-    while (b - a > 1e-7 * (1.0 + std::abs(peak))) {
-        if (fc > fd) {
-            b = d;
-            d = c;
-            fd = fc;
-            c = b - g * (b - a);
-            fc = slope(c);
-        } else {
-            a = c;
-            c = d;
-            fc = fd;
-            d = a + g * (b - a);
-            fd = slope(d);
-        }
+    if (!(curvature(a) > 0))  // no rise to speak of before the peak: report the start
+        return a;
+    for (int k = 0; k < 200 && b - a > 1e-12 * (width + std::abs(peak)); ++k) {
+        const double mid = 0.5 * (a + b);
+        if (curvature(mid) > 0)
+            a = mid;
+        else
+            b = mid;
     }
     return 0.5 * (a + b);
 }
