@@ -132,7 +132,10 @@ double bestSize(const WaveModel& model, const GuessData& d, std::vector<double> 
 template <class Transform>
 std::optional<Line> linearisedAt(const GuessData& d, double size, Transform transform,
                                  bool logTime) {
-    std::vector<double> xs, ys;
+    // Per thread: the start of a batch fit draws several lines per region.
+    thread_local std::vector<double> xs, ys;
+    xs.clear();
+    ys.clear();
     // The days with 0.02 < C/K < 0.98: one run, the cumulative being nondecreasing.
     const auto begin = d.cumulative.begin(), end = d.cumulative.end();
     const auto lo = std::partition_point(begin, end, [&](double c) { return c / size <= 0.02; });

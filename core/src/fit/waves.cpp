@@ -42,8 +42,10 @@ std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
     const double delta = std::max(options.minProminenceShare * top, options.minPeak / 2.0);
 
     // Zig-zag: alternate troughs and peaks, each confirmed by a move of delta.
-    std::vector<int> troughs;  // troughs[k] precedes peaks[k]
-    std::vector<int> peaks;
+    thread_local std::vector<int> troughs;  // troughs[k] precedes peaks[k]; per thread, reused
+    thread_local std::vector<int> peaks;
+    troughs.clear();
+    peaks.clear();
     bool seekingPeak = true;
     int minIndex = -1, maxIndex = -1;
     double lo = 0, hi = 0;  // s[minIndex], s[maxIndex]
