@@ -1,5 +1,5 @@
-// Standard errors of the derived quantities that the models find by a numerical search (the
-// fastest-growth day of the Richards and log-normal curves), checked two ways:
+// The fastest-growth day of the Richards and log-normal curves, which the models find by a
+// numerical search, against closed forms, and its standard error checked two ways:
 // - against the same propagation done independently, by pushing draws of the parameters from
 //   N(theta, Cov) through the model's own fastestGrowthTime and taking the standard deviation
 //   (Monte Carlo propagation of uncertainty: JCGM 101:2008, "Evaluation of measurement data -
@@ -7,13 +7,13 @@
 // - for stability: counts changed at rounding level (1e-12 of each) must not move the standard
 //   error by more than a small fraction. A delta method that differentiates a search with too
 //   fine a step picks up the search's own tolerance and jumps.
-#include "fit_wave_generator.h"
 #include "siftwave/fit/fit.h"
 
 #include <gtest/gtest.h>
 
 #include <Eigen/Dense>
 
+#include <algorithm>
 #include <cmath>
 #include <random>
 #include <vector>
@@ -56,7 +56,9 @@ std::vector<double> caseCounts(const SearchedCase& c, unsigned seed) {
 }
 
 // sqrt(g^T Cov g) with g the gradient of fastestGrowthTime by central differences of a tenth of
-// each parameter's standard error: an independent first-order propagation.
+// each parameter's standard error: the same first-order propagation as the fit's, written
+// separately here with a ten times larger step (a check of the fit's step, not of the method;
+// the method is checked against Monte Carlo below).
 double linearPropagationSe(ModelKind kind, const FitResult& fit) {
     const auto& model = waveModel(kind);
     const std::vector<double> p = fit.parameterValues();
@@ -85,6 +87,7 @@ double monteCarloSd(ModelKind kind, const FitResult& fit, int draws) {
     const Eigen::Map<const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>
         cov(fit.covariance.data(), n, n);
     const Eigen::LLT<Eigen::MatrixXd> llt(cov);
+    EXPECT_EQ(llt.info(), Eigen::Success) << "the covariance is not positive definite";
     const Eigen::MatrixXd L = llt.matrixL();
     std::mt19937_64 rng(20261202);
     std::normal_distribution<double> z(0, 1);
@@ -112,6 +115,28 @@ double monteCarloSd(ModelKind kind, const FitResult& fit, int draws) {
 
 const SearchedCase kRichards{ModelKind::Richards, {20000, 60, 8, 1.0}};   // a = 1: logistic
 const SearchedCase kLogNormal{ModelKind::LogNormal, {20000, 4.0, 0.35}};  // peak near day 47
+
+// Closed forms of the rising inflection point (derived here; no source): the Richards curve with
+// a = 1 is the logistic, whose density has its inflections at mu -+ s ln(2 + sqrt 3); the
+// log-normal density in tau = t + 1 has, with x = ln tau and f ~ exp(-x - (x - mu)^2 / 2 sigma^2),
+// f'' = 0 where y = (x - mu) / sigma^2 solves (y + 1)(y + 2) = 1 / sigma^2, the rising one at
+// x = mu - 1.5 sigma^2 - (sigma / 2) sqrt(sigma^2 + 4).
+TEST(FitDerivedSearch, FastestGrowthMatchesTheClosedForms) {
+    const auto& richards = waveModel(ModelKind::Richards);
+    for (double s : {3.0, 8.0, 15.0}) {
+        const std::vector<double> p{20000, 60, s, 1.0};
+        EXPECT_NEAR(richards.fastestGrowthTime(p), 60 - s * std::log(2 + std::sqrt(3.0)), 1e-8 * s)
+            << s;
+    }
+    const auto& logNormal = waveModel(ModelKind::LogNormal);
+    for (double sigma : {0.2, 0.35, 0.6, 1.2}) {
+        const double mu = 4.0;
+        const std::vector<double> p{20000, mu, sigma};
+        const double x = mu - 1.5 * sigma * sigma - 0.5 * sigma * std::sqrt(sigma * sigma + 4);
+        const double expected = std::exp(x) - 1.0;
+        EXPECT_NEAR(logNormal.fastestGrowthTime(p), expected, 1e-8 * (1 + expected)) << sigma;
+    }
+}
 
 TEST(FitDerivedSearch, RichardsFastestGrowthSeIsTheLinearPropagation) {
     const auto counts = caseCounts(kRichards, 7);

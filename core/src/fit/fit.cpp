@@ -535,13 +535,23 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
             // The step is a hundredth of the parameter's standard error: the scale on which the
             // delta method linearises, and far above the tolerance of the searches some
             // quantities come from (the fastest growth of the Richards and log-normal curves), so
-            // that their rounding does not enter the slope. Capped at 1e-3 of the value.
+            // that their rounding does not enter the slope. Capped at 1e-3 of the value; without
+            // a usable standard error, 1e-5 of the value. Near a bound of the model's domain
+            // (the Richards shape a > 0) the step is halved until both sides are valid.
             const std::size_t ju = static_cast<std::size_t>(j);
-            const double sd = std::sqrt(covariance[ju * static_cast<std::size_t>(np) + ju]);
-            const double step = std::min(1e-2 * sd, 1e-3 * std::max(std::abs(params[ju]), 1e-2));
-            up[static_cast<std::size_t>(j)] += step;
-            down[static_cast<std::size_t>(j)] -= step;
-            if (!model.valid(up) || !model.valid(down)) {
+            const double variance = covariance[ju * static_cast<std::size_t>(np) + ju];
+            const double scale = std::max(std::abs(params[ju]), 1e-2);
+            double step =
+                variance > 0 ? std::min(1e-2 * std::sqrt(variance), 1e-3 * scale) : 1e-5 * scale;
+            bool inside = false;
+            for (int halving = 0; halving < 30 && !inside; ++halving, step *= 0.5) {
+                up[ju] = params[ju] + step;
+                down[ju] = params[ju] - step;
+                inside = model.valid(up) && model.valid(down);
+                if (inside)
+                    break;
+            }
+            if (!inside) {
                 grad.col(j).setConstant(kNaN);
                 continue;
             }

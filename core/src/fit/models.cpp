@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <cassert>
 #include <cmath>
+#include <limits>
 #include <numbers>
 
 namespace siftwave::fit {
@@ -142,7 +143,7 @@ std::optional<Line> linearisedAt(const GuessData& d, double size, Transform tran
     const auto hi = std::partition_point(lo, end, [&](double c) { return c / size < 0.98; });
     const std::size_t first = static_cast<std::size_t>(lo - begin);
     const std::size_t inRange = static_cast<std::size_t>(hi - lo);
-    // A line needs few points: at most about 16 (every k-th day of a long rise).
+    // A line needs few points: 16 to 31 (every k-th day of a long rise).
     const std::size_t stride = std::max<std::size_t>(1, inRange / 16);
     xs.reserve(inRange / stride + 1);
     ys.reserve(inRange / stride + 1);
@@ -476,21 +477,29 @@ void WaveModel::incidenceOnDays(double t0, std::span<const double> p, std::span<
 
 double WaveModel::fastestGrowthTime(std::span<const double> p) const {
     // The fastest growth is where f' peaks, the inflection point on the rise: f'' > 0 before it
-    // and < 0 after, up to the peak. Bisection on the sign of f'' (central second difference)
+    // and < 0 after, up to the peak. Bisection on the sign of f'' (a central difference)
     // locates it far more finely than a search on the values of f' could, whose maximum is flat:
     // there a change of t by d moves f' only by d^2, and the location is lost to rounding at
     // about sqrt(machine epsilon) of the wave's width, enough to disturb the delta method.
+    // NaN when the rise cannot be bracketed (the early quantile overflows).
     const double peak = peakTime(p);
     const double early = std::min(quantileTime(1e-6, p), peak - 1e-3);
-    const double width = std::max(1e-3, quantileTime(0.975, p) - quantileTime(0.025, p));
-    const double h = 1e-3 * width;
+    const double rise = peak - quantileTime(0.025, p);  // the scale of the rising side
+    if (!std::isfinite(early) || !std::isfinite(peak) || !(rise > 0))
+        return std::numeric_limits<double>::quiet_NaN();
+    // f'' up to a positive factor by the five-point central difference, whose error is of order
+    // h^4: with h = 2e-3 of the rise, the root's bias and its rounding noise both stay near
+    // 1e-10 of the rise.
+    const double h = 2e-3 * rise;
     auto curvature = [&](double t) {
-        return incidenceAt(t + h, p) - 2.0 * incidenceAt(t, p) + incidenceAt(t - h, p);
+        return -incidenceAt(t + 2 * h, p) + 16.0 * incidenceAt(t + h, p) -
+               30.0 * incidenceAt(t, p) + 16.0 * incidenceAt(t - h, p) - incidenceAt(t - 2 * h, p);
     };
     double a = early, b = peak;
-    if (!(curvature(a) > 0))  // no rise to speak of before the peak: report the start
+    // f' already falls at the 1e-6 quantile: its largest value on the rise is there.
+    if (!(curvature(a) > 0))
         return a;
-    for (int k = 0; k < 200 && b - a > 1e-12 * (width + std::abs(peak)); ++k) {
+    for (int k = 0; k < 200 && b - a > 1e-12 * (rise + std::abs(peak)); ++k) {
         const double mid = 0.5 * (a + b);
         if (curvature(mid) > 0)
             a = mid;

@@ -108,7 +108,9 @@ public:
 
     /// The model K f and its Jacobian (row-major) on the model days t_0 - h .. t_last + h of the
     /// last evaluation with a Jacobian at `p`, evaluated again only when `p` differs (after the
-    /// solver, the final point is usually the last one it evaluated).
+    /// solver, the final point is usually the last one it evaluated). The spans point into the
+    /// workspace: they hold until it is used again (another evaluation, another fit on this
+    /// thread).
     void modelDays(std::span<const double> p, std::span<const double>& values,
                    std::span<const double>& jacobian) const {
         if (!(m_haveJacobian && std::equal(p.begin(), p.end(), m_p.begin(), m_p.end())))

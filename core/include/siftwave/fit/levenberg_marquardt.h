@@ -107,8 +107,10 @@ struct SolverResult {
 SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<const double> start,
                                const SolverOptions& options = {});
 
-/// The same into `result`, whose vectors keep their storage: a batch fit that solves thousands
-/// of problems of similar size then allocates nothing per solve.
+/// The same into `result`, whose vectors keep their storage (a batch fit that solves thousands
+/// of problems of similar size then makes no large allocation per solve). The solver keeps its
+/// working arrays per thread: it is not re-entrant on one thread (a problem's evaluate() must
+/// not call it), and `start` must not alias `result.parameters`.
 void solveLeastSquares(const LeastSquaresProblem& problem, std::span<const double> start,
                        const SolverOptions& options, SolverResult& result);
 

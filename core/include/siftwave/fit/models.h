@@ -71,7 +71,9 @@ public:
     virtual bool valid(std::span<const double> p) const = 0;
 
     /// Incidence K f(t_i) for every t_i; when `jacobian` is not empty also its derivatives,
-    /// row-major (t.size() x parameterCount()). Parameters must be valid().
+    /// row-major (t.size() x parameterCount()). Parameters must be valid(). Contract: p[0] is
+    /// the size K and the incidence is K times a curve that does not depend on it, so Jacobian
+    /// column 0 is exactly the incidence divided by K (the least-squares problem relies on it).
     virtual void incidence(std::span<const double> t, std::span<const double> p,
                            std::span<double> out, std::span<double> jacobian = {}) const = 0;
     /// Incidence on the consecutive days t0, t0 + 1, ..., t0 + out.size() - 1: the same values
@@ -81,7 +83,8 @@ public:
                                  std::span<double> jacobian = {}) const;
     /// The day of fastest growth (largest f') before the peak. Closed forms for the Gumbel,
     /// t = mu - beta ln((3 + sqrt 5)/2), and the logistic, t = mu - s ln(2 + sqrt 3) (zeros of
-    /// f''); golden-section search on f' otherwise.
+    /// f''); otherwise bisection on the sign of f'' (a central second difference) between the
+    /// 1e-6 quantile and the peak.
     virtual double fastestGrowthTime(std::span<const double> p) const;
     /// Cumulative incidence K F(t).
     virtual double cumulative(double t, std::span<const double> p) const = 0;

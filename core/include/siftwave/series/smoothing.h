@@ -50,7 +50,7 @@ std::vector<double> trailingMovingAverage(std::span<const double> values, int wi
 std::vector<double> centredMovingAverage(std::span<const double> values, int window = 7,
                                          EdgeRule edges = EdgeRule::Partial);
 /// The same into `out` (resized to the input's length, its storage reused: for loops over
-/// many series).
+/// many series). `out` must not be the storage of `values`.
 void centredMovingAverage(std::span<const double> values, int window, EdgeRule edges,
                           std::vector<double>& out);
 
