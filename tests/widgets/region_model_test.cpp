@@ -2,7 +2,7 @@
 // announced with one dataChanged per group of sibling rows (a view re-measures its columns on
 // each one, so one per row made opening a 3,000-region drop take over a minute).
 #include "widgets/region_model.h"
-#include "widgets/drop_loading.h"
+#include "sample_drop.h"
 #include "widgets/workbench.h"
 
 #include "siftwave/scan/scan.h"
@@ -20,9 +20,7 @@ class RegionModelTest : public QObject {
 
 private Q_SLOTS:
     void openFindingsFollowTheLedgerAndChangesComeInOneSignalPerGroup() {
-        siftwave::widgets::LoadRequest request;
-        request.dropPath = QStringLiteral(SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv");
-        const siftwave::widgets::LoadedDrop loaded = siftwave::widgets::loadDrop(request);
+        const siftwave::widgets::LoadedDrop loaded = siftwave::testing::loadSampleDrop();
         QVERIFY(loaded.ok());
         QVERIFY(loaded.regionRegister);
         Workbench workbench;

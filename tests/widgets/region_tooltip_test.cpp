@@ -1,6 +1,6 @@
 // The region browser's name column is narrow in its dock, so long names are elided
 // ("Merrow..."): the row's tooltip gives the code and the name in full.
-#include "widgets/drop_loading.h"
+#include "sample_drop.h"
 #include "widgets/region_model.h"
 #include "widgets/workbench.h"
 
@@ -14,9 +14,7 @@ class RegionTooltipTest : public QObject {
 
 private Q_SLOTS:
     void theTooltipGivesTheFullName() {
-        siftwave::widgets::LoadRequest request;
-        request.dropPath = QStringLiteral(SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv");
-        const siftwave::widgets::LoadedDrop loaded = siftwave::widgets::loadDrop(request);
+        const siftwave::widgets::LoadedDrop loaded = siftwave::testing::loadSampleDrop();
         QVERIFY(loaded.ok());
         QVERIFY(loaded.regionRegister);
         Workbench workbench;

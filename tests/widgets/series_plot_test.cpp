@@ -18,6 +18,13 @@ using siftwave::widgets::SeriesView;
 
 namespace {
 
+// The plot at the tests' size, on screen (mouse events and grabs need it exposed).
+bool showOnScreen(SeriesPlot& plot) {
+    plot.resize(900, 500);
+    plot.show();
+    return QTest::qWaitForWindowExposed(&plot);
+}
+
 SeriesView syntheticView() {
     SeriesView view;
     view.regionCode = QStringLiteral("T1");
@@ -79,9 +86,7 @@ private Q_SLOTS:
 
     void draggingAWindowEdgeMovesItAndReportsTheNewWindow() {
         SeriesPlot plot;
-        plot.resize(900, 500);
-        plot.show();
-        QVERIFY(QTest::qWaitForWindowExposed(&plot));
+        QVERIFY(showOnScreen(plot));
         plot.setView(syntheticView());
         plot.setEditableWindow(DayIndexRange{10, 30});
         plot.customPlot()->replot();
@@ -109,9 +114,7 @@ private Q_SLOTS:
 
     void draggingAwayFromAnEdgePansInsteadOfMovingTheWindow() {
         SeriesPlot plot;
-        plot.resize(900, 500);
-        plot.show();
-        QVERIFY(QTest::qWaitForWindowExposed(&plot));
+        QVERIFY(showOnScreen(plot));
         plot.setView(syntheticView());
         plot.setEditableWindow(DayIndexRange{10, 30});
         QSignalSpy changed(&plot, &SeriesPlot::windowChanged);
@@ -185,9 +188,7 @@ private Q_SLOTS:
 
     void aDragStepRedrawsTheLiveLayerAloneAndShowsWhatAFullReplotShows() {
         SeriesPlot plot;
-        plot.resize(900, 500);
-        plot.show();
-        QVERIFY(QTest::qWaitForWindowExposed(&plot));
+        QVERIFY(showOnScreen(plot));
         SeriesView view = syntheticView();
         view.fit = syntheticFit(14, 25);
         plot.setView(view);
@@ -217,9 +218,7 @@ private Q_SLOTS:
 
     void aRefitThatRaisesTheValueAxisRedrawsEveryLayer() {
         SeriesPlot plot;
-        plot.resize(900, 500);
-        plot.show();
-        QVERIFY(QTest::qWaitForWindowExposed(&plot));
+        QVERIFY(showOnScreen(plot));
         SeriesView view = syntheticView();
         view.fit = syntheticFit(14, 25);
         plot.setView(view);
