@@ -8,6 +8,62 @@
 
 namespace siftwave::fit {
 
+namespace {
+
+// The running extremes of the zig-zag: the lowest point since the last peak (the trough) and
+// the highest since that trough.
+struct Extremes {
+    int minIndex = -1, maxIndex = -1;
+    double lo = 0, hi = 0;  // s[minIndex], s[maxIndex]
+};
+
+// Seeking a peak from day i on: the first day that lies delta below the running maximum, once
+// that maximum is delta above the trough (the peak is then confirmed); n when none does. A new
+// low before that moves the trough (and restarts the maximum) there. Missing days (NaN) compare
+// false everywhere and change nothing. Updates are selected, not branched on: on a noisy rise or
+// a flat stretch the tests are unpredictable.
+int risingPhase(std::span<const double> s, int i, double delta, Extremes& x) {
+    const int n = static_cast<int>(s.size());
+    int minIndex = x.minIndex, maxIndex = x.maxIndex;
+    double lo = x.lo, hi = x.hi;
+    for (; i < n; ++i) {
+        const double v = s[static_cast<std::size_t>(i)];
+        const bool higher = v > hi;
+        maxIndex = higher ? i : maxIndex;
+        hi = higher ? v : hi;
+        if (hi - lo >= delta && v < hi - delta)
+            break;
+        const bool lower = v < lo;
+        minIndex = lower ? i : minIndex;
+        maxIndex = lower ? i : maxIndex;
+        hi = lower ? v : hi;
+        lo = lower ? v : lo;
+    }
+    x = {minIndex, maxIndex, lo, hi};
+    return i;
+}
+
+// Seeking a trough from day i on: the first day that lies delta above the running minimum;
+// n when none does.
+int fallingPhase(std::span<const double> s, int i, double delta, Extremes& x) {
+    const int n = static_cast<int>(s.size());
+    int minIndex = x.minIndex;
+    double lo = x.lo;
+    for (; i < n; ++i) {
+        const double v = s[static_cast<std::size_t>(i)];
+        const bool lower = v < lo;
+        minIndex = lower ? i : minIndex;
+        lo = lower ? v : lo;
+        if (v > lo + delta)
+            break;
+    }
+    x.minIndex = minIndex;
+    x.lo = lo;
+    return i;
+}
+
+}  // namespace
+
 Status WaveDetectionOptions::validate() const {
     if (smoothingWindow < 1 || smoothingWindow > 365) {
         return makeError(ErrorCode::Usage,
@@ -41,56 +97,45 @@ std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
         return waves;
     const double delta = std::max(options.minProminenceShare * top, options.minPeak / 2.0);
 
-    // Zig-zag: alternate troughs and peaks, each confirmed by a move of delta.
+    // Zig-zag: alternate troughs and peaks, each confirmed by a move of delta. Each phase runs
+    // in its own call-free loop (risingPhase, fallingPhase): x86-64 has no callee-saved vector
+    // registers, so a push_back inside the day loop made the compiler keep the running
+    // extremes in memory, and every day waited on a store.
     thread_local std::vector<int> troughs;  // troughs[k] precedes peaks[k]; per thread, reused
     thread_local std::vector<int> peaks;
     troughs.clear();
     peaks.clear();
     bool seekingPeak = true;
-    int minIndex = -1, maxIndex = -1;
-    double lo = 0, hi = 0;  // s[minIndex], s[maxIndex]
-    int begin = 0;          // the first finite day starts the zig-zag
+    Extremes x;
+    int begin = 0;  // the first finite day starts the zig-zag
     while (begin < n && !std::isfinite(s[static_cast<std::size_t>(begin)]))
         ++begin;
     if (begin < n) {
-        minIndex = maxIndex = begin;
-        lo = hi = s[static_cast<std::size_t>(begin)];
+        x.minIndex = x.maxIndex = begin;
+        x.lo = x.hi = s[static_cast<std::size_t>(begin)];
     }
-    for (int i = begin + 1; i < n; ++i) {
-        const double v = s[static_cast<std::size_t>(i)];
-        if (!std::isfinite(v))
-            continue;
+    for (int i = begin + 1; i < n;) {
         if (seekingPeak) {
-            // Select rather than branch: on a noisy rise the new-maximum test is unpredictable.
-            const bool higher = v > hi;
-            maxIndex = higher ? i : maxIndex;
-            hi = higher ? v : hi;
-            if (hi - lo >= delta && v < hi - delta) {
-                troughs.push_back(minIndex);
-                peaks.push_back(maxIndex);
+            i = risingPhase(s, i, delta, x);
+            if (i < n) {  // confirmed: the trough and peak of a wave; the fall starts at day i
+                troughs.push_back(x.minIndex);
+                peaks.push_back(x.maxIndex);
                 seekingPeak = false;
-                minIndex = i;
-                lo = v;
-            } else {
-                // No significant rise yet: a new low moves the trough on (selected, not branched
-                // on: on a flat, noisy stretch the test is unpredictable).
-                const bool lower = v < lo;
-                minIndex = lower ? i : minIndex;
-                maxIndex = lower ? i : maxIndex;
-                hi = lower ? v : hi;
-                lo = lower ? v : lo;
+                x.minIndex = i;
+                x.lo = s[static_cast<std::size_t>(i)];
+                ++i;
             }
         } else {
-            const bool lower = v < lo;
-            minIndex = lower ? i : minIndex;
-            lo = lower ? v : lo;
-            if (v > lo + delta) {
+            i = fallingPhase(s, i, delta, x);
+            if (i < n) {  // a rise of delta above the trough: seek the next peak from day i
                 seekingPeak = true;
-                maxIndex = i;
-                hi = v;
+                x.maxIndex = i;
+                x.hi = s[static_cast<std::size_t>(i)];
+                ++i;
             }
         }
     }
+    const int minIndex = x.minIndex, maxIndex = x.maxIndex;
     // A last rise that has not turned yet is a wave with an unconfirmed peak.
     bool openRise = false;
     if (seekingPeak && maxIndex > minIndex && minIndex >= 0 &&
@@ -110,12 +155,10 @@ std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
         const int trough = troughs[k];
         const double troughValue = s[static_cast<std::size_t>(trough)];
         const double level = troughValue + options.riseShare * (w.peakValue - troughValue);
-        w.first = trough;
-        for (int i = trough; i < w.peak; ++i) {
-            const double v = s[static_cast<std::size_t>(i)];
-            if (std::isfinite(v) && v <= level)
-                w.first = i;
-        }
+        // The last day before the peak still at or below that level (NaN compares false).
+        w.first = w.peak - 1;
+        while (w.first > trough && !(s[static_cast<std::size_t>(w.first)] <= level))
+            --w.first;
         if (k + 1 < peaks.size()) {
             w.last = troughs[k + 1];
             w.troughSeen = true;
