@@ -12,6 +12,8 @@
 #include <cmath>
 #include <numbers>
 #include <utility>
+#include <string>
+#include <utility>
 #include <vector>
 
 namespace siftwave::fit {
@@ -40,29 +42,39 @@ TEST(FitModels, GumbelDayGridAgreesWithBoostExtremeValueIntoTheFarTail) {
     const double K = 25000, mu = 80.3, beta = 7.7;
     const std::vector<double> p{K, mu, beta};
     const boost::math::extreme_value_distribution<double> ref(mu, beta);
-    const std::size_t days = 300;  // to mu + 28 beta: u falls below 1e-12
-    const double t0 = -3;
-    std::vector<double> grid(days), gridJac(3 * days), single(days), singleJac(3 * days), t(days);
-    m.incidenceOnDays(t0, p, grid, gridJac);
-    for (std::size_t i = 0; i < days; ++i)
-        t[i] = t0 + static_cast<double>(i);
-    m.incidence(t, p, single, singleJac);
-    // Relative to each value, except far into the rising side (below 1e-10 of the peak), where the
-    // recurrence for u loses relative digits in numbers that are nothing next to the peak.
-    const double peak = K / beta * std::exp(-1.0);
-    std::array<double, 3> columnTop{};  // the largest |entry| of each Jacobian column
-    for (std::size_t i = 0; i < days; ++i) {
-        for (std::size_t j = 0; j < 3; ++j)
-            columnTop[j] = std::max(columnTop[j], std::abs(singleJac[3 * i + j]));
-    }
-    for (std::size_t i = 0; i < days; ++i) {
-        const double expected = K * boost::math::pdf(ref, t[i]);
-        EXPECT_NEAR(grid[i], expected, std::max(1e-13 * expected, 1e-23 * peak)) << t[i];
-        EXPECT_NEAR(grid[i], single[i], std::max(1e-13 * single[i], 1e-23 * peak)) << t[i];
-        for (std::size_t j = 0; j < 3; ++j) {
-            const double v = singleJac[3 * i + j];
-            EXPECT_NEAR(gridJac[3 * i + j], v, std::max(1e-12 * std::abs(v), 1e-22 * columnTop[j]))
-                << t[i] << " " << j;
+    // Grids of both parities (the right tail, z > ln 1000, is evaluated two days at a time),
+    // one starting inside the tail and one ending before it. 300 days from -3 reach mu + 28 beta,
+    // where u falls below 1e-12.
+    const std::pair<std::size_t, double> grids[] = {{300, -3}, {301, -3}, {120, 150}, {71, 40}};
+    for (const auto& [days, t0] : grids) {
+        SCOPED_TRACE("grid of " + std::to_string(days) + " days from " + std::to_string(t0));
+        std::vector<double> grid(days), gridJac(3 * days), single(days), singleJac(3 * days),
+            t(days), valuesOnly(days);
+        m.incidenceOnDays(t0, p, grid, gridJac);
+        m.incidenceOnDays(t0, p, valuesOnly, {});
+        for (std::size_t i = 0; i < days; ++i)
+            t[i] = t0 + static_cast<double>(i);
+        m.incidence(t, p, single, singleJac);
+        // Relative to each value, except far into the rising side (below 1e-10 of the peak),
+        // where the recurrence for u loses relative digits in numbers that are nothing next to
+        // the peak.
+        const double peak = K / beta * std::exp(-1.0);
+        std::array<double, 3> columnTop{};  // the largest |entry| of each Jacobian column
+        for (std::size_t i = 0; i < days; ++i) {
+            for (std::size_t j = 0; j < 3; ++j)
+                columnTop[j] = std::max(columnTop[j], std::abs(singleJac[3 * i + j]));
+        }
+        for (std::size_t i = 0; i < days; ++i) {
+            const double expected = K * boost::math::pdf(ref, t[i]);
+            EXPECT_NEAR(grid[i], expected, std::max(1e-13 * expected, 1e-23 * peak)) << t[i];
+            EXPECT_NEAR(grid[i], single[i], std::max(1e-13 * single[i], 1e-23 * peak)) << t[i];
+            EXPECT_EQ(valuesOnly[i], grid[i]) << t[i];  // the same values without the Jacobian
+            for (std::size_t j = 0; j < 3; ++j) {
+                const double v = singleJac[3 * i + j];
+                EXPECT_NEAR(gridJac[3 * i + j], v,
+                            std::max(1e-12 * std::abs(v), 1e-22 * columnTop[j]))
+                    << t[i] << " " << j;
+            }
         }
     }
 }

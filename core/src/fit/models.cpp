@@ -4,6 +4,9 @@
 
 #include <algorithm>
 #include <cassert>
+#if defined(__SSE2__)
+#include <emmintrin.h>
+#endif
 #include <cmath>
 #include <limits>
 #include <numbers>
@@ -236,6 +239,64 @@ inline double expOfMinus(double u) {
     return std::exp(-u);
 }
 
+// The Gumbel wave on days first..n-1 of the grid t0, t0 + 1, ... that lie far in its right tail
+// (z > ln 1000, so u = exp(-z) < 1e-3 and exp(-u) is expOfMinus's Taylor series): K f and the
+// Jacobian row of locationScaleRow (g = u - 1; f is never 0 here unless it underflows, and then
+// the row is 0 all the same, z and g being finite). Two days at a time in the lanes of an SSE2
+// register, u by the recurrence u <- u e^(-2 / beta) in each lane, taken afresh from exp every
+// 32 days. Often over half of a window's days are here (a window runs on to the next trough).
+void gumbelRightTail(double t0, std::size_t first, double mu, double invBeta, double invK,
+                     double scale, std::span<double> out, std::span<double> jac) {
+    const std::size_t n = out.size();
+    const bool withJacobian = !jac.empty();
+    std::size_t i = first;
+#if defined(__SSE2__)
+    const __m128d one = _mm_set1_pd(1.0), step2 = _mm_set1_pd(std::exp(-2.0 * invBeta));
+    const __m128d vMu = _mm_set1_pd(mu), vInvBeta = _mm_set1_pd(invBeta),
+                  vMinusInvBeta = _mm_set1_pd(-invBeta), vInvK = _mm_set1_pd(invK),
+                  vScale = _mm_set1_pd(scale);
+    __m128d us = _mm_setzero_pd();  // u of days i and i + 1
+    for (; i + 1 < n; i += 2) {
+        const double t = t0 + static_cast<double>(i);
+        const __m128d z = _mm_mul_pd(_mm_sub_pd(_mm_set_pd(t + 1.0, t), vMu), vInvBeta);
+        if ((i - first) % 32 == 0) {
+            alignas(16) double zs[2];
+            _mm_store_pd(zs, z);
+            us = _mm_set_pd(std::exp(-zs[1]), std::exp(-zs[0]));
+        } else {
+            us = _mm_mul_pd(us, step2);
+        }
+        // exp(-u) = 1 - u (1 - u (1/2 - u (1/6 - u (1/24 - u / 120)))), as expOfMinus.
+        __m128d e = _mm_sub_pd(_mm_set1_pd(1.0 / 24.0), _mm_mul_pd(us, _mm_set1_pd(1.0 / 120.0)));
+        e = _mm_sub_pd(_mm_set1_pd(1.0 / 6.0), _mm_mul_pd(us, e));
+        e = _mm_sub_pd(_mm_set1_pd(0.5), _mm_mul_pd(us, e));
+        e = _mm_sub_pd(one, _mm_mul_pd(us, e));
+        e = _mm_sub_pd(one, _mm_mul_pd(us, e));
+        const __m128d f = _mm_mul_pd(_mm_mul_pd(vScale, us), e);
+        _mm_storeu_pd(&out[i], f);
+        if (withJacobian) {
+            const __m128d g = _mm_sub_pd(us, one);
+            const __m128d dK = _mm_mul_pd(f, vInvK);
+            const __m128d dMu = _mm_mul_pd(_mm_mul_pd(f, g), vMinusInvBeta);
+            const __m128d dScale =
+                _mm_mul_pd(_mm_mul_pd(f, _mm_add_pd(one, _mm_mul_pd(z, g))), vMinusInvBeta);
+            // Rows of days i and i + 1: dK dMu dScale | dK dMu dScale.
+            _mm_storeu_pd(&jac[3 * i], _mm_unpacklo_pd(dK, dMu));
+            _mm_storeu_pd(&jac[3 * i + 2], _mm_shuffle_pd(dScale, dK, 2));
+            _mm_storeu_pd(&jac[3 * i + 4], _mm_unpackhi_pd(dMu, dScale));
+        }
+    }
+#endif
+    for (; i < n; ++i) {  // the last odd day (every day without SSE2)
+        const double z = (t0 + static_cast<double>(i) - mu) * invBeta;
+        const double u = std::exp(-z);
+        const double f = scale * u * expOfMinus(u);
+        out[i] = f;
+        if (withJacobian)
+            locationScaleRow(&jac[3 * i], f, invK, z, u - 1.0, invBeta);
+    }
+}
+
 constexpr const char* kGumbelNames[] = {"K", "mu", "beta"};
 constexpr const char* kLogisticNames[] = {"K", "mu", "s"};
 constexpr const char* kRichardsNames[] = {"K", "mu", "s", "a"};
@@ -267,8 +328,15 @@ public:
         const double K = p[0], mu = p[1], beta = p[2];
         const double invBeta = 1.0 / beta, invK = 1.0 / K, scale = K / beta;
         const double step = std::exp(-invBeta);
+        // From day `tail` on, z > ln 1000: the right tail, two days at a time.
+        const double firstTail = std::ceil(mu + beta * std::log(1000.0) - t0);
+        const std::size_t n = out.size();
+        const std::size_t tail = !(firstTail > 0.0)                  ? 0
+                                 : firstTail >= static_cast<double>(n) ? n
+                                                                      : static_cast<std::size_t>(firstTail);
+        gumbelRightTail(t0, tail, mu, invBeta, invK, scale, out, jac);
         double u = 0;
-        for (std::size_t i = 0; i < out.size(); ++i) {
+        for (std::size_t i = 0; i < tail; ++i) {
             const double t = t0 + static_cast<double>(i);
             const double z = (t - mu) * invBeta;
             u = (i % 32 == 0) ? std::exp(-z) : u * step;
