@@ -1,5 +1,7 @@
 #include "siftwave/series/smoothing.h"
 
+#include "support/xorshift.h"
+
 #include <gtest/gtest.h>
 
 #include <algorithm>
@@ -154,6 +156,59 @@ TEST(Smoothing, RunningSumsAgreeWithDirectSumsOnALongSeriesWithGaps) {
                 ASSERT_EQ(std::isnan(t[i]), std::isnan(dt)) << w << " " << i;
                 ASSERT_TRUE(std::isnan(dc) || std::abs(c[i] - dc) < 1e-9) << w << " " << i;
                 ASSERT_TRUE(std::isnan(dt) || std::abs(t[i] - dt) < 1e-9) << w << " " << i;
+            }
+        }
+    }
+}
+
+// The running sums are re-summed in blocks of 256 days and four blocks advance together: on long
+// series with gaps, both edge rules and windows of every size, each average must be the plain
+// mean of the finite values in its window -- exactly for integer counts (their sums are exact),
+// to 1e-12 for fractional values.
+TEST(Smoothing, RunningAveragesEqualThePlainWindowMeansOnLongSeriesWithGaps) {
+    siftwave::testing::Xorshift64 rng(7);
+    for (int n : {1, 5, 255, 256, 257, 1023, 1024, 1025, 2500}) {
+        for (bool integers : {true, false}) {
+            std::vector<double> x(static_cast<std::size_t>(n));
+            for (double& v : x) {
+                v = static_cast<double>(rng.below(5000));
+                if (!integers)
+                    v /= 7.0;
+                if (rng.below(40) == 0)
+                    v = kNaN;
+            }
+            for (int window : {1, 3, 7, 28, 365}) {
+                for (EdgeRule edges : {EdgeRule::Partial, EdgeRule::Missing}) {
+                    for (bool centred : {true, false}) {
+                        if (centred && window % 2 == 0)
+                            continue;  // even centred windows are the weighted 2 x m average
+                        const auto got = centred ? centredMovingAverage(x, window, edges)
+                                                 : trailingMovingAverage(x, window, edges);
+                        ASSERT_EQ(got.size(), x.size());
+                        const int offset = centred ? window / 2 : window - 1;
+                        for (int i = 0; i < n; ++i) {
+                            const int first = i - offset, end = first + window;
+                            double sum = 0;
+                            int count = 0;
+                            for (int j = std::max(0, first); j < std::min(n, end); ++j) {
+                                if (std::isfinite(x[static_cast<std::size_t>(j)])) {
+                                    sum += x[static_cast<std::size_t>(j)];
+                                    ++count;
+                                }
+                            }
+                            const bool complete = first >= 0 && end <= n;
+                            const double v = got[static_cast<std::size_t>(i)];
+                            if (count == 0 || (edges == EdgeRule::Missing && !complete)) {
+                                EXPECT_TRUE(std::isnan(v)) << n << " " << window << " " << i;
+                            } else if (integers) {
+                                EXPECT_EQ(v, sum / count) << n << " " << window << " " << i;
+                            } else {
+                                EXPECT_NEAR(v, sum / count, 1e-12 * std::max(1.0, sum / count))
+                                    << n << " " << window << " " << i;
+                            }
+                        }
+                    }
+                }
             }
         }
     }
