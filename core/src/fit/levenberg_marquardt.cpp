@@ -272,7 +272,9 @@ void solveLeastSquares(const LeastSquaresProblem& problem, std::span<const doubl
     const bool jacobianWithTrial = problem.hasJacobian();
 
     // J = Q R once per Jacobian; every damped step then solves the small system
-    // [R; sqrt(lambda D)] h = [-Q^T r; 0] (MINPACK's approach: More 1978, section 3).
+    // [R; sqrt(lambda D)] h = [-Q^T r; 0] (MINPACK's approach: More 1978, section 3). With the
+    // normal equations (R from the Cholesky factor of J^T J) the same step comes from the
+    // Cholesky factor of J^T J + lambda D (dampedNormalStep below), a few dozen operations.
     // Each factorisation also gives the squared column norms of J (the diagonal of J^T J), from
     // which the damping scale D is kept.
     R.resize(n, n);
@@ -280,7 +282,10 @@ void solveLeastSquares(const LeastSquaresProblem& problem, std::span<const doubl
     S.resize(2 * n, n);
     rhs.resize(2 * n);
     columnNorms2.resize(n);
+    // True while R and Q^T r come from the Cholesky factor of A = J^T J (g = J^T r kept too).
+    bool fromNormalEquations = false;
     auto factorise = [&]() {
+        fromNormalEquations = false;
         if (options.linearSolver == LinearSolver::NormalEquations) {
             // R from the Cholesky factor of J^T J and Q^T r = R^-T J^T r: the same small system
             // at a fraction of the cost; QR when J^T J is not numerically positive definite.
@@ -294,8 +299,10 @@ void solveLeastSquares(const LeastSquaresProblem& problem, std::span<const doubl
             if (llt.info() == Eigen::Success) {
                 R = llt.matrixU();
                 qtr = llt.matrixL().solve(g);
-                if (allFinite(R.data(), static_cast<std::size_t>(R.size())) &&
-                    allFinite(qtr.data(), static_cast<std::size_t>(n)))
+                fromNormalEquations =
+                    allFinite(R.data(), static_cast<std::size_t>(R.size())) &&
+                    allFinite(qtr.data(), static_cast<std::size_t>(n));
+                if (fromNormalEquations)
                     return;
             }
         }
@@ -328,16 +335,45 @@ void solveLeastSquares(const LeastSquaresProblem& problem, std::span<const doubl
         haveTermination = true;
     }
 
+    // The damped step from the normal equations: (A + lambda D) h = -g, whose solution is that
+    // of the least-squares system [R; sqrt(lambda D)] h = [-Q^T r; 0] when R^T R = A and
+    // R^T Q^T r = g; the predicted reduction 0.5 (|Q^T r|^2 - |Q^T r + R h|^2) is then
+    // -g.h - 0.5 h^T A h. False when A + lambda D is not numerically positive definite (the
+    // caller then solves the system by QR).
+    thread_local Matrix dampedA;
+    thread_local Eigen::LLT<Matrix> dampedLlt;
+    thread_local Vector Ah;
+    auto dampedNormalStep = [&](double& predicted) {
+        dampedA = A;
+        for (Eigen::Index j = 0; j < n; ++j)
+            dampedA(j, j) += lambda * D[j];
+        dampedLlt.compute(dampedA);
+        if (dampedLlt.info() != Eigen::Success)
+            return false;
+        h = -g;
+        dampedLlt.solveInPlace(h);
+        Ah.noalias() = A * h;
+        predicted = -g.dot(h) - 0.5 * h.dot(Ah);
+        return true;
+    };
+    thread_local Vector qtrPlusRh;
+
     while (!haveTermination && summary.iterations < options.maxIterations) {
         ++summary.iterations;
-        S.topRows(n) = R;
-        S.bottomRows(n).setZero();
-        for (Eigen::Index j = 0; j < n; ++j)
-            S(n + j, j) = std::sqrt(lambda * D[j]);
-        rhs.head(n) = -qtr;
-        rhs.tail(n).setZero();
-        dampedQr.compute(S);
-        h = dampedQr.solve(rhs);
+        double predicted = 0;
+        if (!(fromNormalEquations && dampedNormalStep(predicted))) {
+            S.topRows(n) = R;
+            S.bottomRows(n).setZero();
+            for (Eigen::Index j = 0; j < n; ++j)
+                S(n + j, j) = std::sqrt(lambda * D[j]);
+            rhs.head(n) = -qtr;
+            rhs.tail(n).setZero();
+            dampedQr.compute(S);
+            h = dampedQr.solve(rhs);
+            qtrPlusRh.noalias() = R * h;
+            qtrPlusRh += qtr;
+            predicted = 0.5 * (qtr.squaredNorm() - qtrPlusRh.squaredNorm());
+        }
         if (!allFinite(h.data(), static_cast<std::size_t>(n))) {
             summary.termination = Termination::NumericalFailure;
             summary.message = "the damped linear system gave a non-finite step";
@@ -348,7 +384,6 @@ void solveLeastSquares(const LeastSquaresProblem& problem, std::span<const doubl
             break;
         }
         xNew = x + h;
-        const double predicted = 0.5 * (qtr.squaredNorm() - (qtr + R * h).squaredNorm());
         double rho = -1.0;
         double costNew = cost;
         const bool evaluated = jacobianWithTrial ? eval.residualsAndJacobian(xNew, rNew, JNew)
