@@ -117,28 +117,43 @@ Estimate withinBounds(Estimate e, double lowest,
 }
 
 // G row d = sum of P rows d - taps + 1 .. d (rows of `cols` values; N > 0: cols = N at compile
-// time), as running sums re-summed every 64 days so rounding cannot drift.
+// time), as running sums re-summed every 64 days so rounding cannot drift. The running sums are
+// plain locals (one per column, at most 4): held in an array they were stored and reloaded on
+// every day, which put a store-to-load delay on each day's chain of additions.
 template <std::size_t N>
 void trailingWindowSums(std::span<const double> P, std::span<double> G, std::size_t days,
                         std::size_t cols, std::size_t taps) {
     const std::size_t c = N > 0 ? N : cols;
-    std::array<double, 4> sum{};  // wave models have at most 4 parameters
+    double s0 = 0, s1 = 0, s2 = 0, s3 = 0;  // wave models have at most 4 parameters
+    auto at = [&](std::size_t d, std::size_t j) { return P[d * c + j]; };
     for (std::size_t d = 0; d < days; ++d) {
         if (d % 64 == 0) {
-            for (std::size_t j = 0; j < c; ++j) {
-                sum[j] = 0.0;
-                for (std::size_t e = d - std::min(d, taps - 1); e <= d; ++e)
-                    sum[j] += P[e * c + j];
+            s0 = s1 = s2 = s3 = 0.0;
+            for (std::size_t e = d - std::min(d, taps - 1); e <= d; ++e) {
+                s0 += at(e, 0);
+                s1 += c > 1 ? at(e, 1) : 0.0;
+                s2 += c > 2 ? at(e, 2) : 0.0;
+                s3 += c > 3 ? at(e, 3) : 0.0;
             }
         } else {
-            for (std::size_t j = 0; j < c; ++j) {
-                sum[j] += P[d * c + j];
-                if (d >= taps)
-                    sum[j] -= P[(d - taps) * c + j];
+            s0 += at(d, 0);
+            s1 += c > 1 ? at(d, 1) : 0.0;
+            s2 += c > 2 ? at(d, 2) : 0.0;
+            s3 += c > 3 ? at(d, 3) : 0.0;
+            if (d >= taps) {
+                s0 -= at(d - taps, 0);
+                s1 -= c > 1 ? at(d - taps, 1) : 0.0;
+                s2 -= c > 2 ? at(d - taps, 2) : 0.0;
+                s3 -= c > 3 ? at(d - taps, 3) : 0.0;
             }
         }
-        for (std::size_t j = 0; j < c; ++j)
-            G[d * c + j] = sum[j];
+        G[d * c] = s0;
+        if (c > 1)
+            G[d * c + 1] = s1;
+        if (c > 2)
+            G[d * c + 2] = s2;
+        if (c > 3)
+            G[d * c + 3] = s3;
     }
 }
 
