@@ -3,6 +3,7 @@
 #include "siftwave/series/smoothing.h"
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <string>
 
@@ -22,7 +23,7 @@ struct Extremes {
 // low before that moves the trough (and restarts the maximum) there. Missing days (NaN) compare
 // false everywhere and change nothing. Updates are selected, not branched on: on a noisy rise or
 // a flat stretch the tests are unpredictable.
-int risingPhase(std::span<const double> s, int i, double delta, Extremes& x) {
+[[gnu::noinline]] int risingPhase(std::span<const double> s, int i, double delta, Extremes& x) {
     const int n = static_cast<int>(s.size());
     int minIndex = x.minIndex, maxIndex = x.maxIndex;
     double lo = x.lo, hi = x.hi;
@@ -45,7 +46,7 @@ int risingPhase(std::span<const double> s, int i, double delta, Extremes& x) {
 
 // Seeking a trough from day i on: the first day that lies delta above the running minimum;
 // n when none does.
-int fallingPhase(std::span<const double> s, int i, double delta, Extremes& x) {
+[[gnu::noinline]] int fallingPhase(std::span<const double> s, int i, double delta, Extremes& x) {
     const int n = static_cast<int>(s.size());
     int minIndex = x.minIndex;
     double lo = x.lo;
@@ -88,19 +89,25 @@ std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
                                         const WaveDetectionOptions& options) {
     std::vector<Wave> waves;
     const int n = static_cast<int>(s.size());
-    double top = 0;
-    for (double v : s) {
+    // The highest finite value (0 at least), as four running maxima over interleaved days: one
+    // alone is a chain of dependent comparisons a day long.
+    std::array<double, 4> tops{};
+    for (std::size_t i = 0; i < s.size(); ++i) {
+        const double v = s[i];
         const double finite = std::isfinite(v) ? v : 0.0;  // selected, not branched on
+        double& top = tops[i % 4];
         top = finite > top ? finite : top;
     }
+    const double top = std::max(std::max(tops[0], tops[1]), std::max(tops[2], tops[3]));
     if (n == 0 || top < options.minPeak || !(top > 0))
         return waves;
     const double delta = std::max(options.minProminenceShare * top, options.minPeak / 2.0);
 
     // Zig-zag: alternate troughs and peaks, each confirmed by a move of delta. Each phase runs
-    // in its own call-free loop (risingPhase, fallingPhase): x86-64 has no callee-saved vector
-    // registers, so a push_back inside the day loop made the compiler keep the running
-    // extremes in memory, and every day waited on a store.
+    // in its own call-free loop (risingPhase, fallingPhase), kept out of line: x86-64 has no
+    // callee-saved vector registers, so with a push_back in the day loop, or inlined among this
+    // function's many values, the compiler kept the running extremes in memory, and every day
+    // waited on a store.
     thread_local std::vector<int> troughs;  // troughs[k] precedes peaks[k]; per thread, reused
     thread_local std::vector<int> peaks;
     troughs.clear();
