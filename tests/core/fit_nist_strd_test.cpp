@@ -15,6 +15,7 @@
 #include <functional>
 #include <map>
 #include <numbers>
+#include <optional>
 #include <string>
 
 namespace siftwave::fit {
@@ -286,12 +287,13 @@ TEST(NistStrd, ReaderReadsEveryFileWithItsHeaderCounts) {
 // Digits required: NIST certifies 11 significant digits, and the certified values are
 // themselves rounded to 11, so about 10.5 is the most any solver can show. We require 10 digits
 // in every parameter, every standard deviation and the residual sum of squares, from both
-// starting points; the table (printed, and in notes/fit.md) shows 10.2 to 11.7.
+// starting points; the table (printed, and in tests/data/reference/nist-strd/README.md) shows
+// 10.3 to 12.6.
 constexpr double kParameterDigits = 10.0;
 constexpr double kRssDigits = 10.0;
 
-// Cases that fail, with the reason (recorded in notes/fit.md). The test below checks that they
-// still fail as described, so this list cannot silently go stale.
+// Cases that fail, with the reason (recorded in tests/data/reference/nist-strd/README.md). The
+// test below checks that they still fail as described, so this list cannot silently go stale.
 struct KnownFailure {
     const char* name;
     int start;
@@ -325,17 +327,30 @@ struct Case {
     int start;
 };
 
+// One case solved, with its digits printed (the table in the test log); nullopt when the data
+// file cannot be read (the reader's error is then a test failure).
+std::optional<Outcome> solveCase(const Case& c, LinearSolver linearSolver) {
+    std::string error;
+    auto d = test::readNistDataset(dataPath(c.name), error);
+    if (!d) {
+        ADD_FAILURE() << error;
+        return std::nullopt;
+    }
+    const Outcome o = solveNist(*d, c.start == 1 ? d->start1 : d->start2, linearSolver);
+    std::printf("%-9s %-7s start%d %s digits: params %5.1f  sd %5.1f  rss %5.1f  %s\n",
+                c.name.c_str(), d->difficulty.c_str(), c.start,
+                linearSolver == LinearSolver::QR ? "QR    " : "normal", o.worstParameterLre,
+                o.worstSdLre, o.rssLre, o.summary.brief().c_str());
+    return o;
+}
+
 class NistStrdCase : public ::testing::TestWithParam<Case> {};
 
 TEST_P(NistStrdCase, SolverReproducesTheCertifiedValuesOrFailsAsRecorded) {
     const Case c = GetParam();
-    std::string error;
-    auto d = test::readNistDataset(dataPath(c.name), error);
-    ASSERT_TRUE(d) << error;
-    const Outcome o = solveNist(*d, c.start == 1 ? d->start1 : d->start2);
-    std::printf("%-9s %-7s start%d  digits: params %5.1f  sd %5.1f  rss %5.1f  %s\n",
-                c.name.c_str(), d->difficulty.c_str(), c.start, o.worstParameterLre, o.worstSdLre,
-                o.rssLre, o.summary.brief().c_str());
+    const auto outcome = solveCase(c, LinearSolver::QR);
+    ASSERT_TRUE(outcome);
+    const Outcome& o = *outcome;
     const KnownFailure* known = knownFailure(c.name, c.start);
     if (!known) {
         EXPECT_GE(o.worstParameterLre, kParameterDigits);
@@ -343,7 +358,7 @@ TEST_P(NistStrdCase, SolverReproducesTheCertifiedValuesOrFailsAsRecorded) {
         EXPECT_GE(o.rssLre, kRssDigits);
         return;
     }
-    // Recorded failure: still failing the way notes/fit.md says.
+    // Recorded failure: still failing the way the README of the data folder says.
     if (known->parametersFail) {
         EXPECT_LT(o.worstParameterLre, kParameterDigits) << "now passes: update kKnownFailures";
     } else {
@@ -361,15 +376,9 @@ TEST_P(NistStrdCase, SolverReproducesTheCertifiedValuesOrFailsAsRecorded) {
 class NistStrdNormalEquations : public ::testing::TestWithParam<Case> {};
 
 TEST_P(NistStrdNormalEquations, ReachTheCertifiedValuesLikeQr) {
-    const Case c = GetParam();
-    std::string error;
-    auto d = test::readNistDataset(dataPath(c.name), error);
-    ASSERT_TRUE(d) << error;
-    const Outcome o = solveNist(*d, c.start == 1 ? d->start1 : d->start2,
-                                LinearSolver::NormalEquations);
-    std::printf("%-9s %-7s start%d  normal equations, digits: params %5.1f  sd %5.1f  rss %5.1f  %s\n",
-                c.name.c_str(), d->difficulty.c_str(), c.start, o.worstParameterLre, o.worstSdLre,
-                o.rssLre, o.summary.brief().c_str());
+    const auto outcome = solveCase(GetParam(), LinearSolver::NormalEquations);
+    ASSERT_TRUE(outcome);
+    const Outcome& o = *outcome;
     EXPECT_GE(o.worstParameterLre, kParameterDigits);
     EXPECT_GE(o.worstSdLre, kParameterDigits);
     EXPECT_GE(o.rssLre, kRssDigits);
