@@ -12,6 +12,7 @@
 #include <cstdlib>
 #include <fstream>
 #include <string>
+#include <utility>
 
 namespace {
 
@@ -93,7 +94,41 @@ TEST(CliFit, AllRegionsAsCsvGivesAHeaderAndOneRowPerRegion) {
     for (char c : r.out)
         lines += c == '\n';
     EXPECT_EQ(r.out.rfind("region,model,method,window_first", 0), 0u);
-    EXPECT_GT(lines, 5u);
+    // One row per region of the drop: as many as the JSON of --all lists (17 in the sample).
+    const CliRun json = run(kDrop + " --all --json");
+    ASSERT_EQ(json.exitCode, 0);
+    const auto regions = nlohmann::json::parse(json.out);
+    ASSERT_TRUE(regions.is_array());
+    EXPECT_GT(regions.size(), 10u);
+    EXPECT_EQ(lines, regions.size() + 1);
+}
+
+// The sample's KV has three waves (samples/README.md): --wave picks them one by one, in time
+// order and without overlap; "largest" is the default, "latest" the last.
+TEST(CliFit, WaveChoosesTheWavesOfARegionOneByOne) {
+    auto window = [](const std::string& wave) {
+        const CliRun r = run(kDrop + " --region KV --wave " + wave + " --json");
+        EXPECT_EQ(r.exitCode, 0) << wave << ": " << r.out;
+        const auto j = nlohmann::json::parse(r.out, nullptr, false);
+        return std::pair{j["window"]["first"].get<std::string>(),
+                         j["window"]["last"].get<std::string>()};
+    };
+    const auto first = window("1"), second = window("2"), third = window("3");
+    EXPECT_LT(first.second, second.first);  // ISO dates compare as text
+    EXPECT_LT(second.second, third.first);
+    EXPECT_EQ(window("latest"), third);
+    const CliRun byDefault = run(kDrop + " --region KV --json");
+    ASSERT_EQ(byDefault.exitCode, 0);
+    const auto j = nlohmann::json::parse(byDefault.out);
+    EXPECT_EQ(
+        std::pair(j["window"]["first"].get<std::string>(), j["window"]["last"].get<std::string>()),
+        window("largest"));
+    // A wave that is not there is bad input for that region; a malformed choice is usage.
+    const CliRun missing = run(kDrop + " --region KV --wave 9 --json");
+    EXPECT_EQ(missing.exitCode, 1);
+    EXPECT_NE(missing.out.find("wave 9 asked for, 3 found"), std::string::npos) << missing.out;
+    EXPECT_EQ(run(kDrop + " --region KV --wave 0").exitCode, 2);
+    EXPECT_EQ(run(kDrop + " --region KV --wave x").exitCode, 2);
 }
 
 TEST(CliFit, BestModelReportsTheComparisonOfTheFourModels) {

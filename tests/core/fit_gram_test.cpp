@@ -18,7 +18,8 @@ std::vector<double> mixedValues(std::size_t count, std::uint64_t seed) {
     siftwave::testing::Xorshift64 rng(seed);
     std::vector<double> v(count);
     for (double& x : v) {
-        const double unit = static_cast<double>(rng.below(1u << 30)) / static_cast<double>(1u << 30);
+        const double unit =
+            static_cast<double>(rng.below(1u << 30)) / static_cast<double>(1u << 30);
         const double scale = static_cast<double>(1 + rng.below(1000));
         x = (unit - 0.5) * scale;
     }

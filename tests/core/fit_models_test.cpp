@@ -11,7 +11,6 @@
 #include <array>
 #include <cmath>
 #include <numbers>
-#include <utility>
 #include <string>
 #include <utility>
 #include <vector>

@@ -37,7 +37,7 @@ TEST_P(SmoothedLeastSquaresSums, ResidualsAndJacobianAreTheWindowSumsOfTheModelD
     std::vector<double> t, y, w;
     for (int i = h; i < span - h; ++i) {
         t.push_back(i);
-        y.push_back(40.0 + 30.0 * std::sin(0.05 * i));                // any target
+        y.push_back(40.0 + 30.0 * std::sin(0.05 * i));          // any target
         w.push_back(1.0 / std::sqrt(std::max(y.back(), 1.0)));  // weighted, as the option does
     }
     SmoothedLeastSquares::Workspace workspace;
@@ -83,12 +83,11 @@ TEST_P(SmoothedLeastSquaresSums, ResidualsAndJacobianAreTheWindowSumsOfTheModelD
     }
 }
 
-INSTANTIATE_TEST_SUITE_P(
-    WaveModels, SmoothedLeastSquaresSums,
-    ::testing::Values(Case{ModelKind::Gumbel, {30000, 140, 12}},
-                      Case{ModelKind::Logistic, {30000, 150, 9}},
-                      Case{ModelKind::Richards, {30000, 150, 9, 0.6}},
-                      Case{ModelKind::LogNormal, {30000, 4.9, 0.3}}));
+INSTANTIATE_TEST_SUITE_P(WaveModels, SmoothedLeastSquaresSums,
+                         ::testing::Values(Case{ModelKind::Gumbel, {30000, 140, 12}},
+                                           Case{ModelKind::Logistic, {30000, 150, 9}},
+                                           Case{ModelKind::Richards, {30000, 150, 9, 0.6}},
+                                           Case{ModelKind::LogNormal, {30000, 4.9, 0.3}}));
 
 }  // namespace
 }  // namespace siftwave::fit::detail

@@ -86,8 +86,7 @@ void gramPacked(const double* x, std::size_t m, std::size_t n, std::span<const d
         }
 #endif
         gramRows<N, false, true>(x, m, n, c, y, s, g);
-    }
-    else if (y.empty())
+    } else if (y.empty())
         gramRows<N, true, false>(x, m, n, c, y, s, g);
     else
         gramRows<N, true, true>(x, m, n, c, y, s, g);

@@ -299,9 +299,8 @@ void solveLeastSquares(const LeastSquaresProblem& problem, std::span<const doubl
             if (llt.info() == Eigen::Success) {
                 R = llt.matrixU();
                 qtr = llt.matrixL().solve(g);
-                fromNormalEquations =
-                    allFinite(R.data(), static_cast<std::size_t>(R.size())) &&
-                    allFinite(qtr.data(), static_cast<std::size_t>(n));
+                fromNormalEquations = allFinite(R.data(), static_cast<std::size_t>(R.size())) &&
+                                      allFinite(qtr.data(), static_cast<std::size_t>(n));
                 if (fromNormalEquations)
                     return;
             }

@@ -331,9 +331,10 @@ public:
         // From day `tail` on, z > ln 1000: the right tail, two days at a time.
         const double firstTail = std::ceil(mu + beta * std::log(1000.0) - t0);
         const std::size_t n = out.size();
-        const std::size_t tail = !(firstTail > 0.0)                  ? 0
-                                 : firstTail >= static_cast<double>(n) ? n
-                                                                      : static_cast<std::size_t>(firstTail);
+        const std::size_t tail = !(firstTail > 0.0) ? 0
+                                 : firstTail >= static_cast<double>(n)
+                                     ? n
+                                     : static_cast<std::size_t>(firstTail);
         gumbelRightTail(t0, tail, mu, invBeta, invK, scale, out, jac);
         double u = 0;
         for (std::size_t i = 0; i < tail; ++i) {
