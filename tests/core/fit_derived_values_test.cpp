@@ -8,12 +8,14 @@
 //   u^2 - 3u + 1 = 0, the rising inflection u = (3 + sqrt 5) / 2; the growth rate
 //   d ln f / dt = (u - 1) / beta, so the doubling time at the start quantile q is
 //   beta ln 2 / (-ln q - 1) (derived here from the density, no source needed).
-// The peak infectious load max_t C(t) - C(t - W) is found independently on a fine grid.
+// The peak infectious load (the largest W-day rolling sum of the incidence over days) is found
+// independently by summing the closed-form density over every day.
 // Also: fitting the waves of a series one by one, and the options' validation.
 #include "siftwave/fit/fit.h"
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <numbers>
 #include <vector>
@@ -76,11 +78,18 @@ void checkDerivedValues(const Truth& g, int days, double population) {
     expectRelative(d.fractionObserved.value, gumbelC(days - 1 + 0.5, g.K, g.mu, g.beta) / g.K, tol,
                    "fraction observed");
 
-    // The peak infectious load, by brute force over t on a grid of 1e-4 days around the peak.
-    const double W = o.infectiousWindowDays;
+    // The peak infectious load, by brute force: every day's sum of the closed-form incidence
+    // over the W days ending on it, the largest over all days of the series.
+    const int W = o.infectiousWindowDays;
     double load = 0;
-    for (double t = g.mu - 5; t <= g.mu + W + 5; t += 1e-4)
-        load = std::max(load, gumbelC(t, g.K, g.mu, g.beta) - gumbelC(t - W, g.K, g.mu, g.beta));
+    for (int day = 0; day < days + W; ++day) {
+        double sum = 0;
+        for (int k = 0; k < W; ++k) {
+            const double u = std::exp(-(day - k - g.mu) / g.beta);
+            sum += g.K / g.beta * u * std::exp(-u);
+        }
+        load = std::max(load, sum);
+    }
     expectRelative(d.peakInfectiousLoad.value, load, 1e-6, "infectious load");
     ASSERT_TRUE(d.peakInfectiousLoadPer100k && d.log10InfectiousShare);
     expectRelative(d.peakInfectiousLoadPer100k->value, load * 1e5 / population, 1e-6, "per 100k");

@@ -31,29 +31,6 @@ using SmallMatrix = Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen:
                                   kMaxWaveParameters, kMaxWaveParameters>;
 
 // ---------------------------------------------------------------- small numerical helpers
-template <class F>
-double goldenMaximum(F g, double a, double b, double tolerance) {
-    const double r = (std::sqrt(5.0) - 1.0) / 2.0;
-    double c = b - r * (b - a), d = a + r * (b - a);
-    double gc = g(c), gd = g(d);
-    while (std::abs(b - a) > tolerance) {
-        if (gc > gd) {
-            b = d;
-            d = c;
-            gd = gc;
-            c = b - r * (b - a);
-            gc = g(c);
-        } else {
-            a = c;
-            c = d;
-            gc = gd;
-            d = a + r * (b - a);
-            gd = g(d);
-        }
-    }
-    return 0.5 * (a + b);
-}
-
 enum DerivedIndex {
     kPeakDay,
     kPeakIncidence,
@@ -67,9 +44,52 @@ enum DerivedIndex {
     kDerivedCount
 };
 
-// `loadDay`: where the infectious load peaks. Empty: found by search (and returned); given: the
-// load is taken there. The delta method uses the latter, which is exact to first order (the
-// envelope theorem: at a maximum the derivative of the location does not enter).
+// The infectious load on window day d: the fitted incidence summed over the W days ending on d,
+// sum_{k=0}^{W-1} K f(d - k).
+double infectiousLoadOn(const WaveModel& model, std::span<const double> p, int d, int W) {
+    thread_local std::vector<double> days;
+    days.resize(static_cast<std::size_t>(W));
+    model.incidenceOnDays(d - W + 1, p, days, {});
+    double sum = 0;
+    for (double f : days)
+        sum += f;
+    return sum;
+}
+
+// The day of the peak infectious load: the largest W-day rolling sum of the fitted incidence
+// over days. It lies where the day entering and the day leaving the sum carry about the same
+// incidence, after the peak and less than W days after it; the search covers the days from
+// the one before the peak to W + 1 days after it. NaN when the peak is not a usable day.
+double peakInfectiousLoadDay(const WaveModel& model, std::span<const double> p, double peak,
+                             int W) {
+    if (!(std::abs(peak) < 1e7))
+        return kNaN;
+    const int from = static_cast<int>(std::floor(peak)) - 1;
+    const int to = static_cast<int>(std::ceil(peak)) + W + 1;
+    // The incidence on days from - W + 1 .. to, then the rolling sums of W of them.
+    thread_local std::vector<double> f;
+    f.resize(static_cast<std::size_t>(to - from + W));
+    model.incidenceOnDays(from - W + 1, p, f, {});
+    double sum = 0;
+    for (int k = 0; k < W; ++k)
+        sum += f[static_cast<std::size_t>(k)];
+    int best = from;
+    double bestSum = sum;
+    for (int d = from + 1; d <= to; ++d) {
+        const std::size_t entering = static_cast<std::size_t>(d - from + W - 1);
+        sum += f[entering] - f[entering - static_cast<std::size_t>(W)];
+        if (sum > bestSum) {
+            bestSum = sum;
+            best = d;
+        }
+    }
+    return best;
+}
+
+// `loadDay`: where the infectious load peaks. Searched (and returned) when `searchLoad`; given
+// otherwise, and the load is taken there. The delta method uses the latter, which is exact to
+// first order (the envelope theorem: at a maximum the derivative of the location does not
+// enter).
 std::array<double, kDerivedCount> derive(const WaveModel& model, std::span<const double> p,
                                          const FitOptions& o, double lastDataDay, double& loadDay,
                                          bool searchLoad) {
@@ -88,11 +108,11 @@ std::array<double, kDerivedCount> derive(const WaveModel& model, std::span<const
     const double f1 = model.incidenceAt(d[kStart] + h, p), f0 = model.incidenceAt(d[kStart] - h, p);
     const double growth = (f1 > 0 && f0 > 0) ? (std::log(f1) - std::log(f0)) / (2 * h) : kNaN;
     d[kDoubling] = growth > 0 ? std::numbers::ln2 / growth : kNaN;
-    const double W = o.infectiousWindowDays;
-    auto load = [&](double t) { return model.cumulative(t, p) - model.cumulative(t - W, p); };
+    const int W = o.infectiousWindowDays;
     if (searchLoad)
-        loadDay = goldenMaximum(load, peak - 1.0, peak + W + 1.0, 1e-4);
-    d[kLoad] = load(loadDay);
+        loadDay = peakInfectiousLoadDay(model, p, peak, W);
+    d[kLoad] =
+        std::isfinite(loadDay) ? infectiousLoadOn(model, p, static_cast<int>(loadDay), W) : kNaN;
     return d;
 }
 

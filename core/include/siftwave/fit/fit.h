@@ -46,10 +46,10 @@
 //   peak day and incidence; wave size K; fraction observed = C(last day with data) / K; start
 //   and end = quantiles of F (FitOptions::startQuantile/endQuantile); fastest growth = day of
 //   the largest f'(t); doubling time = ln 2 / (d ln f / dt) at the start day; peak infectious
-//   load = max over t of C(t) - C(t - W), the cases of the last W days (W =
-//   infectiousWindowDays, default 14: people are infectious for about ten days after
-//   infection -- common practice, no source), per 100,000 and as log10 of the population
-//   share when the population is known.
+//   load = the largest rolling sum, over days d, of the fitted incidence of the W days ending
+//   on d, sum_{k=0}^{W-1} K f(d - k) (W = infectiousWindowDays, default 14: people are
+//   infectious for about ten days after infection -- common practice, no source), per 100,000
+//   and as log10 of the population share when the population is known.
 
 #include "siftwave/date.h"
 #include "siftwave/fit/levenberg_marquardt.h"
@@ -130,7 +130,7 @@ struct DerivedQuantities {
     Estimate endDay;              // F = endQuantile
     Estimate fastestGrowthDay;    // argmax f'
     Estimate doublingTimeDays;    // ln 2 / growth rate at the start day
-    Estimate peakInfectiousLoad;  // max_t C(t) - C(t - W)
+    Estimate peakInfectiousLoad;  // max over days d of sum_{k<W} K f(d - k)
     std::optional<Estimate> peakInfectiousLoadPer100k;
     std::optional<Estimate> log10InfectiousShare;  // log10(load / population)
 };
