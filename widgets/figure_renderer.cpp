@@ -3,7 +3,9 @@
 #include "widgets/plot_style.h"
 #include "widgets/qcustomplot_include.h"
 #include "widgets/series_chart.h"
+#include "widgets/svg_document.h"
 
+#include <QBuffer>
 #include <QFileInfo>
 #include <QImage>
 #include <QPageSize>
@@ -1007,22 +1009,32 @@ Status writeFigures(QIODevice& device, FigureFormat format,
             break;
         }
         case FigureFormat::Svg: {
+            // Drawn into memory with no title or description, then written again through an
+            // XML writer (svg_document.h): the file is well-formed XML whatever the names hold.
+            QByteArray generated;
+            QBuffer buffer(&generated);
+            buffer.open(QIODevice::WriteOnly);
             QSvgGenerator svg;
-            svg.setOutputDevice(&device);
+            svg.setOutputDevice(&buffer);
             svg.setResolution(static_cast<int>(kLogicalDpi));
             svg.setSize(QSize(static_cast<int>(std::lround(logical.width())),
                               static_cast<int>(std::lround(logical.height()))));
             svg.setViewBox(page);
-            svg.setTitle(qs(specs.front().title));
-            std::string description;
-            for (const std::string& line : pageCaptionLines(specs))
-                description += line + "\n";
-            svg.setDescription(qs(description));
             QCPPainter painter(&svg);
             painter.setMode(QCPPainter::pmVectorized);
             painter.setMode(QCPPainter::pmNoCaching);
             painted = paintSmallMultiples(painter, page, specs, options.columns);
             written = painter.end();
+            if (!written)
+                break;
+            std::string description;
+            for (const std::string& line : pageCaptionLines(specs))
+                description += line + "\n";
+            Result<QByteArray> finished =
+                finishSvg(generated, qs(specs.front().title), qs(description), options.svgTarget);
+            if (!finished)
+                return finished.error();
+            written = device.write(*finished) == finished->size();
             break;
         }
         case FigureFormat::Pdf: {

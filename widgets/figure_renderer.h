@@ -18,6 +18,7 @@
 #include "siftwave/report/figure_spec.h"
 #include "siftwave/result.h"
 #include "widgets/series_view.h"
+#include "widgets/svg_document.h"
 
 #include <QRectF>
 #include <QSize>
@@ -61,6 +62,7 @@ struct FigureExportOptions {
     FigureSize size = FigureSize::halfA4();
     int dpi = 200;    // PNG resolution, 50..1200 (SVG and PDF are vector)
     int columns = 0;  // small multiples: panels per row (0: about square)
+    SvgTarget svgTarget = SvgTarget::File;  // SVG only: a file of its own, or inline in HTML
 };
 
 /// Where the plot of a painted figure lies (logical page coordinates) and what

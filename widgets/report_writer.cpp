@@ -36,11 +36,15 @@ QString placeholderOf(std::size_t index) {
     return QStringLiteral("[[siftwave figure %1]]").arg(index + 1);
 }
 
-Result<QByteArray> figureBytes(const report::FigureSpec& spec, FigureFormat format, int dpi) {
+// The figure as an <svg> element to place in the HTML page (no XML declaration; it scales
+// to the page). Written by an XML writer, never patched as text.
+Result<QByteArray> inlineSvgFigure(const report::FigureSpec& spec) {
     QByteArray bytes;
     QBuffer buffer(&bytes);
     buffer.open(QIODevice::WriteOnly);
-    if (Status s = writeFigures(buffer, format, {spec}, reportFigureOptions(dpi)); !s)
+    FigureExportOptions options = reportFigureOptions(96);
+    options.svgTarget = SvgTarget::InlineHtml;
+    if (Status s = writeFigures(buffer, FigureFormat::Svg, {spec}, options); !s)
         return s.error();
     return bytes;
 }
@@ -75,13 +79,10 @@ Status writeBriefingReport(const QString& path, const report::BriefingReport& re
     if (*format == ReportFileFormat::Html) {
         std::vector<std::string> markup;
         for (const report::FigureSpec& spec : report.figures) {
-            auto svg = figureBytes(spec, FigureFormat::Svg, 96);
+            auto svg = inlineSvgFigure(spec);
             if (!svg)
                 return svg.error();
-            // Inline: drop the XML declaration, keep the <svg> element, let it scale.
-            QByteArray element = svg->mid(std::max<qsizetype>(0, svg->indexOf("<svg")));
-            element.replace("<svg ", "<svg style=\"max-width:100%;height:auto\" ");
-            markup.push_back(element.toStdString());
+            markup.push_back(svg->toStdString());
         }
         return writeBytes(path, QByteArray::fromStdString(report::briefingHtml(report, markup)));
     }

@@ -260,5 +260,32 @@ TEST(IngestBadInput, MangledFilesNeverCrash) {
     EXPECT_GT(errors, 0);
 }
 
+// Regression (found by libFuzzer, reliability issue item 2): a short record before the first
+// whole one made the calendar prediction read a date field past the record's end. Under
+// AddressSanitizer this was a heap-buffer-overflow; now the short record is an error with its
+// line, and records after it are never indexed past their fields.
+TEST(IngestBadInput, AShortRecordBeforeTheFirstWholeOneIsReportedNotRead) {
+    Result<Drop> drop = parseDrop("x,y,z\na\n,2026-01-01,5\n", "short.csv");
+    if (drop.ok()) {
+        // Read as some layout: the short record must then be a warning on line 2.
+        bool warned = false;
+        for (const Warning& w : drop->warnings)
+            warned = warned || w.line == 2;
+        EXPECT_TRUE(warned);
+    } else {
+        EXPECT_EQ(drop.error().file, "short.csv");
+        EXPECT_GT(drop.error().line, 0u) << drop.error().describe();
+    }
+    // Every short-record position in the first rows of a long file.
+    for (int at = 0; at < 5; ++at) {
+        std::string text = "date,region,cases\n";
+        for (int i = 0; i < 5; ++i)
+            text += i == at ? std::string("A\n") : "2026-01-0" + std::to_string(i + 1) + ",R,1\n";
+        Result<Drop> d = parseDrop(text, "short.csv");
+        if (!d.ok())
+            EXPECT_EQ(d.error().line, static_cast<std::uint64_t>(at + 2)) << d.error().describe();
+    }
+}
+
 }  // namespace
 }  // namespace siftwave

@@ -113,9 +113,17 @@ bool DropReader::predictCalendar() {
         return false;
     const std::size_t dateCol = static_cast<std::size_t>(m_roles.dateColumn);
     const std::size_t regionCol = static_cast<std::size_t>(m_roles.regionColumn);
+    if (dateCol >= m_names.size() || regionCol >= m_names.size())
+        return false;
     DateFormat format = m_dateFormat;
     if (format == DateFormat::Unknown) {
-        const DateShape shape = dateShapeOf(m_sample.front().fields[dateCol]);
+        // The first sample record with every field: a short record has no date to look at.
+        const auto whole =
+            std::find_if(m_sample.begin(), m_sample.end(),
+                         [&](const SampleRecord& r) { return r.fields.size() == m_names.size(); });
+        if (whole == m_sample.end())
+            return false;
+        const DateShape shape = dateShapeOf(whole->fields[dateCol]);
         if (shape == DateShape::Iso)
             format = DateFormat::Iso;
         else if (shape == DateShape::Compact)
