@@ -87,9 +87,8 @@ DecisionPane::DecisionPane(QWidget* parent)
     clear();
 }
 
-void DecisionPane::setCalendar(Date firstDay, int days) {
-    m_firstDay = firstDay;
-    m_days = days;
+void DecisionPane::setCalendar(const TimeAxis& axis) {
+    m_axis = axis;
 }
 
 void DecisionPane::begin(const Decision& decision, const QString& title, const QString& reason) {
@@ -182,18 +181,18 @@ Decision DecisionPane::decision() const {
 std::optional<DayIndexRange> DecisionPane::window() const {
     if (!m_decision || !m_decision->window)
         return std::nullopt;
-    return DayIndexRange{m_decision->window->first - m_firstDay,
-                         m_decision->window->last - m_firstDay};
+    return DayIndexRange{m_axis.periodOnGrid(m_decision->window->first),
+                         m_axis.periodOnGrid(m_decision->window->last)};
 }
 
 void DecisionPane::setWindow(DayIndexRange window) {
     if (!m_decision || !m_decision->window)
         return;
-    DayRange range{m_firstDay + window.first, m_firstDay + window.last};
-    // A redistribution spreads over days before the dump day; keep the window there.
+    DayRange range{m_axis.periodStart(window.first), m_axis.periodStart(window.last)};
+    // A redistribution spreads over periods before the dump's; keep the window there.
     if (m_decision->kind == DecisionKind::Redistribute && m_decision->date &&
         range.last >= *m_decision->date)
-        range.last = *m_decision->date - 1;
+        range.last = m_axis.periodStart(m_axis.periodOnGrid(*m_decision->date) - 1);
     if (range.last < range.first)
         range.first = range.last;
     m_decision->window = range;

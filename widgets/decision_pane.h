@@ -35,7 +35,7 @@ public:
     explicit DecisionPane(QWidget* parent = nullptr);
 
     /// The drop's calendar (for day indices on the plot).
-    void setCalendar(Date firstDay, int days);
+    void setCalendar(const TimeAxis& axis);
     /// Starts preparing `decision`; `reason` is the draft shown in the reason field.
     void begin(const Decision& decision, const QString& title, const QString& reason);
     void clear();
@@ -66,8 +66,7 @@ private:
     void updateApply();
 
     std::optional<Decision> m_decision;
-    Date m_firstDay;
-    int m_days = 0;
+    TimeAxis m_axis;
     bool m_previewOk = false;
     QLabel* m_title;
     QComboBox* m_method;

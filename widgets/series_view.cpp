@@ -36,8 +36,8 @@ SeriesView seriesViewFromDrop(const Drop& drop, std::size_t region, std::size_t 
     SeriesView view;
     view.regionCode = QString::fromStdString(drop.regionCodes.at(region));
     view.measure = QString::fromStdString(drop.measures.at(measure));
-    view.firstDay = drop.firstDay;
-    view.days = drop.days;
+    view.firstDay = drop.axis.first();
+    view.days = drop.periods();
     view.raw.assign(view.days, kNaN);
     view.rawState.assign(view.days, CellState::Absent);
     view.sourceLine.assign(view.days, 0);
@@ -71,7 +71,7 @@ void addPreviousRelease(SeriesView& view, const Drop& previous, const QString& l
     view.previousLabel = label;
     view.previous.assign(view.days, kNaN);
     for (int d = 0; d < view.days; ++d) {
-        const auto index = previous.dayIndex(view.dayAt(d));
+        const auto index = previous.periodOf(view.dayAt(d));
         if (!index)
             continue;
         const Cell& cell = previous.cell(*measure, *region, *index);

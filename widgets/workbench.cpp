@@ -49,7 +49,7 @@ SeriesView Workbench::seriesView(const QString& regionCode, int measure, int sec
         FindingMark mark;
         mark.id = QString::fromStdString(f.id);
         mark.label = QString::fromLatin1(scan::findingKindName(f.kind));
-        mark.days = {*f.first - m_drop->firstDay, *f.last - m_drop->firstDay};
+        mark.days = {*f.first - m_drop->axis.first(), *f.last - m_drop->axis.first()};
         mark.severity = f.severity == scan::Severity::Critical  ? 2
                         : f.severity == scan::Severity::Warning ? 1
                                                                 : 0;
@@ -75,7 +75,7 @@ std::vector<double> Workbench::cleanedCounts(const QString& regionCode, int meas
     const std::optional<std::size_t> region = m_drop->regionIndex(regionCode.toStdString());
     if (!region)
         return {};
-    std::vector<double> counts(static_cast<std::size_t>(m_drop->days),
+    std::vector<double> counts(static_cast<std::size_t>(m_drop->periods()),
                                std::numeric_limits<double>::quiet_NaN());
     const auto cells = m_cleaned.series(static_cast<std::size_t>(measure), *region);
     for (std::size_t d = 0; d < cells.size(); ++d)
@@ -242,7 +242,7 @@ Result<fit::FitResult> Workbench::fitRegion(const QString& regionCode, int measu
     const std::vector<double> counts = cleanedCounts(regionCode, measure);
     if (counts.empty())
         return makeError(ErrorCode::NotFound, "no such region or measure in the open drop");
-    return fit::fitSeries(fit::DailySeries{m_drop->firstDay, counts}, options,
+    return fit::fitSeries(fit::DailySeries{m_drop->axis.first(), counts}, options,
                           population(regionCode));
 }
 
@@ -251,7 +251,7 @@ std::vector<fit::ModelComparisonRow> Workbench::compareModels(
     const std::vector<double> counts = cleanedCounts(regionCode, measure);
     if (counts.empty())
         return {};
-    return fit::compareModels(fit::DailySeries{m_drop->firstDay, counts}, options,
+    return fit::compareModels(fit::DailySeries{m_drop->axis.first(), counts}, options,
                               population(regionCode));
 }
 

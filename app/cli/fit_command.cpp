@@ -267,11 +267,11 @@ Result<std::pair<int, int>> parseWindow(const std::string& text, const Drop& dro
     auto b = Date::fromIso(text.substr(colon + 1));
     if (!a || !b || *b < *a)
         return bad();
-    auto ia = drop.dayIndex(*a), ib = drop.dayIndex(*b);
+    auto ia = drop.periodOf(*a), ib = drop.periodOf(*b);
     if (!ia || !ib) {
         return makeError(ErrorCode::Usage, "--window " + text +
                                                " lies outside the drop's calendar " +
-                                               drop.firstDay.iso() + " .. " + drop.lastDay().iso());
+                                               drop.axis.first().iso() + " .. " + drop.axis.lastStart().iso());
     }
     return std::pair{*ia, *ib};
 }
@@ -409,7 +409,7 @@ int runFit(int argc, char** argv, int first) {
         }
         measure = *idx;
     }
-    if (drop->measures.empty() || drop->days == 0) {
+    if (drop->measures.empty() || drop->periods() == 0) {
         printError(makeError(ErrorCode::NotFound, "the drop holds no counts to fit"), json);
         return kExitBadInput;
     }
@@ -471,7 +471,7 @@ int runFit(int argc, char** argv, int first) {
                 population = static_cast<double>(*e->population);
             }
         }
-        regions[k] = {code, {drop->firstDay, counts[k]}, population};
+        regions[k] = {code, {drop->axis.first(), counts[k]}, population};
     }
     const auto results = fit::fitRegions(regions, batch);
 

@@ -67,9 +67,15 @@ nlohmann::json inspectJson(const Drop& drop) {
     j["regions"] = drop.regionCodes.size();
     j["region_codes"] = drop.regionCodes;
     j["measures"] = drop.measures;
-    j["first_date"] = drop.days > 0 ? nlohmann::json(drop.firstDay.iso()) : nlohmann::json(nullptr);
-    j["last_date"] = drop.days > 0 ? nlohmann::json(drop.lastDay().iso()) : nlohmann::json(nullptr);
-    j["days"] = drop.days;
+    // The calendar: first_date and last_date are the first days of the first and last periods.
+    const TimeAxis& axis = drop.axis;
+    j["cadence"] = cadenceName(axis.cadence());
+    j["week_start"] = axis.weekly() ? nlohmann::json(weekStartName(axis.weekStart())) : nlohmann::json(nullptr);
+    j["week_date"] = axis.weekly() ? nlohmann::json(weekDateName(axis.weekDate())) : nlohmann::json(nullptr);
+    j["periods"] = axis.periods();
+    j["first_date"] = axis.empty() ? nlohmann::json(nullptr) : nlohmann::json(axis.first().iso());
+    j["last_date"] = axis.empty() ? nlohmann::json(nullptr) : nlohmann::json(axis.lastStart().iso());
+    j["days"] = axis.spanDays();
     j["cells"] = {{"reported", counts.reported},
                   {"absent", counts.absent},
                   {"blank", counts.blank},
@@ -130,10 +136,8 @@ void printText(const Drop& drop) {
     for (std::size_t i = 0; i < drop.measures.size(); ++i)
         measures += (i ? ", " : "") + drop.measures[i];
     std::printf("measures    %s\n", measures.c_str());
-    if (drop.days > 0) {
-        std::printf("dates       %s .. %s (%d days)\n", drop.firstDay.iso().c_str(),
-                    drop.lastDay().iso().c_str(), drop.days);
-    }
+    if (!drop.axis.empty())
+        std::printf("calendar    %s\n", drop.axis.describe().c_str());
     std::printf("cells       %zu reported, %zu absent, %zu blank, %zu unparsable\n",
                 counts.reported, counts.absent, counts.blank, counts.unparsable);
     std::printf("duplicates  %zu rows\n", duplicateRowCount(drop));

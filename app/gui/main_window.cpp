@@ -554,8 +554,8 @@ void MainWindow::onDropChanged() {
         m_dropLabel->setText(tr("%1 · %2 regions · %3 to %4 · SHA-256 %5…")
                                  .arg(info.fileName())
                                  .arg(drop.regionCodes.size())
-                                 .arg(QString::fromStdString(drop.firstDay.iso()),
-                                      QString::fromStdString(drop.lastDay().iso()),
+                                 .arg(QString::fromStdString(drop.axis.first().iso()),
+                                      QString::fromStdString(drop.axis.lastStart().iso()),
                                       QString::fromStdString(drop.source.sha256.substr(0, 12))));
     } else {
         m_projectPath.clear();
@@ -651,8 +651,9 @@ void MainWindow::focusPlotOn(const scan::Finding& finding) {
         }
     }
     if (finding.first && finding.last) {
-        const int first = *finding.first - m_workbench->drop().firstDay;
-        const int last = *finding.last - m_workbench->drop().firstDay;
+        const TimeAxis& axis = m_workbench->drop().axis;
+        const int first = axis.periodOnGrid(*finding.first);
+        const int last = axis.periodOnGrid(*finding.last);
         m_plot->focusOn(widgets::DayIndexRange{first - 21, last + 21});
     }
 }
@@ -782,9 +783,9 @@ void MainWindow::updateReleaseSummary() {
                                   .arg(QString::fromLatin1(layoutName(src.layout)), delimiter,
                                        src.dialect.header ? tr("with header") : tr("no header")));
     html += row(tr("Dates"), tr("%1 to %2 (%3 days, read as %4)")
-                                 .arg(QString::fromStdString(drop.firstDay.iso()),
-                                      QString::fromStdString(drop.lastDay().iso()))
-                                 .arg(drop.days)
+                                 .arg(QString::fromStdString(drop.axis.first().iso()),
+                                      QString::fromStdString(drop.axis.lastStart().iso()))
+                                 .arg(drop.periods())
                                  .arg(text(src.dateFormat)));
     html += row(tr("Rows"), c.toString(static_cast<qulonglong>(drop.rows)));
     html += row(tr("Regions"), c.toString(static_cast<qulonglong>(drop.regionCodes.size())));
@@ -801,8 +802,8 @@ void MainWindow::updateReleaseSummary() {
         html += row(
             tr("Previous release"),
             tr("%1 (%2 to %3)")
-                .arg(text(previous->source.path), QString::fromStdString(previous->firstDay.iso()),
-                     QString::fromStdString(previous->lastDay().iso())));
+                .arg(text(previous->source.path), QString::fromStdString(previous->axis.first().iso()),
+                     QString::fromStdString(previous->axis.lastStart().iso())));
     html += QStringLiteral("</table>");
     if (!drop.warnings.empty()) {
         html += tr("<p><b>%1 warning(s) from the reader</b></p><ul>").arg(drop.warnings.size());

@@ -26,7 +26,7 @@ void MainWindow::startBatchFit() {
     const Drop& drop = m_workbench->drop();
     const int measure = m_plot->measure();
     widgets::BatchFitRequest request;
-    request.firstDay = drop.firstDay;
+    request.firstDay = drop.axis.first();
     std::map<std::string, std::string> names;
     for (const std::string& code : drop.regionCodes) {
         const QString region = QString::fromStdString(code);

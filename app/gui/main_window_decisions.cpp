@@ -44,7 +44,7 @@ bool MainWindow::decideFinding(const QString& id) {
 
 void MainWindow::beginDecision(const Decision& decision, const QString& title,
                                const QString& reason) {
-    m_decisionPane->setCalendar(m_workbench->drop().firstDay, m_workbench->drop().days);
+    m_decisionPane->setCalendar(m_workbench->drop().axis);
     m_decisionPane->begin(decision, title, reason);
     m_plot->setDayPickingEnabled(false);
     if (auto* dock = findChild<QDockWidget*>(QStringLiteral("decisionDock")))

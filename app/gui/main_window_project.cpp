@@ -44,10 +44,10 @@ void MainWindow::restoreProjectView(const ProjectFile& project) {
         fit::methodFromName(project.fit.method).value_or(fit::FitMethod::LeastSquares),
         extra("fit.weekday_factors") == "true",
         extra("fit.wave") == "latest" ? fit::WaveChoice::Latest : fit::WaveChoice::Largest);
-    m_fitPane->setCalendar(drop.firstDay, drop.days);
+    m_fitPane->setCalendar(drop.axis.first(), drop.periods());
     if (project.fit.windowFirst && project.fit.windowLast)
-        m_fitPane->setManualWindow(widgets::DayIndexRange{*project.fit.windowFirst - drop.firstDay,
-                                                          *project.fit.windowLast - drop.firstDay});
+        m_fitPane->setManualWindow(widgets::DayIndexRange{*project.fit.windowFirst - drop.axis.first(),
+                                                          *project.fit.windowLast - drop.axis.first()});
     else
         m_fitPane->setAutomaticWindow();
     m_plot->chooseMeasure(measure ? static_cast<int>(*measure) : 0);
@@ -56,8 +56,8 @@ void MainWindow::restoreProjectView(const ProjectFile& project) {
         selectRegion(QString::fromStdString(project.view.region));
     redrawSeries();  // the fit settings are new even when the region is not
     if (project.view.visibleFirst && project.view.visibleLast)
-        m_plot->setVisibleDays(widgets::DayIndexRange{*project.view.visibleFirst - drop.firstDay,
-                                                      *project.view.visibleLast - drop.firstDay});
+        m_plot->setVisibleDays(widgets::DayIndexRange{*project.view.visibleFirst - drop.axis.first(),
+                                                      *project.view.visibleLast - drop.axis.first()});
 }
 
 ProjectFile MainWindow::projectOfWindow(const QString& projectPath) const {
@@ -81,15 +81,15 @@ ProjectFile MainWindow::projectOfWindow(const QString& projectPath) const {
         p.view.secondMeasure = drop.measures[static_cast<std::size_t>(m_plot->secondMeasure())];
     if (!m_plot->view().empty()) {
         const widgets::DayIndexRange visible = m_plot->visibleDays();
-        p.view.visibleFirst = drop.firstDay + visible.first;
-        p.view.visibleLast = drop.firstDay + visible.last;
+        p.view.visibleFirst = drop.periodStart(visible.first);
+        p.view.visibleLast = drop.periodStart(visible.last);
     }
     const fit::FitOptions options = m_fitPane->options();
     p.fit.model = m_fitPane->bestModelWanted() ? "best" : fit::modelName(options.model);
     p.fit.method = fit::methodName(options.method);
     if (const auto window = m_fitPane->manualWindow()) {
-        p.fit.windowFirst = drop.firstDay + window->first;
-        p.fit.windowLast = drop.firstDay + window->last;
+        p.fit.windowFirst = drop.periodStart(window->first);
+        p.fit.windowLast = drop.periodStart(window->last);
     }
     p.fit.smoothingDays = options.smoothingWindow;
     p.extra["fit.weekday_factors"] = options.weekdayFactors ? "true" : "false";

@@ -16,8 +16,8 @@ using namespace siftwave;
 
 Drop makeDrop(int regions, int days) {
     Drop drop;
-    drop.firstDay = *Date::fromIso("2024-01-01");
-    drop.days = days;
+    drop.axis = TimeAxis::daily(*Date::fromIso("2024-01-01"),
+        days);
     drop.measures = {"cases"};
     drop.tables.emplace_back(static_cast<std::size_t>(regions), static_cast<std::size_t>(days));
     std::mt19937_64 rng(42);
@@ -66,7 +66,7 @@ void BM_FitAllRegions(benchmark::State& state) {
         std::vector<fit::RegionSeries> regions(drop.regionCodes.size());
         for (std::size_t r = 0; r < regions.size(); ++r) {
             counts[r] = series::countsOf(drop, 0, r);
-            regions[r] = {drop.regionCodes[r], {drop.firstDay, counts[r]}, 1e5};
+            regions[r] = {drop.regionCodes[r], {drop.axis.first(), counts[r]}, 1e5};
         }
         const auto results = fit::fitRegions(regions, options);
         failed = 0;
@@ -93,7 +93,7 @@ void BM_FitOneRegion(benchmark::State& state) {
     const Drop& drop = benchDrop();
     const auto counts = series::countsOf(drop, 0, 0);
     for (auto _ : state) {
-        auto r = fit::fitSeries({drop.firstDay, counts});
+        auto r = fit::fitSeries({drop.axis.first(), counts});
         benchmark::DoNotOptimize(r);
     }
 }

@@ -32,10 +32,10 @@ Ledger hundredsOfDecisions(const Drop& drop, int count) {
         d.kind = DecisionKind::Redistribute;
         d.region = drop.regionCodes[r];
         d.measure = drop.measures[0];
-        d.date = drop.dayAt(500);
+        d.date = drop.periodStart(500);
         const std::int64_t held = cleaned.cell(0, r, 500).counted();
         d.excess = held > 1 ? held / 2 : 1;
-        d.window = DayRange{drop.dayAt(486), drop.dayAt(499)};
+        d.window = DayRange{drop.periodStart(486), drop.periodStart(499)};
         d.redistributeMethod =
             i % 2 ? RedistributeMethod::Proportional : RedistributeMethod::Baseline;
         EntryMeta meta{"bench", "2026-01-01T00:00:00Z", "benchmark"};
@@ -59,9 +59,9 @@ void BM_RecordDecision(benchmark::State& state) {
     d.kind = DecisionKind::Redistribute;
     d.region = drop.regionCodes[7];
     d.measure = drop.measures[0];
-    d.date = drop.dayAt(500);
+    d.date = drop.periodStart(500);
     d.excess = 1;
-    d.window = DayRange{drop.dayAt(486), drop.dayAt(499)};
+    d.window = DayRange{drop.periodStart(486), drop.periodStart(499)};
     d.redistributeMethod = RedistributeMethod::Baseline;
     for (auto _ : state) {
         auto effect = previewDecision(drop, cleaned, d);

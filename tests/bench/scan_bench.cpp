@@ -63,7 +63,7 @@ void BM_ScanAfterIngest_3000x1000(benchmark::State& state) {
         benchmark::DoNotOptimize(findings);
     }
     state.counters["findings"] = static_cast<double>(findings);
-    state.counters["cells"] = static_cast<double>(drop.regionCodes.size()) * drop.days;
+    state.counters["cells"] = static_cast<double>(drop.regionCodes.size()) * drop.periods();
 }
 BENCHMARK(BM_ScanAfterIngest_3000x1000)->Unit(benchmark::kMillisecond);
 

@@ -249,7 +249,7 @@ TEST(IngestBadInput, MangledFilesNeverCrash) {
             EXPECT_EQ(drop->tables.size(), drop->measures.size());
             for (const CellTable& t : drop->tables) {
                 EXPECT_EQ(t.regions(), drop->regionCodes.size());
-                EXPECT_EQ(t.days(), static_cast<std::size_t>(drop->days));
+                EXPECT_EQ(t.days(), static_cast<std::size_t>(drop->periods()));
             }
         } else {
             ++errors;

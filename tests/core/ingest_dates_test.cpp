@@ -67,8 +67,8 @@ TEST(IngestDates, ReadsCompactDates) {
     Result<Drop> drop = parseDrop("date,region,cases\n20260101,A,1\n20260103,A,2\n", "c.csv");
     ASSERT_TRUE(drop.ok()) << drop.error().describe();
     EXPECT_EQ(drop->source.dateFormat, "YYYYMMDD");
-    EXPECT_EQ(drop->days, 3);
-    EXPECT_EQ(drop->lastDay().iso(), "2026-01-03");
+    EXPECT_EQ(drop->periods(), 3);
+    EXPECT_EQ(drop->axis.lastStart().iso(), "2026-01-03");
 }
 
 TEST(IngestDates, RefusesToGuessAnAmbiguousDayMonthOrder) {
@@ -86,14 +86,14 @@ TEST(IngestDates, RefusesToGuessAnAmbiguousDayMonthOrder) {
     dayFirst.dateFormat = "DD/MM/YYYY";
     Result<Drop> asDays = parseDrop(text, "amb.csv", dayFirst);
     ASSERT_TRUE(asDays.ok());
-    EXPECT_EQ(asDays->firstDay.iso(), "2026-04-03");
-    EXPECT_EQ(asDays->days, 3);
+    EXPECT_EQ(asDays->axis.first().iso(), "2026-04-03");
+    EXPECT_EQ(asDays->periods(), 3);
     IngestOptions monthFirst;
     monthFirst.dateFormat = "MM/DD/YYYY";
     Result<Drop> asMonths = parseDrop(text, "amb.csv", monthFirst);
     ASSERT_TRUE(asMonths.ok());
-    EXPECT_EQ(asMonths->firstDay.iso(), "2026-03-04");
-    EXPECT_EQ(asMonths->days, 31 + 30 + 1);  // 2026-03-04 .. 2026-05-04
+    EXPECT_EQ(asMonths->axis.first().iso(), "2026-03-04");
+    EXPECT_EQ(asMonths->periods(), 31 + 30 + 1);  // 2026-03-04 .. 2026-05-04
 }
 
 TEST(IngestDates, ADayAboveTwelveAnywhereSettlesTheOrder) {
@@ -106,13 +106,13 @@ TEST(IngestDates, ADayAboveTwelveAnywhereSettlesTheOrder) {
     Result<Drop> dayFirst = parseDrop(text + "13/01/2026,A,13\n", "x.csv");
     ASSERT_TRUE(dayFirst.ok()) << dayFirst.error().describe();
     EXPECT_EQ(dayFirst->source.dateFormat, "DD/MM/YYYY");
-    EXPECT_EQ(dayFirst->firstDay.iso(), "2026-01-01");
-    EXPECT_EQ(dayFirst->lastDay().iso(), "2026-01-13");
+    EXPECT_EQ(dayFirst->axis.first().iso(), "2026-01-01");
+    EXPECT_EQ(dayFirst->axis.lastStart().iso(), "2026-01-13");
     Result<Drop> monthFirst =
         parseDrop("date,region,cases\n01/02/2026,A,1\n01/13/2026,A,2\n", "y.csv");
     ASSERT_TRUE(monthFirst.ok());
     EXPECT_EQ(monthFirst->source.dateFormat, "MM/DD/YYYY");
-    EXPECT_EQ(monthFirst->firstDay.iso(), "2026-01-02");
+    EXPECT_EQ(monthFirst->axis.first().iso(), "2026-01-02");
 }
 
 TEST(IngestDates, MixedDayMonthOrdersAreAnError) {

@@ -31,7 +31,7 @@ const Cell& cellOf(const Drop& drop, const std::string& measure, const std::stri
     static const Cell none;
     auto m = drop.measureIndex(measure);
     auto r = drop.regionIndex(region);
-    auto d = drop.dayIndex(*Date::fromIso(date));
+    auto d = drop.periodOf(*Date::fromIso(date));
     EXPECT_TRUE(m && r && d) << measure << " " << region << " " << date;
     if (!m || !r || !d)
         return none;
@@ -50,8 +50,8 @@ TEST(IngestDrop, ReadsALongFileWithTwoMeasures) {
     EXPECT_EQ(drop.source.columns.values, (std::vector<std::string>{"cases", "deaths"}));
     EXPECT_EQ(drop.measures, (std::vector<std::string>{"cases", "deaths"}));
     EXPECT_EQ(drop.regionCodes, (std::vector<std::string>{"NA", "004"}));
-    EXPECT_EQ(drop.firstDay.iso(), "2026-03-01");
-    EXPECT_EQ(drop.days, 3);
+    EXPECT_EQ(drop.axis.first().iso(), "2026-03-01");
+    EXPECT_EQ(drop.periods(), 3);
     EXPECT_EQ(drop.rows, 3u);
     EXPECT_EQ(drop.source.dateFormat, "YYYY-MM-DD");
     const Cell& c = cellOf(drop, "deaths", "004", "2026-03-01");
@@ -257,7 +257,7 @@ TEST(IngestDrop, ReadsTheDatesAcrossLayout) {
     EXPECT_EQ(drop.source.layout, Layout::DatesAcross);
     EXPECT_EQ(drop.source.columns.region, "region");
     EXPECT_EQ(drop.regionCodes, (std::vector<std::string>{"NA", "004"}));
-    EXPECT_EQ(drop.days, 4);
+    EXPECT_EQ(drop.periods(), 4);
     EXPECT_EQ(cellOf(drop, "cases", "004", "2026-01-02").value, 5);
     EXPECT_EQ(cellOf(drop, "cases", "004", "2026-01-04").state, CellState::Blank);
     EXPECT_EQ(cellOf(drop, "cases", "NA", "2026-01-03").state, CellState::Absent);
@@ -297,7 +297,7 @@ TEST(IngestDrop, RolesCanBeNamed) {
         "2026-01-05,2026-01-01,X,3,9\n"
         "2026-01-06,2026-01-02,X,4,9\n",
         options);
-    EXPECT_EQ(drop.firstDay.iso(), "2026-01-05");
+    EXPECT_EQ(drop.axis.first().iso(), "2026-01-05");
     EXPECT_EQ(drop.measures, (std::vector<std::string>{"n"}));
     EXPECT_EQ(cellOf(drop, "n", "X", "2026-01-06").value, 4);
 }
@@ -339,14 +339,14 @@ std::string row(int day, int region, int value) {
 }
 
 void expectSameCells(const Drop& a, const Drop& b) {
-    ASSERT_EQ(a.days, b.days);
-    EXPECT_EQ(a.firstDay, b.firstDay);
+    ASSERT_EQ(a.periods(), b.periods());
+    EXPECT_EQ(a.axis.first(), b.axis.first());
     ASSERT_EQ(a.regionCodes.size(), b.regionCodes.size());
     for (const std::string& code : a.regionCodes) {
         ASSERT_TRUE(b.regionIndex(code)) << code;
         const auto ra = *a.regionIndex(code);
         const auto rb = *b.regionIndex(code);
-        for (int d = 0; d < a.days; ++d) {
+        for (int d = 0; d < a.periods(); ++d) {
             ASSERT_EQ(a.cell(0, ra, d).value, b.cell(0, rb, d).value) << code << " " << d;
             ASSERT_EQ(a.cell(0, ra, d).state, b.cell(0, rb, d).state) << code << " " << d;
         }
@@ -370,8 +370,8 @@ TEST(IngestDrop, UnsortedFilesGiveTheSameDropAsSortedOnes) {
     ASSERT_GT(rotated.size(), std::size_t{150} << 10);  // well beyond the 400 + 64 KiB looked at
     const Drop a = readOk(sorted);
     const Drop b = readOk(rotated);
-    EXPECT_EQ(b.days, 200);
-    EXPECT_EQ(b.firstDay.iso(), "2026-01-01");
+    EXPECT_EQ(b.periods(), 200);
+    EXPECT_EQ(b.axis.first().iso(), "2026-01-01");
     expectSameCells(a, b);
     EXPECT_EQ(b.cell(0, *b.regionIndex("R7"), 3).value, 307);
     EXPECT_EQ(b.cell(0, *b.regionIndex("R7"), 3).line, 5000u + 3 * 50 + 7 + 2);
@@ -386,7 +386,7 @@ TEST(IngestDrop, SparseFilesWithManyRegionsAreReadCompletely) {
     const Drop drop = readOk(text);
     ASSERT_EQ(drop.regionCodes.size(), 3000u);
     EXPECT_EQ(drop.regionCodes[2999], "R2999");
-    EXPECT_EQ(drop.days, 365);
+    EXPECT_EQ(drop.periods(), 365);
     for (int r = 0; r < 3000; r += 499) {
         const Cell& c = drop.cell(0, static_cast<std::size_t>(r), (r * 7) % 365);
         EXPECT_EQ(c.value, r);
@@ -420,9 +420,9 @@ void expectDrop(const Drop& drop, const ExpectedDrop& expected) {
     std::size_t reported = 0;
     for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
         const int region = std::stoi(drop.regionCodes[r].substr(1));
-        for (int d = 0; d < drop.days; ++d) {
+        for (int d = 0; d < drop.periods(); ++d) {
             const Cell& c = drop.cell(0, r, d);
-            const int day = d + (drop.firstDay.serial - Date::fromIso("2026-01-01")->serial);
+            const int day = d + (drop.axis.first().serial - Date::fromIso("2026-01-01")->serial);
             auto it = expected.cells.find({region, day});
             if (it == expected.cells.end()) {
                 ASSERT_EQ(c.state, CellState::Absent) << region << " " << day;
@@ -479,7 +479,7 @@ TEST(IngestDrop, EveryRowOrderGivesTheCellsAndDuplicatesOfAPlainReading) {
         SCOPED_TRACE("row order " + std::to_string(order));
         const Drop drop = readOk(text);
         EXPECT_EQ(drop.regionCodes.size(), static_cast<std::size_t>(kRegions));
-        EXPECT_EQ(drop.days, kDays);
+        EXPECT_EQ(drop.periods(), kDays);
         expectDrop(drop, expected);
     }
 }

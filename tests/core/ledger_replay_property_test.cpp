@@ -83,11 +83,11 @@ Decision randomDecision(std::mt19937_64& rng, const Drop& drop, const Cleaned& c
     d.kind = static_cast<DecisionKind>(rng() % 8);
     d.region = drop.regionCodes[rng() % drop.regionCodes.size()];
     d.measure = drop.measures[rng() % drop.measures.size()];
-    const auto days = static_cast<std::uint64_t>(drop.days);
+    const auto days = static_cast<std::uint64_t>(drop.periods());
     const auto a = static_cast<std::int32_t>(rng() % days);
     const auto b = static_cast<std::int32_t>(rng() % days);
-    const Date lo = drop.dayAt(std::min(a, b));
-    const Date hi = drop.dayAt(std::max(a, b));
+    const Date lo = drop.periodStart(std::min(a, b));
+    const Date hi = drop.periodStart(std::max(a, b));
     switch (d.kind) {
         case DecisionKind::Redistribute: {
             const auto m = *drop.measureIndex(d.measure);
@@ -98,8 +98,8 @@ Decision randomDecision(std::mt19937_64& rng, const Drop& drop, const Cleaned& c
             const std::int32_t at = dump >= 1 ? dump : std::max(1, std::max(a, b));
             const std::int32_t from =
                 static_cast<std::int32_t>(rng() % static_cast<std::uint64_t>(at));
-            d.date = drop.dayAt(at);
-            d.window = DayRange{drop.dayAt(from), drop.dayAt(at - 1)};
+            d.date = drop.periodStart(at);
+            d.window = DayRange{drop.periodStart(from), drop.periodStart(at - 1)};
             const std::int64_t held = cleaned.cell(m, r, at).counted();
             d.excess =
                 1 + static_cast<std::int64_t>(
@@ -113,7 +113,7 @@ Decision randomDecision(std::mt19937_64& rng, const Drop& drop, const Cleaned& c
             const std::int32_t neg = findDay(rng, cleaned, m, r, [](const CleanedCell& c) {
                 return c.hasValue() && c.value < 0;
             });
-            d.date = neg >= 0 ? drop.dayAt(neg) : hi;
+            d.date = neg >= 0 ? drop.periodStart(neg) : hi;
             if (rng() % 4 == 0 && lo < *d.date)
                 d.window = DayRange{lo, *d.date - 1};
             break;
@@ -128,9 +128,9 @@ Decision randomDecision(std::mt19937_64& rng, const Drop& drop, const Cleaned& c
             if (gap < 0)
                 gap = a;
             std::int32_t end = gap;
-            while (end + 1 < drop.days && !cleaned.cell(m, r, end + 1).hasValue() && rng() % 2)
+            while (end + 1 < drop.periods() && !cleaned.cell(m, r, end + 1).hasValue() && rng() % 2)
                 ++end;
-            d.window = DayRange{drop.dayAt(gap), drop.dayAt(end)};
+            d.window = DayRange{drop.periodStart(gap), drop.periodStart(end)};
             d.fillMethod = static_cast<FillMethod>(rng() % 3);
             break;
         }
@@ -138,7 +138,7 @@ Decision randomDecision(std::mt19937_64& rng, const Drop& drop, const Cleaned& c
             const DuplicateRow& dup = drop.duplicates[rng() % drop.duplicates.size()];
             d.region = drop.regionCodes[dup.region];
             d.measure = drop.measures[dup.measure];
-            d.date = drop.dayAt(dup.day);
+            d.date = drop.periodStart(dup.day);
             d.duplicateRule = static_cast<DuplicateRule>(rng() % 4);
             break;
         }
@@ -285,7 +285,7 @@ TEST(LedgerProperties, WithdrawingEverythingInReverseOrderRestoresTheRawDrop) {
         // Values and states are back to the drop's; only the touch history remains.
         for (std::size_t m = 0; m < drop.measures.size(); ++m) {
             for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
-                for (std::int32_t d = 0; d < drop.days; ++d) {
+                for (std::int32_t d = 0; d < drop.periods(); ++d) {
                     const Cell& c = drop.cell(m, r, d);
                     EXPECT_EQ(cleaned.cell(m, r, d),
                               (CleanedCell{c.reported() ? c.value : 0, cleanedStateOf(c.state)}));

@@ -27,8 +27,8 @@ inline Drop makeDrop(std::vector<std::string> regions, std::vector<std::string> 
     drop.source.sha256 = std::move(sha);
     drop.regionCodes = std::move(regions);
     drop.measures = std::move(measures);
-    drop.firstDay = day(firstDay);
-    drop.days = days;
+    drop.axis = TimeAxis::daily(day(firstDay),
+        days);
     for (std::size_t m = 0; m < drop.measures.size(); ++m)
         drop.tables.emplace_back(drop.regionCodes.size(), days);
     drop.indexRegions();

@@ -101,7 +101,7 @@ TEST(ReportCaption, LinesNameTheFileHashesLedgerFitAndTheCaution) {
     fit::FitResult f;
     f.model = fit::ModelKind::Richards;
     f.method = fit::FitMethod::Poisson;
-    f.seriesFirstDay = s.drop.firstDay;
+    f.seriesFirstDay = s.drop.axis.first();
     f.first = 10;
     f.last = 20;
     const auto lines =
@@ -182,8 +182,8 @@ TEST(ReportFigureSpec, AFitBringsItsCurveBandWindowAndPeak) {
     auto spec = report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request);
     ASSERT_TRUE(spec.ok());
     ASSERT_TRUE(spec->fit) << spec->fitError;
-    EXPECT_EQ(spec->fit->windowFirst, s.drop.firstDay + 100);
-    EXPECT_EQ(spec->fit->windowLast, s.drop.firstDay + 200);
+    EXPECT_EQ(spec->fit->windowFirst, s.drop.axis.first() + 100);
+    EXPECT_EQ(spec->fit->windowLast, s.drop.axis.first() + 200);
     EXPECT_TRUE(std::isnan(spec->fit->mid[99]));
     EXPECT_FALSE(std::isnan(spec->fit->mid[150]));
     for (int d = 100; d <= 200; ++d) {

@@ -288,8 +288,8 @@ TEST(SamplesDrop, CurrentReleaseReadsWithTheNaAnd0412CodesIntact) {
     EXPECT_EQ(drop->rows, info["rows"].get<std::size_t>());
     EXPECT_EQ(drop->source.sha256, info["sha256"].get<std::string>());
     EXPECT_EQ(drop->source.bytes, info["bytes"].get<std::uint64_t>());
-    EXPECT_EQ(drop->firstDay.iso(), info["first"].get<std::string>());
-    EXPECT_EQ(drop->lastDay().iso(), info["last"].get<std::string>());
+    EXPECT_EQ(drop->axis.first().iso(), info["first"].get<std::string>());
+    EXPECT_EQ(drop->axis.lastStart().iso(), info["last"].get<std::string>());
     // 16 registered codes with rows (two provinces send none) and the variant
     // 412, verbatim.
     EXPECT_EQ(drop->regionCodes.size(), 17u);
@@ -327,7 +327,7 @@ TEST(SamplesDrop, PlantedDuplicateRowIsKeptAsideWithBothLines) {
         ASSERT_EQ(lines.size(), 2u);
         bool found = false;
         for (const DuplicateRow& d : drop->duplicates) {
-            if (d.region != *region || d.measure != *measure || drop->dayAt(d.day) != *day)
+            if (d.region != *region || d.measure != *measure || drop->periodStart(d.day) != *day)
                 continue;
             found = true;
             EXPECT_EQ(d.firstLine, lines[0]);
@@ -354,16 +354,16 @@ TEST(SamplesDrop, PlantedMissingDatesAreAbsentCellsBetweenReportedDays) {
         const auto first = Date::fromIso(p.at("first").get<std::string>());
         const auto last = Date::fromIso(p.at("last").get<std::string>());
         ASSERT_TRUE(region && first && last);
-        const auto i0 = drop->dayIndex(*first);
-        const auto i1 = drop->dayIndex(*last);
+        const auto i0 = drop->periodOf(*first);
+        const auto i1 = drop->periodOf(*last);
         ASSERT_TRUE(i0 && i1);
         ASSERT_GT(*i0, 0);
-        ASSERT_LT(*i1, drop->days - 1);
+        ASSERT_LT(*i1, drop->periods() - 1);
         // No row at all: every measure is absent on those days, reported on the days around.
         for (std::size_t m = 0; m < drop->measures.size(); ++m) {
             for (std::int32_t i = *i0; i <= *i1; ++i) {
                 EXPECT_EQ(drop->cell(m, *region, i).state, CellState::Absent)
-                    << drop->dayAt(i).iso();
+                    << drop->periodStart(i).iso();
             }
             EXPECT_TRUE(drop->cell(m, *region, *i0 - 1).reported());
             EXPECT_TRUE(drop->cell(m, *region, *i1 + 1).reported());
@@ -383,10 +383,10 @@ TEST(SamplesDrop, VariantCodeHoldsTheNewWeekAndItsCanonicalCodeTheRest) {
     const auto from = Date::fromIso(planted[0].at("rows_first").get<std::string>());
     ASSERT_TRUE(variant && canonical && from);
     const auto cases = *drop->measureIndex("cases");
-    for (std::int32_t i = 0; i < drop->days; ++i) {
-        const bool newWeek = drop->dayAt(i) >= *from;
-        EXPECT_EQ(drop->cell(cases, *variant, i).reported(), newWeek) << drop->dayAt(i).iso();
-        EXPECT_EQ(drop->cell(cases, *canonical, i).reported(), !newWeek) << drop->dayAt(i).iso();
+    for (std::int32_t i = 0; i < drop->periods(); ++i) {
+        const bool newWeek = drop->periodStart(i) >= *from;
+        EXPECT_EQ(drop->cell(cases, *variant, i).reported(), newWeek) << drop->periodStart(i).iso();
+        EXPECT_EQ(drop->cell(cases, *canonical, i).reported(), !newWeek) << drop->periodStart(i).iso();
     }
 }
 
@@ -400,23 +400,23 @@ TEST(SamplesDrop, SemicolonDatesDownCopyHoldsTheSameCases) {
     EXPECT_EQ(wide->source.layout, Layout::DatesDown);
     EXPECT_EQ(wide->source.dateFormat, "DD/MM/YYYY");
     EXPECT_EQ(wide->regionCodes, longDrop->regionCodes);
-    ASSERT_EQ(wide->firstDay, longDrop->firstDay);
-    ASSERT_EQ(wide->days, longDrop->days);
+    ASSERT_EQ(wide->axis.first(), longDrop->axis.first());
+    ASSERT_EQ(wide->periods(), longDrop->periods());
     ASSERT_EQ(wide->measures.size(), 1u);
     const auto cases = *longDrop->measureIndex("cases");
     for (std::size_t r = 0; r < longDrop->regionCodes.size(); ++r) {
-        for (std::int32_t i = 0; i < longDrop->days; ++i) {
+        for (std::int32_t i = 0; i < longDrop->periods(); ++i) {
             const Cell& a = longDrop->cell(cases, r, i);
             const Cell& b = wide->cell(0, r, i);
             if (a.reported()) {
                 ASSERT_TRUE(b.reported())
-                    << longDrop->regionCodes[r] << " " << longDrop->dayAt(i).iso();
+                    << longDrop->regionCodes[r] << " " << longDrop->periodStart(i).iso();
                 ASSERT_EQ(a.value, b.value)
-                    << longDrop->regionCodes[r] << " " << longDrop->dayAt(i).iso();
+                    << longDrop->regionCodes[r] << " " << longDrop->periodStart(i).iso();
             } else {
                 // No row in the long file is an empty cell in the wide one.
                 ASSERT_EQ(b.state, CellState::Blank)
-                    << longDrop->regionCodes[r] << " " << longDrop->dayAt(i).iso();
+                    << longDrop->regionCodes[r] << " " << longDrop->periodStart(i).iso();
             }
         }
     }

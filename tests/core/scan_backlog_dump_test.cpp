@@ -32,7 +32,7 @@ std::vector<Finding> backlogFindings(const Drop& drop, const ScanOptions& option
 TEST(BacklogEstimate, MatchesTheHandWorkedBaseline) {
     const Drop drop =
         handBuiltDrop({"D1"}, {{20, 22, 19, 21, 23, 20, 18, 100, 21, 19, 22, 20, 24, 18, 21}});
-    auto e = estimateBacklog(drop, "cases", "D1", drop.dayAt(7));
+    auto e = estimateBacklog(drop, "cases", "D1", drop.periodStart(7));
     ASSERT_TRUE(e.ok()) << e.error().describe();
     EXPECT_EQ(e->observed, 100);
     EXPECT_DOUBLE_EQ(e->expected, 20.5);
@@ -41,21 +41,21 @@ TEST(BacklogEstimate, MatchesTheHandWorkedBaseline) {
     EXPECT_EQ(e->excess, 80);
     EXPECT_EQ(e->neighbours, 14);
     EXPECT_FALSE(e->gapFirst.has_value());
-    EXPECT_EQ(e->windowFirst, drop.dayAt(0));
-    EXPECT_EQ(e->windowLast, drop.dayAt(6));
+    EXPECT_EQ(e->windowFirst, drop.periodStart(0));
+    EXPECT_EQ(e->windowLast, drop.periodStart(6));
     EXPECT_TRUE(e->flagged);
 }
 
 TEST(BacklogEstimate, NamesTheProblemForUnknownRegionMeasureOrDay) {
     const Drop drop = handBuiltDrop({"D1"}, {{1, 2, 3, 4, 5, 6}});
-    EXPECT_EQ(estimateBacklog(drop, "deaths", "D1", drop.dayAt(2)).error().code,
+    EXPECT_EQ(estimateBacklog(drop, "deaths", "D1", drop.periodStart(2)).error().code,
               ErrorCode::NotFound);
-    EXPECT_EQ(estimateBacklog(drop, "cases", "D9", drop.dayAt(2)).error().code,
+    EXPECT_EQ(estimateBacklog(drop, "cases", "D9", drop.periodStart(2)).error().code,
               ErrorCode::NotFound);
-    EXPECT_EQ(estimateBacklog(drop, "cases", "D1", drop.dayAt(40)).error().code,
+    EXPECT_EQ(estimateBacklog(drop, "cases", "D1", drop.periodStart(40)).error().code,
               ErrorCode::NotFound);
     const Drop gaps = handBuiltDrop({"D1"}, {{1, testing::kNoRow, 3}});
-    EXPECT_EQ(estimateBacklog(gaps, "cases", "D1", gaps.dayAt(1)).error().code,
+    EXPECT_EQ(estimateBacklog(gaps, "cases", "D1", gaps.periodStart(1)).error().code,
               ErrorCode::InvalidValue);
 }
 
@@ -65,13 +65,13 @@ TEST(BacklogDump, FlagsTheSpikeWithEvidenceAndARedistributionSuggestion) {
     const auto found = backlogFindings(drop);
     ASSERT_EQ(found.size(), 1u);
     const Finding& f = found[0];
-    EXPECT_EQ(*f.first, drop.dayAt(7));
+    EXPECT_EQ(*f.first, drop.periodStart(7));
     EXPECT_EQ(f.evidence["excess"], 80);
     EXPECT_EQ(f.evidence["observed"], 100);
     EXPECT_EQ(f.suggestion["decision"], "redistribute");
     EXPECT_EQ(f.suggestion["excess"], 80);
-    EXPECT_EQ(f.suggestion["window_first"], drop.dayAt(0).iso());
-    EXPECT_EQ(f.suggestion["window_last"], drop.dayAt(6).iso());
+    EXPECT_EQ(f.suggestion["window_first"], drop.periodStart(0).iso());
+    EXPECT_EQ(f.suggestion["window_last"], drop.periodStart(6).iso());
     EXPECT_EQ(f.severity, Severity::Critical);  // 80 of 368 is far above 2 %
 }
 
@@ -91,11 +91,11 @@ TEST(BacklogDump, CatchesTheCatchUpAfterAGapAndSuggestsTheGapAsWindow) {
     const auto found = backlogFindings(drop);
     ASSERT_EQ(found.size(), 1u);
     const Finding& f = found[0];
-    EXPECT_EQ(*f.first, drop.dayAt(10));
+    EXPECT_EQ(*f.first, drop.periodStart(10));
     ASSERT_TRUE(f.evidence.contains("after_gap"));
     EXPECT_EQ(f.evidence["after_gap"]["days"], 3);
-    EXPECT_EQ(f.suggestion["window_first"], drop.dayAt(7).iso());
-    EXPECT_EQ(f.suggestion["window_last"], drop.dayAt(9).iso());
+    EXPECT_EQ(f.suggestion["window_first"], drop.periodStart(7).iso());
+    EXPECT_EQ(f.suggestion["window_last"], drop.periodStart(9).iso());
     // The baseline leaves the zeros out: expected is the median of the other days.
     EXPECT_NEAR(f.evidence["expected"].get<double>(), 30.5, 1.0);
     EXPECT_EQ(f.suggestion["method"], "baseline");

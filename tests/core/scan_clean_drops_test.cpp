@@ -60,7 +60,7 @@ bool found(const ScanReport& report, const Drop& drop, const siftwave::testing::
             *f.region != drop.regionCodes[p.region] || !f.first || !f.last) {
             continue;
         }
-        if (*f.first == drop.dayAt(p.first) && *f.last == drop.dayAt(p.last))
+        if (*f.first == drop.periodStart(p.first) && *f.last == drop.periodStart(p.last))
             return true;
     }
     return false;
@@ -75,8 +75,8 @@ TEST(ScanOnPlantedDrops, FindsEveryPlantedProblemWithItsKindRegionAndDates) {
         std::vector<std::size_t> busy;
         for (std::size_t r = 0; r < s.drop.regionCodes.size(); ++r) {
             double peak = 0;
-            for (int t = 0; t < s.drop.days; ++t) {
-                peak = std::max(peak, s.mean[r * static_cast<std::size_t>(s.drop.days) +
+            for (int t = 0; t < s.drop.periods(); ++t) {
+                peak = std::max(peak, s.mean[r * static_cast<std::size_t>(s.drop.periods()) +
                                              static_cast<std::size_t>(t)]);
             }
             if (peak > 60)
@@ -85,8 +85,8 @@ TEST(ScanOnPlantedDrops, FindsEveryPlantedProblemWithItsKindRegionAndDates) {
         ASSERT_GE(busy.size(), 6u) << "seed " << seed;
         // Days where the region is in a wave (mean >= 30) so the problems are visible.
         auto activeDay = [&](std::size_t r, int from) {
-            for (int t = from; t < s.drop.days - 10; ++t) {
-                if (s.mean[r * static_cast<std::size_t>(s.drop.days) +
+            for (int t = from; t < s.drop.periods() - 10; ++t) {
+                if (s.mean[r * static_cast<std::size_t>(s.drop.periods()) +
                            static_cast<std::size_t>(t)] >= 30) {
                     return t;
                 }
@@ -104,7 +104,7 @@ TEST(ScanOnPlantedDrops, FindsEveryPlantedProblemWithItsKindRegionAndDates) {
         for (const auto& p : s.planted) {
             EXPECT_TRUE(found(*report, s.drop, p))
                 << "seed " << seed << ": " << p.kind << " in " << s.drop.regionCodes[p.region]
-                << " on " << s.drop.dayAt(p.first).iso() << ".." << s.drop.dayAt(p.last).iso();
+                << " on " << s.drop.periodStart(p.first).iso() << ".." << s.drop.periodStart(p.last).iso();
         }
         // And no other alarm of the three kinds that matter most.
         int extra = 0;
@@ -117,7 +117,7 @@ TEST(ScanOnPlantedDrops, FindsEveryPlantedProblemWithItsKindRegionAndDates) {
             for (const auto& p : s.planted) {
                 planted = planted || (findingKindName(f.kind) == p.kind &&
                                       *f.region == s.drop.regionCodes[p.region] &&
-                                      *f.first == s.drop.dayAt(p.first));
+                                      *f.first == s.drop.periodStart(p.first));
             }
             extra += !planted;
         }

@@ -25,15 +25,15 @@ TEST(CumulativeDecrease, DetectsACumulativeMeasureAndEachDropBelowItsRunningPeak
     detail::findCumulativeDecreases(in, out);
     ASSERT_EQ(out.size(), 2u);
     EXPECT_EQ(*out[0].region, "A");
-    EXPECT_EQ(*out[0].first, drop.dayAt(12));
-    EXPECT_EQ(*out[0].last, drop.dayAt(13));
+    EXPECT_EQ(*out[0].first, drop.periodStart(12));
+    EXPECT_EQ(*out[0].last, drop.periodStart(13));
     EXPECT_EQ(out[0].evidence["before"], 110);
     EXPECT_EQ(out[0].evidence["lowest"], 95);
     EXPECT_EQ(out[0].evidence["decrease"], 15);
     EXPECT_EQ(out[0].suggestion["action"], "use_daily_differences");
     EXPECT_EQ(*out[1].region, "B");
-    EXPECT_EQ(*out[1].first, drop.dayAt(20));
-    EXPECT_EQ(*out[1].last, drop.dayAt(20));
+    EXPECT_EQ(*out[1].first, drop.periodStart(20));
+    EXPECT_EQ(*out[1].last, drop.periodStart(20));
 }
 
 TEST(CumulativeDecrease, DailyCountsAreNotCumulative) {

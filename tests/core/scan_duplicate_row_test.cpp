@@ -44,7 +44,7 @@ TEST(DuplicateRow, SaysWhetherValuesAgreeAndListsEverySourceLine) {
     EXPECT_EQ(found[1].evidence["occurrences"], 3);
     EXPECT_EQ(found[1].evidence["spread"], 3.0);
     EXPECT_EQ(found[1].suggestion["decision"], "resolve_duplicate");
-    EXPECT_EQ(*found[1].first, drop.dayAt(2));
+    EXPECT_EQ(*found[1].first, drop.periodStart(2));
 }
 
 }  // namespace

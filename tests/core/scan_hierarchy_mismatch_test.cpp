@@ -25,8 +25,8 @@ TEST(HierarchyMismatch, ComparesDaysWhereParentAndEveryChildAreReported) {
     ASSERT_EQ(out.size(), 1u);
     const Finding& f = out[0];
     EXPECT_EQ(*f.region, "P");
-    EXPECT_EQ(*f.first, drop.dayAt(3));  // day 2 has no value for A: not compared
-    EXPECT_EQ(*f.last, drop.dayAt(3));
+    EXPECT_EQ(*f.first, drop.periodStart(3));  // day 2 has no value for A: not compared
+    EXPECT_EQ(*f.last, drop.periodStart(3));
     EXPECT_EQ(f.evidence["days_compared"], 4);
     EXPECT_EQ(f.evidence["days_mismatched"], 1);
     EXPECT_EQ(f.evidence["dates"][0]["difference"], 4.0);

@@ -21,12 +21,12 @@ TEST(MissingDates, OneFindingPerRunInsideTheSpanNoneForTheTails) {
     const Drop drop = handBuiltDrop({"A"}, {{X, X, 5, 6, X, X, 7, 8, X, 9, X, X}});
     const auto found = run(drop);
     ASSERT_EQ(found.size(), 2u);
-    EXPECT_EQ(*found[0].first, drop.dayAt(4));
-    EXPECT_EQ(*found[0].last, drop.dayAt(5));
+    EXPECT_EQ(*found[0].first, drop.periodStart(4));
+    EXPECT_EQ(*found[0].last, drop.periodStart(5));
     EXPECT_EQ(found[0].evidence["days"], 2);
     EXPECT_EQ(found[0].evidence["absent"], 2);
-    EXPECT_EQ(*found[1].first, drop.dayAt(8));
-    EXPECT_EQ(*found[1].last, drop.dayAt(8));
+    EXPECT_EQ(*found[1].first, drop.periodStart(8));
+    EXPECT_EQ(*found[1].last, drop.periodStart(8));
     EXPECT_EQ(found[0].suggestion["decision"], "fill_missing");
     EXPECT_EQ(*found[0].region, "A");
     EXPECT_EQ(*found[0].measure, "cases");  // a drop with one measure names it
@@ -48,10 +48,10 @@ TEST(MissingDates, NoMeasureWhenTheRowIsMissingForEveryMeasure) {
     const auto found = run(drop);
     ASSERT_EQ(found.size(), 2u);
     EXPECT_FALSE(found[0].measure.has_value());  // no row at all on day 2
-    EXPECT_EQ(*found[0].first, drop.dayAt(2));
+    EXPECT_EQ(*found[0].first, drop.periodStart(2));
     ASSERT_TRUE(found[1].measure.has_value());  // day 4 is missing for deaths only
     EXPECT_EQ(*found[1].measure, "deaths");
-    EXPECT_EQ(*found[1].first, drop.dayAt(4));
+    EXPECT_EQ(*found[1].first, drop.periodStart(4));
 }
 
 TEST(MissingDates, AFullyReportedRegionHasNone) {

@@ -21,13 +21,13 @@ TEST(NegativeCount, ReportsEachNegativeDayWithASpreadWindowOfEarlierDays) {
     const auto found = run(drop);
     ASSERT_EQ(found.size(), 1u);
     const Finding& f = found[0];
-    EXPECT_EQ(*f.first, drop.dayAt(20));
+    EXPECT_EQ(*f.first, drop.periodStart(20));
     EXPECT_EQ(f.evidence["value"], -12);
     EXPECT_EQ(f.evidence["earlier_days"], 14);
     EXPECT_EQ(f.severity, Severity::Warning);  // 12 of ~1,150 is about 1 %
     EXPECT_EQ(f.suggestion["decision"], "spread_negative");
-    EXPECT_EQ(f.suggestion["window_first"], drop.dayAt(6).iso());
-    EXPECT_EQ(f.suggestion["window_last"], drop.dayAt(19).iso());
+    EXPECT_EQ(f.suggestion["window_first"], drop.periodStart(6).iso());
+    EXPECT_EQ(f.suggestion["window_last"], drop.periodStart(19).iso());
     EXPECT_TRUE(f.suggestion["absorbable"].get<bool>());
 }
 

@@ -18,13 +18,13 @@ TEST(ReportingGap, ReportsZerosInsideAnActivePeriodAndTheCatchUp) {
     const auto found = run(drop);
     ASSERT_EQ(found.size(), 1u);  // the leading and trailing zeros are tails, not gaps
     const Finding& f = found[0];
-    EXPECT_EQ(*f.first, drop.dayAt(6));
-    EXPECT_EQ(*f.last, drop.dayAt(8));
+    EXPECT_EQ(*f.first, drop.periodStart(6));
+    EXPECT_EQ(*f.last, drop.periodStart(8));
     EXPECT_EQ(f.evidence["days"], 3);
     EXPECT_TRUE(f.evidence["catch_up"].get<bool>());
     EXPECT_EQ(f.suggestion["decision"], "redistribute");
-    EXPECT_EQ(f.suggestion["date"], drop.dayAt(9).iso());
-    EXPECT_EQ(f.suggestion["window_first"], drop.dayAt(6).iso());
+    EXPECT_EQ(f.suggestion["date"], drop.periodStart(9).iso());
+    EXPECT_EQ(f.suggestion["window_first"], drop.periodStart(6).iso());
 }
 
 TEST(ReportingGap, ZerosAreUnremarkableWhereCountsAreLow) {

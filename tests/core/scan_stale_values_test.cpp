@@ -17,13 +17,13 @@ TEST(StaleValues, ReportsACopiedForwardRunWithItsChance) {
         siftwave::testing::handBuiltDrop({"A"}, {{41, 38, 45, 52, 52, 52, 52, 52, 47, 44}});
     const auto found = run(drop);
     ASSERT_EQ(found.size(), 1u);
-    EXPECT_EQ(*found[0].first, drop.dayAt(3));
-    EXPECT_EQ(*found[0].last, drop.dayAt(7));
+    EXPECT_EQ(*found[0].first, drop.periodStart(3));
+    EXPECT_EQ(*found[0].last, drop.periodStart(7));
     EXPECT_EQ(found[0].evidence["value"], 52);
     EXPECT_EQ(found[0].evidence["days"], 5);
     EXPECT_LT(found[0].evidence["chance_under_poisson"].get<double>(), 1e-4);
     // The first day may be genuine; the copies after it are suspect.
-    EXPECT_EQ(found[0].suggestion["first"], drop.dayAt(4).iso());
+    EXPECT_EQ(found[0].suggestion["first"], drop.periodStart(4).iso());
 }
 
 TEST(StaleValues, SmallCountsAndZerosRepeatByChance) {

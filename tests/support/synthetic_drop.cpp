@@ -22,7 +22,7 @@ std::int32_t drawNegBin(std::mt19937_64& rng, double mean, double size) {
 
 void renumberLines(Drop& drop) {
     std::uint32_t line = 2;  // line 1 is the header
-    for (std::int32_t t = 0; t < drop.days; ++t) {
+    for (std::int32_t t = 0; t < drop.periods(); ++t) {
         for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
             bool row = false;
             for (CellTable& table : drop.tables) {
@@ -49,8 +49,8 @@ SyntheticDrop makeSyntheticDrop(const SyntheticOptions& o) {
     SyntheticDrop s;
     Drop& drop = s.drop;
     drop.source.path = "synthetic-seed-" + std::to_string(o.seed) + ".csv";
-    drop.firstDay = *Date::fromIso(o.firstDay);
-    drop.days = o.days;
+    drop.axis = TimeAxis::daily(*Date::fromIso(o.firstDay),
+        o.days);
     drop.measures = {"cases"};
     if (o.deaths)
         drop.measures.push_back("deaths");
@@ -74,7 +74,7 @@ SyntheticDrop makeSyntheticDrop(const SyntheticOptions& o) {
         waves.push_back(
             {slot * (k + 0.3 + 0.4 * unit(rng)), 8 + 14 * unit(rng), 0.5 + 0.5 * unit(rng)});
     }
-    const int firstWeekday = drop.firstDay.isoWeekday() - 1;
+    const int firstWeekday = drop.axis.first().isoWeekday() - 1;
     s.mean.assign(static_cast<std::size_t>(o.regions) * static_cast<std::size_t>(o.days), 0.0);
     for (int r = 0; r < o.regions; ++r) {
         const double scale = o.minPeak * std::pow(o.maxPeak / o.minPeak, unit(rng));
@@ -176,7 +176,7 @@ void plantStaleValues(SyntheticDrop& s, std::size_t region, std::int32_t first, 
         table.at(region, static_cast<std::size_t>(first) - 1).value += value > 0 ? -1 : 1;
     }
     const std::int32_t after = first + days;
-    if (after < s.drop.days && table.at(region, static_cast<std::size_t>(after)).value == value) {
+    if (after < s.drop.periods() && table.at(region, static_cast<std::size_t>(after)).value == value) {
         table.at(region, static_cast<std::size_t>(after)).value += 1;
     }
     s.planted.push_back({"stale_values", region, first, first + days - 1, value});
@@ -196,15 +196,14 @@ Drop handBuiltDrop(const std::vector<std::string>& codes, const std::vector<std:
     drop.regionCodes = codes;
     drop.indexRegions();
     drop.measures = measures;
-    drop.firstDay = *Date::fromIso(firstDay);
-    drop.days =
-        series.empty() || series[0].empty() ? 0 : static_cast<std::int32_t>(series[0][0].size());
+    drop.axis = TimeAxis::daily(*Date::fromIso(firstDay),
+        series.empty() || series[0].empty() ? 0 : static_cast<std::int32_t>(series[0][0].size()));
     for (std::size_t m = 0; m < measures.size(); ++m) {
         assert(series[m].size() == codes.size());
-        CellTable table(codes.size(), static_cast<std::size_t>(drop.days));
+        CellTable table(codes.size(), static_cast<std::size_t>(drop.periods()));
         for (std::size_t r = 0; r < codes.size(); ++r) {
-            assert(series[m][r].size() == static_cast<std::size_t>(drop.days));
-            for (std::int32_t t = 0; t < drop.days; ++t) {
+            assert(series[m][r].size() == static_cast<std::size_t>(drop.periods()));
+            for (std::int32_t t = 0; t < drop.periods(); ++t) {
                 const std::int32_t v = series[m][r][static_cast<std::size_t>(t)];
                 Cell& c = table.at(r, static_cast<std::size_t>(t));
                 if (v == kNoRow)
@@ -220,7 +219,7 @@ Drop handBuiltDrop(const std::vector<std::string>& codes, const std::vector<std:
         drop.tables.push_back(std::move(table));
     }
     renumberLines(drop);
-    for (std::int32_t t = 0; t < drop.days; ++t) {
+    for (std::int32_t t = 0; t < drop.periods(); ++t) {
         for (std::size_t r = 0; r < codes.size(); ++r) {
             drop.rows +=
                 drop.tables[0].at(r, static_cast<std::size_t>(t)).state != CellState::Absent;
@@ -234,10 +233,10 @@ std::string toLongCsv(const Drop& drop) {
     for (const std::string& m : drop.measures)
         out += "," + m;
     out += "\n";
-    out.reserve(static_cast<std::size_t>(drop.days) * drop.regionCodes.size() * 24);
+    out.reserve(static_cast<std::size_t>(drop.periods()) * drop.regionCodes.size() * 24);
     char number[16];
-    for (std::int32_t t = 0; t < drop.days; ++t) {
-        const std::string date = drop.dayAt(t).iso();
+    for (std::int32_t t = 0; t < drop.periods(); ++t) {
+        const std::string date = drop.periodStart(t).iso();
         for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
             bool row = false;
             for (std::size_t m = 0; m < drop.measures.size(); ++m) {

@@ -56,7 +56,7 @@ private Q_SLOTS:
         QVERIFY(window.selectRegion(QStringLiteral("1301")));
         const auto& drop = wb.drop();
         // manifest P06: the backlog of 1301's cases lands on 2026-08-24.
-        const int dumpDay = *siftwave::Date::fromIso("2026-08-24") - drop.firstDay;
+        const int dumpDay = *siftwave::Date::fromIso("2026-08-24") - drop.axis.first();
         window.seriesPlot()->setEditableWindow(std::nullopt);  // no window edge under the mouse
         window.seriesPlot()->focusOn(siftwave::widgets::DayIndexRange{dumpDay - 20, dumpDay + 20});
         QWidget* canvas = window.seriesPlot()->customPlot();
@@ -88,7 +88,7 @@ private Q_SLOTS:
         const std::size_t region = *drop.regionIndex("1203");
         // A Monday near the second wave's peak (2026-07-20): Mondays carry the weekend's catch-up.
         const siftwave::Date date = *siftwave::Date::fromIso("2026-07-20");
-        const int day = date - drop.firstDay;
+        const int day = date - drop.axis.first();
         for (const auto& f : wb.findings())
             QVERIFY(!(f.region == "1203" && f.first == date));  // not a flagged day
 
@@ -139,7 +139,7 @@ private Q_SLOTS:
         QVERIFY(window.selectRegion(QStringLiteral("1310")));
         // manifest P12: 1310 has no rows from 2026-07-13.
         const int day =
-            *siftwave::Date::fromIso("2026-07-14") - window.workbench()->drop().firstDay;
+            *siftwave::Date::fromIso("2026-07-14") - window.workbench()->drop().axis.first();
         std::unique_ptr<QMenu> menu(window.seriesPlot()->createContextMenu(day));
         auto* action = menu->findChild<QAction*>(QStringLiteral("redistributeDay"));
         QVERIFY(action);

@@ -67,7 +67,7 @@ private Q_SLOTS:
         options.window.reset();
         const auto counts = window.workbench()->cleanedCounts(QStringLiteral("1203"), 0);
         const auto single =
-            siftwave::fit::fitSeries(siftwave::fit::DailySeries{drop.firstDay, counts}, options,
+            siftwave::fit::fitSeries(siftwave::fit::DailySeries{drop.axis.first(), counts}, options,
                                      window.workbench()->population(QStringLiteral("1203")));
         QVERIFY(single.ok());
         QCOMPARE(view->table()->text(row, 2),

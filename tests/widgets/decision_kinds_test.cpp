@@ -99,7 +99,7 @@ private Q_SLOTS:
         QCOMPARE(*gap->last, day("2026-07-16"));
         const std::size_t region = *drop.regionIndex("1310");
         const std::size_t cases = *drop.measureIndex("cases");
-        const int first = day("2026-07-13") - drop.firstDay;
+        const int first = day("2026-07-13") - drop.axis.first();
         for (int d = first; d < first + 4; ++d)
             QVERIFY(!drop.cell(cases, region, d).reported());
         const std::int64_t totalBefore = *wb.cleanedTotal(QStringLiteral("1310"), int(cases));
@@ -146,7 +146,7 @@ private Q_SLOTS:
         QVERIFY(duplicate);
         const std::size_t region = *drop.regionIndex("1207");
         const std::size_t cases = *drop.measureIndex("cases");
-        const int d = day("2026-05-30") - drop.firstDay;
+        const int d = day("2026-05-30") - drop.axis.first();
         QCOMPARE(drop.cell(cases, region, d).value, 18);
         const std::int64_t raw = siftwave::rawTotal(drop, cases, region);
 
@@ -185,7 +185,7 @@ private Q_SLOTS:
         std::vector<std::int64_t> sums;
         for (std::size_t m = 0; m < drop.measures.size(); ++m)
             sums.push_back(siftwave::rawTotal(drop, m, into) + siftwave::rawTotal(drop, m, from));
-        const int lastWeek = day("2026-11-23") - drop.firstDay;
+        const int lastWeek = day("2026-11-23") - drop.axis.first();
         QVERIFY(!drop.cell(0, into, lastWeek).reported());
         QVERIFY(drop.cell(0, from, lastWeek).reported());
 

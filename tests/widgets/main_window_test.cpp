@@ -90,8 +90,8 @@ private Q_SLOTS:
         QVERIFY2(window.fitPane()->summaryText().startsWith(QStringLiteral("No fit")),
                  qPrintable(window.fitPane()->summaryText()));
         const auto& drop = window.workbench()->drop();
-        QCOMPARE(from->date().toString(Qt::ISODate), QString::fromStdString(drop.firstDay.iso()));
-        QCOMPARE(to->date().toString(Qt::ISODate), QString::fromStdString(drop.lastDay().iso()));
+        QCOMPARE(from->date().toString(Qt::ISODate), QString::fromStdString(drop.axis.first().iso()));
+        QCOMPARE(to->date().toString(Qt::ISODate), QString::fromStdString(drop.axis.lastStart().iso()));
         QVERIFY(from->date() != kvFirst);
     }
 
@@ -102,7 +102,7 @@ private Q_SLOTS:
         QVERIFY(window.selectRegion(QStringLiteral("1301")));
         const siftwave::widgets::SeriesView& view = window.seriesPlot()->view();
         QCOMPARE(view.regionCode, QStringLiteral("1301"));
-        QCOMPARE(view.days, window.workbench()->drop().days);
+        QCOMPARE(view.days, window.workbench()->drop().periods());
         // Every plotted raw value is the one on its source line of the file (long layout:
         // date,region,cases,deaths per the samples README).
         int checked = 0;
@@ -134,7 +134,7 @@ private Q_SLOTS:
         second->setCurrentIndex(second->findText(QStringLiteral("deaths")));
         QCOMPARE(window.seriesPlot()->view().secondMeasure, QStringLiteral("deaths"));
         QCOMPARE(static_cast<int>(window.seriesPlot()->view().second.size()),
-                 window.workbench()->drop().days);
+                 window.workbench()->drop().periods());
     }
 
     void thePreviousReleaseIsDrawnAndItsRevisionsNamed() {

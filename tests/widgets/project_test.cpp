@@ -105,9 +105,9 @@ private Q_SLOTS:
         QCOMPARE(onDisk->fit.method, std::string("poisson"));
         const std::int64_t cleanedDump =
             wb.cleaned()
-                .cell(0, *wb.drop().regionIndex("1301"), *dump->first - wb.drop().firstDay)
+                .cell(0, *wb.drop().regionIndex("1301"), *dump->first - wb.drop().axis.first())
                 .value;
-        const int dumpDay = *dump->first - wb.drop().firstDay;
+        const int dumpDay = *dump->first - wb.drop().axis.first();
         first.reset();
 
         // A fresh window, as the next morning.

@@ -63,7 +63,7 @@ private Q_SLOTS:
         const std::size_t region = *drop.regionIndex("1301");
         const std::size_t cases = *drop.measureIndex("cases");
         const std::int64_t rawTotal = siftwave::rawTotal(drop, cases, region);
-        const int dumpDay = *dump->first - drop.firstDay;
+        const int dumpDay = *dump->first - drop.axis.first();
         const std::int32_t dumpValue = drop.cell(cases, region, dumpDay).value;
         QVERIFY(wb.openFindings(QStringLiteral("1301")) >= 1);
         const int openBefore = wb.openFindings(QStringLiteral("1301"));
@@ -132,7 +132,7 @@ private Q_SLOTS:
         QVERIFY(!wb.cleaned().inEffect(1));
         QCOMPARE(wb.cleaned().cell(cases, region, dumpDay).value,
                  static_cast<std::int64_t>(dumpValue));
-        for (int d = 0; d < drop.days; ++d) {
+        for (int d = 0; d < drop.periods(); ++d) {
             const auto& raw = drop.cell(cases, region, d);
             if (raw.reported())
                 QCOMPARE(wb.cleaned().cell(cases, region, d).value,
@@ -149,7 +149,7 @@ private Q_SLOTS:
         const auto& drop = wb.drop();
         const std::size_t region = *drop.regionIndex("1306");
         const std::size_t cases = *drop.measureIndex("cases");
-        const int day = *negative->first - drop.firstDay;
+        const int day = *negative->first - drop.axis.first();
         QVERIFY(drop.cell(cases, region, day).value < 0);
 
         QVERIFY(window.decideFinding(QString::fromStdString(negative->id)));
@@ -180,7 +180,7 @@ private Q_SLOTS:
         QVERIFY(dump);
         const int day =
             *dump->first -
-            window.workbench()->drop().firstDay;  // copied: reopening drops the findings
+            window.workbench()->drop().axis.first();  // copied: reopening drops the findings
         QVERIFY(window.decideFinding(QString::fromStdString(dump->id)));
         QVERIFY(window.applyCurrentDecision());  // the prefilled reason is a reason
         const auto region = *window.workbench()->drop().regionIndex("1301");

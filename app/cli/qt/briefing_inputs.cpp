@@ -96,12 +96,12 @@ Result<std::optional<fit::FitOptions>> fitOptionsFrom(const ParsedArgs& args, co
         if (!range)
             return makeError(ErrorCode::Usage,
                              "--window takes FIRST:LAST (ISO 8601 dates), not '" + *window + "'");
-        const auto first = drop.dayIndex(range->first);
-        const auto last = drop.dayIndex(range->last);
+        const auto first = drop.periodOf(range->first);
+        const auto last = drop.periodOf(range->last);
         if (!first || !last)
             return makeError(ErrorCode::Usage, "--window " + *window + " is outside the drop's " +
-                                                   drop.firstDay.iso() + " to " +
-                                                   drop.lastDay().iso());
+                                                   drop.axis.first().iso() + " to " +
+                                                   drop.axis.lastStart().iso());
         options.window = std::make_pair(static_cast<int>(*first), static_cast<int>(*last));
     }
     if (Status s = options.validate(); !s)

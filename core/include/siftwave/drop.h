@@ -2,12 +2,13 @@
 // Drop: one data release exactly as read. Never modified after ingest.
 //
 // A Drop holds the provenance of the file, the region codes exactly as written
-// (text, never coerced, in first-seen order), the measures, the calendar
-// (firstDay .. firstDay + days - 1) and, per measure, a dense region x day
-// table of cells. Rows that repeat a (region, date, measure) are kept aside in
+// (text, never coerced, in first-seen order), the measures, the time axis
+// (daily or weekly periods, time_axis.h) and, per measure, a dense
+// region x period table of cells. Rows that repeat a (region, date, measure) are kept aside in
 // `duplicates`; the table holds the first occurrence.
 
 #include "siftwave/date.h"
+#include "siftwave/time_axis.h"
 
 #include <cstddef>
 #include <cstdint>
@@ -22,7 +23,7 @@
 namespace siftwave {
 
 enum class CellState : std::uint8_t {
-    Absent,      // no row for this region and day
+    Absent,      // no row for this region and period
     Reported,    // a number was read
     Blank,       // the cell matched a missing-value token (default: the empty cell)
     Unparsable,  // something that is neither a number nor a missing token
@@ -39,7 +40,8 @@ struct Cell {
     bool reported() const { return state == CellState::Reported; }
 };
 
-/// A dense region x day table for one measure; a region's days are contiguous.
+/// A dense region x period table for one measure; a region's periods are contiguous.
+/// (The table knows nothing of the calendar: "days" here counts its columns, the periods.)
 class CellTable {
 public:
     CellTable() = default;
@@ -110,7 +112,7 @@ struct Warning {
 struct DuplicateRow {
     std::size_t measure = 0;
     std::size_t region = 0;
-    std::int32_t day = 0;  // index into the calendar
+    std::int32_t day = 0;  // period index into the time axis
     Cell cell;             // the repeating row's cell (the table keeps the first one)
     std::uint32_t firstLine = 0;  // line of the occurrence kept in the table
 };
@@ -126,17 +128,18 @@ struct Drop {
     Provenance source;
     std::vector<std::string> regionCodes;  // verbatim, first-seen order
     std::vector<std::string> measures;     // e.g. "cases", "deaths"
-    Date firstDay;                         // meaningful when days > 0
-    std::int32_t days = 0;                 // calendar length: firstDay .. firstDay + days - 1
+    TimeAxis axis;                         // the periods: daily or weekly (time_axis.h)
     std::size_t rows = 0;                  // data rows read (excluding the header)
-    std::vector<CellTable> tables;         // one per measure, each regions x days
+    std::vector<CellTable> tables;         // one per measure, each regions x periods
     std::vector<DuplicateRow> duplicates;
     std::vector<Warning> warnings;
 
-    Date lastDay() const { return firstDay + (days > 0 ? days - 1 : 0); }
-    Date dayAt(std::int32_t index) const { return firstDay + index; }
-    /// Day index of a date, nullopt outside the calendar.
-    std::optional<std::int32_t> dayIndex(Date date) const;
+    /// Number of periods (days or weeks).
+    std::int32_t periods() const { return axis.periods(); }
+    /// First day of period i.
+    Date periodStart(std::int32_t index) const { return axis.periodStart(index); }
+    /// The period that holds a day (any day of a week), nullopt outside the axis.
+    std::optional<std::int32_t> periodOf(Date day) const { return axis.periodOf(day); }
     std::optional<std::size_t> regionIndex(std::string_view code) const;
     std::optional<std::size_t> measureIndex(std::string_view name) const;
 

@@ -29,12 +29,6 @@ std::optional<Layout> layoutFromName(std::string_view name) {
     return std::nullopt;
 }
 
-std::optional<std::int32_t> Drop::dayIndex(Date date) const {
-    const int index = date - firstDay;
-    if (index < 0 || index >= days) return std::nullopt;
-    return index;
-}
-
 std::optional<std::size_t> Drop::regionIndex(std::string_view code) const {
     if (m_regionLookup.size() != regionCodes.size()) {
         for (std::size_t i = 0; i < regionCodes.size(); ++i) {

@@ -597,8 +597,7 @@ Status DropReader::cellPass() {
 Status DropReader::finish() {
     if (m_drop.rows == 0)
         return fail(ErrorCode::Layout, "the file has a header but no data rows", 1, 0);
-    m_drop.firstDay = Date{m_firstSerial};
-    m_drop.days = static_cast<std::int32_t>(m_days);
+    m_drop.axis = TimeAxis::daily(Date{m_firstSerial}, static_cast<std::int32_t>(m_days));
     m_drop.source.dateFormat = dateFormatName(m_dateFormat);
     if (m_roles.layout == Layout::DatesDown) {
         for (int c : m_roles.valueColumns)
@@ -636,7 +635,7 @@ Status DropReader::finish() {
                       " cells repeat a region, date and measure already read; the first "
                       "occurrence is kept, the repeats are listed as duplicates (first repeat: "
                       "region " +
-                      quoted(m_drop.regionCodes[d.region]) + ", " + m_drop.dayAt(d.day).iso() +
+                      quoted(m_drop.regionCodes[d.region]) + ", " + m_drop.periodStart(d.day).iso() +
                       ", first seen on line " + std::to_string(d.firstLine) + ")",
                   d.cell.line, 0);
     }

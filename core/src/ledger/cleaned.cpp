@@ -49,8 +49,8 @@ CleanedState cleanedStateOf(CellState raw) {
 Cleaned::Cleaned(const Drop& drop)
     : m_measures(drop.measures.size()),
       m_regions(drop.regionCodes.size()),
-      m_days(drop.days),
-      m_cells(m_measures * m_regions * static_cast<std::size_t>(drop.days)),
+      m_days(drop.periods()),
+      m_cells(m_measures * m_regions * static_cast<std::size_t>(drop.periods())),
       m_totals(m_measures * m_regions, 0) {
     for (std::size_t m = 0; m < m_measures; ++m) {
         for (std::size_t r = 0; r < m_regions; ++r) {

@@ -66,7 +66,7 @@ public:
             if (before == after)
                 continue;
             effect.cells.push_back(CellChange{m_drop.measures[k.measure],
-                                              m_drop.regionCodes[k.region], m_drop.dayAt(k.day),
+                                              m_drop.regionCodes[k.region], m_drop.periodStart(k.day),
                                               before, after});
             deltas[{k.measure, k.region}] += after.counted() - before.counted();
         }
@@ -103,11 +103,11 @@ Result<std::size_t> findMeasure(const Drop& drop, const std::string& name) {
 }
 
 Result<std::int32_t> findDay(const Drop& drop, Date date, const std::string& region) {
-    auto d = drop.dayIndex(date);
+    auto d = drop.periodOf(date);
     if (!d) {
         return cellError(ErrorCode::NotFound,
                          "day " + date.iso() + " is outside the drop's calendar (" +
-                             drop.firstDay.iso() + " to " + drop.lastDay().iso() + ")",
+                             drop.axis.first().iso() + " to " + drop.axis.lastStart().iso() + ")",
                          region, date.iso());
     }
     return *d;
@@ -167,12 +167,12 @@ Status requireWritable(const Drop& drop, const CleanedCell& cell, std::size_t r,
     if (cell.state == CleanedState::Excluded) {
         return cellError(ErrorCode::InvalidValue,
                          "the day is excluded; withdraw the exclusion first", drop.regionCodes[r],
-                         drop.dayAt(d).iso());
+                         drop.periodStart(d).iso());
     }
     if (cell.state == CleanedState::Merged) {
         return cellError(ErrorCode::InvalidValue,
                          "the region was merged into another code; decide on that code",
-                         drop.regionCodes[r], drop.dayAt(d).iso());
+                         drop.regionCodes[r], drop.periodStart(d).iso());
     }
     return Ok{};
 }
@@ -344,12 +344,12 @@ Status fillMissing(const Drop& drop, const Cleaned& cleaned, const Decision& dec
         if (c.hasValue()) {
             return cellError(ErrorCode::InvalidValue,
                              "the day already has a value; fill only days without one", dec.region,
-                             drop.dayAt(d).iso());
+                             drop.periodStart(d).iso());
         }
     }
     const std::int64_t n = gap->last - gap->first + 1;
     auto neighbour = [&](std::int32_t d, const char* side) -> Result<std::int64_t> {
-        if (d < 0 || d >= drop.days || !cleaned.cell(m, r, d).hasValue()) {
+        if (d < 0 || d >= drop.periods() || !cleaned.cell(m, r, d).hasValue()) {
             return cellError(ErrorCode::InvalidValue,
                              std::string(fillMethodName(dec.fillMethod)) +
                                  " filling needs a value on the day " + side + " the gap",
@@ -385,7 +385,7 @@ Status fillMissing(const Drop& drop, const Cleaned& cleaned, const Decision& dec
             if (*next < 0) {
                 return cellError(ErrorCode::InvalidValue,
                                  "the catch-up day after the gap is negative; spread it first",
-                                 dec.region, drop.dayAt(gap->last + 1).iso());
+                                 dec.region, drop.periodStart(gap->last + 1).iso());
             }
             std::vector<std::int64_t> ones(static_cast<std::size_t>(n + 1), 1);
             auto parts = apportionLargestRemainder(*next, ones);
@@ -470,7 +470,7 @@ Status mergeCodes(const Drop& drop, const Cleaned& cleaned, const Decision& dec,
     if (!c)
         return c.error();
     for (std::size_t m = 0; m < drop.measures.size(); ++m) {
-        for (std::int32_t d = 0; d < drop.days; ++d) {
+        for (std::int32_t d = 0; d < drop.periods(); ++d) {
             const CleanedCell& vc = cleaned.cell(m, *v, d);
             const CleanedCell& cc = cleaned.cell(m, *c, d);
             if (vc.state == CleanedState::Merged) {
@@ -489,7 +489,7 @@ Status mergeCodes(const Drop& drop, const Cleaned& cleaned, const Decision& dec,
                         ErrorCode::InvalidValue,
                         "the day is excluded in '" + dec.into +
                             "'; exclude the variant's day too or withdraw the exclusion",
-                        dec.into, drop.dayAt(d).iso());
+                        dec.into, drop.periodStart(d).iso());
                 }
                 out.set(m, *c, d, cc.hasValue() ? CleanedCell{cc.value + vc.value, cc.state} : vc);
             }
@@ -522,7 +522,7 @@ Status exclude(const Drop& drop, const Cleaned& cleaned, const Decision& dec, Ef
             return m.error();
         measures.push_back(*m);
     }
-    DaySpan days{0, drop.days - 1};
+    DaySpan days{0, drop.periods() - 1};
     if (dec.window) {
         auto w = findDays(drop, *dec.window, dec.region);
         if (!w)
@@ -693,7 +693,7 @@ Result<Effect> deriveEffect(const Drop& drop, const Cleaned& cleaned, const Deci
     if (auto s = decision.validate(); !s)
         return s.error();
     if (cleaned.measureCount() != drop.measures.size() ||
-        cleaned.regionCount() != drop.regionCodes.size() || cleaned.days() != drop.days) {
+        cleaned.regionCount() != drop.regionCodes.size() || cleaned.days() != drop.periods()) {
         return makeError(ErrorCode::Usage, "the cleaned data does not belong to this drop");
     }
     EffectBuilder out(drop, cleaned);

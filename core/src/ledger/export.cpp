@@ -49,14 +49,14 @@ std::string cleanedCsv(const Drop& drop, const Cleaned& cleaned) {
         const std::string region = csvField(drop.regionCodes[r], true);
         for (std::size_t m = 0; m < drop.measures.size(); ++m) {
             const std::string measure = csvField(drop.measures[m], true);
-            for (std::int32_t d = 0; d < drop.days; ++d) {
+            for (std::int32_t d = 0; d < drop.periods(); ++d) {
                 const Cell& raw = drop.cell(m, r, d);
                 const CleanedCell& c = cleaned.cell(m, r, d);
                 const auto touched = cleaned.touchedBy(m, r, d);
                 if (raw.state == CellState::Absent && c.state == CleanedState::Absent &&
                     touched.empty())
                     continue;
-                out += drop.dayAt(d).iso();
+                out += drop.periodStart(d).iso();
                 out += ',';
                 out += region;
                 out += ',';

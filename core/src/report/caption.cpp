@@ -26,9 +26,9 @@ CaptionFacts captionFacts(const Drop& drop, const Ledger& ledger, const fit::Fit
                           const std::string& exportDate) {
     CaptionFacts facts;
     facts.sourceFile = fileNameOf(drop.source.path);
-    if (drop.days > 0) {
-        facts.firstDate = drop.firstDay.iso();
-        facts.lastDate = drop.lastDay().iso();
+    if (drop.periods() > 0) {
+        facts.firstDate = drop.axis.first().iso();
+        facts.lastDate = drop.axis.lastStart().iso();
     }
     facts.dropSha256Prefix = drop.source.sha256.substr(0, kHashPrefixLength);
     facts.ledgerEntries = ledger.entries.size();

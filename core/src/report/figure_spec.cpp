@@ -240,7 +240,7 @@ void addPrevious(FigureSpec& spec, const Drop& previous) {
     spec.previous.assign(spec.days, kNaN);
     const auto cells = previous.series(*measure, *region);
     for (int d = 0; d < spec.days; ++d)
-        if (const auto at = previous.dayIndex(spec.dayAt(d)); at && cells[*at].reported())
+        if (const auto at = previous.periodOf(spec.dayAt(d)); at && cells[*at].reported())
             spec.previous[d] = cells[*at].value;
     spec.previousLabel = fileNameOf(previous.source.path);
 }
@@ -295,8 +295,8 @@ Result<FigureSpec> buildFigureSpec(const Drop& drop, const Ledger& ledger, const
     if (request.regions)
         if (const RegionEntry* entry = request.regions->find(request.region))
             spec.regionName = entry->name;
-    spec.firstDay = drop.firstDay;
-    spec.days = drop.days;
+    spec.firstDay = drop.axis.first();
+    spec.days = drop.periods();
     spec.raw.assign(spec.days, kNaN);
     spec.cleaned.assign(spec.days, kNaN);
     const auto rawCells = drop.series(*measure, *region);

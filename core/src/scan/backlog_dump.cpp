@@ -23,11 +23,11 @@ Finding toFinding(const ScanInput& in, std::size_t r, std::size_t m, const Backl
     const Drop& drop = in.drop;
     const std::int32_t t = e.day.serial;
     const double total = in.measures[m].regionTotals[r];
-    const bool recent = t >= drop.days - kRecentDays;
+    const bool recent = t >= drop.periods() - kRecentDays;
     const bool large = total > 0 && e.excess >= in.options.backlogDump.criticalShare * total;
     Finding f = makeFinding(in, FindingKind::BacklogDump,
                             large || recent ? Severity::Critical : Severity::Warning, r, m);
-    f.first = f.last = drop.dayAt(t);
+    f.first = f.last = drop.periodStart(t);
     f.impact = static_cast<double>(e.excess);
     f.evidence = {
         {"observed", e.observed},
@@ -46,15 +46,15 @@ Finding toFinding(const ScanInput& in, std::size_t r, std::size_t m, const Backl
         {"region_total", total}};
     if (e.gapFirst) {
         f.evidence["after_gap"] =
-            nlohmann::json{{"first", drop.dayAt(e.gapFirst->serial).iso()},
-                           {"last", drop.dayAt(e.gapLast->serial).iso()},
+            nlohmann::json{{"first", drop.periodStart(e.gapFirst->serial).iso()},
+                           {"last", drop.periodStart(e.gapLast->serial).iso()},
                            {"days", e.gapLast->serial - e.gapFirst->serial + 1}};
     }
     f.suggestion = {{"decision", "redistribute"},
-                    {"date", drop.dayAt(t).iso()},
+                    {"date", drop.periodStart(t).iso()},
                     {"excess", e.excess},
-                    {"window_first", drop.dayAt(e.windowFirst.serial).iso()},
-                    {"window_last", drop.dayAt(e.windowLast.serial).iso()},
+                    {"window_first", drop.periodStart(e.windowFirst.serial).iso()},
+                    {"window_last", drop.periodStart(e.windowLast.serial).iso()},
                     {"method", e.gapFirst ? "baseline" : "proportional"}};
     return f;
 }
@@ -71,7 +71,7 @@ void findBacklogDumps(const ScanInput& in, std::vector<Finding>& out) {
         for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
             const std::span<const Cell> cells = drop.series(m, r);
             series.load(cells);
-            for (std::int32_t t = 1; t < drop.days; ++t) {
+            for (std::int32_t t = 1; t < drop.periods(); ++t) {
                 if (!series.mightBeFlagged(t))
                     continue;
                 const std::optional<BacklogEstimate> e = series.estimate(t);
@@ -96,11 +96,11 @@ Result<BacklogEstimate> estimateBacklog(const Drop& drop, std::string_view measu
     const std::optional<std::size_t> r = drop.regionIndex(region);
     if (!r)
         return makeError(ErrorCode::NotFound, "no region '" + std::string(region) + "'");
-    const std::optional<std::int32_t> t = drop.dayIndex(day);
+    const std::optional<std::int32_t> t = drop.periodOf(day);
     if (!t) {
         return makeError(ErrorCode::NotFound, day.iso() + " is outside the drop's calendar");
     }
-    const int firstWeekday = drop.firstDay.isoWeekday() - 1;
+    const int firstWeekday = drop.axis.first().isoWeekday() - 1;
     const detail::WeekdayFactors factors = detail::estimateWeekdayFactors(
         drop, *m, firstWeekday, {}, options.weekdayEffect.minLevel, options.weekdayEffect.minWeeks);
     const double phi = detail::estimateOverdispersion(drop, *m, firstWeekday, factors);
@@ -115,13 +115,13 @@ Result<BacklogEstimate> estimateBacklog(const Drop& drop, std::string_view measu
         err.date = day.iso();
         return err;
     }
-    e->day = drop.dayAt(e->day.serial);
-    e->windowFirst = drop.dayAt(e->windowFirst.serial);
-    e->windowLast = drop.dayAt(e->windowLast.serial);
+    e->day = drop.periodStart(e->day.serial);
+    e->windowFirst = drop.periodStart(e->windowFirst.serial);
+    e->windowLast = drop.periodStart(e->windowLast.serial);
     if (e->gapFirst)
-        e->gapFirst = drop.dayAt(e->gapFirst->serial);
+        e->gapFirst = drop.periodStart(e->gapFirst->serial);
     if (e->gapLast)
-        e->gapLast = drop.dayAt(e->gapLast->serial);
+        e->gapLast = drop.periodStart(e->gapLast->serial);
     return *e;
 }
 

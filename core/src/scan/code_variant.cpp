@@ -25,7 +25,7 @@ CodeStats statsOf(const Drop& drop, std::size_t r) {
     CodeStats s;
     for (std::size_t m = 0; m < drop.measures.size(); ++m) {
         const std::span<const Cell> cells = drop.series(m, r);
-        for (std::int32_t t = 0; t < drop.days; ++t) {
+        for (std::int32_t t = 0; t < drop.periods(); ++t) {
             const Cell& c = cells[static_cast<std::size_t>(t)];
             if (!c.reported())
                 continue;
@@ -71,8 +71,8 @@ void findCodeVariants(const ScanInput& in, std::vector<Finding>& out) {
             nlohmann::json v = {{"code", drop.regionCodes[members[i]]},
                                 {"reported_cells", stats[i].reported}};
             if (stats[i].first >= 0) {
-                v["first"] = drop.dayAt(stats[i].first).iso();
-                v["last"] = drop.dayAt(stats[i].last).iso();
+                v["first"] = drop.periodStart(stats[i].first).iso();
+                v["last"] = drop.periodStart(stats[i].last).iso();
             }
             variants.push_back(std::move(v));
         }
@@ -84,7 +84,7 @@ void findCodeVariants(const ScanInput& in, std::vector<Finding>& out) {
             // Days on which both codes have a value: a split region has few or none.
             std::size_t overlap = 0;
             for (std::size_t m = 0; m < drop.measures.size(); ++m) {
-                for (std::int32_t t = 0; t < drop.days; ++t) {
+                for (std::int32_t t = 0; t < drop.periods(); ++t) {
                     overlap += drop.cell(m, r, t).reported() && drop.cell(m, c, t).reported();
                 }
             }

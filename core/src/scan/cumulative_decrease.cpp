@@ -24,7 +24,7 @@ void findCumulativeDecreases(const ScanInput& in, std::vector<Finding>& out) {
             bool seen = false;
             std::int32_t peak = 0;
             std::int32_t peakDay = 0;
-            for (std::int32_t t = 0; t < drop.days; ++t) {
+            for (std::int32_t t = 0; t < drop.periods(); ++t) {
                 const Cell& c = cells[static_cast<std::size_t>(t)];
                 if (!c.reported())
                     continue;
@@ -36,7 +36,7 @@ void findCumulativeDecreases(const ScanInput& in, std::vector<Finding>& out) {
                 }
                 // A run of days below the running peak.
                 std::int32_t end = t, lowest = c.value, lastBelow = t;
-                for (std::int32_t j = t + 1; j < drop.days; ++j) {
+                for (std::int32_t j = t + 1; j < drop.periods(); ++j) {
                     const Cell& n = cells[static_cast<std::size_t>(j)];
                     if (!n.reported())
                         continue;
@@ -48,11 +48,11 @@ void findCumulativeDecreases(const ScanInput& in, std::vector<Finding>& out) {
                 end = lastBelow;
                 Finding f =
                     makeFinding(in, FindingKind::CumulativeDecrease, Severity::Warning, r, m);
-                f.first = drop.dayAt(t);
-                f.last = drop.dayAt(end);
+                f.first = drop.periodStart(t);
+                f.last = drop.periodStart(end);
                 f.impact = static_cast<double>(peak - lowest);
                 f.evidence = {{"before", peak},
-                              {"before_date", drop.dayAt(peakDay).iso()},
+                              {"before_date", drop.periodStart(peakDay).iso()},
                               {"value", c.value},
                               {"lowest", lowest},
                               {"decrease", peak - lowest},

@@ -21,7 +21,7 @@ void findDuplicateRows(const ScanInput& in, std::vector<Finding>& out) {
         groups;
     for (const DuplicateRow& d : drop.duplicates) {
         if (d.measure >= drop.measures.size() || d.region >= drop.regionCodes.size() || d.day < 0 ||
-            d.day >= drop.days) {
+            d.day >= drop.periods()) {
             continue;
         }
         groups[{d.measure, d.region, d.day}].push_back(&d);
@@ -49,14 +49,14 @@ void findDuplicateRows(const ScanInput& in, std::vector<Finding>& out) {
         }
         Finding f = makeFinding(in, FindingKind::DuplicateRow,
                                 agree ? Severity::Info : Severity::Warning, r, m);
-        f.first = f.last = drop.dayAt(day);
+        f.first = f.last = drop.periodStart(day);
         f.impact = hi - lo;
         f.evidence = {{"rows", rows}, {"values_agree", agree}, {"occurrences", rows.size()}};
         if (!agree)
             f.evidence["spread"] = hi - lo;
         f.suggestion = {{"decision", "resolve_duplicate"},
                         {"keep", agree ? "first" : "last"},
-                        {"date", drop.dayAt(day).iso()}};
+                        {"date", drop.periodStart(day).iso()}};
         out.push_back(std::move(f));
     }
 }

@@ -39,7 +39,7 @@ void findHierarchyMismatches(const ScanInput& in, std::vector<Finding>& out) {
             double absolute = 0;
             std::int32_t first = -1, last = -1;
             nlohmann::json dates = nlohmann::json::array();
-            for (std::int32_t t = 0; t < drop.days; ++t) {
+            for (std::int32_t t = 0; t < drop.periods(); ++t) {
                 const Cell& parent = drop.cell(m, p, t);
                 if (!parent.reported())
                     continue;
@@ -65,7 +65,7 @@ void findHierarchyMismatches(const ScanInput& in, std::vector<Finding>& out) {
                     first = t;
                 last = t;
                 if (dates.size() < listed) {
-                    dates.push_back({{"date", drop.dayAt(t).iso()},
+                    dates.push_back({{"date", drop.periodStart(t).iso()},
                                      {"parent", parent.value},
                                      {"children_sum", sum},
                                      {"difference", diff}});
@@ -74,8 +74,8 @@ void findHierarchyMismatches(const ScanInput& in, std::vector<Finding>& out) {
             if (mismatched == 0)
                 continue;
             Finding f = makeFinding(in, FindingKind::HierarchyMismatch, Severity::Warning, p, m);
-            f.first = drop.dayAt(first);
-            f.last = drop.dayAt(last);
+            f.first = drop.periodStart(first);
+            f.last = drop.periodStart(last);
             f.impact = absolute;
             nlohmann::json childList = nlohmann::json::array();
             for (std::size_t c : children)

@@ -35,14 +35,14 @@ void addRun(const ScanInput& in, std::size_t region, std::optional<std::size_t> 
     const int days = last - first + 1;
 
     Finding f = makeFinding(in, FindingKind::MissingDates, Severity::Warning, region, measure);
-    f.first = drop.dayAt(first);
-    f.last = drop.dayAt(last);
+    f.first = drop.periodStart(first);
+    f.last = drop.periodStart(last);
     f.impact = std::isnan(level) ? days : days * std::max(level, 1.0);
     f.evidence = {{"days", days}, {"absent", absent}, {"blank", blank}};
     if (!std::isnan(level))
         f.evidence["level_around"] = level;
     std::string method = "linear";
-    if (last + 1 < drop.days && cells[static_cast<std::size_t>(last) + 1].reported()) {
+    if (last + 1 < drop.periods() && cells[static_cast<std::size_t>(last) + 1].reported()) {
         const double next = cells[static_cast<std::size_t>(last) + 1].value;
         f.evidence["value_after"] = next;
         f.evidence["line_after"] = cells[static_cast<std::size_t>(last) + 1].line;
@@ -63,13 +63,13 @@ void addRun(const ScanInput& in, std::size_t region, std::optional<std::size_t> 
 void findMissingDates(const ScanInput& in, std::vector<Finding>& out) {
     const Drop& drop = in.drop;
     const std::size_t measures = drop.measures.size();
-    if (measures == 0 || drop.days == 0)
+    if (measures == 0 || drop.periods() == 0)
         return;
     const int minDays = in.options.missingDates.minDays;
     for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
         // Span: first .. last day with a row (any state but absent) in any measure.
         std::int32_t spanFirst = -1, spanLast = -1;
-        for (std::int32_t t = 0; t < drop.days; ++t) {
+        for (std::int32_t t = 0; t < drop.periods(); ++t) {
             for (std::size_t m = 0; m < measures; ++m) {
                 if (drop.cell(m, r, t).state != CellState::Absent) {
                     if (spanFirst < 0)

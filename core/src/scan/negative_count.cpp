@@ -21,7 +21,7 @@ void findNegativeCounts(const ScanInput& in, std::vector<Finding>& out) {
             continue;
         for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
             const std::span<const Cell> cells = drop.series(m, r);
-            for (std::int32_t t = 0; t < drop.days; ++t) {
+            for (std::int32_t t = 0; t < drop.periods(); ++t) {
                 const Cell& c = cells[static_cast<std::size_t>(t)];
                 if (!c.reported() || c.value >= 0)
                     continue;
@@ -39,7 +39,7 @@ void findNegativeCounts(const ScanInput& in, std::vector<Finding>& out) {
                 Finding f = makeFinding(
                     in, FindingKind::NegativeCount,
                     large || !absorbable ? Severity::Critical : Severity::Warning, r, m);
-                f.first = f.last = drop.dayAt(t);
+                f.first = f.last = drop.periodStart(t);
                 f.impact = size;
                 f.evidence = {{"value", c.value},
                               {"line", c.line},
@@ -48,9 +48,9 @@ void findNegativeCounts(const ScanInput& in, std::vector<Finding>& out) {
                               {"region_total", total}};
                 if (t > from) {
                     f.suggestion = {{"decision", "spread_negative"},
-                                    {"date", drop.dayAt(t).iso()},
-                                    {"window_first", drop.dayAt(from).iso()},
-                                    {"window_last", drop.dayAt(t - 1).iso()},
+                                    {"date", drop.periodStart(t).iso()},
+                                    {"window_first", drop.periodStart(from).iso()},
+                                    {"window_last", drop.periodStart(t - 1).iso()},
                                     {"absorbable", absorbable}};
                 } else {
                     f.suggestion = {{"decision", "accept"},

@@ -24,7 +24,7 @@ void findReportingGaps(const ScanInput& in, std::vector<Finding>& out) {
         for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
             const std::span<const Cell> cells = drop.series(m, r);
             std::int32_t firstPositive = -1, lastPositive = -1;
-            for (std::int32_t t = 0; t < drop.days; ++t) {
+            for (std::int32_t t = 0; t < drop.periods(); ++t) {
                 const Cell& c = cells[static_cast<std::size_t>(t)];
                 if (c.reported() && c.value > 0) {
                     if (firstPositive < 0)
@@ -49,7 +49,7 @@ void findReportingGaps(const ScanInput& in, std::vector<Finding>& out) {
                 // Cheap bound first: the median around the run is at most its largest value.
                 bool mayBeActive = false;
                 for (std::int32_t j = std::max(0, t - o.windowDays);
-                     j <= std::min(drop.days - 1, end + o.windowDays) && !mayBeActive; ++j) {
+                     j <= std::min(drop.periods() - 1, end + o.windowDays) && !mayBeActive; ++j) {
                     const Cell& n = cells[static_cast<std::size_t>(j)];
                     mayBeActive = n.reported() && n.value >= o.minLevel;
                 }
@@ -60,8 +60,8 @@ void findReportingGaps(const ScanInput& in, std::vector<Finding>& out) {
                     if (!std::isnan(level) && level >= o.minLevel) {
                         Finding f =
                             makeFinding(in, FindingKind::ReportingGap, Severity::Warning, r, m);
-                        f.first = drop.dayAt(t);
-                        f.last = drop.dayAt(end);
+                        f.first = drop.periodStart(t);
+                        f.last = drop.periodStart(end);
                         f.impact = level * days;
                         f.evidence = {{"days", days},
                                       {"level_around", level},
@@ -74,7 +74,7 @@ void findReportingGaps(const ScanInput& in, std::vector<Finding>& out) {
                         f.evidence["catch_up"] = catchUp;
                         if (catchUp) {
                             f.suggestion = {{"decision", "redistribute"},
-                                            {"date", drop.dayAt(end + 1).iso()},
+                                            {"date", drop.periodStart(end + 1).iso()},
                                             {"excess", std::max<long long>(
                                                            0, std::llround(after.value - level))},
                                             {"window_first", f.first->iso()},

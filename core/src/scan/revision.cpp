@@ -52,30 +52,49 @@ void findRevisions(const ScanInput& in, std::vector<Finding>& out, RevisionSumma
         f.evidence = {{"change", "measure_vanished"}};
         out.push_back(std::move(f));
     }
-    // Dates of the old calendar that are gone, and history added before it.
-    if (before->days > 0 && now.days > 0) {
-        if (now.firstDay > before->firstDay) {
+    // The two releases must count the same periods to be compared cell by cell.
+    const TimeAxis& na = now.axis;
+    const TimeAxis& ba = before->axis;
+    const bool sameGrid = na.cadence() == ba.cadence() &&
+                          (!na.weekly() || na.weekStart() == ba.weekStart()) &&
+                          (na.first() - ba.first()) % na.periodDays() == 0;
+    if (!sameGrid && na.periods() > 0 && ba.periods() > 0) {
+        Finding f =
+            makeFinding(in, FindingKind::Revision, Severity::Critical, std::nullopt, std::nullopt);
+        f.evidence = {{"change", "calendar_changed"},
+                      {"previous", ba.describe()},
+                      {"current", na.describe()}};
+        out.push_back(std::move(f));
+    }
+    // Periods of the old calendar that are gone, and history added before it.
+    const int pd = na.periodDays();
+    auto spanEvidence = [&](const char* change, Date first, Date last) {
+        const int periods = (last - first) / pd + 1;
+        return nlohmann::json{{"change", change}, {"periods", periods}, {"days", periods * pd}};
+    };
+    if (sameGrid && ba.periods() > 0 && na.periods() > 0) {
+        if (na.first() > ba.first()) {
             Finding f = makeFinding(in, FindingKind::Revision, Severity::Warning, std::nullopt,
                                     std::nullopt);
-            f.first = before->firstDay;
-            f.last = std::min(before->lastDay(), now.firstDay - 1);
-            f.evidence = {{"change", "dates_vanished"}, {"days", *f.last - *f.first + 1}};
+            f.first = ba.first();
+            f.last = std::min(ba.lastStart(), na.first() - pd);
+            f.evidence = spanEvidence("dates_vanished", *f.first, *f.last);
             out.push_back(std::move(f));
         }
-        if (now.lastDay() < before->lastDay()) {
+        if (na.lastStart() < ba.lastStart()) {
             Finding f = makeFinding(in, FindingKind::Revision, Severity::Warning, std::nullopt,
                                     std::nullopt);
-            f.first = std::max(now.lastDay() + 1, before->firstDay);
-            f.last = before->lastDay();
-            f.evidence = {{"change", "dates_vanished"}, {"days", *f.last - *f.first + 1}};
+            f.first = std::max(na.lastStart() + pd, ba.first());
+            f.last = ba.lastStart();
+            f.evidence = spanEvidence("dates_vanished", *f.first, *f.last);
             out.push_back(std::move(f));
         }
-        if (now.firstDay < before->firstDay) {
+        if (na.first() < ba.first()) {
             Finding f =
                 makeFinding(in, FindingKind::Revision, Severity::Info, std::nullopt, std::nullopt);
-            f.first = now.firstDay;
-            f.last = std::min(now.lastDay(), before->firstDay - 1);
-            f.evidence = {{"change", "dates_appeared"}, {"days", *f.last - *f.first + 1}};
+            f.first = na.first();
+            f.last = std::min(na.lastStart(), ba.first() - pd);
+            f.evidence = spanEvidence("dates_appeared", *f.first, *f.last);
             out.push_back(std::move(f));
         }
     }
@@ -97,10 +116,10 @@ void findRevisions(const ScanInput& in, std::vector<Finding>& out, RevisionSumma
         out.push_back(std::move(f));
     }
 
-    // Cell by cell over the common calendar.
-    const Date from = std::max(now.firstDay, before->firstDay);
-    const Date to = std::min(now.lastDay(), before->lastDay());
-    if (now.days == 0 || before->days == 0 || to < from)
+    // Cell by cell over the common periods.
+    const Date from = std::max(na.first(), ba.first());
+    const Date to = std::min(na.lastStart(), ba.lastStart());
+    if (!sameGrid || na.periods() == 0 || ba.periods() == 0 || to < from)
         return;
     for (std::size_t m = 0; m < now.measures.size(); ++m) {
         const std::optional<std::size_t> pm = before->measureIndex(now.measures[m]);
@@ -116,9 +135,9 @@ void findRevisions(const ScanInput& in, std::vector<Finding>& out, RevisionSumma
             double net = 0, absolute = 0, oldTotal = 0;
             std::int32_t first = -1, last = -1;
             nlohmann::json dates = nlohmann::json::array();
-            for (Date d = from; d <= to; d = d + 1) {
-                const Cell& oldCell = a[static_cast<std::size_t>(d - before->firstDay)];
-                const Cell& newCell = b[static_cast<std::size_t>(d - now.firstDay)];
+            for (Date d = from; d <= to; d = d + pd) {
+                const Cell& oldCell = a[static_cast<std::size_t>(ba.periodOnGrid(d))];
+                const Cell& newCell = b[static_cast<std::size_t>(na.periodOnGrid(d))];
                 bool revised = false;
                 if (oldCell.reported() && newCell.reported()) {
                     ++summary.cellsCompared;
@@ -145,7 +164,7 @@ void findRevisions(const ScanInput& in, std::vector<Finding>& out, RevisionSumma
                 }
                 if (!revised)
                     continue;
-                const std::int32_t t = d - now.firstDay;
+                const std::int32_t t = na.periodOnGrid(d);
                 if (first < 0)
                     first = t;
                 last = t;
@@ -170,8 +189,8 @@ void findRevisions(const ScanInput& in, std::vector<Finding>& out, RevisionSumma
                                       : share >= 0.01 ? Severity::Warning
                                                       : Severity::Info;
             Finding f = makeFinding(in, FindingKind::Revision, severity, r, m);
-            f.first = now.dayAt(first);
-            f.last = now.dayAt(last);
+            f.first = now.periodStart(first);
+            f.last = now.periodStart(last);
             f.impact = absolute;
             f.evidence = {{"change", "values_revised"},
                           {"changed", changed},

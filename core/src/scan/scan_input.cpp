@@ -43,7 +43,7 @@ WeekdayFactors estimateWeekdayFactors(const Drop& drop, std::size_t measure, int
     WeekdayFactors out;
     std::array<std::vector<double>, 7> ratios;
     const std::size_t regionCount = regions.empty() ? drop.regionCodes.size() : regions.size();
-    const std::int32_t days = drop.days;
+    const std::int32_t days = drop.periods();
     // Pooled over a large drop, every k-th region suffices (about 350,000 days in all);
     // the median of that many ratios moves by well under 0.01.
     constexpr std::size_t kMaxDays = 350000;
@@ -107,7 +107,7 @@ double estimateOverdispersion(const Drop& drop, std::size_t measure, int firstWe
     constexpr double kMinLevel = 10;
     constexpr std::size_t kMaxSamples = 20000;
     const std::size_t regions = drop.regionCodes.size();
-    const auto days = static_cast<std::size_t>(std::max(0, drop.days));
+    const auto days = static_cast<std::size_t>(std::max(0, drop.periods()));
     if (days < 7)
         return 0;
     const std::size_t candidates = regions * (days - 6);
@@ -190,8 +190,8 @@ void classifyCumulative(const Drop& drop, const CumulativeDecreaseOptions& optio
 ScanInput prepareScanInput(const Drop& drop, const ScanOptions& options,
                            const ScanContext& context) {
     ScanInput in{drop, options, context, 0, {}};
-    if (drop.days > 0)
-        in.firstWeekday = drop.firstDay.isoWeekday() - 1;
+    if (drop.periods() > 0)
+        in.firstWeekday = drop.axis.first().isoWeekday() - 1;
     in.measures.resize(drop.measures.size());
     for (std::size_t m = 0; m < drop.measures.size(); ++m) {
         MeasureFacts& facts = in.measures[m];

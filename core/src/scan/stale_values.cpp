@@ -24,12 +24,12 @@ void findStaleValues(const ScanInput& in, std::vector<Finding>& out) {
             continue;
         for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
             const std::span<const Cell> cells = drop.series(m, r);
-            for (std::int32_t t = 0; t < drop.days; ++t) {
+            for (std::int32_t t = 0; t < drop.periods(); ++t) {
                 const Cell& c = cells[static_cast<std::size_t>(t)];
                 if (!c.reported() || c.value <= 0)
                     continue;
                 std::int32_t end = t;
-                while (end + 1 < drop.days && cells[static_cast<std::size_t>(end) + 1].reported() &&
+                while (end + 1 < drop.periods() && cells[static_cast<std::size_t>(end) + 1].reported() &&
                        cells[static_cast<std::size_t>(end) + 1].value == c.value) {
                     ++end;
                 }
@@ -43,8 +43,8 @@ void findStaleValues(const ScanInput& in, std::vector<Finding>& out) {
                     if (chance <= o.maxChance) {
                         Finding f =
                             makeFinding(in, FindingKind::StaleValues, Severity::Warning, r, m);
-                        f.first = drop.dayAt(t);
-                        f.last = drop.dayAt(end);
+                        f.first = drop.periodStart(t);
+                        f.last = drop.periodStart(end);
                         f.impact = static_cast<double>(c.value) * (days - 1);
                         f.evidence = {{"value", c.value},
                                       {"days", days},
@@ -52,7 +52,7 @@ void findStaleValues(const ScanInput& in, std::vector<Finding>& out) {
                                       {"first_line", c.line}};
                         // The first day of the run may be genuine; the copies follow it.
                         f.suggestion = {{"decision", "exclude"},
-                                        {"first", drop.dayAt(t + 1).iso()},
+                                        {"first", drop.periodStart(t + 1).iso()},
                                         {"last", f.last->iso()},
                                         {"note", "values copied forward carry no new count"}};
                         out.push_back(std::move(f));

@@ -61,8 +61,8 @@ void findWeekdayEffects(const ScanInput& in, std::vector<Finding>& out) {
                          });
 
         Finding f = makeFinding(in, FindingKind::WeekdayEffect, Severity::Info, std::nullopt, m);
-        f.first = drop.firstDay;
-        f.last = drop.lastDay();
+        f.first = drop.axis.first();
+        f.last = drop.axis.lastStart();
         nlohmann::json factors = nlohmann::json::object();
         nlohmann::json used = nlohmann::json::object();
         for (std::size_t w = 0; w < 7; ++w) {
