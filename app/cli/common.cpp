@@ -19,7 +19,14 @@ std::vector<FlagSpec> ingestFlagSpecs() {
          "wide layouts: the name of the one measure (default: cases)"},
         {"layout", true, false, "LAYOUT", "long, dates-down or dates-across (default: detected)"},
         {"date-format", true, false, "FMT",
-         "YYYY-MM-DD, YYYYMMDD, DD/MM/YYYY or MM/DD/YYYY (default: detected)"},
+         "YYYY-MM-DD, YYYYMMDD, DD/MM/YYYY, MM/DD/YYYY or YYYY-Www (default: detected)"},
+        {"cadence", true, false, "C",
+         "daily or weekly (default: weekly when every date is 7 days apart on one weekday)"},
+        {"week-start", true, false, "DAY",
+         "weekly: monday (ISO 8601 weeks) or sunday (epidemiological weeks) (default: from the "
+         "dates' weekday)"},
+        {"week-date", true, false, "WHICH",
+         "weekly: a date names the start or the end of its week (default: from the dates)"},
         {"delimiter", true, false, "C", "field delimiter: ',' ';' '|' or tab (default: detected)"},
         {"header", false, false, "", "the first line is a header (default: detected)"},
         {"no-header", false, false, "", "the first line is data"},
@@ -45,6 +52,21 @@ Result<IngestOptions> ingestOptionsFrom(const ParsedArgs& args) {
         o.layout = layoutFromName(*layout);
         if (!o.layout)
             return usage("unknown layout '" + *layout + "'; use long, dates-down or dates-across");
+    }
+    if (auto c = args.optionalValue("cadence")) {
+        o.cadence = cadenceFromName(*c);
+        if (!o.cadence)
+            return usage("unknown cadence '" + *c + "'; use daily or weekly");
+    }
+    if (auto w = args.optionalValue("week-start")) {
+        o.weekStart = weekStartFromName(*w);
+        if (!o.weekStart)
+            return usage("unknown week start '" + *w + "'; use monday or sunday");
+    }
+    if (auto w = args.optionalValue("week-date")) {
+        o.weekDate = weekDateFromName(*w);
+        if (!o.weekDate)
+            return usage("unknown week date '" + *w + "'; use start or end");
     }
     if (auto d = args.optionalValue("delimiter")) {
         if (*d == "tab" || *d == "\\t" || *d == "\t")

@@ -157,7 +157,8 @@ TEST(IngestBadInput, WrongOptionsAreUsageErrors) {
     Result<Drop> refused = parseDrop("date,region,cases\n2026-01-01,A,1\n", "x.csv", badFormat);
     ASSERT_FALSE(refused.ok());
     EXPECT_EQ(refused.error().code, ErrorCode::Usage);
-    EXPECT_TRUE(mentions(refused.error(), "use YYYY-MM-DD, YYYYMMDD, DD/MM/YYYY or MM/DD/YYYY"));
+    EXPECT_TRUE(
+        mentions(refused.error(), "use YYYY-MM-DD, YYYYMMDD, DD/MM/YYYY, MM/DD/YYYY or YYYY-Www"));
     IngestOptions quote;
     quote.delimiter = '"';
     EXPECT_FALSE(quote.validate().ok());

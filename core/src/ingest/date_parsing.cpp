@@ -1,5 +1,7 @@
 #include "ingest/date_parsing.h"
 
+#include "siftwave/time_axis.h"
+
 #include <cctype>
 #include <string>
 
@@ -26,6 +28,8 @@ DateShape dateShapeOf(std::string_view t) {
     }
     if (t.size() == 8 && splitDate(t, DateShape::Compact, a, b, c))
         return DateShape::Compact;
+    if ((t.size() == 8 || t.size() == 7) && splitDate(t, DateShape::IsoWeek, a, b, c))
+        return DateShape::IsoWeek;
     if (t.size() >= 8 && t.size() <= 10) {
         return splitDate(t, DateShape::Slash, a, b, c) ? DateShape::Slash : DateShape::None;
     }
@@ -52,6 +56,15 @@ bool splitDate(std::string_view t, DateShape shape, int& n1, int& n2, int& n3) {
             return digitsAt(t, 0, s1, n1) && digitsAt(t, s1 + 1, s2 - s1 - 1, n2) &&
                    digitsAt(t, s2 + 1, 4, n3);
         }
+        case DateShape::IsoWeek: {
+            // YYYY-Www or YYYYWww (the W in either case).
+            const std::size_t w = t.size() == 8 ? 5 : 4;
+            if ((t.size() != 8 && t.size() != 7) || (t.size() == 8 && t[4] != '-') ||
+                (t[w] != 'W' && t[w] != 'w'))
+                return false;
+            n3 = 1;
+            return digitsAt(t, 0, 4, n1) && digitsAt(t, w + 1, 2, n2);
+        }
         case DateShape::None:
             break;
     }
@@ -68,6 +81,8 @@ const char* dateFormatName(DateFormat format) {
             return "DD/MM/YYYY";
         case DateFormat::MonthFirst:
             return "MM/DD/YYYY";
+        case DateFormat::IsoWeek:
+            return "YYYY-Www";
         case DateFormat::Unknown:
             break;
     }
@@ -86,6 +101,8 @@ std::optional<DateFormat> dateFormatFromName(std::string_view name) {
         return DateFormat::DayFirst;
     if (upper == "MM/DD/YYYY" || upper == "M/D/Y" || upper == "M/D/YYYY")
         return DateFormat::MonthFirst;
+    if (upper == "YYYY-WWW" || upper == "YYYYWWW" || upper == "ISO-WEEK")
+        return DateFormat::IsoWeek;
     return std::nullopt;
 }
 
@@ -98,6 +115,8 @@ DateShape shapeOfFormat(DateFormat format) {
         case DateFormat::DayFirst:
         case DateFormat::MonthFirst:
             return DateShape::Slash;
+        case DateFormat::IsoWeek:
+            return DateShape::IsoWeek;
         case DateFormat::Unknown:
             break;
     }
@@ -116,6 +135,10 @@ std::optional<Date> parseDateAs(std::string_view text, DateFormat format) {
             return Date::fromYmd(n3, n2, n1);
         case DateFormat::MonthFirst:
             return Date::fromYmd(n3, n1, n2);
+        case DateFormat::IsoWeek:
+            if (!isValidYmd(n1, 1, 4))
+                return std::nullopt;
+            return weekStartDate(WeekNumber{n1, n2}, WeekStart::Monday);
         case DateFormat::Unknown:
             break;
     }

@@ -2,6 +2,7 @@
 #include "ingest/drop_reader.h"
 
 #include <algorithm>
+#include <array>
 #include <cctype>
 #include <limits>
 #include <set>
@@ -128,6 +129,8 @@ bool DropReader::predictCalendar() {
             format = DateFormat::Iso;
         else if (shape == DateShape::Compact)
             format = DateFormat::Compact;
+        else if (shape == DateShape::IsoWeek)
+            format = DateFormat::IsoWeek;
         else
             return false;  // a slash order is settled only after every date was seen
     }
@@ -364,13 +367,16 @@ Status DropReader::settleDates() {
             return fail(
                 ErrorCode::InvalidValue,
                 quoted(first) +
-                    " in the date column is not a date (YYYY-MM-DD, YYYYMMDD, D/M/Y or M/D/Y)",
+                    " in the date column is not a date (YYYY-MM-DD, YYYYMMDD, D/M/Y, M/D/Y or "
+                    "an ISO week YYYY-Www)",
                 m_dateLine[0], m_dateColumn[0]);
         }
         if (shape == DateShape::Iso)
             m_dateFormat = DateFormat::Iso;
         if (shape == DateShape::Compact)
             m_dateFormat = DateFormat::Compact;
+        if (shape == DateShape::IsoWeek)
+            m_dateFormat = DateFormat::IsoWeek;
         if (shape == DateShape::Slash) {
             // Day or month first: settled only by a number above 12, never guessed.
             std::size_t firstAbove12 = n, secondAbove12 = n;
@@ -594,10 +600,161 @@ Status DropReader::cellPass() {
     return Ok{};
 }
 
+namespace {
+
+const char* weekdayName(int isoWeekday) {
+    static const char* const names[] = {"Monday", "Tuesday",  "Wednesday", "Thursday",
+                                        "Friday", "Saturday", "Sunday"};
+    return names[(isoWeekday + 6) % 7];
+}
+
+// The ISO weekday (1 = Monday) of the first or last day of a week.
+int namedWeekday(WeekStart start, WeekDate named) {
+    if (start == WeekStart::Monday)
+        return named == WeekDate::Start ? 1 : 7;
+    return named == WeekDate::Start ? 7 : 6;
+}
+
+}  // namespace
+
+Result<DropReader::CalendarPlan> DropReader::planCalendar() {
+    CalendarPlan plan;
+    plan.axis = TimeAxis::daily(Date{m_firstSerial}, static_cast<std::int32_t>(m_days));
+    const bool labels = m_dateFormat == DateFormat::IsoWeek;
+    if (m_options.cadence == Cadence::Daily) {
+        if (labels)
+            return fail(ErrorCode::Usage,
+                        "the dates are ISO week labels (like 2026-W05), which name weeks, not "
+                        "days; leave out --cadence daily",
+                        m_dateLine.empty() ? 0 : m_dateLine[0],
+                        m_dateColumn.empty() ? 0 : m_dateColumn[0]);
+        return plan;
+    }
+    // The distinct dates by weekday.
+    const std::size_t n = m_dayOfDate.size();
+    std::array<std::size_t, 8> byWeekday{};
+    for (std::int32_t day : m_dayOfDate)
+        ++byWeekday[static_cast<std::size_t>(Date{m_firstSerial + day}.isoWeekday())];
+    int weekday = 1;
+    for (int w = 2; w <= 7; ++w)
+        if (byWeekday[static_cast<std::size_t>(w)] > byWeekday[static_cast<std::size_t>(weekday)])
+            weekday = w;
+    const std::size_t onWeekday = byWeekday[static_cast<std::size_t>(weekday)];
+    const bool forced = m_options.cadence == Cadence::Weekly;
+    // Dates that are not on the common weekday, as "line L (2026-02-03, a Tuesday)".
+    auto offGrid = [&](std::size_t limit) {
+        std::string list;
+        std::size_t listed = 0, total = 0;
+        for (std::size_t i = 0; i < n; ++i) {
+            const Date d{m_firstSerial + m_dayOfDate[i]};
+            if (d.isoWeekday() == weekday)
+                continue;
+            ++total;
+            if (listed++ < limit)
+                list += (list.empty() ? "" : "; ") + std::string("line ") +
+                        std::to_string(m_dateLine[i]) + " (" + d.iso() + ", a " +
+                        weekdayName(d.isoWeekday()) + ")";
+        }
+        return std::to_string(total) + (total == 1 ? " date is not: " : " dates are not: ") + list +
+               (total > limit ? "; ..." : "");
+    };
+    if (!labels && !forced) {
+        if (n >= 2 && onWeekday == n) {
+            // weekly by the dates themselves
+        } else if (n >= 4 && onWeekday * 10 >= n * 9) {
+            std::size_t i = 0;
+            while (i < n && Date{m_firstSerial + m_dayOfDate[i]}.isoWeekday() == weekday)
+                ++i;
+            return fail(ErrorCode::InvalidValue,
+                        "the dates fit neither a daily nor a weekly grid: " +
+                            std::to_string(onWeekday) + " of " + std::to_string(n) + " are " +
+                            weekdayName(weekday) + "s, as weekly data would be, but " + offGrid(5) +
+                            ". Correct those dates, or pass --cadence daily to read every date "
+                            "as a day",
+                        i < n ? m_dateLine[i] : 0, i < n ? m_dateColumn[i] : 0);
+        } else {
+            return plan;  // daily
+        }
+    }
+
+    // Weekly: which convention, and which day of its week a date names.
+    WeekStart start = WeekStart::Monday;
+    WeekDate named = WeekDate::Start;
+    if (!labels) {
+        const std::string dateName =
+            m_roles.dateColumn >= 0
+                ? lowerTrimmed(m_names[static_cast<std::size_t>(m_roles.dateColumn)])
+                : std::string();
+        const bool saysEnd = dateName.find("end") != std::string::npos;
+        if (weekday == 7 && !saysEnd)
+            start = WeekStart::Sunday;
+        if (weekday == 7 && saysEnd)
+            named = WeekDate::End;
+        if (weekday == 6) {
+            start = WeekStart::Sunday;
+            named = WeekDate::End;
+        }
+    }
+    if (m_options.weekStart) {
+        start = *m_options.weekStart;
+        named = weekday == namedWeekday(start, WeekDate::End) ? WeekDate::End : WeekDate::Start;
+    }
+    if (m_options.weekDate)
+        named = *m_options.weekDate;
+    const char* convention = start == WeekStart::Monday
+                                 ? "an ISO 8601 week (Monday to Sunday)"
+                                 : "an epidemiological week (Sunday to Saturday)";
+    if (weekday != namedWeekday(start, named)) {
+        m_log.add("week date",
+                  std::string("the dates are ") + weekdayName(weekday) + "s, not the " +
+                      (named == WeekDate::Start ? "first" : "last") + " day of " + convention +
+                      "; each date is counted in the week that holds it (--week-start and "
+                      "--week-date set the convention)",
+                  0, 0);
+    }
+
+    // The weeks from the first date's to the last date's.
+    std::int32_t lo = std::numeric_limits<std::int32_t>::max(), hi = -1;
+    for (std::int32_t day : m_dayOfDate) {
+        lo = std::min(lo, day);
+        hi = std::max(hi, day);
+    }
+    const Date firstWeek = weekStartOf(Date{m_firstSerial + lo}, start);
+    const Date lastWeek = weekStartOf(Date{m_firstSerial + hi}, start);
+    plan.axis = TimeAxis::weekly(firstWeek, (lastWeek - firstWeek) / 7 + 1, start, named);
+    plan.periodOfDay.assign(m_days, -1);
+    std::vector<std::size_t> dateOfPeriod(static_cast<std::size_t>(plan.axis.periods()), n);
+    for (std::size_t i = 0; i < n; ++i) {
+        const std::int32_t day = m_dayOfDate[i];
+        const std::int32_t p = plan.axis.periodOnGrid(Date{m_firstSerial + day});
+        std::size_t& other = dateOfPeriod[static_cast<std::size_t>(p)];
+        if (other != n) {
+            return fail(ErrorCode::InvalidValue,
+                        "two dates fall in one week (" + plan.axis.periodDescription(p) +
+                            "): " + Date{m_firstSerial + m_dayOfDate[other]}.iso() + " (line " +
+                            std::to_string(m_dateLine[other]) + ") and " +
+                            Date{m_firstSerial + day}.iso() +
+                            "; weekly data has one date per week (" + offGrid(5) + " " +
+                            weekdayName(weekday) +
+                            "s). Pass --cadence daily to read every date "
+                            "as a day",
+                        m_dateLine[i], m_dateColumn[i]);
+        }
+        other = i;
+        plan.periodOfDay[static_cast<std::size_t>(day)] = p;
+        plan.usedDays.push_back(day);
+    }
+    std::sort(plan.usedDays.begin(), plan.usedDays.end());
+    return plan;
+}
+
 Status DropReader::finish() {
     if (m_drop.rows == 0)
         return fail(ErrorCode::Layout, "the file has a header but no data rows", 1, 0);
-    m_drop.axis = TimeAxis::daily(Date{m_firstSerial}, static_cast<std::int32_t>(m_days));
+    Result<CalendarPlan> plan = planCalendar();
+    if (!plan)
+        return plan.error();
+    m_drop.axis = plan->axis;
     m_drop.source.dateFormat = dateFormatName(m_dateFormat);
     if (m_roles.layout == Layout::DatesDown) {
         for (int c : m_roles.valueColumns)
@@ -618,8 +775,26 @@ Status DropReader::finish() {
     }
     std::vector<std::vector<Cell>> tables = m_tables.takeTables();
     m_drop.tables.reserve(tables.size());
-    for (std::vector<Cell>& cells : tables)
-        m_drop.tables.emplace_back(m_days, std::move(cells));
+    const auto periods = static_cast<std::size_t>(m_drop.axis.periods());
+    for (std::vector<Cell>& cells : tables) {
+        if (!m_drop.axis.weekly()) {
+            m_drop.tables.emplace_back(m_days, std::move(cells));
+            continue;
+        }
+        // Weekly: the tables were filled by day; each date's column becomes its week's.
+        const std::size_t regions = m_days == 0 ? 0 : cells.size() / m_days;
+        std::vector<Cell> weeks(regions * periods);
+        for (std::size_t r = 0; r < regions; ++r)
+            for (std::int32_t day : plan->usedDays)
+                weeks[r * periods +
+                      static_cast<std::size_t>(plan->periodOfDay[static_cast<std::size_t>(day)])] =
+                    cells[r * m_days + static_cast<std::size_t>(day)];
+        cells = {};
+        m_drop.tables.emplace_back(periods, std::move(weeks));
+    }
+    if (m_drop.axis.weekly())
+        for (DuplicateRow& d : m_drop.duplicates)
+            d.day = plan->periodOfDay[static_cast<std::size_t>(d.day)];
     m_drop.indexRegions();
 
     if (m_emptyLines > 0) {

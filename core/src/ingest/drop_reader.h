@@ -62,6 +62,15 @@ private:
     Status keyPass();
     Status settleDates();
     Status cellPass();
+    /// The calendar the dates make: daily, or weekly (every date 7 days apart on one
+    /// weekday, or ISO week labels), with the options' overrides; for weekly, the period
+    /// of every day index in use. Dates that fit neither grid are an error with their lines.
+    struct CalendarPlan {
+        TimeAxis axis;
+        std::vector<std::int32_t> periodOfDay;  // weekly: day index -> period (-1: no date)
+        std::vector<std::int32_t> usedDays;     // weekly: the day indices that hold a date
+    };
+    Result<CalendarPlan> planCalendar();
     Status finish();
 
     /// Housekeeping every record gets once: encoding checks ahead, page release.

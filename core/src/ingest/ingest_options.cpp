@@ -7,8 +7,12 @@ Status IngestOptions::validate() const {
     if (!dateFormat.empty() && !detail::dateFormatFromName(dateFormat)) {
         return makeError(ErrorCode::Usage,
                          "unknown date format '" + dateFormat +
-                             "'; use YYYY-MM-DD, YYYYMMDD, DD/MM/YYYY or MM/DD/YYYY");
+                             "'; use YYYY-MM-DD, YYYYMMDD, DD/MM/YYYY, MM/DD/YYYY or YYYY-Www");
     }
+    if (cadence == Cadence::Daily && (weekStart || weekDate))
+        return makeError(
+            ErrorCode::Usage,
+            "--week-start and --week-date apply to weekly data, not with --cadence daily");
     if (delimiter) {
         const char d = *delimiter;
         if (d == '"' || d == '\n' || d == '\r' || d == '\0') {

@@ -13,6 +13,7 @@
 #include "siftwave/drop.h"
 #include "siftwave/region_register.h"
 #include "siftwave/result.h"
+#include "siftwave/time_axis.h"
 
 #include <optional>
 #include <string>
@@ -32,6 +33,16 @@ struct IngestOptions {
     std::optional<char> delimiter;           // default: sniffed among , ; TAB |
     std::optional<bool> header;              // default: sniffed
     std::vector<std::string> missingTokens{""};  // cells that mean "no value" (default: the empty cell)
+    /// The calendar (time_axis.h). Default: detected. Weekly when every date lies 7 days
+    /// apart on one weekday, or the dates are ISO week labels (2026-W05); daily otherwise.
+    std::optional<Cadence> cadence;
+    /// Weekly: the first day of a week. Default: from the dates' weekday (Monday dates:
+    /// ISO weeks; Sunday dates: epidemiological weeks named by their first day, or ISO
+    /// weeks named by their last day when the date column's name says "end"; Saturday
+    /// dates: epidemiological weeks named by their last day).
+    std::optional<WeekStart> weekStart;
+    /// Weekly: whether a date names the first or the last day of its week (default: as above).
+    std::optional<WeekDate> weekDate;
 
     /// Usage errors (unknown date format, a delimiter that is a quote, ...).
     Status validate() const;
