@@ -104,16 +104,25 @@ Result<std::vector<int>> namedColumns(const std::vector<std::string>& names,
     return out;
 }
 
-/// The columns that play no role in `m`, in column order.
+/// The columns that play no role in `m`, in column order (one pass: a dates-down file may have
+/// thousands of value columns).
 std::vector<int> unusedColumnsOf(std::size_t columns, const RoleMapping& m) {
-    auto in = [](const std::vector<int>& list, int c) {
-        return std::find(list.begin(), list.end(), c) != list.end();
+    std::vector<char> used(columns, 0);
+    auto mark = [&](int c) {
+        if (c >= 0 && static_cast<std::size_t>(c) < columns)
+            used[static_cast<std::size_t>(c)] = 1;
     };
+    mark(m.dateColumn);
+    mark(m.regionColumn);
+    mark(m.measureColumn);
+    for (int c : m.valueColumns)
+        mark(c);
+    for (int c : m.dateColumns)
+        mark(c);
     std::vector<int> out;
-    for (int c = 0; c < static_cast<int>(columns); ++c) {
-        if (c != m.dateColumn && c != m.regionColumn && c != m.measureColumn &&
-            !in(m.valueColumns, c) && !in(m.dateColumns, c))
-            out.push_back(c);
+    for (std::size_t c = 0; c < columns; ++c) {
+        if (!used[c])
+            out.push_back(static_cast<int>(c));
     }
     return out;
 }
