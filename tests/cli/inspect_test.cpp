@@ -1,4 +1,5 @@
 // End-to-end: siftwave-cli inspect on files written by the test.
+#include "siftwave/date.h"
 #include "siftwave/ingest/ingest.h"
 
 #include "support/temp_path.h"
@@ -181,6 +182,48 @@ TEST(CliInspect, UsageErrorsExitTwoAndHelpExitsZero) {
     EXPECT_EQ(wrongColumn.exitCode, 2);
     EXPECT_NE(wrongColumn.err.find("--value-col names 'deaths', but there is no such column"),
               std::string::npos);
+    std::filesystem::remove(path);
+}
+
+TEST(CliInspect, ALongFileSortedByRegionWithNumericCodesIsReportedAsLong) {
+    // 450 weeks per region: the reader's sample (400 records) shows the first region only.
+    std::string text = "week_start,region,cases\n";
+    for (const char* code : {"8336", "8337", "8315"}) {
+        for (int w = 0; w < 450; ++w) {
+            text += (*siftwave::Date::fromIso("2001-01-01") + 7 * w).iso() + "," + code + "," +
+                    std::to_string(w % 17) + "\n";
+        }
+    }
+    const std::string path = writeDrop("siftwave_inspect_by_region.csv", text);
+    const CliRun json = run("inspect " + path + " --json");
+    ASSERT_EQ(json.exitCode, 0) << json.err;
+    const auto j = nlohmann::json::parse(json.out);
+    EXPECT_EQ(j["layout"], "long");
+    EXPECT_EQ(j["columns"]["region"], "region");
+    EXPECT_EQ(j["regions"], 3);
+    EXPECT_EQ(j["region_codes"], nlohmann::json({"8336", "8337", "8315"}));
+    EXPECT_EQ(j["rows"], 1350);
+    const CliRun plain = run("inspect " + path);
+    ASSERT_EQ(plain.exitCode, 0) << plain.err;
+    EXPECT_NE(plain.out.find("layout      long"), std::string::npos) << plain.out;
+    EXPECT_NE(plain.out.find("regions     3: 8336, 8337, 8315"), std::string::npos) << plain.out;
+    std::filesystem::remove(path);
+}
+
+TEST(CliInspect, AnAmbiguousLayoutExitsOneAndNamesTheFlag) {
+    std::string text = "date,8336,8337\n";
+    for (int d = 0; d < 40; ++d)
+        text += (*siftwave::Date::fromIso("2026-01-01") + d).iso() + ",7," +
+                std::to_string(d % 11) + "\n";
+    const std::string path = writeDrop("siftwave_inspect_ambiguous_layout.csv", text);
+    const CliRun r = run("inspect " + path);
+    EXPECT_EQ(r.exitCode, 1);
+    EXPECT_NE(r.err.find("--layout long"), std::string::npos) << r.err;
+    EXPECT_NE(r.err.find("--layout dates-down"), std::string::npos) << r.err;
+    const CliRun j = run("inspect " + path + " --json");
+    EXPECT_EQ(j.exitCode, 1);
+    EXPECT_EQ(nlohmann::json::parse(j.out)["error"]["code"], "ambiguous");
+    EXPECT_EQ(run("inspect " + path + " --layout dates-down").exitCode, 0);
     std::filesystem::remove(path);
 }
 

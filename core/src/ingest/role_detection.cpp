@@ -1,21 +1,25 @@
 #include "ingest/role_detection.h"
 
 #include "ingest/date_parsing.h"
+#include "ingest/header_words.h"
 
 #include <algorithm>
 #include <cctype>
-#include <set>
+#include <cmath>
+#include <cstdint>
+#include <unordered_map>
+#include <unordered_set>
 
 namespace siftwave::detail {
 namespace {
 
-bool nameHasAny(const std::string& name, std::initializer_list<const char*> words) {
-    const std::string n = lowerTrimmed(name);
-    for (const char* w : words) {
-        if (n.find(w) != std::string::npos)
-            return true;
-    }
-    return false;
+std::string quotedName(std::string_view name) {
+    std::string out;
+    out.reserve(name.size() + 2);
+    out += '\'';
+    out.append(name);
+    out += '\'';
+    return out;
 }
 
 struct ColumnProfile {
@@ -100,18 +104,619 @@ Result<std::vector<int>> namedColumns(const std::vector<std::string>& names,
     return out;
 }
 
-/// The columns that play no role in `m`, in column order.
+/// The columns that play no role in `m`, in column order (one pass: a dates-down file may have
+/// thousands of value columns).
 std::vector<int> unusedColumnsOf(std::size_t columns, const RoleMapping& m) {
-    auto in = [](const std::vector<int>& list, int c) {
-        return std::find(list.begin(), list.end(), c) != list.end();
+    std::vector<char> used(columns, 0);
+    auto mark = [&](int c) {
+        if (c >= 0 && static_cast<std::size_t>(c) < columns)
+            used[static_cast<std::size_t>(c)] = 1;
     };
+    mark(m.dateColumn);
+    mark(m.regionColumn);
+    mark(m.measureColumn);
+    for (int c : m.valueColumns)
+        mark(c);
+    for (int c : m.dateColumns)
+        mark(c);
     std::vector<int> out;
-    for (int c = 0; c < static_cast<int>(columns); ++c) {
-        if (c != m.dateColumn && c != m.regionColumn && c != m.measureColumn &&
-            !in(m.valueColumns, c) && !in(m.dateColumns, c))
-            out.push_back(c);
+    for (std::size_t c = 0; c < columns; ++c) {
+        if (!used[c])
+            out.push_back(static_cast<int>(c));
     }
     return out;
+}
+
+// How much each piece of evidence weighs when the layout is chosen (see role_detection.h).
+// The weights are judgement, tuned on the tests' files (common practice, no source).
+constexpr double kRepeatedDatesWeight = 4.0;  // long: dates repeat (full weight at each date twice)
+constexpr double kCodesInRunsWeight = 4.0;    // long: a column holds region codes in runs
+constexpr double kDatesOnceWeight = 1.0;      // dates-down: each date once ...
+constexpr double kVaryLikeCountsWeight = 2.0;  // ... and no column holds region codes in runs
+constexpr double kDigitNamesWeight = 3.0;      // dates-down: the header names are numbers
+constexpr double kDecisiveMargin = 2.0;        // closer scores: refuse, the layout is ambiguous
+constexpr double kDatesOnceAtMost = 0.05;      // a share of repeated dates still "each date once"
+constexpr double kDatesRepeatAtLeast = 0.25;   // a share of repeated dates that means "repeat"
+constexpr int kMinRunRows = 8;                 // rows per value of a region-code column in runs
+constexpr double kFullWeightRunRows = 50.0;    // a run this long gives codes in runs full weight
+
+/// What the sample says about one column besides its cell shapes.
+struct ColumnFacts {
+    int cells = 0;     // non-empty cells
+    int distinct = 0;  // distinct non-empty texts (counted when codesInRuns or keyWithDate need it)
+    int runs = 0;      // blocks of equal consecutive non-empty cells
+    bool positiveIntegers = false;  // every non-empty cell is digits, no leading zero, not 0
+    bool keyWithDate = false;       // no two rows share the date and the cell (looked at when dates
+                                    // repeat and the cells are positive integers)
+    std::string_view longestRunText;
+    int longestRun = 0;
+
+    /// Numeric region codes of a file sorted by region: few positive integers, each filling one
+    /// block of many consecutive rows.
+    bool codesInRuns() const {
+        return positiveIntegers && runs == distinct && cells >= kMinRunRows * runs;
+    }
+};
+
+/// The sample, column by column: shapes, header words and the facts above.
+struct SampleFacts {
+    std::vector<ColumnProfile> profiles;
+    std::vector<HeaderWords> words;    // empty words for every column without a header
+    std::vector<ColumnFacts> columns;  // filled for every column but the date column
+    int dateCells = 0;
+    int distinctDates = 0;
+
+    /// The share of date cells that repeat a date seen above them (0: each date once).
+    double repeatedDateShare() const {
+        return dateCells == 0 ? 0.0 : 1.0 - static_cast<double>(distinctDates) / dateCells;
+    }
+    bool datesRepeat() const { return repeatedDateShare() >= kDatesRepeatAtLeast; }
+};
+
+bool isPositiveInteger(std::string_view text) {
+    if (text.empty() || text.size() > 10 || text[0] < '1' || text[0] > '9')
+        return false;
+    return std::all_of(text.begin(), text.end(), [](char c) { return c >= '0' && c <= '9'; });
+}
+
+const std::string* fieldOf(const SampleRecord& r, int column) {
+    const auto c = static_cast<std::size_t>(column);
+    return c < r.fields.size() ? &r.fields[c] : nullptr;
+}
+
+/// Each row's date as an index among the sample's distinct date texts (-1: no date).
+std::vector<int> dateIndexOfRows(const std::vector<SampleRecord>& rows, int dateColumn,
+                                 SampleFacts& facts) {
+    std::unordered_map<std::string_view, int> index;
+    index.reserve(rows.size());
+    std::vector<int> out(rows.size(), -1);
+    for (std::size_t r = 0; r < rows.size(); ++r) {
+        const std::string* f = fieldOf(rows[r], dateColumn);
+        if (!f || f->empty())
+            continue;
+        ++facts.dateCells;
+        out[r] = index.emplace(*f, static_cast<int>(index.size())).first->second;
+    }
+    facts.distinctDates = static_cast<int>(index.size());
+    return out;
+}
+
+/// The number of distinct texts among the first cells of the runs of a column (few: the
+/// column has at most one run per kMinRunRows cells).
+int distinctRunValues(const std::vector<SampleRecord>& rows, int column) {
+    std::vector<std::string_view> starts;
+    std::string_view previous;
+    bool first = true;
+    for (const SampleRecord& r : rows) {
+        const std::string* f = fieldOf(r, column);
+        if (!f || f->empty())
+            continue;
+        if (first || *f != previous)
+            starts.push_back(*f);
+        previous = *f;
+        first = false;
+    }
+    std::sort(starts.begin(), starts.end());
+    return static_cast<int>(std::unique(starts.begin(), starts.end()) - starts.begin());
+}
+
+/// One pass over one column of the sample. Only a column of positive integers is looked at
+/// again (what regionEvidence and codesInRuns need): its values in runs when its runs are
+/// long, or every value against the date when dates repeat. The count columns of a wide file
+/// take the one pass.
+ColumnFacts columnFactsOf(const std::vector<SampleRecord>& rows, int column,
+                          const std::vector<int>& dateIndex, bool datesRepeat) {
+    ColumnFacts k;
+    k.positiveIntegers = true;
+    std::string_view previous;
+    int run = 0;
+    for (const SampleRecord& r : rows) {
+        const std::string* f = fieldOf(r, column);
+        if (!f || f->empty())
+            continue;
+        ++k.cells;
+        if (k.cells > 1 && *f == previous) {
+            ++run;
+        } else {
+            ++k.runs;
+            run = 1;
+        }
+        previous = *f;
+        if (run > k.longestRun) {
+            k.longestRun = run;
+            k.longestRunText = previous;
+        }
+        if (k.positiveIntegers && !isPositiveInteger(*f))
+            k.positiveIntegers = false;
+    }
+    if (k.cells == 0)
+        k.positiveIntegers = false;
+    if (!k.positiveIntegers)
+        return k;
+    if (!datesRepeat) {
+        if (k.cells >= kMinRunRows * k.runs)
+            k.distinct = distinctRunValues(rows, column);
+        return k;
+    }
+    std::unordered_map<std::string_view, std::uint32_t> values;
+    std::unordered_set<std::uint64_t> datedValues;
+    values.reserve(rows.size());
+    k.keyWithDate = true;
+    for (std::size_t r = 0; r < rows.size(); ++r) {
+        const std::string* f = fieldOf(rows[r], column);
+        if (!f || f->empty())
+            continue;
+        const std::uint32_t v =
+            values.emplace(*f, static_cast<std::uint32_t>(values.size())).first->second;
+        if (k.keyWithDate && dateIndex[r] >= 0) {
+            const std::uint64_t key = static_cast<std::uint64_t>(dateIndex[r]) << 32 | v;
+            k.keyWithDate = datedValues.insert(key).second;
+        }
+    }
+    k.distinct = static_cast<int>(values.size());
+    return k;
+}
+
+SampleFacts sampleFactsOf(const std::vector<std::string>& names, bool header,
+                          const std::vector<SampleRecord>& rows,
+                          std::vector<ColumnProfile> profiles, int dateColumn) {
+    SampleFacts facts;
+    facts.profiles = std::move(profiles);
+    facts.words.resize(names.size());
+    if (header) {
+        for (std::size_t c = 0; c < names.size(); ++c)
+            facts.words[c] = headerWordsOf(names[c]);
+    }
+    facts.columns.resize(names.size());
+    if (dateColumn < 0)
+        return facts;
+    const std::vector<int> dateIndex = dateIndexOfRows(rows, dateColumn, facts);
+    for (int c = 0; c < static_cast<int>(names.size()); ++c) {
+        if (c != dateColumn)
+            facts.columns[static_cast<std::size_t>(c)] =
+                columnFactsOf(rows, c, dateIndex, facts.datesRepeat());
+    }
+    return facts;
+}
+
+/// "'a', 'b', 'c' and 12 more".
+std::string columnList(const std::vector<std::string>& names, const std::vector<int>& columns) {
+    std::string out;
+    const std::size_t shown = std::min<std::size_t>(columns.size(), 4);
+    for (std::size_t i = 0; i < shown; ++i) {
+        out += i == 0 ? "" : (i + 1 == columns.size() ? " and " : ", ");
+        out += quotedName(names[static_cast<std::size_t>(columns[i])]);
+    }
+    if (columns.size() > shown)
+        out += " and " + std::to_string(columns.size() - shown) + " more";
+    return out;
+}
+
+/// How much column `c` looks like the region column of a long file (> 0: it can be one).
+int regionEvidence(const SampleFacts& facts, int c) {
+    const auto i = static_cast<std::size_t>(c);
+    const ColumnFacts& k = facts.columns[i];
+    const HeaderWords& w = facts.words[i];
+    int score = 0;
+    if (isCodeColumn(facts.profiles[i]))
+        score += 3;  // text or codes with a leading zero
+    else if (k.codesInRuns())
+        score += 3;  // sorted by region: one code over many rows
+    else if (facts.datesRepeat() && k.positiveIntegers && k.keyWithDate &&
+             k.distinct * 2 <= k.cells)
+        score += 2;  // sorted by date: a few codes, each once per date
+    if (w.hints(HeaderRole::Region))
+        score += 2;
+    if (w.hints(HeaderRole::Count) || w.hints(HeaderRole::Date))
+        score -= 3;
+    if (w.hints(HeaderRole::Measure))
+        score -= 1;
+    return score;
+}
+
+struct RegionChoice {
+    int column = -1;  // the best candidate among the non-date columns (the first on ties)
+    int evidence = 0;
+};
+
+RegionChoice chooseRegionColumn(const SampleFacts& facts, const std::vector<int>& others) {
+    RegionChoice best;
+    for (int c : others) {
+        const int e = regionEvidence(facts, c);
+        if (best.column < 0 || e > best.evidence)
+            best = {c, e};
+    }
+    return best;
+}
+
+/// The columns a dates-down reading takes as regions: those named by --value-col, or all.
+std::vector<int> datesDownRegionColumns(const std::vector<std::string>& names,
+                                        const std::vector<int>& others,
+                                        const IngestOptions& options) {
+    if (options.valueColumns.empty())
+        return others;
+    std::vector<int> out;
+    for (const std::string& w : options.valueColumns) {
+        if (Result<int> c = findColumn(names, w, "--value-col"))
+            out.push_back(*c);
+    }
+    return out.empty() ? others : out;
+}
+
+/// Why a dates-down reading cannot be right ("" when it can).
+std::string datesDownImpossibility(const std::vector<std::string>& names, bool header,
+                                   const SampleFacts& facts, const std::vector<int>& regions) {
+    if (!header)
+        return "there is no header row to name the regions";
+    for (int c : regions) {
+        const auto i = static_cast<std::size_t>(c);
+        if (facts.words[i].tradeName)
+            return "column " + quotedName(names[i]) + " would be a region, but " +
+                   quotedName(names[i]) + " is a column name, not a region code";
+        if (isCodeColumn(facts.profiles[i]))
+            return "column " + quotedName(names[i]) + " would be a region, but it holds codes or " +
+                   "text, not counts";
+    }
+    return {};
+}
+
+/// The scores of the two readings of a file with a date column, and what they rest on.
+struct LayoutScores {
+    double longScore = 0;
+    double datesDownScore = 0;
+    std::string longReasons;
+    std::string datesDownReasons;
+};
+
+void addReason(std::string& reasons, const std::string& reason) {
+    reasons += (reasons.empty() ? "" : "; ") + reason;
+}
+
+LayoutScores scoreLayouts(const std::vector<std::string>& names, const SampleFacts& facts,
+                          const std::vector<int>& others, const std::vector<int>& downRegions) {
+    LayoutScores s;
+    const double repeated = facts.repeatedDateShare();
+    if (repeated > 0) {
+        s.longScore += kRepeatedDatesWeight * std::min(1.0, 2.0 * repeated);
+        addReason(s.longReasons, std::to_string(facts.distinctDates) + " distinct dates in " +
+                                     std::to_string(facts.dateCells) + " rows");
+    }
+    // Region codes in runs: a column of codesInRuns() followed by a column of counts (in a
+    // long file the region column comes before the counts; a constant column after the counts
+    // is more likely a total or a flag of a dates-down file).
+    int inRuns = -1;
+    bool countsAfter = false;
+    for (int c : others) {
+        const auto i = static_cast<std::size_t>(c);
+        if (facts.columns[i].codesInRuns()) {
+            if (inRuns < 0)
+                inRuns = c;
+        } else if (inRuns >= 0 && isNumericColumn(facts.profiles[i]) &&
+                   facts.columns[i].cells > 0) {
+            countsAfter = true;
+            break;
+        }
+    }
+    const bool codesInRuns = inRuns >= 0 && countsAfter;
+    if (codesInRuns) {
+        const ColumnFacts& k = facts.columns[static_cast<std::size_t>(inRuns)];
+        s.longScore += kCodesInRunsWeight *
+                       std::min(1.0, static_cast<double>(k.longestRun) / kFullWeightRunRows);
+        addReason(s.longReasons,
+                  "column " + quotedName(names[static_cast<std::size_t>(inRuns)]) + " holds " +
+                      std::to_string(k.distinct) + (k.distinct == 1 ? " number" : " numbers") +
+                      " in runs, like region codes (" + quotedName(k.longestRunText) + " on " +
+                      std::to_string(k.longestRun) + " consecutive rows)");
+    }
+
+    if (repeated < kDatesOnceAtMost) {
+        s.datesDownScore += kDatesOnceWeight;
+        addReason(s.datesDownReasons, "each date once");
+        if (!codesInRuns) {
+            s.datesDownScore += kVaryLikeCountsWeight;
+            addReason(s.datesDownReasons, "the columns vary like counts");
+        }
+    }
+    int digitNames = 0;
+    int firstDigitName = -1;
+    for (int c : downRegions) {
+        if (isDigitName(names[static_cast<std::size_t>(c)])) {
+            ++digitNames;
+            if (firstDigitName < 0)
+                firstDigitName = c;
+        }
+    }
+    if (digitNames > 0) {
+        s.datesDownScore +=
+            kDigitNamesWeight * digitNames / static_cast<double>(downRegions.size());
+        addReason(s.datesDownReasons,
+                  "header names such as " +
+                      quotedName(names[static_cast<std::size_t>(firstDigitName)]) +
+                      " are numbers, like region codes");
+    }
+    return s;
+}
+
+/// Long or dates-down, from the content of the sample (see role_detection.h).
+Result<Layout> chooseLayout(const std::vector<std::string>& names, bool header,
+                            const SampleFacts& facts, const std::vector<int>& others,
+                            const RegionChoice& region, const IngestOptions& options,
+                            std::size_t sampleRows) {
+    const std::vector<int> downRegions = datesDownRegionColumns(names, others, options);
+    const std::string downImpossible = datesDownImpossibility(names, header, facts, downRegions);
+    const bool longPossible = region.column >= 0 && region.evidence > 0 && others.size() >= 2;
+    const std::string flags =
+        "name the layout with --layout long or --layout dates-down, and the columns with "
+        "--region-col and --value-col";
+    if (!downImpossible.empty() && !longPossible) {
+        std::string message = "no layout fits the columns: as dates-down, " + downImpossible +
+                              "; as long, no column holds region codes (text, codes such as "
+                              "'004', or numbers that repeat in runs)";
+        if (others.size() == 1) {
+            message +=
+                "; a file of one series without a region column can be read with "
+                "--layout dates-down (the column's name is then the region)";
+        }
+        return makeError(ErrorCode::Layout, message + "; " + flags);
+    }
+    if (!downImpossible.empty())
+        return Layout::Long;
+    if (!longPossible)
+        return Layout::DatesDown;
+
+    const LayoutScores s = scoreLayouts(names, facts, others, downRegions);
+    if (std::abs(s.longScore - s.datesDownScore) < kDecisiveMargin) {
+        std::vector<int> values;
+        for (int c : others) {
+            if (c != region.column)
+                values.push_back(c);
+        }
+        const std::string regionName = names[static_cast<std::size_t>(region.column)];
+        return makeError(
+            ErrorCode::Ambiguous,
+            "the first " + std::to_string(sampleRows) + " rows read two ways: as long, column " +
+                quotedName(regionName) + " holds the region codes and " +
+                columnList(names, values) + " the counts (" +
+                (s.longReasons.empty() ? "no other sign" : s.longReasons) + "); as dates-down, " +
+                columnList(names, downRegions) + " are regions (" +
+                (s.datesDownReasons.empty() ? "no other sign" : s.datesDownReasons) +
+                "). Say which with --layout long (the region column can be named with "
+                "--region-col " +
+                regionName + ") or --layout dates-down");
+    }
+    return s.longScore > s.datesDownScore ? Layout::Long : Layout::DatesDown;
+}
+
+/// A long reading must not take a column name as a region code: a header line repeated in
+/// the data, or a header read as data. The error names the first such cell.
+Status checkRegionCellsAreNotColumnNames(const std::vector<std::string>& names, bool header,
+                                         const std::vector<SampleRecord>& rows,
+                                         const SampleFacts& facts, int regionColumn) {
+    std::unordered_set<std::string> tradeNames;  // the header's trade names, lower case
+    if (header) {
+        for (std::size_t c = 0; c < names.size(); ++c) {
+            if (facts.words[c].tradeName)
+                tradeNames.insert(lowerTrimmed(names[c]));
+        }
+        if (tradeNames.empty())
+            return Ok{};
+    }
+    std::unordered_set<std::string_view> checked;
+    for (const SampleRecord& r : rows) {
+        const std::string* f = fieldOf(r, regionColumn);
+        if (!f || f->empty() || isDigitName(*f) || !checked.insert(*f).second)
+            continue;
+        const bool columnName =
+            header ? tradeNames.count(lowerTrimmed(*f)) > 0 : headerWordsOf(*f).tradeName;
+        if (columnName) {
+            Error e = makeError(ErrorCode::Layout,
+                                "the region column " +
+                                    quotedName(names[static_cast<std::size_t>(regionColumn)]) +
+                                    " holds " + quotedName(*f) +
+                                    ", a column name, as a region code: is a header line "
+                                    "repeated in the file, or is the first line a header "
+                                    "(--header)?");
+            e.line = r.line;
+            e.column = static_cast<std::uint64_t>(regionColumn) + 1;
+            return e;
+        }
+    }
+    return Ok{};
+}
+
+Result<RoleMapping> mapDatesAcross(const std::vector<std::string>& names, bool header,
+                                   const std::vector<int>& headerDates,
+                                   const IngestOptions& options) {
+    RoleMapping m;
+    if (!header)
+        return makeError(ErrorCode::Layout,
+                         "the dates-across layout needs a header row with the dates");
+    if (headerDates.empty()) {
+        return makeError(
+            ErrorCode::Layout,
+            "no header name is a date, so this is not a dates-across file; check --layout");
+    }
+    m.layout = Layout::DatesAcross;
+    if (!options.regionColumn.empty()) {
+        Result<int> r = findColumn(names, options.regionColumn, "--region-col");
+        if (!r)
+            return r.error();
+        m.regionColumn = *r;
+    } else {
+        for (std::size_t c = 0; c < names.size(); ++c) {
+            if (std::find(headerDates.begin(), headerDates.end(), static_cast<int>(c)) ==
+                headerDates.end()) {
+                m.regionColumn = static_cast<int>(c);
+                break;
+            }
+        }
+        if (m.regionColumn < 0) {
+            return makeError(ErrorCode::Layout,
+                             "every header name is a date, so no column holds the region codes");
+        }
+    }
+    for (int c : headerDates) {
+        if (c != m.regionColumn)
+            m.dateColumns.push_back(c);
+    }
+    m.unusedColumns = unusedColumnsOf(names.size(), m);
+    return m;
+}
+
+Result<int> chooseDateColumn(const std::vector<std::string>& names, bool header,
+                             const std::vector<ColumnProfile>& profiles, std::size_t sampleRows,
+                             const IngestOptions& options) {
+    if (!options.dateColumn.empty())
+        return findColumn(names, options.dateColumn, "--date-col");
+    std::vector<int> candidates;
+    for (std::size_t c = 0; c < names.size(); ++c) {
+        if (isDateColumn(profiles[c]))
+            candidates.push_back(static_cast<int>(c));
+    }
+    if (candidates.empty()) {
+        return makeError(
+            ErrorCode::Layout,
+            "no column holds dates (YYYY-MM-DD, YYYYMMDD, D/M/Y or M/D/Y) in the first " +
+                std::to_string(sampleRows) +
+                " rows; name the date column with --date-col, or use --layout dates-across if "
+                "the dates are in the header");
+    }
+    if (header) {
+        for (int c : candidates) {
+            if (headerWordsOf(names[static_cast<std::size_t>(c)]).hints(HeaderRole::Date))
+                return c;
+        }
+    }
+    return candidates[0];
+}
+
+Result<RoleMapping> mapDatesDown(RoleMapping m, const std::vector<std::string>& names, bool header,
+                                 const std::vector<int>& others, const IngestOptions& options) {
+    m.layout = Layout::DatesDown;
+    if (!options.valueColumns.empty()) {
+        Result<std::vector<int>> named = namedColumns(names, options.valueColumns, "--value-col");
+        if (!named)
+            return named.error();
+        m.valueColumns = std::move(*named);
+    } else {
+        m.valueColumns = others;
+    }
+    if (!header)
+        return makeError(ErrorCode::Layout,
+                         "the dates-down layout needs a header row with the region codes");
+    if (m.valueColumns.empty())
+        return makeError(ErrorCode::Layout, "there is no region column besides the dates");
+    m.unusedColumns = unusedColumnsOf(names.size(), m);
+    return m;
+}
+
+Result<RoleMapping> mapLong(RoleMapping m, const std::vector<std::string>& names, bool header,
+                            const std::vector<SampleRecord>& rows, const SampleFacts& facts,
+                            const std::vector<int>& others, const RegionChoice& region,
+                            const IngestOptions& options) {
+    m.layout = Layout::Long;
+    if (!options.regionColumn.empty()) {
+        Result<int> r = findColumn(names, options.regionColumn, "--region-col");
+        if (!r)
+            return r.error();
+        m.regionColumn = *r;
+    } else {
+        if (region.column < 0) {
+            return makeError(ErrorCode::Layout,
+                             "there is only a date column; a drop needs region and value columns");
+        }
+        m.regionColumn = region.column;
+        if (Status s =
+                checkRegionCellsAreNotColumnNames(names, header, rows, facts, m.regionColumn);
+            !s)
+            return s.error();
+    }
+    if (!options.measureColumn.empty()) {
+        Result<int> r = findColumn(names, options.measureColumn, "--measure-col");
+        if (!r)
+            return r.error();
+        m.measureColumn = *r;
+    } else {
+        for (int c : others) {
+            const auto i = static_cast<std::size_t>(c);
+            if (c != m.regionColumn && isCodeColumn(facts.profiles[i]) &&
+                facts.words[i].hints(HeaderRole::Measure)) {
+                m.measureColumn = c;
+                break;
+            }
+        }
+    }
+    if (!options.valueColumns.empty()) {
+        Result<std::vector<int>> named = namedColumns(names, options.valueColumns, "--value-col");
+        if (!named)
+            return named.error();
+        m.valueColumns = std::move(*named);
+    } else {
+        for (int c : others) {
+            const auto i = static_cast<std::size_t>(c);
+            if (c == m.regionColumn || c == m.measureColumn)
+                continue;
+            if (facts.words[i].hints(HeaderRole::Count) || isNumericColumn(facts.profiles[i]))
+                m.valueColumns.push_back(c);
+        }
+    }
+    if (m.valueColumns.empty()) {
+        // One column left: it is the value column, whatever its cells hold (they are
+        // then reported as unparsable, cell by cell, rather than the column being dropped).
+        std::vector<int> rest;
+        for (int c : others)
+            if (c != m.regionColumn && c != m.measureColumn)
+                rest.push_back(c);
+        if (rest.size() == 1)
+            m.valueColumns = rest;
+    }
+    if (m.valueColumns.empty()) {
+        return makeError(ErrorCode::Layout,
+                         "no column holds counts besides the date and region columns; name the "
+                         "value column(s) with --value-col");
+    }
+    if (m.measureColumn >= 0 && m.valueColumns.size() != 1) {
+        return makeError(ErrorCode::Layout,
+                         "with a measure-name column ('" +
+                             names[static_cast<std::size_t>(m.measureColumn)] +
+                             "') there must be exactly one value column; name it with --value-col");
+    }
+    for (int c : std::vector<int>{m.dateColumn, m.regionColumn, m.measureColumn}) {
+        if (c >= 0 && std::count(m.valueColumns.begin(), m.valueColumns.end(), c) > 0) {
+            return makeError(
+                ErrorCode::Usage,
+                "column '" + names[static_cast<std::size_t>(c)] +
+                    "' cannot be both a value column and the date, region or measure column");
+        }
+    }
+    if (m.regionColumn == m.dateColumn ||
+        (m.measureColumn >= 0 &&
+         (m.measureColumn == m.dateColumn || m.measureColumn == m.regionColumn))) {
+        return makeError(ErrorCode::Usage,
+                         "the date, region and measure columns must be different columns");
+    }
+    m.unusedColumns = unusedColumnsOf(names.size(), m);
+    return m;
 }
 
 }  // namespace
@@ -151,7 +756,6 @@ Result<int> findColumn(const std::vector<std::string>& names, const std::string&
 Result<RoleMapping> detectRoles(const std::vector<std::string>& names, bool header,
                                 const std::vector<SampleRecord>& rows, const NumberStyle& style,
                                 const IngestOptions& options) {
-    RoleMapping m;
     const std::size_t columns = names.size();
     std::vector<ColumnProfile> profiles = profile(columns, rows, style);
 
@@ -165,219 +769,39 @@ Result<RoleMapping> detectRoles(const std::vector<std::string>& names, bool head
     }
     const bool across = options.layout ? *options.layout == Layout::DatesAcross
                                        : headerDates.size() >= 2 && options.dateColumn.empty();
-    if (across) {
-        if (!header)
-            return makeError(ErrorCode::Layout,
-                             "the dates-across layout needs a header row with the dates");
-        if (headerDates.empty()) {
-            return makeError(
-                ErrorCode::Layout,
-                "no header name is a date, so this is not a dates-across file; check --layout");
-        }
-        m.layout = Layout::DatesAcross;
-        if (!options.regionColumn.empty()) {
-            Result<int> r = findColumn(names, options.regionColumn, "--region-col");
-            if (!r)
-                return r.error();
-            m.regionColumn = *r;
-        } else {
-            for (std::size_t c = 0; c < columns; ++c) {
-                if (std::find(headerDates.begin(), headerDates.end(), static_cast<int>(c)) ==
-                    headerDates.end()) {
-                    m.regionColumn = static_cast<int>(c);
-                    break;
-                }
-            }
-            if (m.regionColumn < 0) {
-                return makeError(
-                    ErrorCode::Layout,
-                    "every header name is a date, so no column holds the region codes");
-            }
-        }
-        for (int c : headerDates) {
-            if (c != m.regionColumn)
-                m.dateColumns.push_back(c);
-        }
-        m.unusedColumns = unusedColumnsOf(columns, m);
-        return m;
-    }
+    if (across)
+        return mapDatesAcross(names, header, headerDates, options);
 
-    // The date column.
-    if (!options.dateColumn.empty()) {
-        Result<int> d = findColumn(names, options.dateColumn, "--date-col");
-        if (!d)
-            return d.error();
-        m.dateColumn = *d;
-    } else {
-        std::vector<int> candidates;
-        for (std::size_t c = 0; c < columns; ++c) {
-            if (isDateColumn(profiles[c]))
-                candidates.push_back(static_cast<int>(c));
-        }
-        if (candidates.empty()) {
-            return makeError(
-                ErrorCode::Layout,
-                "no column holds dates (YYYY-MM-DD, YYYYMMDD, D/M/Y or M/D/Y) in the first " +
-                    std::to_string(rows.size()) +
-                    " rows; name the date column with --date-col, or use --layout dates-across if "
-                    "the "
-                    "dates are in the header");
-        }
-        m.dateColumn = candidates[0];
-        for (int c : candidates) {
-            if (nameHasAny(names[static_cast<std::size_t>(c)], {"date", "day"})) {
-                m.dateColumn = c;
-                break;
-            }
-        }
-    }
-
+    RoleMapping m;
+    Result<int> date = chooseDateColumn(names, header, profiles, rows.size(), options);
+    if (!date)
+        return date.error();
+    m.dateColumn = *date;
     std::vector<int> others;
-    for (std::size_t c = 0; c < columns; ++c) {
-        if (static_cast<int>(c) != m.dateColumn)
-            others.push_back(static_cast<int>(c));
+    for (int c = 0; c < static_cast<int>(columns); ++c) {
+        if (c != m.dateColumn)
+            others.push_back(c);
     }
-    bool datesRepeat = false;
-    {
-        std::set<std::string> seen;
-        for (const SampleRecord& r : rows) {
-            if (static_cast<std::size_t>(m.dateColumn) < r.fields.size() &&
-                !seen.insert(r.fields[static_cast<std::size_t>(m.dateColumn)]).second) {
-                datesRepeat = true;
-                break;
-            }
-        }
-    }
-    std::vector<int> codeColumns;
-    for (int c : others) {
-        if (isCodeColumn(profiles[static_cast<std::size_t>(c)]))
-            codeColumns.push_back(c);
-    }
+    const SampleFacts facts = sampleFactsOf(names, header, rows, std::move(profiles), m.dateColumn);
+    const RegionChoice region = chooseRegionColumn(facts, others);
 
-    Layout layout;
-    if (options.layout)
+    Layout layout = Layout::Long;
+    if (options.layout) {
         layout = *options.layout;
-    else if (!options.regionColumn.empty() || !options.measureColumn.empty() ||
-             !codeColumns.empty() || datesRepeat)
-        layout = Layout::Long;
-    else
-        layout = Layout::DatesDown;
-    m.layout = layout;
-
-    if (layout == Layout::DatesDown) {
-        if (!options.valueColumns.empty()) {
-            Result<std::vector<int>> named =
-                namedColumns(names, options.valueColumns, "--value-col");
-            if (!named)
-                return named.error();
-            m.valueColumns = std::move(*named);
-        } else {
-            m.valueColumns = others;
-        }
-        if (!header)
-            return makeError(ErrorCode::Layout,
-                             "the dates-down layout needs a header row with the region codes");
-        if (m.valueColumns.empty())
-            return makeError(ErrorCode::Layout, "there is no region column besides the dates");
-        m.unusedColumns = unusedColumnsOf(columns, m);
-        return m;
-    }
-
-    // Long: region, optional measure names, values.
-    if (!options.regionColumn.empty()) {
-        Result<int> r = findColumn(names, options.regionColumn, "--region-col");
-        if (!r)
-            return r.error();
-        m.regionColumn = *r;
-    } else {
-        const std::initializer_list<const char*> regionWords = {
-            "region",  "code",     "area", "district", "province", "county",  "state",
-            "country", "location", "geo",  "iso",      "zone",     "municip", "place"};
-        for (int c : codeColumns.empty() ? others : codeColumns) {
-            if (header && nameHasAny(names[static_cast<std::size_t>(c)], regionWords)) {
-                m.regionColumn = c;
-                break;
-            }
-        }
-        if (m.regionColumn < 0 && !codeColumns.empty())
-            m.regionColumn = codeColumns[0];
-        if (m.regionColumn < 0 && !others.empty())
-            m.regionColumn = others[0];
-        if (m.regionColumn < 0) {
+    } else if (options.regionColumn.empty() && options.measureColumn.empty()) {
+        if (others.empty()) {
             return makeError(ErrorCode::Layout,
                              "there is only a date column; a drop needs region and value columns");
         }
+        Result<Layout> chosen =
+            chooseLayout(names, header, facts, others, region, options, rows.size());
+        if (!chosen)
+            return chosen.error();
+        layout = *chosen;
     }
-    if (!options.measureColumn.empty()) {
-        Result<int> r = findColumn(names, options.measureColumn, "--measure-col");
-        if (!r)
-            return r.error();
-        m.measureColumn = *r;
-    } else if (header) {
-        for (int c : codeColumns) {
-            if (c != m.regionColumn &&
-                nameHasAny(names[static_cast<std::size_t>(c)],
-                           {"measure", "indicator", "variable", "metric", "outcome"})) {
-                m.measureColumn = c;
-                break;
-            }
-        }
-    }
-    if (!options.valueColumns.empty()) {
-        Result<std::vector<int>> named = namedColumns(names, options.valueColumns, "--value-col");
-        if (!named)
-            return named.error();
-        m.valueColumns = std::move(*named);
-    } else {
-        for (int c : others) {
-            if (c == m.regionColumn || c == m.measureColumn)
-                continue;
-            const bool countName =
-                header && nameHasAny(names[static_cast<std::size_t>(c)],
-                                     {"case", "death", "count", "value", "number", "total",
-                                      "confirmed", "hospital", "admission", "test", "positive"});
-            if (countName || isNumericColumn(profiles[static_cast<std::size_t>(c)]))
-                m.valueColumns.push_back(c);
-        }
-    }
-    if (m.valueColumns.empty()) {
-        // One column left: it is the value column, whatever its cells hold (they are
-        // then reported as unparsable, cell by cell, rather than the column being dropped).
-        std::vector<int> rest;
-        for (int c : others)
-            if (c != m.regionColumn && c != m.measureColumn)
-                rest.push_back(c);
-        if (rest.size() == 1)
-            m.valueColumns = rest;
-    }
-    if (m.valueColumns.empty()) {
-        return makeError(ErrorCode::Layout,
-                         "no column holds counts besides the date and region columns; name the "
-                         "value column(s) with "
-                         "--value-col");
-    }
-    if (m.measureColumn >= 0 && m.valueColumns.size() != 1) {
-        return makeError(ErrorCode::Layout,
-                         "with a measure-name column ('" +
-                             names[static_cast<std::size_t>(m.measureColumn)] +
-                             "') there must be exactly one value column; name it with --value-col");
-    }
-    for (int c : std::vector<int>{m.dateColumn, m.regionColumn, m.measureColumn}) {
-        if (c >= 0 && std::count(m.valueColumns.begin(), m.valueColumns.end(), c) > 0) {
-            return makeError(
-                ErrorCode::Usage,
-                "column '" + names[static_cast<std::size_t>(c)] +
-                    "' cannot be both a value column and the date, region or measure column");
-        }
-    }
-    if (m.regionColumn == m.dateColumn ||
-        (m.measureColumn >= 0 &&
-         (m.measureColumn == m.dateColumn || m.measureColumn == m.regionColumn))) {
-        return makeError(ErrorCode::Usage,
-                         "the date, region and measure columns must be different columns");
-    }
-    m.unusedColumns = unusedColumnsOf(columns, m);
-    return m;
+    if (layout == Layout::DatesDown)
+        return mapDatesDown(std::move(m), names, header, others, options);
+    return mapLong(std::move(m), names, header, rows, facts, others, region, options);
 }
 
 }  // namespace siftwave::detail

@@ -4,16 +4,47 @@
 // Layouts (see siftwave/drop.h): long (a date column, a region column, value
 // columns, optionally a measure-name column), dates-down (a date column, one
 // column per region) and dates-across (a region column, one column per date,
-// dates in the header). Detection looks at the header names and at the shape
-// of the first records' cells; every choice can be forced with IngestOptions.
+// dates in the header). Detection looks at the header names and at the cells
+// of the sample (the first records, at most a few hundred: never the whole
+// file); every choice can be forced with IngestOptions.
 //   - dates-across: two or more header names are dates;
-//   - the date column: the one whose cells are all dates (a name with "date"
-//     or "day" wins among several);
-//   - long: some other column holds text or codes with a leading zero ("004"),
-//     or dates repeat; the region column is the one named like a region
-//     (region, code, area, ...) or the first such column; a column named
-//     measure/indicator/variable/metric holds measure names;
-//   - dates-down otherwise (all other columns numeric, each date once).
+//   - the date column: the one whose cells are all dates (a name with a date
+//     word, "date", "week", "Meldewoche", "semaine", ..., wins among several);
+//   - long or dates-down: from the content, in three steps.
+//     1. Either reading may be impossible. Dates-down is impossible without a
+//        header, or when a column it would take as a region holds text or
+//        codes with a leading zero, or is named with words of the trade
+//        ("region", "cases", "district", "new_cases", "Fälle"; header_words.h):
+//        a column name never becomes a region code. Long is impossible when no
+//        column can hold the region codes (no column has positive region
+//        evidence, see the region column below) or there is no column left
+//        for the counts.
+//     2. When both are possible, each is scored from the sample:
+//          long        + 4 x min(1, 2 x share of date cells that repeat a date
+//                        above them) (a date-sorted long file);
+//                      + 4 x min(1, longest run / 50 rows) when a column of
+//                        positive integers holds each of its values in one
+//                        block of at least 8 consecutive rows (region codes
+//                        in a file sorted by region, where the sample may show
+//                        one region only) and a column of counts follows it;
+//          dates-down  + 1 when each date is once (under 5 % repeat), and then
+//                        + 2 more when no column holds codes in runs as above;
+//                      + 3 x share of its region columns named by a number
+//                        ("8336": a header of numbers is a header of codes).
+//     3. Scores closer than 2 are refused (ErrorCode::Ambiguous) with both
+//        readings and --layout in the message; otherwise the higher wins.
+//   - the region column of a long file: the column with the most evidence
+//     (first on ties): + 3 for text or codes with a leading zero ("004"), or
+//     for positive integers in runs as above, or (when a quarter of the date
+//     cells or more repeat a date) for a few positive integers, each once per
+//     date; + 2 for a region word in its
+//     name; - 3 for a count or date word, - 1 for a measure word. Its sample
+//     cells must not be column names (a header read as data is refused);
+//   - a column of text named with a measure word (measure, indicator, ...)
+//     holds measure names; numeric columns and columns named with a count
+//     word hold the values.
+// The weights are judgement (common practice, no source); the tests in
+// tests/core/ingest_layout_test.cpp pin the files they were tuned on.
 // Unused columns are reported as warnings by the reader.
 
 #include "ingest/number_parsing.h"
