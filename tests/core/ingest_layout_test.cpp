@@ -64,7 +64,7 @@ const Cell& cellOf(const Drop& drop, const std::string& measure, const std::stri
     static const Cell none;
     auto m = drop.measureIndex(measure);
     auto r = drop.regionIndex(region);
-    auto d = drop.dayIndex(*Date::fromIso(date));
+    auto d = drop.periodOf(*Date::fromIso(date));
     EXPECT_TRUE(m && r && d) << measure << " " << region << " " << date;
     if (!m || !r || !d)
         return none;
