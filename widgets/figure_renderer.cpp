@@ -78,8 +78,9 @@ Qt::Alignment alignmentFor(double key, const QCPRange& x) {
     return h | Qt::AlignBottom;
 }
 
-double keyOf(Date day) {
-    return plotKeyOfDay(day);
+// The plot key of the centre of the period (day or week) that holds `day`.
+double keyOf(const report::FigureSpec& spec, Date day) {
+    return plotKeyOfDate(spec.axis, day);
 }
 
 }  // namespace
@@ -161,8 +162,7 @@ SeriesView seriesViewFromSpec(const report::FigureSpec& spec) {
     view.regionCode = qs(spec.regionCode);
     view.regionName = qs(spec.regionName);
     view.measure = qs(spec.measure);
-    view.firstDay = spec.firstDay;
-    view.days = spec.days;
+    view.axis = spec.axis;
     view.raw = spec.raw;
     view.cleaned = spec.cleaned;
     view.smoothed = spec.smoothed;
@@ -178,8 +178,8 @@ SeriesView seriesViewFromSpec(const report::FigureSpec& spec) {
         curve.bandLabel = qs(spec.fit->bandLabel);
         view.fit = curve;
         using IndexRange = decltype(view.fitWindow)::value_type;
-        view.fitWindow =
-            IndexRange{spec.fit->windowFirst - spec.firstDay, spec.fit->windowLast - spec.firstDay};
+        view.fitWindow = IndexRange{spec.axis.periodOnGrid(spec.fit->windowFirst),
+                                    spec.axis.periodOnGrid(spec.fit->windowLast)};
     }
     return view;
 }
@@ -252,9 +252,9 @@ void liftFitBand(QCustomPlot* plot, const report::FigureSpec& spec) {
 void addCountRange(QCustomPlot* plot, const report::FigureSpec& spec) {
     if (!spec.fit || spec.fit->countLow.empty())
         return;
-    QVector<double> keys(spec.days);
-    for (int d = 0; d < spec.days; ++d)
-        keys[d] = plotKeyOfDay(spec.dayAt(d));
+    QVector<double> keys(spec.periods());
+    for (int d = 0; d < spec.periods(); ++d)
+        keys[d] = plotKeyOfPeriod(spec.axis, d);
     QPen pen(plot_style::kVermillion.darker(115), 1.1, Qt::DotLine, Qt::FlatCap, Qt::RoundJoin);
     for (const std::vector<double>* edge : {&spec.fit->countHigh, &spec.fit->countLow}) {
         QCPGraph* line = plot->addGraph(plot->xAxis, plot->yAxis);
@@ -297,7 +297,7 @@ std::optional<double> rawCutLevel(const report::FigureSpec& spec) {
         if (std::isfinite(v))
             top = std::max(top, v);
     };
-    for (int d = 0; d < spec.days; ++d) {
+    for (int d = 0; d < spec.periods(); ++d) {
         if (std::isnan(at(spec.cleaned, d)))
             take(at(spec.raw, d));
         take(at(spec.cleaned, d));
@@ -306,20 +306,20 @@ std::optional<double> rawCutLevel(const report::FigureSpec& spec) {
             take(at(spec.previous, d));
     }
     if (spec.fit) {
-        for (int d = 0; d < spec.days; ++d)
+        for (int d = 0; d < spec.periods(); ++d)
             take(at(spec.fit->mid, d));
         double band = 0;
-        for (int d = 0; d < spec.days; ++d)
+        for (int d = 0; d < spec.periods(); ++d)
             if (std::isfinite(at(spec.fit->high, d)))
                 band = std::max(band, at(spec.fit->high, d));
         take(std::min(band, 2 * top));
-        for (int d = 0; d < spec.days; ++d)
+        for (int d = 0; d < spec.periods(); ++d)
             take(at(spec.fit->countHigh, d));
     }
     if (!(top > 0))
         return std::nullopt;
     const double level = top * 1.1;
-    for (int d = 0; d < spec.days; ++d)
+    for (int d = 0; d < spec.periods(); ++d)
         if (lowered(d) && at(spec.raw, d) > level)
             return level;
     return std::nullopt;
@@ -350,7 +350,7 @@ void cutRawBars(QCustomPlot* plot, const report::FigureSpec& spec, double level,
             continue;
         for (auto it = previous->data()->begin(); it != previous->data()->end(); ++it) {
             const bool onCutDay = std::any_of(cut.begin(), cut.end(), [&](const auto& c) {
-                return std::abs(c.first - it->key) < kSecondsPerDay / 2;
+                return std::abs(c.first - it->key) < halfPeriodKeys(spec.axis);
             });
             if (onCutDay && it->value > level) {
                 previousCut.emplace_back(it->key, it->value);
@@ -385,7 +385,7 @@ void cutRawBars(QCustomPlot* plot, const report::FigureSpec& spec, double level,
         QString text =
             QObject::tr("raw %1, bar cut").arg(qs(report::groupedCount(std::llround(value))));
         for (const auto& [previousKey, previousValue] : previousCut)
-            if (std::abs(previousKey - key) < kSecondsPerDay / 2 && previousValue != value)
+            if (std::abs(previousKey - key) < halfPeriodKeys(spec.axis) && previousValue != value)
                 text += QObject::tr(" (previous release %1)")
                             .arg(qs(report::groupedCount(std::llround(previousValue))));
         const bool right = (key - x.lower) / x.size() > 0.72;
@@ -437,12 +437,12 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
             p->setTypeX(QCPItemPosition::ptPlotCoords);
             p->setTypeY(QCPItemPosition::ptAxisRectRatio);
         }
-        rect->topLeft->setCoords(keyOf(ex.first) - kSecondsPerDay * 0.5, 0.0);
-        rect->bottomRight->setCoords(keyOf(ex.last) + kSecondsPerDay * 0.5, 1.0);
+        rect->topLeft->setCoords(keyOf(spec, ex.first) - halfPeriodKeys(spec.axis), 0.0);
+        rect->bottomRight->setCoords(keyOf(spec, ex.last) + halfPeriodKeys(spec.axis), 1.0);
         rect->setBrush(QBrush(QColor(0x55, 0x55, 0x55, 110), Qt::FDiagPattern));
         rect->setPen(QPen(QColor(0x55, 0x55, 0x55), 1.0, Qt::DotLine));
         rect->setSelectable(false);
-        const double mid = (keyOf(ex.first) + keyOf(ex.last)) / 2;
+        const double mid = (keyOf(spec, ex.first) + keyOf(spec, ex.last)) / 2;
         QCPItemText* label =
             addLabel(plot, mid, 0.06, qs(ex.label), alignmentFor(mid, x) | Qt::AlignTop, scale);
         label->setPositionAlignment((alignmentFor(mid, x) & Qt::AlignHorizontal_Mask) |
@@ -455,7 +455,7 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
     // the bar is cut).
     int row = 0;
     for (const report::DecisionMark& mark : spec.decisions) {
-        const double key = (keyOf(mark.first) + keyOf(mark.last)) / 2;
+        const double key = (keyOf(spec, mark.first) + keyOf(spec, mark.last)) / 2;
         const double labelRatio = 0.1 + 0.075 * (row++ % 3);
         QCPItemText* label =
             addLabel(plot, key, labelRatio, qs(mark.label), alignmentFor(key, x), scale);
@@ -480,8 +480,9 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
                 p->setTypeY(QCPItemPosition::ptAxisRectRatio);
             }
             const double ratio = labelRatio + 0.045;
-            span->start->setCoords(keyOf(mark.window->first) - kSecondsPerDay * 0.5, ratio);
-            span->end->setCoords(keyOf(mark.window->last) + kSecondsPerDay * 0.5, ratio);
+            span->start->setCoords(keyOf(spec, mark.window->first) - halfPeriodKeys(spec.axis),
+                                   ratio);
+            span->end->setCoords(keyOf(spec, mark.window->last) + halfPeriodKeys(spec.axis), ratio);
             span->setPen(QPen(plot_style::kInk, 1.0, Qt::DashLine));
             span->setHead(QCPLineEnding(QCPLineEnding::esBar, 6));
             span->setTail(QCPLineEnding(QCPLineEnding::esBar, 6));
@@ -492,7 +493,7 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
 
     // The peak of the fit: a diamond on the curve and its date and height.
     if (spec.fit && std::isfinite(spec.fit->peakValue)) {
-        const double key = keyOf(spec.fit->peakDate);
+        const double key = plotKeyOfDay(spec.fit->peakDate);  // a day, even inside a week
         QCPGraph* peak = plot->addGraph(plot->xAxis, plot->yAxis);
         peak->setData(QVector<double>{key}, QVector<double>{spec.fit->peakValue}, true);
         peak->setLineStyle(QCPGraph::lsNone);

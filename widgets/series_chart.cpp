@@ -15,9 +15,9 @@ namespace {
 constexpr double kSecondsPerDay = 86400.0;
 
 QVector<double> keysOf(const SeriesView& view) {
-    QVector<double> keys(view.days);
-    for (int d = 0; d < view.days; ++d)
-        keys[d] = plotKeyOfDay(view.dayAt(d));
+    QVector<double> keys(view.periods());
+    for (int d = 0; d < view.periods(); ++d)
+        keys[d] = plotKeyOfPeriod(view.axis, d);
     return keys;
 }
 
@@ -54,6 +54,23 @@ double plotKeyOfDay(Date day) {
 
 Date dayOfPlotKey(double key) {
     return Date{static_cast<std::int32_t>(std::lround(key / kSecondsPerDay))};
+}
+
+double plotKeyOfPeriod(const TimeAxis& axis, int period) {
+    return plotKeyOfDay(axis.periodStart(period)) + (axis.periodDays() - 1) * 0.5 * kSecondsPerDay;
+}
+
+double plotKeyOfDate(const TimeAxis& axis, Date day) {
+    return plotKeyOfPeriod(axis, axis.periodOnGrid(day));
+}
+
+double halfPeriodKeys(const TimeAxis& axis) {
+    return 0.5 * kSecondsPerDay * axis.periodDays();
+}
+
+int periodOfPlotKey(const TimeAxis& axis, double key) {
+    return static_cast<int>(
+        std::lround((key - plotKeyOfPeriod(axis, 0)) / (kSecondsPerDay * axis.periodDays())));
 }
 
 SeriesChart::SeriesChart(QCustomPlot* plot) : m_plot(plot) {
@@ -117,19 +134,22 @@ void SeriesChart::draw(const SeriesView& view) {
     m_window.reset();
 
     const QVector<double> keys = keysOf(m_view);
-    m_plot->yAxis->setLabel(m_view.measure.isEmpty() ? QString()
-                                                     : QObject::tr("Daily %1").arg(m_view.measure));
+    m_plot->yAxis->setLabel(
+        m_view.measure.isEmpty()
+            ? QString()
+            : QObject::tr("%1 %2").arg(QString::fromLatin1(m_view.axis.adjective()),
+                                       m_view.measure));
 
     // Raw counts: only the days a number was reported.
     auto* bars = new QCPBars(m_plot->xAxis, m_plot->yAxis);
-    bars->setWidth(kSecondsPerDay * 0.78);
+    bars->setWidth(2 * halfPeriodKeys(m_view.axis) * 0.78);
     bars->setBrush(plot_style::rawBarBrush());
     bars->setPen(plot_style::rawBarPen());
     bars->setName(QObject::tr("Raw, as reported"));
     if (m_barsLayer)
         bars->setLayer(m_barsLayer);
     QVector<double> rawKeys, rawValues;
-    for (int d = 0; d < m_view.days; ++d) {
+    for (int d = 0; d < m_view.periods(); ++d) {
         if (d >= static_cast<int>(m_view.raw.size()) || std::isnan(m_view.raw[d]))
             continue;
         rawKeys << keys[d];
@@ -140,14 +160,14 @@ void SeriesChart::draw(const SeriesView& view) {
     drawFit();
     if (!m_view.previous.empty()) {
         QCPGraph* previous =
-            addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.previous, m_view.days),
+            addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.previous, m_view.periods()),
                     plot_style::previousPen(),
                     QObject::tr("Previous release (%1)").arg(m_view.previousLabel));
         previous->setLineStyle(QCPGraph::lsStepCenter);
         previous->setAdaptiveSampling(false);
         // Where the two releases disagree, the old value is marked with a cross.
         QVector<double> revisedKeys, revisedValues;
-        for (int d = 0; d < m_view.days && d < static_cast<int>(m_view.previous.size()); ++d) {
+        for (int d = 0; d < m_view.periods() && d < static_cast<int>(m_view.previous.size()); ++d) {
             const double old = m_view.previous[d];
             const double now = d < static_cast<int>(m_view.raw.size()) ? m_view.raw[d] : old;
             if (std::isnan(old) || std::isnan(now) || old == now)
@@ -165,20 +185,21 @@ void SeriesChart::draw(const SeriesView& view) {
         }
     }
     if (!m_view.cleaned.empty())
-        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.cleaned, m_view.days),
+        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.cleaned, m_view.periods()),
                 plot_style::cleanedPen(), QObject::tr("Cleaned"));
     if (!m_view.smoothed.empty())
-        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.smoothed, m_view.days),
+        addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.smoothed, m_view.periods()),
                 plot_style::smoothedPen(),
                 m_view.smoothedLabel.isEmpty() ? QObject::tr("Smoothed") : m_view.smoothedLabel);
 
     const bool second = !m_view.secondMeasure.isEmpty() && !m_view.second.empty();
     m_plot->yAxis2->setVisible(second);
     if (second) {
-        addLine(m_plot, m_plot->yAxis2, keys, toVector(m_view.second, m_view.days),
+        addLine(m_plot, m_plot->yAxis2, keys, toVector(m_view.second, m_view.periods()),
                 plot_style::secondMeasurePen(),
                 QObject::tr("%1 (right axis)").arg(m_view.secondMeasure));
-        m_plot->yAxis2->setLabel(QObject::tr("Daily %1").arg(m_view.secondMeasure));
+        m_plot->yAxis2->setLabel(QObject::tr("%1 %2").arg(
+            QString::fromLatin1(m_view.axis.adjective()), m_view.secondMeasure));
         m_plot->yAxis2->setNumberFormat(QStringLiteral("gb"));
     }
 
@@ -193,10 +214,10 @@ void SeriesChart::drawFit() {
         return;
     const QVector<double> keys = keysOf(m_view);
     if (!m_view.fit->low.empty() && !m_view.fit->high.empty()) {
-        QCPGraph* low = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->low, m_view.days),
-                                Qt::NoPen, QString());
+        QCPGraph* low = addLine(m_plot, m_plot->yAxis, keys,
+                                toVector(m_view.fit->low, m_view.periods()), Qt::NoPen, QString());
         QCPGraph* high = addLine(
-            m_plot, m_plot->yAxis, keys, toVector(m_view.fit->high, m_view.days), Qt::NoPen,
+            m_plot, m_plot->yAxis, keys, toVector(m_view.fit->high, m_view.periods()), Qt::NoPen,
             m_view.fit->bandLabel.isEmpty() ? QObject::tr("Fit band") : m_view.fit->bandLabel);
         high->setBrush(plot_style::fitBandBrush());
         high->setChannelFillGraph(low);
@@ -204,7 +225,7 @@ void SeriesChart::drawFit() {
         m_fitLow = low;
         m_fitHigh = high;
     }
-    m_fitMid = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->mid, m_view.days),
+    m_fitMid = addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.fit->mid, m_view.periods()),
                        plot_style::fitPen(),
                        m_view.fit->label.isEmpty() ? QObject::tr("Fitted") : m_view.fit->label);
     m_fitMid->setAdaptiveSampling(false);
@@ -231,10 +252,10 @@ void SeriesChart::setFit(const std::optional<FittedCurve>& fit) {
     m_view.fit = fit;
     if (sameLegend) {
         const QVector<double> keys = keysOf(m_view);
-        m_fitMid->setData(keys, toVector(fit->mid, m_view.days), true);
+        m_fitMid->setData(keys, toVector(fit->mid, m_view.periods()), true);
         if (withBand) {
-            m_fitLow->setData(keys, toVector(fit->low, m_view.days), true);
-            m_fitHigh->setData(keys, toVector(fit->high, m_view.days), true);
+            m_fitLow->setData(keys, toVector(fit->low, m_view.periods()), true);
+            m_fitHigh->setData(keys, toVector(fit->high, m_view.periods()), true);
         }
     } else {
         const bool hadGraphs = m_fitMid != nullptr;
@@ -254,10 +275,10 @@ void SeriesChart::drawFindings() {
             p->setTypeX(QCPItemPosition::ptPlotCoords);
             p->setTypeY(QCPItemPosition::ptAxisRectRatio);
         }
-        rect->topLeft->setCoords(plotKeyOfDay(m_view.dayAt(mark.days.first)) - kSecondsPerDay * 0.5,
-                                 0.965);
+        rect->topLeft->setCoords(
+            plotKeyOfPeriod(m_view.axis, mark.days.first) - halfPeriodKeys(m_view.axis), 0.965);
         rect->bottomRight->setCoords(
-            plotKeyOfDay(m_view.dayAt(mark.days.last)) + kSecondsPerDay * 0.5, 1.0);
+            plotKeyOfPeriod(m_view.axis, mark.days.last) + halfPeriodKeys(m_view.axis), 1.0);
         const QColor colour = plot_style::findingColor(mark.severity);
         rect->setBrush(QBrush(colour));
         rect->setPen(QPen(colour.darker(140), 1));
@@ -295,8 +316,8 @@ void SeriesChart::setWindow(std::optional<DayIndexRange> window, const QString& 
         }
         orderLiveLayer();
     }
-    const double start = plotKeyOfDay(m_view.dayAt(window->first)) - kSecondsPerDay * 0.5;
-    const double end = plotKeyOfDay(m_view.dayAt(window->last)) + kSecondsPerDay * 0.5;
+    const double start = plotKeyOfPeriod(m_view.axis, window->first) - halfPeriodKeys(m_view.axis);
+    const double end = plotKeyOfPeriod(m_view.axis, window->last) + halfPeriodKeys(m_view.axis);
     m_windowRect->topLeft->setCoords(start, 0.0);
     m_windowRect->bottomRight->setCoords(end, 1.0);
     m_windowStart->point1->setCoords(start, 0);
@@ -321,7 +342,7 @@ void SeriesChart::setPreview(const std::vector<double>& values, const QString& l
     }
     if (!m_preview) {
         m_preview = new QCPBars(m_plot->xAxis, m_plot->yAxis);
-        m_preview->setWidth(kSecondsPerDay * 0.5);
+        m_preview->setWidth(halfPeriodKeys(m_view.axis));
         m_preview->setBrush(plot_style::previewBrush());
         m_preview->setPen(plot_style::previewPen());
         m_preview->setName(name);
@@ -329,10 +350,10 @@ void SeriesChart::setPreview(const std::vector<double>& values, const QString& l
         ++m_fullReplotRevision;
     }
     QVector<double> keys, shown;
-    for (int d = 0; d < m_view.days && d < static_cast<int>(values.size()); ++d) {
+    for (int d = 0; d < m_view.periods() && d < static_cast<int>(values.size()); ++d) {
         if (std::isnan(values[d]))
             continue;
-        keys << plotKeyOfDay(m_view.dayAt(d));
+        keys << plotKeyOfPeriod(m_view.axis, d);
         shown << values[d];
     }
     m_preview->setData(keys, shown, true);
@@ -340,29 +361,30 @@ void SeriesChart::setPreview(const std::vector<double>& values, const QString& l
 }
 
 void SeriesChart::resetRange() {
-    if (m_view.days == 0) {
+    if (m_view.periods() == 0) {
         m_plot->xAxis->setRange(plotKeyOfDay(Date{0}), plotKeyOfDay(Date{30}));
         m_plot->yAxis->setRange(0, 10);
         return;
     }
-    focusOn({0, m_view.days - 1});
+    focusOn({0, m_view.periods() - 1});
 }
 
 void SeriesChart::focusOn(DayIndexRange days) {
     const int span = std::max(days.last - days.first, 6);
     const int margin = std::max(1, span / 10);
     m_plot->xAxis->setRange(
-        plotKeyOfDay(m_view.dayAt(days.first - margin)) - kSecondsPerDay * 0.6,
-        plotKeyOfDay(m_view.dayAt(days.first + span + margin)) + kSecondsPerDay * 0.6);
+        plotKeyOfPeriod(m_view.axis, days.first - margin) - 1.2 * halfPeriodKeys(m_view.axis),
+        plotKeyOfPeriod(m_view.axis, days.first + span + margin) +
+            1.2 * halfPeriodKeys(m_view.axis));
     rescaleValueAxis();
 }
 
 void SeriesChart::rescaleValueAxis() {
-    if (m_view.days == 0)
+    if (m_view.periods() == 0)
         return;
     const QCPRange x = m_plot->xAxis->range();
-    const int first = std::max(0, dayOfPlotKey(x.lower) - m_view.firstDay);
-    const int last = std::min(m_view.days - 1, dayOfPlotKey(x.upper) - m_view.firstDay);
+    const int first = std::max(0, periodOfPlotKey(m_view.axis, x.lower));
+    const int last = std::min(m_view.periods() - 1, periodOfPlotKey(m_view.axis, x.upper));
     // The raw bars count where there is no cleaned value to scale by instead.
     double rawTop = 0;
     for (int d = first; d <= last && d < static_cast<int>(m_view.raw.size()); ++d) {
@@ -419,7 +441,7 @@ void SeriesChart::labelClippedBars(int first, int last, double top) {
         label->setClipToAxisRect(true);
         label->position->setTypeX(QCPItemPosition::ptPlotCoords);
         label->position->setTypeY(QCPItemPosition::ptAxisRectRatio);
-        label->position->setCoords(plotKeyOfDay(m_view.dayAt(d)), 0.04);
+        label->position->setCoords(plotKeyOfPeriod(m_view.axis, d), 0.04);
         label->setPositionAlignment(Qt::AlignLeft | Qt::AlignTop);
         label->setPadding(QMargins(3, 0, 0, 0));
         label->setText(QObject::tr("↑ raw %1").arg(QLocale::c().toString(m_view.raw[d], 'f', 0)));
@@ -430,11 +452,11 @@ void SeriesChart::labelClippedBars(int first, int last, double top) {
 }
 
 int SeriesChart::dayIndexAtPixel(double x) const {
-    return dayOfPlotKey(m_plot->xAxis->pixelToCoord(x)) - m_view.firstDay;
+    return periodOfPlotKey(m_view.axis, m_plot->xAxis->pixelToCoord(x));
 }
 
 double SeriesChart::pixelOfDayIndex(int day) const {
-    return m_plot->xAxis->coordToPixel(plotKeyOfDay(m_view.dayAt(day)));
+    return m_plot->xAxis->coordToPixel(plotKeyOfPeriod(m_view.axis, day));
 }
 
 }  // namespace siftwave::widgets

@@ -38,6 +38,15 @@ namespace siftwave::widgets {
 double plotKeyOfDay(Date day);
 /// The day whose bar is nearest to a plot key.
 Date dayOfPlotKey(double key);
+/// The plot key of the centre of period i: the day's key for daily data, the key of the
+/// week's fourth day for weekly data (a week's bar spans its seven days).
+double plotKeyOfPeriod(const TimeAxis& axis, int period);
+/// The plot key of the centre of the period that holds `day`.
+double plotKeyOfDate(const TimeAxis& axis, Date day);
+/// Half a period in plot-key units (seconds): half a day or half a week.
+double halfPeriodKeys(const TimeAxis& axis);
+/// The period whose bar is nearest to a plot key (may lie outside the axis).
+int periodOfPlotKey(const TimeAxis& axis, double key);
 
 class SeriesChart {
 public:

@@ -125,17 +125,17 @@ void SeriesPlot::chooseSecondMeasure(int measure) {
 DayIndexRange SeriesPlot::visibleDays() const {
     // Half a day in from each edge: the days whose centre is on screen.
     const QCPRange range = m_plot->xAxis->range();
-    const Date first = m_chart->view().firstDay;
-    return DayIndexRange{dayOfPlotKey(range.lower + 43200.0) - first,
-                         dayOfPlotKey(range.upper - 43200.0) - first};
+    const TimeAxis& axis = m_chart->view().axis;
+    return DayIndexRange{periodOfPlotKey(axis, range.lower + halfPeriodKeys(axis)),
+                         periodOfPlotKey(axis, range.upper - halfPeriodKeys(axis))};
 }
 
 void SeriesPlot::setVisibleDays(DayIndexRange days) {
     const SeriesView& v = m_chart->view();
     if (v.empty() || days.last < days.first)
         return;
-    m_plot->xAxis->setRange(plotKeyOfDay(v.dayAt(days.first)) - 43200.0,
-                            plotKeyOfDay(v.dayAt(days.last)) + 43200.0);
+    m_plot->xAxis->setRange(plotKeyOfPeriod(v.axis, days.first) - halfPeriodKeys(v.axis),
+                            plotKeyOfPeriod(v.axis, days.last) + halfPeriodKeys(v.axis));
     m_plot->replot();
 }
 
@@ -145,8 +145,7 @@ void SeriesPlot::setView(const SeriesView& view, const QString& regionWithoutRow
     // where the analyst put it.
     const SeriesView& old = m_chart->view();
     const bool sameSeries = !old.empty() && old.regionCode == view.regionCode &&
-                            old.measure == view.measure && old.firstDay == view.firstDay &&
-                            old.days == view.days;
+                            old.measure == view.measure && old.axis == view.axis;
     const QCPRange keep = m_plot->xAxis->range();
     m_emptyNote = nullptr;  // draw() clears every item, the note too
     m_chart->draw(view);
@@ -207,8 +206,8 @@ void SeriesPlot::updateTitle() {
     if (!v.regionName.isEmpty())
         text += QStringLiteral(" &nbsp;%1").arg(v.regionName.toHtmlEscaped());
     text += QStringLiteral(" &nbsp;<span style='color:#555'>%1 – %2</span>")
-                .arg(QString::fromStdString(v.firstDay.iso()),
-                     QString::fromStdString(v.dayAt(v.days - 1).iso()));
+                .arg(QString::fromStdString(v.axis.periodName(0)),
+                     QString::fromStdString(v.axis.periodName(v.periods() - 1)));
     m_title->setText(text);
 }
 
@@ -273,11 +272,11 @@ QMenu* SeriesPlot::createContextMenu(int day) {
     auto* menu = new QMenu(this);
     menu->setObjectName(QStringLiteral("seriesContextMenu"));
     const SeriesView& v = m_chart->view();
-    if (day >= 0 && day < v.days) {
+    if (day >= 0 && day < v.periods()) {
         const bool hasValue = day < static_cast<int>(v.raw.size()) && !std::isnan(v.raw[day]);
         QAction* redistribute =
             menu->addAction(tr("Redistribute %1 over earlier days…")
-                                .arg(QString::fromStdString(v.dayAt(day).iso())),
+                                .arg(QString::fromStdString(v.periodStart(day).iso())),
                             this, [this, day] { Q_EMIT redistributeDayRequested(day); });
         redistribute->setObjectName(QStringLiteral("redistributeDay"));
         redistribute->setEnabled(m_dayPicking && hasValue);
@@ -342,7 +341,7 @@ bool SeriesPlot::eventFilter(QObject* watched, QEvent* event) {
             if (m_dragging != Edge::None) {
                 DayIndexRange window = *editableWindow();
                 const int day = std::clamp(m_chart->dayIndexAtPixel(mouse->position().x()), 0,
-                                           std::max(0, m_chart->view().days - 1));
+                                           std::max(0, m_chart->view().periods() - 1));
                 if (m_dragging == Edge::Start)
                     window.first = std::min(day, window.last);
                 else
@@ -371,7 +370,7 @@ bool SeriesPlot::eventFilter(QObject* watched, QEvent* event) {
             if ((mouse->pos() - m_pressPos).manhattanLength() < 4 &&
                 mouse->button() == Qt::LeftButton) {
                 const int day = m_chart->dayIndexAtPixel(mouse->position().x());
-                if (day >= 0 && day < m_chart->view().days) {
+                if (day >= 0 && day < m_chart->view().periods()) {
                     Q_EMIT dayClicked(day);
                     if (m_dayPicking && mouse->modifiers().testFlag(Qt::ShiftModifier))
                         Q_EMIT redistributeDayRequested(day);

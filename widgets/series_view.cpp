@@ -36,13 +36,12 @@ SeriesView seriesViewFromDrop(const Drop& drop, std::size_t region, std::size_t 
     SeriesView view;
     view.regionCode = QString::fromStdString(drop.regionCodes.at(region));
     view.measure = QString::fromStdString(drop.measures.at(measure));
-    view.firstDay = drop.axis.first();
-    view.days = drop.periods();
-    view.raw.assign(view.days, kNaN);
-    view.rawState.assign(view.days, CellState::Absent);
-    view.sourceLine.assign(view.days, 0);
+    view.axis = drop.axis;
+    view.raw.assign(view.periods(), kNaN);
+    view.rawState.assign(view.periods(), CellState::Absent);
+    view.sourceLine.assign(view.periods(), 0);
     const auto cells = drop.series(measure, region);
-    for (int d = 0; d < view.days; ++d) {
+    for (int d = 0; d < view.periods(); ++d) {
         const Cell& cell = cells[static_cast<std::size_t>(d)];
         view.rawState[d] = cell.state;
         view.sourceLine[d] = cell.line;
@@ -50,15 +49,15 @@ SeriesView seriesViewFromDrop(const Drop& drop, std::size_t region, std::size_t 
             view.raw[d] = cell.value;
     }
     view.cleaned = view.raw;
-    view.touchedBy.assign(view.days, {});
+    view.touchedBy.assign(view.periods(), {});
     return view;
 }
 
 void addSecondMeasure(SeriesView& view, const Drop& drop, std::size_t region, std::size_t measure) {
     view.secondMeasure = QString::fromStdString(drop.measures.at(measure));
-    view.second.assign(view.days, kNaN);
+    view.second.assign(view.periods(), kNaN);
     const auto cells = drop.series(measure, region);
-    for (int d = 0; d < view.days && d < static_cast<int>(cells.size()); ++d)
+    for (int d = 0; d < view.periods() && d < static_cast<int>(cells.size()); ++d)
         if (cells[static_cast<std::size_t>(d)].reported())
             view.second[d] = cells[static_cast<std::size_t>(d)].value;
 }
@@ -69,9 +68,9 @@ void addPreviousRelease(SeriesView& view, const Drop& previous, const QString& l
     if (!region || !measure)
         return;
     view.previousLabel = label;
-    view.previous.assign(view.days, kNaN);
-    for (int d = 0; d < view.days; ++d) {
-        const auto index = previous.periodOf(view.dayAt(d));
+    view.previous.assign(view.periods(), kNaN);
+    for (int d = 0; d < view.periods(); ++d) {
+        const auto index = previous.periodOf(view.periodStart(d));
         if (!index)
             continue;
         const Cell& cell = previous.cell(*measure, *region, *index);
@@ -148,12 +147,18 @@ QString methodDisplayName(fit::FitMethod method) {
 }
 
 QString hoverText(const SeriesView& view, int day) {
-    if (day < 0 || day >= view.days)
+    if (day < 0 || day >= view.periods())
         return {};
-    const Date date = view.dayAt(day);
+    const Date date = view.periodStart(day);
     QStringList lines;
-    lines << QStringLiteral("<b>%1</b> %2")
-                 .arg(QString::fromStdString(date.iso()), weekdayName(date.isoWeekday()));
+    if (view.axis.weekly())  // "2026-W05" and the week's first and last day
+        lines << QStringLiteral("<b>%1</b> %2 to %3")
+                     .arg(QString::fromStdString(view.axis.periodName(day)),
+                          QString::fromStdString(date.iso()),
+                          QString::fromStdString(view.axis.periodEnd(day).iso()));
+    else
+        lines << QStringLiteral("<b>%1</b> %2")
+                     .arg(QString::fromStdString(date.iso()), weekdayName(date.isoWeekday()));
     const CellState state =
         day < static_cast<int>(view.rawState.size()) ? view.rawState[day] : CellState::Absent;
     QString raw = has(view.raw, day)

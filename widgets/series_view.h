@@ -46,8 +46,7 @@ struct SeriesView {
     QString regionCode;  // verbatim
     QString regionName;
     QString measure;
-    Date firstDay;
-    int days = 0;
+    TimeAxis axis;  // the periods every series below is on (daily or weekly)
 
     std::vector<double> raw;                // NaN where no number was reported
     std::vector<CellState> rawState;        // per day
@@ -67,8 +66,9 @@ struct SeriesView {
     QString secondMeasure;       // empty: none
     std::vector<double> second;  // raw counts of the second measure
 
-    bool empty() const { return days == 0; }
-    Date dayAt(int index) const { return firstDay + index; }
+    bool empty() const { return axis.periods() == 0; }
+    int periods() const { return axis.periods(); }
+    Date periodStart(int index) const { return axis.periodStart(index); }
 };
 
 /// The drop's raw counts for one region and measure (cleaned = raw until decisions exist).

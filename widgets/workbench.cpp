@@ -25,7 +25,7 @@ SeriesView Workbench::seriesView(const QString& regionCode, int measure, int sec
         return {};
     SeriesView view = seriesViewFromDrop(*m_drop, *region, static_cast<std::size_t>(measure));
     view.cleaned = cleanedCounts(regionCode, measure);
-    for (int d = 0; d < view.days; ++d) {
+    for (int d = 0; d < view.periods(); ++d) {
         for (std::uint64_t sequence :
              m_cleaned.touchedBy(static_cast<std::size_t>(measure), *region, d)) {
             if (sequence == 0 || sequence > m_ledger.entries.size())
@@ -49,7 +49,7 @@ SeriesView Workbench::seriesView(const QString& regionCode, int measure, int sec
         FindingMark mark;
         mark.id = QString::fromStdString(f.id);
         mark.label = QString::fromLatin1(scan::findingKindName(f.kind));
-        mark.days = {*f.first - m_drop->axis.first(), *f.last - m_drop->axis.first()};
+        mark.days = {m_drop->axis.periodOnGrid(*f.first), m_drop->axis.periodOnGrid(*f.last)};
         mark.severity = f.severity == scan::Severity::Critical  ? 2
                         : f.severity == scan::Severity::Warning ? 1
                                                                 : 0;
@@ -58,8 +58,9 @@ SeriesView Workbench::seriesView(const QString& regionCode, int measure, int sec
     if (m_register)
         if (const RegionEntry* entry = m_register->find(m_drop->regionCodes[*region]))
             view.regionName = QString::fromStdString(entry->name);
-    view.smoothed = series::centredMovingAverage(view.cleaned, 7);
-    view.smoothedLabel = QCoreApplication::translate("Workbench", "7-day centred mean");
+    view.smoothed =
+        series::centredMovingAverage(view.cleaned, series::plotSmoothingWindow(view.axis));
+    view.smoothedLabel = QString::fromStdString(series::plotSmoothingLabel(view.axis));
     if (m_previous)
         addPreviousRelease(view, *m_previous,
                            QFileInfo(QString::fromStdString(m_previous->source.path)).fileName());

@@ -551,12 +551,14 @@ void MainWindow::onDropChanged() {
             measures << QString::fromStdString(m);
         const QFileInfo info(m_workbench->dropPath());
         updateWindowTitle();
-        m_dropLabel->setText(tr("%1 · %2 regions · %3 to %4 · SHA-256 %5…")
-                                 .arg(info.fileName())
-                                 .arg(drop.regionCodes.size())
-                                 .arg(QString::fromStdString(drop.axis.first().iso()),
-                                      QString::fromStdString(drop.axis.lastStart().iso()),
-                                      QString::fromStdString(drop.source.sha256.substr(0, 12))));
+        m_dropLabel->setText(
+            tr("%1 · %2 regions · %3 %4 to %5 · SHA-256 %6…")
+                .arg(info.fileName())
+                .arg(drop.regionCodes.size())
+                .arg(QString::fromLatin1(cadenceName(drop.axis.cadence())),
+                     QString::fromStdString(drop.axis.periodName(0)),
+                     QString::fromStdString(drop.axis.periodName(drop.periods() - 1)),
+                     QString::fromStdString(drop.source.sha256.substr(0, 12))));
     } else {
         m_projectPath.clear();
         updateWindowTitle();
@@ -726,11 +728,11 @@ void MainWindow::refitNow(bool compare) {
     } else {
         result.emplace(m_workbench->fitRegion(m_currentRegion, measure, options));
     }
-    m_fitPane->setCalendar(view.firstDay, view.days);
+    m_fitPane->setCalendar(view.axis.first(), view.periods());
     m_fitPane->showFit(*result, rows);
     if (result->ok()) {
         m_fit = result->value();
-        m_plot->setFit(widgets::curveFromFit(*m_fit, view.days));
+        m_plot->setFit(widgets::curveFromFit(*m_fit, view.periods()));
         if (!m_decisionPane->isActive())
             m_plot->setEditableWindow(widgets::DayIndexRange{m_fit->first, m_fit->last});
         m_fitPane->showWindow(widgets::DayIndexRange{m_fit->first, m_fit->last});
@@ -742,8 +744,8 @@ void MainWindow::refitNow(bool compare) {
             m_plot->setEditableWindow(std::nullopt);
             // No wave found: the (disabled) day fields show the span that was searched, not
             // the window of the region fitted before.
-            if (view.days > 0)
-                m_fitPane->showWindow(widgets::DayIndexRange{0, view.days - 1});
+            if (view.periods() > 0)
+                m_fitPane->showWindow(widgets::DayIndexRange{0, view.periods() - 1});
         }
     }
 }
@@ -799,11 +801,11 @@ void MainWindow::updateReleaseSummary() {
     if (const RegionRegister* reg = m_workbench->regionRegister())
         html += row(tr("Register"), text(reg->path));
     if (const Drop* previous = m_workbench->previousDrop())
-        html += row(
-            tr("Previous release"),
-            tr("%1 (%2 to %3)")
-                .arg(text(previous->source.path), QString::fromStdString(previous->axis.first().iso()),
-                     QString::fromStdString(previous->axis.lastStart().iso())));
+        html += row(tr("Previous release"),
+                    tr("%1 (%2 to %3)")
+                        .arg(text(previous->source.path),
+                             QString::fromStdString(previous->axis.first().iso()),
+                             QString::fromStdString(previous->axis.lastStart().iso())));
     html += QStringLiteral("</table>");
     if (!drop.warnings.empty()) {
         html += tr("<p><b>%1 warning(s) from the reader</b></p><ul>").arg(drop.warnings.size());

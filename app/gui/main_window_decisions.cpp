@@ -55,9 +55,9 @@ void MainWindow::beginDecision(const Decision& decision, const QString& title,
 bool MainWindow::decideDay(int day) {
     const widgets::SeriesView& view = m_plot->view();
     if (!m_workbench->hasDrop() || m_decisionPane->isActive() || view.empty() || day < 0 ||
-        day >= view.days)
+        day >= view.periods())
         return false;
-    const Date date = view.dayAt(day);
+    const Date date = view.periodStart(day);
     const std::string region = view.regionCode.toStdString();
     const std::string measure = view.measure.toStdString();
     // A backlog the scan found on that day is decided exactly as from the finding list.
@@ -98,7 +98,8 @@ bool MainWindow::decideDay(int day) {
         decision.redistributeMethod = RedistributeMethod::Proportional;
     }
     // As from a finding: the window and the day in view, with three weeks either side.
-    m_plot->focusOn(widgets::DayIndexRange{decision.window->first - view.firstDay - 21, day + 21});
+    m_plot->focusOn(
+        widgets::DayIndexRange{decision.window->first - view.axis.first() - 21, day + 21});
     beginDecision(
         decision,
         tr("<b>redistribute</b> for %1 — %2 picked on the plot")
@@ -119,14 +120,14 @@ void MainWindow::previewDecision() {
     std::vector<double> values;
     if (effect) {
         const widgets::SeriesView& view = m_plot->view();
-        values.assign(static_cast<std::size_t>(view.days),
+        values.assign(static_cast<std::size_t>(view.periods()),
                       std::numeric_limits<double>::quiet_NaN());
         for (const CellChange& c : effect->cells) {
             if (QString::fromStdString(c.region) != view.regionCode ||
                 QString::fromStdString(c.measure) != view.measure)
                 continue;
-            const int day = c.date - view.firstDay;
-            if (day >= 0 && day < view.days)
+            const int day = c.date - view.axis.first();
+            if (day >= 0 && day < view.periods())
                 values[static_cast<std::size_t>(day)] = static_cast<double>(c.after.counted());
         }
     }

@@ -94,6 +94,27 @@ void expectCentral95(double low, double high, Pmf pmf) {
     EXPECT_GT(above + pmf(static_cast<int>(high)), 0.025 - 1e-12);
 }
 
+// Real weekly data (r-cran-surveillance, dataset fluBYBW; tests/data/real/SOURCES.md): the
+// figure is of weekly cases, smoothed over three weeks, and names its weeks.
+TEST(ReportFigureSpec, AWeeklyReleaseMakesAFigureOfWeeks) {
+    const Drop drop =
+        readDrop(std::string(SIFTWAVE_TEST_DATA_DIR) + "/real/fluBYBW_weekly_long_by_date.csv")
+            .value();
+    const Cleaned cleaned(drop);
+    report::FigureRequest request;
+    request.region = "8327";
+    request.exportDate = "2026-12-04";
+    const report::FigureSpec spec =
+        report::buildFigureSpec(drop, Ledger{}, cleaned, request).value();
+    EXPECT_TRUE(spec.axis.weekly());
+    EXPECT_EQ(spec.periods(), 156);
+    EXPECT_EQ(spec.title, "Region 8327: weekly cases");
+    EXPECT_EQ(spec.smoothedLabel, "3-week centred mean (cleaned)");
+    EXPECT_EQ(spec.subtitle.rfind("Reported 2001-W01 to 2003-W52", 0), 0u) << spec.subtitle;
+    // The raw series is the file's weekly counts, week by week.
+    EXPECT_EQ(std::accumulate(spec.raw.begin(), spec.raw.end(), 0.0), 63.0);
+}
+
 }  // namespace
 
 TEST(ReportCaption, LinesNameTheFileHashesLedgerFitAndTheCaution) {
@@ -143,15 +164,15 @@ TEST(ReportFigureSpec, MarksEachDecisionInEffectFromTheLedger) {
     ASSERT_EQ(spec->excluded.size(), 1u);
     std::int64_t week = 0;
     for (Date d = day("2026-03-02"); d <= day("2026-03-08"); d = d + 1)
-        week += spec->raw[static_cast<std::size_t>(d - spec->firstDay)];
+        week += spec->raw[static_cast<std::size_t>(d - spec->axis.first())];
     EXPECT_GT(week, 0);
     EXPECT_EQ(spec->excluded[0].count, week);
     EXPECT_EQ(spec->excluded[0].label, "#2 excluded (" + report::groupedCount(week) + ")");
     // The cleaned series: the dump day lowered by the excess, the excluded days without value.
-    const auto dump = static_cast<std::size_t>(day("2026-08-24") - spec->firstDay);
+    const auto dump = static_cast<std::size_t>(day("2026-08-24") - spec->axis.first());
     EXPECT_EQ(spec->cleaned[dump], 2643 - 2444);
-    EXPECT_TRUE(
-        std::isnan(spec->cleaned[static_cast<std::size_t>(day("2026-03-04") - spec->firstDay)]));
+    EXPECT_TRUE(std::isnan(
+        spec->cleaned[static_cast<std::size_t>(day("2026-03-04") - spec->axis.first())]));
     EXPECT_NE(spec->subtitle.find("2 ledger decisions applied"), std::string::npos)
         << spec->subtitle;
 }
@@ -235,12 +256,12 @@ TEST(ReportFigureSpec, TheBandIsTheFittedCurvesOwnConfidenceBand) {
         spec = report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request);
         ASSERT_TRUE(spec.ok() && spec->fit);
         const report::CountBand counts = report::countBand(spec->fit->result, spec->cleaned);
-        ASSERT_EQ(spec->fit->countLow.size(), static_cast<std::size_t>(spec->days));
+        ASSERT_EQ(spec->fit->countLow.size(), static_cast<std::size_t>(spec->periods()));
         for (int d = 100; d <= 200; ++d) {
             EXPECT_DOUBLE_EQ(spec->fit->countLow[d], counts.low[d - 100]);
             EXPECT_DOUBLE_EQ(spec->fit->countHigh[d], counts.high[d - 100]);
         }
-        const int peak = spec->fit->peakDate - spec->firstDay;
+        const int peak = spec->fit->peakDate - spec->axis.first();
         ASSERT_TRUE(peak >= 100 && peak <= 200);
         EXPECT_GT(spec->fit->countHigh[peak] - spec->fit->countLow[peak],
                   spec->fit->high[peak] - spec->fit->low[peak]);
@@ -259,19 +280,19 @@ TEST(ReportFigureSpec, ThePreviousReleaseIsAlignedByDate) {
     request.previous = &previous;
     auto spec = report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request);
     ASSERT_TRUE(spec.ok()) << spec.error().describe();
-    ASSERT_EQ(spec->previous.size(), static_cast<std::size_t>(spec->days));
+    ASSERT_EQ(spec->previous.size(), static_cast<std::size_t>(spec->periods()));
     EXPECT_EQ(spec->previousLabel, "quenmara_previous.csv");
     // samples/manifest.json: "Late reports raised six days of cases since the previous
     // release", 1405, 2026-11-05 to 2026-11-10; every other day reads the same in both.
     std::vector<std::string> revised;
     int compared = 0;
-    for (int d = 0; d < spec->days; ++d) {
+    for (int d = 0; d < spec->periods(); ++d) {
         const double old = spec->previous[d];
         if (std::isnan(old) || std::isnan(spec->raw[d]))
             continue;
         ++compared;
         if (old != spec->raw[d]) {
-            revised.push_back(spec->dayAt(d).iso());
+            revised.push_back(spec->periodStart(d).iso());
             EXPECT_LT(old, spec->raw[d]);
         }
     }

@@ -35,15 +35,14 @@ private Q_SLOTS:
         SeriesView view;
         view.regionCode = QStringLiteral("T1");
         view.measure = QStringLiteral("cases");
-        view.firstDay = *Date::fromIso("2026-03-02");
-        view.days = 10;
-        for (int d = 0; d < view.days; ++d) {
+        view.axis = siftwave::TimeAxis::daily(*Date::fromIso("2026-03-02"), 10);
+        for (int d = 0; d < view.periods(); ++d) {
             view.raw.push_back(10 + d);
             view.rawState.push_back(siftwave::CellState::Reported);
             view.sourceLine.push_back(static_cast<std::uint32_t>(d + 2));
         }
         view.cleaned = view.raw;
-        view.touchedBy.assign(view.days, {});
+        view.touchedBy.assign(view.periods(), {});
         plot.setView(view);
         QVERIFY(plot.emptyNote().isEmpty());
         QVERIFY(canvas->legend->visible());

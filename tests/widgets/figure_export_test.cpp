@@ -309,7 +309,7 @@ private Q_SLOTS:
     void theRedistributedSpikeIsCutAndTheArrowEndsOnItsVisibleTop() {
         const Fixture f = sampleWithDecisions(true);
         const report::FigureSpec spec = specOf(f, "1301", false);
-        const int dumpIndex = *Date::fromIso("2026-08-24") - spec.firstDay;
+        const int dumpIndex = *Date::fromIso("2026-08-24") - spec.axis.first();
         const double raw = spec.raw[static_cast<std::size_t>(dumpIndex)];
         QCOMPARE(raw, 2643.0);  // samples/manifest.json, P06 "reported"
         const PixelFigure fig = exportForPixels(spec, QStringLiteral("spike-cut.png"));
@@ -382,7 +382,7 @@ private Q_SLOTS:
     void withoutALedgerTheSpikeSetsTheScaleAndHasNoArrow() {
         const Fixture f = sampleWithDecisions(false);
         const report::FigureSpec spec = specOf(f, "1301", false);
-        const int dumpIndex = *Date::fromIso("2026-08-24") - spec.firstDay;
+        const int dumpIndex = *Date::fromIso("2026-08-24") - spec.axis.first();
         const double raw = spec.raw[static_cast<std::size_t>(dumpIndex)];
         QCOMPARE(raw, 2643.0);
         const PixelFigure fig = exportForPixels(spec, QStringLiteral("spike-raw.png"));
@@ -471,7 +471,8 @@ private Q_SLOTS:
         // A second lowered bar four days before the dump (as if another decision had spread a
         // day's excess): two cut bars whose labels must not collide.
         report::FigureSpec twoCuts = spec;
-        twoCuts.raw[static_cast<std::size_t>(*Date::fromIso("2026-08-20") - spec.firstDay)] = 1800;
+        twoCuts.raw[static_cast<std::size_t>(*Date::fromIso("2026-08-20") - spec.axis.first())] =
+            1800;
         struct Case {
             const char* name;
             widgets::FigureSize size;

@@ -51,7 +51,7 @@ private Q_SLOTS:
         // weekday factors, so the drawn wave K f(t) is the fitted value itself).
         const auto& curve = window.seriesPlot()->view().fit;
         QVERIFY(curve);
-        QCOMPARE(static_cast<int>(curve->low.size()), window.seriesPlot()->view().days);
+        QCOMPARE(static_cast<int>(curve->low.size()), window.seriesPlot()->view().periods());
         for (int d = fit->first; d <= fit->last; ++d) {
             const std::size_t i = static_cast<std::size_t>(d - fit->first);
             QVERIFY(std::abs(curve->mid[d] - fit->fitted[i]) <= 1e-9 * (1 + fit->fitted[i]));
@@ -62,7 +62,7 @@ private Q_SLOTS:
         // Nothing is drawn outside the window (it may end on the last day of the release).
         QVERIFY(fit->first > 0);
         QVERIFY(std::isnan(curve->mid[fit->first - 1]) && std::isnan(curve->low[fit->first - 1]));
-        if (fit->last + 1 < window.seriesPlot()->view().days)
+        if (fit->last + 1 < window.seriesPlot()->view().periods())
             QVERIFY(std::isnan(curve->low[fit->last + 1]));
         // The band is in the legend under what it is, filled, and the hover gives its edges.
         QCustomPlot* plot = window.seriesPlot()->customPlot();

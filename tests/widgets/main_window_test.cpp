@@ -90,8 +90,10 @@ private Q_SLOTS:
         QVERIFY2(window.fitPane()->summaryText().startsWith(QStringLiteral("No fit")),
                  qPrintable(window.fitPane()->summaryText()));
         const auto& drop = window.workbench()->drop();
-        QCOMPARE(from->date().toString(Qt::ISODate), QString::fromStdString(drop.axis.first().iso()));
-        QCOMPARE(to->date().toString(Qt::ISODate), QString::fromStdString(drop.axis.lastStart().iso()));
+        QCOMPARE(from->date().toString(Qt::ISODate),
+                 QString::fromStdString(drop.axis.first().iso()));
+        QCOMPARE(to->date().toString(Qt::ISODate),
+                 QString::fromStdString(drop.axis.lastStart().iso()));
         QVERIFY(from->date() != kvFirst);
     }
 
@@ -102,16 +104,16 @@ private Q_SLOTS:
         QVERIFY(window.selectRegion(QStringLiteral("1301")));
         const siftwave::widgets::SeriesView& view = window.seriesPlot()->view();
         QCOMPARE(view.regionCode, QStringLiteral("1301"));
-        QCOMPARE(view.days, window.workbench()->drop().periods());
+        QCOMPARE(view.periods(), window.workbench()->drop().periods());
         // Every plotted raw value is the one on its source line of the file (long layout:
         // date,region,cases,deaths per the samples README).
         int checked = 0;
-        for (int d = 0; d < view.days; d += 17) {
+        for (int d = 0; d < view.periods(); d += 17) {
             if (std::isnan(view.raw[d]))
                 continue;
             const QStringList fields =
                 lineOfFile(kSample, view.sourceLine[d]).split(QLatin1Char(','));
-            QCOMPARE(fields.value(0), QString::fromStdString(view.dayAt(d).iso()));
+            QCOMPARE(fields.value(0), QString::fromStdString(view.periodStart(d).iso()));
             QCOMPARE(fields.value(1), QStringLiteral("1301"));
             QCOMPARE(fields.value(2).toDouble(), view.raw[d]);
             ++checked;
@@ -119,7 +121,7 @@ private Q_SLOTS:
         QVERIFY(checked > 10);
         // The hover text names the date, the raw value and the source line.
         const QString hover = siftwave::widgets::hoverText(view, 0);
-        QVERIFY(hover.contains(QString::fromStdString(view.dayAt(0).iso())));
+        QVERIFY(hover.contains(QString::fromStdString(view.periodStart(0).iso())));
         QVERIFY(hover.contains(QStringLiteral("Source line %1").arg(view.sourceLine[0])));
     }
 
@@ -147,9 +149,9 @@ private Q_SLOTS:
         // The samples README plants revisions of 1405's historic cases between the releases.
         QVERIFY(window.selectRegion(QStringLiteral("1405")));
         const siftwave::widgets::SeriesView& view = window.seriesPlot()->view();
-        QCOMPARE(static_cast<int>(view.previous.size()), view.days);
+        QCOMPARE(static_cast<int>(view.previous.size()), view.periods());
         int revised = 0;
-        for (int d = 0; d < view.days; ++d) {
+        for (int d = 0; d < view.periods(); ++d) {
             if (std::isnan(view.previous[d]) || std::isnan(view.raw[d]) ||
                 view.previous[d] == view.raw[d])
                 continue;
@@ -158,7 +160,7 @@ private Q_SLOTS:
         }
         QVERIFY(revised > 0);
         // The previous release is a week shorter: its last week has no number.
-        QVERIFY(std::isnan(view.previous[view.days - 1]));
+        QVERIFY(std::isnan(view.previous[view.periods() - 1]));
     }
 
     void aBadFileShowsTheReadersMessageAndTheWindowStaysUsable() {

@@ -29,9 +29,8 @@ SeriesView syntheticView() {
     SeriesView view;
     view.regionCode = QStringLiteral("T1");
     view.measure = QStringLiteral("cases");
-    view.firstDay = *Date::fromIso("2026-03-02");
-    view.days = 60;
-    for (int d = 0; d < view.days; ++d) {
+    view.axis = siftwave::TimeAxis::daily(*Date::fromIso("2026-03-02"), 60);
+    for (int d = 0; d < view.periods(); ++d) {
         view.raw.push_back(10 + d % 7);
         view.rawState.push_back(siftwave::CellState::Reported);
         view.sourceLine.push_back(static_cast<std::uint32_t>(d + 2));
@@ -40,7 +39,7 @@ SeriesView syntheticView() {
     view.rawState[5] = siftwave::CellState::Absent;
     view.sourceLine[5] = 0;
     view.cleaned = view.raw;
-    view.touchedBy.assign(view.days, {});
+    view.touchedBy.assign(view.periods(), {});
     view.touchedBy[7] << QStringLiteral("#3 redistribute backlog (alice)");
     return view;
 }
@@ -256,6 +255,32 @@ private Q_SLOTS:
         QVERIFY(absent.contains(QStringLiteral("absent")));
         QVERIFY(absent.contains(QStringLiteral("No source row")));
         QVERIFY(siftwave::widgets::hoverText(view, 60).isEmpty());
+    }
+
+    // Weekly data: a bar spans its week, the axis says weekly, the hover names the ISO week.
+    void aWeeklySeriesDrawsWeekWideBarsAndNamesItsWeeks() {
+        SeriesView view = syntheticView();
+        // ISO 8601: 2026-03-02 is the Monday of 2026-W10.
+        view.axis = siftwave::TimeAxis::weekly(*Date::fromIso("2026-03-02"), 60,
+                                               siftwave::WeekStart::Monday);
+        SeriesPlot plot;
+        QVERIFY(showOnScreen(plot));
+        plot.setView(view);
+        QCustomPlot* canvas = plot.customPlot();
+        QCOMPARE(canvas->yAxis->label(), QStringLiteral("Weekly cases"));
+        QCPBars* bars = nullptr;
+        for (int i = 0; i < canvas->plottableCount() && !bars; ++i)
+            bars = qobject_cast<QCPBars*>(canvas->plottable(i));
+        QVERIFY(bars);
+        QVERIFY2(bars->width() > 5 * 86400.0 && bars->width() < 7 * 86400.0,
+                 qPrintable(QString::number(bars->width() / 86400.0)));
+        // The bar of week 0 is centred on its Thursday (the week's fourth day).
+        QCOMPARE(bars->data()->at(0)->key,
+                 siftwave::widgets::plotKeyOfDay(*Date::fromIso("2026-03-05")));
+        QCOMPARE(siftwave::widgets::periodOfPlotKey(view.axis, bars->data()->at(3)->key), 3);
+        const QString text = siftwave::widgets::hoverText(view, 1);
+        QVERIFY2(text.contains(QStringLiteral("<b>2026-W11</b> 2026-03-09 to 2026-03-15")),
+                 qPrintable(text));
     }
 };
 

@@ -4,6 +4,7 @@
 #include "siftwave/series/smoothing.h"
 
 #include <algorithm>
+#include <cctype>
 #include <cmath>
 #include <limits>
 
@@ -11,7 +12,6 @@ namespace siftwave::report {
 namespace {
 
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
-constexpr int kSmoothingDays = 7;
 
 // The total change an entry made to this region and measure.
 std::int64_t totalChangeOf(const LedgerEntry& entry, const std::string& region,
@@ -55,19 +55,21 @@ bool aboutThisSeries(const Decision& d, const std::string& region, const std::st
 
 double highestRaw(const FigureSpec& spec, Date first, Date last) {
     double best = 0;
-    for (int i = std::max(0, first - spec.firstDay); i < spec.days && spec.dayAt(i) <= last; ++i)
+    for (int i = std::max(0, first - spec.axis.first());
+         i < spec.periods() && spec.periodStart(i) <= last; ++i)
         if (!std::isnan(spec.raw[i]))
             best = std::max(best, spec.raw[i]);
     return best;
 }
 
 DayRange clampToCalendar(DayRange r, const FigureSpec& spec) {
-    const Date last = spec.dayAt(std::max(spec.days - 1, 0));
-    return {std::clamp(r.first, spec.firstDay, last), std::clamp(r.last, spec.firstDay, last)};
+    const Date last = spec.periodStart(std::max(spec.periods() - 1, 0));
+    return {std::clamp(r.first, spec.axis.first(), last),
+            std::clamp(r.last, spec.axis.first(), last)};
 }
 
 void addMarks(FigureSpec& spec, const Ledger& ledger, const Cleaned& cleaned) {
-    const DayRange calendar{spec.firstDay, spec.dayAt(std::max(spec.days - 1, 0))};
+    const DayRange calendar{spec.axis.first(), spec.periodStart(std::max(spec.periods() - 1, 0))};
     for (const LedgerEntry& entry : ledger.entries) {
         const Decision& d = entry.decision;
         if (!cleaned.inEffect(entry.sequence) || !aboutThisSeries(d, spec.regionCode, spec.measure))
@@ -139,12 +141,15 @@ std::string defaultTitle(const FigureSpec& spec) {
     const std::string who = spec.regionName.empty()
                                 ? "Region " + spec.regionCode
                                 : spec.regionName + " (" + spec.regionCode + ")";
-    return who + ": daily " + spec.measure;
+    std::string cadence = spec.axis.adjective();
+    cadence[0] = static_cast<char>(std::tolower(static_cast<unsigned char>(cadence[0])));
+    return who + ": " + cadence + " " + spec.measure;
 }
 
 std::string defaultSubtitle(const FigureSpec& spec) {
-    std::string s =
-        "Reported " + spec.firstDay.iso() + " to " + spec.dayAt(std::max(spec.days - 1, 0)).iso();
+    const int last = std::max(spec.periods() - 1, 0);
+    // Weeks by their names (2026-W05), days by their dates.
+    std::string s = "Reported " + spec.axis.periodName(0) + " to " + spec.axis.periodName(last);
     const std::size_t marks = spec.decisions.size() + spec.excluded.size();
     s += marks == 0 ? "; no ledger decision on this series"
                     : "; " + std::to_string(marks) +
@@ -183,14 +188,14 @@ FittedCurveSpec curveOf(const fit::FitResult& result, const FigureSpec& spec, bo
     curve.label =
         capitalised(fit::modelName(result.model)) + " fit (" + fit::methodName(result.method) + ")";
     curve.bandLabel = kCurveBandLabel;
-    curve.mid.assign(spec.days, kNaN);
-    curve.low.assign(spec.days, kNaN);
-    curve.high.assign(spec.days, kNaN);
-    const int offset = result.seriesFirstDay - spec.firstDay;
+    curve.mid.assign(spec.periods(), kNaN);
+    curve.low.assign(spec.periods(), kNaN);
+    curve.high.assign(spec.periods(), kNaN);
+    const int offset = result.seriesFirstDay - spec.axis.first();
     // Calendar index of series day `first + i`, or -1 off the calendar.
     auto dayOf = [&](int seriesDay) {
         const int day = offset + seriesDay;
-        return day >= 0 && day < spec.days ? day : -1;
+        return day >= 0 && day < spec.periods() ? day : -1;
     };
     // The wave and its confidence band over the fit window only: not a forecast.
     auto band = fit::curveBand(result, result.first, result.last);
@@ -215,8 +220,8 @@ FittedCurveSpec curveOf(const fit::FitResult& result, const FigureSpec& spec, bo
     }
     if (countRange) {
         curve.countRangeLabel = kCountRangeLabel;
-        curve.countLow.assign(spec.days, kNaN);
-        curve.countHigh.assign(spec.days, kNaN);
+        curve.countLow.assign(spec.periods(), kNaN);
+        curve.countHigh.assign(spec.periods(), kNaN);
         const CountBand counts = countBand(result, spec.cleaned);
         for (std::size_t i = 0; i < counts.low.size(); ++i)
             if (const int day = dayOf(result.first + static_cast<int>(i)); day >= 0) {
@@ -237,10 +242,10 @@ void addPrevious(FigureSpec& spec, const Drop& previous) {
     const auto measure = previous.measureIndex(spec.measure);
     if (!region || !measure)
         return;
-    spec.previous.assign(spec.days, kNaN);
+    spec.previous.assign(spec.periods(), kNaN);
     const auto cells = previous.series(*measure, *region);
-    for (int d = 0; d < spec.days; ++d)
-        if (const auto at = previous.periodOf(spec.dayAt(d)); at && cells[*at].reported())
+    for (int d = 0; d < spec.periods(); ++d)
+        if (const auto at = previous.periodOf(spec.periodStart(d)); at && cells[*at].reported())
             spec.previous[d] = cells[*at].value;
     spec.previousLabel = fileNameOf(previous.source.path);
 }
@@ -295,20 +300,20 @@ Result<FigureSpec> buildFigureSpec(const Drop& drop, const Ledger& ledger, const
     if (request.regions)
         if (const RegionEntry* entry = request.regions->find(request.region))
             spec.regionName = entry->name;
-    spec.firstDay = drop.axis.first();
-    spec.days = drop.periods();
-    spec.raw.assign(spec.days, kNaN);
-    spec.cleaned.assign(spec.days, kNaN);
+    spec.axis = drop.axis;
+    spec.raw.assign(spec.periods(), kNaN);
+    spec.cleaned.assign(spec.periods(), kNaN);
     const auto rawCells = drop.series(*measure, *region);
     const auto cleanCells = cleaned.series(*measure, *region);
-    for (int d = 0; d < spec.days; ++d) {
+    for (int d = 0; d < spec.periods(); ++d) {
         if (rawCells[d].reported())
             spec.raw[d] = rawCells[d].value;
         if (cleanCells[d].hasValue())
             spec.cleaned[d] = static_cast<double>(cleanCells[d].value);
     }
-    spec.smoothed = series::centredMovingAverage(spec.cleaned, kSmoothingDays);
-    spec.smoothedLabel = "7-day centred mean (cleaned)";
+    spec.smoothed =
+        series::centredMovingAverage(spec.cleaned, series::plotSmoothingWindow(spec.axis));
+    spec.smoothedLabel = series::plotSmoothingLabel(spec.axis) + " (cleaned)";
     if (request.previous)
         addPrevious(spec, *request.previous);
 
@@ -319,7 +324,7 @@ Result<FigureSpec> buildFigureSpec(const Drop& drop, const Ledger& ledger, const
             if (const RegionEntry* entry = request.regions->find(request.region);
                 entry && entry->population)
                 population = static_cast<double>(*entry->population);
-        auto fitted = fit::fitSeries({spec.firstDay, spec.cleaned}, *request.fit, population);
+        auto fitted = fit::fitSeries({spec.axis.first(), spec.cleaned}, *request.fit, population);
         if (fitted)
             result = std::move(fitted.value());
         else

@@ -133,4 +133,12 @@ std::vector<double> centredMovingAverage(std::span<const double> values,
     return centredMovingAverage(values, options.window, options.edges);
 }
 
+int plotSmoothingWindow(const TimeAxis& axis) {
+    return axis.weekly() ? 3 : 7;
+}
+
+std::string plotSmoothingLabel(const TimeAxis& axis) {
+    return std::to_string(plotSmoothingWindow(axis)) + "-" + axis.unitName() + " centred mean";
+}
+
 }  // namespace siftwave::series

@@ -31,6 +31,7 @@
 #include "siftwave/region_register.h"
 #include "siftwave/report/caption.h"
 #include "siftwave/result.h"
+#include "siftwave/time_axis.h"
 
 #include <cstdint>
 #include <optional>
@@ -89,8 +90,7 @@ struct FigureSpec {
     std::string title;
     std::string subtitle;
 
-    Date firstDay;
-    int days = 0;
+    TimeAxis axis;                 // the periods every series below is on (daily or weekly)
     std::vector<double> raw;       // NaN where no number was reported
     std::vector<double> cleaned;   // NaN where the cleaned cell holds no value
     std::vector<double> smoothed;  // 7-day centred mean of the cleaned series
@@ -108,7 +108,8 @@ struct FigureSpec {
     CaptionFacts caption;
     std::vector<std::string> captionLines;
 
-    Date dayAt(int index) const { return firstDay + index; }
+    int periods() const { return axis.periods(); }
+    Date periodStart(int index) const { return axis.periodStart(index); }
 };
 
 struct FigureRequest {

@@ -23,8 +23,10 @@
 // the output there is NaN.
 
 #include "siftwave/result.h"
+#include "siftwave/time_axis.h"
 
 #include <span>
+#include <string>
 #include <vector>
 
 namespace siftwave::series {
@@ -64,5 +66,12 @@ std::vector<double> centredMovingAverage(std::span<const double> values,
 inline double trailingLagDays(int window) {
     return (window - 1) / 2.0;
 }
+
+/// The centred mean a plot draws over its counts, in periods: 7 for daily data (a whole week,
+/// so the weekday effect cancels) and 3 for weekly data (a week either side: enough to see the
+/// trend without flattening a short wave). Common practice, no source.
+int plotSmoothingWindow(const TimeAxis& axis);
+/// "7-day centred mean" or "3-week centred mean".
+std::string plotSmoothingLabel(const TimeAxis& axis);
 
 }  // namespace siftwave::series
