@@ -1,5 +1,7 @@
 #include "widgets/series_view.h"
 
+#include "siftwave/series/daily.h"
+
 #include <QCoreApplication>
 #include <QLocale>
 
@@ -37,16 +39,13 @@ SeriesView seriesViewFromDrop(const Drop& drop, std::size_t region, std::size_t 
     view.regionCode = QString::fromStdString(drop.regionCodes.at(region));
     view.measure = QString::fromStdString(drop.measures.at(measure));
     view.axis = drop.axis;
-    view.raw.assign(view.periods(), kNaN);
+    view.raw = series::countsOf(drop, measure, region);
     view.rawState.assign(view.periods(), CellState::Absent);
     view.sourceLine.assign(view.periods(), 0);
     const auto cells = drop.series(measure, region);
     for (int d = 0; d < view.periods(); ++d) {
-        const Cell& cell = cells[static_cast<std::size_t>(d)];
-        view.rawState[d] = cell.state;
-        view.sourceLine[d] = cell.line;
-        if (cell.reported())
-            view.raw[d] = cell.value;
+        view.rawState[d] = cells[static_cast<std::size_t>(d)].state;
+        view.sourceLine[d] = cells[static_cast<std::size_t>(d)].line;
     }
     view.cleaned = view.raw;
     view.touchedBy.assign(view.periods(), {});
@@ -55,11 +54,7 @@ SeriesView seriesViewFromDrop(const Drop& drop, std::size_t region, std::size_t 
 
 void addSecondMeasure(SeriesView& view, const Drop& drop, std::size_t region, std::size_t measure) {
     view.secondMeasure = QString::fromStdString(drop.measures.at(measure));
-    view.second.assign(view.periods(), kNaN);
-    const auto cells = drop.series(measure, region);
-    for (int d = 0; d < view.periods() && d < static_cast<int>(cells.size()); ++d)
-        if (cells[static_cast<std::size_t>(d)].reported())
-            view.second[d] = cells[static_cast<std::size_t>(d)].value;
+    view.second = series::countsOf(drop, measure, region);
 }
 
 void addPreviousRelease(SeriesView& view, const Drop& previous, const QString& label) {

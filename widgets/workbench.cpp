@@ -76,13 +76,7 @@ std::vector<double> Workbench::cleanedCounts(const QString& regionCode, int meas
     const std::optional<std::size_t> region = m_drop->regionIndex(regionCode.toStdString());
     if (!region)
         return {};
-    std::vector<double> counts(static_cast<std::size_t>(m_drop->periods()),
-                               std::numeric_limits<double>::quiet_NaN());
-    const auto cells = m_cleaned.series(static_cast<std::size_t>(measure), *region);
-    for (std::size_t d = 0; d < cells.size(); ++d)
-        if (cells[d].hasValue())
-            counts[d] = static_cast<double>(cells[d].value);
-    return counts;
+    return siftwave::cleanedCounts(m_cleaned, static_cast<std::size_t>(measure), *region);
 }
 
 std::optional<std::int64_t> Workbench::cleanedTotal(const QString& regionCode, int measure) const {

@@ -1,5 +1,7 @@
 #include "siftwave/ledger/cleaned.h"
 
+#include <limits>
+
 namespace siftwave {
 
 const char* cleanedStateName(CleanedState state) {
@@ -79,6 +81,16 @@ bool Cleaned::inEffect(std::uint64_t sequence) const {
     if (sequence == 0 || sequence > m_inEffect.size())
         return false;
     return m_inEffect[sequence - 1];
+}
+
+std::vector<double> cleanedCounts(const Cleaned& cleaned, std::size_t measure,
+                                  std::size_t region) {
+    const auto cells = cleaned.series(measure, region);
+    std::vector<double> counts(cells.size(), std::numeric_limits<double>::quiet_NaN());
+    for (std::size_t d = 0; d < cells.size(); ++d)
+        if (cells[d].hasValue())
+            counts[d] = static_cast<double>(cells[d].value);
+    return counts;
 }
 
 }  // namespace siftwave

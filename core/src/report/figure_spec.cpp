@@ -1,6 +1,7 @@
 #include "siftwave/report/figure_spec.h"
 
 #include "siftwave/report/count_band.h"
+#include "siftwave/series/daily.h"
 #include "siftwave/series/smoothing.h"
 
 #include <algorithm>
@@ -301,16 +302,8 @@ Result<FigureSpec> buildFigureSpec(const Drop& drop, const Ledger& ledger, const
         if (const RegionEntry* entry = request.regions->find(request.region))
             spec.regionName = entry->name;
     spec.axis = drop.axis;
-    spec.raw.assign(spec.periods(), kNaN);
-    spec.cleaned.assign(spec.periods(), kNaN);
-    const auto rawCells = drop.series(*measure, *region);
-    const auto cleanCells = cleaned.series(*measure, *region);
-    for (int d = 0; d < spec.periods(); ++d) {
-        if (rawCells[d].reported())
-            spec.raw[d] = rawCells[d].value;
-        if (cleanCells[d].hasValue())
-            spec.cleaned[d] = static_cast<double>(cleanCells[d].value);
-    }
+    spec.raw = series::countsOf(drop, *measure, *region);
+    spec.cleaned = cleanedCounts(cleaned, *measure, *region);
     spec.smoothed =
         series::centredMovingAverage(spec.cleaned, series::plotSmoothingWindow(spec.axis));
     spec.smoothedLabel = series::plotSmoothingLabel(spec.axis) + " (cleaned)";

@@ -138,4 +138,9 @@ private:
     std::uint64_t m_entryCount = 0;
 };
 
+/// A region's cleaned counts as plain doubles, one per period: the value where the cleaned
+/// cell holds one, NaN elsewhere (what smoothing, fitting and plots take). The one
+/// conversion of cleaned cells to numbers; series::countsOf is its raw counterpart.
+std::vector<double> cleanedCounts(const Cleaned& cleaned, std::size_t measure, std::size_t region);
+
 }  // namespace siftwave

@@ -1,5 +1,5 @@
 #pragma once
-// A region's daily counts from a Drop as plain doubles: reported cells give their value,
+// A region's counts per period (day or week) from a Drop as plain doubles: reported cells give their value,
 // every other cell (absent, blank, unparsable) is NaN, so smoothing and fitting skip it.
 
 #include "siftwave/drop.h"
@@ -9,7 +9,7 @@
 
 namespace siftwave::series {
 
-/// Day i of the result is drop.firstDay + i; NaN where the cell is not Reported.
+/// Element i is period i of the drop's time axis; NaN where the cell is not Reported.
 std::vector<double> countsOf(const Drop& drop, std::size_t measure, std::size_t region);
 
 }  // namespace siftwave::series
