@@ -9,6 +9,11 @@ namespace siftwave::cli {
 std::vector<FlagSpec> ingestFlagSpecs() {
     return {
         {"date-col", true, false, "NAME", "the column that holds the dates (default: detected)"},
+        {"year-col", true, false, "NAME",
+         "the column of years, when the dates are a year and a week number (default: detected "
+         "when no column holds dates)"},
+        {"week-col", true, false, "NAME",
+         "the column of week numbers 1 to 53 that goes with the years (default: detected)"},
         {"region-col", true, false, "NAME",
          "the column that holds the region codes (default: detected)"},
         {"value-col", true, true, "NAME",
@@ -43,6 +48,8 @@ Result<IngestOptions> ingestOptionsFrom(const ParsedArgs& args) {
         return makeError(ErrorCode::Usage, std::move(message));
     };
     o.dateColumn = args.value("date-col");
+    o.yearColumn = args.value("year-col");
+    o.weekColumn = args.value("week-col");
     o.regionColumn = args.value("region-col");
     o.valueColumns = args.values("value-col");
     o.measureColumn = args.value("measure-col");

@@ -56,6 +56,8 @@ nlohmann::json inspectJson(const Drop& drop) {
     j["layout"] = layoutName(p.layout);
     j["columns"] = {
         {"date", p.columns.date.empty() ? nlohmann::json(nullptr) : nlohmann::json(p.columns.date)},
+        {"year", p.columns.year.empty() ? nlohmann::json(nullptr) : nlohmann::json(p.columns.year)},
+        {"week", p.columns.week.empty() ? nlohmann::json(nullptr) : nlohmann::json(p.columns.week)},
         {"region",
          p.columns.region.empty() ? nlohmann::json(nullptr) : nlohmann::json(p.columns.region)},
         {"values", p.columns.values},

@@ -239,4 +239,52 @@ TEST(CliInspect, ReadsTheBundledSampleDrop) {
     EXPECT_TRUE(hasNa);  // the sample's district whose code collides with a missing-value token
 }
 
+// Real data: r-cran-surveillance 1.20.3, dataset fluBYBW, 16 districts x 156 ISO weeks written
+// as an ISO year and an ISO week column (tests/data/real/SOURCES.md).
+TEST(CliInspect, AYearAndAWeekColumnAreShownAsTheDate) {
+    const CliRun r = run("inspect " + std::string(SIFTWAVE_TEST_DATA_DIR) +
+                         "/real/fluBYBW_weekly_year_week.csv --json");
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    const auto j = nlohmann::json::parse(r.out);
+    EXPECT_EQ(j["columns"]["date"], "year+week");
+    EXPECT_EQ(j["columns"]["year"], "year");
+    EXPECT_EQ(j["columns"]["week"], "week");
+    EXPECT_EQ(j["columns"]["region"], "region");
+    EXPECT_EQ(j["columns"]["values"], nlohmann::json({"cases"}));
+    EXPECT_EQ(j["date_format"], "year+ISO week");
+    EXPECT_EQ(j["cadence"], "weekly");
+    EXPECT_EQ(j["week_start"], "monday");
+    EXPECT_EQ(j["periods"], 156);
+    EXPECT_EQ(j["first_date"], "2001-01-01");
+    EXPECT_EQ(j["regions"], 16);
+
+    // Named with the flags, Sunday-start weeks (epi week 1 of 2026 starts on Sunday 2026-01-04:
+    // tests/data/reference/calendar_weeks/epi_weeks_sunday.csv), and shown in plain text.
+    const std::string path =
+        writeDrop("siftwave_inspect_year_week.csv", "region;J;W;n\nA;2026;1;5\nA;2026;2;6\n");
+    const CliRun named = run("inspect " + path +
+                             " --year-col J --week-col W --week-start sunday --value-col n --json");
+    ASSERT_EQ(named.exitCode, 0) << named.err;
+    const auto k = nlohmann::json::parse(named.out);
+    EXPECT_EQ(k["columns"]["year"], "J");
+    EXPECT_EQ(k["date_format"], "year+epi week");
+    EXPECT_EQ(k["first_date"], "2026-01-04");
+    const CliRun text = run("inspect " + path + " --year-col J --week-col W --value-col n");
+    EXPECT_NE(text.out.find("date column J+W (year+ISO week)"), std::string::npos) << text.out;
+    const CliRun both = run("inspect " + path + " --year-col J --date-col W");
+    EXPECT_EQ(both.exitCode, 2);
+
+    // A week that does not exist: file, line and column of the cell.
+    const std::string bad = writeDrop("siftwave_inspect_year_week_bad.csv",
+                                      "year,week,region,cases\n2025,52,A,1\n2025,53,A,2\n");
+    const CliRun e = run("inspect " + bad);
+    EXPECT_EQ(e.exitCode, 1);
+    EXPECT_NE(e.err.find(bad + ":3:2: week 53 in the week column 'week' does not exist: 2025 has "
+                               "52 ISO 8601 weeks"),
+              std::string::npos)
+        << e.err;
+    std::filesystem::remove(path);
+    std::filesystem::remove(bad);
+}
+
 }  // namespace

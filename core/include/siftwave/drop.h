@@ -85,7 +85,9 @@ struct Dialect {
 
 /// Which source columns play which role (names as in the header, or "column N").
 struct ColumnMapping {
-    std::string date;
+    std::string date;  // with a year and a week column: "YEAR+WEEK" (both names), for display
+    std::string year;  // a date written as a year and a week number: the two columns;
+    std::string week;  // empty otherwise
     std::string region;
     std::vector<std::string> values;  // one per measure column (long), or the region/date columns (wide)
     std::string measure;              // long layout with a measure-name column; empty otherwise
@@ -98,7 +100,9 @@ struct Provenance {
     Dialect dialect;
     Layout layout = Layout::Long;
     ColumnMapping columns;
-    std::string dateFormat;  // the format used: "YYYY-MM-DD", "YYYYMMDD", "DD/MM/YYYY" or "MM/DD/YYYY"
+    /// The format used: "YYYY-MM-DD", "YYYYMMDD", "DD/MM/YYYY", "MM/DD/YYYY", "YYYY-Www", or
+    /// "year+ISO week" / "year+epi week" (a year and a week column).
+    std::string dateFormat;
 };
 
 /// Something the reader noticed but did not treat as fatal.

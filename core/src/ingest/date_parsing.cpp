@@ -83,6 +83,8 @@ const char* dateFormatName(DateFormat format) {
             return "MM/DD/YYYY";
         case DateFormat::IsoWeek:
             return "YYYY-Www";
+        case DateFormat::YearWeek:
+            return "year+week";
         case DateFormat::Unknown:
             break;
     }
@@ -117,6 +119,7 @@ DateShape shapeOfFormat(DateFormat format) {
             return DateShape::Slash;
         case DateFormat::IsoWeek:
             return DateShape::IsoWeek;
+        case DateFormat::YearWeek:
         case DateFormat::Unknown:
             break;
     }
@@ -139,10 +142,51 @@ std::optional<Date> parseDateAs(std::string_view text, DateFormat format) {
             if (!isValidYmd(n1, 1, 4))
                 return std::nullopt;
             return weekStartDate(WeekNumber{n1, n2}, WeekStart::Monday);
+        case DateFormat::YearWeek:
         case DateFormat::Unknown:
             break;
     }
     return std::nullopt;
+}
+
+std::optional<int> yearOfText(std::string_view text) {
+    int year = 0;
+    if (text.size() != 4 || !digitsAt(text, 0, 4, year))
+        return std::nullopt;
+    return year;
+}
+
+std::optional<int> weekNumberOfText(std::string_view text) {
+    int week = 0;
+    if (text.empty() || text.size() > 2 || !digitsAt(text, 0, text.size(), week))
+        return std::nullopt;
+    return week;
+}
+
+YearWeekReading readYearWeek(std::string_view year, std::string_view week, WeekStart start) {
+    YearWeekReading r;
+    const std::optional<int> y = yearOfText(year);
+    const std::optional<int> w = weekNumberOfText(week);
+    if (year.empty())
+        r.problem = YearWeekProblem::EmptyYear;
+    else if (!y)
+        r.problem = YearWeekProblem::NotAYear;
+    else if (week.empty())
+        r.problem = YearWeekProblem::EmptyWeek;
+    else if (!w)
+        r.problem = YearWeekProblem::NotAWeek;
+    r.year = y.value_or(0);
+    r.week = w.value_or(0);
+    if (r.problem != YearWeekProblem::None)
+        return r;
+    if (!isValidYmd(r.year, 1, 4)) {
+        r.problem = YearWeekProblem::OffCalendar;
+        return r;
+    }
+    r.weekStart = weekStartDate(WeekNumber{r.year, r.week}, start);
+    if (!r.weekStart)
+        r.problem = YearWeekProblem::NoSuchWeek;
+    return r;
 }
 
 }  // namespace siftwave::detail

@@ -13,8 +13,18 @@
 // The reader never guesses: if no date in the file has a first number above
 // 12 (then it must be month first) or a second number above 12 (day first),
 // the order is ambiguous and the analyst has to name it.
+//
+// A date may also be written in two cells, a year and a week number (a year
+// column and a week column; see role_detection.h): week W of year Y, read as
+// the week's first day (weekStartDate in time_axis.h) under ISO 8601 weeks or
+// Sunday-start epidemiological weeks, whichever the reader settled on. The
+// year is four digits, the week one or two ("5" or "05"), 1 to 52 or 53 as the
+// year has weeks (weeksInYear). Such a file is weekly by definition.
 
 #include "siftwave/date.h"
+#include "siftwave/time_axis.h"
+
+#include <cstdint>
 
 #include <optional>
 #include <string_view>
@@ -22,7 +32,8 @@
 namespace siftwave::detail {
 
 enum class DateShape { None, Iso, Compact, Slash, IsoWeek };
-enum class DateFormat { Unknown, Iso, Compact, DayFirst, MonthFirst, IsoWeek };
+/// YearWeek: a year cell and a week-number cell (read with readYearWeek, not parseDateAs).
+enum class DateFormat { Unknown, Iso, Compact, DayFirst, MonthFirst, IsoWeek, YearWeek };
 
 /// The syntactic shape of a text (no calendar check). Compact means 8 digits.
 DateShape dateShapeOf(std::string_view text);
@@ -31,13 +42,48 @@ DateShape dateShapeOf(std::string_view text);
 /// (year, month, day for Iso/Compact; first, second, year for Slash).
 bool splitDate(std::string_view text, DateShape shape, int& n1, int& n2, int& n3);
 
-/// "YYYY-MM-DD", "YYYYMMDD", "DD/MM/YYYY", "MM/DD/YYYY", "YYYY-Www" ("" for Unknown).
+/// "YYYY-MM-DD", "YYYYMMDD", "DD/MM/YYYY", "MM/DD/YYYY", "YYYY-Www", "year+week" ("" for
+/// Unknown).
 const char* dateFormatName(DateFormat format);
-/// Parses a format name as above (also accepted: lower case, "D/M/Y", "M/D/Y", "ISO").
+/// Parses a format name as above (also accepted: lower case, "D/M/Y", "M/D/Y", "ISO"); never
+/// YearWeek, which is not a format of one cell.
 std::optional<DateFormat> dateFormatFromName(std::string_view name);
 DateShape shapeOfFormat(DateFormat format);
 
 /// Parses `text` in `format`; nullopt when it has another shape or the day does not exist.
 std::optional<Date> parseDateAs(std::string_view text, DateFormat format);
+
+/// Four ASCII digits: the year they write; nullopt otherwise.
+std::optional<int> yearOfText(std::string_view text);
+/// One or two ASCII digits: the number they write (0 to 99, not checked against 1 to 53);
+/// nullopt otherwise.
+std::optional<int> weekNumberOfText(std::string_view text);
+
+/// What is wrong with a year cell and a week cell, if anything.
+enum class YearWeekProblem : std::uint8_t {
+    None,
+    EmptyYear,
+    EmptyWeek,
+    NotAYear,     // not four digits
+    NotAWeek,     // not one or two digits
+    NoSuchWeek,   // week 0, above 53, or 53 in a year of 52 weeks
+    OffCalendar,  // a year outside the calendar Date supports
+};
+
+struct YearWeekReading {
+    std::optional<Date> weekStart;  // the week's first day; nullopt when there is a problem
+    YearWeekProblem problem = YearWeekProblem::None;
+    int year = 0;  // as read, when the cell is a number
+    int week = 0;
+    /// True when the week cell is the wrong one (false: the year cell).
+    bool weekCellWrong() const {
+        return problem == YearWeekProblem::EmptyWeek || problem == YearWeekProblem::NotAWeek ||
+               problem == YearWeekProblem::NoSuchWeek;
+    }
+};
+
+/// Week `week` of year `year` under the convention of `start`. The year cell is checked first:
+/// a row with both cells wrong is reported for its year.
+YearWeekReading readYearWeek(std::string_view year, std::string_view week, WeekStart start);
 
 }  // namespace siftwave::detail

@@ -14,6 +14,17 @@ constexpr std::size_t kCheckAhead = std::size_t{256} << 10;
 constexpr std::size_t kTailBytes = std::size_t{64} << 10;
 constexpr double kMaxCells = 1.5e9;
 
+// Joins a year cell and a week cell into one date key (dateKeyOf): the ASCII unit separator,
+// which no year or week number holds.
+constexpr char kYearWeekSeparator = '\x1f';
+
+std::pair<std::string_view, std::string_view> splitYearWeekKey(std::string_view key) {
+    const std::size_t at = key.find(kYearWeekSeparator);
+    if (at == std::string_view::npos)
+        return {key, {}};
+    return {key.substr(0, at), key.substr(at + 1)};
+}
+
 bool hasEdgeSpace(std::string_view code) {
     return std::isspace(static_cast<unsigned char>(code.front())) ||
            std::isspace(static_cast<unsigned char>(code.back()));
@@ -59,6 +70,8 @@ Status DropReader::admitSlowly(const CsvRecord& record, bool& keep) {
     if (m_roles.layout != Layout::DatesAcross) {
         const std::size_t col = static_cast<std::size_t>(m_roles.dateColumn);
         if (record.fields[col].text.empty()) {
+            if (m_roles.yearWeek())
+                return yearWeekError(dateKeyOf(record.fields, col), line);
             m_log.add("empty date", "the date cell is empty; the row is not read", line, col + 1);
             return Ok{};
         }
@@ -92,8 +105,72 @@ void DropReader::noteNewRegion(std::string_view code, std::uint32_t line) {
     }
 }
 
+std::string_view DropReader::yearWeekKey(std::string_view year, std::string_view week) {
+    m_yearWeekKey.assign(year);
+    m_yearWeekKey += kYearWeekSeparator;
+    m_yearWeekKey.append(week);
+    return m_yearWeekKey;
+}
+
+std::optional<Date> DropReader::parseDateIn(std::string_view text, DateFormat format) const {
+    if (format != DateFormat::YearWeek)
+        return parseDateAs(text, format);
+    const auto [year, week] = splitYearWeekKey(text);
+    return readYearWeek(year, week, m_yearWeekStart).weekStart;
+}
+
+Error DropReader::yearWeekError(std::string_view key, std::uint64_t line) const {
+    const auto [yearText, weekText] = splitYearWeekKey(key);
+    const YearWeekReading r = readYearWeek(yearText, weekText, m_yearWeekStart);
+    const int cellColumn = r.weekCellWrong() ? m_roles.weekColumn : m_roles.dateColumn;
+    const std::string column = " in the " + std::string(r.weekCellWrong() ? "week" : "year") +
+                               " column " + quoted(columnName(cellColumn));
+    const bool iso = m_yearWeekStart == WeekStart::Monday;
+    const char* weeks = iso ? "ISO 8601 weeks" : "epidemiological weeks (Sunday start)";
+    std::string why;
+    switch (r.problem) {
+        case YearWeekProblem::EmptyYear:
+        case YearWeekProblem::EmptyWeek:
+            why = "the cell" + column + " is empty; every row needs a year and a week number";
+            break;
+        case YearWeekProblem::NotAYear:
+            why = quoted(yearText) + column + " is not a year (four digits, such as 2026)";
+            break;
+        case YearWeekProblem::NotAWeek:
+            why = quoted(weekText) + column + " is not a week number (a whole number, 1 to 53)";
+            break;
+        case YearWeekProblem::NoSuchWeek:
+            if (r.week < 1 || r.week > 53) {
+                why = "week " + std::to_string(r.week) + column +
+                      " does not exist: weeks are numbered 1 to 52 or 53";
+            } else if (r.week > weeksInYear(r.year, m_yearWeekStart)) {
+                const WeekStart other = iso ? WeekStart::Sunday : WeekStart::Monday;
+                why = "week " + std::to_string(r.week) + column +
+                      " does not exist: " + std::to_string(r.year) + " has " +
+                      std::to_string(weeksInYear(r.year, m_yearWeekStart)) + " " + weeks;
+                if (weeksInYear(r.year, other) >= r.week)
+                    why += iso ? " (it has 53 Sunday-start epidemiological weeks: if these are "
+                                 "such weeks, pass --week-start sunday)"
+                               : " (it has 53 ISO 8601 weeks: if these are ISO weeks, pass "
+                                 "--week-start monday)";
+            } else {
+                why = "week " + std::to_string(r.week) + " of " + std::to_string(r.year) +
+                      " is outside the calendar";
+            }
+            break;
+        case YearWeekProblem::OffCalendar:
+            why = "year " + std::to_string(r.year) + column + " is outside the calendar";
+            break;
+        case YearWeekProblem::None:
+            break;
+    }
+    return fail(ErrorCode::InvalidValue, why, line, static_cast<std::uint64_t>(cellColumn) + 1);
+}
+
 Error DropReader::dateError(const std::string& text, std::uint64_t line,
                             std::uint64_t column) const {
+    if (m_roles.yearWeek())
+        return yearWeekError(text, line);
     const char* formatName = dateFormatName(m_dateFormat);
     const DateShape shape = dateShapeOf(text);
     std::string why;
@@ -137,7 +214,7 @@ bool DropReader::predictCalendar() {
     std::int32_t lo = std::numeric_limits<std::int32_t>::max();
     std::int32_t hi = std::numeric_limits<std::int32_t>::min();
     auto see = [&](std::string_view text) {
-        if (std::optional<Date> d = parseDateAs(text, format)) {
+        if (std::optional<Date> d = parseDateIn(text, format)) {
             lo = std::min(lo, d->serial);
             hi = std::max(hi, d->serial);
         }
@@ -146,7 +223,9 @@ bool DropReader::predictCalendar() {
     for (const SampleRecord& r : m_sample) {
         if (r.fields.size() != m_names.size())
             continue;
-        see(r.fields[dateCol]);
+        see(m_roles.yearWeek() ? yearWeekKey(r.fields[dateCol],
+                                             r.fields[static_cast<std::size_t>(m_roles.weekColumn)])
+                               : std::string_view(r.fields[dateCol]));
         sampleRegions.insert(r.fields[regionCol]);
     }
     // The last records: a guess only (the tail may start inside a quoted field).
@@ -161,7 +240,7 @@ bool DropReader::predictCalendar() {
     CsvRecord record;
     while (scanner.next(record)) {
         if (record.fields.size() == m_names.size())
-            see(record.fields[dateCol].text);
+            see(dateKeyOf(record.fields, dateCol));
     }
     if (lo > hi)
         return false;
@@ -213,10 +292,10 @@ Result<bool> DropReader::onePass() {
         const auto line = static_cast<std::uint32_t>(record.line);
         const std::vector<CsvField>& f = record.fields;
 
-        const std::string_view dateText = f[dateCol].text;
+        const std::string_view dateText = dateKeyOf(f, dateCol);
         std::uint32_t di = m_dates.find(dateText);
         if (di == KeyDictionary::kNone) {
-            const std::optional<Date> d = parseDateAs(dateText, m_dateFormat);
+            const std::optional<Date> d = parseDateIn(dateText, m_dateFormat);
             if (!d)
                 return dateError(std::string(dateText), line, dateCol + 1);
             if (d->serial < m_firstSerial || d->serial > last)
@@ -290,10 +369,7 @@ void DropReader::resetForTwoPasses() {
     m_firstEmptyLine = 0;
     m_strayReported = false;
     m_nextCheck = 0;
-    if (!m_options.dateFormat.empty())
-        m_dateFormat = *dateFormatFromName(m_options.dateFormat);
-    else
-        m_dateFormat = DateFormat::Unknown;
+    m_dateFormat = initialDateFormat();
     if (m_file)
         m_file->rewind();
 }
@@ -316,7 +392,7 @@ Status DropReader::keyPass() {
         const auto line = static_cast<std::uint32_t>(record.line);
         bool added = false;
         if (hasDates) {
-            m_dates.intern(record.fields[dateCol].text, added);
+            m_dates.intern(dateKeyOf(record.fields, dateCol), added);
             if (added) {
                 m_dateLine.push_back(line);
                 m_dateColumn.push_back(dateCol + 1);
@@ -421,7 +497,7 @@ Status DropReader::settleDates() {
     std::vector<std::int32_t> serials(n);
     for (std::size_t i = 0; i < n; ++i) {
         const std::string& text = m_dates.key(static_cast<std::uint32_t>(i));
-        std::optional<Date> d = parseDateAs(text, m_dateFormat);
+        std::optional<Date> d = parseDateIn(text, m_dateFormat);
         if (!d)
             return dateError(text, m_dateLine[i], m_dateColumn[i]);
         serials[i] = d->serial;
@@ -559,7 +635,7 @@ Status DropReader::cellPass() {
             continue;
         switch (m_roles.layout) {
             case Layout::Long: {
-                const std::int32_t day = m_dayOfDate[m_dates.find(f[dateCol].text)];
+                const std::int32_t day = m_dayOfDate[m_dates.find(dateKeyOf(f, dateCol))];
                 const std::uint32_t region = m_regions.find(f[regionCol].text);
                 if (measureCol >= 0) {
                     const std::size_t col = static_cast<std::size_t>(m_roles.valueColumns[0]);
@@ -574,7 +650,7 @@ Status DropReader::cellPass() {
                 break;
             }
             case Layout::DatesDown: {
-                const std::int32_t day = m_dayOfDate[m_dates.find(f[dateCol].text)];
+                const std::int32_t day = m_dayOfDate[m_dates.find(dateKeyOf(f, dateCol))];
                 for (std::size_t r = 0; r < m_roles.valueColumns.size(); ++r) {
                     const std::size_t col = static_cast<std::size_t>(m_roles.valueColumns[r]);
                     place(0, static_cast<std::uint32_t>(r), day,
@@ -620,12 +696,15 @@ int namedWeekday(WeekStart start, WeekDate named) {
 Result<DropReader::CalendarPlan> DropReader::planCalendar() {
     CalendarPlan plan;
     plan.axis = TimeAxis::daily(Date{m_firstSerial}, static_cast<std::int32_t>(m_days));
-    const bool labels = m_dateFormat == DateFormat::IsoWeek;
+    // Week labels and a year with a week number name weeks: weekly by definition.
+    const bool yearWeek = m_dateFormat == DateFormat::YearWeek;
+    const bool labels = m_dateFormat == DateFormat::IsoWeek || yearWeek;
     if (m_options.cadence == Cadence::Daily) {
         if (labels)
             return fail(ErrorCode::Usage,
-                        "the dates are ISO week labels (like 2026-W05), which name weeks, not "
-                        "days; leave out --cadence daily",
+                        std::string(yearWeek ? "the dates are a year and a week number"
+                                             : "the dates are ISO week labels (like 2026-W05)") +
+                            ", which name weeks, not days; leave out --cadence daily",
                         m_dateLine.empty() ? 0 : m_dateLine[0],
                         m_dateColumn.empty() ? 0 : m_dateColumn[0]);
         return plan;
@@ -699,12 +778,16 @@ Result<DropReader::CalendarPlan> DropReader::planCalendar() {
         start = *m_options.weekStart;
         named = weekday == namedWeekday(start, WeekDate::End) ? WeekDate::End : WeekDate::Start;
     }
+    if (yearWeek) {
+        start = m_yearWeekStart;  // the dates are the weeks' first days under this convention
+        named = WeekDate::Start;
+    }
     if (m_options.weekDate)
         named = *m_options.weekDate;
     const char* convention = start == WeekStart::Monday
                                  ? "an ISO 8601 week (Monday to Sunday)"
                                  : "an epidemiological week (Sunday to Saturday)";
-    if (weekday != namedWeekday(start, named)) {
+    if (!yearWeek && weekday != namedWeekday(start, named)) {
         m_log.add("week date",
                   std::string("the dates are ") + weekdayName(weekday) + "s, not the " +
                       (named == WeekDate::Start ? "first" : "last") + " day of " + convention +
@@ -728,6 +811,8 @@ Result<DropReader::CalendarPlan> DropReader::planCalendar() {
         const std::int32_t day = m_dayOfDate[i];
         const std::int32_t p = plan.axis.periodOnGrid(Date{m_firstSerial + day});
         std::size_t& other = dateOfPeriod[static_cast<std::size_t>(p)];
+        if (other != n && m_dayOfDate[other] == day)
+            continue;  // two texts of one day ("2026,5" and "2026,05"): one date
         if (other != n) {
             return fail(ErrorCode::InvalidValue,
                         "two dates fall in one week (" + plan.axis.periodDescription(p) +
@@ -756,6 +841,9 @@ Status DropReader::finish() {
         return plan.error();
     m_drop.axis = plan->axis;
     m_drop.source.dateFormat = dateFormatName(m_dateFormat);
+    if (m_dateFormat == DateFormat::YearWeek)
+        m_drop.source.dateFormat =
+            m_yearWeekStart == WeekStart::Monday ? "year+ISO week" : "year+epi week";
     if (m_roles.layout == Layout::DatesDown) {
         for (int c : m_roles.valueColumns)
             m_drop.regionCodes.push_back(m_names[static_cast<std::size_t>(c)]);

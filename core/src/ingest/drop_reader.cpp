@@ -1,6 +1,8 @@
 // readDrop / parseDrop: sniffing and the overall sequence (see drop_reader.h).
 #include "ingest/drop_reader.h"
 
+#include "ingest/header_words.h"
+
 #include <algorithm>
 #include <cctype>
 #include <map>
@@ -227,6 +229,13 @@ Status DropReader::sniff() {
     ColumnMapping& cols = m_drop.source.columns;
     if (m_roles.dateColumn >= 0)
         cols.date = columnName(m_roles.dateColumn);
+    if (m_roles.yearWeek()) {
+        if (Status s = settleYearWeekConvention(); !s)
+            return s;
+        cols.year = columnName(m_roles.dateColumn);
+        cols.week = columnName(m_roles.weekColumn);
+        cols.date = cols.year + "+" + cols.week;
+    }
     if (m_roles.regionColumn >= 0)
         cols.region = columnName(m_roles.regionColumn);
     if (m_roles.measureColumn >= 0)
@@ -249,12 +258,54 @@ Status DropReader::sniff() {
         else
             m_otherMissing.push_back(token);
     }
-    if (!m_options.dateFormat.empty())
-        m_dateFormat = *dateFormatFromName(m_options.dateFormat);
+    m_dateFormat = initialDateFormat();
     m_sampleBytes = sampledUpTo > m_dataStart ? sampledUpTo - m_dataStart : 0;
     m_sample = std::move(records);
     m_sniffLog = m_log;
     return Ok{};
+}
+
+Status DropReader::settleYearWeekConvention() {
+    const HeaderWords year = headerWordsOf(columnName(m_roles.dateColumn));
+    const HeaderWords week = headerWordsOf(columnName(m_roles.weekColumn));
+    if (!m_options.dateFormat.empty()) {
+        return fail(ErrorCode::Usage,
+                    "the dates are a year and a week column (" +
+                        quoted(columnName(m_roles.dateColumn)) + " and " +
+                        quoted(columnName(m_roles.weekColumn)) +
+                        "); --date-format applies to a column of dates, leave it out",
+                    1, static_cast<std::uint64_t>(m_roles.dateColumn) + 1);
+    }
+    if (m_options.weekStart) {
+        m_yearWeekStart = *m_options.weekStart;
+    } else if (year.weekWords == WeekWords::Mmwr || week.weekWords == WeekWords::Mmwr) {
+        m_yearWeekStart = WeekStart::Sunday;  // MMWR weeks start on Sunday by definition
+    } else {
+        m_yearWeekStart = WeekStart::Monday;
+        int epi = -1;  // the column whose name says "epi"
+        if (year.weekWords == WeekWords::Epidemiological)
+            epi = m_roles.dateColumn;
+        else if (week.weekWords == WeekWords::Epidemiological)
+            epi = m_roles.weekColumn;
+        if (epi >= 0) {
+            m_log.add("week convention",
+                      "column " + quoted(columnName(epi)) +
+                          " names epidemiological weeks, which start on Sunday in some "
+                          "countries (the CDC's MMWR weeks) and on Monday in others; they were "
+                          "read as ISO 8601 weeks (Monday start). Pass --week-start sunday for "
+                          "Sunday-start weeks, or --week-start monday to confirm",
+                      1, static_cast<std::uint64_t>(epi) + 1);
+        }
+    }
+    return Ok{};
+}
+
+DateFormat DropReader::initialDateFormat() const {
+    if (m_roles.yearWeek())
+        return DateFormat::YearWeek;
+    if (!m_options.dateFormat.empty())
+        return *dateFormatFromName(m_options.dateFormat);
+    return DateFormat::Unknown;
 }
 
 Status DropReader::checkFieldCount(const CsvRecord& record) {

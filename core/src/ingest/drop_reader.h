@@ -3,7 +3,8 @@
 //
 //  1. sniff (drop_reader.cpp): BOM, delimiter, header, decimal separator,
 //     layout and roles from the first records;
-//  2a. one pass (drop_passes.cpp), for a long file whose dates are ISO 8601:
+//  2a. one pass (drop_passes.cpp), for a long file whose dates are ISO 8601
+//     (or ISO week labels, or a year and a week column):
 //     the calendar is predicted from the first and the last records, the cell
 //     tables are reserved at that size and filled (cell_table_builder.h) while
 //     the region codes are collected. Any date outside the prediction (an unsorted file) abandons
@@ -11,6 +12,8 @@
 //  2b. two passes: a key pass collects region codes, dates and measure names,
 //     the date format is settled (refusing an ambiguous day/month order), then
 //     a cell pass fills the tables allocated at their final size.
+// A date written as a year and a week column is read as one key, the two cells
+// joined (dateKeyOf), so both paths treat it as a date text like any other.
 // Along the first pass the bytes are hashed (SHA-256) and checked for UTF-8.
 // Peak memory is the cell tables plus a window of the file (input_source.h).
 
@@ -54,6 +57,11 @@ private:
     Error syntaxFailure(const CsvSyntaxError& s);
 
     Status sniff();
+    /// A year and a week column: ISO 8601 weeks, or Sunday-start weeks when --week-start or
+    /// the columns' names (MMWR) say so; "epi" in a name is noted as a warning.
+    Status settleYearWeekConvention();
+    /// The date format before any date is read: named, YearWeek, or Unknown (to detect).
+    DateFormat initialDateFormat() const;
     /// True when the one-pass read may be tried; sets the predicted calendar.
     bool predictCalendar();
     /// Ok(true) when done, Ok(false) when the prediction failed (nothing kept).
@@ -95,7 +103,21 @@ private:
     }
     Status admitSlowly(const CsvRecord& record, bool& keep);
     void noteNewRegion(std::string_view code, std::uint32_t line);
+    /// `text` as a date: a date text in `format`, or (YearWeek) a key of dateKeyOf.
+    std::optional<Date> parseDateIn(std::string_view text, DateFormat format) const;
+    /// Why `text` is not a date (for a year and a week, which cell and why; `column` is then
+    /// the cell's own).
     Error dateError(const std::string& text, std::uint64_t line, std::uint64_t column) const;
+    Error yearWeekError(std::string_view key, std::uint64_t line) const;
+
+    /// The text that names a record's date: its date cell, or for a year and a week column
+    /// both cells joined by a unit separator (in m_yearWeekKey, valid until the next call).
+    std::string_view dateKeyOf(const std::vector<CsvField>& f, std::size_t dateCol) {
+        if (m_roles.weekColumn < 0)
+            return f[dateCol].text;
+        return yearWeekKey(f[dateCol].text, f[static_cast<std::size_t>(m_roles.weekColumn)].text);
+    }
+    std::string_view yearWeekKey(std::string_view year, std::string_view week);
     Status checkFieldCount(const CsvRecord& record);
 
     Cell parseCell(std::string_view text, std::uint32_t line, std::uint64_t column) {
@@ -144,6 +166,8 @@ private:
     std::vector<std::uint64_t> m_dateLine, m_dateColumn;  // where each date text was first seen
     std::vector<std::int32_t> m_dayOfDate;                // day index per distinct date text
     DateFormat m_dateFormat = DateFormat::Unknown;
+    WeekStart m_yearWeekStart = WeekStart::Monday;  // a year and a week column: the convention
+    std::string m_yearWeekKey;                      // dateKeyOf's buffer
     std::vector<std::int32_t> m_dayOfColumn;  // dates-across: day index per column (-1: none)
 
     std::int32_t m_firstSerial = 0;  // the calendar: first day and length

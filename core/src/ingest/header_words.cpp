@@ -37,6 +37,40 @@ constexpr std::array kDateWords = std::to_array<std::string_view>({
     "giorno", "settimana", "mese", "anno",                                               // it
 });
 
+/// The year of a date written as a year column and a week-number column (also date words).
+constexpr std::array kYearWords = std::to_array<std::string_view>({
+    "year", "isoyear", "epiyear", "mmwryear",                                            // en
+    "annee",                                                                             // fr
+    "jahr", "meldejahr",                                                                 // de
+    "ano", "anno",                                                                       // es, pt, it
+});
+
+/// The week number of such a date (also date words). "Meldewoche" and "Kalenderwoche" end
+/// with "woche".
+constexpr std::array kWeekWords = std::to_array<std::string_view>({
+    "week", "wk", "isoweek", "epiweek", "mmwrweek",                                      // en
+    "semaine",                                                                           // fr
+    "woche",                                                                             // de
+    "semana", "settimana",                                                               // es, pt, it
+});
+
+/// Week words that are also places: they hint at a week column but never make a trade name
+/// ("KW" is Kalenderwoche and Kuwait's ISO 3166-1 alpha-2 code).
+constexpr std::array kWeekWordsThatArePlaces = std::to_array<std::string_view>({"kw"});
+
+/// Words that say the weeks are the US CDC's MMWR weeks (Sunday start by definition).
+constexpr std::array kMmwrWords = std::to_array<std::string_view>({
+    "mmwr", "mmwrweek", "mmwryear",
+});
+
+/// Words that say the weeks are epidemiological weeks, of either convention.
+constexpr std::array kEpiWords = std::to_array<std::string_view>({
+    "epi", "epiweek", "epiyear", "epidemiological",                                      // en
+    "epidemiologique",                                                                   // fr
+    "epidemiologische",                                                                  // de
+    "epidemiologica", "epidemiologico",                                                  // es, pt, it
+});
+
 /// Columns of counts (the measures of a long file).
 constexpr std::array kCountWords = std::to_array<std::string_view>({
     "case", "death", "count", "value", "number", "confirmed", "positive", "test",         // en
@@ -181,10 +215,24 @@ HeaderWords headerWordsOf(std::string_view name) {
             roles |= static_cast<std::uint8_t>(HeaderRole::Count);
         if (matchesList(w, kMeasureWords))
             roles |= static_cast<std::uint8_t>(HeaderRole::Measure);
+        if (matchesList(w, kYearWords))
+            roles |= static_cast<std::uint8_t>(HeaderRole::Year) |
+                     static_cast<std::uint8_t>(HeaderRole::Date);
+        if (matchesList(w, kWeekWords))
+            roles |= static_cast<std::uint8_t>(HeaderRole::Week) |
+                     static_cast<std::uint8_t>(HeaderRole::Date);
+        const bool mmwr = matchesList(w, kMmwrWords);
+        const bool epi = matchesList(w, kEpiWords);
+        if (mmwr)
+            out.weekWords = WeekWords::Mmwr;
+        else if (epi && out.weekWords == WeekWords::None)
+            out.weekWords = WeekWords::Epidemiological;
         out.roles |= roles;
         if (roles != 0)
             anyRoleWord = true;
-        else if (!matchesList(w, kFillerWords))
+        else if (matchesList(w, kWeekWordsThatArePlaces))
+            out.roles |= static_cast<std::uint8_t>(HeaderRole::Week);
+        if (roles == 0 && !mmwr && !epi && !matchesList(w, kFillerWords))
             allKnown = false;
     }
     out.tradeName = anyRoleWord && allKnown;

@@ -22,6 +22,16 @@
 // even when one of its words is ("Region Hannover", "Orange County",
 // "Rhein-Kreis Neuss", "Region 1", "District of Columbia"), nor is a code
 // ("8336", "NA").
+//
+// Two more roles name the parts of a date written in two columns, a year and a
+// week number ("year,week,region,cases"; role_detection.h): a *year* word
+// ("year", "Jahr", "année", "año", "anno") and a *week* word ("week", "Woche",
+// "semaine", "semana", "settimana", "epiweek", "isoweek"). Either also hints at
+// the date. "KW" (Kalenderwoche) hints at a week but never makes a trade name:
+// it is also Kuwait's ISO 3166-1 code. A name may also say which week convention
+// it counts in: "mmwr" (the US CDC's MMWR weeks, Sunday start by definition) or
+// "epi" ("epiweek", "epi_year", "semana epidemiológica": epidemiological weeks,
+// which start on Sunday in the Americas and on Monday, as ISO weeks, in Europe).
 
 #include <cstdint>
 #include <string_view>
@@ -33,11 +43,21 @@ enum class HeaderRole : std::uint8_t {
     Date = 2,
     Count = 4,
     Measure = 8,
+    Year = 16,  // the year of a date written as a year and a week number
+    Week = 32,  // the week number of such a date
+};
+
+/// The week convention a name's words speak of.
+enum class WeekWords : std::uint8_t {
+    None,
+    Epidemiological,  // "epi", "epiweek", "epidemiological": Sunday or Monday start
+    Mmwr,             // "mmwr", "MMWRweek": the CDC's MMWR weeks, Sunday start
 };
 
 struct HeaderWords {
     std::uint8_t roles = 0;  // the roles (HeaderRole bits) some word of the name hints at
     bool tradeName = false;  // see above: the name is made of words of the trade only
+    WeekWords weekWords = WeekWords::None;  // the week convention a word names
 
     bool hints(HeaderRole role) const { return (roles & static_cast<std::uint8_t>(role)) != 0; }
 };

@@ -13,6 +13,29 @@ Status IngestOptions::validate() const {
         return makeError(
             ErrorCode::Usage,
             "--week-start and --week-date apply to weekly data, not with --cadence daily");
+    const bool yearWeek = !yearColumn.empty() || !weekColumn.empty();
+    if (yearWeek) {
+        if (!dateColumn.empty())
+            return makeError(ErrorCode::Usage,
+                             "--date-col and --year-col/--week-col name two different dates; "
+                             "use --date-col for a column of dates, --year-col and --week-col "
+                             "for a year and a week number");
+        if (!dateFormat.empty())
+            return makeError(ErrorCode::Usage,
+                             "--date-format applies to a column of dates, not to a year and a "
+                             "week column");
+        if (layout && *layout == Layout::DatesAcross)
+            return makeError(ErrorCode::Usage,
+                             "--year-col and --week-col do not apply to the dates-across layout "
+                             "(the dates are the header)");
+        if (cadence == Cadence::Daily)
+            return makeError(ErrorCode::Usage,
+                             "a year and a week number name weeks, not days; --cadence daily "
+                             "does not apply with --year-col or --week-col");
+        if (yearColumn == weekColumn)
+            return makeError(ErrorCode::Usage,
+                             "--year-col and --week-col name the same column '" + yearColumn + "'");
+    }
     if (delimiter) {
         const char d = *delimiter;
         if (d == '"' || d == '\n' || d == '\r' || d == '\0') {

@@ -113,6 +113,7 @@ std::vector<int> unusedColumnsOf(std::size_t columns, const RoleMapping& m) {
             used[static_cast<std::size_t>(c)] = 1;
     };
     mark(m.dateColumn);
+    mark(m.weekColumn);
     mark(m.regionColumn);
     mark(m.measureColumn);
     for (int c : m.valueColumns)
@@ -184,18 +185,26 @@ const std::string* fieldOf(const SampleRecord& r, int column) {
     return c < r.fields.size() ? &r.fields[c] : nullptr;
 }
 
-/// Each row's date as an index among the sample's distinct date texts (-1: no date).
+/// Each row's date as an index among the sample's distinct date texts (-1: no date). With a
+/// week column the date is the year cell and the week cell together.
 std::vector<int> dateIndexOfRows(const std::vector<SampleRecord>& rows, int dateColumn,
-                                 SampleFacts& facts) {
-    std::unordered_map<std::string_view, int> index;
+                                 int weekColumn, SampleFacts& facts) {
+    std::unordered_map<std::string, int> index;
     index.reserve(rows.size());
     std::vector<int> out(rows.size(), -1);
+    std::string key;
     for (std::size_t r = 0; r < rows.size(); ++r) {
         const std::string* f = fieldOf(rows[r], dateColumn);
         if (!f || f->empty())
             continue;
+        key = *f;
+        if (weekColumn >= 0) {
+            const std::string* w = fieldOf(rows[r], weekColumn);
+            key += '\x1f';
+            key += w ? *w : std::string();
+        }
         ++facts.dateCells;
-        out[r] = index.emplace(*f, static_cast<int>(index.size())).first->second;
+        out[r] = index.emplace(key, static_cast<int>(index.size())).first->second;
     }
     facts.distinctDates = static_cast<int>(index.size());
     return out;
@@ -279,7 +288,7 @@ ColumnFacts columnFactsOf(const std::vector<SampleRecord>& rows, int column,
 
 SampleFacts sampleFactsOf(const std::vector<std::string>& names, bool header,
                           const std::vector<SampleRecord>& rows,
-                          std::vector<ColumnProfile> profiles, int dateColumn) {
+                          std::vector<ColumnProfile> profiles, int dateColumn, int weekColumn) {
     SampleFacts facts;
     facts.profiles = std::move(profiles);
     facts.words.resize(names.size());
@@ -290,7 +299,7 @@ SampleFacts sampleFactsOf(const std::vector<std::string>& names, bool header,
     facts.columns.resize(names.size());
     if (dateColumn < 0)
         return facts;
-    const std::vector<int> dateIndex = dateIndexOfRows(rows, dateColumn, facts);
+    const std::vector<int> dateIndex = dateIndexOfRows(rows, dateColumn, weekColumn, facts);
     for (int c = 0; c < static_cast<int>(names.size()); ++c) {
         if (c != dateColumn)
             facts.columns[static_cast<std::size_t>(c)] =
@@ -544,6 +553,145 @@ Status checkRegionCellsAreNotColumnNames(const std::vector<std::string>& names, 
     return Ok{};
 }
 
+/// With a year and a week column: neither is the region, the measure or a value column.
+Status checkYearAndWeekPlayNoOtherRole(const std::vector<std::string>& names,
+                                       const RoleMapping& m) {
+    if (!m.yearWeek())
+        return Ok{};
+    for (int c : {m.dateColumn, m.weekColumn}) {
+        if (c == m.regionColumn || c == m.measureColumn ||
+            std::count(m.valueColumns.begin(), m.valueColumns.end(), c) > 0) {
+            return makeError(ErrorCode::Usage,
+                             "column '" + names[static_cast<std::size_t>(c)] +
+                                 "' is the year or the week of the date, so it cannot be the "
+                                 "region, the measure or a value column");
+        }
+    }
+    return Ok{};
+}
+
+// The years a year column holds in the sample, for detection only (the reader then takes any
+// four-digit year the calendar has): the years of surveillance data, with a margin.
+constexpr int kFirstPlausibleYear = 1900;
+constexpr int kLastPlausibleYear = 2100;
+
+/// The columns that look like the year and the week of a date written in two cells (see
+/// role_detection.h), trade names first.
+struct YearWeekCandidates {
+    std::vector<int> years, weeks;
+};
+
+YearWeekCandidates yearWeekCandidatesOf(const std::vector<std::string>& names, bool header,
+                                        const std::vector<SampleRecord>& rows) {
+    YearWeekCandidates out;
+    if (!header)
+        return out;
+    std::vector<int> tradeYears, tradeWeeks;
+    for (std::size_t c = 0; c < names.size(); ++c) {
+        const HeaderWords w = headerWordsOf(names[c]);
+        const bool yearName =
+            w.hints(HeaderRole::Year) && !w.hints(HeaderRole::Week) && !w.hints(HeaderRole::Count);
+        const bool weekName =
+            w.hints(HeaderRole::Week) && !w.hints(HeaderRole::Year) && !w.hints(HeaderRole::Count);
+        if (!yearName && !weekName)
+            continue;
+        int cells = 0, fits = 0;
+        for (const SampleRecord& r : rows) {
+            const std::string* f = fieldOf(r, static_cast<int>(c));
+            if (!f || f->empty())
+                continue;
+            ++cells;
+            if (yearName) {
+                const std::optional<int> y = yearOfText(*f);
+                fits += y && *y >= kFirstPlausibleYear && *y <= kLastPlausibleYear;
+            } else {
+                const std::optional<int> n = weekNumberOfText(*f);
+                fits += n && *n >= 1 && *n <= 53;
+            }
+        }
+        if (cells == 0 || fits * 2 <= cells)
+            continue;  // most cells must fit: a stray one is then reported where it is
+        std::vector<int>& list = yearName ? (w.tradeName ? tradeYears : out.years)
+                                          : (w.tradeName ? tradeWeeks : out.weeks);
+        list.push_back(static_cast<int>(c));
+    }
+    out.years.insert(out.years.begin(), tradeYears.begin(), tradeYears.end());
+    out.weeks.insert(out.weeks.begin(), tradeWeeks.begin(), tradeWeeks.end());
+    return out;
+}
+
+struct YearWeekColumns {
+    int year = -1;
+    int week = -1;
+    bool found() const { return year >= 0 && week >= 0; }
+};
+
+/// The year and week columns: named (--year-col, --week-col), or the first candidates; one
+/// named detects the other, and then it must be found.
+Result<YearWeekColumns> chooseYearWeekColumns(const std::vector<std::string>& names,
+                                              const YearWeekCandidates& candidates,
+                                              const IngestOptions& options) {
+    YearWeekColumns out;
+    if (!options.yearColumn.empty()) {
+        Result<int> c = findColumn(names, options.yearColumn, "--year-col");
+        if (!c)
+            return c.error();
+        out.year = *c;
+    }
+    if (!options.weekColumn.empty()) {
+        Result<int> c = findColumn(names, options.weekColumn, "--week-col");
+        if (!c)
+            return c.error();
+        out.week = *c;
+    }
+    if (out.year >= 0 && out.year == out.week)
+        return makeError(ErrorCode::Usage, "--year-col and --week-col name the same column '" +
+                                               names[static_cast<std::size_t>(out.year)] + "'");
+    for (int c : candidates.years) {
+        if (out.year < 0 && c != out.week)
+            out.year = c;
+    }
+    for (int c : candidates.weeks) {
+        if (out.week < 0 && c != out.year)
+            out.week = c;
+    }
+    if (options.yearColumn.empty() && options.weekColumn.empty())
+        return out;
+    if (out.year < 0)
+        return makeError(ErrorCode::Usage,
+                         "--week-col names '" + options.weekColumn +
+                             "', but no column is named as a year (year, Jahr, année, año, "
+                             "anno) with four-digit years in its cells; name it with --year-col");
+    if (out.week < 0)
+        return makeError(ErrorCode::Usage,
+                         "--year-col names '" + options.yearColumn +
+                             "', but no column is named as a week (week, Woche, semaine, "
+                             "semana, settimana, KW) with week numbers 1 to 53 in its cells; "
+                             "name it with --week-col");
+    return out;
+}
+
+/// No column holds dates, nor a year and a week: what was looked for, and the flags.
+Error noDateColumnError(const std::vector<std::string>& names, const YearWeekCandidates& candidates,
+                        std::size_t sampleRows) {
+    std::string message =
+        "no column holds dates (YYYY-MM-DD, YYYYMMDD, D/M/Y, M/D/Y or YYYY-Www) in the first " +
+        std::to_string(sampleRows) + " rows";
+    if (!candidates.weeks.empty())
+        message += "; column " +
+                   quotedName(names[static_cast<std::size_t>(candidates.weeks.front())]) +
+                   " holds week numbers, but no column holds their year";
+    else if (!candidates.years.empty())
+        message += "; column " +
+                   quotedName(names[static_cast<std::size_t>(candidates.years.front())]) +
+                   " holds years, but no column holds week numbers";
+    return makeError(ErrorCode::Layout,
+                     message +
+                         "; name the date column with --date-col, or a year and a week-number "
+                         "column with --year-col and --week-col, or use --layout dates-across "
+                         "if the dates are in the header");
+}
+
 Result<RoleMapping> mapDatesAcross(const std::vector<std::string>& names, bool header,
                                    const std::vector<int>& headerDates,
                                    const IngestOptions& options) {
@@ -583,8 +731,9 @@ Result<RoleMapping> mapDatesAcross(const std::vector<std::string>& names, bool h
     return m;
 }
 
+/// The column of dates: named, or detected (-1 when no column holds dates).
 Result<int> chooseDateColumn(const std::vector<std::string>& names, bool header,
-                             const std::vector<ColumnProfile>& profiles, std::size_t sampleRows,
+                             const std::vector<ColumnProfile>& profiles,
                              const IngestOptions& options) {
     if (!options.dateColumn.empty())
         return findColumn(names, options.dateColumn, "--date-col");
@@ -593,14 +742,8 @@ Result<int> chooseDateColumn(const std::vector<std::string>& names, bool header,
         if (isDateColumn(profiles[c]))
             candidates.push_back(static_cast<int>(c));
     }
-    if (candidates.empty()) {
-        return makeError(
-            ErrorCode::Layout,
-            "no column holds dates (YYYY-MM-DD, YYYYMMDD, D/M/Y or M/D/Y) in the first " +
-                std::to_string(sampleRows) +
-                " rows; name the date column with --date-col, or use --layout dates-across if "
-                "the dates are in the header");
-    }
+    if (candidates.empty())
+        return -1;
     if (header) {
         for (int c : candidates) {
             if (headerWordsOf(names[static_cast<std::size_t>(c)]).hints(HeaderRole::Date))
@@ -626,6 +769,8 @@ Result<RoleMapping> mapDatesDown(RoleMapping m, const std::vector<std::string>& 
                          "the dates-down layout needs a header row with the region codes");
     if (m.valueColumns.empty())
         return makeError(ErrorCode::Layout, "there is no region column besides the dates");
+    if (Status s = checkYearAndWeekPlayNoOtherRole(names, m); !s)
+        return s.error();
     m.unusedColumns = unusedColumnsOf(names.size(), m);
     return m;
 }
@@ -715,6 +860,8 @@ Result<RoleMapping> mapLong(RoleMapping m, const std::vector<std::string>& names
         return makeError(ErrorCode::Usage,
                          "the date, region and measure columns must be different columns");
     }
+    if (Status s = checkYearAndWeekPlayNoOtherRole(names, m); !s)
+        return s.error();
     m.unusedColumns = unusedColumnsOf(names.size(), m);
     return m;
 }
@@ -767,22 +914,40 @@ Result<RoleMapping> detectRoles(const std::vector<std::string>& names, bool head
                 headerDates.push_back(static_cast<int>(c));
         }
     }
-    const bool across = options.layout ? *options.layout == Layout::DatesAcross
-                                       : headerDates.size() >= 2 && options.dateColumn.empty();
+    const bool yearWeekNamed = !options.yearColumn.empty() || !options.weekColumn.empty();
+    const bool across =
+        options.layout ? *options.layout == Layout::DatesAcross
+                       : headerDates.size() >= 2 && options.dateColumn.empty() && !yearWeekNamed;
     if (across)
         return mapDatesAcross(names, header, headerDates, options);
 
+    // The date: a column of dates, or else a year and a week column.
     RoleMapping m;
-    Result<int> date = chooseDateColumn(names, header, profiles, rows.size(), options);
+    const YearWeekCandidates yearWeekLike = yearWeekCandidatesOf(names, header, rows);
+    Result<YearWeekColumns> yearWeek = chooseYearWeekColumns(names, yearWeekLike, options);
+    if (!yearWeek)
+        return yearWeek.error();
+    Result<int> date =
+        yearWeekNamed ? Result<int>(-1) : chooseDateColumn(names, header, profiles, options);
     if (!date)
         return date.error();
-    m.dateColumn = *date;
+    if (*date >= 0) {
+        m.dateColumn = *date;
+    } else if (yearWeek->found()) {
+        m.dateColumn = yearWeek->year;
+        m.weekColumn = yearWeek->week;
+    } else {
+        return noDateColumnError(names, yearWeekLike, rows.size());
+    }
+    // A year and a week beside a column of dates are neither regions nor counts: unused.
     std::vector<int> others;
     for (int c = 0; c < static_cast<int>(columns); ++c) {
-        if (c != m.dateColumn)
+        if (c != m.dateColumn &&
+            (!yearWeek->found() || (c != yearWeek->year && c != yearWeek->week)))
             others.push_back(c);
     }
-    const SampleFacts facts = sampleFactsOf(names, header, rows, std::move(profiles), m.dateColumn);
+    const SampleFacts facts =
+        sampleFactsOf(names, header, rows, std::move(profiles), m.dateColumn, m.weekColumn);
     const RegionChoice region = chooseRegionColumn(facts, others);
 
     Layout layout = Layout::Long;

@@ -10,6 +10,17 @@
 //   - dates-across: two or more header names are dates;
 //   - the date column: the one whose cells are all dates (a name with a date
 //     word, "date", "week", "Meldewoche", "semaine", ..., wins among several);
+//   - a year and a week column, when no column holds dates: the date is then
+//     week W of year Y (date_parsing.h). A year column is named with a year word
+//     ("year", "Jahr", "année", "año", "anno"; header_words.h) and most of its
+//     sample cells are four-digit years from 1900 to 2100; a week column is
+//     named with a week word ("week", "Woche", "semaine", "semana", "KW",
+//     "epiweek", ...) and most of its cells are whole numbers 1 to 53 (a stray
+//     cell is then reported where it is). A name with both words ("yearweek")
+//     or a count word ("cases_week") is neither. Among several, a trade name
+//     wins, then the first. Without a header they must be named (--year-col,
+//     --week-col). Columns like these never become region or value columns,
+//     even when a date column wins over them: they are reported as unused;
 //   - long or dates-down: from the content, in three steps.
 //     1. Either reading may be impossible. Dates-down is impossible without a
 //        header, or when a column it would take as a region holds text or
@@ -61,12 +72,16 @@ namespace siftwave::detail {
 
 struct RoleMapping {
     Layout layout = Layout::Long;
-    int dateColumn = -1;            // long, dates-down
+    int dateColumn = -1;            // long, dates-down; with a year and a week column: the year
+    int weekColumn = -1;            // a date written as a year and a week number: the week
     int regionColumn = -1;          // long, dates-across
     int measureColumn = -1;         // long with a measure-name column
     std::vector<int> valueColumns;  // long: one per measure; dates-down: one per region
     std::vector<int> dateColumns;   // dates-across: columns whose header is a date
     std::vector<int> unusedColumns;
+
+    /// The date is a year column (dateColumn) and a week-number column (weekColumn).
+    bool yearWeek() const { return weekColumn >= 0; }
 };
 
 /// `names`: the header (or "column N"); `rows`: sample data records (header excluded).

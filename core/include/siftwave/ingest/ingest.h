@@ -25,6 +25,14 @@ namespace siftwave {
 struct IngestOptions {
     std::optional<Layout> layout;            // default: detected
     std::string dateColumn;                  // default: detected (header name)
+    /// A date written as a year column and a week-number column (year 2026, week 5), when no
+    /// column holds dates. Default: detected, both by a header word (year, Jahr, année, año,
+    /// anno; week, Woche, semaine, semana, settimana, KW, epiweek, isoweek) and by the cells
+    /// (four-digit years 1900 to 2100; weeks 1 to 53). Naming one detects the other.
+    /// Such a file is weekly: ISO 8601 weeks unless weekStart says Sunday (or the names say
+    /// MMWR). Not with dateColumn, dateFormat, the dates-across layout or cadence daily.
+    std::string yearColumn;
+    std::string weekColumn;
     std::string regionColumn;                // default: detected (header name)
     std::vector<std::string> valueColumns;   // default: detected; each becomes a measure (long layout)
     std::string measureColumn;               // long layout with a measure-name column; default: detected
@@ -34,12 +42,16 @@ struct IngestOptions {
     std::optional<bool> header;              // default: sniffed
     std::vector<std::string> missingTokens{""};  // cells that mean "no value" (default: the empty cell)
     /// The calendar (time_axis.h). Default: detected. Weekly when every date lies 7 days
-    /// apart on one weekday, or the dates are ISO week labels (2026-W05); daily otherwise.
+    /// apart on one weekday, or the dates are ISO week labels (2026-W05) or a year and a
+    /// week column; daily otherwise.
     std::optional<Cadence> cadence;
     /// Weekly: the first day of a week. Default: from the dates' weekday (Monday dates:
     /// ISO weeks; Sunday dates: epidemiological weeks named by their first day, or ISO
     /// weeks named by their last day when the date column's name says "end"; Saturday
-    /// dates: epidemiological weeks named by their last day).
+    /// dates: epidemiological weeks named by their last day). A year and a week column:
+    /// ISO weeks (Monday), or Sunday-start epidemiological weeks when a column's name says
+    /// MMWR (the CDC's weeks); "epiweek" alone leaves ISO weeks and a warning, since
+    /// epidemiological weeks start on Sunday in the Americas and on Monday in Europe.
     std::optional<WeekStart> weekStart;
     /// Weekly: whether a date names the first or the last day of its week (default: as above).
     std::optional<WeekDate> weekDate;
