@@ -319,7 +319,8 @@ Result<FigureSpec> buildFigureSpec(const Drop& drop, const Ledger& ledger, const
             if (const RegionEntry* entry = request.regions->find(request.region);
                 entry && entry->population)
                 population = static_cast<double>(*entry->population);
-        auto fitted = fit::fitSeries({spec.firstDay, spec.cleaned}, *request.fit, population);
+        auto fitted = fit::fitSeries({spec.firstDay, spec.cleaned, drop.axis.periodDays()},
+                                     *request.fit, population);
         if (fitted)
             result = std::move(fitted.value());
         else
