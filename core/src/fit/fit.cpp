@@ -194,9 +194,11 @@ void trailingWindowSums(std::span<const double> P, std::span<double> G, std::siz
 // window period divided by pd, as incidence per day on the window's days, interpolated linearly
 // between the middle days of the periods and held flat before the first middle and after the
 // last; NaN where the periods on both sides are missing. The linearisations (models.h) read a
-// day grid.
-void dailyRatesForStart(std::span<const double> smoothed, int first, int last, int pd,
-                        std::vector<double>& t, std::vector<double>& y) {
+// day grid. Kept out of line, as are the weekly checks and messages below: inlined, they made
+// fitSeries large enough for the compiler to stop inlining its vector appends and the sandwich's
+// Gram sums, which cost the daily batch fit 2% more instructions.
+[[gnu::noinline]] void dailyRatesForStart(std::span<const double> smoothed, int first, int last,
+                                          int pd, std::vector<double>& t, std::vector<double>& y) {
     const int periods = last - first + 1;
     auto rate = [&](int j) {
         j = std::clamp(j, 0, periods - 1);
@@ -218,11 +220,32 @@ void dailyRatesForStart(std::span<const double> smoothed, int first, int last, i
     }
 }
 
+// What a series of periods of this many days cannot be fitted with: a period that is neither a
+// day nor a week, weekday factors on weekly counts. nullopt when the two go together.
+[[gnu::cold]] std::optional<Error> periodMismatch(int periodDays, const FitOptions& o) {
+    if (periodDays != 1 && periodDays != 7) {
+        return makeError(ErrorCode::Usage, "a period of the series must be 1 or 7 days, not " +
+                                               std::to_string(periodDays));
+    }
+    if (periodDays != 1 && o.weekdayFactors) {
+        return makeError(ErrorCode::Usage,
+                         "weekday factors need daily counts: a weekly count holds every weekday "
+                         "once");
+    }
+    return std::nullopt;
+}
+
+// NotFound: `before` + " days" or " weeks" + `after`.
+[[gnu::cold]] Error tooShort(const char* before, int periodDays, const char* after = "") {
+    return makeError(ErrorCode::NotFound,
+                     std::string(before) + (periodDays == 1 ? " days" : " weeks") + after);
+}
+
 // ---------------------------------------------------------------- window choice
 // Why no wave was found, in the period's unit: nothing reached the smallest peak, or no rise
 // and fall was large and long enough.
-Error noWaveError(std::span<const double> counts, std::span<const double> smoothed,
-                  const FitOptions& o, int periodDays) {
+[[gnu::cold]] Error noWaveError(std::span<const double> counts, std::span<const double> smoothed,
+                                const FitOptions& o, int periodDays) {
     const std::vector<double> own =
         o.detection.smoothingWindow == o.smoothingWindow
             ? std::vector<double>()
@@ -376,21 +399,12 @@ Result<FitResult> fitSeries(const Series& series, const FitOptions& o,
     if (auto s = o.validate(); !s)
         return s.error();
     const int pd = series.periodDays;
-    if (pd != 1 && pd != 7) {
-        return makeError(ErrorCode::Usage,
-                         "a period of the series must be 1 or 7 days, not " + std::to_string(pd));
-    }
-    if (pd != 1 && o.weekdayFactors) {
-        return makeError(ErrorCode::Usage,
-                         "weekday factors need daily counts: a weekly count holds every weekday "
-                         "once");
-    }
+    if (pd != 1 && (pd != 7 || o.weekdayFactors))
+        return *periodMismatch(pd, o);
     const auto counts = series.counts;
     const int n = static_cast<int>(counts.size());
-    if (n < 5) {
-        return makeError(ErrorCode::NotFound, pd == 1 ? "the series has fewer than 5 days"
-                                                      : "the series has fewer than 5 weeks");
-    }
+    if (n < 5)
+        return tooShort("the series has fewer than 5", pd);
 
     FitResult res;
     res.model = o.model;
@@ -475,11 +489,8 @@ Result<FitResult> fitSeries(const Series& series, const FitOptions& o,
             y.push_back(v);
             w.push_back(o.weighted ? 1.0 / std::sqrt(std::max(v, 1.0)) : 1.0);
         }
-        if (static_cast<int>(t.size()) <= np + 1) {
-            return makeError(ErrorCode::NotFound,
-                             pd == 1 ? "the window has too few days for this model"
-                                     : "the window has too few weeks for this model");
-        }
+        if (static_cast<int>(t.size()) <= np + 1)
+            return tooShort("the window has too few", pd, " for this model");
         const SmoothedLeastSquares& problem =
             lsq.emplace(model, t, y, w, kernel, res.last - res.first + 1, lsqWorkspace, pd);
         solveLeastSquares(problem, *start, o.solver, sr);
