@@ -38,13 +38,14 @@ json dateInterval(const fit::FitResult& f, const fit::Estimate& e) {
     return json::array({dateOrNull(f, e.lower), dateOrNull(f, e.upper)});
 }
 
-// One row per window day: the fitted incidence and its pointwise 95% interval (delta method,
-// fit.h step 5); lower/upper are null when the covariance is unavailable.
+// One row per window period (day or week, named by its first day): the fitted count of the
+// period and its pointwise 95% interval (delta method, fit.h step 5); lower/upper are null when
+// the covariance is unavailable.
 json curveJson(const fit::FitResult& f) {
     json rows = json::array();
     const bool band = f.fittedLower.size() == f.fitted.size();
     for (std::size_t i = 0; i < f.fitted.size(); ++i) {
-        rows.push_back({{"date", (f.windowFirst() + static_cast<int>(i)).iso()},
+        rows.push_back({{"date", f.periodStart(f.first + static_cast<int>(i)).iso()},
                         {"fitted", number(f.fitted[i])},
                         {"lower", band ? number(f.fittedLower[i]) : json(nullptr)},
                         {"upper", band ? number(f.fittedUpper[i]) : json(nullptr)}});
@@ -66,6 +67,7 @@ json fitJson(const std::string& region, const fit::FitResult& f,
     const auto& d = f.derived;
     j["peak_date"] = dateOrNull(f, d.peakDay.value);
     j["peak_incidence"] = number(d.peakIncidence.value);
+    j["incidence_unit"] = f.incidenceUnit();  // peak_incidence and curve: cases per day or week
     j["wave_size"] = number(d.waveSize.value);
     j["fraction_observed"] = number(d.fractionObserved.value);
     j["start_date"] = dateOrNull(f, d.startDay.value);
@@ -156,8 +158,8 @@ std::string csvNumber(double v) {
 }
 
 const char* kCsvHeader =
-    "region,model,method,window_first,window_last,peak_date,peak_incidence,wave_size,"
-    "fraction_observed,start_date,end_date,fastest_growth_date,doubling_time_days,"
+    "region,model,method,window_first,window_last,peak_date,peak_incidence,incidence_unit,"
+    "wave_size,fraction_observed,start_date,end_date,fastest_growth_date,doubling_time_days,"
     "peak_infectious_load,peak_infectious_load_per_100k,aic,aicc,r2,rmse,converged,parameters,"
     "error";
 
@@ -165,7 +167,7 @@ std::string csvRow(const fit::RegionFit& r) {
     std::vector<std::string> c;
     c.push_back(csvField(r.region));
     if (!r.fit) {
-        for (int i = 0; i < 20; ++i)
+        for (int i = 0; i < 21; ++i)
             c.emplace_back();
         c.push_back(csvField(r.error ? r.error->message : "failed"));
     } else {
@@ -180,6 +182,7 @@ std::string csvRow(const fit::RegionFit& r) {
         c.push_back(f.windowLast().iso());
         c.push_back(date(d.peakDay.value));
         c.push_back(csvNumber(d.peakIncidence.value));
+        c.push_back(f.incidenceUnit());
         c.push_back(csvNumber(d.waveSize.value));
         c.push_back(csvNumber(d.fractionObserved.value));
         c.push_back(date(d.startDay.value));
@@ -207,7 +210,7 @@ std::string csvRow(const fit::RegionFit& r) {
     return line;
 }
 
-void printText(const fit::RegionFit& r) {
+void printText(const fit::RegionFit& r, const TimeAxis& axis) {
     if (!r.fit) {
         std::printf("%s: fit failed: %s\n", r.region.c_str(),
                     r.error ? r.error->message.c_str() : "");
@@ -218,16 +221,25 @@ void printText(const fit::RegionFit& r) {
     auto date = [&](double day) {
         return std::isfinite(day) ? f.dateOf(day).iso() : std::string("-");
     };
-    std::printf("%s: %s by %s, window %s .. %s (%d days)\n", r.region.c_str(),
-                fit::modelName(f.model), fit::methodName(f.method), f.windowFirst().iso().c_str(),
-                f.windowLast().iso().c_str(), f.last - f.first + 1);
+    if (axis.weekly()) {
+        std::printf("%s: %s by %s, window %s .. %s (%d weeks, %s to %s)\n", r.region.c_str(),
+                    fit::modelName(f.model), fit::methodName(f.method),
+                    axis.periodName(f.first).c_str(), axis.periodName(f.last).c_str(),
+                    f.last - f.first + 1, axis.periodStart(f.first).iso().c_str(),
+                    axis.periodEnd(f.last).iso().c_str());
+    } else {
+        std::printf("%s: %s by %s, window %s .. %s (%d days)\n", r.region.c_str(),
+                    fit::modelName(f.model), fit::methodName(f.method),
+                    f.windowFirst().iso().c_str(), f.windowLast().iso().c_str(),
+                    f.last - f.first + 1);
+    }
     for (const auto& p : f.parameters) {
         std::printf("  %-6s %12.4g  se %10.3g  95%% [%.4g, %.4g]\n", p.name.c_str(),
                     p.estimate.value, p.estimate.se, p.estimate.lower, p.estimate.upper);
     }
-    std::printf("  peak            %s (95%% %s .. %s), %.1f cases/day\n",
+    std::printf("  peak            %s (95%% %s .. %s), %.1f cases/%s\n",
                 date(d.peakDay.value).c_str(), date(d.peakDay.lower).c_str(),
-                date(d.peakDay.upper).c_str(), d.peakIncidence.value);
+                date(d.peakDay.upper).c_str(), d.peakIncidence.value, f.incidenceUnit());
     std::printf("  wave size K     %.0f (95%% %.0f .. %.0f), %.1f%% observed\n", d.waveSize.value,
                 d.waveSize.lower, d.waveSize.upper, 100.0 * d.fractionObserved.value);
     std::printf("  start .. end    %s .. %s\n", date(d.startDay.value).c_str(),
@@ -269,9 +281,9 @@ Result<std::pair<int, int>> parseWindow(const std::string& text, const Drop& dro
         return bad();
     auto ia = drop.periodOf(*a), ib = drop.periodOf(*b);
     if (!ia || !ib) {
-        return makeError(ErrorCode::Usage, "--window " + text +
-                                               " lies outside the drop's calendar " +
-                                               drop.axis.first().iso() + " .. " + drop.axis.lastStart().iso());
+        return makeError(ErrorCode::Usage,
+                         "--window " + text + " lies outside the drop's calendar " +
+                             drop.axis.first().iso() + " .. " + drop.axis.lastStart().iso());
     }
     return std::pair{*ia, *ib};
 }
@@ -279,11 +291,12 @@ Result<std::pair<int, int>> parseWindow(const std::string& text, const Drop& dro
 void printUsage(std::FILE* to, const std::vector<FlagSpec>& specs) {
     std::fprintf(to,
                  "usage: siftwave-cli fit FILE (--region CODE | --all) [options] [--json|--csv]\n\n"
-                 "Fits a wave model to each region's daily counts and reports the peak, the wave\n"
-                 "size, how much of it is observed, start and end, growth, and the peak\n"
-                 "infectious load, with 95%% intervals. Exit codes: 0 fitted (with --all, regions\n"
-                 "that fail are reported in the output), 1 bad input or the region failed, 2 wrong "
-                 "usage.\n\n"
+                 "Fits a wave model to each region's daily or weekly counts and reports the peak,\n"
+                 "the wave size, how much of it is observed, start and end, growth, and the peak\n"
+                 "infectious load, with 95%% intervals. Dates and durations are in days; the peak\n"
+                 "incidence is per day or per week as the drop's counts are (incidence_unit).\n"
+                 "Exit codes: 0 fitted (with --all, regions that fail are reported in the\n"
+                 "output), 1 bad input or the region failed, 2 wrong usage.\n\n"
                  "%s\n\noptions:\n%s",
                  fit::caution, formatFlags(specs).c_str());
 }
@@ -302,17 +315,19 @@ int runFit(int argc, char** argv, int first) {
     specs.push_back({"measure", true, false, "NAME", "measure to fit (default: the first)"});
     specs.push_back(
         {"model", true, false, "NAME", "gumbel (default), logistic, richards, lognormal, best"});
-    specs.push_back(
-        {"method", true, false, "NAME", "lsq (default, 7-day centred average), poisson, negbin"});
+    specs.push_back({"method", true, false, "NAME",
+                     "lsq (default; daily counts: 7-day centred average, weekly: the weekly "
+                     "counts), poisson, negbin"});
     specs.push_back(
         {"window", true, false, "FIRST:LAST", "fit window as ISO dates, or auto (default)"});
     specs.push_back({"wave", true, false, "WHICH",
                      "automatic window: largest (default), latest or N (1-based)"});
-    specs.push_back({"weekday", false, false, "", "poisson/negbin: estimate weekday factors"});
+    specs.push_back(
+        {"weekday", false, false, "", "poisson/negbin on daily counts: estimate weekday factors"});
     specs.push_back({"json", false, false, "", "print JSON"});
     specs.push_back({"curve", false, false, "",
-                     "with --json: add \"curve\", the fitted incidence per window day with its "
-                     "pointwise 95% interval"});
+                     "with --json: add \"curve\", the fitted count per window day or week with "
+                     "its pointwise 95% interval"});
     specs.push_back({"csv", false, false, "", "print CSV (RFC 4180), one row per region"});
     specs.push_back({"help", false, false, "", "show this help"});
     bool wantsJson = false;
@@ -413,6 +428,19 @@ int runFit(int argc, char** argv, int first) {
         printError(makeError(ErrorCode::NotFound, "the drop holds no counts to fit"), json);
         return kExitBadInput;
     }
+    if (drop->axis.weekly()) {
+        // The weekly smoothing and wave-detection thresholds (fit.h, waves.h).
+        if (batch.fit.weekdayFactors) {
+            printError(makeError(ErrorCode::Usage,
+                                 "--weekday needs daily counts: a weekly count holds every "
+                                 "weekday once"),
+                       json);
+            return kExitUsage;
+        }
+        const fit::FitOptions weekly = fit::FitOptions::forCadence(Cadence::Weekly);
+        batch.fit.smoothingWindow = weekly.smoothingWindow;
+        batch.fit.detection = weekly.detection;
+    }
     if (auto w = args->optionalValue("window"); w && *w != "auto") {
         auto win = parseWindow(*w, *drop);
         if (!win) {
@@ -471,7 +499,7 @@ int runFit(int argc, char** argv, int first) {
                 population = static_cast<double>(*e->population);
             }
         }
-        regions[k] = {code, {drop->axis.first(), counts[k]}, population};
+        regions[k] = {code, {drop->axis.first(), counts[k], drop->axis.periodDays()}, population};
     }
     const auto results = fit::fitRegions(regions, batch);
 
@@ -503,7 +531,7 @@ int runFit(int argc, char** argv, int first) {
         std::fprintf(stderr, "siftwave-cli: %s\n", fit::caution);
     } else {
         for (const auto& r : results)
-            printText(r);
+            printText(r, drop->axis);
         std::printf("\nCaution: %s\n", fit::caution);
     }
     return kExitOk;

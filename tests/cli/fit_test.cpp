@@ -1,4 +1,5 @@
-// End-to-end: siftwave-cli fit on the invented sample drop (samples/, see samples/README.md).
+// End-to-end: siftwave-cli fit on the invented sample drop (samples/, see samples/README.md)
+// and on real weekly data (tests/data/real/SOURCES.md).
 #include "siftwave/fit/fit.h"
 #include "siftwave/date.h"
 
@@ -8,6 +9,7 @@
 #include <sys/wait.h>
 #include <algorithm>
 #include <array>
+#include <cmath>
 #include <cstdio>
 #include <cstdlib>
 #include <fstream>
@@ -213,6 +215,59 @@ TEST(CliFit, LedgerExclusionsLeaveTheExcludedDaysOutOfTheFit) {
     EXPECT_NE(a["parameters"]["K"]["value"].get<double>(),
               b["parameters"]["K"]["value"].get<double>());
     std::remove(ledger.c_str());
+}
+
+// Real weekly data: r-cran-surveillance 1.20.3, dataset fluBYBW (weekly influenza notifications
+// by district; tests/data/real/SOURCES.md), read as ISO weeks. The fit says weeks: the peak
+// incidence is per week (incidence_unit), the curve has one row per week, named by its Monday,
+// and the wave size is in cases, within what the window's counts hold.
+const std::string kWeekly =
+    std::string(SIFTWAVE_TEST_DATA_DIR) + "/real/fluBYBW_weekly_long_by_date.csv";
+
+TEST(CliFit, WeeklyFileIsFittedInWeeksAndSaysSo) {
+    const CliRun r = run(kWeekly + " --region 8315 --json --curve");
+    ASSERT_EQ(r.exitCode, 0) << r.out;
+    const auto j = nlohmann::json::parse(r.out);
+    EXPECT_EQ(j["incidence_unit"], "week");
+    const auto first = siftwave::Date::fromIso(j["window"]["first"].get<std::string>());
+    ASSERT_TRUE(first);
+    EXPECT_EQ(first->isoWeekday(), 1);  // ISO weeks start on Monday
+    const auto& curve = j["curve"];
+    ASSERT_GT(curve.size(), 5u);
+    double fitted = 0;
+    for (std::size_t i = 0; i < curve.size(); ++i) {
+        const auto day = siftwave::Date::fromIso(curve[i]["date"].get<std::string>());
+        ASSERT_TRUE(day);
+        EXPECT_EQ(*day - *first, static_cast<int>(7 * i));
+        fitted += curve[i]["fitted"].get<double>();
+    }
+    // 8315 has 37 cases in 2003, 11 in its highest week; read as days its wave size came out
+    // several times that (the issue "Real releases").
+    EXPECT_LE(j["wave_size"].get<double>(), 37.0 + 2 * std::sqrt(37.0));
+    EXPECT_LE(j["peak_incidence"].get<double>(), 11.0 + 2 * std::sqrt(11.0));
+    EXPECT_NEAR(fitted, j["wave_size"].get<double>(), 0.05 * j["wave_size"].get<double>());
+    // The daily sample says days.
+    const CliRun daily = run(kDrop + " --region NA --json");
+    ASSERT_EQ(daily.exitCode, 0);
+    EXPECT_EQ(nlohmann::json::parse(daily.out)["incidence_unit"], "day");
+}
+
+TEST(CliFit, WeeklyTextAndCsvSpeakOfWeeks) {
+    const CliRun text = run(kWeekly + " --region 8315");
+    ASSERT_EQ(text.exitCode, 0);
+    EXPECT_NE(text.out.find("weeks, 2003-"), std::string::npos) << text.out;
+    EXPECT_NE(text.out.find("cases/week"), std::string::npos) << text.out;
+    EXPECT_EQ(text.out.find("cases/day"), std::string::npos) << text.out;
+    const CliRun csv = run(kWeekly + " --all --csv");
+    ASSERT_EQ(csv.exitCode, 0);
+    EXPECT_NE(csv.out.find(",peak_incidence,incidence_unit,wave_size,"), std::string::npos);
+    EXPECT_NE(csv.out.find("\n8315,gumbel,lsq,"), std::string::npos) << csv.out;
+    EXPECT_NE(csv.out.find(",week,"), std::string::npos);
+    // A district without a season is reported with the reason, in weeks.
+    EXPECT_NE(csv.out.find("\n8326,"), std::string::npos);
+    EXPECT_NE(csv.out.find("per week a wave must reach"), std::string::npos) << csv.out;
+    // Weekly counts have no weekday effect to estimate.
+    EXPECT_EQ(run(kWeekly + " --region 8315 --method poisson --weekday").exitCode, 2);
 }
 
 }  // namespace

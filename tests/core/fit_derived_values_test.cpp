@@ -164,7 +164,7 @@ TEST(FitDerivedValues, OptionsRejectInconsistentValuesAsUsageErrors) {
     EXPECT_TRUE(rejected([](FitOptions& o) { o.window = std::pair{10, 5}; }));
     EXPECT_TRUE(rejected([](FitOptions& o) { o.weekdayFactors = true; }));  // with LSQ
     EXPECT_TRUE(rejected([](FitOptions& o) { o.solver.maxIterations = 0; }));
-    EXPECT_TRUE(rejected([](FitOptions& o) { o.detection.minDays = 1; }));
+    EXPECT_TRUE(rejected([](FitOptions& o) { o.detection.minPeriods = 1; }));
     // Weekday factors are fine with a likelihood method.
     FitOptions poisson;
     poisson.method = FitMethod::Poisson;

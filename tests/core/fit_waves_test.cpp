@@ -132,7 +132,7 @@ ZigZag plainZigZag(const std::vector<double>& s, double delta) {
 
 TEST(FitWaves, MatchesThePlainZigZagOnNoisySeriesWithGaps) {
     siftwave::testing::Xorshift64 rng(20261204);
-    const WaveDetectionOptions o;  // minPeak 5, minDays 14: waves with tiny prominence are kept
+    const WaveDetectionOptions o;  // minPeak 5, minPeriods 14: waves with tiny prominence are kept
     int compared = 0, wavesSeen = 0;
     for (int trial = 0; trial < 400; ++trial) {
         const int n = 20 + static_cast<int>(rng.below(600));
@@ -184,7 +184,7 @@ TEST(FitWaves, MatchesThePlainZigZagOnNoisySeriesWithGaps) {
             w.last = k + 1 < z.peaks.size() ? z.troughs[k + 1] : lastFinite;
             w.troughSeen = k + 1 < z.peaks.size();
             w.peakConfirmed = !(z.openRise && k + 1 == z.peaks.size());
-            if (w.peakValue >= o.minPeak && w.last - w.first + 1 >= o.minDays)
+            if (w.peakValue >= o.minPeak && w.last - w.first + 1 >= o.minPeriods)
                 expected.push_back(w);
         }
         const auto got = detectWavesInSmoothed(s, o);
@@ -211,7 +211,7 @@ TEST(FitWaves, OptionsAreValidated) {
     o.minProminenceShare = 1.5;
     EXPECT_FALSE(o.validate().ok());
     o = {};
-    o.minDays = 1;
+    o.minPeriods = 1;
     EXPECT_FALSE(o.validate().ok());
 }
 

@@ -91,26 +91,33 @@ Result<CurveBand> curveBand(const FitResult& fit, int firstDay, int lastDay, dou
     if (lastDay < firstDay)
         return makeError(ErrorCode::Usage, "the band's last day lies before its first day");
     if (static_cast<long long>(lastDay) - firstDay >= 100000)
-        return makeError(ErrorCode::Usage, "the band spans more than 100,000 days");
+        return makeError(ErrorCode::Usage, "the band spans more than 100,000 periods");
     const WaveModel& model = waveModel(fit.model);
     const int np = model.parameterCount();
     const std::vector<double> p = fit.parameterValues();
     if (static_cast<int>(p.size()) != np || !model.valid(p))
         return makeError(ErrorCode::Usage, "the fit has no valid parameters to draw a band from");
+    if (fit.periodDays != 1 && fit.periodDays != 7)
+        return makeError(ErrorCode::Usage, "the fit's period must be 1 or 7 days");
 
-    const std::size_t days = static_cast<std::size_t>(lastDay - firstDay) + 1;
+    const std::size_t days = static_cast<std::size_t>(lastDay - firstDay) + 1;  // periods
     CurveBand band;
     band.first = firstDay;
     band.fitted.resize(days);
-    std::vector<double> t(days);
-    for (std::size_t i = 0; i < days; ++i)
-        t[i] = static_cast<double>(firstDay - fit.first) + static_cast<double>(i);
-    if (!detail::covarianceUsable(fit.covariance, np)) {
-        model.incidence(t, p, band.fitted);
-        return band;
+    const bool usable = detail::covarianceUsable(fit.covariance, np);
+    std::vector<double> jacobian(usable ? days * static_cast<std::size_t>(np) : 0);
+    if (fit.periodDays == 1) {
+        std::vector<double> t(days);
+        for (std::size_t i = 0; i < days; ++i)
+            t[i] = static_cast<double>(firstDay - fit.first) + static_cast<double>(i);
+        model.incidence(t, p, band.fitted, jacobian);
+    } else {
+        // Each week's expected count, the model's time in days from the window's first day.
+        const double t0 = static_cast<double>(firstDay - fit.first) * fit.periodDays;
+        model.countsOnPeriods(t0, fit.periodDays, p, band.fitted, jacobian);
     }
-    std::vector<double> jacobian(days * static_cast<std::size_t>(np));
-    model.incidence(t, p, band.fitted, jacobian);
+    if (!usable)
+        return band;
     const int dof = fit.goodness.observations - np;
     const double q = detail::intervalQuantile(fit.method, dof, level);
     band.lower.resize(days);

@@ -86,18 +86,30 @@ double peakInfectiousLoadDay(const WaveModel& model, std::span<const double> p, 
     return best;
 }
 
+// The peak incidence per period: K f at the peak for days; for longer periods the expected count
+// of the period of that many days centred on the peak day (fit.h, "Derived quantities").
+double peakIncidencePerPeriod(const WaveModel& model, std::span<const double> p, double peak,
+                              int periodDays) {
+    if (periodDays == 1)
+        return model.incidenceAt(peak, p);
+    double count = 0;
+    model.countsOnPeriods(peak - 0.5 * (periodDays - 1), periodDays, p,
+                          std::span<double>(&count, 1));
+    return count;
+}
+
 // `loadDay`: where the infectious load peaks. Searched (and returned) when `searchLoad`; given
 // otherwise, and the load is taken there. The delta method uses the latter, which is exact to
 // first order (the envelope theorem: at a maximum the derivative of the location does not
-// enter).
+// enter). `lastDataDay`: the last day with data, counted from the window's first day.
 std::array<double, kDerivedCount> derive(const WaveModel& model, std::span<const double> p,
-                                         const FitOptions& o, double lastDataDay, double& loadDay,
-                                         bool searchLoad) {
+                                         const FitOptions& o, int periodDays, double lastDataDay,
+                                         double& loadDay, bool searchLoad) {
     std::array<double, kDerivedCount> d{};
     const double K = p[0];
     const double peak = model.peakTime(p);
     d[kPeakDay] = peak;
-    d[kPeakIncidence] = model.incidenceAt(peak, p);
+    d[kPeakIncidence] = peakIncidencePerPeriod(model, p, peak, periodDays);
     d[kWaveSize] = K;
     d[kFraction] = model.cumulative(lastDataDay + 0.5, p) / K;
     d[kStart] = model.quantileTime(o.startQuantile, p);
@@ -108,6 +120,7 @@ std::array<double, kDerivedCount> derive(const WaveModel& model, std::span<const
     const double f1 = model.incidenceAt(d[kStart] + h, p), f0 = model.incidenceAt(d[kStart] - h, p);
     const double growth = (f1 > 0 && f0 > 0) ? (std::log(f1) - std::log(f0)) / (2 * h) : kNaN;
     d[kDoubling] = growth > 0 ? std::numbers::ln2 / growth : kNaN;
+    // In days for every cadence: the model's daily curve summed over W days (fit.h).
     const int W = o.infectiousWindowDays;
     if (searchLoad)
         loadDay = peakInfectiousLoadDay(model, p, peak, W);
@@ -177,10 +190,89 @@ void trailingWindowSums(std::span<const double> P, std::span<double> G, std::siz
     }
 }
 
+// The start of a fit to counts of periods of `pd` days (pd > 1): the smoothed count of each
+// window period divided by pd, as incidence per day on the window's days, interpolated linearly
+// between the middle days of the periods and held flat before the first middle and after the
+// last; NaN where the periods on both sides are missing. The linearisations (models.h) read a
+// day grid. Kept out of line, as are the weekly checks and messages below: inlined, they made
+// fitSeries large enough for the compiler to stop inlining its vector appends and the sandwich's
+// Gram sums, which cost the daily batch fit 2% more instructions.
+[[gnu::noinline]] void dailyRatesForStart(std::span<const double> smoothed, int first, int last,
+                                          int pd, std::vector<double>& t, std::vector<double>& y) {
+    const int periods = last - first + 1;
+    auto rate = [&](int j) {
+        j = std::clamp(j, 0, periods - 1);
+        return smoothed[static_cast<std::size_t>(first + j)] / pd;
+    };
+    const double middle = 0.5 * (pd - 1);
+    for (int day = 0; day < periods * pd; ++day) {
+        const double x = (day - middle) / pd;  // position in periods, 0 at the first middle
+        const int j = static_cast<int>(std::floor(x));
+        const double share = x - j;
+        const double a = rate(j), b = rate(j + 1);
+        double v = (1.0 - share) * a + share * b;
+        if (!std::isfinite(a))
+            v = b;
+        else if (!std::isfinite(b))
+            v = a;
+        t.push_back(day);
+        y.push_back(v);
+    }
+}
+
+// What a series of periods of this many days cannot be fitted with: a period that is neither a
+// day nor a week, weekday factors on weekly counts. nullopt when the two go together.
+[[gnu::cold]] std::optional<Error> periodMismatch(int periodDays, const FitOptions& o) {
+    if (periodDays != 1 && periodDays != 7) {
+        return makeError(ErrorCode::Usage, "a period of the series must be 1 or 7 days, not " +
+                                               std::to_string(periodDays));
+    }
+    if (periodDays != 1 && o.weekdayFactors) {
+        return makeError(ErrorCode::Usage,
+                         "weekday factors need daily counts: a weekly count holds every weekday "
+                         "once");
+    }
+    return std::nullopt;
+}
+
+// NotFound: `before` + " days" or " weeks" + `after`.
+[[gnu::cold]] Error tooShort(const char* before, int periodDays, const char* after = "") {
+    return makeError(ErrorCode::NotFound,
+                     std::string(before) + (periodDays == 1 ? " days" : " weeks") + after);
+}
+
 // ---------------------------------------------------------------- window choice
+// Why no wave was found, in the period's unit: nothing reached the smallest peak, or no rise
+// and fall was large and long enough.
+[[gnu::cold]] Error noWaveError(std::span<const double> counts, std::span<const double> smoothed,
+                                const FitOptions& o, int periodDays) {
+    const std::vector<double> own =
+        o.detection.smoothingWindow == o.smoothingWindow
+            ? std::vector<double>()
+            : series::centredMovingAverage(counts, o.detection.smoothingWindow);
+    const std::span<const double> s = own.empty() ? smoothed : std::span<const double>(own);
+    double top = 0;
+    for (double v : s)
+        top = std::isfinite(v) ? std::max(top, v) : top;
+    const char* unit = periodDays == 7 ? "week" : "day";
+    char buf[256];
+    if (top < o.detection.minPeak) {
+        std::snprintf(buf, sizeof buf,
+                      "no wave found: the highest %d-%s centred average of the counts is %.2g per "
+                      "%s, below the %.3g per %s a wave must reach (give the window as FIRST:LAST)",
+                      o.detection.smoothingWindow, unit, top, unit, o.detection.minPeak, unit);
+    } else {
+        std::snprintf(buf, sizeof buf,
+                      "no wave found: the smoothed series never rises and falls by the required "
+                      "share over at least %d %ss (give the window as FIRST:LAST)",
+                      o.detection.minPeriods, unit);
+    }
+    return makeError(ErrorCode::NotFound, buf);
+}
+
 Result<std::pair<int, int>> chooseWindow(std::span<const double> counts,
                                          std::span<const double> smoothed, const FitOptions& o,
-                                         std::vector<Wave>& waves) {
+                                         int periodDays, std::vector<Wave>& waves) {
     waves = o.detection.smoothingWindow == o.smoothingWindow
                 ? detectWavesInSmoothed(smoothed, o.detection)
                 : detectWaves(counts, o.detection);
@@ -194,11 +286,8 @@ Result<std::pair<int, int>> chooseWindow(std::span<const double> counts,
         }
         return std::pair{a, b};
     }
-    if (waves.empty()) {
-        return makeError(ErrorCode::NotFound,
-                         "no wave found: the smoothed series never rises by the required share "
-                         "(give the window as FIRST:LAST)");
-    }
+    if (waves.empty())
+        return noWaveError(counts, smoothed, o, periodDays);
     const Wave* chosen = &waves.front();
     switch (o.wave) {
         case WaveChoice::Largest:
@@ -245,9 +334,19 @@ std::optional<FitMethod> methodFromName(std::string_view name) {
     return std::nullopt;
 }
 
+FitOptions FitOptions::forCadence(Cadence cadence) {
+    FitOptions o;
+    if (cadence == Cadence::Weekly) {
+        o.smoothingWindow = 1;
+        o.detection = WaveDetectionOptions::forCadence(cadence);
+    }
+    return o;
+}
+
 Status FitOptions::validate() const {
     if (smoothingWindow < 1 || smoothingWindow > 365) {
-        return makeError(ErrorCode::Usage, "the smoothing window must be between 1 and 365 days");
+        return makeError(ErrorCode::Usage,
+                         "the smoothing window must be between 1 and 365 periods");
     }
     if (!(startQuantile > 0 && startQuantile < endQuantile && endQuantile < 1)) {
         return makeError(ErrorCode::Usage,
@@ -295,25 +394,29 @@ std::vector<double> FitResult::parameterValues() const {
 }
 
 // ---------------------------------------------------------------- the fit
-Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
+Result<FitResult> fitSeries(const Series& series, const FitOptions& o,
                             std::optional<double> population) {
     if (auto s = o.validate(); !s)
         return s.error();
+    const int pd = series.periodDays;
+    if (pd != 1 && (pd != 7 || o.weekdayFactors))
+        return *periodMismatch(pd, o);
     const auto counts = series.counts;
     const int n = static_cast<int>(counts.size());
     if (n < 5)
-        return makeError(ErrorCode::NotFound, "the series has fewer than 5 days");
+        return tooShort("the series has fewer than 5", pd);
 
     FitResult res;
     res.model = o.model;
     res.method = o.method;
     res.seriesFirstDay = series.firstDay;
+    res.periodDays = pd;
     res.options = o;
     // The centred average (partial edges), shared by wave detection, the start and the target.
     thread_local std::vector<double> smoothedPartial;
     series::centredMovingAverage(counts, std::max(o.smoothingWindow, 1), series::EdgeRule::Partial,
                                  smoothedPartial);
-    auto window = chooseWindow(counts, smoothedPartial, o, res.waves);
+    auto window = chooseWindow(counts, smoothedPartial, o, pd, res.waves);
     if (!window)
         return window.error();
     res.first = window->first;
@@ -331,7 +434,9 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
             break;
         }
     }
-    const double lastDataDay = lastData - res.first;
+    // The last day with data, from the window's first day: for weekly data the last day of the
+    // last week with a count.
+    const double lastDataDay = (lastData - res.first) * pd + (pd - 1);
 
     // Working vectors are kept per thread: a batch fit runs this thousands of times, and fresh
     // allocations of these sizes cost more than the arithmetic that fills them.
@@ -344,10 +449,14 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     y.clear();
     w.clear();
 
-    // Starting values from the centred average over the window.
-    for (int i = res.first; i <= res.last; ++i) {
-        tAll.push_back(i - res.first);
-        yAll.push_back(smoothedPartial[static_cast<std::size_t>(i)]);
+    // Starting values from the centred average over the window, as incidence per day.
+    if (pd == 1) {
+        for (int i = res.first; i <= res.last; ++i) {
+            tAll.push_back(i - res.first);
+            yAll.push_back(smoothedPartial[static_cast<std::size_t>(i)]);
+        }
+    } else {
+        dailyRatesForStart(smoothedPartial, res.first, res.last, pd, tAll, yAll);
     }
     auto start = model.initialGuess(tAll, yAll);
     if (!start) {
@@ -358,8 +467,9 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     std::vector<double> params;
     std::vector<double> covariance;  // model parameters, np x np
     int dof = 0;
-    // The model and its Jacobian on every window day and, for LSQ, the h days either side that
-    // the centred average reaches: shared by the sandwich, the fitted curve and its band.
+    // The model and its Jacobian on every window period and, for LSQ, the h periods either side
+    // that the centred average reaches: shared by the sandwich, the fitted curve and its band.
+    // (The names say "days": for weekly data each is a period, its value the week's count.)
     const std::vector<double> kernel = centredKernel(o.smoothingWindow);
     const int h = o.method == FitMethod::LeastSquares ? static_cast<int>(kernel.size()) / 2 : 0;
     const int modelFirst = res.first - h;
@@ -379,11 +489,10 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
             y.push_back(v);
             w.push_back(o.weighted ? 1.0 / std::sqrt(std::max(v, 1.0)) : 1.0);
         }
-        if (static_cast<int>(t.size()) <= np + 1) {
-            return makeError(ErrorCode::NotFound, "the window has too few days for this model");
-        }
+        if (static_cast<int>(t.size()) <= np + 1)
+            return tooShort("the window has too few", pd, " for this model");
         const SmoothedLeastSquares& problem =
-            lsq.emplace(model, t, y, w, kernel, res.last - res.first + 1, lsqWorkspace);
+            lsq.emplace(model, t, y, w, kernel, res.last - res.first + 1, lsqWorkspace, pd);
         solveLeastSquares(problem, *start, o.solver, sr);
         if (sr.summary.termination == Termination::InvalidStart) {
             return makeError(ErrorCode::Numerical, "the model cannot be evaluated at its start");
@@ -489,7 +598,7 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
         g.logLikelihood = -0.5 * m * (std::log(2.0 * std::numbers::pi * wrss / m) + 1.0);
     } else {
         detail::LikelihoodFit lf =
-            detail::fitLikelihood(model, counts, series.firstDay, res.first, res.last, *start, o);
+            detail::fitLikelihood(model, series, res.first, res.last, *start, o);
         if (!lf.ok)
             return makeError(ErrorCode::Numerical, lf.message);
         params = lf.parameters;
@@ -505,7 +614,7 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
         modelStorage.resize(modelDays * static_cast<std::size_t>(np + 1));
         const std::span<double> values(modelStorage.data(), modelDays),
             jacobian(modelStorage.data() + modelDays, modelDays * static_cast<std::size_t>(np));
-        model.incidenceOnDays(0.0, params, values, jacobian);
+        model.countsOnPeriods(0.0, pd, params, values, jacobian);
         modelValues = values;
         modelJacobian = jacobian;
     }
@@ -555,7 +664,7 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
 
     // Derived quantities, delta method.
     double loadDay = 0;
-    const auto d0 = derive(model, params, o, lastDataDay, loadDay, true);
+    const auto d0 = derive(model, params, o, pd, lastDataDay, loadDay, true);
     std::array<double, kDerivedCount> se;
     se.fill(kNaN);
     if (o.derivedIntervals && haveCov) {
@@ -590,8 +699,8 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
                 grad.col(j).setConstant(kNaN);
                 continue;
             }
-            const auto du = derive(model, up, o, lastDataDay, loadDay, false);
-            const auto dd = derive(model, down, o, lastDataDay, loadDay, false);
+            const auto du = derive(model, up, o, pd, lastDataDay, loadDay, false);
+            const auto dd = derive(model, down, o, pd, lastDataDay, loadDay, false);
             for (int k = 0; k < kDerivedCount; ++k)
                 grad(k, j) = (du[k] - dd[k]) / (2 * step);
         }
@@ -621,19 +730,26 @@ Result<FitResult> fitSeries(const DailySeries& series, const FitOptions& o,
     }
 
     // Notes a reader should see.
-    if (d0[kPeakDay] < 0 || d0[kPeakDay] > res.last - res.first) {
+    if (d0[kPeakDay] < 0 || d0[kPeakDay] > (res.last - res.first) * pd + (pd - 1)) {
         res.summary.notes.push_back("the fitted peak lies outside the window");
     }
     if (d0[kFraction] < 0.5) {
         res.summary.notes.push_back(
             "less than half of the fitted wave is observed: K is uncertain");
     }
+    // Weekly counts cannot show a wave that rises and falls within a week or two: the fit may
+    // then squeeze it against a week's boundary (start to end in a few days).
+    if (pd > 1 && d0[kEnd] - d0[kStart] < 2.0 * pd) {
+        res.summary.notes.push_back(
+            "the fitted wave runs from start to end in less than two weeks: weekly counts "
+            "cannot resolve its shape or its peak within the week");
+    }
     if (!haveCov)
         res.summary.notes.push_back("standard errors unavailable (singular information)");
     return res;
 }
 
-std::vector<ModelComparisonRow> compareModels(const DailySeries& series, const FitOptions& options,
+std::vector<ModelComparisonRow> compareModels(const Series& series, const FitOptions& options,
                                               std::optional<double> population) {
     std::vector<ModelComparisonRow> rows;
     for (ModelKind kind : kAllModels) {

@@ -14,8 +14,9 @@ constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 constexpr double kPoissonSize = std::numeric_limits<double>::infinity();
 
 struct Observations {
-    std::vector<double> t, y;
-    std::vector<int> weekday;  // 0 = Monday .. 6 = Sunday
+    std::vector<double> t, y;  // t: period index from the window's first period
+    std::vector<int> weekday;  // 0 = Monday .. 6 = Sunday (daily counts; 0 for weekly ones)
+    int periodDays = 1;        // days per period: 1 or 7
 };
 
 // Mean parameters: theta (model) then, with weekday factors, gamma_1..gamma_6.
@@ -38,8 +39,12 @@ public:
         const auto theta = x.first(static_cast<std::size_t>(m_np));
         if (!m_model.valid(theta))
             return false;
-        m_model.incidence(m_obs.t, theta, m_f,
-                          grad.empty() ? std::span<double>{} : std::span<double>(m_jf));
+        if (m_obs.periodDays == 1) {
+            m_model.incidence(m_obs.t, theta, m_f,
+                              grad.empty() ? std::span<double>{} : std::span<double>(m_jf));
+        } else {
+            expectedCountsOfPeriods(theta, !grad.empty());
+        }
         std::array<double, 7> factor{};
         factor.fill(1.0);
         if (m_weekdays) {
@@ -85,6 +90,17 @@ public:
     }
 
 private:
+    // m_f (and m_jf) for periods of several days: the model's count of each observed period.
+    void expectedCountsOfPeriods(std::span<const double> theta, bool withJacobian) const {
+        const int L = m_obs.periodDays;
+        const std::size_t np = static_cast<std::size_t>(m_np);
+        for (std::size_t i = 0; i < m_obs.t.size(); ++i) {
+            m_model.countsOnPeriods(
+                m_obs.t[i] * L, L, theta, std::span<double>(&m_f[i], 1),
+                withJacobian ? std::span<double>(&m_jf[i * np], np) : std::span<double>{});
+        }
+    }
+
     const WaveModel& m_model;
     const Observations& m_obs;
     bool m_weekdays;
@@ -184,22 +200,24 @@ bool score(const MeanModel& mean, const Observations& obs, std::span<const doubl
 
 }  // namespace
 
-LikelihoodFit fitLikelihood(const WaveModel& model, std::span<const double> counts, Date firstDay,
-                            int first, int last, const std::vector<double>& start,
-                            const FitOptions& o) {
+LikelihoodFit fitLikelihood(const WaveModel& model, const Series& series, int first, int last,
+                            const std::vector<double>& start, const FitOptions& o) {
     LikelihoodFit out;
     Observations obs;
+    obs.periodDays = series.periodDays;
+    const bool daily = series.periodDays == 1;
     for (int i = first; i <= last; ++i) {
-        const double v = counts[static_cast<std::size_t>(i)];
+        const double v = series.counts[static_cast<std::size_t>(i)];
         if (!std::isfinite(v) || v < 0)
             continue;  // missing, or a negative correction
         obs.t.push_back(i - first);
         obs.y.push_back(std::round(v));
-        obs.weekday.push_back((firstDay + i).isoWeekday() - 1);
+        obs.weekday.push_back(daily ? (series.firstDay + i).isoWeekday() - 1 : 0);
     }
     const int np = model.parameterCount();
     if (static_cast<int>(obs.t.size()) <= np + (o.weekdayFactors ? 7 : 1)) {
-        out.message = "the window has too few days with counts for this model";
+        out.message = daily ? "the window has too few days with counts for this model"
+                            : "the window has too few weeks with counts for this model";
         return out;
     }
     const bool negbin = o.method == FitMethod::NegativeBinomial;

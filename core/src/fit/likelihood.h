@@ -2,9 +2,11 @@
 // Poisson and negative-binomial maximum likelihood for a wave model (internal).
 //
 // lambda_i = K f(t_i) exp(gamma_{weekday(i)}), sum of the 7 gammas = 0 (geometric mean of the
-// weekday factors 1). The mean parameters minimise the deviance sum d_i^2 with the deviance
-// residuals d_i = sign(y - lambda) sqrt(unit deviance) (McCullagh & Nelder, "Generalized
-// Linear Models", 2nd ed. 1989, sections 2.3 and 11.3 for the negative binomial with size r):
+// weekday factors 1). For weekly counts lambda_i is the model's expected count of week i, the
+// sum of K f over its seven days (WaveModel::countsOnPeriods), with no weekday factors. The mean
+// parameters minimise the deviance sum d_i^2 with the deviance residuals d_i = sign(y - lambda)
+// sqrt(unit deviance) (McCullagh & Nelder, "Generalized Linear Models", 2nd ed. 1989, sections 2.3
+// and 11.3 for the negative binomial with size r):
 //     Poisson  2 [y ln(y/lambda) - (y - lambda)]
 //     NB       2 [y ln(y/lambda) - (y + r) ln((y + r)/(lambda + r))],   Var = lambda + lambda^2/r
 // which at fixed r is maximum likelihood. r is found by golden-section search on the profile
@@ -33,8 +35,8 @@ struct LikelihoodFit {
     GoodnessOfFit goodness;  // aic/aicc filled by the caller
 };
 
-LikelihoodFit fitLikelihood(const WaveModel& model, std::span<const double> counts, Date firstDay,
-                            int first, int last, const std::vector<double>& start,
-                            const FitOptions& options);
+/// Fits periods first..last of `series` (period indices).
+LikelihoodFit fitLikelihood(const WaveModel& model, const Series& series, int first, int last,
+                            const std::vector<double>& start, const FitOptions& options);
 
 }  // namespace siftwave::fit::detail

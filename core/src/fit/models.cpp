@@ -544,6 +544,42 @@ void WaveModel::incidenceOnDays(double t0, std::span<const double> p, std::span<
     incidence(days, p, out, jacobian);
 }
 
+void WaveModel::countsOnPeriods(double t0, int periodDays, std::span<const double> p,
+                                std::span<double> out, std::span<double> jacobian) const {
+    if (periodDays == 1) {
+        incidenceOnDays(t0, p, out, jacobian);
+        return;
+    }
+    // One period at a time on its own day grid, summed day by day in time order: the days'
+    // values and rows fit on the stack (at most 7 days of at most 4 parameters).
+    constexpr std::size_t kMaxDays = 7, kMaxParameters = 4;
+    const std::size_t days = static_cast<std::size_t>(periodDays);
+    const std::size_t np = static_cast<std::size_t>(parameterCount());
+    assert(periodDays >= 1 && days <= kMaxDays && np <= kMaxParameters);
+    assert(jacobian.empty() || jacobian.size() >= out.size() * np);
+    std::array<double, kMaxDays> f{};
+    std::array<double, kMaxDays * kMaxParameters> jf{};
+    const bool withJacobian = !jacobian.empty();
+    for (std::size_t i = 0; i < out.size(); ++i) {
+        const double first = t0 + static_cast<double>(i * days);
+        incidenceOnDays(
+            first, p, std::span<double>(f.data(), days),
+            withJacobian ? std::span<double>(jf.data(), days * np) : std::span<double>{});
+        double sum = 0;
+        for (std::size_t k = 0; k < days; ++k)
+            sum += f[k];
+        out[i] = sum;
+        if (!withJacobian)
+            continue;
+        for (std::size_t j = 0; j < np; ++j) {
+            double column = 0;
+            for (std::size_t k = 0; k < days; ++k)
+                column += jf[k * np + j];
+            jacobian[i * np + j] = column;
+        }
+    }
+}
+
 double WaveModel::fastestGrowthTime(std::span<const double> p) const {
     // The fastest growth is where f' peaks, the inflection point on the rise: f'' > 0 before it
     // and < 0 after, up to the peak. Bisection on the sign of f'' (a central difference)

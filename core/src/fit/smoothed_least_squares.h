@@ -4,6 +4,10 @@
 // Residual i: w_i ((A f)(t_i) - y_i), where y is the centred average of the counts and A f the
 // same average applied to the model, so that smoothing widens model and data alike and the
 // parameters keep their meaning (no smoothing bias in the peak or the width).
+//
+// The t_i and the "model days" below are periods of the series: days for daily counts; for
+// weekly counts weeks, where the model's value is its expected count of the week
+// (WaveModel::countsOnPeriods) and its time stays in days.
 
 #include "siftwave/fit/levenberg_marquardt.h"
 #include "siftwave/fit/models.h"
@@ -36,9 +40,11 @@ public:
     };
 
     // The spans and the workspace are kept, not copied: they must outlive the problem.
+    // `periodDays`: days per period of the series (1 or 7).
     SmoothedLeastSquares(const WaveModel& model, std::span<const double> t,
                          std::span<const double> y, std::span<const double> w,
-                         std::span<const double> kernel, int span, Workspace& workspace)
+                         std::span<const double> kernel, int span, Workspace& workspace,
+                         int periodDays = 1)
         : m_model(model),
           m_t(t),
           m_y(y),
@@ -47,7 +53,8 @@ public:
           m_h(static_cast<int>(m_kernel.size()) / 2),
           m_f(workspace.f),
           m_jf(workspace.jf),
-          m_p(workspace.p) {
+          m_p(workspace.p),
+          m_periodDays(periodDays) {
         // Model days: every day from t_0 - h to t_last + h (the window spans `span` days).
         m_days = static_cast<std::size_t>(span + 2 * m_h);
         // Targets on consecutive days (no missing day in the window) take the plainer loop.
@@ -123,7 +130,11 @@ private:
     void evaluateModelDays(std::span<const double> p, bool withJacobian) const {
         m_f.resize(m_days);
         m_jf.resize(withJacobian ? m_days * p.size() : 0);
-        m_model.incidenceOnDays(-m_h, p, m_f, m_jf);
+        if (m_periodDays == 1) {
+            m_model.incidenceOnDays(-m_h, p, m_f, m_jf);
+        } else {
+            m_model.countsOnPeriods(-m_h * m_periodDays, m_periodDays, p, m_f, m_jf);
+        }
         m_p.assign(p.begin(), p.end());
         m_haveJacobian = withJacobian;
     }
@@ -214,6 +225,7 @@ private:
     std::vector<double>& m_f;
     std::vector<double>& m_jf;
     std::vector<double>& m_p;
+    int m_periodDays = 1;
     mutable bool m_haveJacobian = false;
     bool m_consecutive = false;
 };

@@ -65,18 +65,28 @@ struct Extremes {
 
 }  // namespace
 
+WaveDetectionOptions WaveDetectionOptions::forCadence(Cadence cadence) {
+    WaveDetectionOptions o;
+    if (cadence == Cadence::Weekly) {
+        o.smoothingWindow = 3;
+        o.minPeak = 5.0;
+        o.minPeriods = 6;
+    }
+    return o;
+}
+
 Status WaveDetectionOptions::validate() const {
     if (smoothingWindow < 1 || smoothingWindow > 365) {
         return makeError(ErrorCode::Usage,
-                         "the wave-detection smoothing window must be 1..365 days");
+                         "the wave-detection smoothing window must be 1..365 periods");
     }
     if (!(minProminenceShare > 0 && minProminenceShare < 1) || !(riseShare >= 0 && riseShare < 1)) {
         return makeError(ErrorCode::Usage, "wave-detection shares must lie between 0 and 1");
     }
     if (!(minPeak >= 0))
         return makeError(ErrorCode::Usage, "minPeak must not be negative");
-    if (minDays < 3)
-        return makeError(ErrorCode::Usage, "minDays must be at least 3");
+    if (minPeriods < 3)
+        return makeError(ErrorCode::Usage, "minPeriods must be at least 3");
     return Ok{};
 }
 
@@ -176,7 +186,7 @@ std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
         w.peakConfirmed = !(openRise && k + 1 == peaks.size());
         if (w.peakValue < options.minPeak)
             continue;
-        if (w.last - w.first + 1 < options.minDays)
+        if (w.last - w.first + 1 < options.minPeriods)
             continue;
         waves.push_back(w);
     }

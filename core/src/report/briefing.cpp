@@ -99,7 +99,8 @@ std::vector<FitTableRow> fitTable(const fit::FitResult& f) {
         estimateRow(rows, "Parameter " + p.name, p.estimate, 3);
     const fit::DerivedQuantities& d = f.derived;
     rows.push_back({"Peak date", dateOr(f, d.peakDay.value), dateInterval(f, d.peakDay)});
-    estimateRow(rows, "Peak incidence (per day)", d.peakIncidence, 1);
+    estimateRow(rows, std::string("Peak incidence (per ") + f.incidenceUnit() + ")",
+                d.peakIncidence, 1);
     estimateRow(rows, "Wave size", d.waveSize, 0);
     estimateRow(rows, "Fraction observed", d.fractionObserved, 3);
     rows.push_back({"Start date", dateOr(f, d.startDay.value), dateInterval(f, d.startDay)});

@@ -192,8 +192,8 @@ FittedCurveSpec curveOf(const fit::FitResult& result, const FigureSpec& spec, bo
     curve.mid.assign(spec.periods(), kNaN);
     curve.low.assign(spec.periods(), kNaN);
     curve.high.assign(spec.periods(), kNaN);
-    const int offset = result.seriesFirstDay - spec.axis.first();
-    // Calendar index of series day `first + i`, or -1 off the calendar.
+    const int offset = spec.axis.periodOnGrid(result.seriesFirstDay);  // in periods
+    // Calendar index of series period `first + i`, or -1 off the calendar.
     auto dayOf = [&](int seriesDay) {
         const int day = offset + seriesDay;
         return day >= 0 && day < spec.periods() ? day : -1;
@@ -317,7 +317,8 @@ Result<FigureSpec> buildFigureSpec(const Drop& drop, const Ledger& ledger, const
             if (const RegionEntry* entry = request.regions->find(request.region);
                 entry && entry->population)
                 population = static_cast<double>(*entry->population);
-        auto fitted = fit::fitSeries({spec.axis.first(), spec.cleaned}, *request.fit, population);
+        auto fitted = fit::fitSeries({spec.axis.first(), spec.cleaned, spec.axis.periodDays()},
+                                     *request.fit, population);
         if (fitted)
             result = std::move(fitted.value());
         else

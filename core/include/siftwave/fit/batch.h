@@ -14,7 +14,7 @@ namespace siftwave::fit {
 
 struct RegionSeries {
     std::string region;  // verbatim code
-    DailySeries series;  // the counts must outlive fitRegions()
+    Series series;       // the counts must outlive fitRegions()
     std::optional<double> population;
 };
 

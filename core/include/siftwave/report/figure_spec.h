@@ -80,7 +80,7 @@ struct FittedCurveSpec {
     Date windowFirst;
     Date windowLast;
     Date peakDate;
-    double peakValue = 0;  // cases per day at the peak
+    double peakValue = 0;  // cases per day or week at the peak (result.incidenceUnit())
 };
 
 struct FigureSpec {
