@@ -335,6 +335,47 @@ TEST_F(LedgerCli, OneEntryIsCountedInTheSingular) {
               std::string::npos);
 }
 
+// The issue "Real releases": `ledger --verify` never reports that totals reconcile after
+// decisions that added counts, and says by how much and which entries.
+TEST_F(LedgerCli, VerifySaysTotalsReconcileOnlyWhenNoDecisionAddedCounts) {
+    ASSERT_EQ(redistribute().code, 0);
+    CliRun v = cli("ledger " + L() + " --verify --drop " + D());
+    ASSERT_EQ(v.code, 0) << v.err;
+    EXPECT_NE(v.out.find("every region's totals reconcile"), std::string::npos) << v.out;
+    EXPECT_EQ(v.out.find("add counts"), std::string::npos) << v.out;
+    auto j =
+        nlohmann::json::parse(cli("ledger " + L() + " --verify --drop " + D() + " --json").out);
+    EXPECT_EQ(j.at("totals_reconcile"), true);
+    EXPECT_EQ(j.at("counts_added").at("total"), 0);
+    EXPECT_TRUE(j.at("counts_added").at("entries").empty());
+
+    // 412 has 5 on 03-01 and 13 on 03-05: interpolating 03-02..03-04 writes 7, 9, 11 (+27).
+    ASSERT_EQ(cli("decide " + L() + " --drop " + D() +
+                  " fill_missing --region 412 --days 2026-03-02:2026-03-04 --method linear"
+                  " --reason 'interpolated for the chart'")
+                  .code,
+              0);
+    v = cli("ledger " + L() + " --verify --drop " + D());
+    ASSERT_EQ(v.code, 0) << v.err;
+    EXPECT_EQ(v.out.find("reconcile"), std::string::npos) << v.out;
+    EXPECT_NE(v.out.find("totals changed by decisions that add counts: +27 (entries #2)"),
+              std::string::npos)
+        << v.out;
+    j = nlohmann::json::parse(cli("ledger " + L() + " --verify --drop " + D() + " --json").out);
+    EXPECT_EQ(j.at("totals_reconcile"), false);
+    EXPECT_EQ(j.at("counts_added").at("total"), 27);
+    EXPECT_EQ(j.at("counts_added").at("entries"), nlohmann::json::array({2}));
+    // Without the drop the ledger's own totals tell the same.
+    v = cli("ledger " + L() + " --verify");
+    EXPECT_NE(v.out.find("+27 (entries #2)"), std::string::npos) << v.out;
+
+    // Withdrawn, the interpolation adds nothing and the totals reconcile again.
+    ASSERT_EQ(cli("decide " + L() + " --drop " + D() + " withdraw --entry 2 --reason 'undo'").code,
+              0);
+    v = cli("ledger " + L() + " --verify --drop " + D());
+    EXPECT_NE(v.out.find("every region's totals reconcile"), std::string::npos) << v.out;
+}
+
 TEST_F(LedgerCli, AnImpossibleWindowSaysWhichPartIsWrong) {
     // 2026 is not a leap year: February has 28 days (ISO 8601 / Gregorian calendar).
     const std::string base = "decide " + L() + " --drop " + D() +

@@ -3,6 +3,7 @@
 // where the kind says so, and the entries replay.
 #include "ledger_test_support.h"
 
+#include "siftwave/ledger/export.h"
 #include "siftwave/ledger/replay.h"
 
 #include <gtest/gtest.h>
@@ -79,6 +80,7 @@ TEST_F(WeeklyDecisions, FillingWithZeroWritesZeroWeeksAndKeepsTheTotal) {
     ASSERT_EQ(e.effect.totals.size(), 1u);
     EXPECT_EQ(e.effect.totals[0].before, e.effect.totals[0].after);
     EXPECT_TRUE(decisionConservesTotals(e.decision));
+    EXPECT_FALSE(countsAddedByDecisions(ledger).any());
 }
 
 TEST_F(WeeklyDecisions, ShareSplitsTheNextWeeksCountAndKeepsTheTotal) {
@@ -88,12 +90,16 @@ TEST_F(WeeklyDecisions, ShareSplitsTheNextWeeksCountAndKeepsTheTotal) {
     EXPECT_EQ(cleaned.total(0, 1), rawTotal(drop, 0, 1));
 }
 
-TEST_F(WeeklyDecisions, LinearFillingAddsCountsAndStatesTheChange) {
+TEST_F(WeeklyDecisions, LinearFillingAddsCountsAndTheLedgerSaysSo) {
     // Between 31 and 36 over two weeks: round(32.67) = 33 and round(34.33) = 34.
     const LedgerEntry e =
         record(drop, ledger, cleaned, fillWeeks("2026-03-23", "2026-03-30", FillMethod::Linear));
     EXPECT_EQ(values(cleaned, 0, 1), (V{30, 32, 31, 33, 34, 36, 33, 30, 34, 35}));
     EXPECT_EQ(e.effect.totals[0].change(), 67);
+    const CountsAdded added = countsAddedByDecisions(ledger);
+    EXPECT_EQ(added.total, 67);
+    EXPECT_EQ(added.entries, (std::vector<std::uint64_t>{1}));
+    EXPECT_EQ(added.describe(), "totals changed by decisions that add counts: +67 (entries #1)");
 }
 
 TEST_F(WeeklyDecisions, ANegativeWeekIsSpreadOverTheWeeksBeforeIt) {
