@@ -120,6 +120,7 @@ TEST(ScanCommand, ScansAWeeklyReleaseInWeeksAndSaysSo) {
     // Settings that count periods have a weekly value of their own.
     const CliRun help = run("scan --help");
     EXPECT_NE(help.out.find("backlog_dump.window_weeks"), std::string::npos);
+    EXPECT_NE(help.out.find("missing_dates.true_zero_max_level"), std::string::npos);
 }
 
 TEST(ScanCommand, ExitsZeroOnACleanDropOneOnUnreadableInputTwoOnWrongUsage) {

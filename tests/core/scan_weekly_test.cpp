@@ -119,8 +119,12 @@ TEST(ScanOnWeeklyDrops, FindsAMissingWeekWithTheWeeksDates) {
     EXPECT_EQ(*f->last, s.drop.periodStart(week));
     EXPECT_EQ(f->first->isoWeekday(), 1);  // ISO weeks start on Monday (ISO 8601-1:2019)
     EXPECT_EQ(f->evidence["periods"], 1);
-    EXPECT_EQ(f->evidence["days"], 7);  // the days the week covers
+    EXPECT_EQ(f->evidence["days"], 7);                             // the days the week covers
+    EXPECT_FALSE(f->evidence["probably_true_zeros"].get<bool>());  // an active region
+    // Interpolating adds counts, and the evidence says how many.
     EXPECT_EQ(f->suggestion["method"], "linear");
+    EXPECT_TRUE(f->evidence["suggestion_adds"].contains("cases"));
+    EXPECT_GT(f->evidence["suggestion_adds"]["cases"].get<std::int64_t>(), 0);
     EXPECT_EQ(describeFinding(*f), "1 week(s) with no value inside the reporting span");
     EXPECT_EQ(report->findings.size(), 1u) << describeAll(*report);
 }

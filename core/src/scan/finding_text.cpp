@@ -46,6 +46,11 @@ std::string describeFinding(const Finding& f) {
     const std::string units = weekly ? "weeks" : "days";
     switch (f.kind) {
         case FindingKind::MissingDates:
+            if (e.value("probably_true_zeros", false)) {
+                return periods(e, "periods", "days") + " " + unit +
+                       "(s) with no row amid low counts (about " + get(e, "level_nearby") + " a " +
+                       unit + " nearby): probably true zeros";
+            }
             return periods(e, "periods", "days") + " " + unit +
                    "(s) with no value inside the reporting span";
         case FindingKind::DuplicateRow:

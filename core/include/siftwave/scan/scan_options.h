@@ -33,6 +33,14 @@ struct MissingDatesOptions {
     int minWeeks = 1;    // the same for weeks: one week with no row is a finding
     int levelDays = 14;  // days on each side whose median is the level around a run
     int levelWeeks = 4;  // weeks on each side (about the 14 days' span in time, 8 neighbours)
+    // Absent rows that are true zeros: a tally made from a case list writes no row for a
+    // period without cases. A run is probably true zeros when the median of the nearest
+    // `trueZeroPeriods` reported periods on each side is at most `trueZeroMaxLevel` counts
+    // per period (same for both cadences: under Poisson noise at 3 a period a zero has a
+    // chance of exp(-3) = 5 %, so zeros there are ordinary) and the period after the run is
+    // no catch-up. The suggestion is then to fill 0, never to interpolate.
+    double trueZeroMaxLevel = 3.0;  // counts per period
+    int trueZeroPeriods = 3;        // nearest reported periods on each side
 };
 
 struct DuplicateRowOptions {
