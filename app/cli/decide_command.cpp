@@ -47,7 +47,10 @@ const char* kUsage =
     "                     keeps the data as reported; records that it was looked at and why\n"
     "  withdraw           --entry N   undoes entry N (withdrawing a withdrawal redoes it)\n"
     "Any kind takes --finding ID, the scan finding the decision answers. --measure may be\n"
-    "left out when the drop has one measure. Days are YYYY-MM-DD.\n"
+    "left out when the drop has one measure. Dates are YYYY-MM-DD. Decisions act on the\n"
+    "drop's periods: in a weekly drop a date names the week that holds it (any day of it),\n"
+    "a range FIRST:LAST every week from FIRST's to LAST's, and 'day' above reads 'week'.\n"
+    "--periods FIRST:LAST is another name for --days.\n"
     "\n"
     "Exit codes: 0 recorded, 1 bad input or a decision refused (nothing written), 2 wrong usage.\n"
     "\n"
@@ -61,12 +64,13 @@ std::vector<FlagSpec> decideFlagSpecs() {
         {"region", true, false, "CODE", "region code, verbatim"},
         {"measure", true, false, "NAME", "measure (default: the drop's only measure)"},
         {"date", true, false, "DAY",
-         "the day decided on (redistribute, spread_negative, resolve_duplicate)"},
+         "the day (or week) decided on (redistribute, spread_negative, resolve_duplicate)"},
         {"excess", true, false, "N|auto",
          "redistribute: counts to move, or auto (the scan's estimate)"},
         {"window", true, false, "FIRST:LAST",
          "redistribute: receiving days; spread_negative: absorbing days"},
-        {"days", true, false, "FIRST:LAST", "fill_missing, exclude, accept: the days"},
+        {"days", true, false, "FIRST:LAST", "fill_missing, exclude, accept: the days (or weeks)"},
+        {"periods", true, false, "FIRST:LAST", "the same as --days, for weekly data"},
         {"method", true, false, "NAME",
          "redistribute: uniform|proportional|baseline; fill_missing: zero|linear|share"},
         {"baseline-width", true, false, "N",
@@ -140,14 +144,14 @@ std::vector<std::string> kindFlags(DecisionKind kind) {
         case DecisionKind::SpreadNegative:
             return {"region", "measure", "date", "window"};
         case DecisionKind::FillMissing:
-            return {"region", "measure", "days", "method"};
+            return {"region", "measure", "days", "periods", "method"};
         case DecisionKind::ResolveDuplicate:
             return {"region", "measure", "date", "keep"};
         case DecisionKind::MergeCodes:
             return {"variant", "into"};
         case DecisionKind::Exclude:
         case DecisionKind::Accept:
-            return {"region", "measure", "days"};
+            return {"region", "measure", "days", "periods"};
         case DecisionKind::Withdraw:
             return {"entry"};
     }
@@ -157,8 +161,8 @@ std::vector<std::string> kindFlags(DecisionKind kind) {
 /// The decision the flags describe (the excess left at 0 for --excess auto).
 Result<Decision> decisionFrom(const ParsedArgs& args, DecisionKind kind, const Drop& drop) {
     const std::vector<std::string> allowed = kindFlags(kind);
-    for (const char* flag : {"region", "measure", "date", "excess", "window", "days", "method",
-                             "baseline-width", "keep", "variant", "into", "entry"}) {
+    for (const char* flag : {"region", "measure", "date", "excess", "window", "days", "periods",
+                             "method", "baseline-width", "keep", "variant", "into", "entry"}) {
         if (args.has(flag) && std::find(allowed.begin(), allowed.end(), flag) == allowed.end())
             return usage(std::string("--") + flag + " does not apply to " + decisionKindName(kind));
     }
@@ -183,8 +187,12 @@ Result<Decision> decisionFrom(const ParsedArgs& args, DecisionKind kind, const D
             return r.error();
         d.window = *r;
     }
-    if (args.has("days")) {
-        auto r = rangeFlag(args, "days");
+    if (args.has("days") && args.has("periods"))
+        return usage("--days and --periods are one flag; give one of them");
+    for (const char* name : {"days", "periods"}) {
+        if (!args.has(name))
+            continue;
+        auto r = rangeFlag(args, name);
         if (!r)
             return r.error();
         d.window = *r;
@@ -266,7 +274,15 @@ nlohmann::json effectSummaryJson(const Effect& effect) {
     return {{"cells", cells}, {"totals", totals}};
 }
 
-void printEffectText(const Effect& effect) {
+/// "2026-03-02", or for a week "2026-03-02 (2026-W10)".
+std::string periodText(const Drop& drop, Date date) {
+    if (!drop.axis.weekly())
+        return date.iso();
+    const std::optional<std::int32_t> p = drop.periodOf(date);
+    return p ? date.iso() + " (" + drop.axis.periodName(*p) + ")" : date.iso();
+}
+
+void printEffectText(const Drop& drop, const Effect& effect) {
     const std::size_t shown = std::min<std::size_t>(effect.cells.size(), 40);
     for (std::size_t i = 0; i < shown; ++i) {
         const CellChange& c = effect.cells[i];
@@ -274,7 +290,7 @@ void printEffectText(const Effect& effect) {
             return cell.hasValue() ? std::to_string(cell.value)
                                    : std::string(cleanedStateName(cell.state));
         };
-        std::printf("  %s %s %s: %s -> %s\n", c.date.iso().c_str(), c.region.c_str(),
+        std::printf("  %s %s %s: %s -> %s\n", periodText(drop, c.date).c_str(), c.region.c_str(),
                     c.measure.c_str(), value(c.before).c_str(), value(c.after).c_str());
     }
     if (effect.cells.size() > shown)
@@ -364,7 +380,7 @@ int runDecide(int argc, char** argv, int first) {
             std::printf("%s (dry run, nothing written):\n", decisionKindName(*kind));
             if (autoExcess)
                 printAutoExcessNote(*decision, windowGiven);
-            printEffectText(*effect);
+            printEffectText(*drop, *effect);
         }
         return kExitOk;
     }
@@ -394,7 +410,7 @@ int runDecide(int argc, char** argv, int first) {
                     decisionKindName(*kind), entry->author.c_str());
         if (autoExcess)
             printAutoExcessNote(*decision, windowGiven);
-        printEffectText(entry->effect);
+        printEffectText(*drop, entry->effect);
     }
     return kExitOk;
 }
@@ -419,15 +435,17 @@ Status resolveAutoExcess(const Drop& drop, Decision& d, bool windowGiven) {
         scan::estimateBacklog(drop, d.measure, d.region, *d.date);
     if (!estimate) {
         Error e = estimate.error();
-        e.message = "the scan cannot estimate an excess for this day: " + e.message;
+        e.message = "the scan cannot estimate an excess for this " +
+                    std::string(drop.axis.unitName()) + ": " + e.message;
         return e;
     }
     if (estimate->excess <= 0) {
-        Error e = makeError(ErrorCode::InvalidValue,
-                            "the scan estimates no excess for this day (observed " +
-                                std::to_string(estimate->observed) + ", expected about " +
-                                std::to_string(static_cast<long long>(estimate->expected + 0.5)) +
-                                "); give --excess N to move counts anyway");
+        Error e =
+            makeError(ErrorCode::InvalidValue,
+                      "the scan estimates no excess for this " + std::string(drop.axis.unitName()) +
+                          " (observed " + std::to_string(estimate->observed) + ", expected about " +
+                          std::to_string(static_cast<long long>(estimate->expected + 0.5)) +
+                          "); give --excess N to move counts anyway");
         e.region = d.region;
         e.date = d.date->iso();
         return e;

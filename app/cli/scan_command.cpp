@@ -16,12 +16,15 @@ std::string usageText(const std::vector<FlagSpec>& specs) {
     std::string text =
         "usage: siftwave-cli scan FILE [--previous FILE] [--regions FILE] "
         "[--set NAME=VALUE]... [ingest flags] [--json]\n\n"
-        "Scans a data drop for missing dates, duplicate rows, negative counts, backlog "
-        "dumps,\nreporting gaps, stale values, code problems, weekday effects, "
-        "cumulative decreases,\nhierarchy mismatches and (with --previous) revisions. "
-        "Findings are ranked: the ones\nthat would change a briefing come first. The "
-        "previous drop is read with the same ingest\nflags. Exit codes: 0 scanned (with "
-        "or without findings), 1 an input cannot be read,\n2 wrong usage.\n\n"
+        "Scans a data drop for missing periods, duplicate rows, negative counts, backlog "
+        "dumps,\nreporting gaps, stale values, code problems, weekday effects (daily data), "
+        "cumulative\ndecreases, hierarchy mismatches and (with --previous) revisions. "
+        "Findings are ranked: the\nones that would change a briefing come first. The "
+        "previous drop is read with the same\ningest flags. A weekly drop is scanned in "
+        "weeks: settings that count periods have a\n_days value for daily data and a "
+        "_weeks value for weekly data, and dates are the first\ndays of periods. Exit "
+        "codes: 0 scanned (with or without findings), 1 an input cannot\nbe read, 2 wrong "
+        "usage.\n\n"
         "options:\n" +
         formatFlags(specs) + "\nscan settings for --set (default in brackets):\n";
     for (const scan::OptionDescription& d : scan::describeScanOptions()) {
@@ -51,6 +54,9 @@ void printTable(const scan::ScanReport& report, const Drop& drop) {
         sep = ", ";
     }
     std::printf("%s\n", sep == " (" ? "" : ")");
+    if (drop.axis.weekly()) {
+        std::printf("%s; dates are the first days of weeks\n", drop.axis.describe().c_str());
+    }
     if (report.findings.empty())
         return;
     std::printf("\n%4s  %-8s  %-19s  %-10s  %-8s  %-22s  %s\n", "rank", "severity", "kind",

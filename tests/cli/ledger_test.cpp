@@ -335,6 +335,86 @@ TEST_F(LedgerCli, OneEntryIsCountedInTheSingular) {
               std::string::npos);
 }
 
+// The issue "Real releases": `ledger --verify` never reports that totals reconcile after
+// decisions that added counts, and says by how much and which entries.
+TEST_F(LedgerCli, VerifySaysTotalsReconcileOnlyWhenNoDecisionAddedCounts) {
+    ASSERT_EQ(redistribute().code, 0);
+    CliRun v = cli("ledger " + L() + " --verify --drop " + D());
+    ASSERT_EQ(v.code, 0) << v.err;
+    EXPECT_NE(v.out.find("every region's totals reconcile"), std::string::npos) << v.out;
+    EXPECT_EQ(v.out.find("add counts"), std::string::npos) << v.out;
+    auto j =
+        nlohmann::json::parse(cli("ledger " + L() + " --verify --drop " + D() + " --json").out);
+    EXPECT_EQ(j.at("totals_reconcile"), true);
+    EXPECT_EQ(j.at("counts_added").at("total"), 0);
+    EXPECT_TRUE(j.at("counts_added").at("entries").empty());
+
+    // 412 has 5 on 03-01 and 13 on 03-05: interpolating 03-02..03-04 writes 7, 9, 11 (+27).
+    ASSERT_EQ(cli("decide " + L() + " --drop " + D() +
+                  " fill_missing --region 412 --days 2026-03-02:2026-03-04 --method linear"
+                  " --reason 'interpolated for the chart'")
+                  .code,
+              0);
+    v = cli("ledger " + L() + " --verify --drop " + D());
+    ASSERT_EQ(v.code, 0) << v.err;
+    EXPECT_EQ(v.out.find("reconcile"), std::string::npos) << v.out;
+    EXPECT_NE(v.out.find("totals changed by decisions that add counts: +27 (entries #2)"),
+              std::string::npos)
+        << v.out;
+    j = nlohmann::json::parse(cli("ledger " + L() + " --verify --drop " + D() + " --json").out);
+    EXPECT_EQ(j.at("totals_reconcile"), false);
+    EXPECT_EQ(j.at("counts_added").at("total"), 27);
+    EXPECT_EQ(j.at("counts_added").at("entries"), nlohmann::json::array({2}));
+    // Without the drop the ledger's own totals tell the same.
+    v = cli("ledger " + L() + " --verify");
+    EXPECT_NE(v.out.find("+27 (entries #2)"), std::string::npos) << v.out;
+
+    // Withdrawn, the interpolation adds nothing and the totals reconcile again.
+    ASSERT_EQ(cli("decide " + L() + " --drop " + D() + " withdraw --entry 2 --reason 'undo'").code,
+              0);
+    v = cli("ledger " + L() + " --verify --drop " + D());
+    EXPECT_NE(v.out.find("every region's totals reconcile"), std::string::npos) << v.out;
+}
+
+// A weekly drop (ISO weeks from Monday 2026-03-02): --periods names weeks by any of their
+// days, and the output names each week.
+TEST_F(LedgerCli, DecisionsOnAWeeklyDropActOnTheWeeksTheirDatesFallIn) {
+    const fs::path weekly = dir / "weekly.csv";
+    spit(weekly,
+         "week_start,region,cases\n"
+         "2026-03-02,W1,3\n2026-03-09,W1,2\n2026-03-23,W1,1\n2026-03-30,W1,2\n"
+         "2026-03-02,W2,40\n2026-03-09,W2,42\n2026-03-16,W2,41\n2026-03-23,W2,44\n"
+         "2026-03-30,W2,43\n");
+    const std::string W = quote(weekly.string());
+    // The scan calls the absent week of W1 probably true zeros and suggests filling 0.
+    CliRun scan = cli("scan " + W + " --json");
+    ASSERT_EQ(scan.code, 0) << scan.err;
+    const auto report = nlohmann::json::parse(scan.out);
+    EXPECT_EQ(report.at("summary").at("cadence"), "weekly");
+    ASSERT_EQ(report.at("findings").size(), 1u) << scan.out;
+    const auto& f = report.at("findings").at(0);
+    EXPECT_EQ(f.at("kind"), "missing_dates");
+    EXPECT_EQ(f.at("first"), "2026-03-16");
+    EXPECT_EQ(f.at("evidence").at("probably_true_zeros"), true);
+    EXPECT_EQ(f.at("suggestion").at("method"), "zero");
+
+    // Wednesday 2026-03-18 names 2026-W12.
+    CliRun d = cli("decide " + L() + " --drop " + W +
+                   " fill_missing --region W1 --periods 2026-03-18:2026-03-18 --method zero"
+                   " --reason 'no row means no case'");
+    ASSERT_EQ(d.code, 0) << d.err;
+    EXPECT_NE(d.out.find("2026-03-16 (2026-W12) W1 cases: absent -> 0"), std::string::npos)
+        << d.out;
+    CliRun v = cli("ledger " + L() + " --verify --drop " + W);
+    EXPECT_NE(v.out.find("every region's totals reconcile"), std::string::npos) << v.out;
+    EXPECT_EQ(cli("decide " + L() + " --drop " + W +
+                  " exclude --region W2 --days 2026-03-02:2026-03-02 --periods "
+                  "2026-03-02:2026-03-02 --reason x")
+                  .code,
+              2)
+        << "--days and --periods are one flag";
+}
+
 TEST_F(LedgerCli, AnImpossibleWindowSaysWhichPartIsWrong) {
     // 2026 is not a leap year: February has 28 days (ISO 8601 / Gregorian calendar).
     const std::string base = "decide " + L() + " --drop " + D() +

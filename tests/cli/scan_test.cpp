@@ -102,6 +102,27 @@ TEST(ScanCommand, SetChangesAThresholdAndRejectsUnknownNames) {
     EXPECT_EQ(run("scan " + file + " --set backlog_dump.min_excess").exitCode, 2);
 }
 
+// Real data: r-cran-surveillance, dataset fluBYBW (weekly influenza notifications, 16 districts
+// x 156 ISO weeks, every week reported; tests/data/real/SOURCES.md), labelled by ISO week.
+TEST(ScanCommand, ScansAWeeklyReleaseInWeeksAndSaysSo) {
+    const std::string file =
+        std::string(SIFTWAVE_TEST_DATA_DIR) + "/real/fluBYBW_weekly_isoweek.csv";
+    const CliRun text = run("scan " + file);
+    ASSERT_EQ(text.exitCode, 0);
+    EXPECT_NE(text.out.find(": 0 finding(s)"), std::string::npos) << text.out;
+    EXPECT_NE(text.out.find("2001-W01 to 2003-W52 (156 weeks); dates are the first days of weeks"),
+              std::string::npos)
+        << text.out;
+    const auto j = nlohmann::json::parse(run("scan " + file + " --json").out);
+    EXPECT_EQ(j["summary"]["cadence"], "weekly");
+    EXPECT_EQ(j["summary"]["by_kind"]["missing_dates"], 0);
+    EXPECT_EQ(j["summary"]["by_kind"]["weekday_effect"], 0);
+    // Settings that count periods have a weekly value of their own.
+    const CliRun help = run("scan --help");
+    EXPECT_NE(help.out.find("backlog_dump.window_weeks"), std::string::npos);
+    EXPECT_NE(help.out.find("missing_dates.true_zero_max_level"), std::string::npos);
+}
+
 TEST(ScanCommand, ExitsZeroOnACleanDropOneOnUnreadableInputTwoOnWrongUsage) {
     siftwave::testing::SyntheticOptions o;
     o.regions = 5;

@@ -107,5 +107,61 @@ TEST_F(Export, ReportsCarryEveryReasonEscapedForTheirFormat) {
     EXPECT_FALSE(reportFormatFromPath("audit.txt").has_value());
 }
 
+TEST_F(Export, MovingAndLoweringCountsAddsNone) {
+    // Entry 1 moves counts within a region, entry 2 excludes a day: neither adds.
+    EXPECT_FALSE(countsAddedByDecisions(ledger).any());
+    EXPECT_EQ(countsAddedByDecisions(ledger).describe(), "");
+    const auto rows = reconcile(drop, cleaned, ledger);
+    ReportContext ctx{"decisions.jsonl", "drop.csv", drop.source.sha256, true};
+    EXPECT_EQ(renderReport(ledger, rows, ctx, ReportFormat::Markdown).find("- Totals:"),
+              std::string::npos);
+}
+
+TEST(CountsAdded, ListsTheEntriesInEffectThatAddCountsWithTheirSum) {
+    Drop drop = makeDrop({"A", "B"}, {"cases"}, "2026-03-01", 6);
+    setSeries(drop, 0, 0, {10, 0, 0, 16, 0, 20});
+    setAbsent(drop, 0, 0, 1);
+    setAbsent(drop, 0, 0, 2);
+    setAbsent(drop, 0, 0, 4);
+    setSeries(drop, 0, 1, {1, 2, 3, 4, 5, 6});
+    Cleaned cleaned(drop);
+    Ledger ledger;
+    Decision linear;
+    linear.kind = DecisionKind::FillMissing;
+    linear.region = "A";
+    linear.measure = "cases";
+    linear.window = DayRange{day("2026-03-02"), day("2026-03-03")};
+    linear.fillMethod = FillMethod::Linear;  // 12 and 14 between 10 and 16: +26
+    record(drop, ledger, cleaned, linear);
+    Decision zero = linear;
+    zero.window = DayRange{day("2026-03-05"), day("2026-03-05")};
+    zero.fillMethod = FillMethod::Zero;  // adds nothing
+    record(drop, ledger, cleaned, zero);
+    Decision merge;
+    merge.kind = DecisionKind::MergeCodes;
+    merge.variant = "B";
+    merge.into = "A";  // +21 in A, -21 in B: moves counts, adds none
+    record(drop, ledger, cleaned, merge);
+
+    CountsAdded added = countsAddedByDecisions(ledger);
+    EXPECT_EQ(added.total, 26);
+    EXPECT_EQ(added.entries, (std::vector<std::uint64_t>{1}));
+    EXPECT_EQ(added.describe(), "totals changed by decisions that add counts: +26 (entries #1)");
+    const auto rows = reconcile(drop, cleaned, ledger);
+    ReportContext ctx{"decisions.jsonl", "drop.csv", drop.source.sha256, true};
+    EXPECT_NE(renderReport(ledger, rows, ctx, ReportFormat::Markdown)
+                  .find("- Totals: totals changed by decisions that add counts: +26 (entries #1)"),
+              std::string::npos);
+
+    // Withdrawn, the fill adds nothing any more; restored, it is listed again.
+    record(drop, ledger, cleaned, withdrawal(3));
+    record(drop, ledger, cleaned, withdrawal(1));
+    EXPECT_FALSE(countsAddedByDecisions(ledger).any());
+    record(drop, ledger, cleaned, withdrawal(5));
+    added = countsAddedByDecisions(ledger);
+    EXPECT_EQ(added.total, 26);
+    EXPECT_EQ(added.entries, (std::vector<std::uint64_t>{1}));
+}
+
 }  // namespace
 }  // namespace siftwave

@@ -27,11 +27,20 @@ inline Drop makeDrop(std::vector<std::string> regions, std::vector<std::string> 
     drop.source.sha256 = std::move(sha);
     drop.regionCodes = std::move(regions);
     drop.measures = std::move(measures);
-    drop.axis = TimeAxis::daily(day(firstDay),
-        days);
+    drop.axis = TimeAxis::daily(day(firstDay), days);
     for (std::size_t m = 0; m < drop.measures.size(); ++m)
         drop.tables.emplace_back(drop.regionCodes.size(), days);
     drop.indexRegions();
+    return drop;
+}
+
+/// The same with ISO weeks (Monday start): `weeks` weeks from the Monday `firstMonday`.
+inline Drop makeWeeklyDrop(std::vector<std::string> regions, std::vector<std::string> measures,
+                           const char* firstMonday, std::int32_t weeks,
+                           std::string sha = std::string(64, 'b')) {
+    Drop drop =
+        makeDrop(std::move(regions), std::move(measures), firstMonday, weeks, std::move(sha));
+    drop.axis = TimeAxis::weekly(day(firstMonday), weeks, WeekStart::Monday);
     return drop;
 }
 

@@ -49,8 +49,10 @@ SyntheticDrop makeSyntheticDrop(const SyntheticOptions& o) {
     SyntheticDrop s;
     Drop& drop = s.drop;
     drop.source.path = "synthetic-seed-" + std::to_string(o.seed) + ".csv";
-    drop.axis = TimeAxis::daily(*Date::fromIso(o.firstDay),
-        o.days);
+    const bool weekly = o.weeks > 0;
+    const int periods = weekly ? o.weeks : o.days;
+    drop.axis = weekly ? TimeAxis::weekly(*Date::fromIso(o.firstDay), periods, WeekStart::Monday)
+                       : TimeAxis::daily(*Date::fromIso(o.firstDay), periods);
     drop.measures = {"cases"};
     if (o.deaths)
         drop.measures.push_back("deaths");
@@ -62,7 +64,7 @@ SyntheticDrop makeSyntheticDrop(const SyntheticOptions& o) {
     drop.indexRegions();
     for (std::size_t m = 0; m < drop.measures.size(); ++m) {
         drop.tables.emplace_back(static_cast<std::size_t>(o.regions),
-                                 static_cast<std::size_t>(o.days));
+                                 static_cast<std::size_t>(periods));
     }
 
     struct Wave {
@@ -70,24 +72,27 @@ SyntheticDrop makeSyntheticDrop(const SyntheticOptions& o) {
     };
     std::vector<Wave> waves;
     for (int k = 0; k < o.waves; ++k) {
-        const double slot = static_cast<double>(o.days) / o.waves;
-        waves.push_back(
-            {slot * (k + 0.3 + 0.4 * unit(rng)), 8 + 14 * unit(rng), 0.5 + 0.5 * unit(rng)});
+        const double slot = static_cast<double>(periods) / o.waves;
+        const double centre = slot * (k + 0.3 + 0.4 * unit(rng));
+        const double u = unit(rng);
+        const double width = weekly ? 2.5 + 3.5 * u : 8 + 14 * u;
+        waves.push_back({centre, width, 0.5 + 0.5 * unit(rng)});
     }
     const int firstWeekday = drop.axis.first().isoWeekday() - 1;
-    s.mean.assign(static_cast<std::size_t>(o.regions) * static_cast<std::size_t>(o.days), 0.0);
+    s.mean.assign(static_cast<std::size_t>(o.regions) * static_cast<std::size_t>(periods), 0.0);
     for (int r = 0; r < o.regions; ++r) {
         const double scale = o.minPeak * std::pow(o.maxPeak / o.minPeak, unit(rng));
-        const double delay = -10 + 20 * unit(rng);
-        for (int t = 0; t < o.days; ++t) {
+        const double delay = (-10 + 20 * unit(rng)) / drop.axis.periodDays();
+        for (int t = 0; t < periods; ++t) {
             double shape = o.floorShare;
             for (const Wave& w : waves) {
                 const double z = (t - w.centre - delay) / w.width;
                 shape += w.height * std::exp(-0.5 * z * z);
             }
             const double mu =
-                scale * shape * o.weekday[static_cast<std::size_t>((firstWeekday + t) % 7)];
-            s.mean[static_cast<std::size_t>(r) * static_cast<std::size_t>(o.days) +
+                scale * shape *
+                (weekly ? 1.0 : o.weekday[static_cast<std::size_t>((firstWeekday + t) % 7)]);
+            s.mean[static_cast<std::size_t>(r) * static_cast<std::size_t>(periods) +
                    static_cast<std::size_t>(t)] = mu;
             const std::size_t ru = static_cast<std::size_t>(r), tu = static_cast<std::size_t>(t);
             Cell& c = drop.tables[0].at(ru, tu);
@@ -100,7 +105,7 @@ SyntheticDrop makeSyntheticDrop(const SyntheticOptions& o) {
             }
         }
     }
-    drop.rows = static_cast<std::size_t>(o.regions) * static_cast<std::size_t>(o.days);
+    drop.rows = static_cast<std::size_t>(o.regions) * static_cast<std::size_t>(periods);
     renumberLines(drop);
     return s;
 }
@@ -176,7 +181,8 @@ void plantStaleValues(SyntheticDrop& s, std::size_t region, std::int32_t first, 
         table.at(region, static_cast<std::size_t>(first) - 1).value += value > 0 ? -1 : 1;
     }
     const std::int32_t after = first + days;
-    if (after < s.drop.periods() && table.at(region, static_cast<std::size_t>(after)).value == value) {
+    if (after < s.drop.periods() &&
+        table.at(region, static_cast<std::size_t>(after)).value == value) {
         table.at(region, static_cast<std::size_t>(after)).value += 1;
     }
     s.planted.push_back({"stale_values", region, first, first + days - 1, value});
@@ -196,7 +202,8 @@ Drop handBuiltDrop(const std::vector<std::string>& codes, const std::vector<std:
     drop.regionCodes = codes;
     drop.indexRegions();
     drop.measures = measures;
-    drop.axis = TimeAxis::daily(*Date::fromIso(firstDay),
+    drop.axis = TimeAxis::daily(
+        *Date::fromIso(firstDay),
         series.empty() || series[0].empty() ? 0 : static_cast<std::int32_t>(series[0][0].size()));
     for (std::size_t m = 0; m < measures.size(); ++m) {
         assert(series[m].size() == codes.size());
@@ -225,6 +232,14 @@ Drop handBuiltDrop(const std::vector<std::string>& codes, const std::vector<std:
                 drop.tables[0].at(r, static_cast<std::size_t>(t)).state != CellState::Absent;
         }
     }
+    return drop;
+}
+
+Drop handBuiltWeeklyDrop(const std::vector<std::string>& codes,
+                         const std::vector<std::vector<std::int32_t>>& series,
+                         const std::string& firstMonday, const std::string& measure) {
+    Drop drop = handBuiltDrop(codes, series, firstMonday, measure);
+    drop.axis = TimeAxis::weekly(*Date::fromIso(firstMonday), drop.periods(), WeekStart::Monday);
     return drop;
 }
 

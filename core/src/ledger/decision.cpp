@@ -121,7 +121,8 @@ bool decisionConservesTotals(const Decision& d) {
         case DecisionKind::Accept:
             return true;
         case DecisionKind::FillMissing:
-            return d.fillMethod == FillMethod::Share;
+            // zero writes 0 where no value was: the total cannot change.
+            return d.fillMethod == FillMethod::Share || d.fillMethod == FillMethod::Zero;
         default:
             return false;
     }

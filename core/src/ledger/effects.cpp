@@ -26,6 +26,14 @@ Error cellError(ErrorCode code, std::string message, const std::string& region =
     return e;
 }
 
+/// "day" or "week": what the drop's periods are, for messages.
+std::string unit(const Drop& drop) {
+    return drop.axis.unitName();
+}
+std::string units(const Drop& drop) {
+    return drop.axis.unitPlural();
+}
+
 struct CellKey {
     std::size_t measure;
     std::size_t region;
@@ -66,8 +74,8 @@ public:
             if (before == after)
                 continue;
             effect.cells.push_back(CellChange{m_drop.measures[k.measure],
-                                              m_drop.regionCodes[k.region], m_drop.periodStart(k.day),
-                                              before, after});
+                                              m_drop.regionCodes[k.region],
+                                              m_drop.periodStart(k.day), before, after});
             deltas[{k.measure, k.region}] += after.counted() - before.counted();
         }
         for (const auto& [m, r] : m_scope) {
@@ -102,12 +110,13 @@ Result<std::size_t> findMeasure(const Drop& drop, const std::string& name) {
     return *m;
 }
 
+/// The period that holds `date` (any day of a week selects that week).
 Result<std::int32_t> findDay(const Drop& drop, Date date, const std::string& region) {
     auto d = drop.periodOf(date);
     if (!d) {
         return cellError(ErrorCode::NotFound,
-                         "day " + date.iso() + " is outside the drop's calendar (" +
-                             drop.axis.first().iso() + " to " + drop.axis.lastStart().iso() + ")",
+                         unit(drop) + " " + date.iso() + " is outside the drop's calendar (" +
+                             drop.axis.first().iso() + " to " + drop.axis.lastEnd().iso() + ")",
                          region, date.iso());
     }
     return *d;
@@ -152,6 +161,8 @@ struct DaySpan {
     std::int32_t last = -1;
 };
 
+/// The periods a range of dates selects: from the period holding its first date to the
+/// one holding its last.
 Result<DaySpan> findDays(const Drop& drop, const DayRange& range, const std::string& region) {
     auto first = findDay(drop, range.first, region);
     if (!first)
@@ -166,8 +177,8 @@ Result<DaySpan> findDays(const Drop& drop, const DayRange& range, const std::str
 Status requireWritable(const Drop& drop, const CleanedCell& cell, std::size_t r, std::int32_t d) {
     if (cell.state == CleanedState::Excluded) {
         return cellError(ErrorCode::InvalidValue,
-                         "the day is excluded; withdraw the exclusion first", drop.regionCodes[r],
-                         drop.periodStart(d).iso());
+                         "the " + unit(drop) + " is excluded; withdraw the exclusion first",
+                         drop.regionCodes[r], drop.periodStart(d).iso());
     }
     if (cell.state == CleanedState::Merged) {
         return cellError(ErrorCode::InvalidValue,
@@ -224,18 +235,26 @@ Status redistribute(const Drop& drop, const Cleaned& cleaned, const Decision& de
     auto window = findDays(drop, *dec.window, dec.region);
     if (!window)
         return window.error();
+    if (window->last >= dump) {
+        // Dates before the dump date may still fall in its week.
+        return cellError(ErrorCode::InvalidValue,
+                         "the redistribution window must end before the " + unit(drop) +
+                             " it takes the excess from",
+                         dec.region, dec.window->iso());
+    }
     const CleanedCell& from = cleaned.cell(m, r, dump);
     if (auto s = requireWritable(drop, from, r, dump); !s)
         return s;
     if (!from.hasValue()) {
-        return cellError(ErrorCode::InvalidValue, "the day has no value to take an excess from",
-                         dec.region, dec.date->iso());
+        return cellError(ErrorCode::InvalidValue,
+                         "the " + unit(drop) + " has no value to take an excess from", dec.region,
+                         dec.date->iso());
     }
     if (from.value < dec.excess) {
         return cellError(ErrorCode::Conservation,
-                         "the day holds " + std::to_string(from.value) +
+                         "the " + unit(drop) + " holds " + std::to_string(from.value) +
                              ", less than the excess of " + std::to_string(dec.excess) +
-                             "; moving it would make the day negative",
+                             "; moving it would make the " + unit(drop) + " negative",
                          dec.region, dec.date->iso());
     }
     std::vector<std::int64_t> weights;
@@ -284,8 +303,9 @@ Status spreadNegative(const Drop& drop, const Cleaned& cleaned, const Decision& 
     if (auto s = requireWritable(drop, negative, r, day); !s)
         return s;
     if (!negative.hasValue() || negative.value >= 0) {
-        return cellError(ErrorCode::InvalidValue, "the day holds no negative value to spread",
-                         dec.region, dec.date->iso());
+        return cellError(ErrorCode::InvalidValue,
+                         "the " + unit(drop) + " holds no negative value to spread", dec.region,
+                         dec.date->iso());
     }
     DaySpan window{0, day - 1};
     if (dec.window) {
@@ -293,11 +313,18 @@ Status spreadNegative(const Drop& drop, const Cleaned& cleaned, const Decision& 
         if (!w)
             return w.error();
         window = *w;
+        if (window.last >= day) {
+            // Dates before the correction's date may still fall in its week.
+            return cellError(
+                ErrorCode::InvalidValue,
+                "the " + units(drop) + " absorbing a negative correction must come before it",
+                dec.region, dec.window->iso());
+        }
     }
     if (window.last < window.first) {
         return cellError(ErrorCode::Conservation,
-                         "there are no earlier days to absorb the correction", dec.region,
-                         dec.date->iso());
+                         "there are no earlier " + units(drop) + " to absorb the correction",
+                         dec.region, dec.date->iso());
     }
     std::vector<std::int64_t> weights;
     std::int64_t available = 0;
@@ -310,9 +337,9 @@ Status spreadNegative(const Drop& drop, const Cleaned& cleaned, const Decision& 
     const std::int64_t amount = -negative.value;
     if (available < amount) {
         return cellError(ErrorCode::Conservation,
-                         "the earlier days hold " + std::to_string(available) +
+                         "the earlier " + units(drop) + " hold " + std::to_string(available) +
                              ", less than the correction of " + std::to_string(negative.value) +
-                             "; spreading it would make days negative",
+                             "; spreading it would make " + units(drop) + " negative",
                          dec.region, dec.date->iso());
     }
     auto parts = apportionLargestRemainder(amount, weights);
@@ -343,8 +370,9 @@ Status fillMissing(const Drop& drop, const Cleaned& cleaned, const Decision& dec
             return s;
         if (c.hasValue()) {
             return cellError(ErrorCode::InvalidValue,
-                             "the day already has a value; fill only days without one", dec.region,
-                             drop.periodStart(d).iso());
+                             "the " + unit(drop) + " already has a value; fill only " +
+                                 units(drop) + " without one",
+                             dec.region, drop.periodStart(d).iso());
         }
     }
     const std::int64_t n = gap->last - gap->first + 1;
@@ -352,7 +380,8 @@ Status fillMissing(const Drop& drop, const Cleaned& cleaned, const Decision& dec
         if (d < 0 || d >= drop.periods() || !cleaned.cell(m, r, d).hasValue()) {
             return cellError(ErrorCode::InvalidValue,
                              std::string(fillMethodName(dec.fillMethod)) +
-                                 " filling needs a value on the day " + side + " the gap",
+                                 " filling needs a value on the " + unit(drop) + " " + side +
+                                 " the gap",
                              dec.region, dec.window->iso());
         }
         return cleaned.cell(m, r, d).value;
@@ -383,9 +412,10 @@ Status fillMissing(const Drop& drop, const Cleaned& cleaned, const Decision& dec
             if (!next)
                 return next.error();
             if (*next < 0) {
-                return cellError(ErrorCode::InvalidValue,
-                                 "the catch-up day after the gap is negative; spread it first",
-                                 dec.region, drop.periodStart(gap->last + 1).iso());
+                return cellError(
+                    ErrorCode::InvalidValue,
+                    "the catch-up " + unit(drop) + " after the gap is negative; spread it first",
+                    dec.region, drop.periodStart(gap->last + 1).iso());
             }
             std::vector<std::int64_t> ones(static_cast<std::size_t>(n + 1), 1);
             auto parts = apportionLargestRemainder(*next, ones);
@@ -420,15 +450,16 @@ Status resolveDuplicate(const Drop& drop, const Cleaned& cleaned, const Decision
             occurrences.push_back(dup.cell);
     }
     if (occurrences.size() < 2) {
-        return cellError(ErrorCode::NotFound, "the drop has no duplicate rows for this day",
-                         dec.region, dec.date->iso());
+        return cellError(ErrorCode::NotFound,
+                         "the drop has no duplicate rows for this " + unit(drop), dec.region,
+                         dec.date->iso());
     }
     if (cleaned.cell(m, r, day) != cleanedFromRaw(occurrences.front()) ||
         !cleaned.touchedBy(m, r, day).empty()) {
-        return cellError(
-            ErrorCode::InvalidValue,
-            "an earlier entry changed this day; resolve duplicates before other decisions on it",
-            dec.region, dec.date->iso());
+        return cellError(ErrorCode::InvalidValue,
+                         "an earlier entry changed this " + unit(drop) +
+                             "; resolve duplicates before other decisions on it",
+                         dec.region, dec.date->iso());
     }
     CleanedCell after = cleanedFromRaw(occurrences.front());
     switch (dec.duplicateRule) {
@@ -485,11 +516,11 @@ Status mergeCodes(const Drop& drop, const Cleaned& cleaned, const Decision& dec,
             }
             if (vc.hasValue()) {
                 if (cc.state == CleanedState::Excluded) {
-                    return cellError(
-                        ErrorCode::InvalidValue,
-                        "the day is excluded in '" + dec.into +
-                            "'; exclude the variant's day too or withdraw the exclusion",
-                        dec.into, drop.periodStart(d).iso());
+                    return cellError(ErrorCode::InvalidValue,
+                                     "the " + unit(drop) + " is excluded in '" + dec.into +
+                                         "'; exclude the variant's " + unit(drop) +
+                                         " too or withdraw the exclusion",
+                                     dec.into, drop.periodStart(d).iso());
                 }
                 out.set(m, *c, d, cc.hasValue() ? CleanedCell{cc.value + vc.value, cc.state} : vc);
             }

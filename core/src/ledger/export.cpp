@@ -99,6 +99,38 @@ std::vector<bool> entriesInEffect(const Ledger& ledger) {
     return inEffect;
 }
 
+CountsAdded countsAddedByDecisions(const Ledger& ledger) {
+    const std::vector<bool> inEffect = entriesInEffect(ledger);
+    CountsAdded out;
+    for (const LedgerEntry& e : ledger.entries) {
+        if (!inEffect[e.sequence - 1] || e.decision.kind == DecisionKind::Withdraw)
+            continue;
+        std::int64_t change = 0;
+        for (const TotalChange& t : e.effect.totals)
+            change += t.change();
+        if (change > 0) {
+            out.total += change;
+            out.entries.push_back(e.sequence);
+        }
+    }
+    return out;
+}
+
+std::string CountsAdded::describe() const {
+    if (!any())
+        return {};
+    // The words of the issue "Real releases", also for a single entry.
+    std::string out =
+        "totals changed by decisions that add counts: +" + std::to_string(total) + " (entries ";
+    for (std::size_t i = 0; i < entries.size(); ++i) {
+        if (i)
+            out += ", ";
+        out += '#';
+        out += std::to_string(entries[i]);
+    }
+    return out + ")";
+}
+
 namespace {
 
 /// Entries in effect, not withdrawals, whose recorded total change for (measure, region) is not 0.
@@ -249,6 +281,7 @@ std::string signedNumber(std::int64_t v) {
 std::string renderReport(const Ledger& ledger, const std::vector<ReconciliationRow>& rows,
                          const ReportContext& ctx, ReportFormat format) {
     const std::vector<bool> inEffect = entriesInEffect(ledger);
+    const CountsAdded added = countsAddedByDecisions(ledger);
     const std::string chain = ctx.chainVerified ? "verified" : "not verified";
     const std::string drop =
         ctx.dropPath.empty() ? "(not given: totals from the entries)" : ctx.dropPath;
@@ -279,8 +312,11 @@ std::string renderReport(const Ledger& ledger, const std::vector<ReconciliationR
         out +=
             "- Drop SHA-256: " + (ctx.dropSha256.empty() ? ledger.dropSha256() : ctx.dropSha256) +
             "\n";
-        out += "- Entries: " + std::to_string(ledger.entries.size()) + "; hash chain " + chain +
-               "\n\n";
+        out +=
+            "- Entries: " + std::to_string(ledger.entries.size()) + "; hash chain " + chain + "\n";
+        if (added.any())
+            out += "- Totals: " + added.describe() + "\n";
+        out += "\n";
         out += "## Entries\n\n";
         out += "| # | Time (UTC) | Author | Kind | Status | Parameters | Totals moved | Reason |\n";
         out += "|---|---|---|---|---|---|---|---|\n";
@@ -315,7 +351,10 @@ std::string renderReport(const Ledger& ledger, const std::vector<ReconciliationR
     out += "<li>Drop SHA-256: " +
            htmlEscaped(ctx.dropSha256.empty() ? ledger.dropSha256() : ctx.dropSha256) + "</li>\n";
     out += "<li>Entries: " + std::to_string(ledger.entries.size()) + "; hash chain " + chain +
-           "</li>\n</ul>\n";
+           "</li>\n";
+    if (added.any())
+        out += "<li>Totals: " + htmlEscaped(added.describe()) + "</li>\n";
+    out += "</ul>\n";
     out +=
         "<h2>Entries</h2>\n<table><tr><th>#</th><th>Time "
         "(UTC)</th><th>Author</th><th>Kind</th><th>Status</th>"

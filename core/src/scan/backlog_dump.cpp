@@ -1,10 +1,17 @@
-// backlog_dump: a day far above what the surrounding days make plausible,
-// including the catch-up after a gap (method in siftwave/scan/backlog.h).
+// backlog_dump: a period (day or week) far above what the surrounding periods
+// make plausible, including the catch-up after a gap (method in
+// siftwave/scan/backlog.h).
 //
 // Severity: critical when the excess is at least critical_share of the region's
-// total, or when the day is among the last 14 of the drop (it bends the current
-// trend that a briefing reads); warning otherwise. Measures that are cumulative
-// are left to cumulative_decrease.
+// total, or when the period is among the last recent_days (14) days or
+// recent_weeks (4) weeks of the drop (it bends the current trend that a
+// briefing reads); warning otherwise. Measures that are cumulative are left to
+// cumulative_decrease.
+//
+// Evidence: observed, expected, excess, z, ratio, baseline_periods (neighbours
+// used) and baseline_days (the days they cover: the same number for daily data),
+// overdispersion, weekday_factor (daily data only), line, region_total, and
+// after_gap {first, last, periods, days} when a gap came before.
 
 #include "scan/backlog_estimate.h"
 #include "scan/scan_input.h"
@@ -16,14 +23,13 @@ namespace siftwave::scan {
 namespace detail {
 namespace {
 
-constexpr int kRecentDays = 14;
-
 Finding toFinding(const ScanInput& in, std::size_t r, std::size_t m, const BacklogEstimate& e,
                   std::uint32_t line) {
     const Drop& drop = in.drop;
     const std::int32_t t = e.day.serial;
     const double total = in.measures[m].regionTotals[r];
-    const bool recent = t >= drop.periods() - kRecentDays;
+    const bool recent = t >= drop.periods() - in.periods(in.options.backlogDump.recentDays,
+                                                         in.options.backlogDump.recentWeeks);
     const bool large = total > 0 && e.excess >= in.options.backlogDump.criticalShare * total;
     Finding f = makeFinding(in, FindingKind::BacklogDump,
                             large || recent ? Severity::Critical : Severity::Warning, r, m);
@@ -36,19 +42,24 @@ Finding toFinding(const ScanInput& in, std::size_t r, std::size_t m, const Backl
         {"z", std::round(e.z * 100) / 100},
         {"ratio", e.expected > 0 ? nlohmann::json(std::round(e.observed / e.expected * 100) / 100)
                                  : nlohmann::json(nullptr)},
-        {"baseline_days", e.neighbours},
+        {"baseline_days", in.daysIn(e.neighbours)},
+        {"baseline_periods", e.neighbours},
         {"overdispersion", std::round(in.measures[m].overdispersion * 10000) / 10000},
-        {"weekday_factor",
-         std::round(in.measures[m].weekday.factor[static_cast<std::size_t>(in.weekdayOf(t))] *
-                    1000) /
-             1000},
         {"line", line},
         {"region_total", total}};
+    if (!in.weekly()) {
+        f.evidence["weekday_factor"] =
+            std::round(in.measures[m].weekday.factor[static_cast<std::size_t>(in.weekdayOf(t))] *
+                       1000) /
+            1000;
+    }
     if (e.gapFirst) {
+        const int gapPeriods = e.gapLast->serial - e.gapFirst->serial + 1;
         f.evidence["after_gap"] =
             nlohmann::json{{"first", drop.periodStart(e.gapFirst->serial).iso()},
                            {"last", drop.periodStart(e.gapLast->serial).iso()},
-                           {"days", e.gapLast->serial - e.gapFirst->serial + 1}};
+                           {"days", in.daysIn(gapPeriods)},
+                           {"periods", gapPeriods}};
     }
     f.suggestion = {{"decision", "redistribute"},
                     {"date", drop.periodStart(t).iso()},
@@ -66,7 +77,7 @@ void findBacklogDumps(const ScanInput& in, std::vector<Finding>& out) {
     for (std::size_t m = 0; m < drop.measures.size(); ++m) {
         if (in.measures[m].cumulative)
             continue;
-        BacklogSeries series(in.options.backlogDump, in.measures[m].weekday,
+        BacklogSeries series(in.options.backlogDump, drop.axis, in.measures[m].weekday,
                              in.measures[m].overdispersion, in.firstWeekday);
         for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
             const std::span<const Cell> cells = drop.series(m, r);
@@ -100,17 +111,22 @@ Result<BacklogEstimate> estimateBacklog(const Drop& drop, std::string_view measu
     if (!t) {
         return makeError(ErrorCode::NotFound, day.iso() + " is outside the drop's calendar");
     }
-    const int firstWeekday = drop.axis.first().isoWeekday() - 1;
-    const detail::WeekdayFactors factors = detail::estimateWeekdayFactors(
-        drop, *m, firstWeekday, {}, options.weekdayEffect.minLevel, options.weekdayEffect.minWeeks);
+    // The same input the scan prepares: weekday factors for daily data only.
+    const int firstWeekday = drop.axis.weekly() ? 0 : drop.axis.first().isoWeekday() - 1;
+    const detail::WeekdayFactors factors =
+        drop.axis.weekly() ? detail::WeekdayFactors{}
+                           : detail::estimateWeekdayFactors(drop, *m, firstWeekday, {},
+                                                            options.weekdayEffect.minLevel,
+                                                            options.weekdayEffect.minWeeks);
     const double phi = detail::estimateOverdispersion(drop, *m, firstWeekday, factors);
-    detail::BacklogSeries series(options.backlogDump, factors, phi, firstWeekday);
+    detail::BacklogSeries series(options.backlogDump, drop.axis, factors, phi, firstWeekday);
     series.load(drop.series(*m, *r));
     std::optional<BacklogEstimate> e = series.estimate(*t);
     if (!e) {
+        const std::string unit = drop.axis.unitName();
         Error err = makeError(ErrorCode::InvalidValue,
-                              "no backlog estimate: the day has no reported value or too few "
-                              "reported neighbours");
+                              "no backlog estimate: the " + unit +
+                                  " has no reported value or too few reported neighbours");
         err.region = std::string(region);
         err.date = day.iso();
         return err;

@@ -37,7 +37,7 @@ bool BacklogSeries::mightBeFlagged(std::int32_t t) const {
     const double bound = m_y[static_cast<std::size_t>(t)] / m_options.minRatio;
     const auto n = static_cast<std::int32_t>(m_x.size());
     int reported = 0, small = 0;
-    const int w = m_options.windowDays;
+    const int w = m_window;
     for (std::int32_t j = std::max(0, t - w); j <= std::min(n - 1, t + w); ++j) {
         if (j == t)
             continue;
@@ -55,7 +55,7 @@ std::optional<BacklogEstimate> BacklogSeries::estimate(std::int32_t t) {
     const double x = m_x[static_cast<std::size_t>(t)];
     if (std::isnan(x))
         return std::nullopt;
-    const int w = m_options.windowDays;
+    const int w = m_window;
 
     // The level the gap test compares with: non-zero neighbours in [t - 2w, t + w].
     m_scratch.clear();
@@ -68,7 +68,7 @@ std::optional<BacklogEstimate> BacklogSeries::estimate(std::int32_t t) {
 
     // The gap just before t: no value, zero, or low.
     std::int32_t gapStart = t;
-    while (gapStart - 1 >= 0 && t - (gapStart - 1) <= m_options.maxGapDays) {
+    while (gapStart - 1 >= 0 && t - (gapStart - 1) <= m_maxGap) {
         const double y = m_y[static_cast<std::size_t>(gapStart) - 1];
         const bool gapDay = std::isnan(y) || y <= 0 || y <= m_options.gapLowFraction * level;
         if (!gapDay)
@@ -76,7 +76,7 @@ std::optional<BacklogEstimate> BacklogSeries::estimate(std::int32_t t) {
         --gapStart;
     }
     // A gap that reaches the start of the series is its beginning, not a gap.
-    const bool gap = t - gapStart >= m_options.gapMinDays && gapStart > 0;
+    const bool gap = t - gapStart >= m_gapMin && gapStart > 0;
     const std::int32_t leftEnd = gap ? gapStart : t;  // exclusive
 
     m_scratch.clear();
@@ -112,7 +112,7 @@ std::optional<BacklogEstimate> BacklogSeries::estimate(std::int32_t t) {
         e.windowFirst = Date{gapStart};
         e.windowLast = Date{t - 1};
     } else {
-        e.windowFirst = Date{std::max(0, t - m_options.redistributeDays)};
+        e.windowFirst = Date{std::max(0, t - m_redistribute)};
         e.windowLast = Date{std::max(0, t - 1)};
     }
     const double ratio = gap ? 1.0 + (m_options.minRatio - 1.0) / 2.0 : m_options.minRatio;

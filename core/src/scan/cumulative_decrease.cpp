@@ -1,11 +1,12 @@
 // cumulative_decrease: a cumulative measure that goes down.
 //
 // A measure is taken as cumulative when, over all regions, at least
-// min_rising_share of the day-to-day changes between reported values are
-// rises (and there are at least min_changes changes); daily counts rise and
-// fall about equally often. In a cumulative measure, each run of days below the
-// highest value reported so far is one finding, with the suggestion to work on
-// the daily differences (where the decrease becomes one negative daily count).
+// min_rising_share of the changes between consecutive reported values (day to
+// day, or week to week) are rises (and there are at least min_changes
+// changes); counts per period rise and fall about equally often. In a
+// cumulative measure, each run of periods below the highest value reported so
+// far is one finding, with the suggestion to work on the differences between
+// periods (where the decrease becomes one negative count).
 
 #include "scan/scan_input.h"
 
@@ -61,10 +62,10 @@ void findCumulativeDecreases(const ScanInput& in, std::vector<Finding>& out) {
                               {"measure_falling_changes", facts.falls}};
                 f.suggestion = {{"decision", "accept"},
                                 {"action", "use_daily_differences"},
-                                {"note",
-                                 "the measure is cumulative: its daily differences "
-                                 "turn this decrease into a negative daily count "
-                                 "that spread_negative can absorb"}};
+                                {"note", std::string("the measure is cumulative: its ") +
+                                             (in.weekly() ? "weekly" : "daily") +
+                                             " differences turn this decrease into a negative "
+                                             "count that spread_negative can absorb"}};
                 out.push_back(std::move(f));
                 t = end;
             }

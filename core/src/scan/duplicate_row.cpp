@@ -1,7 +1,7 @@
 // duplicate_row: the same region, date and measure on more than one row.
 //
 // The Drop keeps the first occurrence in its table and the repeats aside.
-// One finding per (measure, region, day), listing every source line and value,
+// One finding per (measure, region, period), listing every source line and value,
 // and whether the values agree. Agreeing repeats are harmless (info); repeats
 // that disagree put the difference in doubt (warning). Suggested decision:
 // keep the first row when they agree, else the last (a later row is usually

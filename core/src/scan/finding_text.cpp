@@ -32,30 +32,48 @@ std::string get(const nlohmann::json& e, const char* key) {
     return it == e.end() ? std::string("?") : number(*it);
 }
 
+/// A count of periods: `periodsKey`, or for evidence without it the daily `daysKey`.
+std::string periods(const nlohmann::json& e, const char* periodsKey, const char* daysKey) {
+    return e.contains(periodsKey) ? get(e, periodsKey) : get(e, daysKey);
+}
+
 }  // namespace
 
 std::string describeFinding(const Finding& f) {
     const nlohmann::json& e = f.evidence;
+    const bool weekly = f.cadence == Cadence::Weekly;
+    const std::string unit = weekly ? "week" : "day";
+    const std::string units = weekly ? "weeks" : "days";
     switch (f.kind) {
         case FindingKind::MissingDates:
-            return get(e, "days") + " day(s) with no value inside the reporting span";
+            if (e.value("probably_true_zeros", false)) {
+                return periods(e, "periods", "days") + " " + unit +
+                       "(s) with no row amid low counts (about " + get(e, "level_nearby") + " a " +
+                       unit + " nearby): probably true zeros";
+            }
+            return periods(e, "periods", "days") + " " + unit +
+                   "(s) with no value inside the reporting span";
         case FindingKind::DuplicateRow:
-            return get(e, "occurrences") + " rows for one day; values " +
+            return get(e, "occurrences") + " rows for one " + unit + "; values " +
                    (e.value("values_agree", false) ? "agree" : "differ");
         case FindingKind::NegativeCount:
-            return "negative count " + get(e, "value") + " (earlier " + get(e, "earlier_days") +
-                   " days sum to " + get(e, "earlier_days_sum") + ")";
+            return "negative count " + get(e, "value") + " (earlier " +
+                   periods(e, "earlier_periods", "earlier_days") + " " + units + " sum to " +
+                   get(e, "earlier_days_sum") + ")";
         case FindingKind::BacklogDump:
             return "observed " + get(e, "observed") + " where about " + get(e, "expected") +
                    " was expected (excess " + get(e, "excess") + ", z " + get(e, "z") + ")" +
                    (e.contains("after_gap")
-                        ? ", after a gap of " + number(e["after_gap"]["days"]) + " day(s)"
+                        ? ", after a gap of " + periods(e["after_gap"], "periods", "days") + " " +
+                              unit + "(s)"
                         : "");
         case FindingKind::ReportingGap:
-            return get(e, "days") + " zero day(s) where about " + get(e, "level_around") +
-                   " a day is usual" + (e.value("catch_up", false) ? ", then a catch-up" : "");
+            return periods(e, "periods", "days") + " zero " + unit + "(s) where about " +
+                   get(e, "level_around") + " a " + unit + " is usual" +
+                   (e.value("catch_up", false) ? ", then a catch-up" : "");
         case FindingKind::StaleValues:
-            return "the value " + get(e, "value") + " repeated on " + get(e, "days") + " days";
+            return "the value " + get(e, "value") + " repeated on " +
+                   periods(e, "periods", "days") + " " + units;
         case FindingKind::CodeCollision:
             return "other tools may read this code as " + get(e, "read_as") + " (" +
                    get(e, "reason") + ")";
@@ -70,8 +88,9 @@ std::string describeFinding(const Finding& f) {
         case FindingKind::CumulativeDecrease:
             return "cumulative count falls from " + get(e, "before") + " to " + get(e, "lowest");
         case FindingKind::HierarchyMismatch:
-            return "differs from the sum of its children on " + get(e, "days_mismatched") + " of " +
-                   get(e, "days_compared") + " days";
+            return "differs from the sum of its children on " +
+                   periods(e, "periods_mismatched", "days_mismatched") + " of " +
+                   periods(e, "periods_compared", "days_compared") + " " + units;
         case FindingKind::Revision: {
             const std::string change = e.value("change", "");
             if (change == "values_revised") {

@@ -1,10 +1,13 @@
 // hierarchy_mismatch: a parent whose count differs from the sum of its
-// children on days where the parent and all its children in the drop are
+// children in periods where the parent and all its children in the drop are
 // reported (register with parents, --regions FILE).
 //
 // One finding per parent and measure, from the first to the last mismatched
-// day, listing the mismatched days (at most revision.max_dates_listed) and the
-// register children that the drop does not have at all.
+// period, listing the mismatched periods (at most revision.max_dates_listed) and
+// the register children that the drop does not have at all. Evidence counts
+// periods (periods_compared, periods_mismatched) and, under the names daily
+// data has always used, days_compared and days_mismatched (the days those
+// periods cover: the same numbers for daily data).
 
 #include "scan/scan_input.h"
 
@@ -80,9 +83,14 @@ void findHierarchyMismatches(const ScanInput& in, std::vector<Finding>& out) {
             nlohmann::json childList = nlohmann::json::array();
             for (std::size_t c : children)
                 childList.push_back(drop.regionCodes[c]);
-            f.evidence = {{"children", childList},           {"children_not_in_drop", notInDrop},
-                          {"days_compared", compared},       {"days_mismatched", mismatched},
-                          {"absolute_difference", absolute}, {"dates", dates}};
+            f.evidence = {{"children", childList},
+                          {"children_not_in_drop", notInDrop},
+                          {"days_compared", in.daysIn(static_cast<std::int64_t>(compared))},
+                          {"days_mismatched", in.daysIn(static_cast<std::int64_t>(mismatched))},
+                          {"periods_compared", compared},
+                          {"periods_mismatched", mismatched},
+                          {"absolute_difference", absolute},
+                          {"dates", dates}};
             f.suggestion = {{"decision", "accept"},
                             {"note",
                              "decide which level to trust before summing regions; "

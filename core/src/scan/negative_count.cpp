@@ -1,10 +1,15 @@
-// negative_count: a negative daily value, usually a correction of earlier days.
+// negative_count: a negative count, usually a correction of earlier periods.
 //
 // Every reported value below zero in a measure that is not cumulative (a
 // cumulative measure's decreases are `cumulative_decrease`). The suggestion
-// spreads the correction over the `spread_days` days before it, in proportion
-// to them (the ledger's spread_negative). Critical when the correction is at
-// least 2 % of the region's total, or larger than the earlier window can absorb.
+// spreads the correction over the `spread_days` days (`spread_weeks` weeks of
+// weekly data) before it, in proportion to them (the ledger's spread_negative).
+// Critical when the correction is at least 2 % of the region's total, or larger
+// than the earlier window can absorb.
+//
+// Evidence: value, line, earlier_periods and earlier_days (the window before,
+// in periods and in the days they cover: equal for daily data),
+// earlier_days_sum (the counts of that window), region_total.
 
 #include "scan/scan_input.h"
 
@@ -15,7 +20,8 @@ namespace siftwave::scan::detail {
 
 void findNegativeCounts(const ScanInput& in, std::vector<Finding>& out) {
     const Drop& drop = in.drop;
-    const int spread = in.options.negativeCount.spreadDays;
+    const int spread =
+        in.periods(in.options.negativeCount.spreadDays, in.options.negativeCount.spreadWeeks);
     for (std::size_t m = 0; m < drop.measures.size(); ++m) {
         if (in.measures[m].cumulative)
             continue;
@@ -44,7 +50,8 @@ void findNegativeCounts(const ScanInput& in, std::vector<Finding>& out) {
                 f.evidence = {{"value", c.value},
                               {"line", c.line},
                               {"earlier_days_sum", before},
-                              {"earlier_days", t - from},
+                              {"earlier_days", in.daysIn(t - from)},
+                              {"earlier_periods", t - from},
                               {"region_total", total}};
                 if (t > from) {
                     f.suggestion = {{"decision", "spread_negative"},
@@ -54,7 +61,8 @@ void findNegativeCounts(const ScanInput& in, std::vector<Finding>& out) {
                                     {"absorbable", absorbable}};
                 } else {
                     f.suggestion = {{"decision", "accept"},
-                                    {"note", "no earlier days in the drop to absorb it"}};
+                                    {"note", std::string("no earlier ") + drop.axis.unitPlural() +
+                                                 " in the drop to absorb it"}};
                 }
                 out.push_back(std::move(f));
             }

@@ -60,6 +60,7 @@ Result<ScanReport> scanDrop(const Drop& drop, const ScanOptions& options,
     const detail::ScanInput in = detail::prepareScanInput(drop, options, context);
 
     ScanReport report;
+    report.cadence = drop.axis.cadence();
     std::vector<Finding>& all = report.findings;
     if (options.missingDates.enabled)
         detail::findMissingDates(in, all);
@@ -145,6 +146,7 @@ nlohmann::json scanReportToJson(const ScanReport& report) {
     for (const Finding& f : report.findings)
         findings.push_back(findingToJson(f));
     nlohmann::json summary = nlohmann::json::object();
+    summary["cadence"] = cadenceName(report.cadence);
     summary["by_kind"] = report.byKind;
     summary["by_severity"] = report.bySeverity;
     if (report.revisions.compared) {

@@ -102,43 +102,50 @@ WeekdayFactors estimateWeekdayFactors(const Drop& drop, std::size_t measure, int
     return out;
 }
 
+int overdispersionWidth(const TimeAxis& axis) {
+    return axis.weekly() ? 5 : 7;
+}
+
 double estimateOverdispersion(const Drop& drop, std::size_t measure, int firstWeekday,
                               const WeekdayFactors& factors) {
     constexpr double kMinLevel = 10;
     constexpr std::size_t kMaxSamples = 20000;
+    const auto width = static_cast<std::size_t>(overdispersionWidth(drop.axis));
+    const std::size_t half = width / 2;
+    const double residualShare = static_cast<double>(width - 1) / static_cast<double>(width);
     const std::size_t regions = drop.regionCodes.size();
     const auto days = static_cast<std::size_t>(std::max(0, drop.periods()));
-    if (days < 7)
+    if (days < width)
         return 0;
-    const std::size_t candidates = regions * (days - 6);
+    const std::size_t candidates = regions * (days - (width - 1));
     const std::size_t stride = std::max<std::size_t>(1, candidates / kMaxSamples);
     std::vector<double> level, residual;
     std::size_t k = 0;
     for (std::size_t r = 0; r < regions; ++r) {
         const std::span<const Cell> cells = drop.series(measure, r);
-        for (std::size_t t = 3; t + 3 < days; ++t, ++k) {
+        for (std::size_t t = half; t + half < days; ++t, ++k) {
             if (k % stride != 0)
                 continue;
             double sum = 0;
             bool full = true;
             double y[7];
-            for (std::size_t j = 0; j < 7; ++j) {
-                const Cell& c = cells[t - 3 + j];
+            for (std::size_t j = 0; j < width; ++j) {
+                const Cell& c = cells[t - half + j];
                 if (!c.reported() || c.value < 0) {
                     full = false;
                     break;
                 }
                 y[j] = c.value /
-                       factors.factor[(static_cast<std::size_t>(firstWeekday) + t - 3 + j) % 7];
+                       factors.factor[(static_cast<std::size_t>(firstWeekday) + t - half + j) % 7];
                 sum += y[j];
             }
             if (!full)
                 continue;
-            const double a = sum / 7;
+            const double a = sum / static_cast<double>(width);
             if (a < kMinLevel)
                 continue;
             level.push_back(a);
-            residual.push_back(std::fabs(y[3] - a));
+            residual.push_back(std::fabs(y[half] - a));
         }
     }
     if (level.size() < 50)
@@ -146,7 +153,7 @@ double estimateOverdispersion(const Drop& drop, std::size_t measure, int firstWe
     std::vector<double> z(level.size());
     auto medianZ = [&](double phi) {
         for (std::size_t i = 0; i < level.size(); ++i) {
-            z[i] = residual[i] / std::sqrt(6.0 / 7.0 * (level[i] + phi * level[i] * level[i]));
+            z[i] = residual[i] / std::sqrt(residualShare * (level[i] + phi * level[i] * level[i]));
         }
         return medianInPlace(z);
     };
@@ -190,7 +197,7 @@ void classifyCumulative(const Drop& drop, const CumulativeDecreaseOptions& optio
 ScanInput prepareScanInput(const Drop& drop, const ScanOptions& options,
                            const ScanContext& context) {
     ScanInput in{drop, options, context, 0, {}};
-    if (drop.periods() > 0)
+    if (drop.periods() > 0 && !drop.axis.weekly())
         in.firstWeekday = drop.axis.first().isoWeekday() - 1;
     in.measures.resize(drop.measures.size());
     for (std::size_t m = 0; m < drop.measures.size(); ++m) {
@@ -207,9 +214,12 @@ ScanInput prepareScanInput(const Drop& drop, const ScanOptions& options,
             facts.regionTotals[r] = total;
         }
         if (!facts.cumulative) {
-            facts.weekday =
-                estimateWeekdayFactors(drop, m, in.firstWeekday, {}, options.weekdayEffect.minLevel,
-                                       options.weekdayEffect.minWeeks);
+            // Weekday factors only for daily data: a week holds every weekday once.
+            if (!drop.axis.weekly()) {
+                facts.weekday = estimateWeekdayFactors(drop, m, in.firstWeekday, {},
+                                                       options.weekdayEffect.minLevel,
+                                                       options.weekdayEffect.minWeeks);
+            }
             facts.overdispersion = estimateOverdispersion(drop, m, in.firstWeekday, facts.weekday);
         }
     }
@@ -221,6 +231,7 @@ Finding makeFinding(const ScanInput& in, FindingKind kind, Severity severity,
     Finding f;
     f.kind = kind;
     f.severity = severity;
+    f.cadence = in.drop.axis.cadence();
     if (region)
         f.region = in.drop.regionCodes[*region];
     if (measure)

@@ -2,6 +2,10 @@
 // What every detector reads: the drop, the options, the optional previous drop
 // and register, and facts about each measure computed once (weekday factors,
 // whether the measure is cumulative, region totals).
+//
+// Detectors index periods (days or weeks, drop.axis); a threshold that counts
+// periods is taken for the drop's cadence with ScanInput::periods(days, weeks).
+// Weekly drops have no weekday factors (all 1, `estimated` false).
 
 #include "siftwave/drop.h"
 #include "siftwave/scan/finding.h"
@@ -43,11 +47,25 @@ struct ScanInput {
     const Drop& drop;
     const ScanOptions& options;
     ScanContext context;
-    int firstWeekday = 0;  // 0 = Monday, for day index 0
+    int firstWeekday = 0;  // 0 = Monday, for day index 0 (daily drops)
     std::vector<MeasureFacts> measures;
 
     int weekdayOf(std::int32_t day) const { return (firstWeekday + day) % 7; }
+    bool weekly() const { return drop.axis.weekly(); }
+    /// The threshold for the drop's cadence: `daily` for daily data, `weekly` for weekly data.
+    template <typename T>
+    T periods(T daily, T weekly) const {
+        return drop.axis.weekly() ? weekly : daily;
+    }
+    /// Days covered by `count` periods (the `days` of the evidence; equal for daily data).
+    std::int64_t daysIn(std::int64_t count) const { return count * drop.axis.periodDays(); }
 };
+
+/// The threshold for a cadence (as ScanInput::periods, where there is no ScanInput).
+template <typename T>
+T forCadence(const TimeAxis& axis, T daily, T weekly) {
+    return axis.weekly() ? weekly : daily;
+}
 
 /// Computes the measure facts. The options must validate.
 ScanInput prepareScanInput(const Drop& drop, const ScanOptions& options,
@@ -74,13 +92,18 @@ WeekdayFactors estimateWeekdayFactors(const Drop& drop, std::size_t measure, int
 
 /// Overdispersion phi (Var x = mu + phi mu^2, phi = 1/k of a negative binomial),
 /// pooled over the regions of a measure: with weekday-adjusted values y_t and
-/// their centred 7-day mean a_t (a_t >= 10), the residuals r_t = y_t - a_t have
-/// variance about (6/7) Var y_t; phi is the value at which the median of
-/// |r_t| / sqrt((6/7)(a_t + phi a_t^2)) equals 0.6745, the median of |N(0,1)|
-/// (found by bisection on [0, 2], over at most 20,000 evenly spaced days).
-/// 0 when fewer than 50 days qualify.
+/// their centred mean a_t over w periods (a_t >= 10), the residuals r_t = y_t - a_t
+/// have variance about ((w-1)/w) Var y_t; phi is the value at which the median of
+/// |r_t| / sqrt(((w-1)/w)(a_t + phi a_t^2)) equals 0.6745, the median of |N(0,1)|
+/// (found by bisection on [0, 2], over at most 20,000 evenly spaced periods).
+/// 0 when fewer than 50 periods qualify. w = 7 days for daily data (a whole week, so
+/// that the weekday effect cancels); w = 5 weeks for weekly data (no weekday cycle to
+/// cancel, and a shorter mean follows a seasonal wave, whose curvature would otherwise
+/// count as noise): overdispersionWidth().
 double estimateOverdispersion(const Drop& drop, std::size_t measure, int firstWeekday,
                               const WeekdayFactors& factors);
+/// The w above for the drop's cadence.
+int overdispersionWidth(const TimeAxis& axis);
 
 /// A finding with kind, severity, region (by index) and measure (by index) filled in.
 Finding makeFinding(const ScanInput& in, FindingKind kind, Severity severity,

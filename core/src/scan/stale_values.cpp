@@ -1,6 +1,7 @@
 // stale_values: a run of one repeated non-zero value (copied forward).
 //
-// A run of L >= min_days identical reported values v > 0 is reported when the
+// A run of L >= min_days days (min_weeks weeks in weekly data) identical
+// reported values v > 0 is reported when the
 // chance of L - 1 consecutive equal draws under Poisson noise at level v,
 // q(v)^(L-1) with q(v) = sum_k P(k)^2 = exp(-2v) I_0(2v), is at most
 // max_chance. Poisson is the least dispersed count model in use, so real
@@ -18,6 +19,7 @@ namespace siftwave::scan::detail {
 void findStaleValues(const ScanInput& in, std::vector<Finding>& out) {
     const Drop& drop = in.drop;
     const StaleValuesOptions& o = in.options.staleValues;
+    const int minRun = in.periods(o.minDays, o.minWeeks);
     std::unordered_map<std::int32_t, double> equalChance;  // memo per value
     for (std::size_t m = 0; m < drop.measures.size(); ++m) {
         if (in.measures[m].cumulative)
@@ -29,28 +31,30 @@ void findStaleValues(const ScanInput& in, std::vector<Finding>& out) {
                 if (!c.reported() || c.value <= 0)
                     continue;
                 std::int32_t end = t;
-                while (end + 1 < drop.periods() && cells[static_cast<std::size_t>(end) + 1].reported() &&
+                while (end + 1 < drop.periods() &&
+                       cells[static_cast<std::size_t>(end) + 1].reported() &&
                        cells[static_cast<std::size_t>(end) + 1].value == c.value) {
                     ++end;
                 }
-                const int days = end - t + 1;
-                if (days >= o.minDays) {
+                const int periods = end - t + 1;
+                if (periods >= minRun) {
                     auto it = equalChance.find(c.value);
                     if (it == equalChance.end()) {
                         it = equalChance.emplace(c.value, poissonEqualChance(c.value)).first;
                     }
-                    const double chance = std::pow(it->second, days - 1);
+                    const double chance = std::pow(it->second, periods - 1);
                     if (chance <= o.maxChance) {
                         Finding f =
                             makeFinding(in, FindingKind::StaleValues, Severity::Warning, r, m);
                         f.first = drop.periodStart(t);
                         f.last = drop.periodStart(end);
-                        f.impact = static_cast<double>(c.value) * (days - 1);
+                        f.impact = static_cast<double>(c.value) * (periods - 1);
                         f.evidence = {{"value", c.value},
-                                      {"days", days},
+                                      {"days", in.daysIn(periods)},
+                                      {"periods", periods},
                                       {"chance_under_poisson", chance},
                                       {"first_line", c.line}};
-                        // The first day of the run may be genuine; the copies follow it.
+                        // The first period of the run may be genuine; the copies follow it.
                         f.suggestion = {{"decision", "exclude"},
                                         {"first", drop.periodStart(t + 1).iso()},
                                         {"last", f.last->iso()},

@@ -68,7 +68,7 @@ Result<Decision> suggestedDecision(const Finding& finding, const std::string& me
         case DecisionKind::FillMissing: {
             d.window = rangeFields(s, "first", "last");
             if (!d.window)
-                return badSuggestion(finding, "lacks the days to fill");
+                return badSuggestion(finding, "lacks the periods to fill");
             d.fillMethod =
                 fillMethodFromName(stringField(s, "method")).value_or(FillMethod::Linear);
             break;

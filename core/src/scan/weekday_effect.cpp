@@ -1,4 +1,6 @@
-// weekday_effect: a weekly reporting pattern, one finding per measure.
+// weekday_effect: a weekly reporting pattern, one finding per measure. Daily
+// data only: a weekly drop counts every weekday once in each period, so it has
+// no weekday effect to find (and the scan estimates no factors for it).
 //
 // The factors are those the backlog baseline uses: pooled over all regions by
 // ratio to a centred 7-day moving average (scan_input.h), scaled to mean 1.
@@ -24,6 +26,8 @@ double round3(double v) {
 void findWeekdayEffects(const ScanInput& in, std::vector<Finding>& out) {
     const Drop& drop = in.drop;
     const WeekdayEffectOptions& o = in.options.weekdayEffect;
+    if (in.weekly())
+        return;
     for (std::size_t m = 0; m < drop.measures.size(); ++m) {
         const MeasureFacts& facts = in.measures[m];
         if (facts.cumulative || !facts.weekday.estimated)

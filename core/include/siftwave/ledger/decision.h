@@ -7,6 +7,12 @@
 // kind; each field says which kinds read it, and validate() checks that the
 // kind has what it needs.
 //
+// Decisions act on periods: the days of a daily drop, the weeks of a weekly
+// one. Dates name periods: `date` and the ends of `window` select the period
+// that holds them (any day of a week selects that week), and the cells they
+// change are recorded under their periods' first days. "Day" below reads
+// "period" for weekly data.
+//
 // Kinds and what they do to the cleaned cells (see replay.h for the cells):
 //
 //   redistribute      move `excess` counts from the dump day `date` over the
@@ -14,18 +20,21 @@
 //                     method (apportion.h) with weights per `redistribute`
 //                     method: uniform (equal), proportional (the values
 //                     already in the window) or baseline (a centred moving
-//                     average of width `baselineWidth`, series/smoothing.h, the dump
-//                     day left out). Region total unchanged; no day negative.
+//                     average of width `baselineWidth` periods, series/smoothing.h,
+//                     the dump day left out). Region total unchanged; no day
+//                     negative. The window must end before the dump's period.
 //   spread_negative   the negative value on `date` is set to 0 and the same
 //                     amount taken from the earlier days in `window` (default:
 //                     every earlier day) in proportion to their positive
 //                     values. Total unchanged; an error when the earlier days
 //                     hold less than the correction.
 //   fill_missing      the days of `window` (all without a value) are filled:
-//                     zero; linear (rounded interpolation between the days
-//                     just before and after); share (the next day's catch-up
-//                     value is split uniformly over the gap and that day).
-//                     share keeps the total; zero and linear state the change.
+//                     zero (the fixed value 0: absent rows that are true zeros,
+//                     e.g. of a tally made from a case list); linear (rounded
+//                     interpolation between the days just before and after);
+//                     share (the next day's catch-up value is split uniformly
+//                     over the gap and that day). share and zero keep the
+//                     total; linear adds counts and states the change.
 //   resolve_duplicate the cell on `date` is set from its duplicate rows
 //                     (Drop::duplicates): keep first, last, sum or max.
 //   merge_codes       every cell of region `variant` is added into region
@@ -62,7 +71,8 @@ enum class RedistributeMethod { Uniform, Proportional, Baseline };
 enum class FillMethod { Zero, Linear, Share };
 enum class DuplicateRule { First, Last, Sum, Max };
 
-/// An inclusive range of calendar days.
+/// An inclusive range of calendar days. A decision reads it as the periods that
+/// hold its first and its last day (for weekly data: every week it touches).
 struct DayRange {
     Date first;
     Date last;
@@ -87,7 +97,8 @@ struct Decision {
 
     std::int64_t excess = 0;  // redistribute: counts to move, > 0
     RedistributeMethod redistributeMethod = RedistributeMethod::Uniform;
-    int baselineWidth = 7;  // redistribute/baseline: odd moving-average width, 3..21 (default 7)
+    int baselineWidth = 7;  // redistribute/baseline: odd moving-average width in periods, 3..21
+                            // (default 7: a week of days, or seven weeks)
     FillMethod fillMethod = FillMethod::Zero;
     DuplicateRule duplicateRule = DuplicateRule::First;
 
@@ -115,7 +126,7 @@ std::optional<DuplicateRule> duplicateRuleFromName(std::string_view name);
 
 /// True for the kinds after which every region and measure total must equal
 /// its total before, exactly (redistribute, spread_negative, fill_missing with
-/// share, accept). merge_codes conserves the sum of the two regions; withdraw
+/// share or zero, accept). merge_codes conserves the sum of the two regions; withdraw
 /// exactly reverses (or restores) the entry it names.
 bool decisionConservesTotals(const Decision& decision);
 

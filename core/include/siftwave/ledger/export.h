@@ -17,7 +17,9 @@
 // Report: each entry with its time, author, kind, parameters, reason and the
 // totals it moved; then the reconciliation table per region and measure: raw
 // total, cleaned total, difference, and the entries in effect that explain
-// the difference. Markdown, HTML (self-contained, escaped) or CSV.
+// the difference. Markdown, HTML (self-contained, escaped) or CSV. The Markdown
+// and HTML headers also say when decisions in effect added counts
+// (CountsAdded::describe()).
 
 #include "siftwave/drop.h"
 #include "siftwave/ledger/cleaned.h"
@@ -51,6 +53,21 @@ struct ReconciliationRow {
 
 /// Entries in effect after the whole ledger (withdrawals applied), by 0-based index.
 std::vector<bool> entriesInEffect(const Ledger& ledger);
+
+/// The decisions in effect that added counts: entries (not withdrawals) whose
+/// recorded total changes sum to more than 0 over every region and measure
+/// (fill_missing linear, resolve_duplicate sum or max, ...). A move between
+/// regions (merge_codes) adds nothing; an exclusion lowers a total and is not
+/// listed. After such entries the cleaned totals do not reconcile with the raw
+/// ones, and `ledger --verify` says so instead of "totals reconcile".
+struct CountsAdded {
+    std::int64_t total = 0;              // the sum of those entries' changes, > 0 when any
+    std::vector<std::uint64_t> entries;  // their sequence numbers, ascending
+    bool any() const { return !entries.empty(); }
+    /// "totals changed by decisions that add counts: +12 (entries #3, #5)"; "" when none.
+    std::string describe() const;
+};
+CountsAdded countsAddedByDecisions(const Ledger& ledger);
 
 /// Every region and measure of the drop, from the drop and its replay.
 std::vector<ReconciliationRow> reconcile(const Drop& drop, const Cleaned& cleaned,

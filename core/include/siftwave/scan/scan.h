@@ -47,6 +47,7 @@ struct RevisionSummary {
 };
 
 struct ScanReport {
+    Cadence cadence = Cadence::Daily;               // of the drop: its periods are days or weeks
     std::vector<Finding> findings;                  // ranked, rank 1 first
     std::map<std::string, std::size_t> byKind;      // every kind, 0 when none
     std::map<std::string, std::size_t> bySeverity;  // "info", "warning", "critical"
@@ -57,8 +58,9 @@ struct ScanReport {
 Result<ScanReport> scanDrop(const Drop& drop, const ScanOptions& options = {},
                             const ScanContext& context = {});
 
-/// {"findings": [...], "summary": {"by_kind": {...}, "by_severity": {...}, "revisions": {...}}}
-/// ("revisions" only when a previous drop was compared).
+/// {"findings": [...], "summary": {"cadence": "daily"|"weekly", "by_kind": {...},
+/// "by_severity": {...}, "revisions": {...}}} ("revisions" only when a previous drop was
+/// compared).
 nlohmann::json scanReportToJson(const ScanReport& report);
 
 /// The stable id of a finding from its kind, region, measure and range (see above).

@@ -12,10 +12,12 @@
 //   "fill_missing"      first..last, method
 //   "resolve_duplicate" date, keep
 //   "merge_codes"       from -> into
-//   "exclude"           first..last (the finding's days)
-//   "accept"            the finding's region, measure and days
+//   "exclude"           first..last (the finding's periods)
+//   "accept"            the finding's region, measure and periods
 //
-// A finding about every measure (measure null) is decided for `measure`.
+// Dates are first days of periods (days, or weeks of weekly data); the ledger
+// maps any date to the period that holds it. A finding about every measure
+// (measure null) is decided for `measure`.
 
 #include "siftwave/ledger/decision.h"
 #include "siftwave/result.h"
