@@ -38,9 +38,10 @@ BatchFitOutcome runBatchFit(const BatchFitRequest& request, BackgroundTask::Prog
     const std::size_t total = request.regions.size();
     std::vector<fit::RegionSeries> series(total);
     for (std::size_t i = 0; i < total; ++i)
-        series[i] = fit::RegionSeries{request.regions[i],
-                                      fit::DailySeries{request.firstDay, request.counts[i]},
-                                      request.populations[i]};
+        series[i] =
+            fit::RegionSeries{request.regions[i],
+                              fit::Series{request.firstDay, request.counts[i], request.periodDays},
+                              request.populations[i]};
     // Slices big enough to keep every worker thread of the core's pool busy, small enough that
     // progress moves about fifty times and a cancel is seen within a slice.
     const unsigned threads = request.options.threads > 0

@@ -37,6 +37,7 @@ class TextTableModel;
 /// Everything the worker needs, copied: it must not touch the workbench.
 struct BatchFitRequest {
     Date firstDay;
+    int periodDays = 1;                       // 1 (daily) or 7 (weekly counts)
     std::vector<std::string> regions;         // verbatim codes
     std::vector<std::vector<double>> counts;  // cleaned counts per region (NaN: no value)
     std::vector<std::optional<double>> populations;

@@ -165,7 +165,7 @@ Result<QStringList> FigureExportDialog::exportFigures() {
             request.subtitle = m_subtitle->text().toStdString();
         }
         if (m_fit->currentIndex() > 0) {
-            fit::FitOptions fitOptions;
+            fit::FitOptions fitOptions = fit::FitOptions::forCadence(m_inputs.drop->axis.cadence());
             fitOptions.model = fit::kAllModels[static_cast<std::size_t>(m_fit->currentIndex() - 1)];
             request.fit = fitOptions;
         }

@@ -166,8 +166,9 @@ FitPane::FitPane(QWidget* parent)
                 Q_EMIT optionsChanged();
         });
     connect(m_method, &QComboBox::currentIndexChanged, this, [this] {
-        m_weekday->setEnabled(m_method->currentData().toInt() !=
-                              static_cast<int>(fit::FitMethod::LeastSquares));
+        m_weekday->setEnabled(!m_axis.weekly() &&
+                              m_method->currentData().toInt() !=
+                                  static_cast<int>(fit::FitMethod::LeastSquares));
     });
     m_weekday->setEnabled(false);
     onWindowModeChanged();
@@ -183,11 +184,12 @@ void FitPane::onWindowModeChanged() {
 }
 
 fit::FitOptions FitPane::options() const {
-    fit::FitOptions options;
+    // The cadence's defaults (smoothing, wave detection), then the pane's choices.
+    fit::FitOptions options = fit::FitOptions::forCadence(m_axis.cadence());
     const int model = m_model->currentData().toInt();
     options.model = model >= 0 ? static_cast<fit::ModelKind>(model) : fit::ModelKind::Gumbel;
     options.method = static_cast<fit::FitMethod>(m_method->currentData().toInt());
-    options.weekdayFactors = m_weekday->isEnabled() && m_weekday->isChecked();
+    options.weekdayFactors = !m_axis.weekly() && m_weekday->isEnabled() && m_weekday->isChecked();
     options.wave = static_cast<fit::WaveChoice>(m_wave->currentData().toInt());
     if (const auto window = manualWindow())
         options.window = std::make_pair(window->first, window->last);
@@ -199,30 +201,48 @@ bool FitPane::bestModelWanted() const {
 }
 
 std::optional<DayIndexRange> FitPane::manualWindow() const {
-    if (!m_manual->isChecked() || m_days == 0)
+    const int periods = m_axis.periods();
+    if (!m_manual->isChecked() || periods == 0)
         return std::nullopt;
-    int first = fromQDate(m_from->date()) - m_firstDay;
-    int last = fromQDate(m_to->date()) - m_firstDay;
-    first = std::clamp(first, 0, m_days - 1);
-    last = std::clamp(last, first, m_days - 1);
+    // Any day of a week picks that week.
+    int first = m_axis.periodOnGrid(fromQDate(m_from->date()));
+    int last = m_axis.periodOnGrid(fromQDate(m_to->date()));
+    first = std::clamp(first, 0, periods - 1);
+    last = std::clamp(last, first, periods - 1);
     return DayIndexRange{first, last};
 }
 
-void FitPane::setCalendar(Date firstDay, int days) {
-    m_firstDay = firstDay;
-    m_days = days;
-    if (days <= 0)
+void FitPane::setCalendar(const TimeAxis& axis) {
+    const bool cadenceChanged = axis.cadence() != m_axis.cadence();
+    m_axis = axis;
+    if (cadenceChanged) {
+        // The methods say what they fit: daily counts (LSQ on their 7-day mean) or weekly ones.
+        const bool weekly = axis.weekly();
+        m_method->setItemText(
+            m_method->findData(static_cast<int>(fit::FitMethod::LeastSquares)),
+            weekly ? tr("least squares on weekly counts") : tr("least squares on the 7-day mean"));
+        m_method->setItemText(m_method->findData(static_cast<int>(fit::FitMethod::Poisson)),
+                              weekly ? tr("Poisson, weekly counts") : tr("Poisson, daily counts"));
+        m_method->setItemText(
+            m_method->findData(static_cast<int>(fit::FitMethod::NegativeBinomial)),
+            weekly ? tr("negative binomial, weekly counts")
+                   : tr("negative binomial, daily counts"));
+        m_manual->setText(weekly ? tr("weeks") : tr("days"));
+        m_weekday->setEnabled(!weekly && m_method->currentData().toInt() !=
+                                             static_cast<int>(fit::FitMethod::LeastSquares));
+    }
+    if (axis.periods() <= 0)
         return;
     const QSignalBlocker a(m_from), b(m_to);
     for (QDateEdit* edit : {m_from, m_to})
-        edit->setDateRange(toQDate(firstDay), toQDate(firstDay + (days - 1)));
+        edit->setDateRange(toQDate(axis.first()), toQDate(axis.lastEnd()));
 }
 
 void FitPane::setManualWindow(DayIndexRange window) {
     const QSignalBlocker a(m_from), b(m_to), c(m_auto), d(m_manual);
     m_manual->setChecked(true);
-    m_from->setDate(toQDate(m_firstDay + window.first));
-    m_to->setDate(toQDate(m_firstDay + window.last));
+    m_from->setDate(toQDate(m_axis.periodStart(window.first)));
+    m_to->setDate(toQDate(m_axis.periodEnd(window.last)));
     m_from->setEnabled(true);
     m_to->setEnabled(true);
     m_wave->setEnabled(false);
@@ -242,15 +262,15 @@ void FitPane::setChoices(std::optional<fit::ModelKind> model, fit::FitMethod met
     m_model->setCurrentIndex(m_model->findData(model ? static_cast<int>(*model) : -1));
     m_method->setCurrentIndex(m_method->findData(static_cast<int>(method)));
     m_weekday->setChecked(weekdayFactors);
-    m_weekday->setEnabled(method != fit::FitMethod::LeastSquares);
+    m_weekday->setEnabled(!m_axis.weekly() && method != fit::FitMethod::LeastSquares);
     if (const int index = m_wave->findData(static_cast<int>(wave)); index >= 0)
         m_wave->setCurrentIndex(index);
 }
 
 void FitPane::showWindow(DayIndexRange window) {
     const QSignalBlocker a(m_from), b(m_to);
-    m_from->setDate(toQDate(m_firstDay + window.first));
-    m_to->setDate(toQDate(m_firstDay + window.last));
+    m_from->setDate(toQDate(m_axis.periodStart(window.first)));
+    m_to->setDate(toQDate(m_axis.periodEnd(window.last)));
 }
 
 QString FitPane::noFitText(const Error& error) {
@@ -309,12 +329,13 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
         return;
     }
     const fit::FitResult& fit = *result;
-    QString summary = tr("<b>%1</b>, %2, %3 to %4 (%5 days): %6")
+    QString summary = tr("<b>%1</b>, %2, %3 to %4 (%5 %6): %7")
                           .arg(modelDisplayName(fit.model), methodDisplayName(fit.method),
                                QString::fromStdString(fit.windowFirst().iso()),
                                QString::fromStdString(fit.windowLast().iso()))
                           .arg(fit.last - fit.first + 1)
-                          .arg(QString::fromStdString(fit.summary.brief()).toHtmlEscaped());
+                          .arg(fit.periodDays == 7 ? tr("weeks") : tr("days"),
+                               QString::fromStdString(fit.summary.brief()).toHtmlEscaped());
     summary += tr("<br>R² %1 · RMSE %2 · AICc %3")
                    .arg(number(fit.goodness.r2, 3), number(fit.goodness.rmse, 1),
                         number(fit.goodness.aicc, 1));
@@ -369,7 +390,8 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
     };
     QVector<TextTableModel::Row> derived;
     derived << dateRow(tr("Peak day"), d.peakDay);
-    derived << valueRow(tr("Peak per day"), d.peakIncidence, decimalsFor(d.peakIncidence.value));
+    derived << valueRow(fit.periodDays == 7 ? tr("Peak per week") : tr("Peak per day"),
+                        d.peakIncidence, decimalsFor(d.peakIncidence.value));
     derived << valueRow(tr("Wave size K"), d.waveSize, 0);
     derived << TextTableModel::Row{
         {tr("Fraction observed"), number(d.fractionObserved.value * 100, 1) + QStringLiteral(" %"),

@@ -44,7 +44,8 @@ public:
     std::optional<DayIndexRange> manualWindow() const;
 
     /// The drop's calendar, for the date fields.
-    void setCalendar(Date firstDay, int days);
+    /// The drop's periods: the window's dates, the methods' names and the cadence's defaults.
+    void setCalendar(const TimeAxis& axis);
     /// Sets chosen days (e.g. dragged on the plot) without emitting optionsChanged().
     void setManualWindow(DayIndexRange window);
     /// Back to the automatic window, without emitting optionsChanged().
@@ -90,8 +91,7 @@ private:
     TextTableModel* m_derived;
     TextTableModel* m_comparison;
     QLabel* m_caution;
-    Date m_firstDay;
-    int m_days = 0;
+    TimeAxis m_axis;
 };
 
 }  // namespace siftwave::widgets

@@ -237,8 +237,8 @@ Result<fit::FitResult> Workbench::fitRegion(const QString& regionCode, int measu
     const std::vector<double> counts = cleanedCounts(regionCode, measure);
     if (counts.empty())
         return makeError(ErrorCode::NotFound, "no such region or measure in the open drop");
-    return fit::fitSeries(fit::DailySeries{m_drop->axis.first(), counts}, options,
-                          population(regionCode));
+    return fit::fitSeries(fit::Series{m_drop->axis.first(), counts, m_drop->axis.periodDays()},
+                          options, population(regionCode));
 }
 
 std::vector<fit::ModelComparisonRow> Workbench::compareModels(
@@ -246,8 +246,8 @@ std::vector<fit::ModelComparisonRow> Workbench::compareModels(
     const std::vector<double> counts = cleanedCounts(regionCode, measure);
     if (counts.empty())
         return {};
-    return fit::compareModels(fit::DailySeries{m_drop->axis.first(), counts}, options,
-                              population(regionCode));
+    return fit::compareModels(fit::Series{m_drop->axis.first(), counts, m_drop->axis.periodDays()},
+                              options, population(regionCode));
 }
 
 void Workbench::setDrop(std::shared_ptr<const Drop> drop,

@@ -728,7 +728,7 @@ void MainWindow::refitNow(bool compare) {
     } else {
         result.emplace(m_workbench->fitRegion(m_currentRegion, measure, options));
     }
-    m_fitPane->setCalendar(view.axis.first(), view.periods());
+    m_fitPane->setCalendar(view.axis);
     m_fitPane->showFit(*result, rows);
     if (result->ok()) {
         m_fit = result->value();

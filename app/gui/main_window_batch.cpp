@@ -27,6 +27,7 @@ void MainWindow::startBatchFit() {
     const int measure = m_plot->measure();
     widgets::BatchFitRequest request;
     request.firstDay = drop.axis.first();
+    request.periodDays = drop.axis.periodDays();
     std::map<std::string, std::string> names;
     for (const std::string& code : drop.regionCodes) {
         const QString region = QString::fromStdString(code);

@@ -44,10 +44,11 @@ void MainWindow::restoreProjectView(const ProjectFile& project) {
         fit::methodFromName(project.fit.method).value_or(fit::FitMethod::LeastSquares),
         extra("fit.weekday_factors") == "true",
         extra("fit.wave") == "latest" ? fit::WaveChoice::Latest : fit::WaveChoice::Largest);
-    m_fitPane->setCalendar(drop.axis.first(), drop.periods());
+    m_fitPane->setCalendar(drop.axis);
     if (project.fit.windowFirst && project.fit.windowLast)
-        m_fitPane->setManualWindow(widgets::DayIndexRange{*project.fit.windowFirst - drop.axis.first(),
-                                                          *project.fit.windowLast - drop.axis.first()});
+        m_fitPane->setManualWindow(
+            widgets::DayIndexRange{*project.fit.windowFirst - drop.axis.first(),
+                                   *project.fit.windowLast - drop.axis.first()});
     else
         m_fitPane->setAutomaticWindow();
     m_plot->chooseMeasure(measure ? static_cast<int>(*measure) : 0);
@@ -56,8 +57,9 @@ void MainWindow::restoreProjectView(const ProjectFile& project) {
         selectRegion(QString::fromStdString(project.view.region));
     redrawSeries();  // the fit settings are new even when the region is not
     if (project.view.visibleFirst && project.view.visibleLast)
-        m_plot->setVisibleDays(widgets::DayIndexRange{*project.view.visibleFirst - drop.axis.first(),
-                                                      *project.view.visibleLast - drop.axis.first()});
+        m_plot->setVisibleDays(
+            widgets::DayIndexRange{*project.view.visibleFirst - drop.axis.first(),
+                                   *project.view.visibleLast - drop.axis.first()});
 }
 
 ProjectFile MainWindow::projectOfWindow(const QString& projectPath) const {

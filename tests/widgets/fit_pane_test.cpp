@@ -5,6 +5,7 @@
 
 #include "siftwave/fit/fit.h"
 
+#include <QComboBox>
 #include <QTest>
 
 #include <vector>
@@ -30,6 +31,31 @@ private Q_SLOTS:
         QVERIFY2(!summary.contains(QStringLiteral("FIRST:LAST")), qPrintable(summary));
         QVERIFY2(summary.contains(QStringLiteral("Choose “days” under Window")),
                  qPrintable(summary));
+    }
+
+    // Weekly data: the pane offers weekly methods, no weekday factors, the weekly defaults of the
+    // core (no LSQ smoothing, wave detection in weeks), and a chosen window in whole weeks.
+    void aWeeklyCalendarGivesTheWeeklyFitChoices() {
+        FitPane pane;
+        // ISO 8601: 2026-01-05 is the Monday of 2026-W02.
+        pane.setCalendar(siftwave::TimeAxis::weekly(*siftwave::Date::fromYmd(2026, 1, 5), 20,
+                                                    siftwave::WeekStart::Monday));
+        auto* method = pane.findChild<QComboBox*>(QStringLiteral("fitMethod"));
+        QVERIFY(method);
+        QCOMPARE(method->itemText(0), QStringLiteral("least squares on weekly counts"));
+        method->setCurrentIndex(1);  // Poisson: weekday factors stay off for weekly counts
+        const siftwave::fit::FitOptions options = pane.options();
+        QCOMPARE(options.smoothingWindow, 1);
+        QCOMPARE(
+            options.detection.minPeriods,
+            siftwave::fit::WaveDetectionOptions::forCadence(siftwave::Cadence::Weekly).minPeriods);
+        QVERIFY(!options.weekdayFactors);
+        pane.setManualWindow({2, 5});
+        const auto window = pane.manualWindow();
+        QVERIFY(window.has_value());
+        QCOMPARE(window->first, 2);
+        QCOMPARE(window->last, 5);
+        QCOMPARE(pane.options().window, std::make_optional(std::make_pair(2, 5)));
     }
 
     void otherReasonsAreShownAsTheCoreGivesThem() {

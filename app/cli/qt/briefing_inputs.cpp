@@ -74,7 +74,7 @@ Result<std::optional<fit::FitOptions>> fitOptionsFrom(const ParsedArgs& args, co
     const bool asked = args.has("fit") || (fitByDefault && !args.has("no-fit"));
     if (!asked && (args.has("method") || args.has("window")))
         return makeError(ErrorCode::Usage, "--method and --window need --fit MODEL");
-    fit::FitOptions options;
+    fit::FitOptions options = fit::FitOptions::forCadence(drop.axis.cadence());
     if (args.has("fit")) {
         const auto model = fit::modelFromName(args.value("fit"));
         if (!model)
