@@ -93,7 +93,8 @@ void addMarks(FigureSpec& spec, const Ledger& ledger, const Cleaned& cleaned) {
                 at = DayRange{*d.date, *d.date};
                 mark.window = d.window;
                 mark.count = d.excess;
-                mark.label = tag + groupedCount(d.excess) + " moved to earlier days";
+                mark.label = tag + groupedCount(d.excess) + " moved to earlier " +
+                             spec.axis.unitPlural();
                 break;
             case DecisionKind::SpreadNegative: {
                 at = DayRange{*d.date, *d.date};
@@ -110,8 +111,14 @@ void addMarks(FigureSpec& spec, const Ledger& ledger, const Cleaned& cleaned) {
             case DecisionKind::FillMissing:
                 at = *d.window;
                 mark.count = change;
-                mark.label = tag + std::to_string(d.window->length()) + " days filled (" +
-                             groupedCount(change) + ")";
+            {
+                // The periods the window covers (a date anywhere in a week selects it).
+                const int periods = spec.axis.periodOnGrid(d.window->last) -
+                                    spec.axis.periodOnGrid(d.window->first) + 1;
+                mark.label = tag + std::to_string(periods) + " " +
+                             (periods == 1 ? spec.axis.unitName() : spec.axis.unitPlural()) +
+                             " filled (" + groupedCount(change) + ")";
+            }
                 break;
             case DecisionKind::ResolveDuplicate:
                 at = DayRange{*d.date, *d.date};

@@ -13,10 +13,10 @@
 //
 // Marks, per decision kind (entries in effect only; withdrawn ones are in the
 // report's ledger listing, not on the figure):
-//   redistribute      on the dump day: "#<seq> <n> moved to earlier days", n = excess;
+//   redistribute      on the dump day: "#<seq> <n> moved to earlier days" (weeks), n = excess;
 //                     `window` holds the days the counts went to
 //   spread_negative   on the negative day: "#<seq> negative <n> spread back"
-//   fill_missing      over the window: "#<seq> <d> days filled (<n>)"
+//   fill_missing      over the window: "#<seq> <d> days filled (<n>)" (weeks for weekly data)
 //   resolve_duplicate on the day: "#<seq> duplicate resolved"
 //   merge_codes       over the days it added to: "#<seq> <variant> merged in (+<n>)"
 //   accept            over its window (or the calendar): "#<seq> accepted as reported"
