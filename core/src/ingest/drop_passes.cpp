@@ -3,6 +3,8 @@
 
 #include <algorithm>
 #include <array>
+#include <bit>
+#include <cassert>
 #include <cctype>
 #include <limits>
 #include <set>
@@ -213,10 +215,12 @@ bool DropReader::predictCalendar() {
     }
     std::int32_t lo = std::numeric_limits<std::int32_t>::max();
     std::int32_t hi = std::numeric_limits<std::int32_t>::min();
+    unsigned weekdays = 0;  // bit w: a date on ISO weekday w was seen
     auto see = [&](std::string_view text) {
         if (std::optional<Date> d = parseDateIn(text, format)) {
             lo = std::min(lo, d->serial);
             hi = std::max(hi, d->serial);
+            weekdays |= 1u << d->isoWeekday();
         }
     };
     std::set<std::string_view> sampleRegions;
@@ -244,9 +248,15 @@ bool DropReader::predictCalendar() {
     }
     if (lo > hi)
         return false;
-    const std::size_t days = static_cast<std::size_t>(hi - lo) + 1;
-    if (days > 100 * 366)
+    if (hi - lo > 100 * 366)
         return false;
+    // Dates on one weekday: predicted weekly, one table column per week (a date off that grid
+    // sends the read to two passes).
+    const std::int32_t step =
+        m_options.cadence != Cadence::Daily && hi > lo && std::popcount(weekdays) == 1 ? 7 : 1;
+    if ((hi - lo) % step != 0)
+        return false;
+    const std::size_t days = static_cast<std::size_t>((hi - lo) / step) + 1;
     const std::size_t sampleRows = std::max<std::size_t>(m_sample.size(), 1);
     const double bytesPerRow =
         std::max(1.0, static_cast<double>(m_sampleBytes) / static_cast<double>(sampleRows));
@@ -261,6 +271,7 @@ bool DropReader::predictCalendar() {
     m_dateFormat = format;
     m_firstSerial = lo;
     m_days = days;
+    m_step = step;
     m_regionCapacity = capacity;
     return true;
 }
@@ -277,7 +288,7 @@ Result<bool> DropReader::onePass() {
                 return false;
         }
     }
-    const std::int32_t last = m_firstSerial + static_cast<std::int32_t>(m_days) - 1;
+    const std::int32_t last = m_firstSerial + (static_cast<std::int32_t>(m_days) - 1) * m_step;
     std::int32_t lo = last, hi = m_firstSerial;
     CsvScanner scanner(m_bytes, m_delimiter, m_dataStart, m_dataLine);
     CsvRecord record;
@@ -302,7 +313,9 @@ Result<bool> DropReader::onePass() {
                 return false;  // outside the predicted calendar: read in two passes
             bool added = false;
             di = m_dates.intern(dateText, added);
-            m_dayOfDate.push_back(d->serial - m_firstSerial);
+            if ((d->serial - m_firstSerial) % m_step != 0)
+                return false;  // off the predicted weekly grid: read in two passes
+            m_dayOfDate.push_back((d->serial - m_firstSerial) / m_step);
             m_dateLine.push_back(line);
             m_dateColumn.push_back(dateCol + 1);
             lo = std::min(lo, d->serial);
@@ -360,6 +373,7 @@ void DropReader::resetForTwoPasses() {
     m_dateLine.clear();
     m_dateColumn.clear();
     m_dayOfDate.clear();
+    m_step = 1;
     m_tables.reset(0);
     m_drop.duplicates.clear();
     m_drop.rows = 0;
@@ -505,6 +519,12 @@ Status DropReader::settleDates() {
         hi = std::max(hi, d->serial);
     }
     const std::int64_t span = static_cast<std::int64_t>(hi) - lo + 1;
+    // Every date on one weekday: one table column per week (the calendar plan makes them weeks).
+    unsigned weekdays = 0;
+    for (std::int32_t serial : serials)
+        weekdays |= 1u << Date{serial}.isoWeekday();
+    m_step = m_options.cadence != Cadence::Daily && hi > lo && std::popcount(weekdays) == 1 ? 7 : 1;
+    const std::int64_t columns = (span - 1) / m_step + 1;
     const std::size_t measures =
         m_roles.measureColumn >= 0
             ? m_measureNames.size()
@@ -512,7 +532,7 @@ Status DropReader::settleDates() {
     const std::size_t regions =
         m_roles.layout == Layout::DatesDown ? m_roles.valueColumns.size() : m_regions.size();
     const double cells =
-        static_cast<double>(span) * static_cast<double>(regions) * static_cast<double>(measures);
+        static_cast<double>(columns) * static_cast<double>(regions) * static_cast<double>(measures);
     if (span > 100 * 366 || cells > 1.5e9) {
         return fail(ErrorCode::InvalidValue,
                     "the dates run from " + Date{lo}.iso() + " to " + Date{hi}.iso() + " (" +
@@ -520,9 +540,9 @@ Status DropReader::settleDates() {
                         " days), too long a calendar for a drop; is a year mistyped?");
     }
     for (std::size_t i = 0; i < n; ++i)
-        m_dayOfDate[i] = serials[i] - lo;
+        m_dayOfDate[i] = (serials[i] - lo) / m_step;
     m_firstSerial = lo;
-    m_days = static_cast<std::size_t>(span);
+    m_days = static_cast<std::size_t>(columns);
     if (m_roles.layout == Layout::DatesAcross) {
         m_dayOfColumn.assign(m_names.size(), -1);
         for (int c : m_roles.dateColumns) {
@@ -695,7 +715,10 @@ int namedWeekday(WeekStart start, WeekDate named) {
 
 Result<DropReader::CalendarPlan> DropReader::planCalendar() {
     CalendarPlan plan;
+    // The day of a table column (columns are weeks when every date fell on one weekday).
+    auto dateOfColumn = [&](std::int32_t column) { return Date{m_firstSerial + column * m_step}; };
     plan.axis = TimeAxis::daily(Date{m_firstSerial}, static_cast<std::int32_t>(m_days));
+    assert(m_step == 1 || m_options.cadence != Cadence::Daily);
     // Week labels and a year with a week number name weeks: weekly by definition.
     const bool yearWeek = m_dateFormat == DateFormat::YearWeek;
     const bool labels = m_dateFormat == DateFormat::IsoWeek || yearWeek;
@@ -713,7 +736,7 @@ Result<DropReader::CalendarPlan> DropReader::planCalendar() {
     const std::size_t n = m_dayOfDate.size();
     std::array<std::size_t, 8> byWeekday{};
     for (std::int32_t day : m_dayOfDate)
-        ++byWeekday[static_cast<std::size_t>(Date{m_firstSerial + day}.isoWeekday())];
+        ++byWeekday[static_cast<std::size_t>(dateOfColumn(day).isoWeekday())];
     int weekday = 1;
     for (int w = 2; w <= 7; ++w)
         if (byWeekday[static_cast<std::size_t>(w)] > byWeekday[static_cast<std::size_t>(weekday)])
@@ -725,7 +748,7 @@ Result<DropReader::CalendarPlan> DropReader::planCalendar() {
         std::string list;
         std::size_t listed = 0, total = 0;
         for (std::size_t i = 0; i < n; ++i) {
-            const Date d{m_firstSerial + m_dayOfDate[i]};
+            const Date d = dateOfColumn(m_dayOfDate[i]);
             if (d.isoWeekday() == weekday)
                 continue;
             ++total;
@@ -742,7 +765,7 @@ Result<DropReader::CalendarPlan> DropReader::planCalendar() {
             // weekly by the dates themselves
         } else if (n >= 4 && onWeekday * 10 >= n * 9) {
             std::size_t i = 0;
-            while (i < n && Date{m_firstSerial + m_dayOfDate[i]}.isoWeekday() == weekday)
+            while (i < n && dateOfColumn(m_dayOfDate[i]).isoWeekday() == weekday)
                 ++i;
             return fail(ErrorCode::InvalidValue,
                         "the dates fit neither a daily nor a weekly grid: " +
@@ -802,23 +825,22 @@ Result<DropReader::CalendarPlan> DropReader::planCalendar() {
         lo = std::min(lo, day);
         hi = std::max(hi, day);
     }
-    const Date firstWeek = weekStartOf(Date{m_firstSerial + lo}, start);
-    const Date lastWeek = weekStartOf(Date{m_firstSerial + hi}, start);
+    const Date firstWeek = weekStartOf(dateOfColumn(lo), start);
+    const Date lastWeek = weekStartOf(dateOfColumn(hi), start);
     plan.axis = TimeAxis::weekly(firstWeek, (lastWeek - firstWeek) / 7 + 1, start, named);
     plan.periodOfDay.assign(m_days, -1);
     std::vector<std::size_t> dateOfPeriod(static_cast<std::size_t>(plan.axis.periods()), n);
     for (std::size_t i = 0; i < n; ++i) {
         const std::int32_t day = m_dayOfDate[i];
-        const std::int32_t p = plan.axis.periodOnGrid(Date{m_firstSerial + day});
+        const std::int32_t p = plan.axis.periodOnGrid(dateOfColumn(day));
         std::size_t& other = dateOfPeriod[static_cast<std::size_t>(p)];
         if (other != n && m_dayOfDate[other] == day)
             continue;  // two texts of one day ("2026,5" and "2026,05"): one date
         if (other != n) {
             return fail(ErrorCode::InvalidValue,
                         "two dates fall in one week (" + plan.axis.periodDescription(p) +
-                            "): " + Date{m_firstSerial + m_dayOfDate[other]}.iso() + " (line " +
-                            std::to_string(m_dateLine[other]) + ") and " +
-                            Date{m_firstSerial + day}.iso() +
+                            "): " + dateOfColumn(m_dayOfDate[other]).iso() + " (line " +
+                            std::to_string(m_dateLine[other]) + ") and " + dateOfColumn(day).iso() +
                             "; weekly data has one date per week (" + offGrid(5) + " " +
                             weekdayName(weekday) +
                             "s). Pass --cadence daily to read every date "
@@ -864,12 +886,17 @@ Status DropReader::finish() {
     std::vector<std::vector<Cell>> tables = m_tables.takeTables();
     m_drop.tables.reserve(tables.size());
     const auto periods = static_cast<std::size_t>(m_drop.axis.periods());
+    // Filled week by week already (one column per week, in order): the tables are the weeks.
+    bool columnsAreWeeks = m_drop.axis.weekly() && periods == m_days;
+    for (std::int32_t column : plan->usedDays)
+        columnsAreWeeks =
+            columnsAreWeeks && plan->periodOfDay[static_cast<std::size_t>(column)] == column;
     for (std::vector<Cell>& cells : tables) {
-        if (!m_drop.axis.weekly()) {
+        if (!m_drop.axis.weekly() || columnsAreWeeks) {
             m_drop.tables.emplace_back(m_days, std::move(cells));
             continue;
         }
-        // Weekly: the tables were filled by day; each date's column becomes its week's.
+        // Otherwise the tables were filled by day; each date's column becomes its week's.
         const std::size_t regions = m_days == 0 ? 0 : cells.size() / m_days;
         std::vector<Cell> weeks(regions * periods);
         for (std::size_t r = 0; r < regions; ++r)

@@ -171,7 +171,10 @@ private:
     std::vector<std::int32_t> m_dayOfColumn;  // dates-across: day index per column (-1: none)
 
     std::int32_t m_firstSerial = 0;  // the calendar: first day and length
-    std::size_t m_days = 0;
+    std::size_t m_days = 0;          // table columns (days, or weeks when m_step is 7)
+    // Days per table column: 7 when every date falls on one weekday (a weekly file: its tables are
+    // filled week by week, never 7 times wider), 1 otherwise.
+    std::int32_t m_step = 1;
     std::size_t m_regionCapacity = 0;  // one pass: regions the tables are reserved for
     CellTableBuilder m_tables;         // per measure, region-major, m_days per region
 
