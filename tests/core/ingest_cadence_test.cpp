@@ -137,6 +137,8 @@ TEST(IngestCadence, IsoWeekLabelsAreWeeksFromMonday) {
     Result<Drop> bad = parseDrop("week,region,cases\n2025-W52,A,1\n2025-W53,A,2\n", "w.csv");
     ASSERT_FALSE(bad.ok());  // 2025 has 52 ISO weeks
     EXPECT_EQ(bad.error().line, 3u);
+    EXPECT_NE(bad.error().message.find("2025 has 52 ISO weeks"), std::string::npos)
+        << bad.error().message;
     IngestOptions daily;
     daily.cadence = Cadence::Daily;
     Result<Drop> refused = parseDrop("week,region,cases\n2026-W01,A,1\n", "w.csv", daily);

@@ -176,7 +176,17 @@ Error DropReader::dateError(const std::string& text, std::uint64_t line,
     const char* formatName = dateFormatName(m_dateFormat);
     const DateShape shape = dateShapeOf(text);
     std::string why;
-    if (shape == shapeOfFormat(m_dateFormat)) {
+    int year = 0, week = 0, unused = 0;
+    if (m_dateFormat == DateFormat::IsoWeek &&
+        splitDate(text, DateShape::IsoWeek, year, week, unused)) {
+        // ISO 8601: a year has 52 or 53 weeks (53 when it starts on a Thursday, or a Wednesday
+        // in a leap year).
+        const int weeks = isValidYmd(year, 1, 4) ? weeksInYear(year, WeekStart::Monday) : 0;
+        why = quoted(text) + " is not an ISO week: " +
+              (weeks > 0 ? std::to_string(year) + " has " + std::to_string(weeks) +
+                               " ISO weeks (week 1 holds 4 January)"
+                         : std::string("the year is outside the supported calendar (1400-9999)"));
+    } else if (shape == shapeOfFormat(m_dateFormat)) {
         why = quoted(text) + " is not a real day of the calendar (read as " + formatName + ")";
     } else if (shape == DateShape::None) {
         why = quoted(text) + " in the date column is not a date; the dates in this file are " +
