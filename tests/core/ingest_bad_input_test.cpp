@@ -283,8 +283,9 @@ TEST(IngestBadInput, AShortRecordBeforeTheFirstWholeOneIsReportedNotRead) {
         for (int i = 0; i < 5; ++i)
             text += i == at ? std::string("A\n") : "2026-01-0" + std::to_string(i + 1) + ",R,1\n";
         Result<Drop> d = parseDrop(text, "short.csv");
-        if (!d.ok())
+        if (!d.ok()) {
             EXPECT_EQ(d.error().line, static_cast<std::uint64_t>(at + 2)) << d.error().describe();
+        }
     }
 }
 
