@@ -157,33 +157,6 @@ QSizeF FigureSize::logical() const {
     return {widthMm / kMmPerInch * kLogicalDpi, heightMm / kMmPerInch * kLogicalDpi};
 }
 
-SeriesView seriesViewFromSpec(const report::FigureSpec& spec) {
-    SeriesView view;
-    view.regionCode = qs(spec.regionCode);
-    view.regionName = qs(spec.regionName);
-    view.measure = qs(spec.measure);
-    view.axis = spec.axis;
-    view.raw = spec.raw;
-    view.cleaned = spec.cleaned;
-    view.smoothed = spec.smoothed;
-    view.smoothedLabel = qs(spec.smoothedLabel);
-    view.previous = spec.previous;
-    view.previousLabel = qs(spec.previousLabel);
-    if (spec.fit) {
-        FittedCurve curve;
-        curve.label = qs(spec.fit->label);
-        curve.mid = spec.fit->mid;
-        curve.low = spec.fit->low;
-        curve.high = spec.fit->high;
-        curve.bandLabel = qs(spec.fit->bandLabel);
-        view.fit = curve;
-        using IndexRange = decltype(view.fitWindow)::value_type;
-        view.fitWindow = IndexRange{spec.axis.periodOnGrid(spec.fit->windowFirst),
-                                    spec.axis.periodOnGrid(spec.fit->windowLast)};
-    }
-    return view;
-}
-
 namespace {
 
 // Lifts the smoothed line and the fitted curve above the bars on a white casing, so that
@@ -748,7 +721,7 @@ void collectLegendEntries(const report::FigureSpec& spec, double scale,
     plot.setAttribute(Qt::WA_DontShowOnScreen);
     stylePlotFonts(&plot, scale);
     SeriesChart chart(&plot);
-    chart.draw(seriesViewFromSpec(spec));
+    chart.draw(seriesViewOf(spec));
     annotateFigure(chart, spec);
     appendLegendEntries(&plot, entries);
 }
@@ -829,7 +802,7 @@ FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report
     plot->setViewport(QRect(0, 0, w, h));  // a widget never shown gets no resize event
     stylePlotFonts(plot.get(), layout.scale);
     SeriesChart chart(plot.get());
-    chart.draw(seriesViewFromSpec(spec));
+    chart.draw(seriesViewOf(spec));
     annotateFigure(chart, spec);
     // On paper the legend goes under the plot, in rows, so it hides no data or label; on a page
     // of small multiples the page has one legend for all panels.

@@ -3,7 +3,7 @@
 // as PNG (at a chosen DPI), SVG (text kept as text) or PDF (fonts embedded).
 //
 // The plot itself is the workbench's own: a SeriesChart (series_chart.h) over
-// a SeriesView made from the spec, so an exported figure looks like the plot
+// the spec's PlotModel (seriesViewOf), so an exported figure looks like the plot
 // on screen. annotateFigure() adds the marks that make it a briefing figure:
 // one per ledger decision (a labelled arrow to a redistributed spike, with a
 // bracket over the days the counts went to; labels for the other kinds),
@@ -82,9 +82,6 @@ struct FigureGeometry {
 
 /// Adds the spec's annotations to a plot that `chart` has drawn from the same spec.
 void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec);
-
-/// The SeriesView of a spec (what SeriesChart draws).
-SeriesView seriesViewFromSpec(const report::FigureSpec& spec);
 
 /// Paints one figure (title, subtitle, annotated plot, caption) into `page` (logical
 /// pixels of 1/96 inch in the painter's coordinates). QCustomPlot paints through a QCPPainter.

@@ -134,11 +134,7 @@ void SeriesChart::draw(const SeriesView& view) {
     m_window.reset();
 
     const QVector<double> keys = keysOf(m_view);
-    m_plot->yAxis->setLabel(
-        m_view.measure.isEmpty()
-            ? QString()
-            : QObject::tr("%1 %2").arg(QString::fromLatin1(m_view.axis.adjective()),
-                                       m_view.measure));
+    m_plot->yAxis->setLabel(m_view.valueLabel);
 
     // Raw counts: only the days a number was reported.
     auto* bars = new QCPBars(m_plot->xAxis, m_plot->yAxis);
@@ -198,8 +194,7 @@ void SeriesChart::draw(const SeriesView& view) {
         addLine(m_plot, m_plot->yAxis2, keys, toVector(m_view.second, m_view.periods()),
                 plot_style::secondMeasurePen(),
                 QObject::tr("%1 (right axis)").arg(m_view.secondMeasure));
-        m_plot->yAxis2->setLabel(QObject::tr("%1 %2").arg(
-            QString::fromLatin1(m_view.axis.adjective()), m_view.secondMeasure));
+        m_plot->yAxis2->setLabel(m_view.secondValueLabel);
         m_plot->yAxis2->setNumberFormat(QStringLiteral("gb"));
     }
 

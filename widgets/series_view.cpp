@@ -34,44 +34,49 @@ bool has(const std::vector<double>& values, int day) {
 
 }  // namespace
 
-SeriesView seriesViewFromDrop(const Drop& drop, std::size_t region, std::size_t measure) {
+SeriesView seriesViewOf(const report::PlotModel& model) {
+    const auto qs = [](const std::string& text) { return QString::fromStdString(text); };
     SeriesView view;
-    view.regionCode = QString::fromStdString(drop.regionCodes.at(region));
-    view.measure = QString::fromStdString(drop.measures.at(measure));
-    view.axis = drop.axis;
-    view.raw = series::countsOf(drop, measure, region);
-    view.rawState.assign(view.periods(), CellState::Absent);
-    view.sourceLine.assign(view.periods(), 0);
-    const auto cells = drop.series(measure, region);
-    for (int d = 0; d < view.periods(); ++d) {
-        view.rawState[d] = cells[static_cast<std::size_t>(d)].state;
-        view.sourceLine[d] = cells[static_cast<std::size_t>(d)].line;
+    view.regionCode = qs(model.regionCode);
+    view.regionName = qs(model.regionName);
+    view.measure = qs(model.measure);
+    view.axis = model.axis;
+    view.valueLabel = qs(model.valueLabel);
+    view.raw = model.raw;
+    view.rawState = model.rawState;
+    view.sourceLine = model.sourceLine;
+    view.cleaned = model.cleaned;
+    view.smoothed = model.smoothed;
+    view.smoothedLabel = qs(model.smoothedLabel);
+    if (model.fit) {
+        FittedCurve curve;
+        curve.label = qs(model.fit->label);
+        curve.mid = model.fit->mid;
+        curve.low = model.fit->low;
+        curve.high = model.fit->high;
+        curve.bandLabel = qs(model.fit->bandLabel);
+        view.fit = std::move(curve);
+        view.fitWindow = DayIndexRange{model.axis.periodOnGrid(model.fit->windowFirst),
+                                       model.axis.periodOnGrid(model.fit->windowLast)};
     }
-    view.cleaned = view.raw;
-    view.touchedBy.assign(view.periods(), {});
+    for (const report::FindingMarkSpec& f : model.findings)
+        view.findings.push_back({qs(f.id),
+                                 QString::fromStdString(f.kindLabel),
+                                 {f.firstPeriod, f.lastPeriod},
+                                 f.severity});
+    view.touchedBy.reserve(model.touchedBy.size());
+    for (const std::vector<std::string>& texts : model.touchedBy) {
+        QStringList list;
+        for (const std::string& text : texts)
+            list << qs(text);
+        view.touchedBy.push_back(std::move(list));
+    }
+    view.previous = model.previous;
+    view.previousLabel = qs(model.previousLabel);
+    view.secondMeasure = qs(model.secondMeasure);
+    view.secondValueLabel = qs(model.secondValueLabel);
+    view.second = model.second;
     return view;
-}
-
-void addSecondMeasure(SeriesView& view, const Drop& drop, std::size_t region, std::size_t measure) {
-    view.secondMeasure = QString::fromStdString(drop.measures.at(measure));
-    view.second = series::countsOf(drop, measure, region);
-}
-
-void addPreviousRelease(SeriesView& view, const Drop& previous, const QString& label) {
-    const auto region = previous.regionIndex(view.regionCode.toStdString());
-    const auto measure = previous.measureIndex(view.measure.toStdString());
-    if (!region || !measure)
-        return;
-    view.previousLabel = label;
-    view.previous.assign(view.periods(), kNaN);
-    for (int d = 0; d < view.periods(); ++d) {
-        const auto index = previous.periodOf(view.periodStart(d));
-        if (!index)
-            continue;
-        const Cell& cell = previous.cell(*measure, *region, *index);
-        if (cell.reported())
-            view.previous[d] = cell.value;
-    }
 }
 
 FittedCurve curveFromFit(const fit::FitResult& fit, int days) {

@@ -1,15 +1,14 @@
 #pragma once
-// SeriesView: everything one region's plot shows, as plain numbers by day.
-//
-// It is filled from core results (the drop's cells, the replayed cleaned
-// series, the smoothed series, a FitResult, the findings) and drawn by
-// drawSeries() — on screen by SeriesPlot and, later, in exported figures. It
-// computes nothing itself; a value that was not computed is NaN (or an empty
-// vector), and the plot leaves it out.
+// SeriesView: what SeriesChart draws, in Qt types: a report::PlotModel converted by
+// seriesViewOf() (the one place a SeriesView is filled from data), drawn on screen by SeriesPlot
+// and in exported figures by the figure renderer. What a plot shows (series, labels, cadence,
+// overlays) is decided in core (report/plot_model.h); this computes and decides nothing. A value
+// that is not there is NaN (or an empty vector), and the plot leaves it out.
 
 #include "siftwave/date.h"
 #include "siftwave/drop.h"
 #include "siftwave/fit/fit.h"
+#include "siftwave/report/plot_model.h"
 
 #include <QString>
 #include <QStringList>
@@ -46,7 +45,8 @@ struct SeriesView {
     QString regionCode;  // verbatim
     QString regionName;
     QString measure;
-    TimeAxis axis;  // the periods every series below is on (daily or weekly)
+    TimeAxis axis;       // the periods every series below is on (daily or weekly)
+    QString valueLabel;  // the value axis, e.g. "Daily cases" (PlotModel::valueLabel)
 
     std::vector<double> raw;                // NaN where no number was reported
     std::vector<CellState> rawState;        // per day
@@ -64,6 +64,7 @@ struct SeriesView {
     std::vector<double> previous;  // the previous release's raw counts, on this calendar
 
     QString secondMeasure;       // empty: none
+    QString secondValueLabel;    // its axis, e.g. "Daily deaths"
     std::vector<double> second;  // raw counts of the second measure
 
     bool empty() const { return axis.periods() == 0; }
@@ -71,15 +72,8 @@ struct SeriesView {
     Date periodStart(int index) const { return axis.periodStart(index); }
 };
 
-/// The drop's raw counts for one region and measure (cleaned = raw until decisions exist).
-SeriesView seriesViewFromDrop(const Drop& drop, std::size_t region, std::size_t measure);
-
-/// Adds a second measure's raw counts to `view` (same calendar).
-void addSecondMeasure(SeriesView& view, const Drop& drop, std::size_t region, std::size_t measure);
-
-/// Adds another release's raw counts of the same region and measure, aligned by date
-/// (NaN where it has no number). Nothing when it lacks the region or the measure.
-void addPreviousRelease(SeriesView& view, const Drop& previous, const QString& label);
+/// The plot model in the chart's types: a conversion, nothing decided here.
+SeriesView seriesViewOf(const report::PlotModel& model);
 
 /// The fitted wave of a FitResult on a calendar of `days` days (NaN outside the window) with
 /// its pointwise 95% confidence band, both from fit::curveBand(): the wave itself, K f(t),

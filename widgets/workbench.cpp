@@ -2,10 +2,9 @@
 
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/replay.h"
-#include "siftwave/series/smoothing.h"
+#include "siftwave/report/plot_model.h"
 
 #include <QCoreApplication>
-#include <QFileInfo>
 
 #include <limits>
 
@@ -20,54 +19,16 @@ QString Workbench::dropPath() const {
 SeriesView Workbench::seriesView(const QString& regionCode, int measure, int secondMeasure) const {
     if (!m_drop || measure < 0 || measure >= static_cast<int>(m_drop->measures.size()))
         return {};
-    const std::optional<std::size_t> region = m_drop->regionIndex(regionCode.toStdString());
-    if (!region)
-        return {};
-    SeriesView view = seriesViewFromDrop(*m_drop, *region, static_cast<std::size_t>(measure));
-    view.cleaned = cleanedCounts(regionCode, measure);
-    for (int d = 0; d < view.periods(); ++d) {
-        for (std::uint64_t sequence :
-             m_cleaned.touchedBy(static_cast<std::size_t>(measure), *region, d)) {
-            if (sequence == 0 || sequence > m_ledger.entries.size())
-                continue;
-            const LedgerEntry& e = m_ledger.entries[sequence - 1];
-            view.touchedBy[d] << QStringLiteral("#%1 %2%3 (%4): %5")
-                                     .arg(sequence)
-                                     .arg(QString::fromLatin1(decisionKindName(e.decision.kind)),
-                                          m_cleaned.inEffect(sequence)
-                                              ? QString()
-                                              : QStringLiteral(", withdrawn"),
-                                          QString::fromStdString(e.author),
-                                          QString::fromStdString(e.reason));
-        }
-    }
-    for (const scan::Finding& f : findings()) {
-        if (!f.region || *f.region != m_drop->regionCodes[*region] || !f.first || !f.last)
-            continue;
-        if (f.measure && *f.measure != m_drop->measures[static_cast<std::size_t>(measure)])
-            continue;
-        FindingMark mark;
-        mark.id = QString::fromStdString(f.id);
-        mark.label = QString::fromLatin1(scan::findingKindName(f.kind));
-        mark.days = {m_drop->axis.periodOnGrid(*f.first), m_drop->axis.periodOnGrid(*f.last)};
-        mark.severity = f.severity == scan::Severity::Critical  ? 2
-                        : f.severity == scan::Severity::Warning ? 1
-                                                                : 0;
-        view.findings.push_back(mark);
-    }
-    if (m_register)
-        if (const RegionEntry* entry = m_register->find(m_drop->regionCodes[*region]))
-            view.regionName = QString::fromStdString(entry->name);
-    view.smoothed =
-        series::centredMovingAverage(view.cleaned, series::plotSmoothingWindow(view.axis));
-    view.smoothedLabel = QString::fromStdString(series::plotSmoothingLabel(view.axis));
-    if (m_previous)
-        addPreviousRelease(view, *m_previous,
-                           QFileInfo(QString::fromStdString(m_previous->source.path)).fileName());
-    if (secondMeasure >= 0 && secondMeasure < static_cast<int>(m_drop->measures.size()) &&
-        secondMeasure != measure)
-        addSecondMeasure(view, *m_drop, *region, static_cast<std::size_t>(secondMeasure));
-    return view;
+    report::PlotRequest request;
+    request.region = regionCode.toStdString();
+    request.measure = m_drop->measures[static_cast<std::size_t>(measure)];
+    if (secondMeasure >= 0 && secondMeasure < static_cast<int>(m_drop->measures.size()))
+        request.secondMeasure = m_drop->measures[static_cast<std::size_t>(secondMeasure)];
+    request.regions = m_register.get();
+    request.previous = m_previous.get();
+    request.findings = findings();
+    Result<report::PlotModel> model = report::buildPlotModel(*m_drop, m_ledger, m_cleaned, request);
+    return model ? seriesViewOf(*model) : SeriesView{};
 }
 
 std::vector<double> Workbench::cleanedCounts(const QString& regionCode, int measure) const {

@@ -46,9 +46,10 @@ public:
     QString previousPath() const;
     void setPreviousDrop(std::shared_ptr<const Drop> previous);
 
-    /// Everything the plot shows for one region: raw, cleaned, smoothed (7-day centred
-    /// mean of the cleaned series), the previous release when one is open, and a second measure
-    /// when `secondMeasure` >= 0. An empty view when the drop has no such region or measure.
+    /// Everything the plot shows for one region: the core's plot model (report::buildPlotModel:
+    /// raw, cleaned, smoothed, ledger texts, finding marks, decision marks, the previous release
+    /// when one is open and a second measure when `secondMeasure` >= 0) in the chart's types
+    /// (seriesViewOf). An empty view when the drop has no such region or measure.
     SeriesView seriesView(const QString& regionCode, int measure, int secondMeasure = -1) const;
 
     /// The cleaned daily counts of a region (NaN where there is no value); empty when unknown.

@@ -30,6 +30,7 @@ SeriesView syntheticView() {
     view.regionCode = QStringLiteral("T1");
     view.measure = QStringLiteral("cases");
     view.axis = siftwave::TimeAxis::daily(*Date::fromIso("2026-03-02"), 60);
+    view.valueLabel = QStringLiteral("Daily cases");
     for (int d = 0; d < view.periods(); ++d) {
         view.raw.push_back(10 + d % 7);
         view.rawState.push_back(siftwave::CellState::Reported);
@@ -263,6 +264,9 @@ private Q_SLOTS:
         // ISO 8601: 2026-03-02 is the Monday of 2026-W10.
         view.axis = siftwave::TimeAxis::weekly(*Date::fromIso("2026-03-02"), 60,
                                                siftwave::WeekStart::Monday);
+        // The label is the plot model's (core decides it from the cadence); the chart draws it.
+        view.valueLabel =
+            QString::fromStdString(siftwave::report::valueAxisLabel(view.axis, "cases"));
         SeriesPlot plot;
         QVERIFY(showOnScreen(plot));
         plot.setView(view);
