@@ -1,19 +1,14 @@
 #include "widgets/series_view.h"
 
-#include "siftwave/series/daily.h"
-
 #include <QCoreApplication>
 #include <QLocale>
 
 #include <algorithm>
 #include <cmath>
-#include <limits>
 
 namespace siftwave::widgets {
 
 namespace {
-
-constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
 QString tr(const char* text) {
     return QCoreApplication::translate("SeriesView", text);
@@ -79,43 +74,21 @@ SeriesView seriesViewOf(const report::PlotModel& model) {
     return view;
 }
 
-FittedCurve curveFromFit(const fit::FitResult& fit, int days) {
+FittedCurve curveFromFit(const fit::FitResult& fit, const TimeAxis& axis) {
+    // The numbers are the plot model's (report::fittedCurveOf); only the legend texts are the
+    // screen's own, translated names.
+    const report::FittedCurveSpec spec = report::fittedCurveOf(fit, axis, {}, false);
     FittedCurve curve;
     curve.label = QCoreApplication::translate("SeriesView", "%1 fit (%2)")
                       .arg(modelDisplayName(fit.model), methodDisplayName(fit.method));
-    curve.mid.assign(days, kNaN);
-    const int last = std::min(fit.last, days - 1);
-    const Result<fit::CurveBand> band =
-        fit.first <= last ? fit::curveBand(fit, fit.first, last)
-                          : Result<fit::CurveBand>(makeError(ErrorCode::Usage, "empty window"));
-    if (!band) {
-        // No band to be had: the fitted values as the fit gives them.
-        for (std::size_t i = 0; i < fit.fitted.size(); ++i) {
-            const int day = fit.first + static_cast<int>(i);
-            if (day >= 0 && day < days)
-                curve.mid[day] = fit.fitted[i];
-        }
-        return curve;
-    }
-    const bool withBand =
-        band->lower.size() == band->fitted.size() && band->upper.size() == band->fitted.size();
-    if (withBand) {
-        curve.low.assign(days, kNaN);
-        curve.high.assign(days, kNaN);
+    curve.mid = spec.mid;
+    if (spec.bandNote.empty()) {
+        curve.low = spec.low;
+        curve.high = spec.high;
         // The term of the exported figures ("95% confidence band of the fitted curve",
-        // report/figure_spec.cpp), shortened for the legend the way their caption shortens it.
+        // report/plot_model.cpp), shortened for the legend the way their caption shortens it.
         curve.bandLabel =
             QCoreApplication::translate("SeriesView", "95% confidence band of the curve");
-    }
-    for (std::size_t i = 0; i < band->fitted.size(); ++i) {
-        const int day = band->first + static_cast<int>(i);
-        if (day < 0 || day >= days)
-            continue;
-        curve.mid[day] = band->fitted[i];
-        if (withBand) {
-            curve.low[day] = band->lower[i];
-            curve.high[day] = band->upper[i];
-        }
     }
     return curve;
 }

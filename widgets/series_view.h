@@ -75,11 +75,11 @@ struct SeriesView {
 /// The plot model in the chart's types: a conversion, nothing decided here.
 SeriesView seriesViewOf(const report::PlotModel& model);
 
-/// The fitted wave of a FitResult on a calendar of `days` days (NaN outside the window) with
-/// its pointwise 95% confidence band, both from fit::curveBand(): the wave itself, K f(t),
-/// without weekday factors, and the delta-method interval of that mean curve (not a range for
-/// daily counts). Without a covariance the band is empty and the curve is still drawn.
-FittedCurve curveFromFit(const fit::FitResult& fit, int days);
+/// The workbench's live fit on the plot's axis: the wave (NaN outside the window) and its
+/// pointwise 95% confidence band as report::fittedCurveOf() computes them for the plot model,
+/// with the screen's legend names ("Gumbel fit (least squares)"). Without a covariance the
+/// band is empty and the curve is still drawn.
+FittedCurve curveFromFit(const fit::FitResult& fit, const TimeAxis& axis);
 
 /// Names for people: "Gumbel", "logistic", "Richards", "log-normal"; "least squares",
 /// "Poisson", "negative binomial".

@@ -732,7 +732,7 @@ void MainWindow::refitNow(bool compare) {
     m_fitPane->showFit(*result, rows);
     if (result->ok()) {
         m_fit = result->value();
-        m_plot->setFit(widgets::curveFromFit(*m_fit, view.periods()));
+        m_plot->setFit(widgets::curveFromFit(*m_fit, view.axis));
         if (!m_decisionPane->isActive())
             m_plot->setEditableWindow(widgets::DayIndexRange{m_fit->first, m_fit->last});
         m_fitPane->showWindow(widgets::DayIndexRange{m_fit->first, m_fit->last});
