@@ -5,6 +5,7 @@
 #include "common.h"
 
 #include "siftwave/fit/batch.h"
+#include "siftwave/ledger/export.h"
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/replay.h"
 #include "siftwave/series/daily.h"
@@ -132,21 +133,10 @@ json fitJson(const std::string& region, const fit::FitResult& f,
     return j;
 }
 
-// RFC 4180 field, neutralised for spreadsheets (= + - @ TAB at the start get a leading ').
+// RFC 4180 field, neutralised for spreadsheets: the core's one function (ledger/export.h), which
+// the cleaned-series export uses too.
 std::string csvField(const std::string& text) {
-    std::string v = text;
-    if (!v.empty() && (v[0] == '=' || v[0] == '+' || v[0] == '-' || v[0] == '@' || v[0] == '\t')) {
-        v = "'" + v;
-    }
-    if (v.find_first_of(",\"\r\n") == std::string::npos)
-        return v;
-    std::string out = "\"";
-    for (char c : v) {
-        if (c == '"')
-            out += '"';
-        out += c;
-    }
-    return out + "\"";
+    return siftwave::csvField(text, true);
 }
 
 std::string csvNumber(double v) {

@@ -3,7 +3,10 @@
 #include "siftwave/fit/fit.h"
 #include "siftwave/date.h"
 
+#include "support/temp_path.h"
+
 #include <gtest/gtest.h>
+#include <filesystem>
 #include <nlohmann/json.hpp>
 
 #include <sys/wait.h>
@@ -87,6 +90,26 @@ TEST(CliFit, OneRegionAsJsonHasEveryFieldTheIssueNamesAndTheCaution) {
     const int truth = siftwave::Date::fromIso("2026-02-23")->serial + 144;
     EXPECT_LE(std::abs(peak->serial - truth), 5) << j["peak_date"];
     EXPECT_GT(j["peak_infectious_load_per_100k"].get<double>(), 0);
+}
+
+// OWASP, "CSV Injection" (owasp.org/www-community/attacks/CSV_Injection): a cell that begins
+// with = + - @ TAB or CR is a formula to a spreadsheet; it is prefixed with a single quote.
+TEST(CliFit, CsvRowsNeutraliseCodesThatASpreadsheetWouldRunAsFormulas) {
+    const std::filesystem::path file = siftwave::testing::testTempPath("formula-codes.csv");
+    {
+        std::ofstream out(file, std::ios::binary);
+        out << "date,region,cases\n";
+        for (int d = 0; d < 30; ++d)
+            for (const char* code : {"\"=1+2\"", "\"\rCR\"", "\"@SUM(A1)\""})
+                out << (*siftwave::Date::fromIso("2026-03-01") + d).iso() << "," << code << ","
+                    << 5 + d % 3 << "\n";
+    }
+    const CliRun r = run(file.string() + " --all --csv");
+    ASSERT_EQ(r.exitCode, 0) << r.out;
+    EXPECT_NE(r.out.find("\n'=1+2,"), std::string::npos) << r.out;
+    EXPECT_NE(r.out.find("\n\"'\rCR\","), std::string::npos) << r.out;
+    EXPECT_NE(r.out.find("\n'@SUM(A1),"), std::string::npos) << r.out;
+    EXPECT_EQ(r.out.find("\n=1+2"), std::string::npos);
 }
 
 TEST(CliFit, AllRegionsAsCsvGivesAHeaderAndOneRowPerRegion) {
