@@ -289,5 +289,17 @@ TEST(IngestBadInput, AShortRecordBeforeTheFirstWholeOneIsReportedNotRead) {
     }
 }
 
+// Reliability issue, item 7: 0001-01-01 is a real day of the proleptic Gregorian calendar (ISO
+// 8601); what stops it is the supported range, and the message says so. 2026-02-30 is no day.
+TEST(IngestBadInput, AYearOutsideTheSupportedRangeIsNamedAsSuch) {
+    const Error early = errorOf("date,region,cases\n0001-01-01,A,1\n2026-01-02,A,1\n");
+    EXPECT_EQ(early.line, 2u);
+    EXPECT_TRUE(
+        mentions(early, "is a real day, but outside the years Siftwave reads (1400 to 9999)"))
+        << early.message;
+    const Error missing = errorOf("date,region,cases\n2026-01-01,A,1\n2026-02-30,A,1\n");
+    EXPECT_TRUE(mentions(missing, "is not a real day of the calendar")) << missing.message;
+}
+
 }  // namespace
 }  // namespace siftwave

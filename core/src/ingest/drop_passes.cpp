@@ -169,6 +169,39 @@ Error DropReader::yearWeekError(std::string_view key, std::uint64_t line) const 
     return fail(ErrorCode::InvalidValue, why, line, static_cast<std::uint64_t>(cellColumn) + 1);
 }
 
+namespace {
+
+// The years Date accepts (isValidYmd in date.cpp).
+constexpr int kFirstSupportedYear = 1400;
+constexpr int kLastSupportedYear = 9999;
+
+// True when `text` names a day of the proleptic Gregorian calendar (ISO 8601) whose year lies
+// outside the supported range (0001-01-01), as opposed to a day that does not exist (2026-02-30).
+bool outsideSupportedYears(std::string_view text, DateShape shape, DateFormat format) {
+    int a = 0, b = 0, c = 0;
+    if (!splitDate(text, shape, a, b, c))
+        return false;
+    int y = a, m = b, d = c;
+    if (format == DateFormat::DayFirst) {
+        y = c;
+        m = b;
+        d = a;
+    } else if (format == DateFormat::MonthFirst) {
+        y = c;
+        m = a;
+        d = b;
+    } else if (format != DateFormat::Iso && format != DateFormat::Compact) {
+        return false;
+    }
+    if (y >= kFirstSupportedYear && y <= kLastSupportedYear)
+        return false;
+    const bool leap = (y % 4 == 0 && y % 100 != 0) || y % 400 == 0;
+    static const int days[] = {31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
+    return m >= 1 && m <= 12 && d >= 1 && d <= days[m - 1] + (m == 2 && leap ? 1 : 0);
+}
+
+}  // namespace
+
 Error DropReader::dateError(const std::string& text, std::uint64_t line,
                             std::uint64_t column) const {
     if (m_roles.yearWeek())
@@ -186,6 +219,11 @@ Error DropReader::dateError(const std::string& text, std::uint64_t line,
               (weeks > 0 ? std::to_string(year) + " has " + std::to_string(weeks) +
                                " ISO weeks (week 1 holds 4 January)"
                          : std::string("the year is outside the supported calendar (1400-9999)"));
+    } else if (shape == shapeOfFormat(m_dateFormat) &&
+               outsideSupportedYears(text, shape, m_dateFormat)) {
+        why = quoted(text) + " is a real day, but outside the years Siftwave reads (" +
+              std::to_string(kFirstSupportedYear) + " to " + std::to_string(kLastSupportedYear) +
+              "); is the year mistyped?";
     } else if (shape == shapeOfFormat(m_dateFormat)) {
         why = quoted(text) + " is not a real day of the calendar (read as " + formatName + ")";
     } else if (shape == DateShape::None) {
