@@ -376,7 +376,8 @@ Status fillMissing(const Drop& drop, const Cleaned& cleaned, const Decision& dec
         }
     }
     const std::int64_t n = gap->last - gap->first + 1;
-    auto neighbour = [&](std::int32_t d, const char* side) -> Result<std::int64_t> {
+    // Copies for the lambda: C++20 lets a lambda capture structured bindings, clang 14 does not.
+    auto neighbour = [&, m = m, r = r](std::int32_t d, const char* side) -> Result<std::int64_t> {
         if (d < 0 || d >= drop.periods() || !cleaned.cell(m, r, d).hasValue()) {
             return cellError(ErrorCode::InvalidValue,
                              std::string(fillMethodName(dec.fillMethod)) +
