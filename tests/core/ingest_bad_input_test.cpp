@@ -5,6 +5,7 @@
 #include "support/temp_path.h"
 
 #include <gtest/gtest.h>
+#include <sys/stat.h>
 
 #include <filesystem>
 #include <fstream>
@@ -299,6 +300,32 @@ TEST(IngestBadInput, AYearOutsideTheSupportedRangeIsNamedAsSuch) {
         << early.message;
     const Error missing = errorOf("date,region,cases\n2026-01-01,A,1\n2026-02-30,A,1\n");
     EXPECT_TRUE(mentions(missing, "is not a real day of the calendar")) << missing.message;
+}
+
+// Reliability issue, item 6: a FIFO with no writer used to block the reader forever; now it
+// reads as empty at once (the open does not wait for a writer). Bounded by the test's own
+// timeout (ctest), not by a clock here.
+TEST(IngestBadInput, AFifoWithNoWriterIsReadAsEmptyWithoutBlocking) {
+    const std::filesystem::path fifo = testing::testTempPath("no-writer.fifo");
+    std::filesystem::remove(fifo);
+    ASSERT_EQ(::mkfifo(fifo.c_str(), 0600), 0);
+    Result<Drop> drop = readDrop(fifo.string());
+    ASSERT_FALSE(drop.ok());
+    EXPECT_EQ(drop.error().file, fifo.string());
+    std::filesystem::remove(fifo);
+}
+
+// Item 6: /dev/zero never ends. It used to end in an uncaught std::bad_alloc (SIGABRT); now the
+// stream is read up to InputFile::kMaxStreamBytes and refused with a message that says what to
+// do.
+TEST(IngestBadInput, AnEndlessStreamIsRefusedAtItsLimit) {
+    if (!std::filesystem::exists("/dev/zero"))
+        GTEST_SKIP() << "no /dev/zero on this system";
+    Result<Drop> drop = readDrop("/dev/zero");
+    ASSERT_FALSE(drop.ok());
+    EXPECT_EQ(drop.error().code, ErrorCode::Io);
+    EXPECT_TRUE(mentions(drop.error(), "not a regular file")) << drop.error().message;
+    EXPECT_TRUE(mentions(drop.error(), "save the data to a file")) << drop.error().message;
 }
 
 }  // namespace

@@ -114,7 +114,8 @@ InputFile::~InputFile() {
 }
 
 Status InputFile::open(const std::string& path) {
-    const int fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
+    // Non-blocking only for the open itself: a FIFO with no writer must not hang here.
+    const int fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC | O_NONBLOCK);
     if (fd < 0) {
         Error e =
             makeError(ErrorCode::Io, std::string("cannot open the file: ") + std::strerror(errno));
@@ -140,9 +141,23 @@ Status InputFile::open(const std::string& path) {
             return Ok{};
         }
     }
-    // Not mappable (a pipe, an empty file, ...): read it all.
+    // Not mappable (a pipe, a device, an empty file, ...): read it, blocking again, up to a limit
+    // (a stream need not end: /dev/zero).
+    if (const int flags = fcntl(fd, F_GETFL); flags >= 0)
+        fcntl(fd, F_SETFL, flags & ~O_NONBLOCK);
     char buffer[1 << 16];
     for (;;) {
+        if (m_fallback.size() > kMaxStreamBytes) {
+            ::close(fd);
+            m_fallback = std::vector<char>();
+            Error e = makeError(ErrorCode::Io,
+                                "this is a stream (a pipe or a device), not a regular file, and it "
+                                "holds more than " +
+                                    std::to_string(kMaxStreamBytes >> 20) +
+                                    " MiB; save the data to a file and read that");
+            e.file = path;
+            return e;
+        }
         const ssize_t got = ::read(fd, buffer, sizeof buffer);
         if (got < 0) {
             if (errno == EINTR)
@@ -156,7 +171,17 @@ Status InputFile::open(const std::string& path) {
         }
         if (got == 0)
             break;
-        m_fallback.append(buffer, static_cast<std::size_t>(got));
+        // Grow by doubling, but never past the limit (plus one read), so an endless stream costs
+        // about the limit in memory, not twice it (a vector's reserve is exact; a string's may
+        // double again).
+        const std::size_t need = m_fallback.size() + static_cast<std::size_t>(got);
+        if (need > m_fallback.capacity()) {
+            std::size_t target = std::max(2 * m_fallback.capacity(), need);
+            if (target >= kMaxStreamBytes)
+                target = kMaxStreamBytes + sizeof buffer;  // the last growth: room for one read
+            m_fallback.reserve(target);
+        }
+        m_fallback.insert(m_fallback.end(), buffer, buffer + got);
     }
     ::close(fd);
     m_data = m_fallback.data();

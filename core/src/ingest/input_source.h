@@ -15,6 +15,7 @@
 #include <cstdint>
 #include <string>
 #include <string_view>
+#include <vector>
 
 namespace siftwave::detail {
 
@@ -51,6 +52,11 @@ public:
     InputFile(const InputFile&) = delete;
     InputFile& operator=(const InputFile&) = delete;
 
+    /// A regular file is mapped whatever its size; a stream that is not a regular file (a pipe,
+    /// a FIFO, a device) is read into memory up to this many bytes, then refused.
+    static constexpr std::size_t kMaxStreamBytes = std::size_t{512} << 20;
+
+    /// Opens and maps (or reads) the file. A FIFO with no writer reads as empty, never blocks.
     Status open(const std::string& path);
     std::string_view bytes() const { return {m_data, m_size}; }
     bool mapped() const { return m_mapped; }
@@ -64,7 +70,7 @@ private:
     std::size_t m_size = 0;
     bool m_mapped = false;
     std::size_t m_released = 0;
-    std::string m_fallback;
+    std::vector<char> m_fallback;
 };
 
 /// Walks the bytes block by block once: hashes them, checks UTF-8 and NUL bytes.
