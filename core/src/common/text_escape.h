@@ -1,5 +1,5 @@
 #pragma once
-// Escaping of text for the HTML the ledger report and the briefing report write.
+// Escaping of text for the HTML and Markdown the ledger report and the briefing report write.
 
 #include <string>
 #include <string_view>
@@ -29,6 +29,55 @@ inline std::string htmlEscaped(std::string_view text) {
                 break;
             default:
                 out += c;
+        }
+    }
+    return out;
+}
+
+/// Text safe in Markdown (CommonMark 0.30): `<`, `>` and `&` become entity references, so a
+/// renderer never sees raw HTML (section 6.6); every other ASCII punctuation character that can
+/// open markup is backslash-escaped (section 2.4: links, images, emphasis, code, tables);
+/// line breaks become spaces (a cell or a list item stays one line); other control characters
+/// become U+FFFD.
+inline std::string markdownEscaped(std::string_view text) {
+    std::string out;
+    out.reserve(text.size());
+    for (char c : text) {
+        switch (c) {
+            case '&':
+                out += "&amp;";
+                break;
+            case '<':
+                out += "&lt;";
+                break;
+            case '>':
+                out += "&gt;";
+                break;
+            case '\\':
+            case '`':
+            case '*':
+            case '_':
+            case '[':
+            case ']':
+            case '(':
+            case ')':
+            case '#':
+            case '!':
+            case '|':
+            case '~':
+                out += '\\';
+                out += c;
+                break;
+            case '\n':
+            case '\r':
+            case '\t':
+                out += ' ';
+                break;
+            default:
+                if (static_cast<unsigned char>(c) < 0x20 || c == 0x7F)
+                    out += "\xEF\xBF\xBD";  // U+FFFD
+                else
+                    out += c;
         }
     }
     return out;

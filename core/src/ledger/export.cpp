@@ -226,18 +226,9 @@ namespace {
 
 using detail::htmlEscaped;
 
-/// Markdown table cell: pipes escaped, line breaks flattened.
+/// Markdown text from the ledger or the drop (untrusted): the one Markdown escape.
 std::string mdCell(std::string_view s) {
-    std::string out;
-    for (char c : s) {
-        if (c == '|')
-            out += "\\|";
-        else if (c == '\n' || c == '\r')
-            out += ' ';
-        else
-            out += c;
-    }
-    return out;
+    return detail::markdownEscaped(s);
 }
 
 std::string parametersText(const LedgerEntry& e) {
@@ -309,9 +300,8 @@ std::string renderReport(const Ledger& ledger, const std::vector<ReconciliationR
         out += "# Ledger audit report\n\n";
         out += "- Ledger: " + mdCell(ctx.ledgerPath) + "\n";
         out += "- Drop: " + mdCell(drop) + "\n";
-        out +=
-            "- Drop SHA-256: " + (ctx.dropSha256.empty() ? ledger.dropSha256() : ctx.dropSha256) +
-            "\n";
+        out += "- Drop SHA-256: " +
+               mdCell(ctx.dropSha256.empty() ? ledger.dropSha256() : ctx.dropSha256) + "\n";
         out +=
             "- Entries: " + std::to_string(ledger.entries.size()) + "; hash chain " + chain + "\n";
         if (added.any())
@@ -321,7 +311,7 @@ std::string renderReport(const Ledger& ledger, const std::vector<ReconciliationR
         out += "| # | Time (UTC) | Author | Kind | Status | Parameters | Totals moved | Reason |\n";
         out += "|---|---|---|---|---|---|---|---|\n";
         for (const LedgerEntry& e : ledger.entries) {
-            out += "| " + std::to_string(e.sequence) + " | " + e.timestamp + " | " +
+            out += "| " + std::to_string(e.sequence) + " | " + mdCell(e.timestamp) + " | " +
                    mdCell(e.author) + " | " + decisionKindName(e.decision.kind) + " | " +
                    statusText(e, inEffect) + " | " + mdCell(parametersText(e)) + " | " +
                    mdCell(totalsText(e)) + " | " + mdCell(e.reason) + " |\n";
