@@ -112,6 +112,28 @@ TEST_F(CliFigure, WritesAPngOfTheRequestedSizeAndDpi) {
     EXPECT_EQ(u32(phys + 4), 6299u);  // 160 / 0.0254 = 6299.2 pixels per metre
 }
 
+// Reliability issue, item 7: =1+2 and +1=2 both make the file name part _1_2; each figure keeps
+// its own file and "wrote" names each once.
+TEST_F(CliFigure, EachRegionGetsItsOwnFileWhenCodesMapToOneName) {
+    const std::string drop = path("collide.csv");
+    {
+        std::ofstream f(drop, std::ios::binary);
+        f << "date,region,cases\n";
+        for (int d = 0; d < 20; ++d)
+            for (const char* code : {"\"=1+2\"", "\"+1=2\""})
+                f << (*siftwave::Date::fromIso("2026-03-01") + d).iso() << "," << code << ","
+                  << 3 + d % 4 << "\n";
+    }
+    const CliRun r =
+        run("figure " + drop + " --region =1+2 --region +1=2 --each --out " + path("fig.svg"));
+    ASSERT_EQ(r.exitCode, 0) << r.out;
+    EXPECT_TRUE(fs::exists(path("fig-_1_2.svg"))) << r.out;
+    EXPECT_TRUE(fs::exists(path("fig-_1_2-2.svg"))) << r.out;
+    EXPECT_EQ(r.out.find("wrote " + path("fig-_1_2.svg")),
+              r.out.rfind("wrote " + path("fig-_1_2.svg")))
+        << r.out;
+}
+
 TEST_F(CliFigure, WritesPdfAndSvgWithTheCaptionAsText) {
     const std::string ledger = writeLedger();
     const siftwave::Drop drop = siftwave::readDrop(kDrop).value();

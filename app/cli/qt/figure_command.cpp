@@ -14,6 +14,8 @@
 #include <QDir>
 #include <QFileInfo>
 
+#include <set>
+
 #include <cstdio>
 
 namespace siftwave::cli {
@@ -178,9 +180,19 @@ int runFigure(int argc, char** argv, int first) {
         return true;
     };
     if (args->has("each") && figures.size() > 1) {
-        for (const report::FigureSpec& f : figures)
-            if (!writeOne(pathForRegion(out, f.regionCode), {f}))
+        // Codes that differ only in characters a file name cannot keep (=1+2 and +1=2 both
+        // give _1_2) get -2, -3, ... so that no figure overwrites another.
+        std::set<QString> used;
+        for (const report::FigureSpec& f : figures) {
+            QString path = pathForRegion(out, f.regionCode);
+            const QFileInfo base(path);
+            for (int n = 2; used.count(path.toLower()); ++n)
+                path = base.dir().filePath(base.completeBaseName() + QStringLiteral("-%1.").arg(n) +
+                                           base.suffix());
+            used.insert(path.toLower());
+            if (!writeOne(path, {f}))
                 return kExitBadInput;
+        }
     } else if (!writeOne(out, figures)) {
         return kExitBadInput;
     }
