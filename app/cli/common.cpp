@@ -122,12 +122,35 @@ nlohmann::json errorToJson(const Error& error) {
     return e;
 }
 
+std::string terminalText(std::string_view text) {
+    std::string out;
+    out.reserve(text.size());
+    char escape[8];
+    for (std::size_t i = 0; i < text.size(); ++i) {
+        const auto c = static_cast<unsigned char>(text[i]);
+        if (c < 0x20 || c == 0x7F) {
+            std::snprintf(escape, sizeof escape, "\\x%02x", c);
+            out += escape;
+        } else if (c == 0xC2 && i + 1 < text.size() &&
+                   static_cast<unsigned char>(text[i + 1]) >= 0x80 &&
+                   static_cast<unsigned char>(text[i + 1]) <= 0x9F) {
+            std::snprintf(escape, sizeof escape, "\\u00%02x",
+                          static_cast<unsigned char>(text[i + 1]));
+            out += escape;
+            ++i;
+        } else {
+            out += static_cast<char>(c);
+        }
+    }
+    return out;
+}
+
 void printError(const Error& error, bool json) {
     if (json) {
         printJson({{"error", errorToJson(error)}});
         return;
     }
-    std::fprintf(stderr, "siftwave-cli: %s\n", error.describe().c_str());
+    std::fprintf(stderr, "siftwave-cli: %s\n", terminalText(error.describe()).c_str());
 }
 
 void printJson(const nlohmann::json& value) {

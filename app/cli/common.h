@@ -12,6 +12,7 @@
 
 #include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace siftwave::cli {
@@ -29,6 +30,12 @@ Result<Drop> loadDrop(const std::string& path, const ParsedArgs& args);
 /// Prints an error: "siftwave-cli: file:line:column: message" on stderr, or
 /// {"error": {"code", "message", "file", "line", "column"}} on stdout with --json.
 void printError(const Error& error, bool json);
+
+/// Text from a data file made safe to print on a terminal: C0 control characters (ESC among
+/// them), DEL and the C1 controls U+0080..U+009F become visible escapes (\x1b, \u0085), so a
+/// region code cannot move the cursor, recolour or retitle the terminal (ECMA-48 control
+/// functions start with ESC or a C1 character). Everything else, UTF-8 included, is kept.
+std::string terminalText(std::string_view text);
 
 /// Prints JSON (indented 2) and a newline on stdout.
 void printJson(const nlohmann::json& value);

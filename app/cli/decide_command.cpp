@@ -290,15 +290,16 @@ void printEffectText(const Drop& drop, const Effect& effect) {
             return cell.hasValue() ? std::to_string(cell.value)
                                    : std::string(cleanedStateName(cell.state));
         };
-        std::printf("  %s %s %s: %s -> %s\n", periodText(drop, c.date).c_str(), c.region.c_str(),
-                    c.measure.c_str(), value(c.before).c_str(), value(c.after).c_str());
+        std::printf("  %s %s %s: %s -> %s\n", periodText(drop, c.date).c_str(),
+                    terminalText(c.region).c_str(), c.measure.c_str(), value(c.before).c_str(),
+                    value(c.after).c_str());
     }
     if (effect.cells.size() > shown)
         std::printf("  ... %zu more cells\n", effect.cells.size() - shown);
     for (const TotalChange& t : effect.totals) {
-        std::printf("  total %s %s: %lld -> %lld%s\n", t.region.c_str(), t.measure.c_str(),
-                    static_cast<long long>(t.before), static_cast<long long>(t.after),
-                    t.before == t.after ? " (unchanged)" : "");
+        std::printf("  total %s %s: %lld -> %lld%s\n", terminalText(t.region).c_str(),
+                    terminalText(t.measure).c_str(), static_cast<long long>(t.before),
+                    static_cast<long long>(t.after), t.before == t.after ? " (unchanged)" : "");
     }
 }
 

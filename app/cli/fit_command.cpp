@@ -202,8 +202,8 @@ std::string csvRow(const fit::RegionFit& r) {
 
 void printText(const fit::RegionFit& r, const TimeAxis& axis) {
     if (!r.fit) {
-        std::printf("%s: fit failed: %s\n", r.region.c_str(),
-                    r.error ? r.error->message.c_str() : "");
+        std::printf("%s: fit failed: %s\n", terminalText(r.region).c_str(),
+                    terminalText(r.error ? r.error->message : std::string()).c_str());
         return;
     }
     const auto& f = *r.fit;
@@ -212,13 +212,13 @@ void printText(const fit::RegionFit& r, const TimeAxis& axis) {
         return std::isfinite(day) ? f.dateOf(day).iso() : std::string("-");
     };
     if (axis.weekly()) {
-        std::printf("%s: %s by %s, window %s .. %s (%d weeks, %s to %s)\n", r.region.c_str(),
-                    fit::modelName(f.model), fit::methodName(f.method),
-                    axis.periodName(f.first).c_str(), axis.periodName(f.last).c_str(),
-                    f.last - f.first + 1, axis.periodStart(f.first).iso().c_str(),
-                    axis.periodEnd(f.last).iso().c_str());
+        std::printf("%s: %s by %s, window %s .. %s (%d weeks, %s to %s)\n",
+                    terminalText(r.region).c_str(), fit::modelName(f.model),
+                    fit::methodName(f.method), axis.periodName(f.first).c_str(),
+                    axis.periodName(f.last).c_str(), f.last - f.first + 1,
+                    axis.periodStart(f.first).iso().c_str(), axis.periodEnd(f.last).iso().c_str());
     } else {
-        std::printf("%s: %s by %s, window %s .. %s (%d days)\n", r.region.c_str(),
+        std::printf("%s: %s by %s, window %s .. %s (%d days)\n", terminalText(r.region).c_str(),
                     fit::modelName(f.model), fit::methodName(f.method),
                     f.windowFirst().iso().c_str(), f.windowLast().iso().c_str(),
                     f.last - f.first + 1);

@@ -97,7 +97,7 @@ nlohmann::json inspectJson(const Drop& drop) {
 void printText(const Drop& drop) {
     const Provenance& p = drop.source;
     const CellCounts counts = drop.countCells();
-    std::printf("file        %s\n", p.path.c_str());
+    std::printf("file        %s\n", terminalText(p.path).c_str());
     std::printf("bytes       %llu\n", static_cast<unsigned long long>(p.bytes));
     std::printf("sha256      %s\n", p.sha256.c_str());
     std::printf("dialect     %s delimited, %s, %s line endings%s, decimal '%c'",
@@ -108,13 +108,14 @@ void printText(const Drop& drop) {
         std::printf(", thousands '%c'", p.dialect.thousandsSeparator);
     std::printf("\nlayout      %s\n", layoutName(p.layout));
     if (!p.columns.date.empty())
-        std::printf("date column %s (%s)\n", p.columns.date.c_str(), p.dateFormat.c_str());
+        std::printf("date column %s (%s)\n", terminalText(p.columns.date).c_str(),
+                    p.dateFormat.c_str());
     else
         std::printf("dates       in the header (%s)\n", p.dateFormat.c_str());
     if (!p.columns.region.empty())
-        std::printf("region col  %s\n", p.columns.region.c_str());
+        std::printf("region col  %s\n", terminalText(p.columns.region).c_str());
     if (!p.columns.measure.empty())
-        std::printf("measure col %s\n", p.columns.measure.c_str());
+        std::printf("measure col %s\n", terminalText(p.columns.measure).c_str());
     std::string values;
     for (std::size_t i = 0; i < p.columns.values.size(); ++i) {
         if (i == 8) {
@@ -123,7 +124,7 @@ void printText(const Drop& drop) {
         }
         values += (i ? ", " : "") + p.columns.values[i];
     }
-    std::printf("value cols  %s\n", values.c_str());
+    std::printf("value cols  %s\n", terminalText(values).c_str());
     std::printf("rows        %zu\n", drop.rows);
     std::string codes;
     for (std::size_t i = 0; i < drop.regionCodes.size(); ++i) {
@@ -133,11 +134,11 @@ void printText(const Drop& drop) {
         }
         codes += (i ? ", " : "") + drop.regionCodes[i];
     }
-    std::printf("regions     %zu: %s\n", drop.regionCodes.size(), codes.c_str());
+    std::printf("regions     %zu: %s\n", drop.regionCodes.size(), terminalText(codes).c_str());
     std::string measures;
     for (std::size_t i = 0; i < drop.measures.size(); ++i)
         measures += (i ? ", " : "") + drop.measures[i];
-    std::printf("measures    %s\n", measures.c_str());
+    std::printf("measures    %s\n", terminalText(measures).c_str());
     if (!drop.axis.empty())
         std::printf("calendar    %s\n", drop.axis.describe().c_str());
     std::printf("cells       %zu reported, %zu absent, %zu blank, %zu unparsable\n",
@@ -149,7 +150,7 @@ void printText(const Drop& drop) {
         if (w.line > 0)
             where = "line " + std::to_string(w.line) +
                     (w.column > 0 ? ", column " + std::to_string(w.column) : "") + ": ";
-        std::printf("  - %s%s\n", where.c_str(), w.message.c_str());
+        std::printf("  - %s%s\n", where.c_str(), terminalText(w.message).c_str());
     }
 }
 

@@ -44,7 +44,8 @@ std::string dates(const scan::Finding& f) {
 }
 
 void printTable(const scan::ScanReport& report, const Drop& drop) {
-    std::printf("%s: %zu finding(s)", drop.source.path.c_str(), report.findings.size());
+    std::printf("%s: %zu finding(s)", terminalText(drop.source.path).c_str(),
+                report.findings.size());
     std::string sep = " (";
     for (const char* s : {"critical", "warning", "info"}) {
         const std::size_t n = report.bySeverity.at(s);
@@ -62,11 +63,12 @@ void printTable(const scan::ScanReport& report, const Drop& drop) {
     std::printf("\n%4s  %-8s  %-19s  %-10s  %-8s  %-22s  %s\n", "rank", "severity", "kind",
                 "region", "measure", "dates", "what");
     for (const scan::Finding& f : report.findings) {
-        std::printf("%4d  %-8s  %-19s  %-10s  %-8s  %-22s  %s\n", f.rank,
-                    scan::severityName(f.severity), scan::findingKindName(f.kind),
-                    f.region ? (f.region->empty() ? "\"\"" : f.region->c_str()) : "(all)",
-                    f.measure ? f.measure->c_str() : "(all)", dates(f).c_str(),
-                    scan::describeFinding(f).c_str());
+        std::printf(
+            "%4d  %-8s  %-19s  %-10s  %-8s  %-22s  %s\n", f.rank, scan::severityName(f.severity),
+            scan::findingKindName(f.kind),
+            f.region ? (f.region->empty() ? "\"\"" : terminalText(*f.region).c_str()) : "(all)",
+            f.measure ? terminalText(*f.measure).c_str() : "(all)", dates(f).c_str(),
+            terminalText(scan::describeFinding(f)).c_str());
     }
     if (report.revisions.compared) {
         const scan::RevisionSummary& r = report.revisions;

@@ -99,6 +99,44 @@ TEST(CliInspect, JsonHasEveryFieldTheIssueNames) {
     std::filesystem::remove(path);
 }
 
+// Reliability issue, item 7: a region code with terminal control characters (ECMA-48: ESC
+// starts a control sequence; U+009B is the C1 control sequence introducer) is printed as
+// visible escapes by inspect, scan and fit, on stdout and stderr alike; no control byte
+// reaches the terminal.
+TEST(CliInspect, ControlCharactersInCodesNeverReachTheTerminal) {
+    const std::filesystem::path file = siftwave::testing::testTempPath("control-codes.csv");
+    {
+        std::ofstream out(file, std::ios::binary);
+        out << "date,region,cases\n";
+        for (int d = 1; d <= 20; ++d)
+            out << "2026-03-" << (d < 10 ? "0" : "") << d << ",\"A\x1b[2J\x07\xc2\x9b\"," << d
+                << "\n";
+    }
+    auto clean = [](const std::string& text) {
+        for (std::size_t i = 0; i < text.size(); ++i) {
+            const auto c = static_cast<unsigned char>(text[i]);
+            if ((c < 0x20 && c != '\n') || c == 0x7F)
+                return false;
+            if (c == 0xC2 && i + 1 < text.size() &&
+                static_cast<unsigned char>(text[i + 1]) >= 0x80 &&
+                static_cast<unsigned char>(text[i + 1]) <= 0x9F)
+                return false;
+        }
+        return true;
+    };
+    for (const std::string& command :
+         {std::string("inspect "), std::string("scan "), std::string("fit --all ")}) {
+        const CliRun r = run(command + file.string());
+        EXPECT_TRUE(clean(r.out)) << command << r.out;
+        EXPECT_TRUE(clean(r.err)) << command << r.err;
+    }
+    const CliRun r = run("inspect " + file.string());
+    EXPECT_NE(r.out.find("A\\x1b[2J\\x07\\u009b"), std::string::npos) << r.out;
+    // An error message quoting the code is escaped too.
+    const CliRun bad = run("fit " + file.string() + " --region nowhere");
+    EXPECT_TRUE(clean(bad.err)) << bad.err;
+}
+
 TEST(CliInspect, PlainTextSaysWhatWasRead) {
     const std::string path =
         writeDrop("siftwave_inspect_text.csv", "date;NA;007\n01/02/2026;1;2\n13/02/2026;3;4\n");
