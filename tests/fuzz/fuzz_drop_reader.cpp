@@ -1,0 +1,57 @@
+// libFuzzer target: the CSV drop reader with sniffing, layout and role detection and the
+// calendar plan, on arbitrary bytes. The reader must return a Drop or an Error, never crash,
+// hang or read out of bounds (ASan/UBSan in the fuzz build), and a Drop it returns must hold
+// together: every table is regions x periods, every duplicate points inside the calendar.
+// The last byte also picks forced options, so the weekly, long and daily paths are reached.
+#include "siftwave/ingest/ingest.h"
+
+#include <cstddef>
+#include <cstdint>
+#include <string_view>
+
+namespace {
+
+void checkDrop(const siftwave::Drop& drop) {
+    const auto regions = drop.regionCodes.size();
+    const auto periods = static_cast<std::size_t>(drop.periods());
+    if (drop.tables.size() != drop.measures.size())
+        __builtin_trap();
+    for (const siftwave::CellTable& t : drop.tables)
+        if (t.regions() != regions || (regions > 0 && t.days() != periods))
+            __builtin_trap();
+    for (const siftwave::DuplicateRow& d : drop.duplicates)
+        if (d.day < 0 || static_cast<std::size_t>(d.day) >= periods || d.region >= regions ||
+            d.measure >= drop.measures.size())
+            __builtin_trap();
+}
+
+}  // namespace
+
+extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
+    const std::string_view bytes(reinterpret_cast<const char*>(data), size);
+    siftwave::IngestOptions options;
+    if (auto drop = siftwave::parseDrop(bytes, "fuzz.csv", options); drop.ok())
+        checkDrop(*drop);
+    if (size == 0)
+        return 0;
+    switch (data[size - 1] % 5) {
+        case 1:
+            options.cadence = siftwave::Cadence::Weekly;
+            break;
+        case 2:
+            options.layout = siftwave::Layout::Long;
+            break;
+        case 3:
+            options.cadence = siftwave::Cadence::Daily;
+            break;
+        case 4:
+            options.weekStart = siftwave::WeekStart::Sunday;
+            options.weekDate = siftwave::WeekDate::End;
+            break;
+        default:
+            return 0;
+    }
+    if (auto drop = siftwave::parseDrop(bytes, "fuzz.csv", options); drop.ok())
+        checkDrop(*drop);
+    return 0;
+}

@@ -1,0 +1,56 @@
+#!/usr/bin/env bash
+# Builds the libFuzzer targets (tests/fuzz/fuzz_*.cpp) with clang, AddressSanitizer and
+# UndefinedBehaviorSanitizer in build-fuzz/, then runs each one for a set time from its seed
+# corpus (tests/fuzz/corpus/<name>/) with its dictionary (tests/fuzz/<name>.dict) when there is
+# one. A crash leaves its input in the scratch folder printed at the end: add it to the seed
+# corpus and write a regression test for it.
+#
+#   bash tools/fuzz.sh [SECONDS_PER_TARGET] [TARGET ...]     (default: 60 s, every target)
+#
+# Needs Debian's clang and libclang-rt-14-dev (libFuzzer and the sanitizer runtimes).
+set -euo pipefail
+root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+cd "$root"
+seconds="${1:-60}"
+shift || true
+
+if [ ! -f build-fuzz/build.ninja ]; then
+    cmake -S . -B build-fuzz -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo \
+        -DCMAKE_C_COMPILER=clang -DCMAKE_CXX_COMPILER=clang++ \
+        -DSIFTWAVE_WITH_QT=OFF -DSIFTWAVE_BUILD_TESTS=OFF -DSIFTWAVE_BUILD_BENCHMARKS=OFF \
+        -DSIFTWAVE_BUILD_FUZZERS=ON \
+        "-DCMAKE_CXX_FLAGS=-fsanitize=fuzzer-no-link,address,undefined -fno-sanitize-recover=undefined" \
+        >build-fuzz.configure.log 2>&1 || { cat build-fuzz.configure.log; exit 1; }
+fi
+cmake --build build-fuzz -j2 >build-fuzz/build.log 2>&1 || {
+    grep -E "error" -A3 build-fuzz/build.log | head -40
+    exit 1
+}
+
+targets=("$@")
+if [ ${#targets[@]} -eq 0 ]; then
+    for f in tests/fuzz/fuzz_*.cpp; do
+        name="$(basename "$f" .cpp)"
+        targets+=("${name#fuzz_}")
+    done
+fi
+
+scratch="$(mktemp -d "${TMPDIR:-/tmp}/siftwave-fuzz.XXXXXX")"
+status=0
+for t in "${targets[@]}"; do
+    corpus="$scratch/corpus-$t"
+    mkdir -p "$corpus"
+    [ -d "tests/fuzz/corpus/$t" ] && cp tests/fuzz/corpus/"$t"/* "$corpus"/
+    dict=()
+    [ -f "tests/fuzz/$t.dict" ] && dict=("-dict=tests/fuzz/$t.dict")
+    echo "== fuzz_$t for ${seconds}s"
+    if ! (cd "$scratch" && "$root/build-fuzz/fuzz/fuzz_$t" "$corpus" "${dict[@]/#-dict=/-dict=$root/}" \
+        -max_total_time="$seconds" -max_len=16384 -rss_limit_mb=2048 -timeout=10 \
+        -print_final_stats=1 2>"$scratch/fuzz_$t.log"); then
+        status=1
+        echo "fuzz_$t FAILED; its log and the crashing input are in $scratch"
+    fi
+    grep -E "^stat::number_of_executed_units|^stat::peak_rss_mb|cov: " "$scratch/fuzz_$t.log" | tail -3
+done
+[ "$status" -eq 0 ] && echo "all fuzz targets ran clean ($scratch)"
+exit "$status"
