@@ -6,30 +6,34 @@
 
 namespace siftwave::detail {
 
+/// The entity reference of a character HTML gives a meaning (& < > " '), or nullptr. Markdown
+/// uses the same references, since CommonMark passes raw HTML through.
+inline const char* htmlEntityOf(char c) {
+    switch (c) {
+        case '&':
+            return "&amp;";
+        case '<':
+            return "&lt;";
+        case '>':
+            return "&gt;";
+        case '"':
+            return "&quot;";
+        case '\'':
+            return "&#39;";
+        default:
+            return nullptr;
+    }
+}
+
 /// Text safe inside HTML elements and double- or single-quoted attributes.
 inline std::string htmlEscaped(std::string_view text) {
     std::string out;
     out.reserve(text.size());
     for (char c : text) {
-        switch (c) {
-            case '&':
-                out += "&amp;";
-                break;
-            case '<':
-                out += "&lt;";
-                break;
-            case '>':
-                out += "&gt;";
-                break;
-            case '"':
-                out += "&quot;";
-                break;
-            case '\'':
-                out += "&#39;";
-                break;
-            default:
-                out += c;
-        }
+        if (const char* entity = htmlEntityOf(c))
+            out += entity;
+        else
+            out += c;
     }
     return out;
 }
@@ -43,16 +47,11 @@ inline std::string markdownEscaped(std::string_view text) {
     std::string out;
     out.reserve(text.size());
     for (char c : text) {
+        if (c == '&' || c == '<' || c == '>') {
+            out += htmlEntityOf(c);
+            continue;
+        }
         switch (c) {
-            case '&':
-                out += "&amp;";
-                break;
-            case '<':
-                out += "&lt;";
-                break;
-            case '>':
-                out += "&gt;";
-                break;
             case '\\':
             case '`':
             case '*':
