@@ -5,6 +5,7 @@
 #include "common.h"
 
 #include "siftwave/fit/batch.h"
+#include "siftwave/csv_field.h"
 #include "siftwave/ledger/export.h"
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/replay.h"

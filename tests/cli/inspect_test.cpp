@@ -1,6 +1,7 @@
 // End-to-end: siftwave-cli inspect on files written by the test.
 #include "siftwave/date.h"
 #include "siftwave/ingest/ingest.h"
+#include "siftwave/sha256.h"
 
 #include "support/temp_path.h"
 

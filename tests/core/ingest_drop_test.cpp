@@ -1,5 +1,6 @@
 // Reading whole drops: dialects, layouts, roles, cells, duplicates, provenance.
 #include "siftwave/ingest/ingest.h"
+#include "siftwave/sha256.h"
 
 #include "support/temp_path.h"
 #include "support/xorshift.h"

@@ -1,6 +1,7 @@
 // The cleaned CSV (RFC 4180, spreadsheet-safe) and the audit report.
 #include "ledger_test_support.h"
 
+#include "siftwave/csv_field.h"
 #include "siftwave/ledger/export.h"
 
 #include <gtest/gtest.h>

@@ -1,6 +1,6 @@
 // The ledger's hash chain rests on SHA-256 (sha256Hex, shared with ingest); check it
 // against the published example vectors.
-#include "siftwave/ingest/ingest.h"
+#include "siftwave/sha256.h"
 
 #include <gtest/gtest.h>
 

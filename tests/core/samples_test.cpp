@@ -6,6 +6,7 @@
 
 #include "siftwave/date.h"
 #include "siftwave/ingest/ingest.h"
+#include "siftwave/sha256.h"
 
 #include <gtest/gtest.h>
 

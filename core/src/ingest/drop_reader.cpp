@@ -371,10 +371,4 @@ Result<Drop> readDrop(const std::string& path, const IngestOptions& options) {
     return reader.run();
 }
 
-std::string sha256Hex(std::string_view bytes) {
-    detail::Sha256 sha;
-    sha.update(bytes.data(), bytes.size());
-    return sha.hexDigest();
-}
-
 }  // namespace siftwave

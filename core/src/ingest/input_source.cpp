@@ -78,36 +78,6 @@ std::size_t findInvalidUtf8(std::string_view data) {
     return std::string_view::npos;
 }
 
-Sha256::Sha256() : m_ctx(EVP_MD_CTX_new()) {
-    if (m_ctx)
-        EVP_DigestInit_ex(m_ctx, EVP_sha256(), nullptr);
-}
-
-Sha256::~Sha256() {
-    EVP_MD_CTX_free(m_ctx);
-}
-
-void Sha256::update(const char* data, std::size_t size) {
-    if (m_ctx && size > 0)
-        EVP_DigestUpdate(m_ctx, data, size);
-}
-
-std::string Sha256::hexDigest() {
-    unsigned char digest[EVP_MAX_MD_SIZE];
-    unsigned int length = 0;
-    if (!m_ctx || EVP_DigestFinal_ex(m_ctx, digest, &length) != 1)
-        return {};
-    static const char* hex = "0123456789abcdef";
-    std::string out;
-    out.reserve(length * 2);
-    for (unsigned int i = 0; i < length; ++i) {
-        out += hex[digest[i] >> 4];
-        out += hex[digest[i] & 15];
-    }
-    EVP_DigestInit_ex(m_ctx, EVP_sha256(), nullptr);
-    return out;
-}
-
 InputFile::~InputFile() {
     if (m_mapped)
         munmap(const_cast<char*>(m_data), m_size);

@@ -9,7 +9,7 @@
 
 #include "siftwave/result.h"
 
-#include <openssl/evp.h>
+#include "common/sha256.h"
 
 #include <cstddef>
 #include <cstdint>
@@ -29,20 +29,6 @@ TextPosition positionOf(std::string_view data, std::size_t offset);
 /// Offset of the first byte that is not part of valid UTF-8 (RFC 3629: no overlong
 /// forms, no surrogates, nothing above U+10FFFF), or npos when all is valid.
 std::size_t findInvalidUtf8(std::string_view data);
-
-/// Incremental SHA-256 over OpenSSL's EVP interface.
-class Sha256 {
-public:
-    Sha256();
-    ~Sha256();
-    Sha256(const Sha256&) = delete;
-    Sha256& operator=(const Sha256&) = delete;
-    void update(const char* data, std::size_t size);
-    std::string hexDigest();
-
-private:
-    EVP_MD_CTX* m_ctx;
-};
 
 /// A file opened for reading: mapped when possible, else read into memory.
 class InputFile {

@@ -83,8 +83,7 @@ bool Cleaned::inEffect(std::uint64_t sequence) const {
     return m_inEffect[sequence - 1];
 }
 
-std::vector<double> cleanedCounts(const Cleaned& cleaned, std::size_t measure,
-                                  std::size_t region) {
+std::vector<double> cleanedCounts(const Cleaned& cleaned, std::size_t measure, std::size_t region) {
     const auto cells = cleaned.series(measure, region);
     std::vector<double> counts(cells.size(), std::numeric_limits<double>::quiet_NaN());
     for (std::size_t d = 0; d < cells.size(); ++d)

@@ -2,7 +2,7 @@
 #include "siftwave/ledger/entry.h"
 
 #include "ledger/entry_json.h"
-#include "siftwave/ingest/ingest.h"
+#include "siftwave/sha256.h"
 
 #include <nlohmann/json.hpp>
 
@@ -302,16 +302,6 @@ Result<Decision> parseDecision(const Reader& rd, DecisionKind kind, const json& 
     return d;
 }
 
-bool isLowerHex64(const std::string& s) {
-    if (s.size() != 64)
-        return false;
-    for (char c : s) {
-        if (!((c >= '0' && c <= '9') || (c >= 'a' && c <= 'f')))
-            return false;
-    }
-    return true;
-}
-
 }  // namespace
 
 namespace detail {
@@ -352,7 +342,7 @@ Result<LedgerEntry> entryFromJson(const json& j, std::uint64_t lineNumber) {
         *out = *t;
     }
     for (const std::string* h : {&e.dropSha256, &e.previousHash, &e.hash}) {
-        if (!isLowerHex64(*h))
+        if (!isSha256Hex(*h))
             return syntax(lineNumber, "a hash must be 64 lower-case hex digits");
     }
     auto kindName = rd.text(j, "kind");

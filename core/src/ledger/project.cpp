@@ -1,6 +1,7 @@
 #include "siftwave/ledger/project.h"
 
 #include "ledger/file_io.h"
+#include "siftwave/sha256.h"
 
 #include <nlohmann/json.hpp>
 
@@ -11,16 +12,6 @@ namespace siftwave {
 using nlohmann::json;
 
 namespace {
-
-bool isHex64(const std::string& s) {
-    if (s.size() != 64)
-        return false;
-    for (char c : s) {
-        if (!((c >= '0' && c <= '9') || (c >= 'a' && c <= 'f')))
-            return false;
-    }
-    return true;
-}
 
 json optionalDate(const std::optional<Date>& d) {
     return d ? json(d->iso()) : json(nullptr);
@@ -39,13 +30,13 @@ Status ProjectFile::validate() const {
         return makeError(ErrorCode::Usage, "the project needs the drop's path");
     if (ledgerPath.empty())
         return makeError(ErrorCode::Usage, "the project needs the ledger's path");
-    if (!isHex64(dropSha256))
+    if (!isSha256Hex(dropSha256))
         return makeError(ErrorCode::Usage, "the drop's SHA-256 must be 64 lower-case hex digits");
-    if (!previousDropPath.empty() && !isHex64(previousDropSha256)) {
+    if (!previousDropPath.empty() && !isSha256Hex(previousDropSha256)) {
         return makeError(ErrorCode::Usage,
                          "the previous drop's SHA-256 must be 64 lower-case hex digits");
     }
-    if (!ledgerHeadHash.empty() && !isHex64(ledgerHeadHash)) {
+    if (!ledgerHeadHash.empty() && !isSha256Hex(ledgerHeadHash)) {
         return makeError(ErrorCode::Usage, "the ledger head hash must be 64 lower-case hex digits");
     }
     if (fit.smoothingDays < 1)

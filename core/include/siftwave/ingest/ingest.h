@@ -71,7 +71,4 @@ Result<Drop> parseDrop(std::string_view bytes, const std::string& displayPath,
 /// (header required; parent and population may be empty). Codes verbatim.
 Result<RegionRegister> readRegister(const std::string& path);
 
-/// Lower-case hex SHA-256 of a byte string (OpenSSL's libcrypto).
-std::string sha256Hex(std::string_view bytes);
-
 }  // namespace siftwave

@@ -39,9 +39,6 @@ std::string cleanedCsv(const Drop& drop, const Cleaned& cleaned);
 /// Writes cleanedCsv() atomically.
 Status writeCleanedCsv(const std::string& path, const Drop& drop, const Cleaned& cleaned);
 
-/// A CSV field per RFC 4180, neutralised for spreadsheets when `text`.
-std::string csvField(std::string_view value, bool text);
-
 struct ReconciliationRow {
     std::string region;
     std::string measure;
