@@ -75,6 +75,39 @@ Error DropReader::syntaxFailure(const CsvSyntaxError& s) {
 }
 
 Status DropReader::sniff() {
+    if (Status s = rejectUnreadableStart(); !s)
+        return s;
+    // The first block: its encoding, line endings and delimiter, then its first records.
+    const std::size_t sampleEnd = std::min(m_bytes.size(), m_start + kSampleBytes);
+    if (Status s = checkSampleBlock(sampleEnd); !s)
+        return s;
+    settleDelimiter(sampleEnd);
+    std::size_t sampledUpTo = m_start;
+    Result<std::vector<SampleRecord>> records = readSampleRecords(sampleEnd, sampledUpTo);
+    if (!records)
+        return records.error();
+    settleHeaderAndNumberStyle(*records);
+    if (Status s = takeColumnNames(*records, sampleEnd); !s)
+        return s;
+    if (Status s = settleRoles(*records); !s)
+        return s;
+    if (Status s = recordColumnMapping(); !s)
+        return s;
+
+    for (const std::string& token : m_options.missingTokens) {
+        if (token.empty())
+            m_emptyIsMissing = true;
+        else
+            m_otherMissing.push_back(token);
+    }
+    m_dateFormat = initialDateFormat();
+    m_sampleBytes = sampledUpTo > m_dataStart ? sampledUpTo - m_dataStart : 0;
+    m_sample = std::move(*records);
+    m_sniffLog = m_log;
+    return Ok{};
+}
+
+Status DropReader::rejectUnreadableStart() {
     const auto* u = reinterpret_cast<const unsigned char*>(m_bytes.data());
     if (m_bytes.size() >= 2 && ((u[0] == 0xFF && u[1] == 0xFE) || (u[0] == 0xFE && u[1] == 0xFF))) {
         return fail(
@@ -96,10 +129,12 @@ Status DropReader::sniff() {
     }
     if (firstContent >= m_bytes.size())
         return fail(ErrorCode::Syntax, "the file is empty; there is nothing to read");
+    return Ok{};
+}
 
+Status DropReader::checkSampleBlock(std::size_t sampleEnd) {
     // The encoding of the first block is checked before the line endings: a binary file often
     // holds a CR byte and no LF, and is better named as binary than as old Mac text.
-    const std::size_t sampleEnd = std::min(m_bytes.size(), m_start + kSampleBytes);
     if (Status s = m_checker.checkUpTo(sampleEnd); !s)
         return s;
     if (m_bytes.find('\n', m_start) == std::string_view::npos &&
@@ -109,7 +144,10 @@ Status DropReader::sniff() {
                     "with LF or CR LF line endings",
                     1, 0);
     }
+    return Ok{};
+}
 
+void DropReader::settleDelimiter(std::size_t sampleEnd) {
     m_delimiter =
         m_options.delimiter ? *m_options.delimiter : sniffDelimiter(m_bytes, m_start, sampleEnd);
     m_drop.source.dialect.delimiter = m_delimiter;
@@ -117,37 +155,39 @@ Status DropReader::sniff() {
         nl != std::string_view::npos && nl > 0) {
         m_drop.source.dialect.crlf = m_bytes[nl - 1] == '\r';
     }
+}
 
-    // The first records, owned (the sniffers and role detection look at them).
+Result<std::vector<SampleRecord>> DropReader::readSampleRecords(std::size_t sampleEnd,
+                                                                std::size_t& sampledUpTo) {
     std::vector<SampleRecord> records;
-    std::size_t sampledUpTo = m_start;
-    {
-        CsvScanner scanner(m_bytes, m_delimiter, m_start);
-        CsvRecord record;
-        while (static_cast<int>(records.size()) < kSampleRecords && scanner.next(record)) {
-            if (record.isEmptyLine())
-                continue;
-            SampleRecord s;
-            s.line = record.line;
-            for (const CsvField& f : record.fields)
-                s.fields.emplace_back(f.text);
-            records.push_back(std::move(s));
-            if (records.size() == 1) {
-                m_dataStart = scanner.position();
-                m_dataLine = scanner.line();
-            }
-            if (scanner.position() >= sampleEnd && records.size() >= 3)
-                break;
+    CsvScanner scanner(m_bytes, m_delimiter, m_start);
+    CsvRecord record;
+    while (static_cast<int>(records.size()) < kSampleRecords && scanner.next(record)) {
+        if (record.isEmptyLine())
+            continue;
+        SampleRecord s;
+        s.line = record.line;
+        for (const CsvField& f : record.fields)
+            s.fields.emplace_back(f.text);
+        records.push_back(std::move(s));
+        if (records.size() == 1) {
+            m_dataStart = scanner.position();
+            m_dataLine = scanner.line();
         }
-        if (scanner.failed())
-            return syntaxFailure(scanner.error());
-        sampledUpTo = scanner.position();
-        if (Status s = m_checker.checkUpTo(scanner.position()); !s)
-            return s;
+        if (scanner.position() >= sampleEnd && records.size() >= 3)
+            break;
     }
+    if (scanner.failed())
+        return syntaxFailure(scanner.error());
+    sampledUpTo = scanner.position();
+    if (Status s = m_checker.checkUpTo(scanner.position()); !s)
+        return s.error();
     if (records.empty())
         return fail(ErrorCode::Syntax, "the file is empty; there is nothing to read");
+    return records;
+}
 
+void DropReader::settleHeaderAndNumberStyle(const std::vector<SampleRecord>& records) {
     NumberStyle provisional = sniffNumberStyle(records, false);
     m_header = m_options.header ? *m_options.header : sniffHeader(records, provisional);
     m_style = sniffNumberStyle(records, m_header);
@@ -157,7 +197,9 @@ Status DropReader::sniff() {
         m_log.add("dialect",
                   "numbers use a decimal comma (',' separates decimals, '.' groups thousands)");
     }
+}
 
+Status DropReader::takeColumnNames(std::vector<SampleRecord>& records, std::size_t sampleEnd) {
     if (m_header) {
         m_names = records.front().fields;
         records.erase(records.begin());
@@ -186,7 +228,10 @@ Status DropReader::sniff() {
                     "with --delimiter (',' ';' 'tab' '|')",
                     1, 0);
     }
+    return Ok{};
+}
 
+Status DropReader::settleRoles(const std::vector<SampleRecord>& records) {
     Result<RoleMapping> roles = detectRoles(m_names, m_header, records, m_style, m_options);
     if (!roles) {
         Error e = roles.error();
@@ -194,37 +239,40 @@ Status DropReader::sniff() {
         return e;
     }
     m_roles = std::move(*roles);
-    if (m_roles.layout == Layout::DatesDown) {
-        std::map<std::string_view, int> seen;
-        for (int c : m_roles.valueColumns) {
-            auto [it, added] = seen.emplace(m_names[static_cast<std::size_t>(c)], c);
-            if (!added) {
-                return fail(ErrorCode::Layout,
-                            "the header names region " + quoted(it->first) + " twice (columns " +
-                                std::to_string(it->second + 1) + " and " + std::to_string(c + 1) +
-                                ")",
-                            1, static_cast<std::uint64_t>(c) + 1);
-            }
-            if (it->first.empty()) {
-                return fail(ErrorCode::Layout, "a region column has an empty name in the header", 1,
-                            static_cast<std::uint64_t>(c) + 1);
-            }
+    if (m_roles.layout == Layout::DatesDown ||
+        (m_roles.layout == Layout::Long && m_roles.measureColumn < 0))
+        return checkValueColumnNamesDistinct();
+    return Ok{};
+}
+
+Status DropReader::checkValueColumnNamesDistinct() const {
+    const bool regions = m_roles.layout == Layout::DatesDown;
+    std::map<std::string_view, int> seen;
+    for (int c : m_roles.valueColumns) {
+        auto [it, added] = seen.emplace(m_names[static_cast<std::size_t>(c)], c);
+        const std::uint64_t column = static_cast<std::uint64_t>(c) + 1;
+        if (!added && regions) {
+            return fail(ErrorCode::Layout,
+                        "the header names region " + quoted(it->first) + " twice (columns " +
+                            std::to_string(it->second + 1) + " and " + std::to_string(c + 1) + ")",
+                        1, column);
         }
-    }
-    if (m_roles.layout == Layout::Long && m_roles.measureColumn < 0) {
-        std::map<std::string_view, int> seen;
-        for (int c : m_roles.valueColumns) {
-            auto [it, added] = seen.emplace(m_names[static_cast<std::size_t>(c)], c);
-            if (!added) {
-                return fail(ErrorCode::Layout,
-                            "columns " + std::to_string(it->second + 1) + " and " +
-                                std::to_string(c + 1) + " are both named " + quoted(it->first) +
-                                ", so their measures cannot be told apart; rename one or pick "
-                                "the value columns with --value-col",
-                            1, static_cast<std::uint64_t>(c) + 1);
-            }
+        if (!added) {
+            return fail(ErrorCode::Layout,
+                        "columns " + std::to_string(it->second + 1) + " and " +
+                            std::to_string(c + 1) + " are both named " + quoted(it->first) +
+                            ", so their measures cannot be told apart; rename one or pick "
+                            "the value columns with --value-col",
+                        1, column);
         }
+        if (regions && it->first.empty())
+            return fail(ErrorCode::Layout, "a region column has an empty name in the header", 1,
+                        column);
     }
+    return Ok{};
+}
+
+Status DropReader::recordColumnMapping() {
     m_drop.source.layout = m_roles.layout;
     ColumnMapping& cols = m_drop.source.columns;
     if (m_roles.dateColumn >= 0)
@@ -251,17 +299,6 @@ Status DropReader::sniff() {
                       "or a value column)",
                   1, static_cast<std::uint64_t>(c) + 1);
     }
-
-    for (const std::string& token : m_options.missingTokens) {
-        if (token.empty())
-            m_emptyIsMissing = true;
-        else
-            m_otherMissing.push_back(token);
-    }
-    m_dateFormat = initialDateFormat();
-    m_sampleBytes = sampledUpTo > m_dataStart ? sampledUpTo - m_dataStart : 0;
-    m_sample = std::move(records);
-    m_sniffLog = m_log;
     return Ok{};
 }
 

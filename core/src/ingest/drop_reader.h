@@ -56,7 +56,28 @@ private:
     /// A syntax error, unless an encoding error comes before it.
     Error syntaxFailure(const CsvSyntaxError& s);
 
+    /// Pass 1, in its steps: the bytes can be read as text, the first block's encoding and line
+    /// endings, the delimiter, the first records (the sample), header and decimal separator,
+    /// the column names, the roles, and the column mapping recorded in the provenance.
     Status sniff();
+    /// A UTF-16 byte-order mark, a packed file (ZIP, gzip, PDF) or nothing but blank space is
+    /// refused; a UTF-8 byte-order mark is skipped.
+    Status rejectUnreadableStart();
+    /// The first block is UTF-8, and its lines do not end in a carriage return alone.
+    Status checkSampleBlock(std::size_t sampleEnd);
+    void settleDelimiter(std::size_t sampleEnd);
+    /// The first records up to `sampleEnd` (at least 3), owned; `sampledUpTo` is where they end.
+    Result<std::vector<SampleRecord>> readSampleRecords(std::size_t sampleEnd,
+                                                        std::size_t& sampledUpTo);
+    void settleHeaderAndNumberStyle(const std::vector<SampleRecord>& records);
+    /// The header's names (taken out of `records`) or "column N"; a file of one column is refused.
+    Status takeColumnNames(std::vector<SampleRecord>& records, std::size_t sampleEnd);
+    /// detectRoles, then the names that must differ: regions (dates-down), measures (long).
+    Status settleRoles(const std::vector<SampleRecord>& records);
+    /// The value columns' names differ: they name regions (dates-down) or measures (long).
+    Status checkValueColumnNamesDistinct() const;
+    /// The layout and column names in the provenance; the unused columns as warnings.
+    Status recordColumnMapping();
     /// A year and a week column: ISO 8601 weeks, or Sunday-start weeks when --week-start or
     /// the columns' names (MMWR) say so; "epi" in a name is noted as a warning.
     Status settleYearWeekConvention();
@@ -168,7 +189,7 @@ private:
     DateFormat m_dateFormat = DateFormat::Unknown;
     WeekStart m_yearWeekStart = WeekStart::Monday;  // a year and a week column: the convention
     std::string m_yearWeekKey;                      // dateKeyOf's buffer
-    std::vector<std::int32_t> m_dayOfColumn;  // dates-across: day index per column (-1: none)
+    std::vector<std::int32_t> m_dayOfColumn;        // dates-across: day index per column (-1: none)
 
     std::int32_t m_firstSerial = 0;  // the calendar: first day and length
     std::size_t m_days = 0;          // table columns (days, or weeks when m_step is 7)

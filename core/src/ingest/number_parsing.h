@@ -117,7 +117,7 @@ enum class CellShape : std::uint8_t {
     Decimal,      // a number with a fractional part
     LeadingZero,  // digits with a leading zero ("004"): a code rather than a count
     Date,         // one of the date shapes (see date_parsing.h)
-    Text,
+    Text,         // the last (role_detection.cpp counts the shapes in an array up to it)
 };
 CellShape shapeOf(std::string_view text, const NumberStyle& style);
 

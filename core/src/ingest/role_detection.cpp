@@ -4,9 +4,11 @@
 #include "ingest/header_words.h"
 
 #include <algorithm>
+#include <array>
 #include <cctype>
 #include <cmath>
 #include <cstdint>
+#include <numeric>
 #include <unordered_map>
 #include <unordered_set>
 
@@ -22,12 +24,18 @@ std::string quotedName(std::string_view name) {
     return out;
 }
 
+constexpr std::size_t kCellShapes = static_cast<std::size_t>(CellShape::Text) + 1;
+
 struct ColumnProfile {
-    int empty = 0, integer = 0, decimal = 0, leadingZero = 0, date = 0, text = 0;
-    int nonEmpty() const { return integer + decimal + leadingZero + date + text; }
+    std::array<int, kCellShapes> shapes{};  // sample cells of each CellShape
     DateShape dateShape = DateShape::None;
     bool mixedDateShapes = false;
     bool allCompactDates = true;  // every non-empty cell is 8 digits forming a real YYYYMMDD day
+
+    int of(CellShape shape) const { return shapes[static_cast<std::size_t>(shape)]; }
+    int nonEmpty() const {
+        return std::accumulate(shapes.begin(), shapes.end(), 0) - of(CellShape::Empty);
+    }
 };
 
 std::vector<ColumnProfile> profile(std::size_t columns, const std::vector<SampleRecord>& rows,
@@ -37,26 +45,7 @@ std::vector<ColumnProfile> profile(std::size_t columns, const std::vector<Sample
         for (std::size_t c = 0; c < columns && c < r.fields.size(); ++c) {
             const std::string& f = r.fields[c];
             ColumnProfile& p = out[c];
-            switch (shapeOf(f, style)) {
-                case CellShape::Empty:
-                    ++p.empty;
-                    break;
-                case CellShape::Integer:
-                    ++p.integer;
-                    break;
-                case CellShape::Decimal:
-                    ++p.decimal;
-                    break;
-                case CellShape::LeadingZero:
-                    ++p.leadingZero;
-                    break;
-                case CellShape::Date:
-                    ++p.date;
-                    break;
-                case CellShape::Text:
-                    ++p.text;
-                    break;
-            }
+            ++p.shapes[static_cast<std::size_t>(shapeOf(f, style))];
             if (f.empty())
                 continue;
             const DateShape ds = dateShapeOf(f);
@@ -77,18 +66,20 @@ bool isDateColumn(const ColumnProfile& p) {
     if (p.nonEmpty() == 0)
         return false;
     // Most cells are dates: a stray text ("Total") is then reported where it is.
-    if (p.date * 2 > p.nonEmpty())
+    if (p.of(CellShape::Date) * 2 > p.nonEmpty())
         return true;
-    return p.allCompactDates && p.integer + p.leadingZero == p.nonEmpty();
+    return p.allCompactDates &&
+           p.of(CellShape::Integer) + p.of(CellShape::LeadingZero) == p.nonEmpty();
 }
 
 bool isNumericColumn(const ColumnProfile& p) {
-    const int numbers = p.integer + p.decimal;
+    const int numbers = p.of(CellShape::Integer) + p.of(CellShape::Decimal);
     return p.nonEmpty() == 0 || numbers * 2 >= p.nonEmpty();
 }
 
 bool isCodeColumn(const ColumnProfile& p) {
-    return p.nonEmpty() > 0 && (p.text + p.leadingZero) * 2 > p.nonEmpty();
+    return p.nonEmpty() > 0 &&
+           (p.of(CellShape::Text) + p.of(CellShape::LeadingZero)) * 2 > p.nonEmpty();
 }
 
 /// The columns named by a repeatable flag (--value-col), in the order given.
@@ -102,6 +93,15 @@ Result<std::vector<int>> namedColumns(const std::vector<std::string>& names,
         out.push_back(*c);
     }
     return out;
+}
+
+/// The column a flag names (`wanted`, from --year-col and the like); -1 when the flag was not
+/// given, a Usage error when there is no such column.
+Result<int> namedColumn(const std::vector<std::string>& names, const std::string& wanted,
+                        const char* flag) {
+    if (wanted.empty())
+        return -1;
+    return findColumn(names, wanted, flag);
 }
 
 /// The columns that play no role in `m`, in column order (one pass: a dates-down file may have
@@ -631,19 +631,13 @@ struct YearWeekColumns {
 Result<YearWeekColumns> chooseYearWeekColumns(const std::vector<std::string>& names,
                                               const YearWeekCandidates& candidates,
                                               const IngestOptions& options) {
-    YearWeekColumns out;
-    if (!options.yearColumn.empty()) {
-        Result<int> c = findColumn(names, options.yearColumn, "--year-col");
-        if (!c)
-            return c.error();
-        out.year = *c;
-    }
-    if (!options.weekColumn.empty()) {
-        Result<int> c = findColumn(names, options.weekColumn, "--week-col");
-        if (!c)
-            return c.error();
-        out.week = *c;
-    }
+    const Result<int> year = namedColumn(names, options.yearColumn, "--year-col");
+    if (!year)
+        return year.error();
+    const Result<int> week = namedColumn(names, options.weekColumn, "--week-col");
+    if (!week)
+        return week.error();
+    YearWeekColumns out{*year, *week};
     if (out.year >= 0 && out.year == out.week)
         return makeError(ErrorCode::Usage, "--year-col and --week-col name the same column '" +
                                                names[static_cast<std::size_t>(out.year)] + "'");
@@ -692,6 +686,22 @@ Error noDateColumnError(const std::vector<std::string>& names, const YearWeekCan
                          "if the dates are in the header");
 }
 
+/// The region column of a dates-across file: named by --region-col, or the first column whose
+/// header is not a date.
+Result<int> datesAcrossRegionColumn(const std::vector<std::string>& names,
+                                    const std::vector<int>& headerDates,
+                                    const IngestOptions& options) {
+    if (!options.regionColumn.empty())
+        return findColumn(names, options.regionColumn, "--region-col");
+    for (std::size_t c = 0; c < names.size(); ++c) {
+        if (std::find(headerDates.begin(), headerDates.end(), static_cast<int>(c)) ==
+            headerDates.end())
+            return static_cast<int>(c);
+    }
+    return makeError(ErrorCode::Layout,
+                     "every header name is a date, so no column holds the region codes");
+}
+
 Result<RoleMapping> mapDatesAcross(const std::vector<std::string>& names, bool header,
                                    const std::vector<int>& headerDates,
                                    const IngestOptions& options) {
@@ -705,24 +715,10 @@ Result<RoleMapping> mapDatesAcross(const std::vector<std::string>& names, bool h
             "no header name is a date, so this is not a dates-across file; check --layout");
     }
     m.layout = Layout::DatesAcross;
-    if (!options.regionColumn.empty()) {
-        Result<int> r = findColumn(names, options.regionColumn, "--region-col");
-        if (!r)
-            return r.error();
-        m.regionColumn = *r;
-    } else {
-        for (std::size_t c = 0; c < names.size(); ++c) {
-            if (std::find(headerDates.begin(), headerDates.end(), static_cast<int>(c)) ==
-                headerDates.end()) {
-                m.regionColumn = static_cast<int>(c);
-                break;
-            }
-        }
-        if (m.regionColumn < 0) {
-            return makeError(ErrorCode::Layout,
-                             "every header name is a date, so no column holds the region codes");
-        }
-    }
+    const Result<int> region = datesAcrossRegionColumn(names, headerDates, options);
+    if (!region)
+        return region.error();
+    m.regionColumn = *region;
     for (int c : headerDates) {
         if (c != m.regionColumn)
             m.dateColumns.push_back(c);
@@ -753,17 +749,23 @@ Result<int> chooseDateColumn(const std::vector<std::string>& names, bool header,
     return candidates[0];
 }
 
+/// The region columns of a dates-down file (its value columns): those --value-col names,
+/// or `others`.
+Result<std::vector<int>> datesDownValueColumns(const std::vector<std::string>& names,
+                                               const std::vector<int>& others,
+                                               const IngestOptions& options) {
+    if (options.valueColumns.empty())
+        return others;
+    return namedColumns(names, options.valueColumns, "--value-col");
+}
+
 Result<RoleMapping> mapDatesDown(RoleMapping m, const std::vector<std::string>& names, bool header,
                                  const std::vector<int>& others, const IngestOptions& options) {
     m.layout = Layout::DatesDown;
-    if (!options.valueColumns.empty()) {
-        Result<std::vector<int>> named = namedColumns(names, options.valueColumns, "--value-col");
-        if (!named)
-            return named.error();
-        m.valueColumns = std::move(*named);
-    } else {
-        m.valueColumns = others;
-    }
+    Result<std::vector<int>> values = datesDownValueColumns(names, others, options);
+    if (!values)
+        return values.error();
+    m.valueColumns = std::move(*values);
     if (!header)
         return makeError(ErrorCode::Layout,
                          "the dates-down layout needs a header row with the region codes");
@@ -775,66 +777,65 @@ Result<RoleMapping> mapDatesDown(RoleMapping m, const std::vector<std::string>& 
     return m;
 }
 
-Result<RoleMapping> mapLong(RoleMapping m, const std::vector<std::string>& names, bool header,
-                            const std::vector<SampleRecord>& rows, const SampleFacts& facts,
-                            const std::vector<int>& others, const RegionChoice& region,
-                            const IngestOptions& options) {
-    m.layout = Layout::Long;
-    if (!options.regionColumn.empty()) {
-        Result<int> r = findColumn(names, options.regionColumn, "--region-col");
-        if (!r)
-            return r.error();
-        m.regionColumn = *r;
-    } else {
-        if (region.column < 0) {
-            return makeError(ErrorCode::Layout,
-                             "there is only a date column; a drop needs region and value columns");
-        }
-        m.regionColumn = region.column;
-        if (Status s =
-                checkRegionCellsAreNotColumnNames(names, header, rows, facts, m.regionColumn);
-            !s)
-            return s.error();
+/// The region column of a long file: named by --region-col, or the best candidate, whose cells
+/// must not be column names.
+Result<int> longRegionColumn(const std::vector<std::string>& names, bool header,
+                             const std::vector<SampleRecord>& rows, const SampleFacts& facts,
+                             const RegionChoice& region, const IngestOptions& options) {
+    if (!options.regionColumn.empty())
+        return findColumn(names, options.regionColumn, "--region-col");
+    if (region.column < 0) {
+        return makeError(ErrorCode::Layout,
+                         "there is only a date column; a drop needs region and value columns");
     }
-    if (!options.measureColumn.empty()) {
-        Result<int> r = findColumn(names, options.measureColumn, "--measure-col");
-        if (!r)
-            return r.error();
-        m.measureColumn = *r;
-    } else {
-        for (int c : others) {
-            const auto i = static_cast<std::size_t>(c);
-            if (c != m.regionColumn && isCodeColumn(facts.profiles[i]) &&
-                facts.words[i].hints(HeaderRole::Measure)) {
-                m.measureColumn = c;
-                break;
-            }
-        }
+    if (Status s = checkRegionCellsAreNotColumnNames(names, header, rows, facts, region.column); !s)
+        return s.error();
+    return region.column;
+}
+
+/// The measure-name column of a long file: named by --measure-col, or the first column of text
+/// named with a measure word (-1: none).
+Result<int> longMeasureColumn(const std::vector<std::string>& names, const SampleFacts& facts,
+                              const std::vector<int>& others, int regionColumn,
+                              const IngestOptions& options) {
+    if (!options.measureColumn.empty())
+        return findColumn(names, options.measureColumn, "--measure-col");
+    for (int c : others) {
+        const auto i = static_cast<std::size_t>(c);
+        if (c != regionColumn && isCodeColumn(facts.profiles[i]) &&
+            facts.words[i].hints(HeaderRole::Measure))
+            return c;
     }
-    if (!options.valueColumns.empty()) {
-        Result<std::vector<int>> named = namedColumns(names, options.valueColumns, "--value-col");
-        if (!named)
-            return named.error();
-        m.valueColumns = std::move(*named);
-    } else {
-        for (int c : others) {
-            const auto i = static_cast<std::size_t>(c);
-            if (c == m.regionColumn || c == m.measureColumn)
-                continue;
-            if (facts.words[i].hints(HeaderRole::Count) || isNumericColumn(facts.profiles[i]))
-                m.valueColumns.push_back(c);
-        }
+    return -1;
+}
+
+/// The value columns of a long file: named by --value-col, or the numeric columns and those
+/// named with a count word; a single column left over is one whatever it holds.
+Result<std::vector<int>> longValueColumns(const std::vector<std::string>& names,
+                                          const SampleFacts& facts, const std::vector<int>& others,
+                                          const RoleMapping& m, const IngestOptions& options) {
+    if (!options.valueColumns.empty())
+        return namedColumns(names, options.valueColumns, "--value-col");
+    std::vector<int> values;
+    std::vector<int> rest;
+    for (int c : others) {
+        const auto i = static_cast<std::size_t>(c);
+        if (c == m.regionColumn || c == m.measureColumn)
+            continue;
+        rest.push_back(c);
+        if (facts.words[i].hints(HeaderRole::Count) || isNumericColumn(facts.profiles[i]))
+            values.push_back(c);
     }
-    if (m.valueColumns.empty()) {
-        // One column left: it is the value column, whatever its cells hold (they are
-        // then reported as unparsable, cell by cell, rather than the column being dropped).
-        std::vector<int> rest;
-        for (int c : others)
-            if (c != m.regionColumn && c != m.measureColumn)
-                rest.push_back(c);
-        if (rest.size() == 1)
-            m.valueColumns = rest;
-    }
+    // One column left: it is the value column, whatever its cells hold (they are then reported
+    // as unparsable, cell by cell, rather than the column being dropped).
+    if (values.empty() && rest.size() == 1)
+        return rest;
+    return values;
+}
+
+/// The roles of a long file fit together: values exist, one with a measure column, and no
+/// column plays two roles.
+Status checkLongRoles(const std::vector<std::string>& names, const RoleMapping& m) {
     if (m.valueColumns.empty()) {
         return makeError(ErrorCode::Layout,
                          "no column holds counts besides the date and region columns; name the "
@@ -860,10 +861,99 @@ Result<RoleMapping> mapLong(RoleMapping m, const std::vector<std::string>& names
         return makeError(ErrorCode::Usage,
                          "the date, region and measure columns must be different columns");
     }
-    if (Status s = checkYearAndWeekPlayNoOtherRole(names, m); !s)
+    return checkYearAndWeekPlayNoOtherRole(names, m);
+}
+
+Result<RoleMapping> mapLong(RoleMapping m, const std::vector<std::string>& names, bool header,
+                            const std::vector<SampleRecord>& rows, const SampleFacts& facts,
+                            const std::vector<int>& others, const RegionChoice& region,
+                            const IngestOptions& options) {
+    m.layout = Layout::Long;
+    const Result<int> regionColumn = longRegionColumn(names, header, rows, facts, region, options);
+    if (!regionColumn)
+        return regionColumn.error();
+    m.regionColumn = *regionColumn;
+    const Result<int> measure = longMeasureColumn(names, facts, others, m.regionColumn, options);
+    if (!measure)
+        return measure.error();
+    m.measureColumn = *measure;
+    Result<std::vector<int>> values = longValueColumns(names, facts, others, m, options);
+    if (!values)
+        return values.error();
+    m.valueColumns = std::move(*values);
+    if (Status s = checkLongRoles(names, m); !s)
         return s.error();
     m.unusedColumns = unusedColumnsOf(names.size(), m);
     return m;
+}
+
+/// The header names that are dates (the dates-across layout); none without a header.
+std::vector<int> headerDateColumns(const std::vector<std::string>& names, bool header) {
+    std::vector<int> out;
+    if (!header)
+        return out;
+    for (std::size_t c = 0; c < names.size(); ++c) {
+        if (dateShapeOf(names[c]) != DateShape::None)
+            out.push_back(static_cast<int>(c));
+    }
+    return out;
+}
+
+/// Where a file's dates are: a column of dates, or a year and a week column. A year and a week
+/// found beside a column of dates are kept too: they play no other role.
+struct DateColumns {
+    int date = -1;  // the column of dates, or the year
+    int week = -1;  // with a year column: the week
+    YearWeekColumns yearWeek;
+};
+
+Result<DateColumns> chooseDateColumns(const std::vector<std::string>& names, bool header,
+                                      const std::vector<SampleRecord>& rows,
+                                      const std::vector<ColumnProfile>& profiles,
+                                      const IngestOptions& options) {
+    const bool yearWeekNamed = !options.yearColumn.empty() || !options.weekColumn.empty();
+    const YearWeekCandidates yearWeekLike = yearWeekCandidatesOf(names, header, rows);
+    Result<YearWeekColumns> yearWeek = chooseYearWeekColumns(names, yearWeekLike, options);
+    if (!yearWeek)
+        return yearWeek.error();
+    Result<int> date =
+        yearWeekNamed ? Result<int>(-1) : chooseDateColumn(names, header, profiles, options);
+    if (!date)
+        return date.error();
+    if (*date >= 0)
+        return DateColumns{*date, -1, *yearWeek};
+    if (yearWeek->found())
+        return DateColumns{yearWeek->year, yearWeek->week, *yearWeek};
+    return noDateColumnError(names, yearWeekLike, rows.size());
+}
+
+/// The columns that may hold regions, measures or values: all but the date's (and a year and
+/// a week beside it).
+std::vector<int> columnsBesideTheDate(std::size_t columns, const DateColumns& date) {
+    std::vector<int> out;
+    for (int c = 0; c < static_cast<int>(columns); ++c) {
+        if (c != date.date &&
+            (!date.yearWeek.found() || (c != date.yearWeek.year && c != date.yearWeek.week)))
+            out.push_back(c);
+    }
+    return out;
+}
+
+/// Long or dates-down: forced by --layout, long when --region-col or --measure-col is given,
+/// else chosen from the sample.
+Result<Layout> layoutOf(const std::vector<std::string>& names, bool header,
+                        const SampleFacts& facts, const std::vector<int>& others,
+                        const RegionChoice& region, const IngestOptions& options,
+                        std::size_t sampleRows) {
+    if (options.layout)
+        return *options.layout;
+    if (!options.regionColumn.empty() || !options.measureColumn.empty())
+        return Layout::Long;
+    if (others.empty()) {
+        return makeError(ErrorCode::Layout,
+                         "there is only a date column; a drop needs region and value columns");
+    }
+    return chooseLayout(names, header, facts, others, region, options, sampleRows);
 }
 
 }  // namespace
@@ -903,17 +993,10 @@ Result<int> findColumn(const std::vector<std::string>& names, const std::string&
 Result<RoleMapping> detectRoles(const std::vector<std::string>& names, bool header,
                                 const std::vector<SampleRecord>& rows, const NumberStyle& style,
                                 const IngestOptions& options) {
-    const std::size_t columns = names.size();
-    std::vector<ColumnProfile> profiles = profile(columns, rows, style);
+    std::vector<ColumnProfile> profiles = profile(names.size(), rows, style);
 
-    // Dates in the header: dates-across.
-    std::vector<int> headerDates;
-    if (header) {
-        for (std::size_t c = 0; c < columns; ++c) {
-            if (dateShapeOf(names[c]) != DateShape::None)
-                headerDates.push_back(static_cast<int>(c));
-        }
-    }
+    // 1. Two or more dates in the header: dates-across.
+    const std::vector<int> headerDates = headerDateColumns(names, header);
     const bool yearWeekNamed = !options.yearColumn.empty() || !options.weekColumn.empty();
     const bool across =
         options.layout ? *options.layout == Layout::DatesAcross
@@ -921,50 +1004,26 @@ Result<RoleMapping> detectRoles(const std::vector<std::string>& names, bool head
     if (across)
         return mapDatesAcross(names, header, headerDates, options);
 
-    // The date: a column of dates, or else a year and a week column.
-    RoleMapping m;
-    const YearWeekCandidates yearWeekLike = yearWeekCandidatesOf(names, header, rows);
-    Result<YearWeekColumns> yearWeek = chooseYearWeekColumns(names, yearWeekLike, options);
-    if (!yearWeek)
-        return yearWeek.error();
-    Result<int> date =
-        yearWeekNamed ? Result<int>(-1) : chooseDateColumn(names, header, profiles, options);
+    // 2. The date: a column of dates, or else a year and a week column.
+    const Result<DateColumns> date = chooseDateColumns(names, header, rows, profiles, options);
     if (!date)
         return date.error();
-    if (*date >= 0) {
-        m.dateColumn = *date;
-    } else if (yearWeek->found()) {
-        m.dateColumn = yearWeek->year;
-        m.weekColumn = yearWeek->week;
-    } else {
-        return noDateColumnError(names, yearWeekLike, rows.size());
-    }
-    // A year and a week beside a column of dates are neither regions nor counts: unused.
-    std::vector<int> others;
-    for (int c = 0; c < static_cast<int>(columns); ++c) {
-        if (c != m.dateColumn &&
-            (!yearWeek->found() || (c != yearWeek->year && c != yearWeek->week)))
-            others.push_back(c);
-    }
+    RoleMapping m;
+    m.dateColumn = date->date;
+    m.weekColumn = date->week;
+
+    // 3. What the sample says about the other columns, and the best region column.
+    const std::vector<int> others = columnsBesideTheDate(names.size(), *date);
     const SampleFacts facts =
         sampleFactsOf(names, header, rows, std::move(profiles), m.dateColumn, m.weekColumn);
     const RegionChoice region = chooseRegionColumn(facts, others);
 
-    Layout layout = Layout::Long;
-    if (options.layout) {
-        layout = *options.layout;
-    } else if (options.regionColumn.empty() && options.measureColumn.empty()) {
-        if (others.empty()) {
-            return makeError(ErrorCode::Layout,
-                             "there is only a date column; a drop needs region and value columns");
-        }
-        Result<Layout> chosen =
-            chooseLayout(names, header, facts, others, region, options, rows.size());
-        if (!chosen)
-            return chosen.error();
-        layout = *chosen;
-    }
-    if (layout == Layout::DatesDown)
+    // 4. Long or dates-down, then the roles in that layout.
+    const Result<Layout> layout =
+        layoutOf(names, header, facts, others, region, options, rows.size());
+    if (!layout)
+        return layout.error();
+    if (*layout == Layout::DatesDown)
         return mapDatesDown(std::move(m), names, header, others, options);
     return mapLong(std::move(m), names, header, rows, facts, others, region, options);
 }
