@@ -1,6 +1,6 @@
 #pragma once
-// Opening a drop: the core reads the file (and the region register beside it,
-// when there is one); this only gathers the results for the window.
+// Opening a drop: the core reads the file and finds and reads the region register beside it
+// (siftwave::registerBeside), when there is one; this only gathers the results for the window.
 // loadDrop() blocks; run it through BackgroundTask.
 
 #include "siftwave/drop.h"
@@ -17,7 +17,7 @@ namespace siftwave::widgets {
 
 struct LoadRequest {
     QString dropPath;
-    QString registerPath;      // empty: use registerBeside(dropPath)
+    QString registerPath;      // empty: siftwave::registerBeside(dropPath) (core)
     bool withRegister = true;  // false: read the drop only
     IngestOptions options;
 };
@@ -30,11 +30,6 @@ struct LoadedDrop {
 
     bool ok() const { return drop != nullptr; }
 };
-
-/// A region register in the drop's folder: for "<name>_<release>.csv" the file
-/// "<name>_regions.csv", else "regions.csv", else the one CSV file whose name contains
-/// "regions" or "register". Empty when there is none.
-QString registerBeside(const QString& dropPath);
 
 /// Reads the drop and its register with the core readers.
 LoadedDrop loadDrop(const LoadRequest& request);

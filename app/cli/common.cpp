@@ -110,6 +110,28 @@ Result<Drop> loadDrop(const std::string& path, const ParsedArgs& args) {
     return readDrop(path, *options);
 }
 
+std::vector<FlagSpec> registerFlagSpecs(const std::string& use) {
+    return {{"regions", true, false, "REG",
+             "region register (code,name,parent,population): " + use +
+                 "; default: the register beside FILE (NAME_regions.csv, regions.csv), if any"},
+            {"no-regions", false, false, "", "read no region register"}};
+}
+
+Result<std::optional<RegionRegister>> loadRegister(const ParsedArgs& args,
+                                                   const std::string& dropPath) {
+    std::optional<std::string> path = args.optionalValue("regions");
+    if (!path && !args.has("no-regions")) {
+        if (std::string beside = registerBeside(dropPath); !beside.empty())
+            path = std::move(beside);
+    }
+    if (!path)
+        return std::optional<RegionRegister>{};
+    Result<RegionRegister> read = readRegister(*path);
+    if (!read)
+        return read.error();
+    return std::optional<RegionRegister>(std::move(*read));
+}
+
 nlohmann::json errorToJson(const Error& error) {
     nlohmann::json e = {{"code", errorCodeName(error.code)}, {"message", error.message}};
     e["file"] = error.file.empty() ? nlohmann::json(nullptr) : nlohmann::json(error.file);

@@ -6,6 +6,7 @@
 
 #include "siftwave/drop.h"
 #include "siftwave/ingest/ingest.h"
+#include "siftwave/region_register.h"
 #include "siftwave/result.h"
 
 #include <nlohmann/json.hpp>
@@ -26,6 +27,17 @@ Result<IngestOptions> ingestOptionsFrom(const ParsedArgs& args);
 
 /// Reads FILE with the ingest flags in `args`.
 Result<Drop> loadDrop(const std::string& path, const ParsedArgs& args);
+
+/// --regions REG and --no-regions, for the commands that read a region register; `use` says
+/// what the register is for. Without either flag the register beside FILE is read, when there
+/// is one (siftwave::registerBeside: <name>_regions.csv, regions.csv, or the one *regions*.csv
+/// or *register*.csv in FILE's folder), as the workbench does.
+std::vector<FlagSpec> registerFlagSpecs(const std::string& use);
+
+/// The register those flags ask for: --regions, none with --no-regions, else the one beside
+/// `dropPath`; nullopt when there is none.
+Result<std::optional<RegionRegister>> loadRegister(const ParsedArgs& args,
+                                                   const std::string& dropPath);
 
 /// Prints an error: "siftwave-cli: file:line:column: message" on stderr, or
 /// {"error": {"code", "message", "file", "line", "column"}} on stdout with --json.

@@ -4,8 +4,8 @@
 #include "commands.h"
 #include "common.h"
 
-#include "siftwave/fit/batch.h"
 #include "siftwave/csv_field.h"
+#include "siftwave/fit/batch.h"
 #include "siftwave/ledger/export.h"
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/replay.h"
@@ -298,8 +298,8 @@ int runFit(int argc, char** argv, int first) {
     std::vector<FlagSpec> specs = ingestFlagSpecs();
     specs.push_back(
         {"ledger", true, false, "L", "fit the cleaned series: replay this ledger over the drop"});
-    specs.push_back(
-        {"regions", true, false, "REG", "region register (populations for per-100k figures)"});
+    for (FlagSpec& spec : registerFlagSpecs("populations for per-100k figures"))
+        specs.push_back(std::move(spec));
     specs.push_back(
         {"region", true, false, "CODE", "fit this region (code as written in the drop)"});
     specs.push_back({"all", false, false, "", "fit every region (in parallel)"});
@@ -395,15 +395,12 @@ int runFit(int argc, char** argv, int first) {
         printError(drop.error(), json);
         return drop.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
     }
-    std::optional<RegionRegister> reg;
-    if (auto path = args->optionalValue("regions")) {
-        auto r = readRegister(*path);
-        if (!r) {
-            printError(r.error(), json);
-            return kExitBadInput;
-        }
-        reg = std::move(r.value());
+    Result<std::optional<RegionRegister>> registerRead = loadRegister(*args, args->positional[0]);
+    if (!registerRead) {
+        printError(registerRead.error(), json);
+        return kExitBadInput;
     }
+    const std::optional<RegionRegister>& reg = *registerRead;
     std::size_t measure = 0;
     if (auto m = args->optionalValue("measure")) {
         auto idx = drop->measureIndex(*m);

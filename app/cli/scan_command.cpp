@@ -1,4 +1,5 @@
-// siftwave-cli scan FILE [--previous FILE] [--regions FILE] [--set NAME=VALUE]... [ingest flags]
+// siftwave-cli scan FILE [--previous FILE] [--regions FILE | --no-regions] [--set NAME=VALUE]...
+// [ingest flags]
 // [--json]: every finding of the anomaly scan, ranked for review.
 #include "commands.h"
 #include "common.h"
@@ -14,7 +15,7 @@ namespace {
 
 std::string usageText(const std::vector<FlagSpec>& specs) {
     std::string text =
-        "usage: siftwave-cli scan FILE [--previous FILE] [--regions FILE] "
+        "usage: siftwave-cli scan FILE [--previous FILE] [--regions FILE | --no-regions] "
         "[--set NAME=VALUE]... [ingest flags] [--json]\n\n"
         "Scans a data drop for missing periods, duplicate rows, negative counts, backlog "
         "dumps,\nreporting gaps, stale values, code problems, weekday effects (daily data), "
@@ -86,9 +87,8 @@ void printTable(const scan::ScanReport& report, const Drop& drop) {
 int runScan(int argc, char** argv, int first) {
     std::vector<FlagSpec> specs = ingestFlagSpecs();
     specs.push_back({"previous", true, false, "FILE", "the previous release, to find revisions"});
-    specs.push_back({"regions", true, false, "FILE",
-                     "a region register (code,name,parent,population): unknown codes, "
-                     "hierarchy"});
+    for (FlagSpec& spec : registerFlagSpecs("unknown codes, hierarchy"))
+        specs.push_back(std::move(spec));
     specs.push_back({"set", true, true, "NAME=VALUE",
                      "change a scan setting, e.g. backlog_dump.min_excess=50"});
     specs.push_back({"json", false, false, "", "print JSON instead of a table"});
@@ -140,16 +140,13 @@ int runScan(int argc, char** argv, int first) {
         previous = std::move(*p);
         context.previous = &*previous;
     }
-    std::optional<RegionRegister> regions;
-    if (auto path = args->optionalValue("regions")) {
-        Result<RegionRegister> r = readRegister(*path);
-        if (!r) {
-            printError(r.error(), json);
-            return kExitBadInput;
-        }
-        regions = std::move(*r);
-        context.regions = &*regions;
+    Result<std::optional<RegionRegister>> regions = loadRegister(*args, args->positional[0]);
+    if (!regions) {
+        printError(regions.error(), json);
+        return kExitBadInput;
     }
+    if (*regions)
+        context.regions = &**regions;
 
     Result<scan::ScanReport> report = scan::scanDrop(*drop, options, context);
     if (!report) {

@@ -16,7 +16,8 @@ namespace siftwave::cli {
 std::vector<FlagSpec> briefingFlagSpecs(bool fitFlags) {
     std::vector<FlagSpec> specs = ingestFlagSpecs();
     specs.push_back({"ledger", true, false, "LEDGER", "the ledger whose decisions are shown"});
-    specs.push_back({"regions", true, false, "REG", "region register (names, populations)"});
+    for (FlagSpec& spec : registerFlagSpecs("region names and populations"))
+        specs.push_back(std::move(spec));
     specs.push_back({"measure", true, false, "NAME", "measure to draw (default: the first)"});
     if (fitFlags)
         specs.push_back({"fit", true, false, "MODEL",
@@ -60,12 +61,10 @@ Result<BriefingInputs> loadBriefingInputs(const std::string& path, const ParsedA
     if (!cleaned)
         return cleaned.error();
     in.cleaned = std::move(cleaned.value());
-    if (auto registerPath = args.optionalValue("regions")) {
-        auto reg = readRegister(*registerPath);
-        if (!reg)
-            return reg.error();
-        in.regions = std::move(reg.value());
-    }
+    Result<std::optional<RegionRegister>> regions = loadRegister(args, path);
+    if (!regions)
+        return regions.error();
+    in.regions = std::move(*regions);
     return in;
 }
 

@@ -26,7 +26,7 @@ struct BriefingInputs {
     Drop drop;
     Ledger ledger;  // empty without --ledger
     Cleaned cleaned;
-    std::optional<RegionRegister> regions;  // with --regions
+    std::optional<RegionRegister> regions;  // --regions, or the one beside the drop
 };
 
 /// --ledger, --regions, --measure, --fit, --method, --window flags shared by both commands.

@@ -71,4 +71,11 @@ Result<Drop> parseDrop(std::string_view bytes, const std::string& displayPath,
 /// (header required; parent and population may be empty). Codes verbatim.
 Result<RegionRegister> readRegister(const std::string& path);
 
+/// The region register that goes with a drop, looked for in the drop's folder: for
+/// "<name>_<release>.csv" the file "<name>_regions.csv", else "regions.csv", else the one CSV
+/// file whose name holds "regions" or "register" (letter case aside; hidden files and the drop
+/// itself never count). Empty when there is none. The workbench opens it with the drop, and
+/// the CLI's commands that take --regions read it when the flag is not given.
+std::string registerBeside(const std::string& dropPath);
+
 }  // namespace siftwave
