@@ -1,7 +1,9 @@
 #include "common.h"
 
 #include <cstdio>
+#include <exception>
 #include <iostream>
+#include <new>
 #include <string_view>
 
 namespace siftwave::cli {
@@ -130,6 +132,17 @@ Result<std::optional<RegionRegister>> loadRegister(const ParsedArgs& args,
     if (!read)
         return read.error();
     return std::optional<RegionRegister>(std::move(*read));
+}
+
+int runGuarded(const char* name, int (*run)(int, char**, int), int argc, char** argv) {
+    try {
+        return run(argc, argv, 2);
+    } catch (const std::bad_alloc&) {
+        std::fprintf(stderr, "siftwave-cli: out of memory while running '%s'\n", name);
+    } catch (const std::exception& e) {
+        std::fprintf(stderr, "siftwave-cli: '%s' stopped: %s\n", name, e.what());
+    }
+    return kExitBadInput;
 }
 
 nlohmann::json errorToJson(const Error& error) {

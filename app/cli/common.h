@@ -58,6 +58,11 @@ nlohmann::json errorToJson(const Error& error);
 /// Prints a usage error (and, without --json, the usage synopsis on stderr); returns kExitUsage.
 int usageError(const std::string& message, bool json, const std::string& usage);
 
+/// Runs a subcommand (argv[2] is its first argument) and returns its exit code. The core reports
+/// bad data as values; what still throws (memory exhausted, a library's own exception) becomes
+/// a message and exit 1, never an abort.
+int runGuarded(const char* name, int (*run)(int, char**, int), int argc, char** argv);
+
 /// What a subcommand's arguments came to: the parsed flags, or the exit code to return at once.
 struct CommandLine {
     std::optional<ParsedArgs> args;  // empty: return `exitCode`

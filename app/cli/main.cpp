@@ -1,11 +1,10 @@
 // siftwave-cli: read, scan, decide, fit and export from the command line.
 #include "args.h"
 #include "commands.h"
+#include "common.h"
 
 #include <cstdio>
 #include <cstring>
-#include <exception>
-#include <new>
 #include <string>
 
 namespace {
@@ -53,18 +52,8 @@ int main(int argc, char** argv) {
         return siftwave::cli::kExitOk;
     }
     for (const Command& c : kCommands) {
-        if (name != c.name)
-            continue;
-        // The core reports bad data as values; what still throws (memory exhausted, a library's
-        // own exception) becomes a message and exit 1, never an abort.
-        try {
-            return c.run(argc, argv, 2);
-        } catch (const std::bad_alloc&) {
-            std::fprintf(stderr, "siftwave-cli: out of memory while running '%s'\n", name.c_str());
-        } catch (const std::exception& e) {
-            std::fprintf(stderr, "siftwave-cli: '%s' stopped: %s\n", name.c_str(), e.what());
-        }
-        return siftwave::cli::kExitBadInput;
+        if (name == c.name)
+            return siftwave::cli::runGuarded(c.name, c.run, argc, argv);
     }
     std::fprintf(stderr, "siftwave-cli: unknown command '%s'\n\n", name.c_str());
     printUsage(stderr);

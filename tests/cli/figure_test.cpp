@@ -183,6 +183,33 @@ TEST_F(CliFigure, BadInputAndWrongUsageGiveTheirExitCodes) {
     EXPECT_FALSE(fs::exists(path("x.png")));
 }
 
+// Only figure and report load Qt: they run siftwave-cli-render (app/cli/CMakeLists.txt), and
+// siftwave-cli itself is linked against no Qt library.
+TEST_F(CliFigure, TheCliLinksNoQtLibraryAndFindsItsRendererBesideIt) {
+    const CliRun libraries = runShell("ldd " + std::string(SIFTWAVE_CLI_PATH) + " 2>&1");
+    ASSERT_EQ(libraries.exitCode, 0) << libraries.out;
+    EXPECT_EQ(libraries.out.find("libQt"), std::string::npos) << libraries.out;
+    const fs::path renderer = fs::path(SIFTWAVE_CLI_PATH).parent_path() / "siftwave-cli-render";
+    ASSERT_TRUE(fs::exists(renderer));
+    EXPECT_NE(runShell("ldd " + renderer.string() + " 2>&1").out.find("libQt6Widgets"),
+              std::string::npos);
+}
+
+TEST_F(CliFigure, AMissingRendererIsNamedNotACrash) {
+    const fs::path alone = path("alone");
+    fs::create_directories(alone);
+    fs::copy_file(SIFTWAVE_CLI_PATH, alone / "siftwave-cli", fs::copy_options::overwrite_existing);
+    for (const char* command : {"figure", "report"}) {
+        const CliRun r = runShell((alone / "siftwave-cli").string() + " " + command + " " + kDrop +
+                                  " --region 1301 --out " + path("x.png") + " 2>&1");
+        EXPECT_EQ(r.exitCode, 2) << r.out;
+        EXPECT_NE(r.out.find("siftwave-cli-render, which was not found"), std::string::npos)
+            << r.out;
+    }
+    EXPECT_FALSE(fs::exists(path("x.png")));
+    EXPECT_EQ(runShell((alone / "siftwave-cli").string() + " inspect " + kDrop).exitCode, 0);
+}
+
 #else
 
 TEST_F(CliFigure, WithoutQtFigureAndReportSaySoAndExitWithUsage) {

@@ -9,6 +9,7 @@
 
 #include <QApplication>
 
+#include <cstdio>
 #include <cstdlib>
 
 namespace siftwave::cli {
@@ -108,6 +109,31 @@ Result<std::optional<fit::FitOptions>> fitOptionsFrom(const ParsedArgs& args, co
     if (!asked)
         return std::optional<fit::FitOptions>{};
     return std::optional<fit::FitOptions>{options};
+}
+
+std::optional<BriefingSources> loadBriefingSources(const ParsedArgs& args, const char* command,
+                                                   bool ledgerRequired, bool fitByDefault,
+                                                   int& exitCode) {
+    const bool json = args.has("json");
+    auto inputs = loadBriefingInputs(args.positional[0], args, ledgerRequired);
+    if (!inputs) {
+        printError(inputs.error(), json);
+        exitCode = inputs.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+        return std::nullopt;
+    }
+    auto fitOptions = fitOptionsFrom(args, inputs->drop, fitByDefault);
+    if (!fitOptions) {
+        std::fprintf(stderr, "siftwave-cli %s: %s\n", command, fitOptions.error().message.c_str());
+        exitCode = kExitUsage;
+        return std::nullopt;
+    }
+    Result<std::optional<Drop>> previous = loadPreviousRelease(args);
+    if (!previous) {
+        printError(previous.error(), json);
+        exitCode = kExitBadInput;
+        return std::nullopt;
+    }
+    return BriefingSources{std::move(*inputs), std::move(*fitOptions), std::move(*previous)};
 }
 
 std::unique_ptr<QApplication> startOffscreenApplication() {

@@ -44,6 +44,20 @@ Result<std::optional<Drop>> loadPreviousRelease(const ParsedArgs& args);
 Result<std::optional<fit::FitOptions>> fitOptionsFrom(const ParsedArgs& args, const Drop& drop,
                                                       bool fitByDefault);
 
+/// What `figure` and `report` read before they draw: the inputs, the fit options and the
+/// previous release.
+struct BriefingSources {
+    BriefingInputs inputs;
+    std::optional<fit::FitOptions> fit;  // nullopt: no fit
+    std::optional<Drop> previous;        // with --previous
+};
+
+/// Reads FILE (the one positional argument) and what the flags add to it; on failure prints the
+/// error as `command` does ("siftwave-cli COMMAND: ..." or JSON) and sets `exitCode`.
+std::optional<BriefingSources> loadBriefingSources(const ParsedArgs& args, const char* command,
+                                                   bool ledgerRequired, bool fitByDefault,
+                                                   int& exitCode);
+
 /// A QApplication for drawing without a screen: sets QT_QPA_PLATFORM=offscreen when unset.
 std::unique_ptr<QApplication> startOffscreenApplication();
 

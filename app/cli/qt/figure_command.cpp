@@ -69,6 +69,34 @@ QString pathForRegion(const QString& out, const std::string& code) {
                                QLatin1Char('.') + info.suffix());
 }
 
+/// --dpi, --size and --columns into `options`; the usage error ("" when none).
+std::string exportOptionsFrom(const ParsedArgs& args, widgets::FigureExportOptions& options) {
+    if (auto dpi = args.optionalValue("dpi")) {
+        try {
+            std::size_t used = 0;
+            options.dpi = std::stoi(*dpi, &used);
+            if (used != dpi->size())
+                throw std::invalid_argument(*dpi);
+        } catch (...) {
+            return "--dpi takes a whole number, not '" + *dpi + "'";
+        }
+        if (options.dpi < 50 || options.dpi > 1200)
+            return "--dpi must be between 50 and 1200";
+    }
+    if (auto size = args.optionalValue("size")) {
+        auto parsed = widgets::FigureSize::parse(QString::fromStdString(*size), options.dpi);
+        if (!parsed)
+            return parsed.error().message;
+        options.size = *parsed;
+    }
+    if (auto columns = args.optionalValue("columns")) {
+        options.columns = std::atoi(columns->c_str());
+        if (options.columns < 1 || options.columns > 12)
+            return "--columns takes 1 to 12";
+    }
+    return {};
+}
+
 }  // namespace
 
 int runFigure(int argc, char** argv, int first) {
@@ -93,55 +121,26 @@ int runFigure(int argc, char** argv, int first) {
     if (!widgets::figureFormatFromPath(out))
         return usageError("--out must end in .png, .svg or .pdf");
     widgets::FigureExportOptions options;
-    if (auto dpi = args->optionalValue("dpi")) {
-        try {
-            std::size_t used = 0;
-            options.dpi = std::stoi(*dpi, &used);
-            if (used != dpi->size())
-                throw std::invalid_argument(*dpi);
-        } catch (...) {
-            return usageError("--dpi takes a whole number, not '" + *dpi + "'");
-        }
-        if (options.dpi < 50 || options.dpi > 1200)
-            return usageError("--dpi must be between 50 and 1200");
-    }
-    if (auto size = args->optionalValue("size")) {
-        auto parsed = widgets::FigureSize::parse(QString::fromStdString(*size), options.dpi);
-        if (!parsed)
-            return usageError(parsed.error().message);
-        options.size = *parsed;
-    }
-    if (auto columns = args->optionalValue("columns")) {
-        options.columns = std::atoi(columns->c_str());
-        if (options.columns < 1 || options.columns > 12)
-            return usageError("--columns takes 1 to 12");
-    }
+    if (std::string bad = exportOptionsFrom(*args, options); !bad.empty())
+        return usageError(bad);
 
-    auto inputs = loadBriefingInputs(args->positional[0], *args, false);
-    if (!inputs) {
-        printError(inputs.error(), json);
-        return inputs.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
-    }
-    auto fitOptions = fitOptionsFrom(*args, inputs->drop, false);
-    if (!fitOptions)
-        return usageError(fitOptions.error().message);
-
-    Result<std::optional<Drop>> previous = loadPreviousRelease(*args);
-    if (!previous) {
-        printError(previous.error(), json);
-        return kExitBadInput;
-    }
+    int exitCode = kExitOk;
+    const std::optional<BriefingSources> sources =
+        loadBriefingSources(*args, "figure", false, false, exitCode);
+    if (!sources)
+        return exitCode;
+    const BriefingInputs* inputs = &sources->inputs;
 
     std::vector<report::FigureSpec> figures;
     for (const std::string& code : regions) {
         report::FigureRequest request;
         request.region = code;
         request.measure = args->value("measure");
-        request.fit = *fitOptions;
+        request.fit = sources->fit;
         request.title = regions.size() == 1 || args->has("each") ? args->value("title") : "";
         request.subtitle = regions.size() == 1 || args->has("each") ? args->value("subtitle") : "";
         request.regions = inputs->regions ? &*inputs->regions : nullptr;
-        request.previous = *previous ? &**previous : nullptr;
+        request.previous = sources->previous ? &*sources->previous : nullptr;
         request.countRange = args->has("count-range");
         auto spec = report::buildFigureSpec(inputs->drop, inputs->ledger, inputs->cleaned, request);
         if (!spec) {

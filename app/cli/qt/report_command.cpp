@@ -65,28 +65,21 @@ int runReport(int argc, char** argv, int first) {
     if (args->has("fit") && args->has("no-fit"))
         return usageError("--fit and --no-fit contradict each other");
 
-    auto inputs = loadBriefingInputs(args->positional[0], *args, true);
-    if (!inputs) {
-        printError(inputs.error(), json);
-        return inputs.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
-    }
-    auto fitOptions = fitOptionsFrom(*args, inputs->drop, true);
-    if (!fitOptions)
-        return usageError(fitOptions.error().message);
-    Result<std::optional<Drop>> previous = loadPreviousRelease(*args);
-    if (!previous) {
-        printError(previous.error(), json);
-        return kExitBadInput;
-    }
+    int exitCode = kExitOk;
+    const std::optional<BriefingSources> sources =
+        loadBriefingSources(*args, "report", true, true, exitCode);
+    if (!sources)
+        return exitCode;
+    const BriefingInputs* inputs = &sources->inputs;
 
     report::BriefingRequest request;
     request.regions = args->values("region");
     request.measure = args->value("measure");
-    request.fitRegions = fitOptions->has_value();
-    if (*fitOptions)
-        request.fit = **fitOptions;
+    request.fitRegions = sources->fit.has_value();
+    if (sources->fit)
+        request.fit = *sources->fit;
     request.regionRegister = inputs->regions ? &*inputs->regions : nullptr;
-    request.previous = *previous ? &**previous : nullptr;
+    request.previous = sources->previous ? &*sources->previous : nullptr;
     request.title = args->value("title");
     request.countRange = args->has("count-range");
     auto briefing = report::buildBriefing(inputs->drop, inputs->ledger, inputs->cleaned, request);
