@@ -1,6 +1,6 @@
 #include "decision_command.h"
 
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
 
 #include <QCoreApplication>
 

@@ -2,8 +2,8 @@
 
 #include "main_window.h"
 
-#include "widgets/figure_export_dialog.h"
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
+#include "widgets/export/figure_export_dialog.h"
 
 #include <QAction>
 #include <QMenu>

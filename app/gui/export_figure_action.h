@@ -1,8 +1,8 @@
 #pragma once
-// File > Export figure… (figures and reports, see widgets/figure_export_dialog.h).
+// File > Export figure… (figures and reports, see widgets/export/figure_export_dialog.h).
 // Kept in its own file so the main window needs one line: addExportFigureAction().
 
-#include "widgets/figure_export_dialog.h"
+#include "widgets/export/figure_export_dialog.h"
 
 class QMenu;
 

@@ -5,7 +5,7 @@
 #include "project_session.h"
 #include "sample_location.h"
 
-#include "widgets/series_plot.h"
+#include "widgets/plot/series_plot.h"
 
 #include <QApplication>
 #include <QCommandLineParser>

@@ -7,8 +7,8 @@
 #include "siftwave/fit/fit.h"
 #include "siftwave/ledger/project.h"
 #include "siftwave/scan/finding.h"
-#include "widgets/background_task.h"
-#include "widgets/series_view.h"
+#include "widgets/common/background_task.h"
+#include "widgets/plot/series_view.h"
 
 #include <QMainWindow>
 #include <QPointer>

@@ -1,13 +1,13 @@
-// MainWindow: fitting every region in the background (widgets/batch_fit.h), shown in the
+// MainWindow: fitting every region in the background (widgets/fit/batch_fit.h), shown in the
 // "All regions" dock; the status bar's progress bar and Cancel follow it.
 #include "main_window.h"
 
-#include "widgets/batch_fit.h"
-#include "widgets/fit_pane.h"
-#include "widgets/series_plot.h"
-#include "widgets/series_view.h"
-#include "widgets/text_table_model.h"
-#include "widgets/workbench.h"
+#include "widgets/common/text_table_model.h"
+#include "widgets/common/workbench.h"
+#include "widgets/fit/batch_fit.h"
+#include "widgets/fit/fit_pane.h"
+#include "widgets/plot/series_plot.h"
+#include "widgets/plot/series_view.h"
 
 #include <QDockWidget>
 

@@ -4,10 +4,10 @@
 
 #include "decision_command.h"
 
-#include "widgets/decision_pane.h"
-#include "widgets/drop_loading.h"
-#include "widgets/series_plot.h"
-#include "widgets/workbench.h"
+#include "widgets/common/drop_loading.h"
+#include "widgets/common/workbench.h"
+#include "widgets/ledger/decision_pane.h"
+#include "widgets/plot/series_plot.h"
 
 #include "siftwave/scan/backlog.h"
 #include "siftwave/scan/suggested_decision.h"

@@ -5,10 +5,10 @@
 #include "project_session.h"
 #include "settings.h"
 
-#include "widgets/drop_loading.h"
-#include "widgets/fit_pane.h"
-#include "widgets/series_plot.h"
-#include "widgets/workbench.h"
+#include "widgets/common/drop_loading.h"
+#include "widgets/common/workbench.h"
+#include "widgets/fit/fit_pane.h"
+#include "widgets/plot/series_plot.h"
 
 #include <QDir>
 #include <QFileDialog>

@@ -1,5 +1,5 @@
 // BackgroundTask: results reach a living receiver only, and never after cancel.
-#include "widgets/background_task.h"
+#include "widgets/common/background_task.h"
 
 #include <QSignalSpy>
 #include <QTest>

@@ -4,11 +4,11 @@
 #include "main_window.h"
 #include "sample_window.h"
 
-#include "widgets/decision_pane.h"
-#include "widgets/qcustomplot_include.h"
-#include "widgets/series_chart.h"
-#include "widgets/series_plot.h"
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
+#include "widgets/ledger/decision_pane.h"
+#include "widgets/plot/qcustomplot_include.h"
+#include "widgets/plot/series_chart.h"
+#include "widgets/plot/series_plot.h"
 
 #include "siftwave/ledger/replay.h"
 #include "siftwave/scan/backlog.h"

@@ -4,10 +4,10 @@
 #include "main_window.h"
 #include "sample_window.h"
 
-#include "widgets/batch_fit.h"
-#include "widgets/fit_pane.h"
-#include "widgets/text_table_model.h"
-#include "widgets/workbench.h"
+#include "widgets/common/text_table_model.h"
+#include "widgets/common/workbench.h"
+#include "widgets/fit/batch_fit.h"
+#include "widgets/fit/fit_pane.h"
 
 #include "siftwave/fit/fit.h"
 

@@ -5,9 +5,9 @@
 #include "main_window.h"
 #include "sample_window.h"
 
-#include "widgets/decision_pane.h"
-#include "widgets/finding_review.h"
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
+#include "widgets/findings/finding_review.h"
+#include "widgets/ledger/decision_pane.h"
 
 #include "siftwave/ledger/replay.h"
 

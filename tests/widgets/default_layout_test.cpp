@@ -14,8 +14,8 @@
 #include <algorithm>
 #include <functional>
 
-#include "widgets/finding_model.h"
-#include "widgets/region_model.h"
+#include "widgets/findings/finding_model.h"
+#include "widgets/findings/region_model.h"
 
 namespace {
 

@@ -3,12 +3,12 @@
 // "verified" tick for a ledger that does not exist.
 #include "main_window.h"
 
-#include "widgets/fit_pane.h"
-#include "widgets/ledger_view.h"
-#include "widgets/qcustomplot_include.h"
-#include "widgets/series_plot.h"
-#include "widgets/series_view.h"
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
+#include "widgets/fit/fit_pane.h"
+#include "widgets/ledger/ledger_view.h"
+#include "widgets/plot/qcustomplot_include.h"
+#include "widgets/plot/series_plot.h"
+#include "widgets/plot/series_view.h"
 
 #include <QLabel>
 #include <QSignalSpy>

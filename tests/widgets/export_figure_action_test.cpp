@@ -4,8 +4,8 @@
 #include "export_figure_action.h"
 #include "main_window.h"
 
-#include "widgets/figure_export_dialog.h"
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
+#include "widgets/export/figure_export_dialog.h"
 
 #include "siftwave/report/caption.h"
 

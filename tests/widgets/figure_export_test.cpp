@@ -5,10 +5,10 @@
 #include "siftwave/ledger/replay.h"
 #include "siftwave/report/briefing.h"
 #include "siftwave/report/figure_spec.h"
-#include "widgets/figure_export_dialog.h"
-#include "widgets/figure_renderer.h"
-#include "widgets/report_writer.h"
-#include "widgets/series_chart.h"
+#include "widgets/export/figure_export_dialog.h"
+#include "widgets/export/figure_renderer.h"
+#include "widgets/export/report_writer.h"
+#include "widgets/plot/series_chart.h"
 
 #include <QFile>
 #include <QImage>

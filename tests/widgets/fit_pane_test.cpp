@@ -1,7 +1,7 @@
 // FitPane's own wording: when the core finds no wave, the pane names its own controls (the
 // "days" window) instead of the command line's FIRST:LAST argument, which a workbench user
 // cannot type anywhere.
-#include "widgets/fit_pane.h"
+#include "widgets/fit/fit_pane.h"
 
 #include "siftwave/fit/fit.h"
 

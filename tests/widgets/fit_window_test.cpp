@@ -1,12 +1,12 @@
 // The fit follows the window: dragging the fit window's edge on the plot refits.
 #include "main_window.h"
 
-#include "widgets/fit_pane.h"
-#include "widgets/qcustomplot_include.h"
-#include "widgets/series_chart.h"
-#include "widgets/series_plot.h"
-#include "widgets/text_table_model.h"
-#include "widgets/workbench.h"
+#include "widgets/common/text_table_model.h"
+#include "widgets/common/workbench.h"
+#include "widgets/fit/fit_pane.h"
+#include "widgets/plot/qcustomplot_include.h"
+#include "widgets/plot/series_chart.h"
+#include "widgets/plot/series_plot.h"
 
 #include <QElapsedTimer>
 #include <QSignalSpy>

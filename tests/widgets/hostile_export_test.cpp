@@ -10,9 +10,9 @@
 #include "siftwave/ledger/replay.h"
 #include "siftwave/report/briefing.h"
 #include "siftwave/report/figure_spec.h"
-#include "widgets/figure_renderer.h"
-#include "widgets/report_writer.h"
-#include "widgets/svg_document.h"
+#include "widgets/export/figure_renderer.h"
+#include "widgets/export/report_writer.h"
+#include "widgets/export/svg_document.h"
 
 #include <QDir>
 #include <QFile>

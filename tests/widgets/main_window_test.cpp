@@ -1,12 +1,12 @@
 // The main window on the bundled sample: opening, selecting, a bad file, the screenshot.
 #include "main_window.h"
 
-#include "widgets/fit_pane.h"
-#include "widgets/region_browser.h"
-#include "widgets/region_model.h"
-#include "widgets/series_plot.h"
-#include "widgets/series_view.h"
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
+#include "widgets/findings/region_browser.h"
+#include "widgets/findings/region_model.h"
+#include "widgets/fit/fit_pane.h"
+#include "widgets/plot/series_plot.h"
+#include "widgets/plot/series_view.h"
 
 #include <QComboBox>
 #include <QDateEdit>

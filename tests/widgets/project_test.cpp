@@ -3,9 +3,9 @@
 #include "main_window.h"
 #include "project_session.h"
 
-#include "widgets/fit_pane.h"
-#include "widgets/series_plot.h"
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
+#include "widgets/fit/fit_pane.h"
+#include "widgets/plot/series_plot.h"
 
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/project.h"

@@ -3,10 +3,10 @@
 #include "main_window.h"
 #include "sample_window.h"
 
-#include "widgets/decision_pane.h"
-#include "widgets/finding_review.h"
-#include "widgets/ledger_view.h"
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
+#include "widgets/findings/finding_review.h"
+#include "widgets/ledger/decision_pane.h"
+#include "widgets/ledger/ledger_view.h"
 
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/replay.h"

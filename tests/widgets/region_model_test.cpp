@@ -1,9 +1,9 @@
 // RegionModel over the workbench: the open-findings column follows the ledger, and a change is
 // announced with one dataChanged per group of sibling rows (a view re-measures its columns on
 // each one, so one per row made opening a 3,000-region drop take over a minute).
-#include "widgets/region_model.h"
+#include "widgets/findings/region_model.h"
 #include "sample_drop.h"
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
 
 #include "siftwave/scan/scan.h"
 #include "siftwave/scan/suggested_decision.h"

@@ -1,8 +1,8 @@
 // The region browser's name column is narrow in its dock, so long names are elided
 // ("Merrow..."): the row's tooltip gives the code and the name in full.
 #include "sample_drop.h"
-#include "widgets/region_model.h"
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
+#include "widgets/findings/region_model.h"
 
 #include <QTest>
 

@@ -1,7 +1,7 @@
 #pragma once
 // The bundled sample drop, read as the workbench reads it, for widget tests that need no window.
 
-#include "widgets/drop_loading.h"
+#include "widgets/common/drop_loading.h"
 
 #include <QString>
 

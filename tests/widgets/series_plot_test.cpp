@@ -1,9 +1,9 @@
 // SeriesPlot: the date axis, the draggable window edges, the reset, the hover text, and the
 // live layer that a drag step redraws alone.
-#include "widgets/series_plot.h"
-#include "widgets/qcustomplot_include.h"
-#include "widgets/series_chart.h"
-#include "widgets/series_view.h"
+#include "widgets/plot/series_plot.h"
+#include "widgets/plot/qcustomplot_include.h"
+#include "widgets/plot/series_chart.h"
+#include "widgets/plot/series_view.h"
 
 #include <QSignalSpy>
 #include <QTest>

@@ -8,7 +8,7 @@
 #include "briefing_inputs.h"
 
 #include "siftwave/report/figure_spec.h"
-#include "widgets/figure_renderer.h"
+#include "widgets/export/figure_renderer.h"
 
 #include <QApplication>
 #include <QDir>

@@ -8,7 +8,7 @@
 
 #include "siftwave/ingest/ingest.h"
 #include "siftwave/report/briefing.h"
-#include "widgets/report_writer.h"
+#include "widgets/export/report_writer.h"
 
 #include <QApplication>
 

@@ -19,9 +19,9 @@
 //
 //   QT_QPA_PLATFORM=offscreen taskset -c 0 build/bench/window_drag_bench
 #include "sample_window.h"
-#include "widgets/qcustomplot_include.h"
-#include "widgets/series_chart.h"
-#include "widgets/series_plot.h"
+#include "widgets/plot/qcustomplot_include.h"
+#include "widgets/plot/series_chart.h"
+#include "widgets/plot/series_plot.h"
 
 #include <QApplication>
 #include <QElapsedTimer>

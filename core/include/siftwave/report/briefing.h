@@ -5,7 +5,7 @@
 // difference). Content only: buildBriefing() gathers it, briefingHtml() writes
 // it as one self-contained HTML page into which the caller places each
 // region's figure (inline SVG or an image), so the HTML and the PDF report
-// (widgets/report_writer.h) say the same thing.
+// (widgets/export/report_writer.h) say the same thing.
 
 #include "siftwave/drop.h"
 #include "siftwave/fit/fit.h"

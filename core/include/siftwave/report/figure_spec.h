@@ -6,7 +6,7 @@
 //
 // buildFigureSpec() builds the PlotModel with buildPlotModel() and adds those texts. Nothing here
 // is typed by hand: every annotation comes from an entry or the fit, so a figure cannot disagree
-// with the audit trail. The widgets layer draws it (widgets/figure_renderer.h); the report
+// with the audit trail. The widgets layer draws it (widgets/export/figure_renderer.h); the report
 // (briefing.h) lists it.
 
 #include "siftwave/drop.h"

@@ -1,9 +1,9 @@
 #pragma once
 // PlotModel: everything one region's plot shows, decided once, as plain numbers and short texts.
 //
-// The workbench's plot (widgets/series_plot.h) and every exported figure (figure_spec.h,
-// widgets/figure_renderer.h) draw the same PlotModel: the screen converts it to what its chart
-// draws and adds only what needs a pointer (hover, dragging a window, a decision preview); a
+// The workbench's plot (widgets/plot/series_plot.h) and every exported figure (figure_spec.h,
+// widgets/export/figure_renderer.h) draw the same PlotModel: the screen converts it to what its
+// chart draws and adds only what needs a pointer (hover, dragging a window, a decision preview); a
 // figure adds its title, subtitle and caption. So the cadence, the labels and the overlays of a
 // plot are decided here, in buildPlotModel(), and nowhere else.
 //

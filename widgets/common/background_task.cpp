@@ -1,4 +1,4 @@
-#include "widgets/background_task.h"
+#include "widgets/common/background_task.h"
 
 namespace siftwave::widgets {
 

@@ -17,7 +17,7 @@
 // rescaled, a legend entry added or removed, the labels of clipped bars). Figures leave the
 // live layer off and keep one layer order.
 
-#include "widgets/series_view.h"
+#include "widgets/plot/series_view.h"
 
 #include <QString>
 

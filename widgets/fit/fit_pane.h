@@ -12,7 +12,7 @@
 #include "siftwave/date.h"
 #include "siftwave/fit/fit.h"
 #include "siftwave/result.h"
-#include "widgets/series_view.h"
+#include "widgets/plot/series_view.h"
 
 #include <QWidget>
 

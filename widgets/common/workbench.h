@@ -13,7 +13,7 @@
 #include "siftwave/region_register.h"
 #include "siftwave/result.h"
 #include "siftwave/scan/scan.h"
-#include "widgets/series_view.h"
+#include "widgets/plot/series_view.h"
 
 #include <QObject>
 #include <QString>

@@ -1,7 +1,7 @@
-#include "widgets/series_plot.h"
+#include "widgets/plot/series_plot.h"
 
-#include "widgets/qcustomplot_include.h"
-#include "widgets/series_chart.h"
+#include "widgets/plot/qcustomplot_include.h"
+#include "widgets/plot/series_chart.h"
 
 #include <QComboBox>
 #include <QElapsedTimer>

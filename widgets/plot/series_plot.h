@@ -14,7 +14,7 @@
 // live layer (the window, the fit and its band, the preview) when nothing else changed; see
 // SeriesChart::useLiveLayer().
 
-#include "widgets/series_view.h"
+#include "widgets/plot/series_view.h"
 
 #include <QStringList>
 #include <QWidget>

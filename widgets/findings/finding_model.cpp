@@ -1,7 +1,7 @@
-#include "widgets/finding_model.h"
+#include "widgets/findings/finding_model.h"
 
-#include "widgets/plot_style.h"
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
+#include "widgets/plot/plot_style.h"
 
 #include <QFont>
 

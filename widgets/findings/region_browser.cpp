@@ -1,7 +1,7 @@
-#include "widgets/region_browser.h"
+#include "widgets/findings/region_browser.h"
 
-#include "widgets/compact_sort_header.h"
-#include "widgets/region_model.h"
+#include "widgets/common/compact_sort_header.h"
+#include "widgets/findings/region_model.h"
 
 #include <QHeaderView>
 #include <QItemSelectionModel>

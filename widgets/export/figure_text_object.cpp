@@ -1,7 +1,7 @@
-#include "widgets/figure_text_object.h"
+#include "widgets/export/figure_text_object.h"
 
-#include "widgets/figure_renderer.h"
-#include "widgets/qcustomplot_include.h"
+#include "widgets/export/figure_renderer.h"
+#include "widgets/plot/qcustomplot_include.h"
 
 #include <QAbstractTextDocumentLayout>
 #include <QPainter>

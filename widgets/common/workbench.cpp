@@ -1,4 +1,4 @@
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
 
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/replay.h"

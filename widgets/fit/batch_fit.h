@@ -15,7 +15,7 @@
 
 #include "siftwave/date.h"
 #include "siftwave/fit/batch.h"
-#include "widgets/background_task.h"
+#include "widgets/common/background_task.h"
 
 #include <QString>
 #include <QWidget>

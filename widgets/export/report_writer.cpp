@@ -1,8 +1,8 @@
-#include "widgets/report_writer.h"
+#include "widgets/export/report_writer.h"
 
-#include "widgets/figure_renderer.h"
-#include "widgets/figure_text_object.h"
-#include "widgets/qcustomplot_include.h"
+#include "widgets/export/figure_renderer.h"
+#include "widgets/export/figure_text_object.h"
+#include "widgets/plot/qcustomplot_include.h"
 
 #include <QAbstractTextDocumentLayout>
 #include <QBuffer>

@@ -1,4 +1,4 @@
-#include "widgets/decision_pane.h"
+#include "widgets/ledger/decision_pane.h"
 
 #include <QComboBox>
 #include <QCoreApplication>

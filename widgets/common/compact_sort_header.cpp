@@ -1,4 +1,4 @@
-#include "widgets/compact_sort_header.h"
+#include "widgets/common/compact_sort_header.h"
 
 #include <QStyle>
 #include <QStyleOptionHeader>

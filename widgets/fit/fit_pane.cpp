@@ -1,6 +1,6 @@
-#include "widgets/fit_pane.h"
+#include "widgets/fit/fit_pane.h"
 
-#include "widgets/text_table_model.h"
+#include "widgets/common/text_table_model.h"
 
 #include <QCheckBox>
 #include <QComboBox>

@@ -1,7 +1,7 @@
-#include "widgets/finding_review.h"
+#include "widgets/findings/finding_review.h"
 
-#include "widgets/compact_sort_header.h"
-#include "widgets/finding_model.h"
+#include "widgets/common/compact_sort_header.h"
+#include "widgets/findings/finding_model.h"
 
 #include <QComboBox>
 #include <QHBoxLayout>

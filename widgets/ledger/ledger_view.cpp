@@ -1,6 +1,6 @@
-#include "widgets/ledger_view.h"
+#include "widgets/ledger/ledger_view.h"
 
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
 
 #include "siftwave/ledger/replay.h"
 

@@ -1,4 +1,4 @@
-#include "widgets/series_view.h"
+#include "widgets/plot/series_view.h"
 
 #include <QCoreApplication>
 #include <QLocale>

@@ -1,6 +1,6 @@
-#include "widgets/region_model.h"
+#include "widgets/findings/region_model.h"
 
-#include "widgets/workbench.h"
+#include "widgets/common/workbench.h"
 
 #include <QBrush>
 #include <QFont>

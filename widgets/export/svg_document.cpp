@@ -1,4 +1,4 @@
-#include "widgets/svg_document.h"
+#include "widgets/export/svg_document.h"
 
 #include <QXmlStreamReader>
 #include <QXmlStreamWriter>

@@ -1,4 +1,4 @@
-#include "widgets/text_table_model.h"
+#include "widgets/common/text_table_model.h"
 
 #include <QFont>
 

@@ -14,7 +14,7 @@
 #include "siftwave/result.h"
 #include "siftwave/scan/backlog.h"
 #include "siftwave/scan/finding.h"
-#include "widgets/series_view.h"
+#include "widgets/plot/series_view.h"
 
 #include <QWidget>
 

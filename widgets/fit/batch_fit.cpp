@@ -1,6 +1,6 @@
-#include "widgets/batch_fit.h"
+#include "widgets/fit/batch_fit.h"
 
-#include "widgets/text_table_model.h"
+#include "widgets/common/text_table_model.h"
 
 #include <QElapsedTimer>
 #include <QHBoxLayout>

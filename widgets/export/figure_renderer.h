@@ -17,8 +17,8 @@
 
 #include "siftwave/report/figure_spec.h"
 #include "siftwave/result.h"
-#include "widgets/series_view.h"
-#include "widgets/svg_document.h"
+#include "widgets/export/svg_document.h"
+#include "widgets/plot/series_view.h"
 
 #include <QRectF>
 #include <QSize>
@@ -60,8 +60,8 @@ struct FigureSize {
 
 struct FigureExportOptions {
     FigureSize size = FigureSize::halfA4();
-    int dpi = 200;    // PNG resolution, 50..1200 (SVG and PDF are vector)
-    int columns = 0;  // small multiples: panels per row (0: about square)
+    int dpi = 200;                          // PNG resolution, 50..1200 (SVG and PDF are vector)
+    int columns = 0;                        // small multiples: panels per row (0: about square)
     SvgTarget svgTarget = SvgTarget::File;  // SVG only: a file of its own, or inline in HTML
 };
 

@@ -1,9 +1,9 @@
-#include "widgets/figure_renderer.h"
+#include "widgets/export/figure_renderer.h"
 
-#include "widgets/plot_style.h"
-#include "widgets/qcustomplot_include.h"
-#include "widgets/series_chart.h"
-#include "widgets/svg_document.h"
+#include "widgets/export/svg_document.h"
+#include "widgets/plot/plot_style.h"
+#include "widgets/plot/qcustomplot_include.h"
+#include "widgets/plot/series_chart.h"
 
 #include <QBuffer>
 #include <QFileInfo>

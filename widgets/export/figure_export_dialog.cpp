@@ -1,7 +1,7 @@
-#include "widgets/figure_export_dialog.h"
+#include "widgets/export/figure_export_dialog.h"
 
 #include "siftwave/report/figure_spec.h"
-#include "widgets/figure_renderer.h"
+#include "widgets/export/figure_renderer.h"
 
 #include <QCheckBox>
 #include <QComboBox>

@@ -1,4 +1,4 @@
-#include "widgets/drop_loading.h"
+#include "widgets/common/drop_loading.h"
 
 namespace siftwave::widgets {
 
