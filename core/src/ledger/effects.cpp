@@ -4,27 +4,20 @@
 
 #include "ledger/effects/effect_support.h"
 
-#include <map>
 #include <tuple>
 
 namespace siftwave::detail {
 
 namespace {
 
-/// The conservation rules of each kind, checked on the finished effect.
-Status checkKindRules(const Drop& drop, const Cleaned& cleaned, const Decision& dec,
+/// The kind's own rule, then the conservation of totals of the kinds that keep them.
+Status checkKindRules(const DecisionKindInfo& kind, const Cleaned& cleaned, const Decision& dec,
                       const Effect& effect) {
-    if (dec.kind == DecisionKind::Redistribute || dec.kind == DecisionKind::SpreadNegative ||
-        dec.kind == DecisionKind::FillMissing) {
-        for (const CellChange& c : effect.cells) {
-            if (c.after.hasValue() && c.after.value < 0 && c.after.value < c.before.counted()) {
-                return cellError(ErrorCode::Conservation,
-                                 "the decision would make a count negative", c.region,
-                                 c.date.iso());
-            }
-        }
+    if (kind.checkEffect) {
+        if (auto s = kind.checkEffect(cleaned, dec, effect); !s)
+            return s;
     }
-    if (decisionConservesTotals(dec)) {
+    if (kind.conservesTotals(dec)) {
         for (const TotalChange& t : effect.totals) {
             if (t.before != t.after) {
                 return cellError(ErrorCode::Conservation,
@@ -34,38 +27,6 @@ Status checkKindRules(const Drop& drop, const Cleaned& cleaned, const Decision& 
             }
         }
     }
-    if (dec.kind == DecisionKind::MergeCodes) {
-        std::map<std::string, std::int64_t> variantBefore;
-        for (const TotalChange& t : effect.totals) {
-            if (t.region == dec.variant) {
-                if (t.after != 0)
-                    return cellError(ErrorCode::Conservation, "the merged code keeps a total",
-                                     t.region);
-                variantBefore[t.measure] = t.before;
-            }
-        }
-        for (const TotalChange& t : effect.totals) {
-            if (t.region == dec.into && t.after != t.before + variantBefore[t.measure]) {
-                return cellError(ErrorCode::Conservation,
-                                 "merging would not add the variant's total exactly", t.region);
-            }
-        }
-    }
-    if (dec.kind == DecisionKind::Withdraw) {
-        const auto [base, restore] = withdrawalBase(cleaned, dec.target);
-        std::map<std::pair<std::string, std::string>, std::int64_t> expected;
-        for (const TotalChange& t : Access::effectOf(cleaned, base).totals) {
-            expected[{t.measure, t.region}] = restore ? t.change() : -t.change();
-        }
-        for (const TotalChange& t : effect.totals) {
-            if (t.change() != expected[{t.measure, t.region}]) {
-                return cellError(ErrorCode::Conservation,
-                                 "the withdrawal would not reverse the entry's change exactly",
-                                 t.region);
-            }
-        }
-    }
-    (void)drop;
     return Ok{};
 }
 
@@ -78,38 +39,12 @@ Result<Effect> deriveEffect(const Drop& drop, const Cleaned& cleaned, const Deci
         cleaned.regionCount() != drop.regionCodes.size() || cleaned.days() != drop.periods()) {
         return makeError(ErrorCode::Usage, "the cleaned data does not belong to this drop");
     }
+    const DecisionKindInfo& kind = decisionKindInfo(decision.kind);
     EffectBuilder out(drop, cleaned);
-    Status status = Ok{};
-    switch (decision.kind) {
-        case DecisionKind::Redistribute:
-            status = redistribute(drop, cleaned, decision, out);
-            break;
-        case DecisionKind::SpreadNegative:
-            status = spreadNegative(drop, cleaned, decision, out);
-            break;
-        case DecisionKind::FillMissing:
-            status = fillMissing(drop, cleaned, decision, out);
-            break;
-        case DecisionKind::ResolveDuplicate:
-            status = resolveDuplicate(drop, cleaned, decision, out);
-            break;
-        case DecisionKind::MergeCodes:
-            status = mergeCodes(drop, cleaned, decision, out);
-            break;
-        case DecisionKind::Exclude:
-            status = exclude(drop, cleaned, decision, out);
-            break;
-        case DecisionKind::Accept:
-            status = accept(drop, cleaned, decision, out);
-            break;
-        case DecisionKind::Withdraw:
-            status = withdraw(drop, cleaned, decision, out);
-            break;
-    }
-    if (!status)
+    if (Status status = kind.effect(drop, cleaned, decision, out); !status)
         return status.error();
     Effect effect = out.finish();
-    if (auto s = checkKindRules(drop, cleaned, decision, effect); !s)
+    if (auto s = checkKindRules(kind, cleaned, decision, effect); !s)
         return s.error();
     return effect;
 }

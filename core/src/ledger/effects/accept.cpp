@@ -3,6 +3,8 @@
 
 namespace siftwave::detail {
 
+namespace {
+
 Status accept(const Drop& drop, const Cleaned&, const Decision& dec, EffectBuilder& out) {
     auto r = findRegion(drop, dec.region);
     if (!r)
@@ -23,5 +25,39 @@ Status accept(const Drop& drop, const Cleaned&, const Decision& dec, EffectBuild
     }
     return Ok{};
 }
+
+Status validate(const Decision& d) {
+    return needRegion(d);
+}
+
+std::optional<KindMark> mark(const MarkContext& c) {
+    KindMark m;
+    m.at = c.entry.decision.window.value_or(c.calendar);
+    m.label = "accepted as reported";
+    return m;
+}
+
+constexpr DecisionFlag kFlags[] = {{"region"}, {"measure"}, {"days"}, {"periods"}};
+constexpr DecisionParam kParameters[] = {DecisionParam::Region, DecisionParam::Measure,
+                                         DecisionParam::Window};
+
+}  // namespace
+
+extern const DecisionKindInfo kAcceptKind = {
+    .kind = DecisionKind::Accept,
+    .name = "accept",
+    .help =
+        "--region CODE [--measure NAME] [--days FIRST:LAST]\n"
+        "                     keeps the data as reported; records that it was looked at and why\n",
+    .flags = kFlags,
+    .measureFromDrop = false,
+    .parameters = kParameters,
+    .validate = validate,
+    .conservesTotals = conservesAlways,
+    .effect = accept,
+    .checkEffect = nullptr,
+    .marksSeries = coversSeries,
+    .mark = mark,
+};
 
 }  // namespace siftwave::detail

@@ -119,4 +119,67 @@ CleanedCell withAdded(const CleanedCell& cell, std::int64_t amount) {
     return CleanedCell{amount, CleanedState::Filled};
 }
 
+Status usageError(std::string message) {
+    return makeError(ErrorCode::Usage, std::move(message));
+}
+
+Status needRegion(const Decision& d) {
+    if (d.region.empty())
+        return usageError(std::string(decisionKindName(d.kind)) + " needs a region");
+    return Ok{};
+}
+
+Status needMeasure(const Decision& d) {
+    if (d.measure.empty())
+        return usageError(std::string(decisionKindName(d.kind)) + " needs a measure");
+    return Ok{};
+}
+
+Status needDate(const Decision& d) {
+    if (!d.date)
+        return usageError(std::string(decisionKindName(d.kind)) + " needs a date");
+    return Ok{};
+}
+
+Status needWindow(const Decision& d) {
+    if (!d.window)
+        return usageError(std::string(decisionKindName(d.kind)) +
+                          " needs a window of days FIRST:LAST");
+    return Ok{};
+}
+
+Status firstFailure(std::initializer_list<Status> checks) {
+    for (const Status& s : checks) {
+        if (!s)
+            return s;
+    }
+    return Ok{};
+}
+
+bool conservesAlways(const Decision&) {
+    return true;
+}
+
+bool conservesNever(const Decision&) {
+    return false;
+}
+
+Status noNewNegatives(const Cleaned&, const Decision&, const Effect& effect) {
+    for (const CellChange& c : effect.cells) {
+        if (c.after.hasValue() && c.after.value < 0 && c.after.value < c.before.counted()) {
+            return cellError(ErrorCode::Conservation, "the decision would make a count negative",
+                             c.region, c.date.iso());
+        }
+    }
+    return Ok{};
+}
+
+bool namesSeries(const Decision& d, const std::string& region, const std::string& measure) {
+    return d.region == region && d.measure == measure;
+}
+
+bool coversSeries(const Decision& d, const std::string& region, const std::string& measure) {
+    return (d.region.empty() || d.region == region) && (d.measure.empty() || d.measure == measure);
+}
+
 }  // namespace siftwave::detail

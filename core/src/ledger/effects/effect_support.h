@@ -6,11 +6,13 @@
 #include "siftwave/drop.h"
 #include "siftwave/ledger/cleaned.h"
 #include "siftwave/ledger/decision.h"
+#include "siftwave/ledger/decision_kinds.h"
 #include "siftwave/result.h"
 
 #include "ledger/cleaned_access.h"
 
 #include <cstdint>
+#include <initializer_list>
 #include <map>
 #include <set>
 #include <string>
@@ -107,14 +109,26 @@ CleanedCell withAdded(const CleanedCell& cell, std::int64_t amount);
 /// effect (effects/withdraw.cpp).
 std::pair<std::uint64_t, bool> withdrawalBase(const Cleaned& cleaned, std::uint64_t target);
 
-// Each kind's effect, in effects/<kind>.cpp: adds to `out` what the decision does.
-Status redistribute(const Drop&, const Cleaned&, const Decision&, EffectBuilder& out);
-Status spreadNegative(const Drop&, const Cleaned&, const Decision&, EffectBuilder& out);
-Status fillMissing(const Drop&, const Cleaned&, const Decision&, EffectBuilder& out);
-Status resolveDuplicate(const Drop&, const Cleaned&, const Decision&, EffectBuilder& out);
-Status mergeCodes(const Drop&, const Cleaned&, const Decision&, EffectBuilder& out);
-Status exclude(const Drop&, const Cleaned&, const Decision&, EffectBuilder& out);
-Status accept(const Drop&, const Cleaned&, const Decision&, EffectBuilder& out);
-Status withdraw(const Drop&, const Cleaned&, const Decision&, EffectBuilder& out);
+// What the kinds' descriptors share besides the effect (validation, rules, figure marks).
+
+/// Usage errors of Decision::validate(): "<kind> needs a region", ... when the field is unset.
+Status usageError(std::string message);
+Status needRegion(const Decision& d);
+Status needMeasure(const Decision& d);
+Status needDate(const Decision& d);
+Status needWindow(const Decision& d);
+/// The first failed status of `checks`, or Ok.
+Status firstFailure(std::initializer_list<Status> checks);
+
+bool conservesAlways(const Decision&);
+bool conservesNever(const Decision&);
+
+/// Refuses an effect that makes a count negative that was not (the kinds that move counts).
+Status noNewNegatives(const Cleaned& cleaned, const Decision& d, const Effect& effect);
+
+/// The decision names exactly this region and measure.
+bool namesSeries(const Decision& d, const std::string& region, const std::string& measure);
+/// The same, where an empty region or measure covers every one (exclude, accept).
+bool coversSeries(const Decision& d, const std::string& region, const std::string& measure);
 
 }  // namespace siftwave::detail

@@ -6,6 +6,8 @@
 
 namespace siftwave::detail {
 
+namespace {
+
 Status exclude(const Drop& drop, const Cleaned& cleaned, const Decision& dec, EffectBuilder& out) {
     std::vector<std::size_t> regions;
     if (dec.region.empty()) {
@@ -53,5 +55,45 @@ Status exclude(const Drop& drop, const Cleaned& cleaned, const Decision& dec, Ef
                          "every one of these cells is already excluded or merged");
     return Ok{};
 }
+
+Status validate(const Decision& d) {
+    if (d.region.empty() && !d.window)
+        return usageError("exclude needs a region, a window of days, or both");
+    return Ok{};
+}
+
+// Left-out cells are shaded, not marked.
+std::optional<KindMark> mark(const MarkContext& c) {
+    KindMark m;
+    m.shaded = true;
+    m.at = c.entry.decision.window.value_or(c.calendar);
+    m.count = -c.change;
+    m.label = "excluded (" + c.count(-c.change) + ")";
+    return m;
+}
+
+constexpr DecisionFlag kFlags[] = {{"region"}, {"measure"}, {"days"}, {"periods"}};
+constexpr DecisionParam kParameters[] = {DecisionParam::Region, DecisionParam::Measure,
+                                         DecisionParam::Window};
+
+}  // namespace
+
+extern const DecisionKindInfo kExcludeKind = {
+    .kind = DecisionKind::Exclude,
+    .name = "exclude",
+    .help =
+        "[--region CODE] [--measure NAME] [--days FIRST:LAST]\n"
+        "                     leaves cells out (a region, a day range, or both); the total drops\n"
+        "                     by their sum\n",
+    .flags = kFlags,
+    .measureFromDrop = false,
+    .parameters = kParameters,
+    .validate = validate,
+    .conservesTotals = conservesNever,
+    .effect = exclude,
+    .checkEffect = nullptr,
+    .marksSeries = coversSeries,
+    .mark = mark,
+};
 
 }  // namespace siftwave::detail

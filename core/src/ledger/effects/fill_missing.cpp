@@ -17,8 +17,6 @@ std::int64_t floorDiv(std::int64_t a, std::int64_t b) {
     return q;
 }
 
-}  // namespace
-
 Status fillMissing(const Drop& drop, const Cleaned& cleaned, const Decision& dec,
                    EffectBuilder& out) {
     auto series = findSeries(drop, dec.measure, dec.region);
@@ -98,5 +96,54 @@ Status fillMissing(const Drop& drop, const Cleaned& cleaned, const Decision& dec
     out.addScope(m, r);
     return Ok{};
 }
+
+Status validate(const Decision& d) {
+    return firstFailure({needRegion(d), needMeasure(d), needWindow(d)});
+}
+
+// zero writes 0 where no value was: the total cannot change.
+bool conserves(const Decision& d) {
+    return d.fillMethod == FillMethod::Share || d.fillMethod == FillMethod::Zero;
+}
+
+std::optional<KindMark> mark(const MarkContext& c) {
+    const Decision& d = c.entry.decision;
+    KindMark m;
+    m.at = *d.window;
+    m.count = c.change;
+    // The periods the window covers (a date anywhere in a week selects it).
+    const int periods =
+        c.axis.periodOnGrid(d.window->last) - c.axis.periodOnGrid(d.window->first) + 1;
+    m.label = std::to_string(periods) + " " +
+              (periods == 1 ? c.axis.unitName() : c.axis.unitPlural()) + " filled (" +
+              c.count(c.change) + ")";
+    return m;
+}
+
+constexpr DecisionFlag kFlags[] = {
+    {"region"}, {"measure"}, {"days"}, {"periods"}, {"method", "--method"}};
+constexpr DecisionParam kParameters[] = {DecisionParam::Region, DecisionParam::Measure,
+                                         DecisionParam::Window, DecisionParam::FillMethod};
+
+}  // namespace
+
+extern const DecisionKindInfo kFillMissingKind = {
+    .kind = DecisionKind::FillMissing,
+    .name = "fill_missing",
+    .help =
+        "--region CODE --measure NAME --days FIRST:LAST --method zero|linear|share\n"
+        "                     fills days without a value; share splits the next day's catch-up\n"
+        "                     value over the gap and itself (total kept), zero and linear state\n"
+        "                     their change\n",
+    .flags = kFlags,
+    .measureFromDrop = true,
+    .parameters = kParameters,
+    .validate = validate,
+    .conservesTotals = conserves,
+    .effect = fillMissing,
+    .checkEffect = noNewNegatives,
+    .marksSeries = namesSeries,
+    .mark = mark,
+};
 
 }  // namespace siftwave::detail

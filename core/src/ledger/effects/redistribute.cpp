@@ -36,8 +36,6 @@ std::vector<std::int64_t> baselineWeights(const Cleaned& cleaned, std::size_t m,
     return weights;
 }
 
-}  // namespace
-
 Status redistribute(const Drop& drop, const Cleaned& cleaned, const Decision& dec,
                     EffectBuilder& out) {
     auto at = locate(drop, dec.measure, dec.region, *dec.date);
@@ -104,5 +102,64 @@ Status redistribute(const Drop& drop, const Cleaned& cleaned, const Decision& de
     out.addScope(m, r);
     return Ok{};
 }
+
+Status validate(const Decision& d) {
+    if (auto s = firstFailure({needRegion(d), needMeasure(d), needDate(d), needWindow(d)}); !s)
+        return s;
+    if (d.excess <= 0)
+        return usageError("redistribute needs an excess greater than 0");
+    if (d.window->last >= *d.date) {
+        return usageError(
+            "the redistribution window must end before the day it takes the excess from");
+    }
+    if (d.baselineWidth < 3 || d.baselineWidth > 21 || d.baselineWidth % 2 == 0)
+        return usageError("the baseline width must be an odd number of days from 3 to 21");
+    return Ok{};
+}
+
+std::optional<KindMark> mark(const MarkContext& c) {
+    const Decision& d = c.entry.decision;
+    KindMark m;
+    m.at = DayRange{*d.date, *d.date};
+    m.window = d.window;
+    m.count = d.excess;
+    m.label = c.count(d.excess) + " moved to earlier " + c.axis.unitPlural();
+    return m;
+}
+
+constexpr DecisionFlag kFlags[] = {{"region"},
+                                   {"measure"},
+                                   {"date"},
+                                   {"window"},
+                                   {"method", "--method"},
+                                   {"excess", "--excess N or --excess auto"},
+                                   {"baseline-width"}};
+constexpr DecisionParam kParameters[] = {
+    DecisionParam::Region,       DecisionParam::Measure, DecisionParam::Date,
+    DecisionParam::Window,       DecisionParam::Excess,  DecisionParam::RedistributeMethod,
+    DecisionParam::BaselineWidth};
+
+}  // namespace
+
+extern const DecisionKindInfo kRedistributeKind = {
+    .kind = DecisionKind::Redistribute,
+    .name = "redistribute",
+    .help =
+        "--region CODE --measure NAME --date DAY --excess N|auto\n"
+        "                     --window FIRST:LAST --method uniform|proportional|baseline\n"
+        "                     [--baseline-width N]\n"
+        "                     moves N counts from DAY over the earlier days FIRST..LAST (largest\n"
+        "                     remainder method); auto takes the excess the scan estimates for DAY\n"
+        "                     and, without --window, the window it suggests\n",
+    .flags = kFlags,
+    .measureFromDrop = true,
+    .parameters = kParameters,
+    .validate = validate,
+    .conservesTotals = conservesAlways,
+    .effect = redistribute,
+    .checkEffect = noNewNegatives,
+    .marksSeries = namesSeries,
+    .mark = mark,
+};
 
 }  // namespace siftwave::detail

@@ -12,8 +12,6 @@ CleanedCell cleanedFromRaw(const Cell& raw) {
     return CleanedCell{raw.reported() ? raw.value : 0, cleanedStateOf(raw.state)};
 }
 
-}  // namespace
-
 Status resolveDuplicate(const Drop& drop, const Cleaned& cleaned, const Decision& dec,
                         EffectBuilder& out) {
     auto at = locate(drop, dec.measure, dec.region, *dec.date);
@@ -67,5 +65,40 @@ Status resolveDuplicate(const Drop& drop, const Cleaned& cleaned, const Decision
     out.addScope(m, r);
     return Ok{};
 }
+
+Status validate(const Decision& d) {
+    return firstFailure({needRegion(d), needMeasure(d), needDate(d)});
+}
+
+std::optional<KindMark> mark(const MarkContext& c) {
+    const Decision& d = c.entry.decision;
+    KindMark m;
+    m.at = DayRange{*d.date, *d.date};
+    m.count = c.change;
+    m.label = "duplicate resolved";
+    return m;
+}
+
+constexpr DecisionFlag kFlags[] = {
+    {"region"}, {"measure"}, {"date"}, {"keep", "--keep first|last|sum|max"}};
+constexpr DecisionParam kParameters[] = {DecisionParam::Region, DecisionParam::Measure,
+                                         DecisionParam::Date, DecisionParam::Keep};
+
+}  // namespace
+
+extern const DecisionKindInfo kResolveDuplicateKind = {
+    .kind = DecisionKind::ResolveDuplicate,
+    .name = "resolve_duplicate",
+    .help = "--region CODE --measure NAME --date DAY --keep first|last|sum|max\n",
+    .flags = kFlags,
+    .measureFromDrop = true,
+    .parameters = kParameters,
+    .validate = validate,
+    .conservesTotals = conservesNever,
+    .effect = resolveDuplicate,
+    .checkEffect = nullptr,
+    .marksSeries = namesSeries,
+    .mark = mark,
+};
 
 }  // namespace siftwave::detail

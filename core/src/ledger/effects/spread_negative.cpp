@@ -8,6 +8,8 @@
 
 namespace siftwave::detail {
 
+namespace {
+
 Status spreadNegative(const Drop& drop, const Cleaned& cleaned, const Decision& dec,
                       EffectBuilder& out) {
     auto at = locate(drop, dec.measure, dec.region, *dec.date);
@@ -69,5 +71,50 @@ Status spreadNegative(const Drop& drop, const Cleaned& cleaned, const Decision& 
     out.addScope(m, r);
     return Ok{};
 }
+
+Status validate(const Decision& d) {
+    if (auto s = firstFailure({needRegion(d), needMeasure(d), needDate(d)}); !s)
+        return s;
+    if (d.window && d.window->last >= *d.date)
+        return usageError("the days absorbing a negative correction must come before it");
+    return Ok{};
+}
+
+std::optional<KindMark> mark(const MarkContext& c) {
+    const Decision& d = c.entry.decision;
+    std::int64_t negative = 0;
+    for (const CellChange& cell : c.entry.effect.cells)
+        if (cell.region == c.region && cell.measure == c.measure && cell.date == *d.date)
+            negative = cell.before.value;
+    KindMark m;
+    m.at = DayRange{*d.date, *d.date};
+    m.count = -negative;
+    m.label = "negative " + c.count(negative) + " spread back";
+    return m;
+}
+
+constexpr DecisionFlag kFlags[] = {{"region"}, {"measure"}, {"date"}, {"window"}};
+constexpr DecisionParam kParameters[] = {DecisionParam::Region, DecisionParam::Measure,
+                                         DecisionParam::Date, DecisionParam::Window};
+
+}  // namespace
+
+extern const DecisionKindInfo kSpreadNegativeKind = {
+    .kind = DecisionKind::SpreadNegative,
+    .name = "spread_negative",
+    .help =
+        "--region CODE --measure NAME --date DAY [--window FIRST:LAST]\n"
+        "                     sets the negative value on DAY to 0 and takes it from the earlier\n"
+        "                     days (default: all of them) in proportion to their counts\n",
+    .flags = kFlags,
+    .measureFromDrop = true,
+    .parameters = kParameters,
+    .validate = validate,
+    .conservesTotals = conservesAlways,
+    .effect = spreadNegative,
+    .checkEffect = noNewNegatives,
+    .marksSeries = namesSeries,
+    .mark = mark,
+};
 
 }  // namespace siftwave::detail

@@ -14,6 +14,8 @@ std::pair<std::uint64_t, bool> withdrawalBase(const Cleaned& cleaned, std::uint6
     return {cur, state};
 }
 
+namespace {
+
 Status withdraw(const Drop& drop, const Cleaned& cleaned, const Decision& dec, EffectBuilder& out) {
     const std::string id = std::to_string(dec.target);
     if (dec.target > cleaned.entryCount())
@@ -61,5 +63,57 @@ Status withdraw(const Drop& drop, const Cleaned& cleaned, const Decision& dec, E
     }
     return Ok{};
 }
+
+Status validate(const Decision& d) {
+    if (d.target == 0)
+        return usageError("withdraw needs the id of the entry to undo");
+    return Ok{};
+}
+
+/// Every total moves back (or forth again) by exactly the change of the entry toggled.
+Status checkWithdrawal(const Cleaned& cleaned, const Decision& dec, const Effect& effect) {
+    const auto [base, restore] = withdrawalBase(cleaned, dec.target);
+    std::map<std::pair<std::string, std::string>, std::int64_t> expected;
+    for (const TotalChange& t : Access::effectOf(cleaned, base).totals) {
+        expected[{t.measure, t.region}] = restore ? t.change() : -t.change();
+    }
+    for (const TotalChange& t : effect.totals) {
+        if (t.change() != expected[{t.measure, t.region}]) {
+            return cellError(ErrorCode::Conservation,
+                             "the withdrawal would not reverse the entry's change exactly",
+                             t.region);
+        }
+    }
+    return Ok{};
+}
+
+// A withdrawal shows as the entry it undoes disappearing from the figure.
+bool marksNothing(const Decision&, const std::string&, const std::string&) {
+    return false;
+}
+
+std::optional<KindMark> mark(const MarkContext&) {
+    return std::nullopt;
+}
+
+constexpr DecisionFlag kFlags[] = {{"entry"}};
+constexpr DecisionParam kParameters[] = {DecisionParam::Entry};
+
+}  // namespace
+
+extern const DecisionKindInfo kWithdrawKind = {
+    .kind = DecisionKind::Withdraw,
+    .name = "withdraw",
+    .help = "--entry N   undoes entry N (withdrawing a withdrawal redoes it)\n",
+    .flags = kFlags,
+    .measureFromDrop = false,
+    .parameters = kParameters,
+    .validate = validate,
+    .conservesTotals = conservesNever,
+    .effect = withdraw,
+    .checkEffect = checkWithdrawal,
+    .marksSeries = marksNothing,
+    .mark = mark,
+};
 
 }  // namespace siftwave::detail
