@@ -4,6 +4,7 @@
 
 #include <array>
 #include <cassert>
+#include <string>
 #include <string_view>
 
 namespace siftwave {
@@ -54,6 +55,39 @@ const DecisionFlag* DecisionKindInfo::flag(std::string_view flagName) const {
             return &f;
     }
     return nullptr;
+}
+
+std::string decisionWhere(const Decision& d, WhereStyle style) {
+    const DecisionKindInfo& kind = decisionKindInfo(d.kind);
+    const bool codes = kind.hasParameter(DecisionParam::Variant);  // merge_codes
+    if (style == WhereStyle::Prose) {
+        if (codes)
+            return d.variant + " into " + d.into;
+        if (kind.hasParameter(DecisionParam::Entry))  // withdraw
+            return "entry #" + std::to_string(d.target);
+        std::string where = d.region.empty() ? std::string("every region") : d.region;
+        where += d.measure.empty() ? std::string(", every measure") : ", " + d.measure;
+        if (d.date)
+            where += ", " + d.date->iso();
+        else if (d.window)
+            where += ", " + d.window->first.iso() + " to " + d.window->last.iso();
+        return where;
+    }
+    std::string where;
+    auto add = [&](const std::string& part) {
+        if (part.empty())
+            return;
+        if (!where.empty())
+            where += ' ';
+        where += part;
+    };
+    add(codes ? d.variant + " \u2192 " + d.into : d.region);
+    add(d.measure);
+    if (d.date)
+        add(d.date->iso());
+    else if (d.window)
+        add(d.window->iso());
+    return where;
 }
 
 }  // namespace siftwave

@@ -108,4 +108,11 @@ const DecisionKindInfo& decisionKindInfo(DecisionKind kind);
 /// Every kind, in DecisionKind order.
 std::span<const DecisionKindInfo* const> decisionKinds();
 
+/// The text naming the cells a decision touched, for reports and the ledger table:
+///   Prose    "0412, cases, 2026-03-02"; "every region, every measure, 2026-03-01 to
+///            2026-03-14"; "412 into 0412"; "entry #3"
+///   Compact  "0412 cases 2026-03-02"; "2026-03-01:2026-03-14"; "412 → 0412"; ""
+enum class WhereStyle { Prose, Compact };
+std::string decisionWhere(const Decision& decision, WhereStyle style);
+
 }  // namespace siftwave
