@@ -40,36 +40,34 @@ const char* kUsageTail =
     "options:\n";
 
 std::vector<FlagSpec> decideFlagSpecs() {
-    std::vector<FlagSpec> specs = {
-        {"drop", true, false, "FILE", "the data drop the ledger belongs to (required)"},
-        {"reason", true, false, "TEXT", "why: required, not blank"},
-        {"author", true, false, "NAME", "who decides (default: the OS user)"},
-        {"region", true, false, "CODE", "region code, verbatim"},
-        {"measure", true, false, "NAME", "measure (default: the drop's only measure)"},
-        {"date", true, false, "DAY",
-         "the day (or week) decided on (redistribute, spread_negative, resolve_duplicate)"},
-        {"excess", true, false, "N|auto",
-         "redistribute: counts to move, or auto (the scan's estimate)"},
-        {"window", true, false, "FIRST:LAST",
-         "redistribute: receiving days; spread_negative: absorbing days"},
-        {"days", true, false, "FIRST:LAST", "fill_missing, exclude, accept: the days (or weeks)"},
-        {"periods", true, false, "FIRST:LAST", "the same as --days, for weekly data"},
-        {"method", true, false, "NAME",
-         "redistribute: uniform|proportional|baseline; fill_missing: zero|linear|share"},
-        {"baseline-width", true, false, "N",
-         "redistribute --method baseline: moving-average width, odd 3..21 (default 7)"},
-        {"keep", true, false, "RULE", "resolve_duplicate: first|last|sum|max"},
-        {"variant", true, false, "CODE", "merge_codes: the code folded away"},
-        {"into", true, false, "CODE", "merge_codes: the canonical code kept"},
-        {"entry", true, false, "N", "withdraw: the id of the entry to undo"},
-        {"finding", true, false, "ID", "the scan finding this decision answers"},
-        {"dry-run", false, false, "", "show what the decision would do; write nothing"},
-        {"json", false, false, "", "print JSON instead of text"},
-        {"help", false, false, "", "show this help"},
-    };
-    for (FlagSpec& s : ingestFlagSpecs())
-        specs.push_back(std::move(s));
-    return specs;
+    return withJsonHelpAndIngestFlags(
+        {
+            {"drop", true, false, "FILE", "the data drop the ledger belongs to (required)"},
+            {"reason", true, false, "TEXT", "why: required, not blank"},
+            {"author", true, false, "NAME", "who decides (default: the OS user)"},
+            {"region", true, false, "CODE", "region code, verbatim"},
+            {"measure", true, false, "NAME", "measure (default: the drop's only measure)"},
+            {"date", true, false, "DAY",
+             "the day (or week) decided on (redistribute, spread_negative, resolve_duplicate)"},
+            {"excess", true, false, "N|auto",
+             "redistribute: counts to move, or auto (the scan's estimate)"},
+            {"window", true, false, "FIRST:LAST",
+             "redistribute: receiving days; spread_negative: absorbing days"},
+            {"days", true, false, "FIRST:LAST",
+             "fill_missing, exclude, accept: the days (or weeks)"},
+            {"periods", true, false, "FIRST:LAST", "the same as --days, for weekly data"},
+            {"method", true, false, "NAME",
+             "redistribute: uniform|proportional|baseline; fill_missing: zero|linear|share"},
+            {"baseline-width", true, false, "N",
+             "redistribute --method baseline: moving-average width, odd 3..21 (default 7)"},
+            {"keep", true, false, "RULE", "resolve_duplicate: first|last|sum|max"},
+            {"variant", true, false, "CODE", "merge_codes: the code folded away"},
+            {"into", true, false, "CODE", "merge_codes: the canonical code kept"},
+            {"entry", true, false, "N", "withdraw: the id of the entry to undo"},
+            {"finding", true, false, "ID", "the scan finding this decision answers"},
+            {"dry-run", false, false, "", "show what the decision would do; write nothing"},
+        },
+        "print JSON instead of text");
 }
 
 std::string usageText() {
@@ -284,14 +282,12 @@ void printEffectText(const Drop& drop, const Effect& effect) {
 }  // namespace
 
 int runDecide(int argc, char** argv, int first) {
-    const std::vector<FlagSpec> specs = decideFlagSpecs();
-    CommandLine line = parseCommandLine(argc, argv, first, specs, usageText());
+    const CommandLine line = parseWithPositionals(argc, argv, first, decideFlagSpecs(), usageText(),
+                                                  2, "decide needs LEDGER and KIND");
     if (!line.args)
         return line.exitCode;
     const ParsedArgs* args = &*line.args;
     const bool json = line.json;
-    if (args->positional.size() != 2)
-        return usageError("decide needs LEDGER and KIND", json, usageText());
     const std::string ledgerPath = args->positional[0];
     const std::optional<DecisionKind> kind = decisionKindFromName(args->positional[1]);
     if (!kind) {
@@ -306,16 +302,12 @@ int runDecide(int argc, char** argv, int first) {
         return usageError("every decision needs a reason: --reason TEXT", json, usageText());
     if (samePath(ledgerPath, args->value("drop")))
         return usageError("the ledger cannot be the drop file itself", json, usageText());
-    if (Result<IngestOptions> o = ingestOptionsFrom(*args); !o) {
-        printError(o.error(), json);
+    if (!ingestFlagsValid(*args, json))
         return kExitUsage;
-    }
 
-    Result<Drop> drop = loadDrop(args->value("drop"), *args);
-    if (!drop) {
-        printError(drop.error(), json);
+    const std::optional<Drop> drop = valueOrPrintError(loadDrop(args->value("drop"), *args), json);
+    if (!drop)
         return kExitBadInput;
-    }
     Result<Decision> decision = decisionFrom(*args, *kind, *drop);
     if (!decision)
         return usageError(decision.error().message, json, usageText());
@@ -330,16 +322,11 @@ int runDecide(int argc, char** argv, int first) {
     if (Status s = decision->validate(); !s)
         return usageError(s.error().message, json, usageText());
 
-    Result<Ledger> ledger = openLedger(ledgerPath, true);
-    if (!ledger) {
-        printError(ledger.error(), json);
+    const std::optional<ReplayedLedger> replayed = openAndReplay(*drop, ledgerPath, true, json);
+    if (!replayed)
         return kExitBadInput;
-    }
-    Result<Cleaned> cleaned = replayLedger(*drop, *ledger, ledgerPath);
-    if (!cleaned) {
-        printError(cleaned.error(), json);
-        return kExitBadInput;
-    }
+    const Ledger* ledger = &replayed->ledger;
+    const Cleaned* cleaned = &replayed->cleaned;
 
     if (dryRun) {
         Result<Effect> effect = previewDecision(*drop, *cleaned, *decision);
