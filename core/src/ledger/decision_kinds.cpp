@@ -2,8 +2,8 @@
 // effect in effects/<kind>.cpp (see siftwave/ledger/decision_kinds.h).
 #include "siftwave/ledger/decision_kinds.h"
 
-#include <array>
 #include <cassert>
+#include <iterator>
 #include <string>
 #include <string_view>
 
@@ -23,7 +23,7 @@ extern const DecisionKindInfo kWithdrawKind;
 namespace {
 
 // In DecisionKind order.
-constexpr std::array<const DecisionKindInfo*, 8> kKinds = {
+constexpr const DecisionKindInfo* kKinds[] = {
     &detail::kRedistributeKind,     &detail::kSpreadNegativeKind, &detail::kFillMissingKind,
     &detail::kResolveDuplicateKind, &detail::kMergeCodesKind,     &detail::kExcludeKind,
     &detail::kAcceptKind,           &detail::kWithdrawKind,
@@ -33,7 +33,7 @@ constexpr std::array<const DecisionKindInfo*, 8> kKinds = {
 
 const DecisionKindInfo& decisionKindInfo(DecisionKind kind) {
     const auto i = static_cast<std::size_t>(kind);
-    assert(i < kKinds.size() && kKinds[i]->kind == kind);
+    assert(i < std::size(kKinds) && kKinds[i]->kind == kind);
     return *kKinds[i];
 }
 
