@@ -23,15 +23,12 @@ const char* kUsage =
     "options:\n";
 
 std::vector<FlagSpec> applyFlagSpecs() {
-    std::vector<FlagSpec> specs = {
-        {"ledger", true, false, "LEDGER", "the ledger to replay (required)"},
-        {"out", true, false, "CLEANED.csv", "where to write the cleaned data (required)"},
-        {"json", false, false, "", "print a JSON summary instead of text"},
-        {"help", false, false, "", "show this help"},
-    };
-    for (FlagSpec& s : ingestFlagSpecs())
-        specs.push_back(std::move(s));
-    return specs;
+    return withJsonHelpAndIngestFlags(
+        {
+            {"ledger", true, false, "LEDGER", "the ledger to replay (required)"},
+            {"out", true, false, "CLEANED.csv", "where to write the cleaned data (required)"},
+        },
+        "print a JSON summary instead of text");
 }
 
 std::string usageText() {
@@ -41,14 +38,12 @@ std::string usageText() {
 }  // namespace
 
 int runApply(int argc, char** argv, int first) {
-    const std::vector<FlagSpec> specs = applyFlagSpecs();
-    CommandLine line = parseCommandLine(argc, argv, first, specs, usageText());
+    const CommandLine line = parseWithPositionals(argc, argv, first, applyFlagSpecs(), usageText(),
+                                                  1, "apply needs the drop FILE");
     if (!line.args)
         return line.exitCode;
     const ParsedArgs* args = &*line.args;
     const bool json = line.json;
-    if (args->positional.size() != 1)
-        return usageError("apply needs the drop FILE", json, usageText());
     if (!args->has("ledger") || !args->has("out"))
         return usageError("apply needs --ledger LEDGER and --out CLEANED.csv", json, usageText());
     const std::string dropPath = args->positional[0];
@@ -57,25 +52,16 @@ int runApply(int argc, char** argv, int first) {
     if (samePath(outPath, dropPath) || samePath(outPath, ledgerPath))
         return usageError("--out must not be the drop or the ledger; inputs are never written",
                           json, usageText());
-    if (Result<IngestOptions> o = ingestOptionsFrom(*args); !o) {
-        printError(o.error(), json);
+    if (!ingestFlagsValid(*args, json))
         return kExitUsage;
-    }
-    Result<Drop> drop = loadDrop(dropPath, *args);
-    if (!drop) {
-        printError(drop.error(), json);
+    const std::optional<Drop> drop = valueOrPrintError(loadDrop(dropPath, *args), json);
+    if (!drop)
         return kExitBadInput;
-    }
-    Result<Ledger> ledger = openLedger(ledgerPath, false);
-    if (!ledger) {
-        printError(ledger.error(), json);
+    const std::optional<ReplayedLedger> replayed = openAndReplay(*drop, ledgerPath, false, json);
+    if (!replayed)
         return kExitBadInput;
-    }
-    Result<Cleaned> cleaned = replayLedger(*drop, *ledger, ledgerPath);
-    if (!cleaned) {
-        printError(cleaned.error(), json);
-        return kExitBadInput;
-    }
+    const Ledger* ledger = &replayed->ledger;
+    const Cleaned* cleaned = &replayed->cleaned;
     const std::string csv = cleanedCsv(*drop, *cleaned);
     if (Status s = writeCleanedCsv(outPath, *drop, *cleaned); !s) {
         printError(s.error(), json);

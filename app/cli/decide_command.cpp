@@ -5,10 +5,12 @@
 #include "ledger_support.h"
 
 #include "siftwave/ledger/decision.h"
+#include "siftwave/ledger/decision_kinds.h"
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/replay.h"
 #include "siftwave/scan/backlog.h"
 
+#include <algorithm>
 #include <cstdio>
 #include <cstdlib>
 
@@ -23,29 +25,10 @@ const char* kUsage =
     "after checking it on the drop FILE and the decisions already in the ledger. Every\n"
     "decision needs a reason. Decisions that move counts keep each region's total exactly.\n"
     "\n"
-    "KIND and its parameters:\n"
-    "  redistribute       --region CODE --measure NAME --date DAY --excess N|auto\n"
-    "                     --window FIRST:LAST --method uniform|proportional|baseline\n"
-    "                     [--baseline-width N]\n"
-    "                     moves N counts from DAY over the earlier days FIRST..LAST (largest\n"
-    "                     remainder method); auto takes the excess the scan estimates for DAY\n"
-    "                     and, without --window, the window it suggests\n"
-    "  spread_negative    --region CODE --measure NAME --date DAY [--window FIRST:LAST]\n"
-    "                     sets the negative value on DAY to 0 and takes it from the earlier\n"
-    "                     days (default: all of them) in proportion to their counts\n"
-    "  fill_missing       --region CODE --measure NAME --days FIRST:LAST --method "
-    "zero|linear|share\n"
-    "                     fills days without a value; share splits the next day's catch-up\n"
-    "                     value over the gap and itself (total kept), zero and linear state\n"
-    "                     their change\n"
-    "  resolve_duplicate  --region CODE --measure NAME --date DAY --keep first|last|sum|max\n"
-    "  merge_codes        --variant CODE --into CODE   (all measures; e.g. 412 into 0412)\n"
-    "  exclude            [--region CODE] [--measure NAME] [--days FIRST:LAST]\n"
-    "                     leaves cells out (a region, a day range, or both); the total drops\n"
-    "                     by their sum\n"
-    "  accept             --region CODE [--measure NAME] [--days FIRST:LAST]\n"
-    "                     keeps the data as reported; records that it was looked at and why\n"
-    "  withdraw           --entry N   undoes entry N (withdrawing a withdrawal redoes it)\n"
+    "KIND and its parameters:\n";
+
+// After the kinds' own lines (decision_kinds.h).
+const char* kUsageTail =
     "Any kind takes --finding ID, the scan finding the decision answers. --measure may be\n"
     "left out when the drop has one measure. Dates are YYYY-MM-DD. Decisions act on the\n"
     "drop's periods: in a weekly drop a date names the week that holds it (any day of it),\n"
@@ -57,40 +40,56 @@ const char* kUsage =
     "options:\n";
 
 std::vector<FlagSpec> decideFlagSpecs() {
-    std::vector<FlagSpec> specs = {
-        {"drop", true, false, "FILE", "the data drop the ledger belongs to (required)"},
-        {"reason", true, false, "TEXT", "why: required, not blank"},
-        {"author", true, false, "NAME", "who decides (default: the OS user)"},
-        {"region", true, false, "CODE", "region code, verbatim"},
-        {"measure", true, false, "NAME", "measure (default: the drop's only measure)"},
-        {"date", true, false, "DAY",
-         "the day (or week) decided on (redistribute, spread_negative, resolve_duplicate)"},
-        {"excess", true, false, "N|auto",
-         "redistribute: counts to move, or auto (the scan's estimate)"},
-        {"window", true, false, "FIRST:LAST",
-         "redistribute: receiving days; spread_negative: absorbing days"},
-        {"days", true, false, "FIRST:LAST", "fill_missing, exclude, accept: the days (or weeks)"},
-        {"periods", true, false, "FIRST:LAST", "the same as --days, for weekly data"},
-        {"method", true, false, "NAME",
-         "redistribute: uniform|proportional|baseline; fill_missing: zero|linear|share"},
-        {"baseline-width", true, false, "N",
-         "redistribute --method baseline: moving-average width, odd 3..21 (default 7)"},
-        {"keep", true, false, "RULE", "resolve_duplicate: first|last|sum|max"},
-        {"variant", true, false, "CODE", "merge_codes: the code folded away"},
-        {"into", true, false, "CODE", "merge_codes: the canonical code kept"},
-        {"entry", true, false, "N", "withdraw: the id of the entry to undo"},
-        {"finding", true, false, "ID", "the scan finding this decision answers"},
-        {"dry-run", false, false, "", "show what the decision would do; write nothing"},
-        {"json", false, false, "", "print JSON instead of text"},
-        {"help", false, false, "", "show this help"},
-    };
-    for (FlagSpec& s : ingestFlagSpecs())
-        specs.push_back(std::move(s));
-    return specs;
+    return withJsonHelpAndIngestFlags(
+        {
+            {"drop", true, false, "FILE", "the data drop the ledger belongs to (required)"},
+            {"reason", true, false, "TEXT", "why: required, not blank"},
+            {"author", true, false, "NAME", "who decides (default: the OS user)"},
+            {"region", true, false, "CODE", "region code, verbatim"},
+            {"measure", true, false, "NAME", "measure (default: the drop's only measure)"},
+            {"date", true, false, "DAY",
+             "the day (or week) decided on (redistribute, spread_negative, resolve_duplicate)"},
+            {"excess", true, false, "N|auto",
+             "redistribute: counts to move, or auto (the scan's estimate)"},
+            {"window", true, false, "FIRST:LAST",
+             "redistribute: receiving days; spread_negative: absorbing days"},
+            {"days", true, false, "FIRST:LAST",
+             "fill_missing, exclude, accept: the days (or weeks)"},
+            {"periods", true, false, "FIRST:LAST", "the same as --days, for weekly data"},
+            {"method", true, false, "NAME",
+             "redistribute: uniform|proportional|baseline; fill_missing: zero|linear|share"},
+            {"baseline-width", true, false, "N",
+             "redistribute --method baseline: moving-average width, odd 3..21 (default 7)"},
+            {"keep", true, false, "RULE", "resolve_duplicate: first|last|sum|max"},
+            {"variant", true, false, "CODE", "merge_codes: the code folded away"},
+            {"into", true, false, "CODE", "merge_codes: the canonical code kept"},
+            {"entry", true, false, "N", "withdraw: the id of the entry to undo"},
+            {"finding", true, false, "ID", "the scan finding this decision answers"},
+            {"dry-run", false, false, "", "show what the decision would do; write nothing"},
+        },
+        "print JSON instead of text");
 }
 
 std::string usageText() {
-    return std::string(kUsage) + formatFlags(decideFlagSpecs());
+    std::string text = kUsage;
+    for (const DecisionKindInfo* k : decisionKinds()) {
+        std::string name = k->name;
+        name.resize(std::max<std::size_t>(name.size(), 19), ' ');
+        text += "  " + name + k->help;
+    }
+    return text + kUsageTail + formatFlags(decideFlagSpecs());
+}
+
+/// "redistribute, spread_negative, ... or withdraw".
+std::string kindNames() {
+    std::string names;
+    const auto kinds = decisionKinds();
+    for (std::size_t i = 0; i < kinds.size(); ++i) {
+        if (i > 0)
+            names += i + 1 == kinds.size() ? " or " : ", ";
+        names += kinds[i]->name;
+    }
+    return names;
 }
 
 Error usage(std::string message) {
@@ -136,44 +135,23 @@ Result<std::int64_t> positiveFlag(const ParsedArgs& args, const char* name) {
     return static_cast<std::int64_t>(v);
 }
 
-/// The flags each kind accepts besides the common ones.
-std::vector<std::string> kindFlags(DecisionKind kind) {
-    switch (kind) {
-        case DecisionKind::Redistribute:
-            return {"region", "measure", "date", "excess", "window", "method", "baseline-width"};
-        case DecisionKind::SpreadNegative:
-            return {"region", "measure", "date", "window"};
-        case DecisionKind::FillMissing:
-            return {"region", "measure", "days", "periods", "method"};
-        case DecisionKind::ResolveDuplicate:
-            return {"region", "measure", "date", "keep"};
-        case DecisionKind::MergeCodes:
-            return {"variant", "into"};
-        case DecisionKind::Exclude:
-        case DecisionKind::Accept:
-            return {"region", "measure", "days", "periods"};
-        case DecisionKind::Withdraw:
-            return {"entry"};
-    }
-    return {};
-}
-
 /// The decision the flags describe (the excess left at 0 for --excess auto).
 Result<Decision> decisionFrom(const ParsedArgs& args, DecisionKind kind, const Drop& drop) {
-    const std::vector<std::string> allowed = kindFlags(kind);
-    for (const char* flag : {"region", "measure", "date", "excess", "window", "days", "periods",
-                             "method", "baseline-width", "keep", "variant", "into", "entry"}) {
-        if (args.has(flag) && std::find(allowed.begin(), allowed.end(), flag) == allowed.end())
-            return usage(std::string("--") + flag + " does not apply to " + decisionKindName(kind));
+    const DecisionKindInfo& info = decisionKindInfo(kind);
+    // A flag some kind takes, given to one that does not (in the order of the flag list).
+    for (const FlagSpec& spec : decideFlagSpecs()) {
+        const std::string& flag = spec.name;
+        const auto someKindTakes = [&](const DecisionKindInfo* k) { return k->flag(flag); };
+        if (args.has(flag) && !info.flag(flag) &&
+            std::any_of(decisionKinds().begin(), decisionKinds().end(), someKindTakes))
+            return usage("--" + flag + " does not apply to " + info.name);
     }
     Decision d;
     d.kind = kind;
     d.region = args.value("region");
     d.measure = args.value("measure");
     d.finding = args.value("finding");
-    const bool namesCells = kind != DecisionKind::MergeCodes && kind != DecisionKind::Withdraw &&
-                            kind != DecisionKind::Exclude && kind != DecisionKind::Accept;
-    if (namesCells && d.measure.empty() && drop.measures.size() == 1)
+    if (info.measureFromDrop && d.measure.empty() && drop.measures.size() == 1)
         d.measure = drop.measures.front();
     if (args.has("date")) {
         auto date = Date::fromIso(args.value("date"));
@@ -211,7 +189,7 @@ Result<Decision> decisionFrom(const ParsedArgs& args, DecisionKind kind, const D
     }
     if (args.has("method")) {
         const std::string m = args.value("method");
-        if (kind == DecisionKind::Redistribute) {
+        if (info.hasParameter(DecisionParam::RedistributeMethod)) {
             auto method = redistributeMethodFromName(m);
             if (!method)
                 return usage(
@@ -224,16 +202,12 @@ Result<Decision> decisionFrom(const ParsedArgs& args, DecisionKind kind, const D
                 return usage("--method for fill_missing is zero, linear or share, not '" + m + "'");
             d.fillMethod = *method;
         }
-    } else if (kind == DecisionKind::Redistribute || kind == DecisionKind::FillMissing) {
-        return usage(std::string(decisionKindName(kind)) + " needs --method");
     }
     if (args.has("keep")) {
         auto rule = duplicateRuleFromName(args.value("keep"));
         if (!rule)
             return usage("--keep is first, last, sum or max, not '" + args.value("keep") + "'");
         d.duplicateRule = *rule;
-    } else if (kind == DecisionKind::ResolveDuplicate) {
-        return usage("resolve_duplicate needs --keep first|last|sum|max");
     }
     d.variant = args.value("variant");
     d.into = args.value("into");
@@ -243,8 +217,10 @@ Result<Decision> decisionFrom(const ParsedArgs& args, DecisionKind kind, const D
             return n.error();
         d.target = static_cast<std::uint64_t>(*n);
     }
-    if (kind == DecisionKind::Redistribute && !args.has("excess"))
-        return usage("redistribute needs --excess N or --excess auto");
+    for (const DecisionFlag& flag : info.flags) {
+        if (flag.requiredAs && !args.has(flag.name))
+            return usage(std::string(info.name) + " needs " + flag.requiredAs);
+    }
     return d;
 }
 
@@ -306,22 +282,17 @@ void printEffectText(const Drop& drop, const Effect& effect) {
 }  // namespace
 
 int runDecide(int argc, char** argv, int first) {
-    const std::vector<FlagSpec> specs = decideFlagSpecs();
-    CommandLine line = parseCommandLine(argc, argv, first, specs, usageText());
+    const CommandLine line = parseWithPositionals(argc, argv, first, decideFlagSpecs(), usageText(),
+                                                  2, "decide needs LEDGER and KIND");
     if (!line.args)
         return line.exitCode;
     const ParsedArgs* args = &*line.args;
     const bool json = line.json;
-    if (args->positional.size() != 2)
-        return usageError("decide needs LEDGER and KIND", json, usageText());
     const std::string ledgerPath = args->positional[0];
     const std::optional<DecisionKind> kind = decisionKindFromName(args->positional[1]);
     if (!kind) {
-        return usageError(
-            "unknown decision kind '" + args->positional[1] +
-                "'; use redistribute, spread_negative, fill_missing, resolve_duplicate, "
-                "merge_codes, exclude, accept or withdraw",
-            json, usageText());
+        return usageError("unknown decision kind '" + args->positional[1] + "'; use " + kindNames(),
+                          json, usageText());
     }
     if (!args->has("drop"))
         return usageError("decide needs --drop FILE, the drop the ledger belongs to", json,
@@ -331,16 +302,12 @@ int runDecide(int argc, char** argv, int first) {
         return usageError("every decision needs a reason: --reason TEXT", json, usageText());
     if (samePath(ledgerPath, args->value("drop")))
         return usageError("the ledger cannot be the drop file itself", json, usageText());
-    if (Result<IngestOptions> o = ingestOptionsFrom(*args); !o) {
-        printError(o.error(), json);
+    if (!ingestFlagsValid(*args, json))
         return kExitUsage;
-    }
 
-    Result<Drop> drop = loadDrop(args->value("drop"), *args);
-    if (!drop) {
-        printError(drop.error(), json);
+    const std::optional<Drop> drop = valueOrPrintError(loadDrop(args->value("drop"), *args), json);
+    if (!drop)
         return kExitBadInput;
-    }
     Result<Decision> decision = decisionFrom(*args, *kind, *drop);
     if (!decision)
         return usageError(decision.error().message, json, usageText());
@@ -355,16 +322,11 @@ int runDecide(int argc, char** argv, int first) {
     if (Status s = decision->validate(); !s)
         return usageError(s.error().message, json, usageText());
 
-    Result<Ledger> ledger = openLedger(ledgerPath, true);
-    if (!ledger) {
-        printError(ledger.error(), json);
+    const std::optional<ReplayedLedger> replayed = openAndReplay(*drop, ledgerPath, true, json);
+    if (!replayed)
         return kExitBadInput;
-    }
-    Result<Cleaned> cleaned = replayLedger(*drop, *ledger, ledgerPath);
-    if (!cleaned) {
-        printError(cleaned.error(), json);
-        return kExitBadInput;
-    }
+    const Ledger* ledger = &replayed->ledger;
+    const Cleaned* cleaned = &replayed->cleaned;
 
     if (dryRun) {
         Result<Effect> effect = previewDecision(*drop, *cleaned, *decision);

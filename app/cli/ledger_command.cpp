@@ -29,16 +29,14 @@ const char* kUsage =
     "options:\n";
 
 std::vector<FlagSpec> ledgerFlagSpecs() {
-    std::vector<FlagSpec> specs = {
-        {"verify", false, false, "", "check the chain (and, with --drop, replay and conservation)"},
-        {"report", true, false, "FILE", "write an audit report: .md, .html or .csv"},
-        {"drop", true, false, "FILE", "the drop the ledger belongs to"},
-        {"json", false, false, "", "print JSON instead of text"},
-        {"help", false, false, "", "show this help"},
-    };
-    for (FlagSpec& s : ingestFlagSpecs())
-        specs.push_back(std::move(s));
-    return specs;
+    return withJsonHelpAndIngestFlags(
+        {
+            {"verify", false, false, "",
+             "check the chain (and, with --drop, replay and conservation)"},
+            {"report", true, false, "FILE", "write an audit report: .md, .html or .csv"},
+            {"drop", true, false, "FILE", "the drop the ledger belongs to"},
+        },
+        "print JSON instead of text");
 }
 
 std::string usageText() {
@@ -48,14 +46,12 @@ std::string usageText() {
 }  // namespace
 
 int runLedger(int argc, char** argv, int first) {
-    const std::vector<FlagSpec> specs = ledgerFlagSpecs();
-    CommandLine line = parseCommandLine(argc, argv, first, specs, usageText());
+    const CommandLine line = parseWithPositionals(argc, argv, first, ledgerFlagSpecs(), usageText(),
+                                                  1, "ledger needs the LEDGER file");
     if (!line.args)
         return line.exitCode;
     const ParsedArgs* args = &*line.args;
     const bool json = line.json;
-    if (args->positional.size() != 1)
-        return usageError("ledger needs the LEDGER file", json, usageText());
     if (!args->has("verify") && !args->has("report"))
         return usageError("ledger needs --verify or --report FILE", json, usageText());
     const std::string ledgerPath = args->positional[0];
@@ -68,31 +64,20 @@ int runLedger(int argc, char** argv, int first) {
             return usageError("the report must not overwrite the ledger or the drop", json,
                               usageText());
     }
-    if (Result<IngestOptions> o = ingestOptionsFrom(*args); !o) {
-        printError(o.error(), json);
+    if (!ingestFlagsValid(*args, json))
         return kExitUsage;
-    }
 
-    Result<Ledger> ledger = openLedger(ledgerPath, false);
-    if (!ledger) {
-        printError(ledger.error(), json);
+    const std::optional<Ledger> ledger = valueOrPrintError(openLedger(ledgerPath, false), json);
+    if (!ledger)
         return kExitBadInput;
-    }
     std::optional<Drop> drop;
     std::optional<Cleaned> cleaned;
     if (args->has("drop")) {
-        Result<Drop> d = loadDrop(args->value("drop"), *args);
-        if (!d) {
-            printError(d.error(), json);
+        drop = valueOrPrintError(loadDrop(args->value("drop"), *args), json);
+        if (drop)
+            cleaned = valueOrPrintError(replayLedger(*drop, *ledger, ledgerPath), json);
+        if (!cleaned)
             return kExitBadInput;
-        }
-        Result<Cleaned> c = replayLedger(*d, *ledger, ledgerPath);
-        if (!c) {
-            printError(c.error(), json);
-            return kExitBadInput;
-        }
-        drop = std::move(*d);
-        cleaned = std::move(*c);
     }
 
     const CountsAdded added = countsAddedByDecisions(*ledger);

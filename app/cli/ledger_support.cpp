@@ -9,6 +9,29 @@
 
 namespace siftwave::cli {
 
+std::vector<FlagSpec> withJsonHelpAndIngestFlags(std::vector<FlagSpec> own, const char* jsonHelp) {
+    own.push_back({"json", false, false, "", jsonHelp});
+    own.push_back({"help", false, false, "", "show this help"});
+    for (FlagSpec& s : ingestFlagSpecs())
+        own.push_back(std::move(s));
+    return own;
+}
+
+CommandLine parseWithPositionals(int argc, char** argv, int first,
+                                 const std::vector<FlagSpec>& specs, const std::string& usage,
+                                 std::size_t positionals, const char* missing) {
+    CommandLine line = parseCommandLine(argc, argv, first, specs, usage);
+    if (line.args && line.args->positional.size() != positionals) {
+        line.exitCode = usageError(missing, line.json, usage);
+        line.args.reset();
+    }
+    return line;
+}
+
+bool ingestFlagsValid(const ParsedArgs& args, bool json) {
+    return valueOrPrintError(ingestOptionsFrom(args), json).has_value();
+}
+
 Result<Ledger> openLedger(const std::string& path, bool allowMissing) {
     Result<Ledger> ledger = readLedgerFile(path);
     if (!ledger && allowMissing && ledger.error().code == ErrorCode::NotFound)
@@ -26,6 +49,18 @@ Result<Cleaned> replayLedger(const Drop& drop, const Ledger& ledger,
         return e;
     }
     return cleaned;
+}
+
+std::optional<ReplayedLedger> openAndReplay(const Drop& drop, const std::string& ledgerPath,
+                                            bool allowMissing, bool json) {
+    std::optional<Ledger> ledger = valueOrPrintError(openLedger(ledgerPath, allowMissing), json);
+    if (!ledger)
+        return std::nullopt;
+    std::optional<Cleaned> cleaned =
+        valueOrPrintError(replayLedger(drop, *ledger, ledgerPath), json);
+    if (!cleaned)
+        return std::nullopt;
+    return ReplayedLedger{std::move(*ledger), std::move(*cleaned)};
 }
 
 nlohmann::json entryToJsonObject(const LedgerEntry& entry) {

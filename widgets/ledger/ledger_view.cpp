@@ -2,6 +2,7 @@
 
 #include "widgets/common/workbench.h"
 
+#include "siftwave/ledger/decision_kinds.h"
 #include "siftwave/ledger/replay.h"
 
 #include <QFileInfo>
@@ -68,19 +69,8 @@ QVariant LedgerModel::data(const QModelIndex& index, int role) const {
                 return tr("withdraw #%1").arg(d.target);
             return QString::fromLatin1(decisionKindName(d.kind))
                 .replace(QLatin1Char('_'), QLatin1Char(' '));
-        case WhereColumn: {
-            QString where = d.kind == DecisionKind::MergeCodes
-                                ? QStringLiteral("%1 → %2").arg(QString::fromStdString(d.variant),
-                                                                QString::fromStdString(d.into))
-                                : QString::fromStdString(d.region);
-            if (!d.measure.empty())
-                where += QStringLiteral(" ") + QString::fromStdString(d.measure);
-            if (d.date)
-                where += QStringLiteral(" ") + QString::fromStdString(d.date->iso());
-            else if (d.window)
-                where += QStringLiteral(" ") + QString::fromStdString(d.window->iso());
-            return where.trimmed();
-        }
+        case WhereColumn:
+            return QString::fromStdString(decisionWhere(d, WhereStyle::Compact)).trimmed();
         case MovedColumn: {
             // The totals the entry moved: "conserved" or the net change, and how many cells.
             const std::int64_t net = e.effect.netChange();

@@ -1,5 +1,7 @@
 #include "siftwave/ledger/decision.h"
 
+#include "siftwave/ledger/decision_kinds.h"
+
 namespace siftwave {
 
 std::string DayRange::iso() const {
@@ -18,34 +20,13 @@ std::optional<DayRange> DayRange::fromIso(std::string_view text) {
 }
 
 const char* decisionKindName(DecisionKind kind) {
-    switch (kind) {
-        case DecisionKind::Redistribute:
-            return "redistribute";
-        case DecisionKind::SpreadNegative:
-            return "spread_negative";
-        case DecisionKind::FillMissing:
-            return "fill_missing";
-        case DecisionKind::ResolveDuplicate:
-            return "resolve_duplicate";
-        case DecisionKind::MergeCodes:
-            return "merge_codes";
-        case DecisionKind::Exclude:
-            return "exclude";
-        case DecisionKind::Accept:
-            return "accept";
-        case DecisionKind::Withdraw:
-            return "withdraw";
-    }
-    return "accept";
+    return decisionKindInfo(kind).name;
 }
 
 std::optional<DecisionKind> decisionKindFromName(std::string_view name) {
-    for (DecisionKind k :
-         {DecisionKind::Redistribute, DecisionKind::SpreadNegative, DecisionKind::FillMissing,
-          DecisionKind::ResolveDuplicate, DecisionKind::MergeCodes, DecisionKind::Exclude,
-          DecisionKind::Accept, DecisionKind::Withdraw}) {
-        if (name == decisionKindName(k))
-            return k;
+    for (const DecisionKindInfo* k : decisionKinds()) {
+        if (name == k->name)
+            return k->kind;
     }
     return std::nullopt;
 }
@@ -115,104 +96,11 @@ std::optional<DuplicateRule> duplicateRuleFromName(std::string_view name) {
 }
 
 bool decisionConservesTotals(const Decision& d) {
-    switch (d.kind) {
-        case DecisionKind::Redistribute:
-        case DecisionKind::SpreadNegative:
-        case DecisionKind::Accept:
-            return true;
-        case DecisionKind::FillMissing:
-            // zero writes 0 where no value was: the total cannot change.
-            return d.fillMethod == FillMethod::Share || d.fillMethod == FillMethod::Zero;
-        default:
-            return false;
-    }
+    return decisionKindInfo(d.kind).conservesTotals(d);
 }
-
-namespace {
-Status usage(std::string message) {
-    return makeError(ErrorCode::Usage, std::move(message));
-}
-}  // namespace
 
 Status Decision::validate() const {
-    const std::string k = decisionKindName(kind);
-    auto needRegion = [&]() -> Status {
-        if (region.empty())
-            return usage(k + " needs a region");
-        return Ok{};
-    };
-    auto needMeasure = [&]() -> Status {
-        if (measure.empty())
-            return usage(k + " needs a measure");
-        return Ok{};
-    };
-    auto needDate = [&]() -> Status {
-        if (!date)
-            return usage(k + " needs a date");
-        return Ok{};
-    };
-    auto needWindow = [&]() -> Status {
-        if (!window)
-            return usage(k + " needs a window of days FIRST:LAST");
-        return Ok{};
-    };
-    switch (kind) {
-        case DecisionKind::Redistribute: {
-            for (auto s : {needRegion(), needMeasure(), needDate(), needWindow()}) {
-                if (!s)
-                    return s;
-            }
-            if (excess <= 0)
-                return usage("redistribute needs an excess greater than 0");
-            if (window->last >= *date) {
-                return usage(
-                    "the redistribution window must end before the day it takes the excess from");
-            }
-            if (baselineWidth < 3 || baselineWidth > 21 || baselineWidth % 2 == 0) {
-                return usage("the baseline width must be an odd number of days from 3 to 21");
-            }
-            return Ok{};
-        }
-        case DecisionKind::SpreadNegative: {
-            for (auto s : {needRegion(), needMeasure(), needDate()}) {
-                if (!s)
-                    return s;
-            }
-            if (window && window->last >= *date) {
-                return usage("the days absorbing a negative correction must come before it");
-            }
-            return Ok{};
-        }
-        case DecisionKind::FillMissing:
-            for (auto s : {needRegion(), needMeasure(), needWindow()}) {
-                if (!s)
-                    return s;
-            }
-            return Ok{};
-        case DecisionKind::ResolveDuplicate:
-            for (auto s : {needRegion(), needMeasure(), needDate()}) {
-                if (!s)
-                    return s;
-            }
-            return Ok{};
-        case DecisionKind::MergeCodes:
-            if (variant.empty() || into.empty())
-                return usage("merge_codes needs a variant code and the code to merge it into");
-            if (variant == into)
-                return usage("merge_codes needs two different codes");
-            return Ok{};
-        case DecisionKind::Exclude:
-            if (region.empty() && !window)
-                return usage("exclude needs a region, a window of days, or both");
-            return Ok{};
-        case DecisionKind::Accept:
-            return needRegion();
-        case DecisionKind::Withdraw:
-            if (target == 0)
-                return usage("withdraw needs the id of the entry to undo");
-            return Ok{};
-    }
-    return Ok{};
+    return decisionKindInfo(kind).validate(*this);
 }
 
 }  // namespace siftwave

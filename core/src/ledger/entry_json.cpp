@@ -2,6 +2,7 @@
 #include "siftwave/ledger/entry.h"
 
 #include "ledger/entry_json.h"
+#include "siftwave/ledger/decision_kinds.h"
 #include "siftwave/sha256.h"
 
 #include <nlohmann/json.hpp>
@@ -40,51 +41,48 @@ json decisionParameters(const Decision& d) {
         if (!value.empty())
             p[key] = value;
     };
-    switch (d.kind) {
-        case DecisionKind::Redistribute:
-            put("region", d.region);
-            put("measure", d.measure);
-            if (d.date)
-                p["date"] = d.date->iso();
-            if (d.window)
-                p["window"] = rangeToJson(*d.window);
-            p["excess"] = d.excess;
-            p["method"] = redistributeMethodName(d.redistributeMethod);
-            if (d.redistributeMethod == RedistributeMethod::Baseline)
-                p["baseline_width"] = d.baselineWidth;
-            break;
-        case DecisionKind::SpreadNegative:
-        case DecisionKind::ResolveDuplicate:
-            put("region", d.region);
-            put("measure", d.measure);
-            if (d.date)
-                p["date"] = d.date->iso();
-            if (d.kind == DecisionKind::SpreadNegative && d.window)
-                p["window"] = rangeToJson(*d.window);
-            if (d.kind == DecisionKind::ResolveDuplicate)
+    for (DecisionParam param : decisionKindInfo(d.kind).parameters) {
+        switch (param) {
+            case DecisionParam::Region:
+                put("region", d.region);
+                break;
+            case DecisionParam::Measure:
+                put("measure", d.measure);
+                break;
+            case DecisionParam::Date:
+                if (d.date)
+                    p["date"] = d.date->iso();
+                break;
+            case DecisionParam::Window:
+                if (d.window)
+                    p["window"] = rangeToJson(*d.window);
+                break;
+            case DecisionParam::Excess:
+                p["excess"] = d.excess;
+                break;
+            case DecisionParam::RedistributeMethod:
+                p["method"] = redistributeMethodName(d.redistributeMethod);
+                break;
+            case DecisionParam::BaselineWidth:
+                if (d.redistributeMethod == RedistributeMethod::Baseline)
+                    p["baseline_width"] = d.baselineWidth;
+                break;
+            case DecisionParam::FillMethod:
+                p["method"] = fillMethodName(d.fillMethod);
+                break;
+            case DecisionParam::Keep:
                 p["keep"] = duplicateRuleName(d.duplicateRule);
-            break;
-        case DecisionKind::FillMissing:
-            put("region", d.region);
-            put("measure", d.measure);
-            if (d.window)
-                p["window"] = rangeToJson(*d.window);
-            p["method"] = fillMethodName(d.fillMethod);
-            break;
-        case DecisionKind::MergeCodes:
-            put("variant", d.variant);
-            put("into", d.into);
-            break;
-        case DecisionKind::Exclude:
-        case DecisionKind::Accept:
-            put("region", d.region);
-            put("measure", d.measure);
-            if (d.window)
-                p["window"] = rangeToJson(*d.window);
-            break;
-        case DecisionKind::Withdraw:
-            p["entry"] = d.target;
-            break;
+                break;
+            case DecisionParam::Variant:
+                put("variant", d.variant);
+                break;
+            case DecisionParam::Into:
+                put("into", d.into);
+                break;
+            case DecisionParam::Entry:
+                p["entry"] = d.target;
+                break;
+        }
     }
     put("finding", d.finding);
     return p;
@@ -272,7 +270,8 @@ Result<Decision> parseDecision(const Reader& rd, DecisionKind kind, const json& 
         auto x = rd.text(p, "method");
         if (!x)
             return x.error();
-        if (kind == DecisionKind::Redistribute) {
+        // "method" names a redistribution method for the kinds that take one, else a fill method.
+        if (decisionKindInfo(kind).hasParameter(DecisionParam::RedistributeMethod)) {
             auto m = redistributeMethodFromName(*x);
             if (!m)
                 return syntax(rd.line(), "unknown redistribution method \"" + *x + "\"");

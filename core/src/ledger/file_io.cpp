@@ -13,15 +13,34 @@
 
 namespace siftwave::detail {
 
-namespace {
-
 Error ioError(const std::string& path, const std::string& what) {
     Error e = makeError(ErrorCode::Io, what + ": " + std::strerror(errno));
     e.file = path;
     return e;
 }
 
-}  // namespace
+bool writeAll(int fd, std::string_view bytes) {
+    const char* data = bytes.data();
+    std::size_t left = bytes.size();
+    while (left > 0) {
+        const ssize_t n = ::write(fd, data, left);
+        if (n < 0 && errno == EINTR)
+            continue;
+        if (n < 0)
+            return false;
+        data += n;
+        left -= static_cast<std::size_t>(n);
+    }
+    return true;
+}
+
+void syncFolder(const std::string& folder) {
+    const int dirFd = ::open(folder.c_str(), O_RDONLY | O_DIRECTORY);
+    if (dirFd >= 0) {
+        ::fsync(dirFd);
+        ::close(dirFd);
+    }
+}
 
 Status writeFileAtomically(const std::string& path, std::string_view bytes) {
     namespace fs = std::filesystem;
@@ -39,20 +58,11 @@ Status writeFileAtomically(const std::string& path, std::string_view bytes) {
     if (fd < 0)
         return ioError(path, "cannot create a temporary file beside it");
     const std::string tempPath(name.data());
-    const char* data = bytes.data();
-    std::size_t left = bytes.size();
-    while (left > 0) {
-        const ssize_t n = ::write(fd, data, left);
-        if (n < 0) {
-            if (errno == EINTR)
-                continue;
-            Error e = ioError(path, "cannot write");
-            ::close(fd);
-            ::unlink(tempPath.c_str());
-            return e;
-        }
-        data += n;
-        left -= static_cast<std::size_t>(n);
+    if (!writeAll(fd, bytes)) {
+        Error e = ioError(path, "cannot write");
+        ::close(fd);
+        ::unlink(tempPath.c_str());
+        return e;
     }
     if (::fchmod(fd, 0644) != 0 || ::fsync(fd) != 0) {
         Error e = ioError(path, "cannot flush");
@@ -70,11 +80,7 @@ Status writeFileAtomically(const std::string& path, std::string_view bytes) {
         ::unlink(tempPath.c_str());
         return e;
     }
-    const int dirFd = ::open(folder.c_str(), O_RDONLY | O_DIRECTORY);
-    if (dirFd >= 0) {
-        ::fsync(dirFd);
-        ::close(dirFd);
-    }
+    syncFolder(folder.string());
     return Ok{};
 }
 

@@ -8,6 +8,15 @@
 
 namespace siftwave::detail {
 
+/// An Io error on `path`: "<what>: <the system's reason for errno>".
+Error ioError(const std::string& path, const std::string& what);
+
+/// Writes all of `bytes` to `fd`, again after an interrupted write; false (errno set) on failure.
+bool writeAll(int fd, std::string_view bytes);
+
+/// fsyncs `folder`, so that a file created or renamed in it lasts; best effort.
+void syncFolder(const std::string& folder);
+
 /// Writes `bytes` to a temporary file beside `path`, flushes and fsyncs it,
 /// renames it over `path` and fsyncs the folder. On any failure the temporary
 /// file is removed and `path` is untouched.

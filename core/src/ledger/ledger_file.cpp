@@ -99,11 +99,7 @@ Status appendLedgerEntry(const std::string& path, const LedgerEntry& entry) {
     if (!line)
         return line.error();
     std::string bytes = *line + "\n";
-    auto fail = [&](const char* what) {
-        Error e = makeError(ErrorCode::Io, std::string(what) + ": " + std::strerror(errno));
-        e.file = path;
-        return e;
-    };
+    auto fail = [&](const char* what) { return detail::ioError(path, what); };
     std::error_code ec;
     const bool created = !std::filesystem::exists(path, ec);
     const int fd = ::open(path.c_str(), O_RDWR | O_APPEND | O_CREAT | O_CLOEXEC, 0644);
@@ -145,19 +141,10 @@ Status appendLedgerEntry(const std::string& path, const LedgerEntry& entry) {
         e.file = path;
         return e;
     }
-    const char* data = bytes.data();
-    std::size_t left = bytes.size();
-    while (left > 0) {
-        const ssize_t n = ::write(fd, data, left);
-        if (n < 0) {
-            if (errno == EINTR)
-                continue;
-            Error e = fail("cannot append to the ledger");
-            ::close(fd);
-            return e;
-        }
-        data += n;
-        left -= static_cast<std::size_t>(n);
+    if (!detail::writeAll(fd, bytes)) {
+        Error e = fail("cannot append to the ledger");
+        ::close(fd);
+        return e;
     }
     if (::fsync(fd) != 0) {
         Error e = fail("cannot flush the ledger to disk");
@@ -170,11 +157,7 @@ Status appendLedgerEntry(const std::string& path, const LedgerEntry& entry) {
         std::filesystem::path folder = std::filesystem::path(path).parent_path();
         if (folder.empty())
             folder = ".";
-        const int dirFd = ::open(folder.c_str(), O_RDONLY | O_DIRECTORY);
-        if (dirFd >= 0) {
-            ::fsync(dirFd);
-            ::close(dirFd);
-        }
+        detail::syncFolder(folder.string());
     }
     return Ok{};
 }

@@ -1,6 +1,7 @@
 #include "siftwave/report/briefing.h"
 #include "common/text_escape.h"
 
+#include "siftwave/ledger/decision_kinds.h"
 #include "siftwave/ledger/replay.h"
 
 #include <cmath>
@@ -37,20 +38,6 @@ std::string dateInterval(const fit::FitResult& f, const fit::Estimate& e) {
 void estimateRow(std::vector<FitTableRow>& rows, const std::string& name, const fit::Estimate& e,
                  int decimals) {
     rows.push_back({name, fixed(e.value, decimals), intervalText(e.lower, e.upper, decimals)});
-}
-
-std::string whereOf(const Decision& d) {
-    if (d.kind == DecisionKind::MergeCodes)
-        return d.variant + " into " + d.into;
-    if (d.kind == DecisionKind::Withdraw)
-        return "entry #" + std::to_string(d.target);
-    std::string where = d.region.empty() ? std::string("every region") : d.region;
-    where += d.measure.empty() ? std::string(", every measure") : ", " + d.measure;
-    if (d.date)
-        where += ", " + d.date->iso();
-    else if (d.window)
-        where += ", " + d.window->first.iso() + " to " + d.window->last.iso();
-    return where;
 }
 
 std::vector<std::string> regionsTouched(const Drop& drop, const Ledger& ledger,
@@ -173,10 +160,10 @@ Result<BriefingReport> buildBriefing(const Drop& drop, const Ledger& ledger, con
     }
 
     for (const LedgerEntry& e : ledger.entries)
-        report.ledger.push_back({e.sequence, e.timestamp, e.author,
-                                 decisionKindName(e.decision.kind), whereOf(e.decision), e.reason,
-                                 e.effect.netChange(), cleaned.inEffect(e.sequence),
-                                 e.hash.substr(0, kHashPrefixLength)});
+        report.ledger.push_back(
+            {e.sequence, e.timestamp, e.author, decisionKindName(e.decision.kind),
+             decisionWhere(e.decision, WhereStyle::Prose), e.reason, e.effect.netChange(),
+             cleaned.inEffect(e.sequence), e.hash.substr(0, kHashPrefixLength)});
 
     const std::set<std::string> shown(regions.begin(), regions.end());
     for (ReconciliationRow& row : reconcile(drop, cleaned, ledger))

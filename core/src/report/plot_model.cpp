@@ -1,5 +1,6 @@
 #include "siftwave/report/plot_model.h"
 
+#include "siftwave/ledger/decision_kinds.h"
 #include "siftwave/report/caption.h"
 #include "siftwave/report/count_band.h"
 #include "siftwave/series/daily.h"
@@ -24,36 +25,6 @@ std::int64_t totalChangeOf(const LedgerEntry& entry, const std::string& region,
     return change;
 }
 
-// The days of this region and measure whose cells the entry changed.
-std::optional<DayRange> changedDays(const LedgerEntry& entry, const std::string& region,
-                                    const std::string& measure) {
-    std::optional<DayRange> range;
-    for (const CellChange& c : entry.effect.cells) {
-        if (c.region != region || c.measure != measure)
-            continue;
-        if (!range)
-            range = DayRange{c.date, c.date};
-        range->first = std::min(range->first, c.date);
-        range->last = std::max(range->last, c.date);
-    }
-    return range;
-}
-
-bool aboutThisSeries(const Decision& d, const std::string& region, const std::string& measure) {
-    switch (d.kind) {
-        case DecisionKind::Withdraw:
-            return false;
-        case DecisionKind::MergeCodes:
-            return d.into == region;
-        case DecisionKind::Exclude:
-        case DecisionKind::Accept:
-            return (d.region.empty() || d.region == region) &&
-                   (d.measure.empty() || d.measure == measure);
-        default:
-            return d.region == region && d.measure == measure;
-    }
-}
-
 double highestRaw(const PlotModel& model, Date first, Date last) {
     double best = 0;
     for (int i = std::max(0, first - model.axis.first());
@@ -69,79 +40,36 @@ DayRange clampToCalendar(DayRange r, const PlotModel& model) {
             std::clamp(r.last, model.axis.first(), last)};
 }
 
+// Each kind's mark comes from its descriptor (siftwave/ledger/decision_kinds.h).
 void addMarks(PlotModel& model, const Ledger& ledger, const Cleaned& cleaned) {
     const DayRange calendar{model.axis.first(),
                             model.periodStart(std::max(model.periods() - 1, 0))};
     for (const LedgerEntry& entry : ledger.entries) {
         const Decision& d = entry.decision;
+        const DecisionKindInfo& kind = decisionKindInfo(d.kind);
         if (!cleaned.inEffect(entry.sequence) ||
-            !aboutThisSeries(d, model.regionCode, model.measure))
+            !kind.marksSeries(d, model.regionCode, model.measure))
             continue;
-        const std::string tag = "#" + std::to_string(entry.sequence) + " ";
         const std::int64_t change = totalChangeOf(entry, model.regionCode, model.measure);
-        if (d.kind == DecisionKind::Exclude) {
-            const DayRange r = clampToCalendar(d.window.value_or(calendar), model);
-            ExcludedRange ex{entry.sequence, r.first, r.last, -change, {}};
-            ex.label = tag + "excluded (" + groupedCount(-change) + ")";
-            model.excluded.push_back(ex);
+        const std::optional<KindMark> kindMark = kind.mark(MarkContext{
+            entry, model.regionCode, model.measure, model.axis, calendar, change, groupedCount});
+        if (!kindMark)
+            continue;
+        const std::string label = "#" + std::to_string(entry.sequence) + " " + kindMark->label;
+        const DayRange at = clampToCalendar(kindMark->at, model);
+        if (kindMark->shaded) {
+            model.excluded.push_back(
+                ExcludedRange{entry.sequence, at.first, at.last, kindMark->count, label});
             continue;
         }
         DecisionMark mark;
         mark.sequence = entry.sequence;
         mark.kind = d.kind;
-        DayRange at = calendar;
-        switch (d.kind) {
-            case DecisionKind::Redistribute:
-                at = DayRange{*d.date, *d.date};
-                mark.window = d.window;
-                mark.count = d.excess;
-                mark.label =
-                    tag + groupedCount(d.excess) + " moved to earlier " + model.axis.unitPlural();
-                break;
-            case DecisionKind::SpreadNegative: {
-                at = DayRange{*d.date, *d.date};
-                const auto& cell = entry.effect.cells;
-                std::int64_t negative = 0;
-                for (const CellChange& c : cell)
-                    if (c.region == model.regionCode && c.measure == model.measure &&
-                        c.date == *d.date)
-                        negative = c.before.value;
-                mark.count = -negative;
-                mark.label = tag + "negative " + groupedCount(negative) + " spread back";
-                break;
-            }
-            case DecisionKind::FillMissing:
-                at = *d.window;
-                mark.count = change;
-                {
-                    // The periods the window covers (a date anywhere in a week selects it).
-                    const int periods = model.axis.periodOnGrid(d.window->last) -
-                                        model.axis.periodOnGrid(d.window->first) + 1;
-                    mark.label = tag + std::to_string(periods) + " " +
-                                 (periods == 1 ? model.axis.unitName() : model.axis.unitPlural()) +
-                                 " filled (" + groupedCount(change) + ")";
-                }
-                break;
-            case DecisionKind::ResolveDuplicate:
-                at = DayRange{*d.date, *d.date};
-                mark.count = change;
-                mark.label = tag + "duplicate resolved";
-                break;
-            case DecisionKind::MergeCodes:
-                at = changedDays(entry, model.regionCode, model.measure).value_or(calendar);
-                mark.count = change;
-                mark.label = tag + d.variant + " merged in (+" + groupedCount(change) + ")";
-                break;
-            case DecisionKind::Accept:
-                at = d.window.value_or(calendar);
-                mark.label = tag + "accepted as reported";
-                break;
-            default:
-                continue;
-        }
-        at = clampToCalendar(at, model);
         mark.first = at.first;
         mark.last = at.last;
+        mark.window = kindMark->window;
+        mark.count = kindMark->count;
+        mark.label = label;
         mark.anchorValue = highestRaw(model, at.first, at.last);
         model.decisions.push_back(mark);
     }
