@@ -106,6 +106,21 @@ MainWindow::MainWindow(Options options, QWidget* parent)
     setBusy(nullptr);
     connect(m_cancel, &QPushButton::clicked, this, &MainWindow::cancelBackgroundWork);
 
+    connectWidgets();
+
+    resize(1360, 860);
+    if (m_options.rememberLayout) {
+        restoreGeometry(settings::windowGeometry());
+        m_layoutRestored = restoreState(settings::windowState(), kDockLayoutVersion);
+    }
+    onDropChanged();
+}
+
+MainWindow::~MainWindow() = default;
+
+// The window's own answers to what its widgets report (selection, measures, dragging,
+// decisions asked for).
+void MainWindow::connectWidgets() {
     connect(m_workbench, &widgets::Workbench::dropChanged, this, &MainWindow::onDropChanged);
     connect(m_browser, &widgets::RegionBrowser::regionSelected, this,
             &MainWindow::onRegionSelected);
@@ -147,16 +162,7 @@ MainWindow::MainWindow(Options options, QWidget* parent)
     });
     connect(m_batchView, &widgets::BatchFitView::regionActivated, this,
             [this](const QString& code) { selectRegion(code); });
-
-    resize(1360, 860);
-    if (m_options.rememberLayout) {
-        restoreGeometry(settings::windowGeometry());
-        m_layoutRestored = restoreState(settings::windowState(), kDockLayoutVersion);
-    }
-    onDropChanged();
 }
-
-MainWindow::~MainWindow() = default;
 
 // What the controllers ask of the window: errors shown, the plot focused, docks raised, the
 // series redrawn, progress shown.

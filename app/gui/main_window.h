@@ -139,6 +139,7 @@ private:
     void saveProjectInPlace();
     void startOpening(const QString& dropPath, std::optional<ProjectController::Opening> project);
     void buildControllers();
+    void connectWidgets();
     void updateWindowTitle();
     QString askForDropFile(const QString& title);
     void rebuildRecentMenu();
