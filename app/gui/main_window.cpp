@@ -531,29 +531,32 @@ void MainWindow::startOpening(const QString& path,
                 startScan();
                 return;
             }
-            m_projectControl->restoreView(project->file);
-            const QString previous =
-                resolvedProjectPath(project->path, project->file.previousDropPath);
-            const QString projectFile = project->path;
-            if (previous.isEmpty()) {
-                startScan();
-                Q_EMIT projectOpened(projectFile);
-                return;
-            }
-            // Opened with or without its previous release (a failure to read it is shown).
-            auto waiting = std::make_shared<std::array<QMetaObject::Connection, 2>>();
-            auto done = [this, projectFile, waiting] {
-                for (const QMetaObject::Connection& c : *waiting)
-                    disconnect(c);
-                Q_EMIT projectOpened(projectFile);
-            };
-            (*waiting)[0] = connect(this, &MainWindow::previousOpened, this,
-                                    [done](const QString&) { done(); });
-            (*waiting)[1] =
-                connect(this, &MainWindow::dropFailed, this, [done](const QString&) { done(); });
-            openPreviousRelease(previous);
+            showOpenedProject(*project);
         });
     setBusy(task);
+}
+
+void MainWindow::showOpenedProject(const ProjectController::Opening& project) {
+    m_projectControl->restoreView(project.file);
+    const QString previous = resolvedProjectPath(project.path, project.file.previousDropPath);
+    const QString projectFile = project.path;
+    if (previous.isEmpty()) {
+        startScan();
+        Q_EMIT projectOpened(projectFile);
+        return;
+    }
+    // Opened with or without its previous release (a failure to read it is shown).
+    auto waiting = std::make_shared<std::array<QMetaObject::Connection, 2>>();
+    auto done = [this, projectFile, waiting] {
+        for (const QMetaObject::Connection& c : *waiting)
+            disconnect(c);
+        Q_EMIT projectOpened(projectFile);
+    };
+    (*waiting)[0] =
+        connect(this, &MainWindow::previousOpened, this, [done](const QString&) { done(); });
+    (*waiting)[1] =
+        connect(this, &MainWindow::dropFailed, this, [done](const QString&) { done(); });
+    openPreviousRelease(previous);
 }
 
 void MainWindow::updateWindowTitle() {

@@ -138,6 +138,8 @@ private:
     void showSaveProjectDialog();
     void saveProjectInPlace();
     void startOpening(const QString& dropPath, std::optional<ProjectController::Opening> project);
+    /// The project's drop is open: its view shown, then its previous release read.
+    void showOpenedProject(const ProjectController::Opening& project);
     void buildControllers();
     void connectWidgets();
     void updateWindowTitle();
