@@ -196,10 +196,6 @@ QVariant RegionModel::data(const QModelIndex& index, int role) const {
             return {};
         case SortRole:
             switch (index.column()) {
-                case CodeColumn:
-                    return node.code;
-                case NameColumn:
-                    return node.name;
                 case RawTotalColumn:
                     return inDrop ? node.rawTotal : -1;
                 case CleanedTotalColumn:
@@ -208,7 +204,7 @@ QVariant RegionModel::data(const QModelIndex& index, int role) const {
                 case OpenFindingsColumn:
                     return m_workbench->openFindings(node.code);
             }
-            return {};
+            return data(index, Qt::DisplayRole);  // code and name sort by what they show
         case Qt::TextAlignmentRole:
             if (index.column() >= RawTotalColumn)
                 return QVariant::fromValue(Qt::AlignRight | Qt::AlignVCenter);
