@@ -1,10 +1,13 @@
 #include "main_window.h"
 
+#include "batch_controller.h"
+#include "decision_controller.h"
 #include "export_figure_action.h"
+#include "fit_controller.h"
+#include "project_controller.h"
 
 #include "settings.h"
 
-#include "decision_command.h"
 #include "project_session.h"
 #include "widgets/common/background_task.h"
 #include "widgets/common/drop_loading.h"
@@ -16,10 +19,7 @@
 #include "widgets/ledger/ledger_view.h"
 #include "widgets/plot/qcustomplot_include.h"
 
-#include "siftwave/scan/backlog.h"
 #include "siftwave/scan/scan.h"
-#include "siftwave/scan/suggested_decision.h"
-#include "widgets/common/text_table_model.h"
 #include "widgets/common/workbench.h"
 #include "widgets/findings/region_browser.h"
 #include "widgets/findings/region_model.h"
@@ -34,15 +34,11 @@
 #include <QDockWidget>
 #include <QDragEnterEvent>
 #include <QDropEvent>
-#include <QElapsedTimer>
 #include <QFileDialog>
 #include <QFileInfo>
-#include <QInputDialog>
 #include <QKeySequence>
 #include <QLabel>
-#include <QLineEdit>
 #include <QLocale>
-#include <QLoggingCategory>
 #include <QMenu>
 #include <QMenuBar>
 #include <QMessageBox>
@@ -55,15 +51,10 @@
 #include <QUndoStack>
 
 #include <array>
-#include <cmath>
 #include <cstdio>
-#include <map>
 #include <memory>
 
 namespace siftwave::gui {
-
-// QT_LOGGING_RULES="siftwave.refit.debug=true" prints how long each refit takes.
-Q_LOGGING_CATEGORY(lcRefit, "siftwave.refit", QtWarningMsg)
 
 // The version of the dock arrangement saved in the settings: a layout saved under another
 // (older) version is not restored, so a new default arrangement reaches every user once.
@@ -86,7 +77,11 @@ MainWindow::MainWindow(Options options, QWidget* parent)
       m_decisionPane(new widgets::DecisionPane),
       m_ledgerView(new widgets::LedgerView(m_workbench)),
       m_batchView(new widgets::BatchFitView),
-      m_undo(new QUndoStack(this)),
+      m_fitControl(new FitController(m_workbench, m_plot, m_fitPane, m_decisionPane, this)),
+      m_decisionControl(
+          new DecisionController(m_workbench, m_plot, m_decisionPane, options.dialogs, this)),
+      m_projectControl(new ProjectController(m_workbench, m_plot, m_fitControl, this)),
+      m_batchControl(new BatchController(m_workbench, m_plot, m_fitPane, m_batchView, this)),
       m_dropLabel(new QLabel),
       m_taskLabel(new QLabel),
       m_progress(new QProgressBar),
@@ -99,6 +94,7 @@ MainWindow::MainWindow(Options options, QWidget* parent)
 
     buildDocks();
     buildActions();
+    buildControllers();
 
     m_progress->setMaximumWidth(180);
     m_progress->setTextVisible(false);
@@ -110,61 +106,7 @@ MainWindow::MainWindow(Options options, QWidget* parent)
     setBusy(nullptr);
     connect(m_cancel, &QPushButton::clicked, this, &MainWindow::cancelBackgroundWork);
 
-    connect(m_workbench, &widgets::Workbench::dropChanged, this, &MainWindow::onDropChanged);
-    connect(m_browser, &widgets::RegionBrowser::regionSelected, this,
-            &MainWindow::onRegionSelected);
-    connect(m_plot, &widgets::SeriesPlot::measureChosen, this, [this](int measure) {
-        m_regionModel->setMeasure(measure);
-        redrawSeries();
-    });
-    connect(m_plot, &widgets::SeriesPlot::secondMeasureChosen, this,
-            [this](int) { redrawSeries(); });
-    connect(m_fitPane, &widgets::FitPane::optionsChanged, this, [this] { refit(true); });
-    connect(m_plot, &widgets::SeriesPlot::windowChanging, this,
-            [this](widgets::DayIndexRange window) { onWindowDragged(window, false); });
-    connect(m_plot, &widgets::SeriesPlot::windowChanged, this,
-            [this](widgets::DayIndexRange window) { onWindowDragged(window, true); });
-    connect(m_workbench, &widgets::Workbench::ledgerChanged, this, [this] {
-        if (!m_decisionPane->isActive())
-            redrawSeries();
-    });
-    connect(m_workbench, &widgets::Workbench::findingsChanged, this, [this] {
-        if (!m_decisionPane->isActive())
-            redrawSeries();
-    });
-    connect(m_findings, &widgets::FindingReview::findingSelected, this, [this](const QString& id) {
-        if (m_decisionPane->isActive())
-            return;  // finish or discard the decision first
-        if (const scan::Finding* f = m_workbench->finding(id))
-            focusPlotOn(*f);
-    });
-    connect(m_findings, &widgets::FindingReview::decideRequested, this,
-            [this](const QString& id) { decideFinding(id); });
-    connect(m_plot, &widgets::SeriesPlot::redistributeDayRequested, this,
-            [this](int day) { decideDay(day); });
-    connect(m_decisionPane, &widgets::DecisionPane::decisionEdited, this,
-            &MainWindow::previewDecision);
-    connect(m_decisionPane, &widgets::DecisionPane::applyRequested, this,
-            &MainWindow::applyCurrentDecision);
-    connect(m_decisionPane, &widgets::DecisionPane::cancelled, this, &MainWindow::endDecision);
-    connect(m_ledgerView, &widgets::LedgerView::withdrawRequested, this,
-            [this](std::uint64_t sequence) { withdrawEntry(sequence); });
-    connect(m_workbench, &widgets::Workbench::previousChanged, this, [this] {
-        redrawSeries();
-        updateReleaseSummary();
-    });
-    connect(m_batchView, &widgets::BatchFitView::runRequested, this, &MainWindow::startBatchFit);
-    connect(m_batchView, &widgets::BatchFitView::regionActivated, this,
-            [this](const QString& code) { selectRegion(code); });
-    connect(m_workbench, &widgets::Workbench::ledgerChanged, m_batchView,
-            [this] { m_batchView->setStale(tr("the ledger changed the cleaned counts since")); });
-    connect(m_workbench, &widgets::Workbench::dropChanged, m_batchView, [this] {
-        if (m_batchTask)
-            m_batchTask->cancel();
-        m_batchView->clear(m_workbench->hasDrop() ? tr("Not run yet.") : tr("No drop open."));
-    });
-    connect(m_plot, &widgets::SeriesPlot::measureChosen, m_batchView,
-            [this](int) { m_batchView->setStale(tr("another measure is shown now")); });
+    connectWidgets();
 
     resize(1360, 860);
     if (m_options.rememberLayout) {
@@ -175,6 +117,126 @@ MainWindow::MainWindow(Options options, QWidget* parent)
 }
 
 MainWindow::~MainWindow() = default;
+
+// The window's own answers to what its widgets report (selection, measures, dragging,
+// decisions asked for).
+void MainWindow::connectWidgets() {
+    connect(m_workbench, &widgets::Workbench::dropChanged, this, &MainWindow::onDropChanged);
+    connect(m_browser, &widgets::RegionBrowser::regionSelected, this,
+            &MainWindow::onRegionSelected);
+    connect(m_plot, &widgets::SeriesPlot::measureChosen, this, [this](int measure) {
+        m_regionModel->setMeasure(measure);
+        redrawSeries();
+    });
+    connect(m_plot, &widgets::SeriesPlot::secondMeasureChosen, this,
+            [this](int) { redrawSeries(); });
+    connect(m_fitPane, &widgets::FitPane::optionsChanged, this,
+            [this] { m_fitControl->refit(m_currentRegion, true); });
+    connect(m_plot, &widgets::SeriesPlot::windowChanging, this,
+            [this](widgets::DayIndexRange window) { onWindowDragged(window, false); });
+    connect(m_plot, &widgets::SeriesPlot::windowChanged, this,
+            [this](widgets::DayIndexRange window) { onWindowDragged(window, true); });
+    connect(m_workbench, &widgets::Workbench::ledgerChanged, this, [this] {
+        if (!m_decisionControl->isActive())
+            redrawSeries();
+    });
+    connect(m_workbench, &widgets::Workbench::findingsChanged, this, [this] {
+        if (!m_decisionControl->isActive())
+            redrawSeries();
+    });
+    connect(m_findings, &widgets::FindingReview::findingSelected, this, [this](const QString& id) {
+        if (m_decisionControl->isActive())
+            return;  // finish or discard the decision first
+        if (const scan::Finding* f = m_workbench->finding(id))
+            focusPlotOn(*f);
+    });
+    connect(m_findings, &widgets::FindingReview::decideRequested, this,
+            [this](const QString& id) { decideFinding(id); });
+    connect(m_plot, &widgets::SeriesPlot::redistributeDayRequested, this,
+            [this](int day) { decideDay(day); });
+    connect(m_ledgerView, &widgets::LedgerView::withdrawRequested, this,
+            [this](std::uint64_t sequence) { withdrawEntry(sequence); });
+    connect(m_workbench, &widgets::Workbench::previousChanged, this, [this] {
+        redrawSeries();
+        updateReleaseSummary();
+    });
+    connect(m_batchView, &widgets::BatchFitView::regionActivated, this,
+            [this](const QString& code) { selectRegion(code); });
+}
+
+// What the controllers ask of the window: errors shown, the plot focused, docks raised, the
+// series redrawn, progress shown.
+void MainWindow::buildControllers() {
+    const auto raiseDock = [this](const char* name) {
+        if (auto* dock = findChild<QDockWidget*>(QString::fromLatin1(name)))
+            dock->raise();
+    };
+    connect(m_decisionControl, &DecisionController::errorOccurred, this, &MainWindow::showError);
+    connect(m_decisionControl, &DecisionController::focusRequested, this, &MainWindow::focusPlotOn);
+    connect(m_decisionControl, &DecisionController::decisionStarted, this,
+            [raiseDock] { raiseDock("decisionDock"); });
+    connect(m_decisionControl, &DecisionController::decisionEnded, this, &MainWindow::redrawSeries);
+
+    connect(m_projectControl, &ProjectController::errorOccurred, this, &MainWindow::showError);
+    connect(m_projectControl, &ProjectController::openFailed, this,
+            [this](const QString& title, const QString& message) {
+                showError(title, message);
+                Q_EMIT projectFailed(message);
+            });
+    connect(m_projectControl, &ProjectController::saved, this, [this](const QString& path) {
+        if (m_options.rememberLayout) {
+            settings::addRecentFile(path);
+            rebuildRecentMenu();
+        }
+        updateWindowTitle();
+        statusBar()->showMessage(tr("Project saved: %1").arg(path), 5000);
+    });
+    connect(m_projectControl, &ProjectController::regionRequested, this, &MainWindow::selectRegion);
+    connect(m_projectControl, &ProjectController::redrawRequested, this, &MainWindow::redrawSeries);
+
+    connect(m_batchControl, &BatchController::started, this,
+            [this, raiseDock](BackgroundTask* task) {
+                raiseDock("batchFitDock");
+                setBusy(task);
+            });
+    connect(m_batchControl, &BatchController::finished, this, &MainWindow::batchFitFinished);
+}
+
+bool MainWindow::isBatchFitRunning() const {
+    return m_batchControl->isRunning();
+}
+
+void MainWindow::startBatchFit() {
+    m_batchControl->start();
+}
+
+double MainWindow::lastRefitMilliseconds() const {
+    return m_fitControl->lastRefitMilliseconds();
+}
+
+const fit::FitResult* MainWindow::currentFit() const {
+    return m_fitControl->currentFit();
+}
+
+QUndoStack* MainWindow::undoStack() const {
+    return m_decisionControl->undoStack();
+}
+
+bool MainWindow::decideFinding(const QString& id) {
+    return m_decisionControl->decideFinding(id);
+}
+
+bool MainWindow::decideDay(int day) {
+    return m_decisionControl->decideDay(day);
+}
+
+bool MainWindow::applyCurrentDecision() {
+    return m_decisionControl->apply();
+}
+
+bool MainWindow::withdrawEntry(std::uint64_t sequence, QString reason) {
+    return m_decisionControl->withdraw(sequence, std::move(reason));
+}
 
 void MainWindow::buildDocks() {
     auto* regions = new QDockWidget(tr("Regions"), this);
@@ -277,9 +339,10 @@ void MainWindow::buildActions() {
     quit->setShortcut(QKeySequence::Quit);
 
     QMenu* edit = menuBar()->addMenu(tr("&Edit"));
-    QAction* undo = m_undo->createUndoAction(this, tr("&Undo (appends a withdrawal)"));
+    QUndoStack* undoStack = m_decisionControl->undoStack();
+    QAction* undo = undoStack->createUndoAction(this, tr("&Undo (appends a withdrawal)"));
     undo->setShortcut(QKeySequence::Undo);
-    QAction* redo = m_undo->createRedoAction(this, tr("&Redo"));
+    QAction* redo = undoStack->createRedoAction(this, tr("&Redo"));
     redo->setShortcut(QKeySequence::Redo);
     edit->addAction(undo);
     edit->addAction(redo);
@@ -296,10 +359,8 @@ void MainWindow::buildActions() {
     QAction* apply =
         review->addAction(tr("&Apply the decision"), this, [this] { applyCurrentDecision(); });
     apply->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_Return));
-    QAction* discard = review->addAction(tr("D&iscard the decision"), this, [this] {
-        m_decisionPane->clear();
-        endDecision();
-    });
+    QAction* discard = review->addAction(tr("D&iscard the decision"), m_decisionControl,
+                                         &DecisionController::discard);
     discard->setShortcut(QKeySequence(Qt::Key_Escape));
 
     QMenu* view = menuBar()->addMenu(tr("&View"));
@@ -404,7 +465,8 @@ void MainWindow::openFile(const QString& path) {
         openDrop(path);
 }
 
-void MainWindow::startOpening(const QString& path, std::optional<OpeningProject> project) {
+void MainWindow::startOpening(const QString& path,
+                              std::optional<ProjectController::Opening> project) {
     if (m_task)
         m_task->cancel();
     widgets::LoadRequest request;
@@ -440,9 +502,8 @@ void MainWindow::startOpening(const QString& path, std::optional<OpeningProject>
                               QString::fromStdString(project->file.dropSha256)));
                 return;
             }
-            m_undo->clear();
-            m_decisionPane->clear();
-            m_projectPath = project ? project->path : QString();
+            m_decisionControl->reset();
+            m_projectControl->setPath(project ? project->path : QString());
             m_workbench->setDrop(loaded.drop, loaded.regionRegister);
             const QString ledgerPath =
                 project ? resolvedProjectPath(project->path, project->file.ledgerPath)
@@ -470,29 +531,32 @@ void MainWindow::startOpening(const QString& path, std::optional<OpeningProject>
                 startScan();
                 return;
             }
-            restoreProjectView(project->file);
-            const QString previous =
-                resolvedProjectPath(project->path, project->file.previousDropPath);
-            const QString projectFile = project->path;
-            if (previous.isEmpty()) {
-                startScan();
-                Q_EMIT projectOpened(projectFile);
-                return;
-            }
-            // Opened with or without its previous release (a failure to read it is shown).
-            auto waiting = std::make_shared<std::array<QMetaObject::Connection, 2>>();
-            auto done = [this, projectFile, waiting] {
-                for (const QMetaObject::Connection& c : *waiting)
-                    disconnect(c);
-                Q_EMIT projectOpened(projectFile);
-            };
-            (*waiting)[0] = connect(this, &MainWindow::previousOpened, this,
-                                    [done](const QString&) { done(); });
-            (*waiting)[1] =
-                connect(this, &MainWindow::dropFailed, this, [done](const QString&) { done(); });
-            openPreviousRelease(previous);
+            showOpenedProject(*project);
         });
     setBusy(task);
+}
+
+void MainWindow::showOpenedProject(const ProjectController::Opening& project) {
+    m_projectControl->restoreView(project.file);
+    const QString previous = resolvedProjectPath(project.path, project.file.previousDropPath);
+    const QString projectFile = project.path;
+    if (previous.isEmpty()) {
+        startScan();
+        Q_EMIT projectOpened(projectFile);
+        return;
+    }
+    // Opened with or without its previous release (a failure to read it is shown).
+    auto waiting = std::make_shared<std::array<QMetaObject::Connection, 2>>();
+    auto done = [this, projectFile, waiting] {
+        for (const QMetaObject::Connection& c : *waiting)
+            disconnect(c);
+        Q_EMIT projectOpened(projectFile);
+    };
+    (*waiting)[0] =
+        connect(this, &MainWindow::previousOpened, this, [done](const QString&) { done(); });
+    (*waiting)[1] =
+        connect(this, &MainWindow::dropFailed, this, [done](const QString&) { done(); });
+    openPreviousRelease(previous);
 }
 
 void MainWindow::updateWindowTitle() {
@@ -501,10 +565,11 @@ void MainWindow::updateWindowTitle() {
         return;
     }
     const QString drop = QFileInfo(m_workbench->dropPath()).fileName();
-    if (m_projectPath.isEmpty())
+    const QString project = m_projectControl->path();
+    if (project.isEmpty())
         setWindowTitle(tr("%1 — Siftwave").arg(drop));
     else
-        setWindowTitle(tr("%1 (%2) — Siftwave").arg(QFileInfo(m_projectPath).fileName(), drop));
+        setWindowTitle(tr("%1 (%2) — Siftwave").arg(QFileInfo(project).fileName(), drop));
 }
 
 void MainWindow::cancelBackgroundWork() {
@@ -560,7 +625,7 @@ void MainWindow::onDropChanged() {
                      QString::fromStdString(drop.axis.periodName(drop.periods() - 1)),
                      QString::fromStdString(drop.source.sha256.substr(0, 12))));
     } else {
-        m_projectPath.clear();
+        m_projectControl->setPath(QString());
         updateWindowTitle();
         m_dropLabel->setText(tr("No drop open — File ▸ Open drop, or drop a CSV file here"));
     }
@@ -661,11 +726,11 @@ void MainWindow::focusPlotOn(const scan::Finding& finding) {
 }
 
 void MainWindow::onWindowDragged(widgets::DayIndexRange window, bool finished) {
-    if (m_decisionPane->isActive()) {
+    if (m_decisionControl->isActive()) {
         m_decisionPane->setWindow(window);  // previews through decisionEdited
         return;
     }
-    onFitWindowDragged(window, finished);
+    m_fitControl->windowDragged(m_currentRegion, window, finished);
 }
 
 void MainWindow::onRegionSelected(const QString& code) {
@@ -678,83 +743,7 @@ void MainWindow::redrawSeries() {
         m_workbench->seriesView(m_currentRegion, m_plot->measure(), m_plot->secondMeasure());
     // A register region without rows in this release draws nothing: the plot says why.
     m_plot->setView(view, m_workbench->hasDrop() && view.empty() ? m_currentRegion : QString());
-    refit(true);
-}
-
-void MainWindow::refit(bool compare) {
-    QElapsedTimer clock;
-    clock.start();
-    refitNow(compare);
-    m_lastRefitMs = static_cast<double>(clock.nsecsElapsed()) * 1e-6;
-    qCDebug(lcRefit, "refit %s: %.2f ms (the plot's last repaint, %s, took %.1f ms)",
-            compare ? "with comparison" : "one model", m_lastRefitMs,
-            m_plot->lastRepaintWasLiveOnly() ? "its live layer only" : "every layer",
-            m_plot->lastRepaintMs());
-}
-
-void MainWindow::refitNow(bool compare) {
-    m_fit.reset();
-    const widgets::SeriesView& view = m_plot->view();
-    if (!m_workbench->hasDrop() || view.empty()) {
-        m_fitPane->clear(m_workbench->hasDrop() && !m_currentRegion.isEmpty()
-                             ? tr("No fit: %1 has no rows in this release.").arg(m_currentRegion)
-                             : tr("No region selected."));
-        m_plot->setFit(std::nullopt);
-        m_plot->setEditableWindow(std::nullopt);
-        return;
-    }
-    const int measure = m_plot->measure();
-    fit::FitOptions options = m_fitPane->options();
-    std::vector<fit::ModelComparisonRow> rows;
-    std::optional<Result<fit::FitResult>> result;
-    if (compare || m_fitPane->bestModelWanted()) {
-        rows = m_workbench->compareModels(m_currentRegion, measure, options);
-        const fit::ModelComparisonRow* chosen = nullptr;
-        if (m_fitPane->bestModelWanted()) {
-            chosen = fit::bestByAicc(rows);
-        } else {
-            for (const fit::ModelComparisonRow& row : rows)
-                if (row.model == options.model)
-                    chosen = &row;
-        }
-        if (chosen && chosen->fit)
-            result.emplace(*chosen->fit);
-        else if (chosen)
-            result.emplace(makeError(ErrorCode::Numerical, chosen->error));
-        else
-            result.emplace(makeError(ErrorCode::Numerical, "no model converged on this window"));
-        if (!compare)
-            rows.clear();
-    } else {
-        result.emplace(m_workbench->fitRegion(m_currentRegion, measure, options));
-    }
-    m_fitPane->setCalendar(view.axis);
-    m_fitPane->showFit(*result, rows);
-    if (result->ok()) {
-        m_fit = result->value();
-        m_plot->setFit(widgets::curveFromFit(*m_fit, view.axis));
-        if (!m_decisionPane->isActive())
-            m_plot->setEditableWindow(widgets::DayIndexRange{m_fit->first, m_fit->last});
-        m_fitPane->showWindow(widgets::DayIndexRange{m_fit->first, m_fit->last});
-    } else {
-        m_plot->setFit(std::nullopt);
-        if (const auto window = m_fitPane->manualWindow()) {
-            m_plot->setEditableWindow(*window);
-        } else {
-            m_plot->setEditableWindow(std::nullopt);
-            // No wave found: the (disabled) day fields show the span that was searched, not
-            // the window of the region fitted before.
-            if (view.periods() > 0)
-                m_fitPane->showWindow(widgets::DayIndexRange{0, view.periods() - 1});
-        }
-    }
-}
-
-void MainWindow::onFitWindowDragged(widgets::DayIndexRange window, bool finished) {
-    m_fitPane->setManualWindow(window);
-    // While dragging: one model, no comparison, so the curve follows the hand; on release:
-    // everything.
-    refit(finished);
+    m_fitControl->refit(m_currentRegion, true);
 }
 
 void MainWindow::updateReleaseSummary() {

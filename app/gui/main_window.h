@@ -3,12 +3,18 @@
 // release summary in docks the user can rearrange (the arrangement and the
 // window geometry are remembered), the File menu (open by menu, drag and drop
 // or command line; recent files), and a progress area for background work.
+// What each feature keeps lives in its controller (fit_controller.h,
+// decision_controller.h, project_controller.h, batch_controller.h); the window
+// keeps the layout, the menus and the wiring between them.
+
+#include "project_controller.h"
 
 #include "siftwave/fit/fit.h"
 #include "siftwave/ledger/project.h"
 #include "siftwave/scan/finding.h"
 #include "widgets/common/background_task.h"
 #include "widgets/plot/series_view.h"
+#include "widgets_fwd.h"
 
 #include <QMainWindow>
 #include <QPointer>
@@ -24,20 +30,11 @@ class QTextBrowser;
 
 class QUndoStack;
 
-namespace siftwave::widgets {
-class BatchFitView;
-class DecisionPane;
-class FindingModel;
-class FindingReview;
-class LedgerView;
-class FitPane;
-class RegionBrowser;
-class RegionModel;
-class SeriesPlot;
-class Workbench;
-}  // namespace siftwave::widgets
-
 namespace siftwave::gui {
+
+class BatchController;
+class DecisionController;
+class FitController;
 
 class MainWindow : public QMainWindow {
     Q_OBJECT
@@ -65,7 +62,7 @@ public:
     /// shown when it cannot be saved.
     bool saveProject(const QString& path);
     /// The project file the window shows (empty: none, the drop was opened by itself).
-    QString projectPath() const { return m_projectPath; }
+    QString projectPath() const { return m_projectControl->path(); }
     /// Opens a drop or a project, by the file's ending (recent files, drag and drop).
     void openFile(const QString& path);
     /// Stops waiting for the background work shown in the status bar (the window keeps what
@@ -74,9 +71,9 @@ public:
     /// Fits every region of the shown measure in the background (the fit pane's model and
     /// method, each region's automatic window); emits batchFitFinished() unless cancelled.
     void startBatchFit();
-    bool isBatchFitRunning() const { return m_batchTask != nullptr; }
+    bool isBatchFitRunning() const;
     /// How long the last refit of the current region took on the GUI thread (milliseconds).
-    double lastRefitMilliseconds() const { return m_lastRefitMs; }
+    double lastRefitMilliseconds() const;
     bool isBusy() const { return m_task != nullptr; }
 
     /// Makes a region current (browser and plot); false when the drop has no such code.
@@ -93,7 +90,7 @@ public:
     widgets::DecisionPane* decisionPane() const { return m_decisionPane; }
     widgets::LedgerView* ledgerView() const { return m_ledgerView; }
     widgets::BatchFitView* batchFitView() const { return m_batchView; }
-    QUndoStack* undoStack() const { return m_undo; }
+    QUndoStack* undoStack() const;
 
     /// Starts preparing the finding's suggested decision (region selected, plot focused,
     /// preview drawn); false when the finding suggests none.
@@ -110,7 +107,7 @@ public:
     /// The ledger file used for a drop.
     QString ledgerPathFor(const Drop& drop) const;
     /// The fit shown for the current region (nullptr when there is none).
-    const fit::FitResult* currentFit() const { return m_fit ? &*m_fit : nullptr; }
+    const fit::FitResult* currentFit() const;
 
 Q_SIGNALS:
     void dropOpened(const QString& path);
@@ -140,15 +137,11 @@ private:
     void showOpenProjectDialog();
     void showSaveProjectDialog();
     void saveProjectInPlace();
-    /// A project being opened: the file as read and its path.
-    struct OpeningProject {
-        QString path;
-        ProjectFile file;
-    };
-    void startOpening(const QString& dropPath, std::optional<OpeningProject> project);
-    /// The project's view and fit settings shown (region, measures, fit choices, visible days).
-    void restoreProjectView(const ProjectFile& project);
-    ProjectFile projectOfWindow(const QString& projectPath) const;
+    void startOpening(const QString& dropPath, std::optional<ProjectController::Opening> project);
+    /// The project's drop is open: its view shown, then its previous release read.
+    void showOpenedProject(const ProjectController::Opening& project);
+    void buildControllers();
+    void connectWidgets();
     void updateWindowTitle();
     QString askForDropFile(const QString& title);
     void rebuildRecentMenu();
@@ -158,15 +151,8 @@ private:
     void showError(const QString& title, const QString& message);
     void setBusy(widgets::BackgroundTask* task);
     void updateReleaseSummary();
-    /// Refits the current region; `compare` also runs the model comparison (slower).
-    void refit(bool compare);
-    void refitNow(bool compare);
-    void onFitWindowDragged(widgets::DayIndexRange window, bool finished);
     void onWindowDragged(widgets::DayIndexRange window, bool finished);
     void startScan();
-    void previewDecision();
-    void endDecision();
-    void beginDecision(const Decision& decision, const QString& title, const QString& reason);
     void focusPlotOn(const scan::Finding& finding);
 
     Options m_options;
@@ -181,11 +167,11 @@ private:
     widgets::DecisionPane* m_decisionPane;
     widgets::LedgerView* m_ledgerView;
     widgets::BatchFitView* m_batchView;
-    QPointer<widgets::BackgroundTask> m_batchTask;
-    double m_lastRefitMs = 0;
-    QUndoStack* m_undo;
+    FitController* m_fitControl;
+    DecisionController* m_decisionControl;
+    ProjectController* m_projectControl;
+    BatchController* m_batchControl;
     QPointer<widgets::BackgroundTask> m_scanTask;
-    std::optional<fit::FitResult> m_fit;
     QMenu* m_recentMenu = nullptr;
     QLabel* m_dropLabel;
     QLabel* m_taskLabel;
@@ -193,7 +179,6 @@ private:
     QPushButton* m_cancel;
     QPointer<widgets::BackgroundTask> m_task;
     QString m_currentRegion;
-    QString m_projectPath;
     bool m_layoutRestored = false;
 };
 

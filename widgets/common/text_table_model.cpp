@@ -5,7 +5,7 @@
 namespace siftwave::widgets {
 
 TextTableModel::TextTableModel(QStringList headers, QObject* parent)
-    : QAbstractTableModel(parent), m_headers(std::move(headers)) {}
+    : TitledTableModel(std::move(headers), parent) {}
 
 void TextTableModel::setRows(QVector<Row> rows) {
     beginResetModel();
@@ -21,10 +21,6 @@ QString TextTableModel::text(int row, int column) const {
 
 int TextTableModel::rowCount(const QModelIndex& parent) const {
     return parent.isValid() ? 0 : static_cast<int>(m_rows.size());
-}
-
-int TextTableModel::columnCount(const QModelIndex& parent) const {
-    return parent.isValid() ? 0 : static_cast<int>(m_headers.size());
 }
 
 QVariant TextTableModel::data(const QModelIndex& index, int role) const {
@@ -52,12 +48,6 @@ QVariant TextTableModel::data(const QModelIndex& index, int role) const {
                 return QVariant::fromValue(Qt::AlignRight | Qt::AlignVCenter);
             return {};
     }
-    return {};
-}
-
-QVariant TextTableModel::headerData(int section, Qt::Orientation orientation, int role) const {
-    if (orientation == Qt::Horizontal && role == Qt::DisplayRole)
-        return m_headers.value(section);
     return {};
 }
 

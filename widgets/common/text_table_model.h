@@ -4,7 +4,8 @@
 // comparison). The pane formats the core's numbers; the model only holds them
 // for the view. Numeric columns sort by the number stored in SortRole.
 
-#include <QAbstractTableModel>
+#include "widgets/common/titled_table_model.h"
+
 #include <QStringList>
 #include <QVariant>
 #include <QVector>
@@ -13,7 +14,7 @@
 
 namespace siftwave::widgets {
 
-class TextTableModel : public QAbstractTableModel {
+class TextTableModel : public TitledTableModel {
     Q_OBJECT
 
 public:
@@ -36,13 +37,9 @@ public:
     QString text(int row, int column) const;
 
     int rowCount(const QModelIndex& parent = {}) const override;
-    int columnCount(const QModelIndex& parent = {}) const override;
     QVariant data(const QModelIndex& index, int role = Qt::DisplayRole) const override;
-    QVariant headerData(int section, Qt::Orientation orientation,
-                        int role = Qt::DisplayRole) const override;
 
 private:
-    QStringList m_headers;
     QVector<Row> m_rows;
     QVector<int> m_textColumns;
 };

@@ -8,13 +8,12 @@
 namespace siftwave::widgets {
 
 FindingModel::FindingModel(Workbench* workbench, QObject* parent)
-    : QAbstractTableModel(parent), m_workbench(workbench) {
-    auto reset = [this] {
-        beginResetModel();
-        endResetModel();
-    };
-    connect(m_workbench, &Workbench::dropChanged, this, reset);
-    connect(m_workbench, &Workbench::findingsChanged, this, reset);
+    : TitledTableModel({tr("#"), tr("Severity"), tr("Kind"), tr("Region"), tr("Measure"),
+                        tr("Days"), tr("State")},
+                       parent),
+      m_workbench(workbench) {
+    connect(m_workbench, &Workbench::dropChanged, this, &FindingModel::resetRows);
+    connect(m_workbench, &Workbench::findingsChanged, this, &FindingModel::resetRows);
     connect(m_workbench, &Workbench::ledgerChanged, this, [this] {
         if (rowCount() > 0)
             Q_EMIT dataChanged(index(0, StateColumn), index(rowCount() - 1, StateColumn));
@@ -23,10 +22,6 @@ FindingModel::FindingModel(Workbench* workbench, QObject* parent)
 
 int FindingModel::rowCount(const QModelIndex& parent) const {
     return parent.isValid() ? 0 : static_cast<int>(m_workbench->findings().size());
-}
-
-int FindingModel::columnCount(const QModelIndex& parent) const {
-    return parent.isValid() ? 0 : ColumnCount;
 }
 
 int FindingModel::rowOf(const QString& id) const {
@@ -104,14 +99,6 @@ QVariant FindingModel::data(const QModelIndex& index, int role) const {
             return {};
     }
     return {};
-}
-
-QVariant FindingModel::headerData(int section, Qt::Orientation orientation, int role) const {
-    if (orientation != Qt::Horizontal || role != Qt::DisplayRole)
-        return {};
-    static const char* const names[] = {"#",       "Severity", "Kind", "Region",
-                                        "Measure", "Days",     "State"};
-    return section >= 0 && section < ColumnCount ? tr(names[section]) : QVariant();
 }
 
 }  // namespace siftwave::widgets

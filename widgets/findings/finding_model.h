@@ -2,13 +2,13 @@
 // FindingModel: the scan's findings, ranked, with whether a ledger entry answers them.
 // Columns: rank, severity, kind, region, measure, days, state.
 
-#include <QAbstractTableModel>
+#include "widgets/common/titled_table_model.h"
 
 namespace siftwave::widgets {
 
 class Workbench;
 
-class FindingModel : public QAbstractTableModel {
+class FindingModel : public TitledTableModel {
     Q_OBJECT
 
 public:
@@ -33,10 +33,7 @@ public:
     explicit FindingModel(Workbench* workbench, QObject* parent = nullptr);
 
     int rowCount(const QModelIndex& parent = {}) const override;
-    int columnCount(const QModelIndex& parent = {}) const override;
     QVariant data(const QModelIndex& index, int role = Qt::DisplayRole) const override;
-    QVariant headerData(int section, Qt::Orientation orientation,
-                        int role = Qt::DisplayRole) const override;
     /// Row of the finding with this id, or -1.
     int rowOf(const QString& id) const;
 

@@ -1,6 +1,7 @@
 #include "widgets/findings/finding_review.h"
 
 #include "widgets/common/compact_sort_header.h"
+#include "widgets/common/item_views.h"
 #include "widgets/findings/finding_model.h"
 
 #include <QComboBox>
@@ -65,17 +66,9 @@ FindingReview::FindingReview(FindingModel* model, QWidget* parent)
     m_view->setModel(m_proxy);
     m_view->setSortingEnabled(true);
     m_view->sortByColumn(FindingModel::RankColumn, Qt::AscendingOrder);
-    m_view->setSelectionBehavior(QAbstractItemView::SelectRows);
-    m_view->setSelectionMode(QAbstractItemView::SingleSelection);
-    m_view->setEditTriggers(QAbstractItemView::NoEditTriggers);
-    m_view->verticalHeader()->hide();
-    m_view->verticalHeader()->setDefaultSectionSize(m_view->fontMetrics().height() + 6);
-    m_view->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
-    // Sized from the first rows only: measuring every row of a big drop costs seconds.
-    m_view->horizontalHeader()->setResizeContentsPrecision(200);
+    setUpRecordTable(m_view);
     // No stretched last column: it would claim the default section size (100 px) for "open".
     m_view->horizontalHeader()->setStretchLastSection(false);
-    m_view->setAlternatingRowColors(true);
     m_decide->setObjectName(QStringLiteral("decideFinding"));
     m_decide->setToolTip(tr("Preview the suggested decision for the selected finding (Enter)"));
     m_next->setToolTip(tr("Go to the next open finding (N)"));
@@ -148,15 +141,9 @@ bool FindingReview::selectFinding(const QString& id) {
     const int row = m_model->rowOf(id);
     if (row < 0)
         return false;
-    QModelIndex proxy = m_proxy->mapFromSource(m_model->index(row, 0));
-    if (!proxy.isValid()) {  // filtered out: show everything
-        setFilters({}, {}, {});
-        proxy = m_proxy->mapFromSource(m_model->index(row, 0));
-    }
-    m_view->selectionModel()->setCurrentIndex(
-        proxy, QItemSelectionModel::ClearAndSelect | QItemSelectionModel::Rows);
-    m_view->scrollTo(proxy);
-    return true;
+    // Filtered out: show everything.
+    return selectThroughFilter(m_view, m_proxy, m_model->index(row, 0),
+                               [this] { setFilters({}, {}, {}); });
 }
 
 QString FindingReview::currentFinding() const {

@@ -1,6 +1,7 @@
 #include "widgets/findings/region_browser.h"
 
 #include "widgets/common/compact_sort_header.h"
+#include "widgets/common/item_views.h"
 #include "widgets/findings/region_model.h"
 
 #include <QHeaderView>
@@ -70,18 +71,9 @@ RegionBrowser::RegionBrowser(RegionModel* model, QWidget* parent)
 }
 
 bool RegionBrowser::selectRegion(const QString& code) {
-    const QModelIndex source = m_model->indexOfCode(code);
-    if (!source.isValid())
-        return false;
-    QModelIndex proxy = m_proxy->mapFromSource(source);
-    if (!proxy.isValid()) {  // hidden by the search: clear it so the selection is visible
-        m_search->clear();
-        proxy = m_proxy->mapFromSource(source);
-    }
-    m_view->scrollTo(proxy);
-    m_view->selectionModel()->setCurrentIndex(
-        proxy, QItemSelectionModel::ClearAndSelect | QItemSelectionModel::Rows);
-    return true;
+    // Hidden by the search: clear it so the selection is visible.
+    return selectThroughFilter(m_view, m_proxy, m_model->indexOfCode(code),
+                               [this] { m_search->clear(); });
 }
 
 QString RegionBrowser::currentRegion() const {

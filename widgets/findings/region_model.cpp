@@ -8,6 +8,7 @@
 #include <QLocale>
 #include <QPalette>
 
+#include <array>
 #include <unordered_map>
 
 namespace siftwave::widgets {
@@ -195,10 +196,6 @@ QVariant RegionModel::data(const QModelIndex& index, int role) const {
             return {};
         case SortRole:
             switch (index.column()) {
-                case CodeColumn:
-                    return node.code;
-                case NameColumn:
-                    return node.name;
                 case RawTotalColumn:
                     return inDrop ? node.rawTotal : -1;
                 case CleanedTotalColumn:
@@ -207,7 +204,7 @@ QVariant RegionModel::data(const QModelIndex& index, int role) const {
                 case OpenFindingsColumn:
                     return m_workbench->openFindings(node.code);
             }
-            return {};
+            return data(index, Qt::DisplayRole);  // code and name sort by what they show
         case Qt::TextAlignmentRole:
             if (index.column() >= RawTotalColumn)
                 return QVariant::fromValue(Qt::AlignRight | Qt::AlignVCenter);
@@ -238,37 +235,38 @@ QVariant RegionModel::data(const QModelIndex& index, int role) const {
     return {};
 }
 
+namespace {
+
+// Each column's title and the tooltip that says what it counts, in column order.
+struct ColumnHeader {
+    const char* title;
+    const char* toolTip;
+};
+constexpr std::array<ColumnHeader, RegionModel::ColumnCount> kColumnHeaders{{
+    {QT_TRANSLATE_NOOP("siftwave::widgets::RegionModel", "Code"),
+     QT_TRANSLATE_NOOP("siftwave::widgets::RegionModel",
+                       "Region code, exactly as written in the release")},
+    {QT_TRANSLATE_NOOP("siftwave::widgets::RegionModel", "Name"),
+     QT_TRANSLATE_NOOP("siftwave::widgets::RegionModel", "Name from the region register")},
+    {QT_TRANSLATE_NOOP("siftwave::widgets::RegionModel", "Raw"),
+     QT_TRANSLATE_NOOP("siftwave::widgets::RegionModel", "Total of the reported counts, as read")},
+    {QT_TRANSLATE_NOOP("siftwave::widgets::RegionModel", "Cleaned"),
+     QT_TRANSLATE_NOOP("siftwave::widgets::RegionModel",
+                       "Total after the ledger's decisions are replayed")},
+    {QT_TRANSLATE_NOOP("siftwave::widgets::RegionModel", "Open"),
+     QT_TRANSLATE_NOOP("siftwave::widgets::RegionModel", "Findings not yet decided")},
+}};
+
+}  // namespace
+
 QVariant RegionModel::headerData(int section, Qt::Orientation orientation, int role) const {
-    if (orientation != Qt::Horizontal)
+    if (orientation != Qt::Horizontal || section < 0 || section >= ColumnCount)
         return {};
-    if (role == Qt::DisplayRole) {
-        switch (section) {
-            case CodeColumn:
-                return tr("Code");
-            case NameColumn:
-                return tr("Name");
-            case RawTotalColumn:
-                return tr("Raw");
-            case CleanedTotalColumn:
-                return tr("Cleaned");
-            case OpenFindingsColumn:
-                return tr("Open");
-        }
-    }
-    if (role == Qt::ToolTipRole) {
-        switch (section) {
-            case CodeColumn:
-                return tr("Region code, exactly as written in the release");
-            case NameColumn:
-                return tr("Name from the region register");
-            case RawTotalColumn:
-                return tr("Total of the reported counts, as read");
-            case CleanedTotalColumn:
-                return tr("Total after the ledger's decisions are replayed");
-            case OpenFindingsColumn:
-                return tr("Findings not yet decided");
-        }
-    }
+    const ColumnHeader& header = kColumnHeaders[static_cast<std::size_t>(section)];
+    if (role == Qt::DisplayRole)
+        return tr(header.title);
+    if (role == Qt::ToolTipRole)
+        return tr(header.toolTip);
     return {};
 }
 

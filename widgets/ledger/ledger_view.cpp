@@ -1,5 +1,6 @@
 #include "widgets/ledger/ledger_view.h"
 
+#include "widgets/common/item_views.h"
 #include "widgets/common/workbench.h"
 
 #include "siftwave/ledger/decision_kinds.h"
@@ -19,21 +20,16 @@
 namespace siftwave::widgets {
 
 LedgerModel::LedgerModel(Workbench* workbench, QObject* parent)
-    : QAbstractTableModel(parent), m_workbench(workbench) {
-    auto reset = [this] {
-        beginResetModel();
-        endResetModel();
-    };
-    connect(m_workbench, &Workbench::dropChanged, this, reset);
-    connect(m_workbench, &Workbench::ledgerChanged, this, reset);
+    : TitledTableModel({tr("#"), tr("Time (UTC)"), tr("Author"), tr("Decision"), tr("Where"),
+                        tr("Moved"), tr("Reason"), tr("State")},
+                       parent),
+      m_workbench(workbench) {
+    connect(m_workbench, &Workbench::dropChanged, this, &LedgerModel::resetRows);
+    connect(m_workbench, &Workbench::ledgerChanged, this, &LedgerModel::resetRows);
 }
 
 int LedgerModel::rowCount(const QModelIndex& parent) const {
     return parent.isValid() ? 0 : static_cast<int>(m_workbench->ledger().entries.size());
-}
-
-int LedgerModel::columnCount(const QModelIndex& parent) const {
-    return parent.isValid() ? 0 : ColumnCount;
 }
 
 QVariant LedgerModel::data(const QModelIndex& index, int role) const {
@@ -90,14 +86,6 @@ QVariant LedgerModel::data(const QModelIndex& index, int role) const {
     return {};
 }
 
-QVariant LedgerModel::headerData(int section, Qt::Orientation orientation, int role) const {
-    if (orientation != Qt::Horizontal || role != Qt::DisplayRole)
-        return {};
-    static const char* const names[] = {"#",     "Time (UTC)", "Author", "Decision",
-                                        "Where", "Moved",      "Reason", "State"};
-    return section >= 0 && section < ColumnCount ? tr(names[section]) : QVariant();
-}
-
 LedgerView::LedgerView(Workbench* workbench, QWidget* parent)
     : QWidget(parent),
       m_workbench(workbench),
@@ -112,17 +100,9 @@ LedgerView::LedgerView(Workbench* workbench, QWidget* parent)
     m_status->setSizePolicy(QSizePolicy::Ignored, QSizePolicy::Preferred);
     m_view->setObjectName(QStringLiteral("ledgerTable"));
     m_view->setModel(m_model);
-    m_view->setSelectionBehavior(QAbstractItemView::SelectRows);
-    m_view->setSelectionMode(QAbstractItemView::SingleSelection);
-    m_view->setEditTriggers(QAbstractItemView::NoEditTriggers);
-    m_view->verticalHeader()->hide();
-    m_view->verticalHeader()->setDefaultSectionSize(m_view->fontMetrics().height() + 6);
-    m_view->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
-    // Sized from the first rows only: measuring every row of a long ledger costs seconds.
-    m_view->horizontalHeader()->setResizeContentsPrecision(200);
+    setUpRecordTable(m_view);
     m_view->horizontalHeader()->setSectionResizeMode(LedgerModel::ReasonColumn,
                                                      QHeaderView::Stretch);
-    m_view->setAlternatingRowColors(true);
     m_withdraw->setObjectName(QStringLiteral("withdrawEntry"));
     m_withdraw->setToolTip(tr("Append a withdrawal of the selected entry (history is kept)"));
 

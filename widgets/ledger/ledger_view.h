@@ -3,7 +3,8 @@
 // reason, the totals they moved, in effect or withdrawn); LedgerView shows them
 // with the chain verification status always visible and a Withdraw action.
 
-#include <QAbstractTableModel>
+#include "widgets/common/titled_table_model.h"
+
 #include <QWidget>
 
 #include <cstdint>
@@ -16,7 +17,7 @@ namespace siftwave::widgets {
 
 class Workbench;
 
-class LedgerModel : public QAbstractTableModel {
+class LedgerModel : public TitledTableModel {
     Q_OBJECT
 
 public:
@@ -35,10 +36,7 @@ public:
 
     explicit LedgerModel(Workbench* workbench, QObject* parent = nullptr);
     int rowCount(const QModelIndex& parent = {}) const override;
-    int columnCount(const QModelIndex& parent = {}) const override;
     QVariant data(const QModelIndex& index, int role = Qt::DisplayRole) const override;
-    QVariant headerData(int section, Qt::Orientation orientation,
-                        int role = Qt::DisplayRole) const override;
 
 private:
     Workbench* m_workbench;

@@ -1,6 +1,4 @@
-// MainWindow: decisions — from a finding or a bar picked on the plot, previewed in the
-// decision pane, applied through the undo stack (Workbench::apply(), the one door), withdrawn.
-#include "main_window.h"
+#include "decision_controller.h"
 
 #include "decision_command.h"
 
@@ -12,17 +10,35 @@
 #include "siftwave/scan/backlog.h"
 #include "siftwave/scan/suggested_decision.h"
 
-#include <QDockWidget>
 #include <QInputDialog>
 #include <QLineEdit>
 #include <QUndoStack>
+#include <QWidget>
 
 #include <cmath>
 #include <limits>
 
 namespace siftwave::gui {
 
-bool MainWindow::decideFinding(const QString& id) {
+DecisionController::DecisionController(widgets::Workbench* workbench, widgets::SeriesPlot* plot,
+                                       widgets::DecisionPane* pane, bool dialogs, QWidget* window)
+    : QObject(window),
+      m_workbench(workbench),
+      m_plot(plot),
+      m_pane(pane),
+      m_dialogs(dialogs),
+      m_window(window),
+      m_undo(new QUndoStack(this)) {
+    connect(m_pane, &widgets::DecisionPane::decisionEdited, this, &DecisionController::preview);
+    connect(m_pane, &widgets::DecisionPane::applyRequested, this, &DecisionController::apply);
+    connect(m_pane, &widgets::DecisionPane::cancelled, this, &DecisionController::end);
+}
+
+bool DecisionController::isActive() const {
+    return m_pane->isActive();
+}
+
+bool DecisionController::decideFinding(const QString& id) {
     const scan::Finding* finding = m_workbench->finding(id);
     if (!finding || !m_workbench->hasDrop())
         return false;
@@ -30,31 +46,31 @@ bool MainWindow::decideFinding(const QString& id) {
         m_workbench->drop().measures.at(static_cast<std::size_t>(m_plot->measure()));
     Result<Decision> decision = scan::suggestedDecision(*finding, measure);
     if (!decision) {
-        showError(tr("No decision to prepare"), widgets::describeError(decision.error()));
+        Q_EMIT errorOccurred(tr("No decision to prepare"),
+                             widgets::describeError(decision.error()));
         return false;
     }
-    focusPlotOn(*finding);
-    beginDecision(*decision,
-                  tr("<b>%1</b> for %2 — finding %3")
-                      .arg(QString::fromLatin1(decisionKindName(decision->kind)),
-                           QString::fromStdString(decision->region), id),
-                  widgets::reasonDraftFor(*finding, *decision));
+    Q_EMIT focusRequested(*finding);
+    begin(*decision,
+          tr("<b>%1</b> for %2 — finding %3")
+              .arg(QString::fromLatin1(decisionKindName(decision->kind)),
+                   QString::fromStdString(decision->region), id),
+          widgets::reasonDraftFor(*finding, *decision));
     return true;
 }
 
-void MainWindow::beginDecision(const Decision& decision, const QString& title,
+void DecisionController::begin(const Decision& decision, const QString& title,
                                const QString& reason) {
-    m_decisionPane->setCalendar(m_workbench->drop().axis);
-    m_decisionPane->begin(decision, title, reason);
+    m_pane->setCalendar(m_workbench->drop().axis);
+    m_pane->begin(decision, title, reason);
     m_plot->setDayPickingEnabled(false);
-    if (auto* dock = findChild<QDockWidget*>(QStringLiteral("decisionDock")))
-        dock->raise();
-    previewDecision();
+    Q_EMIT decisionStarted();
+    preview();
 }
 
-bool MainWindow::decideDay(int day) {
+bool DecisionController::decideDay(int day) {
     const widgets::SeriesView& view = m_plot->view();
-    if (!m_workbench->hasDrop() || m_decisionPane->isActive() || view.empty() || day < 0 ||
+    if (!m_workbench->hasDrop() || m_pane->isActive() || view.empty() || day < 0 ||
         day >= view.periods())
         return false;
     const Date date = view.periodStart(day);
@@ -66,16 +82,18 @@ bool MainWindow::decideDay(int day) {
             (!f.measure || *f.measure == measure) && !m_workbench->isDecided(f.id))
             return decideFinding(QString::fromStdString(f.id));
     if (day >= static_cast<int>(view.raw.size()) || std::isnan(view.raw[day])) {
-        showError(tr("Nothing to redistribute"),
-                  tr("%1 has no reported %2 on %3.")
-                      .arg(view.regionCode, view.measure, QString::fromStdString(date.iso())));
+        Q_EMIT errorOccurred(
+            tr("Nothing to redistribute"),
+            tr("%1 has no reported %2 on %3.")
+                .arg(view.regionCode, view.measure, QString::fromStdString(date.iso())));
         return false;
     }
     if (day == 0) {
-        showError(tr("Nothing to redistribute"),
-                  tr("%1 is the first day of the release: there are no earlier days to move "
-                     "counts to.")
-                      .arg(QString::fromStdString(date.iso())));
+        Q_EMIT errorOccurred(
+            tr("Nothing to redistribute"),
+            tr("%1 is the first day of the release: there are no earlier days to move "
+               "counts to.")
+                .arg(QString::fromStdString(date.iso())));
         return false;
     }
     Decision decision;
@@ -100,22 +118,21 @@ bool MainWindow::decideDay(int day) {
     // As from a finding: the window and the day in view, with three weeks either side.
     m_plot->focusOn(
         widgets::DayIndexRange{decision.window->first - view.axis.first() - 21, day + 21});
-    beginDecision(
-        decision,
-        tr("<b>redistribute</b> for %1 — %2 picked on the plot")
-            .arg(view.regionCode, QString::fromStdString(date.iso())),
-        widgets::reasonDraftForPickedDay(
-            decision, static_cast<std::int64_t>(view.raw[day]), estimate ? &*estimate : nullptr,
-            estimate ? QString() : widgets::describeError(estimate.error())));
+    begin(decision,
+          tr("<b>redistribute</b> for %1 — %2 picked on the plot")
+              .arg(view.regionCode, QString::fromStdString(date.iso())),
+          widgets::reasonDraftForPickedDay(
+              decision, static_cast<std::int64_t>(view.raw[day]), estimate ? &*estimate : nullptr,
+              estimate ? QString() : widgets::describeError(estimate.error())));
     return true;
 }
 
-void MainWindow::previewDecision() {
-    if (!m_decisionPane->isActive())
+void DecisionController::preview() {
+    if (!m_pane->isActive())
         return;
-    const Decision decision = m_decisionPane->decision();
+    const Decision decision = m_pane->decision();
     const Result<Effect> effect = m_workbench->preview(decision);
-    m_decisionPane->showPreview(effect);
+    m_pane->showPreview(effect);
     // Draw the cells of the shown region and measure as they would be after.
     std::vector<double> values;
     if (effect) {
@@ -132,37 +149,35 @@ void MainWindow::previewDecision() {
         }
     }
     m_plot->setPreview(values, tr("Preview: after the decision"));
-    if (const auto window = m_decisionPane->window())
+    if (const auto window = m_pane->window())
         m_plot->setEditableWindow(*window);
 }
 
-bool MainWindow::applyCurrentDecision() {
-    if (!m_decisionPane->isActive())
+bool DecisionController::apply() {
+    if (!m_pane->isActive())
         return false;
-    if (m_decisionPane->reason().isEmpty() || !m_decisionPane->previewOk())
+    if (m_pane->reason().isEmpty() || !m_pane->previewOk())
         return false;
     const std::uint64_t before = m_workbench->ledger().entries.size();
     bool failed = false;
-    m_undo->push(
-        new ApplyDecisionCommand(m_workbench, m_decisionPane->decision(), m_decisionPane->reason(),
-                                 [this, &failed](const QString& message) {
-                                     failed = true;
-                                     showError(tr("The ledger refused the decision"), message);
-                                 }));
+    m_undo->push(new ApplyDecisionCommand(
+        m_workbench, m_pane->decision(), m_pane->reason(), [this, &failed](const QString& message) {
+            failed = true;
+            Q_EMIT errorOccurred(tr("The ledger refused the decision"), message);
+        }));
     if (failed || m_workbench->ledger().entries.size() == before)
         return false;
-    m_decisionPane->clear();
-    endDecision();
+    discard();
     return true;
 }
 
-bool MainWindow::withdrawEntry(std::uint64_t sequence, QString reason) {
+bool DecisionController::withdraw(std::uint64_t sequence, QString reason) {
     if (reason.trimmed().isEmpty()) {
-        if (!m_options.dialogs)
+        if (!m_dialogs)
             return false;
         bool ok = false;
         reason = QInputDialog::getText(
-            this, tr("Withdraw entry %1").arg(sequence),
+            m_window, tr("Withdraw entry %1").arg(sequence),
             tr("Why is entry %1 withdrawn? (required, kept in the ledger)").arg(sequence),
             QLineEdit::Normal, QString(), &ok);
         if (!ok || reason.trimmed().isEmpty())
@@ -170,16 +185,27 @@ bool MainWindow::withdrawEntry(std::uint64_t sequence, QString reason) {
     }
     const Result<std::uint64_t> result = m_workbench->withdraw(sequence, reason);
     if (!result) {
-        showError(tr("The entry cannot be withdrawn"), widgets::describeError(result.error()));
+        Q_EMIT errorOccurred(tr("The entry cannot be withdrawn"),
+                             widgets::describeError(result.error()));
         return false;
     }
     return true;
 }
 
-void MainWindow::endDecision() {
-    m_plot->setDayPickingEnabled(!m_decisionPane->isActive());
+void DecisionController::discard() {
+    m_pane->clear();
+    end();
+}
+
+void DecisionController::reset() {
+    m_undo->clear();
+    m_pane->clear();
+}
+
+void DecisionController::end() {
+    m_plot->setDayPickingEnabled(!m_pane->isActive());
     m_plot->setPreview({});
-    redrawSeries();
+    Q_EMIT decisionEnded();
 }
 
 }  // namespace siftwave::gui

@@ -1,6 +1,4 @@
-// MainWindow: fitting every region in the background (widgets/fit/batch_fit.h), shown in the
-// "All regions" dock; the status bar's progress bar and Cancel follow it.
-#include "main_window.h"
+#include "batch_controller.h"
 
 #include "widgets/common/text_table_model.h"
 #include "widgets/common/workbench.h"
@@ -9,8 +7,6 @@
 #include "widgets/plot/series_plot.h"
 #include "widgets/plot/series_view.h"
 
-#include <QDockWidget>
-
 #include <map>
 #include <string>
 
@@ -18,11 +14,27 @@ namespace siftwave::gui {
 
 using widgets::BackgroundTask;
 
-void MainWindow::startBatchFit() {
+BatchController::BatchController(widgets::Workbench* workbench, widgets::SeriesPlot* plot,
+                                 widgets::FitPane* pane, widgets::BatchFitView* view,
+                                 QObject* parent)
+    : QObject(parent), m_workbench(workbench), m_plot(plot), m_pane(pane), m_view(view) {
+    connect(m_view, &widgets::BatchFitView::runRequested, this, &BatchController::start);
+    connect(m_workbench, &widgets::Workbench::ledgerChanged, m_view,
+            [this] { m_view->setStale(tr("the ledger changed the cleaned counts since")); });
+    connect(m_workbench, &widgets::Workbench::dropChanged, m_view, [this] {
+        if (m_task)
+            m_task->cancel();
+        m_view->clear(m_workbench->hasDrop() ? tr("Not run yet.") : tr("No drop open."));
+    });
+    connect(m_plot, &widgets::SeriesPlot::measureChosen, m_view,
+            [this](int) { m_view->setStale(tr("another measure is shown now")); });
+}
+
+void BatchController::start() {
     if (!m_workbench->hasDrop())
         return;
-    if (m_batchTask)
-        m_batchTask->cancel();
+    if (m_task)
+        m_task->cancel();
     const Drop& drop = m_workbench->drop();
     const int measure = m_plot->measure();
     widgets::BatchFitRequest request;
@@ -38,10 +50,10 @@ void MainWindow::startBatchFit() {
             if (const RegionEntry* entry = reg->find(code))
                 names[code] = entry->name;
     }
-    fit::FitOptions options = m_fitPane->options();
+    fit::FitOptions options = m_pane->options();
     options.window.reset();  // each region its own wave
     request.options.fit = options;
-    request.options.bestModel = m_fitPane->bestModelWanted();
+    request.options.bestModel = m_pane->bestModelWanted();
     const QString what =
         tr("%1, %2, %3 (automatic windows)")
             .arg(request.options.bestModel ? tr("lowest AICc")
@@ -49,8 +61,8 @@ void MainWindow::startBatchFit() {
                  widgets::methodDisplayName(options.method),
                  QString::fromStdString(drop.measures.at(static_cast<std::size_t>(measure))));
     const std::string sha = drop.source.sha256;
-    m_batchView->setRunning(true);
-    m_batchTask = BackgroundTask::start(
+    m_view->setRunning(true);
+    m_task = BackgroundTask::start(
         this, tr("Fitting every region"),
         [request = std::move(request)](BackgroundTask::Progress& progress) {
             return widgets::runBatchFit(request, progress);
@@ -58,19 +70,17 @@ void MainWindow::startBatchFit() {
         [this, sha, what, names](const widgets::BatchFitOutcome& outcome) {
             if (!m_workbench->hasDrop() || m_workbench->drop().source.sha256 != sha)
                 return;
-            m_batchView->setOutcome(outcome, names, what);
-            Q_EMIT batchFitFinished();
+            m_view->setOutcome(outcome, names, what);
+            Q_EMIT finished();
         });
-    connect(m_batchTask, &BackgroundTask::finished, m_batchView, [this, task = m_batchTask.data()] {
-        if (m_batchTask == task)
-            m_batchTask.clear();
-        m_batchView->setRunning(false);
-        if (m_batchView->table()->rowCount() == 0 && m_workbench->hasDrop())
-            m_batchView->clear(tr("Cancelled."));
+    connect(m_task, &BackgroundTask::finished, m_view, [this, task = m_task.data()] {
+        if (m_task == task)
+            m_task.clear();
+        m_view->setRunning(false);
+        if (m_view->table()->rowCount() == 0 && m_workbench->hasDrop())
+            m_view->clear(tr("Cancelled."));
     });
-    if (auto* dock = findChild<QDockWidget*>(QStringLiteral("batchFitDock")))
-        dock->raise();
-    setBusy(m_batchTask);
+    Q_EMIT started(m_task);
 }
 
 }  // namespace siftwave::gui
