@@ -1,6 +1,8 @@
 // One-line descriptions of findings, from their evidence.
 #include "siftwave/scan/finding.h"
 
+#include <nlohmann/json.hpp>
+
 #include <cmath>
 #include <cstdio>
 
@@ -40,7 +42,7 @@ std::string periods(const nlohmann::json& e, const char* periodsKey, const char*
 }  // namespace
 
 std::string describeFinding(const Finding& f) {
-    const nlohmann::json& e = f.evidence;
+    const nlohmann::json& e = f.evidence.json();
     const bool weekly = f.cadence == Cadence::Weekly;
     const std::string unit = weekly ? "week" : "day";
     const std::string units = weekly ? "weeks" : "days";

@@ -54,15 +54,14 @@ void findNegativeCounts(const ScanInput& in, std::vector<Finding>& out) {
                               {"earlier_periods", t - from},
                               {"region_total", total}};
                 if (t > from) {
-                    f.suggestion = {{"decision", "spread_negative"},
-                                    {"date", drop.periodStart(t).iso()},
-                                    {"window_first", drop.periodStart(from).iso()},
-                                    {"window_last", drop.periodStart(t - 1).iso()},
-                                    {"absorbable", absorbable}};
+                    Decision s = suggestionFor(f, DecisionKind::SpreadNegative);
+                    s.date = drop.periodStart(t);
+                    s.window = DayRange{drop.periodStart(from), drop.periodStart(t - 1)};
+                    f.suggestion = std::move(s);
+                    f.suggestionNotes.absorbable = absorbable;
                 } else {
-                    f.suggestion = {{"decision", "accept"},
-                                    {"note", std::string("no earlier ") + drop.axis.unitPlural() +
-                                                 " in the drop to absorb it"}};
+                    suggestAccept(f, std::string("no earlier ") + drop.axis.unitPlural() +
+                                         " in the drop to absorb it");
                 }
                 out.push_back(std::move(f));
             }

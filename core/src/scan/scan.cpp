@@ -127,6 +127,8 @@ Result<ScanReport> scanDrop(const Drop& drop, const ScanOptions& options,
         if (n > 1)
             id += "-" + std::to_string(n);
         f.id = std::move(id);
+        if (f.suggestion)
+            f.suggestion->finding = f.id;
     }
 
     for (FindingKind kind : kAllFindingKinds)
