@@ -107,6 +107,18 @@ double estimateOverdispersion(const Drop& drop, std::size_t measure, int firstWe
 /// The w above for the drop's cadence.
 int overdispersionWidth(const TimeAxis& axis);
 
+/// Calls visit(m, r, cells) for every region's series of every measure that is not
+/// cumulative (a cumulative measure's decreases are cumulative_decrease's).
+template <typename Visit>
+void forEachCountSeries(const ScanInput& in, Visit&& visit) {
+    for (std::size_t m = 0; m < in.drop.measures.size(); ++m) {
+        if (in.measures[m].cumulative)
+            continue;
+        for (std::size_t r = 0; r < in.drop.regionCodes.size(); ++r)
+            visit(m, r, in.drop.series(m, r));
+    }
+}
+
 /// A finding with kind, severity, region (by index) and measure (by index) filled in.
 Finding makeFinding(const ScanInput& in, FindingKind kind, Severity severity,
                     std::optional<std::size_t> region, std::optional<std::size_t> measure);
