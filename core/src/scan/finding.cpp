@@ -1,5 +1,7 @@
 #include "siftwave/scan/finding.h"
 
+#include "scan/finding_kinds.h"
+
 #include <nlohmann/json.hpp>
 
 #include <cassert>
@@ -70,35 +72,7 @@ std::string Evidence::dump() const {
 }
 
 const char* findingKindName(FindingKind kind) {
-    switch (kind) {
-        case FindingKind::MissingDates:
-            return "missing_dates";
-        case FindingKind::DuplicateRow:
-            return "duplicate_row";
-        case FindingKind::NegativeCount:
-            return "negative_count";
-        case FindingKind::BacklogDump:
-            return "backlog_dump";
-        case FindingKind::ReportingGap:
-            return "reporting_gap";
-        case FindingKind::StaleValues:
-            return "stale_values";
-        case FindingKind::CodeCollision:
-            return "code_collision";
-        case FindingKind::CodeVariant:
-            return "code_variant";
-        case FindingKind::UnknownCode:
-            return "unknown_code";
-        case FindingKind::WeekdayEffect:
-            return "weekday_effect";
-        case FindingKind::CumulativeDecrease:
-            return "cumulative_decrease";
-        case FindingKind::HierarchyMismatch:
-            return "hierarchy_mismatch";
-        case FindingKind::Revision:
-            return "revision";
-    }
-    return "missing_dates";
+    return detail::descriptorOf(kind).name;
 }
 
 std::optional<FindingKind> findingKindFromName(std::string_view name) {
