@@ -41,8 +41,10 @@ nlohmann::json& Evidence::operator[](const std::string& key) {
 }
 
 const nlohmann::json& Evidence::operator[](const std::string& key) const {
+    static const nlohmann::json absent;  // null
     assert(contains(key));
-    return json().find(key).value();
+    const auto it = json().find(key);
+    return it == json().end() ? absent : *it;
 }
 
 const nlohmann::json& Evidence::json() const {

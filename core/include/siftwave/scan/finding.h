@@ -92,7 +92,7 @@ public:
     Evidence& operator=(nlohmann::json object);
     /// One value, added (null) when absent.
     nlohmann::json& operator[](const std::string& key);
-    /// One value that must be there (an assertion otherwise).
+    /// One value that must be there (an assertion; null in a release build).
     const nlohmann::json& operator[](const std::string& key) const;
 
     /// The object itself ({} when nothing was written).
