@@ -222,4 +222,18 @@ CommandLine parseCommandLine(int argc, char** argv, int first, const std::vector
     return line;
 }
 
+CommandLine parseOneFileCommandLine(int argc, char** argv, int first,
+                                    const std::vector<FlagSpec>& specs, const std::string& usage,
+                                    const std::string& command) {
+    CommandLine line = parseCommandLine(argc, argv, first, specs, usage);
+    if (line.args && line.args->positional.size() != 1) {
+        line.exitCode =
+            usageError(line.args->positional.empty() ? command + " needs a FILE to read"
+                                                     : command + " reads one FILE at a time",
+                       line.json, usage);
+        line.args.reset();
+    }
+    return line;
+}
+
 }  // namespace siftwave::cli

@@ -76,4 +76,10 @@ struct CommandLine {
 CommandLine parseCommandLine(int argc, char** argv, int first, const std::vector<FlagSpec>& specs,
                              const std::string& usage);
 
+/// parseCommandLine() for a command that reads exactly one FILE (inspect, scan): a usage
+/// error "<command> needs a FILE to read" / "<command> reads one FILE at a time" otherwise.
+CommandLine parseOneFileCommandLine(int argc, char** argv, int first,
+                                    const std::vector<FlagSpec>& specs, const std::string& usage,
+                                    const std::string& command);
+
 }  // namespace siftwave::cli

@@ -8,7 +8,7 @@
 #include "siftwave/ledger/decision_kinds.h"
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/replay.h"
-#include "siftwave/scan/backlog.h"
+#include "siftwave/scan/propose.h"
 
 #include <algorithm>
 #include <cstdio>
@@ -394,28 +394,34 @@ void printAutoExcessNote(const Decision& d, bool windowGiven) {
 Status resolveAutoExcess(const Drop& drop, Decision& d, bool windowGiven) {
     if (d.region.empty() || d.measure.empty() || !d.date)
         return makeError(ErrorCode::Usage, "--excess auto needs --region, --measure and --date");
-    Result<scan::BacklogEstimate> estimate =
-        scan::estimateBacklog(drop, d.measure, d.region, *d.date);
-    if (!estimate) {
-        Error e = estimate.error();
+    // The GUI's rule for a picked bar (scan/propose.h). No findings are passed: decide does
+    // not run the scan, and a backlog_dump's suggestion is this same estimate.
+    scan::ProposalRequest request;
+    request.region = d.region;
+    request.measure = d.measure;
+    request.day = *d.date;
+    Result<scan::Proposal> proposal = scan::proposeDecision(drop, request);
+    if (!proposal || proposal->noEstimate) {
+        Error e = proposal ? *proposal->noEstimate : proposal.error();
         e.message = "the scan cannot estimate an excess for this " +
                     std::string(drop.axis.unitName()) + ": " + e.message;
         return e;
     }
-    if (estimate->excess <= 0) {
+    const scan::BacklogEstimate& estimate = *proposal->estimate;
+    if (estimate.excess <= 0) {
         Error e =
             makeError(ErrorCode::InvalidValue,
                       "the scan estimates no excess for this " + std::string(drop.axis.unitName()) +
-                          " (observed " + std::to_string(estimate->observed) + ", expected about " +
-                          std::to_string(static_cast<long long>(estimate->expected + 0.5)) +
+                          " (observed " + std::to_string(estimate.observed) + ", expected about " +
+                          std::to_string(static_cast<long long>(estimate.expected + 0.5)) +
                           "); give --excess N to move counts anyway");
         e.region = d.region;
         e.date = d.date->iso();
         return e;
     }
-    d.excess = estimate->excess;
+    d.excess = proposal->decision.excess;
     if (!windowGiven)
-        d.window = DayRange{estimate->windowFirst, estimate->windowLast};
+        d.window = proposal->decision.window;
     return Ok{};
 }
 

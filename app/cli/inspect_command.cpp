@@ -72,11 +72,14 @@ nlohmann::json inspectJson(const Drop& drop) {
     // The calendar: first_date and last_date are the first days of the first and last periods.
     const TimeAxis& axis = drop.axis;
     j["cadence"] = cadenceName(axis.cadence());
-    j["week_start"] = axis.weekly() ? nlohmann::json(weekStartName(axis.weekStart())) : nlohmann::json(nullptr);
-    j["week_date"] = axis.weekly() ? nlohmann::json(weekDateName(axis.weekDate())) : nlohmann::json(nullptr);
+    j["week_start"] =
+        axis.weekly() ? nlohmann::json(weekStartName(axis.weekStart())) : nlohmann::json(nullptr);
+    j["week_date"] =
+        axis.weekly() ? nlohmann::json(weekDateName(axis.weekDate())) : nlohmann::json(nullptr);
     j["periods"] = axis.periods();
     j["first_date"] = axis.empty() ? nlohmann::json(nullptr) : nlohmann::json(axis.first().iso());
-    j["last_date"] = axis.empty() ? nlohmann::json(nullptr) : nlohmann::json(axis.lastStart().iso());
+    j["last_date"] =
+        axis.empty() ? nlohmann::json(nullptr) : nlohmann::json(axis.lastStart().iso());
     j["days"] = axis.spanDays();
     j["cells"] = {{"reported", counts.reported},
                   {"absent", counts.absent},
@@ -156,7 +159,8 @@ void printText(const Drop& drop) {
 
 std::string usageText(const std::vector<FlagSpec>& specs) {
     return "usage: siftwave-cli inspect FILE [ingest flags] [--json]\n\n"
-           "Reads a data drop (CSV) and reports what was read: the dialect, the layout, the columns\n"
+           "Reads a data drop (CSV) and reports what was read: the dialect, the layout, the "
+           "columns\n"
            "used, the regions (codes exactly as written), the calendar, the cells by state, "
            "duplicate\n"
            "rows and warnings. Exit codes: 0 read, 1 the file cannot be read as a drop, 2 wrong "
@@ -172,16 +176,11 @@ int runInspect(int argc, char** argv, int first) {
     specs.push_back({"json", false, false, "", "print JSON instead of text"});
     specs.push_back({"help", false, false, "", "show this help"});
     const std::string usage = usageText(specs);
-    CommandLine line = parseCommandLine(argc, argv, first, specs, usage);
+    CommandLine line = parseOneFileCommandLine(argc, argv, first, specs, usage, "inspect");
     if (!line.args)
         return line.exitCode;
     const ParsedArgs* args = &*line.args;
     const bool json = line.json;
-    if (args->positional.size() != 1) {
-        return usageError(args->positional.empty() ? "inspect needs a FILE to read"
-                                                   : "inspect reads one FILE at a time",
-                          json, usage);
-    }
     Result<IngestOptions> options = ingestOptionsFrom(*args);
     if (!options) {
         printError(options.error(), json);

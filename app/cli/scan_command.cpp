@@ -94,16 +94,11 @@ int runScan(int argc, char** argv, int first) {
     specs.push_back({"json", false, false, "", "print JSON instead of a table"});
     specs.push_back({"help", false, false, "", "show this help and the scan settings"});
     const std::string usage = usageText(specs);
-    CommandLine line = parseCommandLine(argc, argv, first, specs, usage);
+    CommandLine line = parseOneFileCommandLine(argc, argv, first, specs, usage, "scan");
     if (!line.args)
         return line.exitCode;
     const ParsedArgs* args = &*line.args;
     const bool json = line.json;
-    if (args->positional.size() != 1) {
-        return usageError(args->positional.empty() ? "scan needs a FILE to read"
-                                                   : "scan reads one FILE at a time",
-                          json, usage);
-    }
     scan::ScanOptions options;
     for (const std::string& setting : args->values("set")) {
         const std::size_t eq = setting.find('=');

@@ -7,7 +7,7 @@
 #include "widgets/ledger/decision_pane.h"
 #include "widgets/plot/series_plot.h"
 
-#include "siftwave/scan/backlog.h"
+#include "siftwave/scan/propose.h"
 #include "siftwave/scan/suggested_decision.h"
 
 #include <QInputDialog>
@@ -74,47 +74,27 @@ bool DecisionController::decideDay(int day) {
         day >= view.periods())
         return false;
     const Date date = view.periodStart(day);
-    const std::string region = view.regionCode.toStdString();
-    const std::string measure = view.measure.toStdString();
-    // A backlog the scan found on that day is decided exactly as from the finding list.
+    // One rule for a picked cell, shared with `decide --excess auto` (scan/propose.h): the
+    // scan's own suggestion when it flagged the cell, else its backlog estimate.
+    std::vector<scan::Finding> open;
     for (const scan::Finding& f : m_workbench->findings())
-        if (f.kind == scan::FindingKind::BacklogDump && f.region == region && f.first == date &&
-            (!f.measure || *f.measure == measure) && !m_workbench->isDecided(f.id))
-            return decideFinding(QString::fromStdString(f.id));
-    if (day >= static_cast<int>(view.raw.size()) || std::isnan(view.raw[day])) {
-        Q_EMIT errorOccurred(
-            tr("Nothing to redistribute"),
-            tr("%1 has no reported %2 on %3.")
-                .arg(view.regionCode, view.measure, QString::fromStdString(date.iso())));
+        if (!m_workbench->isDecided(f.id))
+            open.push_back(f);
+    scan::ProposalRequest request;
+    request.region = view.regionCode.toStdString();
+    request.measure = view.measure.toStdString();
+    request.day = date;
+    request.findings = open;
+    const Result<scan::Proposal> proposal = scan::proposeDecision(m_workbench->drop(), request);
+    if (!proposal) {
+        Q_EMIT errorOccurred(tr("Nothing to redistribute"),
+                             widgets::describeError(proposal.error()));
         return false;
     }
-    if (day == 0) {
-        Q_EMIT errorOccurred(
-            tr("Nothing to redistribute"),
-            tr("%1 is the first day of the release: there are no earlier days to move "
-               "counts to.")
-                .arg(QString::fromStdString(date.iso())));
-        return false;
-    }
-    Decision decision;
-    decision.kind = DecisionKind::Redistribute;
-    decision.region = region;
-    decision.measure = measure;
-    decision.date = date;
-    // The same estimate the scan's backlog detector makes (scan/backlog.h), with the scan's
-    // default options, so a picked day and a found one get the same proposal.
-    const Result<scan::BacklogEstimate> estimate =
-        scan::estimateBacklog(m_workbench->drop(), measure, region, date);
-    if (estimate) {
-        decision.excess = estimate->excess;
-        decision.window = DayRange{estimate->windowFirst, estimate->windowLast};
-        decision.redistributeMethod =
-            estimate->gapFirst ? RedistributeMethod::Baseline : RedistributeMethod::Proportional;
-    } else {
-        // No baseline: the week before, and the analyst sets the counts to move.
-        decision.window = DayRange{date - std::min(day, 7), date - 1};
-        decision.redistributeMethod = RedistributeMethod::Proportional;
-    }
+    if (proposal->source == scan::ProposalSource::Finding)
+        return decideFinding(QString::fromStdString(proposal->finding->id));
+    const Decision& decision = proposal->decision;
+    const scan::BacklogEstimate* estimate = proposal->estimate ? &*proposal->estimate : nullptr;
     // As from a finding: the window and the day in view, with three weeks either side.
     m_plot->focusOn(
         widgets::DayIndexRange{decision.window->first - view.axis.first() - 21, day + 21});
@@ -122,8 +102,8 @@ bool DecisionController::decideDay(int day) {
           tr("<b>redistribute</b> for %1 — %2 picked on the plot")
               .arg(view.regionCode, QString::fromStdString(date.iso())),
           widgets::reasonDraftForPickedDay(
-              decision, static_cast<std::int64_t>(view.raw[day]), estimate ? &*estimate : nullptr,
-              estimate ? QString() : widgets::describeError(estimate.error())));
+              decision, proposal->reported, estimate,
+              proposal->noEstimate ? widgets::describeError(*proposal->noEstimate) : QString()));
     return true;
 }
 

@@ -10,6 +10,7 @@
 #include "support/synthetic_drop.h"
 
 #include <benchmark/benchmark.h>
+#include <nlohmann/json.hpp>
 
 #include <unistd.h>
 #include <cstdio>

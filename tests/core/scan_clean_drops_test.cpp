@@ -5,6 +5,7 @@
 #include "support/synthetic_drop.h"
 
 #include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
 
 #include <algorithm>
 #include <map>
@@ -104,7 +105,8 @@ TEST(ScanOnPlantedDrops, FindsEveryPlantedProblemWithItsKindRegionAndDates) {
         for (const auto& p : s.planted) {
             EXPECT_TRUE(found(*report, s.drop, p))
                 << "seed " << seed << ": " << p.kind << " in " << s.drop.regionCodes[p.region]
-                << " on " << s.drop.periodStart(p.first).iso() << ".." << s.drop.periodStart(p.last).iso();
+                << " on " << s.drop.periodStart(p.first).iso() << ".."
+                << s.drop.periodStart(p.last).iso();
         }
         // And no other alarm of the three kinds that matter most.
         int extra = 0;

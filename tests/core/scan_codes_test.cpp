@@ -5,6 +5,7 @@
 #include "support/synthetic_drop.h"
 
 #include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
 
 namespace siftwave::scan {
 namespace {
@@ -73,9 +74,9 @@ TEST(CodeVariant, SuggestsMergingIntoTheCodeWithMostDataOrTheRegisteredOne) {
     detail::findCodeVariants(detail::prepareScanInput(drop, options), out);
     ASSERT_EQ(out.size(), 1u);
     EXPECT_EQ(*out[0].region, "412");
-    EXPECT_EQ(out[0].suggestion["decision"], "merge_codes");
-    EXPECT_EQ(out[0].suggestion["from"], "412");
-    EXPECT_EQ(out[0].suggestion["into"], "0412");
+    EXPECT_EQ(suggestionToJson(out[0])["decision"], "merge_codes");
+    EXPECT_EQ(suggestionToJson(out[0])["from"], "412");
+    EXPECT_EQ(suggestionToJson(out[0])["into"], "0412");
     EXPECT_EQ(out[0].evidence["overlap_cells"], 0);
 
     RegionRegister reg;
@@ -85,7 +86,7 @@ TEST(CodeVariant, SuggestsMergingIntoTheCodeWithMostDataOrTheRegisteredOne) {
     detail::findCodeVariants(detail::prepareScanInput(drop, options, {nullptr, &reg}),
                              withRegister);
     ASSERT_EQ(withRegister.size(), 1u);
-    EXPECT_EQ(withRegister[0].suggestion["into"], "412");
+    EXPECT_EQ(suggestionToJson(withRegister[0])["into"], "412");
 }
 
 TEST(UnknownCode, ReportsCodesNotInTheRegisterAndNamesASimilarOne) {
@@ -100,9 +101,9 @@ TEST(UnknownCode, ReportsCodesNotInTheRegisterAndNamesASimilarOne) {
     ASSERT_EQ(out.size(), 2u);
     EXPECT_EQ(*out[0].region, "412");
     EXPECT_EQ(out[0].evidence["similar"], "0412");
-    EXPECT_EQ(out[0].suggestion["decision"], "merge_codes");
+    EXPECT_EQ(suggestionToJson(out[0])["decision"], "merge_codes");
     EXPECT_EQ(*out[1].region, "ZZ");
-    EXPECT_EQ(out[1].suggestion["decision"], "exclude");
+    EXPECT_EQ(suggestionToJson(out[1])["decision"], "exclude");
 }
 
 }  // namespace

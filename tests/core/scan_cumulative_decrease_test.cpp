@@ -4,6 +4,7 @@
 #include "support/synthetic_drop.h"
 
 #include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
 
 namespace siftwave::scan {
 namespace {
@@ -30,7 +31,7 @@ TEST(CumulativeDecrease, DetectsACumulativeMeasureAndEachDropBelowItsRunningPeak
     EXPECT_EQ(out[0].evidence["before"], 110);
     EXPECT_EQ(out[0].evidence["lowest"], 95);
     EXPECT_EQ(out[0].evidence["decrease"], 15);
-    EXPECT_EQ(out[0].suggestion["action"], "use_daily_differences");
+    EXPECT_EQ(suggestionToJson(out[0])["action"], "use_daily_differences");
     EXPECT_EQ(*out[1].region, "B");
     EXPECT_EQ(*out[1].first, drop.periodStart(20));
     EXPECT_EQ(*out[1].last, drop.periodStart(20));

@@ -4,6 +4,7 @@
 #include "support/synthetic_drop.h"
 
 #include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
 
 namespace siftwave::scan {
 namespace {
@@ -36,14 +37,14 @@ TEST(DuplicateRow, SaysWhetherValuesAgreeAndListsEverySourceLine) {
     EXPECT_TRUE(found[0].evidence["values_agree"].get<bool>());
     EXPECT_EQ(found[0].evidence["rows"][0]["line"], drop.cell(0, 0, 1).line);
     EXPECT_EQ(found[0].evidence["rows"][1]["line"], 40);
-    EXPECT_EQ(found[0].suggestion["keep"], "first");
+    EXPECT_EQ(suggestionToJson(found[0])["keep"], "first");
 
     EXPECT_EQ(*found[1].region, "B");
     EXPECT_EQ(found[1].severity, Severity::Warning);
     EXPECT_FALSE(found[1].evidence["values_agree"].get<bool>());
     EXPECT_EQ(found[1].evidence["occurrences"], 3);
     EXPECT_EQ(found[1].evidence["spread"], 3.0);
-    EXPECT_EQ(found[1].suggestion["decision"], "resolve_duplicate");
+    EXPECT_EQ(suggestionToJson(found[1])["decision"], "resolve_duplicate");
     EXPECT_EQ(*found[1].first, drop.periodStart(2));
 }
 

@@ -10,6 +10,7 @@
 #include "support/synthetic_drop.h"
 
 #include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
 
 #include <algorithm>
 #include <fstream>
@@ -38,7 +39,7 @@ TEST(MissingDates, OneFindingPerRunInsideTheSpanNoneForTheTails) {
     EXPECT_EQ(found[0].evidence["absent"], 2);
     EXPECT_EQ(*found[1].first, drop.periodStart(8));
     EXPECT_EQ(*found[1].last, drop.periodStart(8));
-    EXPECT_EQ(found[0].suggestion["decision"], "fill_missing");
+    EXPECT_EQ(suggestionToJson(found[0])["decision"], "fill_missing");
     EXPECT_EQ(*found[0].region, "A");
     EXPECT_EQ(*found[0].measure, "cases");  // a drop with one measure names it
 }
@@ -50,7 +51,7 @@ TEST(MissingDates, CountsBlankCellsAndSuggestsShareBeforeACatchUp) {
     EXPECT_EQ(found[0].evidence["blank"], 1);
     EXPECT_EQ(found[0].evidence["absent"], 1);
     EXPECT_EQ(found[0].evidence["value_after"], 32);
-    EXPECT_EQ(found[0].suggestion["method"], "share");
+    EXPECT_EQ(suggestionToJson(found[0])["method"], "share");
 }
 
 TEST(MissingDates, NoMeasureWhenTheRowIsMissingForEveryMeasure) {
@@ -95,8 +96,8 @@ TEST(MissingDates, AbsentDaysAmidLowCountsAreProbablyTrueZerosAndFilledWithZero)
     for (const Finding& f : found) {
         EXPECT_TRUE(f.evidence["probably_true_zeros"].get<bool>()) << f.evidence.dump();
         EXPECT_EQ(f.severity, Severity::Info);
-        EXPECT_EQ(f.suggestion["decision"], "fill_missing");
-        EXPECT_EQ(f.suggestion["method"], "zero");  // never interpolated
+        EXPECT_EQ(suggestionToJson(f)["decision"], "fill_missing");
+        EXPECT_EQ(suggestionToJson(f)["method"], "zero");  // never interpolated
         EXPECT_EQ(f.evidence["suggestion_adds"]["cases"], 0);
         EXPECT_EQ(f.evidence["zeros_reported"], 0);  // the tally writes no zero rows
         EXPECT_EQ(totalChangeOfSuggestion(drop, f, "cases"), 0);
@@ -106,7 +107,8 @@ TEST(MissingDates, AbsentDaysAmidLowCountsAreProbablyTrueZerosAndFilledWithZero)
     EXPECT_NEAR(found[0].evidence["zero_chance_nearby"].get<double>(), 0.1353, 1e-4);  // e^-2
     EXPECT_EQ(describeFinding(found[0]),
               "1 day(s) with no row amid low counts (about 2 a day nearby): probably true zeros");
-    EXPECT_NE(found[0].suggestion["note"].get<std::string>().find("case list"), std::string::npos);
+    EXPECT_NE(suggestionToJson(found[0])["note"].get<std::string>().find("case list"),
+              std::string::npos);
 }
 
 TEST(MissingDates, AnInterpolatingSuggestionSaysHowManyCountsItAdds) {
@@ -115,7 +117,7 @@ TEST(MissingDates, AnInterpolatingSuggestionSaysHowManyCountsItAdds) {
     ASSERT_EQ(found.size(), 1u);
     EXPECT_FALSE(found[0].evidence["probably_true_zeros"].get<bool>());
     EXPECT_EQ(found[0].severity, Severity::Warning);
-    EXPECT_EQ(found[0].suggestion["method"], "linear");
+    EXPECT_EQ(suggestionToJson(found[0])["method"], "linear");
     // Rounded interpolation between 42 and 48 over two days: 44 and 46.
     EXPECT_EQ(found[0].evidence["suggestion_adds"]["cases"], 90);
     EXPECT_EQ(totalChangeOfSuggestion(drop, found[0], "cases"), 90);
@@ -126,7 +128,7 @@ TEST(MissingDates, ACatchUpAfterLowCountsIsSharedAndAddsNothing) {
     const auto found = run(drop);
     ASSERT_EQ(found.size(), 1u);
     EXPECT_FALSE(found[0].evidence["probably_true_zeros"].get<bool>());
-    EXPECT_EQ(found[0].suggestion["method"], "share");
+    EXPECT_EQ(suggestionToJson(found[0])["method"], "share");
     EXPECT_EQ(found[0].evidence["suggestion_adds"]["cases"], 0);
     EXPECT_EQ(totalChangeOfSuggestion(drop, found[0], "cases"), 0);
 }
@@ -136,7 +138,7 @@ TEST(MissingDates, WithNothingToInterpolateFromTheSuggestionIsToLookNotToFill) {
     drop.tables[0].at(0, 1).state = CellState::Unparsable;  // the day before has no number
     const auto found = run(drop);
     ASSERT_EQ(found.size(), 1u);
-    EXPECT_EQ(found[0].suggestion["decision"], "accept");
+    EXPECT_EQ(suggestionToJson(found[0])["decision"], "accept");
     EXPECT_FALSE(found[0].evidence.contains("suggestion_adds"));
 }
 
@@ -155,13 +157,13 @@ TEST(MissingDates, NoSuggestedFillAddsCountsTheEvidenceDoesNotState) {
     ASSERT_GE(found.size(), 20u);
     int zeros = 0, linear = 0;
     for (const Finding& f : found) {
-        if (f.suggestion["decision"] != "fill_missing")
+        if (suggestionToJson(f)["decision"] != "fill_missing")
             continue;
         const std::int64_t stated = f.evidence["suggestion_adds"]["cases"].get<std::int64_t>();
         EXPECT_EQ(totalChangeOfSuggestion(s.drop, f, "cases"), stated) << f.evidence.dump();
-        zeros += f.suggestion["method"] == "zero";
-        linear += f.suggestion["method"] == "linear";
-        if (f.suggestion["method"] == "zero") {
+        zeros += suggestionToJson(f)["method"] == "zero";
+        linear += suggestionToJson(f)["method"] == "linear";
+        if (suggestionToJson(f)["method"] == "zero") {
             EXPECT_LE(f.evidence["level_nearby"].get<double>(), 3.0);
         }
     }
@@ -202,7 +204,7 @@ TEST(MissingDates, RealCaseListTallyGetsTrueZeroSuggestionsThatKeepItsTotal) {
             continue;
         runs.emplace_back(f.first->iso(), f.last->iso());
         EXPECT_TRUE(f.evidence["probably_true_zeros"].get<bool>()) << f.evidence.dump();
-        EXPECT_EQ(f.suggestion["method"], "zero") << f.evidence.dump();
+        EXPECT_EQ(suggestionToJson(f)["method"], "zero") << f.evidence.dump();
         Result<Decision> d = suggestedDecision(f, "cases");
         ASSERT_TRUE(d.ok());
         EntryMeta meta;

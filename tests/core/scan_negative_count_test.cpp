@@ -4,6 +4,7 @@
 #include "support/synthetic_drop.h"
 
 #include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
 
 namespace siftwave::scan {
 namespace {
@@ -25,10 +26,10 @@ TEST(NegativeCount, ReportsEachNegativeDayWithASpreadWindowOfEarlierDays) {
     EXPECT_EQ(f.evidence["value"], -12);
     EXPECT_EQ(f.evidence["earlier_days"], 14);
     EXPECT_EQ(f.severity, Severity::Warning);  // 12 of ~1,150 is about 1 %
-    EXPECT_EQ(f.suggestion["decision"], "spread_negative");
-    EXPECT_EQ(f.suggestion["window_first"], drop.periodStart(6).iso());
-    EXPECT_EQ(f.suggestion["window_last"], drop.periodStart(19).iso());
-    EXPECT_TRUE(f.suggestion["absorbable"].get<bool>());
+    EXPECT_EQ(suggestionToJson(f)["decision"], "spread_negative");
+    EXPECT_EQ(suggestionToJson(f)["window_first"], drop.periodStart(6).iso());
+    EXPECT_EQ(suggestionToJson(f)["window_last"], drop.periodStart(19).iso());
+    EXPECT_TRUE(suggestionToJson(f)["absorbable"].get<bool>());
 }
 
 TEST(NegativeCount, IsCriticalWhenTheEarlierDaysCannotAbsorbIt) {
@@ -37,7 +38,7 @@ TEST(NegativeCount, IsCriticalWhenTheEarlierDaysCannotAbsorbIt) {
     const auto found = run(drop);
     ASSERT_EQ(found.size(), 1u);
     EXPECT_EQ(found[0].severity, Severity::Critical);
-    EXPECT_FALSE(found[0].suggestion["absorbable"].get<bool>());
+    EXPECT_FALSE(suggestionToJson(found[0])["absorbable"].get<bool>());
 }
 
 TEST(NegativeCount, ZeroIsNotNegative) {

@@ -4,6 +4,7 @@
 #include "support/synthetic_drop.h"
 
 #include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
 
 namespace siftwave::scan {
 namespace {
@@ -22,9 +23,9 @@ TEST(ReportingGap, ReportsZerosInsideAnActivePeriodAndTheCatchUp) {
     EXPECT_EQ(*f.last, drop.periodStart(8));
     EXPECT_EQ(f.evidence["days"], 3);
     EXPECT_TRUE(f.evidence["catch_up"].get<bool>());
-    EXPECT_EQ(f.suggestion["decision"], "redistribute");
-    EXPECT_EQ(f.suggestion["date"], drop.periodStart(9).iso());
-    EXPECT_EQ(f.suggestion["window_first"], drop.periodStart(6).iso());
+    EXPECT_EQ(suggestionToJson(f)["decision"], "redistribute");
+    EXPECT_EQ(suggestionToJson(f)["date"], drop.periodStart(9).iso());
+    EXPECT_EQ(suggestionToJson(f)["window_first"], drop.periodStart(6).iso());
 }
 
 TEST(ReportingGap, ZerosAreUnremarkableWhereCountsAreLow) {

@@ -110,7 +110,7 @@ TEST_F(ScanOnSample, BacklogExcessIsCloseToThePlantedExcess) {
             const double estimated = f.evidence["excess"].get<double>();
             // Within 10 % of what was planted: the baseline is an estimate from noisy days.
             EXPECT_NEAR(estimated, planted, 0.1 * planted) << p["id"];
-            EXPECT_EQ(f.suggestion["window_first"].get<std::string>().substr(0, 4), "2026");
+            EXPECT_EQ(suggestionToJson(f)["window_first"].get<std::string>().substr(0, 4), "2026");
         }
     }
 }

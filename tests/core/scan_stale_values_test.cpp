@@ -4,6 +4,7 @@
 #include "support/synthetic_drop.h"
 
 #include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
 
 namespace siftwave::scan {
 namespace {
@@ -23,7 +24,7 @@ TEST(StaleValues, ReportsACopiedForwardRunWithItsChance) {
     EXPECT_EQ(found[0].evidence["days"], 5);
     EXPECT_LT(found[0].evidence["chance_under_poisson"].get<double>(), 1e-4);
     // The first day may be genuine; the copies after it are suspect.
-    EXPECT_EQ(found[0].suggestion["first"], drop.periodStart(4).iso());
+    EXPECT_EQ(suggestionToJson(found[0])["first"], drop.periodStart(4).iso());
 }
 
 TEST(StaleValues, SmallCountsAndZerosRepeatByChance) {

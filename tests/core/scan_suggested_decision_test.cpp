@@ -45,29 +45,73 @@ TEST(SuggestedDecision, AFindingAboutEveryMeasureIsDecidedForTheGivenOne) {
     f.id = "missing_dates-test";
     f.kind = FindingKind::MissingDates;
     f.region = "AB";
-    f.suggestion = {{"decision", "fill_missing"},
-                    {"first", "2026-07-13"},
-                    {"last", "2026-07-16"},
-                    {"method", "linear"}};
+    Decision fill;
+    fill.kind = DecisionKind::FillMissing;
+    fill.region = "AB";
+    fill.window = DayRange{*Date::fromIso("2026-07-13"), *Date::fromIso("2026-07-16")};
+    fill.fillMethod = FillMethod::Linear;
+    f.suggestion = fill;
     const Result<Decision> d = suggestedDecision(f, "deaths");
     ASSERT_TRUE(d.ok());
     EXPECT_EQ(d->measure, "deaths");
+    EXPECT_EQ(d->finding, "missing_dates-test");
     EXPECT_EQ(d->fillMethod, FillMethod::Linear);
     EXPECT_EQ(d->window->length(), 4);
 }
 
-TEST(SuggestedDecision, NoSuggestionOrAMalformedOneIsAnError) {
+TEST(SuggestedDecision, AnAcceptOfEveryMeasureStaysAboutEveryMeasure) {
+    Finding f;
+    f.id = "weekday_effect-test";
+    f.kind = FindingKind::WeekdayEffect;
+    Decision accept;
+    accept.kind = DecisionKind::Accept;
+    f.suggestion = accept;
+    const Result<Decision> d = suggestedDecision(f, "cases");
+    ASSERT_TRUE(d.ok());
+    EXPECT_TRUE(d->measure.empty());
+}
+
+TEST(SuggestedDecision, NoSuggestionIsNotFound) {
     Finding none;
     none.id = "x";
     EXPECT_EQ(suggestedDecision(none, "cases").error().code, ErrorCode::NotFound);
-    Finding bad;
-    bad.id = "y";
-    bad.suggestion = {{"decision", "redistribute"}, {"date", "2026-02-30"}};
-    EXPECT_EQ(suggestedDecision(bad, "cases").error().code, ErrorCode::InvalidValue);
-    Finding unknown;
-    unknown.id = "z";
-    unknown.suggestion = {{"decision", "shred"}};
-    EXPECT_EQ(suggestedDecision(unknown, "cases").error().code, ErrorCode::InvalidValue);
+    EXPECT_EQ(suggestionText(none), "{}");
+}
+
+TEST(SuggestedDecision, TheScanFillsInTheFindingsIdAndItsRegion) {
+    const Result<Drop> drop = readDrop(SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv");
+    ASSERT_TRUE(drop.ok());
+    const Result<ScanReport> report = scanDrop(*drop);
+    ASSERT_TRUE(report.ok());
+    for (const Finding& f : report->findings) {
+        if (!f.suggestion)
+            continue;
+        EXPECT_EQ(f.suggestion->finding, f.id);
+        if (f.suggestion->kind != DecisionKind::MergeCodes) {
+            EXPECT_EQ(f.suggestion->region, f.region.value_or(std::string())) << f.id;
+        }
+        EXPECT_EQ(f.suggestion->measure, f.measure.value_or(std::string())) << f.id;
+    }
+}
+
+TEST(SuggestedDecision, AnExcludeOfAWholeRegionIsWrittenWithTheRegionAndNotes) {
+    Finding f;
+    f.kind = FindingKind::UnknownCode;
+    f.region = "ZZ9";
+    Decision exclude;
+    exclude.kind = DecisionKind::Exclude;
+    exclude.region = "ZZ9";
+    f.suggestion = exclude;
+    f.suggestionNotes.note = "or add the region to the register";
+    EXPECT_EQ(
+        suggestionText(f),
+        R"({"decision":"exclude","note":"or add the region to the register","region":"ZZ9"})");
+    f.suggestion->window = DayRange{*Date::fromIso("2026-01-05"), *Date::fromIso("2026-01-06")};
+    f.suggestionNotes = {};
+    f.suggestionNotes.absorbable = false;
+    EXPECT_EQ(
+        suggestionText(f),
+        R"({"absorbable":false,"decision":"exclude","first":"2026-01-05","last":"2026-01-06"})");
 }
 
 }  // namespace

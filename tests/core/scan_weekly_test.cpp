@@ -9,6 +9,7 @@
 #include "support/synthetic_drop.h"
 
 #include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
 
 #include <algorithm>
 #include <string>
@@ -122,7 +123,7 @@ TEST(ScanOnWeeklyDrops, FindsAMissingWeekWithTheWeeksDates) {
     EXPECT_EQ(f->evidence["days"], 7);                             // the days the week covers
     EXPECT_FALSE(f->evidence["probably_true_zeros"].get<bool>());  // an active region
     // Interpolating adds counts, and the evidence says how many.
-    EXPECT_EQ(f->suggestion["method"], "linear");
+    EXPECT_EQ(suggestionToJson(*f)["method"], "linear");
     EXPECT_TRUE(f->evidence["suggestion_adds"].contains("cases"));
     EXPECT_GT(f->evidence["suggestion_adds"]["cases"].get<std::int64_t>(), 0);
     EXPECT_EQ(describeFinding(*f), "1 week(s) with no value inside the reporting span");
@@ -145,8 +146,8 @@ TEST(ScanOnWeeklyDrops, FindsACatchUpWeekAfterWeeksHeldBack) {
     EXPECT_EQ(f->evidence["after_gap"]["days"], 21);
     EXPECT_EQ(f->evidence["after_gap"]["first"], s.drop.periodStart(week - 3).iso());
     EXPECT_FALSE(f->evidence.contains("weekday_factor"));  // weekly data has none
-    EXPECT_EQ(f->suggestion["window_first"], s.drop.periodStart(week - 3).iso());
-    EXPECT_EQ(f->suggestion["window_last"], s.drop.periodStart(week - 1).iso());
+    EXPECT_EQ(suggestionToJson(*f)["window_first"], s.drop.periodStart(week - 3).iso());
+    EXPECT_EQ(suggestionToJson(*f)["window_last"], s.drop.periodStart(week - 1).iso());
     // The estimate found the counts that were moved, give or take the noise of the baseline.
     const double moved = static_cast<double>(s.planted.back().amount);
     EXPECT_NEAR(f->evidence["excess"].get<double>(), moved, 0.35 * moved) << f->evidence.dump();
@@ -173,7 +174,7 @@ TEST(ScanOnWeeklyDrops, FindsAStaleRunOfWeeks) {
     EXPECT_EQ(f->evidence["periods"], 4);
     EXPECT_EQ(f->evidence["days"], 28);
     // The copies (weeks 2 to 4 of the run) are what the suggestion leaves out.
-    EXPECT_EQ(f->suggestion["first"], s.drop.periodStart(first + 1).iso());
+    EXPECT_EQ(suggestionToJson(*f)["first"], s.drop.periodStart(first + 1).iso());
     EXPECT_NE(describeFinding(*f).find("repeated on 4 weeks"), std::string::npos);
 }
 
@@ -187,10 +188,10 @@ TEST(ScanOnWeeklyDrops, FindsANegativeCorrectionAndSpreadsItOverTheWeeksBefore) 
     const Finding* f = findingOf(*report, FindingKind::NegativeCount, s.drop.regionCodes[r]);
     ASSERT_NE(f, nullptr) << describeAll(*report);
     EXPECT_EQ(*f->first, s.drop.periodStart(week));
-    EXPECT_EQ(f->suggestion["decision"], "spread_negative");
+    EXPECT_EQ(suggestionToJson(*f)["decision"], "spread_negative");
     // spread_weeks [4]: the four weeks before.
-    EXPECT_EQ(f->suggestion["window_first"], s.drop.periodStart(week - 4).iso());
-    EXPECT_EQ(f->suggestion["window_last"], s.drop.periodStart(week - 1).iso());
+    EXPECT_EQ(suggestionToJson(*f)["window_first"], s.drop.periodStart(week - 4).iso());
+    EXPECT_EQ(suggestionToJson(*f)["window_last"], s.drop.periodStart(week - 1).iso());
     EXPECT_EQ(f->evidence["earlier_periods"], 4);
     EXPECT_EQ(f->evidence["earlier_days"], 28);
     EXPECT_NE(describeFinding(*f).find("earlier 4 weeks"), std::string::npos);

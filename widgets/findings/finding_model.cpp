@@ -80,7 +80,7 @@ QVariant FindingModel::data(const QModelIndex& index, int role) const {
         case Qt::ToolTipRole:
             return QStringLiteral("%1\nevidence: %2\nsuggestion: %3")
                 .arg(QString::fromStdString(f.id), QString::fromStdString(f.evidence.dump()),
-                     QString::fromStdString(f.suggestion.dump()));
+                     QString::fromStdString(scan::suggestionText(f)));
         case Qt::FontRole:
             if (index.column() == SeverityColumn && f.severity == scan::Severity::Critical) {
                 QFont bold;

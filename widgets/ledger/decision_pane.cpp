@@ -254,12 +254,10 @@ void DecisionPane::updateApply() {
 
 QString reasonDraftFor(const scan::Finding& finding, const Decision& decision) {
     QStringList evidence;
-    if (finding.evidence.is_object())
-        for (auto it = finding.evidence.begin(); it != finding.evidence.end(); ++it)
-            if (it->is_number() || it->is_string())
-                evidence << QStringLiteral("%1 %2").arg(
-                    QString::fromStdString(it.key()).replace(QLatin1Char('_'), QLatin1Char(' ')),
-                    QString::fromStdString(it->is_string() ? it->get<std::string>() : it->dump()));
+    for (const auto& [key, text] : finding.evidence.scalars())
+        evidence << QStringLiteral("%1 %2").arg(
+            QString::fromStdString(key).replace(QLatin1Char('_'), QLatin1Char(' ')),
+            QString::fromStdString(text));
     QString where = QString::fromStdString(finding.region.value_or(std::string()));
     if (finding.first)
         where += QStringLiteral(" ") + QString::fromStdString(finding.first->iso());

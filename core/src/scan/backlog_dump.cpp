@@ -61,12 +61,14 @@ Finding toFinding(const ScanInput& in, std::size_t r, std::size_t m, const Backl
                            {"days", in.daysIn(gapPeriods)},
                            {"periods", gapPeriods}};
     }
-    f.suggestion = {{"decision", "redistribute"},
-                    {"date", drop.periodStart(t).iso()},
-                    {"excess", e.excess},
-                    {"window_first", drop.periodStart(e.windowFirst.serial).iso()},
-                    {"window_last", drop.periodStart(e.windowLast.serial).iso()},
-                    {"method", e.gapFirst ? "baseline" : "proportional"}};
+    Decision s = suggestionFor(f, DecisionKind::Redistribute);
+    s.date = drop.periodStart(t);
+    s.excess = e.excess;
+    s.window =
+        DayRange{drop.periodStart(e.windowFirst.serial), drop.periodStart(e.windowLast.serial)};
+    s.redistributeMethod =
+        e.gapFirst ? RedistributeMethod::Baseline : RedistributeMethod::Proportional;
+    f.suggestion = std::move(s);
     return f;
 }
 

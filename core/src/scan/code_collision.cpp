@@ -25,11 +25,10 @@ void findCodeCollisions(const ScanInput& in, std::vector<Finding>& out) {
         }
         Finding f = makeFinding(in, FindingKind::CodeCollision, Severity::Info, r, std::nullopt);
         f.evidence = {{"reason", c->reason}, {"read_as", c->readAs}, {"reported_cells", reported}};
-        f.suggestion = {{"decision", "accept"},
-                        {"note",
-                         "keep the code as quoted text when exporting, and tell "
-                         "recipients: other tools read it as " +
-                             c->readAs}};
+        suggestAccept(f,
+                      "keep the code as quoted text when exporting, and tell "
+                      "recipients: other tools read it as " +
+                          c->readAs);
         out.push_back(std::move(f));
     }
 }

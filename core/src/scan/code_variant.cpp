@@ -96,9 +96,7 @@ void findCodeVariants(const ScanInput& in, std::vector<Finding>& out) {
                           {"canonical_in_register", inRegister},
                           {"variants", variants},
                           {"overlap_cells", overlap}};
-            f.suggestion = {{"decision", "merge_codes"},
-                            {"from", drop.regionCodes[r]},
-                            {"into", drop.regionCodes[c]}};
+            f.suggestion = mergeSuggestion(f, drop.regionCodes[r], drop.regionCodes[c]);
             out.push_back(std::move(f));
         }
     }

@@ -60,12 +60,11 @@ void findCumulativeDecreases(const ScanInput& in, std::vector<Finding>& out) {
                               {"line", c.line},
                               {"measure_rising_changes", facts.rises},
                               {"measure_falling_changes", facts.falls}};
-                f.suggestion = {{"decision", "accept"},
-                                {"action", "use_daily_differences"},
-                                {"note", std::string("the measure is cumulative: its ") +
-                                             (in.weekly() ? "weekly" : "daily") +
-                                             " differences turn this decrease into a negative "
-                                             "count that spread_negative can absorb"}};
+                suggestAccept(f, std::string("the measure is cumulative: its ") +
+                                     (in.weekly() ? "weekly" : "daily") +
+                                     " differences turn this decrease into a negative "
+                                     "count that spread_negative can absorb");
+                f.suggestionNotes.action = "use_daily_differences";
                 out.push_back(std::move(f));
                 t = end;
             }

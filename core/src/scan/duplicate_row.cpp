@@ -54,9 +54,10 @@ void findDuplicateRows(const ScanInput& in, std::vector<Finding>& out) {
         f.evidence = {{"rows", rows}, {"values_agree", agree}, {"occurrences", rows.size()}};
         if (!agree)
             f.evidence["spread"] = hi - lo;
-        f.suggestion = {{"decision", "resolve_duplicate"},
-                        {"keep", agree ? "first" : "last"},
-                        {"date", drop.periodStart(day).iso()}};
+        Decision s = suggestionFor(f, DecisionKind::ResolveDuplicate);
+        s.date = drop.periodStart(day);
+        s.duplicateRule = agree ? DuplicateRule::First : DuplicateRule::Last;
+        f.suggestion = std::move(s);
         out.push_back(std::move(f));
     }
 }

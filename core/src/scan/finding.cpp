@@ -1,37 +1,80 @@
 #include "siftwave/scan/finding.h"
 
+#include "scan/finding_kinds.h"
+
+#include <nlohmann/json.hpp>
+
+#include <cassert>
+
 namespace siftwave::scan {
 
-const char* findingKindName(FindingKind kind) {
-    switch (kind) {
-        case FindingKind::MissingDates:
-            return "missing_dates";
-        case FindingKind::DuplicateRow:
-            return "duplicate_row";
-        case FindingKind::NegativeCount:
-            return "negative_count";
-        case FindingKind::BacklogDump:
-            return "backlog_dump";
-        case FindingKind::ReportingGap:
-            return "reporting_gap";
-        case FindingKind::StaleValues:
-            return "stale_values";
-        case FindingKind::CodeCollision:
-            return "code_collision";
-        case FindingKind::CodeVariant:
-            return "code_variant";
-        case FindingKind::UnknownCode:
-            return "unknown_code";
-        case FindingKind::WeekdayEffect:
-            return "weekday_effect";
-        case FindingKind::CumulativeDecrease:
-            return "cumulative_decrease";
-        case FindingKind::HierarchyMismatch:
-            return "hierarchy_mismatch";
-        case FindingKind::Revision:
-            return "revision";
+namespace {
+
+const nlohmann::json& emptyObject() {
+    static const nlohmann::json empty = nlohmann::json::object();
+    return empty;
+}
+
+}  // namespace
+
+Evidence::Evidence() = default;
+Evidence::Evidence(const Evidence& other)
+    : m_object(other.m_object ? std::make_unique<nlohmann::json>(*other.m_object) : nullptr) {}
+Evidence::Evidence(Evidence&& other) noexcept = default;
+Evidence& Evidence::operator=(const Evidence& other) {
+    if (this != &other)
+        m_object = other.m_object ? std::make_unique<nlohmann::json>(*other.m_object) : nullptr;
+    return *this;
+}
+Evidence& Evidence::operator=(Evidence&& other) noexcept = default;
+Evidence::~Evidence() = default;
+
+Evidence& Evidence::operator=(nlohmann::json object) {
+    m_object = std::make_unique<nlohmann::json>(std::move(object));
+    return *this;
+}
+
+nlohmann::json& Evidence::operator[](const std::string& key) {
+    if (!m_object)
+        m_object = std::make_unique<nlohmann::json>(nlohmann::json::object());
+    return (*m_object)[key];
+}
+
+const nlohmann::json& Evidence::operator[](const std::string& key) const {
+    static const nlohmann::json absent;  // null
+    assert(contains(key));
+    const auto it = json().find(key);
+    return it == json().end() ? absent : *it;
+}
+
+const nlohmann::json& Evidence::json() const {
+    return m_object ? *m_object : emptyObject();
+}
+
+bool Evidence::contains(const std::string& key) const {
+    return json().contains(key);
+}
+
+std::vector<std::pair<std::string, std::string>> Evidence::scalars() const {
+    std::vector<std::pair<std::string, std::string>> out;
+    const nlohmann::json& object = json();
+    if (!object.is_object())
+        return out;
+    for (auto it = object.begin(); it != object.end(); ++it) {
+        if (it->is_string())
+            out.emplace_back(it.key(), it->get<std::string>());
+        else if (it->is_number())
+            out.emplace_back(it.key(), it->dump());
     }
-    return "missing_dates";
+    return out;
+}
+
+std::string Evidence::dump() const {
+    return json().dump();
+}
+
+const char* findingKindName(FindingKind kind) {
+    return detail::descriptorOf(kind).name;
 }
 
 std::optional<FindingKind> findingKindFromName(std::string_view name) {
@@ -66,9 +109,78 @@ nlohmann::json findingToJson(const Finding& f) {
         j["first"] = f.first->iso();
     if (f.last)
         j["last"] = f.last->iso();
-    j["evidence"] = f.evidence;
-    j["suggestion"] = f.suggestion;
+    j["evidence"] = f.evidence.json();
+    j["suggestion"] = suggestionToJson(f);
     return j;
+}
+
+namespace {
+
+void putWindow(nlohmann::json& j, const std::optional<DayRange>& window, const char* firstKey,
+               const char* lastKey) {
+    if (!window)
+        return;
+    j[firstKey] = window->first.iso();
+    j[lastKey] = window->last.iso();
+}
+
+/// The kind's own words (see suggestionToJson in finding.h).
+void putKindFields(nlohmann::json& j, const Decision& d) {
+    switch (d.kind) {
+        case DecisionKind::Redistribute:
+            j["excess"] = d.excess;
+            j["method"] = redistributeMethodName(d.redistributeMethod);
+            [[fallthrough]];
+        case DecisionKind::SpreadNegative:
+            if (d.date)
+                j["date"] = d.date->iso();
+            putWindow(j, d.window, "window_first", "window_last");
+            break;
+        case DecisionKind::FillMissing:
+            j["method"] = fillMethodName(d.fillMethod);
+            putWindow(j, d.window, "first", "last");
+            break;
+        case DecisionKind::ResolveDuplicate:
+            j["keep"] = duplicateRuleName(d.duplicateRule);
+            if (d.date)
+                j["date"] = d.date->iso();
+            break;
+        case DecisionKind::MergeCodes:
+            j["from"] = d.variant;
+            j["into"] = d.into;
+            break;
+        case DecisionKind::Exclude:
+            if (d.window)
+                putWindow(j, d.window, "first", "last");
+            else if (!d.region.empty())
+                j["region"] = d.region;
+            break;
+        case DecisionKind::Accept:
+        case DecisionKind::Withdraw:
+            break;
+    }
+}
+
+}  // namespace
+
+nlohmann::json suggestionToJson(const Finding& f) {
+    nlohmann::json j = nlohmann::json::object();
+    if (!f.suggestion)
+        return j;
+    j["decision"] = decisionKindName(f.suggestion->kind);
+    putKindFields(j, *f.suggestion);
+    const SuggestionNotes& n = f.suggestionNotes;
+    if (!n.note.empty())
+        j["note"] = n.note;
+    if (!n.action.empty())
+        j["action"] = n.action;
+    if (n.absorbable)
+        j["absorbable"] = *n.absorbable;
+    return j;
+}
+
+std::string suggestionText(const Finding& f) {
+    return suggestionToJson(f).dump();
 }
 
 }  // namespace siftwave::scan

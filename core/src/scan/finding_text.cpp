@@ -1,10 +1,15 @@
-// One-line descriptions of findings, from their evidence.
+// One-line descriptions of findings, from their evidence: the words here, each kind's
+// sentence in its entry of the finding kind table (finding_kinds.cpp).
+#include "scan/finding_kinds.h"
 #include "siftwave/scan/finding.h"
+
+#include <nlohmann/json.hpp>
 
 #include <cmath>
 #include <cstdio>
 
 namespace siftwave::scan {
+namespace detail {
 namespace {
 
 std::string number(const nlohmann::json& v) {
@@ -27,81 +32,34 @@ std::string number(const nlohmann::json& v) {
     return "?";
 }
 
-std::string get(const nlohmann::json& e, const char* key) {
+}  // namespace
+
+std::string EvidenceText::get(const char* key) const {
     auto it = e.find(key);
     return it == e.end() ? std::string("?") : number(*it);
 }
 
-/// A count of periods: `periodsKey`, or for evidence without it the daily `daysKey`.
-std::string periods(const nlohmann::json& e, const char* periodsKey, const char* daysKey) {
-    return e.contains(periodsKey) ? get(e, periodsKey) : get(e, daysKey);
+std::string EvidenceText::periods(const char* periodsKey, const char* daysKey) const {
+    return e.contains(periodsKey) ? get(periodsKey) : get(daysKey);
 }
 
-}  // namespace
+bool EvidenceText::flag(const char* key) const {
+    return e.value(key, false);
+}
+
+bool EvidenceText::has(const char* key) const {
+    return e.contains(key);
+}
+
+EvidenceText EvidenceText::at(const char* key) const {
+    return EvidenceText{e.at(key), weekly};
+}
+
+}  // namespace detail
 
 std::string describeFinding(const Finding& f) {
-    const nlohmann::json& e = f.evidence;
-    const bool weekly = f.cadence == Cadence::Weekly;
-    const std::string unit = weekly ? "week" : "day";
-    const std::string units = weekly ? "weeks" : "days";
-    switch (f.kind) {
-        case FindingKind::MissingDates:
-            if (e.value("probably_true_zeros", false)) {
-                return periods(e, "periods", "days") + " " + unit +
-                       "(s) with no row amid low counts (about " + get(e, "level_nearby") + " a " +
-                       unit + " nearby): probably true zeros";
-            }
-            return periods(e, "periods", "days") + " " + unit +
-                   "(s) with no value inside the reporting span";
-        case FindingKind::DuplicateRow:
-            return get(e, "occurrences") + " rows for one " + unit + "; values " +
-                   (e.value("values_agree", false) ? "agree" : "differ");
-        case FindingKind::NegativeCount:
-            return "negative count " + get(e, "value") + " (earlier " +
-                   periods(e, "earlier_periods", "earlier_days") + " " + units + " sum to " +
-                   get(e, "earlier_days_sum") + ")";
-        case FindingKind::BacklogDump:
-            return "observed " + get(e, "observed") + " where about " + get(e, "expected") +
-                   " was expected (excess " + get(e, "excess") + ", z " + get(e, "z") + ")" +
-                   (e.contains("after_gap")
-                        ? ", after a gap of " + periods(e["after_gap"], "periods", "days") + " " +
-                              unit + "(s)"
-                        : "");
-        case FindingKind::ReportingGap:
-            return periods(e, "periods", "days") + " zero " + unit + "(s) where about " +
-                   get(e, "level_around") + " a " + unit + " is usual" +
-                   (e.value("catch_up", false) ? ", then a catch-up" : "");
-        case FindingKind::StaleValues:
-            return "the value " + get(e, "value") + " repeated on " +
-                   periods(e, "periods", "days") + " " + units;
-        case FindingKind::CodeCollision:
-            return "other tools may read this code as " + get(e, "read_as") + " (" +
-                   get(e, "reason") + ")";
-        case FindingKind::CodeVariant:
-            return "probably the same region as " + get(e, "canonical");
-        case FindingKind::UnknownCode:
-            return "not in the region register" +
-                   (e.contains("similar") ? "; similar to " + get(e, "similar") : std::string());
-        case FindingKind::WeekdayEffect:
-            return "weekly reporting pattern: peak " + get(e, "peak") + ", trough " +
-                   get(e, "trough") + ", strength " + get(e, "strength");
-        case FindingKind::CumulativeDecrease:
-            return "cumulative count falls from " + get(e, "before") + " to " + get(e, "lowest");
-        case FindingKind::HierarchyMismatch:
-            return "differs from the sum of its children on " +
-                   periods(e, "periods_mismatched", "days_mismatched") + " of " +
-                   periods(e, "periods_compared", "days_compared") + " " + units;
-        case FindingKind::Revision: {
-            const std::string change = e.value("change", "");
-            if (change == "values_revised") {
-                return get(e, "changed") + " value(s) changed, " + get(e, "appeared") +
-                       " appeared, " + get(e, "vanished") + " vanished; net " +
-                       get(e, "net_change");
-            }
-            return change;
-        }
-    }
-    return {};
+    const detail::EvidenceText words{f.evidence.json(), f.cadence == Cadence::Weekly};
+    return detail::descriptorOf(f.kind).describe(words);
 }
 
 }  // namespace siftwave::scan

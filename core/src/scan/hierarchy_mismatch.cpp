@@ -91,10 +91,9 @@ void findHierarchyMismatches(const ScanInput& in, std::vector<Finding>& out) {
                           {"periods_mismatched", mismatched},
                           {"absolute_difference", absolute},
                           {"dates", dates}};
-            f.suggestion = {{"decision", "accept"},
-                            {"note",
-                             "decide which level to trust before summing regions; "
-                             "report the parent or the sum of its children, not both"}};
+            suggestAccept(f,
+                          "decide which level to trust before summing regions; "
+                          "report the parent or the sum of its children, not both");
             out.push_back(std::move(f));
         }
     }

@@ -163,9 +163,9 @@ void addRun(const ScanInput& in, std::size_t region, std::optional<std::size_t> 
     f.evidence["probably_true_zeros"] = trueZeros;
 
     nlohmann::json adds = nlohmann::json::object();
-    std::string method;
+    std::optional<FillMethod> method;  // none: nothing to interpolate from
     if (catchUp || trueZeros) {
-        method = catchUp ? "share" : "zero";
+        method = catchUp ? FillMethod::Share : FillMethod::Zero;
         for (std::size_t k : measures)
             adds[drop.measures[k]] = 0;
     } else {
@@ -179,28 +179,27 @@ void addRun(const ScanInput& in, std::size_t region, std::optional<std::size_t> 
             else
                 interpolable = false;
         }
-        method = interpolable ? "linear" : "";
+        if (interpolable)
+            method = FillMethod::Linear;
     }
     if (trueZeros)
         f.severity = Severity::Info;
 
-    if (method.empty()) {
-        f.suggestion = {
-            {"decision", "accept"},
-            {"note", std::string("no reported value on both sides of the gap to interpolate "
-                                 "from; look at the source before filling these ") +
-                         drop.axis.unitPlural()}};
+    if (!method) {
+        suggestAccept(f, std::string("no reported value on both sides of the gap to interpolate "
+                                     "from; look at the source before filling these ") +
+                             drop.axis.unitPlural());
     } else {
         f.evidence["suggestion_adds"] = adds;
-        f.suggestion = {{"decision", "fill_missing"},
-                        {"method", method},
-                        {"first", f.first->iso()},
-                        {"last", f.last->iso()}};
+        Decision s = suggestionFor(f, DecisionKind::FillMissing);
+        s.fillMethod = *method;
+        s.window = DayRange{*f.first, *f.last};
+        f.suggestion = std::move(s);
         if (trueZeros) {
-            f.suggestion["note"] = std::string("absent rows amid low counts are probably ") +
-                                   drop.axis.unitPlural() +
-                                   " without cases (a tally made from a case list writes no row "
-                                   "for them): fill 0, do not interpolate";
+            f.suggestionNotes.note = std::string("absent rows amid low counts are probably ") +
+                                     drop.axis.unitPlural() +
+                                     " without cases (a tally made from a case list writes no "
+                                     "row for them): fill 0, do not interpolate";
         }
     }
     out.push_back(std::move(f));

@@ -22,52 +22,46 @@ void findNegativeCounts(const ScanInput& in, std::vector<Finding>& out) {
     const Drop& drop = in.drop;
     const int spread =
         in.periods(in.options.negativeCount.spreadDays, in.options.negativeCount.spreadWeeks);
-    for (std::size_t m = 0; m < drop.measures.size(); ++m) {
-        if (in.measures[m].cumulative)
-            continue;
-        for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
-            const std::span<const Cell> cells = drop.series(m, r);
-            for (std::int32_t t = 0; t < drop.periods(); ++t) {
-                const Cell& c = cells[static_cast<std::size_t>(t)];
-                if (!c.reported() || c.value >= 0)
-                    continue;
-                const std::int32_t from = std::max(0, t - spread);
-                double before = 0;
-                for (std::int32_t j = from; j < t; ++j) {
-                    const Cell& p = cells[static_cast<std::size_t>(j)];
-                    if (p.reported() && p.value > 0)
-                        before += p.value;
-                }
-                const double total = in.measures[m].regionTotals[r];
-                const double size = -static_cast<double>(c.value);
-                const bool absorbable = before >= size;
-                const bool large = total > 0 ? size >= 0.02 * total : true;
-                Finding f = makeFinding(
-                    in, FindingKind::NegativeCount,
-                    large || !absorbable ? Severity::Critical : Severity::Warning, r, m);
-                f.first = f.last = drop.periodStart(t);
-                f.impact = size;
-                f.evidence = {{"value", c.value},
-                              {"line", c.line},
-                              {"earlier_days_sum", before},
-                              {"earlier_days", in.daysIn(t - from)},
-                              {"earlier_periods", t - from},
-                              {"region_total", total}};
-                if (t > from) {
-                    f.suggestion = {{"decision", "spread_negative"},
-                                    {"date", drop.periodStart(t).iso()},
-                                    {"window_first", drop.periodStart(from).iso()},
-                                    {"window_last", drop.periodStart(t - 1).iso()},
-                                    {"absorbable", absorbable}};
-                } else {
-                    f.suggestion = {{"decision", "accept"},
-                                    {"note", std::string("no earlier ") + drop.axis.unitPlural() +
-                                                 " in the drop to absorb it"}};
-                }
-                out.push_back(std::move(f));
+    forEachCountSeries(in, [&](std::size_t m, std::size_t r, std::span<const Cell> cells) {
+        for (std::int32_t t = 0; t < drop.periods(); ++t) {
+            const Cell& c = cells[static_cast<std::size_t>(t)];
+            if (!c.reported() || c.value >= 0)
+                continue;
+            const std::int32_t from = std::max(0, t - spread);
+            double before = 0;
+            for (std::int32_t j = from; j < t; ++j) {
+                const Cell& p = cells[static_cast<std::size_t>(j)];
+                if (p.reported() && p.value > 0)
+                    before += p.value;
             }
+            const double total = in.measures[m].regionTotals[r];
+            const double size = -static_cast<double>(c.value);
+            const bool absorbable = before >= size;
+            const bool large = total > 0 ? size >= 0.02 * total : true;
+            Finding f =
+                makeFinding(in, FindingKind::NegativeCount,
+                            large || !absorbable ? Severity::Critical : Severity::Warning, r, m);
+            f.first = f.last = drop.periodStart(t);
+            f.impact = size;
+            f.evidence = {{"value", c.value},
+                          {"line", c.line},
+                          {"earlier_days_sum", before},
+                          {"earlier_days", in.daysIn(t - from)},
+                          {"earlier_periods", t - from},
+                          {"region_total", total}};
+            if (t > from) {
+                Decision s = suggestionFor(f, DecisionKind::SpreadNegative);
+                s.date = drop.periodStart(t);
+                s.window = DayRange{drop.periodStart(from), drop.periodStart(t - 1)};
+                f.suggestion = std::move(s);
+                f.suggestionNotes.absorbable = absorbable;
+            } else {
+                suggestAccept(f, std::string("no earlier ") + drop.axis.unitPlural() +
+                                     " in the drop to absorb it");
+            }
+            out.push_back(std::move(f));
         }
-    }
+    });
 }
 
 }  // namespace siftwave::scan::detail

@@ -85,21 +85,19 @@ void findReportingGaps(const ScanInput& in, std::vector<Finding>& out) {
                             f.evidence["value_after"] = after.value;
                         f.evidence["catch_up"] = catchUp;
                         if (catchUp) {
-                            f.suggestion = {{"decision", "redistribute"},
-                                            {"date", drop.periodStart(end + 1).iso()},
-                                            {"excess", std::max<long long>(
-                                                           0, std::llround(after.value - level))},
-                                            {"window_first", f.first->iso()},
-                                            {"window_last", f.last->iso()},
-                                            {"method", "baseline"}};
+                            Decision s = suggestionFor(f, DecisionKind::Redistribute);
+                            s.date = drop.periodStart(end + 1);
+                            s.excess = std::max<long long>(0, std::llround(after.value - level));
+                            s.window = DayRange{*f.first, *f.last};
+                            s.redistributeMethod = RedistributeMethod::Baseline;
+                            f.suggestion = std::move(s);
                         } else {
-                            f.suggestion = {
-                                {"decision", "exclude"},
-                                {"first", f.first->iso()},
-                                {"last", f.last->iso()},
-                                {"note", std::string("zeros inside an active "
-                                                     "stretch are probably ") +
-                                             drop.axis.unitPlural() + " that were not reported"}};
+                            Decision s = suggestionFor(f, DecisionKind::Exclude);
+                            s.window = DayRange{*f.first, *f.last};
+                            f.suggestion = std::move(s);
+                            f.suggestionNotes.note =
+                                std::string("zeros inside an active stretch are probably ") +
+                                drop.axis.unitPlural() + " that were not reported";
                         }
                         out.push_back(std::move(f));
                     }

@@ -201,10 +201,9 @@ void findRevisions(const ScanInput& in, std::vector<Finding>& out, RevisionSumma
                           {"previous_total", oldTotal},
                           {"share_of_previous", share},
                           {"dates", dates}};
-            f.suggestion = {{"decision", "accept"},
-                            {"note", std::string("revisions of earlier ") + now.axis.unitPlural() +
-                                         " are normal for late reports; check that the new "
-                                         "values are the ones to brief on"}};
+            suggestAccept(f, std::string("revisions of earlier ") + now.axis.unitPlural() +
+                                 " are normal for late reports; check that the new "
+                                 "values are the ones to brief on");
             out.push_back(std::move(f));
         }
     }

@@ -1,5 +1,6 @@
 #include "siftwave/scan/scan.h"
 
+#include "scan/finding_kinds.h"
 #include "scan/scan_input.h"
 
 #include <algorithm>
@@ -61,36 +62,14 @@ Result<ScanReport> scanDrop(const Drop& drop, const ScanOptions& options,
 
     ScanReport report;
     report.cadence = drop.axis.cadence();
-    std::vector<Finding>& all = report.findings;
-    if (options.missingDates.enabled)
-        detail::findMissingDates(in, all);
-    if (options.duplicateRow.enabled)
-        detail::findDuplicateRows(in, all);
-    if (options.negativeCount.enabled)
-        detail::findNegativeCounts(in, all);
-    if (options.backlogDump.enabled)
-        detail::findBacklogDumps(in, all);
-    if (options.reportingGap.enabled)
-        detail::findReportingGaps(in, all);
-    if (options.staleValues.enabled)
-        detail::findStaleValues(in, all);
-    if (options.codeCollision.enabled)
-        detail::findCodeCollisions(in, all);
-    if (options.codeVariant.enabled)
-        detail::findCodeVariants(in, all);
-    if (options.unknownCode.enabled && context.regions)
-        detail::findUnknownCodes(in, all);
-    if (options.weekdayEffect.enabled)
-        detail::findWeekdayEffects(in, all);
-    if (options.cumulativeDecrease.enabled)
-        detail::findCumulativeDecreases(in, all);
-    if (options.hierarchyMismatch.enabled && context.regions) {
-        detail::findHierarchyMismatches(in, all);
-    }
-    if (options.revision.enabled && context.previous) {
-        detail::findRevisions(in, all, report.revisions);
+    for (const detail::FindingKindDescriptor& kind : detail::findingKindTable()) {
+        const bool inputs = (!(kind.needs & detail::kNeedsPrevious) || context.previous) &&
+                            (!(kind.needs & detail::kNeedsRegister) || context.regions);
+        if (inputs && kind.enabled(options))
+            kind.detect(in, report);
     }
 
+    std::vector<Finding>& all = report.findings;
     // Review order: severity, then counts in doubt, then kind, region order, date.
     std::unordered_map<std::string, std::size_t> regionOrder;
     for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
@@ -127,6 +106,8 @@ Result<ScanReport> scanDrop(const Drop& drop, const ScanOptions& options,
         if (n > 1)
             id += "-" + std::to_string(n);
         f.id = std::move(id);
+        if (f.suggestion)
+            f.suggestion->finding = f.id;
     }
 
     for (FindingKind kind : kAllFindingKinds)

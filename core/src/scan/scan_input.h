@@ -12,6 +12,8 @@
 #include "siftwave/scan/scan.h"
 #include "siftwave/scan/scan_options.h"
 
+#include <nlohmann/json.hpp>
+
 #include <array>
 #include <cmath>
 #include <cstddef>
@@ -105,9 +107,30 @@ double estimateOverdispersion(const Drop& drop, std::size_t measure, int firstWe
 /// The w above for the drop's cadence.
 int overdispersionWidth(const TimeAxis& axis);
 
+/// Calls visit(m, r, cells) for every region's series of every measure that is not
+/// cumulative (a cumulative measure's decreases are cumulative_decrease's).
+template <typename Visit>
+void forEachCountSeries(const ScanInput& in, Visit&& visit) {
+    for (std::size_t m = 0; m < in.drop.measures.size(); ++m) {
+        if (in.measures[m].cumulative)
+            continue;
+        for (std::size_t r = 0; r < in.drop.regionCodes.size(); ++r)
+            visit(m, r, in.drop.series(m, r));
+    }
+}
+
 /// A finding with kind, severity, region (by index) and measure (by index) filled in.
 Finding makeFinding(const ScanInput& in, FindingKind kind, Severity severity,
                     std::optional<std::size_t> region, std::optional<std::size_t> measure);
+
+/// A suggestion of `kind` for `f`, with the finding's region and measure (empty: every
+/// measure); set the finding's region before.
+Decision suggestionFor(const Finding& f, DecisionKind kind);
+/// A suggestion to merge region `variant` into `into` (every measure; it names no region).
+Decision mergeSuggestion(const Finding& f, const std::string& variant, const std::string& into);
+/// Suggests keeping the finding's cells as reported (its region, measure and periods: set
+/// them before), with a note for the analyst.
+void suggestAccept(Finding& f, std::string note);
 
 // One detector per file, each appending its findings.
 void findMissingDates(const ScanInput& in, std::vector<Finding>& out);

@@ -21,51 +21,45 @@ void findStaleValues(const ScanInput& in, std::vector<Finding>& out) {
     const StaleValuesOptions& o = in.options.staleValues;
     const int minRun = in.periods(o.minDays, o.minWeeks);
     std::unordered_map<std::int32_t, double> equalChance;  // memo per value
-    for (std::size_t m = 0; m < drop.measures.size(); ++m) {
-        if (in.measures[m].cumulative)
-            continue;
-        for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
-            const std::span<const Cell> cells = drop.series(m, r);
-            for (std::int32_t t = 0; t < drop.periods(); ++t) {
-                const Cell& c = cells[static_cast<std::size_t>(t)];
-                if (!c.reported() || c.value <= 0)
-                    continue;
-                std::int32_t end = t;
-                while (end + 1 < drop.periods() &&
-                       cells[static_cast<std::size_t>(end) + 1].reported() &&
-                       cells[static_cast<std::size_t>(end) + 1].value == c.value) {
-                    ++end;
-                }
-                const int periods = end - t + 1;
-                if (periods >= minRun) {
-                    auto it = equalChance.find(c.value);
-                    if (it == equalChance.end()) {
-                        it = equalChance.emplace(c.value, poissonEqualChance(c.value)).first;
-                    }
-                    const double chance = std::pow(it->second, periods - 1);
-                    if (chance <= o.maxChance) {
-                        Finding f =
-                            makeFinding(in, FindingKind::StaleValues, Severity::Warning, r, m);
-                        f.first = drop.periodStart(t);
-                        f.last = drop.periodStart(end);
-                        f.impact = static_cast<double>(c.value) * (periods - 1);
-                        f.evidence = {{"value", c.value},
-                                      {"days", in.daysIn(periods)},
-                                      {"periods", periods},
-                                      {"chance_under_poisson", chance},
-                                      {"first_line", c.line}};
-                        // The first period of the run may be genuine; the copies follow it.
-                        f.suggestion = {{"decision", "exclude"},
-                                        {"first", drop.periodStart(t + 1).iso()},
-                                        {"last", f.last->iso()},
-                                        {"note", "values copied forward carry no new count"}};
-                        out.push_back(std::move(f));
-                    }
-                }
-                t = end;
+    forEachCountSeries(in, [&](std::size_t m, std::size_t r, std::span<const Cell> cells) {
+        for (std::int32_t t = 0; t < drop.periods(); ++t) {
+            const Cell& c = cells[static_cast<std::size_t>(t)];
+            if (!c.reported() || c.value <= 0)
+                continue;
+            std::int32_t end = t;
+            while (end + 1 < drop.periods() &&
+                   cells[static_cast<std::size_t>(end) + 1].reported() &&
+                   cells[static_cast<std::size_t>(end) + 1].value == c.value) {
+                ++end;
             }
+            const int periods = end - t + 1;
+            if (periods >= minRun) {
+                auto it = equalChance.find(c.value);
+                if (it == equalChance.end()) {
+                    it = equalChance.emplace(c.value, poissonEqualChance(c.value)).first;
+                }
+                const double chance = std::pow(it->second, periods - 1);
+                if (chance <= o.maxChance) {
+                    Finding f = makeFinding(in, FindingKind::StaleValues, Severity::Warning, r, m);
+                    f.first = drop.periodStart(t);
+                    f.last = drop.periodStart(end);
+                    f.impact = static_cast<double>(c.value) * (periods - 1);
+                    f.evidence = {{"value", c.value},
+                                  {"days", in.daysIn(periods)},
+                                  {"periods", periods},
+                                  {"chance_under_poisson", chance},
+                                  {"first_line", c.line}};
+                    // The first period of the run may be genuine; the copies follow it.
+                    Decision s = suggestionFor(f, DecisionKind::Exclude);
+                    s.window = DayRange{drop.periodStart(t + 1), *f.last};
+                    f.suggestion = std::move(s);
+                    f.suggestionNotes.note = "values copied forward carry no new count";
+                    out.push_back(std::move(f));
+                }
+            }
+            t = end;
         }
-    }
+    });
 }
 
 }  // namespace siftwave::scan::detail

@@ -38,11 +38,10 @@ void findUnknownCodes(const ScanInput& in, std::vector<Finding>& out) {
         auto match = byFold.find(foldCode(code));
         if (match != byFold.end()) {
             f.evidence["similar"] = match->second;
-            f.suggestion = {{"decision", "merge_codes"}, {"from", code}, {"into", match->second}};
+            f.suggestion = mergeSuggestion(f, code, match->second);
         } else {
-            f.suggestion = {{"decision", "exclude"},
-                            {"region", code},
-                            {"note", "or add the region to the register"}};
+            f.suggestion = suggestionFor(f, DecisionKind::Exclude);  // the whole region
+            f.suggestionNotes.note = "or add the region to the register";
         }
         out.push_back(std::move(f));
     }

@@ -87,10 +87,9 @@ void findWeekdayEffects(const ScanInput& in, std::vector<Finding>& out) {
                       {"regions_estimated", regional.size()},
                       {"regions_with_same_peak", samePeak},
                       {"strongest_regions", strongest}};
-        f.suggestion = {{"decision", "accept"},
-                        {"note",
-                         "a reporting rhythm, not a change in incidence: read trends "
-                         "from a centred 7-day moving average"}};
+        suggestAccept(f,
+                      "a reporting rhythm, not a change in incidence: read trends "
+                      "from a centred 7-day moving average");
         out.push_back(std::move(f));
     }
 }

@@ -8,6 +8,10 @@
 // (and the same previous Drop and register) always gives the same findings
 // with the same ids.
 //
+// The suggestion is typed: a ledger Decision (ledger/decision.h) the detector
+// builds directly, plus a few words for the analyst (SuggestionNotes). It is
+// written as JSON only at the edge, by findingToJson().
+//
 // JSON form (findingToJson):
 //   {"id", "kind", "severity": "info"|"warning"|"critical", "rank", "region",
 //    "measure", "first", "last", "evidence": {...}, "suggestion": {...}}
@@ -19,14 +23,18 @@
 // same numbers for daily data); the README's scan section lists them.
 
 #include "siftwave/date.h"
+#include "siftwave/ledger/decision.h"
 #include "siftwave/time_axis.h"
 
-#include <nlohmann/json.hpp>
+#include <nlohmann/json_fwd.hpp>
 
 #include <cstdint>
+#include <memory>
 #include <optional>
 #include <string>
 #include <string_view>
+#include <utility>
+#include <vector>
 
 namespace siftwave::scan {
 
@@ -67,6 +75,49 @@ enum class Severity {
 /// "info", "warning", "critical".
 const char* severityName(Severity severity);
 
+/// The evidence of a finding: numbers (and a few names) by key, per kind as the README's
+/// scan section lists them, kept as the JSON object the scan writes. Detectors fill it
+/// (they include nlohmann/json.hpp); readers that only show it use scalars() or dump() and
+/// need no JSON header.
+class Evidence {
+public:
+    Evidence();
+    Evidence(const Evidence& other);
+    Evidence(Evidence&& other) noexcept;
+    Evidence& operator=(const Evidence& other);
+    Evidence& operator=(Evidence&& other) noexcept;
+    ~Evidence();
+
+    /// Replaces the whole object: `f.evidence = {{"value", v}, {"line", l}}`.
+    Evidence& operator=(nlohmann::json object);
+    /// One value, added (null) when absent.
+    nlohmann::json& operator[](const std::string& key);
+    /// One value that must be there (an assertion; null in a release build).
+    const nlohmann::json& operator[](const std::string& key) const;
+
+    /// The object itself ({} when nothing was written).
+    const nlohmann::json& json() const;
+    bool contains(const std::string& key) const;
+    /// The top-level numbers and strings in key order, as text: strings as they are,
+    /// numbers as JSON writes them. For reason drafts and list views.
+    std::vector<std::pair<std::string, std::string>> scalars() const;
+    /// The object as compact JSON text.
+    std::string dump() const;
+
+private:
+    std::unique_ptr<nlohmann::json> m_object;  // null: {}
+};
+
+/// What a suggestion says besides its Decision: the scan's words for the analyst. Each is
+/// written into the suggestion's JSON only when set.
+struct SuggestionNotes {
+    std::string note;                // "note": why this decision, or what else to consider
+    std::string action;              // "action": a step outside the ledger, e.g.
+                                     // "use_daily_differences" (cumulative_decrease)
+    std::optional<bool> absorbable;  // "absorbable" (spread_negative): the earlier periods
+                                     // hold at least the correction
+};
+
 struct Finding {
     std::string id;  // stable: kind, region, measure and date range hashed (see scan.h)
     FindingKind kind = FindingKind::MissingDates;
@@ -83,12 +134,31 @@ struct Finding {
     /// amount, ...). Orders findings of the same severity; not part of the JSON.
     double impact = 0.0;
 
-    nlohmann::json evidence = nlohmann::json::object();
-    nlohmann::json suggestion = nlohmann::json::object();
+    Evidence evidence;
+
+    /// The decision the scan suggests; nullopt when it suggests none. It names the finding's
+    /// region and measure (empty for a finding about every measure: suggestedDecision()
+    /// fills the measure in) and, once scanDrop() has given the finding its id, the id.
+    std::optional<Decision> suggestion;
+    SuggestionNotes suggestionNotes;
 };
 
 /// The JSON object described above.
 nlohmann::json findingToJson(const Finding& finding);
+
+/// The "suggestion" object of findingToJson(), in the scan's JSON words ({} for none):
+///   {"decision": kind name, then per kind
+///    redistribute       "date", "excess", "window_first", "window_last", "method"
+///    spread_negative    "date", "window_first", "window_last"
+///    fill_missing       "first", "last", "method"
+///    resolve_duplicate  "date", "keep"
+///    merge_codes        "from", "into"
+///    exclude            "first", "last" (the periods), or "region" when it is a whole region
+///    accept             nothing more
+///   and "note", "action", "absorbable" where the SuggestionNotes hold them}
+nlohmann::json suggestionToJson(const Finding& finding);
+/// The same as compact JSON text, for readers without the JSON header (tooltips).
+std::string suggestionText(const Finding& finding);
 
 /// One line for a person, from the evidence: "observed 2643 where about 199 was expected
 /// (excess 2444)". Counts days or weeks by the finding's cadence. For tables and list views.

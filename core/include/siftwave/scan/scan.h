@@ -18,7 +18,7 @@
 #include "siftwave/scan/finding.h"
 #include "siftwave/scan/scan_options.h"
 
-#include <nlohmann/json.hpp>
+#include <nlohmann/json_fwd.hpp>
 
 #include <cstddef>
 #include <map>
