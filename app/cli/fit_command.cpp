@@ -4,8 +4,8 @@
 #include "commands.h"
 #include "common.h"
 
-#include "siftwave/fit/batch.h"
 #include "siftwave/csv_field.h"
+#include "siftwave/fit/batch.h"
 #include "siftwave/ledger/export.h"
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/replay.h"
@@ -356,7 +356,7 @@ int runFit(int argc, char** argv, int first) {
     fit::BatchOptions batch;
     if (auto m = args->optionalValue("model")) {
         if (*m == "best") {
-            batch.bestModel = true;
+            batch.fit.modelChoice = fit::ModelChoice::LowestAicc;
         } else if (auto k = fit::modelFromName(*m)) {
             batch.fit.model = *k;
         } else {

@@ -704,34 +704,15 @@ void MainWindow::refitNow(bool compare) {
         return;
     }
     const int measure = m_plot->measure();
-    fit::FitOptions options = m_fitPane->options();
-    std::vector<fit::ModelComparisonRow> rows;
-    std::optional<Result<fit::FitResult>> result;
-    if (compare || m_fitPane->bestModelWanted()) {
-        rows = m_workbench->compareModels(m_currentRegion, measure, options);
-        const fit::ModelComparisonRow* chosen = nullptr;
-        if (m_fitPane->bestModelWanted()) {
-            chosen = fit::bestByAicc(rows);
-        } else {
-            for (const fit::ModelComparisonRow& row : rows)
-                if (row.model == options.model)
-                    chosen = &row;
-        }
-        if (chosen && chosen->fit)
-            result.emplace(*chosen->fit);
-        else if (chosen)
-            result.emplace(makeError(ErrorCode::Numerical, chosen->error));
-        else
-            result.emplace(makeError(ErrorCode::Numerical, "no model converged on this window"));
-        if (!compare)
-            rows.clear();
-    } else {
-        result.emplace(m_workbench->fitRegion(m_currentRegion, measure, options));
-    }
+    // The model choice (including the lowest AICc) is the fit's own: FitOptions::modelChoice.
+    const fit::ComparedFit compared =
+        m_workbench->fitRegion(m_currentRegion, measure, m_fitPane->options(), compare);
+    const Result<fit::FitResult>& result = compared.fit;
+    const std::vector<fit::ModelComparisonRow>& rows = compared.comparison;
     m_fitPane->setCalendar(view.axis);
-    m_fitPane->showFit(*result, rows);
-    if (result->ok()) {
-        m_fit = result->value();
+    m_fitPane->showFit(result, rows);
+    if (result.ok()) {
+        m_fit = result.value();
         m_plot->setFit(widgets::curveFromFit(*m_fit, view.axis));
         if (!m_decisionPane->isActive())
             m_plot->setEditableWindow(widgets::DayIndexRange{m_fit->first, m_fit->last});

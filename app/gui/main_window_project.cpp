@@ -87,7 +87,9 @@ ProjectFile MainWindow::projectOfWindow(const QString& projectPath) const {
         p.view.visibleLast = drop.periodStart(visible.last);
     }
     const fit::FitOptions options = m_fitPane->options();
-    p.fit.model = m_fitPane->bestModelWanted() ? "best" : fit::modelName(options.model);
+    p.fit.model = options.modelChoice == fit::ModelChoice::LowestAicc
+                      ? "best"
+                      : fit::modelName(options.model);
     p.fit.method = fit::methodName(options.method);
     if (const auto window = m_fitPane->manualWindow()) {
         p.fit.windowFirst = drop.periodStart(window->first);

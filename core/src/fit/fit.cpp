@@ -394,8 +394,11 @@ std::vector<double> FitResult::parameterValues() const {
 }
 
 // ---------------------------------------------------------------- the fit
-Result<FitResult> fitSeries(const Series& series, const FitOptions& o,
-                            std::optional<double> population) {
+namespace {
+
+// The fit of o.model, whatever o.modelChoice says (fitSeries applies the choice).
+Result<FitResult> fitGivenModel(const Series& series, const FitOptions& o,
+                                std::optional<double> population) {
     if (auto s = o.validate(); !s)
         return s.error();
     const int pd = series.periodDays;
@@ -749,6 +752,42 @@ Result<FitResult> fitSeries(const Series& series, const FitOptions& o,
     return res;
 }
 
+// Why no model could be kept: the first model that failed and its reason, where one did.
+[[gnu::cold]] Error noModelConverged(const std::vector<ModelComparisonRow>& rows) {
+    for (const auto& row : rows) {
+        if (!row.error.empty())
+            return makeError(ErrorCode::Numerical,
+                             std::string(modelName(row.model)) + ": " + row.error);
+    }
+    return makeError(ErrorCode::Numerical, "no model converged on this window");
+}
+
+// The row options.modelChoice names among the four, as a fit or an error.
+Result<FitResult> chosenRow(const std::vector<ModelComparisonRow>& rows, const FitOptions& o) {
+    if (o.modelChoice == ModelChoice::LowestAicc) {
+        if (const ModelComparisonRow* best = bestByAicc(rows))
+            return *best->fit;
+        return noModelConverged(rows);
+    }
+    for (const ModelComparisonRow& row : rows) {
+        if (row.model != o.model)
+            continue;
+        if (row.fit)
+            return *row.fit;
+        return makeError(ErrorCode::Numerical, row.error);
+    }
+    return noModelConverged(rows);
+}
+
+}  // namespace
+
+Result<FitResult> fitSeries(const Series& series, const FitOptions& options,
+                            std::optional<double> population) {
+    if (options.modelChoice == ModelChoice::Given)
+        return fitGivenModel(series, options, population);
+    return chosenRow(compareModels(series, options, population), options);
+}
+
 std::vector<ModelComparisonRow> compareModels(const Series& series, const FitOptions& options,
                                               std::optional<double> population) {
     std::vector<ModelComparisonRow> rows;
@@ -757,7 +796,7 @@ std::vector<ModelComparisonRow> compareModels(const Series& series, const FitOpt
         o.model = kind;
         ModelComparisonRow row;
         row.model = kind;
-        auto r = fitSeries(series, o, population);
+        auto r = fitGivenModel(series, o, population);
         if (r) {
             row.fit = std::move(r.value());
         } else {
@@ -766,6 +805,15 @@ std::vector<ModelComparisonRow> compareModels(const Series& series, const FitOpt
         rows.push_back(std::move(row));
     }
     return rows;
+}
+
+ComparedFit fitWithComparison(const Series& series, const FitOptions& options,
+                              std::optional<double> population, bool compare) {
+    if (!compare)
+        return {fitSeries(series, options, population), {}};
+    std::vector<ModelComparisonRow> rows = compareModels(series, options, population);
+    Result<FitResult> fit = chosenRow(rows, options);
+    return {std::move(fit), std::move(rows)};
 }
 
 const ModelComparisonRow* bestByAicc(const std::vector<ModelComparisonRow>& rows) {
