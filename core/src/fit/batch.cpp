@@ -7,14 +7,15 @@
 namespace siftwave::fit {
 namespace {
 
-RegionFit fitOne(const RegionSeries& region, const BatchOptions& options) {
+RegionFit fitOne(const RegionSeries& region, const BatchOptions& options, FitWorkspace& workspace) {
     RegionFit out;
     out.region = region.region;
     try {
         // The model choice is the fit's own (FitOptions::modelChoice); with the lowest AICc the
         // comparison it was chosen from comes back too.
-        ComparedFit r = fitWithComparison(region.series, options.fit, region.population,
-                                          options.fit.modelChoice == ModelChoice::LowestAicc);
+        ComparedFit r =
+            fitWithComparison(region.series, options.fit, region.population,
+                              options.fit.modelChoice == ModelChoice::LowestAicc, workspace);
         if (r.fit)
             out.fit = std::move(r.fit.value());
         else
@@ -51,9 +52,11 @@ std::vector<RegionFit> fitRegions(std::span<const RegionSeries> regions,
     threads = std::min<unsigned>(threads,
                                  static_cast<unsigned>(std::max<std::size_t>(regions.size(), 1)));
     std::atomic<std::size_t> next{0};
+    // One workspace per worker, reused for each of its regions.
     auto work = [&]() {
+        FitWorkspace workspace;
         for (std::size_t i = next.fetch_add(1); i < regions.size(); i = next.fetch_add(1)) {
-            results[i] = fitOne(regions[i], options);
+            results[i] = fitOne(regions[i], options, workspace);
         }
     };
     if (threads <= 1) {

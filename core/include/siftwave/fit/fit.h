@@ -83,6 +83,7 @@
 #include "siftwave/fit/waves.h"
 #include "siftwave/result.h"
 
+#include <memory>
 #include <optional>
 #include <span>
 #include <string>
@@ -258,6 +259,32 @@ using DailySeries = Series;
 Result<FitResult> fitSeries(const Series& series, const FitOptions& options = {},
                             std::optional<double> population = std::nullopt);
 
+namespace detail {
+struct FitBuffers;  // core/src/fit/fit_workspace.h
+}
+
+/// The scratch memory of a fit: the smoothed counts, the target, the start, the solver's
+/// matrices (SolverWorkspace) and the covariance's sums. Made once per fit, or once per batch
+/// worker and passed to each of its fits, it keeps its storage from one fit to the next, so a
+/// batch allocates it once. A workspace serves one fit at a time (fits that run at once hold one
+/// each), which makes re-entrancy a property of the arguments.
+class FitWorkspace {
+public:
+    FitWorkspace();
+    ~FitWorkspace();
+    FitWorkspace(FitWorkspace&&) noexcept;
+    FitWorkspace& operator=(FitWorkspace&&) noexcept;
+
+    detail::FitBuffers& buffers() { return *m_buffers; }
+
+private:
+    std::unique_ptr<detail::FitBuffers> m_buffers;
+};
+
+/// fitSeries() with the scratch memory of `workspace` (the batch fit passes one per worker).
+Result<FitResult> fitSeries(const Series& series, const FitOptions& options,
+                            std::optional<double> population, FitWorkspace& workspace);
+
 /// The expected count per period and its pointwise interval on periods firstDay..lastDay
 /// (period indices into the series, may extend past the window, e.g. to draw the curve over the
 /// whole plot): for daily series the incidence K f(t) of each day, for weekly series each week's
@@ -297,6 +324,10 @@ struct ComparedFit {
 /// fitSeries(), with an empty comparison.
 ComparedFit fitWithComparison(const Series& series, const FitOptions& options,
                               std::optional<double> population, bool compare);
+/// The same with the scratch memory of `workspace`.
+ComparedFit fitWithComparison(const Series& series, const FitOptions& options,
+                              std::optional<double> population, bool compare,
+                              FitWorkspace& workspace);
 
 /// The comparison row with the lowest AICc among converged fits; nullptr when none.
 const ModelComparisonRow* bestByAicc(const std::vector<ModelComparisonRow>& rows);
