@@ -200,7 +200,7 @@ fit::ComparedFit Workbench::fitRegion(const QString& regionCode, int measure,
         return {makeError(ErrorCode::NotFound, "no such region or measure in the open drop"), {}};
     return fit::fitWithComparison(
         fit::Series{m_drop->axis.first(), counts, m_drop->axis.periodDays()}, options,
-        population(regionCode), compare);
+        population(regionCode), compare, m_fitWorkspace);
 }
 
 void Workbench::setDrop(std::shared_ptr<const Drop> drop,

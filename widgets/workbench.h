@@ -131,6 +131,9 @@ private:
         std::unordered_map<std::string, int> openByRegion;
     };
     mutable std::optional<DecisionIndex> m_decisionIndex;
+    // The scratch memory of the refits (fitRegion, on the GUI thread): made once, reused by every
+    // refit while a window is dragged.
+    mutable fit::FitWorkspace m_fitWorkspace;
     const DecisionIndex& decisionIndex() const;
 };
 

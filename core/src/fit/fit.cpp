@@ -540,11 +540,15 @@ void sandwichCovariance(FitState& s, const SolverResult& sr) {
     const std::vector<double>& kernel = s.kernel;
     const int m = static_cast<int>(t.size());
     std::vector<double>& scratch = s.work.sandwich;  // G, P and e^2
-    scratch.assign(modelDays * (2 * npu + 1), 0.0);
+    scratch.resize(modelDays * (2 * npu + 1));
     const std::span<double> G(scratch.data(), modelDays * npu),
         P(scratch.data() + modelDays * npu, modelDays * npu),
         e2(scratch.data() + 2 * modelDays * npu, modelDays);
     const std::size_t taps = kernel.size();
+    // Zeroed: what the sums below do not write in full (P, scattered onto the target days, or G,
+    // accumulated; and e^2). The window sums write every value of G.
+    std::fill(e2.begin(), e2.end(), 0.0);
+    std::fill(taps % 2 == 1 ? P.begin() : G.begin(), taps % 2 == 1 ? P.end() : G.end(), 0.0);
     if (taps % 2 == 1) {
         // Equal weights a: scatter w_i Jt_i onto day t_i, then a window sum of `taps`.
         for (int i = 0; i < m; ++i) {
