@@ -4,8 +4,8 @@
 #include "commands.h"
 #include "common.h"
 
-#include "siftwave/csv_field.h"
 #include "siftwave/fit/batch.h"
+#include "siftwave/fit/fit_export.h"
 #include "siftwave/ledger/export.h"
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/replay.h"
@@ -13,193 +13,14 @@
 
 #include <cmath>
 #include <cstdio>
+#include <cstdlib>
 #include <limits>
 #include <string>
+#include <variant>
 #include <vector>
 
 namespace siftwave::cli {
 namespace {
-
-using nlohmann::json;
-
-json number(double v) {
-    return std::isfinite(v) ? json(v) : json(nullptr);
-}
-
-json estimateJson(const fit::Estimate& e) {
-    return {{"value", number(e.value)},
-            {"se", number(e.se)},
-            {"ci95", json::array({number(e.lower), number(e.upper)})}};
-}
-
-json dateOrNull(const fit::FitResult& f, double day) {
-    return std::isfinite(day) ? json(f.dateOf(day).iso()) : json(nullptr);
-}
-
-json dateInterval(const fit::FitResult& f, const fit::Estimate& e) {
-    return json::array({dateOrNull(f, e.lower), dateOrNull(f, e.upper)});
-}
-
-// One row per window period (day or week, named by its first day): the fitted count of the
-// period and its pointwise 95% interval (delta method, fit.h step 5); lower/upper are null when
-// the covariance is unavailable.
-json curveJson(const fit::FitResult& f) {
-    json rows = json::array();
-    const bool band = f.fittedLower.size() == f.fitted.size();
-    for (std::size_t i = 0; i < f.fitted.size(); ++i) {
-        rows.push_back({{"date", f.periodStart(f.first + static_cast<int>(i)).iso()},
-                        {"fitted", number(f.fitted[i])},
-                        {"lower", band ? number(f.fittedLower[i]) : json(nullptr)},
-                        {"upper", band ? number(f.fittedUpper[i]) : json(nullptr)}});
-    }
-    return rows;
-}
-
-json fitJson(const std::string& region, const fit::FitResult& f,
-             const std::vector<fit::ModelComparisonRow>& comparison, bool withCurve) {
-    json j;
-    j["region"] = region;
-    j["model"] = fit::modelName(f.model);
-    j["method"] = fit::methodName(f.method);
-    j["window"] = {{"first", f.windowFirst().iso()}, {"last", f.windowLast().iso()}};
-    json params = json::object();
-    for (const auto& p : f.parameters)
-        params[p.name] = estimateJson(p.estimate);
-    j["parameters"] = params;
-    const auto& d = f.derived;
-    j["peak_date"] = dateOrNull(f, d.peakDay.value);
-    j["peak_incidence"] = number(d.peakIncidence.value);
-    j["incidence_unit"] = f.incidenceUnit();  // peak_incidence and curve: cases per day or week
-    j["wave_size"] = number(d.waveSize.value);
-    j["fraction_observed"] = number(d.fractionObserved.value);
-    j["start_date"] = dateOrNull(f, d.startDay.value);
-    j["end_date"] = dateOrNull(f, d.endDay.value);
-    j["fastest_growth_date"] = dateOrNull(f, d.fastestGrowthDay.value);
-    j["doubling_time_days"] = number(d.doublingTimeDays.value);
-    j["peak_infectious_load"] = number(d.peakInfectiousLoad.value);
-    j["peak_infectious_load_per_100k"] =
-        d.peakInfectiousLoadPer100k ? number(d.peakInfectiousLoadPer100k->value) : json(nullptr);
-    j["log10_infectious_share"] =
-        d.log10InfectiousShare ? number(d.log10InfectiousShare->value) : json(nullptr);
-    j["aic"] = number(f.goodness.aic);
-    j["aicc"] = number(f.goodness.aicc);
-    j["r2"] = number(f.goodness.r2);
-    j["rmse"] = number(f.goodness.rmse);
-    // Uncertainty of the derived quantities (delta method): values in days from the window
-    // start or in cases, dates for the date-valued ones.
-    j["uncertainty"] = {
-        {"peak_date_ci95", dateInterval(f, d.peakDay)},
-        {"peak_day", estimateJson(d.peakDay)},
-        {"peak_incidence", estimateJson(d.peakIncidence)},
-        {"wave_size", estimateJson(d.waveSize)},
-        {"fraction_observed", estimateJson(d.fractionObserved)},
-        {"start_date_ci95", dateInterval(f, d.startDay)},
-        {"end_date_ci95", dateInterval(f, d.endDay)},
-        {"doubling_time_days", estimateJson(d.doublingTimeDays)},
-        {"peak_infectious_load", estimateJson(d.peakInfectiousLoad)},
-    };
-    if (!f.weekdayFactors.empty())
-        j["weekday_factors"] = f.weekdayFactors;
-    if (f.dispersion)
-        j["dispersion"] = number(*f.dispersion);
-    j["infectious_window_days"] = f.options.infectiousWindowDays;
-    j["observations"] = f.goodness.observations;
-    j["summary"] = {{"converged", f.summary.converged()},
-                    {"termination", fit::terminationName(f.summary.termination)},
-                    {"iterations", f.summary.iterations},
-                    {"message", f.summary.message},
-                    {"notes", f.summary.notes},
-                    {"brief", f.summary.brief()}};
-    if (!comparison.empty()) {
-        json rows = json::array();
-        for (const auto& row : comparison) {
-            json r = {{"model", fit::modelName(row.model)}};
-            if (row.fit) {
-                r["aic"] = number(row.fit->goodness.aic);
-                r["aicc"] = number(row.fit->goodness.aicc);
-                r["r2"] = number(row.fit->goodness.r2);
-                r["rmse"] = number(row.fit->goodness.rmse);
-                r["converged"] = row.fit->summary.converged();
-                r["peak_date"] = dateOrNull(*row.fit, row.fit->derived.peakDay.value);
-            } else {
-                r["error"] = row.error;
-            }
-            rows.push_back(r);
-        }
-        j["comparison"] = rows;
-    }
-    if (withCurve)
-        j["curve"] = curveJson(f);
-    j["caution"] = fit::caution;
-    return j;
-}
-
-// RFC 4180 field, neutralised for spreadsheets: the core's one function (ledger/export.h), which
-// the cleaned-series export uses too.
-std::string csvField(const std::string& text) {
-    return siftwave::csvField(text, true);
-}
-
-std::string csvNumber(double v) {
-    if (!std::isfinite(v))
-        return "";
-    char buf[64];
-    std::snprintf(buf, sizeof buf, "%.10g", v);
-    return buf;
-}
-
-const char* kCsvHeader =
-    "region,model,method,window_first,window_last,peak_date,peak_incidence,incidence_unit,"
-    "wave_size,fraction_observed,start_date,end_date,fastest_growth_date,doubling_time_days,"
-    "peak_infectious_load,peak_infectious_load_per_100k,aic,aicc,r2,rmse,converged,parameters,"
-    "error";
-
-std::string csvRow(const fit::RegionFit& r) {
-    std::vector<std::string> c;
-    c.push_back(csvField(r.region));
-    if (!r.fit) {
-        for (int i = 0; i < 21; ++i)
-            c.emplace_back();
-        c.push_back(csvField(r.error ? r.error->message : "failed"));
-    } else {
-        const auto& f = *r.fit;
-        const auto& d = f.derived;
-        auto date = [&](double day) {
-            return std::isfinite(day) ? f.dateOf(day).iso() : std::string();
-        };
-        c.push_back(fit::modelName(f.model));
-        c.push_back(fit::methodName(f.method));
-        c.push_back(f.windowFirst().iso());
-        c.push_back(f.windowLast().iso());
-        c.push_back(date(d.peakDay.value));
-        c.push_back(csvNumber(d.peakIncidence.value));
-        c.push_back(f.incidenceUnit());
-        c.push_back(csvNumber(d.waveSize.value));
-        c.push_back(csvNumber(d.fractionObserved.value));
-        c.push_back(date(d.startDay.value));
-        c.push_back(date(d.endDay.value));
-        c.push_back(date(d.fastestGrowthDay.value));
-        c.push_back(csvNumber(d.doublingTimeDays.value));
-        c.push_back(csvNumber(d.peakInfectiousLoad.value));
-        c.push_back(d.peakInfectiousLoadPer100k ? csvNumber(d.peakInfectiousLoadPer100k->value)
-                                                : "");
-        c.push_back(csvNumber(f.goodness.aic));
-        c.push_back(csvNumber(f.goodness.aicc));
-        c.push_back(csvNumber(f.goodness.r2));
-        c.push_back(csvNumber(f.goodness.rmse));
-        c.push_back(f.summary.converged() ? "true" : "false");
-        std::string params;
-        for (const auto& p : f.parameters) {
-            params += (params.empty() ? "" : ";") + p.name + "=" + csvNumber(p.estimate.value);
-        }
-        c.push_back(csvField(params));
-        c.emplace_back();
-    }
-    std::string line;
-    for (std::size_t i = 0; i < c.size(); ++i)
-        line += (i ? "," : "") + c[i];
-    return line;
-}
 
 void printText(const fit::RegionFit& r, const TimeAxis& axis) {
     if (!r.fit) {
@@ -292,9 +113,7 @@ void printUsage(std::FILE* to, const std::vector<FlagSpec>& specs) {
                  fit::caution, formatFlags(specs).c_str());
 }
 
-}  // namespace
-
-int runFit(int argc, char** argv, int first) {
+std::vector<FlagSpec> fitFlagSpecs() {
     std::vector<FlagSpec> specs = ingestFlagSpecs();
     specs.push_back(
         {"ledger", true, false, "L", "fit the cleaned series: replay this ledger over the drop"});
@@ -321,6 +140,236 @@ int runFit(int argc, char** argv, int first) {
                      "its pointwise 95% interval"});
     specs.push_back({"csv", false, false, "", "print CSV (RFC 4180), one row per region"});
     specs.push_back({"help", false, false, "", "show this help"});
+    return specs;
+}
+
+// A step's failure: the error to print and the exit code to return.
+struct Failure {
+    Error error;
+    int exitCode = kExitBadInput;
+};
+
+template <class T>
+using Step = std::variant<T, Failure>;
+
+// The model, method, weekday and wave flags; a usage message when a value is unknown.
+std::optional<std::string> readModelFlags(const ParsedArgs& args, fit::FitOptions& o) {
+    if (auto m = args.optionalValue("model")) {
+        if (*m == "best") {
+            o.modelChoice = fit::ModelChoice::LowestAicc;
+        } else if (auto k = fit::modelFromName(*m)) {
+            o.model = *k;
+        } else {
+            return "unknown --model '" + *m + "' (gumbel, logistic, richards, lognormal, best)";
+        }
+    }
+    if (auto m = args.optionalValue("method")) {
+        auto k = fit::methodFromName(*m);
+        if (!k)
+            return "unknown --method '" + *m + "' (lsq, poisson, negbin)";
+        o.method = *k;
+    }
+    o.weekdayFactors = args.has("weekday");
+    if (auto w = args.optionalValue("wave")) {
+        if (*w == "largest") {
+            o.wave = fit::WaveChoice::Largest;
+        } else if (*w == "latest") {
+            o.wave = fit::WaveChoice::Latest;
+        } else {
+            char* end = nullptr;
+            const long n = std::strtol(w->c_str(), &end, 10);
+            if (w->empty() || *end != '\0' || n < 1)
+                return std::string("--wave wants largest, latest or a number from 1");
+            o.wave = fit::WaveChoice::Index;
+            o.waveIndex = static_cast<int>(n - 1);
+        }
+    }
+    return std::nullopt;
+}
+
+// The register (--regions, else the one beside the drop unless --no-regions) and the measure
+// (--measure, default the first) for the drop.
+std::optional<Failure> readRegisterAndMeasure(const ParsedArgs& args, const Drop& drop,
+                                              std::optional<RegionRegister>& reg,
+                                              std::size_t& measure) {
+    Result<std::optional<RegionRegister>> registerRead = loadRegister(args, args.positional[0]);
+    if (!registerRead)
+        return Failure{registerRead.error()};
+    reg = std::move(registerRead.value());
+    if (auto m = args.optionalValue("measure")) {
+        auto idx = drop.measureIndex(*m);
+        if (!idx) {
+            Error e = makeError(ErrorCode::NotFound, "the drop has no measure '" + *m + "'");
+            e.file = drop.source.path;
+            return Failure{e};
+        }
+        measure = *idx;
+    }
+    if (drop.measures.empty() || drop.periods() == 0)
+        return Failure{makeError(ErrorCode::NotFound, "the drop holds no counts to fit")};
+    return std::nullopt;
+}
+
+// What the drop's calendar asks of the options: the weekly smoothing and wave-detection
+// thresholds (fit.h, waves.h), no weekday factors on weekly counts, and the window's dates as
+// periods.
+std::optional<Failure> fitToCalendar(const ParsedArgs& args, const Drop& drop, fit::FitOptions& o) {
+    if (drop.axis.weekly()) {
+        if (o.weekdayFactors) {
+            return Failure{makeError(ErrorCode::Usage,
+                                     "--weekday needs daily counts: a weekly count holds every "
+                                     "weekday once"),
+                           kExitUsage};
+        }
+        const fit::FitOptions weekly = fit::FitOptions::forCadence(Cadence::Weekly);
+        o.smoothingWindow = weekly.smoothingWindow;
+        o.detection = weekly.detection;
+    }
+    if (auto w = args.optionalValue("window"); w && *w != "auto") {
+        auto win = parseWindow(*w, drop);
+        if (!win)
+            return Failure{win.error(), kExitUsage};
+        o.window = *win;
+    }
+    return std::nullopt;
+}
+
+// The regions to fit: --region's, or every region of the drop.
+Step<std::vector<std::size_t>> regionsToFit(const ParsedArgs& args, const Drop& drop) {
+    std::vector<std::size_t> indices;
+    if (auto code = args.optionalValue("region")) {
+        auto idx = drop.regionIndex(*code);
+        if (!idx) {
+            Error e = makeError(ErrorCode::NotFound, "the drop has no region '" + *code + "'");
+            e.file = drop.source.path;
+            e.region = *code;
+            return Failure{e};
+        }
+        indices.push_back(*idx);
+    } else {
+        for (std::size_t i = 0; i < drop.regionCodes.size(); ++i)
+            indices.push_back(i);
+    }
+    return indices;
+}
+
+// With --ledger, the cleaned series: the ledger replayed over the drop.
+Step<std::optional<Cleaned>> cleanedByLedger(const ParsedArgs& args, const Drop& drop) {
+    auto path = args.optionalValue("ledger");
+    if (!path)
+        return std::optional<Cleaned>();
+    auto ledger = readLedgerFile(*path);
+    if (!ledger)
+        return Failure{ledger.error()};
+    auto replayed = replay(drop, *ledger);
+    if (!replayed)
+        return Failure{replayed.error()};
+    return std::optional<Cleaned>(std::move(replayed.value()));
+}
+
+// Each region's counts (cleaned where a ledger was replayed; NaN where there is no value), with
+// its population from the register. `counts` holds the values the series point into.
+std::vector<fit::RegionSeries> regionSeries(const Drop& drop, const std::optional<Cleaned>& cleaned,
+                                            const std::optional<RegionRegister>& reg,
+                                            std::size_t measure,
+                                            const std::vector<std::size_t>& indices,
+                                            std::vector<std::vector<double>>& counts) {
+    counts.assign(indices.size(), {});
+    std::vector<fit::RegionSeries> regions(indices.size());
+    for (std::size_t k = 0; k < indices.size(); ++k) {
+        if (cleaned) {
+            const auto cells = cleaned->series(measure, indices[k]);
+            counts[k].assign(cells.size(), std::numeric_limits<double>::quiet_NaN());
+            for (std::size_t d = 0; d < cells.size(); ++d) {
+                if (cells[d].hasValue())
+                    counts[k][d] = static_cast<double>(cells[d].value);
+            }
+        } else {
+            counts[k] = series::countsOf(drop, measure, indices[k]);
+        }
+        const std::string& code = drop.regionCodes[indices[k]];
+        std::optional<double> population;
+        if (reg) {
+            if (const RegionEntry* e = reg->find(code); e && e->population) {
+                population = static_cast<double>(*e->population);
+            }
+        }
+        regions[k] = {code, {drop.axis.first(), counts[k], drop.axis.periodDays()}, population};
+    }
+    return regions;
+}
+
+enum class OutputFormat { Text, Json, Csv };
+
+// The results as JSON (one object for --region, an array for --all), CSV rows or text, with
+// the caution.
+void printResults(const std::vector<fit::RegionFit>& results, OutputFormat format, bool single,
+                  bool withCurve, const TimeAxis& axis) {
+    if (format == OutputFormat::Json) {
+        if (single) {
+            printJson(fit::fitToJson(results[0].region, *results[0].fit, results[0].comparison,
+                                     withCurve));
+            return;
+        }
+        nlohmann::json all = nlohmann::json::array();
+        for (const auto& r : results) {
+            if (r.fit) {
+                all.push_back(fit::fitToJson(r.region, *r.fit, r.comparison, withCurve));
+            } else {
+                nlohmann::json e = {{"region", r.region}, {"error", errorToJson(*r.error)}};
+                all.push_back(e);
+            }
+        }
+        printJson(all);
+    } else if (format == OutputFormat::Csv) {
+        std::printf("%s\n", std::string(fit::fitCsvHeader()).c_str());
+        for (const auto& r : results)
+            std::printf("%s\n", fit::fitCsvRow(r).c_str());
+        std::fprintf(stderr, "siftwave-cli: %s\n", fit::caution);
+    } else {
+        for (const auto& r : results)
+            printText(r, axis);
+        std::printf("\nCaution: %s\n", fit::caution);
+    }
+}
+
+// What the drop and the flags come to: the series to fit and the options to fit them with.
+struct FitJob {
+    Drop drop;
+    std::optional<RegionRegister> reg;
+    std::optional<Cleaned> cleaned;
+    std::size_t measure = 0;
+    std::vector<std::size_t> indices;
+};
+
+// Reads the drop, the register, the ledger and the regions the flags name, and fits the
+// options to the drop's calendar.
+Step<FitJob> prepareJob(const ParsedArgs& args, fit::FitOptions& o) {
+    Result<Drop> drop = loadDrop(args.positional[0], args);
+    if (!drop) {
+        const int code = drop.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+        return Failure{drop.error(), code};
+    }
+    FitJob job{std::move(drop.value()), {}, {}, 0, {}};
+    if (auto f = readRegisterAndMeasure(args, job.drop, job.reg, job.measure))
+        return *f;
+    if (auto f = fitToCalendar(args, job.drop, o))
+        return *f;
+    auto indices = regionsToFit(args, job.drop);
+    if (auto* f = std::get_if<Failure>(&indices))
+        return *f;
+    job.indices = std::move(std::get<0>(indices));
+    auto cleaned = cleanedByLedger(args, job.drop);
+    if (auto* f = std::get_if<Failure>(&cleaned))
+        return *f;
+    job.cleaned = std::move(std::get<0>(cleaned));
+    return job;
+}
+
+}  // namespace
+
+int runFit(int argc, char** argv, int first) {
+    const std::vector<FlagSpec> specs = fitFlagSpecs();
     bool wantsJson = false;
     for (int i = first; i < argc; ++i) {
         const std::string a = argv[i];
@@ -354,141 +403,20 @@ int runFit(int argc, char** argv, int first) {
         return usage("give either --region CODE or --all");
 
     fit::BatchOptions batch;
-    if (auto m = args->optionalValue("model")) {
-        if (*m == "best") {
-            batch.bestModel = true;
-        } else if (auto k = fit::modelFromName(*m)) {
-            batch.fit.model = *k;
-        } else {
-            return usage("unknown --model '" + *m +
-                         "' (gumbel, logistic, richards, lognormal, best)");
-        }
-    }
-    if (auto m = args->optionalValue("method")) {
-        auto k = fit::methodFromName(*m);
-        if (!k)
-            return usage("unknown --method '" + *m + "' (lsq, poisson, negbin)");
-        batch.fit.method = *k;
-    }
-    batch.fit.weekdayFactors = args->has("weekday");
-    if (auto w = args->optionalValue("wave")) {
-        if (*w == "largest") {
-            batch.fit.wave = fit::WaveChoice::Largest;
-        } else if (*w == "latest") {
-            batch.fit.wave = fit::WaveChoice::Latest;
-        } else {
-            char* end = nullptr;
-            const long n = std::strtol(w->c_str(), &end, 10);
-            if (w->empty() || *end != '\0' || n < 1)
-                return usage("--wave wants largest, latest or a number from 1");
-            batch.fit.wave = fit::WaveChoice::Index;
-            batch.fit.waveIndex = static_cast<int>(n - 1);
-        }
-    }
+    if (auto message = readModelFlags(*args, batch.fit))
+        return usage(*message);
     if (auto s = batch.validate(); !s) {
         printError(s.error(), json);
         return kExitUsage;
     }
-
-    Result<Drop> drop = loadDrop(args->positional[0], *args);
-    if (!drop) {
-        printError(drop.error(), json);
-        return drop.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+    auto job = prepareJob(*args, batch.fit);
+    if (auto* f = std::get_if<Failure>(&job)) {
+        printError(f->error, json);
+        return f->exitCode;
     }
-    Result<std::optional<RegionRegister>> registerRead = loadRegister(*args, args->positional[0]);
-    if (!registerRead) {
-        printError(registerRead.error(), json);
-        return kExitBadInput;
-    }
-    const std::optional<RegionRegister>& reg = *registerRead;
-    std::size_t measure = 0;
-    if (auto m = args->optionalValue("measure")) {
-        auto idx = drop->measureIndex(*m);
-        if (!idx) {
-            Error e = makeError(ErrorCode::NotFound, "the drop has no measure '" + *m + "'");
-            e.file = drop->source.path;
-            printError(e, json);
-            return kExitBadInput;
-        }
-        measure = *idx;
-    }
-    if (drop->measures.empty() || drop->periods() == 0) {
-        printError(makeError(ErrorCode::NotFound, "the drop holds no counts to fit"), json);
-        return kExitBadInput;
-    }
-    if (drop->axis.weekly()) {
-        // The weekly smoothing and wave-detection thresholds (fit.h, waves.h).
-        if (batch.fit.weekdayFactors) {
-            printError(makeError(ErrorCode::Usage,
-                                 "--weekday needs daily counts: a weekly count holds every "
-                                 "weekday once"),
-                       json);
-            return kExitUsage;
-        }
-        const fit::FitOptions weekly = fit::FitOptions::forCadence(Cadence::Weekly);
-        batch.fit.smoothingWindow = weekly.smoothingWindow;
-        batch.fit.detection = weekly.detection;
-    }
-    if (auto w = args->optionalValue("window"); w && *w != "auto") {
-        auto win = parseWindow(*w, *drop);
-        if (!win) {
-            printError(win.error(), json);
-            return kExitUsage;
-        }
-        batch.fit.window = *win;
-    }
-
-    std::vector<std::size_t> indices;
-    if (auto code = args->optionalValue("region")) {
-        auto idx = drop->regionIndex(*code);
-        if (!idx) {
-            Error e = makeError(ErrorCode::NotFound, "the drop has no region '" + *code + "'");
-            e.file = drop->source.path;
-            e.region = *code;
-            printError(e, json);
-            return kExitBadInput;
-        }
-        indices.push_back(*idx);
-    } else {
-        for (std::size_t i = 0; i < drop->regionCodes.size(); ++i)
-            indices.push_back(i);
-    }
-    std::optional<Cleaned> cleaned;
-    if (auto path = args->optionalValue("ledger")) {
-        auto ledger = readLedgerFile(*path);
-        if (!ledger) {
-            printError(ledger.error(), json);
-            return kExitBadInput;
-        }
-        auto replayed = replay(*drop, *ledger);
-        if (!replayed) {
-            printError(replayed.error(), json);
-            return kExitBadInput;
-        }
-        cleaned = std::move(replayed.value());
-    }
-    std::vector<std::vector<double>> counts(indices.size());
-    std::vector<fit::RegionSeries> regions(indices.size());
-    for (std::size_t k = 0; k < indices.size(); ++k) {
-        if (cleaned) {
-            const auto cells = cleaned->series(measure, indices[k]);
-            counts[k].assign(cells.size(), std::numeric_limits<double>::quiet_NaN());
-            for (std::size_t d = 0; d < cells.size(); ++d) {
-                if (cells[d].hasValue())
-                    counts[k][d] = static_cast<double>(cells[d].value);
-            }
-        } else {
-            counts[k] = series::countsOf(*drop, measure, indices[k]);
-        }
-        const std::string& code = drop->regionCodes[indices[k]];
-        std::optional<double> population;
-        if (reg) {
-            if (const RegionEntry* e = reg->find(code); e && e->population) {
-                population = static_cast<double>(*e->population);
-            }
-        }
-        regions[k] = {code, {drop->axis.first(), counts[k], drop->axis.periodDays()}, population};
-    }
+    const FitJob& j = std::get<FitJob>(job);
+    std::vector<std::vector<double>> counts;
+    const auto regions = regionSeries(j.drop, j.cleaned, j.reg, j.measure, j.indices, counts);
     const auto results = fit::fitRegions(regions, batch);
 
     const bool single = args->has("region");
@@ -496,32 +424,9 @@ int runFit(int argc, char** argv, int first) {
         printError(*results[0].error, json);
         return kExitBadInput;
     }
-    if (json) {
-        if (single) {
-            printJson(
-                fitJson(results[0].region, *results[0].fit, results[0].comparison, withCurve));
-        } else {
-            nlohmann::json all = nlohmann::json::array();
-            for (const auto& r : results) {
-                if (r.fit) {
-                    all.push_back(fitJson(r.region, *r.fit, r.comparison, withCurve));
-                } else {
-                    nlohmann::json e = {{"region", r.region}, {"error", errorToJson(*r.error)}};
-                    all.push_back(e);
-                }
-            }
-            printJson(all);
-        }
-    } else if (csv) {
-        std::printf("%s\n", kCsvHeader);
-        for (const auto& r : results)
-            std::printf("%s\n", csvRow(r).c_str());
-        std::fprintf(stderr, "siftwave-cli: %s\n", fit::caution);
-    } else {
-        for (const auto& r : results)
-            printText(r, drop->axis);
-        std::printf("\nCaution: %s\n", fit::caution);
-    }
+    const OutputFormat format =
+        json ? OutputFormat::Json : (csv ? OutputFormat::Csv : OutputFormat::Text);
+    printResults(results, format, single, withCurve, j.drop.axis);
     return kExitOk;
 }
 

@@ -53,11 +53,11 @@ void BatchController::start() {
     fit::FitOptions options = m_pane->options();
     options.window.reset();  // each region its own wave
     request.options.fit = options;
-    request.options.bestModel = m_pane->bestModelWanted();
     const QString what =
         tr("%1, %2, %3 (automatic windows)")
-            .arg(request.options.bestModel ? tr("lowest AICc")
-                                           : widgets::modelDisplayName(options.model),
+            .arg(options.modelChoice == fit::ModelChoice::LowestAicc
+                     ? tr("lowest AICc")
+                     : widgets::modelDisplayName(options.model),
                  widgets::methodDisplayName(options.method),
                  QString::fromStdString(drop.measures.at(static_cast<std::size_t>(measure))));
     const std::string sha = drop.source.sha256;

@@ -44,34 +44,15 @@ void FitController::refitNow(const QString& region, bool compare) {
         return;
     }
     const int measure = m_plot->measure();
-    fit::FitOptions options = m_pane->options();
-    std::vector<fit::ModelComparisonRow> rows;
-    std::optional<Result<fit::FitResult>> result;
-    if (compare || m_pane->bestModelWanted()) {
-        rows = m_workbench->compareModels(region, measure, options);
-        const fit::ModelComparisonRow* chosen = nullptr;
-        if (m_pane->bestModelWanted()) {
-            chosen = fit::bestByAicc(rows);
-        } else {
-            for (const fit::ModelComparisonRow& row : rows)
-                if (row.model == options.model)
-                    chosen = &row;
-        }
-        if (chosen && chosen->fit)
-            result.emplace(*chosen->fit);
-        else if (chosen)
-            result.emplace(makeError(ErrorCode::Numerical, chosen->error));
-        else
-            result.emplace(makeError(ErrorCode::Numerical, "no model converged on this window"));
-        if (!compare)
-            rows.clear();
-    } else {
-        result.emplace(m_workbench->fitRegion(region, measure, options));
-    }
+    // The model choice (including the lowest AICc) is the fit's own: FitOptions::modelChoice.
+    const fit::ComparedFit compared =
+        m_workbench->fitRegion(region, measure, m_pane->options(), compare);
+    const Result<fit::FitResult>& result = compared.fit;
+    const std::vector<fit::ModelComparisonRow>& rows = compared.comparison;
     m_pane->setCalendar(view.axis);
-    m_pane->showFit(*result, rows);
-    if (result->ok()) {
-        m_fit = result->value();
+    m_pane->showFit(result, rows);
+    if (result.ok()) {
+        m_fit = result.value();
         m_plot->setFit(widgets::curveFromFit(*m_fit, view.axis));
         if (!m_decisions->isActive())
             m_plot->setEditableWindow(widgets::DayIndexRange{m_fit->first, m_fit->last});
@@ -120,7 +101,9 @@ void FitController::restoreChoices(const ProjectFile& project, const TimeAxis& a
 
 void FitController::storeChoices(ProjectFile& project, const Drop& drop) const {
     const fit::FitOptions options = m_pane->options();
-    project.fit.model = m_pane->bestModelWanted() ? "best" : fit::modelName(options.model);
+    project.fit.model = options.modelChoice == fit::ModelChoice::LowestAicc
+                            ? "best"
+                            : fit::modelName(options.model);
     project.fit.method = fit::methodName(options.method);
     if (const auto window = m_pane->manualWindow()) {
         project.fit.windowFirst = drop.periodStart(window->first);

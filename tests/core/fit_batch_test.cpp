@@ -70,7 +70,7 @@ TEST(FitBatch, BestModelKeepsTheLowestAiccAndTheComparison) {
     const auto counts = test::generateCounts({}, 3);
     const std::vector<RegionSeries> regions{{"X", {first, counts}, {}}};
     BatchOptions o;
-    o.bestModel = true;
+    o.fit.modelChoice = ModelChoice::LowestAicc;
     const auto r = fitRegions(regions, o);
     ASSERT_TRUE(r[0].fit);
     ASSERT_EQ(r[0].comparison.size(), 4u);

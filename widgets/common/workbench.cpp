@@ -193,22 +193,14 @@ std::optional<double> Workbench::population(const QString& regionCode) const {
     return static_cast<double>(*entry->population);
 }
 
-Result<fit::FitResult> Workbench::fitRegion(const QString& regionCode, int measure,
-                                            const fit::FitOptions& options) const {
+fit::ComparedFit Workbench::fitRegion(const QString& regionCode, int measure,
+                                      const fit::FitOptions& options, bool compare) const {
     const std::vector<double> counts = cleanedCounts(regionCode, measure);
     if (counts.empty())
-        return makeError(ErrorCode::NotFound, "no such region or measure in the open drop");
-    return fit::fitSeries(fit::Series{m_drop->axis.first(), counts, m_drop->axis.periodDays()},
-                          options, population(regionCode));
-}
-
-std::vector<fit::ModelComparisonRow> Workbench::compareModels(
-    const QString& regionCode, int measure, const fit::FitOptions& options) const {
-    const std::vector<double> counts = cleanedCounts(regionCode, measure);
-    if (counts.empty())
-        return {};
-    return fit::compareModels(fit::Series{m_drop->axis.first(), counts, m_drop->axis.periodDays()},
-                              options, population(regionCode));
+        return {makeError(ErrorCode::NotFound, "no such region or measure in the open drop"), {}};
+    return fit::fitWithComparison(
+        fit::Series{m_drop->axis.first(), counts, m_drop->axis.periodDays()}, options,
+        population(regionCode), compare, m_fitWorkspace);
 }
 
 void Workbench::setDrop(std::shared_ptr<const Drop> drop,

@@ -56,12 +56,10 @@ public:
     std::vector<double> cleanedCounts(const QString& regionCode, int measure) const;
     /// The region's population from the register, when known.
     std::optional<double> population(const QString& regionCode) const;
-    /// Fits one wave of the region's cleaned counts (fit::fitSeries).
-    Result<fit::FitResult> fitRegion(const QString& regionCode, int measure,
-                                     const fit::FitOptions& options) const;
-    /// The four models on the same window and method (fit::compareModels).
-    std::vector<fit::ModelComparisonRow> compareModels(const QString& regionCode, int measure,
-                                                       const fit::FitOptions& options) const;
+    /// Fits one wave of the region's cleaned counts with the model the options choose and, with
+    /// `compare`, the four models beside it (fit::fitWithComparison).
+    fit::ComparedFit fitRegion(const QString& regionCode, int measure,
+                               const fit::FitOptions& options, bool compare) const;
 
     /// Replaces the open drop (and its register, which may be null).
     void setDrop(std::shared_ptr<const Drop> drop,
@@ -133,6 +131,9 @@ private:
         std::unordered_map<std::string, int> openByRegion;
     };
     mutable std::optional<DecisionIndex> m_decisionIndex;
+    // The scratch memory of the refits (fitRegion, on the GUI thread): made once, reused by every
+    // refit while a window is dragged.
+    mutable fit::FitWorkspace m_fitWorkspace;
     const DecisionIndex& decisionIndex() const;
 };
 

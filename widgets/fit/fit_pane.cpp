@@ -188,16 +188,13 @@ fit::FitOptions FitPane::options() const {
     fit::FitOptions options = fit::FitOptions::forCadence(m_axis.cadence());
     const int model = m_model->currentData().toInt();
     options.model = model >= 0 ? static_cast<fit::ModelKind>(model) : fit::ModelKind::Gumbel;
+    options.modelChoice = model >= 0 ? fit::ModelChoice::Given : fit::ModelChoice::LowestAicc;
     options.method = static_cast<fit::FitMethod>(m_method->currentData().toInt());
     options.weekdayFactors = !m_axis.weekly() && m_weekday->isEnabled() && m_weekday->isChecked();
     options.wave = static_cast<fit::WaveChoice>(m_wave->currentData().toInt());
     if (const auto window = manualWindow())
         options.window = std::make_pair(window->first, window->last);
     return options;
-}
-
-bool FitPane::bestModelWanted() const {
-    return m_model->currentData().toInt() < 0;
 }
 
 std::optional<DayIndexRange> FitPane::manualWindow() const {

@@ -36,10 +36,9 @@ class FitPane : public QWidget {
 public:
     explicit FitPane(QWidget* parent = nullptr);
 
-    /// The options the controls ask for (the window in day indices of the calendar).
+    /// The options the controls ask for (the window in day indices of the calendar; the model
+    /// choice, "lowest AICc of the comparison" included, in FitOptions::modelChoice).
     fit::FitOptions options() const;
-    /// True when the model choice is "lowest AICc of the comparison".
-    bool bestModelWanted() const;
     /// The chosen window, when the window is not automatic.
     std::optional<DayIndexRange> manualWindow() const;
 

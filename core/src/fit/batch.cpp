@@ -7,32 +7,20 @@
 namespace siftwave::fit {
 namespace {
 
-RegionFit fitOne(const RegionSeries& region, const BatchOptions& options) {
+RegionFit fitOne(const RegionSeries& region, const BatchOptions& options, FitWorkspace& workspace) {
     RegionFit out;
     out.region = region.region;
     try {
-        if (options.bestModel) {
-            out.comparison = compareModels(region.series, options.fit, region.population);
-            if (const ModelComparisonRow* best = bestByAicc(out.comparison)) {
-                out.fit = *best->fit;
-            } else {
-                Error e = makeError(ErrorCode::Numerical, "no model converged for this region");
-                for (const auto& row : out.comparison) {
-                    if (!row.error.empty()) {
-                        e.message = std::string(modelName(row.model)) + ": " + row.error;
-                        break;
-                    }
-                }
-                out.error = e;
-            }
-        } else {
-            auto r = fitSeries(region.series, options.fit, region.population);
-            if (r) {
-                out.fit = std::move(r.value());
-            } else {
-                out.error = r.error();
-            }
-        }
+        // The model choice is the fit's own (FitOptions::modelChoice); with the lowest AICc the
+        // comparison it was chosen from comes back too.
+        ComparedFit r =
+            fitWithComparison(region.series, options.fit, region.population,
+                              options.fit.modelChoice == ModelChoice::LowestAicc, workspace);
+        if (r.fit)
+            out.fit = std::move(r.fit.value());
+        else
+            out.error = r.fit.error();
+        out.comparison = std::move(r.comparison);
     } catch (const std::exception& e) {  // e.g. std::bad_alloc: this region only
         out.error = makeError(ErrorCode::Numerical, std::string("fit aborted: ") + e.what());
     }
@@ -64,9 +52,11 @@ std::vector<RegionFit> fitRegions(std::span<const RegionSeries> regions,
     threads = std::min<unsigned>(threads,
                                  static_cast<unsigned>(std::max<std::size_t>(regions.size(), 1)));
     std::atomic<std::size_t> next{0};
+    // One workspace per worker, reused for each of its regions.
     auto work = [&]() {
+        FitWorkspace workspace;
         for (std::size_t i = next.fetch_add(1); i < regions.size(); i = next.fetch_add(1)) {
-            results[i] = fitOne(regions[i], options);
+            results[i] = fitOne(regions[i], options, workspace);
         }
     };
     if (threads <= 1) {

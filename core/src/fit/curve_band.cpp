@@ -5,6 +5,7 @@
 
 #include <algorithm>
 #include <array>
+#include <atomic>
 #include <cmath>
 #include <string>
 #include <vector>
@@ -12,16 +13,22 @@
 namespace siftwave::fit {
 namespace detail {
 
+constexpr int kCachedDof = 4096;  // 95% Student-t quantiles kept for 1..4095 degrees of freedom
+
 double intervalQuantile(FitMethod method, int dof, double level) {
     const double tail = 0.5 + 0.5 * level;
     if (method == FitMethod::LeastSquares && dof > 0) {
-        if (level == 0.95 && dof < 4096) {
-            thread_local std::vector<double> cache;  // by degrees of freedom (costly to compute)
-            if (cache.size() <= static_cast<std::size_t>(dof))
-                cache.resize(static_cast<std::size_t>(dof) + 1, 0.0);
-            double& q = cache[static_cast<std::size_t>(dof)];
-            if (q == 0.0)
+        if (level == 0.95 && dof < kCachedDof) {
+            // A memo by degrees of freedom (the quantile is costly to compute), shared by every
+            // thread: each entry is computed where it is first needed, and two threads that race
+            // on it store the same value, so relaxed atomics suffice and no fit holds state.
+            static std::array<std::atomic<double>, kCachedDof> cache{};
+            std::atomic<double>& entry = cache[static_cast<std::size_t>(dof)];
+            double q = entry.load(std::memory_order_relaxed);
+            if (q == 0.0) {
                 q = boost::math::quantile(boost::math::students_t(static_cast<double>(dof)), tail);
+                entry.store(q, std::memory_order_relaxed);
+            }
             return q;
         }
         return boost::math::quantile(boost::math::students_t(static_cast<double>(dof)), tail);

@@ -1,6 +1,7 @@
 #include "siftwave/fit/fit.h"
 
 #include "fit/curve_band.h"
+#include "fit/fit_workspace.h"
 #include "fit/gram.h"
 #include "fit/likelihood.h"
 #include "fit/smoothed_least_squares.h"
@@ -46,8 +47,8 @@ enum DerivedIndex {
 
 // The infectious load on window day d: the fitted incidence summed over the W days ending on d,
 // sum_{k=0}^{W-1} K f(d - k).
-double infectiousLoadOn(const WaveModel& model, std::span<const double> p, int d, int W) {
-    thread_local std::vector<double> days;
+double infectiousLoadOn(const WaveModel& model, std::span<const double> p, int d, int W,
+                        std::vector<double>& days) {
     days.resize(static_cast<std::size_t>(W));
     model.incidenceOnDays(d - W + 1, p, days, {});
     double sum = 0;
@@ -60,14 +61,13 @@ double infectiousLoadOn(const WaveModel& model, std::span<const double> p, int d
 // over days. It lies where the day entering and the day leaving the sum carry about the same
 // incidence, after the peak and less than W days after it; the search covers the days from
 // the one before the peak to W + 1 days after it. NaN when the peak is not a usable day.
-double peakInfectiousLoadDay(const WaveModel& model, std::span<const double> p, double peak,
-                             int W) {
+double peakInfectiousLoadDay(const WaveModel& model, std::span<const double> p, double peak, int W,
+                             std::vector<double>& f) {
     if (!(std::abs(peak) < 1e7))
         return kNaN;
     const int from = static_cast<int>(std::floor(peak)) - 1;
     const int to = static_cast<int>(std::ceil(peak)) + W + 1;
     // The incidence on days from - W + 1 .. to, then the rolling sums of W of them.
-    thread_local std::vector<double> f;
     f.resize(static_cast<std::size_t>(to - from + W));
     model.incidenceOnDays(from - W + 1, p, f, {});
     double sum = 0;
@@ -102,9 +102,11 @@ double peakIncidencePerPeriod(const WaveModel& model, std::span<const double> p,
 // otherwise, and the load is taken there. The delta method uses the latter, which is exact to
 // first order (the envelope theorem: at a maximum the derivative of the location does not
 // enter). `lastDataDay`: the last day with data, counted from the window's first day.
+// `scratch`: the daily incidence the load is summed from.
 std::array<double, kDerivedCount> derive(const WaveModel& model, std::span<const double> p,
                                          const FitOptions& o, int periodDays, double lastDataDay,
-                                         double& loadDay, bool searchLoad) {
+                                         double& loadDay, bool searchLoad,
+                                         std::vector<double>& scratch) {
     std::array<double, kDerivedCount> d{};
     const double K = p[0];
     const double peak = model.peakTime(p);
@@ -123,9 +125,10 @@ std::array<double, kDerivedCount> derive(const WaveModel& model, std::span<const
     // In days for every cadence: the model's daily curve summed over W days (fit.h).
     const int W = o.infectiousWindowDays;
     if (searchLoad)
-        loadDay = peakInfectiousLoadDay(model, p, peak, W);
-    d[kLoad] =
-        std::isfinite(loadDay) ? infectiousLoadOn(model, p, static_cast<int>(loadDay), W) : kNaN;
+        loadDay = peakInfectiousLoadDay(model, p, peak, W, scratch);
+    d[kLoad] = std::isfinite(loadDay)
+                   ? infectiousLoadOn(model, p, static_cast<int>(loadDay), W, scratch)
+                   : kNaN;
     return d;
 }
 
@@ -394,324 +397,408 @@ std::vector<double> FitResult::parameterValues() const {
 }
 
 // ---------------------------------------------------------------- the fit
-Result<FitResult> fitSeries(const Series& series, const FitOptions& o,
-                            std::optional<double> population) {
+FitWorkspace::FitWorkspace() : m_buffers(std::make_unique<detail::FitBuffers>()) {}
+FitWorkspace::~FitWorkspace() = default;
+FitWorkspace::FitWorkspace(FitWorkspace&&) noexcept = default;
+FitWorkspace& FitWorkspace::operator=(FitWorkspace&&) noexcept = default;
+
+namespace {
+
+// What the steps of one fit share: the series and options, the model and the window, the
+// parameters and their covariance, and the model's values and Jacobian on the "model days"
+// (every window period and, for LSQ, the h periods either side that the centred average
+// reaches: shared by the sandwich, the fitted curve and its band). The names say "days": for
+// weekly data each is a period, its value the week's count.
+struct FitState {
+    FitState(const Series& s, const FitOptions& options, detail::FitBuffers& buffers)
+        : series(s), o(options), work(buffers), pd(s.periodDays) {}
+
+    const Series& series;
+    const FitOptions& o;
+    detail::FitBuffers& work;
+    const int pd;  // days per period
+    FitResult res;
+    const WaveModel* model = nullptr;
+    int np = 0;              // model parameters
+    double lastDataDay = 0;  // the last day with data, from the window's first day
+    std::vector<double> start;
+    std::vector<double> kernel;  // the centred average's weights
+    int h = 0;                   // periods the target's average reaches either side (LSQ)
+    int modelFirst = 0;          // the first model day, a period index into the series
+    std::size_t modelDays = 0;
+    std::vector<double> params;
+    std::vector<double> covariance;  // model parameters, np x np
+    int dof = 0;
+    std::span<const double> modelValues, modelJacobian;
+};
+
+// What a fit cannot start from: inconsistent options, a period that is neither a day nor a
+// week, weekday factors on weekly counts, fewer than 5 periods.
+std::optional<Error> unusableSeries(const Series& series, const FitOptions& o) {
     if (auto s = o.validate(); !s)
         return s.error();
     const int pd = series.periodDays;
     if (pd != 1 && (pd != 7 || o.weekdayFactors))
-        return *periodMismatch(pd, o);
-    const auto counts = series.counts;
-    const int n = static_cast<int>(counts.size());
-    if (n < 5)
+        return periodMismatch(pd, o);
+    if (series.counts.size() < 5)
         return tooShort("the series has fewer than 5", pd);
+    return std::nullopt;
+}
 
-    FitResult res;
+// Step 1: the window (given, or the wave chosen among those detected in the centred average,
+// which the start and the target share), the model, and the last day with data.
+std::optional<Error> chooseWindowAndModel(FitState& s) {
+    const FitOptions& o = s.o;
+    const auto counts = s.series.counts;
+    FitResult& res = s.res;
     res.model = o.model;
     res.method = o.method;
-    res.seriesFirstDay = series.firstDay;
-    res.periodDays = pd;
+    res.seriesFirstDay = s.series.firstDay;
+    res.periodDays = s.pd;
     res.options = o;
-    // The centred average (partial edges), shared by wave detection, the start and the target.
-    thread_local std::vector<double> smoothedPartial;
     series::centredMovingAverage(counts, std::max(o.smoothingWindow, 1), series::EdgeRule::Partial,
-                                 smoothedPartial);
-    auto window = chooseWindow(counts, smoothedPartial, o, pd, res.waves);
+                                 s.work.smoothed);
+    auto window = chooseWindow(counts, s.work.smoothed, o, s.pd, res.waves);
     if (!window)
         return window.error();
     res.first = window->first;
     res.last = window->second;
-    const WaveModel& model = waveModel(o.model);
-    const int np = model.parameterCount();
-    if (np > kMaxWaveParameters)
+    s.model = &waveModel(o.model);
+    s.np = s.model->parameterCount();
+    if (s.np > kMaxWaveParameters)
         return makeError(ErrorCode::Numerical,
                          "the model has more parameters than the fit handles");
-
     int lastData = -1;
-    for (int i = n - 1; i >= 0; --i) {
+    for (int i = static_cast<int>(counts.size()) - 1; i >= 0; --i) {
         if (std::isfinite(counts[static_cast<std::size_t>(i)])) {
             lastData = i;
             break;
         }
     }
-    // The last day with data, from the window's first day: for weekly data the last day of the
-    // last week with a count.
-    const double lastDataDay = (lastData - res.first) * pd + (pd - 1);
+    // For weekly data the last day of the last week with a count.
+    s.lastDataDay = (lastData - res.first) * s.pd + (s.pd - 1);
+    // The model days: the window and, for LSQ, the reach of the target's average.
+    s.kernel = centredKernel(o.smoothingWindow);
+    s.h = o.method == FitMethod::LeastSquares ? static_cast<int>(s.kernel.size()) / 2 : 0;
+    s.modelFirst = res.first - s.h;
+    s.modelDays = static_cast<std::size_t>(res.last - res.first + 1 + 2 * s.h);
+    return std::nullopt;
+}
 
-    // Working vectors are kept per thread: a batch fit runs this thousands of times, and fresh
-    // allocations of these sizes cost more than the arithmetic that fills them.
-    thread_local std::vector<double> tAll, yAll;
-    thread_local std::vector<double> t, y, w;  // LSQ target days, values and weights
-    thread_local SolverResult sr;
+// Step 3, the start: the model's linearisation of the centred average over the window, as
+// incidence per day.
+std::optional<Error> findStart(FitState& s) {
+    std::vector<double>& tAll = s.work.startT;
+    std::vector<double>& yAll = s.work.startY;
     tAll.clear();
     yAll.clear();
-    t.clear();
-    y.clear();
-    w.clear();
-
-    // Starting values from the centred average over the window, as incidence per day.
-    if (pd == 1) {
-        for (int i = res.first; i <= res.last; ++i) {
-            tAll.push_back(i - res.first);
-            yAll.push_back(smoothedPartial[static_cast<std::size_t>(i)]);
+    if (s.pd == 1) {
+        for (int i = s.res.first; i <= s.res.last; ++i) {
+            tAll.push_back(i - s.res.first);
+            yAll.push_back(s.work.smoothed[static_cast<std::size_t>(i)]);
         }
     } else {
-        dailyRatesForStart(smoothedPartial, res.first, res.last, pd, tAll, yAll);
+        dailyRatesForStart(s.work.smoothed, s.res.first, s.res.last, s.pd, tAll, yAll);
     }
-    auto start = model.initialGuess(tAll, yAll);
+    auto start = s.model->initialGuess(tAll, yAll, s.work.guess);
     if (!start) {
         return makeError(ErrorCode::Numerical,
                          "the window holds too few positive counts for a starting guess");
     }
+    s.start = std::move(*start);
+    return std::nullopt;
+}
 
-    std::vector<double> params;
-    std::vector<double> covariance;  // model parameters, np x np
-    int dof = 0;
-    // The model and its Jacobian on every window period and, for LSQ, the h periods either side
-    // that the centred average reaches: shared by the sandwich, the fitted curve and its band.
-    // (The names say "days": for weekly data each is a period, its value the week's count.)
-    const std::vector<double> kernel = centredKernel(o.smoothingWindow);
-    const int h = o.method == FitMethod::LeastSquares ? static_cast<int>(kernel.size()) / 2 : 0;
-    const int modelFirst = res.first - h;
-    const std::size_t modelDays = static_cast<std::size_t>(res.last - res.first + 1 + 2 * h);
-    std::span<const double> modelValues, modelJacobian;
-    std::vector<double> modelStorage;  // likelihood fits (LSQ reuses the problem's last one)
-    std::optional<SmoothedLeastSquares> lsq;
-    thread_local detail::SmoothedLeastSquares::Workspace lsqWorkspace;
-    if (o.method == FitMethod::LeastSquares) {
-        // Target: the centred average where its window lies inside the series.
-        const int half = o.smoothingWindow / 2;
-        for (int i = std::max(res.first, half); i <= std::min(res.last, n - 1 - half); ++i) {
-            const double v = smoothedPartial[static_cast<std::size_t>(i)];
-            if (!std::isfinite(v))
-                continue;
-            t.push_back(i - res.first);
-            y.push_back(v);
-            w.push_back(o.weighted ? 1.0 / std::sqrt(std::max(v, 1.0)) : 1.0);
-        }
-        if (static_cast<int>(t.size()) <= np + 1)
-            return tooShort("the window has too few", pd, " for this model");
-        const SmoothedLeastSquares& problem =
-            lsq.emplace(model, t, y, w, kernel, res.last - res.first + 1, lsqWorkspace, pd);
-        solveLeastSquares(problem, *start, o.solver, sr);
-        if (sr.summary.termination == Termination::InvalidStart) {
-            return makeError(ErrorCode::Numerical, "the model cannot be evaluated at its start");
-        }
-        params = sr.parameters;
-        res.summary.termination = sr.summary.termination;
-        res.summary.iterations = sr.summary.iterations;
-        res.summary.evaluations = sr.summary.evaluations;
-        res.summary.message = sr.summary.message;
-        const int m = static_cast<int>(t.size());
-        dof = m - np;
-        problem.modelDays(params, modelValues, modelJacobian);
+// Step 2 for LSQ, the target: the centred average where its window lies inside the series,
+// with weights 1 / sqrt(max(y, 1)) when asked.
+void leastSquaresTarget(FitState& s) {
+    detail::FitBuffers& work = s.work;
+    work.t.clear();
+    work.y.clear();
+    work.w.clear();
+    const int n = static_cast<int>(s.series.counts.size());
+    const int half = s.o.smoothingWindow / 2;
+    for (int i = std::max(s.res.first, half); i <= std::min(s.res.last, n - 1 - half); ++i) {
+        const double v = work.smoothed[static_cast<std::size_t>(i)];
+        if (!std::isfinite(v))
+            continue;
+        work.t.push_back(i - s.res.first);
+        work.y.push_back(v);
+        work.w.push_back(s.o.weighted ? 1.0 / std::sqrt(std::max(v, 1.0)) : 1.0);
+    }
+}
 
-        // Sandwich covariance through the smoothing operator (see fit.h, step 4), from the
-        // solver's residuals and Jacobian at the solution.
-        covariance.assign(static_cast<std::size_t>(np * np), kNaN);
-        if (sr.covarianceAvailable) {
-            // G row d: the weighted Jacobian rows smoothed back onto model day d,
-            // G_d = sum_i a_(d - t_i) w_i Jt_i over the targets whose average reaches day d
-            // (target t_i is model day t_i + h; its average covers model days t_i .. t_i + 2h).
-            // The solver's row Jt_i is already w_i (A J)_i; the residual carries w_i once more.
-            const std::size_t npu = static_cast<std::size_t>(np);
-            // Scratch per thread (a batch fit runs this thousands of times): G, P and e^2.
-            thread_local std::vector<double> scratch;
-            scratch.assign(modelDays * (2 * npu + 1), 0.0);
-            const std::span<double> G(scratch.data(), modelDays * npu),
-                P(scratch.data() + modelDays * npu, modelDays * npu),
-                e2(scratch.data() + 2 * modelDays * npu, modelDays);
-            const std::size_t taps = kernel.size();
-            if (taps % 2 == 1) {
-                // Equal weights a: scatter w_i Jt_i onto day t_i, then a window sum of `taps`.
-                for (int i = 0; i < m; ++i) {
-                    const std::size_t d = static_cast<std::size_t>(t[static_cast<std::size_t>(i)]);
-                    const double wi = w[static_cast<std::size_t>(i)] * kernel[0];
-                    for (std::size_t j = 0; j < npu; ++j)
-                        P[d * npu + j] = wi * sr.jacobian[static_cast<std::size_t>(i) * npu + j];
-                }
-                switch (npu) {
-                    case 3:
-                        trailingWindowSums<3>(P, G, modelDays, npu, taps);
-                        break;
-                    case 4:
-                        trailingWindowSums<4>(P, G, modelDays, npu, taps);
-                        break;
-                    default:
-                        trailingWindowSums<0>(P, G, modelDays, npu, taps);
-                        break;
-                }
-            } else {
-                for (int i = 0; i < m; ++i) {
-                    const std::size_t from =
-                        static_cast<std::size_t>(t[static_cast<std::size_t>(i)]);
-                    const double* row = &sr.jacobian[static_cast<std::size_t>(i) * npu];
-                    const double wi = w[static_cast<std::size_t>(i)];
-                    for (std::size_t k = 0; k < taps; ++k) {
-                        const double a = kernel[k] * wi;
-                        double* g = &G[(from + k) * npu];
-                        for (std::size_t j = 0; j < npu; ++j)
-                            g[j] += a * row[j];
-                    }
-                }
-            }
-            // Squared raw-count residuals e_k^2 (0 where the day is missing or outside the series).
-            for (int k = std::max(modelFirst, 0); k <= std::min(res.last + h, n - 1); ++k) {
-                const double x = counts[static_cast<std::size_t>(k)];
-                const std::size_t d = static_cast<std::size_t>(k - modelFirst);
-                if (std::isfinite(x))
-                    e2[d] = (x - modelValues[d]) * (x - modelValues[d]);
-            }
-            SmallMatrix meat(np, np);  // sum_k e_k^2 g_k g_k^T
-            detail::gram(G.data(), modelDays, npu, e2, {}, meat.data(), nullptr);
-            meat *= static_cast<double>(m) / std::max(1, m - np);  // HC1 small-sample factor
-            const SmallMatrix bread = Eigen::Map<
-                const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>(
-                sr.unscaledCovariance.data(), np, np);
-            const SmallMatrix cov = bread * meat * bread;
-            for (int a = 0; a < np; ++a) {
-                for (int b = 0; b < np; ++b)
-                    covariance[static_cast<std::size_t>(a * np + b)] = cov(a, b);
-            }
-        }
-
-        // Goodness of fit on the smoothed target; the solver's residuals are w_i (A f - y)_i.
-        double rss = 0, wrss = 0, mean = 0;
-        for (double v : y)
-            mean += v;
-        mean /= m;
-        double tss = 0;
+// Step 4 for LSQ: the sandwich covariance through the smoothing operator (fit.h), from the
+// solver's residuals and Jacobian at the solution. G row d: the weighted Jacobian rows smoothed
+// back onto model day d, G_d = sum_i a_(d - t_i) w_i Jt_i over the targets whose average
+// reaches day d (target t_i is model day t_i + h; its average covers model days t_i .. t_i + 2h).
+// The solver's row Jt_i is already w_i (A J)_i; the residual carries w_i once more.
+void sandwichCovariance(FitState& s, const SolverResult& sr) {
+    const std::size_t npu = static_cast<std::size_t>(s.np);
+    const std::size_t modelDays = s.modelDays;
+    const std::vector<double>&t = s.work.t, &w = s.work.w;
+    const std::vector<double>& kernel = s.kernel;
+    const int m = static_cast<int>(t.size());
+    std::vector<double>& scratch = s.work.sandwich;  // G, P and e^2
+    scratch.resize(modelDays * (2 * npu + 1));
+    const std::span<double> G(scratch.data(), modelDays * npu),
+        P(scratch.data() + modelDays * npu, modelDays * npu),
+        e2(scratch.data() + 2 * modelDays * npu, modelDays);
+    const std::size_t taps = kernel.size();
+    // Zeroed: what the sums below do not write in full (P, scattered onto the target days, or G,
+    // accumulated; and e^2). The window sums write every value of G.
+    std::fill(e2.begin(), e2.end(), 0.0);
+    std::fill(taps % 2 == 1 ? P.begin() : G.begin(), taps % 2 == 1 ? P.end() : G.end(), 0.0);
+    if (taps % 2 == 1) {
+        // Equal weights a: scatter w_i Jt_i onto day t_i, then a window sum of `taps`.
         for (int i = 0; i < m; ++i) {
-            const double wi = w[static_cast<std::size_t>(i)];
-            const double e = -sr.residuals[static_cast<std::size_t>(i)] / wi;
-            rss += e * e;
-            wrss += e * e * wi * wi;
-            tss +=
-                (y[static_cast<std::size_t>(i)] - mean) * (y[static_cast<std::size_t>(i)] - mean);
+            const std::size_t d = static_cast<std::size_t>(t[static_cast<std::size_t>(i)]);
+            const double wi = w[static_cast<std::size_t>(i)] * kernel[0];
+            for (std::size_t j = 0; j < npu; ++j)
+                P[d * npu + j] = wi * sr.jacobian[static_cast<std::size_t>(i) * npu + j];
         }
-        GoodnessOfFit& g = res.goodness;
-        g.observations = m;
-        g.parameters = np + 1;
-        g.rss = rss;
-        g.r2 = tss > 0 ? 1.0 - rss / tss : kNaN;
-        g.rmse = std::sqrt(rss / m);
-        g.logLikelihood = -0.5 * m * (std::log(2.0 * std::numbers::pi * wrss / m) + 1.0);
+        switch (npu) {
+            case 3:
+                trailingWindowSums<3>(P, G, modelDays, npu, taps);
+                break;
+            case 4:
+                trailingWindowSums<4>(P, G, modelDays, npu, taps);
+                break;
+            default:
+                trailingWindowSums<0>(P, G, modelDays, npu, taps);
+                break;
+        }
     } else {
-        detail::LikelihoodFit lf =
-            detail::fitLikelihood(model, series, res.first, res.last, *start, o);
-        if (!lf.ok)
-            return makeError(ErrorCode::Numerical, lf.message);
-        params = lf.parameters;
-        covariance = lf.modelCovariance;
-        res.weekdayFactors = lf.weekdayFactors;
-        res.dispersion = lf.dispersion;
-        res.summary.termination = lf.summary.termination;
-        res.summary.iterations = lf.summary.iterations;
-        res.summary.evaluations = lf.summary.evaluations;
-        res.summary.message = lf.summary.message;
-        res.goodness = lf.goodness;
-        dof = res.goodness.observations - np;
-        modelStorage.resize(modelDays * static_cast<std::size_t>(np + 1));
-        const std::span<double> values(modelStorage.data(), modelDays),
-            jacobian(modelStorage.data() + modelDays, modelDays * static_cast<std::size_t>(np));
-        model.countsOnPeriods(0.0, pd, params, values, jacobian);
-        modelValues = values;
-        modelJacobian = jacobian;
+        for (int i = 0; i < m; ++i) {
+            const std::size_t from = static_cast<std::size_t>(t[static_cast<std::size_t>(i)]);
+            const double* row = &sr.jacobian[static_cast<std::size_t>(i) * npu];
+            const double wi = w[static_cast<std::size_t>(i)];
+            for (std::size_t k = 0; k < taps; ++k) {
+                const double a = kernel[k] * wi;
+                double* g = &G[(from + k) * npu];
+                for (std::size_t j = 0; j < npu; ++j)
+                    g[j] += a * row[j];
+            }
+        }
     }
-
-    // Parameters with intervals.
-    const double q = detail::intervalQuantile(o.method, dof);
-    const auto names = model.names();
-    for (int j = 0; j < np; ++j) {
-        const double var = covariance[static_cast<std::size_t>(j * np + j)];
-        res.parameters.push_back({names[static_cast<std::size_t>(j)],
-                                  estimateFrom(params[static_cast<std::size_t>(j)],
-                                               var >= 0 ? std::sqrt(var) : kNaN, q)});
+    // Squared raw-count residuals e_k^2 (0 where the day is missing or outside the series).
+    const auto counts = s.series.counts;
+    const int n = static_cast<int>(counts.size());
+    for (int k = std::max(s.modelFirst, 0); k <= std::min(s.res.last + s.h, n - 1); ++k) {
+        const double x = counts[static_cast<std::size_t>(k)];
+        const std::size_t d = static_cast<std::size_t>(k - s.modelFirst);
+        if (std::isfinite(x))
+            e2[d] = (x - s.modelValues[d]) * (x - s.modelValues[d]);
     }
+    const int np = s.np;
+    SmallMatrix meat(np, np);  // sum_k e_k^2 g_k g_k^T
+    detail::gram(G.data(), modelDays, npu, e2, {}, meat.data(), nullptr);
+    meat *= static_cast<double>(m) / std::max(1, m - np);  // HC1 small-sample factor
+    const SmallMatrix bread =
+        Eigen::Map<const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>(
+            sr.unscaledCovariance.data(), np, np);
+    const SmallMatrix cov = bread * meat * bread;
+    for (int a = 0; a < np; ++a) {
+        for (int b = 0; b < np; ++b)
+            s.covariance[static_cast<std::size_t>(a * np + b)] = cov(a, b);
+    }
+}
 
-    // Fitted incidence over the window and its delta-method band (fit.h, step 5).
-    const bool haveCov = detail::covarianceUsable(covariance, np);
+// Step 6 for LSQ: goodness of fit on the smoothed target; the solver's residuals are
+// w_i (A f - y)_i. The Gaussian likelihood counts the variance as a parameter.
+void leastSquaresGoodness(FitState& s, const SolverResult& sr) {
+    const std::vector<double>&y = s.work.y, &w = s.work.w;
+    const int m = static_cast<int>(y.size());
+    double rss = 0, wrss = 0, mean = 0;
+    for (double v : y)
+        mean += v;
+    mean /= m;
+    double tss = 0;
+    for (int i = 0; i < m; ++i) {
+        const double wi = w[static_cast<std::size_t>(i)];
+        const double e = -sr.residuals[static_cast<std::size_t>(i)] / wi;
+        rss += e * e;
+        wrss += e * e * wi * wi;
+        tss += (y[static_cast<std::size_t>(i)] - mean) * (y[static_cast<std::size_t>(i)] - mean);
+    }
+    GoodnessOfFit& g = s.res.goodness;
+    g.observations = m;
+    g.parameters = s.np + 1;
+    g.rss = rss;
+    g.r2 = tss > 0 ? 1.0 - rss / tss : kNaN;
+    g.rmse = std::sqrt(rss / m);
+    g.logLikelihood = -0.5 * m * (std::log(2.0 * std::numbers::pi * wrss / m) + 1.0);
+}
+
+void copySolverSummary(const SolverSummary& from, FitSummary& to) {
+    to.termination = from.termination;
+    to.iterations = from.iterations;
+    to.evaluations = from.evaluations;
+    to.message = from.message;
+}
+
+// Steps 2-4 and 6 for LSQ: the target, the solve, the sandwich covariance, goodness of fit.
+// `lsq` outlives the call: the model's values and Jacobian on the model days stay in its
+// workspace (s.modelValues, s.modelJacobian).
+std::optional<Error> fitSmoothedLeastSquares(FitState& s,
+                                             std::optional<SmoothedLeastSquares>& lsq) {
+    leastSquaresTarget(s);
+    detail::FitBuffers& work = s.work;
+    if (static_cast<int>(work.t.size()) <= s.np + 1)
+        return tooShort("the window has too few", s.pd, " for this model");
+    const SmoothedLeastSquares& problem = lsq.emplace(*s.model, work.t, work.y, work.w, s.kernel,
+                                                      s.res.last - s.res.first + 1, work.lsq, s.pd);
+    SolverResult& sr = work.solution;
+    solveLeastSquares(problem, s.start, s.o.solver, sr, work.solver);
+    if (sr.summary.termination == Termination::InvalidStart)
+        return makeError(ErrorCode::Numerical, "the model cannot be evaluated at its start");
+    s.params = sr.parameters;
+    copySolverSummary(sr.summary, s.res.summary);
+    s.dof = static_cast<int>(work.t.size()) - s.np;
+    problem.modelDays(s.params, s.modelValues, s.modelJacobian);
+    s.covariance.assign(static_cast<std::size_t>(s.np * s.np), kNaN);
+    if (sr.covarianceAvailable)
+        sandwichCovariance(s, sr);
+    leastSquaresGoodness(s, sr);
+    return std::nullopt;
+}
+
+// Steps 2-4 and 6 for the likelihood methods (likelihood.h), then the model and its Jacobian
+// on the window's periods.
+std::optional<Error> fitByLikelihood(FitState& s) {
+    detail::LikelihoodFit lf = detail::fitLikelihood(*s.model, s.series, s.res.first, s.res.last,
+                                                     s.start, s.o, s.work.solver);
+    if (!lf.ok)
+        return makeError(ErrorCode::Numerical, lf.message);
+    s.params = lf.parameters;
+    s.covariance = lf.modelCovariance;
+    s.res.weekdayFactors = lf.weekdayFactors;
+    s.res.dispersion = lf.dispersion;
+    copySolverSummary(lf.summary, s.res.summary);
+    s.res.goodness = lf.goodness;
+    s.dof = s.res.goodness.observations - s.np;
+    std::vector<double>& storage = s.work.modelStorage;
+    storage.resize(s.modelDays * static_cast<std::size_t>(s.np + 1));
+    const std::span<double> values(storage.data(), s.modelDays),
+        jacobian(storage.data() + s.modelDays, s.modelDays * static_cast<std::size_t>(s.np));
+    s.model->countsOnPeriods(0.0, s.pd, s.params, values, jacobian);
+    s.modelValues = values;
+    s.modelJacobian = jacobian;
+    return std::nullopt;
+}
+
+// The parameters with their standard errors and intervals (quantile q).
+void addParameterEstimates(FitState& s, double q) {
+    const auto names = s.model->names();
+    for (int j = 0; j < s.np; ++j) {
+        const double var = s.covariance[static_cast<std::size_t>(j * s.np + j)];
+        s.res.parameters.push_back({names[static_cast<std::size_t>(j)],
+                                    estimateFrom(s.params[static_cast<std::size_t>(j)],
+                                                 var >= 0 ? std::sqrt(var) : kNaN, q)});
+    }
+}
+
+// Step 5: the fitted count of each window period and its delta-method band, weekday factors
+// applied where estimated.
+void addFittedCurveAndBand(FitState& s, double q, bool haveCov) {
+    FitResult& res = s.res;
     const std::size_t windowDays = static_cast<std::size_t>(res.last - res.first + 1);
-    const std::size_t hu = static_cast<std::size_t>(h);
-    res.fitted.assign(modelValues.begin() + static_cast<std::ptrdiff_t>(hu),
-                      modelValues.begin() + static_cast<std::ptrdiff_t>(hu + windowDays));
+    const std::size_t hu = static_cast<std::size_t>(s.h);
+    res.fitted.assign(s.modelValues.begin() + static_cast<std::ptrdiff_t>(hu),
+                      s.modelValues.begin() + static_cast<std::ptrdiff_t>(hu + windowDays));
     if (haveCov) {
-        res.covariance = covariance;
+        res.covariance = s.covariance;
         res.fittedLower.resize(windowDays);
         res.fittedUpper.resize(windowDays);
-        detail::deltaMethodBand(
-            res.fitted,
-            std::span<const double>(modelJacobian).subspan(hu * static_cast<std::size_t>(np)),
-            covariance, np, q, res.fittedLower, res.fittedUpper);
+        detail::deltaMethodBand(res.fitted,
+                                s.modelJacobian.subspan(hu * static_cast<std::size_t>(s.np)),
+                                s.covariance, s.np, q, res.fittedLower, res.fittedUpper);
     }
-    if (!res.weekdayFactors.empty()) {
-        for (int i = res.first; i <= res.last; ++i) {
-            const std::size_t k = static_cast<std::size_t>(i - res.first);
-            const double factor = res.weekdayFactors[static_cast<std::size_t>(
-                (series.firstDay + i).isoWeekday() - 1)];
-            res.fitted[k] *= factor;
-            if (haveCov) {
-                res.fittedLower[k] *= factor;
-                res.fittedUpper[k] *= factor;
-            }
+    if (res.weekdayFactors.empty())
+        return;
+    for (int i = res.first; i <= res.last; ++i) {
+        const std::size_t k = static_cast<std::size_t>(i - res.first);
+        const double factor =
+            res.weekdayFactors[static_cast<std::size_t>((s.series.firstDay + i).isoWeekday() - 1)];
+        res.fitted[k] *= factor;
+        if (haveCov) {
+            res.fittedLower[k] *= factor;
+            res.fittedUpper[k] *= factor;
         }
     }
-    const GoodnessOfFit& g = res.goodness;
-    res.goodness.aic = -2.0 * g.logLikelihood + 2.0 * g.parameters;
-    const int denom = g.observations - g.parameters - 1;
-    res.goodness.aicc =
-        denom > 0 ? res.goodness.aic + 2.0 * g.parameters * (g.parameters + 1) / denom : kNaN;
+}
 
-    // Derived quantities, delta method.
+// Step 6: AIC and AICc from the log-likelihood and the parameter count.
+void addInformationCriteria(GoodnessOfFit& g) {
+    g.aic = -2.0 * g.logLikelihood + 2.0 * g.parameters;
+    const int denom = g.observations - g.parameters - 1;
+    g.aicc = denom > 0 ? g.aic + 2.0 * g.parameters * (g.parameters + 1) / denom : kNaN;
+}
+
+// The delta method's standard errors of the derived quantities: a central-difference gradient
+// in each parameter, then sqrt(diag(grad Cov grad^T)).
+std::array<double, kDerivedCount> derivedStandardErrors(FitState& s, double loadDay) {
+    const std::vector<double>& params = s.params;
+    const int np = s.np;
+    Eigen::Matrix<double, kDerivedCount, Eigen::Dynamic, 0, kDerivedCount, kMaxWaveParameters> grad(
+        kDerivedCount, np);
+    for (int j = 0; j < np; ++j) {
+        std::array<double, kMaxWaveParameters> upStore{}, downStore{};
+        std::copy(params.begin(), params.end(), upStore.begin());
+        std::copy(params.begin(), params.end(), downStore.begin());
+        const std::span<double> up(upStore.data(), params.size()),
+            down(downStore.data(), params.size());
+        // The step is a hundredth of the parameter's standard error: the scale on which the
+        // delta method linearises, and far above the tolerance of the searches some quantities
+        // come from (the fastest growth of the Richards and log-normal curves), so that their
+        // rounding does not enter the slope. Capped at 1e-3 of the value; without a usable
+        // standard error, 1e-5 of the value. Near a bound of the model's domain (the Richards
+        // shape a > 0) the step is halved until both sides are valid.
+        const std::size_t ju = static_cast<std::size_t>(j);
+        const double variance = s.covariance[ju * static_cast<std::size_t>(np) + ju];
+        const double scale = std::max(std::abs(params[ju]), 1e-2);
+        double step =
+            variance > 0 ? std::min(1e-2 * std::sqrt(variance), 1e-3 * scale) : 1e-5 * scale;
+        bool inside = false;
+        for (int halving = 0; halving < 30 && !inside; ++halving, step *= 0.5) {
+            up[ju] = params[ju] + step;
+            down[ju] = params[ju] - step;
+            inside = s.model->valid(up) && s.model->valid(down);
+            if (inside)
+                break;
+        }
+        if (!inside) {
+            grad.col(j).setConstant(kNaN);
+            continue;
+        }
+        const auto du =
+            derive(*s.model, up, s.o, s.pd, s.lastDataDay, loadDay, false, s.work.loadDays);
+        const auto dd =
+            derive(*s.model, down, s.o, s.pd, s.lastDataDay, loadDay, false, s.work.loadDays);
+        for (int k = 0; k < kDerivedCount; ++k)
+            grad(k, j) = (du[k] - dd[k]) / (2 * step);
+    }
+    const SmallMatrix cov =
+        Eigen::Map<const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>(
+            s.covariance.data(), np, np);
+    const Eigen::Matrix<double, kDerivedCount, kDerivedCount> v = grad * cov * grad.transpose();
+    std::array<double, kDerivedCount> se;
+    for (int k = 0; k < kDerivedCount; ++k)
+        se[k] = v(k, k) >= 0 ? std::sqrt(v(k, k)) : kNaN;
+    return se;
+}
+
+// The derived quantities (fit.h) with their delta-method intervals; returns their values.
+std::array<double, kDerivedCount> addDerivedQuantities(FitState& s, double q, bool haveCov,
+                                                       std::optional<double> population) {
     double loadDay = 0;
-    const auto d0 = derive(model, params, o, pd, lastDataDay, loadDay, true);
+    const auto d0 =
+        derive(*s.model, s.params, s.o, s.pd, s.lastDataDay, loadDay, true, s.work.loadDays);
     std::array<double, kDerivedCount> se;
     se.fill(kNaN);
-    if (o.derivedIntervals && haveCov) {
-        Eigen::Matrix<double, kDerivedCount, Eigen::Dynamic, 0, kDerivedCount, kMaxWaveParameters>
-            grad(kDerivedCount, np);
-        for (int j = 0; j < np; ++j) {
-            std::array<double, kMaxWaveParameters> upStore{}, downStore{};
-            std::copy(params.begin(), params.end(), upStore.begin());
-            std::copy(params.begin(), params.end(), downStore.begin());
-            const std::span<double> up(upStore.data(), params.size()),
-                down(downStore.data(), params.size());
-            // The step is a hundredth of the parameter's standard error: the scale on which the
-            // delta method linearises, and far above the tolerance of the searches some
-            // quantities come from (the fastest growth of the Richards and log-normal curves), so
-            // that their rounding does not enter the slope. Capped at 1e-3 of the value; without
-            // a usable standard error, 1e-5 of the value. Near a bound of the model's domain
-            // (the Richards shape a > 0) the step is halved until both sides are valid.
-            const std::size_t ju = static_cast<std::size_t>(j);
-            const double variance = covariance[ju * static_cast<std::size_t>(np) + ju];
-            const double scale = std::max(std::abs(params[ju]), 1e-2);
-            double step =
-                variance > 0 ? std::min(1e-2 * std::sqrt(variance), 1e-3 * scale) : 1e-5 * scale;
-            bool inside = false;
-            for (int halving = 0; halving < 30 && !inside; ++halving, step *= 0.5) {
-                up[ju] = params[ju] + step;
-                down[ju] = params[ju] - step;
-                inside = model.valid(up) && model.valid(down);
-                if (inside)
-                    break;
-            }
-            if (!inside) {
-                grad.col(j).setConstant(kNaN);
-                continue;
-            }
-            const auto du = derive(model, up, o, pd, lastDataDay, loadDay, false);
-            const auto dd = derive(model, down, o, pd, lastDataDay, loadDay, false);
-            for (int k = 0; k < kDerivedCount; ++k)
-                grad(k, j) = (du[k] - dd[k]) / (2 * step);
-        }
-        const SmallMatrix cov = Eigen::Map<
-            const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>>(
-            covariance.data(), np, np);
-        const Eigen::Matrix<double, kDerivedCount, kDerivedCount> v = grad * cov * grad.transpose();
-        for (int k = 0; k < kDerivedCount; ++k)
-            se[k] = v(k, k) >= 0 ? std::sqrt(v(k, k)) : kNaN;
-    }
-    DerivedQuantities& dq = res.derived;
+    if (s.o.derivedIntervals && haveCov)
+        se = derivedStandardErrors(s, loadDay);
+    DerivedQuantities& dq = s.res.derived;
     dq.peakDay = estimateFrom(d0[kPeakDay], se[kPeakDay], q);
     dq.peakIncidence = withinBounds(estimateFrom(d0[kPeakIncidence], se[kPeakIncidence], q), 0);
     dq.waveSize = withinBounds(estimateFrom(d0[kWaveSize], se[kWaveSize], q), 0);
@@ -728,11 +815,15 @@ Result<FitResult> fitSeries(const Series& series, const FitOptions& o,
         dq.log10InfectiousShare = estimateFrom(std::log10(d0[kLoad] / pop),
                                                se[kLoad] / (d0[kLoad] * std::numbers::ln10), q);
     }
+    return d0;
+}
 
-    // Notes a reader should see.
-    if (d0[kPeakDay] < 0 || d0[kPeakDay] > (res.last - res.first) * pd + (pd - 1)) {
+// Notes a reader should see beside the numbers.
+void addNotes(FitState& s, const std::array<double, kDerivedCount>& d0, bool haveCov) {
+    FitResult& res = s.res;
+    const int pd = s.pd;
+    if (d0[kPeakDay] < 0 || d0[kPeakDay] > (res.last - res.first) * pd + (pd - 1))
         res.summary.notes.push_back("the fitted peak lies outside the window");
-    }
     if (d0[kFraction] < 0.5) {
         res.summary.notes.push_back(
             "less than half of the fitted wave is observed: K is uncertain");
@@ -746,18 +837,73 @@ Result<FitResult> fitSeries(const Series& series, const FitOptions& o,
     }
     if (!haveCov)
         res.summary.notes.push_back("standard errors unavailable (singular information)");
-    return res;
 }
 
-std::vector<ModelComparisonRow> compareModels(const Series& series, const FitOptions& options,
-                                              std::optional<double> population) {
+// The fit of o.model, whatever o.modelChoice says (fitSeries applies the choice): the steps of
+// the pipeline in fit.h, each its own function above.
+Result<FitResult> fitGivenModel(const Series& series, const FitOptions& o,
+                                std::optional<double> population, detail::FitBuffers& work) {
+    if (auto e = unusableSeries(series, o))
+        return *e;
+    FitState s(series, o, work);
+    if (auto e = chooseWindowAndModel(s))  // 1. the window
+        return *e;
+    if (auto e = findStart(s))  // 3. the start
+        return *e;
+    std::optional<SmoothedLeastSquares> lsq;  // holds the LSQ model days until the end
+    // 2-4, 6: the target, the solve, the covariance and the goodness of fit.
+    auto failed =
+        o.method == FitMethod::LeastSquares ? fitSmoothedLeastSquares(s, lsq) : fitByLikelihood(s);
+    if (failed)
+        return *failed;
+    const double q = detail::intervalQuantile(o.method, s.dof);
+    const bool haveCov = detail::covarianceUsable(s.covariance, s.np);
+    addParameterEstimates(s, q);
+    addFittedCurveAndBand(s, q, haveCov);    // 5. the curve and its band
+    addInformationCriteria(s.res.goodness);  // 6. AIC, AICc
+    const auto d0 = addDerivedQuantities(s, q, haveCov, population);
+    addNotes(s, d0, haveCov);
+    return std::move(s.res);
+}
+
+// Why no model could be kept: the first model that failed and its reason, where one did.
+[[gnu::cold]] Error noModelConverged(const std::vector<ModelComparisonRow>& rows) {
+    for (const auto& row : rows) {
+        if (!row.error.empty())
+            return makeError(ErrorCode::Numerical,
+                             std::string(modelName(row.model)) + ": " + row.error);
+    }
+    return makeError(ErrorCode::Numerical, "no model converged on this window");
+}
+
+// The row options.modelChoice names among the four, as a fit or an error.
+Result<FitResult> chosenRow(const std::vector<ModelComparisonRow>& rows, const FitOptions& o) {
+    if (o.modelChoice == ModelChoice::LowestAicc) {
+        if (const ModelComparisonRow* best = bestByAicc(rows))
+            return *best->fit;
+        return noModelConverged(rows);
+    }
+    for (const ModelComparisonRow& row : rows) {
+        if (row.model != o.model)
+            continue;
+        if (row.fit)
+            return *row.fit;
+        return makeError(ErrorCode::Numerical, row.error);
+    }
+    return noModelConverged(rows);
+}
+
+// The four models with one workspace.
+std::vector<ModelComparisonRow> compareModelsWith(const Series& series, const FitOptions& options,
+                                                  std::optional<double> population,
+                                                  detail::FitBuffers& work) {
     std::vector<ModelComparisonRow> rows;
     for (ModelKind kind : kAllModels) {
         FitOptions o = options;
         o.model = kind;
         ModelComparisonRow row;
         row.model = kind;
-        auto r = fitSeries(series, o, population);
+        auto r = fitGivenModel(series, o, population, work);
         if (r) {
             row.fit = std::move(r.value());
         } else {
@@ -766,6 +912,44 @@ std::vector<ModelComparisonRow> compareModels(const Series& series, const FitOpt
         rows.push_back(std::move(row));
     }
     return rows;
+}
+
+}  // namespace
+
+Result<FitResult> fitSeries(const Series& series, const FitOptions& options,
+                            std::optional<double> population, FitWorkspace& workspace) {
+    if (options.modelChoice == ModelChoice::Given)
+        return fitGivenModel(series, options, population, workspace.buffers());
+    return chosenRow(compareModelsWith(series, options, population, workspace.buffers()), options);
+}
+
+Result<FitResult> fitSeries(const Series& series, const FitOptions& options,
+                            std::optional<double> population) {
+    FitWorkspace workspace;
+    return fitSeries(series, options, population, workspace);
+}
+
+std::vector<ModelComparisonRow> compareModels(const Series& series, const FitOptions& options,
+                                              std::optional<double> population) {
+    FitWorkspace workspace;
+    return compareModelsWith(series, options, population, workspace.buffers());
+}
+
+ComparedFit fitWithComparison(const Series& series, const FitOptions& options,
+                              std::optional<double> population, bool compare,
+                              FitWorkspace& workspace) {
+    if (!compare)
+        return {fitSeries(series, options, population, workspace), {}};
+    std::vector<ModelComparisonRow> rows =
+        compareModelsWith(series, options, population, workspace.buffers());
+    Result<FitResult> fit = chosenRow(rows, options);
+    return {std::move(fit), std::move(rows)};
+}
+
+ComparedFit fitWithComparison(const Series& series, const FitOptions& options,
+                              std::optional<double> population, bool compare) {
+    FitWorkspace workspace;
+    return fitWithComparison(series, options, population, compare, workspace);
 }
 
 const ModelComparisonRow* bestByAicc(const std::vector<ModelComparisonRow>& rows) {

@@ -10,6 +10,7 @@
 #include <cstdint>
 #include <cstdio>
 #include <limits>
+#include <memory>
 
 namespace siftwave::fit {
 namespace {
@@ -218,256 +219,353 @@ std::string SolverSummary::brief() const {
     return buf;
 }
 
+// ---------------------------------------------------------------- the workspace
+// Everything a solve writes besides its result, sized on first use and kept at that size by
+// Eigen's resize (equal sizes keep their storage), so that a batch of solves of similar problems
+// allocates once.
+namespace detail {
+struct LevenbergMarquardtBuffers {
+    Vector x;            // the current point
+    Vector r, rNew;      // residuals at x and at the trial point
+    Matrix J, JNew;      // Jacobians at x and at the trial point
+    Eigen::MatrixXd Jc;  // column-major copy: Householder QR runs down contiguous columns
+    Vector D, xNew, qtr, rhs, h, g, columnNorms2, Ah, qtrPlusRh;
+    Matrix R, S, A, dampedA;
+    Eigen::LLT<Matrix> llt, dampedLlt;
+    Eigen::HouseholderQR<Matrix> dampedQr;
+    Eigen::HouseholderQR<Eigen::MatrixXd> qr;
+};
+}  // namespace detail
+
+SolverWorkspace::SolverWorkspace()
+    : m_buffers(std::make_unique<detail::LevenbergMarquardtBuffers>()) {}
+SolverWorkspace::~SolverWorkspace() = default;
+SolverWorkspace::SolverWorkspace(SolverWorkspace&&) noexcept = default;
+SolverWorkspace& SolverWorkspace::operator=(SolverWorkspace&&) noexcept = default;
+
+namespace {
+
+// ---------------------------------------------------------------- the solver's
+// steps One solve, in the steps of the header's description (after Ceres' TrustRegionMinimizer):
+// start (evaluate and factorise at x0), step (the damped step and its predicted reduction), accept
+// or reject (the gain ratio moves x and the damping), polish (Gauss-Newton refinement), finish (the
+// result and the covariance).
+class LevenbergMarquardt {
+public:
+    LevenbergMarquardt(const LeastSquaresProblem& problem, const SolverOptions& options,
+                       detail::LevenbergMarquardtBuffers& work, SolverResult& result)
+        : m_problem(problem),
+          m_options(options),
+          m_w(work),
+          m_result(result),
+          m_summary(result.summary),
+          m_eval(problem, result.summary),
+          m_m(problem.residualCount()),
+          m_n(problem.parameterCount()),
+          m_x(work.x) {}
+
+    // Evaluates and factorises at the start; false (with the summary saying why) when the solve
+    // cannot begin.
+    bool start(std::span<const double> x0);
+    // One damped step h and the reduction the linear model predicts for it; false when the
+    // iteration ends here (a non-finite step, or a step below the parameter tolerance).
+    bool step(double& predicted);
+    // Evaluates x + h; true when it lowers the cost (gain ratio rho > 0), then moves there. False:
+    // the damping grows. Either way, `m_done` says whether the iteration has ended.
+    void acceptOrReject(double predicted);
+    // Undamped Gauss-Newton steps after convergence (SolverOptions::refinementSteps).
+    void polish();
+    // Parameters, residuals, Jacobian and covariance into the result; the closing message.
+    void finish();
+
+    bool done() const { return m_done; }
+
+private:
+    void factorise();
+    bool gradientSmall();
+    bool dampedNormalStep(double& predicted);
+    void dampedQrStep(double& predicted);
+    void accept(double rho, double costNew);
+    void reject();
+    void stop(Termination termination, const char* message = nullptr) {
+        m_summary.termination = termination;
+        if (message)
+            m_summary.message = message;
+        m_done = true;
+    }
+
+    const LeastSquaresProblem& m_problem;
+    const SolverOptions& m_options;
+    detail::LevenbergMarquardtBuffers& m_w;
+    SolverResult& m_result;
+    SolverSummary& m_summary;
+    Evaluator m_eval;
+    const int m_m;
+    const int m_n;
+    Vector& m_x;  // the current point (in the workspace)
+    double m_cost = 0;
+    double m_lambda = 0;
+    double m_nu = 2.0;
+    bool m_done = false;
+    // True while R and Q^T r come from the Cholesky factor of A = J^T J (g = J^T r kept too).
+    bool m_fromNormalEquations = false;
+};
+
+bool LevenbergMarquardt::start(std::span<const double> x0) {
+    m_x = Eigen::Map<const Vector>(x0.data(), static_cast<Eigen::Index>(x0.size()));
+    if (static_cast<int>(x0.size()) != m_n || m_m < 1 || m_n < 1) {
+        m_summary.message = "the problem and the starting point disagree on the parameter count";
+        return false;
+    }
+    if (!m_eval.residualsAndJacobian(m_x, m_w.r, m_w.J)) {
+        m_summary.termination = Termination::InvalidStart;
+        m_summary.message = "the model cannot be evaluated at the starting point";
+        return false;
+    }
+    m_cost = 0.5 * m_w.r.squaredNorm();
+    m_summary.initialCost = m_cost;
+    m_w.xNew.resize(m_n);
+    m_lambda = m_options.initialDamping;
+    m_nu = 2.0;
+    m_summary.termination = Termination::MaxIterations;
+    // J = Q R once per Jacobian; every damped step then solves the small system [R; sqrt(lambda D)]
+    // h = [-Q^T r; 0] (MINPACK's approach: More 1978, section 3). With the normal equations (R from
+    // the Cholesky factor of J^T J) the same step comes from the Cholesky factor of J^T J + lambda
+    // D (dampedNormalStep below), a few dozen operations. Each factorisation also gives the squared
+    // column norms of J (the diagonal of J^T J), from which the damping scale D is kept.
+    m_w.R.resize(m_n, m_n);
+    m_w.qtr.resize(m_n);
+    m_w.S.resize(2 * m_n, m_n);
+    m_w.rhs.resize(2 * m_n);
+    m_w.columnNorms2.resize(m_n);
+    factorise();
+    m_w.D = m_w.columnNorms2.cwiseMax(1e-300);
+    if (gradientSmall())
+        stop(Termination::GradientTolerance);
+    return true;
+}
+
+void LevenbergMarquardt::factorise() {
+    const int m = m_m, n = m_n;
+    m_fromNormalEquations = false;
+    if (m_options.linearSolver == LinearSolver::NormalEquations) {
+        // R from the Cholesky factor of J^T J and Q^T r = R^-T J^T r: the same small system at a
+        // fraction of the cost; QR when J^T J is not numerically positive definite. J^T J and J^T r
+        // by plain loops over the rows (tall, thin J: cheaper than GEMM).
+        m_w.A.resize(n, n);
+        m_w.g.resize(n);
+        detail::gram(m_w.J.data(), static_cast<std::size_t>(m), static_cast<std::size_t>(n), {},
+                     {m_w.r.data(), static_cast<std::size_t>(m)}, m_w.A.data(), m_w.g.data());
+        m_w.columnNorms2 = m_w.A.diagonal();
+        m_w.llt.compute(m_w.A);
+        if (m_w.llt.info() == Eigen::Success) {
+            m_w.R = m_w.llt.matrixU();
+            m_w.qtr = m_w.llt.matrixL().solve(m_w.g);
+            m_fromNormalEquations =
+                allFinite(m_w.R.data(), static_cast<std::size_t>(m_w.R.size())) &&
+                allFinite(m_w.qtr.data(), static_cast<std::size_t>(n));
+            if (m_fromNormalEquations)
+                return;
+        }
+    }
+    m_w.Jc = m_w.J;
+    m_w.qr.compute(m_w.Jc);
+    m_w.R = m_w.qr.matrixQR().topRows(n).triangularView<Eigen::Upper>();
+    m_w.qtr = (m_w.qr.householderQ().transpose() * m_w.r).head(n);
+    m_w.columnNorms2 = m_w.J.colwise().squaredNorm().transpose();
+}
+
+bool LevenbergMarquardt::gradientSmall() {
+    if (m_options.gradientTolerance <= 0)
+        return false;
+    const double rnorm = m_w.r.norm();
+    if (rnorm == 0.0)
+        return true;
+    const Vector gradient = m_w.J.transpose() * m_w.r;
+    double worst = 0;
+    for (Eigen::Index j = 0; j < m_n; ++j) {
+        const double cn = m_w.J.col(j).norm();
+        if (cn > 0)
+            worst = std::max(worst, std::abs(gradient[j]) / (cn * rnorm));
+    }
+    return worst <= m_options.gradientTolerance;
+}
+
+// The damped step from the normal equations: (A + lambda D) h = -g, whose solution is that of the
+// least-squares system [R; sqrt(lambda D)] h = [-Q^T r; 0] when R^T R = A and R^T Q^T r = g; the
+// predicted reduction 0.5 (|Q^T r|^2 - |Q^T r + R h|^2) is then -g.h - 0.5 h^T A h. False when A +
+// lambda D is not numerically positive definite (the caller then solves the system by QR).
+bool LevenbergMarquardt::dampedNormalStep(double& predicted) {
+    m_w.dampedA = m_w.A;
+    for (Eigen::Index j = 0; j < m_n; ++j)
+        m_w.dampedA(j, j) += m_lambda * m_w.D[j];
+    m_w.dampedLlt.compute(m_w.dampedA);
+    if (m_w.dampedLlt.info() != Eigen::Success)
+        return false;
+    m_w.h = -m_w.g;
+    m_w.dampedLlt.solveInPlace(m_w.h);
+    m_w.Ah.noalias() = m_w.A * m_w.h;
+    predicted = -m_w.g.dot(m_w.h) - 0.5 * m_w.h.dot(m_w.Ah);
+    return true;
+}
+
+// The damped step by QR of the small system [R; sqrt(lambda D)] h = [-Q^T r; 0].
+void LevenbergMarquardt::dampedQrStep(double& predicted) {
+    const Eigen::Index n = m_n;
+    m_w.S.topRows(n) = m_w.R;
+    m_w.S.bottomRows(n).setZero();
+    for (Eigen::Index j = 0; j < n; ++j)
+        m_w.S(n + j, j) = std::sqrt(m_lambda * m_w.D[j]);
+    m_w.rhs.head(n) = -m_w.qtr;
+    m_w.rhs.tail(n).setZero();
+    m_w.dampedQr.compute(m_w.S);
+    m_w.h = m_w.dampedQr.solve(m_w.rhs);
+    m_w.qtrPlusRh.noalias() = m_w.R * m_w.h;
+    m_w.qtrPlusRh += m_w.qtr;
+    predicted = 0.5 * (m_w.qtr.squaredNorm() - m_w.qtrPlusRh.squaredNorm());
+}
+
+bool LevenbergMarquardt::step(double& predicted) {
+    ++m_summary.iterations;
+    predicted = 0;
+    if (!(m_fromNormalEquations && dampedNormalStep(predicted)))
+        dampedQrStep(predicted);
+    if (!allFinite(m_w.h.data(), static_cast<std::size_t>(m_n))) {
+        stop(Termination::NumericalFailure, "the damped linear system gave a non-finite step");
+        return false;
+    }
+    if (m_w.h.norm() <=
+        m_options.parameterTolerance * (m_x.norm() + m_options.parameterTolerance)) {
+        stop(Termination::ParameterTolerance);
+        return false;
+    }
+    return true;
+}
+
+void LevenbergMarquardt::acceptOrReject(double predicted) {
+    // With an analytic Jacobian, a trial point is evaluated with its Jacobian at once (shared work,
+    // and most trial points are accepted); with numerical differences only on acceptance.
+    m_w.xNew = m_x + m_w.h;
+    double rho = -1.0;
+    double costNew = m_cost;
+    const bool evaluated = m_problem.hasJacobian()
+                               ? m_eval.residualsAndJacobian(m_w.xNew, m_w.rNew, m_w.JNew)
+                               : m_eval.residuals(m_w.xNew, m_w.rNew);
+    if (evaluated) {
+        costNew = 0.5 * m_w.rNew.squaredNorm();
+        if (predicted > 0)
+            rho = (m_cost - costNew) / predicted;
+    }
+    if (rho > 0)
+        accept(rho, costNew);
+    else
+        reject();
+}
+
+void LevenbergMarquardt::accept(double rho, double costNew) {
+    const double reduction = m_cost - costNew;
+    m_x = m_w.xNew;
+    m_cost = costNew;
+    if (m_problem.hasJacobian()) {
+        m_w.r.swap(m_w.rNew);
+        m_w.J.swap(m_w.JNew);
+    } else if (!m_eval.residualsAndJacobian(m_x, m_w.r, m_w.J)) {
+        stop(Termination::NumericalFailure, "the Jacobian is not finite at an accepted point");
+        return;
+    }
+    factorise();
+    m_w.D = m_w.D.cwiseMax(m_w.columnNorms2);
+    m_lambda *= std::max(1.0 / 3.0, 1.0 - std::pow(2.0 * rho - 1.0, 3));
+    m_nu = 2.0;
+    if (reduction <= m_options.functionTolerance * m_cost)
+        stop(Termination::FunctionTolerance);
+    else if (gradientSmall())
+        stop(Termination::GradientTolerance);
+}
+
+void LevenbergMarquardt::reject() {
+    m_lambda *= m_nu;
+    m_nu *= 2.0;
+    if (m_lambda > 1e30 || m_nu > 1e30)
+        stop(Termination::NoFurtherReduction, "no step lowers the cost any more");
+}
+
+// Gauss-Newton polish: near the minimum the cost cannot resolve steps finer than about sqrt(machine
+// epsilon), but the Gauss-Newton iteration converges on J^T r = 0 to working precision. Steps are
+// taken while they keep shrinking (a converging fixed-point iteration) and do not raise the cost by
+// more than 1e-9 of itself (rounding noise in small costs); a step is halved up to 8 times in a
+// curved valley.
+void LevenbergMarquardt::polish() {
+    double previousStep = std::numeric_limits<double>::infinity();
+    for (int k = 0; m_summary.converged() && k < m_options.refinementSteps; ++k) {
+        Vector step = m_w.J.colPivHouseholderQr().solve(-m_w.r);
+        if (!allFinite(step.data(), static_cast<std::size_t>(m_n)))
+            break;
+        bool accepted = false;
+        double costNew = m_cost;
+        for (int halving = 0; halving <= 8 && !accepted; ++halving, step *= 0.5) {
+            if (step.norm() >= previousStep)
+                continue;
+            m_w.xNew = m_x + step;
+            if (!m_eval.residualsAndJacobian(m_w.xNew, m_w.rNew, m_w.JNew))
+                continue;
+            costNew = 0.5 * m_w.rNew.squaredNorm();
+            accepted = costNew <= m_cost * (1.0 + 1e-9);
+        }
+        if (!accepted)
+            break;
+        previousStep = (m_w.xNew - m_x).norm();
+        const bool tiny = previousStep <= 1e-15 * m_x.norm();
+        m_x = m_w.xNew;
+        m_w.r.swap(m_w.rNew);
+        m_w.J.swap(m_w.JNew);
+        m_cost = costNew;
+        if (tiny)
+            break;
+    }
+}
+
+void LevenbergMarquardt::finish() {
+    m_summary.finalCost = m_cost;
+    m_result.parameters.assign(m_x.data(), m_x.data() + m_n);
+    m_result.residuals.assign(m_w.r.data(), m_w.r.data() + m_m);
+    m_result.jacobian.assign(m_w.J.data(), m_w.J.data() + m_w.J.size());
+    fillCovariance(m_w.J, m_options.linearSolver, m_result);
+    if (m_summary.message.empty()) {
+        m_summary.message = m_summary.converged() ? "converged" : "stopped before convergence";
+    }
+}
+
+}  // namespace
+
 SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<const double> start,
                                const SolverOptions& options) {
     SolverResult result;
-    solveLeastSquares(problem, start, options, result);
+    SolverWorkspace workspace;
+    solveLeastSquares(problem, start, options, result, workspace);
     return result;
 }
 
 void solveLeastSquares(const LeastSquaresProblem& problem, std::span<const double> start,
-                       const SolverOptions& options, SolverResult& result) {
+                       const SolverOptions& options, SolverResult& result,
+                       SolverWorkspace& workspace) {
     result.summary = SolverSummary{};
     result.residuals.clear();
     result.jacobian.clear();
     result.unscaledCovariance.clear();
     result.covarianceAvailable = false;
-    SolverSummary& summary = result.summary;
-    const int m = problem.residualCount();
-    const int n = problem.parameterCount();
-    Vector x = Eigen::Map<const Vector>(start.data(), static_cast<Eigen::Index>(start.size()));
     result.parameters.assign(start.begin(), start.end());
-    if (static_cast<int>(start.size()) != n || m < 1 || n < 1) {
-        summary.message = "the problem and the starting point disagree on the parameter count";
+    LevenbergMarquardt solver(problem, options, workspace.buffers(), result);
+    if (!solver.start(start))
         return;
-    }
-    Evaluator eval(problem, summary);
-    // Working memory is kept per thread: a batch fit calls the solver thousands of times and
-    // fresh allocations of these sizes make the allocator return and re-fault pages each time.
-    thread_local Vector r, rNew;
-    thread_local Matrix J, JNew;
-    thread_local Eigen::MatrixXd
-        Jc;  // column-major copy: Householder QR runs down contiguous columns
-    if (!eval.residualsAndJacobian(x, r, J)) {
-        summary.termination = Termination::InvalidStart;
-        summary.message = "the model cannot be evaluated at the starting point";
-        return;
-    }
-    double cost = 0.5 * r.squaredNorm();
-    summary.initialCost = cost;
-
-    // The small n-sized work arrays are per thread too (resize keeps the storage of equal sizes).
-    thread_local Vector D, xNew, qtr, rhs, h, g, columnNorms2;
-    thread_local Matrix R, S, A;
-    thread_local Eigen::LLT<Matrix> llt;
-    thread_local Eigen::HouseholderQR<Matrix> dampedQr;
-    thread_local Eigen::HouseholderQR<Eigen::MatrixXd> qr;
-    xNew.resize(n);
-    double lambda = options.initialDamping;
-    double nu = 2.0;
-    summary.termination = Termination::MaxIterations;
-    bool haveTermination = false;
-    // With an analytic Jacobian, a trial point is evaluated with its Jacobian at once (shared
-    // work, and most trial points are accepted); with numerical differences only on acceptance.
-    const bool jacobianWithTrial = problem.hasJacobian();
-
-    // J = Q R once per Jacobian; every damped step then solves the small system
-    // [R; sqrt(lambda D)] h = [-Q^T r; 0] (MINPACK's approach: More 1978, section 3). With the
-    // normal equations (R from the Cholesky factor of J^T J) the same step comes from the
-    // Cholesky factor of J^T J + lambda D (dampedNormalStep below), a few dozen operations.
-    // Each factorisation also gives the squared column norms of J (the diagonal of J^T J), from
-    // which the damping scale D is kept.
-    R.resize(n, n);
-    qtr.resize(n);
-    S.resize(2 * n, n);
-    rhs.resize(2 * n);
-    columnNorms2.resize(n);
-    // True while R and Q^T r come from the Cholesky factor of A = J^T J (g = J^T r kept too).
-    bool fromNormalEquations = false;
-    auto factorise = [&]() {
-        fromNormalEquations = false;
-        if (options.linearSolver == LinearSolver::NormalEquations) {
-            // R from the Cholesky factor of J^T J and Q^T r = R^-T J^T r: the same small system
-            // at a fraction of the cost; QR when J^T J is not numerically positive definite.
-            // J^T J and J^T r by plain loops over the rows (tall, thin J: cheaper than GEMM).
-            A.resize(n, n);
-            g.resize(n);
-            detail::gram(J.data(), static_cast<std::size_t>(m), static_cast<std::size_t>(n), {},
-                         {r.data(), static_cast<std::size_t>(m)}, A.data(), g.data());
-            columnNorms2 = A.diagonal();
-            llt.compute(A);
-            if (llt.info() == Eigen::Success) {
-                R = llt.matrixU();
-                qtr = llt.matrixL().solve(g);
-                fromNormalEquations = allFinite(R.data(), static_cast<std::size_t>(R.size())) &&
-                                      allFinite(qtr.data(), static_cast<std::size_t>(n));
-                if (fromNormalEquations)
-                    return;
-            }
-        }
-        Jc = J;
-        qr.compute(Jc);
-        R = qr.matrixQR().topRows(n).triangularView<Eigen::Upper>();
-        qtr = (qr.householderQ().transpose() * r).head(n);
-        columnNorms2 = J.colwise().squaredNorm().transpose();
-    };
-    factorise();
-    D = columnNorms2.cwiseMax(1e-300);
-
-    auto gradientSmall = [&]() {
-        if (options.gradientTolerance <= 0)
-            return false;
-        const double rnorm = r.norm();
-        if (rnorm == 0.0)
-            return true;
-        const Vector gradient = J.transpose() * r;
-        double worst = 0;
-        for (Eigen::Index j = 0; j < n; ++j) {
-            const double cn = J.col(j).norm();
-            if (cn > 0)
-                worst = std::max(worst, std::abs(gradient[j]) / (cn * rnorm));
-        }
-        return worst <= options.gradientTolerance;
-    };
-    if (gradientSmall()) {
-        summary.termination = Termination::GradientTolerance;
-        haveTermination = true;
-    }
-
-    // The damped step from the normal equations: (A + lambda D) h = -g, whose solution is that
-    // of the least-squares system [R; sqrt(lambda D)] h = [-Q^T r; 0] when R^T R = A and
-    // R^T Q^T r = g; the predicted reduction 0.5 (|Q^T r|^2 - |Q^T r + R h|^2) is then
-    // -g.h - 0.5 h^T A h. False when A + lambda D is not numerically positive definite (the
-    // caller then solves the system by QR).
-    thread_local Matrix dampedA;
-    thread_local Eigen::LLT<Matrix> dampedLlt;
-    thread_local Vector Ah;
-    auto dampedNormalStep = [&](double& predicted) {
-        dampedA = A;
-        for (Eigen::Index j = 0; j < n; ++j)
-            dampedA(j, j) += lambda * D[j];
-        dampedLlt.compute(dampedA);
-        if (dampedLlt.info() != Eigen::Success)
-            return false;
-        h = -g;
-        dampedLlt.solveInPlace(h);
-        Ah.noalias() = A * h;
-        predicted = -g.dot(h) - 0.5 * h.dot(Ah);
-        return true;
-    };
-    thread_local Vector qtrPlusRh;
-
-    while (!haveTermination && summary.iterations < options.maxIterations) {
-        ++summary.iterations;
+    while (!solver.done() && result.summary.iterations < options.maxIterations) {
         double predicted = 0;
-        if (!(fromNormalEquations && dampedNormalStep(predicted))) {
-            S.topRows(n) = R;
-            S.bottomRows(n).setZero();
-            for (Eigen::Index j = 0; j < n; ++j)
-                S(n + j, j) = std::sqrt(lambda * D[j]);
-            rhs.head(n) = -qtr;
-            rhs.tail(n).setZero();
-            dampedQr.compute(S);
-            h = dampedQr.solve(rhs);
-            qtrPlusRh.noalias() = R * h;
-            qtrPlusRh += qtr;
-            predicted = 0.5 * (qtr.squaredNorm() - qtrPlusRh.squaredNorm());
-        }
-        if (!allFinite(h.data(), static_cast<std::size_t>(n))) {
-            summary.termination = Termination::NumericalFailure;
-            summary.message = "the damped linear system gave a non-finite step";
+        if (!solver.step(predicted))
             break;
-        }
-        if (h.norm() <= options.parameterTolerance * (x.norm() + options.parameterTolerance)) {
-            summary.termination = Termination::ParameterTolerance;
-            break;
-        }
-        xNew = x + h;
-        double rho = -1.0;
-        double costNew = cost;
-        const bool evaluated = jacobianWithTrial ? eval.residualsAndJacobian(xNew, rNew, JNew)
-                                                 : eval.residuals(xNew, rNew);
-        if (evaluated) {
-            costNew = 0.5 * rNew.squaredNorm();
-            if (predicted > 0)
-                rho = (cost - costNew) / predicted;
-        }
-        if (rho > 0) {
-            const double reduction = cost - costNew;
-            x = xNew;
-            cost = costNew;
-            if (jacobianWithTrial) {
-                r.swap(rNew);
-                J.swap(JNew);
-            } else if (!eval.residualsAndJacobian(x, r, J)) {
-                summary.termination = Termination::NumericalFailure;
-                summary.message = "the Jacobian is not finite at an accepted point";
-                break;
-            }
-            factorise();
-            D = D.cwiseMax(columnNorms2);
-            lambda *= std::max(1.0 / 3.0, 1.0 - std::pow(2.0 * rho - 1.0, 3));
-            nu = 2.0;
-            if (reduction <= options.functionTolerance * cost) {
-                summary.termination = Termination::FunctionTolerance;
-                break;
-            }
-            if (gradientSmall()) {
-                summary.termination = Termination::GradientTolerance;
-                break;
-            }
-        } else {
-            lambda *= nu;
-            nu *= 2.0;
-            if (lambda > 1e30 || nu > 1e30) {
-                summary.termination = Termination::NoFurtherReduction;
-                summary.message = "no step lowers the cost any more";
-                break;
-            }
-        }
+        solver.acceptOrReject(predicted);
     }
-
-    // Gauss-Newton polish: near the minimum the cost cannot resolve steps finer than about
-    // sqrt(machine epsilon), but the Gauss-Newton iteration converges on J^T r = 0 to working
-    // precision. Steps are taken while they keep shrinking (a converging fixed-point iteration)
-    // and do not raise the cost by more than 1e-9 of itself (rounding noise in small costs);
-    // a step is halved up to 8 times in a curved valley.
-    double previousStep = std::numeric_limits<double>::infinity();
-    for (int k = 0; summary.converged() && k < options.refinementSteps; ++k) {
-        Vector step = J.colPivHouseholderQr().solve(-r);
-        if (!allFinite(step.data(), static_cast<std::size_t>(n)))
-            break;
-        bool accepted = false;
-        double costNew = cost;
-        for (int halving = 0; halving <= 8 && !accepted; ++halving, step *= 0.5) {
-            if (step.norm() >= previousStep)
-                continue;
-            xNew = x + step;
-            if (!eval.residualsAndJacobian(xNew, rNew, JNew))
-                continue;
-            costNew = 0.5 * rNew.squaredNorm();
-            accepted = costNew <= cost * (1.0 + 1e-9);
-        }
-        if (!accepted)
-            break;
-        previousStep = (xNew - x).norm();
-        const bool tiny = previousStep <= 1e-15 * x.norm();
-        x = xNew;
-        r.swap(rNew);
-        J.swap(JNew);
-        cost = costNew;
-        if (tiny)
-            break;
-    }
-
-    summary.finalCost = cost;
-    result.parameters.assign(x.data(), x.data() + n);
-    result.residuals.assign(r.data(), r.data() + m);
-    result.jacobian.assign(J.data(), J.data() + J.size());
-    fillCovariance(J, options.linearSolver, result);
-    if (summary.message.empty()) {
-        summary.message = summary.converged() ? "converged" : "stopped before convergence";
-    }
+    solver.polish();
+    solver.finish();
 }
 
 }  // namespace siftwave::fit

@@ -200,9 +200,11 @@ bool score(const MeanModel& mean, const Observations& obs, std::span<const doubl
 
 }  // namespace
 
-LikelihoodFit fitLikelihood(const WaveModel& model, const Series& series, int first, int last,
-                            const std::vector<double>& start, const FitOptions& o) {
-    LikelihoodFit out;
+namespace {
+
+// The window's counts that enter the likelihood: finite and not negative (a negative value is a
+// correction, not a count), rounded, with their day and weekday.
+Observations observationsIn(const Series& series, int first, int last) {
     Observations obs;
     obs.periodDays = series.periodDays;
     const bool daily = series.periodDays == 1;
@@ -214,79 +216,41 @@ LikelihoodFit fitLikelihood(const WaveModel& model, const Series& series, int fi
         obs.y.push_back(std::round(v));
         obs.weekday.push_back(daily ? (series.firstDay + i).isoWeekday() - 1 : 0);
     }
-    const int np = model.parameterCount();
-    if (static_cast<int>(obs.t.size()) <= np + (o.weekdayFactors ? 7 : 1)) {
-        out.message = daily ? "the window has too few days with counts for this model"
-                            : "the window has too few weeks with counts for this model";
-        return out;
-    }
-    const bool negbin = o.method == FitMethod::NegativeBinomial;
-    MeanModel mean(model, obs, o.weekdayFactors);
-    std::vector<double> x = start;
-    x.resize(static_cast<std::size_t>(mean.size()), 0.0);
+    return obs;
+}
 
-    auto solveMean = [&](double r) {
-        DevianceProblem problem(mean, obs, r);
-        SolverResult sr = solveLeastSquares(problem, x, o.solver);
-        if (sr.summary.termination != Termination::InvalidStart)
-            x = sr.parameters;
-        return sr.summary;
-    };
-    double r = kPoissonSize;
-    SolverSummary summary = solveMean(r);
-    if (summary.termination == Termination::InvalidStart) {
-        out.message = "the model cannot be evaluated at its start";
-        return out;
-    }
-    int iterations = summary.iterations, evaluations = summary.evaluations;
-    std::vector<double> lambda;
-    if (negbin) {
-        double logR = std::log(10.0);
-        for (int round = 0; round < 20; ++round) {
-            mean.evaluate(x, lambda, {});
-            auto profile = [&](double lr) { return logLikelihood(obs.y, lambda, std::exp(lr)); };
-            // Golden-section search for the maximum in ln r over [ln 0.01, ln 1e7].
-            double a = std::log(1e-2), b = std::log(1e7);
-            const double g = (std::sqrt(5.0) - 1.0) / 2.0;
-            double c = b - g * (b - a), d = a + g * (b - a);
-            double fc = profile(c), fd = profile(d);
-            while (b - a > 1e-6) {
-                if (fc > fd) {
-                    b = d;
-                    d = c;
-                    fd = fc;
-                    c = b - g * (b - a);
-                    fc = profile(c);
-                } else {
-                    a = c;
-                    c = d;
-                    fc = fd;
-                    d = a + g * (b - a);
-                    fd = profile(d);
-                }
-            }
-            const double newLogR = 0.5 * (a + b);
-            const bool settled = std::abs(newLogR - logR) < 1e-5;
-            logR = newLogR;
-            r = std::exp(logR);
-            summary = solveMean(r);
-            iterations += summary.iterations;
-            evaluations += summary.evaluations;
-            if (settled)
-                break;
+// The negative-binomial size that maximises the profile log-likelihood at the means `lambda`:
+// golden-section search in ln r over [ln 0.01, ln 1e7].
+double mostLikelyLogSize(const Observations& obs, const std::vector<double>& lambda) {
+    auto profile = [&](double lr) { return logLikelihood(obs.y, lambda, std::exp(lr)); };
+    double a = std::log(1e-2), b = std::log(1e7);
+    const double g = (std::sqrt(5.0) - 1.0) / 2.0;
+    double c = b - g * (b - a), d = a + g * (b - a);
+    double fc = profile(c), fd = profile(d);
+    while (b - a > 1e-6) {
+        if (fc > fd) {
+            b = d;
+            d = c;
+            fd = fc;
+            c = b - g * (b - a);
+            fc = profile(c);
+        } else {
+            a = c;
+            c = d;
+            fc = fd;
+            d = a + g * (b - a);
+            fd = profile(d);
         }
-        out.dispersion = r;
     }
-    summary.iterations = iterations;
-    summary.evaluations = evaluations;
-    out.summary = summary;
-    out.parameters.assign(x.begin(), x.begin() + np);
-    if (o.weekdayFactors) {
-        const auto f = mean.factors(x);
-        out.weekdayFactors.assign(f.begin(), f.end());
-    }
+    return 0.5 * (a + b);
+}
 
-    // Observed information by central differences of the score.
+// The model parameters' block (np x np) of the inverse observed information, the Hessian of
+// the log-likelihood by central differences of the score in every parameter (mean, weekday and
+// ln r); NaN when the information is not positive definite.
+std::vector<double> observedInformationCovariance(const MeanModel& mean, const Observations& obs,
+                                                  const std::vector<double>& x, double r,
+                                                  bool negbin, int np) {
     const int q = mean.size() + (negbin ? 1 : 0);
     Eigen::MatrixXd hessian(q, q);
     bool hessianOk = true;
@@ -308,29 +272,32 @@ LikelihoodFit fitLikelihood(const WaveModel& model, const Series& series, int fi
         if (hessianOk)
             hessian.col(j) = (su - sd) / (2 * step);
     }
-    out.modelCovariance.assign(static_cast<std::size_t>(np * np), kNaN);
-    if (hessianOk) {
-        const Eigen::MatrixXd info = -0.5 * (hessian + hessian.transpose());
-        Eigen::LDLT<Eigen::MatrixXd> ldlt(info);
-        if (ldlt.info() == Eigen::Success && ldlt.isPositive()) {
-            const Eigen::MatrixXd cov = ldlt.solve(Eigen::MatrixXd::Identity(q, q));
-            bool positive = true;
-            for (int j = 0; j < np; ++j)
-                positive = positive && cov(j, j) > 0;
-            if (positive && cov.allFinite()) {
-                for (int a = 0; a < np; ++a) {
-                    for (int b = 0; b < np; ++b)
-                        out.modelCovariance[static_cast<std::size_t>(a * np + b)] = cov(a, b);
-                }
-            }
+    std::vector<double> covariance(static_cast<std::size_t>(np * np), kNaN);
+    if (!hessianOk)
+        return covariance;
+    const Eigen::MatrixXd info = -0.5 * (hessian + hessian.transpose());
+    Eigen::LDLT<Eigen::MatrixXd> ldlt(info);
+    if (ldlt.info() != Eigen::Success || !ldlt.isPositive())
+        return covariance;
+    const Eigen::MatrixXd cov = ldlt.solve(Eigen::MatrixXd::Identity(q, q));
+    bool positive = true;
+    for (int j = 0; j < np; ++j)
+        positive = positive && cov(j, j) > 0;
+    if (positive && cov.allFinite()) {
+        for (int a = 0; a < np; ++a) {
+            for (int b = 0; b < np; ++b)
+                covariance[static_cast<std::size_t>(a * np + b)] = cov(a, b);
         }
     }
+    return covariance;
+}
 
-    // Goodness of fit on the raw counts.
-    mean.evaluate(x, lambda, {});
-    GoodnessOfFit& g = out.goodness;
+// Goodness of fit on the raw counts, at the fitted means `lambda`.
+GoodnessOfFit likelihoodGoodness(const Observations& obs, const std::vector<double>& lambda,
+                                 double r, int parameters) {
+    GoodnessOfFit g;
     g.observations = static_cast<int>(obs.y.size());
-    g.parameters = mean.size() + (negbin ? 1 : 0);
+    g.parameters = parameters;
     double ybar = 0;
     for (double v : obs.y)
         ybar += v;
@@ -344,6 +311,73 @@ LikelihoodFit fitLikelihood(const WaveModel& model, const Series& series, int fi
     g.r2 = tss > 0 ? 1.0 - rss / tss : kNaN;
     g.rmse = std::sqrt(rss / static_cast<double>(obs.y.size()));
     g.logLikelihood = logLikelihood(obs.y, lambda, r);
+    return g;
+}
+
+}  // namespace
+
+// The steps: the observations, the mean parameters at the Poisson size, for the negative
+// binomial the size and the means in turn until the size settles, then the covariance and the
+// goodness of fit.
+LikelihoodFit fitLikelihood(const WaveModel& model, const Series& series, int first, int last,
+                            const std::vector<double>& start, const FitOptions& o,
+                            SolverWorkspace& workspace) {
+    LikelihoodFit out;
+    const Observations obs = observationsIn(series, first, last);
+    const int np = model.parameterCount();
+    if (static_cast<int>(obs.t.size()) <= np + (o.weekdayFactors ? 7 : 1)) {
+        out.message = series.periodDays == 1
+                          ? "the window has too few days with counts for this model"
+                          : "the window has too few weeks with counts for this model";
+        return out;
+    }
+    const bool negbin = o.method == FitMethod::NegativeBinomial;
+    MeanModel mean(model, obs, o.weekdayFactors);
+    std::vector<double> x = start;
+    x.resize(static_cast<std::size_t>(mean.size()), 0.0);
+    SolverResult sr;
+    auto solveMean = [&](double size) {
+        DevianceProblem problem(mean, obs, size);
+        solveLeastSquares(problem, x, o.solver, sr, workspace);
+        if (sr.summary.termination != Termination::InvalidStart)
+            x = sr.parameters;
+        return sr.summary;
+    };
+    double r = kPoissonSize;
+    SolverSummary summary = solveMean(r);
+    if (summary.termination == Termination::InvalidStart) {
+        out.message = "the model cannot be evaluated at its start";
+        return out;
+    }
+    int iterations = summary.iterations, evaluations = summary.evaluations;
+    std::vector<double> lambda;
+    if (negbin) {
+        double logR = std::log(10.0);
+        for (int round = 0; round < 20; ++round) {
+            mean.evaluate(x, lambda, {});
+            const double newLogR = mostLikelyLogSize(obs, lambda);
+            const bool settled = std::abs(newLogR - logR) < 1e-5;
+            logR = newLogR;
+            r = std::exp(logR);
+            summary = solveMean(r);
+            iterations += summary.iterations;
+            evaluations += summary.evaluations;
+            if (settled)
+                break;
+        }
+        out.dispersion = r;
+    }
+    summary.iterations = iterations;
+    summary.evaluations = evaluations;
+    out.summary = summary;
+    out.parameters.assign(x.begin(), x.begin() + np);
+    if (o.weekdayFactors) {
+        const auto f = mean.factors(x);
+        out.weekdayFactors.assign(f.begin(), f.end());
+    }
+    out.modelCovariance = observedInformationCovariance(mean, obs, x, r, negbin, np);
+    mean.evaluate(x, lambda, {});
+    out.goodness = likelihoodGoodness(obs, lambda, r, mean.size() + (negbin ? 1 : 0));
     out.ok = true;
     return out;
 }

@@ -35,8 +35,9 @@ struct LikelihoodFit {
     GoodnessOfFit goodness;  // aic/aicc filled by the caller
 };
 
-/// Fits periods first..last of `series` (period indices).
+/// Fits periods first..last of `series` (period indices); the solves use `workspace`.
 LikelihoodFit fitLikelihood(const WaveModel& model, const Series& series, int first, int last,
-                            const std::vector<double>& start, const FitOptions& options);
+                            const std::vector<double>& start, const FitOptions& options,
+                            SolverWorkspace& workspace);
 
 }  // namespace siftwave::fit::detail

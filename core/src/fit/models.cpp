@@ -3,6 +3,7 @@
 #include <boost/math/special_functions/erf.hpp>
 
 #include <algorithm>
+#include <array>
 #include <cassert>
 #if defined(__SSE2__)
 #include <emmintrin.h>
@@ -56,57 +57,59 @@ double standardNormalQuantile(double q) {
     return -std::numbers::sqrt2 * boost::math::erfc_inv(2.0 * q);
 }
 
-// What the linearisations share: the observed points, a running cumulative and a first K.
+// What the linearisations share: the observed points (in the workspace), a running cumulative
+// and a first K.
 struct GuessData {
-    std::vector<double> t, y, cumulative;
+    GuessWorkspace& w;  // t, y, cumulative: the points; xs, ys, g: scratch of the steps below
     double total = 0;
     double peakT = 0;
     double peakY = 0;
     double cumulativeAtPeak = 0;
 };
 
-// False when the points cannot start a fit. `d` is filled afresh; its vectors keep their storage
-// (the callers keep one GuessData per thread: a batch fit guesses thousands of starts).
+// False when the points cannot start a fit. The workspace's vectors are filled afresh and keep
+// their storage (a batch fit guesses thousands of starts with one workspace).
 bool prepareGuess(std::span<const double> t, std::span<const double> y, GuessData& d) {
-    d.t.clear();
-    d.y.clear();
-    d.cumulative.clear();
+    GuessWorkspace& w = d.w;
+    w.t.clear();
+    w.y.clear();
+    w.cumulative.clear();
     d.total = d.peakT = d.peakY = d.cumulativeAtPeak = 0;
     double running = 0;
     for (std::size_t i = 0; i < t.size() && i < y.size(); ++i) {
         if (!std::isfinite(y[i]) || !std::isfinite(t[i]))
             continue;
         const double v = std::max(0.0, y[i]);
-        d.t.push_back(t[i]);
-        d.y.push_back(v);
-        d.cumulative.push_back(running + 0.5 * v);  // C at the middle of day i
+        w.t.push_back(t[i]);
+        w.y.push_back(v);
+        w.cumulative.push_back(running + 0.5 * v);  // C at the middle of day i
         running += v;
         if (v > d.peakY) {
             d.peakY = v;
             d.peakT = t[i];
-            d.cumulativeAtPeak = d.cumulative.back();
+            d.cumulativeAtPeak = w.cumulative.back();
         }
     }
     d.total = running;
-    if (d.t.size() < 3 || !(d.total > 0) || !(d.peakY > 0))
+    if (w.t.size() < 3 || !(d.total > 0) || !(d.peakY > 0))
         return false;
     // The guess describes the main wave only: stop where the curve, after its peak, has fallen
     // below 2% of the peak, so that a later small rise inside the window does not inflate K.
-    std::size_t end = d.t.size();
+    std::size_t end = w.t.size();
     bool pastPeak = false;
-    for (std::size_t i = 0; i < d.t.size(); ++i) {
-        if (d.t[i] >= d.peakT)
+    for (std::size_t i = 0; i < w.t.size(); ++i) {
+        if (w.t[i] >= d.peakT)
             pastPeak = true;
-        if (pastPeak && d.y[i] < 0.02 * d.peakY) {
+        if (pastPeak && w.y[i] < 0.02 * d.peakY) {
             end = i + 1;
             break;
         }
     }
-    if (end < d.t.size() && end >= 3) {
-        d.t.resize(end);
-        d.y.resize(end);
-        d.cumulative.resize(end);
-        d.total = d.cumulative.back() + 0.5 * d.y.back();
+    if (end < w.t.size() && end >= 3) {
+        w.t.resize(end);
+        w.y.resize(end);
+        w.cumulative.resize(end);
+        d.total = w.cumulative.back() + 0.5 * w.y.back();
     }
     return true;
 }
@@ -114,19 +117,20 @@ bool prepareGuess(std::span<const double> t, std::span<const double> y, GuessDat
 // Best K for fixed shape: minimises sum (y - K g)^2, g = unit-size incidence.
 double bestSize(const WaveModel& model, const GuessData& d, std::vector<double> p) {
     p[0] = 1.0;
-    thread_local std::vector<double> g;
-    g.resize(d.t.size());
+    const std::vector<double>& t = d.w.t;
+    std::vector<double>& g = d.w.g;
+    g.resize(t.size());
     bool consecutive = true;  // days t0, t0 + 1, ...: the cheaper day-grid evaluation
-    for (std::size_t i = 1; i < d.t.size() && consecutive; ++i)
-        consecutive = d.t[i] == d.t[0] + static_cast<double>(i);
-    if (consecutive && !d.t.empty()) {
-        model.incidenceOnDays(d.t[0], p, g);
+    for (std::size_t i = 1; i < t.size() && consecutive; ++i)
+        consecutive = t[i] == t[0] + static_cast<double>(i);
+    if (consecutive && !t.empty()) {
+        model.incidenceOnDays(t[0], p, g);
     } else {
-        model.incidence(d.t, p, g);
+        model.incidence(t, p, g);
     }
     double gy = 0, gg = 0;
     for (std::size_t i = 0; i < g.size(); ++i) {
-        gy += g[i] * d.y[i];
+        gy += g[i] * d.w.y[i];
         gg += g[i] * g[i];
     }
     return gg > 0 && gy > 0 ? gy / gg : d.total;
@@ -136,12 +140,13 @@ double bestSize(const WaveModel& model, const GuessData& d, std::vector<double> 
 template <class Transform>
 std::optional<Line> linearisedAt(const GuessData& d, double size, Transform transform,
                                  bool logTime) {
-    // Per thread: the start of a batch fit draws several lines per region.
-    thread_local std::vector<double> xs, ys;
+    // In the workspace: the start of a batch fit draws several lines per region.
+    std::vector<double>& xs = d.w.xs;
+    std::vector<double>& ys = d.w.ys;
     xs.clear();
     ys.clear();
     // The days with 0.02 < C/K < 0.98: one run, the cumulative being nondecreasing.
-    const auto begin = d.cumulative.begin(), end = d.cumulative.end();
+    const auto begin = d.w.cumulative.begin(), end = d.w.cumulative.end();
     const auto lo = std::partition_point(begin, end, [&](double c) { return c / size <= 0.02; });
     const auto hi = std::partition_point(lo, end, [&](double c) { return c / size < 0.98; });
     const std::size_t first = static_cast<std::size_t>(lo - begin);
@@ -151,8 +156,8 @@ std::optional<Line> linearisedAt(const GuessData& d, double size, Transform tran
     xs.reserve(inRange / stride + 1);
     ys.reserve(inRange / stride + 1);
     for (std::size_t i = first; i < first + inRange; i += stride) {
-        xs.push_back(logTime ? std::log(d.t[i] + 1.0) : d.t[i]);
-        ys.push_back(transform(d.cumulative[i] / size));
+        xs.push_back(logTime ? std::log(d.w.t[i] + 1.0) : d.w.t[i]);
+        ys.push_back(transform(d.w.cumulative[i] / size));
     }
     auto line = fitLine(xs, ys);
     if (!line || !(line->slope > 0))
@@ -196,8 +201,9 @@ template <class Transform>
 std::optional<std::vector<double>> locationScaleGuess(const WaveModel& model,
                                                       std::span<const double> t,
                                                       std::span<const double> y, double shareAtPeak,
-                                                      double peakDensity, Transform transform) {
-    thread_local GuessData guess;
+                                                      double peakDensity, Transform transform,
+                                                      GuessWorkspace& workspace) {
+    GuessData guess{workspace};
     if (!prepareGuess(t, y, guess))
         return std::nullopt;
     const GuessData* d = &guess;
@@ -358,9 +364,11 @@ public:
     }
     double peakTime(std::span<const double> p) const override { return p[1]; }
     std::optional<std::vector<double>> initialGuess(std::span<const double> t,
-                                                    std::span<const double> y) const override {
-        return locationScaleGuess(*this, t, y, std::exp(-1.0), std::exp(-1.0),
-                                  [](double q) { return -std::log(-std::log(q)); });
+                                                    std::span<const double> y,
+                                                    GuessWorkspace& workspace) const override {
+        return locationScaleGuess(
+            *this, t, y, std::exp(-1.0), std::exp(-1.0),
+            [](double q) { return -std::log(-std::log(q)); }, workspace);
     }
 };
 
@@ -398,9 +406,10 @@ public:
     }
     double peakTime(std::span<const double> p) const override { return p[1]; }
     std::optional<std::vector<double>> initialGuess(std::span<const double> t,
-                                                    std::span<const double> y) const override {
-        return locationScaleGuess(*this, t, y, 0.5, 0.25,
-                                  [](double q) { return std::log(q / (1.0 - q)); });
+                                                    std::span<const double> y,
+                                                    GuessWorkspace& workspace) const override {
+        return locationScaleGuess(
+            *this, t, y, 0.5, 0.25, [](double q) { return std::log(q / (1.0 - q)); }, workspace);
     }
 };
 
@@ -443,8 +452,9 @@ public:
     }
     double peakTime(std::span<const double> p) const override { return p[1]; }
     std::optional<std::vector<double>> initialGuess(std::span<const double> t,
-                                                    std::span<const double> y) const override {
-        auto logistic = waveModel(ModelKind::Logistic).initialGuess(t, y);
+                                                    std::span<const double> y,
+                                                    GuessWorkspace& workspace) const override {
+        auto logistic = waveModel(ModelKind::Logistic).initialGuess(t, y, workspace);
         if (!logistic)
             return std::nullopt;
         return std::vector<double>{(*logistic)[0], (*logistic)[1], (*logistic)[2], 1.0};
@@ -488,8 +498,9 @@ public:
         return std::exp(p[1] - p[2] * p[2]) - 1.0;
     }
     std::optional<std::vector<double>> initialGuess(std::span<const double> t,
-                                                    std::span<const double> y) const override {
-        thread_local GuessData guess;
+                                                    std::span<const double> y,
+                                                    GuessWorkspace& workspace) const override {
+        GuessData guess{workspace};
         if (!prepareGuess(t, y, guess))
             return std::nullopt;
         const GuessData* d = &guess;
@@ -537,11 +548,23 @@ double WaveModel::incidenceAt(double t, std::span<const double> p) const {
 
 void WaveModel::incidenceOnDays(double t0, std::span<const double> p, std::span<double> out,
                                 std::span<double> jacobian) const {
-    thread_local std::vector<double> days;
-    days.resize(out.size());
-    for (std::size_t i = 0; i < out.size(); ++i)
-        days[i] = t0 + static_cast<double>(i);
-    incidence(days, p, out, jacobian);
+    // The day grid in blocks on the stack: no scratch to keep, whatever the length.
+    constexpr std::size_t kBlock = 256;
+    std::array<double, kBlock> days;
+    const std::size_t np = static_cast<std::size_t>(parameterCount());
+    for (std::size_t from = 0; from < out.size(); from += kBlock) {
+        const std::size_t count = std::min(kBlock, out.size() - from);
+        for (std::size_t i = 0; i < count; ++i)
+            days[i] = t0 + static_cast<double>(from + i);
+        incidence(std::span<const double>(days.data(), count), p, out.subspan(from, count),
+                  jacobian.empty() ? jacobian : jacobian.subspan(from * np, count * np));
+    }
+}
+
+std::optional<std::vector<double>> WaveModel::initialGuess(std::span<const double> t,
+                                                           std::span<const double> y) const {
+    GuessWorkspace workspace;
+    return initialGuess(t, y, workspace);
 }
 
 void WaveModel::countsOnPeriods(double t0, int periodDays, std::span<const double> p,

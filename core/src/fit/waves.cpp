@@ -95,12 +95,11 @@ std::vector<Wave> detectWaves(std::span<const double> counts, const WaveDetectio
                                  options);
 }
 
-std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
-                                        const WaveDetectionOptions& options) {
-    std::vector<Wave> waves;
-    const int n = static_cast<int>(s.size());
-    // The highest finite value (0 at least), as four running maxima over interleaved days: one
-    // alone is a chain of dependent comparisons a day long.
+namespace {
+
+// The highest finite value (0 at least), as four running maxima over interleaved days: one
+// alone is a chain of dependent comparisons a day long.
+double highestFinite(std::span<const double> s) {
     std::array<double, 4> tops{};
     for (std::size_t i = 0; i < s.size(); ++i) {
         const double v = s[i];
@@ -108,20 +107,25 @@ std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
         double& top = tops[i % 4];
         top = finite > top ? finite : top;
     }
-    const double top = std::max(std::max(tops[0], tops[1]), std::max(tops[2], tops[3]));
-    if (n == 0 || top < options.minPeak || !(top > 0))
-        return waves;
-    const double delta = std::max(options.minProminenceShare * top, options.minPeak / 2.0);
+    return std::max(std::max(tops[0], tops[1]), std::max(tops[2], tops[3]));
+}
 
-    // Zig-zag: alternate troughs and peaks, each confirmed by a move of delta. Each phase runs
-    // in its own call-free loop (risingPhase, fallingPhase), kept out of line: x86-64 has no
-    // callee-saved vector registers, so with a push_back in the day loop, or inlined among this
-    // function's many values, the compiler kept the running extremes in memory, and every day
-    // waited on a store.
-    thread_local std::vector<int> troughs;  // troughs[k] precedes peaks[k]; per thread, reused
-    thread_local std::vector<int> peaks;
-    troughs.clear();
-    peaks.clear();
+// The turning points of the zig-zag: troughs[k] precedes peaks[k]. Local vectors: a detection
+// runs once per fit, and a few dozen turns reserved at once make one small allocation each.
+struct Turns {
+    std::vector<int> troughs, peaks;
+    bool openRise = false;  // the last rise has not turned yet (an unconfirmed peak)
+};
+
+// Zig-zag: alternate troughs and peaks, each confirmed by a move of delta. Each phase runs in its
+// own call-free loop (risingPhase, fallingPhase), kept out of line: x86-64 has no callee-saved
+// vector registers, so with a push_back in the day loop, or inlined among this function's many
+// values, the compiler kept the running extremes in memory, and every day waited on a store.
+Turns zigZag(std::span<const double> s, double delta) {
+    Turns turns;
+    turns.troughs.reserve(32);
+    turns.peaks.reserve(32);
+    const int n = static_cast<int>(s.size());
     bool seekingPeak = true;
     Extremes x;
     int begin = 0;  // the first finite day starts the zig-zag
@@ -135,8 +139,8 @@ std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
         if (seekingPeak) {
             i = risingPhase(s, i, delta, x);
             if (i < n) {  // confirmed: the trough and peak of a wave; the fall starts at day i
-                troughs.push_back(x.minIndex);
-                peaks.push_back(x.maxIndex);
+                turns.troughs.push_back(x.minIndex);
+                turns.peaks.push_back(x.maxIndex);
                 seekingPeak = false;
                 x.minIndex = i;
                 x.lo = s[static_cast<std::size_t>(i)];
@@ -154,17 +158,24 @@ std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
     }
     const int minIndex = x.minIndex, maxIndex = x.maxIndex;
     // A last rise that has not turned yet is a wave with an unconfirmed peak.
-    bool openRise = false;
     if (seekingPeak && maxIndex > minIndex && minIndex >= 0 &&
         s[static_cast<std::size_t>(maxIndex)] - s[static_cast<std::size_t>(minIndex)] >= delta) {
-        troughs.push_back(minIndex);
-        peaks.push_back(maxIndex);
-        openRise = true;
+        turns.troughs.push_back(minIndex);
+        turns.peaks.push_back(maxIndex);
+        turns.openRise = true;
     }
-    int lastFinite = n - 1;
+    return turns;
+}
+
+// A wave per peak: from the start of its sustained rise to the next trough (or the last finite
+// day), kept when it reaches minPeak and lasts minPeriods.
+std::vector<Wave> wavesFrom(std::span<const double> s, const Turns& turns,
+                            const WaveDetectionOptions& options) {
+    std::vector<Wave> waves;
+    const std::vector<int>&troughs = turns.troughs, &peaks = turns.peaks;
+    int lastFinite = static_cast<int>(s.size()) - 1;
     while (lastFinite > 0 && !std::isfinite(s[static_cast<std::size_t>(lastFinite)]))
         --lastFinite;
-
     for (std::size_t k = 0; k < peaks.size(); ++k) {
         Wave w;
         w.peak = peaks[k];
@@ -183,7 +194,7 @@ std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
             w.last = lastFinite;
             w.troughSeen = false;
         }
-        w.peakConfirmed = !(openRise && k + 1 == peaks.size());
+        w.peakConfirmed = !(turns.openRise && k + 1 == peaks.size());
         if (w.peakValue < options.minPeak)
             continue;
         if (w.last - w.first + 1 < options.minPeriods)
@@ -191,6 +202,17 @@ std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
         waves.push_back(w);
     }
     return waves;
+}
+
+}  // namespace
+
+std::vector<Wave> detectWavesInSmoothed(std::span<const double> s,
+                                        const WaveDetectionOptions& options) {
+    const double top = highestFinite(s);
+    if (s.empty() || top < options.minPeak || !(top > 0))
+        return {};
+    const double delta = std::max(options.minProminenceShare * top, options.minPeak / 2.0);
+    return wavesFrom(s, zigZag(s, delta), options);
 }
 
 }  // namespace siftwave::fit

@@ -19,9 +19,8 @@ struct RegionSeries {
 };
 
 struct BatchOptions {
-    FitOptions fit;
-    bool bestModel = false;  // fit all four models and keep the lowest AICc (compareModels)
-    int threads = 0;         // 0: std::thread::hardware_concurrency()
+    FitOptions fit;   // the model choice too (FitOptions::modelChoice)
+    int threads = 0;  // 0: std::thread::hardware_concurrency()
 
     Status validate() const;
 };
@@ -30,7 +29,7 @@ struct RegionFit {
     std::string region;
     std::optional<FitResult> fit;                // empty when the region failed
     std::optional<Error> error;                  // why it failed
-    std::vector<ModelComparisonRow> comparison;  // with bestModel
+    std::vector<ModelComparisonRow> comparison;  // with ModelChoice::LowestAicc
 };
 
 std::vector<RegionFit> fitRegions(std::span<const RegionSeries> regions,

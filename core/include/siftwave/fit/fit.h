@@ -83,6 +83,7 @@
 #include "siftwave/fit/waves.h"
 #include "siftwave/result.h"
 
+#include <memory>
 #include <optional>
 #include <span>
 #include <string>
@@ -112,10 +113,19 @@ enum class WaveChoice {
     Index,    // FitOptions::waveIndex (0-based, time order)
 };
 
+/// Which model a fit uses. Every front end (GUI, batch, CLI) passes the choice in FitOptions;
+/// the fit applies it, so none of them compares AICc itself.
+enum class ModelChoice {
+    Given,       // FitOptions::model (default)
+    LowestAicc,  // the four models on the same window and method (compareModels), keeping the
+                 // converged fit with the lowest AICc (bestByAicc)
+};
+
 /// The defaults are those of daily series; FitOptions::forCadence(Cadence::Weekly) gives the
 /// weekly ones (smoothingWindow 1, the weekly wave-detection thresholds of waves.h).
 struct FitOptions {
-    ModelKind model = ModelKind::Gumbel;
+    ModelKind model = ModelKind::Gumbel;  // with ModelChoice::Given
+    ModelChoice modelChoice = ModelChoice::Given;
     FitMethod method = FitMethod::LeastSquares;
     int smoothingWindow = 7;      // LSQ target: centred average of this many periods (1: raw)
     bool weighted = false;        // LSQ: weights 1 / max(y, 1) (Poisson-like variance)
@@ -190,7 +200,8 @@ struct FitSummary {
 };
 
 struct FitResult {
-    ModelKind model = ModelKind::Gumbel;
+    ModelKind model = ModelKind::Gumbel;  // with ModelChoice::Given
+    ModelChoice modelChoice = ModelChoice::Given;
     FitMethod method = FitMethod::LeastSquares;
     Date seriesFirstDay;
     int periodDays = 1;  // days per period of the series: 1 (daily) or 7 (weekly)
@@ -240,11 +251,39 @@ struct Series {
 /// The name from before weekly series, for callers that still use it.
 using DailySeries = Series;
 
-/// Fits one wave. Errors: usage (options, a period that is neither 1 nor 7 days, weekday factors
-/// on weekly counts), not_found (no wave / empty window), numerical (the solver could not
-/// start). A fit that stops before convergence is returned with its summary saying so.
+/// Fits one wave with the model options.modelChoice names. Errors: usage (options, a period that is
+/// neither 1 nor 7 days, weekday factors on weekly counts), not_found (no wave / empty window),
+/// numerical (the solver could not start). A fit that stops before convergence is returned with its
+/// summary saying so. With ModelChoice::LowestAicc: numerical when no model converged (naming the
+/// first model that failed and why, where one did).
 Result<FitResult> fitSeries(const Series& series, const FitOptions& options = {},
                             std::optional<double> population = std::nullopt);
+
+namespace detail {
+struct FitBuffers;  // core/src/fit/fit_workspace.h
+}
+
+/// The scratch memory of a fit: the smoothed counts, the target, the start, the solver's
+/// matrices (SolverWorkspace) and the covariance's sums. Made once per fit, or once per batch
+/// worker and passed to each of its fits, it keeps its storage from one fit to the next, so a
+/// batch allocates it once. A workspace serves one fit at a time (fits that run at once hold one
+/// each), which makes re-entrancy a property of the arguments.
+class FitWorkspace {
+public:
+    FitWorkspace();
+    ~FitWorkspace();
+    FitWorkspace(FitWorkspace&&) noexcept;
+    FitWorkspace& operator=(FitWorkspace&&) noexcept;
+
+    detail::FitBuffers& buffers() { return *m_buffers; }
+
+private:
+    std::unique_ptr<detail::FitBuffers> m_buffers;
+};
+
+/// fitSeries() with the scratch memory of `workspace` (the batch fit passes one per worker).
+Result<FitResult> fitSeries(const Series& series, const FitOptions& options,
+                            std::optional<double> population, FitWorkspace& workspace);
 
 /// The expected count per period and its pointwise interval on periods firstDay..lastDay
 /// (period indices into the series, may extend past the window, e.g. to draw the curve over the
@@ -268,9 +307,27 @@ struct ModelComparisonRow {
     std::string error;             // why, when it failed
 };
 
-/// The four models on the same window and method, in kAllModels order.
+/// The four models on the same window and method, in kAllModels order (options.modelChoice
+/// does not enter: each row fits its own model).
 std::vector<ModelComparisonRow> compareModels(const Series& series, const FitOptions& options,
                                               std::optional<double> population = std::nullopt);
+
+/// A fit and, where asked for, the comparison of the four models beside it.
+struct ComparedFit {
+    Result<FitResult> fit;                       // the model options.modelChoice names
+    std::vector<ModelComparisonRow> comparison;  // kAllModels order; empty unless compared
+};
+
+/// fitSeries() with the comparison table when `compare`: the four models are fitted once and
+/// the chosen fit is taken from them (with ModelChoice::Given the row of options.model, whose
+/// failure is then a numerical error with the row's message). Without `compare` the same as
+/// fitSeries(), with an empty comparison.
+ComparedFit fitWithComparison(const Series& series, const FitOptions& options,
+                              std::optional<double> population, bool compare);
+/// The same with the scratch memory of `workspace`.
+ComparedFit fitWithComparison(const Series& series, const FitOptions& options,
+                              std::optional<double> population, bool compare,
+                              FitWorkspace& workspace);
 
 /// The comparison row with the lowest AICc among converged fits; nullptr when none.
 const ModelComparisonRow* bestByAicc(const std::vector<ModelComparisonRow>& rows);

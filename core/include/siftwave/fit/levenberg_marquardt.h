@@ -22,6 +22,7 @@
 //
 // The solver is compiled once; problems implement LeastSquaresProblem. Eigen stays inside.
 
+#include <memory>
 #include <span>
 #include <string>
 #include <vector>
@@ -104,14 +105,38 @@ struct SolverResult {
     SolverSummary summary;
 };
 
+namespace detail {
+struct LevenbergMarquardtBuffers;  // levenberg_marquardt.cpp
+}
+
+/// The solver's working memory: the residuals and Jacobians, the factorisations and the step
+/// (Ceres passes its evaluators' scratch the same way). Made once and passed to every solve of
+/// a fit or of a batch worker, it keeps its storage from one solve to the next, so thousands of
+/// solves of similar size make no large allocation. A workspace serves one solve at a time:
+/// solves that run at once (on other threads, or a problem whose evaluate() solves another
+/// problem) each take their own, so re-entrancy follows from the arguments.
+class SolverWorkspace {
+public:
+    SolverWorkspace();
+    ~SolverWorkspace();
+    SolverWorkspace(SolverWorkspace&&) noexcept;
+    SolverWorkspace& operator=(SolverWorkspace&&) noexcept;
+
+    detail::LevenbergMarquardtBuffers& buffers() { return *m_buffers; }
+
+private:
+    std::unique_ptr<detail::LevenbergMarquardtBuffers> m_buffers;
+};
+
+/// One solve with a workspace of its own (for single problems; a batch passes one, below).
 SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<const double> start,
                                const SolverOptions& options = {});
 
-/// The same into `result`, whose vectors keep their storage (a batch fit that solves thousands
-/// of problems of similar size then makes no large allocation per solve). The solver keeps its
-/// working arrays per thread: it is not re-entrant on one thread (a problem's evaluate() must
-/// not call it), and `start` must not alias `result.parameters`.
+/// The same into `result`, whose vectors keep their storage, with the working memory of
+/// `workspace`: a batch fit that solves thousands of problems of similar size then makes no
+/// large allocation per solve. `start` must not alias `result.parameters`.
 void solveLeastSquares(const LeastSquaresProblem& problem, std::span<const double> start,
-                       const SolverOptions& options, SolverResult& result);
+                       const SolverOptions& options, SolverResult& result,
+                       SolverWorkspace& workspace);
 
 }  // namespace siftwave::fit

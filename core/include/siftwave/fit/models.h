@@ -71,6 +71,14 @@ inline constexpr std::array<ModelKind, 4> kAllModels{ModelKind::Gumbel, ModelKin
                                                      ModelKind::Richards, ModelKind::LogNormal};
 
 /// A wave model as a small value: parameters are passed as spans in the order of names().
+/// The scratch memory of WaveModel::initialGuess(): the points used, their running cumulative,
+/// and the points of the lines drawn through them. Kept by the caller (one per fit or batch
+/// worker), so that thousands of starts allocate once; it serves one guess at a time.
+struct GuessWorkspace {
+    std::vector<double> t, y, cumulative;
+    std::vector<double> xs, ys, g;
+};
+
 class WaveModel {
 public:
     virtual ~WaveModel() = default;
@@ -113,8 +121,13 @@ public:
 
     /// Initial guess by linearising the cumulative form (see the header comment) from
     /// incidence values y_i on days t_i (NaN skipped). nullopt when the data give no guess.
+    /// `workspace` holds the points and lines on the way (one per fit or batch worker).
     virtual std::optional<std::vector<double>> initialGuess(std::span<const double> t,
-                                                            std::span<const double> y) const = 0;
+                                                            std::span<const double> y,
+                                                            GuessWorkspace& workspace) const = 0;
+    /// The same with a workspace of its own (for a single guess).
+    std::optional<std::vector<double>> initialGuess(std::span<const double> t,
+                                                    std::span<const double> y) const;
 
     /// Incidence at one day (convenience).
     double incidenceAt(double t, std::span<const double> p) const;
