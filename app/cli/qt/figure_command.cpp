@@ -97,6 +97,94 @@ std::string exportOptionsFrom(const ParsedArgs& args, widgets::FigureExportOptio
     return {};
 }
 
+/// Each region's figure as the flags ask; nullopt (the error printed) when one cannot be built.
+std::optional<std::vector<report::FigureSpec>> buildFigures(const ParsedArgs& args,
+                                                            const BriefingSources& sources,
+                                                            const std::vector<std::string>& regions,
+                                                            bool json) {
+    const BriefingInputs& inputs = sources.inputs;
+    // A title or subtitle names one figure: it is taken for one region, or for each in its file.
+    const bool oneTitle = regions.size() == 1 || args.has("each");
+    std::vector<report::FigureSpec> figures;
+    for (const std::string& code : regions) {
+        report::FigureRequest request;
+        request.region = code;
+        request.measure = args.value("measure");
+        request.fit = sources.fit;
+        request.title = oneTitle ? args.value("title") : "";
+        request.subtitle = oneTitle ? args.value("subtitle") : "";
+        request.regions = inputs.regions ? &*inputs.regions : nullptr;
+        request.previous = sources.previous ? &*sources.previous : nullptr;
+        request.countRange = args.has("count-range");
+        auto spec = report::buildFigureSpec(inputs.drop, inputs.ledger, inputs.cleaned, request);
+        if (!spec) {
+            printError(spec.error(), json);
+            return std::nullopt;
+        }
+        if (!spec->fitError.empty())
+            std::fprintf(stderr, "siftwave-cli figure: %s: no fit drawn: %s\n", code.c_str(),
+                         spec->fitError.c_str());
+        figures.push_back(std::move(spec.value()));
+    }
+    return figures;
+}
+
+/// One file per figure (--each): FIG-CODE.ext, where codes that differ only in characters a file
+/// name cannot keep (=1+2 and +1=2 both give _1_2) get -2, -3, ... so that no figure overwrites
+/// another.
+std::vector<QString> eachFigurePaths(const QString& out,
+                                     const std::vector<report::FigureSpec>& figures) {
+    std::vector<QString> paths;
+    std::set<QString> used;
+    for (const report::FigureSpec& f : figures) {
+        QString path = pathForRegion(out, f.regionCode);
+        const QFileInfo base(path);
+        for (int n = 2; used.count(path.toLower()); ++n)
+            path = base.dir().filePath(base.completeBaseName() + QStringLiteral("-%1.").arg(n) +
+                                       base.suffix());
+        used.insert(path.toLower());
+        paths.push_back(path);
+    }
+    return paths;
+}
+
+/// Writes a page of figures to a file and notes what was written (for --json, or "wrote PATH").
+class FigureWriter {
+public:
+    FigureWriter(const widgets::FigureExportOptions& options, bool json)
+        : m_options(options), m_json(json) {}
+
+    bool write(const QString& path, const std::vector<report::FigureSpec>& page) {
+        if (Status s = widgets::exportFigures(path, page, m_options); !s) {
+            printError(s.error(), m_json);
+            return false;
+        }
+        const QSize px = m_options.size.pixelsAt(m_options.dpi);
+        nlohmann::json entry = {{"path", path.toStdString()},
+                                {"width_mm", m_options.size.widthMm},
+                                {"height_mm", m_options.size.heightMm}};
+        if (widgets::figureFormatFromPath(path) == widgets::FigureFormat::Png) {
+            entry["width_px"] = px.width();
+            entry["height_px"] = px.height();
+            entry["dpi"] = m_options.dpi;
+        }
+        nlohmann::json codes = nlohmann::json::array();
+        for (const auto& f : page)
+            codes.push_back(f.regionCode);
+        entry["regions"] = codes;
+        m_written.push_back(entry);
+        if (!m_json)
+            std::printf("wrote %s\n", path.toLocal8Bit().constData());
+        return true;
+    }
+    const nlohmann::json& written() const { return m_written; }
+
+private:
+    const widgets::FigureExportOptions& m_options;
+    bool m_json;
+    nlohmann::json m_written = nlohmann::json::array();
+};
+
 }  // namespace
 
 int runFigure(int argc, char** argv, int first) {
@@ -129,74 +217,23 @@ int runFigure(int argc, char** argv, int first) {
         loadBriefingSources(*args, "figure", false, false, exitCode);
     if (!sources)
         return exitCode;
-    const BriefingInputs* inputs = &sources->inputs;
-
-    std::vector<report::FigureSpec> figures;
-    for (const std::string& code : regions) {
-        report::FigureRequest request;
-        request.region = code;
-        request.measure = args->value("measure");
-        request.fit = sources->fit;
-        request.title = regions.size() == 1 || args->has("each") ? args->value("title") : "";
-        request.subtitle = regions.size() == 1 || args->has("each") ? args->value("subtitle") : "";
-        request.regions = inputs->regions ? &*inputs->regions : nullptr;
-        request.previous = sources->previous ? &*sources->previous : nullptr;
-        request.countRange = args->has("count-range");
-        auto spec = report::buildFigureSpec(inputs->drop, inputs->ledger, inputs->cleaned, request);
-        if (!spec) {
-            printError(spec.error(), json);
-            return kExitBadInput;
-        }
-        if (!spec->fitError.empty())
-            std::fprintf(stderr, "siftwave-cli figure: %s: no fit drawn: %s\n", code.c_str(),
-                         spec->fitError.c_str());
-        figures.push_back(std::move(spec.value()));
-    }
+    const std::optional<std::vector<report::FigureSpec>> figures =
+        buildFigures(*args, *sources, regions, json);
+    if (!figures)
+        return kExitBadInput;
 
     const auto app = startOffscreenApplication();
-    nlohmann::json written = nlohmann::json::array();
-    auto writeOne = [&](const QString& path, const std::vector<report::FigureSpec>& page) {
-        if (Status s = widgets::exportFigures(path, page, options); !s) {
-            printError(s.error(), json);
-            return false;
-        }
-        const QSize px = options.size.pixelsAt(options.dpi);
-        nlohmann::json entry = {{"path", path.toStdString()},
-                                {"width_mm", options.size.widthMm},
-                                {"height_mm", options.size.heightMm}};
-        if (widgets::figureFormatFromPath(path) == widgets::FigureFormat::Png) {
-            entry["width_px"] = px.width();
-            entry["height_px"] = px.height();
-            entry["dpi"] = options.dpi;
-        }
-        nlohmann::json codes = nlohmann::json::array();
-        for (const auto& f : page)
-            codes.push_back(f.regionCode);
-        entry["regions"] = codes;
-        written.push_back(entry);
-        if (!json)
-            std::printf("wrote %s\n", path.toLocal8Bit().constData());
-        return true;
-    };
-    if (args->has("each") && figures.size() > 1) {
-        // Codes that differ only in characters a file name cannot keep (=1+2 and +1=2 both
-        // give _1_2) get -2, -3, ... so that no figure overwrites another.
-        std::set<QString> used;
-        for (const report::FigureSpec& f : figures) {
-            QString path = pathForRegion(out, f.regionCode);
-            const QFileInfo base(path);
-            for (int n = 2; used.count(path.toLower()); ++n)
-                path = base.dir().filePath(base.completeBaseName() + QStringLiteral("-%1.").arg(n) +
-                                           base.suffix());
-            used.insert(path.toLower());
-            if (!writeOne(path, {f}))
+    FigureWriter writer(options, json);
+    if (args->has("each") && figures->size() > 1) {
+        const std::vector<QString> paths = eachFigurePaths(out, *figures);
+        for (std::size_t i = 0; i < paths.size(); ++i)
+            if (!writer.write(paths[i], {(*figures)[i]}))
                 return kExitBadInput;
-        }
-    } else if (!writeOne(out, figures)) {
+    } else if (!writer.write(out, *figures)) {
         return kExitBadInput;
     }
     if (json)
-        printJson({{"figures", written}});
+        printJson({{"figures", writer.written()}});
     return kExitOk;
 }
 

@@ -236,39 +236,35 @@ Error DropReader::dateError(const std::string& text, std::uint64_t line,
     return fail(ErrorCode::InvalidValue, why, line, column);
 }
 
-bool DropReader::predictCalendar() {
-    if (m_roles.layout != Layout::Long || m_sample.empty())
-        return false;
+std::optional<DateFormat> DropReader::predictedDateFormat() const {
+    if (m_dateFormat != DateFormat::Unknown)
+        return m_dateFormat;
+    // The first sample record with every field: a short record has no date to look at.
+    const auto whole = std::find_if(m_sample.begin(), m_sample.end(), [&](const SampleRecord& r) {
+        return r.fields.size() == m_names.size();
+    });
+    if (whole == m_sample.end())
+        return std::nullopt;
+    const DateShape shape =
+        dateShapeOf(whole->fields[static_cast<std::size_t>(m_roles.dateColumn)]);
+    if (shape == DateShape::Iso)
+        return DateFormat::Iso;
+    if (shape == DateShape::Compact)
+        return DateFormat::Compact;
+    if (shape == DateShape::IsoWeek)
+        return DateFormat::IsoWeek;
+    return std::nullopt;  // a slash order is settled only after every date was seen
+}
+
+DropReader::PredictedDates DropReader::sampleAndTailDates(DateFormat format) {
     const std::size_t dateCol = static_cast<std::size_t>(m_roles.dateColumn);
     const std::size_t regionCol = static_cast<std::size_t>(m_roles.regionColumn);
-    if (dateCol >= m_names.size() || regionCol >= m_names.size())
-        return false;
-    DateFormat format = m_dateFormat;
-    if (format == DateFormat::Unknown) {
-        // The first sample record with every field: a short record has no date to look at.
-        const auto whole =
-            std::find_if(m_sample.begin(), m_sample.end(),
-                         [&](const SampleRecord& r) { return r.fields.size() == m_names.size(); });
-        if (whole == m_sample.end())
-            return false;
-        const DateShape shape = dateShapeOf(whole->fields[dateCol]);
-        if (shape == DateShape::Iso)
-            format = DateFormat::Iso;
-        else if (shape == DateShape::Compact)
-            format = DateFormat::Compact;
-        else if (shape == DateShape::IsoWeek)
-            format = DateFormat::IsoWeek;
-        else
-            return false;  // a slash order is settled only after every date was seen
-    }
-    std::int32_t lo = std::numeric_limits<std::int32_t>::max();
-    std::int32_t hi = std::numeric_limits<std::int32_t>::min();
-    unsigned weekdays = 0;  // bit w: a date on ISO weekday w was seen
+    PredictedDates dates;
     auto see = [&](std::string_view text) {
         if (std::optional<Date> d = parseDateIn(text, format)) {
-            lo = std::min(lo, d->serial);
-            hi = std::max(hi, d->serial);
-            weekdays |= 1u << d->isoWeekday();
+            dates.lo = std::min(dates.lo, d->serial);
+            dates.hi = std::max(dates.hi, d->serial);
+            dates.weekdays |= 1u << d->isoWeekday();
         }
     };
     std::set<std::string_view> sampleRegions;
@@ -280,6 +276,7 @@ bool DropReader::predictCalendar() {
                                : std::string_view(r.fields[dateCol]));
         sampleRegions.insert(r.fields[regionCol]);
     }
+    dates.sampleRegions = sampleRegions.size();
     // The last records: a guess only (the tail may start inside a quoted field).
     std::size_t tail = m_bytes.size() > kTailBytes ? m_bytes.size() - kTailBytes : 0;
     if (tail <= m_dataStart) {
@@ -294,6 +291,20 @@ bool DropReader::predictCalendar() {
         if (record.fields.size() == m_names.size())
             see(dateKeyOf(record.fields, dateCol));
     }
+    return dates;
+}
+
+bool DropReader::predictCalendar() {
+    if (m_roles.layout != Layout::Long || m_sample.empty())
+        return false;
+    if (static_cast<std::size_t>(m_roles.dateColumn) >= m_names.size() ||
+        static_cast<std::size_t>(m_roles.regionColumn) >= m_names.size())
+        return false;
+    const std::optional<DateFormat> format = predictedDateFormat();
+    if (!format)
+        return false;
+    const PredictedDates dates = sampleAndTailDates(*format);
+    const std::int32_t lo = dates.lo, hi = dates.hi;
     if (lo > hi)
         return false;
     if (hi - lo > 100 * 366)
@@ -301,22 +312,25 @@ bool DropReader::predictCalendar() {
     // Dates on one weekday: predicted weekly, one table column per week (a date off that grid
     // sends the read to two passes).
     const std::int32_t step =
-        m_options.cadence != Cadence::Daily && hi > lo && std::popcount(weekdays) == 1 ? 7 : 1;
+        m_options.cadence != Cadence::Daily && hi > lo && std::popcount(dates.weekdays) == 1 ? 7
+                                                                                             : 1;
     if ((hi - lo) % step != 0)
         return false;
     const std::size_t days = static_cast<std::size_t>((hi - lo) / step) + 1;
+    // The regions: the rows the file's size suggests (at the sample's bytes per row) over the
+    // days, with room to spare.
     const std::size_t sampleRows = std::max<std::size_t>(m_sample.size(), 1);
     const double bytesPerRow =
         std::max(1.0, static_cast<double>(m_sampleBytes) / static_cast<double>(sampleRows));
     const double rows = static_cast<double>(m_bytes.size() - m_dataStart) / bytesPerRow;
     const double regions =
-        std::max(static_cast<double>(sampleRegions.size()), rows / static_cast<double>(days));
+        std::max(static_cast<double>(dates.sampleRegions), rows / static_cast<double>(days));
     const std::size_t capacity = static_cast<std::size_t>(regions * 1.5) + 64;
     const std::size_t measures = m_roles.measureColumn >= 0 ? 4 : m_roles.valueColumns.size();
     if (static_cast<double>(capacity) * static_cast<double>(days) * static_cast<double>(measures) >
         kMaxCells)
         return false;
-    m_dateFormat = format;
+    m_dateFormat = *format;
     m_firstSerial = lo;
     m_days = days;
     m_step = step;
@@ -340,6 +354,8 @@ Result<bool> DropReader::onePass() {
     std::int32_t lo = last, hi = m_firstSerial;
     CsvScanner scanner(m_bytes, m_delimiter, m_dataStart, m_dataLine);
     CsvRecord record;
+    // The loop keeps only the lookups of known keys; a key seen for the first time goes to its
+    // own step (addPredictedDate, addPredictedRegion, addMeasureNamed).
     while (scanner.next(record)) {
         if (Status s = advance(record.offset); !s)
             return s.error();
@@ -354,44 +370,25 @@ Result<bool> DropReader::onePass() {
         const std::string_view dateText = dateKeyOf(f, dateCol);
         std::uint32_t di = m_dates.find(dateText);
         if (di == KeyDictionary::kNone) {
-            const std::optional<Date> d = parseDateIn(dateText, m_dateFormat);
-            if (!d)
-                return dateError(std::string(dateText), line, dateCol + 1);
-            if (d->serial < m_firstSerial || d->serial > last)
-                return false;  // outside the predicted calendar: read in two passes
-            bool added = false;
-            di = m_dates.intern(dateText, added);
-            if ((d->serial - m_firstSerial) % m_step != 0)
-                return false;  // off the predicted weekly grid: read in two passes
-            m_dayOfDate.push_back((d->serial - m_firstSerial) / m_step);
-            m_dateLine.push_back(line);
-            m_dateColumn.push_back(dateCol + 1);
-            lo = std::min(lo, d->serial);
-            hi = std::max(hi, d->serial);
+            Result<bool> added = addPredictedDate(dateText, line, last, di);
+            if (!added || !*added)
+                return added;
+            const std::int32_t serial = m_firstSerial + m_dayOfDate[di] * m_step;
+            lo = std::min(lo, serial);
+            hi = std::max(hi, serial);
         }
         const std::int32_t day = m_dayOfDate[di];
 
         const std::string_view code = f[regionCol].text;
         std::uint32_t region = m_regions.find(code);
-        if (region == KeyDictionary::kNone) {
-            if (m_regions.size() == m_regionCapacity)
-                return false;  // more regions than reserved for: read in two passes
-            bool added = false;
-            region = m_regions.intern(code, added);
-            noteNewRegion(code, line);
-            if (!m_tables.growTo(m_regions.size()))
-                return false;
-        }
+        if (region == KeyDictionary::kNone && !addPredictedRegion(code, line, region))
+            return false;
 
         if (measureCol >= 0) {
             const std::string_view name = f[static_cast<std::size_t>(measureCol)].text;
             std::uint32_t measure = m_measureNames.find(name);
-            if (measure == KeyDictionary::kNone) {
-                bool added = false;
-                measure = m_measureNames.intern(name, added);
-                if (!m_tables.addMeasure(reserve))
-                    return false;
-            }
+            if (measure == KeyDictionary::kNone && !addMeasureNamed(name, reserve, measure))
+                return false;
             const std::size_t col = static_cast<std::size_t>(m_roles.valueColumns[0]);
             place(measure, region, day, parseCell(f[col].text, line, col + 1));
         } else {
@@ -412,6 +409,41 @@ Result<bool> DropReader::onePass() {
     if (m_file)
         m_file->release(m_bytes.size());
     return true;
+}
+
+Result<bool> DropReader::addPredictedDate(std::string_view text, std::uint32_t line,
+                                          std::int32_t last, std::uint32_t& index) {
+    const std::size_t dateCol = static_cast<std::size_t>(m_roles.dateColumn);
+    const std::optional<Date> d = parseDateIn(text, m_dateFormat);
+    if (!d)
+        return dateError(std::string(text), line, dateCol + 1);
+    if (d->serial < m_firstSerial || d->serial > last)
+        return false;  // outside the predicted calendar: read in two passes
+    bool added = false;
+    index = m_dates.intern(text, added);
+    if ((d->serial - m_firstSerial) % m_step != 0)
+        return false;  // off the predicted weekly grid: read in two passes
+    m_dayOfDate.push_back((d->serial - m_firstSerial) / m_step);
+    m_dateLine.push_back(line);
+    m_dateColumn.push_back(dateCol + 1);
+    return true;
+}
+
+bool DropReader::addPredictedRegion(std::string_view code, std::uint32_t line,
+                                    std::uint32_t& region) {
+    if (m_regions.size() == m_regionCapacity)
+        return false;  // more regions than reserved for: read in two passes
+    bool added = false;
+    region = m_regions.intern(code, added);
+    noteNewRegion(code, line);
+    return m_tables.growTo(m_regions.size());
+}
+
+bool DropReader::addMeasureNamed(std::string_view name, std::size_t reserve,
+                                 std::uint32_t& measure) {
+    bool added = false;
+    measure = m_measureNames.intern(name, added);
+    return m_tables.addMeasure(reserve);
 }
 
 void DropReader::resetForTwoPasses() {
@@ -483,76 +515,92 @@ Status DropReader::keyPass() {
 }
 
 Status DropReader::settleDates() {
-    // The date texts: from the rows, or (dates-across) from the header.
-    if (m_roles.layout == Layout::DatesAcross) {
-        for (int c : m_roles.dateColumns) {
-            bool added = false;
-            m_dates.intern(m_names[static_cast<std::size_t>(c)], added);
-            if (added) {
-                m_dateLine.push_back(1);
-                m_dateColumn.push_back(static_cast<std::uint64_t>(c) + 1);
-            }
-        }
-    }
-    const std::size_t n = m_dates.size();
-    if (n == 0)
+    if (m_roles.layout == Layout::DatesAcross)
+        internHeaderDates();
+    if (m_dates.size() == 0)
         return fail(ErrorCode::Layout, "no row has a date");
-
     if (m_dateFormat == DateFormat::Unknown) {
-        const std::string& first = m_dates.key(0);
-        const DateShape shape = dateShapeOf(first);
-        if (shape == DateShape::None) {
-            return fail(
-                ErrorCode::InvalidValue,
-                quoted(first) +
-                    " in the date column is not a date (YYYY-MM-DD, YYYYMMDD, D/M/Y, M/D/Y or "
-                    "an ISO week YYYY-Www)",
-                m_dateLine[0], m_dateColumn[0]);
-        }
-        if (shape == DateShape::Iso)
-            m_dateFormat = DateFormat::Iso;
-        if (shape == DateShape::Compact)
-            m_dateFormat = DateFormat::Compact;
-        if (shape == DateShape::IsoWeek)
-            m_dateFormat = DateFormat::IsoWeek;
-        if (shape == DateShape::Slash) {
-            // Day or month first: settled only by a number above 12, never guessed.
-            std::size_t firstAbove12 = n, secondAbove12 = n;
-            for (std::size_t i = 0; i < n; ++i) {
-                int a, b, y;
-                if (!splitDate(m_dates.key(static_cast<std::uint32_t>(i)), DateShape::Slash, a, b,
-                               y))
-                    continue;
-                if (a > 12 && firstAbove12 == n)
-                    firstAbove12 = i;
-                if (b > 12 && secondAbove12 == n)
-                    secondAbove12 = i;
-            }
-            if (firstAbove12 < n && secondAbove12 < n) {
-                return fail(ErrorCode::InvalidValue,
-                            "dates mix day-first and month-first orders: " +
-                                quoted(m_dates.key(static_cast<std::uint32_t>(firstAbove12))) +
-                                " (line " + std::to_string(m_dateLine[firstAbove12]) +
-                                ") is day first, " +
-                                quoted(m_dates.key(static_cast<std::uint32_t>(secondAbove12))) +
-                                " is month first; fix the file",
-                            m_dateLine[secondAbove12], m_dateColumn[secondAbove12]);
-            }
-            if (firstAbove12 < n) {
-                m_dateFormat = DateFormat::DayFirst;
-            } else if (secondAbove12 < n) {
-                m_dateFormat = DateFormat::MonthFirst;
-            } else {
-                return fail(ErrorCode::Ambiguous,
-                            "dates such as " + first +
-                                " could be day/month or month/day (no day of the month in the file "
-                                "is above 12); "
-                                "rerun with --date-format DD/MM/YYYY or MM/DD/YYYY",
-                            m_dateLine[0], m_dateColumn[0]);
-            }
+        if (Status s = detectDateFormat(); !s)
+            return s;
+    }
+    if (Status s = laySerialsOut(); !s)
+        return s;
+    if (m_roles.layout == Layout::DatesAcross)
+        mapDateColumns();
+    return Ok{};
+}
+
+void DropReader::internHeaderDates() {
+    for (int c : m_roles.dateColumns) {
+        bool added = false;
+        m_dates.intern(m_names[static_cast<std::size_t>(c)], added);
+        if (added) {
+            m_dateLine.push_back(1);
+            m_dateColumn.push_back(static_cast<std::uint64_t>(c) + 1);
         }
     }
+}
 
+Status DropReader::detectDateFormat() {
+    const std::string& first = m_dates.key(0);
+    const DateShape shape = dateShapeOf(first);
+    if (shape == DateShape::None) {
+        return fail(ErrorCode::InvalidValue,
+                    quoted(first) +
+                        " in the date column is not a date (YYYY-MM-DD, YYYYMMDD, D/M/Y, M/D/Y or "
+                        "an ISO week YYYY-Www)",
+                    m_dateLine[0], m_dateColumn[0]);
+    }
+    if (shape == DateShape::Iso)
+        m_dateFormat = DateFormat::Iso;
+    if (shape == DateShape::Compact)
+        m_dateFormat = DateFormat::Compact;
+    if (shape == DateShape::IsoWeek)
+        m_dateFormat = DateFormat::IsoWeek;
+    if (shape == DateShape::Slash)
+        return settleSlashOrder();
+    return Ok{};
+}
+
+Status DropReader::settleSlashOrder() {
+    // Day or month first: settled only by a number above 12, never guessed.
+    const std::size_t n = m_dates.size();
+    std::size_t firstAbove12 = n, secondAbove12 = n;
+    for (std::size_t i = 0; i < n; ++i) {
+        int a, b, y;
+        if (!splitDate(m_dates.key(static_cast<std::uint32_t>(i)), DateShape::Slash, a, b, y))
+            continue;
+        if (a > 12 && firstAbove12 == n)
+            firstAbove12 = i;
+        if (b > 12 && secondAbove12 == n)
+            secondAbove12 = i;
+    }
+    if (firstAbove12 < n && secondAbove12 < n) {
+        return fail(ErrorCode::InvalidValue,
+                    "dates mix day-first and month-first orders: " +
+                        quoted(m_dates.key(static_cast<std::uint32_t>(firstAbove12))) + " (line " +
+                        std::to_string(m_dateLine[firstAbove12]) + ") is day first, " +
+                        quoted(m_dates.key(static_cast<std::uint32_t>(secondAbove12))) +
+                        " is month first; fix the file",
+                    m_dateLine[secondAbove12], m_dateColumn[secondAbove12]);
+    }
+    if (firstAbove12 < n) {
+        m_dateFormat = DateFormat::DayFirst;
+    } else if (secondAbove12 < n) {
+        m_dateFormat = DateFormat::MonthFirst;
+    } else {
+        return fail(ErrorCode::Ambiguous,
+                    "dates such as " + m_dates.key(0) +
+                        " could be day/month or month/day (no day of the month in the file "
+                        "is above 12); "
+                        "rerun with --date-format DD/MM/YYYY or MM/DD/YYYY",
+                    m_dateLine[0], m_dateColumn[0]);
+    }
+    return Ok{};
+}
+
+Status DropReader::laySerialsOut() {
+    const std::size_t n = m_dates.size();
     m_dayOfDate.resize(n);
     std::int32_t lo = std::numeric_limits<std::int32_t>::max();
     std::int32_t hi = std::numeric_limits<std::int32_t>::min();
@@ -591,14 +639,15 @@ Status DropReader::settleDates() {
         m_dayOfDate[i] = (serials[i] - lo) / m_step;
     m_firstSerial = lo;
     m_days = static_cast<std::size_t>(columns);
-    if (m_roles.layout == Layout::DatesAcross) {
-        m_dayOfColumn.assign(m_names.size(), -1);
-        for (int c : m_roles.dateColumns) {
-            m_dayOfColumn[static_cast<std::size_t>(c)] =
-                m_dayOfDate[m_dates.find(m_names[static_cast<std::size_t>(c)])];
-        }
-    }
     return Ok{};
+}
+
+void DropReader::mapDateColumns() {
+    m_dayOfColumn.assign(m_names.size(), -1);
+    for (int c : m_roles.dateColumns) {
+        m_dayOfColumn[static_cast<std::size_t>(c)] =
+            m_dayOfDate[m_dates.find(m_names[static_cast<std::size_t>(c)])];
+    }
 }
 
 Cell DropReader::parseCellSlowly(std::string_view text, std::uint32_t line, std::uint64_t column) {
@@ -763,8 +812,6 @@ int namedWeekday(WeekStart start, WeekDate named) {
 
 Result<DropReader::CalendarPlan> DropReader::planCalendar() {
     CalendarPlan plan;
-    // The day of a table column (columns are weeks when every date fell on one weekday).
-    auto dateOfColumn = [&](std::int32_t column) { return Date{m_firstSerial + column * m_step}; };
     plan.axis = TimeAxis::daily(Date{m_firstSerial}, static_cast<std::int32_t>(m_days));
     assert(m_step == 1 || m_options.cadence != Cadence::Daily);
     // Week labels and a year with a week number name weeks: weekly by definition.
@@ -780,8 +827,21 @@ Result<DropReader::CalendarPlan> DropReader::planCalendar() {
                         m_dateColumn.empty() ? 0 : m_dateColumn[0]);
         return plan;
     }
-    // The distinct dates by weekday.
-    const std::size_t n = m_dayOfDate.size();
+    const CommonWeekday common = commonWeekday();
+    if (!labels && m_options.cadence != Cadence::Weekly) {
+        Result<bool> weekly = datesOnWeeklyGrid(common);
+        if (!weekly)
+            return weekly.error();
+        if (!*weekly)
+            return plan;  // daily
+    }
+    const WeekConvention convention = settleWeekConvention(common.weekday, labels, yearWeek);
+    if (Status s = placeWeeks(plan, convention, common.weekday); !s)
+        return s.error();
+    return plan;
+}
+
+DropReader::CommonWeekday DropReader::commonWeekday() const {
     std::array<std::size_t, 8> byWeekday{};
     for (std::int32_t day : m_dayOfDate)
         ++byWeekday[static_cast<std::size_t>(dateOfColumn(day).isoWeekday())];
@@ -789,45 +849,48 @@ Result<DropReader::CalendarPlan> DropReader::planCalendar() {
     for (int w = 2; w <= 7; ++w)
         if (byWeekday[static_cast<std::size_t>(w)] > byWeekday[static_cast<std::size_t>(weekday)])
             weekday = w;
-    const std::size_t onWeekday = byWeekday[static_cast<std::size_t>(weekday)];
-    const bool forced = m_options.cadence == Cadence::Weekly;
-    // Dates that are not on the common weekday, as "line L (2026-02-03, a Tuesday)".
-    auto offGrid = [&](std::size_t limit) {
-        std::string list;
-        std::size_t listed = 0, total = 0;
-        for (std::size_t i = 0; i < n; ++i) {
-            const Date d = dateOfColumn(m_dayOfDate[i]);
-            if (d.isoWeekday() == weekday)
-                continue;
-            ++total;
-            if (listed++ < limit)
-                list += (list.empty() ? "" : "; ") + std::string("line ") +
-                        std::to_string(m_dateLine[i]) + " (" + d.iso() + ", a " +
-                        weekdayName(d.isoWeekday()) + ")";
-        }
-        return std::to_string(total) + (total == 1 ? " date is not: " : " dates are not: ") + list +
-               (total > limit ? "; ..." : "");
-    };
-    if (!labels && !forced) {
-        if (n >= 2 && onWeekday == n) {
-            // weekly by the dates themselves
-        } else if (n >= 4 && onWeekday * 10 >= n * 9) {
-            std::size_t i = 0;
-            while (i < n && dateOfColumn(m_dayOfDate[i]).isoWeekday() == weekday)
-                ++i;
-            return fail(ErrorCode::InvalidValue,
-                        "the dates fit neither a daily nor a weekly grid: " +
-                            std::to_string(onWeekday) + " of " + std::to_string(n) + " are " +
-                            weekdayName(weekday) + "s, as weekly data would be, but " + offGrid(5) +
-                            ". Correct those dates, or pass --cadence daily to read every date "
-                            "as a day",
-                        i < n ? m_dateLine[i] : 0, i < n ? m_dateColumn[i] : 0);
-        } else {
-            return plan;  // daily
-        }
-    }
+    return {weekday, byWeekday[static_cast<std::size_t>(weekday)]};
+}
 
-    // Weekly: which convention, and which day of its week a date names.
+std::string DropReader::offGridDates(int weekday, std::size_t limit) const {
+    std::string list;
+    std::size_t listed = 0, total = 0;
+    for (std::size_t i = 0; i < m_dayOfDate.size(); ++i) {
+        const Date d = dateOfColumn(m_dayOfDate[i]);
+        if (d.isoWeekday() == weekday)
+            continue;
+        ++total;
+        if (listed++ < limit)
+            list += (list.empty() ? "" : "; ") + std::string("line ") +
+                    std::to_string(m_dateLine[i]) + " (" + d.iso() + ", a " +
+                    weekdayName(d.isoWeekday()) + ")";
+    }
+    return std::to_string(total) + (total == 1 ? " date is not: " : " dates are not: ") + list +
+           (total > limit ? "; ..." : "");
+}
+
+Result<bool> DropReader::datesOnWeeklyGrid(const CommonWeekday& common) const {
+    const std::size_t n = m_dayOfDate.size();
+    if (n >= 2 && common.count == n)
+        return true;  // weekly by the dates themselves
+    if (n >= 4 && common.count * 10 >= n * 9) {
+        std::size_t i = 0;
+        while (i < n && dateOfColumn(m_dayOfDate[i]).isoWeekday() == common.weekday)
+            ++i;
+        return fail(
+            ErrorCode::InvalidValue,
+            "the dates fit neither a daily nor a weekly grid: " + std::to_string(common.count) +
+                " of " + std::to_string(n) + " are " + weekdayName(common.weekday) +
+                "s, as weekly data would be, but " + offGridDates(common.weekday, 5) +
+                ". Correct those dates, or pass --cadence daily to read every date "
+                "as a day",
+            i < n ? m_dateLine[i] : 0, i < n ? m_dateColumn[i] : 0);
+    }
+    return false;
+}
+
+DropReader::WeekConvention DropReader::settleWeekConvention(int weekday, bool labels,
+                                                            bool yearWeek) {
     WeekStart start = WeekStart::Monday;
     WeekDate named = WeekDate::Start;
     if (!labels) {
@@ -866,16 +929,22 @@ Result<DropReader::CalendarPlan> DropReader::planCalendar() {
                       "--week-date set the convention)",
                   0, 0);
     }
+    return {start, named};
+}
 
+Status DropReader::placeWeeks(CalendarPlan& plan, const WeekConvention& convention,
+                              int weekday) const {
     // The weeks from the first date's to the last date's.
+    const std::size_t n = m_dayOfDate.size();
     std::int32_t lo = std::numeric_limits<std::int32_t>::max(), hi = -1;
     for (std::int32_t day : m_dayOfDate) {
         lo = std::min(lo, day);
         hi = std::max(hi, day);
     }
-    const Date firstWeek = weekStartOf(dateOfColumn(lo), start);
-    const Date lastWeek = weekStartOf(dateOfColumn(hi), start);
-    plan.axis = TimeAxis::weekly(firstWeek, (lastWeek - firstWeek) / 7 + 1, start, named);
+    const Date firstWeek = weekStartOf(dateOfColumn(lo), convention.start);
+    const Date lastWeek = weekStartOf(dateOfColumn(hi), convention.start);
+    plan.axis = TimeAxis::weekly(firstWeek, (lastWeek - firstWeek) / 7 + 1, convention.start,
+                                 convention.named);
     plan.periodOfDay.assign(m_days, -1);
     std::vector<std::size_t> dateOfPeriod(static_cast<std::size_t>(plan.axis.periods()), n);
     for (std::size_t i = 0; i < n; ++i) {
@@ -889,8 +958,8 @@ Result<DropReader::CalendarPlan> DropReader::planCalendar() {
                         "two dates fall in one week (" + plan.axis.periodDescription(p) +
                             "): " + dateOfColumn(m_dayOfDate[other]).iso() + " (line " +
                             std::to_string(m_dateLine[other]) + ") and " + dateOfColumn(day).iso() +
-                            "; weekly data has one date per week (" + offGrid(5) + " " +
-                            weekdayName(weekday) +
+                            "; weekly data has one date per week (" + offGridDates(weekday, 5) +
+                            " " + weekdayName(weekday) +
                             "s). Pass --cadence daily to read every date "
                             "as a day",
                         m_dateLine[i], m_dateColumn[i]);
@@ -900,7 +969,7 @@ Result<DropReader::CalendarPlan> DropReader::planCalendar() {
         plan.usedDays.push_back(day);
     }
     std::sort(plan.usedDays.begin(), plan.usedDays.end());
-    return plan;
+    return Ok{};
 }
 
 Status DropReader::finish() {
@@ -910,6 +979,14 @@ Status DropReader::finish() {
     if (!plan)
         return plan.error();
     m_drop.axis = plan->axis;
+    recordDateFormatAndNames();
+    arrangeTablesByPeriod(*plan);
+    m_drop.indexRegions();
+    noteClosingWarnings();
+    return Ok{};
+}
+
+void DropReader::recordDateFormatAndNames() {
     m_drop.source.dateFormat = dateFormatName(m_dateFormat);
     if (m_dateFormat == DateFormat::YearWeek)
         m_drop.source.dateFormat =
@@ -931,14 +1008,17 @@ Status DropReader::finish() {
         m_drop.measures.push_back(m_options.measureName.empty() ? std::string("cases")
                                                                 : m_options.measureName);
     }
+}
+
+void DropReader::arrangeTablesByPeriod(const CalendarPlan& plan) {
     std::vector<std::vector<Cell>> tables = m_tables.takeTables();
     m_drop.tables.reserve(tables.size());
     const auto periods = static_cast<std::size_t>(m_drop.axis.periods());
     // Filled week by week already (one column per week, in order): the tables are the weeks.
     bool columnsAreWeeks = m_drop.axis.weekly() && periods == m_days;
-    for (std::int32_t column : plan->usedDays)
+    for (std::int32_t column : plan.usedDays)
         columnsAreWeeks =
-            columnsAreWeeks && plan->periodOfDay[static_cast<std::size_t>(column)] == column;
+            columnsAreWeeks && plan.periodOfDay[static_cast<std::size_t>(column)] == column;
     for (std::vector<Cell>& cells : tables) {
         if (!m_drop.axis.weekly() || columnsAreWeeks) {
             m_drop.tables.emplace_back(m_days, std::move(cells));
@@ -948,18 +1028,19 @@ Status DropReader::finish() {
         const std::size_t regions = m_days == 0 ? 0 : cells.size() / m_days;
         std::vector<Cell> weeks(regions * periods);
         for (std::size_t r = 0; r < regions; ++r)
-            for (std::int32_t day : plan->usedDays)
+            for (std::int32_t day : plan.usedDays)
                 weeks[r * periods +
-                      static_cast<std::size_t>(plan->periodOfDay[static_cast<std::size_t>(day)])] =
+                      static_cast<std::size_t>(plan.periodOfDay[static_cast<std::size_t>(day)])] =
                     cells[r * m_days + static_cast<std::size_t>(day)];
         cells = {};
         m_drop.tables.emplace_back(periods, std::move(weeks));
     }
     if (m_drop.axis.weekly())
         for (DuplicateRow& d : m_drop.duplicates)
-            d.day = plan->periodOfDay[static_cast<std::size_t>(d.day)];
-    m_drop.indexRegions();
+            d.day = plan.periodOfDay[static_cast<std::size_t>(d.day)];
+}
 
+void DropReader::noteClosingWarnings() {
     if (m_emptyLines > 0) {
         m_log.add("empty line",
                   std::to_string(m_emptyLines) +
@@ -973,8 +1054,9 @@ Status DropReader::finish() {
                       " cells repeat a region, date and measure already read; the first "
                       "occurrence is kept, the repeats are listed as duplicates (first repeat: "
                       "region " +
-                      quoted(m_drop.regionCodes[d.region]) + ", " + m_drop.periodStart(d.day).iso() +
-                      ", first seen on line " + std::to_string(d.firstLine) + ")",
+                      quoted(m_drop.regionCodes[d.region]) + ", " +
+                      m_drop.periodStart(d.day).iso() + ", first seen on line " +
+                      std::to_string(d.firstLine) + ")",
                   d.cell.line, 0);
     }
     const char sep = m_drop.source.dialect.thousandsSeparator;
@@ -988,7 +1070,6 @@ Status DropReader::finish() {
                       "whole numbers"},
                      {"spaces", "cells have spaces around the number; they were read as numbers"},
                  });
-    return Ok{};
 }
 
 }  // namespace siftwave::detail

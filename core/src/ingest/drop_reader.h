@@ -29,6 +29,8 @@
 #include "siftwave/drop.h"
 #include "siftwave/ingest/ingest.h"
 
+#include <limits>
+#include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -83,13 +85,50 @@ private:
     Status settleYearWeekConvention();
     /// The date format before any date is read: named, YearWeek, or Unknown (to detect).
     DateFormat initialDateFormat() const;
-    /// True when the one-pass read may be tried; sets the predicted calendar.
+    /// True when the one-pass read may be tried; sets the predicted calendar. Its steps: the
+    /// date format, the dates of the sample and the tail, the weekly step, the tables' size.
     bool predictCalendar();
+    /// The date format the one pass reads by: the one already settled, or the shape of the
+    /// first whole sample record's date when it names one format (ISO, compact, ISO week).
+    std::optional<DateFormat> predictedDateFormat() const;
+    /// The dates of the sample and of the file's last records, read in `format`.
+    struct PredictedDates {
+        std::int32_t lo = std::numeric_limits<std::int32_t>::max();  // earliest serial
+        std::int32_t hi = std::numeric_limits<std::int32_t>::min();  // latest serial
+        unsigned weekdays = 0;          // bit w: a date on ISO weekday w was seen
+        std::size_t sampleRegions = 0;  // distinct region codes in the sample
+    };
+    PredictedDates sampleAndTailDates(DateFormat format);
     /// Ok(true) when done, Ok(false) when the prediction failed (nothing kept).
     Result<bool> onePass();
+    /// One pass, a date text seen for the first time: parsed, interned as `index` with its day.
+    /// Ok(false) when it lies outside the predicted calendar (ending at serial `last`) or off its
+    /// weekly grid; an error when it is not a date.
+    Result<bool> addPredictedDate(std::string_view text, std::uint32_t line, std::int32_t last,
+                                  std::uint32_t& index);
+    /// One pass, a region code seen for the first time: interned as `region`, its tables grown;
+    /// false when there are more regions than reserved for.
+    bool addPredictedRegion(std::string_view code, std::uint32_t line, std::uint32_t& region);
+    /// One pass, a measure name seen for the first time: interned as `measure`, with its table
+    /// reserved at `reserve` cells; false when the memory is not there.
+    bool addMeasureNamed(std::string_view name, std::size_t reserve, std::uint32_t& measure);
     void resetForTwoPasses();
     Status keyPass();
+    /// The dates in their steps: the header's date texts (dates-across), the format (when not
+    /// named), every date's serial and table column, the columns of a dates-across header.
     Status settleDates();
+    /// Dates-across: the header's date columns' names are the date texts (line 1).
+    void internHeaderDates();
+    /// The format the first date's shape names; a slash date's order by settleSlashOrder.
+    Status detectDateFormat();
+    /// Day or month first, settled by a number above 12 in the dates, never guessed: a mix of
+    /// both orders or neither is an error.
+    Status settleSlashOrder();
+    /// Every date text parsed to its serial; the first day, the step (7 when every date is on
+    /// one weekday), the table columns; a calendar too long for a drop is an error.
+    Status laySerialsOut();
+    /// Dates-across: the table column of each date column (-1 for the others).
+    void mapDateColumns();
     Status cellPass();
     /// The calendar the dates make: daily, or weekly (every date 7 days apart on one
     /// weekday, or ISO week labels), with the options' overrides; for weekly, the period
@@ -99,8 +138,42 @@ private:
         std::vector<std::int32_t> periodOfDay;  // weekly: day index -> period (-1: no date)
         std::vector<std::int32_t> usedDays;     // weekly: the day indices that hold a date
     };
+    /// In its steps: daily when the options say so (week labels then refused), the weekday
+    /// most dates fall on, whether the dates are on a weekly grid, the week convention, and the
+    /// week of every date.
     Result<CalendarPlan> planCalendar();
+    /// The day of a table column (columns are weeks when every date fell on one weekday).
+    Date dateOfColumn(std::int32_t column) const { return Date{m_firstSerial + column * m_step}; }
+    struct CommonWeekday {
+        int weekday = 1;        // the ISO weekday most distinct dates fall on
+        std::size_t count = 0;  // the distinct dates on it
+    };
+    CommonWeekday commonWeekday() const;
+    /// The dates not on `weekday`, as "N dates are not: line L (2026-02-03, a Tuesday); ...",
+    /// the first `limit` listed.
+    std::string offGridDates(int weekday, std::size_t limit) const;
+    /// With no cadence given: true when every date is on the common weekday (weekly), false
+    /// when the dates are daily; an error when nearly all but not all are (at least 9 in 10).
+    Result<bool> datesOnWeeklyGrid(const CommonWeekday& common) const;
+    struct WeekConvention {
+        WeekStart start = WeekStart::Monday;
+        WeekDate named = WeekDate::Start;  // which day of its week a date names
+    };
+    /// The week convention from the weekday, the date column's name ("end") and the options;
+    /// a warning when the dates are not the day of the week the convention names.
+    WeekConvention settleWeekConvention(int weekday, bool labels, bool yearWeek);
+    /// The weekly axis from the first date's week to the last's, and every date's week in
+    /// `plan`; two dates in one week are an error.
+    Status placeWeeks(CalendarPlan& plan, const WeekConvention& convention, int weekday) const;
+    /// In its steps: no rows is an error, the calendar, the names of dates, regions and
+    /// measures, the tables per period, the closing warnings.
     Status finish();
+    void recordDateFormatAndNames();
+    /// The tables as the drop keeps them: per period; filled by day for a weekly axis whose
+    /// columns are not its weeks, they are moved to their weeks (and the duplicates with them).
+    void arrangeTablesByPeriod(const CalendarPlan& plan);
+    /// The counted warnings: empty lines, duplicates, thousands, zero fractions, spaces.
+    void noteClosingWarnings();
 
     /// Housekeeping every record gets once: encoding checks ahead, page release.
     Status advance(std::size_t offset);

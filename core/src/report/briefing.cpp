@@ -172,11 +172,15 @@ Result<BriefingReport> buildBriefing(const Drop& drop, const Ledger& ledger, con
     return report;
 }
 
-std::string briefingHtml(const BriefingReport& r, const std::vector<std::string>& figureMarkup) {
+namespace {
+
+std::string td(const std::string& text, bool number = false) {
+    return std::string(number ? "<td class=\"n\">" : "<td>") + htmlEscaped(text) + "</td>";
+}
+
+// The page head, the title, the source and ledger paragraph and the caution.
+std::string headHtml(const BriefingReport& r) {
     std::string h;
-    auto cell = [](const std::string& text, bool number = false) {
-        return std::string(number ? "<td class=\"n\">" : "<td>") + htmlEscaped(text) + "</td>";
-    };
     h += "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\"><title>" +
          htmlEscaped(r.title) + "</title><style>" + kStyle + "</style></head><body>\n";
     h += "<h1>" + htmlEscaped(r.title) + "</h1>\n";
@@ -188,10 +192,12 @@ std::string briefingHtml(const BriefingReport& r, const std::vector<std::string>
          ", chain " + (r.chainVerified ? "verified" : "NOT verified") + ". Exported " +
          htmlEscaped(c.exportDate) + " by Siftwave " + siftwaveVersion() + ".</p>\n";
     h += "<p class=\"caution\">" + htmlEscaped(c.caution) + "</p>\n";
+    return h;
+}
 
-    // Findings.
-    const FindingsSummary& f = r.findings;
-    h += "<h2>Findings</h2>\n<p>The scan found " + std::to_string(f.total) + " findings";
+// The findings: counts by severity and kind, the first in review order, the revisions.
+std::string findingsHtml(const FindingsSummary& f) {
+    std::string h = "<h2>Findings</h2>\n<p>The scan found " + std::to_string(f.total) + " findings";
     std::string severities;
     for (const char* s : {"critical", "warning", "info"}) {
         const auto it = f.bySeverity.find(s);
@@ -202,19 +208,19 @@ std::string briefingHtml(const BriefingReport& r, const std::vector<std::string>
     if (!f.byKind.empty()) {
         h += "<table><tr><th>Kind</th><th>Findings</th></tr>\n";
         for (const auto& [kind, n] : f.byKind)
-            h += "<tr>" + cell(kind) + cell(std::to_string(n), true) + "</tr>\n";
+            h += "<tr>" + td(kind) + td(std::to_string(n), true) + "</tr>\n";
         h += "</table>\n";
     }
     if (!f.top.empty()) {
         h += "<h3>First in review order</h3>\n<table><tr><th>Severity</th><th>Kind</th>"
              "<th>Region, measure</th><th>Days</th><th>Id</th></tr>\n";
         for (const FindingLine& l : f.top)
-            h += "<tr>" + cell(l.severity) + cell(l.kind) +
-                 cell(l.region + (l.measure.empty() ? std::string() : ", " + l.measure)) +
-                 cell(l.first.empty()     ? std::string()
-                      : l.first == l.last ? l.first
-                                          : l.first + " to " + l.last) +
-                 cell(l.id) + "</tr>\n";
+            h += "<tr>" + td(l.severity) + td(l.kind) +
+                 td(l.region + (l.measure.empty() ? std::string() : ", " + l.measure)) +
+                 td(l.first.empty()     ? std::string()
+                    : l.first == l.last ? l.first
+                                        : l.first + " to " + l.last) +
+                 td(l.id) + "</tr>\n";
         h += "</table>\n";
     }
     if (f.revisions.compared) {
@@ -226,78 +232,93 @@ std::string briefingHtml(const BriefingReport& r, const std::vector<std::string>
              " vanished, in " + std::to_string(rv.regionsRevised) + " regions; net change " +
              htmlEscaped(fixed(rv.netChange, 0)) + ".</p>\n";
     }
+    return h;
+}
 
-    // Regions.
-    for (std::size_t i = 0; i < r.figures.size(); ++i) {
-        const FigureSpec& fig = r.figures[i];
-        if (i < figureMarkup.size() && !figureMarkup[i].empty()) {
-            // The figure carries its own title, subtitle and caption block (source, ledger,
-            // fit, caution): the section is headed by the region alone.
-            h +=
-                "<h2>" +
-                htmlEscaped(fig.regionName.empty() ? "Region " + fig.regionCode
-                                                   : fig.regionName + " (" + fig.regionCode + ")") +
-                "</h2>\n<div class=\"figure\">" + figureMarkup[i] + "</div>\n";
-        } else {
-            h += "<h2>" + htmlEscaped(fig.title) + "</h2>\n<p>" + htmlEscaped(fig.subtitle) +
-                 "</p>\n";
-            h += "<p class=\"caption\">";
-            for (std::size_t k = 0; k < fig.captionLines.size(); ++k)
-                h += (k ? "<br>" : "") + htmlEscaped(fig.captionLines[k]);
-            h += "</p>\n";
-        }
-        if (!fig.decisions.empty() || !fig.excluded.empty()) {
-            h += "<p>On this figure:</p><ul>\n";
-            for (const DecisionMark& m : fig.decisions)
-                h += "<li>" + htmlEscaped(m.label) + " (" + m.first.iso() +
-                     (m.last != m.first ? " to " + m.last.iso() : std::string()) + ")</li>\n";
-            for (const ExcludedRange& x : fig.excluded)
-                h += "<li>" + htmlEscaped(x.label) + " (" + x.first.iso() + " to " + x.last.iso() +
-                     ")</li>\n";
-            h += "</ul>\n";
-        }
-        if (fig.fit) {
-            h += "<h3>Fit</h3>\n<table><tr><th>Quantity</th><th>Estimate</th><th>95% interval</th>"
-                 "</tr>\n";
-            for (const FitTableRow& row : fitTable(fig.fit->result))
-                h += "<tr>" + cell(row.quantity) + cell(row.value, true) + cell(row.interval) +
-                     "</tr>\n";
-            h += "</table>\n";
-        } else if (!fig.fitError.empty()) {
-            h += "<p>No fit: " + htmlEscaped(fig.fitError) + "</p>\n";
-        }
+// A region's section: its figure (or title and caption), what the figure marks, its fit.
+std::string regionHtml(const FigureSpec& fig, const std::string& markup) {
+    std::string h;
+    if (!markup.empty()) {
+        // The figure carries its own title, subtitle and caption block (source, ledger,
+        // fit, caution): the section is headed by the region alone.
+        h += "<h2>" +
+             htmlEscaped(fig.regionName.empty() ? "Region " + fig.regionCode
+                                                : fig.regionName + " (" + fig.regionCode + ")") +
+             "</h2>\n<div class=\"figure\">" + markup + "</div>\n";
+    } else {
+        h += "<h2>" + htmlEscaped(fig.title) + "</h2>\n<p>" + htmlEscaped(fig.subtitle) + "</p>\n";
+        h += "<p class=\"caption\">";
+        for (std::size_t k = 0; k < fig.captionLines.size(); ++k)
+            h += (k ? "<br>" : "") + htmlEscaped(fig.captionLines[k]);
+        h += "</p>\n";
     }
-
-    // Ledger and reconciliation.
-    h += "<h2>Ledger</h2>\n";
-    if (r.ledger.empty())
-        h += "<p>No ledger entries: every number above is as reported.</p>\n";
-    else {
-        // The reason gets a row of its own under its entry: it is the longest text and
-        // must read in one piece.
-        h += "<table><tr><th>#</th><th>Time (UTC)</th><th>Author</th><th>Decision</th>"
-             "<th>Where</th><th>Net change</th><th>In effect</th><th>Hash</th></tr>\n";
-        for (const LedgerLine& l : r.ledger)
-            h += "<tr>" + cell(std::to_string(l.sequence), true) + cell(l.timestamp) +
-                 cell(l.author) + cell(l.kind) + cell(l.where) +
-                 cell(groupedCount(l.netChange), true) + cell(l.inEffect ? "yes" : "withdrawn") +
-                 cell(l.hashPrefix) +
-                 "</tr>\n<tr><td></td><td colspan=\"7\">Reason: " + htmlEscaped(l.reason) +
-                 "</td></tr>\n";
+    if (!fig.decisions.empty() || !fig.excluded.empty()) {
+        h += "<p>On this figure:</p><ul>\n";
+        for (const DecisionMark& m : fig.decisions)
+            h += "<li>" + htmlEscaped(m.label) + " (" + m.first.iso() +
+                 (m.last != m.first ? " to " + m.last.iso() : std::string()) + ")</li>\n";
+        for (const ExcludedRange& x : fig.excluded)
+            h += "<li>" + htmlEscaped(x.label) + " (" + x.first.iso() + " to " + x.last.iso() +
+                 ")</li>\n";
+        h += "</ul>\n";
+    }
+    if (fig.fit) {
+        h += "<h3>Fit</h3>\n<table><tr><th>Quantity</th><th>Estimate</th><th>95% interval</th>"
+             "</tr>\n";
+        for (const FitTableRow& row : fitTable(fig.fit->result))
+            h += "<tr>" + td(row.quantity) + td(row.value, true) + td(row.interval) + "</tr>\n";
         h += "</table>\n";
+    } else if (!fig.fitError.empty()) {
+        h += "<p>No fit: " + htmlEscaped(fig.fitError) + "</p>\n";
     }
-    h += "<h2>Reconciliation</h2>\n<table><tr><th>Region</th><th>Measure</th><th>Raw total</th>"
-         "<th>Cleaned total</th><th>Difference</th><th>Entries explaining it</th></tr>\n";
-    for (const ReconciliationRow& row : r.reconciliation) {
+    return h;
+}
+
+std::string ledgerHtml(const std::vector<LedgerLine>& ledger) {
+    std::string h = "<h2>Ledger</h2>\n";
+    if (ledger.empty())
+        return h + "<p>No ledger entries: every number above is as reported.</p>\n";
+    // The reason gets a row of its own under its entry: it is the longest text and
+    // must read in one piece.
+    h += "<table><tr><th>#</th><th>Time (UTC)</th><th>Author</th><th>Decision</th>"
+         "<th>Where</th><th>Net change</th><th>In effect</th><th>Hash</th></tr>\n";
+    for (const LedgerLine& l : ledger)
+        h += "<tr>" + td(std::to_string(l.sequence), true) + td(l.timestamp) + td(l.author) +
+             td(l.kind) + td(l.where) + td(groupedCount(l.netChange), true) +
+             td(l.inEffect ? "yes" : "withdrawn") + td(l.hashPrefix) +
+             "</tr>\n<tr><td></td><td colspan=\"7\">Reason: " + htmlEscaped(l.reason) +
+             "</td></tr>\n";
+    h += "</table>\n";
+    return h;
+}
+
+std::string reconciliationHtml(const std::vector<ReconciliationRow>& rows) {
+    std::string h =
+        "<h2>Reconciliation</h2>\n<table><tr><th>Region</th><th>Measure</th><th>Raw total</th>"
+        "<th>Cleaned total</th><th>Difference</th><th>Entries explaining it</th></tr>\n";
+    for (const ReconciliationRow& row : rows) {
         std::string entries;
         for (std::uint64_t e : row.entries)
             entries += (entries.empty() ? "#" : ", #") + std::to_string(e);
-        h += "<tr>" + cell(row.region) + cell(row.measure) +
-             cell(groupedCount(row.rawTotal), true) + cell(groupedCount(row.cleanedTotal), true) +
-             cell(groupedCount(row.difference()), true) +
-             cell(entries.empty() ? std::string("none") : entries) + "</tr>\n";
+        h += "<tr>" + td(row.region) + td(row.measure) + td(groupedCount(row.rawTotal), true) +
+             td(groupedCount(row.cleanedTotal), true) + td(groupedCount(row.difference()), true) +
+             td(entries.empty() ? std::string("none") : entries) + "</tr>\n";
     }
-    h += "</table>\n</body></html>\n";
+    h += "</table>\n";
+    return h;
+}
+
+}  // namespace
+
+std::string briefingHtml(const BriefingReport& r, const std::vector<std::string>& figureMarkup) {
+    std::string h = headHtml(r);
+    h += findingsHtml(r.findings);
+    static const std::string noMarkup;
+    for (std::size_t i = 0; i < r.figures.size(); ++i)
+        h += regionHtml(r.figures[i], i < figureMarkup.size() ? figureMarkup[i] : noMarkup);
+    h += ledgerHtml(r.ledger);
+    h += reconciliationHtml(r.reconciliation);
+    h += "</body></html>\n";
     return h;
 }
 
