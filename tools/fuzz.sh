@@ -7,6 +7,8 @@
 #
 #   bash tools/fuzz.sh [SECONDS_PER_TARGET] [TARGET ...]     (default: 60 s, every target)
 #
+# FUZZ_SEED=N fixes libFuzzer's random seed (CI does, so that a run can be repeated).
+#
 # Needs Debian's clang and libclang-rt-14-dev (libFuzzer and the sanitizer runtimes).
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
@@ -46,9 +48,10 @@ for t in "${targets[@]}"; do
     echo "== fuzz_$t for ${seconds}s"
     if ! (cd "$scratch" && "$root/build-fuzz/fuzz/fuzz_$t" "$corpus" "${dict[@]/#-dict=/-dict=$root/}" \
         -max_total_time="$seconds" -max_len=16384 -rss_limit_mb=2048 -timeout=10 \
-        -print_final_stats=1 2>"$scratch/fuzz_$t.log"); then
+        ${FUZZ_SEED:+-seed=$FUZZ_SEED} -print_final_stats=1 2>"$scratch/fuzz_$t.log"); then
         status=1
         echo "fuzz_$t FAILED; its log and the crashing input are in $scratch"
+        tail -40 "$scratch/fuzz_$t.log"
     fi
     grep -E "^stat::number_of_executed_units|^stat::peak_rss_mb|cov: " "$scratch/fuzz_$t.log" | tail -3
 done

@@ -26,7 +26,8 @@ packages=(
 )
 # The test suite also cross-checks the fitting engine against SciPy's curve_fit (a reference
 # library, never a runtime dependency of Siftwave).
-[ "$mode" = test ] && packages+=(python3-scipy)
+# The sanitizer and fuzzing stages need clang's libFuzzer and sanitizer runtimes.
+[ "$mode" = test ] && packages+=(python3-scipy clang libclang-rt-14-dev)
 
 missing=()
 for p in "${packages[@]}"; do
@@ -77,8 +78,17 @@ MSG
     exec build/bin/siftwave
 fi
 
-# test: the whole suite, then prove once that core, CLI and core tests build with no Qt at all.
+# test, in three stages:
+# 1. the whole suite (Release, Qt);
+# 2. core, CLI and core tests again with no Qt at all, built with AddressSanitizer and
+#    UndefinedBehaviorSanitizer (any report fails the test that triggered it);
+# 3. each libFuzzer target (tests/fuzz) for a fixed time from its seed corpus, fixed seed.
 ctest --test-dir build --output-on-failure -j "$jobs" --timeout 600
-build_tree build-noqt -DSIFTWAVE_WITH_QT=OFF -DSIFTWAVE_BUILD_BENCHMARKS=OFF
-ctest --test-dir build-noqt -j "$jobs" --timeout 600 -Q || ctest --test-dir build-noqt --rerun-failed --output-on-failure
-echo "No-Qt build (core, CLI, core tests): built and passed."
+sanitize="-fsanitize=address,undefined -fno-sanitize-recover=all -fno-omit-frame-pointer"
+build_tree build-sanitize -DSIFTWAVE_WITH_QT=OFF -DSIFTWAVE_BUILD_BENCHMARKS=OFF \
+    -DCMAKE_BUILD_TYPE=RelWithDebInfo "-DCMAKE_CXX_FLAGS=$sanitize" "-DCMAKE_EXE_LINKER_FLAGS=$sanitize"
+export ASAN_OPTIONS="detect_leaks=1:abort_on_error=0:halt_on_error=1" UBSAN_OPTIONS="print_stacktrace=1"
+ctest --test-dir build-sanitize -j "$jobs" --timeout 900 -Q ||
+    ctest --test-dir build-sanitize --rerun-failed --output-on-failure --timeout 900
+echo "No-Qt build with AddressSanitizer and UndefinedBehaviorSanitizer (core, CLI, core tests): built and passed."
+FUZZ_SEED=20261204 bash tools/fuzz.sh "${SIFTWAVE_FUZZ_SECONDS:-45}"
