@@ -155,8 +155,8 @@ private Q_SLOTS:
     }
 
     void everySvgFigureOfAHostileRegionIsInertXml() {
-        const Cleaned cleaned(m_drop);
-        const Ledger ledger;
+        const ledger::Cleaned cleaned(m_drop);
+        const ledger::Ledger ledger;
         for (const std::string& code : kHostileCodes) {
             report::FigureRequest request;
             request.region = code;
@@ -174,8 +174,8 @@ private Q_SLOTS:
     }
 
     void theHtmlBriefingHoldsNoLiveMarkupFromNames() {
-        const Cleaned cleaned(m_drop);
-        const Ledger ledger;
+        const ledger::Cleaned cleaned(m_drop);
+        const ledger::Ledger ledger;
         report::BriefingRequest request;
         request.regionRegister = &m_register;
         request.exportDate = "2026-12-04";
