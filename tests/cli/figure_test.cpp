@@ -58,7 +58,7 @@ protected:
 
     // A ledger with the sample's planted backlog redistributed (samples/manifest.json, P06).
     std::string writeLedger() {
-        const siftwave::Drop drop = siftwave::readDrop(kDrop).value();
+        const siftwave::Drop drop = siftwave::ingest::readDrop(kDrop).value();
         siftwave::ledger::Decision d;
         d.kind = siftwave::ledger::DecisionKind::Redistribute;
         d.region = "1301";
@@ -136,7 +136,7 @@ TEST_F(CliFigure, EachRegionGetsItsOwnFileWhenCodesMapToOneName) {
 
 TEST_F(CliFigure, WritesPdfAndSvgWithTheCaptionAsText) {
     const std::string ledger = writeLedger();
-    const siftwave::Drop drop = siftwave::readDrop(kDrop).value();
+    const siftwave::Drop drop = siftwave::ingest::readDrop(kDrop).value();
     for (const char* name : {"fig.pdf", "fig.svg"}) {
         const std::string out = path(name);
         const CliRun r = run("figure " + kDrop + " --ledger " + ledger +

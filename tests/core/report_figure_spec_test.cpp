@@ -39,7 +39,7 @@ Date day(const char* iso) {
 // 1301 excluded, an accept of 1304 and its withdrawal.
 Sample sample() {
     Sample s;
-    s.drop = readDrop(kDrop).value();
+    s.drop = ingest::readDrop(kDrop).value();
     s.cleaned = ledger::Cleaned(s.drop);
     ledger::Decision backlog;
     backlog.kind = ledger::DecisionKind::Redistribute;
@@ -97,9 +97,9 @@ void expectCentral95(double low, double high, Pmf pmf) {
 // Real weekly data (r-cran-surveillance, dataset fluBYBW; tests/data/real/SOURCES.md): the
 // figure is of weekly cases, smoothed over three weeks, and names its weeks.
 TEST(ReportFigureSpec, AWeeklyReleaseMakesAFigureOfWeeks) {
-    const Drop drop =
-        readDrop(std::string(SIFTWAVE_TEST_DATA_DIR) + "/real/fluBYBW_weekly_long_by_date.csv")
-            .value();
+    const Drop drop = ingest::readDrop(std::string(SIFTWAVE_TEST_DATA_DIR) +
+                                       "/real/fluBYBW_weekly_long_by_date.csv")
+                          .value();
     const ledger::Cleaned cleaned(drop);
     report::FigureRequest request;
     request.region = "8327";
@@ -274,7 +274,7 @@ TEST(ReportFigureSpec, TheBandIsTheFittedCurvesOwnConfidenceBand) {
 TEST(ReportFigureSpec, ThePreviousReleaseIsAlignedByDate) {
     const Sample s = sample();
     const Drop previous =
-        readDrop(std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_previous.csv").value();
+        ingest::readDrop(std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_previous.csv").value();
     report::FigureRequest request;
     request.region = "1405";
     request.previous = &previous;

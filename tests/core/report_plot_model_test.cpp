@@ -50,7 +50,7 @@ struct Sample {
 
 Sample sampleWithBacklogDecision() {
     Sample s;
-    s.drop = readDrop(kDrop).value();
+    s.drop = ingest::readDrop(kDrop).value();
     s.cleaned = ledger::Cleaned(s.drop);
     ledger::Decision backlog;
     backlog.kind = ledger::DecisionKind::Redistribute;
@@ -70,7 +70,7 @@ Sample sampleWithBacklogDecision() {
 }  // namespace
 
 TEST(ReportPlotModel, ADailySampleIsPlottedPerDayWithDailyLabels) {
-    const Drop drop = readDrop(kDrop).value();
+    const Drop drop = ingest::readDrop(kDrop).value();
     const ledger::Cleaned cleaned(drop);
     report::PlotRequest request;
     request.region = "1301";
@@ -97,7 +97,7 @@ TEST(ReportPlotModel, ADailySampleIsPlottedPerDayWithDailyLabels) {
 }
 
 TEST(ReportPlotModel, AWeeklyReleaseIsPlottedPerWeekWithWeeklyLabels) {
-    const Drop drop = readDrop(kWeekly).value();
+    const Drop drop = ingest::readDrop(kWeekly).value();
     const ledger::Cleaned cleaned(drop);
     report::PlotRequest request;
     request.region = "8327";
@@ -127,7 +127,7 @@ TEST(ReportPlotModel, TheCellsADecisionChangedNameItsEntry) {
 }
 
 TEST(ReportPlotModel, FindingsOfTheRegionAreMarkedOnTheirPeriods) {
-    const Drop drop = readDrop(kDrop).value();
+    const Drop drop = ingest::readDrop(kDrop).value();
     const ledger::Cleaned cleaned(drop);
     const scan::ScanReport scanned = scan::scanDrop(drop).value();
     report::PlotRequest request;

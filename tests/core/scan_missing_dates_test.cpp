@@ -188,7 +188,7 @@ TEST(MissingDates, RealCaseListTallyGetsTrueZeroSuggestionsThatKeepItsTotal) {
     tally << "date,region,cases\n";
     for (const auto& [date, cases] : perDay)
         tally << date << ",DE," << cases << "\n";
-    Result<Drop> drop = parseDrop(tally.str(), "husO104Hosp-tally.csv");
+    Result<Drop> drop = ingest::parseDrop(tally.str(), "husO104Hosp-tally.csv");
     ASSERT_TRUE(drop.ok()) << drop.error().describe();
     ASSERT_FALSE(drop->axis.weekly());
     EXPECT_EQ(ledger::rawTotal(*drop, 0, 0), 630);

@@ -18,7 +18,7 @@ const Finding* firstOfKind(const ScanReport& report, FindingKind kind) {
 
 TEST(SuggestedDecision, BacklogDumpOfTheSampleBecomesARedistributionThatConservesTheTotal) {
     // The samples README plants a backlog dump in 1301 cases on 2026-08-24.
-    const Result<Drop> drop = readDrop(SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv");
+    const Result<Drop> drop = ingest::readDrop(SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv");
     ASSERT_TRUE(drop.ok());
     const Result<ScanReport> report = scanDrop(*drop);
     ASSERT_TRUE(report.ok());
@@ -79,7 +79,7 @@ TEST(SuggestedDecision, NoSuggestionIsNotFound) {
 }
 
 TEST(SuggestedDecision, TheScanFillsInTheFindingsIdAndItsRegion) {
-    const Result<Drop> drop = readDrop(SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv");
+    const Result<Drop> drop = ingest::readDrop(SIFTWAVE_SAMPLES_DIR "/quenmara_current.csv");
     ASSERT_TRUE(drop.ok());
     const Result<ScanReport> report = scanDrop(*drop);
     ASSERT_TRUE(report.ok());

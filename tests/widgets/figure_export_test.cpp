@@ -53,8 +53,8 @@ void record(Fixture& f, const ledger::Decision& d, const std::string& reason, co
 
 Fixture sampleWithDecisions(bool decisions) {
     Fixture f;
-    f.drop = readDrop(kCurrent).value();
-    f.regions = readRegister(kRegister).value();
+    f.drop = ingest::readDrop(kCurrent).value();
+    f.regions = ingest::readRegister(kRegister).value();
     f.cleaned = ledger::Cleaned(f.drop);
     if (!decisions)
         return f;

@@ -9,7 +9,7 @@
 #include <limits>
 #include <set>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 namespace {
 
 constexpr std::size_t kCheckAhead = std::size_t{256} << 10;
@@ -991,4 +991,4 @@ Status DropReader::finish() {
     return Ok{};
 }
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -33,7 +33,7 @@
 #include <string_view>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 /// 'text' in quotes, shortened when long (for messages).
 std::string quoted(std::string_view text);
@@ -209,4 +209,4 @@ private:
     WarningLog m_log;
 };
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -10,7 +10,7 @@
 #include <cctype>
 #include <unordered_map>
 
-namespace siftwave {
+namespace siftwave::ingest {
 Result<RegionRegister> readRegister(const std::string& path) {
     auto fail = [&](ErrorCode code, std::string message, std::uint64_t line = 0,
                     std::uint64_t column = 0) {
@@ -122,4 +122,4 @@ Result<RegionRegister> readRegister(const std::string& path) {
     return reg;
 }
 
-}  // namespace siftwave
+}  // namespace siftwave::ingest
