@@ -60,10 +60,10 @@ int runApply(int argc, char** argv, int first) {
     const std::optional<ReplayedLedger> replayed = openAndReplay(*drop, ledgerPath, false, json);
     if (!replayed)
         return kExitBadInput;
-    const Ledger* ledger = &replayed->ledger;
-    const Cleaned* cleaned = &replayed->cleaned;
-    const std::string csv = cleanedCsv(*drop, *cleaned);
-    if (Status s = writeCleanedCsv(outPath, *drop, *cleaned); !s) {
+    const ledger::Ledger* ledger = &replayed->ledger;
+    const ledger::Cleaned* cleaned = &replayed->cleaned;
+    const std::string csv = ledger::cleanedCsv(*drop, *cleaned);
+    if (Status s = ledger::writeCleanedCsv(outPath, *drop, *cleaned); !s) {
         printError(s.error(), json);
         return kExitBadInput;
     }
@@ -72,7 +72,7 @@ int runApply(int argc, char** argv, int first) {
         rows += c == '\n';
     rows -= 1;  // the header
     std::size_t inEffect = 0;
-    for (const LedgerEntry& e : ledger->entries)
+    for (const ledger::LedgerEntry& e : ledger->entries)
         inEffect += cleaned->inEffect(e.sequence) ? 1 : 0;
     if (json) {
         printJson({{"out", outPath},

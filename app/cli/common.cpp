@@ -44,8 +44,8 @@ std::vector<FlagSpec> ingestFlagSpecs() {
     };
 }
 
-Result<IngestOptions> ingestOptionsFrom(const ParsedArgs& args) {
-    IngestOptions o;
+Result<ingest::IngestOptions> ingestOptionsFrom(const ParsedArgs& args) {
+    ingest::IngestOptions o;
     auto usage = [](std::string message) {
         return makeError(ErrorCode::Usage, std::move(message));
     };
@@ -106,10 +106,10 @@ Result<IngestOptions> ingestOptionsFrom(const ParsedArgs& args) {
 }
 
 Result<Drop> loadDrop(const std::string& path, const ParsedArgs& args) {
-    Result<IngestOptions> options = ingestOptionsFrom(args);
+    Result<ingest::IngestOptions> options = ingestOptionsFrom(args);
     if (!options)
         return options.error();
-    return readDrop(path, *options);
+    return ingest::readDrop(path, *options);
 }
 
 std::vector<FlagSpec> registerFlagSpecs(const std::string& use) {
@@ -123,12 +123,12 @@ Result<std::optional<RegionRegister>> loadRegister(const ParsedArgs& args,
                                                    const std::string& dropPath) {
     std::optional<std::string> path = args.optionalValue("regions");
     if (!path && !args.has("no-regions")) {
-        if (std::string beside = registerBeside(dropPath); !beside.empty())
+        if (std::string beside = ingest::registerBeside(dropPath); !beside.empty())
             path = std::move(beside);
     }
     if (!path)
         return std::optional<RegionRegister>{};
-    Result<RegionRegister> read = readRegister(*path);
+    Result<RegionRegister> read = ingest::readRegister(*path);
     if (!read)
         return read.error();
     return std::optional<RegionRegister>(std::move(*read));

@@ -23,15 +23,15 @@ namespace siftwave::cli {
 std::vector<FlagSpec> ingestFlagSpecs();
 
 /// The IngestOptions the flags ask for; a usage error when a value is wrong.
-Result<IngestOptions> ingestOptionsFrom(const ParsedArgs& args);
+Result<ingest::IngestOptions> ingestOptionsFrom(const ParsedArgs& args);
 
 /// Reads FILE with the ingest flags in `args`.
 Result<Drop> loadDrop(const std::string& path, const ParsedArgs& args);
 
 /// --regions REG and --no-regions, for the commands that read a region register; `use` says
 /// what the register is for. Without either flag the register beside FILE is read, when there
-/// is one (siftwave::registerBeside: <name>_regions.csv, regions.csv, or the one *regions*.csv
-/// or *register*.csv in FILE's folder), as the workbench does.
+/// is one (siftwave::ingest::registerBeside: <name>_regions.csv, regions.csv, or the one
+/// *regions*.csv or *register*.csv in FILE's folder), as the workbench does.
 std::vector<FlagSpec> registerFlagSpecs(const std::string& use);
 
 /// The register those flags ask for: --regions, none with --no-regions, else the one beside

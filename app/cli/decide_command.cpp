@@ -72,7 +72,7 @@ std::vector<FlagSpec> decideFlagSpecs() {
 
 std::string usageText() {
     std::string text = kUsage;
-    for (const DecisionKindInfo* k : decisionKinds()) {
+    for (const ledger::DecisionKindInfo* k : ledger::decisionKinds()) {
         std::string name = k->name;
         name.resize(std::max<std::size_t>(name.size(), 19), ' ');
         text += "  " + name + k->help;
@@ -83,7 +83,7 @@ std::string usageText() {
 /// "redistribute, spread_negative, ... or withdraw".
 std::string kindNames() {
     std::string names;
-    const auto kinds = decisionKinds();
+    const auto kinds = ledger::decisionKinds();
     for (std::size_t i = 0; i < kinds.size(); ++i) {
         if (i > 0)
             names += i + 1 == kinds.size() ? " or " : ", ";
@@ -96,9 +96,9 @@ Error usage(std::string message) {
     return makeError(ErrorCode::Usage, std::move(message));
 }
 
-Result<DayRange> rangeFlag(const ParsedArgs& args, const char* name) {
+Result<ledger::DayRange> rangeFlag(const ParsedArgs& args, const char* name) {
     const std::string text = args.value(name);
-    auto r = DayRange::fromIso(text);
+    auto r = ledger::DayRange::fromIso(text);
     if (r)
         return *r;
     // Say which part is wrong: a day the calendar does not have, or a range that runs backwards.
@@ -136,17 +136,19 @@ Result<std::int64_t> positiveFlag(const ParsedArgs& args, const char* name) {
 }
 
 /// The decision the flags describe (the excess left at 0 for --excess auto).
-Result<Decision> decisionFrom(const ParsedArgs& args, DecisionKind kind, const Drop& drop) {
-    const DecisionKindInfo& info = decisionKindInfo(kind);
+Result<ledger::Decision> decisionFrom(const ParsedArgs& args, ledger::DecisionKind kind,
+                                      const Drop& drop) {
+    const ledger::DecisionKindInfo& info = ledger::decisionKindInfo(kind);
     // A flag some kind takes, given to one that does not (in the order of the flag list).
     for (const FlagSpec& spec : decideFlagSpecs()) {
         const std::string& flag = spec.name;
-        const auto someKindTakes = [&](const DecisionKindInfo* k) { return k->flag(flag); };
+        const auto someKindTakes = [&](const ledger::DecisionKindInfo* k) { return k->flag(flag); };
         if (args.has(flag) && !info.flag(flag) &&
-            std::any_of(decisionKinds().begin(), decisionKinds().end(), someKindTakes))
+            std::any_of(ledger::decisionKinds().begin(), ledger::decisionKinds().end(),
+                        someKindTakes))
             return usage("--" + flag + " does not apply to " + info.name);
     }
-    Decision d;
+    ledger::Decision d;
     d.kind = kind;
     d.region = args.value("region");
     d.measure = args.value("measure");
@@ -189,22 +191,22 @@ Result<Decision> decisionFrom(const ParsedArgs& args, DecisionKind kind, const D
     }
     if (args.has("method")) {
         const std::string m = args.value("method");
-        if (info.hasParameter(DecisionParam::RedistributeMethod)) {
-            auto method = redistributeMethodFromName(m);
+        if (info.hasParameter(ledger::DecisionParam::RedistributeMethod)) {
+            auto method = ledger::redistributeMethodFromName(m);
             if (!method)
                 return usage(
                     "--method for redistribute is uniform, proportional or baseline, not '" + m +
                     "'");
             d.redistributeMethod = *method;
         } else {
-            auto method = fillMethodFromName(m);
+            auto method = ledger::fillMethodFromName(m);
             if (!method)
                 return usage("--method for fill_missing is zero, linear or share, not '" + m + "'");
             d.fillMethod = *method;
         }
     }
     if (args.has("keep")) {
-        auto rule = duplicateRuleFromName(args.value("keep"));
+        auto rule = ledger::duplicateRuleFromName(args.value("keep"));
         if (!rule)
             return usage("--keep is first, last, sum or max, not '" + args.value("keep") + "'");
         d.duplicateRule = *rule;
@@ -217,7 +219,7 @@ Result<Decision> decisionFrom(const ParsedArgs& args, DecisionKind kind, const D
             return n.error();
         d.target = static_cast<std::uint64_t>(*n);
     }
-    for (const DecisionFlag& flag : info.flags) {
+    for (const ledger::DecisionFlag& flag : info.flags) {
         if (flag.requiredAs && !args.has(flag.name))
             return usage(std::string(info.name) + " needs " + flag.requiredAs);
     }
@@ -225,18 +227,18 @@ Result<Decision> decisionFrom(const ParsedArgs& args, DecisionKind kind, const D
 }
 
 /// --excess auto: the scan's backlog estimate for the day (and its window when none is given).
-Status resolveAutoExcess(const Drop& drop, Decision& d, bool windowGiven);
-void printAutoExcessNote(const Decision& d, bool windowGiven);
+Status resolveAutoExcess(const Drop& drop, ledger::Decision& d, bool windowGiven);
+void printAutoExcessNote(const ledger::Decision& d, bool windowGiven);
 
-nlohmann::json effectSummaryJson(const Effect& effect) {
+nlohmann::json effectSummaryJson(const ledger::Effect& effect) {
     nlohmann::json totals = nlohmann::json::array();
-    for (const TotalChange& t : effect.totals)
+    for (const ledger::TotalChange& t : effect.totals)
         totals.push_back({{"region", t.region},
                           {"measure", t.measure},
                           {"before", t.before},
                           {"after", t.after}});
     nlohmann::json cells = nlohmann::json::array();
-    for (const CellChange& c : effect.cells) {
+    for (const ledger::CellChange& c : effect.cells) {
         cells.push_back({{"region", c.region},
                          {"measure", c.measure},
                          {"date", c.date.iso()},
@@ -244,8 +246,8 @@ nlohmann::json effectSummaryJson(const Effect& effect) {
                                                         : nlohmann::json(nullptr)},
                          {"after", c.after.hasValue() ? nlohmann::json(c.after.value)
                                                       : nlohmann::json(nullptr)},
-                         {"state_before", cleanedStateName(c.before.state)},
-                         {"state_after", cleanedStateName(c.after.state)}});
+                         {"state_before", ledger::cleanedStateName(c.before.state)},
+                         {"state_after", ledger::cleanedStateName(c.after.state)}});
     }
     return {{"cells", cells}, {"totals", totals}};
 }
@@ -258,13 +260,13 @@ std::string periodText(const Drop& drop, Date date) {
     return p ? date.iso() + " (" + drop.axis.periodName(*p) + ")" : date.iso();
 }
 
-void printEffectText(const Drop& drop, const Effect& effect) {
+void printEffectText(const Drop& drop, const ledger::Effect& effect) {
     const std::size_t shown = std::min<std::size_t>(effect.cells.size(), 40);
     for (std::size_t i = 0; i < shown; ++i) {
-        const CellChange& c = effect.cells[i];
-        auto value = [](const CleanedCell& cell) {
+        const ledger::CellChange& c = effect.cells[i];
+        auto value = [](const ledger::CleanedCell& cell) {
             return cell.hasValue() ? std::to_string(cell.value)
-                                   : std::string(cleanedStateName(cell.state));
+                                   : std::string(ledger::cleanedStateName(cell.state));
         };
         std::printf("  %s %s %s: %s -> %s\n", periodText(drop, c.date).c_str(),
                     terminalText(c.region).c_str(), c.measure.c_str(), value(c.before).c_str(),
@@ -272,7 +274,7 @@ void printEffectText(const Drop& drop, const Effect& effect) {
     }
     if (effect.cells.size() > shown)
         std::printf("  ... %zu more cells\n", effect.cells.size() - shown);
-    for (const TotalChange& t : effect.totals) {
+    for (const ledger::TotalChange& t : effect.totals) {
         std::printf("  total %s %s: %lld -> %lld%s\n", terminalText(t.region).c_str(),
                     terminalText(t.measure).c_str(), static_cast<long long>(t.before),
                     static_cast<long long>(t.after), t.before == t.after ? " (unchanged)" : "");
@@ -289,7 +291,8 @@ int runDecide(int argc, char** argv, int first) {
     const ParsedArgs* args = &*line.args;
     const bool json = line.json;
     const std::string ledgerPath = args->positional[0];
-    const std::optional<DecisionKind> kind = decisionKindFromName(args->positional[1]);
+    const std::optional<ledger::DecisionKind> kind =
+        ledger::decisionKindFromName(args->positional[1]);
     if (!kind) {
         return usageError("unknown decision kind '" + args->positional[1] + "'; use " + kindNames(),
                           json, usageText());
@@ -308,10 +311,11 @@ int runDecide(int argc, char** argv, int first) {
     const std::optional<Drop> drop = valueOrPrintError(loadDrop(args->value("drop"), *args), json);
     if (!drop)
         return kExitBadInput;
-    Result<Decision> decision = decisionFrom(*args, *kind, *drop);
+    Result<ledger::Decision> decision = decisionFrom(*args, *kind, *drop);
     if (!decision)
         return usageError(decision.error().message, json, usageText());
-    const bool autoExcess = *kind == DecisionKind::Redistribute && args->value("excess") == "auto";
+    const bool autoExcess =
+        *kind == ledger::DecisionKind::Redistribute && args->value("excess") == "auto";
     const bool windowGiven = args->has("window");
     if (autoExcess) {
         if (Status s = resolveAutoExcess(*drop, *decision, windowGiven); !s) {
@@ -325,11 +329,11 @@ int runDecide(int argc, char** argv, int first) {
     const std::optional<ReplayedLedger> replayed = openAndReplay(*drop, ledgerPath, true, json);
     if (!replayed)
         return kExitBadInput;
-    const Ledger* ledger = &replayed->ledger;
-    const Cleaned* cleaned = &replayed->cleaned;
+    const ledger::Ledger* ledger = &replayed->ledger;
+    const ledger::Cleaned* cleaned = &replayed->cleaned;
 
     if (dryRun) {
-        Result<Effect> effect = previewDecision(*drop, *cleaned, *decision);
+        Result<ledger::Effect> effect = ledger::previewDecision(*drop, *cleaned, *decision);
         if (!effect) {
             printError(effect.error(), json);
             return kExitBadInput;
@@ -337,10 +341,10 @@ int runDecide(int argc, char** argv, int first) {
         if (json) {
             nlohmann::json out = effectSummaryJson(*effect);
             out["dry_run"] = true;
-            out["kind"] = decisionKindName(*kind);
+            out["kind"] = ledger::decisionKindName(*kind);
             printJson(out);
         } else {
-            std::printf("%s (dry run, nothing written):\n", decisionKindName(*kind));
+            std::printf("%s (dry run, nothing written):\n", ledger::decisionKindName(*kind));
             if (autoExcess)
                 printAutoExcessNote(*decision, windowGiven);
             printEffectText(*drop, *effect);
@@ -348,15 +352,16 @@ int runDecide(int argc, char** argv, int first) {
         return kExitOk;
     }
 
-    EntryMeta meta;
+    ledger::EntryMeta meta;
     meta.author = args->value("author");
     meta.reason = args->value("reason");
-    Result<LedgerEntry> entry = draftEntry(*drop, *ledger, *cleaned, *decision, meta);
+    Result<ledger::LedgerEntry> entry =
+        ledger::draftEntry(*drop, *ledger, *cleaned, *decision, meta);
     if (!entry) {
         printError(entry.error(), json);
         return entry.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
     }
-    if (Status s = appendLedgerEntry(ledgerPath, *entry); !s) {
+    if (Status s = ledger::appendLedgerEntry(ledgerPath, *entry); !s) {
         printError(s.error(), json);
         return kExitBadInput;
     }
@@ -370,7 +375,7 @@ int runDecide(int argc, char** argv, int first) {
     } else {
         std::printf("entry %llu recorded in %s: %s by %s\n",
                     static_cast<unsigned long long>(entry->sequence), ledgerPath.c_str(),
-                    decisionKindName(*kind), entry->author.c_str());
+                    ledger::decisionKindName(*kind), entry->author.c_str());
         if (autoExcess)
             printAutoExcessNote(*decision, windowGiven);
         printEffectText(*drop, entry->effect);
@@ -380,7 +385,7 @@ int runDecide(int argc, char** argv, int first) {
 
 namespace {
 
-void printAutoExcessNote(const Decision& d, bool windowGiven) {
+void printAutoExcessNote(const ledger::Decision& d, bool windowGiven) {
     // Say where each number came from: --window given by hand is not the scan's suggestion.
     if (windowGiven) {
         std::printf("  excess %lld from the scan's backlog estimate; window %s as given\n",
@@ -391,7 +396,7 @@ void printAutoExcessNote(const Decision& d, bool windowGiven) {
     }
 }
 
-Status resolveAutoExcess(const Drop& drop, Decision& d, bool windowGiven) {
+Status resolveAutoExcess(const Drop& drop, ledger::Decision& d, bool windowGiven) {
     if (d.region.empty() || d.measure.empty() || !d.date)
         return makeError(ErrorCode::Usage, "--excess auto needs --region, --measure and --date");
     // The GUI's rule for a picked bar (scan/propose.h). No findings are passed: decide does

@@ -254,22 +254,23 @@ Step<std::vector<std::size_t>> regionsToFit(const ParsedArgs& args, const Drop& 
 }
 
 // With --ledger, the cleaned series: the ledger replayed over the drop.
-Step<std::optional<Cleaned>> cleanedByLedger(const ParsedArgs& args, const Drop& drop) {
+Step<std::optional<ledger::Cleaned>> cleanedByLedger(const ParsedArgs& args, const Drop& drop) {
     auto path = args.optionalValue("ledger");
     if (!path)
-        return std::optional<Cleaned>();
-    auto ledger = readLedgerFile(*path);
+        return std::optional<ledger::Cleaned>();
+    auto ledger = ledger::readLedgerFile(*path);
     if (!ledger)
         return Failure{ledger.error()};
-    auto replayed = replay(drop, *ledger);
+    auto replayed = ledger::replay(drop, *ledger);
     if (!replayed)
         return Failure{replayed.error()};
-    return std::optional<Cleaned>(std::move(replayed.value()));
+    return std::optional<ledger::Cleaned>(std::move(replayed.value()));
 }
 
 // Each region's counts (cleaned where a ledger was replayed; NaN where there is no value), with
 // its population from the register. `counts` holds the values the series point into.
-std::vector<fit::RegionSeries> regionSeries(const Drop& drop, const std::optional<Cleaned>& cleaned,
+std::vector<fit::RegionSeries> regionSeries(const Drop& drop,
+                                            const std::optional<ledger::Cleaned>& cleaned,
                                             const std::optional<RegionRegister>& reg,
                                             std::size_t measure,
                                             const std::vector<std::size_t>& indices,
@@ -337,7 +338,7 @@ void printResults(const std::vector<fit::RegionFit>& results, OutputFormat forma
 struct FitJob {
     Drop drop;
     std::optional<RegionRegister> reg;
-    std::optional<Cleaned> cleaned;
+    std::optional<ledger::Cleaned> cleaned;
     std::size_t measure = 0;
     std::vector<std::size_t> indices;
 };

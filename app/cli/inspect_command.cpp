@@ -181,12 +181,12 @@ int runInspect(int argc, char** argv, int first) {
         return line.exitCode;
     const ParsedArgs* args = &*line.args;
     const bool json = line.json;
-    Result<IngestOptions> options = ingestOptionsFrom(*args);
+    Result<ingest::IngestOptions> options = ingestOptionsFrom(*args);
     if (!options) {
         printError(options.error(), json);
         return kExitUsage;
     }
-    Result<Drop> drop = readDrop(args->positional[0], *options);
+    Result<Drop> drop = ingest::readDrop(args->positional[0], *options);
     if (!drop) {
         printError(drop.error(), json);
         return drop.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;

@@ -57,7 +57,7 @@ int runLedger(int argc, char** argv, int first) {
     const std::string ledgerPath = args->positional[0];
     const std::string reportPath = args->value("report");
     if (args->has("report")) {
-        if (!reportFormatFromPath(reportPath))
+        if (!ledger::reportFormatFromPath(reportPath))
             return usageError("the report file must end in .md, .html or .csv", json, usageText());
         if (samePath(reportPath, ledgerPath) ||
             (args->has("drop") && samePath(reportPath, args->value("drop"))))
@@ -67,11 +67,12 @@ int runLedger(int argc, char** argv, int first) {
     if (!ingestFlagsValid(*args, json))
         return kExitUsage;
 
-    const std::optional<Ledger> ledger = valueOrPrintError(openLedger(ledgerPath, false), json);
+    const std::optional<ledger::Ledger> ledger =
+        valueOrPrintError(openLedger(ledgerPath, false), json);
     if (!ledger)
         return kExitBadInput;
     std::optional<Drop> drop;
-    std::optional<Cleaned> cleaned;
+    std::optional<ledger::Cleaned> cleaned;
     if (args->has("drop")) {
         drop = valueOrPrintError(loadDrop(args->value("drop"), *args), json);
         if (drop)
@@ -80,7 +81,7 @@ int runLedger(int argc, char** argv, int first) {
             return kExitBadInput;
     }
 
-    const CountsAdded added = countsAddedByDecisions(*ledger);
+    const ledger::CountsAdded added = ledger::countsAddedByDecisions(*ledger);
     nlohmann::json out = {{"ledger", ledgerPath},
                           {"entries", ledger->entries.size()},
                           {"chain", "verified"},
@@ -93,14 +94,15 @@ int runLedger(int argc, char** argv, int first) {
         out["totals_reconcile"] = !added.any();
     }
     if (args->has("report")) {
-        const std::vector<ReconciliationRow> rows =
-            drop ? reconcile(*drop, *cleaned, *ledger) : reconcileFromLedger(*ledger);
-        ReportContext ctx;
+        const std::vector<ledger::ReconciliationRow> rows =
+            drop ? ledger::reconcile(*drop, *cleaned, *ledger)
+                 : ledger::reconcileFromLedger(*ledger);
+        ledger::ReportContext ctx;
         ctx.ledgerPath = ledgerPath;
         ctx.dropPath = drop ? drop->source.path : std::string();
         ctx.dropSha256 = drop ? drop->source.sha256 : ledger->dropSha256();
         ctx.chainVerified = true;
-        if (Status s = writeReport(reportPath, *ledger, rows, ctx); !s) {
+        if (Status s = ledger::writeReport(reportPath, *ledger, rows, ctx); !s) {
             printError(s.error(), json);
             return kExitBadInput;
         }

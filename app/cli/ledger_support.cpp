@@ -32,16 +32,16 @@ bool ingestFlagsValid(const ParsedArgs& args, bool json) {
     return valueOrPrintError(ingestOptionsFrom(args), json).has_value();
 }
 
-Result<Ledger> openLedger(const std::string& path, bool allowMissing) {
-    Result<Ledger> ledger = readLedgerFile(path);
+Result<ledger::Ledger> openLedger(const std::string& path, bool allowMissing) {
+    Result<ledger::Ledger> ledger = ledger::readLedgerFile(path);
     if (!ledger && allowMissing && ledger.error().code == ErrorCode::NotFound)
-        return Ledger{};
+        return ledger::Ledger{};
     return ledger;
 }
 
-Result<Cleaned> replayLedger(const Drop& drop, const Ledger& ledger,
-                             const std::string& ledgerPath) {
-    Result<Cleaned> cleaned = replay(drop, ledger);
+Result<ledger::Cleaned> replayLedger(const Drop& drop, const ledger::Ledger& ledger,
+                                     const std::string& ledgerPath) {
+    Result<ledger::Cleaned> cleaned = ledger::replay(drop, ledger);
     if (!cleaned) {
         Error e = cleaned.error();
         if (e.file.empty())
@@ -53,18 +53,19 @@ Result<Cleaned> replayLedger(const Drop& drop, const Ledger& ledger,
 
 std::optional<ReplayedLedger> openAndReplay(const Drop& drop, const std::string& ledgerPath,
                                             bool allowMissing, bool json) {
-    std::optional<Ledger> ledger = valueOrPrintError(openLedger(ledgerPath, allowMissing), json);
+    std::optional<ledger::Ledger> ledger =
+        valueOrPrintError(openLedger(ledgerPath, allowMissing), json);
     if (!ledger)
         return std::nullopt;
-    std::optional<Cleaned> cleaned =
+    std::optional<ledger::Cleaned> cleaned =
         valueOrPrintError(replayLedger(drop, *ledger, ledgerPath), json);
     if (!cleaned)
         return std::nullopt;
     return ReplayedLedger{std::move(*ledger), std::move(*cleaned)};
 }
 
-nlohmann::json entryToJsonObject(const LedgerEntry& entry) {
-    Result<std::string> line = entryLine(entry);
+nlohmann::json entryToJsonObject(const ledger::LedgerEntry& entry) {
+    Result<std::string> line = ledger::entryLine(entry);
     if (!line)
         return nlohmann::json::object();
     return nlohmann::json::parse(*line);

@@ -43,15 +43,16 @@ std::optional<T> valueOrPrintError(Result<T> result, bool json) {
 }
 
 /// Reads and verifies the ledger; with `allowMissing` a missing file is an empty ledger.
-Result<Ledger> openLedger(const std::string& path, bool allowMissing);
+Result<ledger::Ledger> openLedger(const std::string& path, bool allowMissing);
 
 /// replay(drop, ledger) with the ledger's path in the error.
-Result<Cleaned> replayLedger(const Drop& drop, const Ledger& ledger, const std::string& ledgerPath);
+Result<ledger::Cleaned> replayLedger(const Drop& drop, const ledger::Ledger& ledger,
+                                     const std::string& ledgerPath);
 
 /// A ledger and the cleaned data its replay on a drop gives.
 struct ReplayedLedger {
-    Ledger ledger;
-    Cleaned cleaned;
+    ledger::Ledger ledger;
+    ledger::Cleaned cleaned;
 };
 
 /// openLedger then replayLedger: nullopt after printing the error of the first that fails.
@@ -59,7 +60,7 @@ std::optional<ReplayedLedger> openAndReplay(const Drop& drop, const std::string&
                                             bool allowMissing, bool json);
 
 /// The entry as it stands in the ledger file, as a JSON object.
-nlohmann::json entryToJsonObject(const LedgerEntry& entry);
+nlohmann::json entryToJsonObject(const ledger::LedgerEntry& entry);
 
 /// True when two paths name the same file (or the same not-yet-existing path).
 bool samePath(const std::string& a, const std::string& b);

@@ -114,7 +114,7 @@ int runScan(int argc, char** argv, int first) {
             return kExitUsage;
         }
     }
-    if (Result<IngestOptions> o = ingestOptionsFrom(*args); !o) {
+    if (Result<ingest::IngestOptions> o = ingestOptionsFrom(*args); !o) {
         printError(o.error(), json);
         return kExitUsage;
     }

@@ -6,14 +6,14 @@
 
 namespace siftwave::gui {
 
-ApplyDecisionCommand::ApplyDecisionCommand(widgets::Workbench* workbench, Decision decision,
+ApplyDecisionCommand::ApplyDecisionCommand(widgets::Workbench* workbench, ledger::Decision decision,
                                            QString reason, ErrorSink onError)
     : m_workbench(workbench),
       m_decision(std::move(decision)),
       m_reason(std::move(reason)),
       m_onError(std::move(onError)) {
     setText(QCoreApplication::translate("ApplyDecisionCommand", "%1 %2")
-                .arg(QString::fromLatin1(decisionKindName(m_decision.kind)),
+                .arg(QString::fromLatin1(ledger::decisionKindName(m_decision.kind)),
                      QString::fromStdString(m_decision.region)));
 }
 

@@ -24,7 +24,7 @@ class ApplyDecisionCommand : public QUndoCommand {
 public:
     using ErrorSink = std::function<void(const QString& message)>;
 
-    ApplyDecisionCommand(widgets::Workbench* workbench, Decision decision, QString reason,
+    ApplyDecisionCommand(widgets::Workbench* workbench, ledger::Decision decision, QString reason,
                          ErrorSink onError);
 
     void redo() override;
@@ -35,7 +35,7 @@ public:
 
 private:
     widgets::Workbench* m_workbench;
-    Decision m_decision;
+    ledger::Decision m_decision;
     QString m_reason;
     ErrorSink m_onError;
     std::uint64_t m_entry = 0;       // the decision's entry

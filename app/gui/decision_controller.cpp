@@ -44,7 +44,7 @@ bool DecisionController::decideFinding(const QString& id) {
         return false;
     const std::string measure =
         m_workbench->drop().measures.at(static_cast<std::size_t>(m_plot->measure()));
-    Result<Decision> decision = scan::suggestedDecision(*finding, measure);
+    Result<ledger::Decision> decision = scan::suggestedDecision(*finding, measure);
     if (!decision) {
         Q_EMIT errorOccurred(tr("No decision to prepare"),
                              widgets::describeError(decision.error()));
@@ -53,13 +53,13 @@ bool DecisionController::decideFinding(const QString& id) {
     Q_EMIT focusRequested(*finding);
     begin(*decision,
           tr("<b>%1</b> for %2 — finding %3")
-              .arg(QString::fromLatin1(decisionKindName(decision->kind)),
+              .arg(QString::fromLatin1(ledger::decisionKindName(decision->kind)),
                    QString::fromStdString(decision->region), id),
           widgets::reasonDraftFor(*finding, *decision));
     return true;
 }
 
-void DecisionController::begin(const Decision& decision, const QString& title,
+void DecisionController::begin(const ledger::Decision& decision, const QString& title,
                                const QString& reason) {
     m_pane->setCalendar(m_workbench->drop().axis);
     m_pane->begin(decision, title, reason);
@@ -93,7 +93,7 @@ bool DecisionController::decideDay(int day) {
     }
     if (proposal->source == scan::ProposalSource::Finding)
         return decideFinding(QString::fromStdString(proposal->finding->id));
-    const Decision& decision = proposal->decision;
+    const ledger::Decision& decision = proposal->decision;
     const scan::BacklogEstimate* estimate = proposal->estimate ? &*proposal->estimate : nullptr;
     // As from a finding: the window and the day in view, with three weeks either side.
     m_plot->focusOn(
@@ -110,8 +110,8 @@ bool DecisionController::decideDay(int day) {
 void DecisionController::preview() {
     if (!m_pane->isActive())
         return;
-    const Decision decision = m_pane->decision();
-    const Result<Effect> effect = m_workbench->preview(decision);
+    const ledger::Decision decision = m_pane->decision();
+    const Result<ledger::Effect> effect = m_workbench->preview(decision);
     m_pane->showPreview(effect);
     // Draw the cells of the shown region and measure as they would be after.
     std::vector<double> values;
@@ -119,7 +119,7 @@ void DecisionController::preview() {
         const widgets::SeriesView& view = m_plot->view();
         values.assign(static_cast<std::size_t>(view.periods()),
                       std::numeric_limits<double>::quiet_NaN());
-        for (const CellChange& c : effect->cells) {
+        for (const ledger::CellChange& c : effect->cells) {
             if (QString::fromStdString(c.region) != view.regionCode ||
                 QString::fromStdString(c.measure) != view.measure)
                 continue;

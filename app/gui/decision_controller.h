@@ -53,7 +53,7 @@ Q_SIGNALS:
     void decisionEnded();
 
 private:
-    void begin(const Decision& decision, const QString& title, const QString& reason);
+    void begin(const ledger::Decision& decision, const QString& title, const QString& reason);
     void preview();
     void end();
 

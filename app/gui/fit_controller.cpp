@@ -79,7 +79,7 @@ void FitController::windowDragged(const QString& region, widgets::DayIndexRange 
     refit(region, finished);
 }
 
-void FitController::restoreChoices(const ProjectFile& project, const TimeAxis& axis) {
+void FitController::restoreChoices(const ledger::ProjectFile& project, const TimeAxis& axis) {
     const std::optional<fit::ModelKind> model = fit::modelFromName(project.fit.model);
     const auto extra = [&project](const char* key) {
         const auto it = project.extra.find(key);
@@ -99,7 +99,7 @@ void FitController::restoreChoices(const ProjectFile& project, const TimeAxis& a
         m_pane->setAutomaticWindow();
 }
 
-void FitController::storeChoices(ProjectFile& project, const Drop& drop) const {
+void FitController::storeChoices(ledger::ProjectFile& project, const Drop& drop) const {
     const fit::FitOptions options = m_pane->options();
     project.fit.model = options.modelChoice == fit::ModelChoice::LowestAicc
                             ? "best"

@@ -36,9 +36,9 @@ public:
     double lastRefitMilliseconds() const { return m_lastRefitMs; }
 
     /// Shows a project's fit choices (model, method, weekday factors, wave, window).
-    void restoreChoices(const ProjectFile& project, const TimeAxis& axis);
+    void restoreChoices(const ledger::ProjectFile& project, const TimeAxis& axis);
     /// Writes the fit choices shown into a project.
-    void storeChoices(ProjectFile& project, const Drop& drop) const;
+    void storeChoices(ledger::ProjectFile& project, const Drop& drop) const;
 
 private:
     void refitNow(const QString& region, bool compare);

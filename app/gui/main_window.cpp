@@ -512,7 +512,8 @@ void MainWindow::startOpening(const QString& path,
                 showError(tr("The ledger of this drop cannot be used"),
                           widgets::describeError(ledger.error()));
             else if (project) {
-                if (Status head = checkLedgerHead(project->file, m_workbench->ledger()); !head)
+                if (Status head = ledger::checkLedgerHead(project->file, m_workbench->ledger());
+                    !head)
                     showError(tr("The project's ledger is not the one it was saved with"),
                               widgets::describeError(head.error()));
             }

@@ -16,7 +16,7 @@ ProjectController::ProjectController(widgets::Workbench* workbench, widgets::Ser
     : QObject(parent), m_workbench(workbench), m_plot(plot), m_fit(fit) {}
 
 std::optional<ProjectController::Opening> ProjectController::read(const QString& path) {
-    Result<ProjectFile> read = readProjectFile(path.toStdString());
+    Result<ledger::ProjectFile> read = ledger::readProjectFile(path.toStdString());
     if (!read) {
         Q_EMIT openFailed(tr("The project could not be opened"),
                           widgets::describeError(read.error()));
@@ -25,7 +25,7 @@ std::optional<ProjectController::Opening> ProjectController::read(const QString&
     return Opening{QFileInfo(path).absoluteFilePath(), std::move(*read)};
 }
 
-void ProjectController::restoreView(const ProjectFile& project) {
+void ProjectController::restoreView(const ledger::ProjectFile& project) {
     const Drop& drop = m_workbench->drop();
     const auto measure = drop.measureIndex(project.view.measure);
     const auto second = drop.measureIndex(project.view.secondMeasure);
@@ -41,9 +41,9 @@ void ProjectController::restoreView(const ProjectFile& project) {
                                    *project.view.visibleLast - drop.axis.first()});
 }
 
-ProjectFile ProjectController::projectOfWindow(const QString& projectPath,
-                                               const QString& currentRegion) const {
-    ProjectFile p;
+ledger::ProjectFile ProjectController::projectOfWindow(const QString& projectPath,
+                                                       const QString& currentRegion) const {
+    ledger::ProjectFile p;
     const Drop& drop = m_workbench->drop();
     p.dropPath = storedProjectPath(projectPath, m_workbench->dropPath());
     p.dropSha256 = drop.source.sha256;
@@ -88,7 +88,8 @@ bool ProjectController::save(const QString& requestedPath, const QString& curren
             return false;
         }
     }
-    if (Status written = writeProjectFile(path.toStdString(), projectOfWindow(path, currentRegion));
+    if (Status written =
+            ledger::writeProjectFile(path.toStdString(), projectOfWindow(path, currentRegion));
         !written) {
         Q_EMIT errorOccurred(tr("The project could not be saved"),
                              widgets::describeError(written.error()));

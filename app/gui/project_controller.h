@@ -23,7 +23,7 @@ public:
     /// A project being opened: the file as read and its absolute path.
     struct Opening {
         QString path;
-        ProjectFile file;
+        ledger::ProjectFile file;
     };
 
     ProjectController(widgets::Workbench* workbench, widgets::SeriesPlot* plot, FitController* fit,
@@ -33,7 +33,7 @@ public:
     std::optional<Opening> read(const QString& path);
     /// Shows a project's view and fit settings (region, measures, fit choices, visible days)
     /// over the drop just opened.
-    void restoreView(const ProjectFile& project);
+    void restoreView(const ledger::ProjectFile& project);
     /// Saves the window as a project (the ".siftwave.json" ending is added when missing);
     /// emits saved() or errorOccurred().
     bool save(const QString& path, const QString& currentRegion);
@@ -53,7 +53,8 @@ Q_SIGNALS:
     void redrawRequested();
 
 private:
-    ProjectFile projectOfWindow(const QString& projectPath, const QString& currentRegion) const;
+    ledger::ProjectFile projectOfWindow(const QString& projectPath,
+                                        const QString& currentRegion) const;
 
     widgets::Workbench* m_workbench;
     widgets::SeriesPlot* m_plot;

@@ -51,8 +51,8 @@ std::string storedProjectPath(const QString& projectPath, const QString& file) {
 QString resolvedProjectPath(const QString& projectPath, const std::string& stored) {
     if (stored.empty())
         return {};
-    return QDir::cleanPath(QString::fromStdString(
-        resolveProjectPath(QFileInfo(projectPath).absoluteFilePath().toStdString(), stored)));
+    return QDir::cleanPath(QString::fromStdString(ledger::resolveProjectPath(
+        QFileInfo(projectPath).absoluteFilePath().toStdString(), stored)));
 }
 
 Result<QString> adoptLedgerForProject(const QString& projectPath, const QString& currentLedger) {

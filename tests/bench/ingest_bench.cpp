@@ -87,7 +87,7 @@ void ingestLong(benchmark::State& state) {
     const auto bytes = static_cast<double>(std::filesystem::file_size(path));
     const double cpuStart = processCpuSeconds();
     for (auto _ : state) {
-        siftwave::Result<siftwave::Drop> drop = siftwave::readDrop(path);
+        siftwave::Result<siftwave::Drop> drop = siftwave::ingest::readDrop(path);
         if (!drop) {
             state.SkipWithError(drop.error().describe().c_str());
             break;

@@ -23,30 +23,30 @@ const testing::SyntheticDrop& bigDrop() {
 }
 
 /// One redistribution per region (uniform, 14 days before day 500), recorded through the one door.
-Ledger hundredsOfDecisions(const Drop& drop, int count) {
-    Ledger ledger;
-    Cleaned cleaned(drop);
+ledger::Ledger hundredsOfDecisions(const Drop& drop, int count) {
+    ledger::Ledger ledger;
+    ledger::Cleaned cleaned(drop);
     for (int i = 0; i < count; ++i) {
         const std::size_t r = static_cast<std::size_t>(i) % drop.regionCodes.size();
-        Decision d;
-        d.kind = DecisionKind::Redistribute;
+        ledger::Decision d;
+        d.kind = ledger::DecisionKind::Redistribute;
         d.region = drop.regionCodes[r];
         d.measure = drop.measures[0];
         d.date = drop.periodStart(500);
         const std::int64_t held = cleaned.cell(0, r, 500).counted();
         d.excess = held > 1 ? held / 2 : 1;
-        d.window = DayRange{drop.periodStart(486), drop.periodStart(499)};
+        d.window = ledger::DayRange{drop.periodStart(486), drop.periodStart(499)};
         d.redistributeMethod =
-            i % 2 ? RedistributeMethod::Proportional : RedistributeMethod::Baseline;
-        EntryMeta meta{"bench", "2026-01-01T00:00:00Z", "benchmark"};
-        auto entry = draftEntry(drop, ledger, cleaned, d, meta);
+            i % 2 ? ledger::RedistributeMethod::Proportional : ledger::RedistributeMethod::Baseline;
+        ledger::EntryMeta meta{"bench", "2026-01-01T00:00:00Z", "benchmark"};
+        auto entry = ledger::draftEntry(drop, ledger, cleaned, d, meta);
         if (!entry.ok()) {
-            d.redistributeMethod = RedistributeMethod::Uniform;
-            entry = draftEntry(drop, ledger, cleaned, d, meta);
+            d.redistributeMethod = ledger::RedistributeMethod::Uniform;
+            entry = ledger::draftEntry(drop, ledger, cleaned, d, meta);
         }
         if (!entry.ok())
             continue;
-        (void)applyEntry(drop, cleaned, *entry);
+        (void)ledger::applyEntry(drop, cleaned, *entry);
         ledger.entries.push_back(std::move(*entry));
     }
     return ledger;
@@ -54,17 +54,17 @@ Ledger hundredsOfDecisions(const Drop& drop, int count) {
 
 void BM_RecordDecision(benchmark::State& state) {
     const Drop& drop = bigDrop().drop;
-    const Cleaned cleaned(drop);
-    Decision d;
-    d.kind = DecisionKind::Redistribute;
+    const ledger::Cleaned cleaned(drop);
+    ledger::Decision d;
+    d.kind = ledger::DecisionKind::Redistribute;
     d.region = drop.regionCodes[7];
     d.measure = drop.measures[0];
     d.date = drop.periodStart(500);
     d.excess = 1;
-    d.window = DayRange{drop.periodStart(486), drop.periodStart(499)};
-    d.redistributeMethod = RedistributeMethod::Baseline;
+    d.window = ledger::DayRange{drop.periodStart(486), drop.periodStart(499)};
+    d.redistributeMethod = ledger::RedistributeMethod::Baseline;
     for (auto _ : state) {
-        auto effect = previewDecision(drop, cleaned, d);
+        auto effect = ledger::previewDecision(drop, cleaned, d);
         benchmark::DoNotOptimize(effect);
     }
 }
@@ -72,10 +72,10 @@ BENCHMARK(BM_RecordDecision)->Unit(benchmark::kMicrosecond);
 
 void BM_ReplayThousandEntries(benchmark::State& state) {
     const Drop& drop = bigDrop().drop;
-    const Ledger ledger = hundredsOfDecisions(drop, 1000);
+    const ledger::Ledger ledger = hundredsOfDecisions(drop, 1000);
     state.counters["entries"] = static_cast<double>(ledger.entries.size());
     for (auto _ : state) {
-        auto cleaned = replay(drop, ledger);
+        auto cleaned = ledger::replay(drop, ledger);
         benchmark::DoNotOptimize(cleaned);
     }
 }
@@ -83,9 +83,9 @@ BENCHMARK(BM_ReplayThousandEntries)->Unit(benchmark::kMillisecond);
 
 void BM_CleanedCsv(benchmark::State& state) {
     const Drop& drop = bigDrop().drop;
-    const Cleaned cleaned(drop);
+    const ledger::Cleaned cleaned(drop);
     for (auto _ : state) {
-        std::string csv = cleanedCsv(drop, cleaned);
+        std::string csv = ledger::cleanedCsv(drop, cleaned);
         benchmark::DoNotOptimize(csv);
     }
 }

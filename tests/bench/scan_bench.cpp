@@ -83,7 +83,7 @@ void BM_ScanCommand_3MRowFile(benchmark::State& state) {
     const std::string& path = bigFile();
     std::size_t bytes = 0;
     for (auto _ : state) {
-        auto drop = readDrop(path);
+        auto drop = ingest::readDrop(path);
         if (!drop) {
             state.SkipWithError(drop.error().describe().c_str());
             return;

@@ -58,23 +58,23 @@ protected:
 
     // A ledger with the sample's planted backlog redistributed (samples/manifest.json, P06).
     std::string writeLedger() {
-        const siftwave::Drop drop = siftwave::readDrop(kDrop).value();
-        siftwave::Decision d;
-        d.kind = siftwave::DecisionKind::Redistribute;
+        const siftwave::Drop drop = siftwave::ingest::readDrop(kDrop).value();
+        siftwave::ledger::Decision d;
+        d.kind = siftwave::ledger::DecisionKind::Redistribute;
         d.region = "1301";
         d.measure = "cases";
         d.date = siftwave::Date::fromIso("2026-08-24");
-        d.window = siftwave::DayRange{*siftwave::Date::fromIso("2026-08-03"),
-                                      *siftwave::Date::fromIso("2026-08-23")};
+        d.window = siftwave::ledger::DayRange{*siftwave::Date::fromIso("2026-08-03"),
+                                              *siftwave::Date::fromIso("2026-08-23")};
         d.excess = 2444;
-        const siftwave::Ledger empty;
-        const siftwave::Cleaned cleaned(drop);
-        auto entry = siftwave::draftEntry(
+        const siftwave::ledger::Ledger empty;
+        const siftwave::ledger::Cleaned cleaned(drop);
+        auto entry = siftwave::ledger::draftEntry(
             drop, empty, cleaned, d,
             {"tester", "2026-12-01T09:00:00Z", "three weeks held back, sent on 24 August"});
         EXPECT_TRUE(entry.ok());
         const std::string path = (m_dir / "ledger.jsonl").string();
-        EXPECT_TRUE(siftwave::appendLedgerEntry(path, *entry).ok());
+        EXPECT_TRUE(siftwave::ledger::appendLedgerEntry(path, *entry).ok());
         m_headHash = entry->hash;
         return path;
     }
@@ -136,7 +136,7 @@ TEST_F(CliFigure, EachRegionGetsItsOwnFileWhenCodesMapToOneName) {
 
 TEST_F(CliFigure, WritesPdfAndSvgWithTheCaptionAsText) {
     const std::string ledger = writeLedger();
-    const siftwave::Drop drop = siftwave::readDrop(kDrop).value();
+    const siftwave::Drop drop = siftwave::ingest::readDrop(kDrop).value();
     for (const char* name : {"fig.pdf", "fig.svg"}) {
         const std::string out = path(name);
         const CliRun r = run("figure " + kDrop + " --ledger " + ledger +

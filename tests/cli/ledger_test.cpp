@@ -271,7 +271,7 @@ TEST_F(LedgerCli, ExcessAutoTakesTheScansBacklogEstimateAndSuggestedWindow) {
     ASSERT_EQ(d.code, 0) << d.out << d.err;
     const auto j = nlohmann::json::parse(d.out);
     const auto& p = j.at("entry").at("parameters");
-    auto drop = siftwave::readDrop(sample);
+    auto drop = siftwave::ingest::readDrop(sample);
     ASSERT_TRUE(drop.ok());
     auto estimate = siftwave::scan::estimateBacklog(*drop, "cases", "1304",
                                                     *siftwave::Date::fromIso("2026-04-27"));

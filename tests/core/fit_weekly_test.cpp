@@ -298,8 +298,8 @@ bool hasNote(const FitResult& r, const std::string& start) {
 // window (the negative binomial on these sparse counts can trade the season for a flat curve of
 // huge variance), which carries that note and is no fitted season.
 TEST(FitWeekly, FluBybwSeasonsAreConsistentWithTheirWeeklyCounts) {
-    auto drop =
-        readDrop(std::string(SIFTWAVE_TEST_DATA_DIR) + "/real/fluBYBW_weekly_long_by_date.csv");
+    auto drop = ingest::readDrop(std::string(SIFTWAVE_TEST_DATA_DIR) +
+                                 "/real/fluBYBW_weekly_long_by_date.csv");
     ASSERT_TRUE(drop) << drop.error().message;
     ASSERT_TRUE(drop->axis.weekly());
     ASSERT_EQ(drop->regionCodes.size(), 16u);

@@ -12,7 +12,7 @@
 #include <random>
 #include <string>
 
-namespace siftwave {
+namespace siftwave::ingest {
 namespace {
 
 Error errorOf(const std::string& text, const IngestOptions& options = {}) {
@@ -329,4 +329,4 @@ TEST(IngestBadInput, AnEndlessStreamIsRefusedAtItsLimit) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ingest

@@ -9,7 +9,7 @@
 #include <string>
 #include <tuple>
 
-namespace siftwave {
+namespace siftwave::ingest {
 namespace {
 
 const std::string kReal = std::string(SIFTWAVE_TEST_DATA_DIR) + "/real/";
@@ -184,4 +184,4 @@ TEST(IngestCadence, WeeklyDuplicatesAndDatesAcrossUseWeeks) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ingest

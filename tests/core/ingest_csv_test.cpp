@@ -9,7 +9,7 @@
 #include <string>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 namespace {
 
 using Rows = std::vector<std::vector<std::string>>;
@@ -248,4 +248,4 @@ TEST(CsvScanner, BitMaskReadingAgreesWithAPlainReading) {
 }
 
 }  // namespace
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -5,7 +5,7 @@
 
 #include <gtest/gtest.h>
 
-namespace siftwave {
+namespace siftwave::ingest {
 namespace {
 
 using detail::DateFormat;
@@ -140,4 +140,4 @@ TEST(IngestDates, ADateFormatThatDoesNotFitIsReported) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ingest

@@ -16,7 +16,7 @@
 #include <utility>
 #include <vector>
 
-namespace siftwave {
+namespace siftwave::ingest {
 namespace {
 
 Drop readOk(const std::string& text, const IngestOptions& options = {}) {
@@ -512,4 +512,4 @@ TEST(IngestDrop, Sha256MatchesThePublishedTestVectors) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ingest

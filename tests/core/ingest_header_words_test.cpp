@@ -3,7 +3,7 @@
 
 #include <gtest/gtest.h>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 namespace {
 
 TEST(IngestHeaderWords, WordsOfTheTradeAreFoundInSixLanguagesWithOrWithoutAccents) {
@@ -68,4 +68,4 @@ TEST(IngestHeaderWords, PlacesAndCodesAreNotTradeNames) {
 }
 
 }  // namespace
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -16,7 +16,7 @@
 #include <string>
 #include <vector>
 
-namespace siftwave {
+namespace siftwave::ingest {
 namespace {
 
 struct Country {
@@ -150,4 +150,4 @@ TEST(IngestIso3166, TheRegisterReaderKeepsEveryCode) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ingest

@@ -8,7 +8,7 @@
 #include <tuple>
 #include <vector>
 
-namespace siftwave {
+namespace siftwave::ingest {
 namespace {
 
 // More weeks per region than the reader samples records (400), so that a file sorted by region
@@ -300,4 +300,4 @@ TEST(IngestLayout, TheFluBybwFileWithOneColumnPerDistrictIsReadAsDatesDown) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ingest

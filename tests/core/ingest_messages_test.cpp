@@ -6,7 +6,7 @@
 
 #include <string>
 
-namespace siftwave {
+namespace siftwave::ingest {
 namespace {
 
 Error errorOf(const std::string& text, const IngestOptions& options = {}) {
@@ -75,4 +75,4 @@ TEST(IngestMessages, AWrongDelimiterOverrideSaysWhatTheFileUses) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ingest

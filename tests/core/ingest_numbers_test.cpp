@@ -8,7 +8,7 @@
 #include <cstdint>
 #include <string>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 namespace {
 
 ParsedCount parse(std::string_view text, char decimal = '.') {
@@ -154,4 +154,4 @@ TEST(IngestNumbers, SniffsTheDelimiter) {
 }
 
 }  // namespace
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -10,7 +10,7 @@
 #include <initializer_list>
 #include <string>
 
-namespace siftwave {
+namespace siftwave::ingest {
 namespace {
 
 namespace fs = std::filesystem;
@@ -68,4 +68,4 @@ TEST(IngestRegisterLookup, FindsTheSamplesRegisterForTheSampleDrop) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ingest

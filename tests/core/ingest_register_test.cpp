@@ -8,7 +8,7 @@
 #include <filesystem>
 #include <fstream>
 
-namespace siftwave {
+namespace siftwave::ingest {
 namespace {
 
 std::string writeTemp(const std::string& name, const std::string& text) {
@@ -78,4 +78,4 @@ TEST(IngestRegister, BadRegistersAreErrorsWithLineAndColumn) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ingest

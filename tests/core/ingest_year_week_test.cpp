@@ -15,7 +15,7 @@
 #include <tuple>
 #include <vector>
 
-namespace siftwave {
+namespace siftwave::ingest {
 namespace {
 
 const std::string kData = std::string(SIFTWAVE_TEST_DATA_DIR);
@@ -351,4 +351,4 @@ TEST(IngestYearWeek, OneWeekWrittenTwoWaysIsOneWeek) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ingest

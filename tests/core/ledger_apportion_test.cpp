@@ -5,7 +5,7 @@
 #include <numeric>
 #include <random>
 
-namespace siftwave {
+namespace siftwave::ledger {
 namespace {
 
 std::vector<std::int64_t> apportion(std::int64_t total, std::vector<std::int64_t> weights) {
@@ -93,4 +93,4 @@ TEST(LargestRemainder, IsExactForCountsWhoseProductsOverflowSixtyFourBits) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ledger

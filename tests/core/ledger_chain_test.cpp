@@ -5,7 +5,7 @@
 
 #include <gtest/gtest.h>
 
-namespace siftwave {
+namespace siftwave::ledger {
 namespace {
 
 using namespace siftwave::testing;
@@ -146,4 +146,4 @@ TEST_F(Chain, UnknownFieldsInALineAreRefused) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ledger

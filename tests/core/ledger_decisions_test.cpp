@@ -5,7 +5,7 @@
 
 #include <gtest/gtest.h>
 
-namespace siftwave {
+namespace siftwave::ledger {
 namespace {
 
 using namespace siftwave::testing;
@@ -336,4 +336,4 @@ TEST_F(Decisions, UnknownRegionMeasureOrDayIsNamed) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -6,7 +6,7 @@
 
 #include <gtest/gtest.h>
 
-namespace siftwave {
+namespace siftwave::ledger {
 namespace {
 
 using namespace siftwave::testing;
@@ -169,4 +169,4 @@ TEST(CountsAdded, ListsTheEntriesInEffectThatAddCountsWithTheirSum) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -13,7 +13,7 @@
 #include <fstream>
 #include <sstream>
 
-namespace siftwave {
+namespace siftwave::ledger {
 namespace {
 
 using namespace siftwave::testing;
@@ -217,4 +217,4 @@ TEST_F(LedgerFile, AProjectFileThatIsNotOneIsRefusedWithoutTouchingIt) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -12,7 +12,7 @@
 #include <set>
 #include <string>
 
-namespace siftwave {
+namespace siftwave::ledger {
 namespace {
 
 Date day(const char* iso) {
@@ -145,4 +145,4 @@ TEST(LedgerKinds, TheWhereTextNamesTheCellsOfEachKind) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ledger

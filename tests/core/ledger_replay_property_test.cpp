@@ -11,7 +11,7 @@
 #include <map>
 #include <random>
 
-namespace siftwave {
+namespace siftwave::ledger {
 namespace {
 
 using namespace siftwave::testing;
@@ -297,4 +297,4 @@ TEST(LedgerProperties, WithdrawingEverythingInReverseOrderRestoresTheRawDrop) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -61,48 +61,49 @@ inline void setAbsent(Drop& drop, std::size_t measure, std::size_t region, std::
     drop.tables[measure].at(region, static_cast<std::size_t>(d)) = Cell{};
 }
 
-inline std::vector<std::int64_t> values(const Cleaned& cleaned, std::size_t measure,
+inline std::vector<std::int64_t> values(const ledger::Cleaned& cleaned, std::size_t measure,
                                         std::size_t region) {
     std::vector<std::int64_t> out;
-    for (const CleanedCell& c : cleaned.series(measure, region))
+    for (const ledger::CleanedCell& c : cleaned.series(measure, region))
         out.push_back(c.hasValue() ? c.value : -999);
     return out;
 }
 
 /// Records a decision through the one door and returns its entry (fails the test on error).
-inline LedgerEntry record(const Drop& drop, Ledger& ledger, Cleaned& cleaned,
-                          const Decision& decision,
-                          const std::string& reason = "checked with the regional office") {
-    EntryMeta meta;
+inline ledger::LedgerEntry record(const Drop& drop, ledger::Ledger& ledger,
+                                  ledger::Cleaned& cleaned, const ledger::Decision& decision,
+                                  const std::string& reason = "checked with the regional office") {
+    ledger::EntryMeta meta;
     meta.author = "tester";
     meta.timestamp = "2026-03-20T09:30:00Z";
     meta.reason = reason;
-    auto entry = draftEntry(drop, ledger, cleaned, decision, meta);
+    auto entry = ledger::draftEntry(drop, ledger, cleaned, decision, meta);
     EXPECT_TRUE(entry.ok()) << (entry.ok() ? "" : entry.error().describe());
     if (!entry.ok())
         return {};
-    auto applied = applyEntry(drop, cleaned, *entry);
+    auto applied = ledger::applyEntry(drop, cleaned, *entry);
     EXPECT_TRUE(applied.ok()) << (applied.ok() ? "" : applied.error().describe());
     ledger.entries.push_back(*entry);
     return *entry;
 }
 
-inline Decision redistribution(const std::string& region, const char* date, std::int64_t excess,
-                               const char* first, const char* last, RedistributeMethod method) {
-    Decision d;
-    d.kind = DecisionKind::Redistribute;
+inline ledger::Decision redistribution(const std::string& region, const char* date,
+                                       std::int64_t excess, const char* first, const char* last,
+                                       ledger::RedistributeMethod method) {
+    ledger::Decision d;
+    d.kind = ledger::DecisionKind::Redistribute;
     d.region = region;
     d.measure = "cases";
     d.date = day(date);
     d.excess = excess;
-    d.window = DayRange{day(first), day(last)};
+    d.window = ledger::DayRange{day(first), day(last)};
     d.redistributeMethod = method;
     return d;
 }
 
-inline Decision withdrawal(std::uint64_t target) {
-    Decision d;
-    d.kind = DecisionKind::Withdraw;
+inline ledger::Decision withdrawal(std::uint64_t target) {
+    ledger::Decision d;
+    d.kind = ledger::DecisionKind::Withdraw;
     d.target = target;
     return d;
 }

@@ -8,7 +8,7 @@
 
 #include <gtest/gtest.h>
 
-namespace siftwave {
+namespace siftwave::ledger {
 namespace {
 
 using namespace siftwave::testing;
@@ -142,4 +142,4 @@ TEST_F(WeeklyDecisions, ADateOutsideTheWeeksIsNamedWithTheCalendarsLastDay) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ledger

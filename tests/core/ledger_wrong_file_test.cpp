@@ -10,7 +10,7 @@
 #include <fstream>
 #include <string>
 
-namespace siftwave {
+namespace siftwave::ledger {
 namespace {
 
 namespace fs = std::filesystem;
@@ -78,4 +78,4 @@ TEST_F(LedgerWrongFile, ATornEntryIsStillReportedAsTorn) {
 }
 
 }  // namespace
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -19,15 +19,15 @@ const std::string kDrop = std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_current
 
 struct Sample {
     Drop drop;
-    Ledger ledger;
-    Cleaned cleaned;
+    ledger::Ledger ledger;
+    ledger::Cleaned cleaned;
 };
 
-void record(Sample& s, const Decision& d, const std::string& reason) {
-    auto entry =
-        draftEntry(s.drop, s.ledger, s.cleaned, d, {"tester", "2026-12-01T09:00:00Z", reason});
+void record(Sample& s, const ledger::Decision& d, const std::string& reason) {
+    auto entry = ledger::draftEntry(s.drop, s.ledger, s.cleaned, d,
+                                    {"tester", "2026-12-01T09:00:00Z", reason});
     ASSERT_TRUE(entry.ok()) << entry.error().describe();
-    ASSERT_TRUE(applyEntry(s.drop, s.cleaned, *entry).ok());
+    ASSERT_TRUE(ledger::applyEntry(s.drop, s.cleaned, *entry).ok());
     s.ledger.entries.push_back(*entry);
 }
 
@@ -39,29 +39,29 @@ Date day(const char* iso) {
 // 1301 excluded, an accept of 1304 and its withdrawal.
 Sample sample() {
     Sample s;
-    s.drop = readDrop(kDrop).value();
-    s.cleaned = Cleaned(s.drop);
-    Decision backlog;
-    backlog.kind = DecisionKind::Redistribute;
+    s.drop = ingest::readDrop(kDrop).value();
+    s.cleaned = ledger::Cleaned(s.drop);
+    ledger::Decision backlog;
+    backlog.kind = ledger::DecisionKind::Redistribute;
     backlog.region = "1301";
     backlog.measure = "cases";
     backlog.date = day("2026-08-24");
-    backlog.window = DayRange{day("2026-08-03"), day("2026-08-23")};
+    backlog.window = ledger::DayRange{day("2026-08-03"), day("2026-08-23")};
     backlog.excess = 2444;
     record(s, backlog, "three weeks held back");
-    Decision exclude;
-    exclude.kind = DecisionKind::Exclude;
+    ledger::Decision exclude;
+    exclude.kind = ledger::DecisionKind::Exclude;
     exclude.region = "1301";
     exclude.measure = "cases";
-    exclude.window = DayRange{day("2026-03-02"), day("2026-03-08")};
+    exclude.window = ledger::DayRange{day("2026-03-02"), day("2026-03-08")};
     record(s, exclude, "test week");
-    Decision accept;
-    accept.kind = DecisionKind::Accept;
+    ledger::Decision accept;
+    accept.kind = ledger::DecisionKind::Accept;
     accept.region = "1301";
     accept.measure = "cases";
     record(s, accept, "looked at");
-    Decision withdraw;
-    withdraw.kind = DecisionKind::Withdraw;
+    ledger::Decision withdraw;
+    withdraw.kind = ledger::DecisionKind::Withdraw;
     withdraw.target = 3;
     record(s, withdraw, "not yet");
     return s;
@@ -97,15 +97,15 @@ void expectCentral95(double low, double high, Pmf pmf) {
 // Real weekly data (r-cran-surveillance, dataset fluBYBW; tests/data/real/SOURCES.md): the
 // figure is of weekly cases, smoothed over three weeks, and names its weeks.
 TEST(ReportFigureSpec, AWeeklyReleaseMakesAFigureOfWeeks) {
-    const Drop drop =
-        readDrop(std::string(SIFTWAVE_TEST_DATA_DIR) + "/real/fluBYBW_weekly_long_by_date.csv")
-            .value();
-    const Cleaned cleaned(drop);
+    const Drop drop = ingest::readDrop(std::string(SIFTWAVE_TEST_DATA_DIR) +
+                                       "/real/fluBYBW_weekly_long_by_date.csv")
+                          .value();
+    const ledger::Cleaned cleaned(drop);
     report::FigureRequest request;
     request.region = "8327";
     request.exportDate = "2026-12-04";
     const report::FigureSpec spec =
-        report::buildFigureSpec(drop, Ledger{}, cleaned, request).value();
+        report::buildFigureSpec(drop, ledger::Ledger{}, cleaned, request).value();
     EXPECT_TRUE(spec.axis.weekly());
     EXPECT_EQ(spec.periods(), 156);
     EXPECT_EQ(spec.title, "Region 8327: weekly cases");
@@ -135,7 +135,7 @@ TEST(ReportCaption, LinesNameTheFileHashesLedgerFitAndTheCaution) {
     EXPECT_EQ(lines[3], "Exported 2026-12-01 by Siftwave 0.1.0");
     EXPECT_EQ(lines[4], fit::caution);
     const auto none =
-        report::captionLines(report::captionFacts(s.drop, Ledger{}, nullptr, "2026-12-01"));
+        report::captionLines(report::captionFacts(s.drop, ledger::Ledger{}, nullptr, "2026-12-01"));
     EXPECT_EQ(none[1], "Ledger: none, raw counts as reported");
     EXPECT_EQ(none[2], "Fit: none");
 }
@@ -152,7 +152,7 @@ TEST(ReportFigureSpec, MarksEachDecisionInEffectFromTheLedger) {
     ASSERT_EQ(spec->decisions.size(), 1u);  // the accept (#3) is withdrawn
     const report::DecisionMark& m = spec->decisions[0];
     EXPECT_EQ(m.sequence, 1u);
-    EXPECT_EQ(m.kind, DecisionKind::Redistribute);
+    EXPECT_EQ(m.kind, ledger::DecisionKind::Redistribute);
     EXPECT_EQ(m.first, day("2026-08-24"));
     EXPECT_EQ(m.last, day("2026-08-24"));
     EXPECT_EQ(m.count, 2444);
@@ -274,7 +274,7 @@ TEST(ReportFigureSpec, TheBandIsTheFittedCurvesOwnConfidenceBand) {
 TEST(ReportFigureSpec, ThePreviousReleaseIsAlignedByDate) {
     const Sample s = sample();
     const Drop previous =
-        readDrop(std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_previous.csv").value();
+        ingest::readDrop(std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_previous.csv").value();
     report::FigureRequest request;
     request.region = "1405";
     request.previous = &previous;
@@ -349,7 +349,7 @@ TEST(ReportBriefing, ListsEveryEntryAndReconcilesTheTotals) {
     ASSERT_EQ(briefing->figures.size(), 1u);
     EXPECT_EQ(briefing->figures[0].regionCode, "1301");
     bool found = false;
-    for (const ReconciliationRow& row : briefing->reconciliation)
+    for (const ledger::ReconciliationRow& row : briefing->reconciliation)
         if (row.region == "1301" && row.measure == "cases") {
             found = true;
             EXPECT_EQ(row.difference(), -briefing->figures[0].excluded[0].count);
@@ -357,7 +357,7 @@ TEST(ReportBriefing, ListsEveryEntryAndReconcilesTheTotals) {
         }
     EXPECT_TRUE(found);
     const std::string html = report::briefingHtml(*briefing, {});
-    for (const LedgerEntry& e : s.ledger.entries) {
+    for (const ledger::LedgerEntry& e : s.ledger.entries) {
         EXPECT_NE(html.find(report::htmlEscaped(e.reason)), std::string::npos) << e.reason;
         EXPECT_NE(html.find(e.hash.substr(0, 12)), std::string::npos);
     }

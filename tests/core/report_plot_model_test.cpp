@@ -44,25 +44,25 @@ void expectEveryPerPeriodSeriesOnTheAxis(const report::PlotModel& m) {
 // The sample's planted backlog (samples/manifest.json, P06) redistributed on 1301's cases.
 struct Sample {
     Drop drop;
-    Ledger ledger;
-    Cleaned cleaned;
+    ledger::Ledger ledger;
+    ledger::Cleaned cleaned;
 };
 
 Sample sampleWithBacklogDecision() {
     Sample s;
-    s.drop = readDrop(kDrop).value();
-    s.cleaned = Cleaned(s.drop);
-    Decision backlog;
-    backlog.kind = DecisionKind::Redistribute;
+    s.drop = ingest::readDrop(kDrop).value();
+    s.cleaned = ledger::Cleaned(s.drop);
+    ledger::Decision backlog;
+    backlog.kind = ledger::DecisionKind::Redistribute;
     backlog.region = "1301";
     backlog.measure = "cases";
     backlog.date = day("2026-08-24");
-    backlog.window = DayRange{day("2026-08-03"), day("2026-08-23")};
+    backlog.window = ledger::DayRange{day("2026-08-03"), day("2026-08-23")};
     backlog.excess = 2444;
-    auto entry = draftEntry(s.drop, s.ledger, s.cleaned, backlog,
-                            {"tester", "2026-12-01T09:00:00Z", "three weeks held back"});
+    auto entry = ledger::draftEntry(s.drop, s.ledger, s.cleaned, backlog,
+                                    {"tester", "2026-12-01T09:00:00Z", "three weeks held back"});
     EXPECT_TRUE(entry.ok());
-    EXPECT_TRUE(applyEntry(s.drop, s.cleaned, *entry).ok());
+    EXPECT_TRUE(ledger::applyEntry(s.drop, s.cleaned, *entry).ok());
     s.ledger.entries.push_back(*entry);
     return s;
 }
@@ -70,12 +70,13 @@ Sample sampleWithBacklogDecision() {
 }  // namespace
 
 TEST(ReportPlotModel, ADailySampleIsPlottedPerDayWithDailyLabels) {
-    const Drop drop = readDrop(kDrop).value();
-    const Cleaned cleaned(drop);
+    const Drop drop = ingest::readDrop(kDrop).value();
+    const ledger::Cleaned cleaned(drop);
     report::PlotRequest request;
     request.region = "1301";
     request.secondMeasure = drop.measures.size() > 1 ? drop.measures[1] : std::string();
-    const report::PlotModel m = report::buildPlotModel(drop, Ledger{}, cleaned, request).value();
+    const report::PlotModel m =
+        report::buildPlotModel(drop, ledger::Ledger{}, cleaned, request).value();
     EXPECT_FALSE(m.axis.weekly());
     EXPECT_EQ(m.periods(), drop.axis.periods());
     expectEveryPerPeriodSeriesOnTheAxis(m);
@@ -96,11 +97,12 @@ TEST(ReportPlotModel, ADailySampleIsPlottedPerDayWithDailyLabels) {
 }
 
 TEST(ReportPlotModel, AWeeklyReleaseIsPlottedPerWeekWithWeeklyLabels) {
-    const Drop drop = readDrop(kWeekly).value();
-    const Cleaned cleaned(drop);
+    const Drop drop = ingest::readDrop(kWeekly).value();
+    const ledger::Cleaned cleaned(drop);
     report::PlotRequest request;
     request.region = "8327";
-    const report::PlotModel m = report::buildPlotModel(drop, Ledger{}, cleaned, request).value();
+    const report::PlotModel m =
+        report::buildPlotModel(drop, ledger::Ledger{}, cleaned, request).value();
     EXPECT_TRUE(m.axis.weekly());
     EXPECT_EQ(m.periods(), 156);
     expectEveryPerPeriodSeriesOnTheAxis(m);
@@ -125,13 +127,14 @@ TEST(ReportPlotModel, TheCellsADecisionChangedNameItsEntry) {
 }
 
 TEST(ReportPlotModel, FindingsOfTheRegionAreMarkedOnTheirPeriods) {
-    const Drop drop = readDrop(kDrop).value();
-    const Cleaned cleaned(drop);
+    const Drop drop = ingest::readDrop(kDrop).value();
+    const ledger::Cleaned cleaned(drop);
     const scan::ScanReport scanned = scan::scanDrop(drop).value();
     report::PlotRequest request;
     request.region = "1301";
     request.findings = scanned.findings;
-    const report::PlotModel m = report::buildPlotModel(drop, Ledger{}, cleaned, request).value();
+    const report::PlotModel m =
+        report::buildPlotModel(drop, ledger::Ledger{}, cleaned, request).value();
     std::size_t expected = 0;
     for (const scan::Finding& f : scanned.findings)
         if (f.region == "1301" && f.first && f.last && (!f.measure || *f.measure == "cases"))

@@ -273,7 +273,7 @@ std::vector<json> plantedOfKind(const json& manifest, const std::string& kind) {
 }
 
 Result<Drop> readSample(const char* name) {
-    return readDrop((kSamples / name).string());
+    return ingest::readDrop((kSamples / name).string());
 }
 
 TEST(SamplesDrop, CurrentReleaseReadsWithTheNaAnd0412CodesIntact) {
@@ -424,7 +424,7 @@ TEST(SamplesDrop, SemicolonDatesDownCopyHoldsTheSameCases) {
 }
 
 TEST(SamplesDrop, RegisterReadsWithItsHierarchy) {
-    const auto reg = readRegister((kSamples / "quenmara_regions.csv").string());
+    const auto reg = ingest::readRegister((kSamples / "quenmara_regions.csv").string());
     ASSERT_TRUE(reg.ok()) << reg.error().describe();
     EXPECT_EQ(reg->entries.size(), 18u);
     EXPECT_TRUE(reg->hasHierarchy());

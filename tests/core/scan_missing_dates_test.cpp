@@ -73,15 +73,15 @@ TEST(MissingDates, AFullyReportedRegionHasNone) {
 /// What the finding's suggested decision does to the region's total on the drop as read.
 std::int64_t totalChangeOfSuggestion(const Drop& drop, const Finding& f,
                                      const std::string& measure) {
-    Result<Decision> d = suggestedDecision(f, measure);
+    Result<ledger::Decision> d = suggestedDecision(f, measure);
     EXPECT_TRUE(d.ok()) << d.error().describe();
-    Result<Cleaned> cleaned = replay(drop, Ledger{});
+    Result<ledger::Cleaned> cleaned = ledger::replay(drop, ledger::Ledger{});
     EXPECT_TRUE(cleaned.ok());
-    Result<Effect> effect = previewDecision(drop, *cleaned, *d);
+    Result<ledger::Effect> effect = ledger::previewDecision(drop, *cleaned, *d);
     EXPECT_TRUE(effect.ok()) << effect.error().describe();
     std::int64_t change = 0;
     if (effect.ok()) {
-        for (const TotalChange& t : effect->totals)
+        for (const ledger::TotalChange& t : effect->totals)
             change += t.change();
     }
     return change;
@@ -188,16 +188,16 @@ TEST(MissingDates, RealCaseListTallyGetsTrueZeroSuggestionsThatKeepItsTotal) {
     tally << "date,region,cases\n";
     for (const auto& [date, cases] : perDay)
         tally << date << ",DE," << cases << "\n";
-    Result<Drop> drop = parseDrop(tally.str(), "husO104Hosp-tally.csv");
+    Result<Drop> drop = ingest::parseDrop(tally.str(), "husO104Hosp-tally.csv");
     ASSERT_TRUE(drop.ok()) << drop.error().describe();
     ASSERT_FALSE(drop->axis.weekly());
-    EXPECT_EQ(rawTotal(*drop, 0, 0), 630);
+    EXPECT_EQ(ledger::rawTotal(*drop, 0, 0), 630);
 
     Result<ScanReport> report = scanDrop(*drop);
     ASSERT_TRUE(report.ok());
     std::vector<std::pair<std::string, std::string>> runs;
-    Ledger ledger;
-    Result<Cleaned> cleaned = replay(*drop, ledger);
+    ledger::Ledger ledger;
+    Result<ledger::Cleaned> cleaned = ledger::replay(*drop, ledger);
     ASSERT_TRUE(cleaned.ok());
     for (const Finding& f : report->findings) {
         if (f.kind != FindingKind::MissingDates)
@@ -205,15 +205,15 @@ TEST(MissingDates, RealCaseListTallyGetsTrueZeroSuggestionsThatKeepItsTotal) {
         runs.emplace_back(f.first->iso(), f.last->iso());
         EXPECT_TRUE(f.evidence["probably_true_zeros"].get<bool>()) << f.evidence.dump();
         EXPECT_EQ(suggestionToJson(f)["method"], "zero") << f.evidence.dump();
-        Result<Decision> d = suggestedDecision(f, "cases");
+        Result<ledger::Decision> d = suggestedDecision(f, "cases");
         ASSERT_TRUE(d.ok());
-        EntryMeta meta;
+        ledger::EntryMeta meta;
         meta.reason = "case list tally: no row means no case";
         meta.author = "tester";
         meta.timestamp = "2026-03-20T09:30:00Z";
-        Result<LedgerEntry> entry = draftEntry(*drop, ledger, *cleaned, *d, meta);
+        Result<ledger::LedgerEntry> entry = ledger::draftEntry(*drop, ledger, *cleaned, *d, meta);
         ASSERT_TRUE(entry.ok()) << entry.error().describe();
-        ASSERT_TRUE(applyEntry(*drop, *cleaned, *entry).ok());
+        ASSERT_TRUE(ledger::applyEntry(*drop, *cleaned, *entry).ok());
         ledger.entries.push_back(*entry);
     }
     const std::vector<std::pair<std::string, std::string>> expected = {
@@ -225,7 +225,7 @@ TEST(MissingDates, RealCaseListTallyGetsTrueZeroSuggestionsThatKeepItsTotal) {
     std::sort(runs.begin(), runs.end());
     EXPECT_EQ(runs, expected);
     EXPECT_EQ(cleaned->total(0, 0), 630);
-    EXPECT_FALSE(countsAddedByDecisions(ledger).any());
+    EXPECT_FALSE(ledger::countsAddedByDecisions(ledger).any());
 }
 
 }  // namespace

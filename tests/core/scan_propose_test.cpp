@@ -43,7 +43,7 @@ TEST(ProposeDecision, TheScansOwnSuggestionForTheCellComesFirstAndNamesTheFindin
     ASSERT_TRUE(estimated.ok());
     EXPECT_EQ(estimated->source, ProposalSource::BacklogEstimate);
     EXPECT_TRUE(estimated->decision.finding.empty());
-    EXPECT_EQ(estimated->decision.kind, DecisionKind::Redistribute);
+    EXPECT_EQ(estimated->decision.kind, ledger::DecisionKind::Redistribute);
     EXPECT_EQ(estimated->decision.excess, p->decision.excess);
     EXPECT_EQ(estimated->decision.window, p->decision.window);
     EXPECT_EQ(estimated->decision.redistributeMethod, p->decision.redistributeMethod);

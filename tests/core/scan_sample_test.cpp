@@ -30,11 +30,11 @@ std::optional<std::string> textOrNull(const nlohmann::json& v) {
 class ScanOnSample : public ::testing::Test {
 protected:
     void SetUp() override {
-        auto current = readDrop((kSamples / "quenmara_current.csv").string());
+        auto current = ingest::readDrop((kSamples / "quenmara_current.csv").string());
         ASSERT_TRUE(current.ok()) << current.error().describe();
-        auto previous = readDrop((kSamples / "quenmara_previous.csv").string());
+        auto previous = ingest::readDrop((kSamples / "quenmara_previous.csv").string());
         ASSERT_TRUE(previous.ok()) << previous.error().describe();
-        auto regions = readRegister((kSamples / "quenmara_regions.csv").string());
+        auto regions = ingest::readRegister((kSamples / "quenmara_regions.csv").string());
         ASSERT_TRUE(regions.ok()) << regions.error().describe();
         m_current = std::move(*current);
         m_previous = std::move(*previous);

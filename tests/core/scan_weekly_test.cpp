@@ -84,7 +84,7 @@ const Finding* findingOf(const ScanReport& report, FindingKind kind, const std::
 // district, Bavaria and Baden-Wuerttemberg, RKI SurvStat; 16 districts x 156 ISO weeks from
 // 2001-W01, every week reported, 2392 of the 2496 counts zero: tests/data/real/SOURCES.md).
 TEST(ScanOnWeeklyDrops, RealFluBybwNotificationsGiveNoMissingPeriodOrWeekdayFinding) {
-    Result<Drop> drop = readDrop(kReal + "fluBYBW_weekly_long_by_region.csv");
+    Result<Drop> drop = ingest::readDrop(kReal + "fluBYBW_weekly_long_by_region.csv");
     ASSERT_TRUE(drop.ok()) << drop.error().describe();
     ASSERT_TRUE(drop->axis.weekly());
     Result<ScanReport> report = scanDrop(*drop);

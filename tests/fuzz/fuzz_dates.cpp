@@ -12,11 +12,11 @@
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
     const std::string_view text(reinterpret_cast<const char*>(data), size);
-    using siftwave::detail::DateFormat;
-    (void)siftwave::detail::dateShapeOf(text);
+    using siftwave::ingest::detail::DateFormat;
+    (void)siftwave::ingest::detail::dateShapeOf(text);
     for (DateFormat f : {DateFormat::Iso, DateFormat::Compact, DateFormat::DayFirst,
                          DateFormat::MonthFirst, DateFormat::IsoWeek}) {
-        const auto d = siftwave::detail::parseDateAs(text, f);
+        const auto d = siftwave::ingest::detail::parseDateAs(text, f);
         if (!d)
             continue;
         if (siftwave::Date::fromIso(d->iso()) != d)

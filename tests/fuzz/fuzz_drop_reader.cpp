@@ -29,8 +29,8 @@ void checkDrop(const siftwave::Drop& drop) {
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
     const std::string_view bytes(reinterpret_cast<const char*>(data), size);
-    siftwave::IngestOptions options;
-    if (auto drop = siftwave::parseDrop(bytes, "fuzz.csv", options); drop.ok())
+    siftwave::ingest::IngestOptions options;
+    if (auto drop = siftwave::ingest::parseDrop(bytes, "fuzz.csv", options); drop.ok())
         checkDrop(*drop);
     if (size == 0)
         return 0;
@@ -51,7 +51,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
         default:
             return 0;
     }
-    if (auto drop = siftwave::parseDrop(bytes, "fuzz.csv", options); drop.ok())
+    if (auto drop = siftwave::ingest::parseDrop(bytes, "fuzz.csv", options); drop.ok())
         checkDrop(*drop);
     return 0;
 }

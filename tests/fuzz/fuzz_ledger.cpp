@@ -8,6 +8,6 @@
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
     const std::string_view bytes(reinterpret_cast<const char*>(data), size);
-    (void)siftwave::parseLedger(bytes, "fuzz.jsonl");
+    (void)siftwave::ledger::parseLedger(bytes, "fuzz.jsonl");
     return 0;
 }

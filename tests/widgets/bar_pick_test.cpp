@@ -64,8 +64,8 @@ private Q_SLOTS:
 
         siftwave::widgets::DecisionPane* pane = window.decisionPane();
         QVERIFY(pane->isActive());
-        const siftwave::Decision decision = pane->decision();
-        QCOMPARE(decision.kind, siftwave::DecisionKind::Redistribute);
+        const siftwave::ledger::Decision decision = pane->decision();
+        QCOMPARE(decision.kind, siftwave::ledger::DecisionKind::Redistribute);
         QCOMPARE(decision.region, std::string("1301"));
         QCOMPARE(*decision.date, *siftwave::Date::fromIso("2026-08-24"));
         QVERIFY(!decision.finding.empty());  // the scan's finding for that day answers it
@@ -77,7 +77,7 @@ private Q_SLOTS:
         QCOMPARE(picked.count(), 0);
         QVERIFY(window.applyCurrentDecision());
         QCOMPARE(wb.cleaned().total(0, *drop.regionIndex("1301")),
-                 siftwave::rawTotal(drop, 0, *drop.regionIndex("1301")));
+                 siftwave::ledger::rawTotal(drop, 0, *drop.regionIndex("1301")));
     }
 
     void theContextMenuRedistributesAnUnflaggedDayWithTheCoresEstimate() {
@@ -101,7 +101,7 @@ private Q_SLOTS:
 
         siftwave::widgets::DecisionPane* pane = window.decisionPane();
         QVERIFY(pane->isActive());
-        siftwave::Decision decision = pane->decision();
+        siftwave::ledger::Decision decision = pane->decision();
         const auto estimate = siftwave::scan::estimateBacklog(drop, "cases", "1203", date);
         QVERIFY(estimate.ok());
         QCOMPARE(decision.excess, estimate->excess);
@@ -125,12 +125,12 @@ private Q_SLOTS:
         QTest::mouseClick(pane->findChild<QPushButton*>(QStringLiteral("applyDecision")),
                           Qt::LeftButton);
         QCOMPARE(wb.ledger().entries.size(), std::size_t(1));
-        const siftwave::LedgerEntry& entry = wb.ledger().entries.front();
-        QCOMPARE(entry.decision.kind, siftwave::DecisionKind::Redistribute);
+        const siftwave::ledger::LedgerEntry& entry = wb.ledger().entries.front();
+        QCOMPARE(entry.decision.kind, siftwave::ledger::DecisionKind::Redistribute);
         QCOMPARE(entry.decision.excess, std::int64_t(40));
         QCOMPARE(entry.reason, std::string("a Monday catch-up, spread back (test)"));
         QCOMPARE(wb.cleaned().cell(0, region, day).value, static_cast<std::int64_t>(before - 40));
-        QCOMPARE(wb.cleaned().total(0, region), siftwave::rawTotal(drop, 0, region));
+        QCOMPARE(wb.cleaned().total(0, region), siftwave::ledger::rawTotal(drop, 0, region));
         QVERIFY(wb.chainOk());
     }
 

@@ -106,9 +106,9 @@ private Q_SLOTS:
 
         QVERIFY(decideThroughTheWidgets(*gap, QStringLiteral("four days lost in transfer (test)"),
                                         QStringLiteral("linear")));
-        const siftwave::LedgerEntry& entry = wb.ledger().entries.back();
-        QCOMPARE(entry.decision.kind, siftwave::DecisionKind::FillMissing);
-        QCOMPARE(entry.decision.fillMethod, siftwave::FillMethod::Linear);
+        const siftwave::ledger::LedgerEntry& entry = wb.ledger().entries.back();
+        QCOMPARE(entry.decision.kind, siftwave::ledger::DecisionKind::FillMissing);
+        QCOMPARE(entry.decision.fillMethod, siftwave::ledger::FillMethod::Linear);
         QCOMPARE(QString::fromStdString(entry.decision.finding), QString::fromStdString(gap->id));
         QCOMPARE(entry.reason, std::string("four days lost in transfer (test)"));
         // Linear filling states its change: the total moves by the sum of the four new values,
@@ -122,16 +122,17 @@ private Q_SLOTS:
         }
         QVERIFY(filled > 0);
         QCOMPARE(*wb.cleanedTotal(QStringLiteral("1310"), int(cases)), totalBefore + filled);
-        for (const siftwave::TotalChange& t : entry.effect.totals)
+        for (const siftwave::ledger::TotalChange& t : entry.effect.totals)
             if (t.region == "1310" && t.measure == "cases")
                 QCOMPARE(t.change(), filled);
         for (std::size_t r = 0; r < drop.regionCodes.size(); ++r)
             if (r != region)
-                QCOMPARE(wb.cleaned().total(cases, r), siftwave::rawTotal(drop, cases, r));
+                QCOMPARE(wb.cleaned().total(cases, r), siftwave::ledger::rawTotal(drop, cases, r));
         QVERIFY(wb.chainOk());
 
         m_window->undoStack()->undo();
-        QCOMPARE(wb.ledger().entries.back().decision.kind, siftwave::DecisionKind::Withdraw);
+        QCOMPARE(wb.ledger().entries.back().decision.kind,
+                 siftwave::ledger::DecisionKind::Withdraw);
         for (int d = first; d < first + 4; ++d)
             QVERIFY(!wb.cleaned().cell(cases, region, d).hasValue());
         QCOMPARE(*wb.cleanedTotal(QStringLiteral("1310"), int(cases)), totalBefore);
@@ -148,13 +149,13 @@ private Q_SLOTS:
         const std::size_t cases = *drop.measureIndex("cases");
         const int d = day("2026-05-30") - drop.axis.first();
         QCOMPARE(drop.cell(cases, region, d).value, 18);
-        const std::int64_t raw = siftwave::rawTotal(drop, cases, region);
+        const std::int64_t raw = siftwave::ledger::rawTotal(drop, cases, region);
 
         // "first" (the suggestion, the rows agree) keeps the value and the total.
         QVERIFY(decideThroughTheWidgets(*duplicate, QStringLiteral("the same row sent twice"),
                                         QStringLiteral("first")));
         QCOMPARE(wb.ledger().entries.back().decision.kind,
-                 siftwave::DecisionKind::ResolveDuplicate);
+                 siftwave::ledger::DecisionKind::ResolveDuplicate);
         QCOMPARE(wb.cleaned().cell(cases, region, d).value, 18);
         QCOMPARE(wb.cleaned().total(cases, region), raw);
         m_window->undoStack()->undo();
@@ -163,8 +164,8 @@ private Q_SLOTS:
         QVERIFY(decideThroughTheWidgets(*duplicate,
                                         QStringLiteral("two sites reporting (test of sum)"),
                                         QStringLiteral("sum")));
-        const siftwave::LedgerEntry& entry = wb.ledger().entries.back();
-        QCOMPARE(entry.decision.duplicateRule, siftwave::DuplicateRule::Sum);
+        const siftwave::ledger::LedgerEntry& entry = wb.ledger().entries.back();
+        QCOMPARE(entry.decision.duplicateRule, siftwave::ledger::DuplicateRule::Sum);
         QCOMPARE(wb.cleaned().cell(cases, region, d).value, 36);
         QCOMPARE(wb.cleaned().total(cases, region), raw + 18);
         QVERIFY(wb.chainOk());
@@ -184,15 +185,16 @@ private Q_SLOTS:
         const std::size_t from = *drop.regionIndex("412");
         std::vector<std::int64_t> sums;
         for (std::size_t m = 0; m < drop.measures.size(); ++m)
-            sums.push_back(siftwave::rawTotal(drop, m, into) + siftwave::rawTotal(drop, m, from));
+            sums.push_back(siftwave::ledger::rawTotal(drop, m, into) +
+                           siftwave::ledger::rawTotal(drop, m, from));
         const int lastWeek = day("2026-11-23") - drop.axis.first();
         QVERIFY(!drop.cell(0, into, lastWeek).reported());
         QVERIFY(drop.cell(0, from, lastWeek).reported());
 
         QVERIFY(
             decideThroughTheWidgets(*variant, QStringLiteral("412 is Skaldrin without its zero")));
-        const siftwave::LedgerEntry& entry = wb.ledger().entries.back();
-        QCOMPARE(entry.decision.kind, siftwave::DecisionKind::MergeCodes);
+        const siftwave::ledger::LedgerEntry& entry = wb.ledger().entries.back();
+        QCOMPARE(entry.decision.kind, siftwave::ledger::DecisionKind::MergeCodes);
         QCOMPARE(entry.decision.variant, std::string("412"));
         QCOMPARE(entry.decision.into, std::string("0412"));
         for (std::size_t m = 0; m < drop.measures.size(); ++m) {
@@ -205,8 +207,8 @@ private Q_SLOTS:
 
         m_window->undoStack()->undo();
         for (std::size_t m = 0; m < drop.measures.size(); ++m) {
-            QCOMPARE(wb.cleaned().total(m, into), siftwave::rawTotal(drop, m, into));
-            QCOMPARE(wb.cleaned().total(m, from), siftwave::rawTotal(drop, m, from));
+            QCOMPARE(wb.cleaned().total(m, into), siftwave::ledger::rawTotal(drop, m, into));
+            QCOMPARE(wb.cleaned().total(m, from), siftwave::ledger::rawTotal(drop, m, from));
         }
         QVERIFY(!wb.cleaned().cell(0, into, lastWeek).hasValue());
     }

@@ -77,15 +77,15 @@ private Q_SLOTS:
         QVERIFY(wb.ledger().entries.empty());
         // The sample's planted backlog (samples/manifest.json, P06): 2,444 extra cases of
         // district 1301 on 2026-08-24, held back from 2026-08-03..2026-08-23.
-        siftwave::Decision backlog;
-        backlog.kind = siftwave::DecisionKind::Redistribute;
+        siftwave::ledger::Decision backlog;
+        backlog.kind = siftwave::ledger::DecisionKind::Redistribute;
         backlog.region = "1301";
         backlog.measure = "cases";
         backlog.date = siftwave::Date::fromIso("2026-08-24");
-        backlog.window = siftwave::DayRange{*siftwave::Date::fromIso("2026-08-03"),
-                                            *siftwave::Date::fromIso("2026-08-23")};
+        backlog.window = siftwave::ledger::DayRange{*siftwave::Date::fromIso("2026-08-03"),
+                                                    *siftwave::Date::fromIso("2026-08-23")};
         backlog.excess = 2444;
-        backlog.redistributeMethod = siftwave::RedistributeMethod::Proportional;
+        backlog.redistributeMethod = siftwave::ledger::RedistributeMethod::Proportional;
         auto applied = wb.apply(backlog, QStringLiteral("three weeks held back (test)"));
         QVERIFY2(applied.ok(), applied.ok() ? "" : applied.error().describe().c_str());
         QCOMPARE(wb.ledger().entries.size(), std::size_t(1));

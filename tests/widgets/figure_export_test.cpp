@@ -36,49 +36,50 @@ constexpr std::int64_t kExcess = 2444;
 struct Fixture {
     Drop drop;
     RegionRegister regions;
-    Ledger ledger;
-    Cleaned cleaned;
+    ledger::Ledger ledger;
+    ledger::Cleaned cleaned;
 };
 
 // Records one decision through the ledger's door; a refusal stops the test program.
-void record(Fixture& f, const Decision& d, const std::string& reason, const char* time) {
-    auto entry = draftEntry(f.drop, f.ledger, f.cleaned, d, EntryMeta{"tester", time, reason});
+void record(Fixture& f, const ledger::Decision& d, const std::string& reason, const char* time) {
+    auto entry = ledger::draftEntry(f.drop, f.ledger, f.cleaned, d,
+                                    ledger::EntryMeta{"tester", time, reason});
     if (!entry)
         qFatal("draftEntry refused: %s", entry.error().describe().c_str());
-    if (Status s = applyEntry(f.drop, f.cleaned, *entry); !s)
+    if (Status s = ledger::applyEntry(f.drop, f.cleaned, *entry); !s)
         qFatal("applyEntry refused: %s", s.error().describe().c_str());
     f.ledger.entries.push_back(*entry);
 }
 
 Fixture sampleWithDecisions(bool decisions) {
     Fixture f;
-    f.drop = readDrop(kCurrent).value();
-    f.regions = readRegister(kRegister).value();
-    f.cleaned = Cleaned(f.drop);
+    f.drop = ingest::readDrop(kCurrent).value();
+    f.regions = ingest::readRegister(kRegister).value();
+    f.cleaned = ledger::Cleaned(f.drop);
     if (!decisions)
         return f;
-    Decision backlog;
-    backlog.kind = DecisionKind::Redistribute;
+    ledger::Decision backlog;
+    backlog.kind = ledger::DecisionKind::Redistribute;
     backlog.region = "1301";
     backlog.measure = "cases";
     backlog.date = Date::fromIso("2026-08-24");
-    backlog.window = DayRange{*Date::fromIso("2026-08-03"), *Date::fromIso("2026-08-23")};
+    backlog.window = ledger::DayRange{*Date::fromIso("2026-08-03"), *Date::fromIso("2026-08-23")};
     backlog.excess = kExcess;
-    backlog.redistributeMethod = RedistributeMethod::Proportional;
+    backlog.redistributeMethod = ledger::RedistributeMethod::Proportional;
     record(f, backlog, "three weeks held back, sent on 24 August", "2026-12-01T09:00:00Z");
-    Decision exclude;
-    exclude.kind = DecisionKind::Exclude;
+    ledger::Decision exclude;
+    exclude.kind = ledger::DecisionKind::Exclude;
     exclude.region = "1301";
     exclude.measure = "cases";
-    exclude.window = DayRange{*Date::fromIso("2026-03-01"), *Date::fromIso("2026-03-07")};
+    exclude.window = ledger::DayRange{*Date::fromIso("2026-03-01"), *Date::fromIso("2026-03-07")};
     record(f, exclude, "test week of the new lab system", "2026-12-01T09:05:00Z");
-    Decision accept;
-    accept.kind = DecisionKind::Accept;
+    ledger::Decision accept;
+    accept.kind = ledger::DecisionKind::Accept;
     accept.region = "1304";
     accept.measure = "cases";
     record(f, accept, "looked at, kept as reported", "2026-12-01T09:10:00Z");
-    Decision withdraw;
-    withdraw.kind = DecisionKind::Withdraw;
+    ledger::Decision withdraw;
+    withdraw.kind = ledger::DecisionKind::Withdraw;
     withdraw.target = 3;
     record(f, withdraw, "accepted the wrong district", "2026-12-01T09:12:00Z");
     return f;
@@ -568,7 +569,7 @@ private Q_SLOTS:
         QVERIFY(widgets::writeBriefingReport(pdf, briefing).ok());
         const QString pdfText =
             normalised(runTool(QStringLiteral("pdftotext"), {pdf, QStringLiteral("-")}));
-        for (const LedgerEntry& e : f.ledger.entries) {
+        for (const ledger::LedgerEntry& e : f.ledger.entries) {
             const QString reason = QString::fromStdString(e.reason);
             const QString hash = QString::fromStdString(e.hash.substr(0, 12));
             QVERIFY2(page.contains(reason), qPrintable(reason));
@@ -608,14 +609,14 @@ private Q_SLOTS:
                  qPrintable(text.left(3000)));
 
         // Every ledger entry (with its reason) and the reconciliation of the shown regions.
-        for (const LedgerEntry& e : f.ledger.entries)
+        for (const ledger::LedgerEntry& e : f.ledger.entries)
             QVERIFY2(text.contains(QString::fromStdString(e.reason)), e.reason.c_str());
         QVERIFY(text.contains(QStringLiteral("Reconciliation")));
         // Table rows read across with -layout (pdftotext's default may read a table by columns).
         const QString layout = normalised(runTool(
             QStringLiteral("pdftotext"), {QStringLiteral("-layout"), pdf, QStringLiteral("-")}));
         QVERIFY(!briefing.reconciliation.empty());
-        for (const ReconciliationRow& row : briefing.reconciliation) {
+        for (const ledger::ReconciliationRow& row : briefing.reconciliation) {
             const QString line =
                 QStringLiteral("%1 %2 %3 %4")
                     .arg(QString::fromStdString(row.region), QString::fromStdString(row.measure),
@@ -626,7 +627,7 @@ private Q_SLOTS:
         }
         // 1301 lost the excluded test week: its cleaned total is below its raw total.
         const std::size_t r1301 = *f.drop.regionIndex("1301");
-        QVERIFY(f.cleaned.total(0, r1301) < rawTotal(f.drop, 0, r1301));
+        QVERIFY(f.cleaned.total(0, r1301) < ledger::rawTotal(f.drop, 0, r1301));
 
         // No raster image anywhere: pdfimages -list prints its two header lines only.
         const QStringList images =

@@ -133,7 +133,7 @@ private Q_SLOTS:
     void initTestCase() {
         QVERIFY(m_dir.isValid());
         // The drop's file name is hostile too (it reaches titles, captions and the report).
-        Result<Drop> drop = parseDrop(hostileDropText(), "<b>drop</b> & \"x\".csv");
+        Result<Drop> drop = ingest::parseDrop(hostileDropText(), "<b>drop</b> & \"x\".csv");
         QVERIFY2(drop.ok(), drop.ok() ? "" : drop.error().describe().c_str());
         m_drop = std::move(*drop);
         QCOMPARE(m_drop.regionCodes.size(), kHostileCodes.size());
@@ -149,14 +149,14 @@ private Q_SLOTS:
         text += csvField(kHostileCodes[2]) + ",Trinidad & Tobago <i>&amp;</i>,,2000\n";
         f.write(text.data(), static_cast<qint64>(text.size()));
         f.close();
-        Result<RegionRegister> r = readRegister(reg.toStdString());
+        Result<RegionRegister> r = ingest::readRegister(reg.toStdString());
         QVERIFY2(r.ok(), r.ok() ? "" : r.error().describe().c_str());
         m_register = std::move(*r);
     }
 
     void everySvgFigureOfAHostileRegionIsInertXml() {
-        const Cleaned cleaned(m_drop);
-        const Ledger ledger;
+        const ledger::Cleaned cleaned(m_drop);
+        const ledger::Ledger ledger;
         for (const std::string& code : kHostileCodes) {
             report::FigureRequest request;
             request.region = code;
@@ -174,8 +174,8 @@ private Q_SLOTS:
     }
 
     void theHtmlBriefingHoldsNoLiveMarkupFromNames() {
-        const Cleaned cleaned(m_drop);
-        const Ledger ledger;
+        const ledger::Cleaned cleaned(m_drop);
+        const ledger::Ledger ledger;
         report::BriefingRequest request;
         request.regionRegister = &m_register;
         request.exportDate = "2026-12-04";

@@ -96,7 +96,7 @@ private Q_SLOTS:
         QVERIFY(a.open(QIODevice::ReadOnly) && b.open(QIODevice::ReadOnly));
         QCOMPARE(a.readAll(), b.readAll());
         const std::string head = wb.ledger().headHash();
-        const auto onDisk = siftwave::readProjectFile(saved.toStdString());
+        const auto onDisk = siftwave::ledger::readProjectFile(saved.toStdString());
         QVERIFY(onDisk.ok());
         QCOMPARE(onDisk->ledgerPath, std::string("morning.ledger.jsonl"));  // relative: portable
         QCOMPARE(onDisk->ledgerHeadHash, head);
@@ -148,10 +148,10 @@ private Q_SLOTS:
         QVERIFY(scanned.wait(30000));
         const QString path = QDir(m_projects).filePath(QStringLiteral("changed.siftwave.json"));
         QVERIFY(window->saveProject(path));
-        auto project = siftwave::readProjectFile(path.toStdString());
+        auto project = siftwave::ledger::readProjectFile(path.toStdString());
         QVERIFY(project.ok());
         project->dropSha256 = std::string(64, 'a');  // as if the drop file had been replaced
-        QVERIFY(siftwave::writeProjectFile(path.toStdString(), *project).ok());
+        QVERIFY(siftwave::ledger::writeProjectFile(path.toStdString(), *project).ok());
 
         QSignalSpy failed(window.get(), &MainWindow::projectFailed);
         window->openProject(path);

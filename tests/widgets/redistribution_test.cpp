@@ -62,7 +62,7 @@ private Q_SLOTS:
         const auto& drop = wb.drop();
         const std::size_t region = *drop.regionIndex("1301");
         const std::size_t cases = *drop.measureIndex("cases");
-        const std::int64_t rawTotal = siftwave::rawTotal(drop, cases, region);
+        const std::int64_t rawTotal = siftwave::ledger::rawTotal(drop, cases, region);
         const int dumpDay = *dump->first - drop.axis.first();
         const std::int32_t dumpValue = drop.cell(cases, region, dumpDay).value;
         QVERIFY(wb.openFindings(QStringLiteral("1301")) >= 1);
@@ -97,8 +97,8 @@ private Q_SLOTS:
 
         // One entry, answering the finding, with the region total exactly as before.
         QCOMPARE(wb.ledger().entries.size(), std::size_t(1));
-        const siftwave::LedgerEntry& entry = wb.ledger().entries.front();
-        QCOMPARE(entry.decision.kind, siftwave::DecisionKind::Redistribute);
+        const siftwave::ledger::LedgerEntry& entry = wb.ledger().entries.front();
+        QCOMPARE(entry.decision.kind, siftwave::ledger::DecisionKind::Redistribute);
         QCOMPARE(QString::fromStdString(entry.reason),
                  QStringLiteral("held-back cases of three weeks, spread back (test)"));
         QCOMPARE(QString::fromStdString(entry.decision.finding), id);
@@ -117,10 +117,10 @@ private Q_SLOTS:
         QCOMPARE(wb.openFindings(QStringLiteral("1301")), openBefore - 1);
         QVERIFY(!pane->isActive());
         // The entry is on disk, and the file replays to the same cleaned values.
-        const auto onDisk = siftwave::readLedgerFile(wb.ledgerPath().toStdString());
+        const auto onDisk = siftwave::ledger::readLedgerFile(wb.ledgerPath().toStdString());
         QVERIFY(onDisk.ok());
         QCOMPARE(onDisk->entries.size(), std::size_t(1));
-        const auto replayed = siftwave::replay(drop, *onDisk);
+        const auto replayed = siftwave::ledger::replay(drop, *onDisk);
         QVERIFY(replayed.ok());
         QCOMPARE(replayed->total(cases, region), rawTotal);
         QCOMPARE(replayed->cell(cases, region, dumpDay).value,
@@ -158,11 +158,13 @@ private Q_SLOTS:
             QStringLiteral("a correction of double entries, spread back (test)"));
         QVERIFY(window.applyCurrentDecision());
         QCOMPARE(wb.cleaned().cell(cases, region, day).value, 0);
-        QCOMPARE(wb.cleaned().total(cases, region), siftwave::rawTotal(drop, cases, region));
+        QCOMPARE(wb.cleaned().total(cases, region),
+                 siftwave::ledger::rawTotal(drop, cases, region));
 
         window.undoStack()->undo();
         QCOMPARE(wb.ledger().entries.size(), std::size_t(2));
-        QCOMPARE(wb.ledger().entries.back().decision.kind, siftwave::DecisionKind::Withdraw);
+        QCOMPARE(wb.ledger().entries.back().decision.kind,
+                 siftwave::ledger::DecisionKind::Withdraw);
         QCOMPARE(wb.cleaned().cell(cases, region, day).value,
                  static_cast<std::int64_t>(drop.cell(cases, region, day).value));
 

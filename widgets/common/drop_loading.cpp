@@ -4,7 +4,7 @@ namespace siftwave::widgets {
 
 LoadedDrop loadDrop(const LoadRequest& request) {
     LoadedDrop loaded;
-    Result<Drop> drop = readDrop(request.dropPath.toStdString(), request.options);
+    Result<Drop> drop = ingest::readDrop(request.dropPath.toStdString(), request.options);
     if (!drop) {
         loaded.error = drop.error();
         return loaded;
@@ -14,10 +14,10 @@ LoadedDrop loadDrop(const LoadRequest& request) {
     if (!request.withRegister)
         return loaded;
     const std::string registerPath = request.registerPath.isEmpty()
-                                         ? registerBeside(request.dropPath.toStdString())
+                                         ? ingest::registerBeside(request.dropPath.toStdString())
                                          : request.registerPath.toStdString();
     if (!registerPath.empty()) {
-        Result<RegionRegister> regionRegister = readRegister(registerPath);
+        Result<RegionRegister> regionRegister = ingest::readRegister(registerPath);
         if (regionRegister)
             loaded.regionRegister =
                 std::make_shared<const RegionRegister>(std::move(regionRegister).value());

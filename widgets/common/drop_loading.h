@@ -1,7 +1,7 @@
 #pragma once
 // Opening a drop: the core reads the file and finds and reads the region register beside it
-// (siftwave::registerBeside), when there is one; this only gathers the results for the window.
-// loadDrop() blocks; run it through BackgroundTask.
+// (siftwave::ingest::registerBeside), when there is one; this only gathers the results for the
+// window. loadDrop() blocks; run it through BackgroundTask.
 
 #include "siftwave/drop.h"
 #include "siftwave/ingest/ingest.h"
@@ -17,9 +17,9 @@ namespace siftwave::widgets {
 
 struct LoadRequest {
     QString dropPath;
-    QString registerPath;      // empty: siftwave::registerBeside(dropPath) (core)
+    QString registerPath;      // empty: siftwave::ingest::registerBeside(dropPath) (core)
     bool withRegister = true;  // false: read the drop only
-    IngestOptions options;
+    ingest::IngestOptions options;
 };
 
 struct LoadedDrop {

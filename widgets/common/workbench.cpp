@@ -37,7 +37,7 @@ std::vector<double> Workbench::cleanedCounts(const QString& regionCode, int meas
     const std::optional<std::size_t> region = m_drop->regionIndex(regionCode.toStdString());
     if (!region)
         return {};
-    return siftwave::cleanedCounts(m_cleaned, static_cast<std::size_t>(measure), *region);
+    return siftwave::ledger::cleanedCounts(m_cleaned, static_cast<std::size_t>(measure), *region);
 }
 
 std::optional<std::int64_t> Workbench::cleanedTotal(const QString& regionCode, int measure) const {
@@ -52,17 +52,17 @@ std::optional<std::int64_t> Workbench::cleanedTotal(const QString& regionCode, i
 Status Workbench::openLedger(const QString& path) {
     m_ledgerPath = path;
     m_decisionIndex.reset();
-    m_ledger = Ledger{};
-    m_cleaned = m_drop ? Cleaned(*m_drop) : Cleaned{};
+    m_ledger = ledger::Ledger{};
+    m_cleaned = m_drop ? ledger::Cleaned(*m_drop) : ledger::Cleaned{};
     m_ledgerWritable = false;
     Status result = Ok{};
     if (m_drop) {
-        Result<Ledger> read = readLedgerFile(path.toStdString());
+        Result<ledger::Ledger> read = ledger::readLedgerFile(path.toStdString());
         if (!read && read.error().code == ErrorCode::NotFound) {
             m_ledgerWritable = true;
         } else if (!read) {
             result = read.error();
-        } else if (Result<Cleaned> replayed = replay(*m_drop, *read); !replayed) {
+        } else if (Result<ledger::Cleaned> replayed = ledger::replay(*m_drop, *read); !replayed) {
             result = replayed.error();
         } else {
             m_ledger = std::move(read).value();
@@ -83,10 +83,10 @@ Status Workbench::openLedger(const QString& path) {
 
 void Workbench::updateChainStatus() {
     m_decisionIndex.reset();  // the ledger, the drop or what is in effect changed
-    const Status chain = verifyChain(m_ledger);
+    const Status chain = ledger::verifyChain(m_ledger);
     Status conservation = Ok{};
     if (chain && m_drop)
-        conservation = checkConservation(*m_drop, m_cleaned, m_ledger);
+        conservation = ledger::checkConservation(*m_drop, m_cleaned, m_ledger);
     m_chainOk = chain.ok() && conservation.ok();
     if (!chain)
         m_chainStatus = QCoreApplication::translate("Workbench", "chain broken: %1")
@@ -101,27 +101,28 @@ void Workbench::updateChainStatus() {
                 .arg(QString::fromStdString(m_ledger.headHash().substr(0, 12)));
 }
 
-Result<Effect> Workbench::preview(const Decision& decision) const {
+Result<ledger::Effect> Workbench::preview(const ledger::Decision& decision) const {
     if (!m_drop)
         return makeError(ErrorCode::Usage, "no drop is open");
-    return previewDecision(*m_drop, m_cleaned, decision);
+    return ledger::previewDecision(*m_drop, m_cleaned, decision);
 }
 
-Result<std::uint64_t> Workbench::apply(const Decision& decision, const QString& reason) {
+Result<std::uint64_t> Workbench::apply(const ledger::Decision& decision, const QString& reason) {
     if (!m_drop)
         return makeError(ErrorCode::Usage, "no drop is open");
     if (!m_ledgerWritable || m_ledgerPath.isEmpty())
         return makeError(ErrorCode::Integrity,
                          "the ledger is not open for writing: " + m_chainStatus.toStdString());
-    EntryMeta meta;
+    ledger::EntryMeta meta;
     meta.reason = reason.trimmed().toStdString();
-    Result<LedgerEntry> entry = draftEntry(*m_drop, m_ledger, m_cleaned, decision, meta);
+    Result<ledger::LedgerEntry> entry =
+        ledger::draftEntry(*m_drop, m_ledger, m_cleaned, decision, meta);
     if (!entry)
         return entry.error();
     // The file first: an entry exists only once it is on disk.
-    if (Status appended = appendLedgerEntry(m_ledgerPath.toStdString(), *entry); !appended)
+    if (Status appended = ledger::appendLedgerEntry(m_ledgerPath.toStdString(), *entry); !appended)
         return appended.error();
-    if (Status applied = applyEntry(*m_drop, m_cleaned, *entry); !applied) {
+    if (Status applied = ledger::applyEntry(*m_drop, m_cleaned, *entry); !applied) {
         // On disk but refused in memory: re-read so the window shows what the file says.
         // The refusal is what the caller must see; a failure to re-read shows in the chain status.
         static_cast<void>(openLedger(m_ledgerPath));
@@ -134,8 +135,8 @@ Result<std::uint64_t> Workbench::apply(const Decision& decision, const QString& 
 }
 
 Result<std::uint64_t> Workbench::withdraw(std::uint64_t sequence, const QString& reason) {
-    Decision d;
-    d.kind = DecisionKind::Withdraw;
+    ledger::Decision d;
+    d.kind = ledger::DecisionKind::Withdraw;
     d.target = sequence;
     return apply(d, reason);
 }
@@ -163,8 +164,8 @@ const Workbench::DecisionIndex& Workbench::decisionIndex() const {
     if (m_decisionIndex)
         return *m_decisionIndex;
     DecisionIndex index;
-    for (const LedgerEntry& e : m_ledger.entries)
-        if (!e.decision.finding.empty() && e.decision.kind != DecisionKind::Withdraw &&
+    for (const ledger::LedgerEntry& e : m_ledger.entries)
+        if (!e.decision.finding.empty() && e.decision.kind != ledger::DecisionKind::Withdraw &&
             m_cleaned.inEffect(e.sequence))
             index.decided.insert(e.decision.finding);
     for (const scan::Finding& f : findings())
@@ -209,8 +210,8 @@ void Workbench::setDrop(std::shared_ptr<const Drop> drop,
     m_register = std::move(regionRegister);
     m_previous.reset();  // it was the previous release of another drop
     m_scan.reset();
-    m_ledger = Ledger{};
-    m_cleaned = m_drop ? Cleaned(*m_drop) : Cleaned{};
+    m_ledger = ledger::Ledger{};
+    m_cleaned = m_drop ? ledger::Cleaned(*m_drop) : ledger::Cleaned{};
     m_ledgerPath.clear();
     m_ledgerWritable = false;
     updateChainStatus();
@@ -231,8 +232,8 @@ void Workbench::close() {
     m_register.reset();
     m_previous.reset();
     m_scan.reset();
-    m_ledger = Ledger{};
-    m_cleaned = Cleaned{};
+    m_ledger = ledger::Ledger{};
+    m_cleaned = ledger::Cleaned{};
     m_ledgerPath.clear();
     m_ledgerWritable = false;
     updateChainStatus();

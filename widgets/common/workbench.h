@@ -73,17 +73,17 @@ public:
     /// the ledger is then read-only until another file is chosen.
     Status openLedger(const QString& path);
     QString ledgerPath() const { return m_ledgerPath; }
-    const Ledger& ledger() const { return m_ledger; }
-    const Cleaned& cleaned() const { return m_cleaned; }
+    const ledger::Ledger& ledger() const { return m_ledger; }
+    const ledger::Cleaned& cleaned() const { return m_cleaned; }
     /// "verified: N entries, head abc123…" or what is wrong; always current.
     QString chainStatus() const { return m_chainStatus; }
     bool chainOk() const { return m_chainOk; }
 
     /// What a decision would do; nothing is recorded.
-    Result<Effect> preview(const Decision& decision) const;
+    Result<ledger::Effect> preview(const ledger::Decision& decision) const;
     /// Records a decision with its reason: drafts the entry, appends it to the ledger file
     /// (fsynced), then applies it. Returns the entry's sequence number.
-    Result<std::uint64_t> apply(const Decision& decision, const QString& reason);
+    Result<std::uint64_t> apply(const ledger::Decision& decision, const QString& reason);
     /// Undoes an entry by appending a withdrawal (history is never rewritten).
     Result<std::uint64_t> withdraw(std::uint64_t sequence, const QString& reason);
     /// Cleaned total of a region for one measure (the raw total before any decision).
@@ -114,8 +114,8 @@ private:
     std::shared_ptr<const Drop> m_drop;
     std::shared_ptr<const RegionRegister> m_register;
     std::shared_ptr<const Drop> m_previous;
-    Ledger m_ledger;
-    Cleaned m_cleaned;
+    ledger::Ledger m_ledger;
+    ledger::Cleaned m_cleaned;
     QString m_ledgerPath;
     bool m_ledgerWritable = false;
     bool m_chainOk = true;

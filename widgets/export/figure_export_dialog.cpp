@@ -25,7 +25,7 @@ FigureExportDialog::FigureExportDialog(Inputs inputs, QWidget* parent)
     : QDialog(parent), m_inputs(std::move(inputs)) {
     Q_ASSERT(m_inputs.drop);
     if (!m_inputs.cleaned) {
-        m_rawCleaned = Cleaned(*m_inputs.drop);
+        m_rawCleaned = ledger::Cleaned(*m_inputs.drop);
         m_inputs.cleaned = &m_rawCleaned;
     }
     if (!m_inputs.ledger)

@@ -32,9 +32,9 @@ class FigureExportDialog : public QDialog {
 
 public:
     struct Inputs {
-        const Drop* drop = nullptr;        // required
-        const Ledger* ledger = nullptr;    // null: no decisions
-        const Cleaned* cleaned = nullptr;  // replay(drop, ledger); null: the raw counts
+        const Drop* drop = nullptr;                // required
+        const ledger::Ledger* ledger = nullptr;    // null: no decisions
+        const ledger::Cleaned* cleaned = nullptr;  // replay(drop, ledger); null: the raw counts
         const RegionRegister* regions = nullptr;
         const Drop* previous = nullptr;  // the release before: drawn dotted when given
         QString currentRegion;
@@ -62,8 +62,8 @@ private:
     void accept() override;
 
     Inputs m_inputs;
-    Cleaned m_rawCleaned;  // when no Cleaned was given
-    Ledger m_noLedger;
+    ledger::Cleaned m_rawCleaned;  // when no Cleaned was given
+    ledger::Ledger m_noLedger;
     QListWidget* m_regionList;
     QCheckBox* m_onePage;
     QLineEdit* m_title;

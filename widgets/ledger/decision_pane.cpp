@@ -91,40 +91,45 @@ void DecisionPane::setCalendar(const TimeAxis& axis) {
     m_axis = axis;
 }
 
-void DecisionPane::begin(const Decision& decision, const QString& title, const QString& reason) {
+void DecisionPane::begin(const ledger::Decision& decision, const QString& title,
+                         const QString& reason) {
     m_decision = decision;
     m_title->setText(title);
     const QSignalBlocker block(m_method);
     m_method->clear();
     switch (decision.kind) {
-        case DecisionKind::Redistribute:
-            for (RedistributeMethod m :
-                 {RedistributeMethod::Uniform, RedistributeMethod::Proportional,
-                  RedistributeMethod::Baseline})
-                m_method->addItem(QString::fromLatin1(redistributeMethodName(m)),
+        case ledger::DecisionKind::Redistribute:
+            for (ledger::RedistributeMethod m :
+                 {ledger::RedistributeMethod::Uniform, ledger::RedistributeMethod::Proportional,
+                  ledger::RedistributeMethod::Baseline})
+                m_method->addItem(QString::fromLatin1(ledger::redistributeMethodName(m)),
                                   static_cast<int>(m));
             m_method->setCurrentIndex(
                 m_method->findData(static_cast<int>(decision.redistributeMethod)));
             break;
-        case DecisionKind::FillMissing:
-            for (FillMethod m : {FillMethod::Zero, FillMethod::Linear, FillMethod::Share})
-                m_method->addItem(QString::fromLatin1(fillMethodName(m)), static_cast<int>(m));
+        case ledger::DecisionKind::FillMissing:
+            for (ledger::FillMethod m :
+                 {ledger::FillMethod::Zero, ledger::FillMethod::Linear, ledger::FillMethod::Share})
+                m_method->addItem(QString::fromLatin1(ledger::fillMethodName(m)),
+                                  static_cast<int>(m));
             m_method->setCurrentIndex(m_method->findData(static_cast<int>(decision.fillMethod)));
             break;
-        case DecisionKind::ResolveDuplicate:
-            for (DuplicateRule m : {DuplicateRule::First, DuplicateRule::Last, DuplicateRule::Sum,
-                                    DuplicateRule::Max})
-                m_method->addItem(QString::fromLatin1(duplicateRuleName(m)), static_cast<int>(m));
+        case ledger::DecisionKind::ResolveDuplicate:
+            for (ledger::DuplicateRule m :
+                 {ledger::DuplicateRule::First, ledger::DuplicateRule::Last,
+                  ledger::DuplicateRule::Sum, ledger::DuplicateRule::Max})
+                m_method->addItem(QString::fromLatin1(ledger::duplicateRuleName(m)),
+                                  static_cast<int>(m));
             m_method->setCurrentIndex(m_method->findData(static_cast<int>(decision.duplicateRule)));
             break;
         default:
-            m_method->addItem(QString::fromLatin1(decisionKindName(decision.kind)), -1);
+            m_method->addItem(QString::fromLatin1(ledger::decisionKindName(decision.kind)), -1);
             break;
     }
     m_method->setEnabled(m_method->count() > 1);
     {
         const QSignalBlocker blockExcess(m_excess);
-        const bool redistribute = decision.kind == DecisionKind::Redistribute;
+        const bool redistribute = decision.kind == ledger::DecisionKind::Redistribute;
         m_excess->setValue(static_cast<int>(
             std::clamp<std::int64_t>(decision.excess, 0, std::numeric_limits<int>::max())));
         m_excess->setVisible(redistribute);
@@ -162,18 +167,18 @@ void DecisionPane::clear() {
     updateApply();
 }
 
-Decision DecisionPane::decision() const {
-    Decision d = m_decision.value_or(Decision{});
+ledger::Decision DecisionPane::decision() const {
+    ledger::Decision d = m_decision.value_or(ledger::Decision{});
     const int method = m_method->currentData().toInt();
     if (method >= 0) {
-        if (d.kind == DecisionKind::Redistribute)
-            d.redistributeMethod = static_cast<RedistributeMethod>(method);
-        if (d.kind == DecisionKind::FillMissing)
-            d.fillMethod = static_cast<FillMethod>(method);
-        if (d.kind == DecisionKind::ResolveDuplicate)
-            d.duplicateRule = static_cast<DuplicateRule>(method);
+        if (d.kind == ledger::DecisionKind::Redistribute)
+            d.redistributeMethod = static_cast<ledger::RedistributeMethod>(method);
+        if (d.kind == ledger::DecisionKind::FillMissing)
+            d.fillMethod = static_cast<ledger::FillMethod>(method);
+        if (d.kind == ledger::DecisionKind::ResolveDuplicate)
+            d.duplicateRule = static_cast<ledger::DuplicateRule>(method);
     }
-    if (d.kind == DecisionKind::Redistribute)
+    if (d.kind == ledger::DecisionKind::Redistribute)
         d.excess = m_excess->value();
     return d;
 }
@@ -188,9 +193,9 @@ std::optional<DayIndexRange> DecisionPane::window() const {
 void DecisionPane::setWindow(DayIndexRange window) {
     if (!m_decision || !m_decision->window)
         return;
-    DayRange range{m_axis.periodStart(window.first), m_axis.periodStart(window.last)};
+    ledger::DayRange range{m_axis.periodStart(window.first), m_axis.periodStart(window.last)};
     // A redistribution spreads over periods before the dump's; keep the window there.
-    if (m_decision->kind == DecisionKind::Redistribute && m_decision->date &&
+    if (m_decision->kind == ledger::DecisionKind::Redistribute && m_decision->date &&
         range.last >= *m_decision->date)
         range.last = m_axis.periodStart(m_axis.periodOnGrid(*m_decision->date) - 1);
     if (range.last < range.first)
@@ -201,7 +206,7 @@ void DecisionPane::setWindow(DayIndexRange window) {
     Q_EMIT decisionEdited();
 }
 
-void DecisionPane::showPreview(const Result<Effect>& effect) {
+void DecisionPane::showPreview(const Result<ledger::Effect>& effect) {
     m_previewOk = effect.ok();
     if (!effect) {
         m_preview->setText(
@@ -211,7 +216,7 @@ void DecisionPane::showPreview(const Result<Effect>& effect) {
         return;
     }
     QString text = tr("Changes %n cell(s).", nullptr, static_cast<int>(effect->cells.size()));
-    for (const TotalChange& t : effect->totals) {
+    for (const ledger::TotalChange& t : effect->totals) {
         text +=
             QStringLiteral("<br>") +
             tr("%1 %2 total: %3 → %4 %5")
@@ -222,7 +227,7 @@ void DecisionPane::showPreview(const Result<Effect>& effect) {
                                            .arg(t.change() > 0 ? QStringLiteral("+") : QString())
                                            .arg(t.change()));
     }
-    if (m_decision && m_decision->kind == DecisionKind::Redistribute)
+    if (m_decision && m_decision->kind == ledger::DecisionKind::Redistribute)
         text += QStringLiteral("<br>") +
                 tr("Moves %1 counts off %2.")
                     .arg(count(m_excess->value()), QString::fromStdString(m_decision->date->iso()));
@@ -252,7 +257,7 @@ void DecisionPane::updateApply() {
                             : tr("Append this decision to the ledger (Ctrl+Return)"));
 }
 
-QString reasonDraftFor(const scan::Finding& finding, const Decision& decision) {
+QString reasonDraftFor(const scan::Finding& finding, const ledger::Decision& decision) {
     QStringList evidence;
     for (const auto& [key, text] : finding.evidence.scalars())
         evidence << QStringLiteral("%1 %2").arg(
@@ -266,11 +271,11 @@ QString reasonDraftFor(const scan::Finding& finding, const Decision& decision) {
                  .replace(QLatin1Char('_'), QLatin1Char(' ')),
              where.trimmed(), QString::fromStdString(finding.id),
              evidence.join(QStringLiteral(", ")),
-             QString::fromLatin1(decisionKindName(decision.kind))
+             QString::fromLatin1(ledger::decisionKindName(decision.kind))
                  .replace(QLatin1Char('_'), QLatin1Char(' ')));
 }
 
-QString reasonDraftForPickedDay(const Decision& decision, std::int64_t reported,
+QString reasonDraftForPickedDay(const ledger::Decision& decision, std::int64_t reported,
                                 const scan::BacklogEstimate* estimate, const QString& noEstimate) {
     const QString where =
         QStringLiteral("%1 %2 %3")

@@ -37,18 +37,18 @@ public:
     /// The drop's calendar (for day indices on the plot).
     void setCalendar(const TimeAxis& axis);
     /// Starts preparing `decision`; `reason` is the draft shown in the reason field.
-    void begin(const Decision& decision, const QString& title, const QString& reason);
+    void begin(const ledger::Decision& decision, const QString& title, const QString& reason);
     void clear();
     bool isActive() const { return m_decision.has_value(); }
 
     /// The decision with the chosen method, counts to move and window.
-    Decision decision() const;
+    ledger::Decision decision() const;
     /// The decision's window in day indices, when it has one.
     std::optional<DayIndexRange> window() const;
     void setWindow(DayIndexRange window);
 
     /// Shows the core's preview (or why it refuses) for `region` and `measure`.
-    void showPreview(const Result<Effect>& effect);
+    void showPreview(const Result<ledger::Effect>& effect);
     /// The preview allows Apply (the core accepted it).
     bool previewOk() const { return m_previewOk; }
 
@@ -65,7 +65,7 @@ Q_SIGNALS:
 private:
     void updateApply();
 
-    std::optional<Decision> m_decision;
+    std::optional<ledger::Decision> m_decision;
     TimeAxis m_axis;
     bool m_previewOk = false;
     QLabel* m_title;
@@ -80,11 +80,11 @@ private:
 };
 
 /// A draft reason from a finding: what it is, where, and its evidence in numbers.
-QString reasonDraftFor(const scan::Finding& finding, const Decision& decision);
+QString reasonDraftFor(const scan::Finding& finding, const ledger::Decision& decision);
 
 /// A draft reason for a redistribution of a day picked on the plot: the day, what was reported
 /// and the core's backlog estimate (or, when there is none, why not).
-QString reasonDraftForPickedDay(const Decision& decision, std::int64_t reported,
+QString reasonDraftForPickedDay(const ledger::Decision& decision, std::int64_t reported,
                                 const scan::BacklogEstimate* estimate, const QString& noEstimate);
 
 }  // namespace siftwave::widgets

@@ -36,8 +36,8 @@ QVariant LedgerModel::data(const QModelIndex& index, int role) const {
     const auto& entries = m_workbench->ledger().entries;
     if (!index.isValid() || index.row() >= static_cast<int>(entries.size()))
         return {};
-    const LedgerEntry& e = entries[index.row()];
-    const Decision& d = e.decision;
+    const ledger::LedgerEntry& e = entries[index.row()];
+    const ledger::Decision& d = e.decision;
     const bool inEffect = m_workbench->cleaned().inEffect(e.sequence);
     if (role == SequenceRole)
         return static_cast<qulonglong>(e.sequence);
@@ -61,12 +61,13 @@ QVariant LedgerModel::data(const QModelIndex& index, int role) const {
         case AuthorColumn:
             return QString::fromStdString(e.author);
         case KindColumn:
-            if (d.kind == DecisionKind::Withdraw)
+            if (d.kind == ledger::DecisionKind::Withdraw)
                 return tr("withdraw #%1").arg(d.target);
-            return QString::fromLatin1(decisionKindName(d.kind))
+            return QString::fromLatin1(ledger::decisionKindName(d.kind))
                 .replace(QLatin1Char('_'), QLatin1Char(' '));
         case WhereColumn:
-            return QString::fromStdString(decisionWhere(d, WhereStyle::Compact)).trimmed();
+            return QString::fromStdString(ledger::decisionWhere(d, ledger::WhereStyle::Compact))
+                .trimmed();
         case MovedColumn: {
             // The totals the entry moved: "conserved" or the net change, and how many cells.
             const std::int64_t net = e.effect.netChange();

@@ -51,14 +51,14 @@ Result<BriefingInputs> loadBriefingInputs(const std::string& path, const ParsedA
     BriefingInputs in;
     in.drop = std::move(drop.value());
     if (auto ledgerPath = args.optionalValue("ledger")) {
-        auto ledger = readLedgerFile(*ledgerPath);
+        auto ledger = ledger::readLedgerFile(*ledgerPath);
         if (!ledger)
             return ledger.error();
         in.ledger = std::move(ledger.value());
     } else if (ledgerRequired) {
         return makeError(ErrorCode::Usage, "--ledger LEDGER is required");
     }
-    auto cleaned = replay(in.drop, in.ledger);
+    auto cleaned = ledger::replay(in.drop, in.ledger);
     if (!cleaned)
         return cleaned.error();
     in.cleaned = std::move(cleaned.value());
@@ -92,7 +92,7 @@ Result<std::optional<fit::FitOptions>> fitOptionsFrom(const ParsedArgs& args, co
         options.method = *m;
     }
     if (auto window = args.optionalValue("window"); window && *window != "auto") {
-        const auto range = DayRange::fromIso(*window);
+        const auto range = ledger::DayRange::fromIso(*window);
         if (!range)
             return makeError(ErrorCode::Usage,
                              "--window takes FIRST:LAST (ISO 8601 dates), not '" + *window + "'");

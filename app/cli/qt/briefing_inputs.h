@@ -24,8 +24,8 @@ namespace siftwave::cli {
 
 struct BriefingInputs {
     Drop drop;
-    Ledger ledger;  // empty without --ledger
-    Cleaned cleaned;
+    ledger::Ledger ledger;  // empty without --ledger
+    ledger::Cleaned cleaned;
     std::optional<RegionRegister> regions;  // --regions, or the one beside the drop
 };
 

@@ -10,7 +10,7 @@
 #include <cstring>
 #include <new>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 namespace {
 
 /// Asks for huge pages on the reserved part of `cells` (a hint): fewer page faults
@@ -179,4 +179,4 @@ std::vector<std::vector<Cell>> CellTableBuilder::takeTables() {
     return tables;
 }
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -29,7 +29,7 @@
 #include <cstdint>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 class CellTableBuilder {
 public:
@@ -106,4 +106,4 @@ private:
     std::vector<std::vector<Cell>> m_staging;  // per measure, m_blockDays * m_stride, day-major
 };
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

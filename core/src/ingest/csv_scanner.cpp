@@ -7,7 +7,7 @@
 #include <emmintrin.h>
 #endif
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 CsvScanner::CsvScanner(std::string_view data, char delimiter, std::size_t start,
                        std::uint64_t firstLine)
@@ -260,4 +260,4 @@ std::string delimiterName(char delimiter) {
     return std::string(1, delimiter);
 }
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -17,7 +17,7 @@
 #include <string_view>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 struct CsvField {
     std::string_view text;  // the field's content, quotes removed and "" unescaped
@@ -109,4 +109,4 @@ private:
 /// Human name of a delimiter: "comma", "semicolon", "tab", "pipe" or the character.
 std::string delimiterName(char delimiter);
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -5,7 +5,7 @@
 #include <cctype>
 #include <string>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 namespace {
 
 bool digitsAt(std::string_view t, std::size_t from, std::size_t count, int& value) {
@@ -189,4 +189,4 @@ YearWeekReading readYearWeek(std::string_view year, std::string_view week, WeekS
     return r;
 }
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

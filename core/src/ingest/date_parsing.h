@@ -29,7 +29,7 @@
 #include <optional>
 #include <string_view>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 enum class DateShape { None, Iso, Compact, Slash, IsoWeek };
 /// YearWeek: a year cell and a week-number cell (read with readYearWeek, not parseDateAs).
@@ -86,4 +86,4 @@ struct YearWeekReading {
 /// a row with both cells wrong is reported for its year.
 YearWeekReading readYearWeek(std::string_view year, std::string_view week, WeekStart start);
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

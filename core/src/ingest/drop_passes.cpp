@@ -9,7 +9,7 @@
 #include <limits>
 #include <set>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 namespace {
 
 constexpr std::size_t kCheckAhead = std::size_t{256} << 10;
@@ -1072,4 +1072,4 @@ void DropReader::noteClosingWarnings() {
                  });
 }
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

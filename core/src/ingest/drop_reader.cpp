@@ -9,7 +9,7 @@
 #include <optional>
 #include <string>
 
-namespace siftwave {
+namespace siftwave::ingest {
 namespace detail {
 namespace {
 
@@ -408,4 +408,4 @@ Result<Drop> readDrop(const std::string& path, const IngestOptions& options) {
     return reader.run();
 }
 
-}  // namespace siftwave
+}  // namespace siftwave::ingest

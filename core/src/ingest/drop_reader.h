@@ -35,7 +35,7 @@
 #include <string_view>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 /// 'text' in quotes, shortened when long (for messages).
 std::string quoted(std::string_view text);
@@ -282,4 +282,4 @@ private:
     WarningLog m_log;
 };
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

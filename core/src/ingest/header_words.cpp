@@ -4,7 +4,7 @@
 #include <string>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 namespace {
 
 // The word lists, folded (lower case, no accents; see header_words.h), in English, French,
@@ -253,4 +253,4 @@ bool isDigitName(std::string_view name) {
     return true;
 }
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -36,7 +36,7 @@
 #include <cstdint>
 #include <string_view>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 enum class HeaderRole : std::uint8_t {
     Region = 1,
@@ -69,4 +69,4 @@ HeaderWords headerWordsOf(std::string_view name);
 /// the shape of a region code, never of a role name.
 bool isDigitName(std::string_view name);
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -1,7 +1,7 @@
 #include "ingest/date_parsing.h"
 #include "siftwave/ingest/ingest.h"
 
-namespace siftwave {
+namespace siftwave::ingest {
 
 Status IngestOptions::validate() const {
     if (!dateFormat.empty() && !detail::dateFormatFromName(dateFormat)) {
@@ -61,4 +61,4 @@ Status IngestOptions::validate() const {
     return Ok{};
 }
 
-}  // namespace siftwave
+}  // namespace siftwave::ingest

@@ -10,7 +10,7 @@
 #include <cstdio>
 #include <cstring>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 TextPosition positionOf(std::string_view data, std::size_t offset) {
     TextPosition pos;
@@ -238,4 +238,4 @@ Status InputChecker::checkUpTo(std::size_t offset) {
     return Ok{};
 }
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -17,7 +17,7 @@
 #include <string_view>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 /// Position of a byte as a person finds it in an editor.
 struct TextPosition {
@@ -73,7 +73,7 @@ private:
     std::string m_path;
     std::size_t m_hashed = 0;
     std::size_t m_validated = 0;
-    Sha256 m_sha;
+    siftwave::detail::Sha256 m_sha;
 };
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -16,7 +16,7 @@
 #include <unordered_map>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 struct TransparentStringHash {
     using is_transparent = void;
@@ -103,4 +103,4 @@ private:
     std::uint32_t m_last = 0;
 };
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

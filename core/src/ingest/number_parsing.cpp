@@ -2,7 +2,7 @@
 
 #include "ingest/date_parsing.h"
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 namespace {
 
 bool isDigit(char c) {
@@ -166,4 +166,4 @@ CellShape shapeOf(std::string_view text, const NumberStyle& style) {
     return CellShape::Text;
 }
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -15,7 +15,7 @@
 #include <cstring>
 #include <string_view>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 enum class NumberNote : std::uint8_t {
     None,
@@ -121,4 +121,4 @@ enum class CellShape : std::uint8_t {
 };
 CellShape shapeOf(std::string_view text, const NumberStyle& style);
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -7,7 +7,7 @@
 #include <system_error>
 #include <vector>
 
-namespace siftwave {
+namespace siftwave::ingest {
 namespace {
 
 namespace fs = std::filesystem;
@@ -70,4 +70,4 @@ std::string registerBeside(const std::string& dropPath) {
     return {};
 }
 
-}  // namespace siftwave
+}  // namespace siftwave::ingest

@@ -11,7 +11,7 @@
 #include <optional>
 #include <unordered_map>
 
-namespace siftwave {
+namespace siftwave::ingest {
 namespace {
 
 Error registerError(const std::string& path, ErrorCode code, std::string message,
@@ -162,4 +162,4 @@ Result<RegionRegister> readRegister(const std::string& path) {
     return reg;
 }
 
-}  // namespace siftwave
+}  // namespace siftwave::ingest

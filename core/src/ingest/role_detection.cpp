@@ -12,7 +12,7 @@
 #include <unordered_map>
 #include <unordered_set>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 namespace {
 
 std::string quotedName(std::string_view name) {
@@ -1028,4 +1028,4 @@ Result<RoleMapping> detectRoles(const std::vector<std::string>& names, bool head
     return mapLong(std::move(m), names, header, rows, facts, others, region, options);
 }
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

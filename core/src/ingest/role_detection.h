@@ -68,7 +68,7 @@
 #include <string_view>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 struct RoleMapping {
     Layout layout = Layout::Long;
@@ -98,4 +98,4 @@ std::string lowerTrimmed(std::string_view s);
 Result<int> findColumn(const std::vector<std::string>& names, const std::string& wanted,
                        const char* flag);
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

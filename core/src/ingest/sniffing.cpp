@@ -5,7 +5,7 @@
 #include <algorithm>
 #include <map>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 namespace {
 
 bool isDigit(char c) {
@@ -142,4 +142,4 @@ NumberStyle sniffNumberStyle(const std::vector<SampleRecord>& records, bool head
     return style;
 }
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

@@ -17,7 +17,7 @@
 #include <string_view>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 /// Owned copy of a few records (the sample the sniffers look at).
 struct SampleRecord {
@@ -34,4 +34,4 @@ bool sniffHeader(const std::vector<SampleRecord>& records, const NumberStyle& st
 /// The decimal separator the numbers in `records` suggest ('.' when nothing says otherwise).
 NumberStyle sniffNumberStyle(const std::vector<SampleRecord>& records, bool header);
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

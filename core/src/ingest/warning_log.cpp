@@ -1,6 +1,6 @@
 #include "ingest/warning_log.h"
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 void WarningLog::add(const std::string& kind, std::string message, std::uint64_t line,
                      std::uint64_t column) {
@@ -50,4 +50,4 @@ void WarningLog::moveTo(std::vector<Warning>& out,
     m_listed.clear();
 }
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

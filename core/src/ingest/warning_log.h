@@ -9,7 +9,7 @@
 #include <string>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ingest::detail {
 
 class WarningLog {
 public:
@@ -40,4 +40,4 @@ private:
     std::map<std::string, Tally> m_counted;
 };
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ingest::detail

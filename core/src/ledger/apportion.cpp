@@ -5,7 +5,7 @@
 #include <algorithm>
 #include <numeric>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 Result<std::vector<std::int64_t>> apportionLargestRemainder(std::int64_t total,
                                                             std::span<const std::int64_t> weights) {
@@ -43,4 +43,4 @@ Result<std::vector<std::int64_t>> apportionLargestRemainder(std::int64_t total,
     return parts;
 }
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

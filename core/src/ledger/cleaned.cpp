@@ -2,7 +2,7 @@
 
 #include <limits>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 const char* cleanedStateName(CleanedState state) {
     switch (state) {
@@ -92,4 +92,4 @@ std::vector<double> cleanedCounts(const Cleaned& cleaned, std::size_t measure, s
     return counts;
 }
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -3,7 +3,7 @@
 
 #include "siftwave/ledger/cleaned.h"
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 struct Cleaned::Access {
     static std::size_t cellIndex(const Cleaned& c, std::size_t measure, std::size_t region,
@@ -47,4 +47,4 @@ struct Cleaned::Access {
     }
 };
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -2,7 +2,7 @@
 
 #include "siftwave/ledger/decision_kinds.h"
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 std::string DayRange::iso() const {
     return first.iso() + ":" + last.iso();
@@ -103,4 +103,4 @@ Status Decision::validate() const {
     return decisionKindInfo(kind).validate(*this);
 }
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

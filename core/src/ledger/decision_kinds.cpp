@@ -7,7 +7,7 @@
 #include <string>
 #include <string_view>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 namespace detail {
 extern const DecisionKindInfo kRedistributeKind;
@@ -90,4 +90,4 @@ std::string decisionWhere(const Decision& d, WhereStyle style) {
     return where;
 }
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -6,7 +6,7 @@
 
 #include <tuple>
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 namespace {
 
@@ -89,4 +89,4 @@ Status applyEffect(const Drop& drop, Cleaned& cleaned, const Decision& decision,
     return Ok{};
 }
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

@@ -7,7 +7,7 @@
 #include "siftwave/ledger/decision.h"
 #include "siftwave/result.h"
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 /// What `decision` does to `cleaned` (see decision.h and replay.h for the rules).
 Result<Effect> deriveEffect(const Drop& drop, const Cleaned& cleaned, const Decision& decision);
@@ -17,4 +17,4 @@ Result<Effect> deriveEffect(const Drop& drop, const Cleaned& cleaned, const Deci
 Status applyEffect(const Drop& drop, Cleaned& cleaned, const Decision& decision,
                    const Effect& effect);
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

@@ -9,7 +9,7 @@
 
 #include <set>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 using nlohmann::json;
 
@@ -478,4 +478,4 @@ Status verifyChain(const Ledger& ledger) {
     return Ok{};
 }
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -5,7 +5,7 @@
 
 #include <nlohmann/json.hpp>
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 nlohmann::json decisionParameters(const Decision& decision);
 nlohmann::json entryToJson(const LedgerEntry& entry, bool withHash);
@@ -13,4 +13,4 @@ Result<LedgerEntry> entryFromJson(const nlohmann::json& j, std::uint64_t lineNum
 /// Sorted keys, no whitespace, strict UTF-8 (Encoding error otherwise).
 Result<std::string> canonicalDump(const nlohmann::json& j);
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

@@ -9,7 +9,7 @@
 #include <map>
 #include <set>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 namespace {
 
@@ -206,11 +206,11 @@ std::optional<ReportFormat> reportFormatFromPath(std::string_view path) {
 
 namespace {
 
-using detail::htmlEscaped;
+using siftwave::detail::htmlEscaped;
 
 /// Markdown text from the ledger or the drop (untrusted): the one Markdown escape.
 std::string mdCell(std::string_view s) {
-    return detail::markdownEscaped(s);
+    return siftwave::detail::markdownEscaped(s);
 }
 
 std::string parametersText(const LedgerEntry& e) {
@@ -364,4 +364,4 @@ Status writeReport(const std::string& path, const Ledger& ledger,
     return detail::writeFileAtomically(path, renderReport(ledger, rows, context, *format));
 }
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

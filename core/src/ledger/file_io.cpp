@@ -11,7 +11,7 @@
 #include <sstream>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 Error ioError(const std::string& path, const std::string& what) {
     Error e = makeError(ErrorCode::Io, what + ": " + std::strerror(errno));
@@ -101,4 +101,4 @@ Result<std::string> readWholeFile(const std::string& path) {
     return buffer.str();
 }
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

@@ -6,7 +6,7 @@
 #include <string>
 #include <string_view>
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 /// An Io error on `path`: "<what>: <the system's reason for errno>".
 Error ioError(const std::string& path, const std::string& what);
@@ -25,4 +25,4 @@ Status writeFileAtomically(const std::string& path, std::string_view bytes);
 /// The whole file; NotFound when it does not exist, Io otherwise.
 Result<std::string> readWholeFile(const std::string& path);
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

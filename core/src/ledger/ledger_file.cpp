@@ -10,7 +10,7 @@
 #include <cstring>
 #include <filesystem>
 
-namespace siftwave {
+namespace siftwave::ledger {
 namespace {
 
 /// A ledger line is a JSON object: it starts with '{' (after blanks) and is text without NULs.
@@ -162,4 +162,4 @@ Status appendLedgerEntry(const std::string& path, const LedgerEntry& entry) {
     return Ok{};
 }
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

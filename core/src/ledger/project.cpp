@@ -7,7 +7,7 @@
 
 #include <filesystem>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 using nlohmann::json;
 
@@ -192,4 +192,4 @@ Status checkLedgerHead(const ProjectFile& project, const Ledger& ledger) {
     return Ok{};
 }
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -10,7 +10,7 @@
 #include <cstdlib>
 #include <map>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 namespace {
 
@@ -235,4 +235,4 @@ Status checkConservation(const Drop& drop, const Cleaned& cleaned, const Ledger&
     return Ok{};
 }
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

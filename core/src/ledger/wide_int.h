@@ -1,8 +1,8 @@
 #pragma once
 // A 128-bit integer for exact products of counts and weights (GCC/Clang extension).
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 __extension__ typedef __int128 WideInt;
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

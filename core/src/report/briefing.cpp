@@ -40,13 +40,13 @@ void estimateRow(std::vector<FitTableRow>& rows, const std::string& name, const 
     rows.push_back({name, fixed(e.value, decimals), intervalText(e.lower, e.upper, decimals)});
 }
 
-std::vector<std::string> regionsTouched(const Drop& drop, const Ledger& ledger,
-                                        const Cleaned& cleaned) {
+std::vector<std::string> regionsTouched(const Drop& drop, const ledger::Ledger& ledger,
+                                        const ledger::Cleaned& cleaned) {
     std::set<std::string> touched;
-    for (const LedgerEntry& e : ledger.entries) {
-        if (!cleaned.inEffect(e.sequence) || e.decision.kind == DecisionKind::Withdraw)
+    for (const ledger::LedgerEntry& e : ledger.entries) {
+        if (!cleaned.inEffect(e.sequence) || e.decision.kind == ledger::DecisionKind::Withdraw)
             continue;
-        for (const CellChange& c : e.effect.cells)
+        for (const ledger::CellChange& c : e.effect.cells)
             touched.insert(c.region);
         if (!e.decision.region.empty())
             touched.insert(e.decision.region);
@@ -106,14 +106,15 @@ Status BriefingRequest::validate() const {
     return Ok{};
 }
 
-Result<BriefingReport> buildBriefing(const Drop& drop, const Ledger& ledger, const Cleaned& cleaned,
+Result<BriefingReport> buildBriefing(const Drop& drop, const ledger::Ledger& ledger,
+                                     const ledger::Cleaned& cleaned,
                                      const BriefingRequest& request) {
     if (Status s = request.validate(); !s)
         return s.error();
     BriefingReport report;
     report.caption = captionFacts(drop, ledger, nullptr, request.exportDate);
     report.title = request.title.empty() ? "Briefing: " + report.caption.sourceFile : request.title;
-    report.chainVerified = static_cast<bool>(verifyChain(ledger));
+    report.chainVerified = static_cast<bool>(ledger::verifyChain(ledger));
 
     std::vector<std::string> regions = request.regions;
     if (regions.empty())
@@ -159,14 +160,15 @@ Result<BriefingReport> buildBriefing(const Drop& drop, const Ledger& ledger, con
                           f.first ? f.first->iso() : "", f.last ? f.last->iso() : ""});
     }
 
-    for (const LedgerEntry& e : ledger.entries)
-        report.ledger.push_back(
-            {e.sequence, e.timestamp, e.author, decisionKindName(e.decision.kind),
-             decisionWhere(e.decision, WhereStyle::Prose), e.reason, e.effect.netChange(),
-             cleaned.inEffect(e.sequence), e.hash.substr(0, kHashPrefixLength)});
+    for (const ledger::LedgerEntry& e : ledger.entries)
+        report.ledger.push_back({e.sequence, e.timestamp, e.author,
+                                 ledger::decisionKindName(e.decision.kind),
+                                 ledger::decisionWhere(e.decision, ledger::WhereStyle::Prose),
+                                 e.reason, e.effect.netChange(), cleaned.inEffect(e.sequence),
+                                 e.hash.substr(0, kHashPrefixLength)});
 
     const std::set<std::string> shown(regions.begin(), regions.end());
-    for (ReconciliationRow& row : reconcile(drop, cleaned, ledger))
+    for (ledger::ReconciliationRow& row : ledger::reconcile(drop, cleaned, ledger))
         if (shown.count(row.region) || !row.entries.empty())
             report.reconciliation.push_back(std::move(row));
     return report;
@@ -292,11 +294,11 @@ std::string ledgerHtml(const std::vector<LedgerLine>& ledger) {
     return h;
 }
 
-std::string reconciliationHtml(const std::vector<ReconciliationRow>& rows) {
+std::string reconciliationHtml(const std::vector<ledger::ReconciliationRow>& rows) {
     std::string h =
         "<h2>Reconciliation</h2>\n<table><tr><th>Region</th><th>Measure</th><th>Raw total</th>"
         "<th>Cleaned total</th><th>Difference</th><th>Entries explaining it</th></tr>\n";
-    for (const ReconciliationRow& row : rows) {
+    for (const ledger::ReconciliationRow& row : rows) {
         std::string entries;
         for (std::uint64_t e : row.entries)
             entries += (entries.empty() ? "#" : ", #") + std::to_string(e);

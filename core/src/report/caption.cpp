@@ -22,7 +22,7 @@ const char* siftwaveVersion() {
     return "0.1.0";
 }
 
-CaptionFacts captionFacts(const Drop& drop, const Ledger& ledger, const fit::FitResult* fit,
+CaptionFacts captionFacts(const Drop& drop, const ledger::Ledger& ledger, const fit::FitResult* fit,
                           const std::string& exportDate) {
     CaptionFacts facts;
     facts.sourceFile = fileNameOf(drop.source.path);

@@ -44,8 +44,8 @@ std::string bandsDescription(const FittedCurveSpec& curve) {
 
 }  // namespace
 
-Result<FigureSpec> buildFigureSpec(const Drop& drop, const Ledger& ledger, const Cleaned& cleaned,
-                                   const FigureRequest& request) {
+Result<FigureSpec> buildFigureSpec(const Drop& drop, const ledger::Ledger& ledger,
+                                   const ledger::Cleaned& cleaned, const FigureRequest& request) {
     Result<PlotModel> model = buildPlotModel(drop, ledger, cleaned, request);
     if (!model)
         return model.error();

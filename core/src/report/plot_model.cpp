@@ -16,10 +16,10 @@ namespace {
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
 // The total change an entry made to this region and measure.
-std::int64_t totalChangeOf(const LedgerEntry& entry, const std::string& region,
+std::int64_t totalChangeOf(const ledger::LedgerEntry& entry, const std::string& region,
                            const std::string& measure) {
     std::int64_t change = 0;
-    for (const TotalChange& t : entry.effect.totals)
+    for (const ledger::TotalChange& t : entry.effect.totals)
         if (t.region == region && t.measure == measure)
             change += t.change();
     return change;
@@ -34,29 +34,29 @@ double highestRaw(const PlotModel& model, Date first, Date last) {
     return best;
 }
 
-DayRange clampToCalendar(DayRange r, const PlotModel& model) {
+ledger::DayRange clampToCalendar(ledger::DayRange r, const PlotModel& model) {
     const Date last = model.periodStart(std::max(model.periods() - 1, 0));
     return {std::clamp(r.first, model.axis.first(), last),
             std::clamp(r.last, model.axis.first(), last)};
 }
 
 // Each kind's mark comes from its descriptor (siftwave/ledger/decision_kinds.h).
-void addMarks(PlotModel& model, const Ledger& ledger, const Cleaned& cleaned) {
-    const DayRange calendar{model.axis.first(),
-                            model.periodStart(std::max(model.periods() - 1, 0))};
-    for (const LedgerEntry& entry : ledger.entries) {
-        const Decision& d = entry.decision;
-        const DecisionKindInfo& kind = decisionKindInfo(d.kind);
+void addMarks(PlotModel& model, const ledger::Ledger& ledger, const ledger::Cleaned& cleaned) {
+    const ledger::DayRange calendar{model.axis.first(),
+                                    model.periodStart(std::max(model.periods() - 1, 0))};
+    for (const ledger::LedgerEntry& entry : ledger.entries) {
+        const ledger::Decision& d = entry.decision;
+        const ledger::DecisionKindInfo& kind = ledger::decisionKindInfo(d.kind);
         if (!cleaned.inEffect(entry.sequence) ||
             !kind.marksSeries(d, model.regionCode, model.measure))
             continue;
         const std::int64_t change = totalChangeOf(entry, model.regionCode, model.measure);
-        const std::optional<KindMark> kindMark = kind.mark(MarkContext{
+        const std::optional<ledger::KindMark> kindMark = kind.mark(ledger::MarkContext{
             entry, model.regionCode, model.measure, model.axis, calendar, change, groupedCount});
         if (!kindMark)
             continue;
         const std::string label = "#" + std::to_string(entry.sequence) + " " + kindMark->label;
-        const DayRange at = clampToCalendar(kindMark->at, model);
+        const ledger::DayRange at = clampToCalendar(kindMark->at, model);
         if (kindMark->shaded) {
             model.excluded.push_back(
                 ExcludedRange{entry.sequence, at.first, at.last, kindMark->count, label});
@@ -99,18 +99,18 @@ void addPrevious(PlotModel& model, const Drop& previous) {
 }
 
 // "#<seq> <kind>[, withdrawn] (<author>): <reason>" for each entry that changed a cell.
-void addTouchedBy(PlotModel& model, const Ledger& ledger, const Cleaned& cleaned,
+void addTouchedBy(PlotModel& model, const ledger::Ledger& ledger, const ledger::Cleaned& cleaned,
                   std::size_t measure, std::size_t region) {
     model.touchedBy.assign(model.periods(), {});
     for (int d = 0; d < model.periods(); ++d)
         for (std::uint64_t sequence : cleaned.touchedBy(measure, region, d)) {
             if (sequence == 0 || sequence > ledger.entries.size())
                 continue;
-            const LedgerEntry& e = ledger.entries[sequence - 1];
+            const ledger::LedgerEntry& e = ledger.entries[sequence - 1];
             std::string text = "#";
             text += std::to_string(sequence);
             text += ' ';
-            text += decisionKindName(e.decision.kind);
+            text += ledger::decisionKindName(e.decision.kind);
             if (!cleaned.inEffect(sequence))
                 text += ", withdrawn";
             text += " (";
@@ -220,8 +220,8 @@ Status PlotRequest::validate() const {
     return Ok{};
 }
 
-Result<PlotModel> buildPlotModel(const Drop& drop, const Ledger& ledger, const Cleaned& cleaned,
-                                 const PlotRequest& request) {
+Result<PlotModel> buildPlotModel(const Drop& drop, const ledger::Ledger& ledger,
+                                 const ledger::Cleaned& cleaned, const PlotRequest& request) {
     if (Status s = request.validate(); !s)
         return s.error();
     const auto region = drop.regionIndex(request.region);
@@ -259,7 +259,7 @@ Result<PlotModel> buildPlotModel(const Drop& drop, const Ledger& ledger, const C
         model.rawState[d] = cells[static_cast<std::size_t>(d)].state;
         model.sourceLine[d] = cells[static_cast<std::size_t>(d)].line;
     }
-    model.cleaned = cleanedCounts(cleaned, *measure, *region);
+    model.cleaned = ledger::cleanedCounts(cleaned, *measure, *region);
     model.smoothed =
         series::centredMovingAverage(model.cleaned, series::plotSmoothingWindow(model.axis));
     model.smoothedLabel = series::plotSmoothingLabel(model.axis) + " (cleaned)";

@@ -61,13 +61,13 @@ Finding toFinding(const ScanInput& in, std::size_t r, std::size_t m, const Backl
                            {"days", in.daysIn(gapPeriods)},
                            {"periods", gapPeriods}};
     }
-    Decision s = suggestionFor(f, DecisionKind::Redistribute);
+    ledger::Decision s = suggestionFor(f, ledger::DecisionKind::Redistribute);
     s.date = drop.periodStart(t);
     s.excess = e.excess;
-    s.window =
-        DayRange{drop.periodStart(e.windowFirst.serial), drop.periodStart(e.windowLast.serial)};
-    s.redistributeMethod =
-        e.gapFirst ? RedistributeMethod::Baseline : RedistributeMethod::Proportional;
+    s.window = ledger::DayRange{drop.periodStart(e.windowFirst.serial),
+                                drop.periodStart(e.windowLast.serial)};
+    s.redistributeMethod = e.gapFirst ? ledger::RedistributeMethod::Baseline
+                                      : ledger::RedistributeMethod::Proportional;
     f.suggestion = std::move(s);
     return f;
 }

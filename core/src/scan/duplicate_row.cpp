@@ -54,9 +54,9 @@ void findDuplicateRows(const ScanInput& in, std::vector<Finding>& out) {
         f.evidence = {{"rows", rows}, {"values_agree", agree}, {"occurrences", rows.size()}};
         if (!agree)
             f.evidence["spread"] = hi - lo;
-        Decision s = suggestionFor(f, DecisionKind::ResolveDuplicate);
+        ledger::Decision s = suggestionFor(f, ledger::DecisionKind::ResolveDuplicate);
         s.date = drop.periodStart(day);
-        s.duplicateRule = agree ? DuplicateRule::First : DuplicateRule::Last;
+        s.duplicateRule = agree ? ledger::DuplicateRule::First : ledger::DuplicateRule::Last;
         f.suggestion = std::move(s);
         out.push_back(std::move(f));
     }

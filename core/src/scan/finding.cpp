@@ -116,8 +116,8 @@ nlohmann::json findingToJson(const Finding& f) {
 
 namespace {
 
-void putWindow(nlohmann::json& j, const std::optional<DayRange>& window, const char* firstKey,
-               const char* lastKey) {
+void putWindow(nlohmann::json& j, const std::optional<ledger::DayRange>& window,
+               const char* firstKey, const char* lastKey) {
     if (!window)
         return;
     j[firstKey] = window->first.iso();
@@ -125,38 +125,38 @@ void putWindow(nlohmann::json& j, const std::optional<DayRange>& window, const c
 }
 
 /// The kind's own words (see suggestionToJson in finding.h).
-void putKindFields(nlohmann::json& j, const Decision& d) {
+void putKindFields(nlohmann::json& j, const ledger::Decision& d) {
     switch (d.kind) {
-        case DecisionKind::Redistribute:
+        case ledger::DecisionKind::Redistribute:
             j["excess"] = d.excess;
-            j["method"] = redistributeMethodName(d.redistributeMethod);
+            j["method"] = ledger::redistributeMethodName(d.redistributeMethod);
             [[fallthrough]];
-        case DecisionKind::SpreadNegative:
+        case ledger::DecisionKind::SpreadNegative:
             if (d.date)
                 j["date"] = d.date->iso();
             putWindow(j, d.window, "window_first", "window_last");
             break;
-        case DecisionKind::FillMissing:
-            j["method"] = fillMethodName(d.fillMethod);
+        case ledger::DecisionKind::FillMissing:
+            j["method"] = ledger::fillMethodName(d.fillMethod);
             putWindow(j, d.window, "first", "last");
             break;
-        case DecisionKind::ResolveDuplicate:
-            j["keep"] = duplicateRuleName(d.duplicateRule);
+        case ledger::DecisionKind::ResolveDuplicate:
+            j["keep"] = ledger::duplicateRuleName(d.duplicateRule);
             if (d.date)
                 j["date"] = d.date->iso();
             break;
-        case DecisionKind::MergeCodes:
+        case ledger::DecisionKind::MergeCodes:
             j["from"] = d.variant;
             j["into"] = d.into;
             break;
-        case DecisionKind::Exclude:
+        case ledger::DecisionKind::Exclude:
             if (d.window)
                 putWindow(j, d.window, "first", "last");
             else if (!d.region.empty())
                 j["region"] = d.region;
             break;
-        case DecisionKind::Accept:
-        case DecisionKind::Withdraw:
+        case ledger::DecisionKind::Accept:
+        case ledger::DecisionKind::Withdraw:
             break;
     }
 }
@@ -167,7 +167,7 @@ nlohmann::json suggestionToJson(const Finding& f) {
     nlohmann::json j = nlohmann::json::object();
     if (!f.suggestion)
         return j;
-    j["decision"] = decisionKindName(f.suggestion->kind);
+    j["decision"] = ledger::decisionKindName(f.suggestion->kind);
     putKindFields(j, *f.suggestion);
     const SuggestionNotes& n = f.suggestionNotes;
     if (!n.note.empty())

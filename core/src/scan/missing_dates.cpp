@@ -163,9 +163,9 @@ void addRun(const ScanInput& in, std::size_t region, std::optional<std::size_t> 
     f.evidence["probably_true_zeros"] = trueZeros;
 
     nlohmann::json adds = nlohmann::json::object();
-    std::optional<FillMethod> method;  // none: nothing to interpolate from
+    std::optional<ledger::FillMethod> method;  // none: nothing to interpolate from
     if (catchUp || trueZeros) {
-        method = catchUp ? FillMethod::Share : FillMethod::Zero;
+        method = catchUp ? ledger::FillMethod::Share : ledger::FillMethod::Zero;
         for (std::size_t k : measures)
             adds[drop.measures[k]] = 0;
     } else {
@@ -180,7 +180,7 @@ void addRun(const ScanInput& in, std::size_t region, std::optional<std::size_t> 
                 interpolable = false;
         }
         if (interpolable)
-            method = FillMethod::Linear;
+            method = ledger::FillMethod::Linear;
     }
     if (trueZeros)
         f.severity = Severity::Info;
@@ -191,9 +191,9 @@ void addRun(const ScanInput& in, std::size_t region, std::optional<std::size_t> 
                              drop.axis.unitPlural());
     } else {
         f.evidence["suggestion_adds"] = adds;
-        Decision s = suggestionFor(f, DecisionKind::FillMissing);
+        ledger::Decision s = suggestionFor(f, ledger::DecisionKind::FillMissing);
         s.fillMethod = *method;
-        s.window = DayRange{*f.first, *f.last};
+        s.window = ledger::DayRange{*f.first, *f.last};
         f.suggestion = std::move(s);
         if (trueZeros) {
             f.suggestionNotes.note = std::string("absent rows amid low counts are probably ") +

@@ -50,9 +50,9 @@ void findNegativeCounts(const ScanInput& in, std::vector<Finding>& out) {
                           {"earlier_periods", t - from},
                           {"region_total", total}};
             if (t > from) {
-                Decision s = suggestionFor(f, DecisionKind::SpreadNegative);
+                ledger::Decision s = suggestionFor(f, ledger::DecisionKind::SpreadNegative);
                 s.date = drop.periodStart(t);
-                s.window = DayRange{drop.periodStart(from), drop.periodStart(t - 1)};
+                s.window = ledger::DayRange{drop.periodStart(from), drop.periodStart(t - 1)};
                 f.suggestion = std::move(s);
                 f.suggestionNotes.absorbable = absorbable;
             } else {

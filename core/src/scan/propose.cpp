@@ -54,7 +54,7 @@ Result<Proposal> proposeDecision(const Drop& drop, const ProposalRequest& r) {
     Proposal p;
     p.reported = cell.value;
     if (const Finding* f = findingOfCell(r, start)) {
-        Result<Decision> d = suggestedDecision(*f, r.measure);
+        Result<ledger::Decision> d = suggestedDecision(*f, r.measure);
         if (d) {
             p.decision = std::move(*d);
             p.source = ProposalSource::Finding;
@@ -62,25 +62,26 @@ Result<Proposal> proposeDecision(const Drop& drop, const ProposalRequest& r) {
             return p;
         }
     }
-    Decision& d = p.decision;
-    d.kind = DecisionKind::Redistribute;
+    ledger::Decision& d = p.decision;
+    d.kind = ledger::DecisionKind::Redistribute;
     d.region = r.region;
     d.measure = r.measure;
     d.date = start;
-    d.redistributeMethod = RedistributeMethod::Proportional;
+    d.redistributeMethod = ledger::RedistributeMethod::Proportional;
     Result<BacklogEstimate> estimate = estimateBacklog(drop, r.measure, r.region, r.day, r.options);
     if (estimate) {
         d.excess = estimate->excess;
-        d.window = DayRange{estimate->windowFirst, estimate->windowLast};
+        d.window = ledger::DayRange{estimate->windowFirst, estimate->windowLast};
         if (estimate->gapFirst)
-            d.redistributeMethod = RedistributeMethod::Baseline;
+            d.redistributeMethod = ledger::RedistributeMethod::Baseline;
         p.source = ProposalSource::BacklogEstimate;
         p.estimate = std::move(*estimate);
         return p;
     }
     const BacklogDumpOptions& o = r.options.backlogDump;
     const int before = drop.axis.weekly() ? o.redistributeWeeks : o.redistributeDays;
-    d.window = DayRange{drop.periodStart(std::max(0, *t - before)), drop.periodStart(*t - 1)};
+    d.window =
+        ledger::DayRange{drop.periodStart(std::max(0, *t - before)), drop.periodStart(*t - 1)};
     p.source = ProposalSource::NoEstimate;
     p.noEstimate = estimate.error();
     return p;

@@ -85,15 +85,16 @@ void findReportingGaps(const ScanInput& in, std::vector<Finding>& out) {
                             f.evidence["value_after"] = after.value;
                         f.evidence["catch_up"] = catchUp;
                         if (catchUp) {
-                            Decision s = suggestionFor(f, DecisionKind::Redistribute);
+                            ledger::Decision s =
+                                suggestionFor(f, ledger::DecisionKind::Redistribute);
                             s.date = drop.periodStart(end + 1);
                             s.excess = std::max<long long>(0, std::llround(after.value - level));
-                            s.window = DayRange{*f.first, *f.last};
-                            s.redistributeMethod = RedistributeMethod::Baseline;
+                            s.window = ledger::DayRange{*f.first, *f.last};
+                            s.redistributeMethod = ledger::RedistributeMethod::Baseline;
                             f.suggestion = std::move(s);
                         } else {
-                            Decision s = suggestionFor(f, DecisionKind::Exclude);
-                            s.window = DayRange{*f.first, *f.last};
+                            ledger::Decision s = suggestionFor(f, ledger::DecisionKind::Exclude);
+                            s.window = ledger::DayRange{*f.first, *f.last};
                             f.suggestion = std::move(s);
                             f.suggestionNotes.note =
                                 std::string("zeros inside an active stretch are probably ") +

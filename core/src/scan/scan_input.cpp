@@ -239,16 +239,17 @@ Finding makeFinding(const ScanInput& in, FindingKind kind, Severity severity,
     return f;
 }
 
-Decision suggestionFor(const Finding& f, DecisionKind kind) {
-    Decision d;
+ledger::Decision suggestionFor(const Finding& f, ledger::DecisionKind kind) {
+    ledger::Decision d;
     d.kind = kind;
     d.region = f.region.value_or(std::string());
     d.measure = f.measure.value_or(std::string());
     return d;
 }
 
-Decision mergeSuggestion(const Finding& f, const std::string& variant, const std::string& into) {
-    Decision d = suggestionFor(f, DecisionKind::MergeCodes);
+ledger::Decision mergeSuggestion(const Finding& f, const std::string& variant,
+                                 const std::string& into) {
+    ledger::Decision d = suggestionFor(f, ledger::DecisionKind::MergeCodes);
     d.region.clear();
     d.variant = variant;
     d.into = into;
@@ -256,9 +257,9 @@ Decision mergeSuggestion(const Finding& f, const std::string& variant, const std
 }
 
 void suggestAccept(Finding& f, std::string note) {
-    Decision d = suggestionFor(f, DecisionKind::Accept);
+    ledger::Decision d = suggestionFor(f, ledger::DecisionKind::Accept);
     if (f.first && f.last)
-        d.window = DayRange{*f.first, *f.last};
+        d.window = ledger::DayRange{*f.first, *f.last};
     f.suggestion = std::move(d);
     f.suggestionNotes.note = std::move(note);
 }

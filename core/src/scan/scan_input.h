@@ -125,9 +125,10 @@ Finding makeFinding(const ScanInput& in, FindingKind kind, Severity severity,
 
 /// A suggestion of `kind` for `f`, with the finding's region and measure (empty: every
 /// measure); set the finding's region before.
-Decision suggestionFor(const Finding& f, DecisionKind kind);
+ledger::Decision suggestionFor(const Finding& f, ledger::DecisionKind kind);
 /// A suggestion to merge region `variant` into `into` (every measure; it names no region).
-Decision mergeSuggestion(const Finding& f, const std::string& variant, const std::string& into);
+ledger::Decision mergeSuggestion(const Finding& f, const std::string& variant,
+                                 const std::string& into);
 /// Suggests keeping the finding's cells as reported (its region, measure and periods: set
 /// them before), with a note for the analyst.
 void suggestAccept(Finding& f, std::string note);

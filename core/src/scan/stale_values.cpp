@@ -50,8 +50,8 @@ void findStaleValues(const ScanInput& in, std::vector<Finding>& out) {
                                   {"chance_under_poisson", chance},
                                   {"first_line", c.line}};
                     // The first period of the run may be genuine; the copies follow it.
-                    Decision s = suggestionFor(f, DecisionKind::Exclude);
-                    s.window = DayRange{drop.periodStart(t + 1), *f.last};
+                    ledger::Decision s = suggestionFor(f, ledger::DecisionKind::Exclude);
+                    s.window = ledger::DayRange{drop.periodStart(t + 1), *f.last};
                     f.suggestion = std::move(s);
                     f.suggestionNotes.note = "values copied forward carry no new count";
                     out.push_back(std::move(f));

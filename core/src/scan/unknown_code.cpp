@@ -40,7 +40,7 @@ void findUnknownCodes(const ScanInput& in, std::vector<Finding>& out) {
             f.evidence["similar"] = match->second;
             f.suggestion = mergeSuggestion(f, code, match->second);
         } else {
-            f.suggestion = suggestionFor(f, DecisionKind::Exclude);  // the whole region
+            f.suggestion = suggestionFor(f, ledger::DecisionKind::Exclude);  // the whole region
             f.suggestionNotes.note = "or add the region to the register";
         }
         out.push_back(std::move(f));

@@ -20,7 +20,7 @@
 #include <string_view>
 #include <vector>
 
-namespace siftwave {
+namespace siftwave::ingest {
 
 struct IngestOptions {
     std::optional<Layout> layout;            // default: detected
@@ -78,4 +78,4 @@ Result<RegionRegister> readRegister(const std::string& path);
 /// the CLI's commands that take --regions read it when the flag is not given.
 std::string registerBeside(const std::string& dropPath);
 
-}  // namespace siftwave
+}  // namespace siftwave::ingest

@@ -23,7 +23,7 @@
 #include <span>
 #include <vector>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 /// Splits `total` over `weights` by the largest remainder method.
 /// Errors (InvalidValue): total < 0, a negative weight, or all weights zero
@@ -31,4 +31,4 @@ namespace siftwave {
 Result<std::vector<std::int64_t>> apportionLargestRemainder(std::int64_t total,
                                                             std::span<const std::int64_t> weights);
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -22,7 +22,7 @@
 #include <string_view>
 #include <vector>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 enum class CleanedState : std::uint8_t {
     Reported,    // a reported value (possibly changed by entries)
@@ -143,4 +143,4 @@ private:
 /// conversion of cleaned cells to numbers; series::countsOf is its raw counterpart.
 std::vector<double> cleanedCounts(const Cleaned& cleaned, std::size_t measure, std::size_t region);
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -54,7 +54,7 @@
 #include <string>
 #include <string_view>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 enum class DecisionKind {
     Redistribute,
@@ -130,4 +130,4 @@ std::optional<DuplicateRule> duplicateRuleFromName(std::string_view name);
 /// exactly reverses (or restores) the entry it names.
 bool decisionConservesTotals(const Decision& decision);
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -29,7 +29,7 @@
 #include <span>
 #include <string>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 namespace detail {
 class EffectBuilder;  // core/src/ledger/effects/effect_support.h
@@ -115,4 +115,4 @@ std::span<const DecisionKindInfo* const> decisionKinds();
 enum class WhereStyle { Prose, Compact };
 std::string decisionWhere(const Decision& decision, WhereStyle style);
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

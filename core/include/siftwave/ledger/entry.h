@@ -28,7 +28,7 @@
 #include <string>
 #include <vector>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 struct LedgerEntry {
     std::uint64_t sequence = 0;  // 1-based position in the ledger; the entry's id
@@ -70,4 +70,4 @@ Status sealEntry(LedgerEntry& entry, const LedgerEntry* previous);
 /// the first bad entry (its sequence number in Error::line is the file line).
 Status verifyChain(const Ledger& ledger);
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -32,7 +32,7 @@
 #include <string_view>
 #include <vector>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 /// The cleaned data as CSV text (deterministic: same inputs, same bytes).
 std::string cleanedCsv(const Drop& drop, const Cleaned& cleaned);
@@ -90,4 +90,4 @@ std::string renderReport(const Ledger& ledger, const std::vector<ReconciliationR
 Status writeReport(const std::string& path, const Ledger& ledger,
                    const std::vector<ReconciliationRow>& rows, const ReportContext& context);
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

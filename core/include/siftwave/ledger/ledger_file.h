@@ -15,7 +15,7 @@
 
 #include <string>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 /// Reads and verifies (verifyChain) a ledger file. A missing file is
 /// ErrorCode::NotFound; an empty file is an empty ledger.
@@ -30,4 +30,4 @@ Result<Ledger> parseLedger(std::string_view bytes, const std::string& displayPat
 /// Integrity error, nothing appended, when another entry got there first.
 Status appendLedgerEntry(const std::string& path, const LedgerEntry& entry);
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -21,7 +21,7 @@
 #include <optional>
 #include <string>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 struct ProjectViewSettings {
     std::string region;                // selected region code ("" = none)
@@ -66,4 +66,4 @@ std::string resolveProjectPath(const std::string& projectPath, const std::string
 /// entry at that position has another hash (entries appended since are fine).
 Status checkLedgerHead(const ProjectFile& project, const Ledger& ledger);
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -33,7 +33,7 @@
 
 #include <string>
 
-namespace siftwave {
+namespace siftwave::ledger {
 
 /// Who and when, for a new entry.
 struct EntryMeta {
@@ -73,4 +73,4 @@ Status checkConservation(const Drop& drop, const Cleaned& cleaned, const Ledger&
 /// Raw total of a region for one measure: the sum of its reported cells.
 std::int64_t rawTotal(const Drop& drop, std::size_t measure, std::size_t region);
 
-}  // namespace siftwave
+}  // namespace siftwave::ledger

@@ -75,7 +75,7 @@ struct BriefingReport {
     std::vector<FigureSpec> figures;  // one per region, in the order asked
     FindingsSummary findings;
     std::vector<LedgerLine> ledger;  // every entry, withdrawals included
-    std::vector<ReconciliationRow>
+    std::vector<ledger::ReconciliationRow>
         reconciliation;  // regions of the figures, and every row an entry moved
 };
 
@@ -97,7 +97,8 @@ struct BriefingRequest {
 };
 
 /// Gathers the report. Errors: usage, a region that is not in the drop, a scan that fails.
-Result<BriefingReport> buildBriefing(const Drop& drop, const Ledger& ledger, const Cleaned& cleaned,
+Result<BriefingReport> buildBriefing(const Drop& drop, const ledger::Ledger& ledger,
+                                     const ledger::Cleaned& cleaned,
                                      const BriefingRequest& request);
 
 /// The report as one HTML page (UTF-8, no external resources). `figureMarkup[i]`

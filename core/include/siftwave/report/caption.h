@@ -46,7 +46,7 @@ struct CaptionFacts {
 };
 
 /// The facts for one figure; `fit` may be null, `exportDate` empty = today (UTC).
-CaptionFacts captionFacts(const Drop& drop, const Ledger& ledger, const fit::FitResult* fit,
+CaptionFacts captionFacts(const Drop& drop, const ledger::Ledger& ledger, const fit::FitResult* fit,
                           const std::string& exportDate = {});
 
 /// The caption as short lines (see the header comment); the caution is the last line.

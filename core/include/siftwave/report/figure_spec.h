@@ -40,7 +40,7 @@ struct FigureRequest : PlotRequest {
 /// Errors: usage (request), not_found (region or measure not in the drop).
 /// A fit that fails is not an error: the figure is drawn without it and
 /// `fitError` says why.
-Result<FigureSpec> buildFigureSpec(const Drop& drop, const Ledger& ledger, const Cleaned& cleaned,
-                                   const FigureRequest& request);
+Result<FigureSpec> buildFigureSpec(const Drop& drop, const ledger::Ledger& ledger,
+                                   const ledger::Cleaned& cleaned, const FigureRequest& request);
 
 }  // namespace siftwave::report

@@ -44,13 +44,13 @@ namespace siftwave::report {
 /// One ledger decision in effect on the plotted region and measure (see the header comment).
 struct DecisionMark {
     std::uint64_t sequence = 0;
-    DecisionKind kind = DecisionKind::Accept;
+    ledger::DecisionKind kind = ledger::DecisionKind::Accept;
     Date first;  // the day(s) the mark points at
     Date last;
-    std::optional<DayRange> window;  // redistribute: the days the counts went to
-    std::int64_t count = 0;          // counts moved, spread, filled or merged
-    double anchorValue = 0;          // the highest raw count in first..last (0 when none)
-    std::string label;               // short, see the header comment
+    std::optional<ledger::DayRange> window;  // redistribute: the days the counts went to
+    std::int64_t count = 0;                  // counts moved, spread, filled or merged
+    double anchorValue = 0;                  // the highest raw count in first..last (0 when none)
+    std::string label;                       // short, see the header comment
 };
 
 /// An exclude decision in effect: shaded over first..last.
@@ -162,8 +162,8 @@ struct PlotRequest {
 /// The plot of one region and measure. `cleaned` is replay(drop, ledger).
 /// Errors: usage (request), not_found (region or measure not in the drop).
 /// A fit that fails is not an error: the model has no curve and `fitError` says why.
-Result<PlotModel> buildPlotModel(const Drop& drop, const Ledger& ledger, const Cleaned& cleaned,
-                                 const PlotRequest& request);
+Result<PlotModel> buildPlotModel(const Drop& drop, const ledger::Ledger& ledger,
+                                 const ledger::Cleaned& cleaned, const PlotRequest& request);
 
 /// The fitted wave of `result` on `axis` (NaN outside its window), with its confidence band and,
 /// when `countRange`, the range of counts around it computed against `cleaned` (per period of

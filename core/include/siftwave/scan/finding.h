@@ -139,7 +139,7 @@ struct Finding {
     /// The decision the scan suggests; nullopt when it suggests none. It names the finding's
     /// region and measure (empty for a finding about every measure: suggestedDecision()
     /// fills the measure in) and, once scanDrop() has given the finding its id, the id.
-    std::optional<Decision> suggestion;
+    std::optional<ledger::Decision> suggestion;
     SuggestionNotes suggestionNotes;
 };
 

@@ -51,7 +51,7 @@ enum class ProposalSource {
 };
 
 struct Proposal {
-    Decision decision;
+    ledger::Decision decision;
     ProposalSource source = ProposalSource::NoEstimate;
     const Finding* finding = nullptr;         // step 2: the finding (points into `findings`)
     std::optional<BacklogEstimate> estimate;  // step 3

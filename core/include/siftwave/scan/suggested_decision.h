@@ -26,6 +26,6 @@
 namespace siftwave::scan {
 
 /// The suggested Decision. Error NotFound when the finding suggests nothing.
-Result<Decision> suggestedDecision(const Finding& finding, const std::string& measure);
+Result<ledger::Decision> suggestedDecision(const Finding& finding, const std::string& measure);
 
 }  // namespace siftwave::scan

@@ -1,7 +1,7 @@
 // accept: keeps the data as reported; changes no cell (decision.h).
 #include "ledger/effects/effect_support.h"
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 namespace {
 
@@ -60,4 +60,4 @@ extern const DecisionKindInfo kAcceptKind = {
     .mark = mark,
 };
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

@@ -1,7 +1,7 @@
 // The helpers every decision kind's effect shares (see effect_support.h).
 #include "ledger/effects/effect_support.h"
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 Error cellError(ErrorCode code, std::string message, const std::string& region, std::string date) {
     Error e = makeError(code, std::move(message));
@@ -182,4 +182,4 @@ bool coversSeries(const Decision& d, const std::string& region, const std::strin
     return (d.region.empty() || d.region == region) && (d.measure.empty() || d.measure == measure);
 }
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

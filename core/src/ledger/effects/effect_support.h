@@ -18,7 +18,7 @@
 #include <string>
 #include <utility>
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 using Access = Cleaned::Access;
 
@@ -131,4 +131,4 @@ bool namesSeries(const Decision& d, const std::string& region, const std::string
 /// The same, where an empty region or measure covers every one (exclude, accept).
 bool coversSeries(const Decision& d, const std::string& region, const std::string& measure);
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

@@ -4,7 +4,7 @@
 #include <numeric>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 namespace {
 
@@ -96,4 +96,4 @@ extern const DecisionKindInfo kExcludeKind = {
     .mark = mark,
 };
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

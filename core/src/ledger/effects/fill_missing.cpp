@@ -6,7 +6,7 @@
 
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 namespace {
 
@@ -146,4 +146,4 @@ extern const DecisionKindInfo kFillMissingKind = {
     .mark = mark,
 };
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

@@ -3,7 +3,7 @@
 
 #include <algorithm>
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 namespace {
 
@@ -122,4 +122,4 @@ extern const DecisionKindInfo kMergeCodesKind = {
     .mark = mark,
 };
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

@@ -9,7 +9,7 @@
 #include <limits>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 namespace {
 
@@ -162,4 +162,4 @@ extern const DecisionKindInfo kRedistributeKind = {
     .mark = mark,
 };
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

@@ -4,7 +4,7 @@
 #include <algorithm>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 namespace {
 
@@ -101,4 +101,4 @@ extern const DecisionKindInfo kResolveDuplicateKind = {
     .mark = mark,
 };
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

@@ -6,7 +6,7 @@
 #include <algorithm>
 #include <vector>
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 namespace {
 
@@ -117,4 +117,4 @@ extern const DecisionKindInfo kSpreadNegativeKind = {
     .mark = mark,
 };
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail

@@ -1,7 +1,7 @@
 // withdraw: undoes an entry, or redoes it when the entry undone is a withdrawal (decision.h).
 #include "ledger/effects/effect_support.h"
 
-namespace siftwave::detail {
+namespace siftwave::ledger::detail {
 
 /// The non-withdraw entry a withdrawal of `target` toggles, and whether it ends up in effect.
 std::pair<std::uint64_t, bool> withdrawalBase(const Cleaned& cleaned, std::uint64_t target) {
@@ -116,4 +116,4 @@ extern const DecisionKindInfo kWithdrawKind = {
     .mark = mark,
 };
 
-}  // namespace siftwave::detail
+}  // namespace siftwave::ledger::detail
