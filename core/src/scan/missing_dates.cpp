@@ -99,13 +99,23 @@ std::optional<std::int64_t> linearFillAdds(std::span<const Cell> cells, std::int
     return sum;
 }
 
-void addRun(const ScanInput& in, std::size_t region, std::optional<std::size_t> measure,
-            std::int32_t first, std::int32_t last, std::vector<Finding>& out) {
+// The measures a run's suggestion is for: the finding's own, or every one.
+std::vector<std::size_t> suggestionMeasures(const Drop& drop, std::optional<std::size_t> measure) {
+    std::vector<std::size_t> measures;
+    if (measure) {
+        measures.push_back(*measure);
+    } else {
+        for (std::size_t k = 0; k < drop.measures.size(); ++k)
+            measures.push_back(k);
+    }
+    return measures;
+}
+
+// The finding of a run with what it counts: periods, absent, blank, reported zeros, level.
+Finding runFinding(const ScanInput& in, std::size_t region, std::optional<std::size_t> measure,
+                   std::int32_t first, std::int32_t last, std::span<const Cell> cells,
+                   double level) {
     const Drop& drop = in.drop;
-    const MissingDatesOptions& o = in.options.missingDates;
-    const std::size_t m = measure.value_or(0);
-    const std::span<const Cell> cells = drop.series(m, region);
-    const std::vector<double> values = seriesValues(cells);
     std::size_t absent = 0, blank = 0, zeros = 0;
     for (std::int32_t t = first; t <= last; ++t) {
         const CellState s = cells[static_cast<std::size_t>(t)].state;
@@ -114,18 +124,7 @@ void addRun(const ScanInput& in, std::size_t region, std::optional<std::size_t> 
     }
     for (const Cell& c : cells)
         zeros += c.reported() && c.value == 0;
-    const double level = levelAround(values, first, last, in.periods(o.levelDays, o.levelWeeks));
     const int periods = last - first + 1;
-
-    // The measures the suggestion is for: the finding's own, or every one.
-    std::vector<std::size_t> measures;
-    if (measure) {
-        measures.push_back(*measure);
-    } else {
-        for (std::size_t k = 0; k < drop.measures.size(); ++k)
-            measures.push_back(k);
-    }
-
     Finding f = makeFinding(in, FindingKind::MissingDates, Severity::Warning, region, measure);
     f.first = drop.periodStart(first);
     f.last = drop.periodStart(last);
@@ -137,23 +136,33 @@ void addRun(const ScanInput& in, std::size_t region, std::optional<std::size_t> 
                   {"zeros_reported", zeros}};
     if (!std::isnan(level))
         f.evidence["level_around"] = level;
+    return f;
+}
 
-    bool catchUp = false;
-    if (last + 1 < drop.periods() && cells[static_cast<std::size_t>(last) + 1].reported()) {
-        const double next = cells[static_cast<std::size_t>(last) + 1].value;
-        f.evidence["value_after"] = next;
-        f.evidence["line_after"] = cells[static_cast<std::size_t>(last) + 1].line;
-        // A next period well above the level is the catch-up: share it over the gap.
-        catchUp = !std::isnan(level) && next > 1.5 * std::max(level, 1.0);
-    }
+// Records the period after the run when it has a value; true when it is the catch-up.
+bool noteValueAfter(Finding& f, const Drop& drop, std::span<const Cell> cells, std::int32_t last,
+                    double level) {
+    if (last + 1 >= drop.periods() || !cells[static_cast<std::size_t>(last) + 1].reported())
+        return false;
+    const double next = cells[static_cast<std::size_t>(last) + 1].value;
+    f.evidence["value_after"] = next;
+    f.evidence["line_after"] = cells[static_cast<std::size_t>(last) + 1].line;
+    // A next period well above the level is the catch-up: share it over the gap.
+    return !std::isnan(level) && next > 1.5 * std::max(level, 1.0);
+}
 
+// Whether the run is probably true zeros (low counts nearby in every measure), with the evidence.
+bool noteTrueZeros(const ScanInput& in, Finding& f, std::span<const double> values,
+                   std::size_t region, std::size_t m, const std::vector<std::size_t>& measures,
+                   std::int32_t first, std::int32_t last, bool catchUp) {
+    const MissingDatesOptions& o = in.options.missingDates;
     const double nearby = levelNearby(values, first, last, o.trueZeroPeriods);
     bool trueZeros = !catchUp && !std::isnan(nearby) && nearby <= o.trueZeroMaxLevel;
     for (std::size_t k : measures) {
         if (k == m)
             continue;
         const double other =
-            levelNearby(seriesValues(drop.series(k, region)), first, last, o.trueZeroPeriods);
+            levelNearby(seriesValues(in.drop.series(k, region)), first, last, o.trueZeroPeriods);
         trueZeros = trueZeros && !(other > o.trueZeroMaxLevel);
     }
     if (!std::isnan(nearby)) {
@@ -161,47 +170,80 @@ void addRun(const ScanInput& in, std::size_t region, std::optional<std::size_t> 
         f.evidence["zero_chance_nearby"] = std::exp(-nearby);
     }
     f.evidence["probably_true_zeros"] = trueZeros;
+    return trueZeros;
+}
 
-    nlohmann::json adds = nlohmann::json::object();
-    std::optional<ledger::FillMethod> method;  // none: nothing to interpolate from
+// The fill a run's suggestion uses (none: nothing to interpolate from) and what it adds.
+struct FillChoice {
+    std::optional<ledger::FillMethod> method;
+    nlohmann::json adds = nlohmann::json::object();  // {measure: counts added}
+};
+
+// Share for a catch-up, zero for true zeros, else linear where every measure can take it.
+FillChoice chooseFill(const Drop& drop, std::size_t region,
+                      const std::vector<std::size_t>& measures, std::int32_t first,
+                      std::int32_t last, bool catchUp, bool trueZeros) {
+    FillChoice choice;
     if (catchUp || trueZeros) {
-        method = catchUp ? ledger::FillMethod::Share : ledger::FillMethod::Zero;
+        choice.method = catchUp ? ledger::FillMethod::Share : ledger::FillMethod::Zero;
         for (std::size_t k : measures)
-            adds[drop.measures[k]] = 0;
-    } else {
-        // Interpolation adds counts: say how many, for every measure it can be made for.
-        bool interpolable = true;
-        for (std::size_t k : measures) {
-            const std::optional<std::int64_t> added =
-                linearFillAdds(drop.series(k, region), first, last);
-            if (added)
-                adds[drop.measures[k]] = *added;
-            else
-                interpolable = false;
-        }
-        if (interpolable)
-            method = ledger::FillMethod::Linear;
+            choice.adds[drop.measures[k]] = 0;
+        return choice;
     }
-    if (trueZeros)
-        f.severity = Severity::Info;
+    // Interpolation adds counts: say how many, for every measure it can be made for.
+    bool interpolable = true;
+    for (std::size_t k : measures) {
+        const std::optional<std::int64_t> added =
+            linearFillAdds(drop.series(k, region), first, last);
+        if (added)
+            choice.adds[drop.measures[k]] = *added;
+        else
+            interpolable = false;
+    }
+    if (interpolable)
+        choice.method = ledger::FillMethod::Linear;
+    return choice;
+}
 
-    if (!method) {
+// The fill_missing suggestion with what it adds, or a look at the source when there is no fill.
+void suggestFill(Finding& f, const Drop& drop, const FillChoice& choice, bool trueZeros) {
+    if (!choice.method) {
         suggestAccept(f, std::string("no reported value on both sides of the gap to interpolate "
                                      "from; look at the source before filling these ") +
                              drop.axis.unitPlural());
-    } else {
-        f.evidence["suggestion_adds"] = adds;
-        ledger::Decision s = suggestionFor(f, ledger::DecisionKind::FillMissing);
-        s.fillMethod = *method;
-        s.window = ledger::DayRange{*f.first, *f.last};
-        f.suggestion = std::move(s);
-        if (trueZeros) {
-            f.suggestionNotes.note = std::string("absent rows amid low counts are probably ") +
-                                     drop.axis.unitPlural() +
-                                     " without cases (a tally made from a case list writes no "
-                                     "row for them): fill 0, do not interpolate";
-        }
+        return;
     }
+    f.evidence["suggestion_adds"] = choice.adds;
+    ledger::Decision s = suggestionFor(f, ledger::DecisionKind::FillMissing);
+    s.fillMethod = *choice.method;
+    s.window = ledger::DayRange{*f.first, *f.last};
+    f.suggestion = std::move(s);
+    if (trueZeros) {
+        f.suggestionNotes.note = std::string("absent rows amid low counts are probably ") +
+                                 drop.axis.unitPlural() +
+                                 " without cases (a tally made from a case list writes no "
+                                 "row for them): fill 0, do not interpolate";
+    }
+}
+
+// One finding for a missing run: its counts, the period after, true zeros, then the fill.
+void addRun(const ScanInput& in, std::size_t region, std::optional<std::size_t> measure,
+            std::int32_t first, std::int32_t last, std::vector<Finding>& out) {
+    const MissingDatesOptions& o = in.options.missingDates;
+    const std::size_t m = measure.value_or(0);
+    const std::span<const Cell> cells = in.drop.series(m, region);
+    const std::vector<double> values = seriesValues(cells);
+    const double level = levelAround(values, first, last, in.periods(o.levelDays, o.levelWeeks));
+    const std::vector<std::size_t> measures = suggestionMeasures(in.drop, measure);
+
+    Finding f = runFinding(in, region, measure, first, last, cells, level);
+    const bool catchUp = noteValueAfter(f, in.drop, cells, last, level);
+    const bool trueZeros = noteTrueZeros(in, f, values, region, m, measures, first, last, catchUp);
+    const FillChoice choice =
+        chooseFill(in.drop, region, measures, first, last, catchUp, trueZeros);
+    if (trueZeros)
+        f.severity = Severity::Info;
+    suggestFill(f, in.drop, choice, trueZeros);
     out.push_back(std::move(f));
 }
 
