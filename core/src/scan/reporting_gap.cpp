@@ -20,92 +20,140 @@
 
 #include <algorithm>
 #include <cmath>
+#include <optional>
+#include <utility>
 
 namespace siftwave::scan::detail {
+
+namespace {
+
+// The thresholds of the drop's cadence.
+struct GapThresholds {
+    int minRun = 0;       // periods
+    int window = 0;       // periods on each side
+    double minLevel = 0;  // counts per period
+};
+
+// First and last period with a positive reported value; nullopt when there is none.
+std::optional<std::pair<std::int32_t, std::int32_t>> positiveSpan(std::span<const Cell> cells,
+                                                                  std::int32_t periods) {
+    std::int32_t firstPositive = -1, lastPositive = -1;
+    for (std::int32_t t = 0; t < periods; ++t) {
+        const Cell& c = cells[static_cast<std::size_t>(t)];
+        if (c.reported() && c.value > 0) {
+            if (firstPositive < 0)
+                firstPositive = t;
+            lastPositive = t;
+        }
+    }
+    if (firstPositive < 0)
+        return std::nullopt;
+    return std::pair{firstPositive, lastPositive};
+}
+
+// The last period of the run of reported zeros from `t`, before `lastPositive`.
+std::int32_t zeroRunEnd(std::span<const Cell> cells, std::int32_t t, std::int32_t lastPositive) {
+    std::int32_t end = t;
+    while (end + 1 < lastPositive && cells[static_cast<std::size_t>(end) + 1].reported() &&
+           cells[static_cast<std::size_t>(end) + 1].value == 0) {
+        ++end;
+    }
+    return end;
+}
+
+// Cheap bound first: the median around the run is at most its largest value.
+bool mayBeActive(std::span<const Cell> cells, std::int32_t periods, std::int32_t t,
+                 std::int32_t end, const GapThresholds& th) {
+    bool active = false;
+    for (std::int32_t j = std::max(0, t - th.window);
+         j <= std::min(periods - 1, end + th.window) && !active; ++j) {
+        const Cell& n = cells[static_cast<std::size_t>(j)];
+        active = n.reported() && n.value >= th.minLevel;
+    }
+    return active;
+}
+
+// Redistribute the catch-up after the run over it, or else exclude the zeros as unreported.
+void suggestForGap(Finding& f, const Drop& drop, const Cell& after, std::int32_t end, double level,
+                   bool catchUp) {
+    if (catchUp) {
+        ledger::Decision s = suggestionFor(f, ledger::DecisionKind::Redistribute);
+        s.date = drop.periodStart(end + 1);
+        s.excess = std::max<long long>(0, std::llround(after.value - level));
+        s.window = ledger::DayRange{*f.first, *f.last};
+        s.redistributeMethod = ledger::RedistributeMethod::Baseline;
+        f.suggestion = std::move(s);
+    } else {
+        ledger::Decision s = suggestionFor(f, ledger::DecisionKind::Exclude);
+        s.window = ledger::DayRange{*f.first, *f.last};
+        f.suggestion = std::move(s);
+        f.suggestionNotes.note = std::string("zeros inside an active stretch are probably ") +
+                                 drop.axis.unitPlural() + " that were not reported";
+    }
+}
+
+// The finding of the zero run t..end at `level` around it, with its evidence and suggestion.
+Finding gapFinding(const ScanInput& in, std::size_t r, std::size_t m, std::span<const Cell> cells,
+                   std::int32_t t, std::int32_t end, double level) {
+    const Drop& drop = in.drop;
+    const int periods = end - t + 1;
+    Finding f = makeFinding(in, FindingKind::ReportingGap, Severity::Warning, r, m);
+    f.first = drop.periodStart(t);
+    f.last = drop.periodStart(end);
+    f.impact = level * periods;
+    f.evidence = {{"days", in.daysIn(periods)},
+                  {"periods", periods},
+                  {"level_around", level},
+                  {"chance_under_poisson", std::exp(-level * periods)},
+                  {"first_line", cells[static_cast<std::size_t>(t)].line}};
+    const Cell& after = cells[static_cast<std::size_t>(end) + 1];
+    const bool catchUp = after.reported() && after.value > 2.0 * level;
+    if (after.reported())
+        f.evidence["value_after"] = after.value;
+    f.evidence["catch_up"] = catchUp;
+    suggestForGap(f, drop, after, end, level, catchUp);
+    return f;
+}
+
+// The gaps of one series: each zero run between its first and last positive value.
+void findGapsInSeries(const ScanInput& in, std::size_t m, std::size_t r, const GapThresholds& th,
+                      std::vector<Finding>& out) {
+    const Drop& drop = in.drop;
+    const std::span<const Cell> cells = drop.series(m, r);
+    const auto span = positiveSpan(cells, drop.periods());
+    if (!span)
+        return;
+    const auto [firstPositive, lastPositive] = *span;
+    std::vector<double> values;  // filled on the first candidate only
+    for (std::int32_t t = firstPositive + 1; t < lastPositive; ++t) {
+        const Cell& c = cells[static_cast<std::size_t>(t)];
+        if (!c.reported() || c.value != 0)
+            continue;
+        const std::int32_t end = zeroRunEnd(cells, t, lastPositive);
+        if (end - t + 1 >= th.minRun && mayBeActive(cells, drop.periods(), t, end, th)) {
+            if (values.empty())
+                values = seriesValues(cells);
+            const double level = levelAround(values, t, end, th.window);
+            if (!std::isnan(level) && level >= th.minLevel)
+                out.push_back(gapFinding(in, r, m, cells, t, end, level));
+        }
+        t = end;
+    }
+}
+
+}  // namespace
 
 void findReportingGaps(const ScanInput& in, std::vector<Finding>& out) {
     const Drop& drop = in.drop;
     const ReportingGapOptions& o = in.options.reportingGap;
-    const int minRun = in.periods(o.minDays, o.minWeeks);
-    const int window = in.periods(o.windowDays, o.windowWeeks);
-    const double minLevel = in.periods(o.minLevel, o.minWeeklyLevel);
+    const GapThresholds th{in.periods(o.minDays, o.minWeeks),
+                           in.periods(o.windowDays, o.windowWeeks),
+                           in.periods(o.minLevel, o.minWeeklyLevel)};
     for (std::size_t m = 0; m < drop.measures.size(); ++m) {
         if (in.measures[m].cumulative)
             continue;
-        for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
-            const std::span<const Cell> cells = drop.series(m, r);
-            std::int32_t firstPositive = -1, lastPositive = -1;
-            for (std::int32_t t = 0; t < drop.periods(); ++t) {
-                const Cell& c = cells[static_cast<std::size_t>(t)];
-                if (c.reported() && c.value > 0) {
-                    if (firstPositive < 0)
-                        firstPositive = t;
-                    lastPositive = t;
-                }
-            }
-            if (firstPositive < 0)
-                continue;
-            std::vector<double> values;  // filled on the first candidate only
-            for (std::int32_t t = firstPositive + 1; t < lastPositive; ++t) {
-                const Cell& c = cells[static_cast<std::size_t>(t)];
-                if (!c.reported() || c.value != 0)
-                    continue;
-                std::int32_t end = t;
-                while (end + 1 < lastPositive &&
-                       cells[static_cast<std::size_t>(end) + 1].reported() &&
-                       cells[static_cast<std::size_t>(end) + 1].value == 0) {
-                    ++end;
-                }
-                const int periods = end - t + 1;
-                // Cheap bound first: the median around the run is at most its largest value.
-                bool mayBeActive = false;
-                for (std::int32_t j = std::max(0, t - window);
-                     j <= std::min(drop.periods() - 1, end + window) && !mayBeActive; ++j) {
-                    const Cell& n = cells[static_cast<std::size_t>(j)];
-                    mayBeActive = n.reported() && n.value >= minLevel;
-                }
-                if (periods >= minRun && mayBeActive) {
-                    if (values.empty())
-                        values = seriesValues(cells);
-                    const double level = levelAround(values, t, end, window);
-                    if (!std::isnan(level) && level >= minLevel) {
-                        Finding f =
-                            makeFinding(in, FindingKind::ReportingGap, Severity::Warning, r, m);
-                        f.first = drop.periodStart(t);
-                        f.last = drop.periodStart(end);
-                        f.impact = level * periods;
-                        f.evidence = {{"days", in.daysIn(periods)},
-                                      {"periods", periods},
-                                      {"level_around", level},
-                                      {"chance_under_poisson", std::exp(-level * periods)},
-                                      {"first_line", c.line}};
-                        const Cell& after = cells[static_cast<std::size_t>(end) + 1];
-                        const bool catchUp = after.reported() && after.value > 2.0 * level;
-                        if (after.reported())
-                            f.evidence["value_after"] = after.value;
-                        f.evidence["catch_up"] = catchUp;
-                        if (catchUp) {
-                            ledger::Decision s =
-                                suggestionFor(f, ledger::DecisionKind::Redistribute);
-                            s.date = drop.periodStart(end + 1);
-                            s.excess = std::max<long long>(0, std::llround(after.value - level));
-                            s.window = ledger::DayRange{*f.first, *f.last};
-                            s.redistributeMethod = ledger::RedistributeMethod::Baseline;
-                            f.suggestion = std::move(s);
-                        } else {
-                            ledger::Decision s = suggestionFor(f, ledger::DecisionKind::Exclude);
-                            s.window = ledger::DayRange{*f.first, *f.last};
-                            f.suggestion = std::move(s);
-                            f.suggestionNotes.note =
-                                std::string("zeros inside an active stretch are probably ") +
-                                drop.axis.unitPlural() + " that were not reported";
-                        }
-                        out.push_back(std::move(f));
-                    }
-                }
-                t = end;
-            }
-        }
+        for (std::size_t r = 0; r < drop.regionCodes.size(); ++r)
+            findGapsInSeries(in, m, r, th, out);
     }
 }
 
