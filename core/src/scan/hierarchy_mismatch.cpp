@@ -12,89 +12,128 @@
 #include "scan/scan_input.h"
 
 #include <cmath>
+#include <optional>
 
 namespace siftwave::scan::detail {
+
+namespace {
+
+// A parent's register children: those the drop has (by index) and those it does not (codes).
+struct Children {
+    std::vector<std::size_t> inDrop;
+    nlohmann::json notInDrop = nlohmann::json::array();
+};
+
+// Splits the register children of a region code into those in the drop and those not.
+Children childrenOf(const Drop& drop, const std::vector<std::string>& childCodes) {
+    Children children;
+    for (const std::string& code : childCodes) {
+        if (auto c = drop.regionIndex(code)) {
+            children.inDrop.push_back(*c);
+        } else {
+            children.notInDrop.push_back(code);
+        }
+    }
+    return children;
+}
+
+// The sum of the children in period t; nullopt when one of them is not reported.
+std::optional<double> childrenSum(const Drop& drop, std::size_t m,
+                                  const std::vector<std::size_t>& children, std::int32_t t) {
+    double sum = 0;
+    for (std::size_t c : children) {
+        const Cell& child = drop.cell(m, c, t);
+        if (!child.reported())
+            return std::nullopt;
+        sum += child.value;
+    }
+    return sum;
+}
+
+// How a parent and its children compare over the periods of one measure.
+struct Comparison {
+    std::size_t compared = 0, mismatched = 0;
+    double absolute = 0;
+    std::int32_t first = -1, last = -1;  // first and last mismatched period
+    nlohmann::json dates = nlohmann::json::array();
+};
+
+// Compares parent p with the sum of its children in every period where all are reported.
+Comparison compareWithChildren(const ScanInput& in, std::size_t p, std::size_t m,
+                               const std::vector<std::size_t>& children) {
+    const Drop& drop = in.drop;
+    const double tolerance = in.options.hierarchyMismatch.tolerance;
+    const auto listed = static_cast<std::size_t>(in.options.revision.maxDatesListed);
+    Comparison cmp;
+    for (std::int32_t t = 0; t < drop.periods(); ++t) {
+        const Cell& parent = drop.cell(m, p, t);
+        if (!parent.reported())
+            continue;
+        const std::optional<double> sum = childrenSum(drop, m, children, t);
+        if (!sum)
+            continue;
+        ++cmp.compared;
+        const double diff = parent.value - *sum;
+        if (std::fabs(diff) <= tolerance)
+            continue;
+        ++cmp.mismatched;
+        cmp.absolute += std::fabs(diff);
+        if (cmp.first < 0)
+            cmp.first = t;
+        cmp.last = t;
+        if (cmp.dates.size() < listed) {
+            cmp.dates.push_back({{"date", drop.periodStart(t).iso()},
+                                 {"parent", parent.value},
+                                 {"children_sum", *sum},
+                                 {"difference", diff}});
+        }
+    }
+    return cmp;
+}
+
+// The finding of a parent and measure with mismatched periods.
+Finding mismatchFinding(const ScanInput& in, std::size_t p, std::size_t m, const Children& children,
+                        const Comparison& cmp) {
+    const Drop& drop = in.drop;
+    Finding f = makeFinding(in, FindingKind::HierarchyMismatch, Severity::Warning, p, m);
+    f.first = drop.periodStart(cmp.first);
+    f.last = drop.periodStart(cmp.last);
+    f.impact = cmp.absolute;
+    nlohmann::json childList = nlohmann::json::array();
+    for (std::size_t c : children.inDrop)
+        childList.push_back(drop.regionCodes[c]);
+    f.evidence = {{"children", childList},
+                  {"children_not_in_drop", children.notInDrop},
+                  {"days_compared", in.daysIn(static_cast<std::int64_t>(cmp.compared))},
+                  {"days_mismatched", in.daysIn(static_cast<std::int64_t>(cmp.mismatched))},
+                  {"periods_compared", cmp.compared},
+                  {"periods_mismatched", cmp.mismatched},
+                  {"absolute_difference", cmp.absolute},
+                  {"dates", cmp.dates}};
+    suggestAccept(f,
+                  "decide which level to trust before summing regions; "
+                  "report the parent or the sum of its children, not both");
+    return f;
+}
+
+}  // namespace
 
 void findHierarchyMismatches(const ScanInput& in, std::vector<Finding>& out) {
     const Drop& drop = in.drop;
     const RegionRegister* reg = in.context.regions;
     if (reg == nullptr || !reg->hasHierarchy())
         return;
-    const double tolerance = in.options.hierarchyMismatch.tolerance;
-    const auto listed = static_cast<std::size_t>(in.options.revision.maxDatesListed);
     for (std::size_t p = 0; p < drop.regionCodes.size(); ++p) {
         const std::vector<std::string> childCodes = reg->childrenOf(drop.regionCodes[p]);
         if (childCodes.empty())
             continue;
-        std::vector<std::size_t> children;
-        nlohmann::json notInDrop = nlohmann::json::array();
-        for (const std::string& code : childCodes) {
-            if (auto c = drop.regionIndex(code)) {
-                children.push_back(*c);
-            } else {
-                notInDrop.push_back(code);
-            }
-        }
-        if (children.empty())
+        const Children children = childrenOf(drop, childCodes);
+        if (children.inDrop.empty())
             continue;
         for (std::size_t m = 0; m < drop.measures.size(); ++m) {
-            std::size_t compared = 0, mismatched = 0;
-            double absolute = 0;
-            std::int32_t first = -1, last = -1;
-            nlohmann::json dates = nlohmann::json::array();
-            for (std::int32_t t = 0; t < drop.periods(); ++t) {
-                const Cell& parent = drop.cell(m, p, t);
-                if (!parent.reported())
-                    continue;
-                double sum = 0;
-                bool all = true;
-                for (std::size_t c : children) {
-                    const Cell& child = drop.cell(m, c, t);
-                    if (!child.reported()) {
-                        all = false;
-                        break;
-                    }
-                    sum += child.value;
-                }
-                if (!all)
-                    continue;
-                ++compared;
-                const double diff = parent.value - sum;
-                if (std::fabs(diff) <= tolerance)
-                    continue;
-                ++mismatched;
-                absolute += std::fabs(diff);
-                if (first < 0)
-                    first = t;
-                last = t;
-                if (dates.size() < listed) {
-                    dates.push_back({{"date", drop.periodStart(t).iso()},
-                                     {"parent", parent.value},
-                                     {"children_sum", sum},
-                                     {"difference", diff}});
-                }
-            }
-            if (mismatched == 0)
-                continue;
-            Finding f = makeFinding(in, FindingKind::HierarchyMismatch, Severity::Warning, p, m);
-            f.first = drop.periodStart(first);
-            f.last = drop.periodStart(last);
-            f.impact = absolute;
-            nlohmann::json childList = nlohmann::json::array();
-            for (std::size_t c : children)
-                childList.push_back(drop.regionCodes[c]);
-            f.evidence = {{"children", childList},
-                          {"children_not_in_drop", notInDrop},
-                          {"days_compared", in.daysIn(static_cast<std::int64_t>(compared))},
-                          {"days_mismatched", in.daysIn(static_cast<std::int64_t>(mismatched))},
-                          {"periods_compared", compared},
-                          {"periods_mismatched", mismatched},
-                          {"absolute_difference", absolute},
-                          {"dates", dates}};
-            suggestAccept(f,
-                          "decide which level to trust before summing regions; "
-                          "report the parent or the sum of its children, not both");
-            out.push_back(std::move(f));
+            const Comparison cmp = compareWithChildren(in, p, m, children.inDrop);
+            if (cmp.mismatched > 0)
+                out.push_back(mismatchFinding(in, p, m, children, cmp));
         }
     }
 }
