@@ -39,11 +39,8 @@ bool saveScreenshot(siftwave::gui::MainWindow& window, const QString& path) {
     return true;
 }
 
-}  // namespace
-
-int main(int argc, char** argv) {
-    Q_INIT_RESOURCE(siftwave);  // the resources live in the static siftwave_app library
-    QApplication app(argc, argv);
+/// The application's names, icon and style sheet.
+void describeApplication(QApplication& app) {
     QApplication::setOrganizationName(QStringLiteral("Siftwave"));
     QApplication::setApplicationName(QStringLiteral("siftwave"));
     QApplication::setApplicationDisplayName(QStringLiteral("Siftwave"));
@@ -51,7 +48,21 @@ int main(int argc, char** argv) {
     QApplication::setWindowIcon(QIcon(QStringLiteral(":/siftwave/icons/siftwave.svg")));
     QApplication::setDesktopFileName(QStringLiteral("siftwave"));
     app.setStyleSheet(loadStyleSheet());
+}
 
+/// What the command line asks for.
+struct StartRequest {
+    bool shooting = false;   // --screenshot: render to `screenshotPath` and exit
+    QString screenshotPath;  // the PNG to write
+    QString drop;            // the drop to open (may be empty)
+    QString projectPath;     // the project to open instead of a drop (may be empty)
+    QString previousPath;    // the previous release to open after the drop
+    QString region;          // --select
+    QString findingId;       // --finding
+};
+
+/// Reads the command line; --help, --version and a bad option print and exit here.
+StartRequest parseCommandLine(QApplication& app) {
     QCommandLineParser parser;
     parser.setApplicationDescription(
         QStringLiteral("Siftwave: a workbench for surveillance case-count releases."));
@@ -85,93 +96,143 @@ int main(int argc, char** argv) {
                        "bundled sample."));
     parser.process(app);
 
-    const bool shooting = parser.isSet(screenshot);
-    siftwave::gui::MainWindow::Options options;
-    options.rememberLayout = !shooting;
-    options.dialogs = !shooting;
-    siftwave::gui::MainWindow window(options);
-    using siftwave::gui::MainWindow;
+    StartRequest request;
+    request.shooting = parser.isSet(screenshot);
+    request.screenshotPath = parser.value(screenshot);
+    request.drop = parser.positionalArguments().value(0);
+    request.projectPath = parser.value(project);
+    request.previousPath = parser.value(previous);
+    request.region = parser.value(select);
+    request.findingId = parser.value(finding);
+    return request;
+}
 
-    QString drop = parser.positionalArguments().value(0);
-    QString projectPath = parser.value(project);
-    if (projectPath.isEmpty() && siftwave::gui::isProjectPath(drop))
-        std::swap(projectPath, drop);
-    if (drop.isEmpty() && projectPath.isEmpty()) {
-        drop = siftwave::gui::bundledSampleDrop();
-        if (drop.isEmpty())
+/// A project given as DROP opens as a project; with neither, the bundled sample opens.
+void chooseWhatToOpen(StartRequest& request) {
+    if (request.projectPath.isEmpty() && siftwave::gui::isProjectPath(request.drop))
+        std::swap(request.projectPath, request.drop);
+    if (request.drop.isEmpty() && request.projectPath.isEmpty()) {
+        request.drop = siftwave::gui::bundledSampleDrop();
+        if (request.drop.isEmpty())
             std::fprintf(stderr, "siftwave: the bundled sample drop was not found (looked in %s)\n",
                          qPrintable(siftwave::gui::sampleFolders().join(QStringLiteral(", "))));
     }
-    const QString previousPath = parser.value(previous);
-    const QString region = parser.value(select);
-    const QString findingId = parser.value(finding);
-    const QString out = parser.value(screenshot);
+}
 
-    // The start-up sequence: open the drop, then the previous release, then select; then
-    // (with --screenshot) render and exit. Each step runs when the one before reported back.
-    int exitCode = 0;
-    auto finish = [&](bool ok) {
-        if (!shooting)
-            return;
-        // One more turn of the event loop so docks and the plot have their final sizes.
-        QTimer::singleShot(0, &window, [&, ok] {
-            exitCode = saveScreenshot(window, out) && ok ? 0 : 1;
-            QApplication::exit(exitCode);
-        });
-    };
-    auto selectAndFinish = [&] {
-        bool ok = true;
-        if (!region.isEmpty() && !window.selectRegion(region)) {
-            std::fprintf(stderr, "siftwave: no region %s in this drop\n", qPrintable(region));
-            ok = false;
-        }
-        if (!findingId.isEmpty() && !window.focusFinding(findingId)) {
-            std::fprintf(stderr, "siftwave: no finding %s in this drop\n", qPrintable(findingId));
-            ok = false;
-        }
-        finish(ok);
-    };
-    // Findings are only there once the (last) scan has finished.
-    auto afterScan = [&] {
+/// The start-up sequence: open the drop, then the previous release, then select; then
+/// (with --screenshot) render and exit. Each step runs when the one before reported back.
+class StartUp {
+public:
+    StartUp(siftwave::gui::MainWindow& window, const StartRequest& request)
+        : m_window(window), m_request(request) {}
+
+    /// Chains the steps to the window's signals, shows the window and opens what was asked for.
+    void run() {
+        if (!m_request.projectPath.isEmpty())
+            chainProjectSteps();
+        else
+            chainDropSteps();
+        if (m_request.shooting)
+            m_window.resize(1440, 900);
+        m_window.show();
+        if (!m_request.projectPath.isEmpty())
+            m_window.openProject(m_request.projectPath);
+        else if (m_request.drop.isEmpty())
+            finish(false);
+        else
+            m_window.openDrop(m_request.drop);
+    }
+
+    /// The exit code of a --screenshot run (0: written and every step succeeded).
+    int exitCode() const { return m_exitCode; }
+
+private:
+    using MainWindow = siftwave::gui::MainWindow;
+
+    /// A project brings its own previous release and selection; --select and --finding
+    /// still apply on top.
+    void chainProjectSteps() {
         QObject::connect(
-            &window, &MainWindow::scanFinished, &window, [&] { selectAndFinish(); },
-            Qt::SingleShotConnection);
-    };
-    if (!projectPath.isEmpty()) {
-        // A project brings its own previous release and selection; --select and --finding
-        // still apply on top.
+            &m_window, &MainWindow::projectOpened, &m_window,
+            [this](const QString&) { afterScan(); }, Qt::SingleShotConnection);
+        QObject::connect(&m_window, &MainWindow::projectFailed, &m_window,
+                         [this](const QString&) { finish(false); });
+    }
+
+    /// The drop, then the previous release (when given), then the selection.
+    void chainDropSteps() {
         QObject::connect(
-            &window, &MainWindow::projectOpened, &window, [&](const QString&) { afterScan(); },
-            Qt::SingleShotConnection);
-        QObject::connect(&window, &MainWindow::projectFailed, &window,
-                         [&](const QString&) { finish(false); });
-    } else {
-        QObject::connect(
-            &window, &MainWindow::dropOpened, &window,
-            [&](const QString&) {
-                if (previousPath.isEmpty()) {
+            &m_window, &MainWindow::dropOpened, &m_window,
+            [this](const QString&) {
+                if (m_request.previousPath.isEmpty()) {
                     afterScan();
                     return;
                 }
                 QObject::connect(
-                    &window, &MainWindow::previousOpened, &window,
-                    [&](const QString&) { afterScan(); }, Qt::SingleShotConnection);
-                window.openPreviousRelease(previousPath);
+                    &m_window, &MainWindow::previousOpened, &m_window,
+                    [this](const QString&) { afterScan(); }, Qt::SingleShotConnection);
+                m_window.openPreviousRelease(m_request.previousPath);
             },
             Qt::SingleShotConnection);
-        QObject::connect(&window, &MainWindow::dropFailed, &window,
-                         [&](const QString&) { finish(false); });
+        QObject::connect(&m_window, &MainWindow::dropFailed, &m_window,
+                         [this](const QString&) { finish(false); });
     }
 
-    if (shooting)
-        window.resize(1440, 900);
-    window.show();
-    if (!projectPath.isEmpty())
-        window.openProject(projectPath);
-    else if (drop.isEmpty())
-        finish(false);
-    else
-        window.openDrop(drop);
+    /// Findings are only there once the (last) scan has finished.
+    void afterScan() {
+        QObject::connect(
+            &m_window, &MainWindow::scanFinished, &m_window, [this] { selectAndFinish(); },
+            Qt::SingleShotConnection);
+    }
+
+    /// Selects the region and focuses the finding asked for, then finishes.
+    void selectAndFinish() {
+        bool ok = true;
+        if (!m_request.region.isEmpty() && !m_window.selectRegion(m_request.region)) {
+            std::fprintf(stderr, "siftwave: no region %s in this drop\n",
+                         qPrintable(m_request.region));
+            ok = false;
+        }
+        if (!m_request.findingId.isEmpty() && !m_window.focusFinding(m_request.findingId)) {
+            std::fprintf(stderr, "siftwave: no finding %s in this drop\n",
+                         qPrintable(m_request.findingId));
+            ok = false;
+        }
+        finish(ok);
+    }
+
+    /// With --screenshot: writes it and exits (code 1 when it or a step failed).
+    void finish(bool ok) {
+        if (!m_request.shooting)
+            return;
+        // One more turn of the event loop so docks and the plot have their final sizes.
+        QTimer::singleShot(0, &m_window, [this, ok] {
+            m_exitCode = saveScreenshot(m_window, m_request.screenshotPath) && ok ? 0 : 1;
+            QApplication::exit(m_exitCode);
+        });
+    }
+
+    siftwave::gui::MainWindow& m_window;
+    const StartRequest& m_request;
+    int m_exitCode = 0;
+};
+
+}  // namespace
+
+int main(int argc, char** argv) {
+    Q_INIT_RESOURCE(siftwave);  // the resources live in the static siftwave_app library
+    QApplication app(argc, argv);
+    describeApplication(app);
+    StartRequest request = parseCommandLine(app);
+
+    siftwave::gui::MainWindow::Options options;
+    options.rememberLayout = !request.shooting;
+    options.dialogs = !request.shooting;
+    siftwave::gui::MainWindow window(options);
+    chooseWhatToOpen(request);
+
+    StartUp startUp(window, request);
+    startUp.run();
     const int status = app.exec();
-    return shooting ? exitCode : status;
+    return request.shooting ? startUp.exitCode() : status;
 }
