@@ -287,11 +287,38 @@ void MainWindow::buildDocks() {
     ledger->raise();
 }
 
+// The menu bar, one menu a step.
 void MainWindow::buildActions() {
+    buildFileMenu();
+    buildEditMenu();
+    buildReviewMenu();
+    buildViewMenu();
+    buildHelpMenu();
+}
+
+// File: open a drop or a project, save the project, the previous release, recent drops, close,
+// export and quit.
+void MainWindow::buildFileMenu() {
     QMenu* file = menuBar()->addMenu(tr("&File"));
     QAction* open = file->addAction(tr("&Open drop…"), this, &MainWindow::showOpenDialog);
     open->setShortcut(QKeySequence::Open);
     open->setObjectName(QStringLiteral("actionOpenDrop"));
+    addProjectActions(file);
+    file->addSeparator();
+    addPreviousReleaseActions(file);
+    m_recentMenu = file->addMenu(tr("Open &recent"));
+    rebuildRecentMenu();
+    file->addSeparator();
+    QAction* close = file->addAction(tr("&Close drop"), m_workbench, &widgets::Workbench::close);
+    close->setShortcut(QKeySequence::Close);
+    addExportFigureAction(this, file);
+    file->addSeparator();
+    QAction* quit = file->addAction(tr("&Quit"), this, &QWidget::close);
+    quit->setShortcut(QKeySequence::Quit);
+}
+
+// Open project, Save project and Save project as (the saves enabled while a drop is open).
+void MainWindow::addProjectActions(QMenu* file) {
     QAction* openProjectAction =
         file->addAction(tr("Open pro&ject…"), this, &MainWindow::showOpenProjectDialog);
     openProjectAction->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_O));
@@ -311,7 +338,10 @@ void MainWindow::buildActions() {
         connect(m_workbench, &widgets::Workbench::dropChanged, action,
                 [this, action] { action->setEnabled(m_workbench->hasDrop()); });
     }
-    file->addSeparator();
+}
+
+// Open and close the previous release (enabled with a drop open / a previous release shown).
+void MainWindow::addPreviousReleaseActions(QMenu* file) {
     QAction* previous =
         file->addAction(tr("Open &previous release…"), this, &MainWindow::showOpenPreviousDialog);
     previous->setObjectName(QStringLiteral("actionOpenPrevious"));
@@ -328,16 +358,10 @@ void MainWindow::buildActions() {
             [closePrevious] { closePrevious->setEnabled(false); });
     previous->setEnabled(false);
     closePrevious->setEnabled(false);
-    m_recentMenu = file->addMenu(tr("Open &recent"));
-    rebuildRecentMenu();
-    file->addSeparator();
-    QAction* close = file->addAction(tr("&Close drop"), m_workbench, &widgets::Workbench::close);
-    close->setShortcut(QKeySequence::Close);
-    addExportFigureAction(this, file);
-    file->addSeparator();
-    QAction* quit = file->addAction(tr("&Quit"), this, &QWidget::close);
-    quit->setShortcut(QKeySequence::Quit);
+}
 
+// Edit: undo (a withdrawal) and redo through the decisions' undo stack.
+void MainWindow::buildEditMenu() {
     QMenu* edit = menuBar()->addMenu(tr("&Edit"));
     QUndoStack* undoStack = m_decisionControl->undoStack();
     QAction* undo = undoStack->createUndoAction(this, tr("&Undo (appends a withdrawal)"));
@@ -346,7 +370,10 @@ void MainWindow::buildActions() {
     redo->setShortcut(QKeySequence::Redo);
     edit->addAction(undo);
     edit->addAction(redo);
+}
 
+// Review: the next open finding, decide it, apply or discard the decision.
+void MainWindow::buildReviewMenu() {
     QMenu* review = menuBar()->addMenu(tr("&Review"));
     QAction* next =
         review->addAction(tr("&Next open finding"), this, [this] { m_findings->selectNextOpen(); });
@@ -362,7 +389,10 @@ void MainWindow::buildActions() {
     QAction* discard = review->addAction(tr("D&iscard the decision"), m_decisionControl,
                                          &DecisionController::discard);
     discard->setShortcut(QKeySequence(Qt::Key_Escape));
+}
 
+// View: reset the plot, find a region, and show or hide each dock.
+void MainWindow::buildViewMenu() {
     QMenu* view = menuBar()->addMenu(tr("&View"));
     view->addAction(tr("&Reset plot view"), m_plot, &widgets::SeriesPlot::resetView);
     QAction* find = view->addAction(tr("&Find region"), this, [this] {
@@ -373,7 +403,10 @@ void MainWindow::buildActions() {
     view->addSeparator();
     for (QDockWidget* dock : findChildren<QDockWidget*>())
         view->addAction(dock->toggleViewAction());
+}
 
+// Help: about Siftwave, with what a fitted curve is not.
+void MainWindow::buildHelpMenu() {
     QMenu* help = menuBar()->addMenu(tr("&Help"));
     help->addAction(tr("&About Siftwave"), this, [this] {
         QMessageBox::about(

@@ -131,6 +131,13 @@ protected:
 
 private:
     void buildActions();
+    void buildFileMenu();
+    void addProjectActions(QMenu* file);
+    void addPreviousReleaseActions(QMenu* file);
+    void buildEditMenu();
+    void buildReviewMenu();
+    void buildViewMenu();
+    void buildHelpMenu();
     void buildDocks();
     void showOpenDialog();
     void showOpenPreviousDialog();
