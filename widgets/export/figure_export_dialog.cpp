@@ -31,7 +31,14 @@ FigureExportDialog::FigureExportDialog(Inputs inputs, QWidget* parent)
     if (!m_inputs.ledger)
         m_inputs.ledger = &m_noLedger;
     setWindowTitle(tr("Export figure"));
+    fillRegionList();
+    createPageControls();
+    createFitControls();
+    layOutForm();
+}
 
+// The drop's regions (with their names when a register is known), the current one selected.
+void FigureExportDialog::fillRegionList() {
     m_regionList = new QListWidget;
     m_regionList->setSelectionMode(QAbstractItemView::ExtendedSelection);
     for (const std::string& code : m_inputs.drop->regionCodes) {
@@ -43,6 +50,10 @@ FigureExportDialog::FigureExportDialog(Inputs inputs, QWidget* parent)
         item->setData(Qt::UserRole, QString::fromStdString(code));
         item->setSelected(QString::fromStdString(code) == m_inputs.currentRegion);
     }
+}
+
+// The page: small multiples or not, title, subtitle, size (a preset or custom) and resolution.
+void FigureExportDialog::createPageControls() {
     m_onePage = new QCheckBox(tr("Several regions: small multiples on one page"));
     m_onePage->setChecked(true);
     m_title = new QLineEdit;
@@ -70,6 +81,10 @@ FigureExportDialog::FigureExportDialog(Inputs inputs, QWidget* parent)
     m_dpi->setRange(50, 1200);
     m_dpi->setValue(200);
     m_dpi->setSuffix(tr(" dpi (PNG)"));
+}
+
+// The fit drawn in the figure, and whether the range of daily counts goes with it.
+void FigureExportDialog::createFitControls() {
     m_fit = new QComboBox;
     m_fit->addItem(tr("No fit"));
     for (fit::ModelKind kind : fit::kAllModels)
@@ -80,17 +95,26 @@ FigureExportDialog::FigureExportDialog(Inputs inputs, QWidget* parent)
         tr("The shaded band is the fitted curve's own 95% confidence band. "
            "The dotted lines show where daily counts would fall if the "
            "curve were their mean."));
+}
+
+// The output file line: the path and a button that browses for it.
+QHBoxLayout* FigureExportDialog::pathRow() {
     m_path = new QLineEdit(QDir::home().filePath(QStringLiteral("figure.png")));
     auto* browseButton = new QPushButton(tr("Browse…"));
     connect(browseButton, &QPushButton::clicked, this, &FigureExportDialog::browse);
+    auto* row = new QHBoxLayout;
+    row->addWidget(m_path, 1);
+    row->addWidget(browseButton);
+    return row;
+}
 
+// The dialog as one form, from the regions down to the file and the Export and Cancel buttons.
+void FigureExportDialog::layOutForm() {
     auto* sizeRow = new QHBoxLayout;
     sizeRow->addWidget(m_width);
     sizeRow->addWidget(new QLabel(QStringLiteral("×")));
     sizeRow->addWidget(m_height);
-    auto* pathRow = new QHBoxLayout;
-    pathRow->addWidget(m_path, 1);
-    pathRow->addWidget(browseButton);
+    QHBoxLayout* path = pathRow();
     auto* form = new QFormLayout(this);
     form->addRow(tr("Regions"), m_regionList);
     form->addRow(QString(), m_onePage);
@@ -101,7 +125,7 @@ FigureExportDialog::FigureExportDialog(Inputs inputs, QWidget* parent)
     form->addRow(tr("Resolution"), m_dpi);
     form->addRow(tr("Fit"), m_fit);
     form->addRow(QString(), m_countRange);
-    form->addRow(tr("File (.png, .svg, .pdf)"), pathRow);
+    form->addRow(tr("File (.png, .svg, .pdf)"), path);
     auto* buttons = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel);
     buttons->button(QDialogButtonBox::Ok)->setText(tr("Export"));
     connect(buttons, &QDialogButtonBox::accepted, this, &FigureExportDialog::accept);

@@ -21,6 +21,7 @@
 class QCheckBox;
 class QComboBox;
 class QDoubleSpinBox;
+class QHBoxLayout;
 class QLineEdit;
 class QListWidget;
 class QSpinBox;
@@ -58,6 +59,11 @@ public:
     void setCountRange(bool shown);
 
 private:
+    void fillRegionList();
+    void createPageControls();
+    void createFitControls();
+    QHBoxLayout* pathRow();
+    void layOutForm();
     void browse();
     void accept() override;
 

@@ -378,31 +378,21 @@ void cutRawBars(QCustomPlot* plot, const report::FigureSpec& spec, double level,
     }
 }
 
-}  // namespace
-
-void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
-    QCustomPlot* plot = chart.plot();
-    const double scale = 1.0;
-    caseLines(plot, spec);
-    liftFitBand(plot, spec);
-    const int itemsBefore = plot->itemCount();
-    const int graphsBefore = plot->graphCount();
-    addCountRange(plot, spec);
-    // A raw bar the ledger lowered does not set the scale: it is cut (rawCutLevel, cutRawBars).
+// Sets the value axis: up to the cut level when a raw bar the ledger lowered is cut (it does
+// not set the scale: rawCutLevel, cutRawBars), with headroom for the labels above the highest
+// bar. Returns the cut level, if any.
+std::optional<double> scaleValueAxis(QCustomPlot* plot, const report::FigureSpec& spec) {
     const std::optional<double> cutLevel = rawCutLevel(spec);
     if (cutLevel)
         plot->yAxis->setRange(0, *cutLevel);
-    // Headroom for the labels above the highest bar.
     const QCPRange y = plot->yAxis->range();
     plot->yAxis->setRange(0, std::max(y.upper * kLabelHeadroom, 10.0));
-    const double top = plot->yAxis->range().upper;
-    const QCPRange x = plot->xAxis->range();
-    if (cutLevel)
-        cutRawBars(plot, spec, *cutLevel, x, scale);
-    // Where an arrow may end: the top of the plot, or the visible top of a cut bar.
-    const double highestShown = cutLevel ? *cutLevel : top;
+    return cutLevel;
+}
 
-    // Excluded ranges: grey hatching over the days, labelled at the top.
+// Excluded ranges: grey hatching over the days, labelled at the top.
+void addExcludedRanges(QCustomPlot* plot, const report::FigureSpec& spec, const QCPRange& x,
+                       double scale) {
     for (const report::ExcludedRange& ex : spec.excluded) {
         auto* rect = new QCPItemRect(plot);
         rect->setClipToAxisRect(true);
@@ -422,10 +412,32 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
                                     Qt::AlignTop);
         label->setObjectName(QStringLiteral("excluded-%1").arg(ex.sequence));
     }
+}
 
-    // Decisions: a label in a band near the top, staggered so neighbours do not collide,
-    // with an arrow to the highest raw bar of the day(s) it is about (to its visible top when
-    // the bar is cut).
+// A bracket under a decision's label (at `labelRatio`) over the days the counts went to.
+void addDecisionSpan(QCustomPlot* plot, const report::FigureSpec& spec,
+                     const report::DecisionMark& mark, double labelRatio) {
+    auto* span = new QCPItemLine(plot);
+    span->setClipToAxisRect(true);
+    for (QCPItemPosition* p : {span->start, span->end}) {
+        p->setTypeX(QCPItemPosition::ptPlotCoords);
+        p->setTypeY(QCPItemPosition::ptAxisRectRatio);
+    }
+    const double ratio = labelRatio + 0.045;
+    span->start->setCoords(keyOf(spec, mark.window->first) - halfPeriodKeys(spec.axis), ratio);
+    span->end->setCoords(keyOf(spec, mark.window->last) + halfPeriodKeys(spec.axis), ratio);
+    span->setPen(QPen(plot_style::kInk, 1.0, Qt::DashLine));
+    span->setHead(QCPLineEnding(QCPLineEnding::esBar, 6));
+    span->setTail(QCPLineEnding(QCPLineEnding::esBar, 6));
+    span->setSelectable(false);
+    span->setObjectName(QStringLiteral("decision-span-%1").arg(mark.sequence));
+}
+
+// Decisions: a label in a band near the top, staggered so neighbours do not collide,
+// with an arrow to the highest raw bar of the day(s) it is about (to its visible top
+// `highestShown` when the bar is cut), and a bracket over its window, if it has one.
+void addDecisionMarks(QCustomPlot* plot, const report::FigureSpec& spec, const QCPRange& x,
+                      double highestShown, double scale) {
     int row = 0;
     for (const report::DecisionMark& mark : spec.decisions) {
         const double key = (keyOf(spec, mark.first) + keyOf(spec, mark.last)) / 2;
@@ -444,53 +456,42 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
         arrow->setHead(QCPLineEnding(QCPLineEnding::esSpikeArrow, 8, 10));
         arrow->setSelectable(false);
         arrow->setObjectName(QStringLiteral("decision-arrow-%1").arg(mark.sequence));
-        if (mark.window) {
-            // A bracket under the label over the days the counts went to.
-            auto* span = new QCPItemLine(plot);
-            span->setClipToAxisRect(true);
-            for (QCPItemPosition* p : {span->start, span->end}) {
-                p->setTypeX(QCPItemPosition::ptPlotCoords);
-                p->setTypeY(QCPItemPosition::ptAxisRectRatio);
-            }
-            const double ratio = labelRatio + 0.045;
-            span->start->setCoords(keyOf(spec, mark.window->first) - halfPeriodKeys(spec.axis),
-                                   ratio);
-            span->end->setCoords(keyOf(spec, mark.window->last) + halfPeriodKeys(spec.axis), ratio);
-            span->setPen(QPen(plot_style::kInk, 1.0, Qt::DashLine));
-            span->setHead(QCPLineEnding(QCPLineEnding::esBar, 6));
-            span->setTail(QCPLineEnding(QCPLineEnding::esBar, 6));
-            span->setSelectable(false);
-            span->setObjectName(QStringLiteral("decision-span-%1").arg(mark.sequence));
-        }
+        if (mark.window)
+            addDecisionSpan(plot, spec, mark, labelRatio);
     }
+}
 
-    // The peak of the fit: a diamond on the curve and its date and height.
-    if (spec.fit && std::isfinite(spec.fit->peakValue)) {
-        const double key = plotKeyOfDay(spec.fit->peakDate);  // a day, even inside a week
-        QCPGraph* peak = plot->addGraph(plot->xAxis, plot->yAxis);
-        peak->setData(QVector<double>{key}, QVector<double>{spec.fit->peakValue}, true);
-        peak->setLineStyle(QCPGraph::lsNone);
-        peak->setScatterStyle(QCPScatterStyle(QCPScatterStyle::ssDiamond,
-                                              QPen(plot_style::kInk, 1.2),
-                                              QBrush(plot_style::kVermillion), 10));
-        peak->setName(QObject::tr("Peak of the fit"));
-        auto* label = new QCPItemText(plot);
-        label->setClipToAxisRect(true);
-        label->position->setCoords(key, spec.fit->peakValue);
-        label->setPositionAlignment(alignmentFor(key, x) == (Qt::AlignRight | Qt::AlignBottom)
-                                        ? Qt::AlignRight | Qt::AlignBottom
-                                        : Qt::AlignLeft | Qt::AlignBottom);
-        label->setPadding(QMargins(8, 0, 8, 6));
-        label->setObjectName(QStringLiteral("peak"));
-        label->setText(QObject::tr("peak %1, %2/day")
-                           .arg(qs(spec.fit->peakDate.iso()))
-                           .arg(spec.fit->peakValue, 0, 'f', 0));
-        label->setFont(pageFont(10 * scale, true));
-        label->setColor(plot_style::kInk);
-        label->setSelectable(false);
-    }
+// The peak of the fit: a diamond on the curve and its date and height.
+void addFitPeak(QCustomPlot* plot, const report::FigureSpec& spec, const QCPRange& x,
+                double scale) {
+    if (!spec.fit || !std::isfinite(spec.fit->peakValue))
+        return;
+    const double key = plotKeyOfDay(spec.fit->peakDate);  // a day, even inside a week
+    QCPGraph* peak = plot->addGraph(plot->xAxis, plot->yAxis);
+    peak->setData(QVector<double>{key}, QVector<double>{spec.fit->peakValue}, true);
+    peak->setLineStyle(QCPGraph::lsNone);
+    peak->setScatterStyle(QCPScatterStyle(QCPScatterStyle::ssDiamond, QPen(plot_style::kInk, 1.2),
+                                          QBrush(plot_style::kVermillion), 10));
+    peak->setName(QObject::tr("Peak of the fit"));
+    auto* label = new QCPItemText(plot);
+    label->setClipToAxisRect(true);
+    label->position->setCoords(key, spec.fit->peakValue);
+    label->setPositionAlignment(alignmentFor(key, x) == (Qt::AlignRight | Qt::AlignBottom)
+                                    ? Qt::AlignRight | Qt::AlignBottom
+                                    : Qt::AlignLeft | Qt::AlignBottom);
+    label->setPadding(QMargins(8, 0, 8, 6));
+    label->setObjectName(QStringLiteral("peak"));
+    label->setText(QObject::tr("peak %1, %2/day")
+                       .arg(qs(spec.fit->peakDate.iso()))
+                       .arg(spec.fit->peakValue, 0, 'f', 0));
+    label->setFont(pageFont(10 * scale, true));
+    label->setColor(plot_style::kInk);
+    label->setSelectable(false);
+}
 
-    // The marks above every line (the window and findings items SeriesChart made stay below).
+// The marks (items and graphs from `itemsBefore` and `graphsBefore` on) go on a layer above
+// every line (the window and findings items SeriesChart made stay below).
+void raiseMarks(QCustomPlot* plot, int itemsBefore, int graphsBefore) {
     const QString marksLayer = QStringLiteral("annotations");
     if (!plot->layer(marksLayer))
         plot->addLayer(marksLayer, plot->layer(plot->layerCount() - 1), QCustomPlot::limAbove);
@@ -500,6 +501,29 @@ void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
         plot->graph(i)->setLayer(marksLayer);
 }
 
+}  // namespace
+
+void annotateFigure(SeriesChart& chart, const report::FigureSpec& spec) {
+    QCustomPlot* plot = chart.plot();
+    const double scale = 1.0;
+    caseLines(plot, spec);
+    liftFitBand(plot, spec);
+    const int itemsBefore = plot->itemCount();
+    const int graphsBefore = plot->graphCount();
+    addCountRange(plot, spec);
+    const std::optional<double> cutLevel = scaleValueAxis(plot, spec);
+    const double top = plot->yAxis->range().upper;
+    const QCPRange x = plot->xAxis->range();
+    if (cutLevel)
+        cutRawBars(plot, spec, *cutLevel, x, scale);
+    // Where an arrow may end: the top of the plot, or the visible top of a cut bar.
+    const double highestShown = cutLevel ? *cutLevel : top;
+    addExcludedRanges(plot, spec, x, scale);
+    addDecisionMarks(plot, spec, x, highestShown, scale);
+    addFitPeak(plot, spec, x, scale);
+    raiseMarks(plot, itemsBefore, graphsBefore);
+}
+
 namespace {
 
 QRectF textRect(const QCPItemText* label) {
@@ -507,45 +531,50 @@ QRectF textRect(const QCPItemText* label) {
         .normalized();
 }
 
-// Once the plot is laid out (a label's size in pixels is known only then), the marks of a short
-// plot (a report's figure, a small-multiples panel) are moved apart where they would overlap:
-// a decision label that would stick out of the top comes down inside (with its bracket; its
-// arrow hangs from it), and the label of a cut bar (cutRawBars) takes the first free place
-// beside its bar top, the fit's peak label turning to the other side of its diamond when that
-// frees one. Nothing moves where nothing overlaps, so a roomy figure keeps its layout, and a
-// figure without a ledger (no decision, no cut bar) is never touched.
-void separateLabels(QCustomPlot* plot) {
-    const QRectF area = plot->axisRect()->rect();
+// The marks of a laid-out plot that separateLabels may move, and what they must stay clear of.
+struct PlotMarks {
+    QRectF area;  // the axis rect in pixels
     std::vector<QCPItemText*> decisions, cuts, excluded;
     QCPItemText* peak = nullptr;
-    std::vector<QCPItemLine*> spans;
-    std::vector<QRectF> columns;
+    std::vector<QCPItemLine*> spans;  // the decisions' brackets
+    std::vector<QRectF> columns;      // the cut bars' tops with their broken-bar marks
+};
+
+// Sorts the plot's items into the marks separateLabels works on, by their object names.
+PlotMarks collectPlotMarks(QCustomPlot* plot) {
+    PlotMarks marks;
+    marks.area = plot->axisRect()->rect();
     for (int i = 0; i < plot->itemCount(); ++i) {
         QCPAbstractItem* item = plot->item(i);
         const QString name = item->objectName();
         if (auto* text = qobject_cast<QCPItemText*>(item)) {
             if (name.startsWith(QLatin1String("decision-")))
-                decisions.push_back(text);
+                marks.decisions.push_back(text);
             else if (name == QLatin1String("raw-cut"))
-                cuts.push_back(text);
+                marks.cuts.push_back(text);
             else if (name.startsWith(QLatin1String("excluded-")))
-                excluded.push_back(text);
+                marks.excluded.push_back(text);
             else if (name == QLatin1String("peak"))
-                peak = text;
+                marks.peak = text;
         } else if (auto* line = qobject_cast<QCPItemLine*>(item);
                    line && name.startsWith(QLatin1String("decision-span-"))) {
-            spans.push_back(line);
+            marks.spans.push_back(line);
         } else if (auto* top = qobject_cast<QCPItemTracer*>(item);
                    top && name == QLatin1String("raw-cut-top")) {
             // A cut bar's top with its broken-bar mark: no label lies across it.
             const QPointF at = top->position->pixelPosition();
-            columns.emplace_back(at.x() - 8, at.y() - 2, 16, 24);
+            marks.columns.emplace_back(at.x() - 8, at.y() - 2, 16, 24);
         }
     }
-    // A decision label comes down (with its bracket) by what it needs to be inside the plot
-    // and clear of the excluded ranges' labels and of the decision labels placed before it.
-    std::vector<const QCPItemText*> settled(excluded.begin(), excluded.end());
-    for (QCPItemText* label : decisions) {
+    return marks;
+}
+
+// A decision label comes down (with its bracket) by what it needs to be inside the plot
+// and clear of the excluded ranges' labels and of the decision labels placed before it.
+void lowerDecisionLabels(const PlotMarks& marks) {
+    const QRectF& area = marks.area;
+    std::vector<const QCPItemText*> settled(marks.excluded.begin(), marks.excluded.end());
+    for (QCPItemText* label : marks.decisions) {
         QRectF box = textRect(label);
         double down = std::max(0.0, area.top() + 2 - box.top());
         for (bool moved = true; moved;) {
@@ -565,88 +594,112 @@ void separateLabels(QCustomPlot* plot) {
         const QString span = QStringLiteral("decision-span-") +
                              label->objectName().mid(QStringLiteral("decision-").size());
         label->position->setCoords(label->position->key(), label->position->value() + shift);
-        for (QCPItemLine* line : spans)
+        for (QCPItemLine* line : marks.spans)
             if (line->objectName() == span)
                 for (QCPItemPosition* p : {line->start, line->end})
                     p->setCoords(p->key(), p->value() + shift);
     }
-    const auto turn = [](QCPItemText* label) {
-        const Qt::Alignment a = label->positionAlignment();
-        label->setPositionAlignment(((a & Qt::AlignLeft) ? Qt::AlignRight : Qt::AlignLeft) |
-                                    (a & Qt::AlignVertical_Mask));
-    };
-    // A peak label that a narrow panel would cut at its edge turns to the other side of its
-    // diamond, or else stands centred above it, where it fits (any figure: this only ever
-    // moves a label that is cut off).
+}
+
+// Turns a label to the other side of its position (left for right), keeping its vertical side.
+void turnLabel(QCPItemText* label) {
+    const Qt::Alignment a = label->positionAlignment();
+    label->setPositionAlignment(((a & Qt::AlignLeft) ? Qt::AlignRight : Qt::AlignLeft) |
+                                (a & Qt::AlignVertical_Mask));
+}
+
+// A peak label that a narrow panel would cut at its edge turns to the other side of its
+// diamond, or else stands centred above it, where it fits (any figure: this only ever
+// moves a label that is cut off).
+void keepPeakLabelInside(const PlotMarks& marks) {
+    QCPItemText* peak = marks.peak;
     const auto across = [&](const QRectF& r) {
-        return r.left() < area.left() || r.right() > area.right();
+        return r.left() < marks.area.left() || r.right() > marks.area.right();
     };
-    if (peak && across(textRect(peak))) {
-        const Qt::Alignment first = peak->positionAlignment();
-        turn(peak);
-        if (across(textRect(peak))) {
-            peak->setPositionAlignment(Qt::AlignHCenter | (first & Qt::AlignVertical_Mask));
-            if (across(textRect(peak)))
-                peak->setPositionAlignment(first);
-        }
-    }
-    if (cuts.empty())
+    if (!peak || !across(textRect(peak)))
         return;
-    const auto freeOf = [&](const QRectF& r, const QCPItemText* self) {
-        if (r.top() < area.top() || r.bottom() > area.bottom() || r.left() < area.left() ||
-            r.right() > area.right())
+    const Qt::Alignment first = peak->positionAlignment();
+    turnLabel(peak);
+    if (across(textRect(peak))) {
+        peak->setPositionAlignment(Qt::AlignHCenter | (first & Qt::AlignVertical_Mask));
+        if (across(textRect(peak)))
+            peak->setPositionAlignment(first);
+    }
+}
+
+// Whether `r` lies inside the plot, clear of the cut bars' tops and of every label but `self`.
+bool isFreePlace(const PlotMarks& marks, const QRectF& r, const QCPItemText* self) {
+    const QRectF& area = marks.area;
+    if (r.top() < area.top() || r.bottom() > area.bottom() || r.left() < area.left() ||
+        r.right() > area.right())
+        return false;
+    for (const QRectF& column : marks.columns)
+        if (column.intersects(r))
             return false;
-        for (const QRectF& column : columns)
-            if (column.intersects(r))
+    for (const std::vector<QCPItemText*>* group : {&marks.decisions, &marks.cuts, &marks.excluded})
+        for (const QCPItemText* other : *group)
+            if (other != self && textRect(other).intersects(r))
                 return false;
-        for (const std::vector<QCPItemText*>* group : {&decisions, &cuts, &excluded})
-            for (const QCPItemText* other : *group)
-                if (other != self && textRect(other).intersects(r))
-                    return false;
-        return !(peak && peak != self && textRect(peak).intersects(r));
-    };
-    // The peak label turns round when it lies across a cut bar or its label and the other
-    // side is free.
-    if (peak && !freeOf(textRect(peak), peak)) {
-        turn(peak);
-        if (!freeOf(textRect(peak), peak))
-            turn(peak);
-    }
-    for (QCPItemText* label : cuts) {
-        if (freeOf(textRect(label), label))
-            continue;
-        const QPointF original = label->position->coords();  // pixels from the bar top
-        const Qt::Alignment originalAlignment = label->positionAlignment();
-        const bool startRight = original.x() > 0;
-        const double gap = std::abs(original.x());
-        const double h = textRect(label).height();
-        bool placed = false;
-        // Beside the bar top, then just below it, above it, further below; each on the first
-        // side, then the other; each first as it is, then with the peak label turned round.
-        for (const double dy : {0.0, 0.6 * h, -0.6 * h, 1.2 * h}) {
-            for (const bool right : {startRight, !startRight}) {
-                label->position->setCoords(right ? gap : -gap, dy);
-                label->setPositionAlignment((right ? Qt::AlignLeft : Qt::AlignRight) |
-                                            Qt::AlignVCenter);
-                for (int turned = 0; turned < (peak ? 2 : 1) && !placed; ++turned) {
-                    if (turned)
-                        turn(peak);
-                    placed =
-                        freeOf(textRect(label), label) && (!turned || freeOf(textRect(peak), peak));
-                    if (!placed && turned)
-                        turn(peak);
-                }
-                if (placed)
-                    break;
+    return !(marks.peak && marks.peak != self && textRect(marks.peak).intersects(r));
+}
+
+// Moves a cut bar's label to the first free place beside its bar top: beside it, then just
+// below it, above it, further below; each on the first side, then the other; each first as it
+// is, then with the peak label turned round. With no free place it stays as first drawn.
+void placeCutLabel(const PlotMarks& marks, QCPItemText* label) {
+    QCPItemText* peak = marks.peak;
+    const QPointF original = label->position->coords();  // pixels from the bar top
+    const Qt::Alignment originalAlignment = label->positionAlignment();
+    const bool startRight = original.x() > 0;
+    const double gap = std::abs(original.x());
+    const double h = textRect(label).height();
+    for (const double dy : {0.0, 0.6 * h, -0.6 * h, 1.2 * h}) {
+        for (const bool right : {startRight, !startRight}) {
+            label->position->setCoords(right ? gap : -gap, dy);
+            label->setPositionAlignment((right ? Qt::AlignLeft : Qt::AlignRight) |
+                                        Qt::AlignVCenter);
+            for (int turned = 0; turned < (peak ? 2 : 1); ++turned) {
+                if (turned)
+                    turnLabel(peak);
+                if (isFreePlace(marks, textRect(label), label) &&
+                    (!turned || isFreePlace(marks, textRect(peak), peak)))
+                    return;
+                if (turned)
+                    turnLabel(peak);
             }
-            if (placed)
-                break;
-        }
-        if (!placed) {  // no free place: as first drawn
-            label->position->setCoords(original);
-            label->setPositionAlignment(originalAlignment);
         }
     }
+    label->position->setCoords(original);
+    label->setPositionAlignment(originalAlignment);
+}
+
+// The peak label turns round when it lies across a cut bar or its label and the other side is
+// free; then each cut bar's label that overlaps something takes the first free place.
+void placeCutLabels(const PlotMarks& marks) {
+    QCPItemText* peak = marks.peak;
+    if (peak && !isFreePlace(marks, textRect(peak), peak)) {
+        turnLabel(peak);
+        if (!isFreePlace(marks, textRect(peak), peak))
+            turnLabel(peak);
+    }
+    for (QCPItemText* label : marks.cuts)
+        if (!isFreePlace(marks, textRect(label), label))
+            placeCutLabel(marks, label);
+}
+
+// Once the plot is laid out (a label's size in pixels is known only then), the marks of a short
+// plot (a report's figure, a small-multiples panel) are moved apart where they would overlap:
+// a decision label that would stick out of the top comes down inside (with its bracket; its
+// arrow hangs from it), and the label of a cut bar (cutRawBars) takes the first free place
+// beside its bar top, the fit's peak label turning to the other side of its diamond when that
+// frees one. Nothing moves where nothing overlaps, so a roomy figure keeps its layout, and a
+// figure without a ledger (no decision, no cut bar) is never touched.
+void separateLabels(QCustomPlot* plot) {
+    const PlotMarks marks = collectPlotMarks(plot);
+    lowerDecisionLabels(marks);
+    keepPeakLabelInside(marks);
+    if (!marks.cuts.empty())
+        placeCutLabels(marks);
 }
 
 // Caption lines wrapped into `width`; returns the height used (or needed when painter is null).
@@ -945,6 +998,98 @@ std::vector<FigureGeometry> paintSmallMultiples(QCPPainter& painter, const QRect
     return out;
 }
 
+namespace {
+
+Error figureNotDrawn() {
+    return makeError(ErrorCode::Io, "the figure could not be drawn");
+}
+
+// PNG: laid out at 96 logical dpi, then scaled to the pixels of `options.dpi`.
+Status writePng(QIODevice& device, const std::vector<report::FigureSpec>& specs,
+                const FigureExportOptions& options, std::vector<FigureGeometry>& painted) {
+    const QSize pixels = options.size.pixelsAt(options.dpi);
+    QImage image(pixels, QImage::Format_ARGB32_Premultiplied);
+    image.fill(Qt::white);
+    const int logicalDpm = static_cast<int>(std::lround(kLogicalDpi / 0.0254));
+    image.setDotsPerMeterX(logicalDpm);
+    image.setDotsPerMeterY(logicalDpm);
+    const double scale = options.dpi / kLogicalDpi;
+    const QRectF logicalPage(QPointF(0, 0),
+                             QSizeF(pixels.width() / scale, pixels.height() / scale));
+    {
+        QCPPainter painter(&image);
+        painter.setRenderHint(QPainter::Antialiasing);
+        painter.setRenderHint(QPainter::TextAntialiasing);
+        painter.scale(scale, scale);
+        painted = paintSmallMultiples(painter, logicalPage, specs, options.columns);
+    }
+    const int dpm = static_cast<int>(std::lround(options.dpi / 0.0254));
+    QImage rgb = image.convertToFormat(QImage::Format_RGB32);
+    rgb.setDotsPerMeterX(dpm);
+    rgb.setDotsPerMeterY(dpm);
+    if (!rgb.save(&device, "PNG"))
+        return figureNotDrawn();
+    return Ok{};
+}
+
+// Paints the figures on a vector device (SVG, PDF); false when the painter could not finish.
+bool paintVectorized(QPaintDevice* target, const QRectF& page,
+                     const std::vector<report::FigureSpec>& specs, int columns,
+                     std::vector<FigureGeometry>& painted) {
+    QCPPainter painter(target);
+    painter.setMode(QCPPainter::pmVectorized);
+    painter.setMode(QCPPainter::pmNoCaching);
+    painted = paintSmallMultiples(painter, page, specs, columns);
+    return painter.end();
+}
+
+// SVG: drawn into memory with no title or description, then written again through an
+// XML writer (svg_document.h): the file is well-formed XML whatever the names hold.
+Status writeSvg(QIODevice& device, const std::vector<report::FigureSpec>& specs,
+                const FigureExportOptions& options, std::vector<FigureGeometry>& painted) {
+    const QSizeF logical = options.size.logical();
+    const QRectF page(QPointF(0, 0), logical);
+    QByteArray generated;
+    QBuffer buffer(&generated);
+    buffer.open(QIODevice::WriteOnly);
+    QSvgGenerator svg;
+    svg.setOutputDevice(&buffer);
+    svg.setResolution(static_cast<int>(kLogicalDpi));
+    svg.setSize(QSize(static_cast<int>(std::lround(logical.width())),
+                      static_cast<int>(std::lround(logical.height()))));
+    svg.setViewBox(page);
+    if (!paintVectorized(&svg, page, specs, options.columns, painted))
+        return figureNotDrawn();
+    std::string description;
+    for (const std::string& line : pageCaptionLines(specs))
+        description += line + "\n";
+    Result<QByteArray> finished =
+        finishSvg(generated, qs(specs.front().title), qs(description), options.svgTarget);
+    if (!finished)
+        return finished.error();
+    if (device.write(*finished) != finished->size())
+        return figureNotDrawn();
+    return Ok{};
+}
+
+// PDF: one page of the figure's size in millimetres, titled with the first figure's title.
+Status writePdf(QIODevice& device, const std::vector<report::FigureSpec>& specs,
+                const FigureExportOptions& options, std::vector<FigureGeometry>& painted) {
+    const QRectF page(QPointF(0, 0), options.size.logical());
+    QPdfWriter pdf(&device);
+    pdf.setPageSize(QPageSize(QSizeF(options.size.widthMm, options.size.heightMm),
+                              QPageSize::Millimeter, QString(), QPageSize::ExactMatch));
+    pdf.setPageMargins(QMarginsF(0, 0, 0, 0));
+    pdf.setResolution(static_cast<int>(kLogicalDpi));
+    pdf.setTitle(qs(specs.front().title));
+    pdf.setCreator(QStringLiteral("Siftwave %1").arg(QLatin1String(report::siftwaveVersion())));
+    if (!paintVectorized(&pdf, page, specs, options.columns, painted))
+        return figureNotDrawn();
+    return Ok{};
+}
+
+}  // namespace
+
 Status writeFigures(QIODevice& device, FigureFormat format,
                     const std::vector<report::FigureSpec>& specs,
                     const FigureExportOptions& options, std::vector<FigureGeometry>* geometry) {
@@ -952,84 +1097,21 @@ Status writeFigures(QIODevice& device, FigureFormat format,
         return makeError(ErrorCode::Usage, "no figure to export");
     if (options.dpi < 50 || options.dpi > 1200)
         return makeError(ErrorCode::Usage, "the DPI must be between 50 and 1200");
-    const QSizeF logical = options.size.logical();
-    const QRectF page(QPointF(0, 0), logical);
     std::vector<FigureGeometry> painted;
-    bool written = true;
+    Status written = Ok{};
     switch (format) {
-        case FigureFormat::Png: {
-            const QSize pixels = options.size.pixelsAt(options.dpi);
-            QImage image(pixels, QImage::Format_ARGB32_Premultiplied);
-            image.fill(Qt::white);
-            // Laid out at 96 logical dpi, then scaled to the pixels.
-            const int logicalDpm = static_cast<int>(std::lround(kLogicalDpi / 0.0254));
-            image.setDotsPerMeterX(logicalDpm);
-            image.setDotsPerMeterY(logicalDpm);
-            const double scale = options.dpi / kLogicalDpi;
-            const QRectF logicalPage(QPointF(0, 0),
-                                     QSizeF(pixels.width() / scale, pixels.height() / scale));
-            {
-                QCPPainter painter(&image);
-                painter.setRenderHint(QPainter::Antialiasing);
-                painter.setRenderHint(QPainter::TextAntialiasing);
-                painter.scale(scale, scale);
-                painted = paintSmallMultiples(painter, logicalPage, specs, options.columns);
-            }
-            const int dpm = static_cast<int>(std::lround(options.dpi / 0.0254));
-            QImage rgb = image.convertToFormat(QImage::Format_RGB32);
-            rgb.setDotsPerMeterX(dpm);
-            rgb.setDotsPerMeterY(dpm);
-            written = rgb.save(&device, "PNG");
+        case FigureFormat::Png:
+            written = writePng(device, specs, options, painted);
             break;
-        }
-        case FigureFormat::Svg: {
-            // Drawn into memory with no title or description, then written again through an
-            // XML writer (svg_document.h): the file is well-formed XML whatever the names hold.
-            QByteArray generated;
-            QBuffer buffer(&generated);
-            buffer.open(QIODevice::WriteOnly);
-            QSvgGenerator svg;
-            svg.setOutputDevice(&buffer);
-            svg.setResolution(static_cast<int>(kLogicalDpi));
-            svg.setSize(QSize(static_cast<int>(std::lround(logical.width())),
-                              static_cast<int>(std::lround(logical.height()))));
-            svg.setViewBox(page);
-            QCPPainter painter(&svg);
-            painter.setMode(QCPPainter::pmVectorized);
-            painter.setMode(QCPPainter::pmNoCaching);
-            painted = paintSmallMultiples(painter, page, specs, options.columns);
-            written = painter.end();
-            if (!written)
-                break;
-            std::string description;
-            for (const std::string& line : pageCaptionLines(specs))
-                description += line + "\n";
-            Result<QByteArray> finished =
-                finishSvg(generated, qs(specs.front().title), qs(description), options.svgTarget);
-            if (!finished)
-                return finished.error();
-            written = device.write(*finished) == finished->size();
+        case FigureFormat::Svg:
+            written = writeSvg(device, specs, options, painted);
             break;
-        }
-        case FigureFormat::Pdf: {
-            QPdfWriter pdf(&device);
-            pdf.setPageSize(QPageSize(QSizeF(options.size.widthMm, options.size.heightMm),
-                                      QPageSize::Millimeter, QString(), QPageSize::ExactMatch));
-            pdf.setPageMargins(QMarginsF(0, 0, 0, 0));
-            pdf.setResolution(static_cast<int>(kLogicalDpi));
-            pdf.setTitle(qs(specs.front().title));
-            pdf.setCreator(
-                QStringLiteral("Siftwave %1").arg(QLatin1String(report::siftwaveVersion())));
-            QCPPainter painter(&pdf);
-            painter.setMode(QCPPainter::pmVectorized);
-            painter.setMode(QCPPainter::pmNoCaching);
-            painted = paintSmallMultiples(painter, page, specs, options.columns);
-            written = painter.end();
+        case FigureFormat::Pdf:
+            written = writePdf(device, specs, options, painted);
             break;
-        }
     }
     if (!written)
-        return makeError(ErrorCode::Io, "the figure could not be drawn");
+        return written;
     if (geometry)
         *geometry = std::move(painted);
     return Ok{};

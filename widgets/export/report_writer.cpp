@@ -93,50 +93,46 @@ Status writeBriefingReport(const QString& path, const report::BriefingReport& re
     return writeBytes(path, *pdf);
 }
 
-Result<QByteArray> briefingPdf(const report::BriefingReport& report) {
-    QByteArray bytes;
-    QBuffer buffer(&bytes);
-    buffer.open(QIODevice::WriteOnly);
-    QPdfWriter pdf(&buffer);
-    pdf.setPageLayout(QPageLayout(QPageSize(QPageSize::A4), QPageLayout::Portrait,
-                                  QMarginsF(15, 15, 15, 15), QPageLayout::Millimeter));
-    // Document units = the figures' logical pixels (1/96 inch); the PDF stays vector.
-    pdf.setResolution(static_cast<int>(kDocumentDpi));
-    pdf.setTitle(QString::fromStdString(report.title));
-    pdf.setCreator(QStringLiteral("Siftwave %1").arg(QLatin1String(report::siftwaveVersion())));
+namespace {
 
-    QTextDocument document;
-    document.documentLayout()->setPaintDevice(&pdf);  // fonts measured as the PDF draws them
+// The report's HTML with a placeholder where each figure goes, without the browser margins
+// around the body (the page has its margins already).
+QString reportHtmlWithPlaceholders(const report::BriefingReport& report) {
     std::vector<std::string> markup;
     for (std::size_t i = 0; i < report.figures.size(); ++i)
         markup.push_back(placeholderOf(i).toStdString());
     QString html = QString::fromStdString(report::briefingHtml(report, markup));
-    // The page has its margins already: no browser margins around the body.
     html.replace(QLatin1String("max-width:60em;margin:1.5em auto;"), QLatin1String("margin:0;"));
-    document.setHtml(html);
+    return html;
+}
 
-    // The page body, less a footer line for the page number.
-    const QSizeF body(pdf.width(), pdf.height());
-    const double footer = 22;
-    document.setPageSize(QSizeF(body.width(), body.height() - footer));
-    // A figure spans the width of the lines around it (as laid out, whatever the style's block
-    // margins), in the proportions of a figure on its own (180 x 112 mm).
-    double lineWidth = body.width() - 2 * document.documentMargin();
+// The width a figure spans: that of the lines around it (as laid out, whatever the style's
+// block margins), found at the first figure's placeholder.
+double figureLineWidth(const QTextDocument& document, const report::BriefingReport& report,
+                       double bodyWidth) {
+    double lineWidth = bodyWidth - 2 * document.documentMargin();
     if (!report.figures.empty()) {
         const QTextCursor at =
             document.find(placeholderOf(0), 0, QTextDocument::FindCaseSensitively);
         if (!at.isNull() && at.block().layout() && at.block().layout()->lineCount() > 0)
             lineWidth = std::min(lineWidth, at.block().layout()->lineAt(0).width());
     }
-    FigureTextObject figures(report.figures, QSizeF(lineWidth, lineWidth * 112.0 / 180.0));
-    figures.registerWith(document);
-    for (std::size_t i = 0; i < report.figures.size(); ++i)
+    return lineWidth;
+}
+
+// Puts each figure object in place of its placeholder.
+Status insertFigures(QTextDocument& document, std::size_t count) {
+    for (std::size_t i = 0; i < count; ++i)
         if (!FigureTextObject::insertFigure(document, placeholderOf(i), static_cast<int>(i)))
             return makeError(ErrorCode::Io,
                              "the report lost the place of figure " + std::to_string(i + 1));
-    // Each region's section (its heading, then the figure) starts a page, so that a heading
-    // never stays behind at the foot of the page before its figure.
-    for (int i = 0; i < static_cast<int>(report.figures.size()); ++i) {
+    return Ok{};
+}
+
+// Each region's section (its heading, then the figure) starts a page, so that a heading
+// never stays behind at the foot of the page before its figure.
+void breakPageBeforeSections(QTextDocument& document, std::size_t count) {
+    for (int i = 0; i < static_cast<int>(count); ++i) {
         const QTextBlock heading = FigureTextObject::blockOf(document, i).previous();
         if (heading.isValid()) {
             QTextCursor cursor(heading);
@@ -145,10 +141,12 @@ Result<QByteArray> briefingPdf(const report::BriefingReport& report) {
             cursor.setBlockFormat(format);
         }
     }
-    // Lay the whole document out again: after the insertions QTextDocumentLayout has laid out
-    // only part of what follows, and blocks it has not reached would print empty.
-    document.markContentsDirty(0, document.characterCount());
+}
 
+// Paints the laid-out document page by page, each with a footer line of the title and the
+// page number at the foot of `body` (`footer` high).
+Status paintReportPages(QPdfWriter& pdf, QTextDocument& document, FigureTextObject& figures,
+                        const QSizeF& body, double footer, const std::string& title) {
     QCPPainter painter;
     if (!painter.begin(&pdf))
         return makeError(ErrorCode::Io, "the report PDF could not be started");
@@ -174,13 +172,50 @@ Result<QByteArray> briefingPdf(const report::BriefingReport& report) {
         painter.drawText(QRectF(0, body.height() - footer + 6, body.width(), footer - 6),
                          Qt::AlignRight | Qt::AlignBottom,
                          QStringLiteral("%1 \u2014 page %2 of %3")
-                             .arg(QString::fromStdString(report.title))
+                             .arg(QString::fromStdString(title))
                              .arg(page + 1)
                              .arg(pages));
     }
     figures.setPainter(nullptr);
     if (!painter.end())
         return makeError(ErrorCode::Io, "the report PDF could not be finished");
+    return Ok{};
+}
+
+}  // namespace
+
+Result<QByteArray> briefingPdf(const report::BriefingReport& report) {
+    QByteArray bytes;
+    QBuffer buffer(&bytes);
+    buffer.open(QIODevice::WriteOnly);
+    QPdfWriter pdf(&buffer);
+    pdf.setPageLayout(QPageLayout(QPageSize(QPageSize::A4), QPageLayout::Portrait,
+                                  QMarginsF(15, 15, 15, 15), QPageLayout::Millimeter));
+    // Document units = the figures' logical pixels (1/96 inch); the PDF stays vector.
+    pdf.setResolution(static_cast<int>(kDocumentDpi));
+    pdf.setTitle(QString::fromStdString(report.title));
+    pdf.setCreator(QStringLiteral("Siftwave %1").arg(QLatin1String(report::siftwaveVersion())));
+
+    QTextDocument document;
+    document.documentLayout()->setPaintDevice(&pdf);  // fonts measured as the PDF draws them
+    document.setHtml(reportHtmlWithPlaceholders(report));
+    // The page body, less a footer line for the page number.
+    const QSizeF body(pdf.width(), pdf.height());
+    const double footer = 22;
+    document.setPageSize(QSizeF(body.width(), body.height() - footer));
+    // A figure in the proportions of a figure on its own (180 x 112 mm).
+    const double lineWidth = figureLineWidth(document, report, body.width());
+    FigureTextObject figures(report.figures, QSizeF(lineWidth, lineWidth * 112.0 / 180.0));
+    figures.registerWith(document);
+    if (Status inserted = insertFigures(document, report.figures.size()); !inserted)
+        return inserted.error();
+    breakPageBeforeSections(document, report.figures.size());
+    // Lay the whole document out again: after the insertions QTextDocumentLayout has laid out
+    // only part of what follows, and blocks it has not reached would print empty.
+    document.markContentsDirty(0, document.characterCount());
+    if (Status painted = paintReportPages(pdf, document, figures, body, footer, report.title);
+        !painted)
+        return painted.error();
     return bytes;
 }
 

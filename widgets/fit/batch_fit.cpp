@@ -121,11 +121,95 @@ BatchFitView::BatchFitView(QWidget* parent)
     clear(tr("Not run yet."));
 }
 
+namespace {
+
+// The row of a region whose fit failed: dashes and why, sorted after every fitted region.
+TextTableModel::Row failedFitRow(const QString& code, const QString& nameText,
+                                 const fit::RegionFit& r) {
+    TextTableModel::Row row;
+    const QString why =
+        r.error ? QString::fromStdString(r.error->message) : BatchFitView::tr("no fit");
+    row.cells = {code,
+                 nameText,
+                 QStringLiteral("–"),
+                 QStringLiteral("–"),
+                 QStringLiteral("–"),
+                 QStringLiteral("–"),
+                 BatchFitView::tr("failed: %1").arg(why)};
+    row.sortKeys = {
+        code, nameText, QVariant(), QVariant(), QVariant(), QVariant(), QStringLiteral("2 ") + why};
+    row.toolTip = why;
+    return row;
+}
+
+// The row of a fitted region: peak day, wave size, fraction observed, R² and status (converged
+// first when sorted), with the model, method, window, solver brief and notes as its tip.
+TextTableModel::Row fittedRow(const QString& code, const QString& nameText,
+                              const fit::FitResult& f) {
+    TextTableModel::Row row;
+    const fit::DerivedQuantities& d = f.derived;
+    const bool converged = f.summary.converged();
+    QString status = converged ? BatchFitView::tr("converged") : BatchFitView::tr("not converged");
+    if (!f.summary.notes.empty())
+        status +=
+            BatchFitView::tr(" · %n note(s)", nullptr, static_cast<int>(f.summary.notes.size()));
+    const QString peak = std::isfinite(d.peakDay.value)
+                             ? QString::fromStdString(f.dateOf(d.peakDay.value).iso())
+                             : QStringLiteral("–");
+    row.cells = {code,
+                 nameText,
+                 peak,
+                 number(d.waveSize.value, 0),
+                 number(d.fractionObserved.value * 100, 1) + QStringLiteral(" %"),
+                 number(f.goodness.r2, 3),
+                 status};
+    row.sortKeys = {code,
+                    nameText,
+                    f.first + d.peakDay.value,
+                    d.waveSize.value,
+                    d.fractionObserved.value,
+                    f.goodness.r2,
+                    (converged ? QStringLiteral("0 ") : QStringLiteral("1 ")) + status};
+    QStringList tip;
+    tip << QStringLiteral("%1 %2, %3 to %4")
+               .arg(QString::fromLatin1(fit::modelName(f.model)),
+                    QString::fromLatin1(fit::methodName(f.method)),
+                    QString::fromStdString(f.windowFirst().iso()),
+                    QString::fromStdString(f.windowLast().iso()));
+    tip << QString::fromStdString(f.summary.brief());
+    for (const std::string& note : f.summary.notes)
+        tip << QString::fromStdString(note);
+    row.toolTip = tip.join(QLatin1Char('\n'));
+    row.emphasised = false;
+    return row;
+}
+
+// The summary line: how many regions in how long, the failed ones (the first five codes), the
+// unconverged ones, and whether the run was cancelled.
+QString batchSummaryText(const BatchFitOutcome& outcome, const QString& what,
+                         const QStringList& failedCodes, int unconverged) {
+    const int failed = static_cast<int>(failedCodes.size());
+    QString summary =
+        BatchFitView::tr("%1: %n region(s) in %2 s", nullptr, static_cast<int>(outcome.fits.size()))
+            .arg(what, number(outcome.seconds, 3));
+    if (failed)
+        summary += BatchFitView::tr(", %n failed", nullptr, failed) +
+                   QStringLiteral(" (%1)").arg(
+                       failedCodes.mid(0, 5).join(QStringLiteral(", ")) +
+                       (failedCodes.size() > 5 ? QStringLiteral(", …") : QString()));
+    if (unconverged)
+        summary += BatchFitView::tr(", %n not converged", nullptr, unconverged);
+    if (outcome.cancelled)
+        summary += BatchFitView::tr(" — cancelled, the rest were not fitted");
+    return summary;
+}
+
+}  // namespace
+
 void BatchFitView::setOutcome(const BatchFitOutcome& outcome,
                               const std::map<std::string, std::string>& names,
                               const QString& what) {
     QVector<TextTableModel::Row> rows;
-    int failed = 0;
     int unconverged = 0;
     QStringList failedCodes;
     for (const fit::RegionFit& r : outcome.fits) {
@@ -133,79 +217,17 @@ void BatchFitView::setOutcome(const BatchFitOutcome& outcome,
         const auto name = names.find(r.region);
         const QString nameText =
             name == names.end() ? QString() : QString::fromStdString(name->second);
-        TextTableModel::Row row;
         if (!r.fit) {
-            ++failed;
             failedCodes << code;
-            const QString why = r.error ? QString::fromStdString(r.error->message) : tr("no fit");
-            row.cells = {code,
-                         nameText,
-                         QStringLiteral("–"),
-                         QStringLiteral("–"),
-                         QStringLiteral("–"),
-                         QStringLiteral("–"),
-                         tr("failed: %1").arg(why)};
-            row.sortKeys = {code,
-                            nameText,
-                            QVariant(),
-                            QVariant(),
-                            QVariant(),
-                            QVariant(),
-                            QStringLiteral("2 ") + why};
-            row.toolTip = why;
-            rows << row;
+            rows << failedFitRow(code, nameText, r);
             continue;
         }
-        const fit::FitResult& f = *r.fit;
-        const fit::DerivedQuantities& d = f.derived;
-        const bool converged = f.summary.converged();
-        if (!converged)
+        if (!r.fit->summary.converged())
             ++unconverged;
-        QString status = converged ? tr("converged") : tr("not converged");
-        if (!f.summary.notes.empty())
-            status += tr(" · %n note(s)", nullptr, static_cast<int>(f.summary.notes.size()));
-        const QString peak = std::isfinite(d.peakDay.value)
-                                 ? QString::fromStdString(f.dateOf(d.peakDay.value).iso())
-                                 : QStringLiteral("–");
-        row.cells = {code,
-                     nameText,
-                     peak,
-                     number(d.waveSize.value, 0),
-                     number(d.fractionObserved.value * 100, 1) + QStringLiteral(" %"),
-                     number(f.goodness.r2, 3),
-                     status};
-        row.sortKeys = {code,
-                        nameText,
-                        f.first + d.peakDay.value,
-                        d.waveSize.value,
-                        d.fractionObserved.value,
-                        f.goodness.r2,
-                        (converged ? QStringLiteral("0 ") : QStringLiteral("1 ")) + status};
-        QStringList tip;
-        tip << QStringLiteral("%1 %2, %3 to %4")
-                   .arg(QString::fromLatin1(fit::modelName(f.model)),
-                        QString::fromLatin1(fit::methodName(f.method)),
-                        QString::fromStdString(f.windowFirst().iso()),
-                        QString::fromStdString(f.windowLast().iso()));
-        tip << QString::fromStdString(f.summary.brief());
-        for (const std::string& note : f.summary.notes)
-            tip << QString::fromStdString(note);
-        row.toolTip = tip.join(QLatin1Char('\n'));
-        row.emphasised = false;
-        rows << row;
+        rows << fittedRow(code, nameText, *r.fit);
     }
     m_rows->setRows(rows);
-    QString summary = tr("%1: %n region(s) in %2 s", nullptr, static_cast<int>(outcome.fits.size()))
-                          .arg(what, number(outcome.seconds, 3));
-    if (failed)
-        summary += tr(", %n failed", nullptr, failed) +
-                   QStringLiteral(" (%1)").arg(
-                       failedCodes.mid(0, 5).join(QStringLiteral(", ")) +
-                       (failedCodes.size() > 5 ? QStringLiteral(", …") : QString()));
-    if (unconverged)
-        summary += tr(", %n not converged", nullptr, unconverged);
-    if (outcome.cancelled)
-        summary += tr(" — cancelled, the rest were not fitted");
+    const QString summary = batchSummaryText(outcome, what, failedCodes, unconverged);
     m_summaryText = summary;
     m_summary->setText(summary);
 }

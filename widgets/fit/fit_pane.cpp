@@ -92,6 +92,17 @@ FitPane::FitPane(QWidget* parent)
       m_comparison(
           new TextTableModel({tr("Model"), tr("AICc"), tr("ΔAICc"), tr("R²"), tr("Note")}, this)),
       m_caution(new QLabel(QString::fromUtf8(fit::caution), this)) {
+    fillChoices();
+    setUpWindowAndText();
+    layOut();
+    connectControls();
+    m_weekday->setEnabled(false);
+    onWindowModeChanged();
+    clear(tr("No region selected."));
+}
+
+// The model, method and wave choices, each item carrying its core value.
+void FitPane::fillChoices() {
     m_model->setObjectName(QStringLiteral("fitModel"));
     for (fit::ModelKind kind : fit::kAllModels)
         m_model->addItem(QString::fromLatin1(fit::modelName(kind)), static_cast<int>(kind));
@@ -109,6 +120,10 @@ FitPane::FitPane(QWidget* parent)
     m_weekday->setToolTip(tr("Likelihood fits: one reporting factor per weekday"));
     m_wave->addItem(tr("largest wave"), static_cast<int>(fit::WaveChoice::Largest));
     m_wave->addItem(tr("latest wave"), static_cast<int>(fit::WaveChoice::Latest));
+}
+
+// The window controls (automatic by default) and the text lines, named for the tests.
+void FitPane::setUpWindowAndText() {
     m_auto->setChecked(true);
     m_auto->setObjectName(QStringLiteral("fitWindowAuto"));
     m_manual->setObjectName(QStringLiteral("fitWindowManual"));
@@ -123,7 +138,10 @@ FitPane::FitPane(QWidget* parent)
     m_summary->setTextInteractionFlags(Qt::TextSelectableByMouse);
     m_caution->setObjectName(QStringLiteral("cautionLine"));
     m_caution->setWordWrap(true);
+}
 
+// The choices in a form: model, method, weekday factors, and the window (a wave or days).
+QFormLayout* FitPane::optionsForm() {
     auto* autoRow = new QHBoxLayout;
     autoRow->addWidget(m_auto);
     autoRow->addWidget(m_wave, 1);
@@ -140,7 +158,11 @@ FitPane::FitPane(QWidget* parent)
     form->addRow(tr("Method"), m_method);
     form->addRow(QString(), m_weekday);
     form->addRow(tr("Window"), windowRows);
+    return form;
+}
 
+// The result tables in tabs: parameters, derived quantities (shown first), model comparison.
+QTabWidget* FitPane::resultTabs() {
     auto* tabs = new QTabWidget(this);
     tabs->addTab(makeTable(m_parameters, tabs), tr("Parameters"));
     tabs->addTab(makeTable(m_derived, tabs), tr("Derived"));
@@ -148,14 +170,24 @@ FitPane::FitPane(QWidget* parent)
     comparison->setSortingEnabled(true);
     tabs->addTab(comparison, tr("Compare models"));
     tabs->setCurrentIndex(1);
+    return tabs;
+}
 
+// The pane from top to bottom: the choices, the summary, the tables, the caution line.
+void FitPane::layOut() {
+    QFormLayout* form = optionsForm();
+    QTabWidget* tabs = resultTabs();
     auto* layout = new QVBoxLayout(this);
     layout->setContentsMargins(4, 4, 4, 4);
     layout->addLayout(form);
     layout->addWidget(m_summary);
     layout->addWidget(tabs, 1);
     layout->addWidget(m_caution);
+}
 
+// A changed choice asks for a refit (days only when they are in use); weekday factors are
+// offered only for likelihood fits of daily data.
+void FitPane::connectControls() {
     for (QComboBox* box : {m_model, m_method, m_wave})
         connect(box, &QComboBox::currentIndexChanged, this, [this] { Q_EMIT optionsChanged(); });
     connect(m_weekday, &QCheckBox::toggled, this, [this] { Q_EMIT optionsChanged(); });
@@ -170,9 +202,6 @@ FitPane::FitPane(QWidget* parent)
                               m_method->currentData().toInt() !=
                                   static_cast<int>(fit::FitMethod::LeastSquares));
     });
-    m_weekday->setEnabled(false);
-    onWindowModeChanged();
-    clear(tr("No region selected."));
 }
 
 void FitPane::onWindowModeChanged() {
@@ -294,9 +323,13 @@ void FitPane::clear(const QString& why) {
     m_comparison->setRows({});
 }
 
-void FitPane::showFit(const Result<fit::FitResult>& result,
-                      const std::vector<fit::ModelComparisonRow>& comparison) {
-    QVector<TextTableModel::Row> comparisonRows;
+namespace {
+
+// The model comparison table: one row per model with its AICc, ΔAICc against the lowest
+// converged AICc, R² and a note; the row of the shown fit is emphasised.
+QVector<TextTableModel::Row> comparisonRows(
+    const Result<fit::FitResult>& result, const std::vector<fit::ModelComparisonRow>& comparison) {
+    QVector<TextTableModel::Row> rows;
     double bestAicc = INFINITY;
     for (const fit::ModelComparisonRow& row : comparison)
         if (row.fit && row.fit->summary.converged())
@@ -307,7 +340,7 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
         if (row.fit) {
             const fit::GoodnessOfFit& g = row.fit->goodness;
             out.cells = {name, number(g.aicc, 1), number(g.aicc - bestAicc, 1), number(g.r2, 3),
-                         row.fit->summary.converged() ? QString() : tr("not converged")};
+                         row.fit->summary.converged() ? QString() : FitPane::tr("not converged")};
             out.sortKeys = {name, g.aicc, g.aicc - bestAicc, g.r2, QVariant()};
             out.toolTip = QString::fromStdString(row.fit->summary.brief());
             out.emphasised = result.ok() && row.model == result->model;
@@ -315,31 +348,31 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
             out.cells = {name, QStringLiteral("–"), QStringLiteral("–"), QStringLiteral("–"),
                          QString::fromStdString(row.error)};
         }
-        comparisonRows << out;
+        rows << out;
     }
-    m_comparison->setRows(comparisonRows);
+    return rows;
+}
 
-    if (!result) {
-        m_summary->setText(noFitText(result.error()));
-        m_parameters->setRows({});
-        m_derived->setRows({});
-        return;
-    }
-    const fit::FitResult& fit = *result;
-    QString summary = tr("<b>%1</b>, %2, %3 to %4 (%5 %6): %7")
+// The summary line (HTML): model, method, window, the solver's brief, goodness of fit, notes.
+QString fitSummaryText(const fit::FitResult& fit) {
+    QString summary = FitPane::tr("<b>%1</b>, %2, %3 to %4 (%5 %6): %7")
                           .arg(modelDisplayName(fit.model), methodDisplayName(fit.method),
                                QString::fromStdString(fit.windowFirst().iso()),
                                QString::fromStdString(fit.windowLast().iso()))
                           .arg(fit.last - fit.first + 1)
-                          .arg(fit.periodDays == 7 ? tr("weeks") : tr("days"),
+                          .arg(fit.periodDays == 7 ? FitPane::tr("weeks") : FitPane::tr("days"),
                                QString::fromStdString(fit.summary.brief()).toHtmlEscaped());
-    summary += tr("<br>R² %1 · RMSE %2 · AICc %3")
+    summary += FitPane::tr("<br>R² %1 · RMSE %2 · AICc %3")
                    .arg(number(fit.goodness.r2, 3), number(fit.goodness.rmse, 1),
                         number(fit.goodness.aicc, 1));
     for (const std::string& note : fit.summary.notes)
         summary += QStringLiteral("<br>⚠ %1").arg(QString::fromStdString(note).toHtmlEscaped());
-    m_summary->setText(summary);
+    return summary;
+}
 
+// The parameter table: each estimate with its interval, then the dispersion and the weekday
+// factors when the fit has them.
+QVector<TextTableModel::Row> parameterRows(const fit::FitResult& fit) {
     QVector<TextTableModel::Row> parameters;
     for (const fit::NamedEstimate& p : fit.parameters) {
         const int decimals = decimalsFor(p.estimate.value);
@@ -347,24 +380,28 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
             {QString::fromStdString(p.name), number(p.estimate.value, decimals),
              interval(p.estimate, decimals)},
             {},
-            tr("standard error %1").arg(number(p.estimate.se, decimalsFor(p.estimate.se))),
+            FitPane::tr("standard error %1").arg(number(p.estimate.se, decimalsFor(p.estimate.se))),
             false};
     }
     if (fit.dispersion)
         parameters << TextTableModel::Row{
-            {tr("r (negative-binomial size)"), number(*fit.dispersion, 2), QString()},
+            {FitPane::tr("r (negative-binomial size)"), number(*fit.dispersion, 2), QString()},
             {},
             {},
             false};
     static const char* const weekdays[] = {"Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"};
     for (std::size_t i = 0; i < fit.weekdayFactors.size() && i < 7; ++i)
-        parameters << TextTableModel::Row{
-            {tr("factor %1").arg(tr(weekdays[i])), number(fit.weekdayFactors[i], 3), QString()},
-            {},
-            {},
-            false};
-    m_parameters->setRows(parameters);
+        parameters << TextTableModel::Row{{FitPane::tr("factor %1").arg(FitPane::tr(weekdays[i])),
+                                           number(fit.weekdayFactors[i], 3), QString()},
+                                          {},
+                                          {},
+                                          false};
+    return parameters;
+}
 
+// The derived quantities table: peak, wave size, fraction observed, start, end, fastest
+// growth, doubling time and the peak infectious load.
+QVector<TextTableModel::Row> derivedRows(const fit::FitResult& fit) {
     const fit::DerivedQuantities& d = fit.derived;
     auto dateOf = [&fit](double day) {
         return std::isfinite(day) ? QString::fromStdString(fit.dateOf(day).iso())
@@ -376,7 +413,7 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
                                   : QStringLiteral("–");
         return TextTableModel::Row{{name, dateOf(e.value), range},
                                    {},
-                                   tr("day %1 of the window, standard error %2 days")
+                                   FitPane::tr("day %1 of the window, standard error %2 days")
                                        .arg(number(e.value, 1), number(e.se, 1)),
                                    false};
     };
@@ -386,32 +423,51 @@ void FitPane::showFit(const Result<fit::FitResult>& result,
             {name, number(e.value, decimals) + unit, interval(e, decimals)}, {}, {}, false};
     };
     QVector<TextTableModel::Row> derived;
-    derived << dateRow(tr("Peak day"), d.peakDay);
-    derived << valueRow(fit.periodDays == 7 ? tr("Peak per week") : tr("Peak per day"),
-                        d.peakIncidence, decimalsFor(d.peakIncidence.value));
-    derived << valueRow(tr("Wave size K"), d.waveSize, 0);
+    derived << dateRow(FitPane::tr("Peak day"), d.peakDay);
+    derived << valueRow(
+        fit.periodDays == 7 ? FitPane::tr("Peak per week") : FitPane::tr("Peak per day"),
+        d.peakIncidence, decimalsFor(d.peakIncidence.value));
+    derived << valueRow(FitPane::tr("Wave size K"), d.waveSize, 0);
     derived << TextTableModel::Row{
-        {tr("Fraction observed"), number(d.fractionObserved.value * 100, 1) + QStringLiteral(" %"),
+        {FitPane::tr("Fraction observed"),
+         number(d.fractionObserved.value * 100, 1) + QStringLiteral(" %"),
          std::isfinite(d.fractionObserved.lower)
              ? QStringLiteral("%1 – %2 %")
                    .arg(number(d.fractionObserved.lower * 100, 1),
                         number(d.fractionObserved.upper * 100, 1))
              : QStringLiteral("–")},
         {},
-        tr("Cumulative fitted cases at the last day with data, as a share of K"),
+        FitPane::tr("Cumulative fitted cases at the last day with data, as a share of K"),
         false};
-    derived << dateRow(tr("Start (%1 % of K)").arg(number(fit.options.startQuantile * 100, 1)),
-                       d.startDay);
-    derived << dateRow(tr("End (%1 % of K)").arg(number(fit.options.endQuantile * 100, 1)),
+    derived << dateRow(
+        FitPane::tr("Start (%1 % of K)").arg(number(fit.options.startQuantile * 100, 1)),
+        d.startDay);
+    derived << dateRow(FitPane::tr("End (%1 % of K)").arg(number(fit.options.endQuantile * 100, 1)),
                        d.endDay);
-    derived << dateRow(tr("Fastest growth"), d.fastestGrowthDay);
-    derived << valueRow(tr("Doubling time at the start (days)"), d.doublingTimeDays, 1);
+    derived << dateRow(FitPane::tr("Fastest growth"), d.fastestGrowthDay);
+    derived << valueRow(FitPane::tr("Doubling time at the start (days)"), d.doublingTimeDays, 1);
     derived << valueRow(
-        tr("Peak infectious load (%1-day cases)").arg(fit.options.infectiousWindowDays),
+        FitPane::tr("Peak infectious load (%1-day cases)").arg(fit.options.infectiousWindowDays),
         d.peakInfectiousLoad, 0);
     if (d.peakInfectiousLoadPer100k)
-        derived << valueRow(tr("… per 100,000 people"), *d.peakInfectiousLoadPer100k, 1);
-    m_derived->setRows(derived);
+        derived << valueRow(FitPane::tr("… per 100,000 people"), *d.peakInfectiousLoadPer100k, 1);
+    return derived;
+}
+
+}  // namespace
+
+void FitPane::showFit(const Result<fit::FitResult>& result,
+                      const std::vector<fit::ModelComparisonRow>& comparison) {
+    m_comparison->setRows(comparisonRows(result, comparison));
+    if (!result) {
+        m_summary->setText(noFitText(result.error()));
+        m_parameters->setRows({});
+        m_derived->setRows({});
+        return;
+    }
+    m_summary->setText(fitSummaryText(*result));
+    m_parameters->setRows(parameterRows(*result));
+    m_derived->setRows(derivedRows(*result));
 }
 
 }  // namespace siftwave::widgets

@@ -22,8 +22,10 @@
 class QCheckBox;
 class QComboBox;
 class QDateEdit;
+class QFormLayout;
 class QLabel;
 class QRadioButton;
+class QTabWidget;
 class QTableView;
 
 namespace siftwave::widgets {
@@ -75,6 +77,12 @@ Q_SIGNALS:
     void optionsChanged();
 
 private:
+    void fillChoices();
+    void setUpWindowAndText();
+    QFormLayout* optionsForm();
+    QTabWidget* resultTabs();
+    void layOut();
+    void connectControls();
     void onWindowModeChanged();
 
     QComboBox* m_model;

@@ -121,6 +121,23 @@ void SeriesChart::orderLiveLayer() {
 
 void SeriesChart::draw(const SeriesView& view) {
     m_view = view;
+    resetDrawnState();
+    const QVector<double> keys = keysOf(m_view);
+    m_plot->yAxis->setLabel(m_view.valueLabel);
+    drawRawBars(keys);
+    drawFit();
+    if (!m_view.previous.empty())
+        drawPreviousRelease(keys);
+    drawCleanedLines(keys);
+    drawSecondMeasure(keys);
+    drawFindings();
+    if (m_view.fitWindow)
+        setWindow(m_view.fitWindow, QObject::tr("fit window"));
+    resetRange();
+}
+
+// Clears the plot and forgets every mark drawn on it (fit, window, preview, clip labels).
+void SeriesChart::resetDrawnState() {
     m_plot->clearPlottables();
     m_plot->clearItems();
     ++m_fullReplotRevision;
@@ -132,11 +149,10 @@ void SeriesChart::draw(const SeriesView& view) {
     m_windowStart = nullptr;
     m_windowEnd = nullptr;
     m_window.reset();
+}
 
-    const QVector<double> keys = keysOf(m_view);
-    m_plot->yAxis->setLabel(m_view.valueLabel);
-
-    // Raw counts: only the days a number was reported.
+// Raw counts: bars only on the days a number was reported.
+void SeriesChart::drawRawBars(const QVector<double>& keys) {
     auto* bars = new QCPBars(m_plot->xAxis, m_plot->yAxis);
     bars->setWidth(2 * halfPeriodKeys(m_view.axis) * 0.78);
     bars->setBrush(plot_style::rawBarBrush());
@@ -152,34 +168,36 @@ void SeriesChart::draw(const SeriesView& view) {
         rawValues << m_view.raw[d];
     }
     bars->setData(rawKeys, rawValues, true);
+}
 
-    drawFit();
-    if (!m_view.previous.empty()) {
-        QCPGraph* previous =
-            addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.previous, m_view.periods()),
-                    plot_style::previousPen(),
-                    QObject::tr("Previous release (%1)").arg(m_view.previousLabel));
-        previous->setLineStyle(QCPGraph::lsStepCenter);
-        previous->setAdaptiveSampling(false);
-        // Where the two releases disagree, the old value is marked with a cross.
-        QVector<double> revisedKeys, revisedValues;
-        for (int d = 0; d < m_view.periods() && d < static_cast<int>(m_view.previous.size()); ++d) {
-            const double old = m_view.previous[d];
-            const double now = d < static_cast<int>(m_view.raw.size()) ? m_view.raw[d] : old;
-            if (std::isnan(old) || std::isnan(now) || old == now)
-                continue;
-            revisedKeys << keys[d];
-            revisedValues << old;
-        }
-        if (!revisedKeys.isEmpty()) {
-            QCPGraph* revised = m_plot->addGraph(m_plot->xAxis, m_plot->yAxis);
-            revised->setData(revisedKeys, revisedValues, true);
-            revised->setLineStyle(QCPGraph::lsNone);
-            revised->setScatterStyle(
-                QCPScatterStyle(QCPScatterStyle::ssCross, plot_style::kInk, 7));
-            revised->setName(QObject::tr("Revised since (old value)"));
-        }
+// The previous release as a step line; where the two releases disagree, the old value is
+// marked with a cross.
+void SeriesChart::drawPreviousRelease(const QVector<double>& keys) {
+    QCPGraph* previous = addLine(
+        m_plot, m_plot->yAxis, keys, toVector(m_view.previous, m_view.periods()),
+        plot_style::previousPen(), QObject::tr("Previous release (%1)").arg(m_view.previousLabel));
+    previous->setLineStyle(QCPGraph::lsStepCenter);
+    previous->setAdaptiveSampling(false);
+    QVector<double> revisedKeys, revisedValues;
+    for (int d = 0; d < m_view.periods() && d < static_cast<int>(m_view.previous.size()); ++d) {
+        const double old = m_view.previous[d];
+        const double now = d < static_cast<int>(m_view.raw.size()) ? m_view.raw[d] : old;
+        if (std::isnan(old) || std::isnan(now) || old == now)
+            continue;
+        revisedKeys << keys[d];
+        revisedValues << old;
     }
+    if (!revisedKeys.isEmpty()) {
+        QCPGraph* revised = m_plot->addGraph(m_plot->xAxis, m_plot->yAxis);
+        revised->setData(revisedKeys, revisedValues, true);
+        revised->setLineStyle(QCPGraph::lsNone);
+        revised->setScatterStyle(QCPScatterStyle(QCPScatterStyle::ssCross, plot_style::kInk, 7));
+        revised->setName(QObject::tr("Revised since (old value)"));
+    }
+}
+
+// The cleaned and the smoothed lines, when the view has them.
+void SeriesChart::drawCleanedLines(const QVector<double>& keys) {
     if (!m_view.cleaned.empty())
         addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.cleaned, m_view.periods()),
                 plot_style::cleanedPen(), QObject::tr("Cleaned"));
@@ -187,7 +205,10 @@ void SeriesChart::draw(const SeriesView& view) {
         addLine(m_plot, m_plot->yAxis, keys, toVector(m_view.smoothed, m_view.periods()),
                 plot_style::smoothedPen(),
                 m_view.smoothedLabel.isEmpty() ? QObject::tr("Smoothed") : m_view.smoothedLabel);
+}
 
+// A second measure on the right axis, when the view has one; the right axis hides otherwise.
+void SeriesChart::drawSecondMeasure(const QVector<double>& keys) {
     const bool second = !m_view.secondMeasure.isEmpty() && !m_view.second.empty();
     m_plot->yAxis2->setVisible(second);
     if (second) {
@@ -197,11 +218,6 @@ void SeriesChart::draw(const SeriesView& view) {
         m_plot->yAxis2->setLabel(m_view.secondValueLabel);
         m_plot->yAxis2->setNumberFormat(QStringLiteral("gb"));
     }
-
-    drawFindings();
-    if (m_view.fitWindow)
-        setWindow(m_view.fitWindow, QObject::tr("fit window"));
-    resetRange();
 }
 
 void SeriesChart::drawFit() {

@@ -93,6 +93,11 @@ public:
     int fullReplotRevision() const { return m_fullReplotRevision; }
 
 private:
+    void resetDrawnState();
+    void drawRawBars(const QVector<double>& keys);
+    void drawPreviousRelease(const QVector<double>& keys);
+    void drawCleanedLines(const QVector<double>& keys);
+    void drawSecondMeasure(const QVector<double>& keys);
     void drawFindings();
     void drawFit();
     void rescaleValueAxis();
