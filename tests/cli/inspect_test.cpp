@@ -147,7 +147,8 @@ TEST(CliInspect, PlainTextSaysWhatWasRead) {
     EXPECT_NE(r.out.find("layout      dates-down"), std::string::npos) << r.out;
     EXPECT_NE(r.out.find("DD/MM/YYYY"), std::string::npos);
     EXPECT_NE(r.out.find("regions     2: NA, 007"), std::string::npos) << r.out;
-    EXPECT_NE(r.out.find("calendar    daily, 2026-02-01 to 2026-02-13 (13 days)"), std::string::npos)
+    EXPECT_NE(r.out.find("calendar    daily, 2026-02-01 to 2026-02-13 (13 days)"),
+              std::string::npos)
         << r.out;
     std::filesystem::remove(path);
 }

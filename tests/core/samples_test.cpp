@@ -387,7 +387,8 @@ TEST(SamplesDrop, VariantCodeHoldsTheNewWeekAndItsCanonicalCodeTheRest) {
     for (std::int32_t i = 0; i < drop->periods(); ++i) {
         const bool newWeek = drop->periodStart(i) >= *from;
         EXPECT_EQ(drop->cell(cases, *variant, i).reported(), newWeek) << drop->periodStart(i).iso();
-        EXPECT_EQ(drop->cell(cases, *canonical, i).reported(), !newWeek) << drop->periodStart(i).iso();
+        EXPECT_EQ(drop->cell(cases, *canonical, i).reported(), !newWeek)
+            << drop->periodStart(i).iso();
     }
 }
 

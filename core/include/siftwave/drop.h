@@ -33,8 +33,8 @@ enum class CellState : std::uint8_t {
 const char* cellStateName(CellState state);
 
 struct Cell {
-    std::int32_t value = 0;    // the count when Reported (may be negative); 0 otherwise
-    std::uint32_t line = 0;    // 1-based physical line of the source row; 0 when Absent
+    std::int32_t value = 0;  // the count when Reported (may be negative); 0 otherwise
+    std::uint32_t line = 0;  // 1-based physical line of the source row; 0 when Absent
     CellState state = CellState::Absent;
 
     bool reported() const { return state == CellState::Reported; }
@@ -47,16 +47,21 @@ public:
     CellTable() = default;
     CellTable(std::size_t regions, std::size_t days) : m_days(days), m_cells(regions * days) {}
     /// Adopts cells already laid out region by region; `cells.size()` must be a multiple of `days`.
-    CellTable(std::size_t days, std::vector<Cell> cells) : m_days(days), m_cells(std::move(cells)) {}
+    CellTable(std::size_t days, std::vector<Cell> cells)
+        : m_days(days), m_cells(std::move(cells)) {}
 
     std::size_t regions() const { return m_days == 0 ? 0 : m_cells.size() / m_days; }
     std::size_t days() const { return m_days; }
     Cell& at(std::size_t region, std::size_t day) { return m_cells[region * m_days + day]; }
-    const Cell& at(std::size_t region, std::size_t day) const { return m_cells[region * m_days + day]; }
+    const Cell& at(std::size_t region, std::size_t day) const {
+        return m_cells[region * m_days + day];
+    }
     std::span<const Cell> series(std::size_t region) const {
         return {m_cells.data() + region * m_days, m_days};
     }
-    std::span<Cell> series(std::size_t region) { return {m_cells.data() + region * m_days, m_days}; }
+    std::span<Cell> series(std::size_t region) {
+        return {m_cells.data() + region * m_days, m_days};
+    }
 
 private:
     std::size_t m_days = 0;
@@ -77,10 +82,10 @@ std::optional<Layout> layoutFromName(std::string_view name);
 struct Dialect {
     char delimiter = ',';
     bool header = true;
-    bool bom = false;            // a UTF-8 byte-order mark was present
-    bool crlf = false;           // lines end in CR LF
-    char decimalSeparator = '.'; // ',' when a decimal comma was detected
-    char thousandsSeparator = 0; // 0 when none was seen; else '.', ',', ' ' or '\''
+    bool bom = false;             // a UTF-8 byte-order mark was present
+    bool crlf = false;            // lines end in CR LF
+    char decimalSeparator = '.';  // ',' when a decimal comma was detected
+    char thousandsSeparator = 0;  // 0 when none was seen; else '.', ',', ' ' or '\''
 };
 
 /// Which source columns play which role (names as in the header, or "column N").
@@ -89,14 +94,15 @@ struct ColumnMapping {
     std::string year;  // a date written as a year and a week number: the two columns;
     std::string week;  // empty otherwise
     std::string region;
-    std::vector<std::string> values;  // one per measure column (long), or the region/date columns (wide)
-    std::string measure;              // long layout with a measure-name column; empty otherwise
+    // One per measure column (long), or the region/date columns (wide).
+    std::vector<std::string> values;
+    std::string measure;  // long layout with a measure-name column; empty otherwise
 };
 
 struct Provenance {
     std::string path;
     std::uint64_t bytes = 0;
-    std::string sha256;      // lower-case hex of the file's bytes
+    std::string sha256;  // lower-case hex of the file's bytes
     Dialect dialect;
     Layout layout = Layout::Long;
     ColumnMapping columns;
@@ -116,8 +122,8 @@ struct Warning {
 struct DuplicateRow {
     std::size_t measure = 0;
     std::size_t region = 0;
-    std::int32_t day = 0;  // period index into the time axis
-    Cell cell;             // the repeating row's cell (the table keeps the first one)
+    std::int32_t day = 0;         // period index into the time axis
+    Cell cell;                    // the repeating row's cell (the table keeps the first one)
     std::uint32_t firstLine = 0;  // line of the occurrence kept in the table
 };
 

@@ -15,9 +15,9 @@ namespace siftwave {
 struct RegionEntry {
     std::string code;
     std::string name;
-    std::string parent;                    // empty for a top-level region
+    std::string parent;  // empty for a top-level region
     std::optional<std::int64_t> population;
-    std::uint32_t line = 0;                // line in the register file
+    std::uint32_t line = 0;  // line in the register file
 };
 
 struct RegionRegister {

@@ -15,17 +15,17 @@
 namespace siftwave {
 
 enum class ErrorCode {
-    Io,             // file cannot be opened, read or written
-    Encoding,       // invalid UTF-8 and the like
-    Syntax,         // malformed CSV, JSON line, ...
-    Ambiguous,      // the reader refuses to guess (e.g. day/month order)
-    InvalidValue,   // a well-formed value that is not allowed (2026-02-30)
-    Layout,         // the columns cannot be mapped to roles
-    Usage,          // an option or parameter is wrong
-    Integrity,      // hash mismatch, broken chain, torn ledger line
-    Conservation,   // a decision would break a total or make a count negative
-    NotFound,       // region, measure or entry id does not exist
-    Numerical,      // a solver could not proceed
+    Io,            // file cannot be opened, read or written
+    Encoding,      // invalid UTF-8 and the like
+    Syntax,        // malformed CSV, JSON line, ...
+    Ambiguous,     // the reader refuses to guess (e.g. day/month order)
+    InvalidValue,  // a well-formed value that is not allowed (2026-02-30)
+    Layout,        // the columns cannot be mapped to roles
+    Usage,         // an option or parameter is wrong
+    Integrity,     // hash mismatch, broken chain, torn ledger line
+    Conservation,  // a decision would break a total or make a count negative
+    NotFound,      // region, measure or entry id does not exist
+    Numerical,     // a solver could not proceed
 };
 
 /// Short stable name of an error code ("syntax", "integrity", ...).
@@ -33,12 +33,13 @@ const char* errorCodeName(ErrorCode code);
 
 struct Error {
     ErrorCode code = ErrorCode::InvalidValue;
-    std::string message;  // one sentence for a person: what is wrong and, where possible, what to do
-    std::string file;     // empty when not about a file
+    // One sentence for a person: what is wrong and, where possible, what to do.
+    std::string message;
+    std::string file;          // empty when not about a file
     std::uint64_t line = 0;    // 1-based; 0 when unknown
     std::uint64_t column = 0;  // 1-based; 0 when unknown
-    std::string region;   // verbatim code, when about one region
-    std::string date;     // ISO 8601, when about one day
+    std::string region;        // verbatim code, when about one region
+    std::string date;          // ISO 8601, when about one day
 
     /// "file:line:column: message" with the parts that are known.
     std::string describe() const;
@@ -54,15 +55,27 @@ public:
     bool ok() const { return m_data.index() == 0; }
     explicit operator bool() const { return ok(); }
 
-    T& value() & { assert(ok()); return std::get<0>(m_data); }
-    const T& value() const& { assert(ok()); return std::get<0>(m_data); }
-    T&& value() && { assert(ok()); return std::get<0>(std::move(m_data)); }
+    T& value() & {
+        assert(ok());
+        return std::get<0>(m_data);
+    }
+    const T& value() const& {
+        assert(ok());
+        return std::get<0>(m_data);
+    }
+    T&& value() && {
+        assert(ok());
+        return std::get<0>(std::move(m_data));
+    }
     T* operator->() { return &value(); }
     const T* operator->() const { return &value(); }
     T& operator*() & { return value(); }
     const T& operator*() const& { return value(); }
 
-    const Error& error() const { assert(!ok()); return std::get<1>(m_data); }
+    const Error& error() const {
+        assert(!ok());
+        return std::get<1>(m_data);
+    }
 
 private:
     std::variant<T, Error> m_data;

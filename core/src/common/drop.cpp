@@ -5,45 +5,58 @@ namespace siftwave {
 
 const char* cellStateName(CellState state) {
     switch (state) {
-        case CellState::Absent: return "absent";
-        case CellState::Reported: return "reported";
-        case CellState::Blank: return "blank";
-        case CellState::Unparsable: return "unparsable";
+        case CellState::Absent:
+            return "absent";
+        case CellState::Reported:
+            return "reported";
+        case CellState::Blank:
+            return "blank";
+        case CellState::Unparsable:
+            return "unparsable";
     }
     return "absent";
 }
 
 const char* layoutName(Layout layout) {
     switch (layout) {
-        case Layout::Long: return "long";
-        case Layout::DatesDown: return "dates-down";
-        case Layout::DatesAcross: return "dates-across";
+        case Layout::Long:
+            return "long";
+        case Layout::DatesDown:
+            return "dates-down";
+        case Layout::DatesAcross:
+            return "dates-across";
     }
     return "long";
 }
 
 std::optional<Layout> layoutFromName(std::string_view name) {
-    if (name == "long") return Layout::Long;
-    if (name == "dates-down") return Layout::DatesDown;
-    if (name == "dates-across") return Layout::DatesAcross;
+    if (name == "long")
+        return Layout::Long;
+    if (name == "dates-down")
+        return Layout::DatesDown;
+    if (name == "dates-across")
+        return Layout::DatesAcross;
     return std::nullopt;
 }
 
 std::optional<std::size_t> Drop::regionIndex(std::string_view code) const {
     if (m_regionLookup.size() != regionCodes.size()) {
         for (std::size_t i = 0; i < regionCodes.size(); ++i) {
-            if (regionCodes[i] == code) return i;
+            if (regionCodes[i] == code)
+                return i;
         }
         return std::nullopt;
     }
     auto it = m_regionLookup.find(std::string(code));
-    if (it == m_regionLookup.end()) return std::nullopt;
+    if (it == m_regionLookup.end())
+        return std::nullopt;
     return it->second;
 }
 
 std::optional<std::size_t> Drop::measureIndex(std::string_view name) const {
     for (std::size_t i = 0; i < measures.size(); ++i) {
-        if (measures[i] == name) return i;
+        if (measures[i] == name)
+            return i;
     }
     return std::nullopt;
 }
@@ -54,10 +67,18 @@ CellCounts Drop::countCells() const {
         for (std::size_t r = 0; r < table.regions(); ++r) {
             for (const Cell& c : table.series(r)) {
                 switch (c.state) {
-                    case CellState::Absent: ++counts.absent; break;
-                    case CellState::Reported: ++counts.reported; break;
-                    case CellState::Blank: ++counts.blank; break;
-                    case CellState::Unparsable: ++counts.unparsable; break;
+                    case CellState::Absent:
+                        ++counts.absent;
+                        break;
+                    case CellState::Reported:
+                        ++counts.reported;
+                        break;
+                    case CellState::Blank:
+                        ++counts.blank;
+                        break;
+                    case CellState::Unparsable:
+                        ++counts.unparsable;
+                        break;
                 }
             }
         }
@@ -68,13 +89,15 @@ CellCounts Drop::countCells() const {
 void Drop::indexRegions() {
     m_regionLookup.clear();
     m_regionLookup.reserve(regionCodes.size());
-    for (std::size_t i = 0; i < regionCodes.size(); ++i) m_regionLookup.emplace(regionCodes[i], i);
+    for (std::size_t i = 0; i < regionCodes.size(); ++i)
+        m_regionLookup.emplace(regionCodes[i], i);
 }
 
 const RegionEntry* RegionRegister::find(std::string_view code) const {
     if (m_lookup.size() != entries.size()) {
         for (const RegionEntry& e : entries) {
-            if (e.code == code) return &e;
+            if (e.code == code)
+                return &e;
         }
         return nullptr;
     }
@@ -84,7 +107,8 @@ const RegionEntry* RegionRegister::find(std::string_view code) const {
 
 bool RegionRegister::hasHierarchy() const {
     for (const RegionEntry& e : entries) {
-        if (!e.parent.empty()) return true;
+        if (!e.parent.empty())
+            return true;
     }
     return false;
 }
@@ -92,14 +116,16 @@ bool RegionRegister::hasHierarchy() const {
 std::vector<std::string> RegionRegister::childrenOf(std::string_view code) const {
     std::vector<std::string> out;
     for (const RegionEntry& e : entries) {
-        if (e.parent == code) out.push_back(e.code);
+        if (e.parent == code)
+            out.push_back(e.code);
     }
     return out;
 }
 
 void RegionRegister::index() {
     m_lookup.clear();
-    for (std::size_t i = 0; i < entries.size(); ++i) m_lookup.emplace(entries[i].code, i);
+    for (std::size_t i = 0; i < entries.size(); ++i)
+        m_lookup.emplace(entries[i].code, i);
 }
 
 }  // namespace siftwave

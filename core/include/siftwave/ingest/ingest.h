@@ -23,8 +23,8 @@
 namespace siftwave::ingest {
 
 struct IngestOptions {
-    std::optional<Layout> layout;            // default: detected
-    std::string dateColumn;                  // default: detected (header name)
+    std::optional<Layout> layout;  // default: detected
+    std::string dateColumn;        // default: detected (header name)
     /// A date written as a year column and a week-number column (year 2026, week 5), when no
     /// column holds dates. Default: detected, both by a header word (year, Jahr, année, año,
     /// anno; week, Woche, semaine, semana, settimana, KW, epiweek, isoweek) and by the cells
@@ -33,14 +33,16 @@ struct IngestOptions {
     /// MMWR). Not with dateColumn, dateFormat, the dates-across layout or cadence daily.
     std::string yearColumn;
     std::string weekColumn;
-    std::string regionColumn;                // default: detected (header name)
-    std::vector<std::string> valueColumns;   // default: detected; each becomes a measure (long layout)
-    std::string measureColumn;               // long layout with a measure-name column; default: detected
-    std::string measureName;                 // wide layouts: name of the one measure (default "cases")
-    std::string dateFormat;                  // "" = detect; "YYYY-MM-DD", "YYYYMMDD", "DD/MM/YYYY", "MM/DD/YYYY"
-    std::optional<char> delimiter;           // default: sniffed among , ; TAB |
-    std::optional<bool> header;              // default: sniffed
-    std::vector<std::string> missingTokens{""};  // cells that mean "no value" (default: the empty cell)
+    std::string regionColumn;  // default: detected (header name)
+    // Default: detected; each becomes a measure (long layout).
+    std::vector<std::string> valueColumns;
+    std::string measureColumn;  // long layout with a measure-name column; default: detected
+    std::string measureName;    // wide layouts: name of the one measure (default "cases")
+    std::string dateFormat;     // "" = detect; "YYYY-MM-DD", "YYYYMMDD", "DD/MM/YYYY", "MM/DD/YYYY"
+    std::optional<char> delimiter;  // default: sniffed among , ; TAB |
+    std::optional<bool> header;     // default: sniffed
+    // Cells that mean "no value" (default: the empty cell).
+    std::vector<std::string> missingTokens{""};
     /// The calendar (time_axis.h). Default: detected. Weekly when every date lies 7 days
     /// apart on one weekday, or the dates are ISO week labels (2026-W05) or a year and a
     /// week column; daily otherwise.

@@ -1,6 +1,7 @@
 #pragma once
-// A region's counts per period (day or week) from a Drop as plain doubles: reported cells give their value,
-// every other cell (absent, blank, unparsable) is NaN, so smoothing and fitting skip it.
+// A region's counts per period (day or week) from a Drop as plain doubles: reported cells give
+// their value, every other cell (absent, blank, unparsable) is NaN, so smoothing and fitting skip
+// it.
 
 #include "siftwave/drop.h"
 
