@@ -135,11 +135,9 @@ Result<std::int64_t> positiveFlag(const ParsedArgs& args, const char* name) {
     return static_cast<std::int64_t>(v);
 }
 
-/// The decision the flags describe (the excess left at 0 for --excess auto).
-Result<ledger::Decision> decisionFrom(const ParsedArgs& args, ledger::DecisionKind kind,
-                                      const Drop& drop) {
-    const ledger::DecisionKindInfo& info = ledger::decisionKindInfo(kind);
-    // A flag some kind takes, given to one that does not (in the order of the flag list).
+/// Fails when a flag that some kind takes is given to a kind that does not take it (the first
+/// such flag in the order of the flag list).
+Status rejectFlagsNotTaken(const ParsedArgs& args, const ledger::DecisionKindInfo& info) {
     for (const FlagSpec& spec : decideFlagSpecs()) {
         const std::string& flag = spec.name;
         const auto someKindTakes = [&](const ledger::DecisionKindInfo* k) { return k->flag(flag); };
@@ -148,13 +146,27 @@ Result<ledger::Decision> decisionFrom(const ParsedArgs& args, ledger::DecisionKi
                         someKindTakes))
             return usage("--" + flag + " does not apply to " + info.name);
     }
+    return Ok{};
+}
+
+/// A decision of the kind with the flags that are plain text: --region, --measure (the drop's
+/// only measure when it is left out and the kind allows that), --finding, --variant and --into.
+ledger::Decision decisionWithTextFlags(const ParsedArgs& args, const ledger::DecisionKindInfo& info,
+                                       const Drop& drop) {
     ledger::Decision d;
-    d.kind = kind;
+    d.kind = info.kind;
     d.region = args.value("region");
     d.measure = args.value("measure");
     d.finding = args.value("finding");
     if (info.measureFromDrop && d.measure.empty() && drop.measures.size() == 1)
         d.measure = drop.measures.front();
+    d.variant = args.value("variant");
+    d.into = args.value("into");
+    return d;
+}
+
+/// The days: --date, --window, and --days or --periods (not both).
+Status readDayFlags(const ParsedArgs& args, ledger::Decision& d) {
     if (args.has("date")) {
         auto date = Date::fromIso(args.value("date"));
         if (!date)
@@ -177,6 +189,11 @@ Result<ledger::Decision> decisionFrom(const ParsedArgs& args, ledger::DecisionKi
             return r.error();
         d.window = *r;
     }
+    return Ok{};
+}
+
+/// The counts: --excess (left at 0 for auto) and --baseline-width.
+Status readCountFlags(const ParsedArgs& args, ledger::Decision& d) {
     if (args.has("excess") && args.value("excess") != "auto") {
         auto n = positiveFlag(args, "excess");
         if (!n)
@@ -189,9 +206,16 @@ Result<ledger::Decision> decisionFrom(const ParsedArgs& args, ledger::DecisionKi
             return n.error();
         d.baselineWidth = static_cast<int>(*n);
     }
+    return Ok{};
+}
+
+/// The named rules: --method (a redistribution method for the kinds that take one, else a fill
+/// method) and --keep.
+Status readRuleFlags(const ParsedArgs& args, ledger::Decision& d) {
     if (args.has("method")) {
         const std::string m = args.value("method");
-        if (info.hasParameter(ledger::DecisionParam::RedistributeMethod)) {
+        if (ledger::decisionKindInfo(d.kind).hasParameter(
+                ledger::DecisionParam::RedistributeMethod)) {
             auto method = ledger::redistributeMethodFromName(m);
             if (!method)
                 return usage(
@@ -211,18 +235,45 @@ Result<ledger::Decision> decisionFrom(const ParsedArgs& args, ledger::DecisionKi
             return usage("--keep is first, last, sum or max, not '" + args.value("keep") + "'");
         d.duplicateRule = *rule;
     }
-    d.variant = args.value("variant");
-    d.into = args.value("into");
+    return Ok{};
+}
+
+/// --entry: the entry a withdrawal undoes.
+Status readEntryFlag(const ParsedArgs& args, ledger::Decision& d) {
     if (args.has("entry")) {
         auto n = positiveFlag(args, "entry");
         if (!n)
             return n.error();
         d.target = static_cast<std::uint64_t>(*n);
     }
+    return Ok{};
+}
+
+/// Fails when a flag the kind needs is not given (the first in the kind's flag list).
+Status checkRequiredFlags(const ParsedArgs& args, const ledger::DecisionKindInfo& info) {
     for (const ledger::DecisionFlag& flag : info.flags) {
         if (flag.requiredAs && !args.has(flag.name))
             return usage(std::string(info.name) + " needs " + flag.requiredAs);
     }
+    return Ok{};
+}
+
+/// The decision the flags describe (the excess left at 0 for --excess auto): no flag the kind
+/// does not take, the text flags, then the days, counts, rules and entry in turn, then the flags
+/// the kind needs.
+Result<ledger::Decision> decisionFrom(const ParsedArgs& args, ledger::DecisionKind kind,
+                                      const Drop& drop) {
+    const ledger::DecisionKindInfo& info = ledger::decisionKindInfo(kind);
+    if (Status s = rejectFlagsNotTaken(args, info); !s)
+        return s.error();
+    ledger::Decision d = decisionWithTextFlags(args, info, drop);
+    using FlagStep = Status (*)(const ParsedArgs&, ledger::Decision&);
+    for (FlagStep step : {readDayFlags, readCountFlags, readRuleFlags, readEntryFlag}) {
+        if (Status s = step(args, d); !s)
+            return s.error();
+    }
+    if (Status s = checkRequiredFlags(args, info); !s)
+        return s.error();
     return d;
 }
 
@@ -281,6 +332,134 @@ void printEffectText(const Drop& drop, const ledger::Effect& effect) {
     }
 }
 
+/// What the decide command line asks for, once its usage has been checked.
+struct DecideRequest {
+    const ParsedArgs& args;
+    bool json = false;
+    std::string ledgerPath;
+    ledger::DecisionKind kind;
+    bool dryRun = false;       // --dry-run: show the effect, write nothing
+    bool autoExcess = false;   // redistribute --excess auto: the scan's estimate
+    bool windowGiven = false;  // --window given by hand (with autoExcess, not the scan's)
+};
+
+/// The request the command line makes, or nullopt after a usage error (its exit code in
+/// `exitCode`): a known KIND, --drop, a reason unless --dry-run, a ledger that is not the drop
+/// itself, and valid ingest flags.
+std::optional<DecideRequest> decideRequest(const ParsedArgs& args, bool json, int& exitCode) {
+    const auto refuse = [&](const std::string& message) {
+        exitCode = usageError(message, json, usageText());
+        return std::nullopt;
+    };
+    const std::optional<ledger::DecisionKind> kind =
+        ledger::decisionKindFromName(args.positional[1]);
+    if (!kind)
+        return refuse("unknown decision kind '" + args.positional[1] + "'; use " + kindNames());
+    if (!args.has("drop"))
+        return refuse("decide needs --drop FILE, the drop the ledger belongs to");
+    DecideRequest request{args, json, args.positional[0], *kind};
+    request.dryRun = args.has("dry-run");
+    if (!request.dryRun && args.value("reason").find_first_not_of(" \t\r\n") == std::string::npos)
+        return refuse("every decision needs a reason: --reason TEXT");
+    if (samePath(request.ledgerPath, args.value("drop")))
+        return refuse("the ledger cannot be the drop file itself");
+    if (!ingestFlagsValid(args, json)) {
+        exitCode = kExitUsage;
+        return std::nullopt;
+    }
+    request.autoExcess =
+        *kind == ledger::DecisionKind::Redistribute && args.value("excess") == "auto";
+    request.windowGiven = args.has("window");
+    return request;
+}
+
+/// The decision the flags describe, its excess (and window) from the scan for --excess auto,
+/// validated; or nullopt after printing the error (its exit code in `exitCode`).
+std::optional<ledger::Decision> checkedDecision(const DecideRequest& request, const Drop& drop,
+                                                int& exitCode) {
+    Result<ledger::Decision> decision = decisionFrom(request.args, request.kind, drop);
+    if (!decision) {
+        exitCode = usageError(decision.error().message, request.json, usageText());
+        return std::nullopt;
+    }
+    if (request.autoExcess) {
+        if (Status s = resolveAutoExcess(drop, *decision, request.windowGiven); !s) {
+            printError(s.error(), request.json);
+            exitCode = s.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+            return std::nullopt;
+        }
+    }
+    if (Status s = decision->validate(); !s) {
+        exitCode = usageError(s.error().message, request.json, usageText());
+        return std::nullopt;
+    }
+    return std::move(*decision);
+}
+
+/// --dry-run: prints what the decision would do to the cleaned data and writes nothing; returns
+/// the exit code.
+int printDryRun(const DecideRequest& request, const Drop& drop, const ReplayedLedger& replayed,
+                const ledger::Decision& decision) {
+    Result<ledger::Effect> effect = ledger::previewDecision(drop, replayed.cleaned, decision);
+    if (!effect) {
+        printError(effect.error(), request.json);
+        return kExitBadInput;
+    }
+    if (request.json) {
+        nlohmann::json out = effectSummaryJson(*effect);
+        out["dry_run"] = true;
+        out["kind"] = ledger::decisionKindName(request.kind);
+        printJson(out);
+    } else {
+        std::printf("%s (dry run, nothing written):\n", ledger::decisionKindName(request.kind));
+        if (request.autoExcess)
+            printAutoExcessNote(decision, request.windowGiven);
+        printEffectText(drop, *effect);
+    }
+    return kExitOk;
+}
+
+/// Prints the entry just recorded: as JSON, or a line and its effect.
+void printRecordedEntry(const DecideRequest& request, const Drop& drop,
+                        const ledger::Decision& decision, const ledger::LedgerEntry& entry) {
+    if (request.json) {
+        nlohmann::json out = {{"ledger", request.ledgerPath}, {"entry", entryToJsonObject(entry)}};
+        if (request.autoExcess) {
+            out["excess_from"] = "scan backlog estimate";
+            out["window_from"] = request.windowGiven ? "--window" : "scan backlog estimate";
+        }
+        printJson(out);
+    } else {
+        std::printf("entry %llu recorded in %s: %s by %s\n",
+                    static_cast<unsigned long long>(entry.sequence), request.ledgerPath.c_str(),
+                    ledger::decisionKindName(request.kind), entry.author.c_str());
+        if (request.autoExcess)
+            printAutoExcessNote(decision, request.windowGiven);
+        printEffectText(drop, entry.effect);
+    }
+}
+
+/// Drafts the entry on the replayed ledger, appends it to the ledger file and prints it; returns
+/// the exit code.
+int recordDecision(const DecideRequest& request, const Drop& drop, const ReplayedLedger& replayed,
+                   const ledger::Decision& decision) {
+    ledger::EntryMeta meta;
+    meta.author = request.args.value("author");
+    meta.reason = request.args.value("reason");
+    Result<ledger::LedgerEntry> entry =
+        ledger::draftEntry(drop, replayed.ledger, replayed.cleaned, decision, meta);
+    if (!entry) {
+        printError(entry.error(), request.json);
+        return entry.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+    }
+    if (Status s = ledger::appendLedgerEntry(request.ledgerPath, *entry); !s) {
+        printError(s.error(), request.json);
+        return kExitBadInput;
+    }
+    printRecordedEntry(request, drop, decision, *entry);
+    return kExitOk;
+}
+
 }  // namespace
 
 int runDecide(int argc, char** argv, int first) {
@@ -288,99 +467,24 @@ int runDecide(int argc, char** argv, int first) {
                                                   2, "decide needs LEDGER and KIND");
     if (!line.args)
         return line.exitCode;
-    const ParsedArgs* args = &*line.args;
-    const bool json = line.json;
-    const std::string ledgerPath = args->positional[0];
-    const std::optional<ledger::DecisionKind> kind =
-        ledger::decisionKindFromName(args->positional[1]);
-    if (!kind) {
-        return usageError("unknown decision kind '" + args->positional[1] + "'; use " + kindNames(),
-                          json, usageText());
-    }
-    if (!args->has("drop"))
-        return usageError("decide needs --drop FILE, the drop the ledger belongs to", json,
-                          usageText());
-    const bool dryRun = args->has("dry-run");
-    if (!dryRun && args->value("reason").find_first_not_of(" \t\r\n") == std::string::npos)
-        return usageError("every decision needs a reason: --reason TEXT", json, usageText());
-    if (samePath(ledgerPath, args->value("drop")))
-        return usageError("the ledger cannot be the drop file itself", json, usageText());
-    if (!ingestFlagsValid(*args, json))
-        return kExitUsage;
-
-    const std::optional<Drop> drop = valueOrPrintError(loadDrop(args->value("drop"), *args), json);
+    int exitCode = kExitOk;
+    const std::optional<DecideRequest> request = decideRequest(*line.args, line.json, exitCode);
+    if (!request)
+        return exitCode;
+    const std::optional<Drop> drop =
+        valueOrPrintError(loadDrop(line.args->value("drop"), *line.args), line.json);
     if (!drop)
         return kExitBadInput;
-    Result<ledger::Decision> decision = decisionFrom(*args, *kind, *drop);
+    const std::optional<ledger::Decision> decision = checkedDecision(*request, *drop, exitCode);
     if (!decision)
-        return usageError(decision.error().message, json, usageText());
-    const bool autoExcess =
-        *kind == ledger::DecisionKind::Redistribute && args->value("excess") == "auto";
-    const bool windowGiven = args->has("window");
-    if (autoExcess) {
-        if (Status s = resolveAutoExcess(*drop, *decision, windowGiven); !s) {
-            printError(s.error(), json);
-            return s.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
-        }
-    }
-    if (Status s = decision->validate(); !s)
-        return usageError(s.error().message, json, usageText());
-
-    const std::optional<ReplayedLedger> replayed = openAndReplay(*drop, ledgerPath, true, json);
+        return exitCode;
+    const std::optional<ReplayedLedger> replayed =
+        openAndReplay(*drop, request->ledgerPath, true, line.json);
     if (!replayed)
         return kExitBadInput;
-    const ledger::Ledger* ledger = &replayed->ledger;
-    const ledger::Cleaned* cleaned = &replayed->cleaned;
-
-    if (dryRun) {
-        Result<ledger::Effect> effect = ledger::previewDecision(*drop, *cleaned, *decision);
-        if (!effect) {
-            printError(effect.error(), json);
-            return kExitBadInput;
-        }
-        if (json) {
-            nlohmann::json out = effectSummaryJson(*effect);
-            out["dry_run"] = true;
-            out["kind"] = ledger::decisionKindName(*kind);
-            printJson(out);
-        } else {
-            std::printf("%s (dry run, nothing written):\n", ledger::decisionKindName(*kind));
-            if (autoExcess)
-                printAutoExcessNote(*decision, windowGiven);
-            printEffectText(*drop, *effect);
-        }
-        return kExitOk;
-    }
-
-    ledger::EntryMeta meta;
-    meta.author = args->value("author");
-    meta.reason = args->value("reason");
-    Result<ledger::LedgerEntry> entry =
-        ledger::draftEntry(*drop, *ledger, *cleaned, *decision, meta);
-    if (!entry) {
-        printError(entry.error(), json);
-        return entry.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
-    }
-    if (Status s = ledger::appendLedgerEntry(ledgerPath, *entry); !s) {
-        printError(s.error(), json);
-        return kExitBadInput;
-    }
-    if (json) {
-        nlohmann::json out = {{"ledger", ledgerPath}, {"entry", entryToJsonObject(*entry)}};
-        if (autoExcess) {
-            out["excess_from"] = "scan backlog estimate";
-            out["window_from"] = windowGiven ? "--window" : "scan backlog estimate";
-        }
-        printJson(out);
-    } else {
-        std::printf("entry %llu recorded in %s: %s by %s\n",
-                    static_cast<unsigned long long>(entry->sequence), ledgerPath.c_str(),
-                    ledger::decisionKindName(*kind), entry->author.c_str());
-        if (autoExcess)
-            printAutoExcessNote(*decision, windowGiven);
-        printEffectText(*drop, entry->effect);
-    }
-    return kExitOk;
+    if (request->dryRun)
+        return printDryRun(*request, *drop, *replayed, *decision);
+    return recordDecision(*request, *drop, *replayed, *decision);
 }
 
 namespace {

@@ -210,18 +210,18 @@ private:
     std::uint64_t m_line;
 };
 
-Result<Decision> parseDecision(const Reader& rd, DecisionKind kind, const json& p) {
-    Decision d;
-    d.kind = kind;
+/// Fails unless the parameters are an object with only the keys a decision has.
+Status checkParameterKeys(const Reader& rd, const json& p) {
     if (!p.is_object())
         return syntax(rd.line(), "\"parameters\" must be an object");
-    if (auto s = rd.onlyKeys(p,
-                             {"region", "measure", "date", "window", "excess", "method",
-                              "baseline_width", "keep", "variant", "into", "entry", "finding"},
-                             "parameters");
-        !s) {
-        return s.error();
-    }
+    return rd.onlyKeys(p,
+                       {"region", "measure", "date", "window", "excess", "method", "baseline_width",
+                        "keep", "variant", "into", "entry", "finding"},
+                       "parameters");
+}
+
+/// The text parameters, each optional: region, measure, variant, into and finding.
+Status readTextParameters(const Reader& rd, const json& p, Decision& d) {
     auto str = [&](const char* key, std::string& out) -> Status {
         auto t = rd.text(p, key, false);
         if (!t)
@@ -234,6 +234,11 @@ Result<Decision> parseDecision(const Reader& rd, DecisionKind kind, const json& 
         if (!s)
             return s.error();
     }
+    return Ok{};
+}
+
+/// The days, each optional: "date" and "window".
+Status readDayParameters(const Reader& rd, const json& p, Decision& d) {
     if (p.contains("date")) {
         auto x = rd.date(p, "date");
         if (!x)
@@ -246,6 +251,11 @@ Result<Decision> parseDecision(const Reader& rd, DecisionKind kind, const json& 
             return x.error();
         d.window = *x;
     }
+    return Ok{};
+}
+
+/// The whole numbers, each optional: "excess", "baseline_width" and "entry" (a positive id).
+Status readNumberParameters(const Reader& rd, const json& p, Decision& d) {
     if (p.contains("excess")) {
         auto x = rd.integer(p, "excess");
         if (!x)
@@ -266,12 +276,17 @@ Result<Decision> parseDecision(const Reader& rd, DecisionKind kind, const json& 
             return syntax(rd.line(), "\"entry\" must be a positive id");
         d.target = static_cast<std::uint64_t>(*x);
     }
+    return Ok{};
+}
+
+/// The named rules, each optional: "method" and "keep".
+Status readRuleParameters(const Reader& rd, const json& p, Decision& d) {
     if (p.contains("method")) {
         auto x = rd.text(p, "method");
         if (!x)
             return x.error();
         // "method" names a redistribution method for the kinds that take one, else a fill method.
-        if (decisionKindInfo(kind).hasParameter(DecisionParam::RedistributeMethod)) {
+        if (decisionKindInfo(d.kind).hasParameter(DecisionParam::RedistributeMethod)) {
             auto m = redistributeMethodFromName(*x);
             if (!m)
                 return syntax(rd.line(), "unknown redistribution method \"" + *x + "\"");
@@ -292,6 +307,22 @@ Result<Decision> parseDecision(const Reader& rd, DecisionKind kind, const json& 
             return syntax(rd.line(), "unknown duplicate rule \"" + *x + "\"");
         d.duplicateRule = *r;
     }
+    return Ok{};
+}
+
+/// A decision of `kind` from its "parameters": the keys, each group of parameters in turn, then
+/// the decision as a whole (its errors become syntax errors of this line).
+Result<Decision> parseDecision(const Reader& rd, DecisionKind kind, const json& p) {
+    if (auto s = checkParameterKeys(rd, p); !s)
+        return s.error();
+    Decision d;
+    d.kind = kind;
+    using ParameterStep = Status (*)(const Reader&, const json&, Decision&);
+    for (ParameterStep step :
+         {readTextParameters, readDayParameters, readNumberParameters, readRuleParameters}) {
+        if (auto s = step(rd, p, d); !s)
+            return s.error();
+    }
     if (auto s = d.validate(); !s) {
         Error e = s.error();
         e.code = ErrorCode::Syntax;
@@ -301,34 +332,34 @@ Result<Decision> parseDecision(const Reader& rd, DecisionKind kind, const json& 
     return d;
 }
 
-}  // namespace
-
-namespace detail {
-
-Result<LedgerEntry> entryFromJson(const json& j, std::uint64_t lineNumber) {
-    Reader rd(lineNumber);
+/// Fails unless the line is an object with only the fields of an entry.
+Status checkEntryKeys(const Reader& rd, const json& j) {
     if (!j.is_object())
-        return syntax(lineNumber, "a ledger line must be a JSON object");
-    if (auto s =
-            rd.onlyKeys(j,
-                        {"version", "sequence", "time", "author", "reason", "kind", "parameters",
-                         "cells", "totals", "drop_sha256", "previous_hash", "hash"},
-                        "the entry");
-        !s) {
-        return s.error();
-    }
-    LedgerEntry e;
+        return syntax(rd.line(), "a ledger line must be a JSON object");
+    return rd.onlyKeys(j,
+                       {"version", "sequence", "time", "author", "reason", "kind", "parameters",
+                        "cells", "totals", "drop_sha256", "previous_hash", "hash"},
+                       "the entry");
+}
+
+/// The version (this reader's, kEntryVersion) and the sequence number (positive).
+Status readVersionAndSequence(const Reader& rd, const json& j, LedgerEntry& e) {
     auto version = rd.integer(j, "version");
     if (!version)
         return version.error();
     if (*version != kEntryVersion)
-        return syntax(lineNumber, "unsupported entry version " + std::to_string(*version));
+        return syntax(rd.line(), "unsupported entry version " + std::to_string(*version));
     auto seq = rd.integer(j, "sequence");
     if (!seq)
         return seq.error();
     if (*seq <= 0)
-        return syntax(lineNumber, "\"sequence\" must be positive");
+        return syntax(rd.line(), "\"sequence\" must be positive");
     e.sequence = static_cast<std::uint64_t>(*seq);
+    return Ok{};
+}
+
+/// The text fields: time, author, reason and the three hashes (each 64 lower-case hex digits).
+Status readTextFields(const Reader& rd, const json& j, LedgerEntry& e) {
     for (auto [key, out] : {std::pair<const char*, std::string*>{"time", &e.timestamp},
                             {"author", &e.author},
                             {"reason", &e.reason},
@@ -342,60 +373,108 @@ Result<LedgerEntry> entryFromJson(const json& j, std::uint64_t lineNumber) {
     }
     for (const std::string* h : {&e.dropSha256, &e.previousHash, &e.hash}) {
         if (!isSha256Hex(*h))
-            return syntax(lineNumber, "a hash must be 64 lower-case hex digits");
+            return syntax(rd.line(), "a hash must be 64 lower-case hex digits");
     }
+    return Ok{};
+}
+
+/// The decision: its kind by name, then its parameters.
+Status readDecision(const Reader& rd, const json& j, LedgerEntry& e) {
     auto kindName = rd.text(j, "kind");
     if (!kindName)
         return kindName.error();
     auto kind = decisionKindFromName(*kindName);
     if (!kind)
-        return syntax(lineNumber, "unknown decision kind \"" + *kindName + "\"");
+        return syntax(rd.line(), "unknown decision kind \"" + *kindName + "\"");
     auto decision = parseDecision(rd, *kind, j.value("parameters", json()));
     if (!decision)
         return decision.error();
     e.decision = std::move(*decision);
+    return Ok{};
+}
+
+/// One changed cell: where it is and its value before and after.
+Result<CellChange> readCellChange(const Reader& rd, const json& c) {
+    if (!c.is_object())
+        return syntax(rd.line(), "each cell must be an object");
+    auto measure = rd.text(c, "measure");
+    if (!measure)
+        return measure.error();
+    auto region = rd.text(c, "region");
+    if (!region)
+        return region.error();
+    auto date = rd.date(c, "date");
+    if (!date)
+        return date.error();
+    auto before = rd.cell(c, "before");
+    if (!before)
+        return before.error();
+    auto after = rd.cell(c, "after");
+    if (!after)
+        return after.error();
+    return CellChange{*measure, *region, *date, *before, *after};
+}
+
+/// The changed cells. A line without "cells" throws (json::at), as a malformed entry.
+Status readCellChanges(const Reader& rd, const json& j, LedgerEntry& e) {
     const json& cells = j.at("cells");
     if (!cells.is_array())
-        return syntax(lineNumber, "\"cells\" must be an array");
+        return syntax(rd.line(), "\"cells\" must be an array");
     for (const json& c : cells) {
-        if (!c.is_object())
-            return syntax(lineNumber, "each cell must be an object");
-        CellChange change;
-        auto measure = rd.text(c, "measure");
-        if (!measure)
-            return measure.error();
-        auto region = rd.text(c, "region");
-        if (!region)
-            return region.error();
-        auto date = rd.date(c, "date");
-        if (!date)
-            return date.error();
-        auto before = rd.cell(c, "before");
-        if (!before)
-            return before.error();
-        auto after = rd.cell(c, "after");
-        if (!after)
-            return after.error();
-        e.effect.cells.push_back(CellChange{*measure, *region, *date, *before, *after});
+        auto change = readCellChange(rd, c);
+        if (!change)
+            return change.error();
+        e.effect.cells.push_back(std::move(*change));
     }
+    return Ok{};
+}
+
+/// One changed total: its measure and region and the total before and after.
+Result<TotalChange> readTotalChange(const Reader& rd, const json& t) {
+    if (!t.is_object())
+        return syntax(rd.line(), "each total must be an object");
+    auto measure = rd.text(t, "measure");
+    if (!measure)
+        return measure.error();
+    auto region = rd.text(t, "region");
+    if (!region)
+        return region.error();
+    auto before = rd.integer(t, "before");
+    if (!before)
+        return before.error();
+    auto after = rd.integer(t, "after");
+    if (!after)
+        return after.error();
+    return TotalChange{*measure, *region, *before, *after};
+}
+
+/// The changed totals.
+Status readTotalChanges(const Reader& rd, const json& j, LedgerEntry& e) {
     if (!j.contains("totals") || !j.at("totals").is_array())
-        return syntax(lineNumber, "\"totals\" must be an array");
+        return syntax(rd.line(), "\"totals\" must be an array");
     for (const json& t : j.at("totals")) {
-        if (!t.is_object())
-            return syntax(lineNumber, "each total must be an object");
-        auto measure = rd.text(t, "measure");
-        if (!measure)
-            return measure.error();
-        auto region = rd.text(t, "region");
-        if (!region)
-            return region.error();
-        auto before = rd.integer(t, "before");
-        if (!before)
-            return before.error();
-        auto after = rd.integer(t, "after");
-        if (!after)
-            return after.error();
-        e.effect.totals.push_back(TotalChange{*measure, *region, *before, *after});
+        auto change = readTotalChange(rd, t);
+        if (!change)
+            return change.error();
+        e.effect.totals.push_back(std::move(*change));
+    }
+    return Ok{};
+}
+
+}  // namespace
+
+namespace detail {
+
+Result<LedgerEntry> entryFromJson(const json& j, std::uint64_t lineNumber) {
+    const Reader rd(lineNumber);
+    if (auto s = checkEntryKeys(rd, j); !s)
+        return s.error();
+    LedgerEntry e;
+    using EntryStep = Status (*)(const Reader&, const json&, LedgerEntry&);
+    for (EntryStep step : {readVersionAndSequence, readTextFields, readDecision, readCellChanges,
+                           readTotalChanges}) {
+        if (auto s = step(rd, j, e); !s)
+            return s.error();
     }
     return e;
 }

@@ -249,69 +249,97 @@ std::string signedNumber(std::int64_t v) {
     return v > 0 ? "+" + std::to_string(v) : std::to_string(v);
 }
 
-}  // namespace
+/// "3, 5" for the entries that explain a row's difference, "-" for none.
+std::string explainingText(const ReconciliationRow& r) {
+    return r.entries.empty() ? std::string("-") : joinIds(r.entries, ", ");
+}
 
-std::string renderReport(const Ledger& ledger, const std::vector<ReconciliationRow>& rows,
-                         const ReportContext& ctx, ReportFormat format) {
+/// What the Markdown and HTML headers state about the ledger as a whole (text not yet escaped).
+struct ReportFacts {
+    std::string drop;        // the drop's path, or where the totals come from without one
+    std::string dropSha256;  // the context's, else the one the entries name
+    std::string entries;     // "N; hash chain verified" (or "not verified")
+    CountsAdded added;       // the decisions that add counts
+};
+
+/// The facts of the report's header, from the ledger and the context.
+ReportFacts reportFacts(const Ledger& ledger, const ReportContext& ctx) {
+    ReportFacts f;
+    f.drop = ctx.dropPath.empty() ? "(not given: totals from the entries)" : ctx.dropPath;
+    f.dropSha256 = ctx.dropSha256.empty() ? ledger.dropSha256() : ctx.dropSha256;
+    f.entries = std::to_string(ledger.entries.size()) + "; hash chain " +
+                (ctx.chainVerified ? "verified" : "not verified");
+    f.added = countsAddedByDecisions(ledger);
+    return f;
+}
+
+/// CSV: one "entry" row per entry, then one "reconciliation" row per region and measure.
+std::string csvReport(const Ledger& ledger, const std::vector<ReconciliationRow>& rows) {
     const std::vector<bool> inEffect = entriesInEffect(ledger);
-    const CountsAdded added = countsAddedByDecisions(ledger);
-    const std::string chain = ctx.chainVerified ? "verified" : "not verified";
-    const std::string drop =
-        ctx.dropPath.empty() ? "(not given: totals from the entries)" : ctx.dropPath;
-    std::string out;
-    if (format == ReportFormat::Csv) {
-        out +=
-            "section,entry,time,author,kind,status,parameters,reason,region,measure,raw_total,"
-            "cleaned_total,"
-            "difference,entries\r\n";
-        for (const LedgerEntry& e : ledger.entries) {
-            out += "entry," + std::to_string(e.sequence) + "," + csvField(e.timestamp, true) + "," +
-                   csvField(e.author, true) + "," + decisionKindName(e.decision.kind) + "," +
-                   statusText(e, inEffect) + "," + csvField(parametersText(e), true) + "," +
-                   csvField(e.reason, true) + ",,,,,,\r\n";
-        }
-        for (const ReconciliationRow& r : rows) {
-            out += "reconciliation,,,,,,,," + csvField(r.region, true) + "," +
-                   csvField(r.measure, true) + "," + std::to_string(r.rawTotal) + "," +
-                   std::to_string(r.cleanedTotal) + "," + std::to_string(r.difference()) + "," +
-                   joinIds(r.entries, ";") + "\r\n";
-        }
-        return out;
+    std::string out =
+        "section,entry,time,author,kind,status,parameters,reason,region,measure,raw_total,"
+        "cleaned_total,"
+        "difference,entries\r\n";
+    for (const LedgerEntry& e : ledger.entries) {
+        out += "entry," + std::to_string(e.sequence) + "," + csvField(e.timestamp, true) + "," +
+               csvField(e.author, true) + "," + decisionKindName(e.decision.kind) + "," +
+               statusText(e, inEffect) + "," + csvField(parametersText(e), true) + "," +
+               csvField(e.reason, true) + ",,,,,,\r\n";
     }
-    if (format == ReportFormat::Markdown) {
-        out += "# Ledger audit report\n\n";
-        out += "- Ledger: " + mdCell(ctx.ledgerPath) + "\n";
-        out += "- Drop: " + mdCell(drop) + "\n";
-        out += "- Drop SHA-256: " +
-               mdCell(ctx.dropSha256.empty() ? ledger.dropSha256() : ctx.dropSha256) + "\n";
-        out +=
-            "- Entries: " + std::to_string(ledger.entries.size()) + "; hash chain " + chain + "\n";
-        if (added.any())
-            out += "- Totals: " + added.describe() + "\n";
-        out += "\n";
-        out += "## Entries\n\n";
-        out += "| # | Time (UTC) | Author | Kind | Status | Parameters | Totals moved | Reason |\n";
-        out += "|---|---|---|---|---|---|---|---|\n";
-        for (const LedgerEntry& e : ledger.entries) {
-            out += "| " + std::to_string(e.sequence) + " | " + mdCell(e.timestamp) + " | " +
-                   mdCell(e.author) + " | " + decisionKindName(e.decision.kind) + " | " +
-                   statusText(e, inEffect) + " | " + mdCell(parametersText(e)) + " | " +
-                   mdCell(totalsText(e)) + " | " + mdCell(e.reason) + " |\n";
-        }
-        out += "\n## Reconciliation per region\n\n";
-        out +=
-            "| Region | Measure | Raw total | Cleaned total | Difference | Explained by entries "
-            "|\n";
-        out += "|---|---|---:|---:|---:|---|\n";
-        for (const ReconciliationRow& r : rows) {
-            out += "| " + mdCell(r.region) + " | " + mdCell(r.measure) + " | " +
-                   std::to_string(r.rawTotal) + " | " + std::to_string(r.cleanedTotal) + " | " +
-                   signedNumber(r.difference()) + " | " +
-                   (r.entries.empty() ? std::string("-") : joinIds(r.entries, ", ")) + " |\n";
-        }
-        return out;
+    for (const ReconciliationRow& r : rows) {
+        out += "reconciliation,,,,,,,," + csvField(r.region, true) + "," +
+               csvField(r.measure, true) + "," + std::to_string(r.rawTotal) + "," +
+               std::to_string(r.cleanedTotal) + "," + std::to_string(r.difference()) + "," +
+               joinIds(r.entries, ";") + "\r\n";
     }
+    return out;
+}
+
+/// Markdown: the title and the list of facts, then a blank line.
+std::string markdownHeader(const ReportContext& ctx, const ReportFacts& f) {
+    std::string out = "# Ledger audit report\n\n";
+    out += "- Ledger: " + mdCell(ctx.ledgerPath) + "\n";
+    out += "- Drop: " + mdCell(f.drop) + "\n";
+    out += "- Drop SHA-256: " + mdCell(f.dropSha256) + "\n";
+    out += "- Entries: " + f.entries + "\n";
+    if (f.added.any())
+        out += "- Totals: " + f.added.describe() + "\n";
+    return out + "\n";
+}
+
+/// Markdown: the table of entries.
+std::string markdownEntries(const Ledger& ledger) {
+    const std::vector<bool> inEffect = entriesInEffect(ledger);
+    std::string out = "## Entries\n\n";
+    out += "| # | Time (UTC) | Author | Kind | Status | Parameters | Totals moved | Reason |\n";
+    out += "|---|---|---|---|---|---|---|---|\n";
+    for (const LedgerEntry& e : ledger.entries) {
+        out += "| " + std::to_string(e.sequence) + " | " + mdCell(e.timestamp) + " | " +
+               mdCell(e.author) + " | " + decisionKindName(e.decision.kind) + " | " +
+               statusText(e, inEffect) + " | " + mdCell(parametersText(e)) + " | " +
+               mdCell(totalsText(e)) + " | " + mdCell(e.reason) + " |\n";
+    }
+    return out;
+}
+
+/// Markdown: the reconciliation table, after a blank line.
+std::string markdownReconciliation(const std::vector<ReconciliationRow>& rows) {
+    std::string out = "\n## Reconciliation per region\n\n";
     out +=
+        "| Region | Measure | Raw total | Cleaned total | Difference | Explained by entries "
+        "|\n";
+    out += "|---|---|---:|---:|---:|---|\n";
+    for (const ReconciliationRow& r : rows) {
+        out += "| " + mdCell(r.region) + " | " + mdCell(r.measure) + " | " +
+               std::to_string(r.rawTotal) + " | " + std::to_string(r.cleanedTotal) + " | " +
+               signedNumber(r.difference()) + " | " + explainingText(r) + " |\n";
+    }
+    return out;
+}
+
+/// HTML: the document's head and style, the title and the list of facts.
+std::string htmlHeader(const ReportContext& ctx, const ReportFacts& f) {
+    std::string out =
         "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\"><title>Ledger audit "
         "report</title>\n"
         "<style>body{font-family:sans-serif;margin:2em}table{border-collapse:collapse}"
@@ -319,15 +347,18 @@ std::string renderReport(const Ledger& ledger, const std::vector<ReconciliationR
         "6px;vertical-align:top}td.n{text-align:right}</style>"
         "</head><body>\n<h1>Ledger audit report</h1>\n<ul>\n";
     out += "<li>Ledger: " + htmlEscaped(ctx.ledgerPath) + "</li>\n";
-    out += "<li>Drop: " + htmlEscaped(drop) + "</li>\n";
-    out += "<li>Drop SHA-256: " +
-           htmlEscaped(ctx.dropSha256.empty() ? ledger.dropSha256() : ctx.dropSha256) + "</li>\n";
-    out += "<li>Entries: " + std::to_string(ledger.entries.size()) + "; hash chain " + chain +
-           "</li>\n";
-    if (added.any())
-        out += "<li>Totals: " + htmlEscaped(added.describe()) + "</li>\n";
-    out += "</ul>\n";
-    out +=
+    out += "<li>Drop: " + htmlEscaped(f.drop) + "</li>\n";
+    out += "<li>Drop SHA-256: " + htmlEscaped(f.dropSha256) + "</li>\n";
+    out += "<li>Entries: " + f.entries + "</li>\n";
+    if (f.added.any())
+        out += "<li>Totals: " + htmlEscaped(f.added.describe()) + "</li>\n";
+    return out + "</ul>\n";
+}
+
+/// HTML: the table of entries.
+std::string htmlEntries(const Ledger& ledger) {
+    const std::vector<bool> inEffect = entriesInEffect(ledger);
+    std::string out =
         "<h2>Entries</h2>\n<table><tr><th>#</th><th>Time "
         "(UTC)</th><th>Author</th><th>Kind</th><th>Status</th>"
         "<th>Parameters</th><th>Totals moved</th><th>Reason</th></tr>\n";
@@ -338,19 +369,35 @@ std::string renderReport(const Ledger& ledger, const std::vector<ReconciliationR
                "</td><td>" + htmlEscaped(parametersText(e)) + "</td><td>" +
                htmlEscaped(totalsText(e)) + "</td><td>" + htmlEscaped(e.reason) + "</td></tr>\n";
     }
-    out +=
-        "</table>\n<h2>Reconciliation per region</h2>\n<table><tr><th>Region</th><th>Measure</th>"
+    return out + "</table>\n";
+}
+
+/// HTML: the reconciliation table.
+std::string htmlReconciliation(const std::vector<ReconciliationRow>& rows) {
+    std::string out =
+        "<h2>Reconciliation per region</h2>\n<table><tr><th>Region</th><th>Measure</th>"
         "<th>Raw total</th><th>Cleaned total</th><th>Difference</th><th>Explained by "
         "entries</th></tr>\n";
     for (const ReconciliationRow& r : rows) {
         out += "<tr><td>" + htmlEscaped(r.region) + "</td><td>" + htmlEscaped(r.measure) +
                "</td><td class=\"n\">" + std::to_string(r.rawTotal) + "</td><td class=\"n\">" +
                std::to_string(r.cleanedTotal) + "</td><td class=\"n\">" +
-               signedNumber(r.difference()) + "</td><td>" +
-               (r.entries.empty() ? std::string("-") : joinIds(r.entries, ", ")) + "</td></tr>\n";
+               signedNumber(r.difference()) + "</td><td>" + explainingText(r) + "</td></tr>\n";
     }
-    out += "</table>\n</body></html>\n";
-    return out;
+    return out + "</table>\n";
+}
+
+}  // namespace
+
+std::string renderReport(const Ledger& ledger, const std::vector<ReconciliationRow>& rows,
+                         const ReportContext& ctx, ReportFormat format) {
+    if (format == ReportFormat::Csv)
+        return csvReport(ledger, rows);
+    const ReportFacts facts = reportFacts(ledger, ctx);
+    if (format == ReportFormat::Markdown)
+        return markdownHeader(ctx, facts) + markdownEntries(ledger) + markdownReconciliation(rows);
+    return htmlHeader(ctx, facts) + htmlEntries(ledger) + htmlReconciliation(rows) +
+           "</body></html>\n";
 }
 
 Status writeReport(const std::string& path, const Ledger& ledger,
