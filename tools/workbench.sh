@@ -84,7 +84,9 @@ fi
 #    UndefinedBehaviorSanitizer (any report fails the test that triggered it);
 # 3. each libFuzzer target (tests/fuzz) for a fixed time from its seed corpus, fixed seed.
 ctest --test-dir build --output-on-failure -j "$jobs" --timeout 600
-sanitize="-fsanitize=address,undefined -fno-sanitize-recover=all -fno-omit-frame-pointer"
+# GCC 12 with the sanitizers warns "may be used uninitialized" inside libstdc++'s <regex>
+# (false positives in std::function moves): a warning there, not an error.
+sanitize="-fsanitize=address,undefined -fno-sanitize-recover=all -fno-omit-frame-pointer -Wno-error=maybe-uninitialized"
 build_tree build-sanitize -DSIFTWAVE_WITH_QT=OFF -DSIFTWAVE_BUILD_BENCHMARKS=OFF \
     -DCMAKE_BUILD_TYPE=RelWithDebInfo "-DCMAKE_CXX_FLAGS=$sanitize" "-DCMAKE_EXE_LINKER_FLAGS=$sanitize"
 export ASAN_OPTIONS="detect_leaks=1:abort_on_error=0:halt_on_error=1" UBSAN_OPTIONS="print_stacktrace=1"
