@@ -1,5 +1,6 @@
 #include "widgets/common/workbench.h"
 
+#include "siftwave/ledger/anchor.h"
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/replay.h"
 #include "siftwave/report/plot_model.h"
@@ -98,7 +99,7 @@ void Workbench::updateChainStatus() {
         m_chainStatus =
             QCoreApplication::translate("Workbench", "chain verified · %1 entries · head %2")
                 .arg(m_ledger.entries.size())
-                .arg(QString::fromStdString(m_ledger.headHash().substr(0, 12)));
+                .arg(QString::fromStdString(ledger::printedHead(m_ledger)));
 }
 
 Result<ledger::Effect> Workbench::preview(const ledger::Decision& decision) const {

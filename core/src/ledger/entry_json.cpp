@@ -3,6 +3,7 @@
 
 #include "ledger/entry_json.h"
 #include "siftwave/ledger/decision_kinds.h"
+#include "siftwave/ledger/signing.h"
 #include "siftwave/sha256.h"
 
 #include <nlohmann/json.hpp>
@@ -88,7 +89,7 @@ json decisionParameters(const Decision& d) {
     return p;
 }
 
-json entryToJson(const LedgerEntry& e, bool withHash) {
+json entryToJson(const LedgerEntry& e, EntryPart part) {
     json cells = json::array();
     for (const CellChange& c : e.effect.cells) {
         cells.push_back(json{{"measure", c.measure},
@@ -115,7 +116,11 @@ json entryToJson(const LedgerEntry& e, bool withHash) {
            {"totals", std::move(totals)},
            {"drop_sha256", e.dropSha256},
            {"previous_hash", e.previousHash}};
-    if (withHash)
+    if (part != EntryPart::Signed && e.signature)
+        j["signature"] = json{{"algorithm", "ed25519"},
+                              {"public_key", e.signature->publicKey},
+                              {"value", e.signature->value}};
+    if (part == EntryPart::Whole)
         j["hash"] = e.hash;
     return j;
 }
@@ -338,7 +343,7 @@ Status checkEntryKeys(const Reader& rd, const json& j) {
         return syntax(rd.line(), "a ledger line must be a JSON object");
     return rd.onlyKeys(j,
                        {"version", "sequence", "time", "author", "reason", "kind", "parameters",
-                        "cells", "totals", "drop_sha256", "previous_hash", "hash"},
+                        "cells", "totals", "drop_sha256", "previous_hash", "hash", "signature"},
                        "the entry");
 }
 
@@ -375,6 +380,38 @@ Status readTextFields(const Reader& rd, const json& j, LedgerEntry& e) {
         if (!isSha256Hex(*h))
             return syntax(rd.line(), "a hash must be 64 lower-case hex digits");
     }
+    return Ok{};
+}
+
+bool isLowerHex(const std::string& text, std::size_t digits) {
+    return text.size() == digits && text.find_first_not_of("0123456789abcdef") == std::string::npos;
+}
+
+/// The optional signature: {"algorithm": "ed25519", "public_key": 64 hex, "value": 128 hex}.
+Status readSignature(const Reader& rd, const json& j, LedgerEntry& e) {
+    auto it = j.find("signature");
+    if (it == j.end())
+        return Ok{};
+    if (!it->is_object())
+        return syntax(rd.line(), "\"signature\" must be an object");
+    if (auto s = rd.onlyKeys(*it, {"algorithm", "public_key", "value"}, "the signature"); !s)
+        return s.error();
+    auto algorithm = rd.text(*it, "algorithm");
+    if (!algorithm)
+        return algorithm.error();
+    if (*algorithm != "ed25519")
+        return syntax(rd.line(), "unsupported signature algorithm \"" + *algorithm + "\"");
+    auto key = rd.text(*it, "public_key");
+    auto value = rd.text(*it, "value");
+    if (!key)
+        return key.error();
+    if (!value)
+        return value.error();
+    if (!isLowerHex(*key, 64) || !isLowerHex(*value, 128))
+        return syntax(
+            rd.line(),
+            "a signature is a 64-digit public key and a 128-digit value in lower-case hex");
+    e.signature = EntrySignature{*key, *value};
     return Ok{};
 }
 
@@ -472,7 +509,7 @@ Result<LedgerEntry> entryFromJson(const json& j, std::uint64_t lineNumber) {
     LedgerEntry e;
     using EntryStep = Status (*)(const Reader&, const json&, LedgerEntry&);
     for (EntryStep step : {readVersionAndSequence, readTextFields, readDecision, readCellChanges,
-                           readTotalChanges}) {
+                           readTotalChanges, readSignature}) {
         if (auto s = step(rd, j, e); !s)
             return s.error();
     }
@@ -498,11 +535,15 @@ std::int64_t Effect::netChange() const {
 }
 
 Result<std::string> canonicalEntryJson(const LedgerEntry& entry) {
-    return detail::canonicalDump(detail::entryToJson(entry, false));
+    return detail::canonicalDump(detail::entryToJson(entry, detail::EntryPart::Hashed));
+}
+
+Result<std::string> signedEntryJson(const LedgerEntry& entry) {
+    return detail::canonicalDump(detail::entryToJson(entry, detail::EntryPart::Signed));
 }
 
 Result<std::string> entryLine(const LedgerEntry& entry) {
-    return detail::canonicalDump(detail::entryToJson(entry, true));
+    return detail::canonicalDump(detail::entryToJson(entry, detail::EntryPart::Whole));
 }
 
 Result<LedgerEntry> parseEntryLine(std::string_view line, std::uint64_t lineNumber) {
@@ -551,6 +592,10 @@ Status verifyChain(const Ledger& ledger) {
             return fail(text.error().message);
         if (sha256Hex(*text) != e.hash)
             return fail("its content does not match its hash; it was edited");
+        if (e.signature && !signatureMatches(e))
+            return fail(
+                "its signature does not match its content; it was edited after it was "
+                "signed");
         if (e.dropSha256 != drop)
             return fail("it names another drop than entry 1");
     }

@@ -8,7 +8,8 @@
 namespace siftwave::ledger::detail {
 
 nlohmann::json decisionParameters(const Decision& decision);
-nlohmann::json entryToJson(const LedgerEntry& entry, bool withHash);
+enum class EntryPart { Signed, Hashed, Whole };  // without hash and signature; without hash; all
+nlohmann::json entryToJson(const LedgerEntry& entry, EntryPart part);
 Result<LedgerEntry> entryFromJson(const nlohmann::json& j, std::uint64_t lineNumber);
 /// Sorted keys, no whitespace, strict UTF-8 (Encoding error otherwise).
 Result<std::string> canonicalDump(const nlohmann::json& j);

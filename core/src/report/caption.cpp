@@ -1,5 +1,7 @@
 #include "siftwave/report/caption.h"
 
+#include "siftwave/ledger/anchor.h"
+
 #include <ctime>
 
 namespace siftwave::report {
@@ -33,7 +35,7 @@ CaptionFacts captionFacts(const Drop& drop, const ledger::Ledger& ledger, const 
     facts.dropSha256Prefix = drop.source.sha256.substr(0, kHashPrefixLength);
     facts.ledgerEntries = ledger.entries.size();
     if (!ledger.entries.empty())
-        facts.ledgerHeadPrefix = ledger.headHash().substr(0, kHashPrefixLength);
+        facts.ledgerHeadPrefix = ledger::printedHead(ledger);
     if (fit) {
         facts.model = fit::modelName(fit->model);
         facts.method = fit::methodName(fit->method);

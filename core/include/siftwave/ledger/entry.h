@@ -18,6 +18,11 @@
 // entry that does not fit. (Removing trailing entries leaves a valid shorter
 // chain; a project file can pin the head, see project.h.)
 //
+// An entry may carry its author's Ed25519 signature (signing.h): "signature"
+// {"algorithm": "ed25519", "public_key", "value"} over the canonical JSON
+// without "hash" and "signature". The hash covers the signature, so the next
+// entry's previous_hash binds it. Entries without one hash as before.
+//
 // SHA-256 is FIPS 180-4 (OpenSSL libcrypto).
 
 #include "siftwave/ledger/cleaned.h"
@@ -25,10 +30,17 @@
 #include "siftwave/result.h"
 
 #include <cstdint>
+#include <optional>
 #include <string>
 #include <vector>
 
 namespace siftwave::ledger {
+
+/// An Ed25519 signature of an entry (RFC 8032), as lower-case hex.
+struct EntrySignature {
+    std::string publicKey;  // 64 hex digits: the signer's public key
+    std::string value;      // 128 hex digits
+};
 
 struct LedgerEntry {
     std::uint64_t sequence = 0;  // 1-based position in the ledger; the entry's id
@@ -37,9 +49,10 @@ struct LedgerEntry {
     std::string reason;  // required, not blank
     Decision decision;
     Effect effect;
-    std::string dropSha256;    // lower-case hex
-    std::string previousHash;  // lower-case hex; 64 zeros for the first entry
-    std::string hash;          // lower-case hex of the canonical JSON without "hash"
+    std::string dropSha256;                   // lower-case hex
+    std::string previousHash;                 // lower-case hex; 64 zeros for the first entry
+    std::string hash;                         // lower-case hex of the canonical JSON without "hash"
+    std::optional<EntrySignature> signature;  // unset = unsigned
 };
 
 struct Ledger {
@@ -58,6 +71,8 @@ const std::string& genesisHash();
 
 /// Canonical JSON of the entry without "hash" (what the hash covers).
 Result<std::string> canonicalEntryJson(const LedgerEntry& entry);
+/// Canonical JSON of the entry without "hash" and "signature": what a signature covers.
+Result<std::string> signedEntryJson(const LedgerEntry& entry);
 /// Canonical JSON of the whole entry, "hash" included: one ledger file line.
 Result<std::string> entryLine(const LedgerEntry& entry);
 /// Parses one ledger line; `lineNumber` goes into error messages.
@@ -66,7 +81,9 @@ Result<LedgerEntry> parseEntryLine(std::string_view line, std::uint64_t lineNumb
 Status sealEntry(LedgerEntry& entry, const LedgerEntry* previous);
 
 /// Checks sequence numbers, previous_hash links, each hash against its
-/// content and that every entry names the same drop. The Integrity error names
+/// content, each signature against its content and its own public key (who
+/// holds that key is for checkSignatures(), signing.h) and that every entry
+/// names the same drop. The Integrity error names
 /// the first bad entry (its sequence number in Error::line is the file line).
 Status verifyChain(const Ledger& ledger);
 

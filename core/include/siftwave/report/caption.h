@@ -35,7 +35,7 @@ struct CaptionFacts {
     std::string lastDate;           // ISO 8601
     std::string dropSha256Prefix;   // kHashPrefixLength hex digits
     std::size_t ledgerEntries = 0;  // entries in the ledger file, withdrawals included
-    std::string ledgerHeadPrefix;   // kHashPrefixLength hex digits; empty without a ledger
+    std::string ledgerHeadPrefix;   // ledger::kMinAnchorDigits hex digits (enough for --head); empty without a ledger
     std::string model;              // e.g. "gumbel"; empty without a fit
     std::string method;             // e.g. "lsq"
     std::string fitFirstDate;       // the fit window, ISO 8601
