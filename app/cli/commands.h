@@ -11,6 +11,7 @@ int runScan(int argc, char** argv, int first);
 int runDecide(int argc, char** argv, int first);
 int runApply(int argc, char** argv, int first);
 int runLedger(int argc, char** argv, int first);
+int runSigningKey(int argc, char** argv, int first);
 int runFit(int argc, char** argv, int first);
 int runFigure(int argc, char** argv, int first);  // app/cli/qt/ (app/cli/no_qt/ without Qt)
 int runReport(int argc, char** argv, int first);  // app/cli/qt/ (app/cli/no_qt/ without Qt)

@@ -7,19 +7,23 @@
 #include "siftwave/ledger/decision.h"
 #include "siftwave/ledger/decision_kinds.h"
 #include "siftwave/ledger/ledger_file.h"
+#include "siftwave/ledger/record.h"
 #include "siftwave/ledger/replay.h"
+#include "siftwave/ledger/signing.h"
 #include "siftwave/scan/propose.h"
 
 #include <algorithm>
 #include <cstdio>
 #include <cstdlib>
+#include <filesystem>
 
 namespace siftwave::cli {
 namespace {
 
 const char* kUsage =
     "usage: siftwave-cli decide LEDGER --drop FILE KIND [parameters] --reason TEXT\n"
-    "                           [--author NAME] [--dry-run] [ingest flags] [--json]\n"
+    "                           [--author NAME] [--sign [--key FILE]] [--dry-run] [ingest flags]\n"
+    "                           [--json]\n"
     "\n"
     "Records one cleaning decision in the ledger LEDGER (JSON Lines, created if needed),\n"
     "after checking it on the drop FILE and the decisions already in the ledger. Every\n"
@@ -66,6 +70,9 @@ std::vector<FlagSpec> decideFlagSpecs() {
             {"entry", true, false, "N", "withdraw: the id of the entry to undo"},
             {"finding", true, false, "ID", "the scan finding this decision answers"},
             {"dry-run", false, false, "", "show what the decision would do; write nothing"},
+            {"sign", false, false, "",
+             "sign the entry with your Ed25519 key (siftwave-cli signing-key --create)"},
+            {"key", true, false, "FILE", "--sign: the private key (default: your data folder's)"},
         },
         "print JSON instead of text");
 }
@@ -433,30 +440,63 @@ void printRecordedEntry(const DecideRequest& request, const Drop& drop,
         std::printf("entry %llu recorded in %s: %s by %s\n",
                     static_cast<unsigned long long>(entry.sequence), request.ledgerPath.c_str(),
                     ledger::decisionKindName(request.kind), entry.author.c_str());
+        if (entry.signature)
+            std::printf("  signed with key %s\n", entry.signature->publicKey.substr(0, 16).c_str());
         if (request.autoExcess)
             printAutoExcessNote(decision, request.windowGiven);
         printEffectText(drop, entry.effect);
     }
 }
 
-/// Drafts the entry on the replayed ledger, appends it to the ledger file and prints it; returns
-/// the exit code.
-int recordDecision(const DecideRequest& request, const Drop& drop, const ReplayedLedger& replayed,
+/// The signing key for --sign: --key FILE, else the user's key (signing.h); nullopt after
+/// printing why there is none.
+std::optional<ledger::SigningKey> signerFor(const DecideRequest& request) {
+    const std::string path =
+        request.args.has("key") ? request.args.value("key") : ledger::defaultSigningKeyPath();
+    std::error_code ec;
+    if (!std::filesystem::exists(path, ec)) {
+        Error e = makeError(ErrorCode::NotFound,
+                            "no signing key here; make one with siftwave-cli signing-key --create "
+                            "(nothing was recorded)");
+        e.file = path;
+        printError(e, request.json);
+        return std::nullopt;
+    }
+    Result<ledger::SigningKey> key = ledger::SigningKey::load(path);
+    if (!key) {
+        printError(key.error(), request.json);
+        return std::nullopt;
+    }
+    return *key;
+}
+
+/// Records the decision after the replayed ledger (drafted again if another writer appended
+/// first, record.h) and prints it; returns the exit code.
+int recordDecision(const DecideRequest& request, const Drop& drop, ReplayedLedger replayed,
                    const ledger::Decision& decision) {
-    ledger::EntryMeta meta;
-    meta.author = request.args.value("author");
-    meta.reason = request.args.value("reason");
-    Result<ledger::LedgerEntry> entry =
-        ledger::draftEntry(drop, replayed.ledger, replayed.cleaned, decision, meta);
-    if (!entry) {
-        printError(entry.error(), request.json);
-        return entry.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+    ledger::RecordRequest record;
+    record.ledgerPath = request.ledgerPath;
+    record.decision = decision;
+    record.meta.author = request.args.value("author");
+    record.meta.reason = request.args.value("reason");
+    std::optional<ledger::SigningKey> signer;
+    if (request.args.has("sign")) {
+        signer = signerFor(request);
+        if (!signer)
+            return kExitBadInput;
+        record.signer = &*signer;
     }
-    if (Status s = ledger::appendLedgerEntry(request.ledgerPath, *entry); !s) {
-        printError(s.error(), request.json);
-        return kExitBadInput;
+    Result<ledger::Recorded> recorded = ledger::recordDecision(
+        drop, record, std::move(replayed.ledger), std::move(replayed.cleaned));
+    if (!recorded) {
+        printError(recorded.error(), request.json);
+        return recorded.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
     }
-    printRecordedEntry(request, drop, decision, *entry);
+    if (recorded->attempts > 1 && !request.json)
+        std::printf(
+            "another writer added entries meanwhile; the decision was checked again on "
+            "them and recorded after them\n");
+    printRecordedEntry(request, drop, decision, recorded->entry);
     return kExitOk;
 }
 
@@ -484,7 +524,7 @@ int runDecide(int argc, char** argv, int first) {
         return kExitBadInput;
     if (request->dryRun)
         return printDryRun(*request, *drop, *replayed, *decision);
-    return recordDecision(*request, *drop, *replayed, *decision);
+    return recordDecision(*request, *drop, std::move(*replayed), *decision);
 }
 
 namespace {

@@ -5,6 +5,7 @@
 
 #include "siftwave/ledger/anchor.h"
 #include "siftwave/ledger/export.h"
+#include "siftwave/ledger/signing.h"
 
 #include <cstdio>
 
@@ -31,6 +32,10 @@ const char* kUsage =
     "chain alone cannot show that nobody edited an entry and recomputed every hash after it, or\n"
     "cut entries off the end; a recorded head can. Entries added after the recorded head are\n"
     "named, and are not covered by it.\n"
+    "Entries signed with decide --sign are checked against their signatures always, and each\n"
+    "signer is named when their public key is in the trusted-keys file (--trusted-keys, or the\n"
+    "one in your data folder; your own key is always trusted). A signature by a key you do not\n"
+    "trust proves nothing about who made the entry.\n"
     "Exit codes: 0 good, 1 a bad or tampered ledger (nothing written), 2 wrong usage.\n"
     "\n"
     "options:\n";
@@ -44,6 +49,8 @@ std::vector<FlagSpec> ledgerFlagSpecs() {
             {"drop", true, false, "FILE", "the drop the ledger belongs to"},
             {"head", true, false, "HASH",
              "--verify: the head recorded elsewhere (16 to 64 hex digits)"},
+            {"trusted-keys", true, false, "FILE",
+             "--verify: whose signatures to trust (default: your data folder's list)"},
         },
         "print JSON instead of text");
 }
@@ -103,9 +110,37 @@ std::string scopeOfCheck(const std::optional<ledger::AnchorCheck>& anchor) {
     return anchor->describe();
 }
 
+/// Each entry's signer as the user's trusted keys say; nullopt after printing a bad trust file.
+std::optional<std::vector<ledger::SignatureCheck>> signersOf(const ParsedArgs& args,
+                                                             const ledger::Ledger& ledger,
+                                                             bool json) {
+    const std::string trustPath =
+        args.has("trusted-keys") ? args.value("trusted-keys") : ledger::defaultTrustedKeysPath();
+    const std::optional<std::vector<ledger::TrustedKey>> trusted =
+        valueOrPrintError(ledger::userTrust(trustPath, ledger::defaultSigningKeyPath()), json);
+    if (!trusted)
+        return std::nullopt;
+    return ledger::checkSignatures(ledger, *trusted);
+}
+
+nlohmann::json signaturesJson(const std::vector<ledger::SignatureCheck>& checks) {
+    nlohmann::json entries = nlohmann::json::array();
+    for (const ledger::SignatureCheck& c : checks) {
+        if (c.state == ledger::SignatureState::Unsigned)
+            continue;
+        entries.push_back(
+            {{"entry", c.entry},
+             {"state", c.state == ledger::SignatureState::Trusted ? "trusted" : "unknown_key"},
+             {"holder", c.holder},
+             {"key", c.keyId}});
+    }
+    return {{"summary", ledger::describeSignatures(checks)}, {"signed", std::move(entries)}};
+}
+
 void printVerifyText(const std::string& ledgerPath, const ledger::Ledger& ledger, const Drop* drop,
                      const ledger::CountsAdded& added,
-                     const std::optional<ledger::AnchorCheck>& anchor) {
+                     const std::optional<ledger::AnchorCheck>& anchor,
+                     const std::vector<ledger::SignatureCheck>& signers) {
     std::printf("%s: %zu %s, hash chain verified", ledgerPath.c_str(), ledger.entries.size(),
                 ledger.entries.size() == 1 ? "entry" : "entries");
     if (drop)
@@ -115,6 +150,8 @@ void printVerifyText(const std::string& ledgerPath, const ledger::Ledger& ledger
         std::printf("; %s", added.describe().c_str());
     std::printf("\nhead %s (record it to check this ledger later with --head)\n%s\n",
                 ledger.headHash().c_str(), scopeOfCheck(anchor).c_str());
+    if (!ledger.entries.empty())
+        std::printf("signatures: %s\n", ledger::describeSignatures(signers).c_str());
 }
 
 }  // namespace
@@ -139,6 +176,10 @@ int runLedger(int argc, char** argv, int first) {
         anchorOf(args, *ledger, ledgerPath, json, tampered);
     if (tampered)
         return kExitBadInput;
+    const std::optional<std::vector<ledger::SignatureCheck>> signers =
+        signersOf(args, *ledger, json);
+    if (!signers)
+        return kExitBadInput;
     std::optional<Drop> drop;
     std::optional<ledger::Cleaned> cleaned;
     if (args.has("drop")) {
@@ -156,7 +197,8 @@ int runLedger(int argc, char** argv, int first) {
                           {"head_hash", ledger->headHash()},
                           {"drop_sha256", ledger->dropSha256()},
                           {"counts_added", {{"total", added.total}, {"entries", added.entries}}},
-                          {"scope", scopeOfCheck(anchor)}};
+                          {"scope", scopeOfCheck(anchor)},
+                          {"signatures", signaturesJson(*signers)}};
     if (anchor)
         out["anchor"] = {{"recorded", anchor->recorded},
                          {"outcome", anchor->outcomeName()},
@@ -187,7 +229,7 @@ int runLedger(int argc, char** argv, int first) {
         printJson(out);
         return kExitOk;
     }
-    printVerifyText(ledgerPath, *ledger, drop ? &*drop : nullptr, added, anchor);
+    printVerifyText(ledgerPath, *ledger, drop ? &*drop : nullptr, added, anchor, *signers);
     if (args.has("report"))
         std::printf("report written to %s\n", args.value("report").c_str());
     return kExitOk;

@@ -76,7 +76,9 @@ protected:
     CliRun cli(const std::string& args) {
         const fs::path out = dir / "stdout.txt";
         const fs::path err = dir / "stderr.txt";
-        const std::string command = std::string(SIFTWAVE_CLI_PATH) + " " + args + " >" +
+        // The user's data folder (signing keys, trusted keys) is the test's own.
+        const std::string command = "SIFTWAVE_DATA_DIR=" + quote((dir / "data").string()) + " " +
+                                    std::string(SIFTWAVE_CLI_PATH) + " " + args + " >" +
                                     quote(out.string()) + " 2>" + quote(err.string());
         const int status = std::system(command.c_str());
         CliRun r;
@@ -456,6 +458,83 @@ TEST_F(LedgerCli, UsageErrorsExitTwoAndHelpListsEveryKind) {
           "exclude", "accept", "withdraw", "--excess N|auto", "--keep", "--variant", "--entry"}) {
         EXPECT_NE(help.out.find(kind), std::string::npos) << kind;
     }
+}
+
+// Issue 19, "an anchored audit trail": a head recorded elsewhere catches a ledger cut short
+// and names entries added after it.
+TEST_F(LedgerCli, VerifyAgainstARecordedHeadCatchesACutEndAndNamesLaterEntries) {
+    ASSERT_EQ(redistribute().code, 0);
+    CliRun first = cli("ledger " + L() + " --verify --json");
+    ASSERT_EQ(first.code, 0) << first.err;
+    const std::string head = nlohmann::json::parse(first.out)["head_hash"];
+    CliRun text = cli("ledger " + L() + " --verify");
+    EXPECT_NE(text.out.find("head " + head), std::string::npos) << text.out;
+    EXPECT_NE(text.out.find("not that nobody edited an entry"), std::string::npos) << text.out;
+
+    CliRun second = cli("decide " + L() + " --drop " + D() +
+                        " accept --region N7 --measure cases --days 2026-03-01:2026-03-04"
+                        " --author tester --reason 'checked'");
+    ASSERT_EQ(second.code, 0) << second.err;
+    CliRun later = cli("ledger " + L() + " --verify --head " + head.substr(0, 16));
+    EXPECT_EQ(later.code, 0) << later.err;
+    EXPECT_NE(later.out.find("is entry 1: entries 1 to 1 are unchanged; 1 entry was added after "
+                             "it, which this head does not cover"),
+              std::string::npos)
+        << later.out;
+
+    // Cut the last line off: still a valid chain, but not the one the head was recorded from.
+    const std::string bytes = slurp(ledger);
+    const std::size_t lastLine = bytes.rfind('\n', bytes.size() - 2);
+    const std::string secondHead =
+        nlohmann::json::parse(cli("ledger " + L() + " --verify --json").out)["head_hash"];
+    spit(ledger, bytes.substr(0, lastLine + 1));
+    EXPECT_EQ(cli("ledger " + L() + " --verify").code, 0) << "a shorter chain is a valid chain";
+    CliRun cut = cli("ledger " + L() + " --verify --head " + secondHead);
+    EXPECT_EQ(cut.code, 1);
+    EXPECT_NE(cut.err.find("no entry has the recorded head"), std::string::npos) << cut.err;
+    EXPECT_EQ(cli("ledger " + L() + " --verify --head 12ab").code, 2) << "too short to check";
+}
+
+TEST_F(LedgerCli, SignedDecisionsNameTheirSignerWhenTheKeyIsTrusted) {
+    CliRun noKey = redistribute("--sign");
+    EXPECT_EQ(noKey.code, 1);
+    EXPECT_NE(noKey.err.find("signing-key --create"), std::string::npos) << noKey.err;
+    EXPECT_FALSE(fs::exists(ledger)) << "nothing recorded without the key";
+
+    CliRun created = cli("signing-key --create --json");
+    ASSERT_EQ(created.code, 0) << created.err;
+    const nlohmann::json key = nlohmann::json::parse(created.out);
+    EXPECT_EQ(key["key_file"], (dir / "data" / "keys" / "signing-key.pem").string());
+    EXPECT_EQ(fs::status(key["key_file"].get<std::string>()).permissions() & fs::perms::all,
+              fs::perms::owner_read | fs::perms::owner_write);
+    EXPECT_EQ(cli("signing-key --create").code, 1) << "an existing key is never overwritten";
+    const nlohmann::json shown = nlohmann::json::parse(cli("signing-key --show --json").out);
+    EXPECT_EQ(shown["public_key"], key["public_key"]);
+    EXPECT_EQ(shown["created"], false);
+
+    CliRun signedDecision = redistribute("--sign");
+    ASSERT_EQ(signedDecision.code, 0) << signedDecision.err;
+    const std::string keyPrefix = key["public_key"].get<std::string>().substr(0, 16);
+    EXPECT_NE(signedDecision.out.find("signed with key " + keyPrefix), std::string::npos);
+    CliRun own = cli("ledger " + L() + " --verify");
+    EXPECT_NE(own.out.find("1 of 1 entry signed by trusted keys (this user's key: 1)"),
+              std::string::npos)
+        << own.out;
+
+    // Someone else checks the ledger: with an empty trust list the key proves nothing; with
+    // the line signing-key printed, the signer is named.
+    fs::remove(key["key_file"].get<std::string>());
+    spit(dir / "trusted.txt", "");
+    CliRun stranger =
+        cli("ledger " + L() + " --verify --trusted-keys " + quote((dir / "trusted.txt").string()));
+    EXPECT_NE(stranger.out.find("keys you do not trust, which proves nothing"), std::string::npos)
+        << stranger.out;
+    spit(dir / "trusted.txt", key["trusted_keys_line"].get<std::string>() + "\n");
+    CliRun colleague = cli("ledger " + L() + " --verify --json --trusted-keys " +
+                           quote((dir / "trusted.txt").string()));
+    const nlohmann::json v = nlohmann::json::parse(colleague.out);
+    EXPECT_EQ(v["signatures"]["signed"][0]["state"], "trusted");
+    EXPECT_EQ(v["signatures"]["signed"][0]["key"], keyPrefix);
 }
 
 }  // namespace

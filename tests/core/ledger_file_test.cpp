@@ -93,7 +93,7 @@ TEST_F(LedgerFile, AnEntryMadeOnAnOlderStateOfTheFileIsNotAppended) {
     const std::string before = slurp(path);
     auto s = appendLedgerEntry(path, *second);
     ASSERT_FALSE(s.ok());
-    EXPECT_EQ(s.error().code, ErrorCode::Integrity);
+    EXPECT_EQ(s.error().code, ErrorCode::Conflict);
     EXPECT_EQ(slurp(path), before);
     EXPECT_FALSE(appendLedgerEntry(path, ledger.entries[1]).ok()) << "appending an entry twice";
 }

@@ -130,7 +130,7 @@ TEST(ReportCaption, LinesNameTheFileHashesLedgerFitAndTheCaution) {
     ASSERT_EQ(lines.size(), 5u);
     EXPECT_EQ(lines[0], "Source: quenmara_current.csv, 2026-02-23 to 2026-11-29, SHA-256 " +
                             s.drop.source.sha256.substr(0, 12));
-    EXPECT_EQ(lines[1], "Ledger: 4 entries, head " + s.ledger.headHash().substr(0, 12));
+    EXPECT_EQ(lines[1], "Ledger: 4 entries, head " + s.ledger.headHash().substr(0, 16));
     EXPECT_EQ(lines[2], "Fit: richards, poisson, 2026-03-05 to 2026-03-15");
     EXPECT_EQ(lines[3], "Exported 2026-12-01 by Siftwave 0.1.0");
     EXPECT_EQ(lines[4], fit::caution);

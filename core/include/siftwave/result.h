@@ -26,6 +26,7 @@ enum class ErrorCode {
     Conservation,  // a decision would break a total or make a count negative
     NotFound,      // region, measure or entry id does not exist
     Numerical,     // a solver could not proceed
+    Conflict,      // another writer changed the file first (e.g. appended a ledger entry)
 };
 
 /// Short stable name of an error code ("syntax", "integrity", ...).

@@ -26,6 +26,8 @@ const char* errorCodeName(ErrorCode code) {
             return "not_found";
         case ErrorCode::Numerical:
             return "numerical";
+        case ErrorCode::Conflict:
+            return "conflict";
     }
     return "unknown";
 }

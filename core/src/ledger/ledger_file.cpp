@@ -133,7 +133,7 @@ Status appendLedgerEntry(const std::string& path, const LedgerEntry& entry) {
     }
     if (onDisk->entries.size() + 1 != entry.sequence || onDisk->headHash() != entry.previousHash) {
         ::close(fd);
-        Error e = makeError(ErrorCode::Integrity,
+        Error e = makeError(ErrorCode::Conflict,
                             "the ledger changed since it was read (it now has " +
                                 std::to_string(onDisk->entries.size()) +
                                 " entries; this is entry " + std::to_string(entry.sequence) +

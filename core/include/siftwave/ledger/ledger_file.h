@@ -27,7 +27,8 @@ Result<Ledger> parseLedger(std::string_view bytes, const std::string& displayPat
 /// Appends one sealed entry as a line and fsyncs; creates the file if needed.
 /// Holds an exclusive flock while it checks that the file (verified again) ends
 /// exactly at the entry's predecessor, so two writers cannot fork the chain:
-/// Integrity error, nothing appended, when another entry got there first.
+/// Conflict error, nothing appended, when another entry got there first (draft
+/// the entry again on the ledger as it now is, see appendDecision in replay.h).
 Status appendLedgerEntry(const std::string& path, const LedgerEntry& entry);
 
 }  // namespace siftwave::ledger
