@@ -2,11 +2,13 @@
 
 #include "siftwave/ledger/anchor.h"
 #include "siftwave/ledger/ledger_file.h"
+#include "siftwave/ledger/record.h"
 #include "siftwave/ledger/replay.h"
 #include "siftwave/report/plot_model.h"
 
 #include <QCoreApplication>
 
+#include <filesystem>
 #include <limits>
 
 namespace siftwave::widgets {
@@ -100,6 +102,27 @@ void Workbench::updateChainStatus() {
             QCoreApplication::translate("Workbench", "chain verified · %1 entries · head %2")
                 .arg(m_ledger.entries.size())
                 .arg(QString::fromStdString(ledger::printedHead(m_ledger)));
+    updateSigners();
+}
+
+void Workbench::updateSigners() {
+    Result<std::vector<ledger::TrustedKey>> trusted =
+        ledger::userTrust(ledger::defaultTrustedKeysPath(), ledger::defaultSigningKeyPath());
+    m_signers =
+        ledger::checkSignatures(m_ledger, trusted ? *trusted : std::vector<ledger::TrustedKey>{});
+    m_chainScope =
+        QCoreApplication::translate(
+            "Workbench",
+            "The chain shows the entries are consistent with each other. It cannot show that "
+            "nobody edited an entry and recomputed the hashes, or cut entries off the end: "
+            "compare the head (%1) with one recorded elsewhere (siftwave-cli ledger --verify "
+            "--head).\nSignatures: %2.")
+            .arg(QString::fromStdString(m_ledger.headHash()),
+                 QString::fromStdString(ledger::describeSignatures(m_signers)));
+    if (!trusted)
+        m_chainScope += QStringLiteral("\n") +
+                        QCoreApplication::translate("Workbench", "Trusted keys not read: %1")
+                            .arg(QString::fromStdString(trusted.error().describe()));
 }
 
 Result<ledger::Effect> Workbench::preview(const ledger::Decision& decision) const {
@@ -114,25 +137,36 @@ Result<std::uint64_t> Workbench::apply(const ledger::Decision& decision, const Q
     if (!m_ledgerWritable || m_ledgerPath.isEmpty())
         return makeError(ErrorCode::Integrity,
                          "the ledger is not open for writing: " + m_chainStatus.toStdString());
-    ledger::EntryMeta meta;
-    meta.reason = reason.trimmed().toStdString();
-    Result<ledger::LedgerEntry> entry =
-        ledger::draftEntry(*m_drop, m_ledger, m_cleaned, decision, meta);
-    if (!entry)
-        return entry.error();
-    // The file first: an entry exists only once it is on disk.
-    if (Status appended = ledger::appendLedgerEntry(m_ledgerPath.toStdString(), *entry); !appended)
-        return appended.error();
-    if (Status applied = ledger::applyEntry(*m_drop, m_cleaned, *entry); !applied) {
-        // On disk but refused in memory: re-read so the window shows what the file says.
-        // The refusal is what the caller must see; a failure to re-read shows in the chain status.
-        static_cast<void>(openLedger(m_ledgerPath));
-        return applied.error();
+    ledger::RecordRequest request;
+    request.ledgerPath = m_ledgerPath.toStdString();
+    request.decision = decision;
+    request.meta.reason = reason.trimmed().toStdString();
+    // Signed when the user has a key (siftwave-cli signing-key --create).
+    std::optional<ledger::SigningKey> key;
+    std::error_code ec;
+    if (std::filesystem::exists(ledger::defaultSigningKeyPath(), ec)) {
+        Result<ledger::SigningKey> loaded =
+            ledger::SigningKey::load(ledger::defaultSigningKeyPath());
+        if (!loaded)
+            return loaded.error();
+        key = std::move(*loaded);
+        request.signer = &*key;
     }
-    m_ledger.entries.push_back(*entry);
+    // The file first: an entry exists only once it is on disk.
+    Result<ledger::Recorded> recorded =
+        ledger::recordDecision(*m_drop, request, m_ledger, m_cleaned);
+    if (!recorded) {
+        // Another writer's entries may be on disk: re-read so the window shows what the file
+        // says. The refusal is what the caller must see.
+        if (recorded.error().code != ErrorCode::Usage)
+            static_cast<void>(openLedger(m_ledgerPath));
+        return recorded.error();
+    }
+    m_ledger = std::move(recorded->ledger);
+    m_cleaned = std::move(recorded->cleaned);
     updateChainStatus();
     Q_EMIT ledgerChanged();
-    return entry->sequence;
+    return recorded->entry.sequence;
 }
 
 Result<std::uint64_t> Workbench::withdraw(std::uint64_t sequence, const QString& reason) {

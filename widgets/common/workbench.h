@@ -10,6 +10,7 @@
 #include "siftwave/ledger/cleaned.h"
 #include "siftwave/ledger/decision.h"
 #include "siftwave/ledger/entry.h"
+#include "siftwave/ledger/signing.h"
 #include "siftwave/region_register.h"
 #include "siftwave/result.h"
 #include "siftwave/scan/scan.h"
@@ -78,11 +79,16 @@ public:
     /// "verified: N entries, head abc123…" or what is wrong; always current.
     QString chainStatus() const { return m_chainStatus; }
     bool chainOk() const { return m_chainOk; }
+    /// What the check proves and what it cannot, and who signed (for a tooltip).
+    QString chainScope() const { return m_chainScope; }
+    /// Each entry's signer, as the user's trusted keys say (signing.h).
+    const std::vector<ledger::SignatureCheck>& signers() const { return m_signers; }
 
     /// What a decision would do; nothing is recorded.
     Result<ledger::Effect> preview(const ledger::Decision& decision) const;
-    /// Records a decision with its reason: drafts the entry, appends it to the ledger file
-    /// (fsynced), then applies it. Returns the entry's sequence number.
+    /// Records a decision with its reason: drafts the entry, signs it when the user has a
+    /// signing key, appends it to the ledger file (fsynced), then applies it; after another
+    /// writer's entries when one appended first (record.h). Returns the entry's sequence number.
     Result<std::uint64_t> apply(const ledger::Decision& decision, const QString& reason);
     /// Undoes an entry by appending a withdrawal (history is never rewritten).
     Result<std::uint64_t> withdraw(std::uint64_t sequence, const QString& reason);
@@ -120,8 +126,11 @@ private:
     bool m_ledgerWritable = false;
     bool m_chainOk = true;
     QString m_chainStatus;
+    QString m_chainScope;
+    std::vector<ledger::SignatureCheck> m_signers;
     std::shared_ptr<const scan::ScanReport> m_scan;
     void updateChainStatus();
+    void updateSigners();
 
     // Which findings an entry in effect answers, and the open ones per region: built on first
     // use after a change (one pass over the ledger and the findings), so views asking row by

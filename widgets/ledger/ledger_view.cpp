@@ -18,10 +18,29 @@
 #include <QVBoxLayout>
 
 namespace siftwave::widgets {
+namespace {
+
+/// "ana", "unknown key 1a2b3c4d5e6f7a8b" or "—" (unsigned).
+QString signerText(const std::vector<ledger::SignatureCheck>& signers, int row) {
+    if (row < 0 || row >= static_cast<int>(signers.size()))
+        return {};
+    const ledger::SignatureCheck& c = signers[static_cast<std::size_t>(row)];
+    switch (c.state) {
+        case ledger::SignatureState::Trusted:
+            return QString::fromStdString(c.holder);
+        case ledger::SignatureState::UnknownKey:
+            return LedgerModel::tr("unknown key %1").arg(QString::fromStdString(c.keyId));
+        case ledger::SignatureState::Unsigned:
+            break;
+    }
+    return QStringLiteral("—");
+}
+
+}  // namespace
 
 LedgerModel::LedgerModel(Workbench* workbench, QObject* parent)
-    : TitledTableModel({tr("#"), tr("Time (UTC)"), tr("Author"), tr("Decision"), tr("Where"),
-                        tr("Moved"), tr("Reason"), tr("State")},
+    : TitledTableModel({tr("#"), tr("Time (UTC)"), tr("Author"), tr("Signed by"), tr("Decision"),
+                        tr("Where"), tr("Moved"), tr("Reason"), tr("State")},
                        parent),
       m_workbench(workbench) {
     connect(m_workbench, &Workbench::dropChanged, this, &LedgerModel::resetRows);
@@ -60,6 +79,8 @@ QVariant LedgerModel::data(const QModelIndex& index, int role) const {
             return QString::fromStdString(e.timestamp);
         case AuthorColumn:
             return QString::fromStdString(e.author);
+        case SignedColumn:
+            return signerText(m_workbench->signers(), index.row());
         case KindColumn:
             if (d.kind == ledger::DecisionKind::Withdraw)
                 return tr("withdraw #%1").arg(d.target);
@@ -153,7 +174,8 @@ void LedgerView::updateStatus() {
         text += QStringLiteral(" · ") + name;
     }
     m_status->setText(text);
-    m_status->setToolTip(m_workbench->ledgerPath());
+    m_status->setToolTip(m_workbench->ledgerPath() + QStringLiteral("\n\n") +
+                         m_workbench->chainScope());
     m_status->setObjectName(ok ? QStringLiteral("chainStatusOk")
                                : QStringLiteral("chainStatusBroken"));
     m_status->style()->unpolish(m_status);

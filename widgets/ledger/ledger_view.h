@@ -25,6 +25,7 @@ public:
         SequenceColumn,
         TimeColumn,
         AuthorColumn,
+        SignedColumn,
         KindColumn,
         WhereColumn,
         MovedColumn,

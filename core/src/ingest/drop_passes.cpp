@@ -6,6 +6,7 @@
 #include <bit>
 #include <cassert>
 #include <cctype>
+#include <cstdio>
 #include <limits>
 #include <set>
 
@@ -15,6 +16,10 @@ namespace {
 constexpr std::size_t kCheckAhead = std::size_t{256} << 10;
 constexpr std::size_t kTailBytes = std::size_t{64} << 10;
 constexpr double kMaxCells = 1.5e9;
+// A table of more cells than this (about 320 MB) must be justified by the file: at most
+// kMaxCellsPerValue cells for each value its rows can hold (checkTableJustified).
+constexpr double kSparseFloorCells = 2e7;
+constexpr double kMaxCellsPerValue = 64;
 
 // Joins a year cell and a week cell into one date key (dateKeyOf): the ASCII unit separator,
 // which no year or week number holds.
@@ -327,8 +332,12 @@ bool DropReader::predictCalendar() {
         std::max(static_cast<double>(dates.sampleRegions), rows / static_cast<double>(days));
     const std::size_t capacity = static_cast<std::size_t>(regions * 1.5) + 64;
     const std::size_t measures = m_roles.measureColumn >= 0 ? 4 : m_roles.valueColumns.size();
-    if (static_cast<double>(capacity) * static_cast<double>(days) * static_cast<double>(measures) >
-        kMaxCells)
+    // A table far larger than the file's values (sparse rows over a long calendar) is left to
+    // the two passes, which refuse it before allocating (checkTableJustified).
+    const double cells =
+        static_cast<double>(capacity) * static_cast<double>(days) * static_cast<double>(measures);
+    const double values = rows * static_cast<double>(std::max<std::size_t>(m_names.size(), 1));
+    if (cells > kMaxCells || (cells > kSparseFloorCells && cells > kMaxCellsPerValue * values))
         return false;
     m_dateFormat = *format;
     m_firstSerial = lo;
@@ -605,12 +614,17 @@ Status DropReader::laySerialsOut() {
     std::int32_t lo = std::numeric_limits<std::int32_t>::max();
     std::int32_t hi = std::numeric_limits<std::int32_t>::min();
     std::vector<std::int32_t> serials(n);
+    std::size_t loIndex = 0, hiIndex = 0;
     for (std::size_t i = 0; i < n; ++i) {
         const std::string& text = m_dates.key(static_cast<std::uint32_t>(i));
         std::optional<Date> d = parseDateIn(text, m_dateFormat);
         if (!d)
             return dateError(text, m_dateLine[i], m_dateColumn[i]);
         serials[i] = d->serial;
+        if (d->serial < lo)
+            loIndex = i;
+        if (d->serial > hi)
+            hiIndex = i;
         lo = std::min(lo, d->serial);
         hi = std::max(hi, d->serial);
     }
@@ -629,17 +643,45 @@ Status DropReader::laySerialsOut() {
         m_roles.layout == Layout::DatesDown ? m_roles.valueColumns.size() : m_regions.size();
     const double cells =
         static_cast<double>(columns) * static_cast<double>(regions) * static_cast<double>(measures);
-    if (span > 100 * 366 || cells > 1.5e9) {
+    if (span > 100 * 366 || cells > kMaxCells) {
         return fail(ErrorCode::InvalidValue,
                     "the dates run from " + Date{lo}.iso() + " to " + Date{hi}.iso() + " (" +
                         std::to_string(span) +
                         " days), too long a calendar for a drop; is a year mistyped?");
     }
+    if (Status s = checkTableJustified(cells, regions, lo, hi, loIndex, hiIndex); !s)
+        return s;
     for (std::size_t i = 0; i < n; ++i)
         m_dayOfDate[i] = (serials[i] - lo) / m_step;
     m_firstSerial = lo;
     m_days = static_cast<std::size_t>(columns);
     return Ok{};
+}
+
+// The table holds every region on every period of the calendar. A few stray dates far from the
+// rest (a mistyped year) or a century of sparse rows would make it vastly larger than the file:
+// 10,000 regions with rows a century apart asked for 4.3 GB from a 378 KB file. Refuse, before
+// allocating, a table of more than kSparseFloorCells cells that holds over kMaxCellsPerValue
+// cells for each value the file can hold (its data rows times its columns).
+Status DropReader::checkTableJustified(double cells, std::size_t regions, std::int32_t lo,
+                                       std::int32_t hi, std::size_t loIndex,
+                                       std::size_t hiIndex) const {
+    const double values = static_cast<double>(std::max<std::uint64_t>(m_drop.rows, 1)) *
+                          static_cast<double>(std::max<std::size_t>(m_names.size(), 1));
+    if (cells <= kSparseFloorCells || cells <= kMaxCellsPerValue * values)
+        return Ok{};
+    const double gigabytes = cells * static_cast<double>(sizeof(Cell)) / 1e9;
+    char size[32];
+    std::snprintf(size, sizeof size, "%.1f GB", gigabytes);
+    return fail(ErrorCode::InvalidValue,
+                "the dates run from " + Date{lo}.iso() + " (line " +
+                    std::to_string(m_dateLine[loIndex]) + ") to " + Date{hi}.iso() + " (line " +
+                    std::to_string(m_dateLine[hiIndex]) + ") across " + std::to_string(regions) +
+                    " regions: a table of " + std::to_string(static_cast<std::uint64_t>(cells)) +
+                    " cells (about " + size + ") for " + std::to_string(m_drop.rows) +
+                    " data rows, nearly all of it empty. Nothing was read. Check the earliest and "
+                    "latest dates for a mistyped year, or split the file into shorter periods",
+                m_dateLine[loIndex], m_dateColumn[loIndex]);
 }
 
 void DropReader::mapDateColumns() {

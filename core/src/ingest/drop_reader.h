@@ -129,6 +129,8 @@ private:
     Status laySerialsOut();
     /// Dates-across: the table column of each date column (-1 for the others).
     void mapDateColumns();
+    Status checkTableJustified(double cells, std::size_t regions, std::int32_t lo, std::int32_t hi,
+                               std::size_t loIndex, std::size_t hiIndex) const;
     Status cellPass();
     /// The calendar the dates make: daily, or weekly (every date 7 days apart on one
     /// weekday, or ISO week labels), with the options' overrides; for weekly, the period
