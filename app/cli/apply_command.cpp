@@ -81,9 +81,9 @@ int runApply(int argc, char** argv, int first) {
                    {"entries_in_effect", inEffect},
                    {"drop_sha256", drop->source.sha256}});
     } else {
-        std::printf("wrote %s: %zu rows, %zu ledger %s replayed (%zu in effect)\n", outPath.c_str(),
-                    rows, ledger->entries.size(), ledger->entries.size() == 1 ? "entry" : "entries",
-                    inEffect);
+        std::printf("wrote %s: %zu rows, %zu ledger %s replayed (%zu in effect)\n",
+                    terminalText(outPath).c_str(), rows, ledger->entries.size(),
+                    ledger->entries.size() == 1 ? "entry" : "entries", inEffect);
     }
     return kExitOk;
 }

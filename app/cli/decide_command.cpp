@@ -327,8 +327,8 @@ void printEffectText(const Drop& drop, const ledger::Effect& effect) {
                                    : std::string(ledger::cleanedStateName(cell.state));
         };
         std::printf("  %s %s %s: %s -> %s\n", periodText(drop, c.date).c_str(),
-                    terminalText(c.region).c_str(), c.measure.c_str(), value(c.before).c_str(),
-                    value(c.after).c_str());
+                    terminalText(c.region).c_str(), terminalText(c.measure).c_str(),
+                    value(c.before).c_str(), value(c.after).c_str());
     }
     if (effect.cells.size() > shown)
         std::printf("  ... %zu more cells\n", effect.cells.size() - shown);
@@ -438,8 +438,9 @@ void printRecordedEntry(const DecideRequest& request, const Drop& drop,
         printJson(out);
     } else {
         std::printf("entry %llu recorded in %s: %s by %s\n",
-                    static_cast<unsigned long long>(entry.sequence), request.ledgerPath.c_str(),
-                    ledger::decisionKindName(request.kind), entry.author.c_str());
+                    static_cast<unsigned long long>(entry.sequence),
+                    terminalText(request.ledgerPath).c_str(),
+                    ledger::decisionKindName(request.kind), terminalText(entry.author).c_str());
         if (entry.signature)
             std::printf("  signed with key %s\n", entry.signature->publicKey.substr(0, 16).c_str());
         if (request.autoExcess)

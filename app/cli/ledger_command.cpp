@@ -141,17 +141,17 @@ void printVerifyText(const std::string& ledgerPath, const ledger::Ledger& ledger
                      const ledger::CountsAdded& added,
                      const std::optional<ledger::AnchorCheck>& anchor,
                      const std::vector<ledger::SignatureCheck>& signers) {
-    std::printf("%s: %zu %s, hash chain verified", ledgerPath.c_str(), ledger.entries.size(),
-                ledger.entries.size() == 1 ? "entry" : "entries");
+    std::printf("%s: %zu %s, hash chain verified", terminalText(ledgerPath).c_str(),
+                ledger.entries.size(), ledger.entries.size() == 1 ? "entry" : "entries");
     if (drop)
-        std::printf("; replayed on %s%s", drop->source.path.c_str(),
+        std::printf("; replayed on %s%s", terminalText(drop->source.path).c_str(),
                     added.any() ? "" : ", every region's totals reconcile");
     if (added.any())
         std::printf("; %s", added.describe().c_str());
     std::printf("\nhead %s (record it to check this ledger later with --head)\n%s\n",
                 ledger.headHash().c_str(), scopeOfCheck(anchor).c_str());
     if (!ledger.entries.empty())
-        std::printf("signatures: %s\n", ledger::describeSignatures(signers).c_str());
+        std::printf("signatures: %s\n", terminalText(ledger::describeSignatures(signers)).c_str());
 }
 
 }  // namespace
@@ -231,7 +231,7 @@ int runLedger(int argc, char** argv, int first) {
     }
     printVerifyText(ledgerPath, *ledger, drop ? &*drop : nullptr, added, anchor, *signers);
     if (args.has("report"))
-        std::printf("report written to %s\n", args.value("report").c_str());
+        std::printf("report written to %s\n", terminalText(args.value("report")).c_str());
     return kExitOk;
 }
 

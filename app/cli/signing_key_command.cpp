@@ -70,10 +70,11 @@ int runSigningKey(int argc, char** argv, int first) {
                    {"trusted_keys_line", key->publicKeyHex() + " " + holder}});
         return kExitOk;
     }
-    std::printf("%s %s\n", args.has("create") ? "new key written to" : "key", path.c_str());
+    std::printf("%s %s\n", args.has("create") ? "new key written to" : "key",
+                terminalText(path).c_str());
     std::printf("public key, for others' trusted-keys files (%s):\n%s %s\n",
-                ledger::defaultTrustedKeysPath().c_str(), key->publicKeyHex().c_str(),
-                holder.c_str());
+                terminalText(ledger::defaultTrustedKeysPath()).c_str(), key->publicKeyHex().c_str(),
+                terminalText(holder).c_str());
     return kExitOk;
 }
 

@@ -537,4 +537,35 @@ TEST_F(LedgerCli, SignedDecisionsNameTheirSignerWhenTheKeyIsTrusted) {
     EXPECT_EQ(v["signatures"]["signed"][0]["key"], keyPrefix);
 }
 
+// Issue 19: terminal control characters in codes, names and paths are never echoed raw by
+// decide, apply or ledger (an escape sequence could rewrite the analyst's screen).
+TEST_F(LedgerCli, ControlCharactersInPathsAndAuthorsNeverReachTheTerminal) {
+    const fs::path hostileDrop = dir / "rel\x1b[2Jease.csv";
+    const fs::path hostileLedger = dir / "dec\x1b]0;owned\x07.jsonl";
+    fs::copy_file(drop, hostileDrop);
+    const std::string d = quote(hostileDrop.string());
+    const std::string l = quote(hostileLedger.string());
+    const auto clean = [](const CliRun& r) {
+        return r.out.find_first_of("\x1b\x07") == std::string::npos &&
+               r.err.find_first_of("\x1b\x07") == std::string::npos;
+    };
+    CliRun decided = cli("decide " + l + " --drop " + d +
+                         " accept --region N7 --measure cases --days 2026-03-01:2026-03-04"
+                         " --author " +
+                         quote("\x1b[31mmallory") + " --reason checked");
+    ASSERT_EQ(decided.code, 0) << decided.err;
+    EXPECT_TRUE(clean(decided)) << decided.out;
+    CliRun applied =
+        cli("apply " + d + " --ledger " + l + " --out " + quote((dir / "out\x1b[1m.csv").string()));
+    ASSERT_EQ(applied.code, 0) << applied.err;
+    EXPECT_TRUE(clean(applied)) << applied.out;
+    CliRun verified = cli("ledger " + l + " --verify --drop " + d + " --report " +
+                          quote((dir / "audit\x1b[5m.md").string()));
+    ASSERT_EQ(verified.code, 0) << verified.err;
+    EXPECT_TRUE(clean(verified)) << verified.out;
+    CliRun refused = cli("ledger " + quote((dir / "missing\x1b[8m.jsonl").string()) + " --verify");
+    EXPECT_EQ(refused.code, 1);
+    EXPECT_TRUE(clean(refused)) << refused.err;
+}
+
 }  // namespace

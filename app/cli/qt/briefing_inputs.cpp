@@ -123,7 +123,8 @@ std::optional<BriefingSources> loadBriefingSources(const ParsedArgs& args, const
     }
     auto fitOptions = fitOptionsFrom(args, inputs->drop, fitByDefault);
     if (!fitOptions) {
-        std::fprintf(stderr, "siftwave-cli %s: %s\n", command, fitOptions.error().message.c_str());
+        std::fprintf(stderr, "siftwave-cli %s: %s\n", command,
+                     terminalText(fitOptions.error().message).c_str());
         exitCode = kExitUsage;
         return std::nullopt;
     }

@@ -54,7 +54,7 @@ void printHelp() {
 }
 
 int usageError(const std::string& message) {
-    std::fprintf(stderr, "siftwave-cli figure: %s\n", message.c_str());
+    std::fprintf(stderr, "siftwave-cli figure: %s\n", terminalText(message).c_str());
     return kExitUsage;
 }
 
@@ -122,8 +122,8 @@ std::optional<std::vector<report::FigureSpec>> buildFigures(const ParsedArgs& ar
             return std::nullopt;
         }
         if (!spec->fitError.empty())
-            std::fprintf(stderr, "siftwave-cli figure: %s: no fit drawn: %s\n", code.c_str(),
-                         spec->fitError.c_str());
+            std::fprintf(stderr, "siftwave-cli figure: %s: no fit drawn: %s\n",
+                         terminalText(code).c_str(), terminalText(spec->fitError).c_str());
         figures.push_back(std::move(spec.value()));
     }
     return figures;
@@ -174,7 +174,7 @@ public:
         entry["regions"] = codes;
         m_written.push_back(entry);
         if (!m_json)
-            std::printf("wrote %s\n", path.toLocal8Bit().constData());
+            std::printf("wrote %s\n", terminalText(path.toStdString()).c_str());
         return true;
     }
     const nlohmann::json& written() const { return m_written; }

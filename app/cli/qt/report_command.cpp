@@ -30,7 +30,7 @@ std::vector<FlagSpec> reportFlags() {
 }
 
 int usageError(const std::string& message) {
-    std::fprintf(stderr, "siftwave-cli report: %s\n", message.c_str());
+    std::fprintf(stderr, "siftwave-cli report: %s\n", terminalText(message).c_str());
     return kExitUsage;
 }
 
@@ -103,8 +103,9 @@ int runReport(int argc, char** argv, int first) {
                    {"findings", briefing->findings.total},
                    {"chain_verified", briefing->chainVerified}});
     } else {
-        std::printf("wrote %s (%zu regions, %zu ledger entries)\n", out.toLocal8Bit().constData(),
-                    briefing->figures.size(), briefing->ledger.size());
+        std::printf("wrote %s (%zu regions, %zu ledger entries)\n",
+                    terminalText(out.toStdString()).c_str(), briefing->figures.size(),
+                    briefing->ledger.size());
     }
     return kExitOk;
 }
