@@ -87,7 +87,11 @@ Result<ProjectFile> readProjectFile(const std::string& path) {
     auto bytes = detail::readWholeFile(path);
     if (!bytes)
         return bytes.error();
-    json j = json::parse(*bytes, nullptr, false);
+    return parseProjectFile(*bytes, path);
+}
+
+Result<ProjectFile> parseProjectFile(std::string_view bytes, const std::string& path) {
+    json j = json::parse(bytes.begin(), bytes.end(), nullptr, false);
     if (j.is_discarded() || !j.is_object())
         return projectError(path, "the project file is not a JSON object");
     if (j.value("format", std::string()) != "siftwave-project") {

@@ -20,6 +20,7 @@
 #include <map>
 #include <optional>
 #include <string>
+#include <string_view>
 
 namespace siftwave::ledger {
 
@@ -58,6 +59,8 @@ struct ProjectFile {
 
 Status writeProjectFile(const std::string& path, const ProjectFile& project);
 Result<ProjectFile> readProjectFile(const std::string& path);
+/// Parses project file bytes; `path` names the file in messages.
+Result<ProjectFile> parseProjectFile(std::string_view bytes, const std::string& path);
 
 /// `relative` resolved against the folder of `projectPath` (absolute paths unchanged).
 std::string resolveProjectPath(const std::string& projectPath, const std::string& relative);
