@@ -137,6 +137,21 @@ TEST(CliInspect, ControlCharactersInCodesNeverReachTheTerminal) {
     // An error message quoting the code is escaped too.
     const CliRun bad = run("fit " + file.string() + " --region nowhere");
     EXPECT_TRUE(clean(bad.err)) << bad.err;
+    // JSON carries the code exactly, its control characters escaped (RFC 8259, section 7):
+    // no raw control byte in the output, the same bytes after a parse.
+    for (const std::string& command : {std::string("inspect --json "), std::string("scan --json "),
+                                       std::string("fit --json --all ")}) {
+        const CliRun j = run(command + file.string());
+        EXPECT_TRUE(clean(j.out)) << command << j.out;
+        if (command != "scan --json ") {  // no finding on this series: no code in the output
+            EXPECT_NE(j.out.find("A\\u001b[2J\\u0007\\u009b"), std::string::npos)
+                << command << j.out;
+        }
+        EXPECT_FALSE(nlohmann::json::parse(j.out, nullptr, false).is_discarded()) << command;
+    }
+    const nlohmann::json inspected =
+        nlohmann::json::parse(run("inspect --json " + file.string()).out);
+    EXPECT_EQ(inspected["region_codes"][0], "A\x1b[2J\x07\xc2\x9b");
 }
 
 TEST(CliInspect, PlainTextSaysWhatWasRead) {

@@ -14,8 +14,12 @@
 #include "widgets/export/report_writer.h"
 #include "widgets/export/svg_document.h"
 
+#include "siftwave/fit/batch.h"
+#include "siftwave/fit/fit_export.h"
+
 #include <QDir>
 #include <QFile>
+#include <QProcess>
 #include <QRegularExpression>
 #include <QSet>
 #include <QTemporaryDir>
@@ -226,6 +230,54 @@ private Q_SLOTS:
         for (auto it = svg.globalMatch(page); it.hasNext(); ++parsed)
             checkSvgIsInert(it.next().captured(0).toUtf8(), QStringLiteral("inline figure"));
         QCOMPARE(parsed, static_cast<int>(kHostileCodes.size()));
+    }
+
+    // The PDF figure and briefing: the PDF parses (poppler's pdftotext, a reference reader from
+    // Debian's poppler-utils), the names come back as text, and the file holds no action a viewer
+    // could run: no JavaScript, launch, open or URI action (ISO 32000-1:2008, section 12.6.4).
+    void thePdfBriefingParsesAndCarriesNoActions() {
+        const ledger::Cleaned cleaned(m_drop);
+        const ledger::Ledger ledger;
+        report::BriefingRequest request;
+        request.regionRegister = &m_register;
+        request.exportDate = "2026-12-04";
+        request.regions = kHostileCodes;
+        request.title = "<script>alert('title')</script> /JavaScript (x) \\";
+        Result<report::BriefingReport> briefing =
+            report::buildBriefing(m_drop, ledger, cleaned, request);
+        QVERIFY2(briefing.ok(), briefing.ok() ? "" : briefing.error().describe().c_str());
+        const QString path = m_dir.filePath(QStringLiteral("brief.pdf"));
+        const Status s = widgets::writeBriefingReport(path, *briefing);
+        QVERIFY2(s.ok(), s.ok() ? "" : s.error().describe().c_str());
+        const QByteArray bytes = readAll(path);
+        for (const char* action : {"/JavaScript", "/JS ", "/JS(", "/Launch", "/OpenAction", "/URI",
+                                   "/AA", "/EmbeddedFile"})
+            QVERIFY2(!bytes.contains(action), action);
+        QProcess text;
+        text.start(QStringLiteral("pdftotext"), {path, QStringLiteral("-")});
+        QVERIFY(text.waitForFinished(60000));
+        QCOMPARE(text.exitCode(), 0);
+        const QString extracted = QString::fromUtf8(text.readAllStandardOutput());
+        QVERIFY2(extracted.contains(QLatin1String("Trinidad & Tobago")), qPrintable(extracted));
+        QVERIFY(extracted.contains(QLatin1String("<script>alert('title')</script>")));
+    }
+
+    // CSV (the fit table every CLI --csv uses): each hostile code reads back as one RFC 4180
+    // field, and one that a spreadsheet would run as a formula starts with ' (OWASP, "CSV
+    // Injection", owasp.org/www-community/attacks/CSV_Injection).
+    void csvNeutralisesAndQuotesHostileCodes() {
+        for (const std::string& code : kHostileCodes) {
+            fit::RegionFit row;
+            row.region = code;
+            row.error = makeError(ErrorCode::Numerical, "no fit");
+            const std::string line = fit::fitCsvRow(row);
+            const bool formula = std::string("=+-@\t\r").find(code[0]) != std::string::npos;
+            const std::string bare = (formula ? "'" : "") + code;
+            const bool mustQuote = bare.find_first_of("\",\r\n") != std::string::npos;
+            QVERIFY2(line.rfind(csvField(bare) + ",", 0) == 0 ||
+                         (!mustQuote && line.rfind(bare + ",", 0) == 0),
+                     line.c_str());
+        }
     }
 
     void xmlForbiddenCharactersBecomeTheReplacementCharacter() {
