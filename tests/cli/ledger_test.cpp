@@ -517,7 +517,7 @@ TEST_F(LedgerCli, SignedDecisionsNameTheirSignerWhenTheKeyIsTrusted) {
     const std::string keyPrefix = key["public_key"].get<std::string>().substr(0, 16);
     EXPECT_NE(signedDecision.out.find("signed with key " + keyPrefix), std::string::npos);
     CliRun own = cli("ledger " + L() + " --verify");
-    EXPECT_NE(own.out.find("1 of 1 entry signed by trusted keys (this user's key: 1)"),
+    EXPECT_NE(own.out.find("1 of 1 entry signed by trusted keys (you: 1)"),
               std::string::npos)
         << own.out;
 

@@ -254,7 +254,7 @@ Result<std::vector<TrustedKey>> userTrust(const std::string& trustedPath,
         auto own = SigningKey::load(ownKeyPath);
         if (!own)
             return own.error();
-        keys->push_back(TrustedKey{own->publicKeyHex(), "this user's key"});
+        keys->push_back(TrustedKey{own->publicKeyHex(), "you"});
     }
     return keys;
 }

@@ -71,7 +71,7 @@ struct TrustedKey {
 Result<std::vector<TrustedKey>> readTrustedKeys(const std::string& path);
 
 /// The keys this user trusts: the trusted-keys file's, and the user's own public key (holder
-/// "this user's key") when there is a signing key at `ownKeyPath`.
+/// "you") when there is a signing key at `ownKeyPath`.
 Result<std::vector<TrustedKey>> userTrust(const std::string& trustedPath,
                                           const std::string& ownKeyPath);
 
