@@ -345,6 +345,18 @@ TEST(CliInspect, AYearAndAWeekColumnAreShownAsTheDate) {
 
 }  // namespace
 
+// GCC defines __SANITIZE_ADDRESS__ under AddressSanitizer; clang answers __has_feature.
+#if defined(__SANITIZE_ADDRESS__)
+#define SIFTWAVE_TEST_UNDER_ASAN 1
+#elif defined(__has_feature)
+#if __has_feature(address_sanitizer)
+#define SIFTWAVE_TEST_UNDER_ASAN 1
+#endif
+#endif
+#ifndef SIFTWAVE_TEST_UNDER_ASAN
+#define SIFTWAVE_TEST_UNDER_ASAN 0
+#endif
+
 // Issue 19, "bounded resources": 10,000 regions with rows a century apart asked for 4.3 GB
 // from a 378 KB file. The reader now refuses the table before allocating it, naming the two
 // dates and their lines. The harness enforces the bound: the command runs under a 1 GB
@@ -358,7 +370,7 @@ TEST(CliInspect, ASparseCenturyOfRowsIsRefusedBeforeTheTableIsAllocated) {
     }
     const std::string path = writeDrop("century_apart.csv", text);
     const std::string limited =
-#if defined(__SANITIZE_ADDRESS__)
+#if SIFTWAVE_TEST_UNDER_ASAN
         "";
 #else
         "ulimit -v 1000000; ";

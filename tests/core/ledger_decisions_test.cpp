@@ -10,7 +10,6 @@ namespace {
 
 using namespace siftwave::testing;
 using V = std::vector<std::int64_t>;
-constexpr std::int64_t kNone = -999;  // values(): a cell without a value
 
 class Decisions : public ::testing::Test {
 protected:
