@@ -23,6 +23,8 @@ constexpr Command kCommands[] = {
     {"apply", "replay a ledger on a drop and write the cleaned data", siftwave::cli::runApply},
     {"ledger", "verify a ledger or write its audit report", siftwave::cli::runLedger},
     {"fit", "fit wave curves to one region or all, with 95% intervals", siftwave::cli::runFit},
+    {"transmission", "growth rate, doubling time and R_t per period, with 95% intervals",
+     siftwave::cli::runTransmission},
     {"figure", "draw an annotated briefing figure (PNG, SVG, PDF; needs Qt)",
      siftwave::cli::runFigure},
     {"report", "write the briefing report (PDF, HTML; needs Qt)", siftwave::cli::runReport},
@@ -31,7 +33,7 @@ constexpr Command kCommands[] = {
 void printUsage(std::FILE* to) {
     std::fprintf(to, "usage: siftwave-cli COMMAND [ARGS] [--json]\n\ncommands:\n");
     for (const Command& c : kCommands)
-        std::fprintf(to, "  %-10s %s\n", c.name, c.summary);
+        std::fprintf(to, "  %-12s %s\n", c.name, c.summary);
     std::fprintf(to, "\nRun 'siftwave-cli COMMAND --help' for the options of one command.\n");
 }
 

@@ -30,6 +30,12 @@ std::string serialIntervalForAxis(const TransmissionOptions& o, const TimeAxis& 
 
 }  // namespace detail
 
+TransmissionOptions TransmissionOptions::forCadence(Cadence cadence) {
+    TransmissionOptions o;
+    o.setWindow(cadence == Cadence::Weekly ? 4 : 7);
+    return o;
+}
+
 Status TransmissionOptions::validate(Cadence cadence) const {
     if (auto s = growth.validate(cadence); !s)
         return s;

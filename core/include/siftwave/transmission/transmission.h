@@ -50,6 +50,10 @@ struct TransmissionOptions {
     /// one week (W_0 above).
     double maxWithinPeriodShare = 0.5;
 
+    /// The defaults for a cadence: a window of 7 days for daily counts (Cori et al. 2013's
+    /// weekly windows), 4 weeks for weekly counts (common practice, no source: about a month,
+    /// so that the dispersion has some degrees of freedom).
+    static TransmissionOptions forCadence(Cadence cadence);
     /// Sets the window of both measures (periods).
     void setWindow(int periods) {
         growth.window = periods;
