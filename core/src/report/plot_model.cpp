@@ -295,6 +295,7 @@ Result<PlotModel> buildPlotModel(const Drop& drop, const ledger::Ledger& ledger,
             return s.error();
         model.transmission =
             transmission::estimateTransmission(model.cleaned, model.axis, *request.transmission);
+        model.transmissionGrowthRate = request.transmissionGrowthRate;
     }
 
     addMarks(model, ledger, cleaned);

@@ -136,6 +136,7 @@ struct PlotModel {
     // Growth rate and R_t of the cleaned series (transmission.h), drawn in a panel under the
     // series with transmission::caution; nullopt when not asked for (PlotRequest::transmission).
     std::optional<transmission::TransmissionResult> transmission;
+    bool transmissionGrowthRate = false;  // the panel shows r(t) rather than R_t
 
     int periods() const { return axis.periods(); }
     Date periodStart(int index) const { return axis.periodStart(index); }
@@ -161,6 +162,8 @@ struct PlotRequest {
     /// Estimate the growth rate and R_t of the cleaned series with these options (nullopt:
     /// none). Invalid options for the drop's cadence are a usage error of buildPlotModel.
     std::optional<transmission::TransmissionOptions> transmission;
+    /// The panel shows the growth rate r(t) instead of R_t.
+    bool transmissionGrowthRate = false;
 
     /// Usage errors: no region, invalid fit options.
     Status validate() const;
