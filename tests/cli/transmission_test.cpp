@@ -163,3 +163,59 @@ TEST(CliTransmission, WrongUsageExitsWithTwoAndBadInputWithOne) {
 }
 
 }  // namespace
+
+#if SIFTWAVE_TEST_WITH_QT
+namespace {
+
+std::string slurp(const std::string& path) {
+    std::ifstream in(path, std::ios::binary);
+    return std::string((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+}
+
+// figure and report draw the same panel under the plot (the renderer, siftwave-cli-render), with
+// its caption line and the caution; a malformed serial-interval file stops them as it stops
+// transmission.
+TEST(CliTransmission, FigureAndReportDrawThePanelWithItsCaution) {
+    const std::string svg = siftwave::testing::testTempPath("panel.svg").string();
+    const CliRun figure = siftwave::testing::runShell(
+        std::string(SIFTWAVE_CLI_PATH) + " figure " + kDrop +
+        " --region 1301 --si-mean 4.7 --si-sd 2.9 --out " + svg + " 2>&1");
+    ASSERT_EQ(figure.exitCode, 0) << figure.out;
+    const std::string text = slurp(svg);
+    EXPECT_NE(text.find("R_t, 95% CrI"), std::string::npos);
+    EXPECT_NE(text.find("Lower panel: R_t (Cori et al. 2013"), std::string::npos);
+    const std::string growth = siftwave::testing::testTempPath("growth.svg").string();
+    ASSERT_EQ(
+        siftwave::testing::runShell(std::string(SIFTWAVE_CLI_PATH) + " figure " + kDrop +
+                                    " --region 1301 --transmission r --out " + growth + " 2>&1")
+            .exitCode,
+        0);
+    EXPECT_NE(slurp(growth).find("r per day, 95% CI"), std::string::npos);
+
+    const std::string ledger = siftwave::testing::testTempPath("report.jsonl").string();
+    ASSERT_EQ(
+        std::system((std::string(SIFTWAVE_CLI_PATH) + " decide " + ledger + " --drop " + kDrop +
+                     " exclude --region KV --measure cases --days 2026-07-01:2026-07-03 "
+                     "--reason 'report test' >/dev/null 2>&1")
+                        .c_str()),
+        0);
+    const std::string html = siftwave::testing::testTempPath("brief.html").string();
+    const CliRun report = siftwave::testing::runShell(
+        std::string(SIFTWAVE_CLI_PATH) + " report " + kDrop + " --ledger " + ledger +
+        " --si-mean 4.7 --si-sd 2.9 --out " + html + " 2>&1");
+    ASSERT_EQ(report.exitCode, 0) << report.out;
+    const std::string page = slurp(html);
+    EXPECT_NE(page.find("<h3>Transmission</h3>"), std::string::npos);
+    EXPECT_NE(page.find("Do not act on them alone"), std::string::npos);
+
+    const std::string bad = siftwave::testing::testTempPath("bad_si_figure.csv").string();
+    std::ofstream(bad) << "day,weight\n0,0\n1,x\n";
+    const CliRun refused =
+        siftwave::testing::runShell(std::string(SIFTWAVE_CLI_PATH) + " figure " + kDrop +
+                                    " --region 1301 --si-file " + bad + " --out " + svg + " 2>&1");
+    EXPECT_EQ(refused.exitCode, 1);
+    EXPECT_NE(refused.out.find(bad + ":3:3"), std::string::npos) << refused.out;
+}
+
+}  // namespace
+#endif

@@ -2,17 +2,20 @@
 // with its band and the line R = 1, r(t) as the second choice, recomputed when a decision is
 // applied, its time axis aligned with the series plot's, and the caution beside it.
 // SIFTWAVE_SAVE_PNG=<path> saves the window after the decision, to look at.
+#include "export_figure_action.h"
 #include "main_window.h"
 #include "sample_drop.h"
 #include "sample_window.h"
 #include "transmission_controller.h"
 
 #include "widgets/common/workbench.h"
+#include "widgets/export/figure_export_dialog.h"
 #include "widgets/plot/qcustomplot_include.h"
 #include "widgets/plot/series_plot.h"
 #include "widgets/plot/transmission_panel.h"
 #include "widgets/transmission/transmission_pane.h"
 
+#include <QFile>
 #include <QLabel>
 #include <QTemporaryDir>
 #include <QTest>
@@ -101,6 +104,30 @@ private Q_SLOTS:
             QTest::qWait(50);
             m_window->grab().save(QString::fromLocal8Bit(png));
         }
+    }
+
+    // File > Export figure hands the dialog the panel as shown: the figure has it under the plot
+    // (its axis label), its caption line and the caution.
+    void anExportedFigureHasThePanelAsShown() {
+        m_window->transmissionPane()->setSerialInterval(4.7, 2.9);
+        auto inputs = siftwave::gui::figureExportInputs(*m_window);
+        QVERIFY(inputs.transmission && inputs.transmission->serialInterval);
+        QVERIFY(!inputs.transmissionGrowthRate);
+        siftwave::widgets::FigureExportDialog dialog(inputs);
+        const QString svg = m_dir.filePath(QStringLiteral("panel-1301.svg"));
+        dialog.setRegions({QStringLiteral("1301")});
+        dialog.setOutputPath(svg);
+        auto written = dialog.exportFigures();
+        QVERIFY2(written.ok(), written.ok() ? "" : written.error().describe().c_str());
+        QFile file(svg);
+        QVERIFY(file.open(QIODevice::ReadOnly));
+        const QString text = QString::fromUtf8(file.readAll());
+        QVERIFY(text.contains(QStringLiteral("R_t, 95% CrI")));
+        QVERIFY(text.contains(QStringLiteral("Lower panel: R_t (Cori et al. 2013")));
+        QVERIFY(text.contains(QStringLiteral("Do not act on them alone")));
+        // Without a serial interval and with R_t chosen, no panel travels with the figure.
+        m_window->transmissionPane()->setSerialInterval(0, 2);
+        QVERIFY(!siftwave::gui::figureExportInputs(*m_window).transmission);
     }
 
     void invalidSettingsAreShownNotApplied() {
