@@ -113,6 +113,7 @@ MainWindow::MainWindow(Options options, QWidget* parent)
     buildDocks();
     buildActions();
     buildControllers();
+    m_projectControl->setTransmission(m_transmissionControl);
 
     m_progress->setMaximumWidth(180);
     m_progress->setTextVisible(false);

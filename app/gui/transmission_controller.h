@@ -5,6 +5,7 @@
 // change, and shows them in the panel under the series plot. Keeps the options it used, so that
 // an exported figure shows the same panel.
 
+#include "siftwave/ledger/project.h"
 #include "siftwave/transmission/transmission.h"
 #include "widgets_fwd.h"
 
@@ -27,6 +28,11 @@ public:
     void refresh(const QString& region);
     /// The options of the panel shown (nullopt when the settings are invalid or no drop is open).
     const std::optional<transmission::TransmissionOptions>& options() const { return m_options; }
+    /// Shows a project's transmission settings and measure (keys "transmission.*" of its extra
+    /// map; a project without them gets the defaults).
+    void restoreChoices(const ledger::ProjectFile& project);
+    /// Writes the settings and the measure shown into a project.
+    void storeChoices(ledger::ProjectFile& project) const;
     /// How long the last refresh took on the GUI thread (milliseconds).
     double lastRefreshMilliseconds() const { return m_lastMs; }
 

@@ -130,6 +130,30 @@ private Q_SLOTS:
         QVERIFY(!siftwave::gui::figureExportInputs(*m_window).transmission);
     }
 
+    // A project keeps the settings and the measure shown (its extra map, "transmission.*").
+    void aProjectKeepsTheSettings() {
+        auto* pane = m_window->transmissionPane();
+        siftwave::widgets::TransmissionPane::Choices chosen;
+        chosen.window = 14;
+        chosen.siMean = 6.5;
+        chosen.siSd = 3.25;
+        chosen.priorMean = 2.0;
+        chosen.priorSd = 1.0;
+        chosen.weekday = true;
+        pane->setChoices(chosen);
+        m_window->transmissionPanel()->chooseMeasure(TransmissionMeasure::GrowthRate);
+        siftwave::ledger::ProjectFile project;
+        m_window->transmissionController()->storeChoices(project);
+        QCOMPARE(project.extra["transmission.si_mean"], std::string("6.5"));
+        pane->setChoices({});
+        m_window->transmissionPanel()->chooseMeasure(TransmissionMeasure::ReproductionNumber);
+        m_window->transmissionController()->restoreChoices(project);
+        QVERIFY(pane->choices() == chosen);
+        QCOMPARE(m_window->transmissionPanel()->measure(), TransmissionMeasure::GrowthRate);
+        QVERIFY(m_window->transmissionController()->options());
+        QCOMPARE(m_window->transmissionController()->options()->cori.window, 14);
+    }
+
     void invalidSettingsAreShownNotApplied() {
         m_window->transmissionPane()->setWeekdayTerms(true);  // needs a window of 14 days
         auto* panel = m_window->transmissionPanel();

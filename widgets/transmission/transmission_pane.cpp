@@ -105,6 +105,31 @@ Result<transmission::TransmissionOptions> TransmissionPane::options(Cadence cade
     return o;
 }
 
+TransmissionPane::Choices TransmissionPane::choices() const {
+    Choices c;
+    c.window = m_window->value() > 2 ? m_window->value() : 0;
+    c.siMean = m_siMean->value() > m_siMean->minimum() ? m_siMean->value() : 0.0;
+    c.siSd = m_siSd->value();
+    c.siFile = m_siFile->text();
+    c.priorMean = m_priorMean->value();
+    c.priorSd = m_priorSd->value();
+    c.weekday = m_weekday->isChecked();
+    return c;
+}
+
+void TransmissionPane::setChoices(const Choices& c) {
+    {
+        const QSignalBlocker block(this);  // one optionsChanged() for all of them
+        setWindow(c.window);
+        m_siSd->setValue(c.siSd);
+        m_siMean->setValue(c.siMean > 1.0 ? c.siMean : m_siMean->minimum());
+        m_siFile->setText(c.siFile);
+        setPrior(c.priorMean, c.priorSd);
+        setWeekdayTerms(c.weekday);
+    }
+    Q_EMIT optionsChanged();
+}
+
 void TransmissionPane::setSerialInterval(double meanDays, double sdDays) {
     {
         const QSignalBlocker block(this);  // one optionsChanged() for both values

@@ -8,6 +8,7 @@
 #include "siftwave/time_axis.h"
 #include "siftwave/transmission/transmission.h"
 
+#include <QString>
 #include <QWidget>
 
 class QCheckBox;
@@ -29,6 +30,21 @@ public:
     /// serial interval (none while its mean is "not set" and no file is chosen), the prior, the
     /// weekday terms. An unreadable serial-interval file or invalid options are the error.
     Result<transmission::TransmissionOptions> options(Cadence cadence) const;
+
+    /// What the pane shows, as a project keeps it.
+    struct Choices {
+        int window = 0;       // 0: auto
+        double siMean = 0.0;  // <= 1: not set
+        double siSd = 2.0;
+        QString siFile;  // empty: none
+        double priorMean = 5.0;
+        double priorSd = 5.0;
+        bool weekday = false;
+        friend bool operator==(const Choices&, const Choices&) = default;
+    };
+    Choices choices() const;
+    /// Shows `c` (one optionsChanged()).
+    void setChoices(const Choices& c);
 
     /// Sets the gamma serial interval (mean <= 1: not set) or a file (clears the gamma).
     void setSerialInterval(double meanDays, double sdDays);
