@@ -31,10 +31,11 @@ void checkSerialInterval(const Result<transmission::SerialInterval>& si) {
         __builtin_trap();
 }
 
-// Counts from the bytes: a byte is a count, 255 a missing cell; at most 400 periods.
+// Counts from the bytes: a byte is a count, 255 a missing cell; at most 60 periods (a sanitized
+// IRLS per period is slow).
 std::vector<double> countsOf(const std::uint8_t* data, std::size_t size) {
     std::vector<double> counts;
-    for (std::size_t i = 0; i < size && counts.size() < 400; ++i)
+    for (std::size_t i = 0; i < size && counts.size() < 60; ++i)
         counts.push_back(data[i] == 255 ? std::numeric_limits<double>::quiet_NaN()
                                         : static_cast<double>(data[i]) * (1 + data[i] % 7));
     return counts;
