@@ -21,6 +21,7 @@ packages=(
     cmake ninja-build g++ pkg-config
     qt6-base-dev qt6-svg-dev libqcustomplot-dev libgl-dev
     libeigen3-dev libboost-date-time-dev libboost-dev nlohmann-json3-dev libssl-dev
+    libzip-dev libexpat1-dev
     googletest libgtest-dev libbenchmark-dev
     poppler-utils fonts-dejavu-core python3
 )
