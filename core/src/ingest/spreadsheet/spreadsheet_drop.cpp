@@ -104,6 +104,15 @@ Status writeTable(Workbook& book, ChosenSheet& chosen, const std::string& path, 
     }
     const TablePlan plan = planTable(chosen.head, chosen.merges);
     firstColumn = plan.firstColumn;
+    if (plan.lastColumn == plan.firstColumn) {
+        Error e = makeError(ErrorCode::Layout,
+                            "sheet '" + name +
+                                "' holds a single column, not a table of dates, regions and "
+                                "counts; pick another with --sheet (sheets: " +
+                                sheetList(book.sheetNames()) + ")");
+        e.file = path;
+        return e;
+    }
     CsvTextWriter writer(plan, csv);
     std::vector<MergedRange> ignored;
     if (Status s = book.readRows(chosen.index, writer, ignored); !s)
@@ -170,6 +179,9 @@ std::optional<Result<Drop>> readSpreadsheetDrop(std::string_view bytes, const st
         Error e = drop.error();
         e.file = path;
         e.cell = sourcePlace(place, e.line, e.column);
+        for (const Warning& note : notes)  // what the sheet said of that cell (an error value)
+            if (e.line > 0 && note.line == e.line && note.column == e.column)
+                e.message += " (" + note.message + ")";
         return Result<Drop>(std::move(e));
     }
     nameTheWorkbook(*drop, bytes, path, format, book, chosen->index, firstColumn);
