@@ -67,7 +67,7 @@ Error ZipArchive::fail(std::string message) const {
 }
 
 Status ZipArchive::checkDeclared(std::int64_t index, std::string_view name,
-                                 std::uint64_t& compressed) {
+                                 std::uint64_t& compressed, std::uint64_t& declared) {
     zip_stat_t st;
     zip_stat_init(&st);
     if (zip_stat_index(m_zip, static_cast<zip_uint64_t>(index), 0, &st) != 0)
@@ -76,7 +76,7 @@ Status ZipArchive::checkDeclared(std::int64_t index, std::string_view name,
         return fail("the workbook is encrypted (its part " + std::string(name) +
                     " is password-protected); save an unprotected copy or the sheet as CSV");
     compressed = (st.valid & ZIP_STAT_COMP_SIZE) ? st.comp_size : 0;
-    const std::uint64_t declared = (st.valid & ZIP_STAT_SIZE) ? st.size : 0;
+    declared = (st.valid & ZIP_STAT_SIZE) ? st.size : m_limits.maxPartBytes;
     if (declared > m_limits.maxPartBytes || m_inflated + declared > m_limits.maxTotalBytes)
         return fail("the workbook part " + std::string(name) + " declares " + mib(declared) +
                     " unpacked, more than the " + mib(m_limits.maxPartBytes) + " per part (" +
@@ -96,8 +96,8 @@ Status ZipArchive::stream(std::string_view name,
     const zip_int64_t index = zip_name_locate(m_zip, part.c_str(), 0);
     if (index < 0)
         return fail("the workbook has no part " + part + "; it is not a complete workbook");
-    std::uint64_t compressed = 0;
-    if (Status s = checkDeclared(index, part, compressed); !s)
+    std::uint64_t compressed = 0, declared = 0;
+    if (Status s = checkDeclared(index, part, compressed, declared); !s)
         return s;
     zip_file_t* file = zip_fopen_index(m_zip, static_cast<zip_uint64_t>(index), 0);
     if (!file)
@@ -117,7 +117,8 @@ Status ZipArchive::stream(std::string_view name,
             break;
         inflated += static_cast<std::uint64_t>(got);
         m_inflated += static_cast<std::uint64_t>(got);
-        if (inflated > m_limits.maxPartBytes || m_inflated > m_limits.maxTotalBytes ||
+        if (inflated > declared || inflated > m_limits.maxPartBytes ||
+            m_inflated > m_limits.maxTotalBytes ||
             inflated > m_limits.ratioAllowance + m_limits.maxRatio * compressed) {
             result = fail("the workbook part " + part + " unpacks to more than its declared " +
                           "size or the limits a drop may unpack to; it looks like a ZIP bomb");

@@ -51,7 +51,9 @@ public:
 
 private:
     ZipArchive(zip* archive, std::string path, ArchiveLimits limits);
-    Status checkDeclared(std::int64_t index, std::string_view name, std::uint64_t& compressed);
+    /// The part's declared (unpacked) and compressed sizes, refused beyond the limits.
+    Status checkDeclared(std::int64_t index, std::string_view name, std::uint64_t& compressed,
+                         std::uint64_t& declared);
 
     zip* m_zip;
     std::string m_path;
