@@ -4,7 +4,7 @@
 // office:date-value, boolean office:boolean-value, string (and time) the cell's text paragraphs.
 // Repeats (table:number-rows-repeated, table:number-columns-repeated) are expanded only for
 // cells that hold something, and never beyond a sheet's 1,048,576 rows and 16,384 columns nor
-// kMaxExpandedCells in all; a merged cell is table:number-columns-spanned / -rows-spanned.
+// kMaxExpandedCells copies in all; a merged cell is table:number-columns-spanned / -rows-spanned.
 #include "ingest/spreadsheet/workbook_open.h"
 #include "ingest/spreadsheet/xml_stream.h"
 
@@ -15,7 +15,9 @@ namespace siftwave::ingest::detail {
 namespace {
 
 constexpr const char* kContent = "content.xml";
-constexpr std::uint64_t kMaxExpandedCells = 50'000'000;
+// Copies made by repeats (beyond the cells written once): 10 million, more than a drop's
+// runs of equal counts need, few enough to read in seconds.
+constexpr std::uint64_t kMaxExpandedCells = 10'000'000;
 
 std::uint32_t countAttribute(const char** a, std::string_view name) {
     const char* v = attribute(a, name);
@@ -158,11 +160,11 @@ void TableRows::endCell() {
     const std::uint32_t end = static_cast<std::uint32_t>(
         std::min<std::uint64_t>(std::uint64_t{m_column} + m_columnRepeat, kMaxSheetColumns));
     if (filled) {
-        m_expanded += std::uint64_t{end - std::min(end, m_column)} * m_rowRepeat;
+        const std::uint64_t copies = std::uint64_t{end - std::min(end, m_column)} * m_rowRepeat;
+        m_expanded += copies > 0 ? copies - 1 : 0;
         if (m_expanded > kMaxExpandedCells) {
             failure = "sheet " + m_name +
-                      " repeats its cells into more than 50 million cells; "
-                      "it is not read";
+                      " repeats its cells into more than 10 million copies; it is not read";
             return;
         }
         for (std::uint32_t c = m_column; c < end; ++c) {
