@@ -202,6 +202,9 @@ public:
         TableRows rows(index, m_names[index], sink, merges);
         return parseXmlPart(*m_archive, kContent, rows);
     }
+    std::uint64_t partBytes(std::size_t) const override {
+        return m_archive->declaredSize(kContent);
+    }
     Result<std::vector<MergedRange>> mergesOf(std::size_t index) override {
         std::vector<MergedRange> merges;
         struct AllRows final : RowSink {

@@ -62,6 +62,8 @@ public:
     /// Every merged range of sheet `index` (a pass of its own for .xlsx, where they follow the
     /// rows).
     virtual Result<std::vector<MergedRange>> mergesOf(std::size_t index) = 0;
+    /// The unpacked size of the part that holds sheet `index`, as declared (a hint for memory).
+    virtual std::uint64_t partBytes(std::size_t index) const = 0;
 };
 
 /// The date of a spreadsheet serial number (ECMA-376 Part 1, 18.17.4.1): 1900 system, serial 1

@@ -113,6 +113,10 @@ Status writeTable(Workbook& book, ChosenSheet& chosen, const std::string& path, 
         e.file = path;
         return e;
     }
+    // The CSV text is shorter than the sheet's XML: reserved at that size once, it never moves
+    // (and the pages it does not fill are never touched, so they cost no memory).
+    csv.reserve(static_cast<std::size_t>(
+        std::min<std::uint64_t>(book.partBytes(chosen.index), CsvTextWriter::kMaxBytes)));
     CsvTextWriter writer(plan, csv);
     std::vector<MergedRange> ignored;
     if (Status s = book.readRows(chosen.index, writer, ignored); !s)

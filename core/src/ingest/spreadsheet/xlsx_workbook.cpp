@@ -16,6 +16,9 @@ public:
     Status readRows(std::size_t index, RowSink& sink, std::vector<MergedRange>& merges) override {
         return readXlsxSheet(*m_archive, m_book, index, sink, merges, false);
     }
+    std::uint64_t partBytes(std::size_t index) const override {
+        return m_archive->declaredSize(m_book.sheetParts[index]);
+    }
     Result<std::vector<MergedRange>> mergesOf(std::size_t index) override {
         std::vector<MergedRange> merges;
         struct NoRows final : RowSink {

@@ -60,6 +60,14 @@ bool ZipArchive::has(std::string_view name) const {
     return std::find(m_names.begin(), m_names.end(), name) != m_names.end();
 }
 
+std::uint64_t ZipArchive::declaredSize(std::string_view name) const {
+    zip_stat_t st;
+    zip_stat_init(&st);
+    if (zip_stat(m_zip, std::string(name).c_str(), 0, &st) != 0 || !(st.valid & ZIP_STAT_SIZE))
+        return 0;
+    return st.size;
+}
+
 Error ZipArchive::fail(std::string message) const {
     Error e = makeError(ErrorCode::Syntax, std::move(message));
     e.file = m_path;

@@ -46,6 +46,8 @@ public:
     Status stream(std::string_view name, const std::function<bool(std::string_view)>& consume);
     /// A small part whole (styles, relationships), refused beyond `maxBytes`.
     Result<std::string> readWhole(std::string_view name, std::size_t maxBytes);
+    /// The unpacked size a part declares (0 when it is not there); it may lie, see stream().
+    std::uint64_t declaredSize(std::string_view name) const;
     const std::string& path() const { return m_path; }
     Error fail(std::string message) const;
 
