@@ -181,11 +181,14 @@ bool isDateFormat(int numFmtId, std::string_view code) {
 bool parseCellReference(std::string_view reference, std::uint32_t& column, std::uint32_t& row) {
     std::size_t i = 0;
     std::uint64_t col = 0;
-    while (i < reference.size() && std::isalpha(static_cast<unsigned char>(reference[i]))) {
-        col = col * 26 + static_cast<std::uint64_t>(std::toupper(reference[i]) - 'A' + 1);
+    for (; i < reference.size(); ++i) {  // ASCII letters only, no locale
+        const char c = reference[i];
+        const char upper = c >= 'a' && c <= 'z' ? static_cast<char>(c - 'a' + 'A') : c;
+        if (upper < 'A' || upper > 'Z')
+            break;
+        col = col * 26 + static_cast<std::uint64_t>(upper - 'A' + 1);
         if (col > kMaxSheetColumns)
             return false;
-        ++i;
     }
     std::uint64_t r = 0;
     const auto [end, ec] =
