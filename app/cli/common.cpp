@@ -37,6 +37,9 @@ std::vector<FlagSpec> ingestFlagSpecs() {
         {"delimiter", true, false, "C", "field delimiter: ',' ';' '|' or tab (default: detected)"},
         {"header", false, false, "", "the first line is a header (default: detected)"},
         {"no-header", false, false, "", "the first line is data"},
+        {"sheet", true, false, "NAME|N",
+         "a workbook (.xlsx, .ods): the sheet to read, by name or position from 1 (default: the "
+         "first sheet whose first rows hold dates)"},
         {"missing", true, true, "TOKEN",
          "a cell text meaning 'no value', in addition to the empty cell (e.g. --missing NA for "
          "values; never "
@@ -98,6 +101,7 @@ Result<ingest::IngestOptions> ingestOptionsFrom(const ParsedArgs& args) {
         o.header = true;
     if (args.has("no-header"))
         o.header = false;
+    o.sheet = args.value("sheet");
     for (const std::string& token : args.values("missing"))
         o.missingTokens.push_back(token);
     if (Status s = o.validate(); !s)
@@ -154,6 +158,8 @@ nlohmann::json errorToJson(const Error& error) {
         e["region"] = error.region;
     if (!error.date.empty())
         e["date"] = error.date;
+    if (!error.cell.empty())
+        e["cell"] = error.cell;  // a spreadsheet's cell: "data!C14"
     return e;
 }
 

@@ -53,6 +53,17 @@ nlohmann::json inspectJson(const Drop& drop) {
                                     ? nlohmann::json(std::string(1, p.dialect.thousandsSeparator))
                                     : nlohmann::json(nullptr)},
     };
+    if (!p.format.empty()) {
+        // A spreadsheet: the sheet read instead of a text dialect.
+        nlohmann::json& source = j["source"];
+        for (const char* key : {"delimiter", "header", "bom", "line_endings", "decimal_separator",
+                                "thousands_separator"})
+            source.erase(key);
+        source["format"] = p.format;
+        source["sheet"] = p.sheet;
+        source["sheets"] = p.sheets;
+        source["first_column"] = columnLetters(p.firstColumn);
+    }
     j["layout"] = layoutName(p.layout);
     j["columns"] = {
         {"date", p.columns.date.empty() ? nlohmann::json(nullptr) : nlohmann::json(p.columns.date)},
@@ -91,10 +102,33 @@ nlohmann::json inspectJson(const Drop& drop) {
         warnings.push_back(
             {{"message", w.message},
              {"line", w.line > 0 ? nlohmann::json(w.line) : nlohmann::json(nullptr)},
+             {"place", w.line > 0 ? nlohmann::json(sourcePlace(p, w.line, w.column))
+                                  : nlohmann::json(nullptr)},
              {"column", w.column > 0 ? nlohmann::json(w.column) : nlohmann::json(nullptr)}});
     }
     j["warnings"] = warnings;
     return j;
+}
+
+void printDialect(const Dialect& d) {
+    std::printf("dialect     %s delimited, %s, %s line endings%s, decimal '%c'",
+                delimiterLabel(d.delimiter).c_str(), d.header ? "header row" : "no header row",
+                d.crlf ? "CRLF" : "LF", d.bom ? ", UTF-8 byte-order mark" : "", d.decimalSeparator);
+    if (d.thousandsSeparator)
+        std::printf(", thousands '%c'", d.thousandsSeparator);
+    std::printf("\n");
+}
+
+/// A spreadsheet: its format, the sheet read, and every sheet.
+void printSheets(const Provenance& p) {
+    const auto at = std::find(p.sheets.begin(), p.sheets.end(), p.sheet);
+    std::string all;
+    for (std::size_t i = 0; i < p.sheets.size(); ++i)
+        all += (i ? ", " : "") + p.sheets[i];
+    std::printf("format      %s workbook\n", p.format.c_str());
+    std::printf("sheet       %s (sheet %zu of %zu: %s); the table starts in column %s\n",
+                terminalText(p.sheet).c_str(), static_cast<std::size_t>(at - p.sheets.begin()) + 1,
+                p.sheets.size(), terminalText(all).c_str(), columnLetters(p.firstColumn).c_str());
 }
 
 void printText(const Drop& drop) {
@@ -103,13 +137,11 @@ void printText(const Drop& drop) {
     std::printf("file        %s\n", terminalText(p.path).c_str());
     std::printf("bytes       %llu\n", static_cast<unsigned long long>(p.bytes));
     std::printf("sha256      %s\n", p.sha256.c_str());
-    std::printf("dialect     %s delimited, %s, %s line endings%s, decimal '%c'",
-                delimiterLabel(p.dialect.delimiter).c_str(),
-                p.dialect.header ? "header row" : "no header row", p.dialect.crlf ? "CRLF" : "LF",
-                p.dialect.bom ? ", UTF-8 byte-order mark" : "", p.dialect.decimalSeparator);
-    if (p.dialect.thousandsSeparator)
-        std::printf(", thousands '%c'", p.dialect.thousandsSeparator);
-    std::printf("\nlayout      %s\n", layoutName(p.layout));
+    if (p.format.empty())
+        printDialect(p.dialect);
+    else
+        printSheets(p);
+    std::printf("layout      %s\n", layoutName(p.layout));
     if (!p.columns.date.empty())
         std::printf("date column %s (%s)\n", terminalText(p.columns.date).c_str(),
                     p.dateFormat.c_str());
@@ -151,15 +183,15 @@ void printText(const Drop& drop) {
     for (const Warning& w : drop.warnings) {
         std::string where;
         if (w.line > 0)
-            where = "line " + std::to_string(w.line) +
-                    (w.column > 0 ? ", column " + std::to_string(w.column) : "") + ": ";
+            where = sourcePlace(p, w.line, w.column) + ": ";
         std::printf("  - %s%s\n", where.c_str(), terminalText(w.message).c_str());
     }
 }
 
 std::string usageText(const std::vector<FlagSpec>& specs) {
     return "usage: siftwave-cli inspect FILE [ingest flags] [--json]\n\n"
-           "Reads a data drop (CSV) and reports what was read: the dialect, the layout, the "
+           "Reads a data drop (CSV, .xlsx or .ods) and reports what was read: the dialect or the\n"
+           "sheet (and every sheet of a workbook), the layout, the "
            "columns\n"
            "used, the regions (codes exactly as written), the calendar, the cells by state, "
            "duplicate\n"

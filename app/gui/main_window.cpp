@@ -450,7 +450,8 @@ void MainWindow::buildHelpMenu() {
 QString MainWindow::askForDropFile(const QString& title) {
     QString start = m_options.rememberLayout ? settings::lastDirectory() : QString();
     const QString path = QFileDialog::getOpenFileName(
-        this, title, start, tr("Data drops (*.csv *.tsv *.txt);;All files (*)"));
+        this, title, start,
+        tr("Data drops (*.csv *.tsv *.txt *.xlsx *.ods);;Workbooks (*.xlsx *.ods);;All files (*)"));
     if (!path.isEmpty() && m_options.rememberLayout)
         settings::setLastDirectory(QFileInfo(path).absolutePath());
     return path;
@@ -829,13 +830,24 @@ void MainWindow::updateReleaseSummary() {
     QStringList measures;
     for (const std::string& m : drop.measures)
         measures << QString::fromStdString(m).toHtmlEscaped();
+    QStringList sheetNames;  // a workbook's sheets
+    for (const std::string& s : src.sheets)
+        sheetNames << text(s);
     QString html = QStringLiteral("<table cellspacing='0'>");
     html += row(tr("File"), text(src.path));
     html += row(tr("Size"), tr("%1 bytes").arg(c.toString(static_cast<qulonglong>(src.bytes))));
     html += row(tr("SHA-256"), QStringLiteral("<tt>%1</tt>").arg(text(src.sha256)));
-    html += row(tr("Layout"), tr("%1, delimiter “%2”, %3")
+    if (src.format.empty())
+        html +=
+            row(tr("Layout"), tr("%1, delimiter “%2”, %3")
                                   .arg(QString::fromLatin1(layoutName(src.layout)), delimiter,
                                        src.dialect.header ? tr("with header") : tr("no header")));
+    else
+        html += row(
+            tr("Layout"),
+            tr("%1, sheet “%2” of the %3 workbook (sheets: %4), table from column %5")
+                .arg(QString::fromLatin1(layoutName(src.layout)), text(src.sheet), text(src.format),
+                     sheetNames.join(QStringLiteral(", ")), text(columnLetters(src.firstColumn))));
     html += row(tr("Dates"), tr("%1 to %2 (%3 days, read as %4)")
                                  .arg(QString::fromStdString(drop.axis.first().iso()),
                                       QString::fromStdString(drop.axis.lastStart().iso()))
@@ -864,9 +876,7 @@ void MainWindow::updateReleaseSummary() {
         const std::size_t shown = std::min<std::size_t>(drop.warnings.size(), 25);
         for (std::size_t i = 0; i < shown; ++i) {
             const Warning& w = drop.warnings[i];
-            QString where = w.line ? tr("line %1").arg(w.line) : QString();
-            if (w.column)
-                where += tr(", column %1").arg(w.column);
+            const QString where = QString::fromStdString(sourcePlace(src, w.line, w.column));
             html += QStringLiteral("<li>%1%2</li>")
                         .arg(where.isEmpty() ? QString() : where + QStringLiteral(": "),
                              text(w.message));

@@ -12,6 +12,8 @@
 // case runs first and each case reports the peak reached so far.
 #include "siftwave/ingest/ingest.h"
 
+#include "bench_long_drop.h"
+
 #include <benchmark/benchmark.h>
 #include <sys/resource.h>
 #include <unistd.h>
@@ -24,57 +26,7 @@
 
 namespace {
 
-constexpr int kRegions = 3000;
-constexpr int kDays = 1000;
-
-std::string generate(int measures, bool weekly) {
-    const std::filesystem::path path =
-        std::filesystem::temp_directory_path() /
-        ("siftwave_ingest_bench_" + std::to_string(measures) + (weekly ? "w" : "d") + "_" +
-         std::to_string(::getpid()) + ".csv");
-    std::FILE* f = std::fopen(path.c_str(), "wb");
-    if (!f)
-        return {};
-    std::fputs(measures == 1 ? "date,region,cases\n" : "date,region,cases,deaths\n", f);
-    std::uint64_t state = 0x9E3779B97F4A7C15ull;  // a fixed xorshift seed: the same file every run
-    auto next = [&] {
-        state ^= state << 13;
-        state ^= state >> 7;
-        state ^= state << 17;
-        return state;
-    };
-    // 2023-01-02 is a Monday: weekly dates then start ISO weeks (ISO 8601).
-    const siftwave::Date first = *siftwave::Date::fromIso(weekly ? "2023-01-02" : "2023-01-01");
-    char line[96];
-    for (int d = 0; d < kDays; ++d) {
-        const std::string date = (first + (weekly ? 7 * d : d)).iso();
-        for (int r = 0; r < kRegions; ++r) {
-            const unsigned cases = static_cast<unsigned>(next() % 400);
-            int n;
-            if (measures == 1) {
-                n = std::snprintf(line, sizeof line, "%s,D%04d,%u\n", date.c_str(), r, cases);
-            } else {
-                n = std::snprintf(line, sizeof line, "%s,D%04d,%u,%u\n", date.c_str(), r, cases,
-                                  static_cast<unsigned>(next() % 5));
-            }
-            std::fwrite(line, 1, static_cast<std::size_t>(n), f);
-        }
-    }
-    std::fclose(f);
-    return path.string();
-}
-
-double processCpuSeconds() {
-    timespec ts{};
-    clock_gettime(CLOCK_PROCESS_CPUTIME_ID, &ts);
-    return static_cast<double>(ts.tv_sec) + static_cast<double>(ts.tv_nsec) * 1e-9;
-}
-
-double peakRssBytes() {
-    rusage usage{};
-    getrusage(RUSAGE_SELF, &usage);
-    return static_cast<double>(usage.ru_maxrss) * 1024.0;  // ru_maxrss is in KiB on Linux
-}
+using namespace siftwave::bench;
 
 void ingestLong(benchmark::State& state) {
     const int measures = static_cast<int>(state.range(0));

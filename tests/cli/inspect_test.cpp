@@ -15,7 +15,10 @@
 #include <cstdlib>
 #include <filesystem>
 #include <fstream>
+#include <regex>
 #include <string>
+#include <utility>
+#include <vector>
 
 namespace {
 
@@ -341,6 +344,81 @@ TEST(CliInspect, AYearAndAWeekColumnAreShownAsTheDate) {
         << e.err;
     std::filesystem::remove(path);
     std::filesystem::remove(bad);
+}
+
+/// The inspect text from its "layout" line on: all but the source block (file, bytes, sha256,
+/// and the dialect or the sheet).
+std::string afterSourceBlock(const std::string& text) {
+    const std::size_t at = text.find("\nlayout ");
+    return at == std::string::npos ? std::string() : text.substr(at + 1);
+}
+
+/// A workbook's places written as a CSV's: "data!4476:4476" as "line 4476", "data!C8" as
+/// "line 8, column 3" (a sheet row is a CSV line, a table column a CSV field).
+std::string placesAsLines(std::string text) {
+    text = std::regex_replace(text, std::regex("data!([0-9]+):[0-9]+"), "line $1");
+    std::smatch m;
+    while (std::regex_search(text, m, std::regex("data!([A-Z])([0-9]+)"))) {
+        const int column = m[1].str()[0] - 'A' + 1;
+        text.replace(static_cast<std::size_t>(m.position(0)), static_cast<std::size_t>(m.length(0)),
+                     "line " + m[2].str() + ", column " + std::to_string(column));
+    }
+    return text;
+}
+
+nlohmann::json withoutSourceAndPlaces(nlohmann::json j) {
+    j.erase("source");
+    for (auto& w : j["warnings"])
+        w.erase("place");
+    return j;
+}
+
+TEST(CliInspect, TheSameDropAsCsvXlsxAndOdsPrintsTheSameApartFromTheSource) {
+    // Workbooks made from the CSV files by openpyxl and odfpy (tests/data/spreadsheets/SOURCES.md):
+    // a weekly drop, a drop whose codes have leading zeros, a daily drop with a region "NA".
+    const std::string data = SIFTWAVE_TEST_DATA_DIR;
+    const std::string sheets = data + "/spreadsheets/";
+    const std::vector<std::pair<std::string, std::string>> drops{
+        {data + "/real/fluBYBW_weekly_wide.csv", sheets + "flu_weekly_wide"},
+        {sheets + "flu_weekly_ags.csv", sheets + "flu_weekly_ags"},
+        {std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_current.csv", sheets + "quenmara_current"}};
+    for (const auto& [csvPath, stem] : drops) {
+        const CliRun csv = run("inspect " + csvPath);
+        ASSERT_EQ(csv.exitCode, 0) << csv.err;
+        ASSERT_FALSE(afterSourceBlock(csv.out).empty()) << csv.out;
+        for (const char* ext : {".xlsx", ".ods"}) {
+            const CliRun sheet = run("inspect " + stem + ext);
+            ASSERT_EQ(sheet.exitCode, 0) << sheet.err;
+            EXPECT_EQ(placesAsLines(afterSourceBlock(sheet.out)), afterSourceBlock(csv.out))
+                << stem << ext;
+            EXPECT_NE(sheet.out.find("sheet       data (sheet 1 of 1: data)"), std::string::npos)
+                << sheet.out;
+        }
+        const auto j = nlohmann::json::parse(run("inspect " + stem + ".xlsx --json").out);
+        const auto k = nlohmann::json::parse(run("inspect " + csvPath + " --json").out);
+        EXPECT_EQ(j["source"]["format"], "xlsx");
+        EXPECT_EQ(j["source"]["sheet"], "data");
+        EXPECT_EQ(withoutSourceAndPlaces(j), withoutSourceAndPlaces(k)) << stem;
+    }
+}
+
+TEST(CliInspect, AWorkbookNamesItsSheetsAndItsCells) {
+    const std::string book = std::string(SIFTWAVE_TEST_DATA_DIR) + "/spreadsheets/layout.xlsx";
+    const CliRun r = run("inspect " + book);
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    EXPECT_NE(r.out.find("sheet       data (sheet 2 of 3: notes, data, empty)"), std::string::npos)
+        << r.out;
+    EXPECT_NE(r.out.find("  - data!C8: the cell holds the error value #N/A"), std::string::npos)
+        << r.out;
+    EXPECT_NE(r.out.find("  - data!1:1: a title or note row above the table was skipped"),
+              std::string::npos);
+    const CliRun empty = run("inspect " + book + " --sheet empty");
+    EXPECT_EQ(empty.exitCode, 1);
+    EXPECT_NE(empty.err.find("sheet 'empty' is empty"), std::string::npos) << empty.err;
+    const CliRun bad = run("inspect " + std::string(SIFTWAVE_TEST_DATA_DIR) +
+                           "/spreadsheets/fictitious_day.xlsx --json");
+    EXPECT_EQ(bad.exitCode, 1);
+    EXPECT_EQ(nlohmann::json::parse(bad.out)["error"]["cell"], "data!A3") << bad.out;
 }
 
 }  // namespace

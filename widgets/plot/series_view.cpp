@@ -40,6 +40,7 @@ SeriesView seriesViewOf(const report::PlotModel& model) {
     view.raw = model.raw;
     view.rawState = model.rawState;
     view.sourceLine = model.sourceLine;
+    view.sourceSheet = qs(model.sourceSheet);
     view.cleaned = model.cleaned;
     view.smoothed = model.smoothed;
     view.smoothedLabel = qs(model.smoothedLabel);
@@ -166,7 +167,12 @@ QString hoverText(const SeriesView& view, int day) {
         lines << tr("Raw %1: %2").arg(view.secondMeasure, number(view.second[day]));
     const std::uint32_t line =
         day < static_cast<int>(view.sourceLine.size()) ? view.sourceLine[day] : 0;
-    lines << (line > 0 ? tr("Source line %1").arg(line) : tr("No source row"));
+    if (line == 0)
+        lines << tr("No source row");
+    else if (view.sourceSheet.isEmpty())
+        lines << tr("Source line %1").arg(line);
+    else
+        lines << tr("Source row %1 of sheet %2").arg(line).arg(view.sourceSheet.toHtmlEscaped());
     if (day < static_cast<int>(view.touchedBy.size()) && !view.touchedBy[day].isEmpty()) {
         lines << tr("Ledger:");
         for (const QString& entry : view.touchedBy[day])

@@ -109,7 +109,24 @@ struct Provenance {
     /// The format used: "YYYY-MM-DD", "YYYYMMDD", "DD/MM/YYYY", "MM/DD/YYYY", "YYYY-Www", or
     /// "year+ISO week" / "year+epi week" (a year and a week column).
     std::string dateFormat;
+    /// A spreadsheet drop (.xlsx, .ods): its format ("xlsx", "ods"; empty for CSV), every
+    /// sheet's name in workbook order, the sheet read, and the sheet column (0-based) of the
+    /// table's first column. Its line numbers are the sheet's row numbers and its columns the
+    /// table's columns counted from `firstColumn`, so sourcePlace() names a cell ("data!C14").
+    std::string format;
+    std::vector<std::string> sheets;
+    std::string sheet;
+    std::uint32_t firstColumn = 0;
 };
+
+/// Where a source position is, as a person finds it: "line 14" or "line 14, column 3" for a
+/// CSV drop; "data!C14" (a cell, ECMA-376's sheet!cell reference) or "data!14:14" (a row) for a
+/// spreadsheet drop. Empty when `line` is 0.
+std::string sourcePlace(const Provenance& source, std::uint64_t line, std::uint64_t column = 0);
+
+/// The column letters of a 0-based sheet column: 0 "A", 25 "Z", 26 "AA" (ECMA-376 Part 1,
+/// 18.3.1.4 cell references).
+std::string columnLetters(std::uint64_t column);
 
 /// Something the reader noticed but did not treat as fatal.
 struct Warning {

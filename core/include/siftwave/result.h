@@ -41,6 +41,9 @@ struct Error {
     std::uint64_t column = 0;  // 1-based; 0 when unknown
     std::string region;        // verbatim code, when about one region
     std::string date;          // ISO 8601, when about one day
+    // A spreadsheet's cell or row ("data!C14", "data!14:14"): the place, in place of line and
+    // column, when the problem is in a spreadsheet.
+    std::string cell;
 
     /// "file:line:column: message" with the parts that are known.
     std::string describe() const;

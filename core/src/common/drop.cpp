@@ -1,6 +1,8 @@
 #include "siftwave/drop.h"
 #include "siftwave/region_register.h"
 
+#include <cctype>
+
 namespace siftwave {
 
 const char* cellStateName(CellState state) {
@@ -37,6 +39,48 @@ std::optional<Layout> layoutFromName(std::string_view name) {
     if (name == "dates-across")
         return Layout::DatesAcross;
     return std::nullopt;
+}
+
+std::string columnLetters(std::uint64_t column) {
+    std::string letters;
+    for (std::uint64_t n = column + 1; n > 0; n = (n - 1) / 26)
+        letters.insert(letters.begin(), static_cast<char>('A' + (n - 1) % 26));
+    return letters;
+}
+
+namespace {
+
+/// A sheet name as a cell reference writes it: quoted ('Week 5'!A1) unless letters, digits
+/// and '_' alone (common practice of spreadsheet formulas, no source).
+std::string sheetInReference(const std::string& name) {
+    bool plain = !name.empty();
+    for (char c : name)
+        plain = plain && (std::isalnum(static_cast<unsigned char>(c)) || c == '_' ||
+                          static_cast<unsigned char>(c) >= 0x80);
+    if (plain)
+        return name;
+    std::string out = "'";
+    for (char c : name)
+        out += c == '\'' ? std::string("''") : std::string(1, c);
+    return out + "'";
+}
+
+}  // namespace
+
+std::string sourcePlace(const Provenance& source, std::uint64_t line, std::uint64_t column) {
+    if (line == 0)
+        return {};
+    if (source.format.empty()) {
+        std::string out = "line " + std::to_string(line);
+        if (column > 0)
+            out += ", column " + std::to_string(column);
+        return out;
+    }
+    const std::string row = std::to_string(line);
+    if (column == 0)
+        return sheetInReference(source.sheet) + "!" + row + ":" + row;
+    return sheetInReference(source.sheet) + "!" + columnLetters(source.firstColumn + column - 1) +
+           row;
 }
 
 std::optional<std::size_t> Drop::regionIndex(std::string_view code) const {

@@ -34,7 +34,9 @@ const char* errorCodeName(ErrorCode code) {
 
 std::string Error::describe() const {
     std::string out;
-    if (!file.empty()) {
+    if (!file.empty() && !cell.empty()) {
+        out += file + ": " + cell + ": ";
+    } else if (!file.empty()) {
         out += file;
         if (line > 0) {
             out += ':' + std::to_string(line);

@@ -2,6 +2,7 @@
 #include "ingest/drop_reader.h"
 
 #include "ingest/header_words.h"
+#include "ingest/spreadsheet/spreadsheet_drop.h"
 
 #include <algorithm>
 #include <cctype>
@@ -21,8 +22,8 @@ constexpr int kSampleRecords = 400;
 /// section 2.3.1; "%PDF-", ISO 32000-1 section 7.5.2), with what to do instead.
 std::optional<std::string> packedFormatOf(std::string_view bytes) {
     if (bytes.starts_with(std::string_view("PK\x03\x04", 4))) {
-        return "the file is a ZIP archive, not a CSV text file (an Excel .xlsx or OpenDocument "
-               ".ods workbook is one): save the sheet as CSV (UTF-8), or unzip the file first";
+        return "the file is a ZIP archive that is neither a CSV text file nor a workbook "
+               "(.xlsx, .ods): unzip it first";
     }
     if (bytes.size() >= 2 && static_cast<unsigned char>(bytes[0]) == 0x1F &&
         static_cast<unsigned char>(bytes[1]) == 0x8B) {
@@ -392,8 +393,31 @@ Result<Drop> DropReader::run() {
 
 }  // namespace detail
 
+namespace {
+
+/// A spreadsheet drop, read through the CSV path (spreadsheet/spreadsheet_drop.h); nullopt for
+/// text. --sheet is refused for a CSV file.
+std::optional<Result<Drop>> readAsSpreadsheet(std::string_view bytes, const std::string& path,
+                                              const IngestOptions& options) {
+    std::optional<Result<Drop>> drop = detail::readSpreadsheetDrop(bytes, path, options);
+    if (!drop && !options.sheet.empty()) {
+        Error e = makeError(ErrorCode::Usage,
+                            "--sheet applies to a spreadsheet (.xlsx, .ods), and this file is "
+                            "not one; leave it out");
+        e.file = path;
+        return Result<Drop>(std::move(e));
+    }
+    return drop;
+}
+
+}  // namespace
+
 Result<Drop> parseDrop(std::string_view bytes, const std::string& displayPath,
                        const IngestOptions& options) {
+    if (Status s = options.validate(); !s)
+        return s.error();
+    if (std::optional<Result<Drop>> sheet = readAsSpreadsheet(bytes, displayPath, options))
+        return std::move(*sheet);
     detail::DropReader reader(bytes, displayPath, options, nullptr);
     return reader.run();
 }
@@ -404,6 +428,8 @@ Result<Drop> readDrop(const std::string& path, const IngestOptions& options) {
     detail::InputFile file;
     if (Status s = file.open(path); !s)
         return s.error();
+    if (std::optional<Result<Drop>> sheet = readAsSpreadsheet(file.bytes(), path, options))
+        return std::move(*sheet);
     detail::DropReader reader(file.bytes(), path, options, &file);
     return reader.run();
 }

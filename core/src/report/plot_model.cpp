@@ -254,6 +254,7 @@ Result<PlotModel> buildPlotModel(const Drop& drop, const ledger::Ledger& ledger,
     model.raw = series::countsOf(drop, *measure, *region);
     model.rawState.assign(model.periods(), CellState::Absent);
     model.sourceLine.assign(model.periods(), 0);
+    model.sourceSheet = drop.source.sheet;
     const auto cells = drop.series(*measure, *region);
     for (int d = 0; d < model.periods() && d < static_cast<int>(cells.size()); ++d) {
         model.rawState[d] = cells[static_cast<std::size_t>(d)].state;

@@ -57,6 +57,10 @@ struct IngestOptions {
     std::optional<WeekStart> weekStart;
     /// Weekly: whether a date names the first or the last day of its week (default: as above).
     std::optional<WeekDate> weekDate;
+    /// A spreadsheet drop (.xlsx, .ods): the sheet to read, by name or by 1-based position
+    /// (a name wins when a sheet is named with digits). Default: the first sheet whose first
+    /// rows hold dates. Refused for a CSV file.
+    std::string sheet;
 
     /// Usage errors (unknown date format, a delimiter that is a quote, ...).
     Status validate() const;

@@ -110,6 +110,8 @@ struct PlotModel {
     std::vector<double> raw;
     std::vector<CellState> rawState;
     std::vector<std::uint32_t> sourceLine;
+    /// A spreadsheet drop: its sheet, whose row a source line is ("data"); empty for CSV.
+    std::string sourceSheet;
     std::vector<double> cleaned;   // replay(drop, ledger); NaN where the cell holds no value
     std::vector<double> smoothed;  // centred mean of `cleaned` (series::plotSmoothingWindow)
     std::string smoothedLabel;     // "7-day centred mean (cleaned)", "3-week ..."
