@@ -25,6 +25,8 @@ const char* layoutName(Layout layout) {
             return "dates-down";
         case Layout::DatesAcross:
             return "dates-across";
+        case Layout::CaseList:
+            return "case-list";
     }
     return "long";
 }
@@ -36,6 +38,8 @@ std::optional<Layout> layoutFromName(std::string_view name) {
         return Layout::DatesDown;
     if (name == "dates-across")
         return Layout::DatesAcross;
+    if (name == "case-list")
+        return Layout::CaseList;
     return std::nullopt;
 }
 

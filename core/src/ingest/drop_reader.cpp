@@ -1,6 +1,8 @@
 // readDrop / parseDrop: sniffing and the overall sequence (see drop_reader.h).
 #include "ingest/drop_reader.h"
 
+#include "ingest/case_list_reader.h"
+
 #include "ingest/header_words.h"
 
 #include <algorithm>
@@ -394,6 +396,8 @@ Result<Drop> DropReader::run() {
 
 Result<Drop> parseDrop(std::string_view bytes, const std::string& displayPath,
                        const IngestOptions& options) {
+    if (detail::isCaseList(bytes, options))
+        return detail::readCaseList(bytes, displayPath, options);
     detail::DropReader reader(bytes, displayPath, options, nullptr);
     return reader.run();
 }
@@ -404,6 +408,8 @@ Result<Drop> readDrop(const std::string& path, const IngestOptions& options) {
     detail::InputFile file;
     if (Status s = file.open(path); !s)
         return s.error();
+    if (detail::isCaseList(file.bytes(), options))
+        return detail::readCaseList(file.bytes(), path, options);
     detail::DropReader reader(file.bytes(), path, options, &file);
     return reader.run();
 }
