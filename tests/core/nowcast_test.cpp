@@ -74,6 +74,8 @@ void score(const CaseListSpec& spec, int nowDay, Accuracy& a, NowcastOptions o =
     const Drop drop = readList(siftwave::testing::caseListText(cases));
     const NowcastResult r = nowcastOf(drop, spec.first + nowDay, 10, o);
     for (std::size_t i = r.rows.size() - 7; i < r.rows.size(); ++i) {
+        if (std::isnan(r.rows[i].nowcast))
+            continue;  // under a tenth reported: not nowcast
         const int day = r.rows[i].date - spec.first;
         const double y = truth[static_cast<std::size_t>(day)];
         ++a.intervals;
@@ -174,6 +176,50 @@ TEST(Nowcast, NowBeforeTheFirstEventIsAUsageError) {
     Result<ReportingTriangle> tri = triangleFromCases(drop, 0, *Date::fromIso("2026-02-01"));
     ASSERT_FALSE(tri.ok());
     EXPECT_EQ(tri.error().code, ErrorCode::Usage);
+}
+
+}  // namespace
+}  // namespace siftwave::nowcast
+
+namespace siftwave::nowcast {
+namespace {
+
+// Real data: the husO104Hosp list (r-cran-surveillance; the outbreak Höhle & an der Heiden 2014
+// nowcast) cut at every day from 2011-05-20 to 2011-06-20 (the list as it stood then: cases
+// reported by that day), the last 7 days of each nowcast scored against the final counts of the
+// whole list. Delays are at most 15 days in the data (SOURCES.md), so D = 15. Known limitation,
+// measured and reported in the nowcast report: the delays shortened during the outbreak (median
+// 7 days for May's hospitalisations, 5 for June's; nowcast_delays_test), which a chain-ladder
+// learns only through its moving window, so it over-estimates here and does not beat the count
+// reported so far on these days. The check is the interval's coverage, which stays near 0.8,
+// and that no period under a tenth reported is nowcast.
+TEST(Nowcast, HusO104IntervalsCoverMostFinalCounts) {
+    Result<Drop> drop =
+        ingest::readDrop(std::string(SIFTWAVE_TEST_DATA_DIR) + "/real/husO104Hosp_case_list.csv");
+    ASSERT_TRUE(drop.ok());
+    const std::span<const Cell> finals = drop->series(0, 0);
+    Accuracy a;
+    for (Date now = *Date::fromIso("2011-05-20"); now <= *Date::fromIso("2011-06-20");
+         now = now + 1) {
+        const NowcastResult r = nowcastOf(*drop, now, 15);
+        for (std::size_t i = r.rows.size() - 7; i < r.rows.size(); ++i) {
+            const NowcastRow& row = r.rows[i];
+            if (std::isnan(row.nowcast)) {
+                EXPECT_LT(row.shareReported, 0.1);
+                continue;
+            }
+            const double y = finals[static_cast<std::size_t>(*drop->periodOf(row.date))].value;
+            ++a.intervals;
+            a.covered += (y >= row.lo && y <= row.hi) ? 1 : 0;
+            a.absError += std::abs(row.nowcast - y);
+            a.absNaive += std::abs(row.reported - y);
+        }
+    }
+    std::printf("husO104: %d intervals, coverage %.3f, MAE %.2f, naive MAE %.2f\n", a.intervals,
+                static_cast<double>(a.covered) / a.intervals, a.absError / a.intervals,
+                a.absNaive / a.intervals);
+    ASSERT_GT(a.intervals, 60);
+    EXPECT_GE(static_cast<double>(a.covered) / a.intervals, 0.7);
 }
 
 }  // namespace

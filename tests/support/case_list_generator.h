@@ -28,8 +28,8 @@ struct CaseListSpec {
     std::function<double(int)> curve = [](int day) {
         return 5.0 + 55.0 * std::exp(-0.5 * std::pow((day - 40.0) / 12.0, 2));
     };
-    std::vector<double> delayPmf = {0.10, 0.20, 0.20, 0.15, 0.10, 0.08,
-                                    0.06, 0.04, 0.03, 0.02, 0.02};
+    std::vector<double> delayPmf = {0.15, 0.20, 0.20, 0.15, 0.10, 0.06,
+                                    0.05, 0.03, 0.02, 0.02, 0.02};
     std::vector<double> laterPmf;  // empty: no change
     int changeDay = 0;
     std::uint64_t seed = 1;

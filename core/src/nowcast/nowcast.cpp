@@ -28,7 +28,7 @@ Status NowcastOptions::validate() const {
 int NowcastOptions::window(const TimeAxis& axis) const {
     if (windowPeriods > 0)
         return windowPeriods;
-    return axis.weekly() ? 6 : 42;
+    return axis.weekly() ? 6 : 21;
 }
 
 namespace {
