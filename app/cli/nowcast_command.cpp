@@ -162,13 +162,7 @@ Result<std::vector<nowcast::ReportingTriangle>> caseListTriangles(const Job& job
         for (std::size_t r = 0; r < drop.regionCodes.size(); ++r)
             regions.push_back(r);
     }
-    Date now = drop.axis.first();
-    if (job.now) {
-        now = *job.now;
-    } else if (drop.caseList) {
-        for (const CaseRecord& c : drop.caseList->cases)
-            now = c.hasReport && !c.reportBeforeEvent ? std::max(now, c.report) : now;
-    }
+    const Date now = job.now ? *job.now : nowcast::lastReportDate(drop);
     std::vector<nowcast::ReportingTriangle> out;
     for (std::size_t r : regions) {
         Result<nowcast::ReportingTriangle> tri =

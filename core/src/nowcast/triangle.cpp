@@ -36,6 +36,15 @@ double ReportingTriangle::reported(std::int32_t t) const {
     return at(t, std::min(elapsed(t), maxDelay));
 }
 
+Date lastReportDate(const Drop& drop) {
+    Date now = drop.axis.first();
+    if (drop.caseList)
+        for (const CaseRecord& c : drop.caseList->cases)
+            if (c.hasReport && !c.reportBeforeEvent)
+                now = std::max(now, c.report);
+    return now;
+}
+
 int maxDelayFromCases(const Drop& drop, Date now) {
     if (!drop.caseList)
         return 1;

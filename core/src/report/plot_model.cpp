@@ -290,6 +290,16 @@ Result<PlotModel> buildPlotModel(const Drop& drop, const ledger::Ledger& ledger,
     }
     if (result)
         model.fit = fittedCurveOf(*result, model.axis, model.cleaned, request.countRange);
+    std::optional<nowcast::NowcastResult> nowcastResult = request.nowcastResult;
+    if (!nowcastResult && request.nowcast) {
+        auto made = nowcastOfCaseList(drop, *region, *request.nowcast);
+        if (made)
+            nowcastResult = std::move(*made);
+        else
+            model.nowcastError = made.error().message;
+    }
+    if (nowcastResult)
+        model.nowcast = nowcastSpecOf(*nowcastResult, model.axis);
 
     addMarks(model, ledger, cleaned);
     return model;

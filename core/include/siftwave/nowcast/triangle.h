@@ -59,6 +59,10 @@ struct ReportingTriangle {
     double reported(std::int32_t t) const;
 };
 
+/// The latest usable report date of a case list (the default "now"); the first period's day when
+/// it has none.
+Date lastReportDate(const Drop& drop);
+
 /// The maximum delay, in periods, chosen from a case list: the smallest d that covers 99 % of
 /// the delays of the cases reported by `now` (common practice, no source), at least 1.
 int maxDelayFromCases(const Drop& drop, Date now);
