@@ -174,6 +174,9 @@ TEST(IngestCaseList, SlashDatesNeedAnOrderThatTheDataSettle) {
     EXPECT_EQ(ambiguous.error().code, ErrorCode::Ambiguous);
     const Drop drop = parsed("onset,report\n13/02/2026,14/02/2026\n03/02/2026,04/02/2026\n");
     EXPECT_EQ(drop.caseList->cases[1].event, *Date::fromIso("2026-02-03"));
+    // One column settles the order for both: the file writes its dates one way.
+    const Drop both = parsed("onset,report\n01/03/2026,13/03/2026\n02/03/2026,04/03/2026\n");
+    EXPECT_EQ(both.caseList->cases[0].event, *Date::fromIso("2026-03-01"));
 }
 
 }  // namespace

@@ -224,3 +224,39 @@ TEST(Nowcast, HusO104IntervalsCoverMostFinalCounts) {
 
 }  // namespace
 }  // namespace siftwave::nowcast
+
+namespace siftwave::nowcast {
+namespace {
+
+// A weekly case list: the triangle's periods and delays are weeks (ISO, Monday start); a week
+// D or more weeks old is complete and equals its cases; the last week is estimated above what
+// it has so far.
+TEST(Nowcast, AWeeklyCaseListIsNowcastInWeeks) {
+    CaseListSpec spec;
+    spec.seed = 11;
+    spec.first = *Date::fromIso("2026-01-05");  // a Monday
+    const auto cases = generateCases(spec);
+    ingest::IngestOptions o;
+    o.cadence = Cadence::Weekly;
+    Result<Drop> drop = ingest::parseDrop(siftwave::testing::caseListText(cases), "w.csv", o);
+    ASSERT_TRUE(drop.ok());
+    ASSERT_TRUE(drop->axis.weekly());
+    const Date now = spec.first + 56;  // a Monday: the first day of the ninth week
+    Result<ReportingTriangle> tri = triangleFromCases(*drop, 0, now, 2);
+    ASSERT_TRUE(tri.ok()) << tri.error().describe();
+    Result<NowcastResult> r = nowcast(*tri);
+    ASSERT_TRUE(r.ok());
+    EXPECT_EQ(r->cadence, Cadence::Weekly);
+    ASSERT_EQ(r->rows.size(), 9u);
+    EXPECT_EQ(r->rows.back().date, now);
+    int firstWeek = 0;
+    for (const auto& c : cases)
+        firstWeek += c.event < spec.first + 7 ? 1 : 0;
+    EXPECT_FALSE(r->rows[0].estimated);
+    EXPECT_DOUBLE_EQ(r->rows[0].nowcast, firstWeek);
+    EXPECT_TRUE(r->rows.back().estimated);
+    EXPECT_GT(r->rows.back().nowcast, r->rows.back().reported);
+}
+
+}  // namespace
+}  // namespace siftwave::nowcast

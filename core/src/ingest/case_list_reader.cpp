@@ -421,15 +421,24 @@ Result<DateFormat> CaseListReader::formatOfColumn(std::size_t column) {
 
 Status CaseListReader::settleFormats() {
     Result<DateFormat> event = formatOfColumn(m_event);
+    Result<DateFormat> report = m_report ? formatOfColumn(*m_report) : event;
+    // A file writes its dates one way: a slash order one column settles holds for the other.
+    auto ambiguous = [](const Result<DateFormat>& r) {
+        return !r && r.error().code == ErrorCode::Ambiguous;
+    };
+    auto slash = [](const Result<DateFormat>& r) {
+        return r && (*r == DateFormat::DayFirst || *r == DateFormat::MonthFirst);
+    };
+    if (ambiguous(event) && slash(report))
+        event = *report;
+    if (ambiguous(report) && slash(event))
+        report = *event;
     if (!event)
         return event.error();
+    if (!report)
+        return report.error();
     m_eventFormat = *event;
-    if (m_report) {
-        Result<DateFormat> report = formatOfColumn(*m_report);
-        if (!report)
-            return report.error();
-        m_reportFormat = *report;
-    }
+    m_reportFormat = *report;
     m_drop.source.dateFormat = dateFormatName(m_eventFormat);
     return Ok{};
 }
