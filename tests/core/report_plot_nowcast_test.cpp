@@ -1,6 +1,7 @@
 // The nowcast on the plot model (plot_model.h: NowcastSpec).
 #include "siftwave/ingest/ingest.h"
 #include "siftwave/ledger/replay.h"
+#include "siftwave/report/figure_spec.h"
 #include "siftwave/report/plot_model.h"
 
 #include <gtest/gtest.h>
@@ -39,6 +40,22 @@ TEST(ReportPlotNowcast, ACaseListPlotCarriesTheNowcastOverItsLastPeriodsWithItsC
         EXPECT_GE(n.high[i], n.mid[i]);
     }
     EXPECT_GT(estimated, 0);
+}
+
+TEST(ReportPlotNowcast, ACaseListFigureCarriesTheNowcastAndItsCautionInTheCaption) {
+    Result<Drop> drop =
+        ingest::readDrop(std::string(SIFTWAVE_TEST_DATA_DIR) + "/real/husO104Hosp_case_list.csv");
+    ASSERT_TRUE(drop.ok());
+    const ledger::Ledger ledger;
+    Result<ledger::Cleaned> cleaned = ledger::replay(*drop, ledger);
+    FigureRequest request;
+    request.region = "all";
+    Result<FigureSpec> spec = buildFigureSpec(*drop, ledger, *cleaned, request);
+    ASSERT_TRUE(spec.ok()) << spec.error().describe();
+    EXPECT_TRUE(spec->nowcast);
+    ASSERT_FALSE(spec->captionLines.empty());
+    EXPECT_NE(spec->captionLines.back().find("not a forecast of new infections"),
+              std::string::npos);
 }
 
 TEST(ReportPlotNowcast, ACountReleaseSaysWhyItHasNoNowcast) {

@@ -46,7 +46,12 @@ std::string bandsDescription(const FittedCurveSpec& curve) {
 
 Result<FigureSpec> buildFigureSpec(const Drop& drop, const ledger::Ledger& ledger,
                                    const ledger::Cleaned& cleaned, const FigureRequest& request) {
-    Result<PlotModel> model = buildPlotModel(drop, ledger, cleaned, request);
+    // A case list's last periods are incomplete: its figure shows their nowcast, as the
+    // workbench does, and the caption carries the nowcast's caution.
+    PlotRequest plot = request;
+    if (drop.caseList && !plot.nowcast && !plot.nowcastResult)
+        plot.nowcast = nowcast::NowcastOptions{};
+    Result<PlotModel> model = buildPlotModel(drop, ledger, cleaned, plot);
     if (!model)
         return model.error();
     FigureSpec spec;
@@ -57,6 +62,8 @@ Result<FigureSpec> buildFigureSpec(const Drop& drop, const ledger::Ledger& ledge
         captionFacts(drop, ledger, spec.fit ? &spec.fit->result : nullptr, request.exportDate);
     if (spec.fit)
         spec.caption.bands = bandsDescription(*spec.fit);
+    if (spec.nowcast)
+        spec.caption.caution += " " + spec.nowcast->caution;
     spec.captionLines = captionLines(spec.caption);
     return spec;
 }
