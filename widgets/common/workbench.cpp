@@ -27,6 +27,8 @@ SeriesView Workbench::seriesView(const QString& regionCode, int measure, int sec
     request.regions = m_register.get();
     request.previous = m_previous.get();
     request.findings = findings();
+    if (m_drop->caseList)  // a case list's last periods are incomplete: show their nowcast
+        request.nowcast = nowcast::NowcastOptions{};
     Result<report::PlotModel> model = report::buildPlotModel(*m_drop, m_ledger, m_cleaned, request);
     return model ? seriesViewOf(*model) : SeriesView{};
 }
