@@ -15,7 +15,9 @@ NowcastSpec nowcastSpecOf(const nowcast::NowcastResult& result, const TimeAxis& 
     spec.high.assign(n, kNone);
     for (const nowcast::NowcastRow& row : result.rows) {
         const std::optional<std::int32_t> p = axis.periodOf(row.date);
-        if (!p || !row.estimated)
+        // Drawn where reports are still expected (under 99 % in by now): over the older periods
+        // of the window the estimate is the count itself, and a line there would only clutter.
+        if (!p || !row.estimated || row.shareReported >= 0.99)
             continue;
         spec.mid[static_cast<std::size_t>(*p)] = row.nowcast;
         spec.low[static_cast<std::size_t>(*p)] = row.lo;

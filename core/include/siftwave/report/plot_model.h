@@ -100,8 +100,8 @@ struct FittedCurveSpec {
 /// The nowcast over the last periods (nowcast.h): drawn in its own style with its band and
 /// labelled as an estimate of reports still to come, never as counts.
 struct NowcastSpec {
-    // Per period of the axis; NaN outside the periods still estimated (and where a period is
-    // under a tenth reported).
+    // Per period of the axis; NaN outside the periods still estimated with reports still
+    // expected (under 99 % in by now), and where a period is under a tenth reported.
     std::vector<double> mid;
     std::vector<double> low;
     std::vector<double> high;
