@@ -1,6 +1,7 @@
 // The chain-ladder nowcast (nowcast.h) and its reporting triangle (triangle.h): by hand,
 // on generated case lists with a known delay, and from a release history.
 #include "siftwave/nowcast/nowcast.h"
+#include "siftwave/scan/scan.h"
 #include "siftwave/ingest/ingest.h"
 #include "support/case_list_generator.h"
 
@@ -256,6 +257,42 @@ TEST(Nowcast, AWeeklyCaseListIsNowcastInWeeks) {
     EXPECT_DOUBLE_EQ(r->rows[0].nowcast, firstWeek);
     EXPECT_TRUE(r->rows.back().estimated);
     EXPECT_GT(r->rows.back().nowcast, r->rows.back().reported);
+}
+
+}  // namespace
+}  // namespace siftwave::nowcast
+
+
+namespace siftwave::nowcast {
+namespace {
+
+// The scan's previous-release comparison is the two-release case of a release history: the
+// history's triangle moves period t from C[t][a1 - t] to C[t][a2 - t] between the releases as
+// of a1 and a2 = a1 + 1, and those moves summed are the scan's net revision (scan.h,
+// RevisionSummary::netChange), for every delay below D.
+TEST(Nowcast, TheScansRevisionIsTheTwoReleaseCaseOfTheTriangle) {
+    CaseListSpec spec;
+    spec.days = 30;
+    spec.seed = 9;
+    const auto cases = generateCases(spec);
+    const Date a1 = spec.first + 28;
+    const Date a2 = spec.first + 29;
+    Result<Drop> before =
+        ingest::parseDrop(siftwave::testing::releaseText(cases, spec.first, a1), "a1.csv");
+    Result<Drop> after =
+        ingest::parseDrop(siftwave::testing::releaseText(cases, spec.first, a2), "a2.csv");
+    ASSERT_TRUE(before.ok() && after.ok());
+    Result<ReportingTriangle> tri = triangleFromReleases({&*before, &*after}, "all", "cases", 29);
+    ASSERT_TRUE(tri.ok()) << tri.error().describe();
+    double moved = 0;
+    for (std::int32_t t = 0; t + 1 <= tri->nowPeriod; ++t)
+        moved += tri->at(t, tri->nowPeriod - t) - tri->at(t, tri->nowPeriod - 1 - t);
+    scan::ScanContext context;
+    context.previous = &*before;
+    Result<scan::ScanReport> report = scan::scanDrop(*after, {}, context);
+    ASSERT_TRUE(report.ok());
+    EXPECT_GT(moved, 0);
+    EXPECT_DOUBLE_EQ(report->revisions.netChange, moved);
 }
 
 }  // namespace
