@@ -1,8 +1,8 @@
 // The chain-ladder nowcast (nowcast.h) and its reporting triangle (triangle.h): by hand,
 // on generated case lists with a known delay, and from a release history.
+#include "siftwave/ingest/ingest.h"
 #include "siftwave/nowcast/nowcast.h"
 #include "siftwave/scan/scan.h"
-#include "siftwave/ingest/ingest.h"
 #include "support/case_list_generator.h"
 
 #include <gtest/gtest.h>
