@@ -184,10 +184,17 @@ Result<std::vector<nowcast::ReportingTriangle>> releaseTriangles(const Job& job,
     });
     const std::string measure = args.value("measure", latest.measures.front());
     std::vector<std::string> regions;
-    if (args.has("region"))
+    if (args.has("region")) {
+        if (!latest.regionIndex(args.value("region"))) {
+            Error e = makeError(ErrorCode::NotFound,
+                                "no region '" + args.value("region") + "' in the latest release");
+            e.file = latest.source.path;
+            return e;
+        }
         regions.push_back(args.value("region"));
-    else
+    } else {
         regions = latest.regionCodes;
+    }
     std::vector<nowcast::ReportingTriangle> out;
     for (const std::string& code : regions) {
         Result<nowcast::ReportingTriangle> tri =

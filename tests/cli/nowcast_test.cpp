@@ -66,6 +66,7 @@ TEST(CliNowcast, AReleaseHistoryInAFolderIsNowcastLikeTheCaseList) {
     ASSERT_EQ(fromList.exitCode, 0) << fromList.err;
     ASSERT_EQ(fromReleases.exitCode, 0) << fromReleases.err;
     EXPECT_EQ(fromList.out, fromReleases.out);
+    EXPECT_EQ(runCli("nowcast --releases " + folder.string() + " --region nowhere").exitCode, 1);
 }
 
 TEST(CliNowcast, WrongUsageAndBadInputHaveTheirExitCodes) {
