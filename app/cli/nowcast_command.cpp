@@ -265,6 +265,9 @@ std::vector<FlagSpec> nowcastFlags() {
     specs.push_back({"window", true, false, "N",
                      "periods of the moving window that estimates the delays (default 21 days or "
                      "6 weeks)"});
+    specs.push_back({"pool-delays", false, false, "",
+                     "estimate the delays from every region together (small regions borrow "
+                     "them); default: each region its own"});
     specs.push_back({"json", false, false, "", "print JSON instead of text"});
     specs.push_back({"csv", false, false, "", "print CSV: one row per region and period"});
     specs.push_back({"help", false, false, "", "show this help"});
@@ -289,9 +292,20 @@ int runNowcast(int argc, char** argv, int first) {
         printError(triangles.error(), line.json);
         return triangles.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
     }
+    // --pool-delays: every region's delays estimated from the regions' triangles summed.
+    std::optional<nowcast::ReportingTriangle> pooled;
+    if (args.has("pool-delays")) {
+        Result<nowcast::ReportingTriangle> sum = nowcast::pooledTriangle(*triangles);
+        if (!sum) {
+            printError(sum.error(), line.json);
+            return kExitBadInput;
+        }
+        pooled = std::move(*sum);
+    }
     std::vector<nowcast::NowcastResult> results;
     for (const nowcast::ReportingTriangle& tri : *triangles) {
-        Result<nowcast::NowcastResult> r = nowcast::nowcast(tri, job.options);
+        Result<nowcast::NowcastResult> r =
+            nowcast::nowcast(tri, pooled ? *pooled : tri, job.options);
         if (!r) {
             printError(r.error(), line.json);
             return kExitUsage;
@@ -310,6 +324,7 @@ int runNowcast(int argc, char** argv, int first) {
                    {"now", results.empty() ? nlohmann::json(nullptr)
                                            : nlohmann::json(results.front().now.iso())},
                    {"level", job.options.level},
+                   {"delays_from", pooled ? "pooled" : "region"},
                    {"caution", nowcast::kNowcastCaution},
                    {"regions", regions}});
     } else if (args.has("csv")) {

@@ -43,6 +43,8 @@ TEST(CliNowcast, TextAndCsvCarryTheRowsAndTheTextTheCaution) {
     const auto csv = runCli("nowcast " + kHus + " --now 2011-06-05 --csv");
     ASSERT_EQ(csv.exitCode, 0);
     EXPECT_EQ(csv.out.rfind("region,date,reported,nowcast,lo,hi,p_complete", 0), 0u);
+    // One region: its delays pooled with no other are its own.
+    EXPECT_EQ(runCli("nowcast " + kHus + " --now 2011-06-05 --csv --pool-delays").out, csv.out);
 }
 
 TEST(CliNowcast, AReleaseHistoryInAFolderIsNowcastLikeTheCaseList) {

@@ -1,7 +1,7 @@
 // The chain-ladder nowcast (nowcast.h) and its reporting triangle (triangle.h): by hand,
 // on generated case lists with a known delay, and from a release history.
-#include "siftwave/ingest/ingest.h"
 #include "siftwave/nowcast/nowcast.h"
+#include "siftwave/ingest/ingest.h"
 #include "siftwave/scan/scan.h"
 #include "support/case_list_generator.h"
 
@@ -262,7 +262,6 @@ TEST(Nowcast, AWeeklyCaseListIsNowcastInWeeks) {
 }  // namespace
 }  // namespace siftwave::nowcast
 
-
 namespace siftwave::nowcast {
 namespace {
 
@@ -293,6 +292,48 @@ TEST(Nowcast, TheScansRevisionIsTheTwoReleaseCaseOfTheTriangle) {
     ASSERT_TRUE(report.ok());
     EXPECT_GT(moved, 0);
     EXPECT_DOUBLE_EQ(report->revisions.netChange, moved);
+}
+
+}  // namespace
+}  // namespace siftwave::nowcast
+
+namespace siftwave::nowcast {
+namespace {
+
+// Pooling the delays: one region's triangle pooled with itself alone changes nothing; two
+// regions with the same delay give hazards from their summed triangle, and a region's nowcast
+// then divides its own reports by the pooled share.
+TEST(Nowcast, PooledDelaysComeFromTheRegionsSummedTriangle) {
+    std::string text = "onset,report,region\n";
+    for (const char* region : {"A", "B"}) {
+        CaseListSpec spec;
+        spec.days = 40;
+        spec.seed = region[0] == 'A' ? 21 : 22;
+        for (const auto& c : generateCases(spec))
+            text += c.event.iso() + "," + c.report.iso() + "," + region + "\n";
+    }
+    const Drop drop = readList(text);
+    ASSERT_EQ(drop.regionCodes.size(), 2u);
+    const Date now = drop.axis.first() + 39;
+    Result<ReportingTriangle> a = triangleFromCases(drop, 0, now, 10);
+    Result<ReportingTriangle> b = triangleFromCases(drop, 1, now, 10);
+    ASSERT_TRUE(a.ok() && b.ok());
+    Result<ReportingTriangle> alone = pooledTriangle({*a});
+    Result<NowcastResult> own = nowcast(*a);
+    Result<NowcastResult> same = nowcast(*a, *alone, {});
+    ASSERT_TRUE(own.ok() && same.ok());
+    EXPECT_EQ(own->rows.back().nowcast, same->rows.back().nowcast);
+    Result<ReportingTriangle> both = pooledTriangle({*a, *b});
+    ASSERT_TRUE(both.ok());
+    EXPECT_DOUBLE_EQ(both->at(0, 3), a->at(0, 3) + b->at(0, 3));
+    Result<NowcastResult> pooledA = nowcast(*a, *both, {});
+    Result<NowcastResult> pooledAll = nowcast(*both);
+    ASSERT_TRUE(pooledA.ok() && pooledAll.ok());
+    EXPECT_EQ(pooledA->delayShare, pooledAll->delayShare);
+    const NowcastRow& last = pooledA->rows.back();
+    EXPECT_NEAR(last.nowcast, last.reported / pooledAll->delayShare[0], 1e-9);
+    Result<ReportingTriangle> shorter = triangleFromCases(drop, 1, now, 8);
+    EXPECT_FALSE(pooledTriangle({*a, *shorter}).ok());
 }
 
 }  // namespace

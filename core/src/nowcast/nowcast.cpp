@@ -124,8 +124,34 @@ Interval predictiveInterval(double R, double logF, double sd, const NowcastOptio
 }  // namespace
 
 Result<NowcastResult> nowcast(const ReportingTriangle& tri, const NowcastOptions& options) {
+    return nowcast(tri, tri, options);
+}
+
+Result<ReportingTriangle> pooledTriangle(const std::vector<ReportingTriangle>& triangles) {
+    if (triangles.empty())
+        return makeError(ErrorCode::Usage, "no triangle to pool");
+    ReportingTriangle pooled = triangles.front();
+    pooled.region = "(pooled)";
+    for (std::size_t k = 1; k < triangles.size(); ++k) {
+        const ReportingTriangle& t = triangles[k];
+        if (!(t.axis == pooled.axis) || t.maxDelay != pooled.maxDelay)
+            return makeError(ErrorCode::Usage,
+                             "triangles of different calendars or maximum delays cannot be pooled");
+        for (std::size_t i = 0; i < pooled.cumulative.size(); ++i)
+            pooled.cumulative[i] += t.cumulative[i];  // NaN stays NaN
+        pooled.casesLeftOut += t.casesLeftOut;
+    }
+    return pooled;
+}
+
+Result<NowcastResult> nowcast(const ReportingTriangle& tri, const ReportingTriangle& delaysFrom,
+                              const NowcastOptions& options) {
     if (Status s = options.validate(); !s)
         return s.error();
+    if (!(delaysFrom.axis == tri.axis) || delaysFrom.maxDelay != tri.maxDelay)
+        return makeError(ErrorCode::Usage,
+                         "the delays must come from a triangle of the same calendar and maximum "
+                         "delay");
     const int D = tri.maxDelay;
     NowcastResult out;
     out.region = tri.region;
@@ -135,7 +161,7 @@ Result<NowcastResult> nowcast(const ReportingTriangle& tri, const NowcastOptions
     out.window = options.window(tri.axis);
     out.level = options.level;
     out.casesLeftOut = tri.casesLeftOut;
-    const Hazards h = estimateHazards(tri, out.window);
+    const Hazards h = estimateHazards(delaysFrom, out.window);
     // log F(d) and its variance, from the longest delay down.
     std::vector<double> logF(static_cast<std::size_t>(D + 1), 0.0);
     std::vector<double> var(static_cast<std::size_t>(D + 1), 0.0);

@@ -88,4 +88,15 @@ struct NowcastResult {
 Result<NowcastResult> nowcast(const ReportingTriangle& triangle,
                               const NowcastOptions& options = {});
 
+/// The same, with the delays (the hazards g_j and their variances) estimated from `delaysFrom`,
+/// e.g. the regions' triangles summed (pooledTriangle): small regions then borrow the delay
+/// distribution of all (common practice, no source). `delaysFrom` must have the triangle's
+/// periods and maximum delay (a usage error otherwise).
+Result<NowcastResult> nowcast(const ReportingTriangle& triangle,
+                              const ReportingTriangle& delaysFrom, const NowcastOptions& options);
+
+/// The cell-by-cell sum of triangles of one calendar and maximum delay (unknown where any is
+/// unknown), region "(pooled)"; a usage error when they differ or there are none.
+Result<ReportingTriangle> pooledTriangle(const std::vector<ReportingTriangle>& triangles);
+
 }  // namespace siftwave::nowcast
