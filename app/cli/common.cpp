@@ -23,8 +23,14 @@ std::vector<FlagSpec> ingestFlagSpecs() {
         {"measure-col", true, false, "NAME",
          "long layout: the column that names the measure of each row"},
         {"measure-name", true, false, "NAME",
-         "wide layouts: the name of the one measure (default: cases)"},
-        {"layout", true, false, "LAYOUT", "long, dates-down or dates-across (default: detected)"},
+         "wide layouts and case lists: the name of the one measure (default: cases)"},
+        {"layout", true, false, "LAYOUT",
+         "long, dates-down, dates-across or case-list (default: detected)"},
+        {"case-list", false, false, "",
+         "the file is a case list: one row per case with its dates (default: detected)"},
+        {"event-col", true, false, "NAME",
+         "case list: the event date (onset, sample, hospitalisation) it is counted by"},
+        {"report-col", true, false, "NAME", "case list: the report date"},
         {"date-format", true, false, "FMT",
          "YYYY-MM-DD, YYYYMMDD, DD/MM/YYYY, MM/DD/YYYY or YYYY-Www (default: detected)"},
         {"cadence", true, false, "C",
@@ -63,8 +69,13 @@ Result<ingest::IngestOptions> ingestOptionsFrom(const ParsedArgs& args) {
     if (auto layout = args.optionalValue("layout")) {
         o.layout = layoutFromName(*layout);
         if (!o.layout)
-            return usage("unknown layout '" + *layout + "'; use long, dates-down or dates-across");
+            return usage("unknown layout '" + *layout +
+                         "'; use long, dates-down, dates-across or case-list");
     }
+    if (args.has("case-list"))
+        o.caseList = true;
+    o.eventColumn = args.value("event-col");
+    o.reportColumn = args.value("report-col");
     if (auto c = args.optionalValue("cadence")) {
         o.cadence = cadenceFromName(*c);
         if (!o.cadence)

@@ -36,6 +36,21 @@ std::size_t duplicateRowCount(const Drop& drop) {
     return lines.size();
 }
 
+/// A case list's columns, its cases and its problems by kind (name -> count).
+nlohmann::json caseListJson(const CaseList& list) {
+    auto column = [](const std::string& name) {
+        return name.empty() ? nlohmann::json(nullptr) : nlohmann::json(name);
+    };
+    nlohmann::json problems = nlohmann::json::object();
+    for (const CaseProblem& p : list.problems)
+        problems[caseProblemName(p.kind)] = problems.value(caseProblemName(p.kind), 0) + 1;
+    return {{"event_column", list.eventColumn},
+            {"report_column", column(list.reportColumn)},
+            {"region_column", column(list.regionColumn)},
+            {"cases", list.cases.size()},
+            {"problems", problems}};
+}
+
 nlohmann::json inspectJson(const Drop& drop) {
     const Provenance& p = drop.source;
     const CellCounts counts = drop.countCells();
@@ -107,6 +122,8 @@ nlohmann::json inspectJson(const Drop& drop) {
              {"column", w.column > 0 ? nlohmann::json(w.column) : nlohmann::json(nullptr)}});
     }
     j["warnings"] = warnings;
+    if (drop.caseList)
+        j["case_list"] = caseListJson(*drop.caseList);
     return j;
 }
 
@@ -159,7 +176,16 @@ void printText(const Drop& drop) {
         }
         values += (i ? ", " : "") + p.columns.values[i];
     }
-    std::printf("value cols  %s\n", terminalText(values).c_str());
+    if (drop.caseList) {
+        const CaseList& list = *drop.caseList;
+        std::printf("report col  %s\n",
+                    list.reportColumn.empty() ? "(none)" : terminalText(list.reportColumn).c_str());
+        std::printf("cases       %zu counted by %s, %zu rows with a date problem\n",
+                    list.cases.size(), terminalText(list.eventColumn).c_str(),
+                    list.problems.size());
+    } else {
+        std::printf("value cols  %s\n", terminalText(values).c_str());
+    }
     std::printf("rows        %zu\n", drop.rows);
     std::string codes;
     for (std::size_t i = 0; i < drop.regionCodes.size(); ++i) {

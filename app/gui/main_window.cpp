@@ -375,6 +375,15 @@ void MainWindow::addPreviousReleaseActions(QMenu* file) {
     previous->setObjectName(QStringLiteral("actionOpenPrevious"));
     previous->setStatusTip(
         tr("Draw an earlier release of the same data over this one to see revisions"));
+    QAction* history =
+        file->addAction(tr("Open release &history…"), this, &MainWindow::showOpenHistoryDialog);
+    history->setObjectName(QStringLiteral("actionOpenHistory"));
+    history->setStatusTip(
+        tr("Earlier releases of this series, one per period: the plot shows "
+           "the nowcast of the last periods they give"));
+    connect(m_workbench, &widgets::Workbench::dropChanged, this,
+            [this, history] { history->setEnabled(m_workbench->hasDrop()); });
+    history->setEnabled(false);
     QAction* closePrevious = file->addAction(tr("Close previous release"), this,
                                              [this] { m_workbench->setPreviousDrop(nullptr); });
     connect(m_workbench, &widgets::Workbench::dropChanged, this,

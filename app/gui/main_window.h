@@ -55,6 +55,9 @@ public:
     void openDrop(const QString& path);
     /// Reads another release of the same data to compare against; emits previousOpened().
     void openPreviousRelease(const QString& path);
+    /// Reads earlier releases of the open drop's series (main_window_history.cpp): the plot then
+    /// shows their nowcast; emits historyOpened().
+    void openReleaseHistory(const QStringList& paths);
     /// Opens a project (project.h): its drop, register, ledger, previous release and the
     /// selection it was saved with; emits projectOpened() when all is shown, or projectFailed().
     void openProject(const QString& path);
@@ -118,6 +121,8 @@ Q_SIGNALS:
     /// The message is the core's own, with file, line and column where known.
     void dropFailed(const QString& message);
     void previousOpened(const QString& path);
+    /// A release history is open: `releases` earlier releases besides the drop.
+    void historyOpened(int releases);
     /// A project is open and shows its selection (scanFinished() follows for its findings).
     void projectOpened(const QString& path);
     /// The message says why (the core's, with file and line where known).
@@ -145,6 +150,7 @@ private:
     void buildDocks();
     void showOpenDialog();
     void showOpenPreviousDialog();
+    void showOpenHistoryDialog();
     void showOpenProjectDialog();
     void showSaveProjectDialog();
     void saveProjectInPlace();

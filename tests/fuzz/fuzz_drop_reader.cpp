@@ -2,7 +2,8 @@
 // calendar plan, on arbitrary bytes. The reader must return a Drop or an Error, never crash,
 // hang or read out of bounds (ASan/UBSan in the fuzz build), and a Drop it returns must hold
 // together: every table is regions x periods, every duplicate points inside the calendar.
-// The last byte also picks forced options, so the weekly, long and daily paths are reached.
+// The last byte also picks forced options, so the weekly, long, daily and case-list paths are
+// reached.
 #include "siftwave/ingest/ingest.h"
 
 #include <cstddef>
@@ -23,6 +24,14 @@ void checkDrop(const siftwave::Drop& drop) {
         if (d.day < 0 || static_cast<std::size_t>(d.day) >= periods || d.region >= regions ||
             d.measure >= drop.measures.size())
             __builtin_trap();
+    if (drop.caseList) {  // every case counted inside the calendar, in a region of the drop
+        for (const siftwave::CaseRecord& c : drop.caseList->cases)
+            if (c.region >= regions || !drop.periodOf(c.event))
+                __builtin_trap();
+        for (const siftwave::CaseProblem& p : drop.caseList->problems)
+            if (p.region >= regions || p.line == 0)
+                __builtin_trap();
+    }
 }
 
 }  // namespace
@@ -34,7 +43,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
         checkDrop(*drop);
     if (size == 0)
         return 0;
-    switch (data[size - 1] % 5) {
+    switch (data[size - 1] % 6) {
         case 1:
             options.cadence = siftwave::Cadence::Weekly;
             break;
@@ -47,6 +56,9 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
         case 4:
             options.weekStart = siftwave::WeekStart::Sunday;
             options.weekDate = siftwave::WeekDate::End;
+            break;
+        case 5:
+            options.caseList = true;
             break;
         default:
             return 0;

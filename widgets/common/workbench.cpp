@@ -30,6 +30,10 @@ SeriesView Workbench::seriesView(const QString& regionCode, int measure, int sec
     request.regions = m_register.get();
     request.previous = m_previous.get();
     request.findings = findings();
+    if (m_drop->caseList)  // a case list's last periods are incomplete: show their nowcast
+        request.nowcast = nowcast::NowcastOptions{};
+    else  // a release history gives the same nowcast from the releases' counts
+        request.nowcastResult = historyNowcast(request.region, request.measure);
     Result<report::PlotModel> model = report::buildPlotModel(*m_drop, m_ledger, m_cleaned, request);
     return model ? seriesViewOf(*model) : SeriesView{};
 }
@@ -262,8 +266,44 @@ void Workbench::setPreviousDrop(std::shared_ptr<const Drop> previous) {
     Q_EMIT previousChanged();
 }
 
+void Workbench::setReleaseHistory(std::vector<std::shared_ptr<const Drop>> releases) {
+    // The open drop is the latest release already: a copy of it in the list is left out.
+    std::erase_if(releases, [this](const std::shared_ptr<const Drop>& d) {
+        return !d || (m_drop && d->source.sha256 == m_drop->source.sha256);
+    });
+    m_history = std::move(releases);
+    Q_EMIT previousChanged();
+}
+
+std::optional<nowcast::NowcastResult> Workbench::historyNowcast(const std::string& region,
+                                                                const std::string& measure) const {
+    if (m_history.empty())
+        return std::nullopt;
+    std::vector<const Drop*> releases{m_drop.get()};
+    for (const std::shared_ptr<const Drop>& d : m_history)
+        releases.push_back(d.get());
+    Result<nowcast::ReportingTriangle> tri =
+        nowcast::triangleFromReleases(releases, region, measure);
+    if (!tri)
+        return std::nullopt;
+    Result<nowcast::NowcastResult> result = nowcast::nowcast(*tri);
+    return result ? std::optional<nowcast::NowcastResult>(std::move(*result)) : std::nullopt;
+}
+
+QString Workbench::releaseHistoryProblem() const {
+    if (m_history.empty() || !m_drop || m_drop->regionCodes.empty() || m_drop->measures.empty())
+        return {};
+    std::vector<const Drop*> releases{m_drop.get()};
+    for (const std::shared_ptr<const Drop>& d : m_history)
+        releases.push_back(d.get());
+    Result<nowcast::ReportingTriangle> tri = nowcast::triangleFromReleases(
+        releases, m_drop->regionCodes.front(), m_drop->measures.front());
+    return tri ? QString() : QString::fromStdString(tri.error().describe());
+}
+
 void Workbench::close() {
     m_drop.reset();
+    m_history.clear();
     m_register.reset();
     m_previous.reset();
     m_scan.reset();

@@ -11,6 +11,7 @@
 #include "siftwave/ledger/decision.h"
 #include "siftwave/ledger/entry.h"
 #include "siftwave/ledger/signing.h"
+#include "siftwave/nowcast/nowcast.h"
 #include "siftwave/region_register.h"
 #include "siftwave/result.h"
 #include "siftwave/scan/scan.h"
@@ -46,6 +47,13 @@ public:
     const Drop* previousDrop() const { return m_previous.get(); }
     QString previousPath() const;
     void setPreviousDrop(std::shared_ptr<const Drop> previous);
+    /// Earlier releases of the same series (any order; the open drop is the latest): the plot
+    /// then shows the nowcast the history gives (nowcast/triangle.h). Emits previousChanged.
+    void setReleaseHistory(std::vector<std::shared_ptr<const Drop>> releases);
+    std::size_t releaseHistorySize() const { return m_history.size(); }
+    /// Why the history gives no nowcast for the first region (a gap between releases, another
+    /// calendar, ...); empty when it gives one or there is no history.
+    QString releaseHistoryProblem() const;
 
     /// Everything the plot shows for one region: the core's plot model (report::buildPlotModel:
     /// raw, cleaned, smoothed, ledger texts, finding marks, decision marks, the previous release
@@ -117,9 +125,14 @@ Q_SIGNALS:
     void previousChanged();
 
 private:
+    /// The nowcast of a region and measure from the release history (the open drop the latest);
+    /// nullopt without a history, or when the releases do not make one (a gap, another calendar).
+    std::optional<nowcast::NowcastResult> historyNowcast(const std::string& region,
+                                                         const std::string& measure) const;
     std::shared_ptr<const Drop> m_drop;
     std::shared_ptr<const RegionRegister> m_register;
     std::shared_ptr<const Drop> m_previous;
+    std::vector<std::shared_ptr<const Drop>> m_history;  // earlier releases (setReleaseHistory)
     ledger::Ledger m_ledger;
     ledger::Cleaned m_cleaned;
     QString m_ledgerPath;

@@ -45,6 +45,16 @@ inline QBrush fitBandBrush() {
     c.setAlpha(80);
     return QBrush(c);
 }
+/// The nowcast (an estimate of reports still to come): reddish purple, dotted, with square
+/// marks on its points; its band a hatched wash of the same colour, unlike the fit's plain wash.
+inline QPen nowcastPen() {
+    return QPen(kReddishPurple, 2.0, Qt::DotLine, Qt::FlatCap, Qt::RoundJoin);
+}
+inline QBrush nowcastBandBrush() {
+    QColor c = kReddishPurple;
+    c.setAlpha(110);
+    return QBrush(c, Qt::BDiagPattern);
+}
 /// The second measure (right axis): dotted bluish green.
 inline QPen secondMeasurePen() {
     return QPen(kBluishGreen, 1.8, Qt::DotLine, Qt::FlatCap, Qt::RoundJoin);

@@ -130,6 +130,7 @@ void SeriesChart::draw(const SeriesView& view) {
     m_plot->yAxis->setLabel(m_view.valueLabel);
     drawRawBars(keys);
     drawFit();
+    drawNowcast(keys);
     if (!m_view.previous.empty())
         drawPreviousRelease(keys);
     drawCleanedLines(keys);
@@ -245,6 +246,22 @@ void SeriesChart::drawFit() {
                        m_view.fit->label.isEmpty() ? QObject::tr("Fitted") : m_view.fit->label);
     m_fitMid->setAdaptiveSampling(false);
     orderLiveLayer();
+}
+
+void SeriesChart::drawNowcast(const QVector<double>& keys) {
+    if (!m_view.nowcast || m_view.nowcast->mid.empty())
+        return;
+    const NowcastBand& n = *m_view.nowcast;
+    QCPGraph* low =
+        addLine(m_plot, m_plot->yAxis, keys, toVector(n.low, m_view.periods()), Qt::NoPen, {});
+    QCPGraph* high = addLine(m_plot, m_plot->yAxis, keys, toVector(n.high, m_view.periods()),
+                             Qt::NoPen, n.bandLabel);
+    high->setBrush(plot_style::nowcastBandBrush());
+    high->setChannelFillGraph(low);
+    low->removeFromLegend();
+    QCPGraph* mid = addLine(m_plot, m_plot->yAxis, keys, toVector(n.mid, m_view.periods()),
+                            plot_style::nowcastPen(), n.label);
+    mid->setScatterStyle(QCPScatterStyle(QCPScatterStyle::ssSquare, 5));
 }
 
 void SeriesChart::removeFitGraphs() {
@@ -416,6 +433,11 @@ void SeriesChart::rescaleValueAxis() {
         // data: it counts up to twice the highest value otherwise shown.
         top = std::max(top, maxIn(m_view.fit->mid, first, last));
         top = std::max(top, std::min(maxIn(m_view.fit->high, first, last), 2 * top));
+    }
+    if (m_view.nowcast) {
+        // Like the fit's band: the interval counts up to twice the highest value otherwise shown.
+        top = std::max(top, maxIn(m_view.nowcast->mid, first, last));
+        top = std::max(top, std::min(maxIn(m_view.nowcast->high, first, last), 2 * top));
     }
     if (m_preview)
         for (auto it = m_preview->data()->constBegin(); it != m_preview->data()->constEnd(); ++it)

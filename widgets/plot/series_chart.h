@@ -105,6 +105,8 @@ private:
     void drawSecondMeasure(const QVector<double>& keys);
     void drawFindings();
     void drawFit();
+    /// The nowcast's band and line, when the view has one (its own style, plot_style.h).
+    void drawNowcast(const QVector<double>& keys);
     void rescaleValueAxis();
     void orderLiveLayer();
     void removeFitGraphs();

@@ -55,6 +55,15 @@ SeriesView seriesViewOf(const report::PlotModel& model) {
         view.fitWindow = DayIndexRange{model.axis.periodOnGrid(model.fit->windowFirst),
                                        model.axis.periodOnGrid(model.fit->windowLast)};
     }
+    if (model.nowcast) {
+        NowcastBand band;
+        band.label = qs(model.nowcast->label);
+        band.bandLabel = qs(model.nowcast->bandLabel);
+        band.mid = model.nowcast->mid;
+        band.low = model.nowcast->low;
+        band.high = model.nowcast->high;
+        view.nowcast = std::move(band);
+    }
     for (const report::FindingMarkSpec& f : model.findings)
         view.findings.push_back({qs(f.id),
                                  QString::fromStdString(f.kindLabel),

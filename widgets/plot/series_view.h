@@ -41,6 +41,16 @@ struct FittedCurve {
     QString bandLabel;         // what the band is (legend); empty: "Fit band"
 };
 
+/// The nowcast over the last periods (report::NowcastSpec): an estimate of reports still to
+/// come, drawn in its own style with its band, never as counts.
+struct NowcastBand {
+    QString label;            // "Nowcast: estimate of reports still to come (...)"
+    QString bandLabel;        // "95% interval of the nowcast"
+    std::vector<double> mid;  // per period; NaN where nothing is estimated
+    std::vector<double> low;
+    std::vector<double> high;
+};
+
 struct SeriesView {
     QString regionCode;  // verbatim
     QString regionName;
@@ -57,6 +67,7 @@ struct SeriesView {
     QString smoothedLabel;                  // e.g. "7-day centred mean"
     std::optional<FittedCurve> fit;
     std::optional<DayIndexRange> fitWindow;
+    std::optional<NowcastBand> nowcast;
     std::vector<FindingMark> findings;
     // Per day: the ledger entries that changed the cell (may be empty).
     std::vector<QStringList> touchedBy;

@@ -7,6 +7,7 @@
 // region x period table of cells. Rows that repeat a (region, date, measure) are kept aside in
 // `duplicates`; the table holds the first occurrence.
 
+#include "siftwave/case_list.h"
 #include "siftwave/date.h"
 #include "siftwave/time_axis.h"
 
@@ -72,9 +73,10 @@ enum class Layout {
     Long,         // one row per date x region (x measure): date, region, value column(s)
     DatesDown,    // wide: one row per date, one column per region
     DatesAcross,  // wide: one row per region, one column per date
+    CaseList,     // one row per case, with its dates (case_list.h); counted by event date
 };
 
-/// "long", "dates-down", "dates-across".
+/// "long", "dates-down", "dates-across", "case-list".
 const char* layoutName(Layout layout);
 std::optional<Layout> layoutFromName(std::string_view name);
 
@@ -160,6 +162,8 @@ struct Drop {
     std::vector<CellTable> tables;         // one per measure, each regions x periods
     std::vector<DuplicateRow> duplicates;
     std::vector<Warning> warnings;
+    /// A case list (layout CaseList): the cases behind the counts, with their lines.
+    std::optional<CaseList> caseList;
 
     /// Number of periods (days or weeks).
     std::int32_t periods() const { return axis.periods(); }

@@ -27,6 +27,8 @@ const char* layoutName(Layout layout) {
             return "dates-down";
         case Layout::DatesAcross:
             return "dates-across";
+        case Layout::CaseList:
+            return "case-list";
     }
     return "long";
 }
@@ -38,6 +40,8 @@ std::optional<Layout> layoutFromName(std::string_view name) {
         return Layout::DatesDown;
     if (name == "dates-across")
         return Layout::DatesAcross;
+    if (name == "case-list")
+        return Layout::CaseList;
     return std::nullopt;
 }
 

@@ -825,6 +825,8 @@ Status DropReader::cellPass() {
                 }
                 break;
             }
+            case Layout::CaseList:  // read by case_list_reader.cpp, never by these passes
+                break;
         }
     }
     if (scanner.failed())

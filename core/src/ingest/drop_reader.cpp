@@ -1,6 +1,8 @@
 // readDrop / parseDrop: sniffing and the overall sequence (see drop_reader.h).
 #include "ingest/drop_reader.h"
 
+#include "ingest/case_list_reader.h"
+
 #include "ingest/header_words.h"
 #include "ingest/spreadsheet/spreadsheet_drop.h"
 
@@ -418,6 +420,8 @@ Result<Drop> parseDrop(std::string_view bytes, const std::string& displayPath,
         return s.error();
     if (std::optional<Result<Drop>> sheet = readAsSpreadsheet(bytes, displayPath, options))
         return std::move(*sheet);
+    if (detail::isCaseList(bytes, options))
+        return detail::readCaseList(bytes, displayPath, options);
     detail::DropReader reader(bytes, displayPath, options, nullptr);
     return reader.run();
 }
@@ -430,6 +434,8 @@ Result<Drop> readDrop(const std::string& path, const IngestOptions& options) {
         return s.error();
     if (std::optional<Result<Drop>> sheet = readAsSpreadsheet(file.bytes(), path, options))
         return std::move(*sheet);
+    if (detail::isCaseList(file.bytes(), options))
+        return detail::readCaseList(file.bytes(), path, options);
     detail::DropReader reader(file.bytes(), path, options, &file);
     return reader.run();
 }

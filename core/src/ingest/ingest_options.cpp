@@ -48,6 +48,8 @@ Status IngestOptions::validate() const {
             ErrorCode::Usage,
             "--date-col does not apply to the dates-across layout (the dates are the header)");
     }
+    if (Status s = validateCaseListOptions(); !s)
+        return s;
     for (std::size_t i = 0; i < valueColumns.size(); ++i) {
         if (valueColumns[i].empty())
             return makeError(ErrorCode::Usage, "a value column name is empty");

@@ -61,7 +61,12 @@ void addTransmissionCaption(FigureSpec& spec) {
 
 Result<FigureSpec> buildFigureSpec(const Drop& drop, const ledger::Ledger& ledger,
                                    const ledger::Cleaned& cleaned, const FigureRequest& request) {
-    Result<PlotModel> model = buildPlotModel(drop, ledger, cleaned, request);
+    // A case list's last periods are incomplete: its figure shows their nowcast, as the
+    // workbench does, and the caption carries the nowcast's caution.
+    PlotRequest plot = request;
+    if (drop.caseList && !plot.nowcast && !plot.nowcastResult)
+        plot.nowcast = nowcast::NowcastOptions{};
+    Result<PlotModel> model = buildPlotModel(drop, ledger, cleaned, plot);
     if (!model)
         return model.error();
     FigureSpec spec;
@@ -74,6 +79,8 @@ Result<FigureSpec> buildFigureSpec(const Drop& drop, const ledger::Ledger& ledge
         spec.caption.bands = bandsDescription(*spec.fit);
     if (spec.transmission)
         addTransmissionCaption(spec);
+    if (spec.nowcast)
+        spec.caption.caution += " " + spec.nowcast->caution;
     spec.captionLines = captionLines(spec.caption);
     return spec;
 }

@@ -298,6 +298,16 @@ Result<PlotModel> buildPlotModel(const Drop& drop, const ledger::Ledger& ledger,
             transmission::estimateTransmission(model.cleaned, model.axis, *request.transmission);
         model.transmissionGrowthRate = request.transmissionGrowthRate;
     }
+    std::optional<nowcast::NowcastResult> nowcastResult = request.nowcastResult;
+    if (!nowcastResult && request.nowcast) {
+        auto made = nowcastOfCaseList(drop, *region, *request.nowcast);
+        if (made)
+            nowcastResult = std::move(*made);
+        else
+            model.nowcastError = made.error().message;
+    }
+    if (nowcastResult)
+        model.nowcast = nowcastSpecOf(*nowcastResult, model.axis);
 
     addMarks(model, ledger, cleaned);
     return model;

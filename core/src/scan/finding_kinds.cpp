@@ -368,6 +368,30 @@ std::vector<OptionRule> revisionRules(const ScanOptions& o) {
     };
 }
 
+// case_dates ---------------------------------------------------------------------------------
+
+std::string describeCaseDates(const EvidenceText& e) {
+    return e.get("rows") + " case row(s): " + e.e.value("problem", std::string()) + " (" +
+           e.get("share") + " of the region's rows)";
+}
+
+std::vector<OptionEntry> caseDatesOptions(ScanOptions& o) {
+    return {
+        {"case_dates.enabled", &o.caseDates.enabled,
+         "report case-list rows with a missing, unreadable or reversed date"},
+        {"case_dates.max_lines_listed", &o.caseDates.maxLinesListed, "lines listed per finding"},
+        {"case_dates.critical_share", &o.caseDates.criticalShare,
+         "critical when the rows are this share of the region's rows"},
+    };
+}
+
+std::vector<OptionRule> caseDatesRules(const ScanOptions& o) {
+    return {
+        {o.caseDates.maxLinesListed >= 0, "case_dates.max_lines_listed", "0 or more"},
+        {o.caseDates.criticalShare > 0, "case_dates.critical_share", "positive"},
+    };
+}
+
 // The table ----------------------------------------------------------------------------------
 
 const FindingKindDescriptor kTable[] = {
@@ -411,6 +435,9 @@ const FindingKindDescriptor kTable[] = {
     {FindingKind::Revision, "revision", "history that moved since the previous release",
      kNeedsPrevious, isEnabled<&ScanOptions::revision>, runRevisions, describeRevision,
      revisionOptions, revisionRules},
+    {FindingKind::CaseDates, "case_dates", "case-list rows with a missing or reversed date",
+     kNeedsDropOnly, isEnabled<&ScanOptions::caseDates>, run<findCaseDateProblems>,
+     describeCaseDates, caseDatesOptions, caseDatesRules},
 };
 
 }  // namespace

@@ -146,6 +146,7 @@ void findUnknownCodes(const ScanInput& in, std::vector<Finding>& out);
 void findWeekdayEffects(const ScanInput& in, std::vector<Finding>& out);
 void findCumulativeDecreases(const ScanInput& in, std::vector<Finding>& out);
 void findHierarchyMismatches(const ScanInput& in, std::vector<Finding>& out);
+void findCaseDateProblems(const ScanInput& in, std::vector<Finding>& out);
 /// Appends revision findings and fills `summary`.
 void findRevisions(const ScanInput& in, std::vector<Finding>& out, RevisionSummary& summary);
 

@@ -62,8 +62,26 @@ struct IngestOptions {
     /// rows hold dates. Refused for a CSV file.
     std::string sheet;
 
+    /// A case list: one row per case with its dates (case_list.h), counted per region and period
+    /// by the event date. Default: detected (case_list_reader.h: a header, one or more columns
+    /// of dates, and no column of counts); true forces it (`--case-list`, or layout CaseList),
+    /// false refuses it.
+    std::optional<bool> caseList;
+    /// The case list's event date (onset, sample, hospitalisation). Default: the first date
+    /// column whose name does not speak of a report. Naming it (or reportColumn) forces a case
+    /// list.
+    std::string eventColumn;
+    /// The case list's report date. Default: the date column whose name speaks of a report
+    /// (report, notification, Meldung, ...), else the next date column after the event's; none
+    /// when the list has one date column.
+    std::string reportColumn;
+
     /// Usage errors (unknown date format, a delimiter that is a quote, ...).
     Status validate() const;
+    /// The case-list options' part of validate() (case_list_reader.cpp).
+    Status validateCaseListOptions() const;
+    /// True when the options ask for a case list (caseList, layout CaseList, event/report column).
+    bool forcesCaseList() const;
 };
 
 /// Reads and parses a file. The file is never written.

@@ -28,6 +28,7 @@
 #include "siftwave/ledger/cleaned.h"
 #include "siftwave/ledger/decision.h"
 #include "siftwave/ledger/entry.h"
+#include "siftwave/nowcast/nowcast.h"
 #include "siftwave/region_register.h"
 #include "siftwave/result.h"
 #include "siftwave/scan/finding.h"
@@ -97,6 +98,20 @@ struct FittedCurveSpec {
     double peakValue = 0;  // cases per day or week at the peak (result.incidenceUnit())
 };
 
+/// The nowcast over the last periods (nowcast.h): drawn in its own style with its band and
+/// labelled as an estimate of reports still to come, never as counts.
+struct NowcastSpec {
+    // Per period of the axis; NaN outside the periods still estimated with reports still
+    // expected (under 99 % in by now), and where a period is under a tenth reported.
+    std::vector<double> mid;
+    std::vector<double> low;
+    std::vector<double> high;
+    std::string label;      // "Nowcast: reports still to come (chain-ladder, max delay 15 days)"
+    std::string bandLabel;  // "95% interval of the nowcast"
+    std::string caution;    // nowcast::kNowcastCaution
+    Date now;
+};
+
 struct PlotModel {
     std::string regionCode;  // verbatim
     std::string regionName;  // from the register; empty when unknown
@@ -133,6 +148,8 @@ struct PlotModel {
 
     std::optional<FittedCurveSpec> fit;  // the fitted wave, when one was asked for and worked
     std::string fitError;  // why a requested fit is missing ("" when none was asked or it worked)
+    std::optional<NowcastSpec> nowcast;  // the nowcast, when one was asked for and could be made
+    std::string nowcastError;            // why a requested nowcast is missing
     std::vector<DecisionMark> decisions;
     std::vector<ExcludedRange> excluded;
     // Growth rate and R_t of the cleaned series (transmission.h), drawn in a panel under the
@@ -166,6 +183,11 @@ struct PlotRequest {
     std::optional<transmission::TransmissionOptions> transmission;
     /// The panel shows the growth rate r(t) instead of R_t.
     bool transmissionGrowthRate = false;
+    /// Nowcast a case list's region at its last report date with these options (nullopt: no
+    /// nowcast, unless `nowcastResult`). A drop that is not a case list gives none.
+    std::optional<nowcast::NowcastOptions> nowcast;
+    /// A nowcast already made (e.g. from a release history); wins over `nowcast`.
+    std::optional<nowcast::NowcastResult> nowcastResult;
 
     /// Usage errors: no region, invalid fit options.
     Status validate() const;
@@ -182,6 +204,14 @@ Result<PlotModel> buildPlotModel(const Drop& drop, const ledger::Ledger& ledger,
 /// `axis`). What buildPlotModel() puts in PlotModel::fit.
 FittedCurveSpec fittedCurveOf(const fit::FitResult& result, const TimeAxis& axis,
                               const std::vector<double>& cleaned, bool countRange);
+
+/// The nowcast's rows on `axis` (plot_nowcast.cpp): what buildPlotModel() puts in
+/// PlotModel::nowcast.
+NowcastSpec nowcastSpecOf(const nowcast::NowcastResult& result, const TimeAxis& axis);
+/// The nowcast of a case list's region at the list's last report date; an error when the drop
+/// is not a case list with report dates.
+Result<nowcast::NowcastResult> nowcastOfCaseList(const Drop& drop, std::size_t region,
+                                                 const nowcast::NowcastOptions& options);
 
 /// "Daily cases", "Weekly deaths": the value axis of a measure on `axis`.
 std::string valueAxisLabel(const TimeAxis& axis, const std::string& measure);

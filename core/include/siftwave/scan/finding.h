@@ -52,6 +52,7 @@ enum class FindingKind {
     CumulativeDecrease,
     HierarchyMismatch,
     Revision,
+    CaseDates,
 };
 
 inline constexpr FindingKind kAllFindingKinds[] = {
@@ -59,7 +60,7 @@ inline constexpr FindingKind kAllFindingKinds[] = {
     FindingKind::BacklogDump,   FindingKind::ReportingGap,       FindingKind::StaleValues,
     FindingKind::CodeCollision, FindingKind::CodeVariant,        FindingKind::UnknownCode,
     FindingKind::WeekdayEffect, FindingKind::CumulativeDecrease, FindingKind::HierarchyMismatch,
-    FindingKind::Revision,
+    FindingKind::Revision,      FindingKind::CaseDates,
 };
 
 /// The identifier used in JSON and on the command line: "missing_dates", "backlog_dump", ...

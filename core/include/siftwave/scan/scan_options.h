@@ -135,6 +135,12 @@ struct RevisionOptions {
         0.05;  // critical when |revised amount| is this share of the region's total
 };
 
+struct CaseDatesOptions {
+    bool enabled = true;          // runs only on a case list (Drop::caseList)
+    int maxLinesListed = 50;      // lines listed per finding (all are counted)
+    double criticalShare = 0.05;  // critical when the rows are this share of the region's rows
+};
+
 struct ScanOptions {
     MissingDatesOptions missingDates;
     DuplicateRowOptions duplicateRow;
@@ -149,6 +155,7 @@ struct ScanOptions {
     CumulativeDecreaseOptions cumulativeDecrease;
     HierarchyMismatchOptions hierarchyMismatch;
     RevisionOptions revision;
+    CaseDatesOptions caseDates;
 
     /// Usage error naming the first value out of range.
     Status validate() const;

@@ -1,0 +1,69 @@
+// File > Open release history: earlier releases of the open drop's series, read in the
+// background; the plot then shows the nowcast they give (nowcast/triangle.h, Workbench).
+#include "main_window.h"
+
+#include "settings.h"
+#include "widgets/common/background_task.h"
+#include "widgets/common/drop_loading.h"
+#include "widgets/common/workbench.h"
+
+#include <QFileDialog>
+#include <QFileInfo>
+
+namespace siftwave::gui {
+namespace {
+
+struct LoadedHistory {
+    std::vector<std::shared_ptr<const Drop>> releases;
+    std::optional<Error> error;  // the first file that could not be read
+};
+
+}  // namespace
+
+void MainWindow::showOpenHistoryDialog() {
+    const QString start = m_options.rememberLayout ? settings::lastDirectory() : QString();
+    const QStringList paths = QFileDialog::getOpenFileNames(
+        this, tr("Open earlier releases of this series (one per day or week)"), start,
+        tr("Data drops (*.csv *.tsv *.txt);;All files (*)"));
+    if (!paths.isEmpty())
+        openReleaseHistory(paths);
+}
+
+void MainWindow::openReleaseHistory(const QStringList& paths) {
+    if (m_task)
+        m_task->cancel();
+    const std::string expectedDrop =
+        m_workbench->hasDrop() ? m_workbench->drop().source.sha256 : std::string();
+    widgets::BackgroundTask* task = widgets::BackgroundTask::start(
+        this, tr("Reading %n release(s)", nullptr, static_cast<int>(paths.size())),
+        [paths] {
+            LoadedHistory out;
+            for (const QString& path : paths) {
+                widgets::LoadRequest request;
+                request.dropPath = path;
+                request.withRegister = false;
+                widgets::LoadedDrop loaded = widgets::loadDrop(request);
+                if (!loaded.ok()) {
+                    out.error = *loaded.error;
+                    break;
+                }
+                out.releases.push_back(loaded.drop);
+            }
+            return out;
+        },
+        [this, expectedDrop](const LoadedHistory& loaded) {
+            if (!m_workbench->hasDrop() || m_workbench->drop().source.sha256 != expectedDrop)
+                return;
+            if (loaded.error) {
+                showError(tr("A release could not be read"), widgets::describeError(*loaded.error));
+                return;
+            }
+            m_workbench->setReleaseHistory(loaded.releases);
+            if (const QString problem = m_workbench->releaseHistoryProblem(); !problem.isEmpty())
+                showError(tr("The releases give no nowcast"), problem);
+            Q_EMIT historyOpened(static_cast<int>(m_workbench->releaseHistorySize()));
+        });
+    setBusy(task);
+}
+
+}  // namespace siftwave::gui
