@@ -3,6 +3,7 @@
 #include "siftwave/ingest/ingest.h"
 #include "siftwave/sha256.h"
 
+#include "support/cli_run.h"
 #include "support/temp_path.h"
 
 #include <gtest/gtest.h>
@@ -22,41 +23,18 @@
 
 namespace {
 
-struct CliRun {
-    int exitCode = -1;
-    std::string out;
-    std::string err;
-};
+using CliRun = siftwave::testing::CliResult;
 
 std::string slurp(const std::filesystem::path& path) {
-    std::ifstream in(path, std::ios::binary);
-    return std::string((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+    return siftwave::testing::slurpFile(path);
 }
 
 CliRun run(const std::string& args) {
-    const std::filesystem::path errPath =
-        siftwave::testing::testTempPath("siftwave_inspect_test.err");
-    const std::string cmd = std::string(SIFTWAVE_CLI_PATH) + " " + args + " 2>" + errPath.string();
-    CliRun r;
-    FILE* p = popen(cmd.c_str(), "r");
-    if (!p)
-        return r;
-    std::array<char, 4096> buf{};
-    std::size_t n;
-    while ((n = fread(buf.data(), 1, buf.size(), p)) > 0)
-        r.out.append(buf.data(), n);
-    const int status = pclose(p);
-    r.exitCode = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-    r.err = slurp(errPath);
-    std::filesystem::remove(errPath);
-    return r;
+    return siftwave::testing::runCli(args);
 }
 
 std::string writeDrop(const std::string& name, const std::string& text) {
-    const std::filesystem::path path = siftwave::testing::testTempPath(name);
-    std::ofstream out(path, std::ios::binary);
-    out << text;
-    return path.string();
+    return siftwave::testing::writeTempFile(name, text);
 }
 
 TEST(CliInspect, JsonHasEveryFieldTheIssueNames) {
