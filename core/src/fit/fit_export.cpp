@@ -84,7 +84,7 @@ constexpr std::string_view kCsvHeader =
     "region,model,method,window_first,window_last,peak_date,peak_incidence,incidence_unit,"
     "wave_size,fraction_observed,start_date,end_date,fastest_growth_date,doubling_time_days,"
     "peak_infectious_load,peak_infectious_load_per_100k,aic,aicc,r2,rmse,converged,parameters,"
-    "error";
+    "error,status,status_reasons";
 
 }  // namespace
 
@@ -92,6 +92,8 @@ json fitToJson(std::string_view region, const FitResult& f,
                std::span<const ModelComparisonRow> comparison, bool withCurve) {
     json j;
     j["region"] = region;
+    j["status"] = fitStatusName(f.status);
+    j["status_reasons"] = f.statusReasons;
     j["model"] = modelName(f.model);
     j["method"] = methodName(f.method);
     j["window"] = {{"first", f.windowFirst().iso()}, {"last", f.windowLast().iso()}};
@@ -196,6 +198,11 @@ std::string fitCsvRow(const RegionFit& r) {
         c.push_back(textField(params));
         c.emplace_back();
     }
+    c.push_back(fitStatusName(regionStatus(r)));
+    std::string reasons;
+    for (const auto& why : regionStatusReasons(r))
+        reasons += (reasons.empty() ? "" : "; ") + why;
+    c.push_back(textField(reasons));
     std::string line;
     for (std::size_t i = 0; i < c.size(); ++i)
         line += (i ? "," : "") + c[i];

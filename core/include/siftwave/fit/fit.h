@@ -199,8 +199,25 @@ struct FitSummary {
     std::string brief() const;
 };
 
+/// Whether a fit can be briefed (issue 15). ok: converged and plausible. not_converged: the
+/// solver stopped before convergence. implausible: converged, but the numbers cannot describe
+/// the wave (FitResult::statusReasons says which check failed: the peak outside the window while
+/// less than half the wave is observed; a size over 20 x the window's counts; a 95% interval of
+/// the size or the peak incidence wider than the estimate itself, or none at all; a parameter at a
+/// bound of its model's domain). no_wave: there was no wave to fit (the fitted curve stays above
+/// half its top across the whole window, as on noise or a plateau; or a region's fit failed with
+/// not_found).
+enum class FitStatus { Ok, NotConverged, Implausible, NoWave };
+
+/// "ok", "not_converged", "implausible", "no_wave" (stable names for JSON and CSV).
+const char* fitStatusName(FitStatus status);
+/// What to try for a status other than ok, to follow "try ": another window, model or method.
+const char* fitStatusAdvice(FitStatus status);
+
 struct FitResult {
-    ModelKind model = ModelKind::Gumbel;  // with ModelChoice::Given
+    FitStatus status = FitStatus::Ok;
+    std::vector<std::string> statusReasons;  // empty when ok
+    ModelKind model = ModelKind::Gumbel;     // with ModelChoice::Given
     ModelChoice modelChoice = ModelChoice::Given;
     FitMethod method = FitMethod::LeastSquares;
     Date seriesFirstDay;
