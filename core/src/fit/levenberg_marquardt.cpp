@@ -440,7 +440,8 @@ bool LevenbergMarquardt::gradientSmall() {
 }
 
 // h(lambda) solving [R; sqrt(lambda) D] h = [-Q^T r; 0] in the least-squares sense, and Rl, the
-// triangular factor of that system (Rl^T Rl = R^T R + lambda D^2). lambda = 0 is the Gauss-Newton
+// triangular factor of that system (Rl^T Rl = R^T R + lambda D^2; for lambda = 0, R itself, left
+// in place). lambda = 0 is the Gauss-Newton
 // step, refused (false) when R is numerically singular. With the normal equations the damped step
 // comes from the Cholesky factor of A + lambda D^2 (QR when that fails).
 bool LevenbergMarquardt::solveDamped(double lambda) {
@@ -450,8 +451,7 @@ bool LevenbergMarquardt::solveDamped(double lambda) {
         if (!(m_w.R.diagonal().cwiseAbs().minCoeff() > static_cast<double>(n) * kEpsilon * largest))
             return false;
         m_w.h = -m_w.qtr;
-        m_w.R.triangularView<Eigen::Upper>().solveInPlace(m_w.h);
-        m_w.Rl = m_w.R;
+        m_w.R.triangularView<Eigen::Upper>().solveInPlace(m_w.h);  // Rl = R: not copied
         return allFinite(m_w.h.data(), static_cast<std::size_t>(n));
     }
     if (m_fromNormalEquations) {
