@@ -908,15 +908,16 @@ void checkInterval(const Estimate& e, const char* what, std::vector<std::string>
 // The lower of the fitted curve's values at the window's two ends over its top within the window:
 // a wave rises and falls (or at least rises) across its window, noise or a plateau does not (on
 // generated waves at most 0.014, on Poisson noise 0.59 to 0.86; our own measurement).
-double edgeToTopRatio(const FitState& s) {
+double edgeToTopRatio(const FitState& s, double peakDay) {
     const FitResult& res = s.res;
-    const int windowDays = (res.last - res.first) * s.pd + (s.pd - 1);
-    double top = 0;
-    for (int d = 0; d <= windowDays; ++d)
-        top = std::max(top, s.model->incidenceAt(d, s.params));
+    const double windowDays = (res.last - res.first) * s.pd + (s.pd - 1);
+    // The four models are unimodal: the top within the window is at the peak, or at the window's
+    // end nearer to it.
+    const double top = s.model->incidenceAt(
+        std::isfinite(peakDay) ? std::clamp(peakDay, 0.0, windowDays) : 0.0, s.params);
     const double edge =
         std::min(s.model->incidenceAt(0, s.params), s.model->incidenceAt(windowDays, s.params));
-    return top > 0 ? edge / top : 1.0;
+    return top > 0 ? edge / std::max(top, edge) : 1.0;
 }
 
 // The status of issue 15: a fit the solver finished may still describe no wave an analyst could
@@ -953,7 +954,7 @@ void assessStatus(FitState& s, const std::array<double, kDerivedCount>& d0) {
     checkInterval(res.derived.peakIncidence, "peak incidence", why);
     if (std::string name; parameterAtBound(s, name))
         why.push_back("the parameter " + name + " is at a bound of the model's domain");
-    const double flat = edgeToTopRatio(s);
+    const double flat = edgeToTopRatio(s, d0[kPeakDay]);
     if (!(flat < 0.5)) {
         std::snprintf(buf, sizeof buf,
                       "the fitted curve stays above %.0f%% of its top across the whole window: "
