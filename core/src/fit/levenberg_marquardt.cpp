@@ -294,9 +294,10 @@ public:
     bool done() const { return m_done; }
     // True when a column of J has shrunk below 1e-8 of its largest norm in this run: the model has
     // (nearly) stopped depending on that parameter, the run ended in a flat region.
+    // (The column norms of the last factorisation: O(n), no pass over J.)
     bool columnCollapsed() const {
         for (Eigen::Index j = 0; j < m_n; ++j) {
-            if (m_w.J.col(j).norm() < 1e-8 * m_w.D[j])
+            if (std::sqrt(m_w.columnNorms2[j]) < 1e-8 * m_w.D[j])
                 return true;
         }
         return false;
