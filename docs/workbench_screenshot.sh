@@ -45,7 +45,9 @@ project = {
              "visible_first": None, "visible_last": None},
     "fit": {"model": "gumbel", "method": "lsq", "window_first": None, "window_last": None,
             "smoothing_days": 7},
-    "extra": {},
+    # The transmission panel under the plot: R_t with an illustrative serial interval (gamma,
+    # mean 4.7 d, sd 2.9 d; invented for the sample scenario).
+    "extra": {"transmission.si_mean": "4.7", "transmission.si_sd": "2.9"},
 }
 json.dump(project, open(f"{work}/morning.siftwave.json", "w"), indent=2)
 PY

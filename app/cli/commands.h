@@ -13,6 +13,7 @@ int runApply(int argc, char** argv, int first);
 int runLedger(int argc, char** argv, int first);
 int runSigningKey(int argc, char** argv, int first);
 int runFit(int argc, char** argv, int first);
+int runTransmission(int argc, char** argv, int first);
 int runFigure(int argc, char** argv, int first);  // app/cli/qt/ (app/cli/no_qt/ without Qt)
 int runReport(int argc, char** argv, int first);  // app/cli/qt/ (app/cli/no_qt/ without Qt)
 

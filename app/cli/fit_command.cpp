@@ -3,13 +3,10 @@
 //     [--window FIRST:LAST|auto] [--wave largest|latest|N] [--json [--curve]|--csv]
 #include "commands.h"
 #include "common.h"
+#include "series_input.h"
 
 #include "siftwave/fit/batch.h"
 #include "siftwave/fit/fit_export.h"
-#include "siftwave/ledger/export.h"
-#include "siftwave/ledger/ledger_file.h"
-#include "siftwave/ledger/replay.h"
-#include "siftwave/series/daily.h"
 
 #include <array>
 #include <cmath>
@@ -160,15 +157,6 @@ std::vector<FlagSpec> fitFlagSpecs() {
     return specs;
 }
 
-// A step's failure: the error to print and the exit code to return.
-struct Failure {
-    Error error;
-    int exitCode = kExitBadInput;
-};
-
-template <class T>
-using Step = std::variant<T, Failure>;
-
 // The model, method, weekday and wave flags; a usage message when a value is unknown.
 std::optional<std::string> readModelFlags(const ParsedArgs& args, fit::FitOptions& o) {
     if (auto m = args.optionalValue("model")) {
@@ -204,29 +192,6 @@ std::optional<std::string> readModelFlags(const ParsedArgs& args, fit::FitOption
     return std::nullopt;
 }
 
-// The register (--regions, else the one beside the drop unless --no-regions) and the measure
-// (--measure, default the first) for the drop.
-std::optional<Failure> readRegisterAndMeasure(const ParsedArgs& args, const Drop& drop,
-                                              std::optional<RegionRegister>& reg,
-                                              std::size_t& measure) {
-    Result<std::optional<RegionRegister>> registerRead = loadRegister(args, args.positional[0]);
-    if (!registerRead)
-        return Failure{registerRead.error()};
-    reg = std::move(registerRead.value());
-    if (auto m = args.optionalValue("measure")) {
-        auto idx = drop.measureIndex(*m);
-        if (!idx) {
-            Error e = makeError(ErrorCode::NotFound, "the drop has no measure '" + *m + "'");
-            e.file = drop.source.path;
-            return Failure{e};
-        }
-        measure = *idx;
-    }
-    if (drop.measures.empty() || drop.periods() == 0)
-        return Failure{makeError(ErrorCode::NotFound, "the drop holds no counts to fit")};
-    return std::nullopt;
-}
-
 // What the drop's calendar asks of the options: the weekly smoothing and wave-detection
 // thresholds (fit.h, waves.h), no weekday factors on weekly counts, and the window's dates as
 // periods.
@@ -251,68 +216,23 @@ std::optional<Failure> fitToCalendar(const ParsedArgs& args, const Drop& drop, f
     return std::nullopt;
 }
 
-// The regions to fit: --region's, or every region of the drop.
-Step<std::vector<std::size_t>> regionsToFit(const ParsedArgs& args, const Drop& drop) {
-    std::vector<std::size_t> indices;
-    if (auto code = args.optionalValue("region")) {
-        auto idx = drop.regionIndex(*code);
-        if (!idx) {
-            Error e = makeError(ErrorCode::NotFound, "the drop has no region '" + *code + "'");
-            e.file = drop.source.path;
-            e.region = *code;
-            return Failure{e};
-        }
-        indices.push_back(*idx);
-    } else {
-        for (std::size_t i = 0; i < drop.regionCodes.size(); ++i)
-            indices.push_back(i);
-    }
-    return indices;
-}
-
-// With --ledger, the cleaned series: the ledger replayed over the drop.
-Step<std::optional<ledger::Cleaned>> cleanedByLedger(const ParsedArgs& args, const Drop& drop) {
-    auto path = args.optionalValue("ledger");
-    if (!path)
-        return std::optional<ledger::Cleaned>();
-    auto ledger = ledger::readLedgerFile(*path);
-    if (!ledger)
-        return Failure{ledger.error()};
-    auto replayed = ledger::replay(drop, *ledger);
-    if (!replayed)
-        return Failure{replayed.error()};
-    return std::optional<ledger::Cleaned>(std::move(replayed.value()));
-}
-
 // Each region's counts (cleaned where a ledger was replayed; NaN where there is no value), with
 // its population from the register. `counts` holds the values the series point into.
-std::vector<fit::RegionSeries> regionSeries(const Drop& drop,
-                                            const std::optional<ledger::Cleaned>& cleaned,
-                                            const std::optional<RegionRegister>& reg,
-                                            std::size_t measure,
-                                            const std::vector<std::size_t>& indices,
+std::vector<fit::RegionSeries> regionSeries(const SeriesJob& job,
                                             std::vector<std::vector<double>>& counts) {
-    counts.assign(indices.size(), {});
-    std::vector<fit::RegionSeries> regions(indices.size());
-    for (std::size_t k = 0; k < indices.size(); ++k) {
-        if (cleaned) {
-            const auto cells = cleaned->series(measure, indices[k]);
-            counts[k].assign(cells.size(), std::numeric_limits<double>::quiet_NaN());
-            for (std::size_t d = 0; d < cells.size(); ++d) {
-                if (cells[d].hasValue())
-                    counts[k][d] = static_cast<double>(cells[d].value);
-            }
-        } else {
-            counts[k] = series::countsOf(drop, measure, indices[k]);
-        }
-        const std::string& code = drop.regionCodes[indices[k]];
+    counts.assign(job.indices.size(), {});
+    std::vector<fit::RegionSeries> regions(job.indices.size());
+    for (std::size_t k = 0; k < job.indices.size(); ++k) {
+        counts[k] = regionCounts(job, job.indices[k]);
+        const std::string& code = job.drop.regionCodes[job.indices[k]];
         std::optional<double> population;
-        if (reg) {
-            if (const RegionEntry* e = reg->find(code); e && e->population) {
+        if (job.reg) {
+            if (const RegionEntry* e = job.reg->find(code); e && e->population) {
                 population = static_cast<double>(*e->population);
             }
         }
-        regions[k] = {code, {drop.axis.first(), counts[k], drop.axis.periodDays()}, population};
+        regions[k] = {
+            code, {job.drop.axis.first(), counts[k], job.drop.axis.periodDays()}, population};
     }
     return regions;
 }
@@ -361,37 +281,11 @@ void printResults(const std::vector<fit::RegionFit>& results, OutputFormat forma
     }
 }
 
-// What the drop and the flags come to: the series to fit and the options to fit them with.
-struct FitJob {
-    Drop drop;
-    std::optional<RegionRegister> reg;
-    std::optional<ledger::Cleaned> cleaned;
-    std::size_t measure = 0;
-    std::vector<std::size_t> indices;
-};
-
 // Reads the drop, the register, the ledger and the regions the flags name, and fits the
 // options to the drop's calendar.
-Step<FitJob> prepareJob(const ParsedArgs& args, fit::FitOptions& o) {
-    Result<Drop> drop = loadDrop(args.positional[0], args);
-    if (!drop) {
-        const int code = drop.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
-        return Failure{drop.error(), code};
-    }
-    FitJob job{std::move(drop.value()), {}, {}, 0, {}};
-    if (auto f = readRegisterAndMeasure(args, job.drop, job.reg, job.measure))
-        return *f;
-    if (auto f = fitToCalendar(args, job.drop, o))
-        return *f;
-    auto indices = regionsToFit(args, job.drop);
-    if (auto* f = std::get_if<Failure>(&indices))
-        return *f;
-    job.indices = std::move(std::get<0>(indices));
-    auto cleaned = cleanedByLedger(args, job.drop);
-    if (auto* f = std::get_if<Failure>(&cleaned))
-        return *f;
-    job.cleaned = std::move(std::get<0>(cleaned));
-    return job;
+Step<SeriesJob> prepareJob(const ParsedArgs& args, fit::FitOptions& o) {
+    return prepareSeriesJob(args, true,
+                            [&](const Drop& drop) { return fitToCalendar(args, drop, o); });
 }
 
 }  // namespace
@@ -442,9 +336,9 @@ int runFit(int argc, char** argv, int first) {
         printError(f->error, json);
         return f->exitCode;
     }
-    const FitJob& j = std::get<FitJob>(job);
+    const SeriesJob& j = std::get<SeriesJob>(job);
     std::vector<std::vector<double>> counts;
-    const auto regions = regionSeries(j.drop, j.cleaned, j.reg, j.measure, j.indices, counts);
+    const auto regions = regionSeries(j, counts);
     const auto results = fit::fitRegions(regions, batch);
 
     const bool single = args->has("region");

@@ -25,6 +25,8 @@ constexpr Command kCommands[] = {
     {"signing-key", "make or show your key for signing ledger entries",
      siftwave::cli::runSigningKey},
     {"fit", "fit wave curves to one region or all, with 95% intervals", siftwave::cli::runFit},
+    {"transmission", "growth rate, doubling time and R_t per period, with 95% intervals",
+     siftwave::cli::runTransmission},
     {"figure", "draw an annotated briefing figure (PNG, SVG, PDF; needs Qt)",
      siftwave::cli::runFigure},
     {"report", "write the briefing report (PDF, HTML; needs Qt)", siftwave::cli::runReport},

@@ -1,9 +1,11 @@
 #include "export_figure_action.h"
 
 #include "main_window.h"
+#include "transmission_controller.h"
 
 #include "widgets/common/workbench.h"
 #include "widgets/export/figure_export_dialog.h"
+#include "widgets/plot/transmission_panel.h"
 
 #include <QAction>
 #include <QMenu>
@@ -21,6 +23,15 @@ widgets::FigureExportDialog::Inputs figureExportInputs(const MainWindow& window)
     inputs.regions = workbench.regionRegister();
     inputs.previous = workbench.previousDrop();
     inputs.currentRegion = window.currentRegion();
+    // The transmission panel as the workbench shows it: r(t), or R_t once a serial interval is
+    // set (a figure does not carry a panel that only says R_t needs one).
+    const auto& options = window.transmissionController()->options();
+    const bool growth =
+        window.transmissionPanel()->measure() == widgets::TransmissionMeasure::GrowthRate;
+    if (options && (growth || options->serialInterval)) {
+        inputs.transmission = options;
+        inputs.transmissionGrowthRate = growth;
+    }
     return inputs;
 }
 

@@ -5,6 +5,7 @@
 #include "export_figure_action.h"
 #include "fit_controller.h"
 #include "project_controller.h"
+#include "transmission_controller.h"
 
 #include "settings.h"
 
@@ -25,6 +26,8 @@
 #include "widgets/findings/region_model.h"
 #include "widgets/plot/series_plot.h"
 #include "widgets/plot/series_view.h"
+#include "widgets/plot/transmission_panel.h"
+#include "widgets/transmission/transmission_pane.h"
 
 #include <QAction>
 #include <QApplication>
@@ -45,6 +48,7 @@
 #include <QMimeData>
 #include <QProgressBar>
 #include <QPushButton>
+#include <QSplitter>
 #include <QStandardPaths>
 #include <QStatusBar>
 #include <QTextBrowser>
@@ -59,7 +63,8 @@ namespace siftwave::gui {
 // The version of the dock arrangement saved in the settings: a layout saved under another
 // (older) version is not restored, so a new default arrangement reaches every user once.
 // 1: Findings moved under the plot, beside the Ledger.
-constexpr int kDockLayoutVersion = 1;
+// 2: the Transmission settings beside the Wave fit (the panel under the plot).
+constexpr int kDockLayoutVersion = 2;
 
 using widgets::BackgroundTask;
 
@@ -77,11 +82,15 @@ MainWindow::MainWindow(Options options, QWidget* parent)
       m_decisionPane(new widgets::DecisionPane),
       m_ledgerView(new widgets::LedgerView(m_workbench)),
       m_batchView(new widgets::BatchFitView),
+      m_transmissionPanel(new widgets::TransmissionPanel),
+      m_transmissionPane(new widgets::TransmissionPane),
       m_fitControl(new FitController(m_workbench, m_plot, m_fitPane, m_decisionPane, this)),
       m_decisionControl(
           new DecisionController(m_workbench, m_plot, m_decisionPane, options.dialogs, this)),
       m_projectControl(new ProjectController(m_workbench, m_plot, m_fitControl, this)),
       m_batchControl(new BatchController(m_workbench, m_plot, m_fitPane, m_batchView, this)),
+      m_transmissionControl(new TransmissionController(m_workbench, m_plot, m_transmissionPanel,
+                                                       m_transmissionPane, this)),
       m_dropLabel(new QLabel),
       m_taskLabel(new QLabel),
       m_progress(new QProgressBar),
@@ -90,11 +99,21 @@ MainWindow::MainWindow(Options options, QWidget* parent)
     setWindowTitle(tr("Siftwave"));
     setAcceptDrops(true);
     setDockOptions(AnimatedDocks | AllowNestedDocks | AllowTabbedDocks);
-    setCentralWidget(m_plot);
+    // The series plot over its time-aligned transmission panel (R_t or r(t)).
+    auto* centre = new QSplitter(Qt::Vertical);
+    centre->setObjectName(QStringLiteral("plotSplitter"));
+    centre->addWidget(m_plot);
+    centre->addWidget(m_transmissionPanel);
+    centre->setStretchFactor(0, 2);
+    centre->setStretchFactor(1, 1);
+    centre->setCollapsible(0, false);
+    setCentralWidget(centre);
+    m_transmissionPanel->follow(m_plot->customPlot());
 
     buildDocks();
     buildActions();
     buildControllers();
+    m_projectControl->setTransmission(m_transmissionControl);
 
     m_progress->setMaximumWidth(180);
     m_progress->setTextVisible(false);
@@ -132,6 +151,8 @@ void MainWindow::connectWidgets() {
             [this](int) { redrawSeries(); });
     connect(m_fitPane, &widgets::FitPane::optionsChanged, this,
             [this] { m_fitControl->refit(m_currentRegion, true); });
+    connect(m_transmissionPane, &widgets::TransmissionPane::optionsChanged, this,
+            [this] { m_transmissionControl->refresh(m_currentRegion); });
     connect(m_plot, &widgets::SeriesPlot::windowChanging, this,
             [this](widgets::DayIndexRange window) { onWindowDragged(window, false); });
     connect(m_plot, &widgets::SeriesPlot::windowChanged, this,
@@ -256,6 +277,13 @@ void MainWindow::buildDocks() {
     fit->setObjectName(QStringLiteral("fitDock"));
     fit->setWidget(m_fitPane);
     addDockWidget(Qt::RightDockWidgetArea, fit);
+
+    auto* transmissionDock = new QDockWidget(tr("Transmission"), this);
+    transmissionDock->setObjectName(QStringLiteral("transmissionDock"));
+    transmissionDock->setWidget(m_transmissionPane);
+    addDockWidget(Qt::RightDockWidgetArea, transmissionDock);
+    tabifyDockWidget(fit, transmissionDock);
+    fit->raise();
 
     m_findings->setObjectName(QStringLiteral("findingReview"));
     auto* findings = new QDockWidget(tr("Findings"), this);
@@ -778,6 +806,7 @@ void MainWindow::redrawSeries() {
     // A register region without rows in this release draws nothing: the plot says why.
     m_plot->setView(view, m_workbench->hasDrop() && view.empty() ? m_currentRegion : QString());
     m_fitControl->refit(m_currentRegion, true);
+    m_transmissionControl->refresh(m_currentRegion);
 }
 
 void MainWindow::updateReleaseSummary() {

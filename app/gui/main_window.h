@@ -35,6 +35,7 @@ namespace siftwave::gui {
 class BatchController;
 class DecisionController;
 class FitController;
+class TransmissionController;
 
 class MainWindow : public QMainWindow {
     Q_OBJECT
@@ -90,6 +91,9 @@ public:
     widgets::DecisionPane* decisionPane() const { return m_decisionPane; }
     widgets::LedgerView* ledgerView() const { return m_ledgerView; }
     widgets::BatchFitView* batchFitView() const { return m_batchView; }
+    widgets::TransmissionPanel* transmissionPanel() const { return m_transmissionPanel; }
+    widgets::TransmissionPane* transmissionPane() const { return m_transmissionPane; }
+    TransmissionController* transmissionController() const { return m_transmissionControl; }
     QUndoStack* undoStack() const;
 
     /// Starts preparing the finding's suggested decision (region selected, plot focused,
@@ -174,10 +178,13 @@ private:
     widgets::DecisionPane* m_decisionPane;
     widgets::LedgerView* m_ledgerView;
     widgets::BatchFitView* m_batchView;
+    widgets::TransmissionPanel* m_transmissionPanel;
+    widgets::TransmissionPane* m_transmissionPane;
     FitController* m_fitControl;
     DecisionController* m_decisionControl;
     ProjectController* m_projectControl;
     BatchController* m_batchControl;
+    TransmissionController* m_transmissionControl;
     QPointer<widgets::BackgroundTask> m_scanTask;
     QMenu* m_recentMenu = nullptr;
     QLabel* m_dropLabel;

@@ -2,6 +2,7 @@
 
 #include "fit_controller.h"
 #include "project_session.h"
+#include "transmission_controller.h"
 
 #include "widgets/common/drop_loading.h"
 #include "widgets/common/workbench.h"
@@ -30,6 +31,8 @@ void ProjectController::restoreView(const ledger::ProjectFile& project) {
     const auto measure = drop.measureIndex(project.view.measure);
     const auto second = drop.measureIndex(project.view.secondMeasure);
     m_fit->restoreChoices(project, drop.axis);
+    if (m_transmission)
+        m_transmission->restoreChoices(project);
     m_plot->chooseMeasure(measure ? static_cast<int>(*measure) : 0);
     m_plot->chooseSecondMeasure(second && second != measure ? static_cast<int>(*second) : -1);
     if (!project.view.region.empty())
@@ -67,6 +70,8 @@ ledger::ProjectFile ProjectController::projectOfWindow(const QString& projectPat
         p.view.visibleLast = drop.periodStart(visible.last);
     }
     m_fit->storeChoices(p, drop);
+    if (m_transmission)
+        m_transmission->storeChoices(p);
     return p;
 }
 

@@ -15,6 +15,7 @@
 namespace siftwave::gui {
 
 class FitController;
+class TransmissionController;
 
 class ProjectController : public QObject {
     Q_OBJECT
@@ -34,6 +35,8 @@ public:
     /// Shows a project's view and fit settings (region, measures, fit choices, visible days)
     /// over the drop just opened.
     void restoreView(const ledger::ProjectFile& project);
+    /// The transmission settings a project keeps (restored and saved with the fit choices).
+    void setTransmission(TransmissionController* transmission) { m_transmission = transmission; }
     /// Saves the window as a project (the ".siftwave.json" ending is added when missing);
     /// emits saved() or errorOccurred().
     bool save(const QString& path, const QString& currentRegion);
@@ -59,6 +62,7 @@ private:
     widgets::Workbench* m_workbench;
     widgets::SeriesPlot* m_plot;
     FitController* m_fit;
+    TransmissionController* m_transmission = nullptr;
     QString m_path;
 };
 

@@ -12,5 +12,7 @@ class LedgerView;
 class RegionBrowser;
 class RegionModel;
 class SeriesPlot;
+class TransmissionPane;
+class TransmissionPanel;
 class Workbench;
 }  // namespace siftwave::widgets

@@ -4,6 +4,8 @@
 #include "siftwave/ledger/ledger_file.h"
 #include "siftwave/ledger/replay.h"
 
+#include "support/cli_run.h"
+
 #include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
 
@@ -19,24 +21,8 @@ namespace {
 
 namespace fs = std::filesystem;
 
-struct CliRun {
-    int exitCode = -1;
-    std::string out;  // stdout and stderr together
-};
-
-CliRun runShell(const std::string& cmd) {
-    CliRun r;
-    FILE* p = popen(cmd.c_str(), "r");
-    if (!p)
-        return r;
-    std::array<char, 4096> buf{};
-    std::size_t n;
-    while ((n = fread(buf.data(), 1, buf.size(), p)) > 0)
-        r.out.append(buf.data(), n);
-    const int status = pclose(p);
-    r.exitCode = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-    return r;
-}
+using siftwave::testing::CliRun;  // out: stdout and stderr together (run() adds 2>&1)
+using siftwave::testing::runShell;
 
 CliRun run(const std::string& args) {
     return runShell(std::string(SIFTWAVE_CLI_PATH) + " " + args + " 2>&1");

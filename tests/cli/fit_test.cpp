@@ -3,6 +3,7 @@
 #include "siftwave/fit/fit.h"
 #include "siftwave/date.h"
 
+#include "support/cli_run.h"
 #include "support/temp_path.h"
 
 #include <gtest/gtest.h>
@@ -22,24 +23,11 @@
 
 namespace {
 
-struct CliRun {
-    int exitCode = -1;
-    std::string out;
-};
+using siftwave::testing::CliRun;
 
 CliRun run(const std::string& args) {
-    const std::string cmd = std::string(SIFTWAVE_CLI_PATH) + " fit " + args + " 2>/dev/null";
-    CliRun r;
-    FILE* p = popen(cmd.c_str(), "r");
-    if (!p)
-        return r;
-    std::array<char, 4096> buf{};
-    std::size_t n;
-    while ((n = fread(buf.data(), 1, buf.size(), p)) > 0)
-        r.out.append(buf.data(), n);
-    const int status = pclose(p);
-    r.exitCode = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-    return r;
+    return siftwave::testing::runShell(std::string(SIFTWAVE_CLI_PATH) + " fit " + args +
+                                       " 2>/dev/null");
 }
 
 const std::string kDrop = std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_current.csv";

@@ -3,6 +3,7 @@
 // head hash in its caption, as `siftwave-cli figure --ledger` does.
 #include "export_figure_action.h"
 #include "main_window.h"
+#include "sample_drop.h"
 
 #include "widgets/common/workbench.h"
 #include "widgets/export/figure_export_dialog.h"
@@ -75,17 +76,8 @@ private Q_SLOTS:
         siftwave::widgets::Workbench& wb = *m_window->workbench();
         QVERIFY(wb.hasDrop());
         QVERIFY(wb.ledger().entries.empty());
-        // The sample's planted backlog (samples/manifest.json, P06): 2,444 extra cases of
-        // district 1301 on 2026-08-24, held back from 2026-08-03..2026-08-23.
-        siftwave::ledger::Decision backlog;
-        backlog.kind = siftwave::ledger::DecisionKind::Redistribute;
-        backlog.region = "1301";
-        backlog.measure = "cases";
-        backlog.date = siftwave::Date::fromIso("2026-08-24");
-        backlog.window = siftwave::ledger::DayRange{*siftwave::Date::fromIso("2026-08-03"),
-                                                    *siftwave::Date::fromIso("2026-08-23")};
-        backlog.excess = 2444;
-        backlog.redistributeMethod = siftwave::ledger::RedistributeMethod::Proportional;
+        // The sample's planted backlog (samples/manifest.json, P06), spread back.
+        const siftwave::ledger::Decision backlog = siftwave::testing::sampleBacklogDecision();
         auto applied = wb.apply(backlog, QStringLiteral("three weeks held back (test)"));
         QVERIFY2(applied.ok(), applied.ok() ? "" : applied.error().describe().c_str());
         QCOMPARE(wb.ledger().entries.size(), std::size_t(1));

@@ -1,6 +1,7 @@
 // Briefing figures and the report: sizes and DPI as asked, caption text kept as
 // text in SVG and PDF, a redistributed spike marked where the data say, every
 // ledger entry in the report.
+#include "sample_drop.h"
 #include "siftwave/ingest/ingest.h"
 #include "siftwave/ledger/replay.h"
 #include "siftwave/report/briefing.h"
@@ -58,14 +59,7 @@ Fixture sampleWithDecisions(bool decisions) {
     f.cleaned = ledger::Cleaned(f.drop);
     if (!decisions)
         return f;
-    ledger::Decision backlog;
-    backlog.kind = ledger::DecisionKind::Redistribute;
-    backlog.region = "1301";
-    backlog.measure = "cases";
-    backlog.date = Date::fromIso("2026-08-24");
-    backlog.window = ledger::DayRange{*Date::fromIso("2026-08-03"), *Date::fromIso("2026-08-23")};
-    backlog.excess = kExcess;
-    backlog.redistributeMethod = ledger::RedistributeMethod::Proportional;
+    const ledger::Decision backlog = testing::sampleBacklogDecision();  // excess kExcess
     record(f, backlog, "three weeks held back, sent on 24 August", "2026-12-01T09:00:00Z");
     ledger::Decision exclude;
     exclude.kind = ledger::DecisionKind::Exclude;

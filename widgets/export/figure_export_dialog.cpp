@@ -194,6 +194,8 @@ Result<QStringList> FigureExportDialog::exportFigures() {
             request.fit = fitOptions;
         }
         request.countRange = m_countRange->isChecked();
+        request.transmission = m_inputs.transmission;
+        request.transmissionGrowthRate = m_inputs.transmissionGrowthRate;
         auto spec =
             report::buildFigureSpec(*m_inputs.drop, *m_inputs.ledger, *m_inputs.cleaned, request);
         if (!spec)

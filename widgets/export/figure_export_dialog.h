@@ -12,6 +12,7 @@
 #include "siftwave/ledger/entry.h"
 #include "siftwave/region_register.h"
 #include "siftwave/result.h"
+#include "siftwave/transmission/transmission.h"
 
 #include <QDialog>
 #include <QStringList>
@@ -40,6 +41,10 @@ public:
         const Drop* previous = nullptr;  // the release before: drawn dotted when given
         QString currentRegion;
         QString measure;  // empty: the first
+        /// The transmission panel under each figure's plot (the workbench's, as on screen);
+        /// nullopt: none.
+        std::optional<transmission::TransmissionOptions> transmission;
+        bool transmissionGrowthRate = false;  // r(t) rather than R_t
     };
 
     explicit FigureExportDialog(Inputs inputs, QWidget* parent = nullptr);

@@ -4,6 +4,7 @@
 #include "widgets/plot/plot_style.h"
 #include "widgets/plot/qcustomplot_include.h"
 #include "widgets/plot/series_chart.h"
+#include "widgets/plot/transmission_chart.h"
 
 #include <QBuffer>
 #include <QFileInfo>
@@ -823,6 +824,31 @@ std::unique_ptr<QCustomPlot> legendOnlyPlot(const std::vector<LegendEntry>& entr
     return plot;
 }
 
+// The transmission panel (PlotModel::transmission): an axis rect under the plot's, on the same
+// days, its left and right edges held to the plot's by a margin group, drawn by the workbench's
+// own TransmissionChart. Before the legend's row when the plot has one.
+void addTransmissionPanel(QCustomPlot* plot, const report::FigureSpec& spec, double scale) {
+    if (!spec.transmission)
+        return;
+    auto* rect = new QCPAxisRect(plot);
+    plot->plotLayout()->insertRow(1);
+    plot->plotLayout()->addElement(1, 0, rect);
+    plot->plotLayout()->setRowStretchFactor(0, 3.0);
+    plot->plotLayout()->setRowStretchFactor(1, 1.3);
+    auto* group = new QCPMarginGroup(plot);
+    plot->axisRect()->setMarginGroup(QCP::msLeft | QCP::msRight, group);
+    rect->setMarginGroup(QCP::msLeft | QCP::msRight, group);
+    for (QCPAxis* axis : rect->axes()) {
+        axis->setTickLabelFont(pageFont(10.5 * scale));
+        axis->setLabelFont(pageFont(11.5 * scale));
+    }
+    TransmissionChart chart(plot, rect);
+    chart.draw(&*spec.transmission, spec.transmissionGrowthRate
+                                        ? TransmissionMeasure::GrowthRate
+                                        : TransmissionMeasure::ReproductionNumber);
+    rect->axis(QCPAxis::atBottom)->setRange(plot->xAxis->range());
+}
+
 // Title, subtitle and the annotated plot into `panel`.
 FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report::FigureSpec& spec,
                           const PanelLayout& layout) {
@@ -879,6 +905,7 @@ FigureGeometry paintPanel(QCPPainter& painter, const QRectF& panel, const report
                 break;
         }
     }
+    addTransmissionPanel(plot.get(), spec, layout.scale);
     plot->replot(QCustomPlot::rpImmediateRefresh);
     separateLabels(plot.get());
 

@@ -73,17 +73,21 @@ int periodOfPlotKey(const TimeAxis& axis, double key) {
         std::lround((key - plotKeyOfPeriod(axis, 0)) / (kSecondsPerDay * axis.periodDays())));
 }
 
-SeriesChart::SeriesChart(QCustomPlot* plot) : m_plot(plot) {
+void styleTimeAxes(QCPAxis* timeAxis, QCPAxis* valueAxis) {
     auto ticker = QSharedPointer<QCPAxisTickerDateTime>::create();
     ticker->setDateTimeFormat(QStringLiteral("yyyy-MM-dd"));
     ticker->setDateTimeSpec(Qt::UTC);
     ticker->setTickCount(6);
-    m_plot->xAxis->setTicker(ticker);
-    m_plot->xAxis->setTickLabelRotation(0);
-    m_plot->yAxis->setNumberFormat(QStringLiteral("gb"));
-    m_plot->yAxis->grid()->setSubGridVisible(false);
-    m_plot->xAxis->grid()->setPen(QPen(QColor(0xE3, 0xE5, 0xE8), 0, Qt::SolidLine));
-    m_plot->yAxis->grid()->setPen(QPen(QColor(0xE3, 0xE5, 0xE8), 0, Qt::SolidLine));
+    timeAxis->setTicker(ticker);
+    timeAxis->setTickLabelRotation(0);
+    valueAxis->setNumberFormat(QStringLiteral("gb"));
+    valueAxis->grid()->setSubGridVisible(false);
+    timeAxis->grid()->setPen(QPen(QColor(0xE3, 0xE5, 0xE8), 0, Qt::SolidLine));
+    valueAxis->grid()->setPen(QPen(QColor(0xE3, 0xE5, 0xE8), 0, Qt::SolidLine));
+}
+
+SeriesChart::SeriesChart(QCustomPlot* plot) : m_plot(plot) {
+    styleTimeAxes(m_plot->xAxis, m_plot->yAxis);
     m_plot->legend->setVisible(true);
     m_plot->legend->setBrush(QBrush(QColor(255, 255, 255, 220)));
     m_plot->legend->setBorderPen(QPen(QColor(0xB0, 0xB4, 0xBA)));

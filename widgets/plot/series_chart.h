@@ -26,6 +26,7 @@
 
 class QCustomPlot;
 class QCPAbstractItem;
+class QCPAxis;
 class QCPBars;
 class QCPGraph;
 class QCPItemRect;
@@ -47,6 +48,10 @@ double plotKeyOfDate(const TimeAxis& axis, Date day);
 double halfPeriodKeys(const TimeAxis& axis);
 /// The period whose bar is nearest to a plot key (may lie outside the axis).
 int periodOfPlotKey(const TimeAxis& axis, double key);
+
+/// The time axis as every Siftwave plot shows it (ISO dates, UTC, six ticks) and a value axis
+/// with light grid lines: the series chart and the transmission panel under it.
+void styleTimeAxes(QCPAxis* timeAxis, QCPAxis* valueAxis);
 
 class SeriesChart {
 public:

@@ -1,6 +1,7 @@
 #include "briefing_inputs.h"
 
 #include "../common.h"
+#include "../transmission_flags.h"
 
 #include "siftwave/ingest/ingest.h"
 #include "siftwave/ledger/decision.h"
@@ -29,6 +30,11 @@ std::vector<FlagSpec> briefingFlagSpecs(bool fitFlags) {
         {"window", true, false, "FIRST:LAST", "fit window (default: the largest wave)"});
     specs.push_back({"count-range", false, false, "",
                      "also draw the 95% range of daily counts around the fit (dotted)"});
+    specs.push_back({"transmission", true, false, "R|r",
+                     "a panel under the plot: R_t (R, needs a serial interval) or the growth "
+                     "rate (r); also given by any of the flags below"});
+    for (FlagSpec& spec : transmissionFlagSpecs("transmission-window"))
+        specs.push_back(std::move(spec));
     specs.push_back({"help", false, false, "", "show this help"});
     return specs;
 }
@@ -111,6 +117,20 @@ Result<std::optional<fit::FitOptions>> fitOptionsFrom(const ParsedArgs& args, co
     return std::optional<fit::FitOptions>{options};
 }
 
+Result<std::optional<transmission::TransmissionOptions>> transmissionPanelFrom(
+    const ParsedArgs& args, const Drop& drop, bool& growthRate) {
+    const std::optional<std::string> which = args.optionalValue("transmission");
+    if (which && *which != "R" && *which != "r")
+        return makeError(ErrorCode::Usage, "--transmission takes R or r, not '" + *which + "'");
+    growthRate = which && *which == "r";
+    if (!which && !hasTransmissionFlags(args, "transmission-window"))
+        return std::optional<transmission::TransmissionOptions>{};
+    auto options = transmissionOptionsFrom(args, "transmission-window", drop.axis.cadence());
+    if (!options)
+        return options.error();
+    return std::optional<transmission::TransmissionOptions>(std::move(options.value()));
+}
+
 std::optional<BriefingSources> loadBriefingSources(const ParsedArgs& args, const char* command,
                                                    bool ledgerRequired, bool fitByDefault,
                                                    int& exitCode) {
@@ -134,7 +154,15 @@ std::optional<BriefingSources> loadBriefingSources(const ParsedArgs& args, const
         exitCode = kExitBadInput;
         return std::nullopt;
     }
-    return BriefingSources{std::move(*inputs), std::move(*fitOptions), std::move(*previous)};
+    bool growthRate = false;
+    auto panel = transmissionPanelFrom(args, inputs->drop, growthRate);
+    if (!panel) {
+        printError(panel.error(), json);
+        exitCode = panel.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+        return std::nullopt;
+    }
+    return BriefingSources{std::move(*inputs), std::move(*fitOptions), std::move(*previous),
+                           std::move(*panel), growthRate};
 }
 
 std::unique_ptr<QApplication> startOffscreenApplication() {

@@ -12,6 +12,7 @@
 #include "siftwave/ledger/entry.h"
 #include "siftwave/region_register.h"
 #include "siftwave/result.h"
+#include "siftwave/transmission/transmission.h"
 
 #include <memory>
 #include <optional>
@@ -29,7 +30,8 @@ struct BriefingInputs {
     std::optional<RegionRegister> regions;  // --regions, or the one beside the drop
 };
 
-/// --ledger, --regions, --measure, --fit, --method, --window flags shared by both commands.
+/// --ledger, --regions, --measure, --fit, --method, --window and the transmission flags shared
+/// by both commands.
 std::vector<FlagSpec> briefingFlagSpecs(bool fitFlags);
 
 /// Reads FILE, the ledger (required when `ledgerRequired`) and the register, and replays.
@@ -50,7 +52,15 @@ struct BriefingSources {
     BriefingInputs inputs;
     std::optional<fit::FitOptions> fit;  // nullopt: no fit
     std::optional<Drop> previous;        // with --previous
+    /// The transmission panel (--transmission, or any transmission flag); nullopt: none.
+    std::optional<transmission::TransmissionOptions> transmission;
+    bool transmissionGrowthRate = false;  // --transmission r
 };
+
+/// The transmission panel the flags ask for (--transmission R|r, --si-mean/--si-sd or
+/// --si-file, --prior-mean, --prior-sd, --weekday, --transmission-window); nullopt when none.
+Result<std::optional<transmission::TransmissionOptions>> transmissionPanelFrom(
+    const ParsedArgs& args, const Drop& drop, bool& growthRate);
 
 /// Reads FILE (the one positional argument) and what the flags add to it; on failure prints the
 /// error as `command` does ("siftwave-cli COMMAND: ..." or JSON) and sets `exitCode`.

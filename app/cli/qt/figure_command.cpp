@@ -116,6 +116,8 @@ std::optional<std::vector<report::FigureSpec>> buildFigures(const ParsedArgs& ar
         request.regions = inputs.regions ? &*inputs.regions : nullptr;
         request.previous = sources.previous ? &*sources.previous : nullptr;
         request.countRange = args.has("count-range");
+        request.transmission = sources.transmission;
+        request.transmissionGrowthRate = sources.transmissionGrowthRate;
         auto spec = report::buildFigureSpec(inputs.drop, inputs.ledger, inputs.cleaned, request);
         if (!spec) {
             printError(spec.error(), json);

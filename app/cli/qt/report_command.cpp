@@ -82,6 +82,8 @@ int runReport(int argc, char** argv, int first) {
     request.previous = sources->previous ? &*sources->previous : nullptr;
     request.title = args->value("title");
     request.countRange = args->has("count-range");
+    request.transmission = sources->transmission;
+    request.transmissionGrowthRate = sources->transmissionGrowthRate;
     auto briefing = report::buildBriefing(inputs->drop, inputs->ledger, inputs->cleaned, request);
     if (!briefing) {
         printError(briefing.error(), json);

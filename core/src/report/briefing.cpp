@@ -115,6 +115,8 @@ Result<BriefingReport> buildBriefing(const Drop& drop, const ledger::Ledger& led
     report.caption = captionFacts(drop, ledger, nullptr, request.exportDate);
     report.title = request.title.empty() ? "Briefing: " + report.caption.sourceFile : request.title;
     report.chainVerified = static_cast<bool>(ledger::verifyChain(ledger));
+    if (request.transmission)
+        report.caption.caution += std::string(" ") + transmission::caution;
 
     std::vector<std::string> regions = request.regions;
     if (regions.empty())
@@ -131,6 +133,8 @@ Result<BriefingReport> buildBriefing(const Drop& drop, const ledger::Ledger& led
         fr.regions = request.regionRegister;
         fr.previous = request.previous;
         fr.countRange = request.countRange;
+        fr.transmission = request.transmission;
+        fr.transmissionGrowthRate = request.transmissionGrowthRate;
         auto spec = buildFigureSpec(drop, ledger, cleaned, fr);
         if (!spec)
             return spec.error();
@@ -237,6 +241,47 @@ std::string findingsHtml(const FindingsSummary& f) {
     return h;
 }
 
+// The latest growth rate (with the doubling or halving time) and the latest R_t, each for the
+// last period that has one, or why the last period has none.
+std::string transmissionHtml(const transmission::TransmissionResult& t) {
+    const transmission::TransmissionRow* growth = nullptr;
+    const transmission::TransmissionRow* reproduction = nullptr;
+    for (const auto& row : t.rows) {
+        if (row.growth.ok())
+            growth = &row;
+        if (row.reproduction.ok())
+            reproduction = &row;
+    }
+    const std::string why =
+        t.rows.empty() ? std::string("no counts") : t.rows.back().reproduction.reason;
+    std::string h =
+        "<h3>Transmission</h3>\n<table><tr><th>Measure</th><th>Period</th>"
+        "<th>Estimate</th><th>95% interval</th></tr>\n";
+    if (reproduction) {
+        const auto& c = reproduction->reproduction;
+        h += "<tr>" + td("R_t (Cori et al. 2013)") + td(t.axis.periodName(reproduction->period)) +
+             td(fixed(c.mean, 2), true) + td(intervalText(c.lower, c.upper, 2)) + "</tr>\n";
+    } else {
+        h += "<tr>" + td("R_t (Cori et al. 2013)") + "<td colspan=\"3\">none: " + htmlEscaped(why) +
+             "</td></tr>\n";
+    }
+    if (growth) {
+        const auto& g = growth->growth;
+        h += "<tr>" + td("growth rate r per day") + td(t.axis.periodName(growth->period)) +
+             td(fixed(g.r.value, 4), true) + td(intervalText(g.r.lower, g.r.upper, 4)) + "</tr>\n";
+        const bool halving = g.r.value < 0;
+        const transmission::Interval& d = halving ? g.halvingDays : g.doublingDays;
+        h += "<tr>" + td(halving ? "halving time, days" : "doubling time, days") +
+             td(t.axis.periodName(growth->period)) + td(fixed(d.value, 1), true) +
+             td(fixed(d.lower, 1) + " to " +
+                (std::isinf(d.upper) ? std::string("open (no growth not excluded)")
+                                     : fixed(d.upper, 1))) +
+             "</tr>\n";
+    }
+    h += "</table>\n<p>" + htmlEscaped(t.settingsBrief()) + ".</p>\n";
+    return h;
+}
+
 // A region's section: its figure (or title and caption), what the figure marks, its fit.
 std::string regionHtml(const FigureSpec& fig, const std::string& markup) {
     std::string h;
@@ -273,6 +318,8 @@ std::string regionHtml(const FigureSpec& fig, const std::string& markup) {
     } else if (!fig.fitError.empty()) {
         h += "<p>No fit: " + htmlEscaped(fig.fitError) + "</p>\n";
     }
+    if (fig.transmission)
+        h += transmissionHtml(*fig.transmission);
     return h;
 }
 

@@ -65,6 +65,8 @@ std::vector<std::string> captionLines(const CaptionFacts& f) {
     else
         lines.push_back("Fit: " + f.model + ", " + f.method + ", " + f.fitFirstDate + " to " +
                         f.fitLastDate + (f.bands.empty() ? std::string() : "; " + f.bands));
+    if (!f.transmission.empty())
+        lines.push_back("Lower panel: " + f.transmission);
     lines.push_back("Exported " + f.exportDate + " by Siftwave " + siftwaveVersion());
     lines.push_back(f.caution);
     return lines;

@@ -44,6 +44,21 @@ std::string bandsDescription(const FittedCurveSpec& curve) {
     return text;
 }
 
+// The transmission panel's caption line (what it shows, the settings, the refusal when R_t
+// was refused) and its caution after the fit's.
+void addTransmissionCaption(FigureSpec& spec) {
+    const transmission::TransmissionResult& t = *spec.transmission;
+    std::string what =
+        spec.transmissionGrowthRate
+            ? "growth rate r per day (Poisson regression over the window), shaded: 95% CI"
+            : "R_t (Cori et al. 2013, posterior mean), shaded: 95% credible interval, dashed: "
+              "R = 1";
+    if (!spec.transmissionGrowthRate && !t.refusal.empty())
+        what += "; no R_t: " + t.refusal;
+    spec.caption.transmission = what + "; " + t.settingsBrief();
+    spec.caption.caution += std::string(" ") + transmission::caution;
+}
+
 }  // namespace
 
 Result<FigureSpec> buildFigureSpec(const Drop& drop, const ledger::Ledger& ledger,
@@ -59,6 +74,8 @@ Result<FigureSpec> buildFigureSpec(const Drop& drop, const ledger::Ledger& ledge
         captionFacts(drop, ledger, spec.fit ? &spec.fit->result : nullptr, request.exportDate);
     if (spec.fit)
         spec.caption.bands = bandsDescription(*spec.fit);
+    if (spec.transmission)
+        addTransmissionCaption(spec);
     spec.captionLines = captionLines(spec.caption);
     return spec;
 }

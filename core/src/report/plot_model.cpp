@@ -301,6 +301,13 @@ Result<PlotModel> buildPlotModel(const Drop& drop, const ledger::Ledger& ledger,
     }
     if (result)
         model.fit = fittedCurveOf(*result, model.axis, model.cleaned, request.countRange);
+    if (request.transmission) {
+        if (Status s = request.transmission->validate(model.axis.cadence()); !s)
+            return s.error();
+        model.transmission =
+            transmission::estimateTransmission(model.cleaned, model.axis, *request.transmission);
+        model.transmissionGrowthRate = request.transmissionGrowthRate;
+    }
 
     addMarks(model, ledger, cleaned);
     return model;

@@ -92,6 +92,10 @@ struct BriefingRequest {
     std::size_t topFindings = 12;    // findings listed by name
     std::string exportDate;          // empty: today (UTC)
     std::string title;               // empty: "Briefing: <file name>"
+    /// Each figure gets the transmission panel with these options (FigureRequest), each region
+    /// the latest estimates, and the page the transmission caution; nullopt: none.
+    std::optional<transmission::TransmissionOptions> transmission;
+    bool transmissionGrowthRate = false;  // the panel shows r(t) rather than R_t
 
     Status validate() const;
 };

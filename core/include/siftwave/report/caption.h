@@ -9,8 +9,9 @@
 //   Source: <file name>, <first date> to <last date>, SHA-256 <12 hex>
 //   Ledger: <n> entries, head <12 hex>        (or "Ledger: none, raw counts as reported")
 //   Fit: <model>, <method>, <first> to <last>[; <bands>] (or "Fit: none")
+//   Lower panel: <R_t or r(t)>; <the transmission settings>   (only with a transmission panel)
 //   Exported <YYYY-MM-DD> by Siftwave <version>
-//   <fit::caution>
+//   <fit::caution> [<transmission::caution> with a transmission panel]
 //
 // Twelve hex digits (48 bits) identify a file among the releases an analyst
 // keeps; the full hashes are in the drop's provenance and the ledger file
@@ -43,6 +44,9 @@ struct CaptionFacts {
     std::string bands;       // what the figure's bands are (set by buildFigureSpec); "" = not said
     std::string exportDate;  // ISO 8601 date of the export (UTC)
     std::string caution = fit::caution;
+    // With a transmission panel: what it shows and its settings (set by buildFigureSpec, which
+    // then adds transmission::caution to `caution`); "" = no panel.
+    std::string transmission;
 };
 
 /// The facts for one figure; `fit` may be null, `exportDate` empty = today (UTC).

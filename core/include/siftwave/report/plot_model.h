@@ -32,6 +32,7 @@
 #include "siftwave/result.h"
 #include "siftwave/scan/finding.h"
 #include "siftwave/time_axis.h"
+#include "siftwave/transmission/transmission.h"
 
 #include <cstdint>
 #include <optional>
@@ -135,6 +136,10 @@ struct PlotModel {
     std::string fitError;  // why a requested fit is missing ("" when none was asked or it worked)
     std::vector<DecisionMark> decisions;
     std::vector<ExcludedRange> excluded;
+    // Growth rate and R_t of the cleaned series (transmission.h), drawn in a panel under the
+    // series with transmission::caution; nullopt when not asked for (PlotRequest::transmission).
+    std::optional<transmission::TransmissionResult> transmission;
+    bool transmissionGrowthRate = false;  // the panel shows r(t) rather than R_t
 
     int periods() const { return axis.periods(); }
     Date periodStart(int index) const { return axis.periodStart(index); }
@@ -157,6 +162,11 @@ struct PlotRequest {
     /// Also the 95% range of counts around the fit (count_band.h), beside the curve's
     /// confidence band. Off by default: the band a plot shows is the fit's own.
     bool countRange = false;
+    /// Estimate the growth rate and R_t of the cleaned series with these options (nullopt:
+    /// none). Invalid options for the drop's cadence are a usage error of buildPlotModel.
+    std::optional<transmission::TransmissionOptions> transmission;
+    /// The panel shows the growth rate r(t) instead of R_t.
+    bool transmissionGrowthRate = false;
 
     /// Usage errors: no region, invalid fit options.
     Status validate() const;
