@@ -66,8 +66,19 @@ void printText(const fit::RegionFit& r, const TimeAxis& axis) {
                 d.waveSize.lower, d.waveSize.upper, 100.0 * d.fractionObserved.value);
     std::printf("  start .. end    %s .. %s\n", date(d.startDay.value).c_str(),
                 date(d.endDay.value).c_str());
-    std::printf("  fastest growth  %s, early doubling time %.1f days\n",
-                date(d.fastestGrowthDay.value).c_str(), d.doublingTimeDays.value);
+    std::printf("  fastest growth  %s\n", date(d.fastestGrowthDay.value).c_str());
+    if (std::isfinite(d.observedDoublingTimeDays.value)) {
+        std::printf(
+            "  doubling time   %.1f days (95%% %.1f .. %.1f) on the observed rise %s .. %s "
+            "(log-linear Poisson)\n",
+            d.observedDoublingTimeDays.value, d.observedDoublingTimeDays.lower,
+            d.observedDoublingTimeDays.upper, f.periodStart(d.observedRiseFirst).iso().c_str(),
+            f.periodStart(d.observedRiseLast).iso().c_str());
+    } else {
+        std::printf("  doubling time   - (%s)\n", d.observedDoublingNote.c_str());
+    }
+    std::printf("  model's instantaneous doubling time at its start day %.1f days\n",
+                d.doublingTimeDays.value);
     std::printf("  infectious load %.0f (%d-day window)", d.peakInfectiousLoad.value,
                 f.options.infectiousWindowDays);
     if (d.peakInfectiousLoadPer100k) {

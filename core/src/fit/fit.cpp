@@ -1,5 +1,7 @@
 #include "siftwave/fit/fit.h"
 
+#include "siftwave/transmission/growth_rate.h"
+
 #include "fit/curve_band.h"
 #include "fit/fit_workspace.h"
 #include "fit/gram.h"
@@ -870,6 +872,70 @@ void addNotes(FitState& s, const std::array<double, kDerivedCount>& d0, bool hav
         res.summary.notes.push_back("standard errors unavailable (singular information)");
 }
 
+// The doubling time on the observed rise (fit.h, DerivedQuantities::observedDoublingTimeDays):
+// one window of the transmission capability's growth-rate regression, from the start day (clamped
+// to the window) to the peak or the last day with data, whichever comes first.
+void addObservedDoubling(FitState& s, const std::array<double, kDerivedCount>& d0) {
+    FitResult& res = s.res;
+    DerivedQuantities& dq = res.derived;
+    dq.observedDoublingTimeDays = {kNaN, kNaN, kNaN, kNaN};
+    const int pd = s.pd;
+    const double startDay = std::isfinite(d0[kStart]) ? std::max(0.0, d0[kStart]) : 0.0;
+    const double endDay =
+        std::min(std::isfinite(d0[kPeakDay]) ? d0[kPeakDay] : s.lastDataDay, s.lastDataDay);
+    const int first = res.first + static_cast<int>(std::floor(startDay / pd));
+    const int last =
+        std::min(res.first + static_cast<int>(std::floor(std::max(endDay, 0.0) / pd)), res.last);
+    dq.observedRiseFirst = first;
+    dq.observedRiseLast = last;
+    const int n = last - first + 1;
+    if (n < 3) {
+        dq.observedDoublingNote = "the observed rise is shorter than 3 periods";
+        return;
+    }
+    const Date firstDay = res.periodStart(first);
+    TimeAxis axis;
+    if (pd == 1) {
+        axis = TimeAxis::daily(firstDay, n);
+    } else if (firstDay.isoWeekday() == 1 || firstDay.isoWeekday() == 7) {
+        axis = TimeAxis::weekly(firstDay, n,
+                                firstDay.isoWeekday() == 1 ? WeekStart::Monday : WeekStart::Sunday);
+    } else {
+        dq.observedDoublingNote = "weeks that start neither on a Monday nor on a Sunday";
+        return;
+    }
+    transmission::GrowthOptions options;
+    options.window = n;
+    const auto counts =
+        s.series.counts.subspan(static_cast<std::size_t>(first), static_cast<std::size_t>(n));
+    const transmission::GrowthEstimate g = transmission::growthRates(counts, axis, options).back();
+    if (!g.ok() || !(g.r.value > 0)) {
+        dq.observedDoublingNote =
+            g.ok() ? "the counts do not rise over the observed rise" : g.reason;
+        return;
+    }
+    const double r = g.r.value;
+    dq.observedDoublingTimeDays = {g.doublingDays.value, std::numbers::ln2 * g.se / (r * r),
+                                   g.doublingDays.lower, g.doublingDays.upper};
+}
+
+// Where the two doubling times disagree beyond their intervals, the fit says so (issue 15).
+void noteDoublingDisagreement(FitResult& res) {
+    const Estimate& a = res.derived.observedDoublingTimeDays;
+    const Estimate& b = res.derived.doublingTimeDays;
+    if (!std::isfinite(a.value) || !std::isfinite(b.value) || !std::isfinite(b.lower))
+        return;
+    if (a.upper < b.lower || b.upper < a.lower) {
+        char buf[300];
+        std::snprintf(buf, sizeof buf,
+                      "the doubling time on the observed rise (%.2g days, 95%% %.2g .. %.2g) and "
+                      "the model's instantaneous one at its start day (%.2g days, 95%% %.2g .. "
+                      "%.2g) disagree beyond their intervals: brief the observed one",
+                      a.value, a.lower, a.upper, b.value, b.lower, b.upper);
+        res.summary.notes.push_back(buf);
+    }
+}
+
 // A parameter at a bound of its model's domain: WaveModel::valid() refuses it halved or doubled
 // (the domains are open bounds such as a scale above 1e-6 or a shape below 1e3; common practice,
 // no source: a fit that ends on a bound was stopped by the domain, not by the data).
@@ -993,7 +1059,9 @@ Result<FitResult> fitGivenModel(const Series& series, const FitOptions& o,
     addFittedCurveAndBand(s, q, haveCov);    // 5. the curve and its band
     addInformationCriteria(s.res.goodness);  // 6. AIC, AICc
     const auto d0 = addDerivedQuantities(s, q, haveCov, population);
+    addObservedDoubling(s, d0);
     addNotes(s, d0, haveCov);
+    noteDoublingDisagreement(s.res);
     assessStatus(s, d0);
     return std::move(s.res);
 }

@@ -110,7 +110,15 @@ json fitToJson(std::string_view region, const FitResult& f,
     j["start_date"] = dateOrNull(f, d.startDay.value);
     j["end_date"] = dateOrNull(f, d.endDay.value);
     j["fastest_growth_date"] = dateOrNull(f, d.fastestGrowthDay.value);
-    j["doubling_time_days"] = number(d.doublingTimeDays.value);
+    // The doubling time to brief: the growth on the observed rise (log-linear Poisson); the
+    // model's instantaneous one is kept beside it under its own name.
+    j["doubling_time_days"] = number(d.observedDoublingTimeDays.value);
+    j["doubling_time_rise"] = {
+        {"first", f.periodStart(d.observedRiseFirst).iso()},
+        {"last", f.periodStart(d.observedRiseLast).iso()},
+        {"method", "log-linear Poisson regression (quasi-Poisson when overdispersed)"},
+        {"note", d.observedDoublingNote.empty() ? json(nullptr) : json(d.observedDoublingNote)}};
+    j["model_doubling_time_at_start_days"] = number(d.doublingTimeDays.value);
     j["peak_infectious_load"] = number(d.peakInfectiousLoad.value);
     j["peak_infectious_load_per_100k"] =
         d.peakInfectiousLoadPer100k ? number(d.peakInfectiousLoadPer100k->value) : json(nullptr);
@@ -130,7 +138,8 @@ json fitToJson(std::string_view region, const FitResult& f,
         {"fraction_observed", estimateJson(d.fractionObserved)},
         {"start_date_ci95", dateInterval(f, d.startDay)},
         {"end_date_ci95", dateInterval(f, d.endDay)},
-        {"doubling_time_days", estimateJson(d.doublingTimeDays)},
+        {"doubling_time_days", estimateJson(d.observedDoublingTimeDays)},
+        {"model_doubling_time_at_start_days", estimateJson(d.doublingTimeDays)},
         {"peak_infectious_load", estimateJson(d.peakInfectiousLoad)},
     };
     if (!f.weekdayFactors.empty())
@@ -182,7 +191,7 @@ std::string fitCsvRow(const RegionFit& r) {
         c.push_back(date(d.startDay.value));
         c.push_back(date(d.endDay.value));
         c.push_back(date(d.fastestGrowthDay.value));
-        c.push_back(csvNumber(d.doublingTimeDays.value));
+        c.push_back(csvNumber(d.observedDoublingTimeDays.value));
         c.push_back(csvNumber(d.peakInfectiousLoad.value));
         c.push_back(d.peakInfectiousLoadPer100k ? csvNumber(d.peakInfectiousLoadPer100k->value)
                                                 : "");

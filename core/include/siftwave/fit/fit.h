@@ -163,14 +163,26 @@ struct NamedEstimate {
 };
 
 struct DerivedQuantities {
-    Estimate peakDay;             // days from the window's first day
-    Estimate peakIncidence;       // cases per period at the peak (FitResult::incidenceUnit())
-    Estimate waveSize;            // K, cases
-    Estimate fractionObserved;    // C(end of the last day with data) / K
-    Estimate startDay;            // F = startQuantile
-    Estimate endDay;              // F = endQuantile
-    Estimate fastestGrowthDay;    // argmax f'
-    Estimate doublingTimeDays;    // ln 2 / growth rate at the start day
+    Estimate peakDay;           // days from the window's first day
+    Estimate peakIncidence;     // cases per period at the peak (FitResult::incidenceUnit())
+    Estimate waveSize;          // K, cases
+    Estimate fractionObserved;  // C(end of the last day with data) / K
+    Estimate startDay;          // F = startQuantile
+    Estimate endDay;            // F = endQuantile
+    Estimate fastestGrowthDay;  // argmax f'
+    // The model's instantaneous doubling time: ln 2 / (d log f / dt) at the start day (F =
+    // startQuantile). A property of the fitted curve's shape, not the growth the counts showed.
+    Estimate doublingTimeDays;
+    // The doubling time to brief (issue 15): ln 2 / r of a log-linear Poisson regression
+    // (quasi-Poisson when the counts are overdispersed) of the counts over the observed rise,
+    // from the start day to the peak (or the last day with data before it), by the growth-rate
+    // code of the transmission capability (transmission::growthRates over that one window), with
+    // its 95% interval (upper +infinity when r's interval holds 0). NaN when the rise is too
+    // short or holds too few cases (observedDoublingNote says why).
+    Estimate observedDoublingTimeDays;
+    int observedRiseFirst = 0;  // period indices into the series (inclusive)
+    int observedRiseLast = -1;
+    std::string observedDoublingNote;
     Estimate peakInfectiousLoad;  // max over days d of sum_{k<W} K f(d - k)
     std::optional<Estimate> peakInfectiousLoadPer100k;
     std::optional<Estimate> log10InfectiousShare;  // log10(load / population)
