@@ -15,6 +15,8 @@
 
 #include "support/temp_path.h"
 
+#include "support/python_scipy.h"
+
 #include <gtest/gtest.h>
 
 #include <cmath>
@@ -27,16 +29,6 @@
 
 namespace siftwave::fit {
 namespace {
-
-std::string pythonWithScipy() {
-    for (const char* python : {"/usr/bin/python3", "python3"}) {
-        const std::string probe =
-            std::string(python) + " -c 'import scipy.optimize' >/dev/null 2>&1";
-        if (std::system(probe.c_str()) == 0)
-            return python;
-    }
-    return {};
-}
 
 // The cases column (the second) of an EpiEstim incidence export.
 std::vector<double> readCases(const std::string& name) {
@@ -117,7 +109,7 @@ struct Outbreak {
 };
 
 TEST(FitDoubling, RealOutbreakRisesAgreeWithAnIndependentPoissonFit) {
-    const std::string python = pythonWithScipy();
+    const std::string python = siftwave::testing::pythonWithScipy();
     if (python.empty())
         GTEST_SKIP() << "python3-scipy is not installed: cross-check not run";
     const std::vector<Outbreak> outbreaks{{"epiestim_Flu2009_incidence.csv", "2009-04-27"},
