@@ -465,7 +465,10 @@ QVector<TextTableModel::Row> derivedRows(const fit::FitResult& fit) {
     derived << dateRow(FitPane::tr("End (%1 % of K)").arg(number(fit.options.endQuantile * 100, 1)),
                        d.endDay);
     derived << dateRow(FitPane::tr("Fastest growth"), d.fastestGrowthDay);
-    derived << valueRow(FitPane::tr("Doubling time at the start (days)"), d.doublingTimeDays, 1);
+    derived << valueRow(FitPane::tr("Doubling time on the observed rise (days)"),
+                        d.observedDoublingTimeDays, 1);
+    derived << valueRow(FitPane::tr("Model's instantaneous doubling time at the start (days)"),
+                        d.doublingTimeDays, 1);
     derived << valueRow(
         FitPane::tr("Peak infectious load (%1-day cases)").arg(fit.options.infectiousWindowDays),
         d.peakInfectiousLoad, 0);
