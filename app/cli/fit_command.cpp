@@ -8,6 +8,7 @@
 #include "siftwave/fit/batch.h"
 #include "siftwave/fit/fit_export.h"
 
+#include <array>
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
@@ -19,10 +20,22 @@
 namespace siftwave::cli {
 namespace {
 
+// The status line of a region (issue 15): its name and, when not ok, the reasons.
+void printStatus(const fit::RegionFit& r) {
+    const fit::FitStatus status = fit::regionStatus(r);
+    std::printf("  status          %s\n", fit::fitStatusName(status));
+    if (status == fit::FitStatus::Ok)
+        return;
+    for (const auto& why : fit::regionStatusReasons(r))
+        std::printf("    - %s\n", terminalText(why).c_str());
+    std::printf("    try %s\n", fit::fitStatusAdvice(status));
+}
+
 void printText(const fit::RegionFit& r, const TimeAxis& axis) {
     if (!r.fit) {
         std::printf("%s: fit failed: %s\n", terminalText(r.region).c_str(),
                     terminalText(r.error ? r.error->message : std::string()).c_str());
+        printStatus(r);
         return;
     }
     const auto& f = *r.fit;
@@ -53,8 +66,19 @@ void printText(const fit::RegionFit& r, const TimeAxis& axis) {
                 d.waveSize.lower, d.waveSize.upper, 100.0 * d.fractionObserved.value);
     std::printf("  start .. end    %s .. %s\n", date(d.startDay.value).c_str(),
                 date(d.endDay.value).c_str());
-    std::printf("  fastest growth  %s, early doubling time %.1f days\n",
-                date(d.fastestGrowthDay.value).c_str(), d.doublingTimeDays.value);
+    std::printf("  fastest growth  %s\n", date(d.fastestGrowthDay.value).c_str());
+    if (std::isfinite(d.observedDoublingTimeDays.value)) {
+        std::printf(
+            "  doubling time   %.1f days (95%% %.1f .. %.1f) on the observed rise %s .. %s "
+            "(log-linear Poisson)\n",
+            d.observedDoublingTimeDays.value, d.observedDoublingTimeDays.lower,
+            d.observedDoublingTimeDays.upper, f.periodStart(d.observedRiseFirst).iso().c_str(),
+            f.periodStart(d.observedRiseLast).iso().c_str());
+    } else {
+        std::printf("  doubling time   - (%s)\n", d.observedDoublingNote.c_str());
+    }
+    std::printf("  model's instantaneous doubling time at its start day %.1f days\n",
+                d.doublingTimeDays.value);
     std::printf("  infectious load %.0f (%d-day window)", d.peakInfectiousLoad.value,
                 f.options.infectiousWindowDays);
     if (d.peakInfectiousLoadPer100k) {
@@ -63,6 +87,7 @@ void printText(const fit::RegionFit& r, const TimeAxis& axis) {
     }
     std::printf("\n  fit             R2 %.4f, RMSE %.3g, AIC %.1f, AICc %.1f; %s\n", f.goodness.r2,
                 f.goodness.rmse, f.goodness.aic, f.goodness.aicc, f.summary.brief().c_str());
+    printStatus(r);
     for (const auto& row : r.comparison) {
         if (row.fit) {
             std::printf("    %-10s AICc %10.1f  R2 %.4f%s\n", fit::modelName(row.model),
@@ -104,8 +129,11 @@ void printUsage(std::FILE* to, const std::vector<FlagSpec>& specs) {
                  "the wave size, how much of it is observed, start and end, growth, and the peak\n"
                  "infectious load, with 95%% intervals. Dates and durations are in days; the peak\n"
                  "incidence is per day or per week as the drop's counts are (incidence_unit).\n"
-                 "Exit codes: 0 fitted (with --all, regions that fail are reported in the\n"
-                 "output), 1 bad input or the region failed, 2 wrong usage.\n\n"
+                 "Every fit has a status: ok, not_converged, implausible (the reasons say which\n"
+                 "check failed) or no_wave.\n"
+                 "Exit codes: 0 fitted with status ok (with --all, every region's status is in\n"
+                 "the output), 1 bad input, or the region's status is not ok (the reasons and\n"
+                 "what to try on stderr), 2 wrong usage.\n\n"
                  "%s\n\noptions:\n%s",
                  fit::caution, formatFlags(specs).c_str());
 }
@@ -237,7 +265,10 @@ void printResults(const std::vector<fit::RegionFit>& results, OutputFormat forma
             if (r.fit) {
                 all.push_back(fit::fitToJson(r.region, *r.fit, r.comparison, withCurve));
             } else {
-                nlohmann::json e = {{"region", r.region}, {"error", errorToJson(*r.error)}};
+                nlohmann::json e = {{"region", r.region},
+                                    {"status", fit::fitStatusName(fit::regionStatus(r))},
+                                    {"status_reasons", fit::regionStatusReasons(r)},
+                                    {"error", errorToJson(*r.error)}};
                 all.push_back(e);
             }
         }
@@ -248,8 +279,15 @@ void printResults(const std::vector<fit::RegionFit>& results, OutputFormat forma
             std::printf("%s\n", fit::fitCsvRow(r).c_str());
         std::fprintf(stderr, "siftwave-cli: %s\n", fit::caution);
     } else {
-        for (const auto& r : results)
+        std::array<int, 4> counts{};
+        for (const auto& r : results) {
             printText(r, axis);
+            ++counts[static_cast<std::size_t>(fit::regionStatus(r))];
+        }
+        if (!single) {
+            std::printf("\n%zu regions: %d ok, %d not_converged, %d implausible, %d no_wave\n",
+                        results.size(), counts[0], counts[1], counts[2], counts[3]);
+        }
         std::printf("\nCaution: %s\n", fit::caution);
     }
 }
@@ -315,13 +353,26 @@ int runFit(int argc, char** argv, int first) {
     const auto results = fit::fitRegions(regions, batch);
 
     const bool single = args->has("region");
+    const fit::FitStatus status = fit::regionStatus(results[0]);
     if (single && !results[0].fit) {
         printError(*results[0].error, json);
+        std::fprintf(stderr, "siftwave-cli: status %s; try %s\n", fit::fitStatusName(status),
+                     fit::fitStatusAdvice(status));
         return kExitBadInput;
     }
     const OutputFormat format =
         json ? OutputFormat::Json : (csv ? OutputFormat::Csv : OutputFormat::Text);
     printResults(results, format, single, withCurve, j.drop.axis);
+    // One region: anything but ok exits 1, with the reasons and what to try (issue 15).
+    if (single && status != fit::FitStatus::Ok) {
+        std::string reasons;
+        for (const auto& why : fit::regionStatusReasons(results[0]))
+            reasons += (reasons.empty() ? "" : "; ") + why;
+        std::fprintf(stderr, "siftwave-cli: the fit is %s: %s; try %s\n",
+                     fit::fitStatusName(status), terminalText(reasons).c_str(),
+                     fit::fitStatusAdvice(status));
+        return kExitBadInput;
+    }
     return kExitOk;
 }
 

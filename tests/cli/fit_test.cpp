@@ -17,6 +17,7 @@
 #include <cstdio>
 #include <cstdlib>
 #include <fstream>
+#include <map>
 #include <string>
 #include <utility>
 
@@ -279,6 +280,47 @@ TEST(CliFit, WeeklyTextAndCsvSpeakOfWeeks) {
     EXPECT_NE(csv.out.find("per week a wave must reach"), std::string::npos) << csv.out;
     // Weekly counts have no weekday effect to estimate.
     EXPECT_EQ(run(kWeekly + " --region 8315 --method poisson --weekday").exitCode, 2);
+}
+
+// The status of issue 15 (every fit is ok, not_converged, implausible or no_wave). In the sample,
+// 1301's auto window holds a short, noisy wave whose 95% intervals of K and of the peak incidence
+// are wider than the estimates: implausible. One region: anything but ok exits 1, the reasons and
+// what to try on stderr.
+TEST(CliFit, ARegionWhoseFitIsNotOkExitsOneWithTheReasonAndWhatToTry) {
+    const CliRun r = run(kDrop + " --region 1301 --json");
+    EXPECT_EQ(r.exitCode, 1);
+    const auto j = nlohmann::json::parse(r.out);
+    EXPECT_EQ(j["status"], "implausible");
+    ASSERT_FALSE(j["status_reasons"].empty());
+    EXPECT_NE(j["status_reasons"][0].get<std::string>().find("wider than the estimate"),
+              std::string::npos);
+    const CliRun text = run(kDrop + " --region 1301 2>&1 >/dev/null; echo");
+    EXPECT_NE(text.out.find("the fit is implausible: "), std::string::npos) << text.out;
+    EXPECT_NE(text.out.find("try a window that holds the wave's peak"), std::string::npos);
+    EXPECT_EQ(run(kDrop + " --region NA --json").exitCode, 0);
+}
+
+// --all: every region's status in JSON and CSV (the failed region too, as no_wave), and the text
+// ends with the count of each status, the same as the JSON's.
+TEST(CliFit, AllGivesEveryRegionsStatusInJsonCsvAndTheTextSummary) {
+    const CliRun json = run(kDrop + " --all --json");
+    ASSERT_EQ(json.exitCode, 0);
+    std::map<std::string, int> counts;
+    for (const auto& region : nlohmann::json::parse(json.out)) {
+        ASSERT_TRUE(region.contains("status")) << region.dump();
+        ++counts[region["status"].get<std::string>()];
+        EXPECT_EQ(region["status"] == "ok", region["status_reasons"].empty()) << region.dump();
+    }
+    EXPECT_GE(counts["ok"], 10);
+    EXPECT_EQ(counts["no_wave"], 1);  // 412: no wave detected
+    const CliRun csv = run(kDrop + " --all --csv");
+    EXPECT_NE(csv.out.find(",error,status,status_reasons\n"), std::string::npos);
+    EXPECT_NE(csv.out.find(",no_wave,"), std::string::npos);
+    const CliRun text = run(kDrop + " --all");
+    char line[160];
+    std::snprintf(line, sizeof line, "regions: %d ok, %d not_converged, %d implausible, %d no_wave",
+                  counts["ok"], counts["not_converged"], counts["implausible"], counts["no_wave"]);
+    EXPECT_NE(text.out.find(line), std::string::npos) << text.out;
 }
 
 }  // namespace

@@ -9,6 +9,8 @@
 // "Residual Standard Deviation:", "Degrees of Freedom:", "Number of Observations:"; in the data
 // block one row per observation "y x1 [x2]". Lines end in CR LF (kept byte for byte).
 
+#include "siftwave/fit/double_double.h"
+
 #include <cstdlib>
 #include <fstream>
 #include <optional>
@@ -29,6 +31,9 @@ struct NistDataset {
     int observations = 0;
     std::vector<double> y;
     std::vector<std::vector<double>> x;  // x[k][i]: predictor k of observation i
+    // The same data to double-double precision (the decimal text, not its rounding to double).
+    std::vector<fit::DoubleDouble> yExact;
+    std::vector<std::vector<fit::DoubleDouble>> xExact;
 };
 
 /// Parses one file; nullopt with `error` set when the file does not follow the format.
@@ -110,21 +115,34 @@ inline std::optional<NistDataset> readNistDataset(const std::string& path, std::
     for (int i = dataFirst - 1; i < dataLast; ++i) {
         std::istringstream row(lines[static_cast<std::size_t>(i)]);
         std::vector<double> values;
-        for (double v; row >> v;)
-            values.push_back(v);
+        std::vector<fit::DoubleDouble> exact;
+        for (std::string token; row >> token;) {
+            const auto v = fit::parseDoubleDouble(token);
+            if (!v) {
+                error = path + ": data line " + std::to_string(i + 1) + ": not a number: " + token;
+                return std::nullopt;
+            }
+            exact.push_back(*v);
+            values.push_back(std::strtod(token.c_str(), nullptr));
+        }
         if (values.size() < 2) {
             error = path + ": data line " + std::to_string(i + 1) + " has fewer than two numbers";
             return std::nullopt;
         }
-        if (d.x.empty())
+        if (d.x.empty()) {
             d.x.resize(values.size() - 1);
+            d.xExact.resize(values.size() - 1);
+        }
         if (values.size() - 1 != d.x.size()) {
             error = path + ": data line " + std::to_string(i + 1) + " has a different column count";
             return std::nullopt;
         }
         d.y.push_back(values[0]);
-        for (std::size_t k = 1; k < values.size(); ++k)
+        d.yExact.push_back(exact[0]);
+        for (std::size_t k = 1; k < values.size(); ++k) {
             d.x[k - 1].push_back(values[k]);
+            d.xExact[k - 1].push_back(exact[k]);
+        }
     }
     if (static_cast<int>(d.y.size()) != d.observations) {
         error = path + ": " + std::to_string(d.y.size()) + " data rows, header says " +

@@ -9,6 +9,8 @@
 
 #include "core/fit_wave_generator.h"
 
+#include "support/python_scipy.h"
+
 #include <gtest/gtest.h>
 
 #include <cstdio>
@@ -20,19 +22,8 @@
 namespace siftwave::fit {
 namespace {
 
-// Debian's interpreter first (python3-scipy installs there), then whatever python3 is on PATH.
-std::string pythonWithScipy() {
-    for (const char* python : {"/usr/bin/python3", "python3"}) {
-        const std::string probe =
-            std::string(python) + " -c 'import scipy.optimize' >/dev/null 2>&1";
-        if (std::system(probe.c_str()) == 0)
-            return python;
-    }
-    return {};
-}
-
 TEST(FitScipy, CurveFitGivesTheSameGumbelParametersToOneInAMillion) {
-    const std::string python = pythonWithScipy();
+    const std::string python = siftwave::testing::pythonWithScipy();
     if (python.empty())
         GTEST_SKIP() << "python3-scipy is not installed: cross-check not run";
     test::GeneratedWave g;

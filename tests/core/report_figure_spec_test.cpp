@@ -215,6 +215,43 @@ TEST(ReportFigureSpec, AFitBringsItsCurveBandWindowAndPeak) {
     EXPECT_GT(spec->fit->peakValue, 0);
 }
 
+// Issue 15: a fit whose status is not ok draws no curve, band, count range or peak, and the
+// caption's fit line says why.
+TEST(ReportFigureSpec, AFitThatIsNotOkDrawsNoCurveAndTheCaptionSaysWhy) {
+    const Sample s = sample();
+    report::FigureRequest request;
+    request.region = "1301";
+    fit::FitOptions options;
+    options.window = std::make_pair(100, 200);
+    request.fit = options;
+    request.countRange = true;
+    auto drawn = report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request);
+    ASSERT_TRUE(drawn.ok());
+    ASSERT_TRUE(drawn->fit) << drawn->fitError;
+    ASSERT_EQ(drawn->fit->result.status, fit::FitStatus::Ok);
+    EXPECT_TRUE(drawn->fit->notDrawn.empty());
+    fit::FitResult failed = drawn->fit->result;
+    failed.status = fit::FitStatus::Implausible;
+    failed.statusReasons = {"the wave size K = 1e+10 is over 20 times the window's 500 counts"};
+    request.fit.reset();
+    request.fitResult = failed;
+    auto spec = report::buildFigureSpec(s.drop, s.ledger, s.cleaned, request);
+    ASSERT_TRUE(spec.ok());
+    ASSERT_TRUE(spec->fit);
+    EXPECT_EQ(spec->fit->notDrawn,
+              "no curve drawn: the fit is implausible (the wave size K = 1e+10 is over 20 times "
+              "the window's 500 counts)");
+    for (double v : spec->fit->mid)
+        EXPECT_TRUE(std::isnan(v));
+    EXPECT_TRUE(spec->fit->countLow.empty());
+    EXPECT_TRUE(std::isnan(spec->fit->peakValue));
+    bool said = false;
+    for (const std::string& line : spec->captionLines)
+        said = said || (line.rfind("Fit: gumbel", 0) == 0 &&
+                        line.find("no curve drawn: the fit is implausible") != std::string::npos);
+    EXPECT_TRUE(said);
+}
+
 TEST(ReportFigureSpec, TheBandIsTheFittedCurvesOwnConfidenceBand) {
     const Sample s = sample();
     for (const fit::FitMethod method : {fit::FitMethod::LeastSquares, fit::FitMethod::Poisson}) {

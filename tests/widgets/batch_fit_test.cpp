@@ -75,6 +75,14 @@ private Q_SLOTS:
         QCOMPARE(view->table()->text(row, 3),
                  QLocale::c().toString(single->derived.waveSize.value, 'f', 0));
         QCOMPARE(view->table()->text(row, 1), QStringLiteral("Harlingmoor"));
+        // The status column shows the core's status (issue 15), and the summary counts each.
+        const QString status =
+            QString::fromLatin1(siftwave::fit::fitStatusName(single->status)).replace(QLatin1Char('_'), QLatin1Char(' '));
+        QVERIFY2(view->table()->text(row, 6).startsWith(status),
+                 qPrintable(view->table()->text(row, 6)));
+        QVERIFY2(view->summaryText().contains(QStringLiteral(" ok, ")) &&
+                     view->summaryText().contains(QStringLiteral(" implausible, ")),
+                 qPrintable(view->summaryText()));
         // Province rows sum their districts; the register names them all.
         QVERIFY(!view->table()->text(rowOf(QStringLiteral("KV")), 1).isEmpty());
 

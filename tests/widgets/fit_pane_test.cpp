@@ -8,6 +8,8 @@
 #include <QComboBox>
 #include <QTest>
 
+#include <cmath>
+
 #include <vector>
 
 using siftwave::widgets::FitPane;
@@ -31,6 +33,28 @@ private Q_SLOTS:
         QVERIFY2(!summary.contains(QStringLiteral("FIRST:LAST")), qPrintable(summary));
         QVERIFY2(summary.contains(QStringLiteral("Choose “days” under Window")),
                  qPrintable(summary));
+    }
+
+    // Issue 15: the pane shows the fit's status, with the reasons and what to try when not ok.
+    void theStatusAndItsReasonsLeadTheSummary() {
+        std::vector<double> counts(120);
+        for (int i = 0; i < 120; ++i)
+            counts[static_cast<std::size_t>(i)] = 400.0 * std::exp(-0.5 * std::pow((i - 60) / 12.0, 2));
+        const siftwave::fit::DailySeries series{*siftwave::Date::fromYmd(2026, 3, 2), counts};
+        auto result = siftwave::fit::fitSeries(series);
+        QVERIFY(result.ok());
+        QCOMPARE(result->status, siftwave::fit::FitStatus::Ok);
+        FitPane pane;
+        pane.showFit(result, {});
+        QVERIFY2(pane.summaryText().startsWith(QStringLiteral("Status: <b>ok</b>")),
+                 qPrintable(pane.summaryText()));
+        result->status = siftwave::fit::FitStatus::Implausible;
+        result->statusReasons = {"the wave size K = 1e+10 is over 20 times the window's 500 counts"};
+        pane.showFit(result, {});
+        const QString summary = pane.summaryText();
+        QVERIFY2(summary.startsWith(QStringLiteral("Status: <b>implausible</b>")), qPrintable(summary));
+        QVERIFY(summary.contains(QStringLiteral("over 20 times the window")));
+        QVERIFY(summary.contains(QStringLiteral("Try a window that holds the wave's peak")));
     }
 
     // Weekly data: the pane offers weekly methods, no weekday factors, the weekly defaults of the

@@ -164,7 +164,7 @@ namespace {
 // in greyscale (where the orange and the bars' grey come close) they still stand out.
 void caseLines(QCustomPlot* plot, const report::FigureSpec& spec) {
     QStringList names{QString::fromStdString(spec.smoothedLabel)};
-    if (spec.fit)
+    if (spec.fit && spec.fit->notDrawn.empty())
         names << QString::fromStdString(spec.fit->label);
     std::vector<QCPGraph*> lines;
     for (int i = 0; i < plot->graphCount(); ++i)

@@ -13,6 +13,7 @@
 #include <QVBoxLayout>
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <thread>
 
@@ -123,6 +124,21 @@ BatchFitView::BatchFitView(QWidget* parent)
 
 namespace {
 
+// The status as the table and the pane name it (fit::FitStatus, issue 15).
+QString statusDisplayName(fit::FitStatus status) {
+    switch (status) {
+        case fit::FitStatus::Ok:
+            return BatchFitView::tr("ok");
+        case fit::FitStatus::NotConverged:
+            return BatchFitView::tr("not converged");
+        case fit::FitStatus::Implausible:
+            return BatchFitView::tr("implausible");
+        case fit::FitStatus::NoWave:
+            return BatchFitView::tr("no wave");
+    }
+    return {};
+}
+
 // The row of a region whose fit failed: dashes and why, sorted after every fitted region.
 TextTableModel::Row failedFitRow(const QString& code, const QString& nameText,
                                  const fit::RegionFit& r) {
@@ -135,22 +151,29 @@ TextTableModel::Row failedFitRow(const QString& code, const QString& nameText,
                  QStringLiteral("–"),
                  QStringLiteral("–"),
                  QStringLiteral("–"),
-                 BatchFitView::tr("failed: %1").arg(why)};
-    row.sortKeys = {
-        code, nameText, QVariant(), QVariant(), QVariant(), QVariant(), QStringLiteral("2 ") + why};
+                 statusDisplayName(fit::regionStatus(r)) + QStringLiteral(": ") + why};
+    row.sortKeys = {code,
+                    nameText,
+                    QVariant(),
+                    QVariant(),
+                    QVariant(),
+                    QVariant(),
+                    QString::number(static_cast<int>(fit::regionStatus(r))) + why};
     row.toolTip = why;
     return row;
 }
 
-// The row of a fitted region: peak day, wave size, fraction observed, R² and status (converged
-// first when sorted), with the model, method, window, solver brief and notes as its tip.
+// The row of a fitted region: peak day, wave size, fraction observed, R² and status (ok first when
+// sorted, then not converged, implausible, no wave), with the model, method, window, solver brief,
+// the status reasons and the notes as its tip.
 TextTableModel::Row fittedRow(const QString& code, const QString& nameText,
                               const fit::FitResult& f) {
     TextTableModel::Row row;
     const fit::DerivedQuantities& d = f.derived;
-    const bool converged = f.summary.converged();
-    QString status = converged ? BatchFitView::tr("converged") : BatchFitView::tr("not converged");
-    if (!f.summary.notes.empty())
+    QString status = statusDisplayName(f.status);
+    if (!f.statusReasons.empty())
+        status += QStringLiteral(": ") + QString::fromStdString(f.statusReasons.front());
+    else if (!f.summary.notes.empty())
         status +=
             BatchFitView::tr(" · %n note(s)", nullptr, static_cast<int>(f.summary.notes.size()));
     const QString peak = std::isfinite(d.peakDay.value)
@@ -169,7 +192,7 @@ TextTableModel::Row fittedRow(const QString& code, const QString& nameText,
                     d.waveSize.value,
                     d.fractionObserved.value,
                     f.goodness.r2,
-                    (converged ? QStringLiteral("0 ") : QStringLiteral("1 ")) + status};
+                    QString::number(static_cast<int>(f.status)) + status};
     QStringList tip;
     tip << QStringLiteral("%1 %2, %3 to %4")
                .arg(QString::fromLatin1(fit::modelName(f.model)),
@@ -177,6 +200,8 @@ TextTableModel::Row fittedRow(const QString& code, const QString& nameText,
                     QString::fromStdString(f.windowFirst().iso()),
                     QString::fromStdString(f.windowLast().iso()));
     tip << QString::fromStdString(f.summary.brief());
+    for (const std::string& why : f.statusReasons)
+        tip << QString::fromStdString(why);
     for (const std::string& note : f.summary.notes)
         tip << QString::fromStdString(note);
     row.toolTip = tip.join(QLatin1Char('\n'));
@@ -184,10 +209,10 @@ TextTableModel::Row fittedRow(const QString& code, const QString& nameText,
     return row;
 }
 
-// The summary line: how many regions in how long, the failed ones (the first five codes), the
-// unconverged ones, and whether the run was cancelled.
+// The summary line: how many regions in how long, the failed ones (the first five codes), the count
+// of each status, and whether the run was cancelled.
 QString batchSummaryText(const BatchFitOutcome& outcome, const QString& what,
-                         const QStringList& failedCodes, int unconverged) {
+                         const QStringList& failedCodes, const std::array<int, 4>& statuses) {
     const int failed = static_cast<int>(failedCodes.size());
     QString summary =
         BatchFitView::tr("%1: %n region(s) in %2 s", nullptr, static_cast<int>(outcome.fits.size()))
@@ -197,8 +222,11 @@ QString batchSummaryText(const BatchFitOutcome& outcome, const QString& what,
                    QStringLiteral(" (%1)").arg(
                        failedCodes.mid(0, 5).join(QStringLiteral(", ")) +
                        (failedCodes.size() > 5 ? QStringLiteral(", …") : QString()));
-    if (unconverged)
-        summary += BatchFitView::tr(", %n not converged", nullptr, unconverged);
+    summary += BatchFitView::tr("; %1 ok, %2 not converged, %3 implausible, %4 no wave")
+                   .arg(statuses[0])
+                   .arg(statuses[1])
+                   .arg(statuses[2])
+                   .arg(statuses[3]);
     if (outcome.cancelled)
         summary += BatchFitView::tr(" — cancelled, the rest were not fitted");
     return summary;
@@ -210,24 +238,23 @@ void BatchFitView::setOutcome(const BatchFitOutcome& outcome,
                               const std::map<std::string, std::string>& names,
                               const QString& what) {
     QVector<TextTableModel::Row> rows;
-    int unconverged = 0;
+    std::array<int, 4> statuses{};
     QStringList failedCodes;
     for (const fit::RegionFit& r : outcome.fits) {
         const QString code = QString::fromStdString(r.region);
         const auto name = names.find(r.region);
         const QString nameText =
             name == names.end() ? QString() : QString::fromStdString(name->second);
+        ++statuses[static_cast<std::size_t>(fit::regionStatus(r))];
         if (!r.fit) {
             failedCodes << code;
             rows << failedFitRow(code, nameText, r);
             continue;
         }
-        if (!r.fit->summary.converged())
-            ++unconverged;
         rows << fittedRow(code, nameText, *r.fit);
     }
     m_rows->setRows(rows);
-    const QString summary = batchSummaryText(outcome, what, failedCodes, unconverged);
+    const QString summary = batchSummaryText(outcome, what, failedCodes, statuses);
     m_summaryText = summary;
     m_summary->setText(summary);
 }

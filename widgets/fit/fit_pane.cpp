@@ -353,15 +353,35 @@ QVector<TextTableModel::Row> comparisonRows(
     return rows;
 }
 
-// The summary line (HTML): model, method, window, the solver's brief, goodness of fit, notes.
+// The status line (HTML): ok, or the status with its reasons and what to try (issue 15).
+QString fitStatusText(const fit::FitResult& fit) {
+    if (fit.status == fit::FitStatus::Ok)
+        return FitPane::tr("Status: <b>ok</b>");
+    QString text = FitPane::tr("Status: <b>%1</b> — do not brief these numbers")
+                       .arg(QString::fromLatin1(fit::fitStatusName(fit.status)));
+    for (const std::string& why : fit.statusReasons)
+        text += QStringLiteral("<br>✗ %1").arg(QString::fromStdString(why).toHtmlEscaped());
+    text += fit.status == fit::FitStatus::NoWave
+                ? FitPane::tr(
+                      "<br>Try another window or another wave; the counts may hold no "
+                      "wave to fit.")
+                : FitPane::tr(
+                      "<br>Try a window that holds the wave's peak, another model or the "
+                      "other method (the choices above).");
+    return text;
+}
+
+// The summary line (HTML): the status, model, method, window, the solver's brief, goodness of fit,
+// notes.
 QString fitSummaryText(const fit::FitResult& fit) {
-    QString summary = FitPane::tr("<b>%1</b>, %2, %3 to %4 (%5 %6): %7")
-                          .arg(modelDisplayName(fit.model), methodDisplayName(fit.method),
-                               QString::fromStdString(fit.windowFirst().iso()),
-                               QString::fromStdString(fit.windowLast().iso()))
-                          .arg(fit.last - fit.first + 1)
-                          .arg(fit.periodDays == 7 ? FitPane::tr("weeks") : FitPane::tr("days"),
-                               QString::fromStdString(fit.summary.brief()).toHtmlEscaped());
+    QString summary = fitStatusText(fit) + QStringLiteral("<br>");
+    summary += FitPane::tr("<b>%1</b>, %2, %3 to %4 (%5 %6): %7")
+                   .arg(modelDisplayName(fit.model), methodDisplayName(fit.method),
+                        QString::fromStdString(fit.windowFirst().iso()),
+                        QString::fromStdString(fit.windowLast().iso()))
+                   .arg(fit.last - fit.first + 1)
+                   .arg(fit.periodDays == 7 ? FitPane::tr("weeks") : FitPane::tr("days"),
+                        QString::fromStdString(fit.summary.brief()).toHtmlEscaped());
     summary += FitPane::tr("<br>R² %1 · RMSE %2 · AICc %3")
                    .arg(number(fit.goodness.r2, 3), number(fit.goodness.rmse, 1),
                         number(fit.goodness.aicc, 1));
@@ -445,7 +465,10 @@ QVector<TextTableModel::Row> derivedRows(const fit::FitResult& fit) {
     derived << dateRow(FitPane::tr("End (%1 % of K)").arg(number(fit.options.endQuantile * 100, 1)),
                        d.endDay);
     derived << dateRow(FitPane::tr("Fastest growth"), d.fastestGrowthDay);
-    derived << valueRow(FitPane::tr("Doubling time at the start (days)"), d.doublingTimeDays, 1);
+    derived << valueRow(FitPane::tr("Doubling time on the observed rise (days)"),
+                        d.observedDoublingTimeDays, 1);
+    derived << valueRow(FitPane::tr("Model's instantaneous doubling time at the start (days)"),
+                        d.doublingTimeDays, 1);
     derived << valueRow(
         FitPane::tr("Peak infectious load (%1-day cases)").arg(fit.options.infectiousWindowDays),
         d.peakInfectiousLoad, 0);

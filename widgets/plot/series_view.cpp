@@ -44,7 +44,7 @@ SeriesView seriesViewOf(const report::PlotModel& model) {
     view.cleaned = model.cleaned;
     view.smoothed = model.smoothed;
     view.smoothedLabel = qs(model.smoothedLabel);
-    if (model.fit) {
+    if (model.fit && model.fit->notDrawn.empty()) {  // no curve for a fit that is not ok
         FittedCurve curve;
         curve.label = qs(model.fit->label);
         curve.mid = model.fit->mid;
@@ -52,6 +52,8 @@ SeriesView seriesViewOf(const report::PlotModel& model) {
         curve.high = model.fit->high;
         curve.bandLabel = qs(model.fit->bandLabel);
         view.fit = std::move(curve);
+    }
+    if (model.fit) {
         view.fitWindow = DayIndexRange{model.axis.periodOnGrid(model.fit->windowFirst),
                                        model.axis.periodOnGrid(model.fit->windowLast)};
     }

@@ -71,4 +71,17 @@ std::vector<RegionFit> fitRegions(std::span<const RegionSeries> regions,
     return results;
 }
 
+FitStatus regionStatus(const RegionFit& r) {
+    if (r.fit)
+        return r.fit->status;
+    return r.error && r.error->code == ErrorCode::NotFound ? FitStatus::NoWave
+                                                           : FitStatus::NotConverged;
+}
+
+std::vector<std::string> regionStatusReasons(const RegionFit& r) {
+    if (r.fit)
+        return r.fit->statusReasons;
+    return {r.error ? r.error->message : std::string("the fit failed")};
+}
+
 }  // namespace siftwave::fit

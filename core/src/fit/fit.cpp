@@ -1,5 +1,7 @@
 #include "siftwave/fit/fit.h"
 
+#include "siftwave/transmission/growth_rate.h"
+
 #include "fit/curve_band.h"
 #include "fit/fit_workspace.h"
 #include "fit/gram.h"
@@ -344,6 +346,37 @@ FitOptions FitOptions::forCadence(Cadence cadence) {
         o.detection = WaveDetectionOptions::forCadence(cadence);
     }
     return o;
+}
+
+const char* fitStatusName(FitStatus status) {
+    switch (status) {
+        case FitStatus::Ok:
+            return "ok";
+        case FitStatus::NotConverged:
+            return "not_converged";
+        case FitStatus::Implausible:
+            return "implausible";
+        case FitStatus::NoWave:
+            return "no_wave";
+    }
+    return "?";
+}
+
+const char* fitStatusAdvice(FitStatus status) {
+    switch (status) {
+        case FitStatus::Ok:
+            return "";
+        case FitStatus::NotConverged:
+            return "another window (--window FIRST:LAST), another model (--model) or the other "
+                   "method (--method)";
+        case FitStatus::Implausible:
+            return "a window that holds the wave's peak (--window FIRST:LAST), another model "
+                   "(--model best) or the other method (--method); do not brief these numbers";
+        case FitStatus::NoWave:
+            return "another window (--window FIRST:LAST) or another wave (--wave); the counts "
+                   "may hold no wave to fit";
+    }
+    return "";
 }
 
 Status FitOptions::validate() const {
@@ -839,6 +872,170 @@ void addNotes(FitState& s, const std::array<double, kDerivedCount>& d0, bool hav
         res.summary.notes.push_back("standard errors unavailable (singular information)");
 }
 
+// The doubling time on the observed rise (fit.h, DerivedQuantities::observedDoublingTimeDays):
+// one window of the transmission capability's growth-rate regression, from the start day (clamped
+// to the window) to the peak or the last day with data, whichever comes first.
+void addObservedDoubling(FitState& s, const std::array<double, kDerivedCount>& d0) {
+    FitResult& res = s.res;
+    DerivedQuantities& dq = res.derived;
+    dq.observedDoublingTimeDays = {kNaN, kNaN, kNaN, kNaN};
+    const int pd = s.pd;
+    const double startDay = std::isfinite(d0[kStart]) ? std::max(0.0, d0[kStart]) : 0.0;
+    const double endDay =
+        std::min(std::isfinite(d0[kPeakDay]) ? d0[kPeakDay] : s.lastDataDay, s.lastDataDay);
+    const int first = res.first + static_cast<int>(std::floor(startDay / pd));
+    const int last =
+        std::min(res.first + static_cast<int>(std::floor(std::max(endDay, 0.0) / pd)), res.last);
+    dq.observedRiseFirst = first;
+    dq.observedRiseLast = last;
+    const int n = last - first + 1;
+    if (n < 3) {
+        dq.observedDoublingNote = "the observed rise is shorter than 3 periods";
+        return;
+    }
+    const Date firstDay = res.periodStart(first);
+    TimeAxis axis;
+    if (pd == 1) {
+        axis = TimeAxis::daily(firstDay, n);
+    } else if (firstDay.isoWeekday() == 1 || firstDay.isoWeekday() == 7) {
+        axis = TimeAxis::weekly(firstDay, n,
+                                firstDay.isoWeekday() == 1 ? WeekStart::Monday : WeekStart::Sunday);
+    } else {
+        dq.observedDoublingNote = "weeks that start neither on a Monday nor on a Sunday";
+        return;
+    }
+    transmission::GrowthOptions options;
+    options.window = n;
+    const auto counts =
+        s.series.counts.subspan(static_cast<std::size_t>(first), static_cast<std::size_t>(n));
+    const transmission::GrowthEstimate g = transmission::growthRates(counts, axis, options).back();
+    if (!g.ok() || !(g.r.value > 0)) {
+        dq.observedDoublingNote =
+            g.ok() ? "the counts do not rise over the observed rise" : g.reason;
+        return;
+    }
+    const double r = g.r.value;
+    dq.observedDoublingTimeDays = {g.doublingDays.value, std::numbers::ln2 * g.se / (r * r),
+                                   g.doublingDays.lower, g.doublingDays.upper};
+}
+
+// Where the two doubling times disagree beyond their intervals, the fit says so (issue 15).
+void noteDoublingDisagreement(FitResult& res) {
+    const Estimate& a = res.derived.observedDoublingTimeDays;
+    const Estimate& b = res.derived.doublingTimeDays;
+    if (!std::isfinite(a.value) || !std::isfinite(b.value) || !std::isfinite(b.lower))
+        return;
+    if (a.upper < b.lower || b.upper < a.lower) {
+        char buf[300];
+        std::snprintf(buf, sizeof buf,
+                      "the doubling time on the observed rise (%.2g days, 95%% %.2g .. %.2g) and "
+                      "the model's instantaneous one at its start day (%.2g days, 95%% %.2g .. "
+                      "%.2g) disagree beyond their intervals: brief the observed one",
+                      a.value, a.lower, a.upper, b.value, b.lower, b.upper);
+        res.summary.notes.push_back(buf);
+    }
+}
+
+// A parameter at a bound of its model's domain: WaveModel::valid() refuses it halved or doubled
+// (the domains are open bounds such as a scale above 1e-6 or a shape below 1e3; common practice,
+// no source: a fit that ends on a bound was stopped by the domain, not by the data).
+bool parameterAtBound(const FitState& s, std::string& name) {
+    std::vector<double> p = s.params;
+    for (std::size_t j = 0; j < p.size(); ++j) {
+        const double v = p[j];
+        for (const double factor : {0.5, 2.0}) {
+            p[j] = v * factor;
+            const bool ok = s.model->valid(p);
+            p[j] = v;
+            if (!ok && v != 0) {
+                name = s.res.parameters[j].name;
+                return true;
+            }
+        }
+    }
+    return false;
+}
+
+// A 95% interval wider than its estimate (or none): the fit cannot say how big the wave is.
+void checkInterval(const Estimate& e, const char* what, std::vector<std::string>& why) {
+    const double width = e.upper - e.lower;
+    if (!std::isfinite(width)) {
+        why.push_back(std::string("the ") + what + " has no 95% interval (singular information)");
+    } else if (!(width <= std::abs(e.value))) {
+        char buf[200];
+        std::snprintf(buf, sizeof buf,
+                      "the 95%% interval of the %s (%.3g .. %.3g) is wider than "
+                      "the estimate %.3g",
+                      what, e.lower, e.upper, e.value);
+        why.push_back(buf);
+    }
+}
+
+// The lower of the fitted curve's values at the window's two ends over its top within the window:
+// a wave rises and falls (or at least rises) across its window, noise or a plateau does not (on
+// generated waves at most 0.014, on Poisson noise 0.59 to 0.86; our own measurement).
+double edgeToTopRatio(const FitState& s, double peakDay) {
+    const FitResult& res = s.res;
+    const double windowDays = (res.last - res.first) * s.pd + (s.pd - 1);
+    // The four models are unimodal: the top within the window is at the peak, or at the window's
+    // end nearer to it.
+    const double top = s.model->incidenceAt(
+        std::isfinite(peakDay) ? std::clamp(peakDay, 0.0, windowDays) : 0.0, s.params);
+    const double edge =
+        std::min(s.model->incidenceAt(0, s.params), s.model->incidenceAt(windowDays, s.params));
+    return top > 0 ? edge / std::max(top, edge) : 1.0;
+}
+
+// The status of issue 15: a fit the solver finished may still describe no wave an analyst could
+// brief. Every check that fails adds its reason; the thresholds are those the issue names
+// (common practice, no source).
+void assessStatus(FitState& s, const std::array<double, kDerivedCount>& d0) {
+    FitResult& res = s.res;
+    std::vector<std::string>& why = res.statusReasons;
+    char buf[240];
+    if (!res.summary.converged()) {
+        why.push_back(std::string("the solver stopped before convergence (") +
+                      terminationName(res.summary.termination) + ")");
+    }
+    const int pd = s.pd;
+    const double windowDays = (res.last - res.first) * pd + (pd - 1);
+    if ((d0[kPeakDay] < 0 || d0[kPeakDay] > windowDays) && !(d0[kFraction] >= 0.5)) {
+        why.push_back(
+            "the fitted peak lies outside the window while less than half of the wave "
+            "is observed");
+    }
+    double observed = 0;
+    for (int i = res.first; i <= res.last; ++i) {
+        const double c = s.series.counts[static_cast<std::size_t>(i)];
+        if (std::isfinite(c))
+            observed += c;
+    }
+    if (!(d0[kWaveSize] <= 20.0 * observed)) {
+        std::snprintf(buf, sizeof buf,
+                      "the wave size K = %.3g is over 20 times the window's %.0f counts",
+                      d0[kWaveSize], observed);
+        why.push_back(buf);
+    }
+    checkInterval(res.derived.waveSize, "wave size K", why);
+    checkInterval(res.derived.peakIncidence, "peak incidence", why);
+    if (std::string name; parameterAtBound(s, name))
+        why.push_back("the parameter " + name + " is at a bound of the model's domain");
+    const double flat = edgeToTopRatio(s, d0[kPeakDay]);
+    if (!(flat < 0.5)) {
+        std::snprintf(buf, sizeof buf,
+                      "the fitted curve stays above %.0f%% of its top across the whole window: "
+                      "no rise and fall to fit (noise or a plateau)",
+                      100.0 * std::floor(std::min(flat, 1.0) * 10.0) / 10.0);
+        why.insert(why.begin(), buf);
+    }
+    if (!res.summary.converged())
+        res.status = FitStatus::NotConverged;
+    else if (!(flat < 0.5))
+        res.status = FitStatus::NoWave;
+    else
+        res.status = why.empty() ? FitStatus::Ok : FitStatus::Implausible;
+}
+
 // The fit of o.model, whatever o.modelChoice says (fitSeries applies the choice): the steps of
 // the pipeline in fit.h, each its own function above.
 Result<FitResult> fitGivenModel(const Series& series, const FitOptions& o,
@@ -862,7 +1059,10 @@ Result<FitResult> fitGivenModel(const Series& series, const FitOptions& o,
     addFittedCurveAndBand(s, q, haveCov);    // 5. the curve and its band
     addInformationCriteria(s.res.goodness);  // 6. AIC, AICc
     const auto d0 = addDerivedQuantities(s, q, haveCov, population);
+    addObservedDoubling(s, d0);
     addNotes(s, d0, haveCov);
+    noteDoublingDisagreement(s.res);
+    assessStatus(s, d0);
     return std::move(s.res);
 }
 

@@ -84,7 +84,7 @@ constexpr std::string_view kCsvHeader =
     "region,model,method,window_first,window_last,peak_date,peak_incidence,incidence_unit,"
     "wave_size,fraction_observed,start_date,end_date,fastest_growth_date,doubling_time_days,"
     "peak_infectious_load,peak_infectious_load_per_100k,aic,aicc,r2,rmse,converged,parameters,"
-    "error";
+    "error,status,status_reasons";
 
 }  // namespace
 
@@ -92,6 +92,8 @@ json fitToJson(std::string_view region, const FitResult& f,
                std::span<const ModelComparisonRow> comparison, bool withCurve) {
     json j;
     j["region"] = region;
+    j["status"] = fitStatusName(f.status);
+    j["status_reasons"] = f.statusReasons;
     j["model"] = modelName(f.model);
     j["method"] = methodName(f.method);
     j["window"] = {{"first", f.windowFirst().iso()}, {"last", f.windowLast().iso()}};
@@ -108,7 +110,15 @@ json fitToJson(std::string_view region, const FitResult& f,
     j["start_date"] = dateOrNull(f, d.startDay.value);
     j["end_date"] = dateOrNull(f, d.endDay.value);
     j["fastest_growth_date"] = dateOrNull(f, d.fastestGrowthDay.value);
-    j["doubling_time_days"] = number(d.doublingTimeDays.value);
+    // The doubling time to brief: the growth on the observed rise (log-linear Poisson); the
+    // model's instantaneous one is kept beside it under its own name.
+    j["doubling_time_days"] = number(d.observedDoublingTimeDays.value);
+    j["doubling_time_rise"] = {
+        {"first", f.periodStart(d.observedRiseFirst).iso()},
+        {"last", f.periodStart(d.observedRiseLast).iso()},
+        {"method", "log-linear Poisson regression (quasi-Poisson when overdispersed)"},
+        {"note", d.observedDoublingNote.empty() ? json(nullptr) : json(d.observedDoublingNote)}};
+    j["model_doubling_time_at_start_days"] = number(d.doublingTimeDays.value);
     j["peak_infectious_load"] = number(d.peakInfectiousLoad.value);
     j["peak_infectious_load_per_100k"] =
         d.peakInfectiousLoadPer100k ? number(d.peakInfectiousLoadPer100k->value) : json(nullptr);
@@ -128,7 +138,8 @@ json fitToJson(std::string_view region, const FitResult& f,
         {"fraction_observed", estimateJson(d.fractionObserved)},
         {"start_date_ci95", dateInterval(f, d.startDay)},
         {"end_date_ci95", dateInterval(f, d.endDay)},
-        {"doubling_time_days", estimateJson(d.doublingTimeDays)},
+        {"doubling_time_days", estimateJson(d.observedDoublingTimeDays)},
+        {"model_doubling_time_at_start_days", estimateJson(d.doublingTimeDays)},
         {"peak_infectious_load", estimateJson(d.peakInfectiousLoad)},
     };
     if (!f.weekdayFactors.empty())
@@ -180,7 +191,7 @@ std::string fitCsvRow(const RegionFit& r) {
         c.push_back(date(d.startDay.value));
         c.push_back(date(d.endDay.value));
         c.push_back(date(d.fastestGrowthDay.value));
-        c.push_back(csvNumber(d.doublingTimeDays.value));
+        c.push_back(csvNumber(d.observedDoublingTimeDays.value));
         c.push_back(csvNumber(d.peakInfectiousLoad.value));
         c.push_back(d.peakInfectiousLoadPer100k ? csvNumber(d.peakInfectiousLoadPer100k->value)
                                                 : "");
@@ -196,6 +207,11 @@ std::string fitCsvRow(const RegionFit& r) {
         c.push_back(textField(params));
         c.emplace_back();
     }
+    c.push_back(fitStatusName(regionStatus(r)));
+    std::string reasons;
+    for (const auto& why : regionStatusReasons(r))
+        reasons += (reasons.empty() ? "" : "; ") + why;
+    c.push_back(textField(reasons));
     std::string line;
     for (std::size_t i = 0; i < c.size(); ++i)
         line += (i ? "," : "") + c[i];

@@ -1,6 +1,7 @@
 #include "siftwave/fit/levenberg_marquardt.h"
 
 #include "fit/gram.h"
+#include "siftwave/fit/double_double.h"
 
 #include <Eigen/Dense>
 
@@ -181,8 +182,8 @@ Status SolverOptions::validate() const {
     if (!(functionTolerance >= 0) || !(parameterTolerance >= 0) || !(gradientTolerance >= 0)) {
         return makeError(ErrorCode::Usage, "solver tolerances must be zero or positive");
     }
-    if (!(initialDamping > 0))
-        return makeError(ErrorCode::Usage, "initialDamping must be positive");
+    if (!(initialStepBound > 0))
+        return makeError(ErrorCode::Usage, "initialStepBound must be positive");
     return Ok{};
 }
 
@@ -229,8 +230,9 @@ struct LevenbergMarquardtBuffers {
     Vector r, rNew;      // residuals at x and at the trial point
     Matrix J, JNew;      // Jacobians at x and at the trial point
     Eigen::MatrixXd Jc;  // column-major copy: Householder QR runs down contiguous columns
-    Vector D, xNew, qtr, rhs, h, g, columnNorms2, Ah, qtrPlusRh;
-    Matrix R, S, A, dampedA;
+    Vector D;            // the scaling: MINPACK's diag, the largest column norms of J seen so far
+    Vector xNew, qtr, rhs, h, g, columnNorms2, Rh, w;
+    Matrix R, S, A, dampedA, Rl;  // Rl: the triangular factor of the damped system
     Eigen::LLT<Matrix> llt, dampedLlt;
     Eigen::HouseholderQR<Matrix> dampedQr;
     Eigen::HouseholderQR<Eigen::MatrixXd> qr;
@@ -245,17 +247,24 @@ SolverWorkspace& SolverWorkspace::operator=(SolverWorkspace&&) noexcept = defaul
 
 namespace {
 
-// ---------------------------------------------------------------- the solver's
-// steps One solve, in the steps of the header's description (after Ceres' TrustRegionMinimizer):
-// start (evaluate and factorise at x0), step (the damped step and its predicted reduction), accept
-// or reject (the gain ratio moves x and the damping), polish (Gauss-Newton refinement), finish (the
-// result and the covariance).
+constexpr double kEpsilon = std::numeric_limits<double>::epsilon();
+constexpr double kDwarf = std::numeric_limits<double>::min();
+
+// ---------------------------------------------------------------- the solver's steps
+// One solve, in the steps of the header's description (after Ceres' TrustRegionMinimizer): start
+// (evaluate and factorise at x0), step (the trust-region step and its predicted reduction), accept
+// or reject (the ratio of actual to predicted reduction moves x and the step bound), polish
+// (Gauss-Newton refinement), finish (the result and the covariance). The step control is that of
+// MINPACK's lmder/lmpar: J. J. More (1978), "The Levenberg-Marquardt algorithm: implementation and
+// theory", Lecture Notes in Mathematics 630, 105-116, sections 4-7.
 class LevenbergMarquardt {
 public:
     LevenbergMarquardt(const LeastSquaresProblem& problem, const SolverOptions& options,
-                       detail::LevenbergMarquardtBuffers& work, SolverResult& result)
+                       bool identityScaling, detail::LevenbergMarquardtBuffers& work,
+                       SolverResult& result)
         : m_problem(problem),
           m_options(options),
+          m_identityScaling(identityScaling),
           m_w(work),
           m_result(result),
           m_summary(result.summary),
@@ -267,35 +276,53 @@ public:
     // Evaluates and factorises at the start; false (with the summary saying why) when the solve
     // cannot begin.
     bool start(std::span<const double> x0);
-    // One damped step h and the reduction the linear model predicts for it; false when the
-    // iteration ends here (a non-finite step, or a step below the parameter tolerance).
+    // The step h that minimises the linear model within the scaled trust region |D h| <= Delta
+    // (More's lmpar), and the reduction the linear model predicts for it; false when the
+    // iteration ends here (a non-finite step).
     bool step(double& predicted);
-    // Evaluates x + h; true when it lowers the cost (gain ratio rho > 0), then moves there. False:
-    // the damping grows. Either way, `m_done` says whether the iteration has ended.
+    // Evaluates x + h; moves there when the actual reduction is at least 1e-4 of the predicted
+    // one; updates Delta and lambda from their ratio; tests convergence (`m_done`).
     void acceptOrReject(double predicted);
     // Undamped Gauss-Newton steps after convergence (SolverOptions::refinementSteps).
     void polish();
+    // The same steps on a double-double point with extended-precision residuals, when the problem
+    // provides them (LeastSquaresProblem::evaluateExtended).
+    void polishExtended();
     // Parameters, residuals, Jacobian and covariance into the result; the closing message.
     void finish();
 
     bool done() const { return m_done; }
+    // True when a column of J has shrunk below 1e-8 of its largest norm in this run: the model has
+    // (nearly) stopped depending on that parameter, the run ended in a flat region.
+    // (The column norms of the last factorisation: O(n), no pass over J.)
+    bool columnCollapsed() const {
+        for (Eigen::Index j = 0; j < m_n; ++j) {
+            if (std::sqrt(m_w.columnNorms2[j]) < 1e-8 * m_w.D[j])
+                return true;
+        }
+        return false;
+    }
 
 private:
     void factorise();
+    void updateScaling(bool first);
     bool gradientSmall();
-    bool dampedNormalStep(double& predicted);
-    void dampedQrStep(double& predicted);
-    void accept(double rho, double costNew);
-    void reject();
+    bool solveDamped(double lambda);
+    double newtonCorrection(const Matrix& Rlambda, double dxnorm);
+    void updateBound(double ratio, double actual, double pnorm, bool blownUp);
+    void testConvergence(double actual, double predictedRel, double ratio);
+    void accept(double costNew);
     void stop(Termination termination, const char* message = nullptr) {
         m_summary.termination = termination;
         if (message)
             m_summary.message = message;
         m_done = true;
     }
+    double scaledNorm(const Vector& v) const { return m_w.D.cwiseProduct(v).norm(); }
 
     const LeastSquaresProblem& m_problem;
     const SolverOptions& m_options;
+    const bool m_identityScaling;  // D = 1 throughout (the fallback run)
     detail::LevenbergMarquardtBuffers& m_w;
     SolverResult& m_result;
     SolverSummary& m_summary;
@@ -304,8 +331,10 @@ private:
     const int m_n;
     Vector& m_x;  // the current point (in the workspace)
     double m_cost = 0;
-    double m_lambda = 0;
-    double m_nu = 2.0;
+    double m_delta = 0;   // the trust region's radius, in the scaled norm |D h|
+    double m_lambda = 0;  // the Levenberg-Marquardt parameter of the last step
+    double m_xnorm = 0;   // |D x|
+    bool m_first = true;  // the first step also bounds Delta by its own length
     bool m_done = false;
     // True while R and Q^T r come from the Cholesky factor of A = J^T J (g = J^T r kept too).
     bool m_fromNormalEquations = false;
@@ -325,22 +354,25 @@ bool LevenbergMarquardt::start(std::span<const double> x0) {
     m_cost = 0.5 * m_w.r.squaredNorm();
     m_summary.initialCost = m_cost;
     m_w.xNew.resize(m_n);
-    m_lambda = m_options.initialDamping;
-    m_nu = 2.0;
     m_summary.termination = Termination::MaxIterations;
-    // J = Q R once per Jacobian; every damped step then solves the small system [R; sqrt(lambda D)]
+    // J = Q R once per Jacobian; every trial step then solves the small system [R; sqrt(lambda) D]
     // h = [-Q^T r; 0] (MINPACK's approach: More 1978, section 3). With the normal equations (R from
     // the Cholesky factor of J^T J) the same step comes from the Cholesky factor of J^T J + lambda
-    // D (dampedNormalStep below), a few dozen operations. Each factorisation also gives the squared
-    // column norms of J (the diagonal of J^T J), from which the damping scale D is kept.
+    // D^2, a few dozen operations. Each factorisation also gives the squared column norms of J,
+    // from which the scaling D is kept.
     m_w.R.resize(m_n, m_n);
     m_w.qtr.resize(m_n);
     m_w.S.resize(2 * m_n, m_n);
     m_w.rhs.resize(2 * m_n);
     m_w.columnNorms2.resize(m_n);
     factorise();
-    m_w.D = m_w.columnNorms2.cwiseMax(1e-300);
-    if (gradientSmall())
+    updateScaling(true);
+    // The initial bound: 100 |D x0| (MINPACK's factor), or 100 when x0 = 0.
+    m_delta = m_options.initialStepBound * (m_xnorm > 0 ? m_xnorm : 1.0);
+    m_lambda = 0;
+    if (m_cost == 0)
+        stop(Termination::FunctionTolerance);
+    else if (gradientSmall())
         stop(Termination::GradientTolerance);
     return true;
 }
@@ -375,6 +407,23 @@ void LevenbergMarquardt::factorise() {
     m_w.columnNorms2 = m_w.J.colwise().squaredNorm().transpose();
 }
 
+// MINPACK's mode 1: D_j = the largest norm of column j of J seen so far (1 for a zero column), or
+// the identity (the fallback run).
+void LevenbergMarquardt::updateScaling(bool first) {
+    if (first)
+        m_w.D.setOnes(m_n);
+    if (!m_identityScaling) {
+        for (Eigen::Index j = 0; j < m_n; ++j) {
+            const double norm = std::sqrt(m_w.columnNorms2[j]);
+            if (first)
+                m_w.D[j] = norm > 0 ? norm : 1.0;
+            else
+                m_w.D[j] = std::max(m_w.D[j], norm);
+        }
+    }
+    m_xnorm = scaledNorm(m_x);
+}
+
 bool LevenbergMarquardt::gradientSmall() {
     if (m_options.gradientTolerance <= 0)
         return false;
@@ -391,53 +440,112 @@ bool LevenbergMarquardt::gradientSmall() {
     return worst <= m_options.gradientTolerance;
 }
 
-// The damped step from the normal equations: (A + lambda D) h = -g, whose solution is that of the
-// least-squares system [R; sqrt(lambda D)] h = [-Q^T r; 0] when R^T R = A and R^T Q^T r = g; the
-// predicted reduction 0.5 (|Q^T r|^2 - |Q^T r + R h|^2) is then -g.h - 0.5 h^T A h. False when A +
-// lambda D is not numerically positive definite (the caller then solves the system by QR).
-bool LevenbergMarquardt::dampedNormalStep(double& predicted) {
-    m_w.dampedA = m_w.A;
-    for (Eigen::Index j = 0; j < m_n; ++j)
-        m_w.dampedA(j, j) += m_lambda * m_w.D[j];
-    m_w.dampedLlt.compute(m_w.dampedA);
-    if (m_w.dampedLlt.info() != Eigen::Success)
-        return false;
-    m_w.h = -m_w.g;
-    m_w.dampedLlt.solveInPlace(m_w.h);
-    m_w.Ah.noalias() = m_w.A * m_w.h;
-    predicted = -m_w.g.dot(m_w.h) - 0.5 * m_w.h.dot(m_w.Ah);
-    return true;
-}
-
-// The damped step by QR of the small system [R; sqrt(lambda D)] h = [-Q^T r; 0].
-void LevenbergMarquardt::dampedQrStep(double& predicted) {
+// h(lambda) solving [R; sqrt(lambda) D] h = [-Q^T r; 0] in the least-squares sense, and Rl, the
+// triangular factor of that system (Rl^T Rl = R^T R + lambda D^2; for lambda = 0, R itself, left
+// in place). lambda = 0 is the Gauss-Newton
+// step, refused (false) when R is numerically singular. With the normal equations the damped step
+// comes from the Cholesky factor of A + lambda D^2 (QR when that fails).
+bool LevenbergMarquardt::solveDamped(double lambda) {
     const Eigen::Index n = m_n;
+    if (lambda == 0) {
+        const double largest = m_w.R.diagonal().cwiseAbs().maxCoeff();
+        if (!(m_w.R.diagonal().cwiseAbs().minCoeff() > static_cast<double>(n) * kEpsilon * largest))
+            return false;
+        m_w.h = -m_w.qtr;
+        m_w.R.triangularView<Eigen::Upper>().solveInPlace(m_w.h);  // Rl = R: not copied
+        return allFinite(m_w.h.data(), static_cast<std::size_t>(n));
+    }
+    if (m_fromNormalEquations) {
+        m_w.dampedA = m_w.A;
+        for (Eigen::Index j = 0; j < n; ++j)
+            m_w.dampedA(j, j) += lambda * m_w.D[j] * m_w.D[j];
+        m_w.dampedLlt.compute(m_w.dampedA);
+        if (m_w.dampedLlt.info() == Eigen::Success) {
+            m_w.h = -m_w.g;
+            m_w.dampedLlt.solveInPlace(m_w.h);
+            m_w.Rl = m_w.dampedLlt.matrixU();
+            return allFinite(m_w.h.data(), static_cast<std::size_t>(n));
+        }
+    }
     m_w.S.topRows(n) = m_w.R;
     m_w.S.bottomRows(n).setZero();
+    const double root = std::sqrt(lambda);
     for (Eigen::Index j = 0; j < n; ++j)
-        m_w.S(n + j, j) = std::sqrt(m_lambda * m_w.D[j]);
+        m_w.S(n + j, j) = root * m_w.D[j];
     m_w.rhs.head(n) = -m_w.qtr;
     m_w.rhs.tail(n).setZero();
     m_w.dampedQr.compute(m_w.S);
     m_w.h = m_w.dampedQr.solve(m_w.rhs);
-    m_w.qtrPlusRh.noalias() = m_w.R * m_w.h;
-    m_w.qtrPlusRh += m_w.qtr;
-    predicted = 0.5 * (m_w.qtr.squaredNorm() - m_w.qtrPlusRh.squaredNorm());
+    m_w.Rl = m_w.dampedQr.matrixQR().topRows(n).triangularView<Eigen::Upper>();
+    return allFinite(m_w.h.data(), static_cast<std::size_t>(n));
+}
+
+// phi(lambda) = |D h| - Delta has the derivative -|Rl^-T D^2 h / |D h||^2 |D h| ... ; More's
+// Newton correction is (phi / Delta) / |Rl^-T (D^2 h / |D h|)|^2 (lmpar, equation 5.5).
+double LevenbergMarquardt::newtonCorrection(const Matrix& Rlambda, double dxnorm) {
+    m_w.w = m_w.D.cwiseProduct(m_w.D.cwiseProduct(m_w.h)) / dxnorm;
+    Rlambda.triangularView<Eigen::Upper>().transpose().solveInPlace(m_w.w);
+    return m_w.w.squaredNorm();
 }
 
 bool LevenbergMarquardt::step(double& predicted) {
     ++m_summary.iterations;
     predicted = 0;
-    if (!(m_fromNormalEquations && dampedNormalStep(predicted)))
-        dampedQrStep(predicted);
-    if (!allFinite(m_w.h.data(), static_cast<std::size_t>(m_n))) {
-        stop(Termination::NumericalFailure, "the damped linear system gave a non-finite step");
-        return false;
+    const double delta = m_delta;
+    // The Gauss-Newton step when it lies within 1.1 Delta (lambda = 0).
+    double parl = 0;
+    double dxnorm = 0;
+    double fp = 0;
+    const bool gaussNewton = solveDamped(0);
+    if (gaussNewton) {
+        dxnorm = scaledNorm(m_w.h);
+        fp = dxnorm - delta;
+        if (fp > 0.1 * delta && dxnorm > 0)
+            parl = fp / delta / newtonCorrection(m_w.R, dxnorm);  // lower bound on lambda
     }
-    if (m_w.h.norm() <=
-        m_options.parameterTolerance * (m_x.norm() + m_options.parameterTolerance)) {
-        stop(Termination::ParameterTolerance);
-        return false;
+    if (!gaussNewton || fp > 0.1 * delta) {
+        // Upper bound |D^-1 J^T r| / Delta, then More's safeguarded Newton iteration on
+        // phi(lambda) = |D h(lambda)| - Delta, to within 10% of Delta (at most 10 solves).
+        m_w.w.noalias() = m_w.R.triangularView<Eigen::Upper>().transpose() * m_w.qtr;
+        const double gnorm = m_w.w.cwiseQuotient(m_w.D).norm();
+        double paru = gnorm / delta;
+        if (paru == 0)
+            paru = kDwarf / std::min(delta, 0.1);
+        double lambda = std::clamp(m_lambda, parl, std::max(parl, paru));
+        if (lambda == 0)
+            lambda = gaussNewton && dxnorm > 0 ? gnorm / dxnorm : 0;
+        for (int k = 1;; ++k) {
+            if (lambda == 0)
+                lambda = std::max(kDwarf, 0.001 * paru);
+            if (!solveDamped(lambda)) {
+                stop(Termination::NumericalFailure,
+                     "the damped linear system gave a non-finite step");
+                return false;
+            }
+            dxnorm = scaledNorm(m_w.h);
+            const double previous = fp;
+            fp = dxnorm - delta;
+            if (std::abs(fp) <= 0.1 * delta || (parl == 0 && fp <= previous && previous < 0) ||
+                k == 10 || dxnorm == 0)
+                break;
+            const double parc = fp / delta / newtonCorrection(m_w.Rl, dxnorm);
+            if (fp > 0)
+                parl = std::max(parl, lambda);
+            else
+                paru = std::min(paru, lambda);
+            lambda = std::max(parl, lambda + parc);
+        }
+        m_lambda = lambda;
+    } else {
+        m_lambda = 0;
+    }
+    // Predicted reduction of the cost: 1/2 |J h|^2 + lambda |D h|^2 (More 1978, section 4).
+    m_w.Rh.noalias() = m_w.R.triangularView<Eigen::Upper>() * m_w.h;
+    const double pnorm = scaledNorm(m_w.h);
+    predicted = 0.5 * m_w.Rh.squaredNorm() + m_lambda * pnorm * pnorm;
+    if (m_first) {
+        m_delta = std::min(m_delta, pnorm);
+        m_first = false;
     }
     return true;
 }
@@ -446,24 +554,44 @@ void LevenbergMarquardt::acceptOrReject(double predicted) {
     // With an analytic Jacobian, a trial point is evaluated with its Jacobian at once (shared work,
     // and most trial points are accepted); with numerical differences only on acceptance.
     m_w.xNew = m_x + m_w.h;
-    double rho = -1.0;
-    double costNew = m_cost;
+    const double pnorm = scaledNorm(m_w.h);
     const bool evaluated = m_problem.hasJacobian()
                                ? m_eval.residualsAndJacobian(m_w.xNew, m_w.rNew, m_w.JNew)
                                : m_eval.residuals(m_w.xNew, m_w.rNew);
-    if (evaluated) {
-        costNew = 0.5 * m_w.rNew.squaredNorm();
-        if (predicted > 0)
-            rho = (m_cost - costNew) / predicted;
-    }
-    if (rho > 0)
-        accept(rho, costNew);
-    else
-        reject();
+    const double costNew =
+        evaluated ? 0.5 * m_w.rNew.squaredNorm() : std::numeric_limits<double>::infinity();
+    // Relative actual and predicted reductions (lmder's actred, prered); a trial point whose
+    // residual norm grew tenfold (or that cannot be evaluated) counts as actred = -1.
+    const bool blownUp = !(costNew < 100.0 * m_cost);
+    const double actual = blownUp ? -1.0 : 1.0 - costNew / m_cost;
+    const double predictedRel = predicted / m_cost;
+    const double ratio = predictedRel != 0 ? actual / predictedRel : 0.0;
+    updateBound(ratio, actual, pnorm, blownUp);
+    if (ratio >= 1e-4)
+        accept(costNew);
+    if (!m_done)
+        testConvergence(actual, predictedRel, ratio);
 }
 
-void LevenbergMarquardt::accept(double rho, double costNew) {
-    const double reduction = m_cost - costNew;
+// lmder's update of the step bound (More 1978, section 7): shrink towards the step by a factor
+// from the cubic interpolation of the cost along it when the ratio is below 1/4, double the step's
+// length when it is above 3/4 (or the step was Gauss-Newton).
+void LevenbergMarquardt::updateBound(double ratio, double actual, double pnorm, bool blownUp) {
+    if (ratio <= 0.25) {
+        const double directional =
+            -(m_w.Rh.squaredNorm() / (2.0 * m_cost)) - m_lambda * pnorm * pnorm / (2.0 * m_cost);
+        double factor = actual >= 0 ? 0.5 : 0.5 * directional / (directional + 0.5 * actual);
+        if (blownUp || factor < 0.1 || !std::isfinite(factor))
+            factor = 0.1;
+        m_delta = factor * std::min(m_delta, pnorm / 0.1);
+        m_lambda /= factor;
+    } else if (m_lambda == 0 || ratio >= 0.75) {
+        m_delta = pnorm / 0.5;
+        m_lambda *= 0.5;
+    }
+}
+
+void LevenbergMarquardt::accept(double costNew) {
     m_x = m_w.xNew;
     m_cost = costNew;
     if (m_problem.hasJacobian()) {
@@ -474,22 +602,25 @@ void LevenbergMarquardt::accept(double rho, double costNew) {
         return;
     }
     factorise();
-    m_w.D = m_w.D.cwiseMax(m_w.columnNorms2);
-    m_lambda *= std::max(1.0 / 3.0, 1.0 - std::pow(2.0 * rho - 1.0, 3));
-    m_nu = 2.0;
-    if (reduction <= m_options.functionTolerance * m_cost)
+    updateScaling(false);
+    if (m_cost == 0)
         stop(Termination::FunctionTolerance);
     else if (gradientSmall())
         stop(Termination::GradientTolerance);
 }
 
-void LevenbergMarquardt::reject() {
-    m_lambda *= m_nu;
-    m_nu *= 2.0;
-    if (m_lambda > 1e30 || m_nu > 1e30)
+// lmder's tests: the user's tolerances first, then the limits of double precision.
+void LevenbergMarquardt::testConvergence(double actual, double predictedRel, double ratio) {
+    const double ftol = m_options.functionTolerance;
+    if (std::abs(actual) <= ftol && predictedRel <= ftol && 0.5 * ratio <= 1.0)
+        stop(Termination::FunctionTolerance);
+    else if (m_delta <= m_options.parameterTolerance * m_xnorm)
+        stop(Termination::ParameterTolerance);
+    else if (std::abs(actual) <= kEpsilon && predictedRel <= kEpsilon && 0.5 * ratio <= 1.0)
         stop(Termination::NoFurtherReduction, "no step lowers the cost any more");
+    else if (m_delta <= kEpsilon * m_xnorm || !(m_delta > 0))
+        stop(Termination::NoFurtherReduction, "the trust region has shrunk to rounding level");
 }
-
 // Gauss-Newton polish: near the minimum the cost cannot resolve steps finer than about sqrt(machine
 // epsilon), but the Gauss-Newton iteration converges on J^T r = 0 to working precision. Steps are
 // taken while they keep shrinking (a converging fixed-point iteration) and do not raise the cost by
@@ -525,6 +656,53 @@ void LevenbergMarquardt::polish() {
     }
 }
 
+// Gauss-Newton in double-double: the point is kept as xHigh + xLow, the residuals come from the
+// problem's extended evaluation, the step from J (double: the step only needs the digits of a
+// correction). The reported parameters are xHigh (the point rounded to double); the residuals and
+// the cost are those of the double-double point, the least-squares minimum the parameters round.
+void LevenbergMarquardt::polishExtended() {
+    if (!m_summary.converged() || m_options.refinementSteps <= 0)
+        return;
+    const auto n = static_cast<std::size_t>(m_n);
+    const auto m = static_cast<std::size_t>(m_m);
+    Vector low = Vector::Zero(m_n), highNew(m_n), lowNew(m_n), r(m_m), rNew(m_m);
+    ++m_summary.evaluations;
+    if (!m_problem.evaluateExtended({m_x.data(), n}, {low.data(), n}, {r.data(), m}))
+        return;
+    double cost = 0.5 * r.squaredNorm();
+    double previousStep = std::numeric_limits<double>::infinity();
+    const Eigen::ColPivHouseholderQR<Matrix> qr(m_w.J);
+    for (int k = 0; k < m_options.refinementSteps; ++k) {
+        const Vector step = qr.solve(-r);
+        const double stepNorm = step.norm();
+        if (!std::isfinite(stepNorm) || stepNorm >= previousStep)
+            break;
+        for (Eigen::Index j = 0; j < m_n; ++j) {
+            DoubleDouble s = dd_detail::twoSum(m_x[j], step[j]);
+            s.lo += low[j];
+            s = dd_detail::quickTwoSum(s.hi, s.lo);
+            highNew[j] = s.hi;
+            lowNew[j] = s.lo;
+        }
+        ++m_summary.evaluations;
+        if (!m_problem.evaluateExtended({highNew.data(), n}, {lowNew.data(), n}, {rNew.data(), m}))
+            break;
+        const double costNew = 0.5 * rNew.squaredNorm();
+        if (!(costNew <= cost * (1.0 + 1e-9)))
+            break;
+        previousStep = stepNorm;
+        m_x.swap(highNew);
+        low.swap(lowNew);
+        r.swap(rNew);
+        cost = costNew;
+    }
+    // The Jacobian at the rounded point, the extended residuals and cost.
+    if (m_eval.residualsAndJacobian(m_x, m_w.rNew, m_w.JNew))
+        m_w.J.swap(m_w.JNew);
+    m_w.r = r;
+    m_cost = cost;
+}
+
 void LevenbergMarquardt::finish() {
     m_summary.finalCost = m_cost;
     m_result.parameters.assign(m_x.data(), m_x.data() + m_n);
@@ -546,18 +724,22 @@ SolverResult solveLeastSquares(const LeastSquaresProblem& problem, std::span<con
     return result;
 }
 
-void solveLeastSquares(const LeastSquaresProblem& problem, std::span<const double> start,
-                       const SolverOptions& options, SolverResult& result,
-                       SolverWorkspace& workspace) {
+namespace {
+
+// One run of the loop from `start`, with MINPACK's column scaling or the identity; true when the
+// run stalled (see `stalled`).
+bool runOnce(const LeastSquaresProblem& problem, std::span<const double> start,
+             const SolverOptions& options, bool identityScaling, SolverResult& result,
+             SolverWorkspace& workspace) {
     result.summary = SolverSummary{};
     result.residuals.clear();
     result.jacobian.clear();
     result.unscaledCovariance.clear();
     result.covarianceAvailable = false;
     result.parameters.assign(start.begin(), start.end());
-    LevenbergMarquardt solver(problem, options, workspace.buffers(), result);
+    LevenbergMarquardt solver(problem, options, identityScaling, workspace.buffers(), result);
     if (!solver.start(start))
-        return;
+        return false;
     while (!solver.done() && result.summary.iterations < options.maxIterations) {
         double predicted = 0;
         if (!solver.step(predicted))
@@ -565,7 +747,39 @@ void solveLeastSquares(const LeastSquaresProblem& problem, std::span<const doubl
         solver.acceptOrReject(predicted);
     }
     solver.polish();
+    solver.polishExtended();
     solver.finish();
+    // Stalled: not converged, or stopped where J is rank deficient or a column of J has all but
+    // vanished (a flat direction: typically a parameter running off to where the model no longer
+    // depends on it, as BoxBOD from NIST's first start, where b2 grows and the model is the
+    // constant b1; the column scaling then keeps shrinking the steps along that column).
+    return !result.summary.converged() || !result.covarianceAvailable || solver.columnCollapsed();
+}
+
+}  // namespace
+
+void solveLeastSquares(const LeastSquaresProblem& problem, std::span<const double> start,
+                       const SolverOptions& options, SolverResult& result,
+                       SolverWorkspace& workspace) {
+    const bool stalled = runOnce(problem, start, options, false, result, workspace);
+    if (!options.identityScalingFallback || !stalled)
+        return;
+    // The fallback: the same loop with identity scaling (D = 1) from the same start; the run with
+    // the lower cost is kept, the iterations and evaluations of both are counted.
+    SolverResult second;
+    runOnce(problem, start, options, true, second, workspace);
+    const int iterations = result.summary.iterations + second.summary.iterations;
+    const int evaluations = result.summary.evaluations + second.summary.evaluations;
+    const bool better = second.summary.termination != Termination::InvalidStart &&
+                        (second.summary.finalCost < result.summary.finalCost ||
+                         (second.summary.converged() && !result.summary.converged() &&
+                          second.summary.finalCost <= result.summary.finalCost));
+    if (better) {
+        second.summary.message += " (after a stalled scaled run: identity scaling)";
+        result = std::move(second);
+    }
+    result.summary.iterations = iterations;
+    result.summary.evaluations = evaluations;
 }
 
 }  // namespace siftwave::fit

@@ -92,7 +92,9 @@ std::vector<FitTableRow> fitTable(const fit::FitResult& f) {
     estimateRow(rows, "Fraction observed", d.fractionObserved, 3);
     rows.push_back({"Start date", dateOr(f, d.startDay.value), dateInterval(f, d.startDay)});
     rows.push_back({"End date", dateOr(f, d.endDay.value), dateInterval(f, d.endDay)});
-    estimateRow(rows, "Doubling time (days)", d.doublingTimeDays, 1);
+    estimateRow(rows, "Doubling time on the observed rise (days)", d.observedDoublingTimeDays, 1);
+    estimateRow(rows, "Model's instantaneous doubling time at the start (days)",
+                d.doublingTimeDays, 1);
     rows.push_back({"R squared", fixed(f.goodness.r2, 4), ""});
     rows.push_back({"AICc", fixed(f.goodness.aicc, 1), ""});
     rows.push_back({"Solver", f.summary.brief(), ""});

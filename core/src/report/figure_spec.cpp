@@ -32,6 +32,8 @@ std::string defaultSubtitle(const FigureSpec& spec) {
 // What the caption says about the bands (figure_renderer draws the confidence band shaded
 // and the range of daily counts as dotted lines).
 std::string bandsDescription(const FittedCurveSpec& curve) {
+    if (!curve.notDrawn.empty())
+        return curve.notDrawn;
     std::string text = curve.bandNote.empty()
                            ? std::string(
                                  "shaded: pointwise 95% confidence band of the curve "

@@ -164,6 +164,19 @@ FittedCurveSpec fittedCurveOf(const fit::FitResult& result, const TimeAxis& axis
     curve.mid.assign(axis.periods(), kNaN);
     curve.low.assign(axis.periods(), kNaN);
     curve.high.assign(axis.periods(), kNaN);
+    curve.windowFirst = result.windowFirst();
+    curve.windowLast = result.windowLast();
+    if (result.status != fit::FitStatus::Ok) {
+        // A failed fit draws nothing: its numbers must not look like a wave on paper.
+        curve.notDrawn =
+            std::string("no curve drawn: the fit is ") + fit::fitStatusName(result.status);
+        for (std::size_t i = 0; i < result.statusReasons.size(); ++i)
+            curve.notDrawn += (i == 0 ? " (" : "; ") + result.statusReasons[i];
+        if (!result.statusReasons.empty())
+            curve.notDrawn += ")";
+        curve.peakValue = kNaN;
+        return curve;
+    }
     const int offset = axis.periodOnGrid(result.seriesFirstDay);  // in periods
     // Calendar index of series period `first + i`, or -1 off the calendar.
     auto dayOf = [&](int seriesDay) {
@@ -202,8 +215,6 @@ FittedCurveSpec fittedCurveOf(const fit::FitResult& result, const TimeAxis& axis
                 curve.countHigh[day] = counts.high[i];
             }
     }
-    curve.windowFirst = result.windowFirst();
-    curve.windowLast = result.windowLast();
     curve.peakDate = result.dateOf(result.derived.peakDay.value);
     curve.peakValue = result.derived.peakIncidence.value;
     return curve;

@@ -32,6 +32,12 @@ struct RegionFit {
     std::vector<ModelComparisonRow> comparison;  // with ModelChoice::LowestAicc
 };
 
+/// A region's status (fit.h, FitStatus): its fit's; no_wave when the fit failed with not_found (no
+/// wave detected, or none in the window); not_converged for any other failure.
+FitStatus regionStatus(const RegionFit& r);
+/// Why the status is not ok: the fit's status reasons, or the failure's message.
+std::vector<std::string> regionStatusReasons(const RegionFit& r);
+
 std::vector<RegionFit> fitRegions(std::span<const RegionSeries> regions,
                                   const BatchOptions& options);
 

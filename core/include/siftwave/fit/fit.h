@@ -163,14 +163,26 @@ struct NamedEstimate {
 };
 
 struct DerivedQuantities {
-    Estimate peakDay;             // days from the window's first day
-    Estimate peakIncidence;       // cases per period at the peak (FitResult::incidenceUnit())
-    Estimate waveSize;            // K, cases
-    Estimate fractionObserved;    // C(end of the last day with data) / K
-    Estimate startDay;            // F = startQuantile
-    Estimate endDay;              // F = endQuantile
-    Estimate fastestGrowthDay;    // argmax f'
-    Estimate doublingTimeDays;    // ln 2 / growth rate at the start day
+    Estimate peakDay;           // days from the window's first day
+    Estimate peakIncidence;     // cases per period at the peak (FitResult::incidenceUnit())
+    Estimate waveSize;          // K, cases
+    Estimate fractionObserved;  // C(end of the last day with data) / K
+    Estimate startDay;          // F = startQuantile
+    Estimate endDay;            // F = endQuantile
+    Estimate fastestGrowthDay;  // argmax f'
+    // The model's instantaneous doubling time: ln 2 / (d log f / dt) at the start day (F =
+    // startQuantile). A property of the fitted curve's shape, not the growth the counts showed.
+    Estimate doublingTimeDays;
+    // The doubling time to brief (issue 15): ln 2 / r of a log-linear Poisson regression
+    // (quasi-Poisson when the counts are overdispersed) of the counts over the observed rise,
+    // from the start day to the peak (or the last day with data before it), by the growth-rate
+    // code of the transmission capability (transmission::growthRates over that one window), with
+    // its 95% interval (upper +infinity when r's interval holds 0). NaN when the rise is too
+    // short or holds too few cases (observedDoublingNote says why).
+    Estimate observedDoublingTimeDays;
+    int observedRiseFirst = 0;  // period indices into the series (inclusive)
+    int observedRiseLast = -1;
+    std::string observedDoublingNote;
     Estimate peakInfectiousLoad;  // max over days d of sum_{k<W} K f(d - k)
     std::optional<Estimate> peakInfectiousLoadPer100k;
     std::optional<Estimate> log10InfectiousShare;  // log10(load / population)
@@ -199,8 +211,25 @@ struct FitSummary {
     std::string brief() const;
 };
 
+/// Whether a fit can be briefed (issue 15). ok: converged and plausible. not_converged: the
+/// solver stopped before convergence. implausible: converged, but the numbers cannot describe
+/// the wave (FitResult::statusReasons says which check failed: the peak outside the window while
+/// less than half the wave is observed; a size over 20 x the window's counts; a 95% interval of
+/// the size or the peak incidence wider than the estimate itself, or none at all; a parameter at a
+/// bound of its model's domain). no_wave: there was no wave to fit (the fitted curve stays above
+/// half its top across the whole window, as on noise or a plateau; or a region's fit failed with
+/// not_found).
+enum class FitStatus { Ok, NotConverged, Implausible, NoWave };
+
+/// "ok", "not_converged", "implausible", "no_wave" (stable names for JSON and CSV).
+const char* fitStatusName(FitStatus status);
+/// What to try for a status other than ok, to follow "try ": another window, model or method.
+const char* fitStatusAdvice(FitStatus status);
+
 struct FitResult {
-    ModelKind model = ModelKind::Gumbel;  // with ModelChoice::Given
+    FitStatus status = FitStatus::Ok;
+    std::vector<std::string> statusReasons;  // empty when ok
+    ModelKind model = ModelKind::Gumbel;     // with ModelChoice::Given
     ModelChoice modelChoice = ModelChoice::Given;
     FitMethod method = FitMethod::LeastSquares;
     Date seriesFirstDay;

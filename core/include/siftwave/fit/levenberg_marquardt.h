@@ -1,17 +1,22 @@
 #pragma once
 // Levenberg-Marquardt for nonlinear least squares: minimise 1/2 sum_i r_i(x)^2.
 //
-// Each iteration solves the damped normal equations
-//     (J^T J + lambda D) h = -J^T r,   D = diag of the largest column norms^2 of J seen so far,
-// as the linear least-squares problem [J; sqrt(lambda D)] h = [-r; 0] by Householder QR
-// (never forming J^T J, so ill-conditioned problems keep their digits). A step is taken when
-// the gain ratio rho = (actual reduction) / (reduction predicted by the linear model) is
-// positive; lambda then shrinks by max(1/3, 1 - (2 rho - 1)^3), else it grows by nu = 2, 4, 8...
-// Sources: D. W. Marquardt (1963), "An algorithm for least-squares estimation of nonlinear
-// parameters", SIAM J. Appl. Math. 11(2), 431-441; J. J. More (1978), "The Levenberg-Marquardt
-// algorithm: implementation and theory", Lecture Notes in Mathematics 630, 105-116 (scaling D);
-// K. Madsen, H. B. Nielsen & O. Tingleff (2004), "Methods for Non-Linear Least Squares
-// Problems", 2nd ed., DTU, section 3.2 (the damping update).
+// Trust-region step control as in MINPACK's lmder (J. J. More (1978), "The Levenberg-Marquardt
+// algorithm: implementation and theory", Lecture Notes in Mathematics 630, 105-116): each step h
+// minimises |r + J h| within the scaled region |D h| <= Delta, D = diag of the largest column
+// norms of J seen so far. h solves [J; sqrt(lambda) D] h = [-r; 0] by Householder QR of J once per
+// Jacobian and of the small system [R; sqrt(lambda) D] per trial (never forming J^T J unless
+// LinearSolver::NormalEquations asks for it), and lambda comes from More's safeguarded Newton
+// iteration so that |D h| is within 10% of Delta (lambda = 0, Gauss-Newton, when that step fits).
+// The ratio of the actual to the predicted reduction then moves x (ratio >= 1e-4) and Delta
+// (halved or more below 1/4, doubled above 3/4). When a scaled run stalls (no convergence, or
+// a stop where J is rank deficient) it is repeated with identity scaling and the lower cost kept.
+// After convergence, optional undamped Gauss-Newton steps polish the last digits. Problems that
+// can evaluate their residuals to about twice double precision (evaluateExtended) get the polish
+// and the final residuals, cost and covariance in that precision (a Lanczos-type fit whose
+// residuals are at the rounding level of the data).
+// Also: D. W. Marquardt (1963), "An algorithm for least-squares estimation of nonlinear
+// parameters", SIAM J. Appl. Math. 11(2), 431-441.
 //
 // At the solution, the unscaled covariance (J^T J)^-1 is returned; multiplied by
 // s^2 = 2 cost / (m - n) it is the usual asymptotic covariance of the estimates. It comes from a
@@ -43,6 +48,18 @@ public:
                           std::span<double> jacobian) const = 0;
     /// False: the solver differentiates numerically (central differences).
     virtual bool hasJacobian() const { return true; }
+    /// Optional, for data whose residuals sit at their own rounding level: fills r at the
+    /// double-double point x = xHigh + xLow with the residuals computed to about twice double
+    /// precision (double_double.h) and rounded to double. The polish then moves the point in that
+    /// precision and the final residuals and cost come from here. False: not provided (the
+    /// default) or outside the domain.
+    virtual bool evaluateExtended(std::span<const double> xHigh, std::span<const double> xLow,
+                                  std::span<double> r) const {
+        (void)xHigh;
+        (void)xLow;
+        (void)r;
+        return false;
+    }
 };
 
 enum class LinearSolver {
@@ -53,13 +70,14 @@ enum class LinearSolver {
 };
 
 struct SolverOptions {
-    int maxIterations = 200;            // linear solves (accepted or not)
-    double functionTolerance = 1e-10;   // stop when a step lowers the cost by <= this * cost
-    double parameterTolerance = 1e-10;  // stop when |h| <= this * (|x| + this)
-    double gradientTolerance = 0;       // > 0: stop when max_j |J_j . r| / (|J_j| |r|) <= this
-                                        // (MINPACK gtol); 0: not checked
-    double initialDamping = 1e-3;       // lambda_0 (dimensionless: the damping is lambda D)
-    int refinementSteps = 0;            // undamped Gauss-Newton steps after convergence (0: none)
+    int maxIterations = 200;              // linear solves (accepted or not)
+    double functionTolerance = 1e-10;     // stop when a step lowers the cost by <= this * cost
+    double parameterTolerance = 1e-10;    // stop when |h| <= this * (|x| + this)
+    double gradientTolerance = 0;         // > 0: stop when max_j |J_j . r| / (|J_j| |r|) <= this
+                                          // (MINPACK gtol); 0: not checked
+    double initialStepBound = 100;        // Delta_0 = this * |D x0| (MINPACK's factor)
+    bool identityScalingFallback = true;  // a stalled scaled run is repeated with D = 1
+    int refinementSteps = 0;              // undamped Gauss-Newton steps after convergence (0: none)
     LinearSolver linearSolver = LinearSolver::QR;
 
     /// Usage error when a count or a tolerance is not positive.
@@ -70,7 +88,8 @@ enum class Termination {
     FunctionTolerance,   // converged: relative cost change below functionTolerance
     ParameterTolerance,  // converged: relative step below parameterTolerance
     GradientTolerance,   // converged: gradient (scaled) below gradientTolerance
-    NoFurtherReduction,  // converged as far as double precision allows (damping saturated)
+    NoFurtherReduction,  // converged as far as double precision allows (trust region at rounding
+                         // level)
     MaxIterations,       // not converged: iteration limit reached
     InvalidStart,        // not run: the starting point is outside the domain or gives NaN
     NumericalFailure,    // not converged: NaN/Inf in the Jacobian or a singular system

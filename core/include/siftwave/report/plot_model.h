@@ -86,6 +86,9 @@ struct FittedCurveSpec {
     std::vector<double> high;
     std::string bandLabel;  // legend text of that band
     std::string bandNote;   // why there is no band; "" when there is one
+    // Why no curve is drawn: a fit whose status is not ok (fit::FitStatus, issue 15) gives no
+    // curve, band, count range or peak mark, and the caption says why. "" when drawn.
+    std::string notDrawn;
     // Only when PlotRequest::countRange: where 95% of the counts per period would fall if the
     // fitted incidence (weekday factors included) were their mean (count_band.h); same length,
     // NaN outside the window. Empty otherwise.
