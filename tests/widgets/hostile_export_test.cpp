@@ -133,6 +133,22 @@ private:
     Drop m_drop;
     RegionRegister m_register;
 
+    /// The briefing of every hostile region, titled `title`, written to `path` (HTML or PDF).
+    Status writeHostileBriefing(const QString& path, const std::string& title) const {
+        const ledger::Cleaned cleaned(m_drop);
+        const ledger::Ledger ledger;
+        report::BriefingRequest request;
+        request.regionRegister = &m_register;
+        request.exportDate = "2026-12-04";
+        request.regions = kHostileCodes;
+        request.title = title;
+        Result<report::BriefingReport> briefing =
+            report::buildBriefing(m_drop, ledger, cleaned, request);
+        if (!briefing)
+            return briefing.error();
+        return widgets::writeBriefingReport(path, *briefing);
+    }
+
 private Q_SLOTS:
     void initTestCase() {
         QVERIFY(m_dir.isValid());
@@ -178,18 +194,8 @@ private Q_SLOTS:
     }
 
     void theHtmlBriefingHoldsNoLiveMarkupFromNames() {
-        const ledger::Cleaned cleaned(m_drop);
-        const ledger::Ledger ledger;
-        report::BriefingRequest request;
-        request.regionRegister = &m_register;
-        request.exportDate = "2026-12-04";
-        request.regions = kHostileCodes;
-        request.title = "<script>alert('title')</script>";
-        Result<report::BriefingReport> briefing =
-            report::buildBriefing(m_drop, ledger, cleaned, request);
-        QVERIFY2(briefing.ok(), briefing.ok() ? "" : briefing.error().describe().c_str());
         const QString path = m_dir.filePath(QStringLiteral("brief.html"));
-        const Status s = widgets::writeBriefingReport(path, *briefing);
+        const Status s = writeHostileBriefing(path, "<script>alert('title')</script>");
         QVERIFY2(s.ok(), s.ok() ? "" : s.error().describe().c_str());
         const QString page = QString::fromUtf8(readAll(path));
 
@@ -236,18 +242,9 @@ private Q_SLOTS:
     // Debian's poppler-utils), the names come back as text, and the file holds no action a viewer
     // could run: no JavaScript, launch, open or URI action (ISO 32000-1:2008, section 12.6.4).
     void thePdfBriefingParsesAndCarriesNoActions() {
-        const ledger::Cleaned cleaned(m_drop);
-        const ledger::Ledger ledger;
-        report::BriefingRequest request;
-        request.regionRegister = &m_register;
-        request.exportDate = "2026-12-04";
-        request.regions = kHostileCodes;
-        request.title = "<script>alert('title')</script> /JavaScript (x) \\";
-        Result<report::BriefingReport> briefing =
-            report::buildBriefing(m_drop, ledger, cleaned, request);
-        QVERIFY2(briefing.ok(), briefing.ok() ? "" : briefing.error().describe().c_str());
         const QString path = m_dir.filePath(QStringLiteral("brief.pdf"));
-        const Status s = widgets::writeBriefingReport(path, *briefing);
+        const Status s =
+            writeHostileBriefing(path, "<script>alert('title')</script> /JavaScript (x) \\");
         QVERIFY2(s.ok(), s.ok() ? "" : s.error().describe().c_str());
         const QByteArray bytes = readAll(path);
         for (const char* action : {"/JavaScript", "/JS ", "/JS(", "/Launch", "/OpenAction", "/URI",
