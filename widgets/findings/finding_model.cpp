@@ -9,7 +9,7 @@ namespace siftwave::widgets {
 
 FindingModel::FindingModel(Workbench* workbench, QObject* parent)
     : TitledTableModel({tr("#"), tr("Severity"), tr("Kind"), tr("Region"), tr("Measure"),
-                        tr("Days"), tr("State")},
+                        tr("Dates"), tr("State")},
                        parent),
       m_workbench(workbench) {
     connect(m_workbench, &Workbench::dropChanged, this, &FindingModel::resetRows);
