@@ -216,5 +216,20 @@ TEST_F(LedgerFile, AProjectFileThatIsNotOneIsRefusedWithoutTouchingIt) {
     EXPECT_EQ(slurp(projectPath), "{\"format\": \"something-else\"}");
 }
 
+// Found by fuzz_project (tests/fuzz/corpus/project/duplicate_format_key.siftwave): a repeated
+// key leaves "format" an object, and reading it as text threw out of the reader. Fields of the
+// wrong type are refused with a message, never an exception.
+TEST(ProjectFileBytes, FieldsOfTheWrongTypeAreRefusedNotThrown) {
+    for (const char* text :
+         {R"({"format":{"entries":2}})", R"({"format":"siftwave-project","version":"1"})",
+          R"({"format":"siftwave-project","format":{"path":"x"},"version":1})",
+          R"({"format":"siftwave-project","version":1,"drop":[],"ledger":{"path":"l"}})",
+          R"({"format":"siftwave-project","version":1,"drop":{"path":"d","sha256":7}})"}) {
+        Result<ProjectFile> r = parseProjectFile(text, "fuzzed.siftwave");
+        ASSERT_FALSE(r.ok()) << text;
+        EXPECT_EQ(r.error().file, "fuzzed.siftwave") << text;
+    }
+}
+
 }  // namespace
 }  // namespace siftwave::ledger

@@ -94,11 +94,15 @@ Result<ProjectFile> parseProjectFile(std::string_view bytes, const std::string& 
     json j = json::parse(bytes.begin(), bytes.end(), nullptr, false);
     if (j.is_discarded() || !j.is_object())
         return projectError(path, "the project file is not a JSON object");
-    if (j.value("format", std::string()) != "siftwave-project") {
+    // Checked by type first: json::value() throws when a field has another type (a fuzzed
+    // file with "format": {...} ended the program).
+    const auto format = j.find("format");
+    if (format == j.end() || !format->is_string() || *format != "siftwave-project") {
         return projectError(path,
                             "not a Siftwave project file (no \"format\": \"siftwave-project\")");
     }
-    if (j.value("version", 0) != 1)
+    const auto version = j.find("version");
+    if (version == j.end() || !version->is_number_integer() || *version != 1)
         return projectError(path, "unsupported project file version");
     ProjectFile p;
     try {
