@@ -229,6 +229,22 @@ TEST(ProjectFileBytes, FieldsOfTheWrongTypeAreRefusedNotThrown) {
         ASSERT_FALSE(r.ok()) << text;
         EXPECT_EQ(r.error().file, "fuzzed.siftwave") << text;
     }
+    // A float far beyond any count where a whole number belongs (converting it is undefined
+    // behaviour; fuzz_project, tests/fuzz/corpus/project/huge_entry_count.siftwave), a negative
+    // count, a float where a day count belongs: refused by name, in an otherwise valid file.
+    const std::string head = R"({"format":"siftwave-project","version":1,"drop":{"path":"d",)"
+                             R"("sha256":")" +
+                             std::string(64, 'a') + R"("},)";
+    for (const std::string& rest :
+         {std::string(R"("ledger":{"path":"l","entries":777777777777777777777777777777777772}})"),
+          std::string(R"("ledger":{"path":"l","entries":-3}})"),
+          std::string(R"("ledger":{"path":"l"},"fit":{"smoothing_days":1e300}})")}) {
+        Result<ProjectFile> r = parseProjectFile(head + rest, "fuzzed.siftwave");
+        ASSERT_FALSE(r.ok()) << rest;
+        EXPECT_NE(r.error().message.find("must be a whole number in range"), std::string::npos)
+            << r.error().message;
+    }
+    EXPECT_TRUE(parseProjectFile(head + R"("ledger":{"path":"l","entries":3}})", "ok").ok());
 }
 
 }  // namespace

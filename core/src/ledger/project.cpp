@@ -6,12 +6,42 @@
 #include <nlohmann/json.hpp>
 
 #include <filesystem>
+#include <limits>
+#include <stdexcept>
 
 namespace siftwave::ledger {
 
 using nlohmann::json;
 
 namespace {
+
+/// A whole-number field in T's range, or `fallback` when absent. Anything else throws
+/// std::invalid_argument (parseProjectFile turns it into a message): json's own conversion of a
+/// float such as 7.8e35 to an integer is undefined behaviour (found by fuzz_project).
+template <typename T>
+T wholeNumber(const json& obj, const char* key, T fallback) {
+    const auto it = obj.find(key);
+    if (it == obj.end())
+        return fallback;
+    const auto bad = [&] {
+        return std::invalid_argument(std::string("\"") + key +
+                                     "\" must be a whole number in range");
+    };
+    if (!it->is_number_integer())
+        throw bad();
+    if (it->is_number_unsigned()) {
+        const std::uint64_t v = it->get<std::uint64_t>();
+        if (v > static_cast<std::uint64_t>(std::numeric_limits<T>::max()))
+            throw bad();
+        return static_cast<T>(v);
+    }
+    const std::int64_t v = it->get<std::int64_t>();
+    if (v < static_cast<std::int64_t>(std::numeric_limits<T>::min()) ||
+        (v > 0 &&
+         static_cast<std::uint64_t>(v) > static_cast<std::uint64_t>(std::numeric_limits<T>::max())))
+        throw bad();
+    return static_cast<T>(v);
+}
 
 json optionalDate(const std::optional<Date>& d) {
     return d ? json(d->iso()) : json(nullptr);
@@ -126,7 +156,7 @@ Result<ProjectFile> parseProjectFile(std::string_view bytes, const std::string& 
         }
         const json& ledger = j.at("ledger");
         p.ledgerPath = ledger.at("path").get<std::string>();
-        p.ledgerEntries = ledger.value("entries", std::uint64_t{0});
+        p.ledgerEntries = wholeNumber(ledger, "entries", std::uint64_t{0});
         p.ledgerHeadHash = ledger.value("head_hash", genesisHash());
         if (j.contains("view")) {
             const json& v = j.at("view");
@@ -146,7 +176,7 @@ Result<ProjectFile> parseProjectFile(std::string_view bytes, const std::string& 
             const json& f = j.at("fit");
             p.fit.model = f.value("model", p.fit.model);
             p.fit.method = f.value("method", p.fit.method);
-            p.fit.smoothingDays = f.value("smoothing_days", p.fit.smoothingDays);
+            p.fit.smoothingDays = wholeNumber(f, "smoothing_days", p.fit.smoothingDays);
             auto a = date(f, "window_first");
             if (!a)
                 return a.error();
