@@ -113,6 +113,10 @@ void DecisionController::preview() {
     const ledger::Decision decision = m_pane->decision();
     const Result<ledger::Effect> effect = m_workbench->preview(decision);
     m_pane->showPreview(effect);
+    if (effect)
+        m_pane->showCheck(m_workbench->checkDecision(decision));
+    else
+        m_pane->showCheck(std::nullopt);
     // Draw the cells of the shown region and measure as they would be after.
     std::vector<double> values;
     if (effect) {

@@ -1,5 +1,7 @@
 // End-to-end: siftwave-cli scan on the sample and on bad input.
 
+#include "siftwave/scan/scan.h"
+#include "siftwave/ingest/ingest.h"
 #include "support/synthetic_drop.h"
 
 #include <gtest/gtest.h>
@@ -143,6 +145,39 @@ TEST(ScanCommand, ExitsZeroOnACleanDropOneOnUnreadableInputTwoOnWrongUsage) {
     EXPECT_EQ(run("scan").exitCode, 2);
     EXPECT_EQ(run("scan a.csv b.csv").exitCode, 2);
     EXPECT_EQ(run("scan --bogus x.csv").exitCode, 2);
+}
+
+TEST(ScanCommand, StreamsTheSameJsonTheReportWouldDumpWhole) {
+    // scan --json writes one finding at a time (issue 14, step 5); the text must be exactly
+    // the document nlohmann::json would print whole, with and without findings.
+    // The sample (the CLI also reads the register beside it): the streamed text is the one
+    // nlohmann::json prints for the same document.
+    const CliRun r = run("scan " + sample("quenmara_current.csv") + " --json");
+    ASSERT_EQ(r.exitCode, 0);
+    const auto whole = nlohmann::json::parse(r.out);
+    ASSERT_GT(whole["findings"].size(), 10u);
+    EXPECT_EQ(r.out, whole.dump(2) + "\n");
+
+    // No findings: an empty list, written as nlohmann::json writes one.
+    const std::filesystem::path quiet =
+        std::filesystem::temp_directory_path() /
+        ("siftwave_scan_quiet_" + std::to_string(getpid()) + ".csv");
+    {
+        std::ofstream out(quiet);
+        out << "date,region,cases\n";
+        const int values[] = {3, 1, 4, 1, 5, 2, 6, 2, 5, 3, 5, 0, 2, 4};
+        for (int d = 0; d < 14; ++d)
+            out << "2026-03-" << (d + 2 < 10 ? "0" : "") << d + 2 << ",Q1," << values[d] << "\n";
+    }
+    auto quietDrop = siftwave::ingest::readDrop(quiet.string());
+    ASSERT_TRUE(quietDrop.ok());
+    auto quietReport = siftwave::scan::scanDrop(*quietDrop);
+    ASSERT_TRUE(quietReport.ok());
+    ASSERT_TRUE(quietReport->findings.empty()) << quietReport->findings.front().id;
+    const CliRun q = run("scan " + quiet.string() + " --json");
+    std::filesystem::remove(quiet);
+    ASSERT_EQ(q.exitCode, 0);
+    EXPECT_EQ(q.out, siftwave::scan::scanReportToJson(*quietReport).dump(2) + "\n");
 }
 
 }  // namespace

@@ -103,8 +103,10 @@ Result<ScanReport> scanDrop(const Drop& drop, const ScanOptions& options,
         f.rank = static_cast<int>(i) + 1;
         std::string id = findingId(f);
         const int n = ++seen[id];
-        if (n > 1)
-            id += "-" + std::to_string(n);
+        if (n > 1) {
+            id += '-';  // (two appends: GCC 12 warns falsely of -Wrestrict on "-" + string)
+            id += std::to_string(n);
+        }
         f.id = std::move(id);
         if (f.suggestion)
             f.suggestion->finding = f.id;
@@ -126,6 +128,10 @@ nlohmann::json scanReportToJson(const ScanReport& report) {
     nlohmann::json findings = nlohmann::json::array();
     for (const Finding& f : report.findings)
         findings.push_back(findingToJson(f));
+    return {{"findings", std::move(findings)}, {"summary", scanSummaryToJson(report)}};
+}
+
+nlohmann::json scanSummaryToJson(const ScanReport& report) {
     nlohmann::json summary = nlohmann::json::object();
     summary["cadence"] = cadenceName(report.cadence);
     summary["by_kind"] = report.byKind;
@@ -144,7 +150,7 @@ nlohmann::json scanReportToJson(const ScanReport& report) {
             {"share_changed", r.previousTotal > 0 ? r.absoluteChange / r.previousTotal : 0.0},
         };
     }
-    return {{"findings", std::move(findings)}, {"summary", std::move(summary)}};
+    return summary;
 }
 
 }  // namespace siftwave::scan
