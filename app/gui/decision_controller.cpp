@@ -64,8 +64,8 @@ void DecisionController::begin(const ledger::Decision& decision, const QString& 
     m_pane->setCalendar(m_workbench->drop().axis);
     m_pane->begin(decision, title, reason);
     m_plot->setDayPickingEnabled(false);
-    Q_EMIT decisionStarted();
     preview();
+    Q_EMIT decisionStarted();  // after the preview: the window sizes the pane to its texts
 }
 
 bool DecisionController::decideDay(int day) {

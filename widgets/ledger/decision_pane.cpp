@@ -8,6 +8,7 @@
 #include <QLineEdit>
 #include <QLocale>
 #include <QPushButton>
+#include <QScrollArea>
 #include <QSignalBlocker>
 #include <QSpinBox>
 #include <QVBoxLayout>
@@ -68,8 +69,22 @@ DecisionPane::DecisionPane(QWidget* parent)
     layout->setContentsMargins(4, 4, 4, 4);
     layout->addWidget(m_title);
     layout->addLayout(form);
-    layout->addWidget(m_preview);
-    layout->addWidget(m_check, 1);
+    // The preview and the check can run long (one line per new anomaly): they scroll, so the
+    // method, the reason and the buttons stay in view however short the pane is.
+    auto* texts = new QWidget;
+    auto* textLayout = new QVBoxLayout(texts);
+    textLayout->setContentsMargins(0, 0, 0, 0);
+    textLayout->addWidget(m_preview);
+    textLayout->addWidget(m_check);
+    textLayout->addStretch(1);
+    auto* scroll = new QScrollArea(this);
+    scroll->setObjectName(QStringLiteral("decisionTexts"));
+    scroll->setWidget(texts);
+    scroll->setWidgetResizable(true);
+    scroll->setFrameShape(QFrame::NoFrame);
+    scroll->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
+    scroll->setMinimumHeight(3 * fontMetrics().lineSpacing());
+    layout->addWidget(scroll, 1);
     layout->addLayout(buttons);
 
     connect(m_method, &QComboBox::currentIndexChanged, this, [this] {
