@@ -65,8 +65,13 @@ Result<ScanReport> scanDrop(const Drop& drop, const ScanOptions& options,
     for (const detail::FindingKindDescriptor& kind : detail::findingKindTable()) {
         const bool inputs = (!(kind.needs & detail::kNeedsPrevious) || context.previous) &&
                             (!(kind.needs & detail::kNeedsRegister) || context.regions);
-        if (inputs && kind.enabled(options))
-            kind.detect(in, report);
+        if (!inputs || !kind.enabled(options))
+            continue;
+        const std::size_t before = report.findings.size();
+        kind.detect(in, report);
+        // Evidence as CBOR bytes from here on (finding.h): the ranking below reads none of it.
+        for (std::size_t i = before; i < report.findings.size(); ++i)
+            report.findings[i].evidence.compact();
     }
 
     std::vector<Finding>& all = report.findings;
