@@ -10,6 +10,7 @@
 #include "siftwave/ledger/record.h"
 #include "siftwave/ledger/replay.h"
 #include "siftwave/ledger/signing.h"
+#include "siftwave/scan/decision_check.h"
 #include "siftwave/scan/propose.h"
 
 #include <algorithm>
@@ -403,6 +404,19 @@ std::optional<ledger::Decision> checkedDecision(const DecideRequest& request, co
     return std::move(*decision);
 }
 
+/// The check's lines under the effect: what a scan after the decision would newly find.
+void printCheckText(const scan::DecisionCheck& check, Cadence cadence) {
+    if (check.clean()) {
+        std::printf(
+            "check: a scan after this decision finds nothing new in the series it "
+            "changes\n");
+        return;
+    }
+    std::printf("check: this decision would create what a scan flags (look before deciding):\n");
+    for (const std::string& line : scan::describeDecisionCheck(check, cadence))
+        std::printf("  %s\n", terminalText(line).c_str());
+}
+
 /// --dry-run: prints what the decision would do to the cleaned data and writes nothing; returns
 /// the exit code.
 int printDryRun(const DecideRequest& request, const Drop& drop, const ReplayedLedger& replayed,
@@ -412,16 +426,25 @@ int printDryRun(const DecideRequest& request, const Drop& drop, const ReplayedLe
         printError(effect.error(), request.json);
         return kExitBadInput;
     }
+    // What the decision would newly make look wrong (scan/decision_check.h), with the scan's
+    // default thresholds, as the decision pane shows it.
+    Result<scan::DecisionCheck> check = scan::checkDecision(drop, replayed.cleaned, decision);
+    if (!check) {
+        printError(check.error(), request.json);
+        return kExitBadInput;
+    }
     if (request.json) {
         nlohmann::json out = effectSummaryJson(*effect);
         out["dry_run"] = true;
         out["kind"] = ledger::decisionKindName(request.kind);
+        out["check"] = scan::decisionCheckToJson(*check);
         printJson(out);
     } else {
         std::printf("%s (dry run, nothing written):\n", ledger::decisionKindName(request.kind));
         if (request.autoExcess)
             printAutoExcessNote(decision, request.windowGiven);
         printEffectText(drop, *effect);
+        printCheckText(*check, drop.axis.cadence());
     }
     return kExitOk;
 }

@@ -64,8 +64,8 @@ void DecisionController::begin(const ledger::Decision& decision, const QString& 
     m_pane->setCalendar(m_workbench->drop().axis);
     m_pane->begin(decision, title, reason);
     m_plot->setDayPickingEnabled(false);
-    Q_EMIT decisionStarted();
     preview();
+    Q_EMIT decisionStarted();  // after the preview: the window sizes the pane to its texts
 }
 
 bool DecisionController::decideDay(int day) {
@@ -113,6 +113,10 @@ void DecisionController::preview() {
     const ledger::Decision decision = m_pane->decision();
     const Result<ledger::Effect> effect = m_workbench->preview(decision);
     m_pane->showPreview(effect);
+    if (effect)
+        m_pane->showCheck(m_workbench->checkDecision(decision));
+    else
+        m_pane->showCheck(std::nullopt);
     // Draw the cells of the shown region and measure as they would be after.
     std::vector<double> values;
     if (effect) {

@@ -48,6 +48,7 @@
 #include <QMimeData>
 #include <QProgressBar>
 #include <QPushButton>
+#include <QScrollArea>
 #include <QSplitter>
 #include <QStandardPaths>
 #include <QStatusBar>
@@ -194,8 +195,10 @@ void MainWindow::buildControllers() {
     };
     connect(m_decisionControl, &DecisionController::errorOccurred, this, &MainWindow::showError);
     connect(m_decisionControl, &DecisionController::focusRequested, this, &MainWindow::focusPlotOn);
-    connect(m_decisionControl, &DecisionController::decisionStarted, this,
-            [raiseDock] { raiseDock("decisionDock"); });
+    connect(m_decisionControl, &DecisionController::decisionStarted, this, [this, raiseDock] {
+        raiseDock("decisionDock");
+        makeRoomForDecision();
+    });
     connect(m_decisionControl, &DecisionController::decisionEnded, this, &MainWindow::redrawSeries);
 
     connect(m_projectControl, &ProjectController::errorOccurred, this, &MainWindow::showError);
@@ -259,6 +262,24 @@ bool MainWindow::withdrawEntry(std::uint64_t sequence, QString reason) {
     return m_decisionControl->withdraw(sequence, std::move(reason));
 }
 
+namespace {
+
+/// A pane in a scroll area that follows the dock's width: when the docks of one column leave a
+/// pane less height than its rows need (a long decision check below the fit pane, a small
+/// screen), it scrolls instead of drawing its rows over each other, and its minimum height does
+/// not hold the whole window taller than the screen.
+QScrollArea* scrollable(QWidget* pane) {
+    auto* area = new QScrollArea;
+    area->setObjectName(pane->objectName() + QStringLiteral("Scroll"));
+    area->setWidget(pane);
+    area->setWidgetResizable(true);
+    area->setFrameShape(QFrame::NoFrame);
+    area->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
+    return area;
+}
+
+}  // namespace
+
 void MainWindow::buildDocks() {
     auto* regions = new QDockWidget(tr("Regions"), this);
     regions->setObjectName(QStringLiteral("regionsDock"));
@@ -275,7 +296,7 @@ void MainWindow::buildDocks() {
     m_fitPane->setObjectName(QStringLiteral("fitPane"));
     auto* fit = new QDockWidget(tr("Wave fit"), this);
     fit->setObjectName(QStringLiteral("fitDock"));
-    fit->setWidget(m_fitPane);
+    fit->setWidget(scrollable(m_fitPane));
     addDockWidget(Qt::RightDockWidgetArea, fit);
 
     auto* transmissionDock = new QDockWidget(tr("Transmission"), this);
@@ -293,7 +314,7 @@ void MainWindow::buildDocks() {
     m_decisionPane->setObjectName(QStringLiteral("decisionPane"));
     auto* decision = new QDockWidget(tr("Decision"), this);
     decision->setObjectName(QStringLiteral("decisionDock"));
-    decision->setWidget(m_decisionPane);
+    decision->setWidget(m_decisionPane);  // its preview and check scroll inside it
     addDockWidget(Qt::RightDockWidgetArea, decision);
 
     m_ledgerView->setObjectName(QStringLiteral("ledgerView"));
@@ -911,6 +932,26 @@ void MainWindow::showEvent(QShowEvent* event) {
     resizeDocks({findings, ledger}, {width() * 48 / 100, width() * 52 / 100}, Qt::Horizontal);
     resizeDocks({findings}, {height() * 26 / 100}, Qt::Vertical);
     resizeDocks({fit}, {height() * 56 / 100}, Qt::Vertical);  // the decision pane below it
+}
+
+void MainWindow::makeRoomForDecision() {
+    // The Decision pane shares the right column with the Wave fit: while a decision is prepared
+    // it gets the height its preview, check and buttons ask for, up to 60% of the column; the
+    // fit pane scrolls if it must (it sits in a scroll area, see buildDocks(); the decision's
+    // texts scroll inside its pane).
+    auto* fit = findChild<QDockWidget*>(QStringLiteral("fitDock"));
+    auto* decision = findChild<QDockWidget*>(QStringLiteral("decisionDock"));
+    if (!fit || !decision || decision->isFloating() || fit->isFloating() ||
+        dockWidgetArea(fit) != dockWidgetArea(decision))
+        return;
+    const int column = fit->height() + decision->height();
+    auto* texts = m_decisionPane->findChild<QScrollArea*>(QStringLiteral("decisionTexts"));
+    const int textsWanted = texts && texts->widget() ? texts->widget()->sizeHint().height() : 0;
+    const int wanted =
+        std::min(m_decisionPane->minimumSizeHint().height() + textsWanted + 24, column * 3 / 5);
+    if (decision->height() >= wanted)
+        return;
+    resizeDocks({fit, decision}, {column - wanted, wanted}, Qt::Vertical);
 }
 
 void MainWindow::closeEvent(QCloseEvent* event) {

@@ -148,6 +148,8 @@ private:
     void buildViewMenu();
     void buildHelpMenu();
     void buildDocks();
+    /// Gives the Decision pane the height it needs below the Wave fit (a decision began).
+    void makeRoomForDecision();
     void showOpenDialog();
     void showOpenPreviousDialog();
     void showOpenHistoryDialog();

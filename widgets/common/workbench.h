@@ -14,6 +14,7 @@
 #include "siftwave/nowcast/nowcast.h"
 #include "siftwave/region_register.h"
 #include "siftwave/result.h"
+#include "siftwave/scan/decision_check.h"
 #include "siftwave/scan/scan.h"
 #include "widgets/plot/series_view.h"
 
@@ -100,6 +101,10 @@ public:
     Result<std::uint64_t> apply(const ledger::Decision& decision, const QString& reason);
     /// Undoes an entry by appending a withdrawal (history is never rewritten).
     Result<std::uint64_t> withdraw(std::uint64_t sequence, const QString& reason);
+    /// What `decision` would newly make look wrong: a re-scan of the cleaned series it changes
+    /// as they would be after it (scan/decision_check.h, the scan's default thresholds, as the
+    /// findings use). Errors: those of preview().
+    Result<scan::DecisionCheck> checkDecision(const ledger::Decision& decision) const;
     /// Cleaned total of a region for one measure (the raw total before any decision).
     std::optional<std::int64_t> cleanedTotal(const QString& regionCode, int measure) const;
 
