@@ -426,6 +426,16 @@ void MainWindow::buildReviewMenu() {
     QAction* discard = review->addAction(tr("D&iscard the decision"), m_decisionControl,
                                          &DecisionController::discard);
     discard->setShortcut(QKeySequence(Qt::Key_Escape));
+    // Off until the analyst asks: the completed series is an estimate, recorded as a decision.
+    review->addSeparator();
+    QAction* complete =
+        review->addAction(tr("Use the &nowcast-completed counts…"), m_decisionControl,
+                          &DecisionController::decideNowcastCompletion);
+    complete->setObjectName(QStringLiteral("nowcastCompleteAction"));
+    complete->setToolTip(
+        tr("Prepare a ledger decision that adds the nowcast's reports still to "
+           "come to the recent days of this case list; fits and figures then "
+           "use the completed counts"));
 }
 
 // View: reset the plot, find a region, and show or hide each dock.
