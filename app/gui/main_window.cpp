@@ -18,6 +18,7 @@
 #include "widgets/fit/fit_pane.h"
 #include "widgets/ledger/decision_pane.h"
 #include "widgets/ledger/ledger_view.h"
+#include "widgets/nowcast/delay_view.h"
 #include "widgets/plot/qcustomplot_include.h"
 
 #include "siftwave/scan/scan.h"
@@ -84,6 +85,7 @@ MainWindow::MainWindow(Options options, QWidget* parent)
       m_batchView(new widgets::BatchFitView),
       m_transmissionPanel(new widgets::TransmissionPanel),
       m_transmissionPane(new widgets::TransmissionPane),
+      m_delayView(new widgets::DelayView),
       m_fitControl(new FitController(m_workbench, m_plot, m_fitPane, m_decisionPane, this)),
       m_decisionControl(
           new DecisionController(m_workbench, m_plot, m_decisionPane, options.dialogs, this)),
@@ -283,6 +285,11 @@ void MainWindow::buildDocks() {
     transmissionDock->setWidget(m_transmissionPane);
     addDockWidget(Qt::RightDockWidgetArea, transmissionDock);
     tabifyDockWidget(fit, transmissionDock);
+    auto* delaysDock = new QDockWidget(tr("Reporting delays"), this);
+    delaysDock->setObjectName(QStringLiteral("delaysDock"));
+    delaysDock->setWidget(m_delayView);
+    addDockWidget(Qt::RightDockWidgetArea, delaysDock);
+    tabifyDockWidget(transmissionDock, delaysDock);
     fit->raise();
 
     m_findings->setObjectName(QStringLiteral("findingReview"));
@@ -622,17 +629,19 @@ void MainWindow::showOpenedProject(const ProjectController::Opening& project) {
     m_projectControl->restoreView(project.file);
     const QString previous = resolvedProjectPath(project.path, project.file.previousDropPath);
     const QString projectFile = project.path;
+    const std::vector<ledger::ProjectRelease> history = project.file.releaseHistory;
     if (previous.isEmpty()) {
         startScan();
-        Q_EMIT projectOpened(projectFile);
+        openProjectHistory(projectFile, history);
         return;
     }
-    // Opened with or without its previous release (a failure to read it is shown).
+    // Opened with or without its previous release (a failure to read it is shown), then its
+    // release history.
     auto waiting = std::make_shared<std::array<QMetaObject::Connection, 2>>();
-    auto done = [this, projectFile, waiting] {
+    auto done = [this, projectFile, waiting, history] {
         for (const QMetaObject::Connection& c : *waiting)
             disconnect(c);
-        Q_EMIT projectOpened(projectFile);
+        openProjectHistory(projectFile, history);
     };
     (*waiting)[0] =
         connect(this, &MainWindow::previousOpened, this, [done](const QString&) { done(); });
@@ -710,6 +719,7 @@ void MainWindow::onDropChanged() {
         m_projectControl->setPath(QString());
         updateWindowTitle();
         m_dropLabel->setText(tr("No drop open — File ▸ Open drop, or drop a CSV file here"));
+        m_delayView->clear();
     }
     m_plot->setMeasures(measures);
     updateReleaseSummary();
@@ -827,6 +837,17 @@ void MainWindow::redrawSeries() {
     m_plot->setView(view, m_workbench->hasDrop() && view.empty() ? m_currentRegion : QString());
     m_fitControl->refit(m_currentRegion, true);
     m_transmissionControl->refresh(m_currentRegion);
+    updateDelayView();
+}
+
+// The reporting delays of the region in view (a case list), or why there are none.
+void MainWindow::updateDelayView() {
+    if (!m_workbench->hasDrop()) {
+        m_delayView->clear();
+        return;
+    }
+    const Drop& drop = m_workbench->drop();
+    m_delayView->showDelays(drop, drop.regionIndex(m_currentRegion.toStdString()));
 }
 
 void MainWindow::updateReleaseSummary() {
