@@ -33,6 +33,14 @@ TEST(CliNowcast, ACaseListGivesOneRowPerPeriodWithTheCaution) {
     // A period 15 or more days old is complete: its nowcast is what was reported.
     EXPECT_EQ(rows[0]["nowcast"], rows[0]["reported"]);
     EXPECT_EQ(rows[0]["p_complete"], 1.0);
+    // The delay model used is named (auto picks one of the two) with its trend test.
+    const std::string model = region["delay_model"];
+    EXPECT_TRUE(model == "constant" || model == "trend") << model;
+    EXPECT_TRUE(region.contains("trend_z"));
+    const auto fixed = runCli("nowcast " + kHus + " --now 2011-06-05 --delays constant --json");
+    ASSERT_EQ(fixed.exitCode, 0) << fixed.err;
+    EXPECT_EQ(nlohmann::json::parse(fixed.out)["regions"][0]["delay_model"], "constant");
+    EXPECT_EQ(runCli("nowcast " + kHus + " --delays sometimes").exitCode, 2);
 }
 
 TEST(CliNowcast, TextAndCsvCarryTheRowsAndTheTextTheCaution) {
