@@ -53,7 +53,8 @@ std::vector<FlagSpec> decideFlagSpecs() {
             {"region", true, false, "CODE", "region code, verbatim"},
             {"measure", true, false, "NAME", "measure (default: the drop's only measure)"},
             {"date", true, false, "DAY",
-             "the day (or week) decided on (redistribute, spread_negative, resolve_duplicate)"},
+             "the day (or week) decided on (redistribute, spread_negative, resolve_duplicate); "
+             "nowcast_complete: now (default: the case list's last report date)"},
             {"excess", true, false, "N|auto",
              "redistribute: counts to move, or auto (the scan's estimate)"},
             {"window", true, false, "FIRST:LAST",
@@ -69,6 +70,11 @@ std::vector<FlagSpec> decideFlagSpecs() {
             {"variant", true, false, "CODE", "merge_codes: the code folded away"},
             {"into", true, false, "CODE", "merge_codes: the canonical code kept"},
             {"entry", true, false, "N", "withdraw: the id of the entry to undo"},
+            {"max-delay", true, false, "N",
+             "nowcast_complete: maximum delay in periods (default: 99% of the delays seen)"},
+            {"nowcast-window", true, false, "N",
+             "nowcast_complete: moving window of the delays in periods (default 21 days, 6 "
+             "weeks)"},
             {"finding", true, false, "ID", "the scan finding this decision answers"},
             {"dry-run", false, false, "", "show what the decision would do; write nothing"},
             {"sign", false, false, "",
@@ -257,6 +263,22 @@ Status readEntryFlag(const ParsedArgs& args, ledger::Decision& d) {
     return Ok{};
 }
 
+/// nowcast_complete's --max-delay and --nowcast-window (left at 0: from the data).
+Status readNowcastFlags(const ParsedArgs& args, ledger::Decision& d) {
+    for (auto [name, out] :
+         {std::pair{"max-delay", &d.maxDelay}, std::pair{"nowcast-window", &d.nowcastWindow}}) {
+        if (!args.has(name))
+            continue;
+        auto n = positiveFlag(args, name);
+        if (!n)
+            return n.error();
+        if (*n > 366)
+            return usage(std::string("--") + name + " takes 1 to 366 periods");
+        *out = static_cast<int>(*n);
+    }
+    return Ok{};
+}
+
 /// Fails when a flag the kind needs is not given (the first in the kind's flag list).
 Status checkRequiredFlags(const ParsedArgs& args, const ledger::DecisionKindInfo& info) {
     for (const ledger::DecisionFlag& flag : info.flags) {
@@ -276,7 +298,8 @@ Result<ledger::Decision> decisionFrom(const ParsedArgs& args, ledger::DecisionKi
         return s.error();
     ledger::Decision d = decisionWithTextFlags(args, info, drop);
     using FlagStep = Status (*)(const ParsedArgs&, ledger::Decision&);
-    for (FlagStep step : {readDayFlags, readCountFlags, readRuleFlags, readEntryFlag}) {
+    for (FlagStep step :
+         {readDayFlags, readCountFlags, readRuleFlags, readEntryFlag, readNowcastFlags}) {
         if (Status s = step(args, d); !s)
             return s.error();
     }
@@ -394,6 +417,15 @@ std::optional<ledger::Decision> checkedDecision(const DecideRequest& request, co
         if (Status s = resolveAutoExcess(drop, *decision, request.windowGiven); !s) {
             printError(s.error(), request.json);
             exitCode = s.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+            return std::nullopt;
+        }
+    }
+    // What the kind leaves to the data (nowcast_complete: now, the maximum delay, the window)
+    // is named before the entry is recorded.
+    if (const auto resolve = ledger::decisionKindInfo(request.kind).resolve) {
+        if (Status s = resolve(drop, *decision); !s) {
+            printError(s.error(), request.json);
+            exitCode = kExitBadInput;
             return std::nullopt;
         }
     }

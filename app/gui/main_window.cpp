@@ -18,6 +18,7 @@
 #include "widgets/fit/fit_pane.h"
 #include "widgets/ledger/decision_pane.h"
 #include "widgets/ledger/ledger_view.h"
+#include "widgets/nowcast/delay_view.h"
 #include "widgets/plot/qcustomplot_include.h"
 
 #include "siftwave/scan/scan.h"
@@ -85,6 +86,7 @@ MainWindow::MainWindow(Options options, QWidget* parent)
       m_batchView(new widgets::BatchFitView),
       m_transmissionPanel(new widgets::TransmissionPanel),
       m_transmissionPane(new widgets::TransmissionPane),
+      m_delayView(new widgets::DelayView),
       m_fitControl(new FitController(m_workbench, m_plot, m_fitPane, m_decisionPane, this)),
       m_decisionControl(
           new DecisionController(m_workbench, m_plot, m_decisionPane, options.dialogs, this)),
@@ -304,6 +306,11 @@ void MainWindow::buildDocks() {
     transmissionDock->setWidget(m_transmissionPane);
     addDockWidget(Qt::RightDockWidgetArea, transmissionDock);
     tabifyDockWidget(fit, transmissionDock);
+    auto* delaysDock = new QDockWidget(tr("Reporting delays"), this);
+    delaysDock->setObjectName(QStringLiteral("delaysDock"));
+    delaysDock->setWidget(m_delayView);
+    addDockWidget(Qt::RightDockWidgetArea, delaysDock);
+    tabifyDockWidget(transmissionDock, delaysDock);
     fit->raise();
 
     m_findings->setObjectName(QStringLiteral("findingReview"));
@@ -447,6 +454,16 @@ void MainWindow::buildReviewMenu() {
     QAction* discard = review->addAction(tr("D&iscard the decision"), m_decisionControl,
                                          &DecisionController::discard);
     discard->setShortcut(QKeySequence(Qt::Key_Escape));
+    // Off until the analyst asks: the completed series is an estimate, recorded as a decision.
+    review->addSeparator();
+    QAction* complete =
+        review->addAction(tr("Use the &nowcast-completed counts…"), m_decisionControl,
+                          &DecisionController::decideNowcastCompletion);
+    complete->setObjectName(QStringLiteral("nowcastCompleteAction"));
+    complete->setToolTip(
+        tr("Prepare a ledger decision that adds the nowcast's reports still to "
+           "come to the recent days of this case list; fits and figures then "
+           "use the completed counts"));
 }
 
 // View: reset the plot, find a region, and show or hide each dock.
@@ -633,17 +650,19 @@ void MainWindow::showOpenedProject(const ProjectController::Opening& project) {
     m_projectControl->restoreView(project.file);
     const QString previous = resolvedProjectPath(project.path, project.file.previousDropPath);
     const QString projectFile = project.path;
+    const std::vector<ledger::ProjectRelease> history = project.file.releaseHistory;
     if (previous.isEmpty()) {
         startScan();
-        Q_EMIT projectOpened(projectFile);
+        openProjectHistory(projectFile, history);
         return;
     }
-    // Opened with or without its previous release (a failure to read it is shown).
+    // Opened with or without its previous release (a failure to read it is shown), then its
+    // release history.
     auto waiting = std::make_shared<std::array<QMetaObject::Connection, 2>>();
-    auto done = [this, projectFile, waiting] {
+    auto done = [this, projectFile, waiting, history] {
         for (const QMetaObject::Connection& c : *waiting)
             disconnect(c);
-        Q_EMIT projectOpened(projectFile);
+        openProjectHistory(projectFile, history);
     };
     (*waiting)[0] =
         connect(this, &MainWindow::previousOpened, this, [done](const QString&) { done(); });
@@ -721,6 +740,7 @@ void MainWindow::onDropChanged() {
         m_projectControl->setPath(QString());
         updateWindowTitle();
         m_dropLabel->setText(tr("No drop open — File ▸ Open drop, or drop a CSV file here"));
+        m_delayView->clear();
     }
     m_plot->setMeasures(measures);
     updateReleaseSummary();
@@ -838,6 +858,17 @@ void MainWindow::redrawSeries() {
     m_plot->setView(view, m_workbench->hasDrop() && view.empty() ? m_currentRegion : QString());
     m_fitControl->refit(m_currentRegion, true);
     m_transmissionControl->refresh(m_currentRegion);
+    updateDelayView();
+}
+
+// The reporting delays of the region in view (a case list), or why there are none.
+void MainWindow::updateDelayView() {
+    if (!m_workbench->hasDrop()) {
+        m_delayView->clear();
+        return;
+    }
+    const Drop& drop = m_workbench->drop();
+    m_delayView->showDelays(drop, drop.regionIndex(m_currentRegion.toStdString()));
 }
 
 void MainWindow::updateReleaseSummary() {

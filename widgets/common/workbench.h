@@ -52,6 +52,8 @@ public:
     /// then shows the nowcast the history gives (nowcast/triangle.h). Emits previousChanged.
     void setReleaseHistory(std::vector<std::shared_ptr<const Drop>> releases);
     std::size_t releaseHistorySize() const { return m_history.size(); }
+    /// The earlier releases as given to setReleaseHistory (a project saves their paths).
+    const std::vector<std::shared_ptr<const Drop>>& releaseHistory() const { return m_history; }
     /// Why the history gives no nowcast for the first region (a gap between releases, another
     /// calendar, ...); empty when it gives one or there is no history.
     QString releaseHistoryProblem() const;

@@ -173,6 +173,7 @@ void putKindFields(nlohmann::json& j, const ledger::Decision& d) {
             break;
         case ledger::DecisionKind::Accept:
         case ledger::DecisionKind::Withdraw:
+        case ledger::DecisionKind::NowcastComplete:  // no finding suggests it
             break;
     }
 }

@@ -36,10 +36,11 @@ struct CaptionFacts {
     std::string lastDate;           // ISO 8601
     std::string dropSha256Prefix;   // kHashPrefixLength hex digits
     std::size_t ledgerEntries = 0;  // entries in the ledger file, withdrawals included
-    std::string ledgerHeadPrefix;   // ledger::kMinAnchorDigits hex digits (enough for --head); empty without a ledger
-    std::string model;              // e.g. "gumbel"; empty without a fit
-    std::string method;             // e.g. "lsq"
-    std::string fitFirstDate;       // the fit window, ISO 8601
+    std::string ledgerHeadPrefix;  // ledger::kMinAnchorDigits hex digits (enough for --head); empty
+                                   // without a ledger
+    std::string model;             // e.g. "gumbel"; empty without a fit
+    std::string method;            // e.g. "lsq"
+    std::string fitFirstDate;      // the fit window, ISO 8601
     std::string fitLastDate;
     std::string bands;       // what the figure's bands are (set by buildFigureSpec); "" = not said
     std::string exportDate;  // ISO 8601 date of the export (UTC)
@@ -47,6 +48,9 @@ struct CaptionFacts {
     // With a transmission panel: what it shows and its settings (set by buildFigureSpec, which
     // then adds transmission::caution to `caution`); "" = no panel.
     std::string transmission;
+    // When the plotted series is nowcast-completed by a ledger entry: the sentence saying so
+    // (ledger::nowcastCompletionNote; buildFigureSpec then adds the nowcast's caution); "" = not.
+    std::string nowcastCompleted;
 };
 
 /// The facts for one figure; `fit` may be null, `exportDate` empty = today (UTC).
