@@ -10,6 +10,9 @@ namespace {
 constexpr int kMinNeighbours = 4;
 // The neighbours' own spread may raise the scale up to this multiple of the modelled noise.
 constexpr double kMaxScaleRatio = 1.5;
+// A deficit chooses the window when its sum is at least this many noise sds (the largest
+// of up to max_gap running sums; 2.5 sd keeps most pure-noise maxima out, our choice).
+constexpr double kDeficitSds = 2.5;
 }  // namespace
 
 void BacklogSeries::load(std::span<const Cell> cells) {
@@ -50,6 +53,66 @@ bool BacklogSeries::mightBeFlagged(std::int32_t t) const {
     return 2 * small >= reported;
 }
 
+BacklogSeries::Side BacklogSeries::side(std::int32_t first, std::int32_t last) {
+    const auto n = static_cast<std::int32_t>(m_x.size());
+    m_scratch.clear();
+    double centre = 0;
+    for (std::int32_t j = std::max(0, first); j <= std::min(n - 1, last); ++j) {
+        const double y = m_y[static_cast<std::size_t>(j)];
+        if (std::isnan(y))
+            continue;
+        m_scratch.push_back(y);
+        centre += j;
+    }
+    Side s;
+    s.n = static_cast<int>(m_scratch.size());
+    if (s.n == 0)
+        return s;
+    s.centre = centre / s.n;
+    const RobustLocationScale ls = robustLocationScale(m_scratch);
+    s.median = std::max(ls.median, 0.0);
+    s.scale = ls.scale;
+    return s;
+}
+
+double BacklogSeries::trendAt(const Side& left, const Side& right, double j) {
+    if (left.n == 0)
+        return right.median;
+    if (right.n == 0 || right.centre <= left.centre)
+        return left.median;
+    const double u = std::clamp((j - left.centre) / (right.centre - left.centre), 0.0, 1.0);
+    return left.median + u * (right.median - left.median);
+}
+
+double BacklogSeries::noiseSd(double mean) const {
+    const double m = std::max(mean, 1.0);
+    return std::sqrt(m + m_overdispersion * m * m);
+}
+
+// Each window length L = 1 .. max_gap: the trend from the `window` periods before
+// t - L and after t, and the sum of its shortfall over t - L .. t - 1 (a period
+// without a value falls short by all its expected count). The largest sum wins: before
+// the deficit the shortfall is noise around 0, inside it the sum grows.
+BacklogSeries::Deficit BacklogSeries::deficitBefore(std::int32_t t, const Side& right) {
+    Deficit best;
+    for (int L = 1; L <= m_maxGap && t - L - 1 >= 0; ++L) {
+        const Side left = side(t - L - m_window, t - L - 1);
+        if (left.n < 2)
+            break;
+        double sum = 0, var = 0;
+        for (std::int32_t j = t - L; j < t; ++j) {
+            const double e = trendAt(left, right, j) * factorAt(j);
+            const double x = m_x[static_cast<std::size_t>(j)];
+            sum += e - (std::isnan(x) ? 0.0 : x);
+            var += noiseSd(e) * noiseSd(e);
+        }
+        if (sum > best.sum) {
+            best = Deficit{L, sum, std::sqrt(var), left};
+        }
+    }
+    return best;
+}
+
 std::optional<BacklogEstimate> BacklogSeries::estimate(std::int32_t t) {
     const auto n = static_cast<std::int32_t>(m_x.size());
     const double x = m_x[static_cast<std::size_t>(t)];
@@ -79,46 +142,60 @@ std::optional<BacklogEstimate> BacklogSeries::estimate(std::int32_t t) {
     const bool gap = t - gapStart >= m_gapMin && gapStart > 0;
     const std::int32_t leftEnd = gap ? gapStart : t;  // exclusive
 
-    m_scratch.clear();
-    for (std::int32_t j = std::max(0, leftEnd - w); j < leftEnd; ++j) {
-        const double y = m_y[static_cast<std::size_t>(j)];
-        if (!std::isnan(y))
-            m_scratch.push_back(y);
-    }
-    for (std::int32_t j = t + 1; j <= std::min(n - 1, t + w); ++j) {
-        const double y = m_y[static_cast<std::size_t>(j)];
-        if (!std::isnan(y))
-            m_scratch.push_back(y);
-    }
-    if (static_cast<int>(m_scratch.size()) < kMinNeighbours)
+    const Side right = side(t + 1, t + w);
+    Side left = side(leftEnd - w, leftEnd - 1);
+    if (left.n + right.n < kMinNeighbours)
         return std::nullopt;
 
     BacklogEstimate e;
-    e.neighbours = static_cast<int>(m_scratch.size());
-    const RobustLocationScale ls = robustLocationScale(m_scratch);
-    const double f = factorAt(t);
-    const double m = std::max(ls.median, 0.0);
+    e.neighbours = left.n + right.n;
     e.day = Date{t};
     e.observed = static_cast<std::int64_t>(x);
-    e.expected = m * f;
-    const double noise = std::max(m, 1.0);
-    const double modelled = std::sqrt(noise + m_overdispersion * noise * noise);
-    e.scale = f * std::max(modelled, std::min(ls.scale, kMaxScaleRatio * modelled));
-    e.z = (x - e.expected) / e.scale;
-    e.excess = std::max<std::int64_t>(0, std::llround(x - e.expected));
+    const double f = factorAt(t);
     if (gap) {
         e.gapFirst = Date{gapStart};
         e.gapLast = Date{t - 1};
         e.windowFirst = Date{gapStart};
         e.windowLast = Date{t - 1};
-    } else {
+        e.window = WindowBasis::Gap;
+    } else if (!(x >= m_options.minExcess)) {
         e.windowFirst = Date{std::max(0, t - m_redistribute)};
         e.windowLast = Date{std::max(0, t - 1)};
+    } else {
+        // A deficit before t chooses the window and moves the left side of the trend
+        // before it; without one, the longest plausible window.
+        const Deficit d = deficitBefore(t, right);
+        const bool found = d.periods > 0 && d.sum >= kDeficitSds * d.sd;
+        if (found) {
+            left = d.left;
+            e.deficit = d.sum;
+            e.window = WindowBasis::Deficit;
+        } else {
+            e.window = WindowBasis::Longest;
+        }
+        const int periods = found ? d.periods : std::min(m_maxGap, t);
+        e.windowFirst = Date{std::max(0, t - periods)};
+        e.windowLast = Date{std::max(0, t - 1)};
     }
+    const double m = trendAt(left, right, t);
+    e.levelBefore = left.median * f;
+    e.levelAfter = right.median * f;
+    e.expected = m * f;
+    const double modelled = noiseSd(m);
+    // The sides' own spread around their medians (a trend does not widen it).
+    const double spread = std::max(left.n >= 2 ? left.scale : 0.0, right.n >= 2 ? right.scale : 0.0);
+    e.scale = f * std::max(modelled, std::min(spread, kMaxScaleRatio * modelled));
+    e.z = (x - e.expected) / e.scale;
+    e.excess = std::max<std::int64_t>(0, std::llround(x - e.expected));
+    // Growth: the periods after t keep at least a third of its rise over the periods
+    // before (a dump is an excess the next periods do not sustain). Needs 3 periods after.
+    const double y = x / f;
+    e.sustained = e.window != WindowBasis::Deficit && !gap && right.n >= 3 && left.n >= 2 &&
+                  right.median - left.median >= (y - left.median) / 3.0;
     const double ratio = gap ? 1.0 + (m_options.minRatio - 1.0) / 2.0 : m_options.minRatio;
     e.flagged = e.z >= (gap ? m_options.gapThreshold : m_options.threshold) &&
                 static_cast<double>(e.excess) >= m_options.minExcess && x >= ratio * e.expected &&
-                t > 0;
+                t > 0 && !e.sustained;
     return e;
 }
 

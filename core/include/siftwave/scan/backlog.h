@@ -46,6 +46,14 @@
 
 namespace siftwave::scan {
 
+/// What chose the suggested redistribution window.
+enum class WindowBasis {
+    Default,  // a period too small to be a dump: the `redistribute` periods before it
+    Gap,      // the gap just before the period
+    Deficit,  // the periods below their expected level before it
+    Longest,  // nothing points to a window: the longest plausible one (max_gap periods)
+};
+
 struct BacklogEstimate {
     Date day;  // the period's first day
     std::int64_t observed = 0;
@@ -58,7 +66,12 @@ struct BacklogEstimate {
     std::optional<Date> gapLast;
     Date windowFirst;  // suggested redistribution window (earlier periods, first days)
     Date windowLast;
-    bool flagged = false;  // meets every condition of the detector
+    WindowBasis window = WindowBasis::Default;
+    double deficit = 0;      // Deficit: the shortfall of the window below its expected level
+    double levelBefore = 0;  // the trend's sides (medians, times the period's weekday factor)
+    double levelAfter = 0;
+    bool sustained = false;  // the next periods keep the rise: growth, not a dump
+    bool flagged = false;    // meets every condition of the detector
 };
 
 /// The estimate for one region, measure and period: `day` may be any day of the
