@@ -26,10 +26,13 @@ void printRestoration(int seeds) {
     for (const auto& r : sum.regions) {
         if (r.removed < 0.85 || r.cleanedMax > 1.5 * r.trueMax || !r.found) {
             std::printf("  seed %llu %s %-7s days %2d share %.2f dump %3d: removed %5.1f %%, "
-                        "max %.0f (true %.0f), found %d, applied %d, refused %d %s\n",
+                        "max %.0f (true %.0f), found %d, applied %d, refused %d %s; moved %lld of %lld "
+                        "over %d\n",
                         static_cast<unsigned long long>(r.seed), r.region.c_str(), r.kind.c_str(),
                         r.faultDays, r.share, r.dumpDay, 100 * r.removed, r.cleanedMax, r.trueMax,
-                        r.found ? 1 : 0, r.applied, r.refused, r.refusal.c_str());
+                        r.found ? 1 : 0, r.applied, r.refused, r.refusal.c_str(),
+                        static_cast<long long>(r.moved), static_cast<long long>(r.planted),
+                        r.windowPeriods);
         }
     }
     std::printf("median error removed: %.1f %% (target >= 85 %%)\n", 100 * sum.median);
@@ -69,7 +72,17 @@ void printFalseAlarms(int seeds) {
 
 }  // namespace
 
+// With `seed region`: the findings of that region in that seed's drop, as JSON.
+void printRegion(std::uint64_t seed, const std::string& region) {
+    const auto sum = siftwave::testing::evaluateRestoration({seed}, 24, {}, region);
+    (void)sum;
+}
+
 int main(int argc, char** argv) {
+    if (argc > 2) {
+        printRegion(std::strtoull(argv[1], nullptr, 10), argv[2]);
+        return 0;
+    }
     const int seeds = argc > 1 ? std::atoi(argv[1]) : 10;
     printRestoration(seeds);
     printFalseAlarms(seeds);

@@ -4,10 +4,13 @@
 #include "siftwave/ledger/replay.h"
 #include "siftwave/scan/scan.h"
 #include "siftwave/scan/suggested_decision.h"
+
+#include <nlohmann/json.hpp>
 #include "support/synthetic_drop.h"
 
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 #include <random>
 #include <set>
 #include <utility>
@@ -111,8 +114,12 @@ void applySuggestions(const Drop& drop, const std::vector<scan::Finding>& findin
                 continue;
             }
             ledger.entries.push_back(std::move(*entry));
-            if (row)
+            if (row) {
                 ++row->applied;
+                row->moved += d->excess;
+                row->windowPeriods =
+                    *drop.periodOf(d->window->last) - *drop.periodOf(d->window->first) + 1;
+            }
         }
     }
 }
@@ -133,6 +140,20 @@ void measure(const std::vector<std::int32_t>& truth, const SyntheticDrop& s,
     row.removed = row.errorBefore > 0 ? 1.0 - row.errorAfter / row.errorBefore : 1.0;
 }
 
+void print(const SyntheticDrop& s, const std::vector<std::int32_t>& truth,
+           const scan::ScanReport& report, const std::string& region) {
+    const std::optional<std::size_t> r = s.drop.regionIndex(region);
+    if (!r)
+        return;
+    for (const scan::Finding& f : report.findings)
+        if (f.region && *f.region == region)
+            std::printf("%s\n", scan::findingToJson(f).dump().c_str());
+    for (std::int32_t t = 0; t < kDays; ++t)
+        std::printf("%d:%d/%d ", t, s.drop.tables[0].at(*r, static_cast<std::size_t>(t)).value,
+                    truth[*r * kDays + static_cast<std::size_t>(t)]);
+    std::printf("\n");
+}
+
 double median(std::vector<double> v) {
     if (v.empty())
         return 0;
@@ -144,7 +165,8 @@ double median(std::vector<double> v) {
 }  // namespace
 
 RestorationSummary evaluateRestoration(const std::vector<std::uint64_t>& seeds, int regions,
-                                       const scan::ScanOptions& options) {
+                                       const scan::ScanOptions& options,
+                                       const std::string& printRegion) {
     RestorationSummary sum;
     for (const std::uint64_t seed : seeds) {
         SyntheticOptions o;
@@ -174,8 +196,13 @@ RestorationSummary evaluateRestoration(const std::vector<std::uint64_t>& seeds, 
             row.share = f.share;
             row.dumpDay = f.dump;
             row.found = isFound(report->findings, s.drop, f);
+            for (const PlantedProblem& p : s.planted)
+                if (p.region == f.region && p.kind == "backlog_dump")
+                    row.planted = p.amount;
             sum.regions.push_back(row);
         }
+        if (!printRegion.empty())
+            print(s, truth, *report, printRegion);
         ledger::Cleaned cleaned(s.drop);
         applySuggestions(s.drop, report->findings, cleaned, sum.regions, offset);
         for (std::size_t i = 0; i < faults.size(); ++i)

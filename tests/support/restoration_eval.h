@@ -40,6 +40,9 @@ struct RestoredRegion {
     int applied = 0;       // redistributions applied in the region
     int refused = 0;       // suggestions the ledger refused
     std::string refusal;   // why (the last one)
+    std::int64_t planted = 0;  // counts held back or zeroed
+    std::int64_t moved = 0;    // counts the applied suggestions moved
+    int windowPeriods = 0;     // length of the last applied window
 };
 
 struct RestorationSummary {
@@ -51,7 +54,9 @@ struct RestorationSummary {
 };
 
 /// One generated drop per seed (`regions` regions x 240 days), evaluated as above.
+/// With `printRegion`, prints that region's findings and values to stdout (diagnosis).
 RestorationSummary evaluateRestoration(const std::vector<std::uint64_t>& seeds, int regions = 24,
-                                       const scan::ScanOptions& options = {});
+                                       const scan::ScanOptions& options = {},
+                                       const std::string& printRegion = {});
 
 }  // namespace siftwave::testing

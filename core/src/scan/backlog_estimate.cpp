@@ -4,6 +4,8 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
+#include <cstdlib>
 
 namespace siftwave::scan::detail {
 namespace {
@@ -12,7 +14,12 @@ constexpr int kMinNeighbours = 4;
 constexpr double kMaxScaleRatio = 1.5;
 // A deficit chooses the window when its sum is at least this many noise sds (the largest
 // of up to max_gap running sums; 2.5 sd keeps most pure-noise maxima out, our choice).
-constexpr double kDeficitSds = 2.5;
+constexpr double kDeficitSds = 2.0;
+// The window ends (going back) where the shortfall reaches this share of the excess.
+constexpr double kExplained = 0.9;
+// CUSUM reference value in noise sds: a third of the smallest deficit worth finding (30 %
+// of the level is about 0.8 to 1.5 sd at 10 to 400 a day under the noise model; our choice).
+constexpr double kReference = 0.3;
 }  // namespace
 
 void BacklogSeries::load(std::span<const Cell> cells) {
@@ -84,6 +91,16 @@ double BacklogSeries::trendAt(const Side& left, const Side& right, double j) {
     return left.median + u * (right.median - left.median);
 }
 
+// Over a long window an epidemic grows or declines geometrically: interpolate the
+// logarithm (half a count added so that a zero side stays finite).
+double BacklogSeries::growthAt(const Side& left, const Side& right, double j) {
+    if (left.n == 0 || right.n == 0 || right.centre <= left.centre)
+        return trendAt(left, right, j);
+    const double u = std::clamp((j - left.centre) / (right.centre - left.centre), 0.0, 1.0);
+    const double a = std::log(left.median + 0.5), b = std::log(right.median + 0.5);
+    return std::max(0.0, std::exp(a + u * (b - a)) - 0.5);
+}
+
 double BacklogSeries::noiseSd(double mean) const {
     const double m = std::max(mean, 1.0);
     return std::sqrt(m + m_overdispersion * m * m);
@@ -91,24 +108,28 @@ double BacklogSeries::noiseSd(double mean) const {
 
 // Each window length L = 1 .. max_gap: the trend from the `window` periods before
 // t - L and after t, and the sum of its shortfall over t - L .. t - 1 (a period
-// without a value falls short by all its expected count). The largest sum wins: before
-// the deficit the shortfall is noise around 0, inside it the sum grows.
-BacklogSeries::Deficit BacklogSeries::deficitBefore(std::int32_t t, const Side& right) {
+// without a value falls short by all its expected count). The largest CUSUM score wins
+// (Page 1954, Biometrika 41:100: the shortfall less a reference value of kReference noise
+// sds per period): before the deficit the score drifts down, inside it up.
+BacklogSeries::Deficit BacklogSeries::deficitBefore(std::int32_t t, const Side& right,
+                                                    double excess) {
     Deficit best;
     for (int L = 1; L <= m_maxGap && t - L - 1 >= 0; ++L) {
-        const Side left = side(t - L - m_window, t - L - 1);
-        if (left.n < 2)
+        const Side before = side(t - L - m_window, t - L - 1);
+        if (before.n < 2)
             break;
         double sum = 0, var = 0;
         for (std::int32_t j = t - L; j < t; ++j) {
-            const double e = trendAt(left, right, j) * factorAt(j);
+            const double e = growthAt(before, right, j) * factorAt(j);
             const double x = m_x[static_cast<std::size_t>(j)];
             sum += e - (std::isnan(x) ? 0.0 : x);
             var += noiseSd(e) * noiseSd(e);
         }
-        if (sum > best.sum) {
-            best = Deficit{L, sum, std::sqrt(var), left};
-        }
+        if (sum > best.sum)
+            best = Deficit{L, sum, std::sqrt(var), before};
+        // The shortest window whose shortfall accounts for the excess.
+        if (sum >= kExplained * excess)
+            return Deficit{L, sum, std::sqrt(var), before};
     }
     return best;
 }
@@ -164,7 +185,8 @@ std::optional<BacklogEstimate> BacklogSeries::estimate(std::int32_t t) {
     } else {
         // A deficit before t chooses the window and moves the left side of the trend
         // before it; without one, the longest plausible window.
-        const Deficit d = deficitBefore(t, right);
+        const Deficit d = deficitBefore(t, right, x - trendAt(left, right, t) * f);
+        if (std::getenv("SW_DEBUG")) std::fprintf(stderr, "t=%d L=%d sum=%.1f sd=%.1f step=%.2f\n", t, d.periods, d.sum, d.sd, 0.0);
         const bool found = d.periods > 0 && d.sum >= kDeficitSds * d.sd;
         if (found) {
             left = d.left;

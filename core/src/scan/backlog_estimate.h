@@ -49,6 +49,8 @@ private:
     Side side(std::int32_t first, std::int32_t last);
     // The trend between two sides, at period j (weekday-adjusted).
     static double trendAt(const Side& left, const Side& right, double j);
+    // The same, interpolated on the log scale (geometric growth or decline).
+    static double growthAt(const Side& left, const Side& right, double j);
     // The deficit before t: the window length in periods with the largest sum of
     // (expected - reported) below a trend from the periods before it and after t.
     struct Deficit {
@@ -57,7 +59,7 @@ private:
         double sd = 0;  // of the sum under the noise model
         Side left;
     };
-    Deficit deficitBefore(std::int32_t t, const Side& right);
+    Deficit deficitBefore(std::int32_t t, const Side& right, double excess);
     double noiseSd(double mean) const;
 
     double factorAt(std::int32_t t) const {
