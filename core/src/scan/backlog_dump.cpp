@@ -66,7 +66,7 @@ Finding toFinding(const ScanInput& in, std::size_t r, std::size_t m, const Backl
     s.excess = e.excess;
     s.window = ledger::DayRange{drop.periodStart(e.windowFirst.serial),
                                 drop.periodStart(e.windowLast.serial)};
-    s.redistributeMethod = e.gapFirst ? ledger::RedistributeMethod::Baseline
+    s.redistributeMethod = e.gapFirst ? ledger::RedistributeMethod::Uniform
                                       : ledger::RedistributeMethod::Proportional;
     f.suggestion = std::move(s);
     return f;

@@ -163,7 +163,17 @@ std::optional<BacklogEstimate> BacklogSeries::estimate(std::int32_t t) {
     const bool gap = t - gapStart >= m_gapMin && gapStart > 0;
     const std::int32_t leftEnd = gap ? gapStart : t;  // exclusive
 
-    const Side right = side(t + 1, t + w);
+    // The right side skips a gap just after t and the catch-up that ends it: the periods
+    // of a later outage say nothing about the level at t.
+    std::int32_t gapAfter = t + 1;
+    while (gapAfter < n && gapAfter - t <= m_maxGap) {
+        const double y = m_y[static_cast<std::size_t>(gapAfter)];
+        if (!(std::isnan(y) || y <= 0 || y <= m_options.gapLowFraction * level))
+            break;
+        ++gapAfter;
+    }
+    const std::int32_t rightStart = gapAfter - (t + 1) >= m_gapMin ? gapAfter + 1 : t + 1;
+    const Side right = side(rightStart, rightStart + w - 1);
     Side left = side(leftEnd - w, leftEnd - 1);
     if (left.n + right.n < kMinNeighbours)
         return std::nullopt;

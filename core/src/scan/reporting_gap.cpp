@@ -81,7 +81,7 @@ void suggestForGap(Finding& f, const Drop& drop, const Cell& after, std::int32_t
         s.date = drop.periodStart(end + 1);
         s.excess = std::max<long long>(0, std::llround(after.value - level));
         s.window = ledger::DayRange{*f.first, *f.last};
-        s.redistributeMethod = ledger::RedistributeMethod::Baseline;
+        s.redistributeMethod = ledger::RedistributeMethod::Uniform;
         f.suggestion = std::move(s);
     } else {
         ledger::Decision s = suggestionFor(f, ledger::DecisionKind::Exclude);
