@@ -25,14 +25,15 @@ void printRestoration(int seeds) {
     std::printf("restoration over %d seeds x 24 regions (%zu faults)\n", seeds, sum.regions.size());
     for (const auto& r : sum.regions) {
         if (r.removed < 0.85 || r.cleanedMax > 1.5 * r.trueMax || !r.found) {
-            std::printf("  seed %llu %s %-7s days %2d share %.2f dump %3d: removed %5.1f %%, "
-                        "max %.0f (true %.0f), found %d, applied %d, refused %d %s; moved %lld of %lld "
-                        "over %d\n",
-                        static_cast<unsigned long long>(r.seed), r.region.c_str(), r.kind.c_str(),
-                        r.faultDays, r.share, r.dumpDay, 100 * r.removed, r.cleanedMax, r.trueMax,
-                        r.found ? 1 : 0, r.applied, r.refused, r.refusal.c_str(),
-                        static_cast<long long>(r.moved), static_cast<long long>(r.planted),
-                        r.windowPeriods);
+            std::printf(
+                "  seed %llu %s %-7s days %2d share %.2f dump %3d: removed %5.1f %%, "
+                "max %.0f (true %.0f), found %d, applied %d, refused %d %s; moved %lld of %lld "
+                "over %d\n",
+                static_cast<unsigned long long>(r.seed), r.region.c_str(), r.kind.c_str(),
+                r.faultDays, r.share, r.dumpDay, 100 * r.removed, r.cleanedMax, r.trueMax,
+                r.found ? 1 : 0, r.applied, r.refused, r.refusal.c_str(),
+                static_cast<long long>(r.moved), static_cast<long long>(r.planted),
+                r.windowPeriods);
         }
     }
     std::printf("median error removed: %.1f %% (target >= 85 %%)\n", 100 * sum.median);
@@ -63,9 +64,10 @@ void printFalseAlarms(int seeds) {
             ++byKind[scan::findingKindName(f.kind)];
         }
     }
-    std::printf("clean drops: %.0f region-years, %d warnings + %d critical = %.2f per 100 "
-                "region-years (target <= 1)\n",
-                regionYears, warnings, critical, 100.0 * (warnings + critical) / regionYears);
+    std::printf(
+        "clean drops: %.0f region-years, %d warnings + %d critical = %.2f per 100 "
+        "region-years (target <= 1)\n",
+        regionYears, warnings, critical, 100.0 * (warnings + critical) / regionYears);
     for (const auto& [kind, n] : byKind)
         std::printf("  %s: %d\n", kind.c_str(), n);
 }

@@ -73,8 +73,8 @@ bool isFound(const std::vector<scan::Finding>& findings, const Drop& drop, const
     for (const scan::Finding& x : findings) {
         if (!x.region || *x.region != code || !x.first || !x.last)
             continue;
-        const bool dump = x.kind == scan::FindingKind::BacklogDump &&
-                          drop.periodOf(*x.first) == f.dump;
+        const bool dump =
+            x.kind == scan::FindingKind::BacklogDump && drop.periodOf(*x.first) == f.dump;
         const bool gap = x.kind == scan::FindingKind::ReportingGap &&
                          drop.periodOf(*x.first) <= f.dump - 1 &&
                          drop.periodOf(*x.last) >= f.dump - f.days;
@@ -98,7 +98,8 @@ void applySuggestions(const Drop& drop, const std::vector<scan::Finding>& findin
                 f.suggestion->kind != ledger::DecisionKind::Redistribute)
                 continue;
             Result<ledger::Decision> d = scan::suggestedDecision(f, drop.measures[0]);
-            if (!d || !d->date || !done.insert({d->region, drop.periodOf(*d->date).value_or(-1)}).second)
+            if (!d || !d->date ||
+                !done.insert({d->region, drop.periodOf(*d->date).value_or(-1)}).second)
                 continue;
             ledger::EntryMeta meta{"evaluation", "2026-12-01T00:00:00Z", "scan suggestion"};
             Result<ledger::LedgerEntry> entry = ledger::draftEntry(drop, ledger, cleaned, *d, meta);

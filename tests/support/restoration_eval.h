@@ -27,7 +27,7 @@ namespace siftwave::testing {
 struct RestoredRegion {
     std::uint64_t seed = 0;
     std::string region;
-    std::string kind;  // "backlog" or "gap"
+    std::string kind;   // "backlog" or "gap"
     int faultDays = 0;  // held or zero days
     double share = 0;   // withheld share (backlog), 1 for a gap
     std::int32_t dumpDay = 0;
@@ -36,10 +36,10 @@ struct RestoredRegion {
     double removed = 0;  // 1 - after / before
     double trueMax = 0;
     double cleanedMax = 0;
-    bool found = false;    // a backlog_dump or reporting_gap finding on the fault
-    int applied = 0;       // redistributions applied in the region
-    int refused = 0;       // suggestions the ledger refused
-    std::string refusal;   // why (the last one)
+    bool found = false;        // a backlog_dump or reporting_gap finding on the fault
+    int applied = 0;           // redistributions applied in the region
+    int refused = 0;           // suggestions the ledger refused
+    std::string refusal;       // why (the last one)
     std::int64_t planted = 0;  // counts held back or zeroed
     std::int64_t moved = 0;    // counts the applied suggestions moved
     int windowPeriods = 0;     // length of the last applied window

@@ -4,8 +4,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
-#include <cstdlib>
 
 namespace siftwave::scan::detail {
 namespace {
@@ -174,7 +172,8 @@ std::optional<BacklogEstimate> BacklogSeries::estimate(std::int32_t t) {
     }
     const std::int32_t rightStart = gapAfter - (t + 1) >= m_gapMin ? gapAfter + 1 : t + 1;
     const Side right = side(rightStart, rightStart + w - 1);
-    Side left = side(leftEnd - w, leftEnd - 1);
+    const Side adjacent = side(leftEnd - w, leftEnd - 1);
+    Side left = adjacent;
     if (left.n + right.n < kMinNeighbours)
         return std::nullopt;
 
@@ -196,7 +195,6 @@ std::optional<BacklogEstimate> BacklogSeries::estimate(std::int32_t t) {
         // A deficit before t chooses the window and moves the left side of the trend
         // before it; without one, the longest plausible window.
         const Deficit d = deficitBefore(t, right, x - trendAt(left, right, t) * f);
-        if (std::getenv("SW_DEBUG")) std::fprintf(stderr, "t=%d L=%d sum=%.1f sd=%.1f step=%.2f\n", t, d.periods, d.sum, d.sd, 0.0);
         const bool found = d.periods > 0 && d.sum >= kDeficitSds * d.sd;
         if (found) {
             left = d.left;
@@ -214,16 +212,25 @@ std::optional<BacklogEstimate> BacklogSeries::estimate(std::int32_t t) {
     e.levelAfter = right.median * f;
     e.expected = m * f;
     const double modelled = noiseSd(m);
-    // The sides' own spread around their medians (a trend does not widen it).
-    const double spread = std::max(left.n >= 2 ? left.scale : 0.0, right.n >= 2 ? right.scale : 0.0);
+    // The spread of the neighbours pooled, as the Hampel identifier has it (the
+    // sides' own spreads alone gave false alarms on clean generated drops).
+    m_scratch.clear();
+    for (std::int32_t j = std::max(0, leftEnd - w); j < leftEnd; ++j)
+        if (!std::isnan(m_y[static_cast<std::size_t>(j)]))
+            m_scratch.push_back(m_y[static_cast<std::size_t>(j)]);
+    for (std::int32_t j = rightStart; j <= std::min(n - 1, rightStart + w - 1); ++j)
+        if (!std::isnan(m_y[static_cast<std::size_t>(j)]))
+            m_scratch.push_back(m_y[static_cast<std::size_t>(j)]);
+    const double spread = robustLocationScale(m_scratch).scale;
     e.scale = f * std::max(modelled, std::min(spread, kMaxScaleRatio * modelled));
     e.z = (x - e.expected) / e.scale;
     e.excess = std::max<std::int64_t>(0, std::llround(x - e.expected));
     // Growth: the periods after t keep at least a third of its rise over the periods
-    // before (a dump is an excess the next periods do not sustain). Needs 3 periods after.
+    // just before (a dump is an excess the next periods do not sustain; a deficit just
+    // before a dump is depressed, which makes the rise larger, not the level after).
     const double y = x / f;
-    e.sustained = e.window != WindowBasis::Deficit && !gap && right.n >= 3 && left.n >= 2 &&
-                  right.median - left.median >= (y - left.median) / 3.0;
+    e.sustained = !gap && right.n >= 3 && adjacent.n >= 2 &&
+                  right.median - adjacent.median >= (y - adjacent.median) / 3.0;
     const double ratio = gap ? 1.0 + (m_options.minRatio - 1.0) / 2.0 : m_options.minRatio;
     e.flagged = e.z >= (gap ? m_options.gapThreshold : m_options.threshold) &&
                 static_cast<double>(e.excess) >= m_options.minExcess && x >= ratio * e.expected &&
