@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 namespace siftwave::scan::detail {
 namespace {
@@ -112,22 +113,37 @@ double BacklogSeries::noiseSd(double mean) const {
 BacklogSeries::Deficit BacklogSeries::deficitBefore(std::int32_t t, const Side& right,
                                                     double excess) {
     Deficit best;
+    double bestCost = std::numeric_limits<double>::infinity();
     for (int L = 1; L <= m_maxGap && t - L - 1 >= 0; ++L) {
         const Side before = side(t - L - m_window, t - L - 1);
         if (before.n < 2)
             break;
-        double sum = 0, var = 0;
+        double reported = 0;
+        for (std::int32_t j = t - L; j < t; ++j) {
+            const double x = m_x[static_cast<std::size_t>(j)];
+            reported += std::isnan(x) ? 0.0 : x;
+        }
+        if (reported <= 0)
+            continue;
+        // The window restored by the excess in proportion to its reports, against the
+        // trend from the periods before it to those after t: the mean squared deviation in
+        // noise sds. Too short a window is restored too high; too long, its first periods.
+        const double k = 1.0 + std::max(excess, 0.0) / reported;
+        double sum = 0, var = 0, cost = 0;
         for (std::int32_t j = t - L; j < t; ++j) {
             const double e = growthAt(before, right, j) * factorAt(j);
             const double x = m_x[static_cast<std::size_t>(j)];
-            sum += e - (std::isnan(x) ? 0.0 : x);
-            var += noiseSd(e) * noiseSd(e);
+            const double xv = std::isnan(x) ? 0.0 : x;
+            const double sd = noiseSd(e);
+            sum += e - xv;
+            var += sd * sd;
+            cost += (xv * k - e) * (xv * k - e) / (sd * sd);
         }
-        if (sum > best.sum)
+        cost /= L;
+        if (cost < bestCost) {
+            bestCost = cost;
             best = Deficit{L, sum, std::sqrt(var), before};
-        // The shortest window whose shortfall accounts for the excess.
-        if (sum >= kExplained * excess)
-            return Deficit{L, sum, std::sqrt(var), before};
+        }
     }
     return best;
 }
