@@ -13,9 +13,9 @@ constexpr int kMinNeighbours = 4;
 constexpr double kMaxScaleRatio = 1.5;
 // A deficit chooses the window when its sum is at least this many noise sds (the largest
 // of up to max_gap running sums; 2.5 sd keeps most pure-noise maxima out, our choice).
-constexpr double kDeficitSds = 2.0;
+constexpr double kDeficitSds = 1.0;
 // The window ends (going back) where the shortfall reaches this share of the excess.
-constexpr double kExplained = 0.9;
+constexpr double kExplained = 0.3;
 // CUSUM reference value in noise sds: a third of the smallest deficit worth finding (30 %
 // of the level is about 0.8 to 1.5 sd at 10 to 400 a day under the noise model; our choice).
 constexpr double kReference = 0.3;
