@@ -34,6 +34,8 @@ void printRestoration(int seeds) {
                 r.found ? 1 : 0, r.applied, r.refused, r.refusal.c_str(),
                 static_cast<long long>(r.moved), static_cast<long long>(r.planted),
                 r.windowPeriods);
+            if (!r.why.empty())
+                std::printf("    not found: %s\n", r.why.c_str());
         }
     }
     std::printf("median error removed: %.1f %% (target >= 85 %%)\n", 100 * sum.median);

@@ -2,6 +2,7 @@
 
 #include "siftwave/ledger/cleaned.h"
 #include "siftwave/ledger/replay.h"
+#include "siftwave/scan/backlog.h"
 #include "siftwave/scan/scan.h"
 #include "siftwave/scan/suggested_decision.h"
 
@@ -197,6 +198,17 @@ RestorationSummary evaluateRestoration(const std::vector<std::uint64_t>& seeds, 
             row.share = f.share;
             row.dumpDay = f.dump;
             row.found = isFound(report->findings, s.drop, f);
+            if (!row.found) {
+                const auto e = scan::estimateBacklog(s.drop, s.drop.measures[0], row.region,
+                                                     s.drop.periodStart(f.dump), options);
+                if (e) {
+                    row.why = "z " + std::to_string(e->z) + " expected " +
+                              std::to_string(e->expected) + " excess " + std::to_string(e->excess) +
+                              (e->sustained ? " sustained" : "");
+                } else {
+                    row.why = e.error().describe();
+                }
+            }
             for (const PlantedProblem& p : s.planted)
                 if (p.region == f.region && p.kind == "backlog_dump")
                     row.planted = p.amount;

@@ -43,6 +43,7 @@ struct RestoredRegion {
     std::int64_t planted = 0;  // counts held back or zeroed
     std::int64_t moved = 0;    // counts the applied suggestions moved
     int windowPeriods = 0;     // length of the last applied window
+    std::string why;           // a fault not found: the backlog estimate of its dump
 };
 
 struct RestorationSummary {

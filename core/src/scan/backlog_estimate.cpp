@@ -242,15 +242,21 @@ std::optional<BacklogEstimate> BacklogSeries::estimate(std::int32_t t) {
     e.z = (x - e.expected) / e.scale;
     e.excess = std::max<std::int64_t>(0, std::llround(x - e.expected));
     // Growth: the periods after t keep at least a third of its rise over the periods
-    // just before (a dump is an excess the next periods do not sustain; a deficit just
-    // before a dump is depressed, which makes the rise larger, not the level after).
+    // just before, or before the deficit when there is one (a dump is an excess the next
+    // periods do not sustain; after a dump the level returns to where it was before the
+    // deficit, while growth keeps rising above it).
     const double y = x / f;
-    e.sustained = !gap && right.n >= 3 && adjacent.n >= 2 &&
-                  right.median - adjacent.median >= (y - adjacent.median) / 3.0;
+    const Side& base = e.window == WindowBasis::Deficit ? left : adjacent;
+    e.sustained = !gap && right.n >= 3 && base.n >= 2 &&
+                  right.median - base.median >= (y - base.median) / 3.0;
     const double ratio = gap ? 1.0 + (m_options.minRatio - 1.0) / 2.0 : m_options.minRatio;
-    e.flagged = e.z >= (gap ? m_options.gapThreshold : m_options.threshold) &&
-                static_cast<double>(e.excess) >= m_options.minExcess && x >= ratio * e.expected &&
-                t > 0 && !e.sustained;
+    // A deficit before the period is evidence too, weaker than a gap: the threshold halfway.
+    const double threshold = gap ? m_options.gapThreshold
+                                 : (e.window == WindowBasis::Deficit
+                                        ? 0.5 * (m_options.threshold + m_options.gapThreshold)
+                                        : m_options.threshold);
+    e.flagged = e.z >= threshold && static_cast<double>(e.excess) >= m_options.minExcess &&
+                x >= ratio * e.expected && t > 0 && !e.sustained;
     return e;
 }
 
