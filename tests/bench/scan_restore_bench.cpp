@@ -64,6 +64,7 @@ void printFalseAlarms(int seeds) {
                 continue;
             (f.severity == scan::Severity::Critical ? critical : warnings) += 1;
             ++byKind[scan::findingKindName(f.kind)];
+            std::printf("  seed %d: %s\n", 1000 + s, describeFinding(f).c_str());
         }
     }
     std::printf(
