@@ -11,14 +11,10 @@ namespace {
 constexpr int kMinNeighbours = 4;
 // The neighbours' own spread may raise the scale up to this multiple of the modelled noise.
 constexpr double kMaxScaleRatio = 1.5;
-// A deficit chooses the window when its sum is at least this many noise sds (the largest
-// of up to max_gap running sums; 2.5 sd keeps most pure-noise maxima out, our choice).
+// The chosen window is offered as the deficit when its shortfall below the trend is at least
+// this many noise sds; weaker than that, nothing points to a window (our choice: measured
+// with tests/bench/scan_restore_bench, 1 sd gave a higher median restoration than 2 or 2.5).
 constexpr double kDeficitSds = 1.0;
-// The window ends (going back) where the shortfall reaches this share of the excess.
-constexpr double kExplained = 0.3;
-// CUSUM reference value in noise sds: a third of the smallest deficit worth finding (30 %
-// of the level is about 0.8 to 1.5 sd at 10 to 400 a day under the noise model; our choice).
-constexpr double kReference = 0.3;
 }  // namespace
 
 void BacklogSeries::load(std::span<const Cell> cells) {
@@ -105,11 +101,13 @@ double BacklogSeries::noiseSd(double mean) const {
     return std::sqrt(m + m_overdispersion * m * m);
 }
 
-// Each window length L = 1 .. max_gap: the trend from the `window` periods before
-// t - L and after t, and the sum of its shortfall over t - L .. t - 1 (a period
-// without a value falls short by all its expected count). The largest CUSUM score wins
-// (Page 1954, Biometrika 41:100: the shortfall less a reference value of kReference noise
-// sds per period): before the deficit the score drifts down, inside it up.
+// Each window length L = 1 .. max_gap: the trend (geometric) from the `window` periods
+// before t - L to those after t, the window's reports scaled up by the excess in
+// proportion to them, and the mean squared deviation of that restoration from the trend,
+// in noise sds. The smallest wins: too short a window is restored too high, too long a
+// one too high in its first periods, which were not short. Returns the shortfall below
+// the trend over the winning window (a period without a value falls short by all its
+// expected count) and its noise sd.
 BacklogSeries::Deficit BacklogSeries::deficitBefore(std::int32_t t, const Side& right,
                                                     double excess) {
     Deficit best;

@@ -29,12 +29,15 @@
 // gap_low_fraction of the surrounding level) z >= gap_threshold and x_t >= (1 +
 // (min_ratio - 1) / 2) * e suffice. At least 4 neighbours are needed.
 //
-// The suggested window (WindowBasis): the gap; else the deficit before t: going back
-// from t - 1, the shortest window whose shortfall below a geometric trend (from the
-// `window` periods before the window to the right side) reaches 90 % of the excess,
-// or else the one with the largest shortfall, when that shortfall is at least 2 noise
-// sds; else nothing points to a window and the longest plausible one is offered
-// (max_gap periods). Weights: proportional to the reported counts in a deficit window
+// The suggested window (WindowBasis): the gap; else the deficit before t: for each
+// length L up to max_gap periods, the window's reports scaled up by the excess in
+// proportion to them are compared with a geometric trend from the `window` periods
+// before the window to the right side; the L whose restoration deviates least (mean
+// squared, in noise sds) wins, and is offered when the window falls short of that trend
+// by at least 1 noise sd (the left side of the trend at t then moves to before the
+// window, and z needs only to reach halfway between threshold and gap_threshold); else
+// nothing points to a window and the longest plausible one is offered (max_gap periods,
+// with a note). Weights: proportional to the reported counts in a deficit window
 // (a withheld share leaves the shape of the curve), uniform over a gap (the flat
 // expected level; zeros have no shape).
 //
