@@ -23,8 +23,9 @@
 //   z          = (x_t - e) / sigma;  excess = x_t - e, rounded, never below 0
 // Period t is a backlog dump when z >= threshold, excess >= min_excess and
 // x_t >= min_ratio * e, and the excess is not sustained: growth is when the right
-// side's median keeps at least a third of the rise of y_t over the left side's
-// (needs 3 periods after t; never when a gap or deficit came before). After a gap
+// side's median keeps at least a third of the rise of y_t over the left side's (the
+// side before the deficit when there is one; needs 3 periods after t; never after a
+// gap). Growth is not reported and no count is to be moved. After a gap
 // (at least `gap_min` periods just before t with no value, a zero, or at most
 // gap_low_fraction of the surrounding level) z >= gap_threshold and x_t >= (1 +
 // (min_ratio - 1) / 2) * e suffice. At least 4 neighbours are needed.
