@@ -2,16 +2,17 @@
 // make plausible, including the catch-up after a gap (method in
 // siftwave/scan/backlog.h).
 //
-// Severity: critical when the excess is at least critical_share of the region's
-// total, or when the period is among the last recent_days (14) days or
-// recent_weeks (4) weeks of the drop (it bends the current trend that a
-// briefing reads); warning otherwise. Measures that are cumulative are left to
-// cumulative_decrease.
+// Severity (issue 14: only when a gap or a deficit before the period says where the
+// counts came from; otherwise warning): critical when the excess is at least critical_share of the
+// region's total, or when the period is among the last recent_days (14) days or recent_weeks (4)
+// weeks of the drop (it bends the current trend that a briefing reads); warning otherwise. Measures
+// that are cumulative are left to cumulative_decrease.
 //
 // Evidence: observed, expected, excess, z, ratio, baseline_periods (neighbours
 // used) and baseline_days (the days they cover: the same number for daily data),
 // overdispersion, weekday_factor (daily data only), line, region_total, and
-// after_gap {first, last, periods, days} when a gap came before.
+// after_gap {first, last, periods, days} when a gap came before, window_basis ("gap",
+// "deficit", "longest": see backlog.h) and deficit (the window's shortfall) for "deficit".
 
 #include "scan/backlog_estimate.h"
 #include "scan/scan_input.h"
@@ -31,8 +32,12 @@ Finding toFinding(const ScanInput& in, std::size_t r, std::size_t m, const Backl
     const bool recent = t >= drop.periods() - in.periods(in.options.backlogDump.recentDays,
                                                          in.options.backlogDump.recentWeeks);
     const bool large = total > 0 && e.excess >= in.options.backlogDump.criticalShare * total;
-    Finding f = makeFinding(in, FindingKind::BacklogDump,
-                            large || recent ? Severity::Critical : Severity::Warning, r, m);
+    // Critical needs a source too: a gap or a deficit before the period (issue 14: a lone
+    // spike in a complete published curve is worth a look, not an alarm).
+    const bool sourced = e.window == WindowBasis::Gap || e.window == WindowBasis::Deficit;
+    Finding f =
+        makeFinding(in, FindingKind::BacklogDump,
+                    (large || recent) && sourced ? Severity::Critical : Severity::Warning, r, m);
     f.first = f.last = drop.periodStart(t);
     f.impact = static_cast<double>(e.excess);
     f.evidence = {
@@ -61,14 +66,25 @@ Finding toFinding(const ScanInput& in, std::size_t r, std::size_t m, const Backl
                            {"days", in.daysIn(gapPeriods)},
                            {"periods", gapPeriods}};
     }
+    constexpr const char* kBasis[] = {"default", "gap", "deficit", "longest"};
+    f.evidence["window_basis"] = kBasis[static_cast<int>(e.window)];
+    if (e.window == WindowBasis::Deficit)
+        f.evidence["deficit"] = std::round(e.deficit);
     ledger::Decision s = suggestionFor(f, ledger::DecisionKind::Redistribute);
     s.date = drop.periodStart(t);
     s.excess = e.excess;
     s.window = ledger::DayRange{drop.periodStart(e.windowFirst.serial),
                                 drop.periodStart(e.windowLast.serial)};
-    s.redistributeMethod = e.gapFirst ? ledger::RedistributeMethod::Baseline
-                                      : ledger::RedistributeMethod::Proportional;
+    s.redistributeMethod =
+        e.gapFirst ? ledger::RedistributeMethod::Uniform : ledger::RedistributeMethod::Proportional;
     f.suggestion = std::move(s);
+    if (e.window == WindowBasis::Longest) {
+        f.suggestionNotes.note =
+            std::string("no shortfall before the ") + drop.axis.unitName() +
+            " points to where the counts came from: the longest plausible window is offered; "
+            "ask the reporting office which " +
+            drop.axis.unitPlural() + " they belong to";
+    }
     return f;
 }
 

@@ -38,6 +38,30 @@ public:
     std::optional<BacklogEstimate> estimate(std::int32_t t);
 
 private:
+    // A side of the local trend: median of the weekday-adjusted values reported in
+    // [first, last] at the mean index of those values; n = 0 when none is reported.
+    struct Side {
+        double median = 0;
+        double centre = 0;
+        double scale = 0;  // 1.4826 * MAD around the median
+        int n = 0;
+    };
+    Side side(std::int32_t first, std::int32_t last);
+    // The trend between two sides, at period j (weekday-adjusted).
+    static double trendAt(const Side& left, const Side& right, double j);
+    // The same, interpolated on the log scale (geometric growth or decline).
+    static double growthAt(const Side& left, const Side& right, double j);
+    // The deficit before t: the window length in periods with the largest sum of
+    // (expected - reported) below a trend from the periods before it and after t.
+    struct Deficit {
+        int periods = 0;
+        double sum = 0;
+        double sd = 0;  // of the sum under the noise model
+        Side left;
+    };
+    Deficit deficitBefore(std::int32_t t, const Side& right, double excess);
+    double noiseSd(double mean) const;
+
     double factorAt(std::int32_t t) const {
         return m_factors.factor[static_cast<std::size_t>((m_firstWeekday + t) % 7)];
     }

@@ -1,5 +1,13 @@
 // reporting_gap: a run of zeros inside an active stretch of a series.
 //
+// Issue 14: the expected level of the run is the lower of the two sides' medians, and the
+// run is a gap only when its chance under that level and the measure's negative-binomial
+// noise (zeroRunChance below) is at most 1e-4: the tail zeros of a finished outbreak and
+// the zeros before its take-off are plausible and not gaps. Evidence adds level_before,
+// level_after and chance_under_local_level. The catch-up is spread uniformly over the
+// gap (a flat expected level: a centred moving average over the zeros put it at the
+// gap's edges). What follows is the earlier description; its level is now the lower side.
+//
 // A run of reported zeros, with a non-zero value somewhere before and after it
 // (the quiet tails of a series are not gaps), where the median of the reported
 // periods on each side is at least the minimum level: under Poisson noise a
@@ -16,6 +24,7 @@
 // Evidence: periods, days (the days they cover: equal for daily data),
 // level_around, chance_under_poisson, first_line, value_after, catch_up.
 
+#include "scan/robust_stats.h"
 #include "scan/scan_input.h"
 
 #include <algorithm>
@@ -26,6 +35,10 @@
 namespace siftwave::scan::detail {
 
 namespace {
+
+// A run of zeros is a gap when its chance under the local level is at most this (the bar
+// of stale_values; our choice).
+constexpr double kMaxChance = 1e-4;
 
 // The thresholds of the drop's cadence.
 struct GapThresholds {
@@ -73,6 +86,38 @@ bool mayBeActive(std::span<const Cell> cells, std::int32_t periods, std::int32_t
     return active;
 }
 
+// The expected level of the run: the lower of the medians of the `window` periods on
+// each side (a run at the edge of an outbreak, before its take-off or in its tail, is
+// judged by its quiet side; a gap inside an active stretch has both sides high).
+struct LocalLevel {
+    double before = 0, after = 0, expected = 0;
+};
+LocalLevel localLevel(std::span<const double> values, std::int32_t first, std::int32_t last,
+                      int window) {
+    const auto n = static_cast<std::int32_t>(values.size());
+    std::vector<double> side;
+    const auto medianOf = [&](std::int32_t a, std::int32_t b) {
+        side.clear();
+        for (std::int32_t t = std::max(0, a); t <= std::min(n - 1, b); ++t)
+            if (!std::isnan(values[static_cast<std::size_t>(t)]))
+                side.push_back(values[static_cast<std::size_t>(t)]);
+        return side.empty() ? 0.0 : medianInPlace(side);
+    };
+    LocalLevel l;
+    l.before = medianOf(first - window, first - 1);
+    l.after = medianOf(last + 1, last + window);
+    l.expected = std::min(l.before, l.after);
+    return l;
+}
+
+// Chance of `periods` zeros in a row at mean `level` under negative-binomial noise with
+// overdispersion phi: P(0) = (1 + phi mu)^(-1/phi) each (Poisson exp(-mu) when phi = 0;
+// Hilbe, "Negative Binomial Regression", 2nd ed., ch. 5).
+double zeroRunChance(double level, int periods, double phi) {
+    const double logP0 = phi > 1e-9 ? -std::log1p(phi * level) / phi : -level;
+    return std::exp(periods * logP0);
+}
+
 // Redistribute the catch-up after the run over it, or else exclude the zeros as unreported.
 void suggestForGap(Finding& f, const Drop& drop, const Cell& after, std::int32_t end, double level,
                    bool catchUp) {
@@ -81,7 +126,7 @@ void suggestForGap(Finding& f, const Drop& drop, const Cell& after, std::int32_t
         s.date = drop.periodStart(end + 1);
         s.excess = std::max<long long>(0, std::llround(after.value - level));
         s.window = ledger::DayRange{*f.first, *f.last};
-        s.redistributeMethod = ledger::RedistributeMethod::Baseline;
+        s.redistributeMethod = ledger::RedistributeMethod::Uniform;
         f.suggestion = std::move(s);
     } else {
         ledger::Decision s = suggestionFor(f, ledger::DecisionKind::Exclude);
@@ -133,9 +178,16 @@ void findGapsInSeries(const ScanInput& in, std::size_t m, std::size_t r, const G
         if (end - t + 1 >= th.minRun && mayBeActive(cells, drop.periods(), t, end, th)) {
             if (values.empty())
                 values = seriesValues(cells);
-            const double level = levelAround(values, t, end, th.window);
-            if (!std::isnan(level) && level >= th.minLevel)
-                out.push_back(gapFinding(in, r, m, cells, t, end, level));
+            const LocalLevel level = localLevel(values, t, end, th.window);
+            const double chance =
+                zeroRunChance(level.expected, end - t + 1, in.measures[m].overdispersion);
+            if (level.expected >= th.minLevel && chance <= kMaxChance) {
+                Finding f = gapFinding(in, r, m, cells, t, end, level.expected);
+                f.evidence["level_before"] = std::round(level.before * 10) / 10;
+                f.evidence["level_after"] = std::round(level.after * 10) / 10;
+                f.evidence["chance_under_local_level"] = chance;
+                out.push_back(std::move(f));
+            }
         }
         t = end;
     }

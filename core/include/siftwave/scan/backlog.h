@@ -4,31 +4,43 @@
 // scan's `backlog_dump` detector and the ledger's `redistribute --excess auto`
 // use the same function.
 //
-// Baseline (a Hampel-style robust identifier, Hampel 1974, JASA 69:383;
-// Pearson 2002, IEEE Trans. Control Systems Technology 10:55, with a weekday
-// adjustment for daily data):
+// Baseline: a robust local trend from both sides (issue 14), with a weekday
+// adjustment for daily data:
 //   f_w        multiplicative weekday factors of the measure, pooled over all
 //              regions by the ratio-to-moving-average method (weekday_effect.h);
 //              all 1 for weekly data, where every period holds each weekday once
-//   y_j        = x_j / f_{w(j)}, the weekday-adjusted neighbours: the `window`
-//              reported periods on each side of period t, never t itself, and
-//              never the periods of a gap just before t (zeros, low values or no
-//              value)
-//   m          = median(y_j)
-//   s          = 1.4826 * median(|y_j - m|)           (MAD scaled to a normal sd)
+//   y_j        = x_j / f_{w(j)}, the weekday-adjusted values
+//   sides      left: the `window` reported periods before t (before the gap or the
+//              deficit just before t, when there is one); right: the `window`
+//              periods after t (after a gap just after t and its catch-up)
+//   m          the line through the two sides' medians (Hampel-style robust
+//              location, Hampel 1974, JASA 69:383), evaluated at t
+//   s          the larger of the sides' 1.4826 * MAD (a trend does not widen it)
 //   expected   e = m * f_{w(t)}
-//   scale      sigma = f_{w(t)} * max(s, sqrt(m + phi m^2))
-//              (never below negative-binomial noise; phi is the measure's pooled
-//              overdispersion, estimateOverdispersion in core/src/scan/scan_input.h)
-//   z          = (x_t - e) / sigma
-//   excess     = x_t - e, rounded to an integer count, never below 0
+//   scale      sigma = f_{w(t)} * max(sqrt(m + phi m^2), min(s, 1.5 sqrt(m + phi m^2)))
+//              (negative-binomial noise; phi is the measure's pooled overdispersion,
+//              estimateOverdispersion in core/src/scan/scan_input.h)
+//   z          = (x_t - e) / sigma;  excess = x_t - e, rounded, never below 0
 // Period t is a backlog dump when z >= threshold, excess >= min_excess and
-// x_t >= min_ratio * e. After a gap (at least `gap_min` periods just before t
-// with no value, a zero, or at most gap_low_fraction of the surrounding level)
-// the gap is evidence already: z >= gap_threshold and x_t >= (1 + (min_ratio -
-// 1) / 2) * e suffice. The baseline then uses the `window` periods before the
-// gap and after t. The suggested redistribution window is the gap, or else the
-// `redistribute` periods before t. At least 4 neighbours are needed.
+// x_t >= min_ratio * e, and the excess is not sustained: growth is when the right
+// side's median keeps at least a third of the rise of y_t over the left side's (the
+// side before the deficit when there is one; needs 3 periods after t; never after a
+// gap). Growth is not reported and no count is to be moved. After a gap
+// (at least `gap_min` periods just before t with no value, a zero, or at most
+// gap_low_fraction of the surrounding level) z >= gap_threshold and x_t >= (1 +
+// (min_ratio - 1) / 2) * e suffice. At least 4 neighbours are needed.
+//
+// The suggested window (WindowBasis): the gap; else the deficit before t: for each
+// length L up to max_gap periods, the window's reports scaled up by the excess in
+// proportion to them are compared with a geometric trend from the `window` periods
+// before the window to the right side; the L whose restoration deviates least (mean
+// squared, in noise sds) wins, and is offered when the window falls short of that trend
+// by at least 1 noise sd (the left side of the trend at t then moves to before the
+// window, and z needs only to reach halfway between threshold and gap_threshold); else
+// nothing points to a window and the longest plausible one is offered (max_gap periods,
+// with a note). Weights: proportional to the reported counts in a deficit window
+// (a withheld share leaves the shape of the curve), uniform over a gap (the flat
+// expected level; zeros have no shape).
 //
 // Every window counts periods of the drop's cadence: `window_days`,
 // `gap_min_days`, `max_gap_days`, `redistribute_days` for daily data,
@@ -46,6 +58,14 @@
 
 namespace siftwave::scan {
 
+/// What chose the suggested redistribution window.
+enum class WindowBasis {
+    Default,  // a period too small to be a dump: the `redistribute` periods before it
+    Gap,      // the gap just before the period
+    Deficit,  // the periods below their expected level before it
+    Longest,  // nothing points to a window: the longest plausible one (max_gap periods)
+};
+
 struct BacklogEstimate {
     Date day;  // the period's first day
     std::int64_t observed = 0;
@@ -58,7 +78,12 @@ struct BacklogEstimate {
     std::optional<Date> gapLast;
     Date windowFirst;  // suggested redistribution window (earlier periods, first days)
     Date windowLast;
-    bool flagged = false;  // meets every condition of the detector
+    WindowBasis window = WindowBasis::Default;
+    double deficit = 0;      // Deficit: the shortfall of the window below its expected level
+    double levelBefore = 0;  // the trend's sides (medians, times the period's weekday factor)
+    double levelAfter = 0;
+    bool sustained = false;  // the next periods keep the rise: growth, not a dump
+    bool flagged = false;    // meets every condition of the detector
 };
 
 /// The estimate for one region, measure and period: `day` may be any day of the

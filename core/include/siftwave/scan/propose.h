@@ -11,10 +11,10 @@
 //      scan has already weighed it, and the decision then names the finding;
 //   3. otherwise a redistribution from the scan's backlog estimate for that period
 //      (estimateBacklog, scan/backlog.h, with `options`): its excess, its window
-//      (the gap before the period, or the `redistribute_days`/`_weeks` periods
-//      before it) and the method the detector would suggest (baseline after a gap,
-//      which fills the gap towards its surrounding level; proportional otherwise,
-//      which follows the shape already in the window);
+//      (the gap before the period, the deficit before it, or else the longest
+//      plausible window: WindowBasis in scan/backlog.h) and the method the detector
+//      would suggest (uniform over a gap, a flat expected level; proportional
+//      otherwise, which follows the shape already in the window);
 //   4. when there is no estimate (too few reported neighbours), a redistribution
 //      with excess 0 for the analyst to set, over the same `redistribute_days`/
 //      `_weeks` periods before, proportional; `noEstimate` says why.
