@@ -47,7 +47,9 @@ bool DecisionController::decideFinding(const QString& id) {
         return false;
     const std::string measure =
         m_workbench->drop().measures.at(static_cast<std::size_t>(m_plot->measure()));
-    Result<ledger::Decision> decision = scan::suggestedDecision(*finding, measure);
+    Result<scan::Proposal> proposal = scan::proposeDecision(m_workbench->drop(), *finding, measure);
+    Result<ledger::Decision> decision = proposal ? Result<ledger::Decision>(proposal->decision)
+                                                 : Result<ledger::Decision>(proposal.error());
     if (!decision) {
         Q_EMIT errorOccurred(tr("No decision to prepare"),
                              widgets::describeError(decision.error()));

@@ -347,6 +347,15 @@ TEST_F(LedgerCli, DryRunSaysWhenADecisionWouldCreateANewAnomaly) {
         EXPECT_LE(f.at("last").get<std::string>(), "2026-08-23");
     }
     EXPECT_FALSE(fs::exists(ledger));
+
+    // The scan's own suggestion (--excess auto: the deficit window of the three planted weeks,
+    // proportional) restores the under-reporting and creates nothing new.
+    CliRun suggested = cli("decide " + L() + " --drop " + quote(sample) +
+                           " redistribute --region 1301 --measure cases --date 2026-08-24"
+                           " --excess auto --method proportional --dry-run --json");
+    ASSERT_EQ(suggested.code, 0) << suggested.out << suggested.err;
+    EXPECT_TRUE(nlohmann::json::parse(suggested.out).at("check").at("clean").get<bool>())
+        << suggested.out;
 }
 
 TEST_F(LedgerCli, OneEntryIsCountedInTheSingular) {

@@ -73,5 +73,31 @@ TEST(ProposeDecision, WithoutAnEstimateTheAnalystSetsTheCountsOverTheWeekBefore)
     EXPECT_EQ(p->decision.window->last, drop.periodStart(1));
 }
 
+TEST(ProposeDecision, AFindingsDecideProposesWhatThePickedCellWould) {
+    // One rule for the three front ends: a finding's Decide, a picked bar, decide --excess auto.
+    const Drop drop = handBuiltDrop({"D1"}, {kSeries});
+    const Result<ScanReport> report = scanDrop(drop);
+    ASSERT_TRUE(report.ok());
+    const Finding* dump = nullptr;
+    for (const Finding& f : report->findings)
+        if (f.kind == FindingKind::BacklogDump)
+            dump = &f;
+    ASSERT_NE(dump, nullptr);
+    const Result<Proposal> byFinding = proposeDecision(drop, *dump, "cases");
+    ASSERT_TRUE(byFinding.ok()) << byFinding.error().describe();
+    EXPECT_EQ(byFinding->source, ProposalSource::Finding);
+    EXPECT_EQ(byFinding->finding, dump);
+    EXPECT_EQ(byFinding->reported, 100);
+    ProposalRequest r = requestFor(drop, 7);
+    r.findings = report->findings;
+    const Result<Proposal> byCell = proposeDecision(drop, r);
+    ASSERT_TRUE(byCell.ok());
+    EXPECT_EQ(byFinding->decision.excess, byCell->decision.excess);
+    EXPECT_EQ(byFinding->decision.window, byCell->decision.window);
+    EXPECT_EQ(byFinding->decision.redistributeMethod, byCell->decision.redistributeMethod);
+    EXPECT_EQ(byFinding->decision.finding, dump->id);
+    EXPECT_EQ(proposeDecision(drop, *dump, "deaths").error().code, ErrorCode::NotFound);
+}
+
 }  // namespace
 }  // namespace siftwave::scan

@@ -198,7 +198,9 @@ SeriesPair seriesPair(const Drop& before, const Drop& after, std::size_t m, std:
 }
 
 /// Waves of the after series that peak inside the periods the decision raises, where the
-/// reference (seriesPair) has no wave peaking: a peak built from moved counts alone. A dump
+/// reference (seriesPair) has no wave peaking, and that hold no peak of the reference's waves
+/// (a restored wave whose peak moves by a few days is the same wave): a peak built from moved
+/// counts alone. A dump
 /// itself reads as a wave in the reported counts, and its smoothed peak can fall a few
 /// periods into the window the counts go to; the reference, without the dump, does not have it.
 void addNewWaves(const Drop& before, const Drop& after, const SeriesKey& key,
@@ -210,7 +212,9 @@ void addNewWaves(const Drop& before, const Drop& after, const SeriesKey& key,
     const SeriesPair pair = seriesPair(before, after, *m, *r);
     if (!pair.raised)
         return;
-    const auto inRaised = [&](int p) { return pair.raised->first <= p && p <= pair.raised->second; };
+    const auto inRaised = [&](int p) {
+        return pair.raised->first <= p && p <= pair.raised->second;
+    };
     const fit::WaveDetectionOptions detection =
         fit::FitOptions::forCadence(before.axis.cadence()).detection;
     const std::vector<fit::Wave> was = fit::detectWaves(pair.reference, detection);
@@ -219,7 +223,11 @@ void addNewWaves(const Drop& before, const Drop& after, const SeriesKey& key,
     const std::vector<fit::Wave> will = fit::detectWaves(pair.after, detection);
     const fit::Wave* largest = largestOf(will);
     for (const fit::Wave& w : will) {
-        if (!inRaised(w.peak))
+        // A wave the reference has too, whose peak the moved counts only shift, is not new.
+        const bool shifted = std::any_of(was.begin(), was.end(), [&](const fit::Wave& b) {
+            return w.first <= b.peak && b.peak <= w.last;
+        });
+        if (!inRaised(w.peak) || shifted)
             continue;
         out.push_back({key.second, key.first, before.periodStart(w.first),
                        before.periodStart(w.peak), before.periodStart(w.last), w.peakValue,

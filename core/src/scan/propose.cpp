@@ -87,4 +87,25 @@ Result<Proposal> proposeDecision(const Drop& drop, const ProposalRequest& r) {
     return p;
 }
 
+Result<Proposal> proposeDecision(const Drop& drop, const Finding& finding,
+                                 const std::string& measure) {
+    if (!drop.measureIndex(measure))
+        return makeError(ErrorCode::NotFound, "no measure '" + measure + "'");
+    Result<ledger::Decision> d = suggestedDecision(finding, measure);
+    if (!d)
+        return d.error();
+    Proposal p;
+    p.decision = std::move(*d);
+    p.source = ProposalSource::Finding;
+    p.finding = &finding;
+    if (finding.region && finding.first) {
+        const auto r = drop.regionIndex(*finding.region);
+        const auto m = drop.measureIndex(measure);
+        const auto t = drop.periodOf(*finding.first);
+        if (r && m && t && drop.cell(*m, *r, *t).reported())
+            p.reported = drop.cell(*m, *r, *t).value;
+    }
+    return p;
+}
+
 }  // namespace siftwave::scan

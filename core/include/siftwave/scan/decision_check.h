@@ -11,9 +11,10 @@
 //   - every wave (fit/waves.h, the detection the fit's automatic window uses, with the
 //     drop's cadence defaults) of an after series that peaks inside the periods the decision
 //     raises, where the reported counts without the moved ones (the before series with
-//     only the decision's decreases applied) have no wave peaking: a peak built from moved
-//     counts alone; and whether it would become the series' largest wave (what "largest
-//     wave" would fit).
+//     only the decision's decreases applied) have no wave peaking, and that holds the peak of
+//     none of their waves (a restored wave whose peak moves a few days is the same wave): a
+//     peak built from moved counts alone; and whether it would become the series' largest
+//     wave (what "largest wave" would fit).
 // Both scans run on the whole cleaned measure (every region), so the pooled facts the
 // detectors use (weekday factors, overdispersion) are those a scan after Apply would use.
 // The same code serves the decision pane and `siftwave-cli decide --dry-run`.

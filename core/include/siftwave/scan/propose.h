@@ -1,6 +1,7 @@
 #pragma once
 // proposeDecision: the decision to propose for one cell an analyst points at (a
-// bar picked on the plot, or `siftwave-cli decide redistribute --excess auto`).
+// bar picked on the plot, or `siftwave-cli decide redistribute --excess auto`), or for a
+// finding (its Decide button): every front end proposes through these two calls.
 //
 // A picked cell is a suspected backlog: counts reported on one period that belong
 // to earlier ones. What is proposed, in this order:
@@ -62,5 +63,13 @@ struct Proposal {
 /// The proposal above. Errors: NotFound for an unknown region or measure or a day outside
 /// the calendar; InvalidValue for step 1; Usage for options that do not validate.
 Result<Proposal> proposeDecision(const Drop& drop, const ProposalRequest& request);
+
+/// The proposal for a finding itself (a finding's Decide in the GUI): its own suggestion, for
+/// `measure` when the finding is about every measure (suggested_decision.h), source Finding;
+/// for a backlog_dump the same decision the call above gives for the finding's period. Errors:
+/// NotFound for a measure not in the drop, and suggestedDecision's (a finding that suggests
+/// nothing).
+Result<Proposal> proposeDecision(const Drop& drop, const Finding& finding,
+                                 const std::string& measure);
 
 }  // namespace siftwave::scan
