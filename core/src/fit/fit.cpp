@@ -908,7 +908,7 @@ void addObservedDoubling(FitState& s, const std::array<double, kDerivedCount>& d
     options.window = n;
     const auto counts =
         s.series.counts.subspan(static_cast<std::size_t>(first), static_cast<std::size_t>(n));
-    const transmission::GrowthEstimate g = transmission::growthRates(counts, axis, options).back();
+    const transmission::GrowthEstimate g = transmission::growthRateAt(counts, axis, n - 1, options);
     if (!g.ok() || !(g.r.value > 0)) {
         dq.observedDoublingNote =
             g.ok() ? "the counts do not rise over the observed rise" : g.reason;

@@ -176,7 +176,7 @@ struct DerivedQuantities {
     // The doubling time to brief (issue 15): ln 2 / r of a log-linear Poisson regression
     // (quasi-Poisson when the counts are overdispersed) of the counts over the observed rise,
     // from the start day to the peak (or the last day with data before it), by the growth-rate
-    // code of the transmission capability (transmission::growthRates over that one window), with
+    // code of the transmission capability (transmission::growthRateAt, that one window), with
     // its 95% interval (upper +infinity when r's interval holds 0). NaN when the rise is too
     // short or holds too few cases (observedDoublingNote says why).
     Estimate observedDoublingTimeDays;
