@@ -52,6 +52,10 @@ std::string terminalText(std::string_view text);
 /// Prints JSON (indented 2) and a newline on stdout.
 void printJson(const nlohmann::json& value);
 
+/// JSON text with DEL and the C1 controls as \u escapes (JSON allows them raw; a terminal may act
+/// on them). What printJson() prints, for JSON written in pieces.
+std::string terminalSafeJson(const std::string& text);
+
 /// Converts an Error to its JSON object.
 nlohmann::json errorToJson(const Error& error);
 
