@@ -100,8 +100,8 @@ std::string regionText(const fit::RegionFit& r, const TimeAxis& axis) {
     } else {
         appendf(out, "  doubling time   - (%s)\n", d.observedDoublingNote.c_str());
     }
-    appendf(out, "  model's instantaneous doubling time at its start day %.1f days\n",
-            d.doublingTimeDays.value);
+    appendf(out, "  model's instantaneous doubling time at its fastest growth (%s) %.1f days\n",
+            date(d.fastestGrowthDay.value).c_str(), d.doublingTimeDays.value);
     appendf(out, "  infectious load %.0f (%d-day window)", d.peakInfectiousLoad.value,
             f.options.infectiousWindowDays);
     if (d.peakInfectiousLoadPer100k) {

@@ -134,7 +134,7 @@ TEST(FitDoubling, RealOutbreakRisesAgreeWithAnIndependentPoissonFit) {
         const Reference& ref = refs[k];
         std::printf(
             "%s: rise %s .. %s (%zu days): doubling %.3g d (95%% %.3g .. %.3g), scipy "
-            "%.3g d (%.3g .. %.3g); model's instantaneous at its start day %.3g d\n",
+            "%.3g d (%.3g .. %.3g); model's instantaneous at its fastest growth %.3g d\n",
             outbreaks[k].file.c_str(), fits[k].periodStart(d.observedRiseFirst).iso().c_str(),
             fits[k].periodStart(d.observedRiseLast).iso().c_str(), rises[k].size(),
             d.observedDoublingTimeDays.value, d.observedDoublingTimeDays.lower,

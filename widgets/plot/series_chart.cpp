@@ -150,6 +150,7 @@ void SeriesChart::resetDrawnState() {
     m_clippedDays.clear();
     m_preview = nullptr;
     m_fitLow = m_fitHigh = m_fitMid = nullptr;
+    m_fitNote = nullptr;
     m_windowRect = nullptr;
     m_windowStart = nullptr;
     m_windowEnd = nullptr;
@@ -225,7 +226,33 @@ void SeriesChart::drawSecondMeasure(const QVector<double>& keys) {
     }
 }
 
+// A fit that is not ok: no curve, and why, at the top left of the plot (issue 15).
+void SeriesChart::drawFitNote() {
+    m_fitNote = new QCPItemText(m_plot);
+    m_fitNote->setClipToAxisRect(true);
+    m_fitNote->position->setType(QCPItemPosition::ptAxisRectRatio);
+    m_fitNote->position->setCoords(0.01, 0.02);
+    m_fitNote->setPositionAlignment(Qt::AlignLeft | Qt::AlignTop);
+    m_fitNote->setTextAlignment(Qt::AlignLeft);
+    m_fitNote->setPadding(QMargins(6, 4, 6, 4));
+    m_fitNote->setBrush(QBrush(QColor(255, 255, 255, 230)));
+    m_fitNote->setPen(QPen(plot_style::kInk));
+    m_fitNote->setColor(plot_style::kInk);
+    m_fitNote->setSelectable(false);
+    m_fitNote->setText(m_view.fit->notDrawn);
+    if (m_liveLayer)
+        m_fitNote->setLayer(m_liveLayer);
+}
+
+QString SeriesChart::fitNote() const {
+    return m_fitNote ? m_fitNote->text() : QString();
+}
+
 void SeriesChart::drawFit() {
+    if (m_view.fit && !m_view.fit->notDrawn.isEmpty()) {
+        drawFitNote();
+        return;
+    }
     if (!m_view.fit || m_view.fit->mid.empty())
         return;
     const QVector<double> keys = keysOf(m_view);
@@ -269,6 +296,9 @@ void SeriesChart::removeFitGraphs() {
         if (graph)
             m_plot->removeGraph(graph);
     m_fitLow = m_fitHigh = m_fitMid = nullptr;
+    if (m_fitNote)
+        m_plot->removeItem(m_fitNote);
+    m_fitNote = nullptr;
 }
 
 void SeriesChart::setFit(const std::optional<FittedCurve>& fit) {
@@ -290,11 +320,11 @@ void SeriesChart::setFit(const std::optional<FittedCurve>& fit) {
             m_fitHigh->setData(keys, toVector(fit->high, m_view.periods()), true);
         }
     } else {
-        const bool hadGraphs = m_fitMid != nullptr;
+        const bool hadGraphs = m_fitMid != nullptr || m_fitNote != nullptr;
         removeFitGraphs();
         drawFit();
-        if (hadGraphs || m_fitMid)
-            ++m_fullReplotRevision;  // legend entries came or went
+        if (hadGraphs || m_fitMid || m_fitNote)
+            ++m_fullReplotRevision;  // legend entries (or the note) came or went
     }
     rescaleValueAxis();
 }

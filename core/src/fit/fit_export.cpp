@@ -118,7 +118,7 @@ json fitToJson(std::string_view region, const FitResult& f,
         {"last", f.periodStart(d.observedRiseLast).iso()},
         {"method", "log-linear Poisson regression (quasi-Poisson when overdispersed)"},
         {"note", d.observedDoublingNote.empty() ? json(nullptr) : json(d.observedDoublingNote)}};
-    j["model_doubling_time_at_start_days"] = number(d.doublingTimeDays.value);
+    j["model_doubling_time_at_fastest_growth_days"] = number(d.doublingTimeDays.value);
     j["peak_infectious_load"] = number(d.peakInfectiousLoad.value);
     j["peak_infectious_load_per_100k"] =
         d.peakInfectiousLoadPer100k ? number(d.peakInfectiousLoadPer100k->value) : json(nullptr);
@@ -139,7 +139,7 @@ json fitToJson(std::string_view region, const FitResult& f,
         {"start_date_ci95", dateInterval(f, d.startDay)},
         {"end_date_ci95", dateInterval(f, d.endDay)},
         {"doubling_time_days", estimateJson(d.observedDoublingTimeDays)},
-        {"model_doubling_time_at_start_days", estimateJson(d.doublingTimeDays)},
+        {"model_doubling_time_at_fastest_growth_days", estimateJson(d.doublingTimeDays)},
         {"peak_infectious_load", estimateJson(d.peakInfectiousLoad)},
     };
     if (!f.weekdayFactors.empty())
