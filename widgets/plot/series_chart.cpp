@@ -3,6 +3,7 @@
 #include "widgets/plot/plot_style.h"
 #include "widgets/plot/qcustomplot_include.h"
 
+#include <QFontMetrics>
 #include <QLocale>
 
 #include <algorithm>
@@ -226,22 +227,47 @@ void SeriesChart::drawSecondMeasure(const QVector<double>& keys) {
     }
 }
 
-// A fit that is not ok: no curve, and why, at the top left of the plot (issue 15).
+namespace {
+
+// Greedy word wrap of each line of `text` to `width` pixels in `metrics`.
+QString wrapToWidth(const QString& text, const QFontMetrics& metrics, int width) {
+    QStringList out;
+    for (const QString& paragraph : text.split(QLatin1Char('\n'))) {
+        QString line;
+        for (const QString& word : paragraph.split(QLatin1Char(' '))) {
+            const QString longer = line.isEmpty() ? word : line + QLatin1Char(' ') + word;
+            if (!line.isEmpty() && metrics.horizontalAdvance(longer) > width) {
+                out << line;
+                line = QStringLiteral("  ") + word;  // continuation lines indented
+            } else {
+                line = longer;
+            }
+        }
+        out << line;
+    }
+    return out.join(QLatin1Char('\n'));
+}
+
+}  // namespace
+
+// A fit that is not ok: no curve, and why (issue 15), at the top right of the plot, clear of the
+// legend at the top left, wrapped to half the plot's width.
 void SeriesChart::drawFitNote() {
     m_fitNote = new QCPItemText(m_plot);
     m_fitNote->setClipToAxisRect(true);
     m_fitNote->position->setType(QCPItemPosition::ptAxisRectRatio);
-    m_fitNote->position->setCoords(0.01, 0.02);
-    m_fitNote->setPositionAlignment(Qt::AlignLeft | Qt::AlignTop);
+    m_fitNote->position->setCoords(0.99, 0.02);
+    m_fitNote->setPositionAlignment(Qt::AlignRight | Qt::AlignTop);
     m_fitNote->setTextAlignment(Qt::AlignLeft);
     m_fitNote->setPadding(QMargins(6, 4, 6, 4));
-    m_fitNote->setBrush(QBrush(QColor(255, 255, 255, 230)));
+    m_fitNote->setBrush(QBrush(QColor(255, 255, 255, 235)));
     m_fitNote->setPen(QPen(plot_style::kInk));
     m_fitNote->setColor(plot_style::kInk);
     m_fitNote->setSelectable(false);
-    m_fitNote->setText(m_view.fit->notDrawn);
-    if (m_liveLayer)
-        m_fitNote->setLayer(m_liveLayer);
+    const int width = std::max(260, m_plot->axisRect()->width() / 2 - 20);
+    m_fitNote->setText(wrapToWidth(m_view.fit->notDrawn, QFontMetrics(m_fitNote->font()), width));
+    // Above the curves and the window's edges, as the legend is (a full replot redraws it).
+    m_fitNote->setLayer(QStringLiteral("legend"));
 }
 
 QString SeriesChart::fitNote() const {

@@ -98,7 +98,8 @@ public:
     /// Grows whenever something outside the live layer changed since the last draw.
     int fullReplotRevision() const { return m_fullReplotRevision; }
 
-    /// The note in place of a curve for a fit that is not ok; empty when there is none.
+    /// The note in place of a curve for a fit that is not ok, as shown (wrapped to the plot,
+    /// continuation lines indented by two spaces); empty when there is none.
     QString fitNote() const;
 
 private:
