@@ -11,11 +11,15 @@
 #include <benchmark/benchmark.h>
 #include <nlohmann/json.hpp>
 
+#include <algorithm>
 #include <chrono>
 #include <cmath>
 #include <cstdio>
 #include <ctime>
+#include <map>
+#include <mutex>
 #include <random>
+#include <thread>
 
 namespace {
 
@@ -123,6 +127,34 @@ void BM_FitAllRegions(benchmark::State& state) {
 }
 BENCHMARK(BM_FitAllRegions)->Arg(1)->Arg(2)->Unit(benchmark::kMillisecond)->UseRealTime();
 
+// Each worker's CPU time, read on the worker as it formats a region (a worker thread lives for
+// one batch, so its clock starts at the batch). sum / max is the speed-up the batch would get if
+// each worker had a core of its own: how evenly the work is split, whatever else the machine runs.
+class WorkerClocks {
+public:
+    void record() {
+        timespec t{};
+        clock_gettime(CLOCK_THREAD_CPUTIME_ID, &t);
+        const double seconds =
+            static_cast<double>(t.tv_sec) + 1e-9 * static_cast<double>(t.tv_nsec);
+        const std::lock_guard lock(m_mutex);
+        m_seconds[std::this_thread::get_id()] = seconds;
+    }
+    double balancedSpeedup() const {
+        double sum = 0, most = 0;
+        for (const auto& [id, s] : m_seconds) {
+            sum += s;
+            most = std::max(most, s);
+        }
+        return most > 0 ? sum / most : 0.0;
+    }
+    void clear() { m_seconds.clear(); }
+
+private:
+    std::mutex m_mutex;
+    std::map<std::thread::id, double> m_seconds;
+};
+
 // What `fit --all --json` does after reading the drop: fit, format each region's JSON on its
 // worker, hand it in order to a sink (here one that counts the bytes instead of writing them).
 void BM_FitAllRegionsJson(benchmark::State& state) {
@@ -130,21 +162,29 @@ void BM_FitAllRegionsJson(benchmark::State& state) {
     fit::BatchOptions options;
     options.threads = static_cast<int>(state.range(0));
     std::size_t bytes = 0;
+    WorkerClocks clocks;
+    double balanced = 0;
     const double cpu0 = processCpuSeconds();
     const auto wall0 = std::chrono::steady_clock::now();
     for (auto _ : state) {
         bytes = 0;
+        clocks.clear();
         const auto tally = fit::fitRegionsStreamed(
             regions, options,
-            [](const fit::RegionFit& r) -> std::string {
-                return r.fit ? fit::fitToJson(r.region, *r.fit, r.comparison, false).dump(2)
-                             : std::string("{}");
+            [&](const fit::RegionFit& r) -> std::string {
+                std::string text =
+                    r.fit ? fit::fitToJson(r.region, *r.fit, r.comparison, false).dump(2)
+                          : std::string("{}");
+                clocks.record();
+                return text;
             },
             [&](std::size_t, std::string_view text) { bytes += text.size(); });
         benchmark::DoNotOptimize(tally);
+        balanced = clocks.balancedSpeedup();
     }
     const std::chrono::duration<double> wall = std::chrono::steady_clock::now() - wall0;
     state.counters["cores_busy"] = (processCpuSeconds() - cpu0) / wall.count();
+    state.counters["balanced_speedup"] = balanced;
     state.counters["regions"] = static_cast<double>(regions.size());
     state.counters["json_bytes"] = static_cast<double>(bytes);
 }
