@@ -190,6 +190,35 @@ void BM_FitAllRegionsJson(benchmark::State& state) {
 }
 BENCHMARK(BM_FitAllRegionsJson)->Arg(1)->Arg(2)->Unit(benchmark::kMillisecond)->UseRealTime();
 
+// The control for the two-worker figures: a fixed amount of arithmetic with no memory traffic
+// and no shared state, split over 1 or 2 threads. Its own speed-up is what the machine gives
+// two threads at that moment (on a shared or hyper-threaded host, well below 2): read the
+// batch's speed-up against it.
+void BM_ParallelControl(benchmark::State& state) {
+    const int threads = static_cast<int>(state.range(0));
+    constexpr long kTotal = 60'000'000;
+    double sink = 0;
+    for (auto _ : state) {
+        std::vector<double> parts(static_cast<std::size_t>(threads));
+        auto spin = [&](int t) {
+            double x = 0;
+            for (long i = 0; i < kTotal / threads; ++i)
+                x += static_cast<double>(i) * 1e-9;
+            parts[static_cast<std::size_t>(t)] = x;
+        };
+        std::vector<std::thread> pool;
+        for (int t = 1; t < threads; ++t)
+            pool.emplace_back(spin, t);
+        spin(0);
+        for (auto& th : pool)
+            th.join();
+        for (const double x : parts)
+            sink += x;
+    }
+    benchmark::DoNotOptimize(sink);
+}
+BENCHMARK(BM_ParallelControl)->Arg(1)->Arg(2)->Unit(benchmark::kMillisecond)->UseRealTime();
+
 // One region fitted again and again with one workspace, as the workbench refits while a window
 // is dragged (fit::FitWorkspace: the buffers are made once).
 void BM_FitOneRegion(benchmark::State& state) {
