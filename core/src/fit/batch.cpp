@@ -49,8 +49,8 @@ void runOnWorkers(std::size_t n, unsigned threads, Job&& job) {
     std::exception_ptr failure;
     std::mutex failureMutex;
     auto work = [&]() {
-        FitWorkspace workspace;
         try {
+            FitWorkspace workspace;
             for (std::size_t i = next.fetch_add(1); i < n && !stop; i = next.fetch_add(1))
                 job(i, workspace);
         } catch (...) {
