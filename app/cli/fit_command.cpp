@@ -12,33 +12,58 @@
 #include <algorithm>
 #include <array>
 #include <cmath>
+#include <cstdarg>
 #include <cstdio>
 #include <cstdlib>
 #include <limits>
 #include <string>
+#include <unordered_map>
 #include <variant>
 #include <vector>
 
 namespace siftwave::cli {
 namespace {
 
+// printf at the end of `out`.
+[[gnu::format(printf, 2, 3)]] void appendf(std::string& out, const char* format, ...) {
+    char buffer[512];
+    std::va_list args;
+    va_start(args, format);
+    const int n = std::vsnprintf(buffer, sizeof buffer, format, args);
+    va_end(args);
+    if (n < 0)
+        return;
+    if (static_cast<std::size_t>(n) < sizeof buffer) {
+        out.append(buffer, static_cast<std::size_t>(n));
+        return;
+    }
+    const std::size_t old = out.size();
+    out.resize(old + static_cast<std::size_t>(n) + 1);
+    va_start(args, format);
+    std::vsnprintf(out.data() + old, static_cast<std::size_t>(n) + 1, format, args);
+    va_end(args);
+    out.resize(old + static_cast<std::size_t>(n));
+}
+
 // The status line of a region (issue 15): its name and, when not ok, the reasons.
-void printStatus(const fit::RegionFit& r) {
+void appendStatus(std::string& out, const fit::RegionFit& r) {
     const fit::FitStatus status = fit::regionStatus(r);
-    std::printf("  status          %s\n", fit::fitStatusName(status));
+    appendf(out, "  status          %s\n", fit::fitStatusName(status));
     if (status == fit::FitStatus::Ok)
         return;
     for (const auto& why : fit::regionStatusReasons(r))
-        std::printf("    - %s\n", terminalText(why).c_str());
-    std::printf("    try %s\n", fit::fitStatusAdvice(status));
+        appendf(out, "    - %s\n", terminalText(why).c_str());
+    appendf(out, "    try %s\n", fit::fitStatusAdvice(status));
 }
 
-void printText(const fit::RegionFit& r, const TimeAxis& axis) {
+// One region as text (made on the worker that fitted it with --all).
+std::string regionText(const fit::RegionFit& r, const TimeAxis& axis) {
+    std::string out;
     if (!r.fit) {
-        std::printf("%s: fit failed: %s\n", terminalText(r.region).c_str(),
-                    terminalText(r.error ? r.error->message : std::string()).c_str());
-        printStatus(r);
-        return;
+        appendf(out, "%s: fit failed: %s\n", terminalText(r.region).c_str(),
+                terminalText(r.error ? r.error->message : std::string()).c_str());
+        appendStatus(out, r);
+        return out;
     }
     const auto& f = *r.fit;
     const auto& d = f.derived;
@@ -46,59 +71,59 @@ void printText(const fit::RegionFit& r, const TimeAxis& axis) {
         return std::isfinite(day) ? f.dateOf(day).iso() : std::string("-");
     };
     if (axis.weekly()) {
-        std::printf("%s: %s by %s, window %s .. %s (%d weeks, %s to %s)\n",
-                    terminalText(r.region).c_str(), fit::modelName(f.model),
-                    fit::methodName(f.method), axis.periodName(f.first).c_str(),
-                    axis.periodName(f.last).c_str(), f.last - f.first + 1,
-                    axis.periodStart(f.first).iso().c_str(), axis.periodEnd(f.last).iso().c_str());
+        appendf(out, "%s: %s by %s, window %s .. %s (%d weeks, %s to %s)\n",
+                terminalText(r.region).c_str(), fit::modelName(f.model), fit::methodName(f.method),
+                axis.periodName(f.first).c_str(), axis.periodName(f.last).c_str(),
+                f.last - f.first + 1, axis.periodStart(f.first).iso().c_str(),
+                axis.periodEnd(f.last).iso().c_str());
     } else {
-        std::printf("%s: %s by %s, window %s .. %s (%d days)\n", terminalText(r.region).c_str(),
-                    fit::modelName(f.model), fit::methodName(f.method),
-                    f.windowFirst().iso().c_str(), f.windowLast().iso().c_str(),
-                    f.last - f.first + 1);
+        appendf(out, "%s: %s by %s, window %s .. %s (%d days)\n", terminalText(r.region).c_str(),
+                fit::modelName(f.model), fit::methodName(f.method), f.windowFirst().iso().c_str(),
+                f.windowLast().iso().c_str(), f.last - f.first + 1);
     }
     for (const auto& p : f.parameters) {
-        std::printf("  %-6s %12.4g  se %10.3g  95%% [%.4g, %.4g]\n", p.name.c_str(),
-                    p.estimate.value, p.estimate.se, p.estimate.lower, p.estimate.upper);
+        appendf(out, "  %-6s %12.4g  se %10.3g  95%% [%.4g, %.4g]\n", p.name.c_str(),
+                p.estimate.value, p.estimate.se, p.estimate.lower, p.estimate.upper);
     }
-    std::printf("  peak            %s (95%% %s .. %s), %.1f cases/%s\n",
-                date(d.peakDay.value).c_str(), date(d.peakDay.lower).c_str(),
-                date(d.peakDay.upper).c_str(), d.peakIncidence.value, f.incidenceUnit());
-    std::printf("  wave size K     %.0f (95%% %.0f .. %.0f), %.1f%% observed\n", d.waveSize.value,
-                d.waveSize.lower, d.waveSize.upper, 100.0 * d.fractionObserved.value);
-    std::printf("  start .. end    %s .. %s\n", date(d.startDay.value).c_str(),
-                date(d.endDay.value).c_str());
-    std::printf("  fastest growth  %s\n", date(d.fastestGrowthDay.value).c_str());
+    appendf(out, "  peak            %s (95%% %s .. %s), %.1f cases/%s\n",
+            date(d.peakDay.value).c_str(), date(d.peakDay.lower).c_str(),
+            date(d.peakDay.upper).c_str(), d.peakIncidence.value, f.incidenceUnit());
+    appendf(out, "  wave size K     %.0f (95%% %.0f .. %.0f), %.1f%% observed\n", d.waveSize.value,
+            d.waveSize.lower, d.waveSize.upper, 100.0 * d.fractionObserved.value);
+    appendf(out, "  start .. end    %s .. %s\n", date(d.startDay.value).c_str(),
+            date(d.endDay.value).c_str());
+    appendf(out, "  fastest growth  %s\n", date(d.fastestGrowthDay.value).c_str());
     if (std::isfinite(d.observedDoublingTimeDays.value)) {
-        std::printf(
-            "  doubling time   %.1f days (95%% %.1f .. %.1f) on the observed rise %s .. %s "
-            "(log-linear Poisson)\n",
-            d.observedDoublingTimeDays.value, d.observedDoublingTimeDays.lower,
-            d.observedDoublingTimeDays.upper, f.periodStart(d.observedRiseFirst).iso().c_str(),
-            f.periodStart(d.observedRiseLast).iso().c_str());
+        appendf(out,
+                "  doubling time   %.1f days (95%% %.1f .. %.1f) on the observed rise %s .. %s "
+                "(log-linear Poisson)\n",
+                d.observedDoublingTimeDays.value, d.observedDoublingTimeDays.lower,
+                d.observedDoublingTimeDays.upper, f.periodStart(d.observedRiseFirst).iso().c_str(),
+                f.periodStart(d.observedRiseLast).iso().c_str());
     } else {
-        std::printf("  doubling time   - (%s)\n", d.observedDoublingNote.c_str());
+        appendf(out, "  doubling time   - (%s)\n", d.observedDoublingNote.c_str());
     }
-    std::printf("  model's instantaneous doubling time at its start day %.1f days\n",
-                d.doublingTimeDays.value);
-    std::printf("  infectious load %.0f (%d-day window)", d.peakInfectiousLoad.value,
-                f.options.infectiousWindowDays);
+    appendf(out, "  model's instantaneous doubling time at its fastest growth (%s) %.1f days\n",
+            date(d.fastestGrowthDay.value).c_str(), d.doublingTimeDays.value);
+    appendf(out, "  infectious load %.0f (%d-day window)", d.peakInfectiousLoad.value,
+            f.options.infectiousWindowDays);
     if (d.peakInfectiousLoadPer100k) {
-        std::printf(", %.1f per 100,000, log10 share %.2f", d.peakInfectiousLoadPer100k->value,
-                    d.log10InfectiousShare->value);
+        appendf(out, ", %.1f per 100,000, log10 share %.2f", d.peakInfectiousLoadPer100k->value,
+                d.log10InfectiousShare->value);
     }
-    std::printf("\n  fit             R2 %.4f, RMSE %.3g, AIC %.1f, AICc %.1f; %s\n", f.goodness.r2,
-                f.goodness.rmse, f.goodness.aic, f.goodness.aicc, f.summary.brief().c_str());
-    printStatus(r);
+    appendf(out, "\n  fit             R2 %.4f, RMSE %.3g, AIC %.1f, AICc %.1f; %s\n", f.goodness.r2,
+            f.goodness.rmse, f.goodness.aic, f.goodness.aicc, f.summary.brief().c_str());
+    appendStatus(out, r);
     for (const auto& row : r.comparison) {
         if (row.fit) {
-            std::printf("    %-10s AICc %10.1f  R2 %.4f%s\n", fit::modelName(row.model),
-                        row.fit->goodness.aicc, row.fit->goodness.r2,
-                        row.fit->summary.converged() ? "" : "  (not converged)");
+            appendf(out, "    %-10s AICc %10.1f  R2 %.4f%s\n", fit::modelName(row.model),
+                    row.fit->goodness.aicc, row.fit->goodness.r2,
+                    row.fit->summary.converged() ? "" : "  (not converged)");
         } else {
-            std::printf("    %-10s failed: %s\n", fit::modelName(row.model), row.error.c_str());
+            appendf(out, "    %-10s failed: %s\n", fit::modelName(row.model), row.error.c_str());
         }
     }
+    return out;
 }
 
 Result<std::pair<int, int>> parseWindow(const std::string& text, const Drop& drop) {
@@ -252,24 +277,32 @@ std::vector<fit::RegionSeries> regionSeries(const SeriesJob& job,
 
 enum class OutputFormat { Text, Json, Csv };
 
-// Per region (in the job's order), the note saying its series is nowcast-completed by a ledger
-// entry (nowcast_completion.h), or nullopt.
-using CompletionNotes = std::vector<std::optional<std::string>>;
+// Per region code, the note saying its series is nowcast-completed by a ledger entry
+// (nowcast_completion.h); regions without one are absent.
+using CompletionNotes = std::unordered_map<std::string, std::string>;
 
 CompletionNotes completionNotes(const SeriesJob& job) {
     CompletionNotes notes;
-    for (std::size_t r : job.indices)
-        notes.push_back(nowcastCompletionNote(job, r));
+    for (std::size_t r : job.indices) {
+        if (std::optional<std::string> note = nowcastCompletionNote(job, r))
+            notes.emplace(job.drop.regionCodes[r], std::move(*note));
+    }
     return notes;
 }
 
-bool anyNote(const CompletionNotes& notes) {
-    return std::any_of(notes.begin(), notes.end(), [](const auto& n) { return n.has_value(); });
+const std::string* noteOf(const CompletionNotes& notes, const std::string& region) {
+    const auto it = notes.find(region);
+    return it == notes.end() ? nullptr : &it->second;
 }
 
-// The fit's JSON, with "nowcast_completed" (the note) when the series was completed.
-nlohmann::json regionJson(const fit::RegionFit& r, const std::optional<std::string>& note,
-                          bool withCurve) {
+// One region's JSON object: its fit, or its status and error; with "nowcast_completed" (the
+// note) and the nowcast's caution when its series was completed.
+nlohmann::json regionJson(const fit::RegionFit& r, const std::string* note, bool withCurve) {
+    if (!r.fit)
+        return {{"region", r.region},
+                {"status", fit::fitStatusName(fit::regionStatus(r))},
+                {"status_reasons", fit::regionStatusReasons(r)},
+                {"error", errorToJson(*r.error)}};
     nlohmann::json j = fit::fitToJson(r.region, *r.fit, r.comparison, withCurve);
     if (note) {
         j["nowcast_completed"] = *note;
@@ -278,56 +311,101 @@ nlohmann::json regionJson(const fit::RegionFit& r, const std::optional<std::stri
     return j;
 }
 
-// The results as JSON (one object for --region, an array for --all), CSV rows or text, with
-// the caution, and for a nowcast-completed series the note and the nowcast's caution.
-void printResults(const std::vector<fit::RegionFit>& results, const CompletionNotes& notes,
-                  OutputFormat format, bool single, bool withCurve, const TimeAxis& axis) {
+// The text block of one region, with the note of a nowcast-completed series.
+std::string regionTextWithNote(const fit::RegionFit& r, const std::string* note,
+                               const TimeAxis& axis) {
+    std::string text = regionText(r, axis);
+    if (note)
+        text += "  note            " + *note + "\n";
+    return text;
+}
+
+// One region's output with --all, made on the worker that fitted it: a JSON array element
+// (indented as the element of an array printed whole), a CSV row or the text block.
+std::string formatRegion(const fit::RegionFit& r, const std::string* note, OutputFormat format,
+                         bool withCurve, const TimeAxis& axis) {
+    if (format == OutputFormat::Csv)
+        return fit::fitCsvRow(r) + "\n";
+    if (format == OutputFormat::Text)
+        return regionTextWithNote(r, note, axis);
+    const std::string text =
+        terminalSafeJson(regionJson(r, note, withCurve)
+                             .dump(2, ' ', false, nlohmann::json::error_handler_t::replace));
+    // A raw line break only occurs between JSON tokens (strings escape theirs): indent each line.
+    std::string out = "  ";
+    out.reserve(text.size() + text.size() / 8);
+    for (const char c : text) {
+        out += c;
+        if (c == '\n')
+            out += "  ";
+    }
+    return out;
+}
+
+// CSV keeps its columns: the notes of nowcast-completed series go to stderr, with the caution.
+void printCsvNotes(const CompletionNotes& notes) {
+    for (const auto& [region, note] : notes)
+        std::fprintf(stderr, "siftwave-cli: %s: %s\n", terminalText(region).c_str(), note.c_str());
+}
+
+// One region (--region): its JSON, CSV row or text, with the caution (and the nowcast's when
+// its series was completed).
+void printOne(const fit::RegionFit& r, const CompletionNotes& notes, OutputFormat format,
+              bool withCurve, const TimeAxis& axis) {
+    const std::string* note = noteOf(notes, r.region);
     if (format == OutputFormat::Json) {
-        if (single) {
-            printJson(regionJson(results[0], notes[0], withCurve));
-            return;
-        }
-        nlohmann::json all = nlohmann::json::array();
-        for (std::size_t k = 0; k < results.size(); ++k) {
-            const auto& r = results[k];
-            if (r.fit) {
-                all.push_back(regionJson(r, notes[k], withCurve));
-            } else {
-                nlohmann::json e = {{"region", r.region},
-                                    {"status", fit::fitStatusName(fit::regionStatus(r))},
-                                    {"status_reasons", fit::regionStatusReasons(r)},
-                                    {"error", errorToJson(*r.error)}};
-                all.push_back(e);
-            }
-        }
-        printJson(all);
+        printJson(regionJson(r, note, withCurve));
     } else if (format == OutputFormat::Csv) {
-        std::printf("%s\n", std::string(fit::fitCsvHeader()).c_str());
-        for (std::size_t k = 0; k < results.size(); ++k) {
-            std::printf("%s\n", fit::fitCsvRow(results[k]).c_str());
-            if (notes[k])
-                std::fprintf(stderr, "siftwave-cli: %s: %s\n",
-                             terminalText(results[k].region).c_str(), notes[k]->c_str());
-        }
+        std::printf("%s\n%s\n", std::string(fit::fitCsvHeader()).c_str(),
+                    fit::fitCsvRow(r).c_str());
+        printCsvNotes(notes);
         std::fprintf(stderr, "siftwave-cli: %s\n", fit::caution);
-        if (anyNote(notes))
+        if (note)
             std::fprintf(stderr, "siftwave-cli: %s\n", nowcast::kNowcastCaution);
     } else {
-        std::array<int, 4> counts{};
-        for (std::size_t k = 0; k < results.size(); ++k) {
-            printText(results[k], axis);
-            if (notes[k])
-                std::printf("  note            %s\n", notes[k]->c_str());
-            ++counts[static_cast<std::size_t>(fit::regionStatus(results[k]))];
-        }
-        if (!single) {
-            std::printf("\n%zu regions: %d ok, %d not_converged, %d implausible, %d no_wave\n",
-                        results.size(), counts[0], counts[1], counts[2], counts[3]);
-        }
+        std::fputs(regionTextWithNote(r, note, axis).c_str(), stdout);
         std::printf("\nCaution: %s\n", fit::caution);
-        if (anyNote(notes))
+        if (note)
             std::printf("Caution: %s\n", nowcast::kNowcastCaution);
     }
+}
+
+// Every region (--all), fitted in parallel, each written as soon as it and those before it are
+// done (issue 15: no document of every region is built); a JSON array, CSV rows or text blocks
+// with the count per status, and the caution.
+void fitAndPrintAll(std::span<const fit::RegionSeries> regions, const fit::BatchOptions& batch,
+                    const CompletionNotes& notes, OutputFormat format, bool withCurve,
+                    const TimeAxis& axis) {
+    if (format == OutputFormat::Json)
+        std::fputs("[\n", stdout);
+    else if (format == OutputFormat::Csv)
+        std::printf("%s\n", std::string(fit::fitCsvHeader()).c_str());
+    const fit::BatchTally tally = fit::fitRegionsStreamed(
+        regions, batch,
+        [&](const fit::RegionFit& r) {
+            return formatRegion(r, noteOf(notes, r.region), format, withCurve, axis);
+        },
+        [&](std::size_t index, std::string_view text) {
+            if (format == OutputFormat::Json && index > 0)
+                std::fputs(",\n", stdout);
+            std::fwrite(text.data(), 1, text.size(), stdout);
+        });
+    if (format == OutputFormat::Json) {
+        std::fputs(tally.regions > 0 ? "\n]\n" : "]\n", stdout);
+    } else if (format == OutputFormat::Csv) {
+        printCsvNotes(notes);
+        std::fprintf(stderr, "siftwave-cli: %s\n", fit::caution);
+        if (!notes.empty())
+            std::fprintf(stderr, "siftwave-cli: %s\n", nowcast::kNowcastCaution);
+    } else {
+        const auto& n = tally.perStatus;
+        std::printf("\n%zu regions: %d ok, %d not_converged, %d implausible, %d no_wave\n",
+                    tally.regions, n[0], n[1], n[2], n[3]);
+        std::printf("\nCaution: %s\n", fit::caution);
+        if (!notes.empty())
+            std::printf("Caution: %s\n", nowcast::kNowcastCaution);
+    }
+    std::fflush(stdout);
 }
 
 // Reads the drop, the register, the ledger and the regions the flags name, and fits the
@@ -388,21 +466,23 @@ int runFit(int argc, char** argv, int first) {
     const SeriesJob& j = std::get<SeriesJob>(job);
     std::vector<std::vector<double>> counts;
     const auto regions = regionSeries(j, counts);
+    const OutputFormat format =
+        json ? OutputFormat::Json : (csv ? OutputFormat::Csv : OutputFormat::Text);
+    if (args->has("all")) {
+        fitAndPrintAll(regions, batch, completionNotes(j), format, withCurve, j.drop.axis);
+        return kExitOk;
+    }
     const auto results = fit::fitRegions(regions, batch);
-
-    const bool single = args->has("region");
     const fit::FitStatus status = fit::regionStatus(results[0]);
-    if (single && !results[0].fit) {
+    if (!results[0].fit) {
         printError(*results[0].error, json);
         std::fprintf(stderr, "siftwave-cli: status %s; try %s\n", fit::fitStatusName(status),
                      fit::fitStatusAdvice(status));
         return kExitBadInput;
     }
-    const OutputFormat format =
-        json ? OutputFormat::Json : (csv ? OutputFormat::Csv : OutputFormat::Text);
-    printResults(results, completionNotes(j), format, single, withCurve, j.drop.axis);
+    printOne(results[0], completionNotes(j), format, withCurve, j.drop.axis);
     // One region: anything but ok exits 1, with the reasons and what to try (issue 15).
-    if (single && status != fit::FitStatus::Ok) {
+    if (status != fit::FitStatus::Ok) {
         std::string reasons;
         for (const auto& why : fit::regionStatusReasons(results[0]))
             reasons += (reasons.empty() ? "" : "; ") + why;

@@ -12,6 +12,7 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <numbers>
 
 namespace siftwave::fit {
 namespace {
@@ -52,7 +53,8 @@ Coverage coverage(FitMethod method, bool weekdays) {
         c.height += covers(d.peakIncidence, g.K / (g.beta * std::exp(1.0)));
         c.start += covers(d.startDay, g.mu - g.beta * std::log(-std::log(q0)));
         c.end += covers(d.endDay, g.mu - g.beta * std::log(-std::log(q1)));
-        c.doubling += covers(d.doublingTimeDays, g.beta * std::log(2.0) / (-std::log(q0) - 1.0));
+        // At the fastest growth: beta ln 2 / golden ratio (fit_derived_values_test.cpp).
+        c.doubling += covers(d.doublingTimeDays, g.beta * std::log(2.0) / std::numbers::phi);
     }
     return c;
 }

@@ -6,8 +6,9 @@
 //   e-Handbook of Statistical Methods, section 1.3.6.6.16, "Extreme Value Type I Distribution",
 //   cited from memory); with u = exp(-z), f'(t) = 0 at u = 1 and f''(t) = 0 at
 //   u^2 - 3u + 1 = 0, the rising inflection u = (3 + sqrt 5) / 2; the growth rate
-//   d ln f / dt = (u - 1) / beta, so the doubling time at the start quantile q is
-//   beta ln 2 / (-ln q - 1) (derived here from the density, no source needed).
+//   d ln f / dt = (u - 1) / beta, so the model's instantaneous doubling time at the fastest
+//   growth (u = (3 + sqrt 5) / 2) is beta ln 2 / ((1 + sqrt 5) / 2) = beta ln 2 / phi (derived
+//   here from the density, no source needed).
 // The peak infectious load (the largest W-day rolling sum of the incidence over days) is found
 // independently by summing the closed-form density over every day.
 // Also: fitting the waves of a series one by one, and the options' validation.
@@ -71,8 +72,12 @@ void checkDerivedValues(const Truth& g, int days, double population) {
     EXPECT_NEAR(d.fastestGrowthDay.value, g.mu - g.beta * std::log((3.0 + std::sqrt(5.0)) / 2.0),
                 1e-5)
         << "fastest growth";
-    expectRelative(d.doublingTimeDays.value, g.beta * std::numbers::ln2 / (-std::log(q0) - 1.0),
-                   1e-5, "doubling time at the start");
+    // The model's instantaneous doubling time at its fastest growth. Hand derivation from the
+    // Gumbel density: with u = exp(-(t - mu) / beta), f is proportional to u exp(-u), so
+    // d log f / dt = (u - 1) / beta; f' peaks where u = (3 + sqrt 5) / 2 (the fastest-growth
+    // check above), where the rate is (1 + sqrt 5) / (2 beta): doubling = beta ln 2 / golden ratio.
+    expectRelative(d.doublingTimeDays.value, g.beta * std::numbers::ln2 / std::numbers::phi, 1e-5,
+                   "model's doubling time at its fastest growth");
 
     // C at the middle of the last day with data, over K.
     expectRelative(d.fractionObserved.value, gumbelC(days - 1 + 0.5, g.K, g.mu, g.beta) / g.K, tol,

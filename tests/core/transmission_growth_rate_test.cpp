@@ -138,6 +138,31 @@ TEST(TransmissionGrowthRate, ThinOrBrokenWindowsAreReasons) {
     EXPECT_NE(e.reason.find("does not converge"), std::string::npos) << e.reason;
 }
 
+// The single-window entry point is the same regression as the sliding one: every period's
+// estimate, reason and interval are the same (bit for bit: one code path), weekday terms too.
+TEST(TransmissionGrowthRate, OneWindowEqualsTheSlidingEstimateAtItsLastPeriod) {
+    const std::vector<double> y{3,  5,  4,  9,   12,  10,  19,  25,  21,  40,  38,  55,  61,
+                                58, 90, 84, 120, 131, 118, 170, 160, 240, 230, 199, 310, 280};
+    for (const bool weekdays : {false, true}) {
+        GrowthOptions o;
+        o.window = weekdays ? 14 : 7;
+        o.weekdayTerms = weekdays;
+        const TimeAxis axis = dailyAxis(y.size());
+        const auto all = growthRates(y, axis, o);
+        for (std::size_t t = 0; t < y.size(); ++t) {
+            const GrowthEstimate one = growthRateAt(y, axis, static_cast<std::int32_t>(t), o);
+            EXPECT_EQ(one.reason, all[t].reason) << "t " << t;
+            if (!one.ok())
+                continue;
+            EXPECT_EQ(one.r.value, all[t].r.value) << "t " << t;
+            EXPECT_EQ(one.r.lower, all[t].r.lower) << "t " << t;
+            EXPECT_EQ(one.se, all[t].se) << "t " << t;
+            EXPECT_EQ(one.dispersion, all[t].dispersion) << "t " << t;
+            EXPECT_EQ(one.doublingDays.upper, all[t].doublingDays.upper) << "t " << t;
+        }
+    }
+}
+
 TEST(TransmissionGrowthRate, OptionsAreValidatedForTheCadence) {
     GrowthOptions o;
     o.weekdayTerms = true;

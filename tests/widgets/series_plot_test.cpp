@@ -5,11 +5,14 @@
 #include "widgets/plot/series_chart.h"
 #include "widgets/plot/series_view.h"
 
+#include "siftwave/fit/fit.h"
+
 #include <QSignalSpy>
 #include <QTest>
 
 #include <cmath>
 #include <limits>
+#include <vector>
 
 using siftwave::Date;
 using siftwave::widgets::DayIndexRange;
@@ -241,6 +244,56 @@ private Q_SLOTS:
         plot.setFit(bare);
         QCOMPARE(canvas->legend->itemCount(), legendItems - 1);
         QTRY_COMPARE(fullReplots.count(), 2);
+    }
+
+    // Issue 15: the workbench's live fit of a fit that is not ok draws no curve, band or legend
+    // entry; a note on the plot says why (the status and each reason), as a figure's caption
+    // does; a fit that is ok again brings the curve back and the note goes.
+    void aFitThatIsNotOkDrawsNoCurveAndSaysWhy() {
+        std::vector<double> counts(60);
+        for (int i = 0; i < 60; ++i)
+            counts[static_cast<std::size_t>(i)] =
+                10 + 200.0 * std::exp(-0.5 * std::pow((i - 30) / 6.0, 2));
+        const SeriesView view = syntheticView();
+        auto fit = siftwave::fit::fitSeries({view.axis.first(), counts});
+        QVERIFY(fit.ok());
+        QCOMPARE(fit->status, siftwave::fit::FitStatus::Ok);
+        const auto drawn = siftwave::widgets::curveFromFit(*fit, view.axis);
+        QVERIFY(drawn.notDrawn.isEmpty());
+        QVERIFY(!drawn.mid.empty());
+
+        fit->status = siftwave::fit::FitStatus::Implausible;
+        fit->statusReasons = {"the 95% interval of the wave size K is wider than K",
+                              "the fitted peak lies outside the window"};
+        const auto refused = siftwave::widgets::curveFromFit(*fit, view.axis);
+        QVERIFY(refused.mid.empty() && refused.low.empty() && refused.high.empty());
+        QCOMPARE(refused.notDrawn,
+                 QStringLiteral("No curve drawn: the fit is implausible\n• the 95% interval of "
+                                "the wave size K is wider than K\n• the fitted peak lies outside "
+                                "the window"));
+
+        SeriesPlot plot;
+        QVERIFY(showOnScreen(plot));
+        plot.setView(view);
+        QCustomPlot* canvas = plot.customPlot();
+        const int legendItems = canvas->legend->itemCount();
+        const int graphs = canvas->graphCount();
+        plot.setFit(refused);
+        QCOMPARE(canvas->graphCount(), graphs);
+        QCOMPARE(canvas->legend->itemCount(), legendItems);
+        QString shown = plot.chart()->fitNote();  // wrapped to the plot's width
+        QCOMPARE(shown.replace(QStringLiteral("\n  "), QStringLiteral(" ")), refused.notDrawn);
+        QVERIFY(siftwave::widgets::hoverText(plot.view(), 30).indexOf(QStringLiteral("Fitted")) <
+                0);
+
+        plot.setFit(drawn);
+        QVERIFY(canvas->graphCount() > graphs);
+        QVERIFY(plot.chart()->fitNote().isEmpty());
+        plot.setFit(refused);
+        QCOMPARE(canvas->graphCount(), graphs);
+        QVERIFY(!plot.chart()->fitNote().isEmpty());
+        plot.setFit(std::nullopt);
+        QVERIFY(plot.chart()->fitNote().isEmpty());
     }
 
     void hoverTextNamesTheDayItsNumbersSourceAndLedgerEntries() {

@@ -467,7 +467,7 @@ QVector<TextTableModel::Row> derivedRows(const fit::FitResult& fit) {
     derived << dateRow(FitPane::tr("Fastest growth"), d.fastestGrowthDay);
     derived << valueRow(FitPane::tr("Doubling time on the observed rise (days)"),
                         d.observedDoublingTimeDays, 1);
-    derived << valueRow(FitPane::tr("Model's instantaneous doubling time at the start (days)"),
+    derived << valueRow(FitPane::tr("Model's instantaneous doubling time at its fastest growth (days)"),
                         d.doublingTimeDays, 1);
     derived << valueRow(
         FitPane::tr("Peak infectious load (%1-day cases)").arg(fit.options.infectiousWindowDays),

@@ -3,6 +3,7 @@
 #include "widgets/plot/plot_style.h"
 #include "widgets/plot/qcustomplot_include.h"
 
+#include <QFontMetrics>
 #include <QLocale>
 
 #include <algorithm>
@@ -150,6 +151,7 @@ void SeriesChart::resetDrawnState() {
     m_clippedDays.clear();
     m_preview = nullptr;
     m_fitLow = m_fitHigh = m_fitMid = nullptr;
+    m_fitNote = nullptr;
     m_windowRect = nullptr;
     m_windowStart = nullptr;
     m_windowEnd = nullptr;
@@ -225,7 +227,58 @@ void SeriesChart::drawSecondMeasure(const QVector<double>& keys) {
     }
 }
 
+namespace {
+
+// Greedy word wrap of each line of `text` to `width` pixels in `metrics`.
+QString wrapToWidth(const QString& text, const QFontMetrics& metrics, int width) {
+    QStringList out;
+    for (const QString& paragraph : text.split(QLatin1Char('\n'))) {
+        QString line;
+        for (const QString& word : paragraph.split(QLatin1Char(' '))) {
+            const QString longer = line.isEmpty() ? word : line + QLatin1Char(' ') + word;
+            if (!line.isEmpty() && metrics.horizontalAdvance(longer) > width) {
+                out << line;
+                line = QStringLiteral("  ") + word;  // continuation lines indented
+            } else {
+                line = longer;
+            }
+        }
+        out << line;
+    }
+    return out.join(QLatin1Char('\n'));
+}
+
+}  // namespace
+
+// A fit that is not ok: no curve, and why (issue 15), at the top right of the plot, clear of the
+// legend at the top left, wrapped to half the plot's width.
+void SeriesChart::drawFitNote() {
+    m_fitNote = new QCPItemText(m_plot);
+    m_fitNote->setClipToAxisRect(true);
+    m_fitNote->position->setType(QCPItemPosition::ptAxisRectRatio);
+    m_fitNote->position->setCoords(0.99, 0.02);
+    m_fitNote->setPositionAlignment(Qt::AlignRight | Qt::AlignTop);
+    m_fitNote->setTextAlignment(Qt::AlignLeft);
+    m_fitNote->setPadding(QMargins(6, 4, 6, 4));
+    m_fitNote->setBrush(QBrush(QColor(255, 255, 255, 235)));
+    m_fitNote->setPen(QPen(plot_style::kInk));
+    m_fitNote->setColor(plot_style::kInk);
+    m_fitNote->setSelectable(false);
+    const int width = std::max(260, m_plot->axisRect()->width() / 2 - 20);
+    m_fitNote->setText(wrapToWidth(m_view.fit->notDrawn, QFontMetrics(m_fitNote->font()), width));
+    // Above the curves and the window's edges, as the legend is (a full replot redraws it).
+    m_fitNote->setLayer(QStringLiteral("legend"));
+}
+
+QString SeriesChart::fitNote() const {
+    return m_fitNote ? m_fitNote->text() : QString();
+}
+
 void SeriesChart::drawFit() {
+    if (m_view.fit && !m_view.fit->notDrawn.isEmpty()) {
+        drawFitNote();
+        return;
+    }
     if (!m_view.fit || m_view.fit->mid.empty())
         return;
     const QVector<double> keys = keysOf(m_view);
@@ -269,6 +322,9 @@ void SeriesChart::removeFitGraphs() {
         if (graph)
             m_plot->removeGraph(graph);
     m_fitLow = m_fitHigh = m_fitMid = nullptr;
+    if (m_fitNote)
+        m_plot->removeItem(m_fitNote);
+    m_fitNote = nullptr;
 }
 
 void SeriesChart::setFit(const std::optional<FittedCurve>& fit) {
@@ -290,11 +346,11 @@ void SeriesChart::setFit(const std::optional<FittedCurve>& fit) {
             m_fitHigh->setData(keys, toVector(fit->high, m_view.periods()), true);
         }
     } else {
-        const bool hadGraphs = m_fitMid != nullptr;
+        const bool hadGraphs = m_fitMid != nullptr || m_fitNote != nullptr;
         removeFitGraphs();
         drawFit();
-        if (hadGraphs || m_fitMid)
-            ++m_fullReplotRevision;  // legend entries came or went
+        if (hadGraphs || m_fitMid || m_fitNote)
+            ++m_fullReplotRevision;  // legend entries (or the note) came or went
     }
     rescaleValueAxis();
 }

@@ -30,6 +30,7 @@ class QCPAxis;
 class QCPBars;
 class QCPGraph;
 class QCPItemRect;
+class QCPItemText;
 class QCPItemStraightLine;
 class QCPLayer;
 
@@ -97,6 +98,10 @@ public:
     /// Grows whenever something outside the live layer changed since the last draw.
     int fullReplotRevision() const { return m_fullReplotRevision; }
 
+    /// The note in place of a curve for a fit that is not ok, as shown (wrapped to the plot,
+    /// continuation lines indented by two spaces); empty when there is none.
+    QString fitNote() const;
+
 private:
     void resetDrawnState();
     void drawRawBars(const QVector<double>& keys);
@@ -110,6 +115,7 @@ private:
     void rescaleValueAxis();
     void orderLiveLayer();
     void removeFitGraphs();
+    void drawFitNote();
 
     QCustomPlot* m_plot;
     SeriesView m_view;
@@ -121,6 +127,7 @@ private:
     QCPGraph* m_fitLow = nullptr;  // the band's lower edge (filled up to m_fitHigh)
     QCPGraph* m_fitHigh = nullptr;
     QCPGraph* m_fitMid = nullptr;
+    QCPItemText* m_fitNote = nullptr;  // why a fit that is not ok has no curve
     QCPLayer* m_barsLayer = nullptr;
     QCPLayer* m_liveLayer = nullptr;
     int m_fullReplotRevision = 0;

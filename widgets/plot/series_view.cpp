@@ -93,6 +93,14 @@ FittedCurve curveFromFit(const fit::FitResult& fit, const TimeAxis& axis) {
     FittedCurve curve;
     curve.label = QCoreApplication::translate("SeriesView", "%1 fit (%2)")
                       .arg(modelDisplayName(fit.model), methodDisplayName(fit.method));
+    if (!spec.notDrawn.empty()) {
+        // The figure's wording (report::fittedCurveOf), one reason a line.
+        curve.notDrawn = QCoreApplication::translate("SeriesView", "No curve drawn: the fit is %1")
+                             .arg(QString::fromLatin1(fit::fitStatusName(fit.status)));
+        for (const std::string& why : fit.statusReasons)
+            curve.notDrawn += QStringLiteral("\n• ") + QString::fromStdString(why);
+        return curve;
+    }
     curve.mid = spec.mid;
     if (spec.bandNote.empty()) {
         curve.low = spec.low;

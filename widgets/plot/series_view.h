@@ -39,6 +39,9 @@ struct FittedCurve {
     std::vector<double> low;   // lower band edge, same length (may be empty)
     std::vector<double> high;  // upper band edge
     QString bandLabel;         // what the band is (legend); empty: "Fit band"
+    // Not empty: the fit's status is not ok (issue 15); mid, low and high are empty and the plot
+    // shows this note (the status and its reasons) where the curve would be.
+    QString notDrawn;
 };
 
 /// The nowcast over the last periods (report::NowcastSpec): an estimate of reports still to
@@ -90,7 +93,8 @@ SeriesView seriesViewOf(const report::PlotModel& model);
 /// The workbench's live fit on the plot's axis: the wave (NaN outside the window) and its
 /// pointwise 95% confidence band as report::fittedCurveOf() computes them for the plot model,
 /// with the screen's legend names ("Gumbel fit (least squares)"). Without a covariance the
-/// band is empty and the curve is still drawn.
+/// band is empty and the curve is still drawn. A fit whose status is not ok gives no curve, only
+/// FittedCurve::notDrawn: why (as an exported figure's caption says it).
 FittedCurve curveFromFit(const fit::FitResult& fit, const TimeAxis& axis);
 
 /// Names for people: "Gumbel", "logistic", "Richards", "log-normal"; "least squares",

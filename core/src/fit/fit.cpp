@@ -121,7 +121,9 @@ std::array<double, kDerivedCount> derive(const WaveModel& model, std::span<const
     const double scale = std::max(1e-3, d[kEnd] - d[kStart]);
     const double h = 1e-4 * scale;
     d[kFastest] = model.fastestGrowthTime(p);
-    const double f1 = model.incidenceAt(d[kStart] + h, p), f0 = model.incidenceAt(d[kStart] - h, p);
+    // The model's instantaneous doubling time at its fastest-growth day (issue 15).
+    const double f1 = model.incidenceAt(d[kFastest] + h, p),
+                 f0 = model.incidenceAt(d[kFastest] - h, p);
     const double growth = (f1 > 0 && f0 > 0) ? (std::log(f1) - std::log(f0)) / (2 * h) : kNaN;
     d[kDoubling] = growth > 0 ? std::numbers::ln2 / growth : kNaN;
     // In days for every cadence: the model's daily curve summed over W days (fit.h).
@@ -908,7 +910,7 @@ void addObservedDoubling(FitState& s, const std::array<double, kDerivedCount>& d
     options.window = n;
     const auto counts =
         s.series.counts.subspan(static_cast<std::size_t>(first), static_cast<std::size_t>(n));
-    const transmission::GrowthEstimate g = transmission::growthRates(counts, axis, options).back();
+    const transmission::GrowthEstimate g = transmission::growthRateAt(counts, axis, n - 1, options);
     if (!g.ok() || !(g.r.value > 0)) {
         dq.observedDoublingNote =
             g.ok() ? "the counts do not rise over the observed rise" : g.reason;
@@ -929,8 +931,8 @@ void noteDoublingDisagreement(FitResult& res) {
         char buf[300];
         std::snprintf(buf, sizeof buf,
                       "the doubling time on the observed rise (%.2g days, 95%% %.2g .. %.2g) and "
-                      "the model's instantaneous one at its start day (%.2g days, 95%% %.2g .. "
-                      "%.2g) disagree beyond their intervals: brief the observed one",
+                      "the model's instantaneous one at its fastest-growth day (%.2g days, 95%% "
+                      "%.2g .. %.2g) disagree beyond their intervals: brief the observed one",
                       a.value, a.lower, a.upper, b.value, b.lower, b.upper);
         res.summary.notes.push_back(buf);
     }

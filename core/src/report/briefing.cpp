@@ -93,7 +93,7 @@ std::vector<FitTableRow> fitTable(const fit::FitResult& f) {
     rows.push_back({"Start date", dateOr(f, d.startDay.value), dateInterval(f, d.startDay)});
     rows.push_back({"End date", dateOr(f, d.endDay.value), dateInterval(f, d.endDay)});
     estimateRow(rows, "Doubling time on the observed rise (days)", d.observedDoublingTimeDays, 1);
-    estimateRow(rows, "Model's instantaneous doubling time at the start (days)",
+    estimateRow(rows, "Model's instantaneous doubling time at its fastest growth (days)",
                 d.doublingTimeDays, 1);
     rows.push_back({"R squared", fixed(f.goodness.r2, 4), ""});
     rows.push_back({"AICc", fixed(f.goodness.aicc, 1), ""});

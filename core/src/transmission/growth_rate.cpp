@@ -162,4 +162,10 @@ std::vector<GrowthEstimate> growthRates(std::span<const double> counts, const Ti
     return out;
 }
 
+GrowthEstimate growthRateAt(std::span<const double> counts, const TimeAxis& axis, std::int32_t t,
+                            const GrowthOptions& options) {
+    detail::GlmWorkspace ws;
+    return detail::estimateAt(counts, t, axis, options, ws);
+}
+
 }  // namespace siftwave::transmission

@@ -69,7 +69,7 @@
 //   fraction observed = C(end of the last day with data) / K (for weekly data the last day of
 //   the last week with a count); start and end = quantiles of F
 //   (FitOptions::startQuantile/endQuantile); fastest growth = day of the largest f'(t);
-//   doubling time = ln 2 / (d ln f / dt) at the start day, in days; peak infectious load = the
+//   model's doubling time = ln 2 / (d ln f / dt) at the fastest-growth day, in days; peak infectious load = the
 //   largest rolling sum, over days d, of the fitted incidence of the W days ending on d,
 //   sum_{k=0}^{W-1} K f(d - k) (W = infectiousWindowDays, default 14: people are infectious
 //   for about ten days after infection -- common practice, no source), per 100,000 and as
@@ -170,13 +170,15 @@ struct DerivedQuantities {
     Estimate startDay;          // F = startQuantile
     Estimate endDay;            // F = endQuantile
     Estimate fastestGrowthDay;  // argmax f'
-    // The model's instantaneous doubling time: ln 2 / (d log f / dt) at the start day (F =
-    // startQuantile). A property of the fitted curve's shape, not the growth the counts showed.
+    // The model's instantaneous doubling time: ln 2 / (d log f / dt) at its fastest-growth day
+    // (fastestGrowthDay). A property of the fitted curve's shape, not the growth the counts
+    // showed (issue 15: the curve's relative growth falls from the start to the peak, so the
+    // value depends on the day it is read; observedDoublingTimeDays is the one to brief).
     Estimate doublingTimeDays;
     // The doubling time to brief (issue 15): ln 2 / r of a log-linear Poisson regression
     // (quasi-Poisson when the counts are overdispersed) of the counts over the observed rise,
     // from the start day to the peak (or the last day with data before it), by the growth-rate
-    // code of the transmission capability (transmission::growthRates over that one window), with
+    // code of the transmission capability (transmission::growthRateAt, that one window), with
     // its 95% interval (upper +infinity when r's interval holds 0). NaN when the rise is too
     // short or holds too few cases (observedDoublingNote says why).
     Estimate observedDoublingTimeDays;

@@ -75,4 +75,10 @@ struct GrowthEstimate {
 std::vector<GrowthEstimate> growthRates(std::span<const double> counts, const TimeAxis& axis,
                                         const GrowthOptions& options);
 
+/// The one estimate of the window ending on period `t` (0 <= t < counts.size()): what
+/// growthRates() gives at t, by the same regression, without the other periods' windows (for
+/// one number per wave, such as the fit's doubling time on the observed rise).
+GrowthEstimate growthRateAt(std::span<const double> counts, const TimeAxis& axis, std::int32_t t,
+                            const GrowthOptions& options);
+
 }  // namespace siftwave::transmission
