@@ -346,8 +346,10 @@ std::string placesAsLines(std::string text) {
 
 nlohmann::json withoutSourceAndPlaces(nlohmann::json j) {
     j.erase("source");
-    for (auto& w : j["warnings"])
+    for (auto& w : j["warnings"]) {  // places, also inside the texts, are the intended difference
         w.erase("place");
+        w["message"] = placesAsLines(w["message"].get<std::string>());
+    }
     return j;
 }
 

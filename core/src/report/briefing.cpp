@@ -93,8 +93,8 @@ std::vector<FitTableRow> fitTable(const fit::FitResult& f) {
     rows.push_back({"Start date", dateOr(f, d.startDay.value), dateInterval(f, d.startDay)});
     rows.push_back({"End date", dateOr(f, d.endDay.value), dateInterval(f, d.endDay)});
     estimateRow(rows, "Doubling time on the observed rise (days)", d.observedDoublingTimeDays, 1);
-    estimateRow(rows, "Model's instantaneous doubling time at the start (days)",
-                d.doublingTimeDays, 1);
+    estimateRow(rows, "Model's instantaneous doubling time at the start (days)", d.doublingTimeDays,
+                1);
     rows.push_back({"R squared", fixed(f.goodness.r2, 4), ""});
     rows.push_back({"AICc", fixed(f.goodness.aicc, 1), ""});
     rows.push_back({"Solver", f.summary.brief(), ""});
@@ -193,9 +193,12 @@ std::string headHtml(const BriefingReport& r) {
          htmlEscaped(r.title) + "</title><style>" + kStyle + "</style></head><body>\n";
     h += "<h1>" + htmlEscaped(r.title) + "</h1>\n";
     const CaptionFacts& c = r.caption;
-    h += "<p>Source <b>" + htmlEscaped(c.sourceFile) + "</b>, " + htmlEscaped(c.firstDate) +
-         " to " + htmlEscaped(c.lastDate) + ", SHA-256 " + htmlEscaped(c.dropSha256Prefix) +
-         ". Ledger: " + std::to_string(c.ledgerEntries) + " entries" +
+    h += "<p>Source <b>" + htmlEscaped(c.sourceFile) + "</b>" +
+         (c.sourceSheet.empty() ? std::string()
+                                : ", sheet <b>" + htmlEscaped(c.sourceSheet) + "</b>") +
+         ", " + htmlEscaped(c.firstDate) + " to " + htmlEscaped(c.lastDate) + ", SHA-256 " +
+         htmlEscaped(c.dropSha256Prefix) + ". Ledger: " + std::to_string(c.ledgerEntries) +
+         " entries" +
          (c.ledgerEntries ? ", head " + htmlEscaped(c.ledgerHeadPrefix) : std::string()) +
          ", chain " + (r.chainVerified ? "verified" : "NOT verified") + ". Exported " +
          htmlEscaped(c.exportDate) + " by Siftwave " + siftwaveVersion() + ".</p>\n";

@@ -32,14 +32,16 @@ inline constexpr std::size_t kHashPrefixLength = 12;
 
 struct CaptionFacts {
     std::string sourceFile;         // file name without its folders
+    std::string sourceSheet;        // a workbook drop's sheet read; empty for CSV
     std::string firstDate;          // ISO 8601, the release's calendar
     std::string lastDate;           // ISO 8601
     std::string dropSha256Prefix;   // kHashPrefixLength hex digits
     std::size_t ledgerEntries = 0;  // entries in the ledger file, withdrawals included
-    std::string ledgerHeadPrefix;   // ledger::kMinAnchorDigits hex digits (enough for --head); empty without a ledger
-    std::string model;              // e.g. "gumbel"; empty without a fit
-    std::string method;             // e.g. "lsq"
-    std::string fitFirstDate;       // the fit window, ISO 8601
+    std::string ledgerHeadPrefix;  // ledger::kMinAnchorDigits hex digits (enough for --head); empty
+                                   // without a ledger
+    std::string model;             // e.g. "gumbel"; empty without a fit
+    std::string method;            // e.g. "lsq"
+    std::string fitFirstDate;      // the fit window, ISO 8601
     std::string fitLastDate;
     std::string bands;       // what the figure's bands are (set by buildFigureSpec); "" = not said
     std::string exportDate;  // ISO 8601 date of the export (UTC)

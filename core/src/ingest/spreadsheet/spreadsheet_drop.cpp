@@ -173,12 +173,13 @@ std::optional<Result<Drop>> readSpreadsheetDrop(std::string_view bytes, const st
     IngestOptions csvOptions = options;
     csvOptions.sheet.clear();
     csvOptions.delimiter = ',';  // the CSV text is written with commas
-    DropReader reader(csv, path, csvOptions, nullptr);
-    Result<Drop> drop = reader.run();
     Provenance place;
     place.format = spreadsheetFormatName(format);
     place.sheet = book.sheetNames()[chosen->index];
     place.firstColumn = firstColumn;
+    DropReader reader(csv, path, csvOptions, nullptr);
+    reader.readAsSheetOf(place);
+    Result<Drop> drop = reader.run();
     if (!drop) {
         Error e = drop.error();
         e.file = path;
