@@ -2,6 +2,7 @@
 // offers the other in the status bar, reads it as another drop with its own ledger, and a saved
 // project reopens the sheet it was read from. A CSV drop shows no chooser.
 #include "main_window.h"
+#include "sample_window.h"
 
 #include "widgets/common/workbench.h"
 
@@ -21,14 +22,7 @@ using siftwave::gui::MainWindow;
 namespace {
 
 std::unique_ptr<MainWindow> makeWindow(const QString& ledgers) {
-    MainWindow::Options options;
-    options.rememberLayout = false;
-    options.dialogs = false;
-    options.ledgerFolder = ledgers;
-    auto window = std::make_unique<MainWindow>(options);
-    window->resize(1300, 850);
-    window->show();
-    return window;
+    return siftwave::testing::makeTestWindow(ledgers);
 }
 
 QComboBox* sheetBox(MainWindow& window) {
