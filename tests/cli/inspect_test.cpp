@@ -399,6 +399,13 @@ TEST(CliInspect, AWorkbookNamesItsSheetsAndItsCells) {
                            "/spreadsheets/fictitious_day.xlsx --json");
     EXPECT_EQ(bad.exitCode, 1);
     EXPECT_EQ(nlohmann::json::parse(bad.out)["error"]["cell"], "data!A3") << bad.out;
+    // A CSV-only flag on a workbook is wrong usage, said rather than ignored.
+    const CliRun delimiter = run("inspect " + book + " --delimiter ';'");
+    EXPECT_EQ(delimiter.exitCode, 2);
+    EXPECT_NE(delimiter.err.find("--delimiter applies to a CSV file"), std::string::npos)
+        << delimiter.err;
+    const auto j = nlohmann::json::parse(run("inspect " + book + " --json").out);
+    EXPECT_EQ(j["source"]["dated_sheets"], nlohmann::json::array({"data"}));
 }
 
 }  // namespace

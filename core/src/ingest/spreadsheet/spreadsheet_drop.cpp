@@ -179,7 +179,7 @@ std::optional<Result<Drop>> readSpreadsheetDrop(std::string_view bytes, const st
     Workbook& book = ***opened;
     if (options.delimiter)  // said, not ignored: the option was meant for a text file
         return Result<Drop>(usageError(
-            path, "--delimiter applies to a CSV file, and this file is a " +
+            path, "--delimiter applies to a CSV file, and this file is an ." +
                       std::string(spreadsheetFormatName(format)) +
                       " workbook, whose cells are already apart; leave --delimiter out"));
     Result<ChosenSheet> chosen = chooseSheet(book, options, path);
