@@ -5,6 +5,7 @@
 
 #include "support/cli_run.h"
 #include "support/temp_path.h"
+#include "support/zip_builder.h"
 
 #include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
@@ -406,6 +407,25 @@ TEST(CliInspect, AWorkbookNamesItsSheetsAndItsCells) {
         << delimiter.err;
     const auto j = nlohmann::json::parse(run("inspect " + book + " --json").out);
     EXPECT_EQ(j["source"]["dated_sheets"], nlohmann::json::array({"data"}));
+}
+
+TEST(CliInspect, AWorkbookOfTwoTablesSaysWhichOtherSheetHoldsDates) {
+    const std::filesystem::path file = siftwave::testing::testTempPath("two tables.xlsx");
+    {
+        std::ofstream out(file, std::ios::binary);
+        out << siftwave::testing::makeTwoTableXlsx();
+    }
+    const CliRun r = run("inspect '" + file.string() + "'");
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    EXPECT_NE(r.out.find("sheet       north (sheet 2 of 3: notes, north, south)"),
+              std::string::npos)
+        << r.out;
+    EXPECT_NE(r.out.find("dates also on: south (choose with --sheet)"), std::string::npos) << r.out;
+    const CliRun south = run("inspect '" + file.string() + "' --sheet south");
+    ASSERT_EQ(south.exitCode, 0) << south.err;
+    EXPECT_NE(south.out.find("dates also on: north (choose with --sheet)"), std::string::npos)
+        << south.out;
+    std::filesystem::remove(file);
 }
 
 }  // namespace
