@@ -235,6 +235,20 @@ void printJson(const nlohmann::json& value) {
     std::cout.flush();
 }
 
+void printJsonAt(const nlohmann::json& value, int depth) {
+    const std::string text =
+        terminalSafeJson(value.dump(2, ' ', false, nlohmann::json::error_handler_t::replace));
+    const std::string indent(static_cast<std::size_t>(2 * depth), ' ');
+    // A dumped JSON text has newlines only between its lines: strings escape theirs.
+    std::size_t start = 0;
+    for (std::size_t nl = text.find('\n'); nl != std::string::npos; nl = text.find('\n', start)) {
+        std::cout.write(text.data() + start, static_cast<std::streamsize>(nl + 1 - start));
+        std::cout << indent;
+        start = nl + 1;
+    }
+    std::cout.write(text.data() + start, static_cast<std::streamsize>(text.size() - start));
+}
+
 int usageError(const std::string& message, bool json, const std::string& usage) {
     printError(makeError(ErrorCode::Usage, message), json);
     if (!json) {

@@ -51,6 +51,10 @@ std::string terminalText(std::string_view text);
 
 /// Prints JSON (indented 2) and a newline on stdout.
 void printJson(const nlohmann::json& value);
+/// `value` as printJson writes it, placed inside a document at nesting `depth` (each line after
+/// the first indented by 2 x depth more), with no newline after it: for documents written a
+/// piece at a time, so that a long list never has to be held whole (scan --json).
+void printJsonAt(const nlohmann::json& value, int depth);
 
 /// Converts an Error to its JSON object.
 nlohmann::json errorToJson(const Error& error);

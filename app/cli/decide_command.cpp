@@ -10,6 +10,7 @@
 #include "siftwave/ledger/record.h"
 #include "siftwave/ledger/replay.h"
 #include "siftwave/ledger/signing.h"
+#include "siftwave/scan/decision_check.h"
 #include "siftwave/scan/propose.h"
 
 #include <algorithm>
@@ -52,7 +53,8 @@ std::vector<FlagSpec> decideFlagSpecs() {
             {"region", true, false, "CODE", "region code, verbatim"},
             {"measure", true, false, "NAME", "measure (default: the drop's only measure)"},
             {"date", true, false, "DAY",
-             "the day (or week) decided on (redistribute, spread_negative, resolve_duplicate)"},
+             "the day (or week) decided on (redistribute, spread_negative, resolve_duplicate); "
+             "nowcast_complete: now (default: the case list's last report date)"},
             {"excess", true, false, "N|auto",
              "redistribute: counts to move, or auto (the scan's estimate)"},
             {"window", true, false, "FIRST:LAST",
@@ -68,6 +70,11 @@ std::vector<FlagSpec> decideFlagSpecs() {
             {"variant", true, false, "CODE", "merge_codes: the code folded away"},
             {"into", true, false, "CODE", "merge_codes: the canonical code kept"},
             {"entry", true, false, "N", "withdraw: the id of the entry to undo"},
+            {"max-delay", true, false, "N",
+             "nowcast_complete: maximum delay in periods (default: 99% of the delays seen)"},
+            {"nowcast-window", true, false, "N",
+             "nowcast_complete: moving window of the delays in periods (default 21 days, 6 "
+             "weeks)"},
             {"finding", true, false, "ID", "the scan finding this decision answers"},
             {"dry-run", false, false, "", "show what the decision would do; write nothing"},
             {"sign", false, false, "",
@@ -256,6 +263,22 @@ Status readEntryFlag(const ParsedArgs& args, ledger::Decision& d) {
     return Ok{};
 }
 
+/// nowcast_complete's --max-delay and --nowcast-window (left at 0: from the data).
+Status readNowcastFlags(const ParsedArgs& args, ledger::Decision& d) {
+    for (auto [name, out] :
+         {std::pair{"max-delay", &d.maxDelay}, std::pair{"nowcast-window", &d.nowcastWindow}}) {
+        if (!args.has(name))
+            continue;
+        auto n = positiveFlag(args, name);
+        if (!n)
+            return n.error();
+        if (*n > 366)
+            return usage(std::string("--") + name + " takes 1 to 366 periods");
+        *out = static_cast<int>(*n);
+    }
+    return Ok{};
+}
+
 /// Fails when a flag the kind needs is not given (the first in the kind's flag list).
 Status checkRequiredFlags(const ParsedArgs& args, const ledger::DecisionKindInfo& info) {
     for (const ledger::DecisionFlag& flag : info.flags) {
@@ -275,7 +298,8 @@ Result<ledger::Decision> decisionFrom(const ParsedArgs& args, ledger::DecisionKi
         return s.error();
     ledger::Decision d = decisionWithTextFlags(args, info, drop);
     using FlagStep = Status (*)(const ParsedArgs&, ledger::Decision&);
-    for (FlagStep step : {readDayFlags, readCountFlags, readRuleFlags, readEntryFlag}) {
+    for (FlagStep step :
+         {readDayFlags, readCountFlags, readRuleFlags, readEntryFlag, readNowcastFlags}) {
         if (Status s = step(args, d); !s)
             return s.error();
     }
@@ -396,11 +420,33 @@ std::optional<ledger::Decision> checkedDecision(const DecideRequest& request, co
             return std::nullopt;
         }
     }
+    // What the kind leaves to the data (nowcast_complete: now, the maximum delay, the window)
+    // is named before the entry is recorded.
+    if (const auto resolve = ledger::decisionKindInfo(request.kind).resolve) {
+        if (Status s = resolve(drop, *decision); !s) {
+            printError(s.error(), request.json);
+            exitCode = kExitBadInput;
+            return std::nullopt;
+        }
+    }
     if (Status s = decision->validate(); !s) {
         exitCode = usageError(s.error().message, request.json, usageText());
         return std::nullopt;
     }
     return std::move(*decision);
+}
+
+/// The check's lines under the effect: what a scan after the decision would newly find.
+void printCheckText(const scan::DecisionCheck& check, Cadence cadence) {
+    if (check.clean()) {
+        std::printf(
+            "check: a scan after this decision finds nothing new in the series it "
+            "changes\n");
+        return;
+    }
+    std::printf("check: this decision would create what a scan flags (look before deciding):\n");
+    for (const std::string& line : scan::describeDecisionCheck(check, cadence))
+        std::printf("  %s\n", terminalText(line).c_str());
 }
 
 /// --dry-run: prints what the decision would do to the cleaned data and writes nothing; returns
@@ -412,16 +458,25 @@ int printDryRun(const DecideRequest& request, const Drop& drop, const ReplayedLe
         printError(effect.error(), request.json);
         return kExitBadInput;
     }
+    // What the decision would newly make look wrong (scan/decision_check.h), with the scan's
+    // default thresholds, as the decision pane shows it.
+    Result<scan::DecisionCheck> check = scan::checkDecision(drop, replayed.cleaned, decision);
+    if (!check) {
+        printError(check.error(), request.json);
+        return kExitBadInput;
+    }
     if (request.json) {
         nlohmann::json out = effectSummaryJson(*effect);
         out["dry_run"] = true;
         out["kind"] = ledger::decisionKindName(request.kind);
+        out["check"] = scan::decisionCheckToJson(*check);
         printJson(out);
     } else {
         std::printf("%s (dry run, nothing written):\n", ledger::decisionKindName(request.kind));
         if (request.autoExcess)
             printAutoExcessNote(decision, request.windowGiven);
         printEffectText(drop, *effect);
+        printCheckText(*check, drop.axis.cadence());
     }
     return kExitOk;
 }

@@ -7,7 +7,9 @@
 
 #include "siftwave/fit/batch.h"
 #include "siftwave/fit/fit_export.h"
+#include "siftwave/nowcast/nowcast.h"
 
+#include <algorithm>
 #include <array>
 #include <cmath>
 #include <cstdio>
@@ -250,20 +252,46 @@ std::vector<fit::RegionSeries> regionSeries(const SeriesJob& job,
 
 enum class OutputFormat { Text, Json, Csv };
 
+// Per region (in the job's order), the note saying its series is nowcast-completed by a ledger
+// entry (nowcast_completion.h), or nullopt.
+using CompletionNotes = std::vector<std::optional<std::string>>;
+
+CompletionNotes completionNotes(const SeriesJob& job) {
+    CompletionNotes notes;
+    for (std::size_t r : job.indices)
+        notes.push_back(nowcastCompletionNote(job, r));
+    return notes;
+}
+
+bool anyNote(const CompletionNotes& notes) {
+    return std::any_of(notes.begin(), notes.end(), [](const auto& n) { return n.has_value(); });
+}
+
+// The fit's JSON, with "nowcast_completed" (the note) when the series was completed.
+nlohmann::json regionJson(const fit::RegionFit& r, const std::optional<std::string>& note,
+                          bool withCurve) {
+    nlohmann::json j = fit::fitToJson(r.region, *r.fit, r.comparison, withCurve);
+    if (note) {
+        j["nowcast_completed"] = *note;
+        j["caution"] = std::string(fit::caution) + " " + nowcast::kNowcastCaution;
+    }
+    return j;
+}
+
 // The results as JSON (one object for --region, an array for --all), CSV rows or text, with
-// the caution.
-void printResults(const std::vector<fit::RegionFit>& results, OutputFormat format, bool single,
-                  bool withCurve, const TimeAxis& axis) {
+// the caution, and for a nowcast-completed series the note and the nowcast's caution.
+void printResults(const std::vector<fit::RegionFit>& results, const CompletionNotes& notes,
+                  OutputFormat format, bool single, bool withCurve, const TimeAxis& axis) {
     if (format == OutputFormat::Json) {
         if (single) {
-            printJson(fit::fitToJson(results[0].region, *results[0].fit, results[0].comparison,
-                                     withCurve));
+            printJson(regionJson(results[0], notes[0], withCurve));
             return;
         }
         nlohmann::json all = nlohmann::json::array();
-        for (const auto& r : results) {
+        for (std::size_t k = 0; k < results.size(); ++k) {
+            const auto& r = results[k];
             if (r.fit) {
-                all.push_back(fit::fitToJson(r.region, *r.fit, r.comparison, withCurve));
+                all.push_back(regionJson(r, notes[k], withCurve));
             } else {
                 nlohmann::json e = {{"region", r.region},
                                     {"status", fit::fitStatusName(fit::regionStatus(r))},
@@ -275,20 +303,30 @@ void printResults(const std::vector<fit::RegionFit>& results, OutputFormat forma
         printJson(all);
     } else if (format == OutputFormat::Csv) {
         std::printf("%s\n", std::string(fit::fitCsvHeader()).c_str());
-        for (const auto& r : results)
-            std::printf("%s\n", fit::fitCsvRow(r).c_str());
+        for (std::size_t k = 0; k < results.size(); ++k) {
+            std::printf("%s\n", fit::fitCsvRow(results[k]).c_str());
+            if (notes[k])
+                std::fprintf(stderr, "siftwave-cli: %s: %s\n",
+                             terminalText(results[k].region).c_str(), notes[k]->c_str());
+        }
         std::fprintf(stderr, "siftwave-cli: %s\n", fit::caution);
+        if (anyNote(notes))
+            std::fprintf(stderr, "siftwave-cli: %s\n", nowcast::kNowcastCaution);
     } else {
         std::array<int, 4> counts{};
-        for (const auto& r : results) {
-            printText(r, axis);
-            ++counts[static_cast<std::size_t>(fit::regionStatus(r))];
+        for (std::size_t k = 0; k < results.size(); ++k) {
+            printText(results[k], axis);
+            if (notes[k])
+                std::printf("  note            %s\n", notes[k]->c_str());
+            ++counts[static_cast<std::size_t>(fit::regionStatus(results[k]))];
         }
         if (!single) {
             std::printf("\n%zu regions: %d ok, %d not_converged, %d implausible, %d no_wave\n",
                         results.size(), counts[0], counts[1], counts[2], counts[3]);
         }
         std::printf("\nCaution: %s\n", fit::caution);
+        if (anyNote(notes))
+            std::printf("Caution: %s\n", nowcast::kNowcastCaution);
     }
 }
 
@@ -362,7 +400,7 @@ int runFit(int argc, char** argv, int first) {
     }
     const OutputFormat format =
         json ? OutputFormat::Json : (csv ? OutputFormat::Csv : OutputFormat::Text);
-    printResults(results, format, single, withCurve, j.drop.axis);
+    printResults(results, completionNotes(j), format, single, withCurve, j.drop.axis);
     // One region: anything but ok exits 1, with the reasons and what to try (issue 15).
     if (single && status != fit::FitStatus::Ok) {
         std::string reasons;

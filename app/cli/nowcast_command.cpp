@@ -35,6 +35,9 @@ nlohmann::json regionJson(const nowcast::NowcastResult& r) {
     return {{"region", r.region},
             {"max_delay", r.maxDelay},
             {"window", r.window},
+            {"delay_model", nowcast::delayModelName(r.delayModel)},
+            {"trend_per_week", r.trendPerWeek},
+            {"trend_z", r.trendZ},
             {"delay_share", r.delayShare},
             {"cases_left_out", r.casesLeftOut},
             {"summary", r.brief()},
@@ -97,7 +100,8 @@ std::string usageText(const std::vector<FlagSpec>& specs) {
            "                            [--max-delay N] [--json|--csv]\n\n"
            "Estimates the eventual count of each recent period from the reports so far: a "
            "chain-ladder on\nthe reporting triangle (the reverse-time hazard of Kalbfleisch & "
-           "Lawless 1991, Lawless 1994),\nwith a moving window, a negative-binomial 95% interval "
+           "Lawless 1991, Lawless 1994),\nwith a moving window (the delays constant over it, or "
+           "drifting where the data show it:\n--delays), a negative-binomial 95% interval "
            "and the probability that the period\nis complete. From a case list (event and report "
            "dates) as of --now (default: its last report\ndate), or from successive releases of "
            "one series, one per period (files, or a folder of\n.csv files). "
@@ -222,6 +226,15 @@ std::optional<int> prepare(const ParsedArgs& args, bool json, const std::string&
         return usageError((!maxDelay ? maxDelay : window).error().message, json, usage);
     job.maxDelay = *maxDelay;
     job.options.windowPeriods = *window;
+    if (args.has("delays")) {
+        const std::optional<nowcast::DelayModel> model =
+            nowcast::delayModelFromName(args.value("delays"));
+        if (!model)
+            return usageError(
+                "--delays is constant, trend or auto, not '" + args.value("delays") + "'", json,
+                usage);
+        job.options.delayModel = *model;
+    }
     if (args.has("now")) {
         job.now = Date::fromIso(args.value("now"));
         if (!job.now)
@@ -265,6 +278,10 @@ std::vector<FlagSpec> nowcastFlags() {
     specs.push_back({"window", true, false, "N",
                      "periods of the moving window that estimates the delays (default 21 days or "
                      "6 weeks)"});
+    specs.push_back({"delays", true, false, "MODEL",
+                     "constant (one delay distribution over the window), trend (its hazards "
+                     "drift in time, after Hohle & an der Heiden 2014) or auto (default: the "
+                     "trend where its Wald test rejects no drift at 5%)"});
     specs.push_back({"pool-delays", false, false, "",
                      "estimate the delays from every region together (small regions borrow "
                      "them); default: each region its own"});

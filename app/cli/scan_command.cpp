@@ -8,6 +8,7 @@
 
 #include <algorithm>
 #include <cstdio>
+#include <iostream>
 #include <string>
 
 namespace siftwave::cli {
@@ -42,6 +43,28 @@ std::string dates(const scan::Finding& f) {
     if (*f.first == *f.last)
         return f.first->iso();
     return f.first->iso() + ".." + f.last->iso();
+}
+
+/// The text of printJson(scan::scanReportToJson(report)), written one finding at a time: the
+/// JSON of thousands of findings is never held whole (issue 14: the scan's memory stays a small
+/// multiple of the drop's).
+void printScanJson(const scan::ScanReport& report) {
+    std::cout << "{\n  \"findings\": ";
+    if (report.findings.empty()) {
+        std::cout << "[]";
+    } else {
+        std::cout << "[\n";
+        for (std::size_t i = 0; i < report.findings.size(); ++i) {
+            std::cout << "    ";
+            printJsonAt(scan::findingToJson(report.findings[i]), 2);
+            std::cout << (i + 1 < report.findings.size() ? ",\n" : "\n");
+        }
+        std::cout << "  ]";
+    }
+    std::cout << ",\n  \"summary\": ";
+    printJsonAt(scan::scanSummaryToJson(report), 1);
+    std::cout << "\n}\n";
+    std::cout.flush();
 }
 
 void printTable(const scan::ScanReport& report, const Drop& drop) {
@@ -149,7 +172,7 @@ int runScan(int argc, char** argv, int first) {
         return report.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
     }
     if (json) {
-        printJson(scan::scanReportToJson(*report));
+        printScanJson(*report);
     } else {
         printTable(*report, *drop);
     }

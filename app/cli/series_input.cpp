@@ -3,6 +3,7 @@
 #include "common.h"
 
 #include "siftwave/ledger/ledger_file.h"
+#include "siftwave/ledger/nowcast_completion.h"
 #include "siftwave/ledger/replay.h"
 #include "siftwave/series/daily.h"
 
@@ -53,18 +54,20 @@ Step<std::vector<std::size_t>> selectedRegions(const ParsedArgs& args, const Dro
     return indices;
 }
 
-// With --ledger, the cleaned series: the ledger replayed over the drop.
-Step<std::optional<ledger::Cleaned>> cleanedByLedger(const ParsedArgs& args, const Drop& drop) {
+// With --ledger, the ledger and the cleaned series: the ledger replayed over the drop.
+std::optional<Failure> readCleaned(const ParsedArgs& args, SeriesJob& job) {
     auto path = args.optionalValue("ledger");
     if (!path)
-        return std::optional<ledger::Cleaned>();
+        return std::nullopt;
     auto ledger = ledger::readLedgerFile(*path);
     if (!ledger)
         return Failure{ledger.error()};
-    auto replayed = ledger::replay(drop, *ledger);
+    auto replayed = ledger::replay(job.drop, *ledger);
     if (!replayed)
         return Failure{replayed.error()};
-    return std::optional<ledger::Cleaned>(std::move(replayed.value()));
+    job.ledger = std::move(ledger.value());
+    job.cleaned = std::move(replayed.value());
+    return std::nullopt;
 }
 
 }  // namespace
@@ -77,7 +80,7 @@ Step<SeriesJob> prepareSeriesJob(
         const int code = drop.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
         return Failure{drop.error(), code};
     }
-    SeriesJob job{std::move(drop.value()), {}, {}, 0, {}};
+    SeriesJob job{std::move(drop.value()), {}, {}, {}, 0, {}};
     if (auto f = readRegisterAndMeasure(args, readRegister, job.drop, job.reg, job.measure))
         return *f;
     if (checkCalendar) {
@@ -88,10 +91,8 @@ Step<SeriesJob> prepareSeriesJob(
     if (auto* f = std::get_if<Failure>(&indices))
         return *f;
     job.indices = std::move(std::get<0>(indices));
-    auto cleaned = cleanedByLedger(args, job.drop);
-    if (auto* f = std::get_if<Failure>(&cleaned))
+    if (auto f = readCleaned(args, job))
         return *f;
-    job.cleaned = std::move(std::get<0>(cleaned));
     return job;
 }
 
@@ -99,6 +100,14 @@ std::vector<double> regionCounts(const SeriesJob& job, std::size_t region) {
     if (job.cleaned)
         return ledger::cleanedCounts(*job.cleaned, job.measure, region);
     return series::countsOf(job.drop, job.measure, region);
+}
+
+std::optional<std::string> nowcastCompletionNote(const SeriesJob& job, std::size_t region) {
+    if (!job.cleaned)
+        return std::nullopt;
+    return ledger::nowcastCompletionNote(job.drop, job.ledger, *job.cleaned,
+                                         job.drop.regionCodes[region],
+                                         job.drop.measures[job.measure]);
 }
 
 }  // namespace siftwave::cli

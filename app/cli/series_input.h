@@ -8,12 +8,14 @@
 
 #include "siftwave/drop.h"
 #include "siftwave/ledger/cleaned.h"
+#include "siftwave/ledger/entry.h"
 #include "siftwave/region_register.h"
 #include "siftwave/result.h"
 
 #include <cstddef>
 #include <functional>
 #include <optional>
+#include <string>
 #include <variant>
 #include <vector>
 
@@ -32,6 +34,7 @@ using Step = std::variant<T, Failure>;
 struct SeriesJob {
     Drop drop;
     std::optional<RegionRegister> reg;       // with readRegister (see prepareSeriesJob)
+    ledger::Ledger ledger;                   // with --ledger (else empty)
     std::optional<ledger::Cleaned> cleaned;  // with --ledger
     std::size_t measure = 0;                 // --measure, default the first
     std::vector<std::size_t> indices;        // --region's, or every region
@@ -48,5 +51,9 @@ Step<SeriesJob> prepareSeriesJob(
 /// One region's counts per period: the cleaned values where a ledger was replayed, else the
 /// reported ones; NaN where a cell holds no value.
 std::vector<double> regionCounts(const SeriesJob& job, std::size_t region);
+
+/// With --ledger, the sentence saying that the region's cleaned series is nowcast-completed by
+/// an entry in effect (ledger/nowcast_completion.h); nullopt otherwise.
+std::optional<std::string> nowcastCompletionNote(const SeriesJob& job, std::size_t region);
 
 }  // namespace siftwave::cli

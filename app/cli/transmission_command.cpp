@@ -56,11 +56,23 @@ std::string fixed(double v, const char* format) {
     return text;
 }
 
+/// Why a row lacks an estimate, for each measure that has none ("r: ...; R: ..."). A refusal
+/// of R_t for the whole series is printed once above the table, not on every row.
+std::string rowReason(const transmission::TransmissionResult& result,
+                      const transmission::GrowthEstimate& g, const transmission::CoriEstimate& c) {
+    std::string reason;
+    if (!g.ok() && !g.reason.empty())
+        reason = "r: " + g.reason;
+    if (!c.ok() && !c.reason.empty() && c.reason != result.refusal)
+        reason += (reason.empty() ? "R: " : "; R: ") + c.reason;
+    return reason;
+}
+
 void printText(const std::string& region, const transmission::TransmissionResult& result,
                const std::vector<double>& counts) {
     std::printf("%s: %s\n", terminalText(region).c_str(), result.settingsBrief().c_str());
     if (!result.refusal.empty())
-        std::printf("R_t: %s\n", result.refusal.c_str());
+        std::printf("R_t is not estimated for any period: %s\n", result.refusal.c_str());
     std::printf("%-12s %7s %8s %19s %18s %6s %15s  %s\n", "period", "count", "r/day", "95% CI",
                 "doubling/halving", "R", "95% CI", "reason");
     for (const auto& row : result.rows) {
@@ -74,7 +86,7 @@ void printText(const std::string& region, const transmission::TransmissionResult
                                            ")"
                                      : "-";
         const bool hasR = c.ok() && c.hasPosterior();
-        const std::string reason = !c.ok() ? c.reason : g.reason;
+        const std::string reason = rowReason(result, g, c);
         std::printf(
             "%-12s %7s %8s %19s %18s %6s %15s  %s\n", result.axis.periodName(row.period).c_str(),
             fixed(counts[static_cast<std::size_t>(row.period)], "%.0f").c_str(),

@@ -1,5 +1,8 @@
 #include "decision_controller.h"
 
+#include "siftwave/ledger/nowcast_completion.h"
+#include "siftwave/ledger/replay.h"
+
 #include "decision_command.h"
 
 #include "widgets/common/drop_loading.h"
@@ -64,8 +67,8 @@ void DecisionController::begin(const ledger::Decision& decision, const QString& 
     m_pane->setCalendar(m_workbench->drop().axis);
     m_pane->begin(decision, title, reason);
     m_plot->setDayPickingEnabled(false);
-    Q_EMIT decisionStarted();
     preview();
+    Q_EMIT decisionStarted();  // after the preview: the window sizes the pane to its texts
 }
 
 bool DecisionController::decideDay(int day) {
@@ -107,12 +110,48 @@ bool DecisionController::decideDay(int day) {
     return true;
 }
 
+bool DecisionController::decideNowcastCompletion() {
+    const widgets::SeriesView& view = m_plot->view();
+    if (!m_workbench->hasDrop() || m_pane->isActive() || view.empty())
+        return false;
+    ledger::NowcastCompletionRequest request;
+    request.region = view.regionCode.toStdString();
+    request.measure = view.measure.toStdString();
+    const Result<ledger::Decision> decision =
+        ledger::nowcastCompletion(m_workbench->drop(), request);
+    Result<ledger::Effect> effect =
+        decision ? ledger::previewDecision(m_workbench->drop(), m_workbench->cleaned(), *decision)
+                 : Result<ledger::Effect>(decision.error());
+    if (!effect) {
+        Q_EMIT errorOccurred(tr("No nowcast-completed series"),
+                             widgets::describeError(effect.error()));
+        return false;
+    }
+    const ledger::Decision& d = *decision;
+    const QString unit = m_workbench->drop().axis.weekly() ? tr("weeks") : tr("days");
+    begin(d,
+          tr("<b>nowcast_complete</b> for %1 — chain-ladder as of %2, max delay %3 %5, window "
+             "%4 %5")
+              .arg(view.regionCode, QString::fromStdString(d.date->iso()))
+              .arg(d.maxDelay)
+              .arg(d.nowcastWindow)
+              .arg(unit),
+          tr("Fit and brief on the counts completed by the nowcast of reports still to come "
+             "(%1 more expected); they assume the reporting delays seen so far continue.")
+              .arg(effect->netChange()));
+    return true;
+}
+
 void DecisionController::preview() {
     if (!m_pane->isActive())
         return;
     const ledger::Decision decision = m_pane->decision();
     const Result<ledger::Effect> effect = m_workbench->preview(decision);
     m_pane->showPreview(effect);
+    if (effect)
+        m_pane->showCheck(m_workbench->checkDecision(decision));
+    else
+        m_pane->showCheck(std::nullopt);
     // Draw the cells of the shown region and measure as they would be after.
     std::vector<double> values;
     if (effect) {

@@ -30,6 +30,10 @@ public:
     bool decideFinding(const QString& id);
     /// Starts preparing a redistribution of a day picked on the plot (MainWindow::decideDay).
     bool decideDay(int day);
+    /// Starts preparing the choice to work on the nowcast-completed series of the region and
+    /// measure in view (a case list only; ledger::nowcastCompletion, the same function as
+    /// `decide ... nowcast_complete`); false, with the reason shown, when it cannot.
+    bool decideNowcastCompletion();
     /// Applies the decision in preparation through the undo stack; false when refused.
     bool apply();
     /// Withdraws a ledger entry with a reason (asked for when empty and dialogs are on).

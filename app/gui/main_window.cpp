@@ -19,6 +19,7 @@
 #include "widgets/fit/fit_pane.h"
 #include "widgets/ledger/decision_pane.h"
 #include "widgets/ledger/ledger_view.h"
+#include "widgets/nowcast/delay_view.h"
 #include "widgets/plot/qcustomplot_include.h"
 
 #include "siftwave/scan/scan.h"
@@ -49,6 +50,7 @@
 #include <QMimeData>
 #include <QProgressBar>
 #include <QPushButton>
+#include <QScrollArea>
 #include <QSplitter>
 #include <QStandardPaths>
 #include <QStatusBar>
@@ -86,6 +88,7 @@ MainWindow::MainWindow(Options options, QWidget* parent)
       m_batchView(new widgets::BatchFitView),
       m_transmissionPanel(new widgets::TransmissionPanel),
       m_transmissionPane(new widgets::TransmissionPane),
+      m_delayView(new widgets::DelayView),
       m_fitControl(new FitController(m_workbench, m_plot, m_fitPane, m_decisionPane, this)),
       m_decisionControl(
           new DecisionController(m_workbench, m_plot, m_decisionPane, options.dialogs, this)),
@@ -204,8 +207,10 @@ void MainWindow::buildControllers() {
     };
     connect(m_decisionControl, &DecisionController::errorOccurred, this, &MainWindow::showError);
     connect(m_decisionControl, &DecisionController::focusRequested, this, &MainWindow::focusPlotOn);
-    connect(m_decisionControl, &DecisionController::decisionStarted, this,
-            [raiseDock] { raiseDock("decisionDock"); });
+    connect(m_decisionControl, &DecisionController::decisionStarted, this, [this, raiseDock] {
+        raiseDock("decisionDock");
+        makeRoomForDecision();
+    });
     connect(m_decisionControl, &DecisionController::decisionEnded, this, &MainWindow::redrawSeries);
 
     connect(m_projectControl, &ProjectController::errorOccurred, this, &MainWindow::showError);
@@ -269,6 +274,24 @@ bool MainWindow::withdrawEntry(std::uint64_t sequence, QString reason) {
     return m_decisionControl->withdraw(sequence, std::move(reason));
 }
 
+namespace {
+
+/// A pane in a scroll area that follows the dock's width: when the docks of one column leave a
+/// pane less height than its rows need (a long decision check below the fit pane, a small
+/// screen), it scrolls instead of drawing its rows over each other, and its minimum height does
+/// not hold the whole window taller than the screen.
+QScrollArea* scrollable(QWidget* pane) {
+    auto* area = new QScrollArea;
+    area->setObjectName(pane->objectName() + QStringLiteral("Scroll"));
+    area->setWidget(pane);
+    area->setWidgetResizable(true);
+    area->setFrameShape(QFrame::NoFrame);
+    area->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
+    return area;
+}
+
+}  // namespace
+
 void MainWindow::buildDocks() {
     auto* regions = new QDockWidget(tr("Regions"), this);
     regions->setObjectName(QStringLiteral("regionsDock"));
@@ -285,7 +308,7 @@ void MainWindow::buildDocks() {
     m_fitPane->setObjectName(QStringLiteral("fitPane"));
     auto* fit = new QDockWidget(tr("Wave fit"), this);
     fit->setObjectName(QStringLiteral("fitDock"));
-    fit->setWidget(m_fitPane);
+    fit->setWidget(scrollable(m_fitPane));
     addDockWidget(Qt::RightDockWidgetArea, fit);
 
     auto* transmissionDock = new QDockWidget(tr("Transmission"), this);
@@ -293,6 +316,11 @@ void MainWindow::buildDocks() {
     transmissionDock->setWidget(m_transmissionPane);
     addDockWidget(Qt::RightDockWidgetArea, transmissionDock);
     tabifyDockWidget(fit, transmissionDock);
+    auto* delaysDock = new QDockWidget(tr("Reporting delays"), this);
+    delaysDock->setObjectName(QStringLiteral("delaysDock"));
+    delaysDock->setWidget(m_delayView);
+    addDockWidget(Qt::RightDockWidgetArea, delaysDock);
+    tabifyDockWidget(transmissionDock, delaysDock);
     fit->raise();
 
     m_findings->setObjectName(QStringLiteral("findingReview"));
@@ -303,7 +331,7 @@ void MainWindow::buildDocks() {
     m_decisionPane->setObjectName(QStringLiteral("decisionPane"));
     auto* decision = new QDockWidget(tr("Decision"), this);
     decision->setObjectName(QStringLiteral("decisionDock"));
-    decision->setWidget(m_decisionPane);
+    decision->setWidget(m_decisionPane);  // its preview and check scroll inside it
     addDockWidget(Qt::RightDockWidgetArea, decision);
 
     m_ledgerView->setObjectName(QStringLiteral("ledgerView"));
@@ -436,6 +464,16 @@ void MainWindow::buildReviewMenu() {
     QAction* discard = review->addAction(tr("D&iscard the decision"), m_decisionControl,
                                          &DecisionController::discard);
     discard->setShortcut(QKeySequence(Qt::Key_Escape));
+    // Off until the analyst asks: the completed series is an estimate, recorded as a decision.
+    review->addSeparator();
+    QAction* complete =
+        review->addAction(tr("Use the &nowcast-completed counts…"), m_decisionControl,
+                          &DecisionController::decideNowcastCompletion);
+    complete->setObjectName(QStringLiteral("nowcastCompleteAction"));
+    complete->setToolTip(
+        tr("Prepare a ledger decision that adds the nowcast's reports still to "
+           "come to the recent days of this case list; fits and figures then "
+           "use the completed counts"));
 }
 
 // View: reset the plot, find a region, and show or hide each dock.
@@ -624,17 +662,19 @@ void MainWindow::showOpenedProject(const ProjectController::Opening& project) {
     m_projectControl->restoreView(project.file);
     const QString previous = resolvedProjectPath(project.path, project.file.previousDropPath);
     const QString projectFile = project.path;
+    const std::vector<ledger::ProjectRelease> history = project.file.releaseHistory;
     if (previous.isEmpty()) {
         startScan();
-        Q_EMIT projectOpened(projectFile);
+        openProjectHistory(projectFile, history);
         return;
     }
-    // Opened with or without its previous release (a failure to read it is shown).
+    // Opened with or without its previous release (a failure to read it is shown), then its
+    // release history.
     auto waiting = std::make_shared<std::array<QMetaObject::Connection, 2>>();
-    auto done = [this, projectFile, waiting] {
+    auto done = [this, projectFile, waiting, history] {
         for (const QMetaObject::Connection& c : *waiting)
             disconnect(c);
-        Q_EMIT projectOpened(projectFile);
+        openProjectHistory(projectFile, history);
     };
     (*waiting)[0] =
         connect(this, &MainWindow::previousOpened, this, [done](const QString&) { done(); });
@@ -722,6 +762,7 @@ void MainWindow::onDropChanged() {
         m_sheetChooser->clear();
         m_dropLabel->setText(
             tr("No drop open — File ▸ Open drop, or drop a CSV file or a workbook here"));
+        m_delayView->clear();
     }
     m_plot->setMeasures(measures);
     updateReleaseSummary();
@@ -845,6 +886,17 @@ void MainWindow::redrawSeries() {
     m_plot->setView(view, m_workbench->hasDrop() && view.empty() ? m_currentRegion : QString());
     m_fitControl->refit(m_currentRegion, true);
     m_transmissionControl->refresh(m_currentRegion);
+    updateDelayView();
+}
+
+// The reporting delays of the region in view (a case list), or why there are none.
+void MainWindow::updateDelayView() {
+    if (!m_workbench->hasDrop()) {
+        m_delayView->clear();
+        return;
+    }
+    const Drop& drop = m_workbench->drop();
+    m_delayView->showDelays(drop, drop.regionIndex(m_currentRegion.toStdString()));
 }
 
 void MainWindow::updateReleaseSummary() {
@@ -939,6 +991,26 @@ void MainWindow::showEvent(QShowEvent* event) {
     resizeDocks({findings, ledger}, {width() * 48 / 100, width() * 52 / 100}, Qt::Horizontal);
     resizeDocks({findings}, {height() * 26 / 100}, Qt::Vertical);
     resizeDocks({fit}, {height() * 56 / 100}, Qt::Vertical);  // the decision pane below it
+}
+
+void MainWindow::makeRoomForDecision() {
+    // The Decision pane shares the right column with the Wave fit: while a decision is prepared
+    // it gets the height its preview, check and buttons ask for, up to 60% of the column; the
+    // fit pane scrolls if it must (it sits in a scroll area, see buildDocks(); the decision's
+    // texts scroll inside its pane).
+    auto* fit = findChild<QDockWidget*>(QStringLiteral("fitDock"));
+    auto* decision = findChild<QDockWidget*>(QStringLiteral("decisionDock"));
+    if (!fit || !decision || decision->isFloating() || fit->isFloating() ||
+        dockWidgetArea(fit) != dockWidgetArea(decision))
+        return;
+    const int column = fit->height() + decision->height();
+    auto* texts = m_decisionPane->findChild<QScrollArea*>(QStringLiteral("decisionTexts"));
+    const int textsWanted = texts && texts->widget() ? texts->widget()->sizeHint().height() : 0;
+    const int wanted =
+        std::min(m_decisionPane->minimumSizeHint().height() + textsWanted + 24, column * 3 / 5);
+    if (decision->height() >= wanted)
+        return;
+    resizeDocks({fit, decision}, {column - wanted, wanted}, Qt::Vertical);
 }
 
 void MainWindow::closeEvent(QCloseEvent* event) {

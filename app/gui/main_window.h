@@ -21,6 +21,7 @@
 #include <QString>
 
 #include <optional>
+#include <vector>
 
 class QLabel;
 class QMenu;
@@ -56,7 +57,7 @@ public:
     /// Reads another release of the same data to compare against; emits previousOpened().
     void openPreviousRelease(const QString& path);
     /// Reads earlier releases of the open drop's series (main_window_history.cpp): the plot then
-    /// shows their nowcast; emits historyOpened().
+    /// shows their nowcast; emits historyOpened() or historyFailed(). A project saves them.
     void openReleaseHistory(const QStringList& paths);
     /// Opens a project (project.h): its drop, register, ledger, previous release and the
     /// selection it was saved with; emits projectOpened() when all is shown, or projectFailed().
@@ -96,6 +97,7 @@ public:
     widgets::BatchFitView* batchFitView() const { return m_batchView; }
     widgets::TransmissionPanel* transmissionPanel() const { return m_transmissionPanel; }
     widgets::TransmissionPane* transmissionPane() const { return m_transmissionPane; }
+    widgets::DelayView* delayView() const { return m_delayView; }
     TransmissionController* transmissionController() const { return m_transmissionControl; }
     QUndoStack* undoStack() const;
 
@@ -123,6 +125,8 @@ Q_SIGNALS:
     void previousOpened(const QString& path);
     /// A release history is open: `releases` earlier releases besides the drop.
     void historyOpened(int releases);
+    /// A release of the history could not be read (the error is shown).
+    void historyFailed(const QString& message);
     /// A project is open and shows its selection (scanFinished() follows for its findings).
     void projectOpened(const QString& path);
     /// The message says why (the core's, with file and line where known).
@@ -148,6 +152,8 @@ private:
     void buildViewMenu();
     void buildHelpMenu();
     void buildDocks();
+    /// Gives the Decision pane the height it needs below the Wave fit (a decision began).
+    void makeRoomForDecision();
     void showOpenDialog();
     void showOpenPreviousDialog();
     void showOpenHistoryDialog();
@@ -159,6 +165,9 @@ private:
                       const QString& sheet = {});
     /// The project's drop is open: its view shown, then its previous release read.
     void showOpenedProject(const ProjectController::Opening& project);
+    /// After a project's drop and previous release: its release history, then projectOpened().
+    void openProjectHistory(const QString& projectPath,
+                            const std::vector<ledger::ProjectRelease>& releases);
     void buildControllers();
     void connectWidgets();
     void updateWindowTitle();
@@ -167,6 +176,7 @@ private:
     void onDropChanged();
     void onRegionSelected(const QString& code);
     void redrawSeries();
+    void updateDelayView();
     void showError(const QString& title, const QString& message);
     void setBusy(widgets::BackgroundTask* task);
     void updateReleaseSummary();
@@ -188,6 +198,7 @@ private:
     widgets::BatchFitView* m_batchView;
     widgets::TransmissionPanel* m_transmissionPanel;
     widgets::TransmissionPane* m_transmissionPane;
+    widgets::DelayView* m_delayView;  // the case list's reporting delays (a dock)
     FitController* m_fitControl;
     DecisionController* m_decisionControl;
     ProjectController* m_projectControl;

@@ -2,6 +2,7 @@
 // background; the plot then shows the nowcast they give (nowcast/triangle.h, Workbench).
 #include "main_window.h"
 
+#include "project_session.h"
 #include "settings.h"
 #include "widgets/common/background_task.h"
 #include "widgets/common/drop_loading.h"
@@ -9,6 +10,9 @@
 
 #include <QFileDialog>
 #include <QFileInfo>
+
+#include <array>
+#include <memory>
 
 namespace siftwave::gui {
 namespace {
@@ -55,7 +59,9 @@ void MainWindow::openReleaseHistory(const QStringList& paths) {
             if (!m_workbench->hasDrop() || m_workbench->drop().source.sha256 != expectedDrop)
                 return;
             if (loaded.error) {
-                showError(tr("A release could not be read"), widgets::describeError(*loaded.error));
+                const QString message = widgets::describeError(*loaded.error);
+                showError(tr("A release could not be read"), message);
+                Q_EMIT historyFailed(message);
                 return;
             }
             m_workbench->setReleaseHistory(loaded.releases);
@@ -64,6 +70,38 @@ void MainWindow::openReleaseHistory(const QStringList& paths) {
             Q_EMIT historyOpened(static_cast<int>(m_workbench->releaseHistorySize()));
         });
     setBusy(task);
+}
+
+void MainWindow::openProjectHistory(const QString& projectPath,
+                                    const std::vector<ledger::ProjectRelease>& releases) {
+    if (releases.empty()) {
+        Q_EMIT projectOpened(projectPath);
+        return;
+    }
+    QStringList paths;
+    for (const ledger::ProjectRelease& r : releases)
+        paths << resolvedProjectPath(projectPath, r.path);
+    auto waiting = std::make_shared<std::array<QMetaObject::Connection, 2>>();
+    auto done = [this, projectPath, waiting, releases] {
+        for (const QMetaObject::Connection& c : *waiting)
+            disconnect(c);
+        // Each release must be the one the project was saved with (its SHA-256).
+        const auto& loaded = m_workbench->releaseHistory();
+        for (std::size_t i = 0; i < loaded.size() && i < releases.size(); ++i) {
+            if (loaded[i]->source.sha256 != releases[i].sha256) {
+                showError(tr("A release of the history has changed"),
+                          tr("%1 is not the file the project was saved with (its SHA-256 "
+                             "differs); the nowcast uses it as it is now.")
+                              .arg(QString::fromStdString(releases[i].path)));
+                break;
+            }
+        }
+        Q_EMIT projectOpened(projectPath);
+    };
+    (*waiting)[0] = connect(this, &MainWindow::historyOpened, this, [done](int) { done(); });
+    (*waiting)[1] =
+        connect(this, &MainWindow::historyFailed, this, [done](const QString&) { done(); });
+    openReleaseHistory(paths);
 }
 
 }  // namespace siftwave::gui

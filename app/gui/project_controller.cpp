@@ -55,6 +55,10 @@ ledger::ProjectFile ProjectController::projectOfWindow(const QString& projectPat
         p.previousDropPath = storedProjectPath(projectPath, m_workbench->previousPath());
         p.previousDropSha256 = previous->source.sha256;
     }
+    for (const std::shared_ptr<const Drop>& release : m_workbench->releaseHistory())
+        p.releaseHistory.push_back(
+            {storedProjectPath(projectPath, QString::fromStdString(release->source.path)),
+             release->source.sha256});
     if (const RegionRegister* reg = m_workbench->regionRegister())
         p.registerPath = storedProjectPath(projectPath, QString::fromStdString(reg->path));
     p.ledgerPath = storedProjectPath(projectPath, m_workbench->ledgerPath());

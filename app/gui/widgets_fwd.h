@@ -4,6 +4,7 @@
 namespace siftwave::widgets {
 class BackgroundTask;
 class BatchFitView;
+class DelayView;
 class DecisionPane;
 class FindingModel;
 class FindingReview;

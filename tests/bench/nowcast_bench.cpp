@@ -125,8 +125,11 @@ void report(benchmark::State& state, const Score& s) {
     state.counters["mae_over_naive"] = s.absError / s.absNaive;
 }
 
-// 200 seeds x "now" at days 38, 50, 62 of the generator's wave (rising, peak, falling).
+// 200 seeds x "now" at days 38, 50, 62 of the generator's wave (rising, peak, falling); the
+// argument is the delay model (0 constant, 1 trend, 2 auto).
 void CoverageStableDelay(benchmark::State& state) {
+    nowcast::NowcastOptions o;
+    o.delayModel = static_cast<nowcast::DelayModel>(state.range(0));
     Score s;
     for (auto _ : state) {
         s = {};
@@ -134,18 +137,20 @@ void CoverageStableDelay(benchmark::State& state) {
             for (int now : {38, 50, 62}) {
                 testing::CaseListSpec spec;
                 spec.seed = seed;
-                scoreLastWeek(spec, now, {}, s);
+                scoreLastWeek(spec, now, o, s);
             }
         }
     }
     report(state, s);
 }
-BENCHMARK(CoverageStableDelay)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK(CoverageStableDelay)->DenseRange(0, 2)->Unit(benchmark::kMillisecond)->Iterations(1);
 
-// Delays shortening on day 35 (mean 4.7 days to 0.9); now = 35 + lag days; window as given.
+// Delays shortening on day 35 (mean 4.7 days to 0.9); now = 35 + lag days; window and delay
+// model (0 constant, 1 trend, 2 auto) as given.
 void ShorteningDelay(benchmark::State& state) {
     const int window = static_cast<int>(state.range(0));
     const int lag = static_cast<int>(state.range(1));
+    const auto model = static_cast<nowcast::DelayModel>(state.range(2));
     Score s;
     for (auto _ : state) {
         s = {};
@@ -158,13 +163,14 @@ void ShorteningDelay(benchmark::State& state) {
             spec.changeDay = 35;
             nowcast::NowcastOptions o;
             o.windowPeriods = window;
+            o.delayModel = model;
             scoreLastWeek(spec, 35 + lag, o, s);
         }
     }
     report(state, s);
 }
 BENCHMARK(ShorteningDelay)
-    ->ArgsProduct({{14, 21, 42}, {7, 14, 21, 28, 35}})
+    ->ArgsProduct({{14, 21, 42}, {7, 14, 21, 28, 35}, {0, 1, 2}})
     ->Unit(benchmark::kMillisecond)
     ->Iterations(1);
 

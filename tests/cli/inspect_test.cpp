@@ -4,6 +4,7 @@
 #include "siftwave/sha256.h"
 
 #include "support/cli_run.h"
+#include "support/sanitizer.h"
 #include "support/temp_path.h"
 #include "support/zip_builder.h"
 
@@ -429,18 +430,6 @@ TEST(CliInspect, AWorkbookOfTwoTablesSaysWhichOtherSheetHoldsDates) {
 }
 
 }  // namespace
-
-// GCC defines __SANITIZE_ADDRESS__ under AddressSanitizer; clang answers __has_feature.
-#if defined(__SANITIZE_ADDRESS__)
-#define SIFTWAVE_TEST_UNDER_ASAN 1
-#elif defined(__has_feature)
-#if __has_feature(address_sanitizer)
-#define SIFTWAVE_TEST_UNDER_ASAN 1
-#endif
-#endif
-#ifndef SIFTWAVE_TEST_UNDER_ASAN
-#define SIFTWAVE_TEST_UNDER_ASAN 0
-#endif
 
 // Issue 19, "bounded resources": 10,000 regions with rows a century apart asked for 4.3 GB
 // from a 378 KB file. The reader now refuses the table before allocating it, naming the two

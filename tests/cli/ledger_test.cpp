@@ -321,6 +321,34 @@ TEST_F(LedgerCli, ExcessAutoWithAGivenWindowSaysTheWindowWasGiven) {
     EXPECT_EQ(nlohmann::json::parse(suggested.out).at("window_from"), "scan backlog estimate");
 }
 
+TEST_F(LedgerCli, DryRunSaysWhenADecisionWouldCreateANewAnomaly) {
+    // Issue 14, step 4: the sample's 2,479-count backlog in 1301 (manifest P06: three weeks
+    // under-reported) spread evenly over six days makes a block of about 400 more a day. The
+    // dry run re-scans the series as it would be and names what that creates.
+    const std::string sample = std::string(SIFTWAVE_SAMPLES_DIR) + "/quenmara_current.csv";
+    const std::string decide = "decide " + L() + " --drop " + quote(sample) +
+                               " redistribute --region 1301 --measure cases --date 2026-08-24"
+                               " --excess 2479 --window 2026-08-18:2026-08-23 --method uniform"
+                               " --dry-run";
+    CliRun text = cli(decide);
+    ASSERT_EQ(text.code, 0) << text.out << text.err;
+    EXPECT_NE(text.out.find("check: this decision would create what a scan flags"),
+              std::string::npos)
+        << text.out;
+    EXPECT_NE(text.out.find("new backlog_dump"), std::string::npos) << text.out;
+    CliRun json = cli(decide + " --json");
+    ASSERT_EQ(json.code, 0) << json.out << json.err;
+    const auto check = nlohmann::json::parse(json.out).at("check");
+    EXPECT_FALSE(check.at("clean").get<bool>());
+    ASSERT_FALSE(check.at("new_findings").empty());
+    for (const auto& f : check.at("new_findings")) {
+        EXPECT_EQ(f.at("region"), "1301");
+        EXPECT_GE(f.at("first").get<std::string>(), "2026-08-18");
+        EXPECT_LE(f.at("last").get<std::string>(), "2026-08-23");
+    }
+    EXPECT_FALSE(fs::exists(ledger));
+}
+
 TEST_F(LedgerCli, OneEntryIsCountedInTheSingular) {
     ASSERT_EQ(redistribute().code, 0);
     CliRun v = cli("ledger " + L() + " --verify");

@@ -33,6 +33,14 @@ TEST(CliNowcast, ACaseListGivesOneRowPerPeriodWithTheCaution) {
     // A period 15 or more days old is complete: its nowcast is what was reported.
     EXPECT_EQ(rows[0]["nowcast"], rows[0]["reported"]);
     EXPECT_EQ(rows[0]["p_complete"], 1.0);
+    // The delay model used is named (auto picks one of the two) with its trend test.
+    const std::string model = region["delay_model"];
+    EXPECT_TRUE(model == "constant" || model == "trend") << model;
+    EXPECT_TRUE(region.contains("trend_z"));
+    const auto fixed = runCli("nowcast " + kHus + " --now 2011-06-05 --delays constant --json");
+    ASSERT_EQ(fixed.exitCode, 0) << fixed.err;
+    EXPECT_EQ(nlohmann::json::parse(fixed.out)["regions"][0]["delay_model"], "constant");
+    EXPECT_EQ(runCli("nowcast " + kHus + " --delays sometimes").exitCode, 2);
 }
 
 TEST(CliNowcast, TextAndCsvCarryTheRowsAndTheTextTheCaution) {
@@ -96,6 +104,43 @@ TEST(CliDelays, HusO104QuantilesAndMonthsAsJson) {
     ASSERT_EQ(w.exitCode, 0) << w.err;
     EXPECT_EQ(w.out.rfind("first,last,cases,mean,q05", 0), 0u);
     EXPECT_EQ(runCli("delays " + kHus + " --by year").exitCode, 2);
+}
+
+}  // namespace
+
+namespace {
+
+// The analyst's choice to fit on the completed series goes through the ledger: decide records
+// nowcast_complete with its settings, the ledger verifies, and fit --ledger says it fitted the
+// completed counts and adds the nowcast's caution. Without the entry the fit says nothing.
+TEST(CliNowcast, FittingTheCompletedSeriesIsADecisionTheLedgerRecords) {
+    const std::string ledger = siftwave::testing::testTempPath("completed.jsonl").string();
+    const auto decided = runCli("decide " + ledger + " --drop " + kHus +
+                                " nowcast_complete --region all --max-delay 15 "
+                                "--reason 'brief on completed counts' --json");
+    ASSERT_EQ(decided.exitCode, 0) << decided.err;
+    const auto verified = runCli("ledger " + ledger + " --drop " + kHus + " --verify");
+    EXPECT_EQ(verified.exitCode, 0) << verified.err;
+    const auto fitted = runCli("fit " + kHus + " --region all --ledger " + ledger + " --json");
+    ASSERT_EQ(fitted.exitCode, 0) << fitted.err;
+    const auto j = nlohmann::json::parse(fitted.out);
+    ASSERT_TRUE(j.contains("nowcast_completed"));
+    // husO104Hosp's last report is 2011-07-05 (the list's dReport column).
+    EXPECT_NE(j["nowcast_completed"].get<std::string>().find(
+                  "chain-ladder as of 2011-07-05, max delay 15 days"),
+              std::string::npos);
+    EXPECT_NE(j["caution"].get<std::string>().find("not a forecast of new infections"),
+              std::string::npos);
+    const auto plain = runCli("fit " + kHus + " --region all --json");
+    ASSERT_EQ(plain.exitCode, 0) << plain.err;
+    EXPECT_FALSE(nlohmann::json::parse(plain.out).contains("nowcast_completed"));
+    // A count release cannot be completed: it has no report dates.
+    const auto counts = siftwave::testing::writeTempFile(
+        "counts.csv", "region,date,cases\nA,2026-03-01,3\nA,2026-03-02,4\n");
+    const auto refused = runCli("decide " + ledger + ".2 --drop " + counts +
+                                " nowcast_complete --region A --reason x");
+    EXPECT_EQ(refused.exitCode, 1);
+    EXPECT_NE(refused.err.find("needs a case list"), std::string::npos) << refused.err;
 }
 
 }  // namespace

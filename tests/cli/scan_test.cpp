@@ -1,5 +1,10 @@
 // End-to-end: siftwave-cli scan on the sample and on bad input.
 
+#include "siftwave/scan/scan.h"
+#include "siftwave/date.h"
+#include "siftwave/ingest/ingest.h"
+#include "support/cli_run.h"
+#include "support/sanitizer.h"
 #include "support/synthetic_drop.h"
 
 #include <gtest/gtest.h>
@@ -143,6 +148,78 @@ TEST(ScanCommand, ExitsZeroOnACleanDropOneOnUnreadableInputTwoOnWrongUsage) {
     EXPECT_EQ(run("scan").exitCode, 2);
     EXPECT_EQ(run("scan a.csv b.csv").exitCode, 2);
     EXPECT_EQ(run("scan --bogus x.csv").exitCode, 2);
+}
+
+TEST(ScanCommand, StreamsTheSameJsonTheReportWouldDumpWhole) {
+    // scan --json writes one finding at a time (issue 14, step 5); the text must be exactly
+    // the document nlohmann::json would print whole, with and without findings.
+    // The sample (the CLI also reads the register beside it): the streamed text is the one
+    // nlohmann::json prints for the same document.
+    const CliRun r = run("scan " + sample("quenmara_current.csv") + " --json");
+    ASSERT_EQ(r.exitCode, 0);
+    const auto whole = nlohmann::json::parse(r.out);
+    ASSERT_GT(whole["findings"].size(), 10u);
+    EXPECT_EQ(r.out, whole.dump(2) + "\n");
+
+    // No findings: an empty list, written as nlohmann::json writes one.
+    const std::filesystem::path quiet =
+        std::filesystem::temp_directory_path() /
+        ("siftwave_scan_quiet_" + std::to_string(getpid()) + ".csv");
+    {
+        std::ofstream out(quiet);
+        out << "date,region,cases\n";
+        const int values[] = {3, 1, 4, 1, 5, 2, 6, 2, 5, 3, 5, 0, 2, 4};
+        for (int d = 0; d < 14; ++d)
+            out << "2026-03-" << (d + 2 < 10 ? "0" : "") << d + 2 << ",Q1," << values[d] << "\n";
+    }
+    auto quietDrop = siftwave::ingest::readDrop(quiet.string());
+    ASSERT_TRUE(quietDrop.ok());
+    auto quietReport = siftwave::scan::scanDrop(*quietDrop);
+    ASSERT_TRUE(quietReport.ok());
+    ASSERT_TRUE(quietReport->findings.empty()) << quietReport->findings.front().id;
+    const CliRun q = run("scan " + quiet.string() + " --json");
+    std::filesystem::remove(quiet);
+    ASSERT_EQ(q.exitCode, 0);
+    EXPECT_EQ(q.out, siftwave::scan::scanReportToJson(*quietReport).dump(2) + "\n");
+}
+
+// Issue 14, step 5: scan --json on a 1 MB weekly file used 335 MB. A file of the same size whose
+// every third cell is a problem (19,371 findings, 15 MB of JSON) is scanned under a 120 MB
+// address-space limit (ulimit -v), about twice what it needs: the findings are written one at a
+// time and their evidence is kept as CBOR bytes. (Under AddressSanitizer, whose shadow memory
+// takes terabytes of address space, the command runs without the limit.)
+TEST(ScanCommand, ThousandsOfFindingsFromAWeeklyFileStayWithinAMemoryBound) {
+    std::string text = "week_start,region,cases\n";
+    const char* values[] = {"0", "0", "0", "1", "2", "3", "50", "500", "7", "7", "7", "-3", "", ""};
+    std::uint64_t state = 4;
+    siftwave::Date week = *siftwave::Date::fromIso("2001-01-01");
+    for (int r = 0; r < 140; ++r) {
+        for (int w = 0; w < 420; ++w) {
+            state = state * 6364136223846793005ull + 1442695040888963407ull;  // Knuth's MMIX LCG
+            text += (week + 7 * w).iso() + "," + std::to_string(8000 + r) + "," +
+                    values[(state >> 33) % 14] + "\n";
+        }
+    }
+    ASSERT_GT(text.size(), 1'000'000u);
+    const std::filesystem::path path = siftwave::testing::testTempPath("weekly_faults.csv");
+    {
+        std::ofstream out(path);
+        out << text;
+    }
+    const std::string limited = SIFTWAVE_TEST_UNDER_ASAN ? "" : "ulimit -v 120000; ";
+    const std::filesystem::path outPath = siftwave::testing::testTempPath("weekly_faults.json");
+    const int status = std::system(("sh -c '" + limited + kCli + " scan " + path.string() +
+                                    " --json >" + outPath.string() + " 2>&1'")
+                                       .c_str());
+    ASSERT_TRUE(WIFEXITED(status));
+    ASSERT_EQ(WEXITSTATUS(status), 0) << siftwave::testing::slurpFile(outPath).substr(0, 300);
+    // The whole document was written (its summary comes last), at about 15 MB.
+    EXPECT_GT(std::filesystem::file_size(outPath), 10'000'000u);
+    const std::string json = siftwave::testing::slurpFile(outPath);
+    EXPECT_NE(json.find("\"cadence\": \"weekly\"", json.size() - 60), std::string::npos)
+        << json.substr(json.size() - 200);
+    std::filesystem::remove(path);
+    std::filesystem::remove(outPath);
 }
 
 }  // namespace

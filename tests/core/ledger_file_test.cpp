@@ -247,5 +247,39 @@ TEST(ProjectFileBytes, FieldsOfTheWrongTypeAreRefusedNotThrown) {
     EXPECT_TRUE(parseProjectFile(head + R"("ledger":{"path":"l","entries":3}})", "ok").ok());
 }
 
+// The release history behind a nowcast is kept in the project, each release pinned by its
+// SHA-256; a project without one is written as before (no "release_history" key), and a
+// malformed list is refused by name.
+TEST(ProjectFileBytes, TheReleaseHistoryRoundTripsAndIsCheckedByType) {
+    ProjectFile p;
+    p.dropPath = "releases/cases_2026-03-10.csv";
+    p.dropSha256 = std::string(64, 'a');
+    p.ledgerPath = "decisions.jsonl";
+    const std::string dir = siftwave::testing::testTempPath("history").string();
+    std::filesystem::create_directories(dir);
+    const std::string without = dir + "/without.siftwave.json";
+    ASSERT_TRUE(writeProjectFile(without, p).ok());
+    EXPECT_EQ(slurp(without).find("release_history"), std::string::npos);
+    p.releaseHistory = {{"releases/cases_2026-03-08.csv", std::string(64, 'b')},
+                        {"releases/cases_2026-03-09.csv", std::string(64, 'c')}};
+    const std::string with = dir + "/with.siftwave.json";
+    ASSERT_TRUE(writeProjectFile(with, p).ok());
+    Result<ProjectFile> back = readProjectFile(with);
+    ASSERT_TRUE(back.ok()) << back.error().describe();
+    EXPECT_EQ(back->releaseHistory, p.releaseHistory);
+    const std::string head = R"({"format":"siftwave-project","version":1,"drop":{"path":"d",)"
+                             R"("sha256":")" +
+                             std::string(64, 'a') + R"("},"ledger":{"path":"l"},)";
+    for (const std::string& rest :
+         {std::string(R"("release_history":{"path":"r"}})"),
+          std::string(R"("release_history":[{"path":"r"}]})"),
+          std::string(R"("release_history":[{"path":"r","sha256":"short"}]})"),
+          std::string(R"("release_history":[{"path":3,"sha256":"x"}]})")}) {
+        Result<ProjectFile> r = parseProjectFile(head + rest, "hand.siftwave");
+        ASSERT_FALSE(r.ok()) << rest;
+        EXPECT_NE(r.error().message.find("release"), std::string::npos) << r.error().message;
+    }
+}
+
 }  // namespace
 }  // namespace siftwave::ledger

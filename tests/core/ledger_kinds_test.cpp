@@ -64,6 +64,13 @@ Decision sampleOf(DecisionKind kind) {
         case DecisionKind::Withdraw:
             d.target = 3;
             break;
+        case DecisionKind::NowcastComplete:
+            d.region = "0412";
+            d.measure = "cases";
+            d.date = day("2026-03-14");
+            d.maxDelay = 10;
+            d.nowcastWindow = 21;
+            break;
         default:  // a new kind checks its own entry in its own test
             break;
     }
@@ -98,6 +105,8 @@ TEST(LedgerKinds, AnEntryWritesTheParametersItsKindListsAndReadsThemBack) {
         {DecisionKind::Exclude, {"region", "measure", "window"}},
         {DecisionKind::Accept, {"region", "measure", "window"}},
         {DecisionKind::Withdraw, {"entry"}},
+        {DecisionKind::NowcastComplete,
+         {"region", "measure", "date", "max_delay", "nowcast_window", "method"}},
     };
     for (const auto& [kind, keysOfKind] : expected) {
         const DecisionKindInfo* k = &decisionKindInfo(kind);

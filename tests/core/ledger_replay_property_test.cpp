@@ -162,6 +162,8 @@ Decision randomDecision(std::mt19937_64& rng, const Drop& drop, const Cleaned& c
             // Mostly the latest entries, as an undo stack would.
             d.target = entries == 0 ? 1 : entries - rng() % std::min<std::uint64_t>(entries, 3);
             break;
+        case DecisionKind::NowcastComplete:  // not drawn (rng() % 8): these drops hold counts
+            break;
     }
     return d;
 }

@@ -120,11 +120,35 @@ TEST(Nowcast, FollowsADelayThatShortensMidway) {
         spec.delayPmf = {0.02, 0.08, 0.12, 0.14, 0.14, 0.13, 0.12, 0.10, 0.07, 0.05, 0.03};
         spec.laterPmf = {0.45, 0.35, 0.12, 0.05, 0.03};
         spec.changeDay = 35;
+        fast.delayModel = slow.delayModel = DelayModel::Constant;  // the window alone
         score(spec, 35 + 21, shortWindow, fast);
         score(spec, 35 + 21, longWindow, slow);
     }
     EXPECT_LT(shortWindow.absError, shortWindow.absNaive);
     EXPECT_LT(shortWindow.absError, 0.2 * longWindow.absError);
+}
+
+// The same shortening, two weeks after the change, with the default 21-day window: hazards
+// constant over the window still over-estimate (several times the naive count's error), the
+// drifting hazards (DelayModel::Auto, whose trend test rejects here) already beat the naive
+// count. The bench (ShorteningDelay) gives the figures week by week.
+TEST(Nowcast, ADriftingDelayFollowsAShorteningOneWithinTwoWeeks) {
+    Accuracy constant;
+    Accuracy automatic;
+    NowcastOptions fixed;
+    fixed.delayModel = DelayModel::Constant;
+    for (std::uint64_t seed = 1; seed <= 8; ++seed) {
+        CaseListSpec spec;
+        spec.seed = seed;
+        spec.delayPmf = {0.02, 0.08, 0.12, 0.14, 0.14, 0.13, 0.12, 0.10, 0.07, 0.05, 0.03};
+        spec.laterPmf = {0.45, 0.35, 0.12, 0.05, 0.03};
+        spec.changeDay = 35;
+        score(spec, 35 + 14, constant, fixed);
+        score(spec, 35 + 14, automatic);
+    }
+    EXPECT_GT(constant.absError, 2.0 * constant.absNaive);
+    EXPECT_LT(automatic.absError, automatic.absNaive);
+    EXPECT_LT(automatic.absError, 0.5 * constant.absError);
 }
 
 // The same cases as a case list and as a history of daily releases give the same triangle,
@@ -186,41 +210,57 @@ namespace siftwave::nowcast {
 namespace {
 
 // Real data: the husO104Hosp list (r-cran-surveillance; the outbreak Höhle & an der Heiden 2014
-// nowcast) cut at every day from 2011-05-20 to 2011-06-20 (the list as it stood then: cases
+// nowcast) cut at every day from `from` to 2011-06-20 (the list as it stood then: cases
 // reported by that day), the last 7 days of each nowcast scored against the final counts of the
-// whole list. Delays are at most 15 days in the data (SOURCES.md), so D = 15. Known limitation,
-// measured and reported in the nowcast report: the delays shortened during the outbreak (median
-// 7 days for May's hospitalisations, 5 for June's; nowcast_delays_test), which a chain-ladder
-// learns only through its moving window, so it over-estimates here and does not beat the count
-// reported so far on these days. The check is the interval's coverage, which stays near 0.8,
-// and that no period under a tenth reported is nowcast.
-TEST(Nowcast, HusO104IntervalsCoverMostFinalCounts) {
+// whole list. Delays are at most 15 days in the data (SOURCES.md), so D = 15. Every one of the
+// last 7 days is scored: a day not nowcast (under a tenth reported) counts with its reported
+// count, so the delay models are compared on the same days.
+Accuracy scoreHus(DelayModel model, const char* from) {
     Result<Drop> drop =
         ingest::readDrop(std::string(SIFTWAVE_TEST_DATA_DIR) + "/real/husO104Hosp_case_list.csv");
-    ASSERT_TRUE(drop.ok());
+    EXPECT_TRUE(drop.ok());
     const std::span<const Cell> finals = drop->series(0, 0);
+    NowcastOptions options;
+    options.delayModel = model;
     Accuracy a;
-    for (Date now = *Date::fromIso("2011-05-20"); now <= *Date::fromIso("2011-06-20");
-         now = now + 1) {
-        const NowcastResult r = nowcastOf(*drop, now, 15);
+    for (Date now = *Date::fromIso(from); now <= *Date::fromIso("2011-06-20"); now = now + 1) {
+        const NowcastResult r = nowcastOf(*drop, now, 15, options);
         for (std::size_t i = r.rows.size() - 7; i < r.rows.size(); ++i) {
             const NowcastRow& row = r.rows[i];
-            if (std::isnan(row.nowcast)) {
-                EXPECT_LT(row.shareReported, 0.1);
-                continue;
-            }
             const double y = finals[static_cast<std::size_t>(*drop->periodOf(row.date))].value;
+            const bool nowcast = !std::isnan(row.nowcast);
+            EXPECT_TRUE(nowcast || row.shareReported < 0.1);
             ++a.intervals;
-            a.covered += (y >= row.lo && y <= row.hi) ? 1 : 0;
-            a.absError += std::abs(row.nowcast - y);
+            a.covered += nowcast && y >= row.lo && y <= row.hi ? 1 : 0;
+            a.absError += std::abs((nowcast ? row.nowcast : row.reported) - y);
             a.absNaive += std::abs(row.reported - y);
         }
     }
-    std::printf("husO104: %d intervals, coverage %.3f, MAE %.2f, naive MAE %.2f\n", a.intervals,
+    std::printf("husO104 from %s, delays %s: %d days, coverage %.3f, MAE %.2f, naive MAE %.2f\n",
+                from, delayModelName(model), a.intervals,
                 static_cast<double>(a.covered) / a.intervals, a.absError / a.intervals,
                 a.absNaive / a.intervals);
-    ASSERT_GT(a.intervals, 60);
-    EXPECT_GE(static_cast<double>(a.covered) / a.intervals, 0.7);
+    return a;
+}
+
+// Measured (the figures in README "Reporting delays and nowcasts"): the delays shortened during
+// the outbreak (median 7 days for May's hospitalisations, 5 for June's; nowcast_delays_test).
+// Delays held constant over the 21-day window over-estimate and lose to the count reported so
+// far; the trend of the hazards (Höhle & an der Heiden 2014's time-varying delay, here on the
+// reverse-time hazards) follows the shortening and beats it, which Auto picks up.
+TEST(Nowcast, HusO104ADelayThatDriftsBeatsTheNaiveCountWhereAConstantOneDoesNot) {
+    const Accuracy constant = scoreHus(DelayModel::Constant, "2011-05-20");
+    const Accuracy automatic = scoreHus(DelayModel::Auto, "2011-05-20");
+    ASSERT_GT(automatic.intervals, 200);
+    EXPECT_GT(constant.absError, constant.absNaive);
+    EXPECT_LT(automatic.absError, automatic.absNaive);
+    // From June on (the reporting system a week old): the trend's error is well under the naive.
+    const Accuracy june = scoreHus(DelayModel::Auto, "2011-06-01");
+    EXPECT_LT(june.absError, 0.95 * june.absNaive);
+    // The intervals cover less than their nominal 95 % on this outbreak (0.71 from June, 0.48
+    // over all cuts, where late May's reports came in batches after the outbreak was recognised):
+    // a limitation stated in the README. The check keeps them from getting worse.
+    EXPECT_GE(static_cast<double>(june.covered) / june.intervals, 0.65);
 }
 
 }  // namespace

@@ -2,6 +2,7 @@
 // series plot shows (Workbench::setReleaseHistory, app/gui/main_window_history.cpp).
 #include "../support/case_list_generator.h"
 #include "main_window.h"
+#include "widgets/common/workbench.h"
 #include "widgets/plot/qcustomplot_include.h"
 #include "widgets/plot/series_plot.h"
 
@@ -63,6 +64,18 @@ private Q_SLOTS:
         QVERIFY(nowcast);
         if (const QByteArray out = qgetenv("SIFTWAVE_HISTORY_PNG"); !out.isEmpty())
             window.grab().save(QString::fromLocal8Bit(out));
+
+        // A project keeps the history: reopened, the same releases give the nowcast again.
+        const QString project = dir.filePath(QStringLiteral("study.siftwave.json"));
+        QVERIFY(window.saveProject(project));
+        siftwave::gui::MainWindow reopened(options);
+        reopened.resize(1200, 800);
+        reopened.show();
+        QSignalSpy projectOpened(&reopened, &siftwave::gui::MainWindow::projectOpened);
+        reopened.openProject(project);
+        QVERIFY(projectOpened.wait(30000));
+        QCOMPARE(static_cast<int>(reopened.workbench()->releaseHistorySize()), spec.days - 1);
+        QVERIFY(reopened.workbench()->releaseHistoryProblem().isEmpty());
     }
 };
 

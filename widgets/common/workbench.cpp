@@ -135,6 +135,12 @@ Result<ledger::Effect> Workbench::preview(const ledger::Decision& decision) cons
     return ledger::previewDecision(*m_drop, m_cleaned, decision);
 }
 
+Result<scan::DecisionCheck> Workbench::checkDecision(const ledger::Decision& decision) const {
+    if (!m_drop)
+        return makeError(ErrorCode::Usage, "no drop is open");
+    return scan::checkDecision(*m_drop, m_cleaned, decision);
+}
+
 Result<std::uint64_t> Workbench::apply(const ledger::Decision& decision, const QString& reason) {
     if (!m_drop)
         return makeError(ErrorCode::Usage, "no drop is open");

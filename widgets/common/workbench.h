@@ -14,6 +14,7 @@
 #include "siftwave/nowcast/nowcast.h"
 #include "siftwave/region_register.h"
 #include "siftwave/result.h"
+#include "siftwave/scan/decision_check.h"
 #include "siftwave/scan/scan.h"
 #include "widgets/plot/series_view.h"
 
@@ -51,6 +52,8 @@ public:
     /// then shows the nowcast the history gives (nowcast/triangle.h). Emits previousChanged.
     void setReleaseHistory(std::vector<std::shared_ptr<const Drop>> releases);
     std::size_t releaseHistorySize() const { return m_history.size(); }
+    /// The earlier releases as given to setReleaseHistory (a project saves their paths).
+    const std::vector<std::shared_ptr<const Drop>>& releaseHistory() const { return m_history; }
     /// Why the history gives no nowcast for the first region (a gap between releases, another
     /// calendar, ...); empty when it gives one or there is no history.
     QString releaseHistoryProblem() const;
@@ -100,6 +103,10 @@ public:
     Result<std::uint64_t> apply(const ledger::Decision& decision, const QString& reason);
     /// Undoes an entry by appending a withdrawal (history is never rewritten).
     Result<std::uint64_t> withdraw(std::uint64_t sequence, const QString& reason);
+    /// What `decision` would newly make look wrong: a re-scan of the cleaned series it changes
+    /// as they would be after it (scan/decision_check.h, the scan's default thresholds, as the
+    /// findings use). Errors: those of preview().
+    Result<scan::DecisionCheck> checkDecision(const ledger::Decision& decision) const;
     /// Cleaned total of a region for one measure (the raw total before any decision).
     std::optional<std::int64_t> cleanedTotal(const QString& regionCode, int measure) const;
 

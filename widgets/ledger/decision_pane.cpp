@@ -8,6 +8,7 @@
 #include <QLineEdit>
 #include <QLocale>
 #include <QPushButton>
+#include <QScrollArea>
 #include <QSignalBlocker>
 #include <QSpinBox>
 #include <QVBoxLayout>
@@ -31,6 +32,7 @@ DecisionPane::DecisionPane(QWidget* parent)
       m_excessLabel(new QLabel(tr("Counts to move"), this)),
       m_windowLabel(new QLabel(this)),
       m_preview(new QLabel(this)),
+      m_check(new QLabel(this)),
       m_reason(new QLineEdit(this)),
       m_apply(new QPushButton(tr("Apply"), this)),
       m_cancel(new QPushButton(tr("Discard"), this)) {
@@ -44,6 +46,9 @@ DecisionPane::DecisionPane(QWidget* parent)
     m_preview->setObjectName(QStringLiteral("decisionPreview"));
     m_preview->setWordWrap(true);
     m_preview->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    m_check->setObjectName(QStringLiteral("decisionCheck"));
+    m_check->setWordWrap(true);
+    m_check->setTextInteractionFlags(Qt::TextSelectableByMouse);
     m_reason->setObjectName(QStringLiteral("decisionReason"));
     m_reason->setPlaceholderText(tr("Why: required, kept in the ledger"));
     m_apply->setObjectName(QStringLiteral("applyDecision"));
@@ -64,7 +69,22 @@ DecisionPane::DecisionPane(QWidget* parent)
     layout->setContentsMargins(4, 4, 4, 4);
     layout->addWidget(m_title);
     layout->addLayout(form);
-    layout->addWidget(m_preview, 1);
+    // The preview and the check can run long (one line per new anomaly): they scroll, so the
+    // method, the reason and the buttons stay in view however short the pane is.
+    auto* texts = new QWidget;
+    auto* textLayout = new QVBoxLayout(texts);
+    textLayout->setContentsMargins(0, 0, 0, 0);
+    textLayout->addWidget(m_preview);
+    textLayout->addWidget(m_check);
+    textLayout->addStretch(1);
+    auto* scroll = new QScrollArea(this);
+    scroll->setObjectName(QStringLiteral("decisionTexts"));
+    scroll->setWidget(texts);
+    scroll->setWidgetResizable(true);
+    scroll->setFrameShape(QFrame::NoFrame);
+    scroll->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
+    scroll->setMinimumHeight(3 * fontMetrics().lineSpacing());
+    layout->addWidget(scroll, 1);
     layout->addLayout(buttons);
 
     connect(m_method, &QComboBox::currentIndexChanged, this, [this] {
@@ -160,6 +180,7 @@ void DecisionPane::clear() {
     }
     m_windowLabel->clear();
     m_preview->clear();
+    m_check->clear();
     m_reason->clear();
     m_reason->setEnabled(false);
     m_cancel->setEnabled(false);
@@ -233,6 +254,35 @@ void DecisionPane::showPreview(const Result<ledger::Effect>& effect) {
                     .arg(count(m_excess->value()), QString::fromStdString(m_decision->date->iso()));
     m_preview->setText(text);
     updateApply();
+}
+
+void DecisionPane::showCheck(const std::optional<Result<scan::DecisionCheck>>& check) {
+    if (!check) {
+        m_check->clear();
+        return;
+    }
+    if (!*check) {
+        m_check->setText(
+            tr("<i>Could not re-scan the series after this decision: %1</i>")
+                .arg(QString::fromStdString((*check).error().message).toHtmlEscaped()));
+        return;
+    }
+    if ((*check)->clean()) {
+        m_check->setText(
+            tr("Check: a scan after this decision finds nothing new in the series it changes."));
+        return;
+    }
+    QString text =
+        tr("<b>Check: this decision would create what the scan flags.</b> Look at the "
+           "preview on the plot before applying; another method or a longer window "
+           "may avoid it.");
+    for (const std::string& line : scan::describeDecisionCheck(**check, m_axis.cadence()))
+        text += QStringLiteral("<br>• ") + QString::fromStdString(line).toHtmlEscaped();
+    m_check->setText(text);
+}
+
+QString DecisionPane::checkText() const {
+    return m_check->text();
 }
 
 QString DecisionPane::previewText() const {

@@ -4,7 +4,8 @@
 // It starts from a finding's suggested decision (or a bar picked on the plot),
 // lets the analyst change the method and the window (also by dragging the
 // window's edges on the plot), shows what the core's preview says it would do
-// — the cells it changes and the region total before and after — and asks for
+// — the cells it changes and the region total before and after — and what a scan after
+// it would newly find (a plateau, a new spike, a wave the counts did not have), and asks for
 // the reason, prefilled from the finding's evidence, editable and required.
 // Apply emits applyRequested(); the window applies through Workbench::apply().
 
@@ -13,6 +14,7 @@
 #include "siftwave/ledger/decision.h"
 #include "siftwave/result.h"
 #include "siftwave/scan/backlog.h"
+#include "siftwave/scan/decision_check.h"
 #include "siftwave/scan/finding.h"
 #include "widgets/plot/series_view.h"
 
@@ -49,6 +51,11 @@ public:
 
     /// Shows the core's preview (or why it refuses) for `region` and `measure`.
     void showPreview(const Result<ledger::Effect>& effect);
+    /// Shows what a scan after the decision would newly find (nullopt: nothing to check, as
+    /// when the preview failed). A check that finds something is a warning, not a refusal: the
+    /// analyst may still apply, having seen it.
+    void showCheck(const std::optional<Result<scan::DecisionCheck>>& check);
+    QString checkText() const;
     /// The preview allows Apply (the core accepted it).
     bool previewOk() const { return m_previewOk; }
 
@@ -74,6 +81,7 @@ private:
     QLabel* m_excessLabel;
     QLabel* m_windowLabel;
     QLabel* m_preview;
+    QLabel* m_check;  // what the decision would newly make look wrong
     QLineEdit* m_reason;
     QPushButton* m_apply;
     QPushButton* m_cancel;

@@ -5,6 +5,7 @@
 #include <QComboBox>
 #include <QHBoxLayout>
 #include <QLabel>
+#include <QResizeEvent>
 #include <QVBoxLayout>
 
 namespace siftwave::widgets {
@@ -40,6 +41,13 @@ TransmissionPanel::TransmissionPanel(QWidget* parent)
 
 TransmissionPanel::~TransmissionPanel() = default;
 
+void TransmissionPanel::resizeEvent(QResizeEvent* event) {
+    QWidget::resizeEvent(event);
+    const int needed = m_caution->heightForWidth(width());
+    if (needed > 0 && needed != m_caution->minimumHeight())
+        m_caution->setMinimumHeight(needed);
+}
+
 void TransmissionPanel::setResult(std::optional<transmission::TransmissionResult> result,
                                   const QString& note) {
     m_result = std::move(result);
@@ -67,8 +75,17 @@ void TransmissionPanel::follow(QCustomPlot* seriesPlot) {
                 m_plot->xAxis->setRange(range);
                 m_plot->replot(QCustomPlot::rpQueuedReplot);
             });
-    connect(seriesPlot, &QCustomPlot::afterReplot, this,
-            [this, seriesPlot] { alignWith(seriesPlot); });
+    connect(seriesPlot, &QCustomPlot::afterReplot, this, [this, seriesPlot] {
+        // The series plot's tick count follows its width (one date label per 120 pixels); the
+        // same count on the same range and width gives the same ticks, and labels that do not
+        // run into each other.
+        const int ticks = seriesPlot->xAxis->ticker()->tickCount();
+        if (m_plot->xAxis->ticker()->tickCount() != ticks) {
+            m_plot->xAxis->ticker()->setTickCount(ticks);
+            m_plot->replot(QCustomPlot::rpQueuedReplot);
+        }
+        alignWith(seriesPlot);
+    });
     m_plot->xAxis->setRange(seriesPlot->xAxis->range());
 }
 

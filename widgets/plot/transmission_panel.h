@@ -42,6 +42,11 @@ public:
     QCustomPlot* customPlot() const { return m_plot; }
     const TransmissionChart& chart() const { return *m_chart; }
 
+protected:
+    /// Keeps the caution's wrapped height as its minimum, so that a short panel never draws
+    /// the caution over the plot (a splitter does not ask labels for their height at a width).
+    void resizeEvent(QResizeEvent* event) override;
+
 private:
     void redraw();
     void alignWith(QCustomPlot* seriesPlot);

@@ -18,6 +18,7 @@ extern const DecisionKindInfo kMergeCodesKind;
 extern const DecisionKindInfo kExcludeKind;
 extern const DecisionKindInfo kAcceptKind;
 extern const DecisionKindInfo kWithdrawKind;
+extern const DecisionKindInfo kNowcastCompleteKind;
 }  // namespace detail
 
 namespace {
@@ -26,7 +27,7 @@ namespace {
 constexpr const DecisionKindInfo* kKinds[] = {
     &detail::kRedistributeKind,     &detail::kSpreadNegativeKind, &detail::kFillMissingKind,
     &detail::kResolveDuplicateKind, &detail::kMergeCodesKind,     &detail::kExcludeKind,
-    &detail::kAcceptKind,           &detail::kWithdrawKind,
+    &detail::kAcceptKind,           &detail::kWithdrawKind,       &detail::kNowcastCompleteKind,
 };
 
 }  // namespace

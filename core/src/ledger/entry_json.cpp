@@ -17,6 +17,7 @@ using nlohmann::json;
 namespace {
 
 constexpr int kEntryVersion = 1;
+constexpr const char* kNowcastMethod = "chain_ladder";  // nowcast_complete's only method
 
 json cellToJson(const CleanedCell& c) {
     return json{{"state", cleanedStateName(c.state)}, {"value", c.value}};
@@ -82,6 +83,15 @@ json decisionParameters(const Decision& d) {
                 break;
             case DecisionParam::Entry:
                 p["entry"] = d.target;
+                break;
+            case DecisionParam::MaxDelay:
+                p["max_delay"] = d.maxDelay;
+                break;
+            case DecisionParam::NowcastWindow:
+                p["nowcast_window"] = d.nowcastWindow;
+                break;
+            case DecisionParam::NowcastMethod:
+                p["method"] = kNowcastMethod;
                 break;
         }
     }
@@ -219,10 +229,11 @@ private:
 Status checkParameterKeys(const Reader& rd, const json& p) {
     if (!p.is_object())
         return syntax(rd.line(), "\"parameters\" must be an object");
-    return rd.onlyKeys(p,
-                       {"region", "measure", "date", "window", "excess", "method", "baseline_width",
-                        "keep", "variant", "into", "entry", "finding"},
-                       "parameters");
+    return rd.onlyKeys(
+        p,
+        {"region", "measure", "date", "window", "excess", "method", "baseline_width", "keep",
+         "variant", "into", "entry", "finding", "max_delay", "nowcast_window"},
+        "parameters");
 }
 
 /// The text parameters, each optional: region, measure, variant, into and finding.
@@ -281,6 +292,17 @@ Status readNumberParameters(const Reader& rd, const json& p, Decision& d) {
             return syntax(rd.line(), "\"entry\" must be a positive id");
         d.target = static_cast<std::uint64_t>(*x);
     }
+    for (auto [key, out] :
+         {std::pair{"max_delay", &d.maxDelay}, std::pair{"nowcast_window", &d.nowcastWindow}}) {
+        if (!p.contains(key))
+            continue;
+        auto x = rd.integer(p, key);
+        if (!x)
+            return x.error();
+        if (*x < 1 || *x > 100000)
+            return syntax(rd.line(), std::string("\"") + key + "\" must be 1 to 100000");
+        *out = static_cast<int>(*x);
+    }
     return Ok{};
 }
 
@@ -290,8 +312,13 @@ Status readRuleParameters(const Reader& rd, const json& p, Decision& d) {
         auto x = rd.text(p, "method");
         if (!x)
             return x.error();
-        // "method" names a redistribution method for the kinds that take one, else a fill method.
-        if (decisionKindInfo(d.kind).hasParameter(DecisionParam::RedistributeMethod)) {
+        // "method" names a redistribution method for the kinds that take one, the nowcast's
+        // method for nowcast_complete, else a fill method.
+        if (decisionKindInfo(d.kind).hasParameter(DecisionParam::NowcastMethod)) {
+            if (*x != kNowcastMethod)
+                return syntax(rd.line(),
+                              "unknown nowcast method \"" + *x + "\" (" + kNowcastMethod + ")");
+        } else if (decisionKindInfo(d.kind).hasParameter(DecisionParam::RedistributeMethod)) {
             auto m = redistributeMethodFromName(*x);
             if (!m)
                 return syntax(rd.line(), "unknown redistribution method \"" + *x + "\"");

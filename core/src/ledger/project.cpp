@@ -71,6 +71,12 @@ Status ProjectFile::validate() const {
     }
     if (fit.smoothingDays < 1)
         return makeError(ErrorCode::Usage, "the smoothing width must be at least 1 day");
+    for (const ProjectRelease& r : releaseHistory) {
+        if (r.path.empty() || !isSha256Hex(r.sha256))
+            return makeError(ErrorCode::Usage,
+                             "each release of the history needs a path and a SHA-256 of 64 "
+                             "lower-case hex digits");
+    }
     return Ok{};
 }
 
@@ -104,6 +110,12 @@ Status writeProjectFile(const std::string& path, const ProjectFile& p) {
              {"window_last", optionalDate(p.fit.windowLast)},
              {"smoothing_days", p.fit.smoothingDays}}},
            {"extra", p.extra}};
+    if (!p.releaseHistory.empty()) {
+        json history = json::array();
+        for (const ProjectRelease& r : p.releaseHistory)
+            history.push_back({{"path", r.path}, {"sha256", r.sha256}});
+        j["release_history"] = std::move(history);
+    }
     std::string text;
     try {
         text = j.dump(2, ' ', false, json::error_handler_t::strict) + "\n";
@@ -193,6 +205,20 @@ Result<ProjectFile> parseProjectFile(std::string_view bytes, const std::string& 
         }
         if (j.contains("extra"))
             p.extra = j.at("extra").get<std::map<std::string, std::string>>();
+        if (j.contains("release_history")) {
+            const json& history = j.at("release_history");
+            if (!history.is_array())
+                return projectError(path, "\"release_history\" must be a list of releases");
+            for (const json& r : history) {
+                if (!r.is_object() || !r.contains("path") || !r.at("path").is_string() ||
+                    !r.contains("sha256") || !r.at("sha256").is_string())
+                    return projectError(path,
+                                        "each release of \"release_history\" needs a "
+                                        "\"path\" and a \"sha256\" (text)");
+                p.releaseHistory.push_back(
+                    {r.at("path").get<std::string>(), r.at("sha256").get<std::string>()});
+            }
+        }
     } catch (const std::exception& ex) {
         return projectError(path, std::string("malformed project file: ") + ex.what());
     }

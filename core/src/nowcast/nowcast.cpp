@@ -1,6 +1,8 @@
 // The chain-ladder nowcast with its negative-binomial mixture interval (nowcast.h).
 #include "siftwave/nowcast/nowcast.h"
 
+#include "nowcast/delay_trend.h"
+
 #include <boost/math/distributions/normal.hpp>
 
 #include <algorithm>
@@ -12,6 +14,25 @@ const char* const kNowcastCaution =
     "A nowcast estimates reports still to come for periods already past, assuming the "
     "reporting delays seen so far continue; it is not a forecast of new infections. Defer to "
     "the responsible public-health authority.";
+
+const char* delayModelName(DelayModel model) {
+    switch (model) {
+        case DelayModel::Constant:
+            return "constant";
+        case DelayModel::Trend:
+            return "trend";
+        case DelayModel::Auto:
+            return "auto";
+    }
+    return "auto";
+}
+
+std::optional<DelayModel> delayModelFromName(std::string_view name) {
+    for (DelayModel m : {DelayModel::Constant, DelayModel::Trend, DelayModel::Auto})
+        if (name == delayModelName(m))
+            return m;
+    return std::nullopt;
+}
 
 Status NowcastOptions::validate() const {
     if (windowPeriods < 0)
@@ -32,36 +53,6 @@ int NowcastOptions::window(const TimeAxis& axis) const {
 }
 
 namespace {
-
-/// The reverse-time hazards g_j and the delta-method variances of log(1 - g_j), j = 1 .. D.
-struct Hazards {
-    std::vector<double> g;
-    std::vector<double> logVar;
-};
-
-Hazards estimateHazards(const ReportingTriangle& tri, int window) {
-    const int D = tri.maxDelay;
-    Hazards h{std::vector<double>(static_cast<std::size_t>(D + 1), 0.0),
-              std::vector<double>(static_cast<std::size_t>(D + 1), 0.0)};
-    for (int j = 1; j <= D; ++j) {
-        double arrived = 0.0;  // sum of C[t][j] - C[t][j-1]
-        double upTo = 0.0;     // sum of C[t][j]
-        int rows = 0;
-        for (std::int32_t t = tri.nowPeriod - j; t >= 0 && rows < window; --t) {
-            if (!tri.known(t, j) || !tri.known(t, j - 1))
-                continue;
-            arrived += tri.at(t, j) - tri.at(t, j - 1);
-            upTo += tri.at(t, j);
-            ++rows;
-        }
-        if (upTo <= 0.0)
-            continue;  // nothing seen at this delay: no late reports assumed
-        const double g = std::clamp(arrived / upTo, 0.0, 1.0 - 1e-9);
-        h.g[static_cast<std::size_t>(j)] = g;
-        h.logVar[static_cast<std::size_t>(j)] = g / ((1.0 - g) * upTo);
-    }
-    return h;
-}
 
 struct Interval {
     double lo = 0, hi = 0, pComplete = 1;
@@ -161,15 +152,14 @@ Result<NowcastResult> nowcast(const ReportingTriangle& tri, const ReportingTrian
     out.window = options.window(tri.axis);
     out.level = options.level;
     out.casesLeftOut = tri.casesLeftOut;
-    const Hazards h = estimateHazards(delaysFrom, out.window);
-    // log F(d) and its variance, from the longest delay down.
-    std::vector<double> logF(static_cast<std::size_t>(D + 1), 0.0);
-    std::vector<double> var(static_cast<std::size_t>(D + 1), 0.0);
-    for (int d = D - 1; d >= 0; --d) {
-        const auto j = static_cast<std::size_t>(d + 1);
-        logF[static_cast<std::size_t>(d)] = logF[j] + std::log1p(-h.g[j]);
-        var[static_cast<std::size_t>(d)] = var[j] + h.logVar[j];
-    }
+    // log F(d) and its variance for the period d periods before now (delay_trend.h).
+    const detail::DelayShares shares =
+        detail::delayShares(delaysFrom, out.window, options.delayModel);
+    const std::vector<double>& logF = shares.logF;
+    const std::vector<double>& var = shares.var;
+    out.delayModel = shares.model;
+    out.trendPerWeek = shares.trendPerWeek;
+    out.trendZ = shares.trendZ;
     for (double l : logF)
         out.delayShare.push_back(std::exp(l));
     out.rows.reserve(static_cast<std::size_t>(tri.periods()));
@@ -205,9 +195,14 @@ std::string NowcastResult::brief() const {
     std::size_t open = 0;
     for (const NowcastRow& r : rows)
         open += r.estimated && !(r.pComplete >= 0.95) ? 1 : 0;
+    const std::string delays = delayModel == DelayModel::Trend
+                                   ? ", delays with a trend (logit hazard " +
+                                         std::to_string(trendPerWeek).substr(0, 6) + " per " +
+                                         (cadence == Cadence::Weekly ? "week" : "7 days") + ")"
+                                   : std::string(", delays constant over the window");
     return "chain-ladder (reverse-time hazard, Lawless 1994), max delay " +
-           std::to_string(maxDelay) + unit + ", window " + std::to_string(window) + unit + "; " +
-           std::to_string(open) + " period(s) likely to grow (P(complete) < 0.95)";
+           std::to_string(maxDelay) + unit + ", window " + std::to_string(window) + unit + delays +
+           "; " + std::to_string(open) + " period(s) likely to grow (P(complete) < 0.95)";
 }
 
 }  // namespace siftwave::nowcast

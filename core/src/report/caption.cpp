@@ -70,6 +70,8 @@ std::vector<std::string> captionLines(const CaptionFacts& f) {
                         f.fitLastDate + (f.bands.empty() ? std::string() : "; " + f.bands));
     if (!f.transmission.empty())
         lines.push_back("Lower panel: " + f.transmission);
+    if (!f.nowcastCompleted.empty())
+        lines.push_back(f.nowcastCompleted);
     lines.push_back("Exported " + f.exportDate + " by Siftwave " + siftwaveVersion());
     lines.push_back(f.caution);
     return lines;

@@ -1,5 +1,8 @@
 #include "siftwave/report/figure_spec.h"
 
+#include "siftwave/ledger/nowcast_completion.h"
+#include "siftwave/nowcast/nowcast.h"
+
 #include <algorithm>
 #include <cctype>
 
@@ -81,8 +84,11 @@ Result<FigureSpec> buildFigureSpec(const Drop& drop, const ledger::Ledger& ledge
         spec.caption.bands = bandsDescription(*spec.fit);
     if (spec.transmission)
         addTransmissionCaption(spec);
-    if (spec.nowcast)
-        spec.caption.caution += " " + spec.nowcast->caution;
+    if (auto note =
+            ledger::nowcastCompletionNote(drop, ledger, cleaned, spec.regionCode, spec.measure))
+        spec.caption.nowcastCompleted = *note;
+    if (spec.nowcast || !spec.caption.nowcastCompleted.empty())
+        spec.caption.caution += std::string(" ") + nowcast::kNowcastCaution;
     spec.captionLines = captionLines(spec.caption);
     return spec;
 }

@@ -8,22 +8,16 @@
 
 namespace siftwave::scan {
 
-namespace {
-
-const nlohmann::json& emptyObject() {
-    static const nlohmann::json empty = nlohmann::json::object();
-    return empty;
-}
-
-}  // namespace
-
 Evidence::Evidence() = default;
 Evidence::Evidence(const Evidence& other)
-    : m_object(other.m_object ? std::make_unique<nlohmann::json>(*other.m_object) : nullptr) {}
+    : m_object(other.m_object ? std::make_unique<nlohmann::json>(*other.m_object) : nullptr),
+      m_packed(other.m_packed) {}
 Evidence::Evidence(Evidence&& other) noexcept = default;
 Evidence& Evidence::operator=(const Evidence& other) {
-    if (this != &other)
+    if (this != &other) {
         m_object = other.m_object ? std::make_unique<nlohmann::json>(*other.m_object) : nullptr;
+        m_packed = other.m_packed;
+    }
     return *this;
 }
 Evidence& Evidence::operator=(Evidence&& other) noexcept = default;
@@ -31,24 +25,46 @@ Evidence::~Evidence() = default;
 
 Evidence& Evidence::operator=(nlohmann::json object) {
     m_object = std::make_unique<nlohmann::json>(std::move(object));
+    m_packed.clear();
     return *this;
 }
 
+void Evidence::expand() {
+    if (m_packed.empty())
+        return;
+    m_object = std::make_unique<nlohmann::json>(nlohmann::json::from_cbor(m_packed));
+    m_packed.clear();
+    m_packed.shrink_to_fit();
+}
+
+void Evidence::compact() {
+    if (!m_object)
+        return;
+    m_packed = nlohmann::json::to_cbor(*m_object);
+    m_packed.shrink_to_fit();
+    m_object.reset();
+}
+
 nlohmann::json& Evidence::operator[](const std::string& key) {
+    expand();
     if (!m_object)
         m_object = std::make_unique<nlohmann::json>(nlohmann::json::object());
     return (*m_object)[key];
 }
 
-const nlohmann::json& Evidence::operator[](const std::string& key) const {
-    static const nlohmann::json absent;  // null
+nlohmann::json Evidence::operator[](const std::string& key) const {
     assert(contains(key));
-    const auto it = json().find(key);
-    return it == json().end() ? absent : *it;
+    nlohmann::json object = json();
+    const auto it = object.find(key);
+    return it == object.end() ? nlohmann::json() : std::move(*it);
 }
 
-const nlohmann::json& Evidence::json() const {
-    return m_object ? *m_object : emptyObject();
+nlohmann::json Evidence::json() const {
+    if (m_object)
+        return *m_object;
+    if (!m_packed.empty())
+        return nlohmann::json::from_cbor(m_packed);
+    return nlohmann::json::object();
 }
 
 bool Evidence::contains(const std::string& key) const {
@@ -57,7 +73,7 @@ bool Evidence::contains(const std::string& key) const {
 
 std::vector<std::pair<std::string, std::string>> Evidence::scalars() const {
     std::vector<std::pair<std::string, std::string>> out;
-    const nlohmann::json& object = json();
+    const nlohmann::json object = json();
     if (!object.is_object())
         return out;
     for (auto it = object.begin(); it != object.end(); ++it) {
@@ -157,6 +173,7 @@ void putKindFields(nlohmann::json& j, const ledger::Decision& d) {
             break;
         case ledger::DecisionKind::Accept:
         case ledger::DecisionKind::Withdraw:
+        case ledger::DecisionKind::NowcastComplete:  // no finding suggests it
             break;
     }
 }

@@ -58,7 +58,8 @@ EvidenceText EvidenceText::at(const char* key) const {
 }  // namespace detail
 
 std::string describeFinding(const Finding& f) {
-    const detail::EvidenceText words{f.evidence.json(), f.cadence == Cadence::Weekly};
+    const nlohmann::json evidence = f.evidence.json();
+    const detail::EvidenceText words{evidence, f.cadence == Cadence::Weekly};
     return detail::descriptorOf(f.kind).describe(words);
 }
 

@@ -111,14 +111,21 @@ Result<ScanReport> scanDrop(const Drop& drop, const ScanOptions& options,
     for (const detail::FindingKindDescriptor& kind : detail::findingKindTable()) {
         const bool inputs = (!(kind.needs & detail::kNeedsPrevious) || context.previous) &&
                             (!(kind.needs & detail::kNeedsRegister) || context.regions);
-        if (inputs && kind.enabled(options))
-            kind.detect(in, report);
+        if (!inputs || !kind.enabled(options))
+            continue;
+        const std::size_t before = report.findings.size();
+        kind.detect(in, report);
+        // Evidence as CBOR bytes from here on (finding.h): the ranking below reads none of it.
+        // A workbook drop's lines are named as its sheet's rows first.
+        for (std::size_t i = before; i < report.findings.size(); ++i) {
+            Evidence& evidence = report.findings[i].evidence;
+            if (!drop.source.format.empty())
+                evidence = withSheetPlaces(evidence.json(), drop.source);
+            evidence.compact();
+        }
     }
 
     std::vector<Finding>& all = report.findings;
-    if (!drop.source.format.empty())
-        for (Finding& f : all)
-            f.evidence = withSheetPlaces(f.evidence.json(), drop.source);
     // Review order: severity, then counts in doubt, then kind, region order, date.
     std::unordered_map<std::string, std::size_t> regionOrder;
     for (std::size_t r = 0; r < drop.regionCodes.size(); ++r) {
@@ -152,8 +159,10 @@ Result<ScanReport> scanDrop(const Drop& drop, const ScanOptions& options,
         f.rank = static_cast<int>(i) + 1;
         std::string id = findingId(f);
         const int n = ++seen[id];
-        if (n > 1)
-            id += "-" + std::to_string(n);
+        if (n > 1) {
+            id += '-';  // (two appends: GCC 12 warns falsely of -Wrestrict on "-" + string)
+            id += std::to_string(n);
+        }
         f.id = std::move(id);
         if (f.suggestion)
             f.suggestion->finding = f.id;
@@ -175,6 +184,10 @@ nlohmann::json scanReportToJson(const ScanReport& report) {
     nlohmann::json findings = nlohmann::json::array();
     for (const Finding& f : report.findings)
         findings.push_back(findingToJson(f));
+    return {{"findings", std::move(findings)}, {"summary", scanSummaryToJson(report)}};
+}
+
+nlohmann::json scanSummaryToJson(const ScanReport& report) {
     nlohmann::json summary = nlohmann::json::object();
     summary["cadence"] = cadenceName(report.cadence);
     summary["by_kind"] = report.byKind;
@@ -193,7 +206,7 @@ nlohmann::json scanReportToJson(const ScanReport& report) {
             {"share_changed", r.previousTotal > 0 ? r.absoluteChange / r.previousTotal : 0.0},
         };
     }
-    return {{"findings", std::move(findings)}, {"summary", std::move(summary)}};
+    return summary;
 }
 
 }  // namespace siftwave::scan

@@ -45,6 +45,15 @@
 //   accept            keeps `region` (and `measure`, `window`) as reported;
 //                     changes nothing, documents that it was looked at.
 //   withdraw          undoes the entry with sequence number `target`.
+//   nowcast_complete  the analyst's choice to work on the nowcast-completed series of a
+//                     case list (nowcast/nowcast.h): as of `date` ("now", not before the
+//                     list's last report date), with `maxDelay` periods and a moving window
+//                     of `nowcastWindow` periods (method: the chain-ladder), each period
+//                     still estimated gets round(nowcast - reported by now) added: the
+//                     reports still to come. Periods under a tenth reported are left as
+//                     they are (no nowcast). The total grows by the estimate; fits, figures
+//                     and later decisions on the cleaned series then use the completed
+//                     counts, and captions say so (ledger/nowcast_completion.h).
 
 #include "siftwave/date.h"
 #include "siftwave/result.h"
@@ -65,6 +74,7 @@ enum class DecisionKind {
     Exclude,
     Accept,
     Withdraw,
+    NowcastComplete,
 };
 
 enum class RedistributeMethod { Uniform, Proportional, Baseline };
@@ -106,6 +116,9 @@ struct Decision {
     std::string into;     // merge_codes: the canonical code kept (e.g. "0412")
 
     std::uint64_t target = 0;  // withdraw: sequence number of the entry undone
+
+    int maxDelay = 0;       // nowcast_complete: the maximum delay D in periods, >= 1
+    int nowcastWindow = 0;  // nowcast_complete: the moving window in periods, >= 1
 
     std::string finding;  // optional, any kind: id of the scan finding this answers
 

@@ -50,6 +50,9 @@ enum class DecisionParam {
     Variant,             // "variant", when not empty
     Into,                // "into", when not empty
     Entry,               // "entry": the sequence number undone
+    MaxDelay,            // "max_delay": the nowcast's maximum delay in periods
+    NowcastWindow,       // "nowcast_window": the nowcast's moving window in periods
+    NowcastMethod,       // "method": "chain_ladder", the nowcast's method
 };
 
 /// A decide flag a kind takes ("region", "days", ...). `requiredAs` is set when the kind
@@ -97,6 +100,10 @@ struct DecisionKindInfo {
     /// Whether a figure of this region and measure shows the decision.
     bool (*marksSeries)(const Decision&, const std::string& region, const std::string& measure);
     std::optional<KindMark> (*mark)(const MarkContext&);
+    /// Fills what the analyst may leave to the data (nowcast_complete: now, the maximum delay
+    /// and the window) before the decision is validated and recorded, so the entry names them;
+    /// nullptr for the kinds that take everything from their flags.
+    Status (*resolve)(const Drop&, Decision&) = nullptr;
 
     bool hasParameter(DecisionParam p) const;
     const DecisionFlag* flag(std::string_view name) const;  // nullptr when it takes no such flag

@@ -6,7 +6,11 @@
 //   {"format": "siftwave-project", "version": 1,
 //    "drop": {"path", "sha256", "sheet"}, "previous_drop": {"path", "sha256"},
 //    "register": {"path"}, "ledger": {"path", "entries", "head_hash"},
-//    "view": {...}, "fit": {...}}
+//    "view": {...}, "fit": {...},
+//    "release_history": [{"path", "sha256"}, ...]}   (only when the drop has one)
+//
+// The release history is the earlier releases of the drop's series that give its nowcast
+// (nowcast/triangle.h); each is pinned by its SHA-256 like the drop.
 //
 // Paths are stored as given (relative paths are relative to the project
 // file's folder; resolveProjectPath() does that). The ledger's entry count and
@@ -21,6 +25,7 @@
 #include <optional>
 #include <string>
 #include <string_view>
+#include <vector>
 
 namespace siftwave::ledger {
 
@@ -40,6 +45,13 @@ struct ProjectFitSettings {
     int smoothingDays = 7;  // centred moving-average width
 };
 
+/// One earlier release of a release history.
+struct ProjectRelease {
+    std::string path;
+    std::string sha256;
+    friend bool operator==(const ProjectRelease&, const ProjectRelease&) = default;
+};
+
 struct ProjectFile {
     std::string dropPath;
     std::string dropSha256;
@@ -54,7 +66,8 @@ struct ProjectFile {
     std::string ledgerHeadHash;       // hash of its last entry (64 zeros when empty)
     ProjectViewSettings view;
     ProjectFitSettings fit;
-    std::map<std::string, std::string> extra;  // further settings, kept verbatim
+    std::vector<ProjectRelease> releaseHistory;  // earlier releases (empty: none)
+    std::map<std::string, std::string> extra;    // further settings, kept verbatim
 
     /// Usage errors: empty drop or ledger path, a hash that is not 64 hex digits.
     Status validate() const;

@@ -24,6 +24,21 @@
 // the mixture's P(Y = 0). With more than 300 reports still expected the mixture is taken as
 // normal with its mean and variance (common practice, no source).
 //
+// Delays that change over time (DelayModel; in the spirit of Hohle & an der Heiden 2014,
+// Biometrics 70:993, who let the discrete-time hazard of the delay depend on event time through
+// a logistic regression; here on the reverse-time hazards above): over the same window,
+//     logit g_j(t) = a_j + b (t - now) / s,   s = 7 periods for daily data, 1 for weekly,
+// fitted by maximum likelihood (binomial: of the C[t][j] cases of period t within delay j,
+// C[t][j] - C[t][j-1] arrived at delay j; Newton's method). Each recent period t then has its own
+// F(d; t), so a delay that shortens (or lengthens) over the window is followed to the latest
+// periods instead of being averaged over the window. The delta-method variance of log F(d; t)
+// is grad' I^-1 grad with I the Fisher information, d log(1 - g_j) / d a_j = -g_j and
+// d / d b = -g_j (t - now) / s. DelayModel::Auto uses the trend only where the data show it:
+// when the Wald test of b = 0 rejects at the 5 % level (|b| / se(b) > 1.96); otherwise the
+// constant hazards above. On the real husO104Hosp list (cuts 2011-05-20..06-20, last 7 days)
+// the constant hazards lost to the count reported so far and the trend beat it (README,
+// "Reporting delays and nowcasts"; tests/core/nowcast_test.cpp).
+//
 // Caution: a nowcast assumes the delays seen so far continue. It estimates reports still to
 // come for days already past; it is not a forecast of new infections. Defer to the responsible
 // public-health authority.
@@ -31,7 +46,9 @@
 #include "siftwave/nowcast/triangle.h"
 #include "siftwave/result.h"
 
+#include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace siftwave::nowcast {
@@ -39,7 +56,20 @@ namespace siftwave::nowcast {
 /// The caution every front end shows with a nowcast (README, plot, figures, CLI).
 extern const char* const kNowcastCaution;
 
+/// How the delays may change over the window (see the header comment).
+enum class DelayModel {
+    Constant,  // one set of hazards over the window (the chain-ladder)
+    Trend,     // logit-linear trend of the hazards in event time
+    Auto,      // the trend where its Wald test rejects b = 0 at 5 %, else constant
+};
+const char* delayModelName(DelayModel model);  // "constant", "trend", "auto"
+std::optional<DelayModel> delayModelFromName(std::string_view name);
+
 struct NowcastOptions {
+    /// Auto: the trend where the data show one (on husO104Hosp the constant hazards lost to the
+    /// naive count; on generated data with steady delays Auto keeps the constant hazards ~95 %
+    /// of the time, by the test's level).
+    DelayModel delayModel = DelayModel::Auto;
     /// Event periods whose reports estimate each delay's hazard (the moving window). 0: 21 days
     /// or 6 weeks: on generated data whose delays shorten midway a 14-day window follows the
     /// change within three weeks and a 42-day one has not after four (nowcast_bench); the
@@ -75,8 +105,12 @@ struct NowcastResult {
     int maxDelay = 0;  // D, in periods
     int window = 0;    // periods of the moving window
     double level = 0.95;
-    std::vector<double> delayShare;  // F(d), d = 0 .. D, as estimated at now
-    std::vector<NowcastRow> rows;    // every period of the triangle, oldest first
+    std::vector<double> delayShare;  // F(d), d = 0 .. D, as estimated at now (constant model;
+                                     // with a trend: for the period of now)
+    DelayModel delayModel = DelayModel::Constant;  // the model used (never Auto)
+    double trendPerWeek = 0;       // trend: b, the change of logit g_j per 7 days (1 week); else 0
+    double trendZ = 0;             // b / se(b) (0 when not fitted)
+    std::vector<NowcastRow> rows;  // every period of the triangle, oldest first
     std::size_t casesLeftOut = 0;
 
     /// "chain-ladder (reverse-time hazard), max delay 15 days, window 42 days; 3 of the last

@@ -49,6 +49,9 @@ struct CaptionFacts {
     // With a transmission panel: what it shows and its settings (set by buildFigureSpec, which
     // then adds transmission::caution to `caution`); "" = no panel.
     std::string transmission;
+    // When the plotted series is nowcast-completed by a ledger entry: the sentence saying so
+    // (ledger::nowcastCompletionNote; buildFigureSpec then adds the nowcast's caution); "" = not.
+    std::string nowcastCompleted;
 };
 
 /// The facts for one figure; `fit` may be null, `exportDate` empty = today (UTC).

@@ -77,9 +77,15 @@ enum class Severity {
 const char* severityName(Severity severity);
 
 /// The evidence of a finding: numbers (and a few names) by key, per kind as the README's
-/// scan section lists them, kept as the JSON object the scan writes. Detectors fill it
-/// (they include nlohmann/json.hpp); readers that only show it use scalars() or dump() and
-/// need no JSON header.
+/// scan section lists them, a JSON object. Detectors fill it (they include
+/// nlohmann/json.hpp); readers that only show it use scalars() or dump() and need no JSON
+/// header.
+///
+/// Memory: while a detector fills it, it is a nlohmann::json object (a tree of map nodes,
+/// about 1 KB for ten keys). scanDrop() then compacts every finding's evidence to its CBOR
+/// bytes (RFC 8949; about 150-250 bytes), so that a drop with tens of thousands of findings
+/// keeps the scan's memory a small multiple of the drop's (issue 14). Reading a compact
+/// evidence decodes it; writing to it (operator[] on a non-const evidence) expands it again.
 class Evidence {
 public:
     Evidence();
@@ -94,10 +100,10 @@ public:
     /// One value, added (null) when absent.
     nlohmann::json& operator[](const std::string& key);
     /// One value that must be there (an assertion; null in a release build).
-    const nlohmann::json& operator[](const std::string& key) const;
+    nlohmann::json operator[](const std::string& key) const;
 
     /// The object itself ({} when nothing was written).
-    const nlohmann::json& json() const;
+    nlohmann::json json() const;
     bool contains(const std::string& key) const;
     /// The top-level numbers and strings in key order, as text: strings as they are,
     /// numbers as JSON writes them. For reason drafts and list views.
@@ -105,8 +111,14 @@ public:
     /// The object as compact JSON text.
     std::string dump() const;
 
+    /// Stores the object as CBOR bytes (see above); the value read back is the same.
+    void compact();
+    bool isCompact() const { return !m_packed.empty(); }
+
 private:
-    std::unique_ptr<nlohmann::json> m_object;  // null: {}
+    std::unique_ptr<nlohmann::json> m_object;  // while filled; null when empty or compact
+    std::vector<std::uint8_t> m_packed;        // CBOR of the object once compact
+    void expand();
 };
 
 /// What a suggestion says besides its Decision: the scan's words for the analyst. Each is

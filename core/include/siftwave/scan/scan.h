@@ -62,6 +62,9 @@ Result<ScanReport> scanDrop(const Drop& drop, const ScanOptions& options = {},
 /// "by_severity": {...}, "revisions": {...}}} ("revisions" only when a previous drop was
 /// compared).
 nlohmann::json scanReportToJson(const ScanReport& report);
+/// The "summary" object of scanReportToJson() alone: a writer that streams the findings one
+/// at a time (siftwave-cli scan --json) writes it after them.
+nlohmann::json scanSummaryToJson(const ScanReport& report);
 
 /// The stable id of a finding from its kind, region, measure and range (see above).
 std::string findingId(const Finding& finding);
