@@ -77,6 +77,7 @@ nlohmann::json inspectJson(const Drop& drop) {
         source["format"] = p.format;
         source["sheet"] = p.sheet;
         source["sheets"] = p.sheets;
+        source["dated_sheets"] = p.datedSheets;
         source["first_column"] = columnLetters(p.firstColumn);
     }
     j["layout"] = layoutName(p.layout);
@@ -146,6 +147,13 @@ void printSheets(const Provenance& p) {
     std::printf("sheet       %s (sheet %zu of %zu: %s); the table starts in column %s\n",
                 terminalText(p.sheet).c_str(), static_cast<std::size_t>(at - p.sheets.begin()) + 1,
                 p.sheets.size(), terminalText(all).c_str(), columnLetters(p.firstColumn).c_str());
+    std::string others;  // the other tables worth choosing
+    for (const std::string& name : p.datedSheets)
+        if (name != p.sheet)
+            others += (others.empty() ? "" : ", ") + name;
+    if (!others.empty())
+        std::printf("            dates also on: %s (choose with --sheet)\n",
+                    terminalText(others).c_str());
 }
 
 void printText(const Drop& drop) {

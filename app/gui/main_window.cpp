@@ -12,6 +12,7 @@
 #include "project_session.h"
 #include "widgets/common/background_task.h"
 #include "widgets/common/drop_loading.h"
+#include "widgets/common/sheet_chooser.h"
 #include "widgets/findings/finding_model.h"
 #include "widgets/findings/finding_review.h"
 #include "widgets/fit/batch_fit.h"
@@ -56,6 +57,7 @@
 #include <QTextBrowser>
 #include <QUndoStack>
 
+#include <algorithm>
 #include <array>
 #include <cstdio>
 #include <memory>
@@ -95,6 +97,7 @@ MainWindow::MainWindow(Options options, QWidget* parent)
       m_transmissionControl(new TransmissionController(m_workbench, m_plot, m_transmissionPanel,
                                                        m_transmissionPane, this)),
       m_dropLabel(new QLabel),
+      m_sheetChooser(new widgets::SheetChooser),
       m_taskLabel(new QLabel),
       m_progress(new QProgressBar),
       m_cancel(new QPushButton(tr("Cancel"))) {
@@ -122,11 +125,18 @@ MainWindow::MainWindow(Options options, QWidget* parent)
     m_progress->setTextVisible(false);
     m_cancel->setObjectName(QStringLiteral("cancelTask"));
     statusBar()->addWidget(m_dropLabel, 1);
+    statusBar()->addWidget(m_sheetChooser);
     statusBar()->addPermanentWidget(m_taskLabel);
     statusBar()->addPermanentWidget(m_progress);
     statusBar()->addPermanentWidget(m_cancel);
     setBusy(nullptr);
     connect(m_cancel, &QPushButton::clicked, this, &MainWindow::cancelBackgroundWork);
+    // Another sheet of the same workbook is another drop: read it as one (its own ledger).
+    connect(m_sheetChooser, &widgets::SheetChooser::sheetChosen, this,
+            [this](const QString& sheet) {
+                if (m_workbench->hasDrop())
+                    startOpening(m_workbench->dropPath(), std::nullopt, sheet);
+            });
 
     connectWidgets();
 
@@ -575,11 +585,13 @@ void MainWindow::openFile(const QString& path) {
 }
 
 void MainWindow::startOpening(const QString& path,
-                              std::optional<ProjectController::Opening> project) {
+                              std::optional<ProjectController::Opening> project,
+                              const QString& sheet) {
     if (m_task)
         m_task->cancel();
     widgets::LoadRequest request;
     request.dropPath = path;
+    request.options.sheet = project ? project->file.dropSheet : sheet.toStdString();
     if (project) {
         request.registerPath = resolvedProjectPath(project->path, project->file.registerPath);
         request.withRegister = !request.registerPath.isEmpty();
@@ -676,7 +688,9 @@ void MainWindow::updateWindowTitle() {
         setWindowTitle(tr("Siftwave"));
         return;
     }
-    const QString drop = QFileInfo(m_workbench->dropPath()).fileName();
+    QString drop = QFileInfo(m_workbench->dropPath()).fileName();
+    if (const std::string& sheet = m_workbench->drop().source.sheet; !sheet.empty())
+        drop = tr("%1 [%2]").arg(drop, QString::fromStdString(sheet));
     const QString project = m_projectControl->path();
     if (project.isEmpty())
         setWindowTitle(tr("%1 — Siftwave").arg(drop));
@@ -728,9 +742,15 @@ void MainWindow::onDropChanged() {
             measures << QString::fromStdString(m);
         const QFileInfo info(m_workbench->dropPath());
         updateWindowTitle();
+        m_sheetChooser->showSheetsOf(drop.source);
+        const QString file =
+            drop.source.sheet.empty()
+                ? info.fileName()
+                : tr("%1, sheet %2")
+                      .arg(info.fileName(), QString::fromStdString(drop.source.sheet));
         m_dropLabel->setText(
             tr("%1 · %2 regions · %3 %4 to %5 · SHA-256 %6…")
-                .arg(info.fileName())
+                .arg(file)
                 .arg(drop.regionCodes.size())
                 .arg(QString::fromLatin1(cadenceName(drop.axis.cadence())),
                      QString::fromStdString(drop.axis.periodName(0)),
@@ -739,7 +759,9 @@ void MainWindow::onDropChanged() {
     } else {
         m_projectControl->setPath(QString());
         updateWindowTitle();
-        m_dropLabel->setText(tr("No drop open — File ▸ Open drop, or drop a CSV file here"));
+        m_sheetChooser->clear();
+        m_dropLabel->setText(
+            tr("No drop open — File ▸ Open drop, or drop a CSV file or a workbook here"));
         m_delayView->clear();
     }
     m_plot->setMeasures(measures);
@@ -777,8 +799,14 @@ QString MainWindow::ledgerPathFor(const Drop& drop) const {
         folder = QStandardPaths::writableLocation(QStandardPaths::AppDataLocation) +
                  QStringLiteral("/ledgers");
     QDir().mkpath(folder);
-    return QDir(folder).filePath(QString::fromStdString(drop.source.sha256) +
-                                 QStringLiteral(".jsonl"));
+    // The sheets of one workbook share its SHA-256 but are different drops: each sheet keeps
+    // its own ledger ("<sha256>-sheet2.jsonl" for the workbook's second sheet).
+    QString name = QString::fromStdString(drop.source.sha256);
+    const auto& sheets = drop.source.sheets;
+    if (const auto at = std::find(sheets.begin(), sheets.end(), drop.source.sheet);
+        !drop.source.format.empty() && at != sheets.end())
+        name += QStringLiteral("-sheet%1").arg(at - sheets.begin() + 1);
+    return QDir(folder).filePath(name + QStringLiteral(".jsonl"));
 }
 
 void MainWindow::startScan() {

@@ -160,7 +160,9 @@ private:
     void showOpenProjectDialog();
     void showSaveProjectDialog();
     void saveProjectInPlace();
-    void startOpening(const QString& dropPath, std::optional<ProjectController::Opening> project);
+    /// Reads the drop (a workbook: `sheet`, "" = the default sheet; a project names its own).
+    void startOpening(const QString& dropPath, std::optional<ProjectController::Opening> project,
+                      const QString& sheet = {});
     /// The project's drop is open: its view shown, then its previous release read.
     void showOpenedProject(const ProjectController::Opening& project);
     /// After a project's drop and previous release: its release history, then projectOpened().
@@ -205,6 +207,7 @@ private:
     QPointer<widgets::BackgroundTask> m_scanTask;
     QMenu* m_recentMenu = nullptr;
     QLabel* m_dropLabel;
+    widgets::SheetChooser* m_sheetChooser;
     QLabel* m_taskLabel;
     QProgressBar* m_progress;
     QPushButton* m_cancel;

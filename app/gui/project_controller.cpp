@@ -50,6 +50,7 @@ ledger::ProjectFile ProjectController::projectOfWindow(const QString& projectPat
     const Drop& drop = m_workbench->drop();
     p.dropPath = storedProjectPath(projectPath, m_workbench->dropPath());
     p.dropSha256 = drop.source.sha256;
+    p.dropSheet = drop.source.sheet;  // a workbook: reopened from this sheet, whatever the default
     if (const Drop* previous = m_workbench->previousDrop()) {
         p.previousDropPath = storedProjectPath(projectPath, m_workbench->previousPath());
         p.previousDropSha256 = previous->source.sha256;

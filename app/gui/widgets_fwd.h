@@ -13,6 +13,7 @@ class LedgerView;
 class RegionBrowser;
 class RegionModel;
 class SeriesPlot;
+class SheetChooser;
 class TransmissionPane;
 class TransmissionPanel;
 class Workbench;

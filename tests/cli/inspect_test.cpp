@@ -6,6 +6,7 @@
 #include "support/cli_run.h"
 #include "support/sanitizer.h"
 #include "support/temp_path.h"
+#include "support/zip_builder.h"
 
 #include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
@@ -347,8 +348,10 @@ std::string placesAsLines(std::string text) {
 
 nlohmann::json withoutSourceAndPlaces(nlohmann::json j) {
     j.erase("source");
-    for (auto& w : j["warnings"])
+    for (auto& w : j["warnings"]) {  // places, also inside the texts, are the intended difference
         w.erase("place");
+        w["message"] = placesAsLines(w["message"].get<std::string>());
+    }
     return j;
 }
 
@@ -398,6 +401,32 @@ TEST(CliInspect, AWorkbookNamesItsSheetsAndItsCells) {
                            "/spreadsheets/fictitious_day.xlsx --json");
     EXPECT_EQ(bad.exitCode, 1);
     EXPECT_EQ(nlohmann::json::parse(bad.out)["error"]["cell"], "data!A3") << bad.out;
+    // A CSV-only flag on a workbook is wrong usage, said rather than ignored.
+    const CliRun delimiter = run("inspect " + book + " --delimiter ';'");
+    EXPECT_EQ(delimiter.exitCode, 2);
+    EXPECT_NE(delimiter.err.find("--delimiter applies to a CSV file"), std::string::npos)
+        << delimiter.err;
+    const auto j = nlohmann::json::parse(run("inspect " + book + " --json").out);
+    EXPECT_EQ(j["source"]["dated_sheets"], nlohmann::json::array({"data"}));
+}
+
+TEST(CliInspect, AWorkbookOfTwoTablesSaysWhichOtherSheetHoldsDates) {
+    const std::filesystem::path file = siftwave::testing::testTempPath("two tables.xlsx");
+    {
+        std::ofstream out(file, std::ios::binary);
+        out << siftwave::testing::makeTwoTableXlsx();
+    }
+    const CliRun r = run("inspect '" + file.string() + "'");
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    EXPECT_NE(r.out.find("sheet       north (sheet 2 of 3: notes, north, south)"),
+              std::string::npos)
+        << r.out;
+    EXPECT_NE(r.out.find("dates also on: south (choose with --sheet)"), std::string::npos) << r.out;
+    const CliRun south = run("inspect '" + file.string() + "' --sheet south");
+    ASSERT_EQ(south.exitCode, 0) << south.err;
+    EXPECT_NE(south.out.find("dates also on: north (choose with --sheet)"), std::string::npos)
+        << south.out;
+    std::filesystem::remove(file);
 }
 
 }  // namespace

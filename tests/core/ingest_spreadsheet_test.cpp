@@ -245,6 +245,37 @@ TEST(IngestSpreadsheetTables, AnEmptySheetAMissingSheetAndSheetOnCsvAreErrors) {
     EXPECT_EQ(drop.error().code, ErrorCode::Usage);
 }
 
+TEST(IngestSpreadsheetTables, EverySheetWithDatesIsListedAndTheFirstIsReadByDefault) {
+    // A notes sheet, then two tables with dates (two districts' releases in one workbook).
+    const std::string book = testing::makeTwoTableXlsx();
+    Result<Drop> drop = ingest::parseDrop(book, "two.xlsx");
+    ASSERT_TRUE(drop.ok()) << drop.error().describe();
+    EXPECT_EQ(drop->source.sheet, "north");
+    EXPECT_EQ(drop->source.datedSheets, (std::vector<std::string>{"north", "south"}));
+    EXPECT_EQ(drop->regionCodes, (std::vector<std::string>{"N1"}));
+    ingest::IngestOptions south;
+    south.sheet = "south";
+    drop = ingest::parseDrop(book, "two.xlsx", south);
+    ASSERT_TRUE(drop.ok()) << drop.error().describe();
+    EXPECT_EQ(drop->regionCodes, (std::vector<std::string>{"S1"}));
+    EXPECT_EQ(drop->source.datedSheets, (std::vector<std::string>{"north", "south"}));
+    // One sheet: nothing to choose between, nothing listed.
+    EXPECT_TRUE(readOk(kDir + "flu_weekly_ags.xlsx").source.datedSheets.empty());
+    EXPECT_EQ(readOk(kDir + "layout.ods").source.datedSheets, (std::vector<std::string>{"data"}));
+}
+
+TEST(IngestSpreadsheetTables, ADelimiterForAWorkbookIsAUsageErrorNotIgnored) {
+    ingest::IngestOptions semicolon;
+    semicolon.delimiter = ';';
+    for (const char* book : {"layout.xlsx", "layout.ods"}) {
+        Result<Drop> drop = ingest::readDrop(kDir + book, semicolon);
+        ASSERT_FALSE(drop.ok()) << book;
+        EXPECT_EQ(drop.error().code, ErrorCode::Usage) << book;
+        EXPECT_TRUE(mentions(drop.error(), "--delimiter applies to a CSV file"))
+            << drop.error().message;
+    }
+}
+
 TEST(IngestSpreadsheetCells, CellTypesReadAsTheStandardDefinesThem) {
     // 18.18.11 ST_CellType: s, inlineStr, str, b, e, d, n. Shared string 0 is "0412".
     const std::string book = makeXlsx(

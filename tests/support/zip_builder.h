@@ -106,4 +106,29 @@ inline std::string makeXlsx(const std::vector<std::pair<std::string, std::string
     return makeZip(parts);
 }
 
+/// A workbook of three sheets: "notes" (one line of text), then "north" and "south", each a
+/// long table (date, region, cases) of `days` days of March 2026 (at most 31) with inline
+/// strings and ISO dates (t="d"): two tables with dates to choose between.
+inline std::string makeTwoTableXlsx(int days = 3) {
+    auto text = [](const std::string& ref, const std::string& value) {
+        return "<c r=\"" + ref + "\" t=\"inlineStr\"><is><t>" + value + "</t></is></c>";
+    };
+    auto table = [&](const std::string& region, int base) {
+        std::string rows = "<sheetData><row r=\"1\">" + text("A1", "date") + text("B1", "region") +
+                           text("C1", "cases") + "</row>";
+        for (int day = 1; day <= days; ++day) {
+            const std::string r = std::to_string(day + 1);
+            const std::string dd = (day < 10 ? "0" : "") + std::to_string(day);
+            rows += "<row r=\"" + r + "\"><c r=\"A" + r + "\" t=\"d\"><v>2026-03-" + dd +
+                    "</v></c>" + text("B" + r, region) + "<c r=\"C" + r + "\"><v>" +
+                    std::to_string(base + day % 7 * 3) + "</v></c></row>";
+        }
+        return rows + "</sheetData>";
+    };
+    return makeXlsx({{"notes", "<sheetData><row r=\"1\">" + text("A1", "Invented releases") +
+                                   "</row></sheetData>"},
+                     {"north", table("N1", 10)},
+                     {"south", table("S1", 20)}});
+}
+
 }  // namespace siftwave::testing

@@ -2,6 +2,7 @@
 // and selection; a project whose drop has changed is refused; a ledger is never overwritten.
 #include "main_window.h"
 #include "project_session.h"
+#include "sample_window.h"
 
 #include "widgets/common/workbench.h"
 #include "widgets/fit/fit_pane.h"
@@ -22,14 +23,7 @@ using siftwave::gui::MainWindow;
 namespace {
 
 std::unique_ptr<MainWindow> makeWindow(const QString& ledgers) {
-    MainWindow::Options options;
-    options.rememberLayout = false;
-    options.dialogs = false;
-    options.ledgerFolder = ledgers;
-    auto window = std::make_unique<MainWindow>(options);
-    window->resize(1300, 850);
-    window->show();
-    return window;
+    return siftwave::testing::makeTestWindow(ledgers);
 }
 
 }  // namespace

@@ -20,6 +20,22 @@ struct SampleWindowOptions {
     bool waitForExposed = false;  // wait until the window is on screen (for mouse events)
 };
 
+/// A new main window, shown, that keeps its ledgers in `ledgerFolder`, remembers no layout and
+/// asks nothing (`dialogs` off unless said); `size` invalid: the window's own size.
+inline std::unique_ptr<gui::MainWindow> makeTestWindow(const QString& ledgerFolder,
+                                                       QSize size = QSize(1300, 850),
+                                                       bool dialogs = false) {
+    gui::MainWindow::Options options;
+    options.rememberLayout = false;
+    options.dialogs = dialogs;
+    options.ledgerFolder = ledgerFolder;
+    auto window = std::make_unique<gui::MainWindow>(options);
+    if (size.isValid())
+        window->resize(size);
+    window->show();
+    return window;
+}
+
 /// Opens samples/quenmara_current.csv in a new main window that keeps its ledgers in
 /// `ledgerFolder` (emptied first) and remembers no layout; returns the window once the scan has
 /// finished, or nullptr when it is not exposed or the scan does not finish within 30 s.
@@ -28,14 +44,7 @@ inline std::unique_ptr<gui::MainWindow> openSampleWindow(const QString& ledgerFo
     QStandardPaths::setTestModeEnabled(true);
     QDir(ledgerFolder).removeRecursively();
     QDir().mkpath(ledgerFolder);
-    gui::MainWindow::Options options;
-    options.rememberLayout = false;
-    options.dialogs = o.dialogs;
-    options.ledgerFolder = ledgerFolder;
-    auto window = std::make_unique<gui::MainWindow>(options);
-    if (o.size.isValid())
-        window->resize(o.size);
-    window->show();
+    auto window = makeTestWindow(ledgerFolder, o.size, o.dialogs);
     if (o.waitForExposed && !QTest::qWaitForWindowExposed(window.get()))
         return nullptr;
     QSignalSpy scanned(window.get(), &gui::MainWindow::scanFinished);

@@ -40,7 +40,7 @@ SeriesView seriesViewOf(const report::PlotModel& model) {
     view.raw = model.raw;
     view.rawState = model.rawState;
     view.sourceLine = model.sourceLine;
-    view.sourceSheet = qs(model.sourceSheet);
+    view.sourcePlaces = model.sourcePlaces;
     view.cleaned = model.cleaned;
     view.smoothed = model.smoothed;
     view.smoothedLabel = qs(model.smoothedLabel);
@@ -188,10 +188,10 @@ QString hoverText(const SeriesView& view, int day) {
         day < static_cast<int>(view.sourceLine.size()) ? view.sourceLine[day] : 0;
     if (line == 0)
         lines << tr("No source row");
-    else if (view.sourceSheet.isEmpty())
-        lines << tr("Source line %1").arg(line);
-    else
-        lines << tr("Source row %1 of sheet %2").arg(line).arg(view.sourceSheet.toHtmlEscaped());
+    else  // "Source line 14" (CSV), "Source data!14:14" (a sheet's row)
+        lines << tr("Source %1")
+                     .arg(QString::fromStdString(sourcePlace(view.sourcePlaces, line))
+                              .toHtmlEscaped());
     if (day < static_cast<int>(view.touchedBy.size()) && !view.touchedBy[day].isEmpty()) {
         lines << tr("Ledger:");
         for (const QString& entry : view.touchedBy[day])

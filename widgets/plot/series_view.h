@@ -64,7 +64,7 @@ struct SeriesView {
     std::vector<double> raw;                // NaN where no number was reported
     std::vector<CellState> rawState;        // per day
     std::vector<std::uint32_t> sourceLine;  // 0 where no row
-    QString sourceSheet;                    // a spreadsheet drop's sheet; empty for CSV
+    Provenance sourcePlaces;                // PlotModel::sourcePlaces, for sourcePlace()
     std::vector<double> cleaned;            // empty: not computed
     std::vector<double> smoothed;           // empty: not computed
     QString smoothedLabel;                  // e.g. "7-day centred mean"

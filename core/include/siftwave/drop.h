@@ -117,6 +117,9 @@ struct Provenance {
     /// table's columns counted from `firstColumn`, so sourcePlace() names a cell ("data!C14").
     std::string format;
     std::vector<std::string> sheets;
+    /// The sheets whose first rows hold dates, in workbook order: the tables worth choosing
+    /// between (the default is the first of them). Listed when the workbook has several sheets.
+    std::vector<std::string> datedSheets;
     std::string sheet;
     std::uint32_t firstColumn = 0;
 };

@@ -587,8 +587,8 @@ Status DropReader::settleSlashOrder() {
     if (firstAbove12 < n && secondAbove12 < n) {
         return fail(ErrorCode::InvalidValue,
                     "dates mix day-first and month-first orders: " +
-                        quoted(m_dates.key(static_cast<std::uint32_t>(firstAbove12))) + " (line " +
-                        std::to_string(m_dateLine[firstAbove12]) + ") is day first, " +
+                        quoted(m_dates.key(static_cast<std::uint32_t>(firstAbove12))) + " (" +
+                        place(m_dateLine[firstAbove12]) + ") is day first, " +
                         quoted(m_dates.key(static_cast<std::uint32_t>(secondAbove12))) +
                         " is month first; fix the file",
                     m_dateLine[secondAbove12], m_dateColumn[secondAbove12]);
@@ -674,11 +674,11 @@ Status DropReader::checkTableJustified(double cells, std::size_t regions, std::i
     char size[32];
     std::snprintf(size, sizeof size, "%.1f GB", gigabytes);
     return fail(ErrorCode::InvalidValue,
-                "the dates run from " + Date{lo}.iso() + " (line " +
-                    std::to_string(m_dateLine[loIndex]) + ") to " + Date{hi}.iso() + " (line " +
-                    std::to_string(m_dateLine[hiIndex]) + ") across " + std::to_string(regions) +
-                    " regions: a table of " + std::to_string(static_cast<std::uint64_t>(cells)) +
-                    " cells (about " + size + ") for " + std::to_string(m_drop.rows) +
+                "the dates run from " + Date{lo}.iso() + " (" + place(m_dateLine[loIndex]) +
+                    ") to " + Date{hi}.iso() + " (" + place(m_dateLine[hiIndex]) + ") across " +
+                    std::to_string(regions) + " regions: a table of " +
+                    std::to_string(static_cast<std::uint64_t>(cells)) + " cells (about " + size +
+                    ") for " + std::to_string(m_drop.rows) +
                     " data rows, nearly all of it empty. Nothing was read. Check the earliest and "
                     "latest dates for a mistyped year, or split the file into shorter periods",
                 m_dateLine[loIndex], m_dateColumn[loIndex]);
@@ -905,8 +905,7 @@ std::string DropReader::offGridDates(int weekday, std::size_t limit) const {
             continue;
         ++total;
         if (listed++ < limit)
-            list += (list.empty() ? "" : "; ") + std::string("line ") +
-                    std::to_string(m_dateLine[i]) + " (" + d.iso() + ", a " +
+            list += (list.empty() ? "" : "; ") + place(m_dateLine[i]) + " (" + d.iso() + ", a " +
                     weekdayName(d.isoWeekday()) + ")";
     }
     return std::to_string(total) + (total == 1 ? " date is not: " : " dates are not: ") + list +
@@ -1000,8 +999,8 @@ Status DropReader::placeWeeks(CalendarPlan& plan, const WeekConvention& conventi
         if (other != n) {
             return fail(ErrorCode::InvalidValue,
                         "two dates fall in one week (" + plan.axis.periodDescription(p) +
-                            "): " + dateOfColumn(m_dayOfDate[other]).iso() + " (line " +
-                            std::to_string(m_dateLine[other]) + ") and " + dateOfColumn(day).iso() +
+                            "): " + dateOfColumn(m_dayOfDate[other]).iso() + " (" +
+                            place(m_dateLine[other]) + ") and " + dateOfColumn(day).iso() +
                             "; weekly data has one date per week (" + offGridDates(weekday, 5) +
                             " " + weekdayName(weekday) +
                             "s). Pass --cadence daily to read every date "
@@ -1099,13 +1098,13 @@ void DropReader::noteClosingWarnings() {
                       "occurrence is kept, the repeats are listed as duplicates (first repeat: "
                       "region " +
                       quoted(m_drop.regionCodes[d.region]) + ", " +
-                      m_drop.periodStart(d.day).iso() + ", first seen on line " +
-                      std::to_string(d.firstLine) + ")",
+                      m_drop.periodStart(d.day).iso() + ", first seen on " + place(d.firstLine) +
+                      ")",
                   d.cell.line, 0);
     }
     const char sep = m_drop.source.dialect.thousandsSeparator;
     const std::string sepName = sep == ' ' ? "a space" : std::string("'") + sep + "'";
-    m_log.moveTo(m_drop.warnings,
+    m_log.moveTo(m_drop.warnings, m_drop.source,
                  {
                      {"thousands", "cells are written with " + sepName +
                                        " as thousands separator; they were read as whole numbers"},

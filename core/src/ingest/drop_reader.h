@@ -50,9 +50,21 @@ public:
           m_file(file),
           m_checker(bytes, m_path) {}
 
+    /// The text is a workbook's sheet written as CSV (its lines are the sheet's rows): every
+    /// message names places as the sheet's cells ("data!C14"), through sourcePlace().
+    void readAsSheetOf(const Provenance& workbook) {
+        m_drop.source.format = workbook.format;
+        m_drop.source.sheet = workbook.sheet;
+        m_drop.source.firstColumn = workbook.firstColumn;
+    }
+
     Result<Drop> run();
 
 private:
+    /// A source position as messages name it (sourcePlace(): "line 14" or "data!C14").
+    std::string place(std::uint64_t line, std::uint64_t column = 0) const {
+        return sourcePlace(m_drop.source, line, column);
+    }
     Error fail(ErrorCode code, std::string message, std::uint64_t line = 0,
                std::uint64_t column = 0) const;
     /// A syntax error, unless an encoding error comes before it.

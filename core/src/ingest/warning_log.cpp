@@ -29,7 +29,7 @@ void WarningLog::count(const std::string& kind, std::uint64_t line, std::uint64_
     ++it->second.total;
 }
 
-void WarningLog::moveTo(std::vector<Warning>& out,
+void WarningLog::moveTo(std::vector<Warning>& out, const Provenance& source,
                         const std::map<std::string, std::string>& countedPhrases) {
     for (const std::string& kind : m_countedOrder) {
         const Tally& t = m_counted[kind];
@@ -43,9 +43,11 @@ void WarningLog::moveTo(std::vector<Warning>& out,
     for (Warning& w : m_listed)
         out.push_back(std::move(w));
     for (const auto& [kind, t] : m_overflow) {
-        out.push_back({"... and " + std::to_string(t.total) + " more like the above (" + kind +
-                           "), the first at line " + std::to_string(t.line),
-                       t.line, t.column});
+        std::string message = "... and " + std::to_string(t.total) + " more like the above (";
+        message += kind;
+        message += "), the first at ";
+        message += sourcePlace(source, t.line);
+        out.push_back({std::move(message), t.line, t.column});
     }
     m_listed.clear();
 }

@@ -22,8 +22,9 @@ public:
     /// C").
     void count(const std::string& kind, std::uint64_t line, std::uint64_t column,
                std::string example = {});
-    /// Appends everything to `out`; `summary(kind, n, example)` phrases counted kinds.
-    void moveTo(std::vector<Warning>& out,
+    /// Appends everything to `out`; `summary(kind, n, example)` phrases counted kinds; places
+    /// in the texts are named as `source` names them (sourcePlace()).
+    void moveTo(std::vector<Warning>& out, const Provenance& source,
                 const std::map<std::string, std::string>& countedPhrases);
 
 private:

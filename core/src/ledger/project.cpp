@@ -83,9 +83,12 @@ Status ProjectFile::validate() const {
 Status writeProjectFile(const std::string& path, const ProjectFile& p) {
     if (auto s = p.validate(); !s)
         return s;
+    json drop{{"path", p.dropPath}, {"sha256", p.dropSha256}};
+    if (!p.dropSheet.empty())
+        drop["sheet"] = p.dropSheet;
     json j{{"format", "siftwave-project"},
            {"version", 1},
-           {"drop", {{"path", p.dropPath}, {"sha256", p.dropSha256}}},
+           {"drop", drop},
            {"previous_drop", p.previousDropPath.empty() ? json(nullptr)
                                                         : json{{"path", p.previousDropPath},
                                                                {"sha256", p.previousDropSha256}}},
@@ -159,6 +162,8 @@ Result<ProjectFile> parseProjectFile(std::string_view bytes, const std::string& 
         const json& drop = j.at("drop");
         p.dropPath = drop.at("path").get<std::string>();
         p.dropSha256 = drop.at("sha256").get<std::string>();
+        if (drop.contains("sheet") && !drop.at("sheet").is_null())
+            p.dropSheet = drop.at("sheet").get<std::string>();
         if (j.contains("previous_drop") && !j.at("previous_drop").is_null()) {
             p.previousDropPath = j.at("previous_drop").at("path").get<std::string>();
             p.previousDropSha256 = j.at("previous_drop").at("sha256").get<std::string>();

@@ -193,9 +193,12 @@ std::string headHtml(const BriefingReport& r) {
          htmlEscaped(r.title) + "</title><style>" + kStyle + "</style></head><body>\n";
     h += "<h1>" + htmlEscaped(r.title) + "</h1>\n";
     const CaptionFacts& c = r.caption;
-    h += "<p>Source <b>" + htmlEscaped(c.sourceFile) + "</b>, " + htmlEscaped(c.firstDate) +
-         " to " + htmlEscaped(c.lastDate) + ", SHA-256 " + htmlEscaped(c.dropSha256Prefix) +
-         ". Ledger: " + std::to_string(c.ledgerEntries) + " entries" +
+    h += "<p>Source <b>" + htmlEscaped(c.sourceFile) + "</b>" +
+         (c.sourceSheet.empty() ? std::string()
+                                : ", sheet <b>" + htmlEscaped(c.sourceSheet) + "</b>") +
+         ", " + htmlEscaped(c.firstDate) + " to " + htmlEscaped(c.lastDate) + ", SHA-256 " +
+         htmlEscaped(c.dropSha256Prefix) + ". Ledger: " + std::to_string(c.ledgerEntries) +
+         " entries" +
          (c.ledgerEntries ? ", head " + htmlEscaped(c.ledgerHeadPrefix) : std::string()) +
          ", chain " + (r.chainVerified ? "verified" : "NOT verified") + ". Exported " +
          htmlEscaped(c.exportDate) + " by Siftwave " + siftwaveVersion() + ".</p>\n";

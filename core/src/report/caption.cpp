@@ -28,6 +28,7 @@ CaptionFacts captionFacts(const Drop& drop, const ledger::Ledger& ledger, const 
                           const std::string& exportDate) {
     CaptionFacts facts;
     facts.sourceFile = fileNameOf(drop.source.path);
+    facts.sourceSheet = drop.source.sheet;
     if (drop.periods() > 0) {
         facts.firstDate = drop.axis.first().iso();
         facts.lastDate = drop.axis.lastStart().iso();
@@ -50,6 +51,8 @@ std::vector<std::string> captionLines(const CaptionFacts& f) {
     std::vector<std::string> lines;
     std::string source =
         "Source: " + (f.sourceFile.empty() ? std::string("(unnamed)") : f.sourceFile);
+    if (!f.sourceSheet.empty())
+        source += ", sheet " + f.sourceSheet;
     if (!f.firstDate.empty())
         source += ", " + f.firstDate + " to " + f.lastDate;
     source += ", SHA-256 " + f.dropSha256Prefix;

@@ -265,7 +265,9 @@ Result<PlotModel> buildPlotModel(const Drop& drop, const ledger::Ledger& ledger,
     model.raw = series::countsOf(drop, *measure, *region);
     model.rawState.assign(model.periods(), CellState::Absent);
     model.sourceLine.assign(model.periods(), 0);
-    model.sourceSheet = drop.source.sheet;
+    model.sourcePlaces.format = drop.source.format;
+    model.sourcePlaces.sheet = drop.source.sheet;
+    model.sourcePlaces.firstColumn = drop.source.firstColumn;
     const auto cells = drop.series(*measure, *region);
     for (int d = 0; d < model.periods() && d < static_cast<int>(cells.size()); ++d) {
         model.rawState[d] = cells[static_cast<std::size_t>(d)].state;

@@ -6,6 +6,7 @@
 #include <algorithm>
 #include <cstdint>
 #include <cstdio>
+#include <optional>
 #include <unordered_map>
 
 namespace siftwave::scan {
@@ -45,6 +46,51 @@ int severityOrder(Severity s) {
     return 2;
 }
 
+/// "line" -> "place", "first_line" -> "first_place", "line_after" -> "place_after", "lines"
+/// -> "places"; other keys (and "baseline") are no source lines: nullopt.
+std::optional<std::string> placeKeyOf(const std::string& key) {
+    if (key == "line" || key == "lines")
+        return "place" + key.substr(4);
+    if (key.starts_with("line_"))
+        return "place" + key.substr(4);
+    if (key.ends_with("_line"))
+        return key.substr(0, key.size() - 4) + "place";
+    return std::nullopt;
+}
+
+/// A source line (a number) as its place, or every line of an array; other values unchanged.
+nlohmann::json placesOf(const nlohmann::json& lines, const Provenance& source) {
+    if (lines.is_number_unsigned() && lines.get<std::uint64_t>() > 0)
+        return sourcePlace(source, lines.get<std::uint64_t>());
+    if (!lines.is_array())
+        return lines;
+    nlohmann::json out = nlohmann::json::array();
+    for (const nlohmann::json& line : lines)
+        out.push_back(placesOf(line, source));
+    return out;
+}
+
+/// The evidence of a workbook drop names its source lines as the sheet's rows ("data!14:14"),
+/// through sourcePlace(), in objects nested at any depth (a duplicate's rows).
+nlohmann::json withSheetPlaces(const nlohmann::json& value, const Provenance& source) {
+    if (value.is_array()) {
+        nlohmann::json out = nlohmann::json::array();
+        for (const nlohmann::json& item : value)
+            out.push_back(withSheetPlaces(item, source));
+        return out;
+    }
+    if (!value.is_object())
+        return value;
+    nlohmann::json out = nlohmann::json::object();
+    for (auto it = value.begin(); it != value.end(); ++it) {
+        if (std::optional<std::string> key = placeKeyOf(it.key()))
+            out[*key] = placesOf(it.value(), source);
+        else
+            out[it.key()] = withSheetPlaces(it.value(), source);
+    }
+    return out;
+}
+
 }  // namespace
 
 std::string findingId(const Finding& finding) {
@@ -70,8 +116,13 @@ Result<ScanReport> scanDrop(const Drop& drop, const ScanOptions& options,
         const std::size_t before = report.findings.size();
         kind.detect(in, report);
         // Evidence as CBOR bytes from here on (finding.h): the ranking below reads none of it.
-        for (std::size_t i = before; i < report.findings.size(); ++i)
-            report.findings[i].evidence.compact();
+        // A workbook drop's lines are named as its sheet's rows first.
+        for (std::size_t i = before; i < report.findings.size(); ++i) {
+            Evidence& evidence = report.findings[i].evidence;
+            if (!drop.source.format.empty())
+                evidence = withSheetPlaces(evidence.json(), drop.source);
+            evidence.compact();
+        }
     }
 
     std::vector<Finding>& all = report.findings;

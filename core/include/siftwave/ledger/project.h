@@ -4,7 +4,7 @@
 // atomically (temporary file in the same folder, flush, fsync, rename).
 //
 //   {"format": "siftwave-project", "version": 1,
-//    "drop": {"path", "sha256"}, "previous_drop": {"path", "sha256"},
+//    "drop": {"path", "sha256", "sheet"}, "previous_drop": {"path", "sha256"},
 //    "register": {"path"}, "ledger": {"path", "entries", "head_hash"},
 //    "view": {...}, "fit": {...},
 //    "release_history": [{"path", "sha256"}, ...]}   (only when the drop has one)
@@ -55,6 +55,9 @@ struct ProjectRelease {
 struct ProjectFile {
     std::string dropPath;
     std::string dropSha256;
+    /// A workbook drop: the sheet read (one file, several tables: the project reopens this one);
+    /// "" for a CSV drop. Written only when set.
+    std::string dropSheet;
     std::string previousDropPath;  // "" = none
     std::string previousDropSha256;
     std::string registerPath;  // "" = none

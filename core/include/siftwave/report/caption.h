@@ -32,6 +32,7 @@ inline constexpr std::size_t kHashPrefixLength = 12;
 
 struct CaptionFacts {
     std::string sourceFile;         // file name without its folders
+    std::string sourceSheet;        // a workbook drop's sheet read; empty for CSV
     std::string firstDate;          // ISO 8601, the release's calendar
     std::string lastDate;           // ISO 8601
     std::string dropSha256Prefix;   // kHashPrefixLength hex digits

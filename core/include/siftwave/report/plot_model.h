@@ -128,8 +128,9 @@ struct PlotModel {
     std::vector<double> raw;
     std::vector<CellState> rawState;
     std::vector<std::uint32_t> sourceLine;
-    /// A spreadsheet drop: its sheet, whose row a source line is ("data"); empty for CSV.
-    std::string sourceSheet;
+    /// What names a source line for a person (sourcePlace(): "line 14", "data!14:14"): the
+    /// drop's format, sheet and first column; nothing else of the provenance is copied.
+    Provenance sourcePlaces;
     std::vector<double> cleaned;   // replay(drop, ledger); NaN where the cell holds no value
     std::vector<double> smoothed;  // centred mean of `cleaned` (series::plotSmoothingWindow)
     std::string smoothedLabel;     // "7-day centred mean (cleaned)", "3-week ..."

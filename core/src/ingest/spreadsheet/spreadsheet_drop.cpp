@@ -134,6 +134,22 @@ Status writeTable(Workbook& book, ChosenSheet& chosen, const std::string& path, 
     return Ok{};
 }
 
+/// The sheets whose first rows hold dates (only when there are several sheets to choose from). A
+/// sheet that cannot be read is not listed: choosing it would report why.
+std::vector<std::string> datedSheetsOf(Workbook& book, const ChosenSheet& chosen) {
+    const std::vector<std::string>& names = book.sheetNames();
+    std::vector<std::string> dated;
+    if (names.size() < 2)
+        return dated;
+    for (std::size_t i = 0; i < names.size(); ++i) {
+        ChosenSheet other;
+        if (i == chosen.index ? holdsDates(chosen.head)
+                              : readHead(book, i, other) && holdsDates(other.head))
+            dated.push_back(names[i]);
+    }
+    return dated;
+}
+
 void nameTheWorkbook(Drop& drop, std::string_view bytes, const std::string& path,
                      SpreadsheetFormat format, const Workbook& book, std::size_t sheet,
                      std::uint32_t firstColumn) {
@@ -161,6 +177,11 @@ std::optional<Result<Drop>> readSpreadsheetDrop(std::string_view bytes, const st
     if (!*opened)
         return Result<Drop>(opened->error());
     Workbook& book = ***opened;
+    if (options.delimiter)  // said, not ignored: the option was meant for a text file
+        return Result<Drop>(usageError(
+            path, "--delimiter applies to a CSV file, and this file is an ." +
+                      std::string(spreadsheetFormatName(format)) +
+                      " workbook, whose cells are already apart; leave --delimiter out"));
     Result<ChosenSheet> chosen = chooseSheet(book, options, path);
     if (!chosen)
         return Result<Drop>(chosen.error());
@@ -173,12 +194,13 @@ std::optional<Result<Drop>> readSpreadsheetDrop(std::string_view bytes, const st
     IngestOptions csvOptions = options;
     csvOptions.sheet.clear();
     csvOptions.delimiter = ',';  // the CSV text is written with commas
-    DropReader reader(csv, path, csvOptions, nullptr);
-    Result<Drop> drop = reader.run();
     Provenance place;
     place.format = spreadsheetFormatName(format);
     place.sheet = book.sheetNames()[chosen->index];
     place.firstColumn = firstColumn;
+    DropReader reader(csv, path, csvOptions, nullptr);
+    reader.readAsSheetOf(place);
+    Result<Drop> drop = reader.run();
     if (!drop) {
         Error e = drop.error();
         e.file = path;
@@ -189,6 +211,7 @@ std::optional<Result<Drop>> readSpreadsheetDrop(std::string_view bytes, const st
         return Result<Drop>(std::move(e));
     }
     nameTheWorkbook(*drop, bytes, path, format, book, chosen->index, firstColumn);
+    drop->source.datedSheets = datedSheetsOf(book, *chosen);
     drop->warnings.insert(drop->warnings.begin(), notes.begin(), notes.end());
     return drop;
 }
