@@ -15,6 +15,7 @@
 
 #include <QInputDialog>
 #include <QLineEdit>
+#include <QTimer>
 #include <QUndoStack>
 #include <QWidget>
 
@@ -31,7 +32,11 @@ DecisionController::DecisionController(widgets::Workbench* workbench, widgets::S
       m_pane(pane),
       m_dialogs(dialogs),
       m_window(window),
-      m_undo(new QUndoStack(this)) {
+      m_undo(new QUndoStack(this)),
+      m_checkTimer(new QTimer(this)) {
+    m_checkTimer->setSingleShot(true);
+    m_checkTimer->setInterval(250);
+    connect(m_checkTimer, &QTimer::timeout, this, &DecisionController::runCheck);
     connect(m_pane, &widgets::DecisionPane::decisionEdited, this, &DecisionController::preview);
     connect(m_pane, &widgets::DecisionPane::applyRequested, this, &DecisionController::apply);
     connect(m_pane, &widgets::DecisionPane::cancelled, this, &DecisionController::end);
@@ -70,6 +75,7 @@ void DecisionController::begin(const ledger::Decision& decision, const QString& 
     m_pane->begin(decision, title, reason);
     m_plot->setDayPickingEnabled(false);
     preview();
+    runCheck();
     Q_EMIT decisionStarted();  // after the preview: the window sizes the pane to its texts
 }
 
@@ -150,10 +156,9 @@ void DecisionController::preview() {
     const ledger::Decision decision = m_pane->decision();
     const Result<ledger::Effect> effect = m_workbench->preview(decision);
     m_pane->showPreview(effect);
+    m_pane->showCheck(std::nullopt);
     if (effect)
-        m_pane->showCheck(m_workbench->checkDecision(decision));
-    else
-        m_pane->showCheck(std::nullopt);
+        m_checkTimer->start();  // restarts: the check follows the last edit
     // Draw the cells of the shown region and measure as they would be after.
     std::vector<double> values;
     if (effect) {
@@ -172,6 +177,15 @@ void DecisionController::preview() {
     m_plot->setPreview(values, tr("Preview: after the decision"));
     if (const auto window = m_pane->window())
         m_plot->setEditableWindow(*window);
+}
+
+void DecisionController::runCheck() {
+    m_checkTimer->stop();
+    if (!m_pane->isActive())
+        return;
+    const ledger::Decision decision = m_pane->decision();
+    if (m_workbench->preview(decision))
+        m_pane->showCheck(m_workbench->checkDecision(decision));
 }
 
 bool DecisionController::apply() {

@@ -13,6 +13,7 @@
 
 #include <cstdint>
 
+class QTimer;
 class QUndoStack;
 class QWidget;
 
@@ -59,6 +60,10 @@ Q_SIGNALS:
 private:
     void begin(const ledger::Decision& decision, const QString& title, const QString& reason);
     void preview();
+    /// The re-scan of what the decision would create (decision_check.h): at once when a decision
+    /// begins, then 250 ms after the last edit (two scans of the measure each time; a dragged
+    /// window or a held spin box would otherwise queue one per step).
+    void runCheck();
     void end();
 
     widgets::Workbench* m_workbench;
@@ -67,6 +72,7 @@ private:
     bool m_dialogs;
     QWidget* m_window;
     QUndoStack* m_undo;
+    QTimer* m_checkTimer;
 };
 
 }  // namespace siftwave::gui

@@ -12,6 +12,7 @@
 #include <QFile>
 #include <QLabel>
 #include <QRadioButton>
+#include <QSpinBox>
 #include <QTemporaryDir>
 #include <QTest>
 
@@ -87,6 +88,13 @@ private Q_SLOTS:
         QVERIFY(!globalRect(automatic).intersects(globalRect(manual)));
         QVERIFY(!globalRect(automatic).intersects(globalRect(from)));
         QVERIFY(!globalRect(model).intersects(globalRect(automatic)));
+
+        // An edit re-runs the check once the edits pause (it scans the measure twice).
+        auto* excess = window->findChild<QSpinBox*>(QStringLiteral("decisionExcess"));
+        QVERIFY(excess);
+        excess->setValue(excess->value() - 100);
+        QVERIFY(check->text().isEmpty());
+        QTRY_VERIFY_WITH_TIMEOUT(check->text().contains(QStringLiteral("Check:")), 5000);
     }
 };
 
