@@ -97,8 +97,10 @@ TEST(SampleBacklog, TheSuggestionRestoresThePlantedThreeWeeksWithoutAnArtefactWa
     EXPECT_GE(1.0 - after / before, 0.85) << "error before " << before << ", after " << after;
 
     // The largest wave: the same peak (within a week) and height (within 15 %) as the truth's.
-    const fit::Wave* trueWave = largest(fit::detectWaves(truth));
-    const fit::Wave* cleanWave = largest(fit::detectWaves(clean));
+    const std::vector<fit::Wave> trueWaves = fit::detectWaves(truth);
+    const std::vector<fit::Wave> cleanWaves = fit::detectWaves(clean);
+    const fit::Wave* trueWave = largest(trueWaves);
+    const fit::Wave* cleanWave = largest(cleanWaves);
     ASSERT_NE(trueWave, nullptr);
     ASSERT_NE(cleanWave, nullptr);
     EXPECT_LE(std::abs(cleanWave->peak - trueWave->peak), 7);
