@@ -30,12 +30,7 @@ class DecisionLayoutTest : public QObject {
     Q_OBJECT
 
 private Q_SLOTS:
-    void initTestCase() {
-        Q_INIT_RESOURCE(siftwave);
-        QFile style(QStringLiteral(":/siftwave/style.qss"));
-        QVERIFY(style.open(QIODevice::ReadOnly));
-        qApp->setStyleSheet(QString::fromUtf8(style.readAll()));
-    }
+    void initTestCase() { QVERIFY(applyWorkbenchStyle()); }
 
     void theFitPaneRowsStaySeparateBesideATallDecision_data() {
         QTest::addColumn<QSize>("size");

@@ -35,12 +35,7 @@ class DefaultLayoutTest : public QObject {
     Q_OBJECT
 
 private Q_SLOTS:
-    void initTestCase() {
-        Q_INIT_RESOURCE(siftwave);
-        QFile style(QStringLiteral(":/siftwave/style.qss"));
-        QVERIFY(style.open(QIODevice::ReadOnly));
-        qApp->setStyleSheet(QString::fromUtf8(style.readAll()));
-    }
+    void initTestCase() { QVERIFY(applyWorkbenchStyle()); }
 
     void theFindingsTableShowsEveryColumnWholeAtTheDefaultSize() {
         QTemporaryDir ledgers;

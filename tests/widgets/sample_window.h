@@ -3,7 +3,9 @@
 
 #include "main_window.h"
 
+#include <QApplication>
 #include <QDir>
+#include <QFile>
 #include <QSignalSpy>
 #include <QSize>
 #include <QStandardPaths>
@@ -55,3 +57,15 @@ inline std::unique_ptr<gui::MainWindow> openSampleWindow(const QString& ledgerFo
 }
 
 }  // namespace siftwave::testing
+
+/// Styles the application as the workbench does (resources/style.qss), for tests that measure
+/// the layout; false when the style sheet is not in the resources. (Q_INIT_RESOURCE cannot be
+/// used inside a namespace.)
+inline bool applyWorkbenchStyle() {
+    Q_INIT_RESOURCE(siftwave);
+    QFile style(QStringLiteral(":/siftwave/style.qss"));
+    if (!style.open(QIODevice::ReadOnly))
+        return false;
+    qApp->setStyleSheet(QString::fromUtf8(style.readAll()));
+    return true;
+}
