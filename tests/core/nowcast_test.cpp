@@ -103,6 +103,16 @@ TEST(Nowcast, IntervalsCoverNearTheirNominalRateAndBeatTheNaiveCount) {
     EXPECT_LE(a.absError, 0.5 * a.absNaive) << a.absError << " vs naive " << a.absNaive;
 }
 
+// Delays that shorten on day 35: mean 4.7 days before (delayPmf), 0.9 after (laterPmf).
+CaseListSpec shorteningDelay(std::uint64_t seed) {
+    CaseListSpec spec;
+    spec.seed = seed;
+    spec.delayPmf = {0.02, 0.08, 0.12, 0.14, 0.14, 0.13, 0.12, 0.10, 0.07, 0.05, 0.03};
+    spec.laterPmf = {0.45, 0.35, 0.12, 0.05, 0.03};
+    spec.changeDay = 35;
+    return spec;
+}
+
 // Delays that shorten midway (mean 4.7 days before day 35, 0.9 after). Three weeks after the
 // change a 14-day window has followed it (error below the naive count's, and under a fifth of
 // that of a 42-day window, which still assumes the old delays); the bench reports the error
@@ -115,11 +125,7 @@ TEST(Nowcast, FollowsADelayThatShortensMidway) {
     NowcastOptions slow;
     slow.windowPeriods = 42;
     for (std::uint64_t seed = 1; seed <= 8; ++seed) {
-        CaseListSpec spec;
-        spec.seed = seed;
-        spec.delayPmf = {0.02, 0.08, 0.12, 0.14, 0.14, 0.13, 0.12, 0.10, 0.07, 0.05, 0.03};
-        spec.laterPmf = {0.45, 0.35, 0.12, 0.05, 0.03};
-        spec.changeDay = 35;
+        const CaseListSpec spec = shorteningDelay(seed);
         fast.delayModel = slow.delayModel = DelayModel::Constant;  // the window alone
         score(spec, 35 + 21, shortWindow, fast);
         score(spec, 35 + 21, longWindow, slow);
@@ -138,11 +144,7 @@ TEST(Nowcast, ADriftingDelayFollowsAShorteningOneWithinTwoWeeks) {
     NowcastOptions fixed;
     fixed.delayModel = DelayModel::Constant;
     for (std::uint64_t seed = 1; seed <= 8; ++seed) {
-        CaseListSpec spec;
-        spec.seed = seed;
-        spec.delayPmf = {0.02, 0.08, 0.12, 0.14, 0.14, 0.13, 0.12, 0.10, 0.07, 0.05, 0.03};
-        spec.laterPmf = {0.45, 0.35, 0.12, 0.05, 0.03};
-        spec.changeDay = 35;
+        const CaseListSpec spec = shorteningDelay(seed);
         score(spec, 35 + 14, constant, fixed);
         score(spec, 35 + 14, automatic);
     }
