@@ -1,5 +1,7 @@
 #include "common.h"
 
+#include "siftwave/json_text.h"
+
 #include <cstdio>
 #include <exception>
 #include <iostream>
@@ -205,48 +207,13 @@ void printError(const Error& error, bool json) {
     std::fprintf(stderr, "siftwave-cli: %s\n", terminalText(error.describe()).c_str());
 }
 
-/// JSON escapes C0 controls (RFC 8259, section 7) but allows DEL and the C1 controls raw, and a
-/// terminal may act on them (U+009B is a control sequence introducer). Outside strings JSON text
-/// is ASCII, so those bytes only occur inside strings, where \u escapes mean the same.
-std::string terminalSafeJson(const std::string& text) {
-    std::string out;
-    out.reserve(text.size());
-    char escape[8];
-    for (std::size_t i = 0; i < text.size(); ++i) {
-        const auto c = static_cast<unsigned char>(text[i]);
-        const auto next = i + 1 < text.size() ? static_cast<unsigned char>(text[i + 1]) : 0;
-        if (c == 0x7F) {
-            out += "\\u007f";
-        } else if (c == 0xC2 && next >= 0x80 && next <= 0x9F) {
-            std::snprintf(escape, sizeof escape, "\\u%04x", next);
-            out += escape;
-            ++i;
-        } else {
-            out += static_cast<char>(c);
-        }
-    }
-    return out;
-}
-
 void printJson(const nlohmann::json& value) {
-    std::cout << terminalSafeJson(
-                     value.dump(2, ' ', false, nlohmann::json::error_handler_t::replace))
-              << '\n';
+    std::cout << jsonText(value) << '\n';
     std::cout.flush();
 }
 
 void printJsonAt(const nlohmann::json& value, int depth) {
-    const std::string text =
-        terminalSafeJson(value.dump(2, ' ', false, nlohmann::json::error_handler_t::replace));
-    const std::string indent(static_cast<std::size_t>(2 * depth), ' ');
-    // A dumped JSON text has newlines only between its lines: strings escape theirs.
-    std::size_t start = 0;
-    for (std::size_t nl = text.find('\n'); nl != std::string::npos; nl = text.find('\n', start)) {
-        std::cout.write(text.data() + start, static_cast<std::streamsize>(nl + 1 - start));
-        std::cout << indent;
-        start = nl + 1;
-    }
-    std::cout.write(text.data() + start, static_cast<std::streamsize>(text.size() - start));
+    std::cout << jsonText(value, depth);
 }
 
 int usageError(const std::string& message, bool json, const std::string& usage) {

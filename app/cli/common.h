@@ -56,10 +56,6 @@ void printJson(const nlohmann::json& value);
 /// piece at a time, so that a long list never has to be held whole (scan --json).
 void printJsonAt(const nlohmann::json& value, int depth);
 
-/// JSON text with DEL and the C1 controls as \u escapes (JSON allows them raw; a terminal may act
-/// on them). What printJson() prints, for JSON written in pieces.
-std::string terminalSafeJson(const std::string& text);
-
 /// Converts an Error to its JSON object.
 nlohmann::json errorToJson(const Error& error);
 

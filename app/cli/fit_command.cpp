@@ -7,6 +7,7 @@
 
 #include "siftwave/fit/batch.h"
 #include "siftwave/fit/fit_export.h"
+#include "siftwave/json_text.h"
 #include "siftwave/nowcast/nowcast.h"
 
 #include <algorithm>
@@ -328,17 +329,10 @@ std::string formatRegion(const fit::RegionFit& r, const std::string* note, Outpu
         return fit::fitCsvRow(r) + "\n";
     if (format == OutputFormat::Text)
         return regionTextWithNote(r, note, axis);
-    const std::string text =
-        terminalSafeJson(regionJson(r, note, withCurve)
-                             .dump(2, ' ', false, nlohmann::json::error_handler_t::replace));
-    // A raw line break only occurs between JSON tokens (strings escape theirs): indent each line.
+    // An element of the array printed whole: its lines after the first one level deeper.
     std::string out = "  ";
-    out.reserve(text.size() + text.size() / 8);
-    for (const char c : text) {
-        out += c;
-        if (c == '\n')
-            out += "  ";
-    }
+    out.reserve(4096);
+    appendJsonText(out, regionJson(r, note, withCurve), 1);
     return out;
 }
 
