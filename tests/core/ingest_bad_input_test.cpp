@@ -262,6 +262,20 @@ TEST(IngestBadInput, MangledFilesNeverCrash) {
     EXPECT_GT(errors, 0);
 }
 
+// Regression (found by a long libFuzzer run of fuzz_drop_reader): a long file dated by year and
+// week whose only row has no region kept no date, and the weekly calendar was planned from
+// "no date" (a signed overflow under UBSan, and a calendar of 306 million weeks from the year
+// -5877610 in `inspect`). Now it is an empty weekly calendar, with the row's warning.
+TEST(IngestBadInput, AWeeklyFileWhoseRowsAllLackARegionHasAnEmptyCalendar) {
+    IngestOptions options;
+    options.layout = Layout::Long;
+    Result<Drop> drop = parseDrop("year,week,{date,reases\n2001,1,81,", "weeks.csv", options);
+    ASSERT_TRUE(drop.ok()) << drop.error().describe();
+    EXPECT_EQ(drop->periods(), 0);
+    EXPECT_TRUE(drop->regionCodes.empty());
+    ASSERT_FALSE(drop->warnings.empty());
+}
+
 // Regression (found by libFuzzer, reliability issue item 2): a short record before the first
 // whole one made the calendar prediction read a date field past the record's end. Under
 // AddressSanitizer this was a heap-buffer-overflow; now the short record is an error with its

@@ -979,6 +979,12 @@ Status DropReader::placeWeeks(CalendarPlan& plan, const WeekConvention& conventi
                               int weekday) const {
     // The weeks from the first date's to the last date's.
     const std::size_t n = m_dayOfDate.size();
+    plan.periodOfDay.assign(m_days, -1);
+    if (n == 0) {  // no row kept a date (every region cell empty, say): an empty calendar
+        plan.axis = TimeAxis::weekly(weekStartOf(Date{m_firstSerial}, convention.start), 0,
+                                     convention.start, convention.named);
+        return Ok{};
+    }
     std::int32_t lo = std::numeric_limits<std::int32_t>::max(), hi = -1;
     for (std::int32_t day : m_dayOfDate) {
         lo = std::min(lo, day);
@@ -988,7 +994,6 @@ Status DropReader::placeWeeks(CalendarPlan& plan, const WeekConvention& conventi
     const Date lastWeek = weekStartOf(dateOfColumn(hi), convention.start);
     plan.axis = TimeAxis::weekly(firstWeek, (lastWeek - firstWeek) / 7 + 1, convention.start,
                                  convention.named);
-    plan.periodOfDay.assign(m_days, -1);
     std::vector<std::size_t> dateOfPeriod(static_cast<std::size_t>(plan.axis.periods()), n);
     for (std::size_t i = 0; i < n; ++i) {
         const std::int32_t day = m_dayOfDate[i];
