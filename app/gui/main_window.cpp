@@ -816,18 +816,18 @@ void MainWindow::startScan() {
         m_scanTask->cancel();
     // The scan reads shared, immutable drops; the workbench keeps them alive for the task.
     auto drop = m_workbench->sharedDrop();
-    std::shared_ptr<const Drop> previous;
-    if (m_workbench->previousDrop())
-        previous = std::make_shared<const Drop>(*m_workbench->previousDrop());
+    // The previous release and the drop, or the release history ending with the drop: the
+    // history holds the releases' shared drops, alive for the task.
+    std::optional<ReleaseHistory> releases = m_workbench->comparedReleases();
     std::shared_ptr<const RegionRegister> regions;
     if (m_workbench->regionRegister())
         regions = std::make_shared<const RegionRegister>(*m_workbench->regionRegister());
     const std::string sha = drop->source.sha256;
     m_scanTask = BackgroundTask::start(
         this, tr("Scanning"),
-        [drop, previous, regions] {
+        [drop, releases, regions] {
             scan::ScanContext context;
-            context.previous = previous.get();
+            context.history = releases ? &*releases : nullptr;
             context.regions = regions.get();
             return std::make_shared<Result<scan::ScanReport>>(scan::scanDrop(*drop, {}, context));
         },
