@@ -953,12 +953,14 @@ void MainWindow::updateReleaseSummary() {
     html += row(tr("Duplicate rows"), c.toString(static_cast<qulonglong>(drop.duplicates.size())));
     if (const RegionRegister* reg = m_workbench->regionRegister())
         html += row(tr("Register"), text(reg->path));
-    if (const Drop* previous = m_workbench->previousDrop())
-        html += row(tr("Previous release"),
-                    tr("%1 (%2 to %3)")
-                        .arg(text(previous->source.path),
-                             QString::fromStdString(previous->axis.first().iso()),
-                             QString::fromStdString(previous->axis.lastStart().iso())));
+    if (const Drop* previous = m_workbench->comparedPrevious())
+        html += row(
+            tr("Previous release"),
+            tr("%1 (%2 to %3)%4")
+                .arg(text(previous->source.path),
+                     QString::fromStdString(previous->axis.first().iso()),
+                     QString::fromStdString(previous->axis.lastStart().iso()),
+                     m_workbench->previousDrop() ? QString() : tr(", from the release history")));
     html += QStringLiteral("</table>");
     if (!drop.warnings.empty()) {
         html += tr("<p><b>%1 warning(s) from the reader</b></p><ul>").arg(drop.warnings.size());

@@ -61,6 +61,10 @@ private Q_SLOTS:
         for (const siftwave::scan::Finding& f : window.workbench()->findings())
             revised = revised || f.kind == siftwave::scan::FindingKind::Revision;
         QVERIFY(revised);
+        // ... and the plot draws that release dotted, as an opened previous release.
+        QVERIFY(window.workbench()->previousDrop() == nullptr);
+        QVERIFY(window.workbench()->comparedPrevious() != nullptr);
+        QVERIFY(!window.workbench()->seriesView(QStringLiteral("all"), 0).previous.empty());
         QVERIFY(window.selectRegion(QStringLiteral("all")));
         auto* plot = window.findChild<siftwave::widgets::SeriesPlot*>();
         QVERIFY(plot);

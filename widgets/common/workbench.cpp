@@ -28,7 +28,7 @@ SeriesView Workbench::seriesView(const QString& regionCode, int measure, int sec
     if (secondMeasure >= 0 && secondMeasure < static_cast<int>(m_drop->measures.size()))
         request.secondMeasure = m_drop->measures[static_cast<std::size_t>(secondMeasure)];
     request.regions = m_register.get();
-    request.previous = m_previous.get();
+    request.previous = comparedPrevious();
     request.findings = findings();
     if (m_drop->caseList)  // a case list's last periods are incomplete: show their nowcast
         request.nowcast = nowcast::NowcastOptions{};
@@ -301,6 +301,14 @@ std::optional<ReleaseHistory> Workbench::comparedReleases() const {
     if (!history || &history->latest() != m_drop.get())
         return std::nullopt;
     return history;
+}
+
+const Drop* Workbench::comparedPrevious() const {
+    if (m_previous)
+        return m_previous.get();
+    const std::optional<ReleaseHistory> releases = comparedReleases();
+    // The drops are the workbench's own (m_history): the pointer outlives the history object.
+    return releases ? &releases->release(releases->size() - 2) : nullptr;
 }
 
 std::optional<nowcast::NowcastResult> Workbench::historyNowcast(const std::string& region,

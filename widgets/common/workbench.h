@@ -65,6 +65,9 @@ public:
     /// open drop (the history of two), else the release history when the open drop is its
     /// latest (its revisions are then against the release before it); nullopt when neither.
     std::optional<ReleaseHistory> comparedReleases() const;
+    /// The release the drop is compared with: the previous release, else the history's release
+    /// before the drop (comparedReleases()); nullptr when none. The plot draws it dotted.
+    const Drop* comparedPrevious() const;
 
     /// Everything the plot shows for one region: the core's plot model (report::buildPlotModel:
     /// raw, cleaned, smoothed, ledger texts, finding marks, decision marks, the previous release
