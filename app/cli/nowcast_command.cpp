@@ -5,13 +5,13 @@
 // The eventual count of each recent period, with its 95 % interval (core: nowcast/nowcast.h).
 #include "commands.h"
 #include "common.h"
+#include "release_files.h"
 #include "siftwave/csv_field.h"
 #include "siftwave/nowcast/nowcast.h"
 
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
-#include <filesystem>
 
 namespace siftwave::cli {
 namespace {
@@ -111,33 +111,12 @@ std::string usageText(const std::vector<FlagSpec>& specs) {
 }
 
 struct Job {
-    std::vector<Drop> drops;  // the case list, or the releases
+    std::optional<Drop> caseList;           // the case list, or ...
+    std::optional<ReleaseHistory> history;  // ... the releases, oldest first
     nowcast::NowcastOptions options;
     int maxDelay = 0;
     std::optional<Date> now;
 };
-
-/// The files a --releases run reads: each FILE, or each .csv file in a folder, sorted by name.
-std::vector<std::string> releaseFiles(const std::vector<std::string>& positional) {
-    std::vector<std::string> files;
-    for (const std::string& p : positional) {
-        std::error_code ec;
-        if (!std::filesystem::is_directory(p, ec)) {
-            files.push_back(p);
-            continue;
-        }
-        std::vector<std::string> inFolder;
-        for (const auto& entry : std::filesystem::directory_iterator(p, ec)) {
-            const std::string name = entry.path().filename().string();
-            if (entry.path().extension() == ".csv" && !name.starts_with(".") &&
-                name.find("regions") == std::string::npos)
-                inFolder.push_back(entry.path().string());
-        }
-        std::sort(inFolder.begin(), inFolder.end());
-        files.insert(files.end(), inFolder.begin(), inFolder.end());
-    }
-    return files;
-}
 
 Result<int> wholeNumber(const ParsedArgs& args, const char* flag) {
     const std::string text = args.value(flag, "0");
@@ -154,7 +133,7 @@ Result<int> wholeNumber(const ParsedArgs& args, const char* flag) {
 
 Result<std::vector<nowcast::ReportingTriangle>> caseListTriangles(const Job& job,
                                                                   const ParsedArgs& args) {
-    const Drop& drop = job.drops.front();
+    const Drop& drop = *job.caseList;
     std::vector<std::size_t> regions;
     if (args.has("region")) {
         const std::optional<std::size_t> r = drop.regionIndex(args.value("region"));
@@ -180,12 +159,7 @@ Result<std::vector<nowcast::ReportingTriangle>> caseListTriangles(const Job& job
 
 Result<std::vector<nowcast::ReportingTriangle>> releaseTriangles(const Job& job,
                                                                  const ParsedArgs& args) {
-    std::vector<const Drop*> history;
-    for (const Drop& d : job.drops)
-        history.push_back(&d);
-    const Drop& latest = **std::max_element(history.begin(), history.end(), [](auto* a, auto* b) {
-        return a->axis.lastStart() < b->axis.lastStart();
-    });
+    const Drop& latest = job.history->latest();
     const std::string measure = args.value("measure", latest.measures.front());
     std::vector<std::string> regions;
     if (args.has("region")) {
@@ -202,7 +176,7 @@ Result<std::vector<nowcast::ReportingTriangle>> releaseTriangles(const Job& job,
     std::vector<nowcast::ReportingTriangle> out;
     for (const std::string& code : regions) {
         Result<nowcast::ReportingTriangle> tri =
-            nowcast::triangleFromReleases(history, code, measure, job.maxDelay);
+            nowcast::triangleFromReleases(*job.history, code, measure, job.maxDelay);
         if (!tri)
             return tri.error();
         out.push_back(std::move(*tri));
@@ -246,20 +220,21 @@ std::optional<int> prepare(const ParsedArgs& args, bool json, const std::string&
                 "latest release",
                 json, usage);
     }
-    const std::vector<std::string> files =
-        releases ? releaseFiles(args.positional) : args.positional;
-    for (const std::string& file : files) {
-        Result<Drop> drop = loadDrop(file, args);
-        if (!drop) {
-            printError(drop.error(), json);
-            return drop.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
+    if (releases) {
+        Result<ReleaseHistory> history = loadReleaseHistory(args.positional, args);
+        if (!history) {
+            printError(history.error(), json);
+            return history.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
         }
-        job.drops.push_back(std::move(*drop));
+        job.history = std::move(*history);
+        return std::nullopt;
     }
-    if (job.drops.empty()) {
-        printError(makeError(ErrorCode::NotFound, "no release file was found"), json);
-        return kExitBadInput;
+    Result<Drop> drop = loadDrop(args.positional.front(), args);
+    if (!drop) {
+        printError(drop.error(), json);
+        return drop.error().code == ErrorCode::Usage ? kExitUsage : kExitBadInput;
     }
+    job.caseList = std::move(*drop);
     return std::nullopt;
 }
 

@@ -21,7 +21,7 @@ widgets::FigureExportDialog::Inputs figureExportInputs(const MainWindow& window)
     inputs.ledger = &workbench.ledger();
     inputs.cleaned = &workbench.cleaned();
     inputs.regions = workbench.regionRegister();
-    inputs.previous = workbench.previousDrop();
+    inputs.previous = workbench.comparedPrevious();
     inputs.currentRegion = window.currentRegion();
     // The transmission panel as the workbench shows it: r(t), or R_t once a serial interval is
     // set (a figure does not carry a panel that only says R_t needs one).

@@ -816,18 +816,18 @@ void MainWindow::startScan() {
         m_scanTask->cancel();
     // The scan reads shared, immutable drops; the workbench keeps them alive for the task.
     auto drop = m_workbench->sharedDrop();
-    std::shared_ptr<const Drop> previous;
-    if (m_workbench->previousDrop())
-        previous = std::make_shared<const Drop>(*m_workbench->previousDrop());
+    // The previous release and the drop, or the release history ending with the drop: the
+    // history holds the releases' shared drops, alive for the task.
+    std::optional<ReleaseHistory> releases = m_workbench->comparedReleases();
     std::shared_ptr<const RegionRegister> regions;
     if (m_workbench->regionRegister())
         regions = std::make_shared<const RegionRegister>(*m_workbench->regionRegister());
     const std::string sha = drop->source.sha256;
     m_scanTask = BackgroundTask::start(
         this, tr("Scanning"),
-        [drop, previous, regions] {
+        [drop, releases, regions] {
             scan::ScanContext context;
-            context.previous = previous.get();
+            context.history = releases ? &*releases : nullptr;
             context.regions = regions.get();
             return std::make_shared<Result<scan::ScanReport>>(scan::scanDrop(*drop, {}, context));
         },
@@ -953,12 +953,14 @@ void MainWindow::updateReleaseSummary() {
     html += row(tr("Duplicate rows"), c.toString(static_cast<qulonglong>(drop.duplicates.size())));
     if (const RegionRegister* reg = m_workbench->regionRegister())
         html += row(tr("Register"), text(reg->path));
-    if (const Drop* previous = m_workbench->previousDrop())
-        html += row(tr("Previous release"),
-                    tr("%1 (%2 to %3)")
-                        .arg(text(previous->source.path),
-                             QString::fromStdString(previous->axis.first().iso()),
-                             QString::fromStdString(previous->axis.lastStart().iso())));
+    if (const Drop* previous = m_workbench->comparedPrevious())
+        html += row(
+            tr("Previous release"),
+            tr("%1 (%2 to %3)%4")
+                .arg(text(previous->source.path),
+                     QString::fromStdString(previous->axis.first().iso()),
+                     QString::fromStdString(previous->axis.lastStart().iso()),
+                     m_workbench->previousDrop() ? QString() : tr(", from the release history")));
     html += QStringLiteral("</table>");
     if (!drop.warnings.empty()) {
         html += tr("<p><b>%1 warning(s) from the reader</b></p><ul>").arg(drop.warnings.size());

@@ -67,6 +67,10 @@ void MainWindow::openReleaseHistory(const QStringList& paths) {
             m_workbench->setReleaseHistory(loaded.releases);
             if (const QString problem = m_workbench->releaseHistoryProblem(); !problem.isEmpty())
                 showError(tr("The releases give no nowcast"), problem);
+            // Without a previous release open, the scan's revisions are the history's newest
+            // pair: the release before the drop against the drop.
+            if (!m_workbench->previousDrop())
+                startScan();
             Q_EMIT historyOpened(static_cast<int>(m_workbench->releaseHistorySize()));
         });
     setBusy(task);

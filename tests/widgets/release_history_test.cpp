@@ -53,6 +53,18 @@ private Q_SLOTS:
         window.openReleaseHistory(earlier);
         QVERIFY(opened.wait(30000));
         QCOMPARE(opened.front().front().toInt(), spec.days - 1);
+        // No previous release is open: the scan runs again and its revisions are the history's
+        // newest pair (the release before the drop against it; late reports revise the last
+        // days of every release here).
+        QTRY_COMPARE_WITH_TIMEOUT(scanned.count(), 2, 30000);
+        bool revised = false;
+        for (const siftwave::scan::Finding& f : window.workbench()->findings())
+            revised = revised || f.kind == siftwave::scan::FindingKind::Revision;
+        QVERIFY(revised);
+        // ... and the plot draws that release dotted, as an opened previous release.
+        QVERIFY(window.workbench()->previousDrop() == nullptr);
+        QVERIFY(window.workbench()->comparedPrevious() != nullptr);
+        QVERIFY(!window.workbench()->seriesView(QStringLiteral("all"), 0).previous.empty());
         QVERIFY(window.selectRegion(QStringLiteral("all")));
         auto* plot = window.findChild<siftwave::widgets::SeriesPlot*>();
         QVERIFY(plot);

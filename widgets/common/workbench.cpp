@@ -28,7 +28,7 @@ SeriesView Workbench::seriesView(const QString& regionCode, int measure, int sec
     if (secondMeasure >= 0 && secondMeasure < static_cast<int>(m_drop->measures.size()))
         request.secondMeasure = m_drop->measures[static_cast<std::size_t>(secondMeasure)];
     request.regions = m_register.get();
-    request.previous = m_previous.get();
+    request.previous = comparedPrevious();
     request.findings = findings();
     if (m_drop->caseList)  // a case list's last periods are incomplete: show their nowcast
         request.nowcast = nowcast::NowcastOptions{};
@@ -281,15 +281,43 @@ void Workbench::setReleaseHistory(std::vector<std::shared_ptr<const Drop>> relea
     Q_EMIT previousChanged();
 }
 
+std::optional<ReleaseHistory> Workbench::releaseHistoryWithDrop() const {
+    if (m_history.empty() || !m_drop)
+        return std::nullopt;
+    std::vector<std::shared_ptr<const Drop>> releases = m_history;
+    releases.push_back(m_drop);
+    Result<ReleaseHistory> history =
+        ReleaseHistory::of(std::move(releases), ReleaseHistory::Order::ByAsOf);
+    return history ? std::optional<ReleaseHistory>(std::move(*history)) : std::nullopt;
+}
+
+std::optional<ReleaseHistory> Workbench::comparedReleases() const {
+    if (m_drop && m_previous) {
+        Result<ReleaseHistory> two =
+            ReleaseHistory::of({m_previous, m_drop}, ReleaseHistory::Order::AsGiven);
+        return two ? std::optional<ReleaseHistory>(std::move(*two)) : std::nullopt;
+    }
+    std::optional<ReleaseHistory> history = releaseHistoryWithDrop();
+    if (!history || &history->latest() != m_drop.get())
+        return std::nullopt;
+    return history;
+}
+
+const Drop* Workbench::comparedPrevious() const {
+    if (m_previous)
+        return m_previous.get();
+    const std::optional<ReleaseHistory> releases = comparedReleases();
+    // The drops are the workbench's own (m_history): the pointer outlives the history object.
+    return releases ? &releases->release(releases->size() - 2) : nullptr;
+}
+
 std::optional<nowcast::NowcastResult> Workbench::historyNowcast(const std::string& region,
                                                                 const std::string& measure) const {
-    if (m_history.empty())
+    const std::optional<ReleaseHistory> history = releaseHistoryWithDrop();
+    if (!history)
         return std::nullopt;
-    std::vector<const Drop*> releases{m_drop.get()};
-    for (const std::shared_ptr<const Drop>& d : m_history)
-        releases.push_back(d.get());
     Result<nowcast::ReportingTriangle> tri =
-        nowcast::triangleFromReleases(releases, region, measure);
+        nowcast::triangleFromReleases(*history, region, measure);
     if (!tri)
         return std::nullopt;
     Result<nowcast::NowcastResult> result = nowcast::nowcast(*tri);
@@ -297,13 +325,11 @@ std::optional<nowcast::NowcastResult> Workbench::historyNowcast(const std::strin
 }
 
 QString Workbench::releaseHistoryProblem() const {
-    if (m_history.empty() || !m_drop || m_drop->regionCodes.empty() || m_drop->measures.empty())
+    const std::optional<ReleaseHistory> history = releaseHistoryWithDrop();
+    if (!history || m_drop->regionCodes.empty() || m_drop->measures.empty())
         return {};
-    std::vector<const Drop*> releases{m_drop.get()};
-    for (const std::shared_ptr<const Drop>& d : m_history)
-        releases.push_back(d.get());
     Result<nowcast::ReportingTriangle> tri = nowcast::triangleFromReleases(
-        releases, m_drop->regionCodes.front(), m_drop->measures.front());
+        *history, m_drop->regionCodes.front(), m_drop->measures.front());
     return tri ? QString() : QString::fromStdString(tri.error().describe());
 }
 

@@ -13,6 +13,7 @@
 #include "siftwave/ledger/signing.h"
 #include "siftwave/nowcast/nowcast.h"
 #include "siftwave/region_register.h"
+#include "siftwave/release_history.h"
 #include "siftwave/result.h"
 #include "siftwave/scan/decision_check.h"
 #include "siftwave/scan/scan.h"
@@ -57,6 +58,16 @@ public:
     /// Why the history gives no nowcast for the first region (a gap between releases, another
     /// calendar, ...); empty when it gives one or there is no history.
     QString releaseHistoryProblem() const;
+    /// The release history as the core holds it (release_history.h): the earlier releases and
+    /// the open drop, in order of their as-of dates; nullopt without earlier releases.
+    std::optional<ReleaseHistory> releaseHistoryWithDrop() const;
+    /// The releases the scan compares (scan::ScanContext::history): the previous release and the
+    /// open drop (the history of two), else the release history when the open drop is its
+    /// latest (its revisions are then against the release before it); nullopt when neither.
+    std::optional<ReleaseHistory> comparedReleases() const;
+    /// The release the drop is compared with: the previous release, else the history's release
+    /// before the drop (comparedReleases()); nullptr when none. The plot draws it dotted.
+    const Drop* comparedPrevious() const;
 
     /// Everything the plot shows for one region: the core's plot model (report::buildPlotModel:
     /// raw, cleaned, smoothed, ledger texts, finding marks, decision marks, the previous release

@@ -2,6 +2,8 @@
 #include "siftwave/nowcast/triangle.h"
 
 #include <algorithm>
+#include <memory>
+#include <span>
 
 namespace siftwave::nowcast {
 namespace {
@@ -110,17 +112,11 @@ Result<ReportingTriangle> triangleFromCases(const Drop& drop, std::size_t region
 
 namespace {
 
-/// The releases sorted by their as-of period, checked: one cadence, one per period.
-Result<std::vector<const Drop*>> sortedReleases(const std::vector<const Drop*>& releases) {
-    if (releases.empty())
-        return makeError(ErrorCode::Usage, "a release history needs at least one release");
-    std::vector<const Drop*> sorted = releases;
-    std::sort(sorted.begin(), sorted.end(), [](const Drop* a, const Drop* b) {
-        return a->axis.lastStart() < b->axis.lastStart();
-    });
-    const TimeAxis& axis = sorted.back()->axis;
-    for (std::size_t k = 0; k < sorted.size(); ++k) {
-        const Drop& r = *sorted[k];
+/// The history checked for a triangle: one calendar, one release per period, oldest first.
+Status checkSuccessive(const ReleaseHistory& history) {
+    const TimeAxis& axis = history.latest().axis;
+    for (std::size_t k = 0; k < history.size(); ++k) {
+        const Drop& r = history.release(k);
         if (r.axis.empty() || r.axis.cadence() != axis.cadence() ||
             r.axis.weekStart() != axis.weekStart()) {
             Error e = makeError(ErrorCode::InvalidValue,
@@ -131,71 +127,96 @@ Result<std::vector<const Drop*>> sortedReleases(const std::vector<const Drop*>& 
         }
         if (k == 0)
             continue;
-        const int step = axis.periodOnGrid(r.axis.lastStart()) -
-                         axis.periodOnGrid(sorted[k - 1]->axis.lastStart());
-        if (step != 1) {
-            Error e = makeError(
-                ErrorCode::InvalidValue,
-                step == 0 ? "two releases end on the same " + std::string(axis.unitName()) + " (" +
-                                r.axis.lastStart().iso() + "), also " + sorted[k - 1]->source.path
-                          : "the releases skip from " + sorted[k - 1]->axis.lastStart().iso() +
-                                " to " + r.axis.lastStart().iso() +
-                                ": a release history needs one release per " + axis.unitName());
-            e.file = r.source.path;
-            return e;
-        }
+        const Drop& before = history.release(k - 1);
+        const int step =
+            axis.periodOnGrid(r.axis.lastStart()) - axis.periodOnGrid(before.axis.lastStart());
+        if (step == 1)
+            continue;
+        Error e = makeError(
+            ErrorCode::InvalidValue,
+            step == 0 ? "two releases end on the same " + std::string(axis.unitName()) + " (" +
+                            r.axis.lastStart().iso() + "), also " + before.source.path
+            : step < 0
+                ? "the releases are not in order of their last " + std::string(axis.unitName()) +
+                      ": " + before.source.path + " ends after this one"
+                : "the releases skip from " + before.axis.lastStart().iso() + " to " +
+                      r.axis.lastStart().iso() + ": a release history needs one release per " +
+                      axis.unitName());
+        e.file = r.source.path;
+        return e;
     }
-    return sorted;
+    return Ok{};
+}
+
+/// Release k's count of each period t of the latest's calendar within D periods of its as-of
+/// (read through the pair that aligns it with the latest; 0 where it has no such cell): the
+/// triangle's cells C[t][asOf - t], and for the latest also C[t][D] of every older period.
+void addReleaseColumn(const ReleaseHistory& history, std::size_t k, std::size_t region,
+                      std::size_t measure, ReportingTriangle& tri) {
+    const ReleasePair pair = history.againstLatest(k);
+    const std::span<const Cell> series = pair.olderSeries(measure, region);
+    const TimeAxis& axis = pair.newer().axis;
+    const std::int32_t asOf = axis.periodOnGrid(history.asOf(k));
+    const bool latest = k + 1 == history.size();
+    const int D = tri.maxDelay;
+    for (std::int32_t t = latest ? 0 : std::max(0, asOf - D); t <= asOf && t <= tri.nowPeriod;
+         ++t) {
+        const std::optional<std::int32_t> own = pair.olderPeriod(t);
+        double value = 0.0;
+        if (!series.empty() && own && series[static_cast<std::size_t>(*own)].reported())
+            value = series[static_cast<std::size_t>(*own)].value;
+        const int d = asOf - t;
+        if (d < D || latest)
+            tri.at(t, std::min(d, D)) = value;
+    }
 }
 
 }  // namespace
 
-Result<ReportingTriangle> triangleFromReleases(const std::vector<const Drop*>& releases,
+Result<ReportingTriangle> triangleFromReleases(const ReleaseHistory& history,
                                                const std::string& region,
                                                const std::string& measure, int maxDelay) {
-    Result<std::vector<const Drop*>> sorted = sortedReleases(releases);
-    if (!sorted)
-        return sorted.error();
+    if (Status s = checkSuccessive(history); !s)
+        return s.error();
     if (maxDelay < 0)
         return makeError(ErrorCode::Usage, "the maximum delay must be 0 (chosen) or more");
-    const Drop& latest = *sorted->back();
-    const TimeAxis& axis = latest.axis;
-    const std::int32_t nowPeriod = axis.periods() - 1;
-    const int cap = axis.weekly() ? 8 : 28;
-    const int D =
-        maxDelay > 0 ? maxDelay : std::clamp(static_cast<int>(sorted->size()) - 1, 1, cap);
-    ReportingTriangle tri = emptyTriangle(axis, nowPeriod, axis.lastStart(), D, region);
-    for (const Drop* release : *sorted) {
-        const std::int32_t asOf = axis.periodOnGrid(release->axis.lastStart());
-        const std::optional<std::size_t> r = release->regionIndex(region);
-        const std::optional<std::size_t> m = release->measureIndex(measure);
-        if (!m) {
+    const Drop& latest = history.latest();
+    for (const std::shared_ptr<const Drop>& release : history.releases()) {
+        if (!release->measureIndex(measure)) {
             Error e =
                 makeError(ErrorCode::NotFound, "the release has no measure '" + measure + "'");
             e.file = release->source.path;
             return e;
         }
-        for (std::int32_t t = std::max(0, asOf - D); t <= asOf && t <= nowPeriod; ++t) {
-            // The release's own period of t's first day (its axis may start elsewhere).
-            const std::optional<std::int32_t> own = release->axis.periodOf(axis.periodStart(t));
-            double value = 0.0;
-            if (r && own && release->cell(*m, *r, *own).reported())
-                value = release->cell(*m, *r, *own).value;
-            const int d = asOf - t;
-            if (d < D || asOf == nowPeriod)
-                tri.at(t, std::min(d, D)) = value;
-        }
     }
-    // Periods older than D at the latest release: their last column is the latest count.
-    for (std::int32_t t = 0; t + D <= nowPeriod; ++t) {
-        const std::optional<std::int32_t> own = latest.axis.periodOf(axis.periodStart(t));
-        const std::optional<std::size_t> r = latest.regionIndex(region);
-        const std::size_t m = *latest.measureIndex(measure);
-        tri.at(t, D) = (r && own && latest.cell(m, *r, *own).reported())
-                           ? latest.cell(m, *r, *own).value
-                           : 0.0;
+    const TimeAxis& axis = latest.axis;
+    const std::int32_t nowPeriod = axis.periods() - 1;
+    const int cap = axis.weekly() ? 8 : 28;
+    const int D =
+        maxDelay > 0 ? maxDelay : std::clamp(static_cast<int>(history.size()) - 1, 1, cap);
+    // The triangle is in the latest release's terms (its calendar, regions and measures).
+    const std::optional<std::size_t> r = latest.regionIndex(region);
+    if (!r) {
+        Error e =
+            makeError(ErrorCode::NotFound, "no region '" + region + "' in the latest release");
+        e.file = latest.source.path;
+        return e;
     }
+    ReportingTriangle tri = emptyTriangle(axis, nowPeriod, axis.lastStart(), D, region);
+    const std::size_t m = *latest.measureIndex(measure);
+    for (std::size_t k = 0; k < history.size(); ++k)
+        addReleaseColumn(history, k, *r, m, tri);
     return tri;
+}
+
+Result<ReportingTriangle> triangleFromReleases(const std::vector<const Drop*>& releases,
+                                               const std::string& region,
+                                               const std::string& measure, int maxDelay) {
+    Result<ReleaseHistory> history =
+        ReleaseHistory::borrowing(releases, ReleaseHistory::Order::ByAsOf);
+    if (!history)
+        return history.error();
+    return triangleFromReleases(*history, region, measure, maxDelay);
 }
 
 }  // namespace siftwave::nowcast

@@ -19,7 +19,7 @@ void run(const ScanInput& in, ScanReport& report) {
 }
 
 void runRevisions(const ScanInput& in, ScanReport& report) {
-    findRevisions(in, report.findings, report.revisions);
+    findRevisions(in, report);
 }
 
 std::vector<OptionRule> noRules(const ScanOptions&) {

@@ -36,7 +36,7 @@ struct OptionRule {
 /// The input a kind needs besides the drop.
 enum ScanNeed : unsigned {
     kNeedsDropOnly = 0,
-    kNeedsPrevious = 1u << 0,  // ScanContext::previous
+    kNeedsPrevious = 1u << 0,  // ScanContext::previous or ::history
     kNeedsRegister = 1u << 1,  // ScanContext::regions
 };
 

@@ -1,5 +1,8 @@
-// revision: what changed since the previous release (--previous FILE).
+// revision: what changed since the previous release (--previous FILE), or between each two
+// successive releases of a history (--releases FILE...).
 //
+// Every comparison is of one ReleasePair (release_history.h), the alignment the reporting
+// triangle reads too: the scan's `previous` is the history of two releases {previous, drop}.
 // Regions are matched by verbatim code, measures by name, days by date. For
 // every region and measure in both releases, each date in both calendars is
 // compared: a value that changed (old and new), a cell reported now but not
@@ -10,8 +13,12 @@
 // warning between. Regions or measures that appeared or vanished, and dates of
 // the old calendar that are gone or history added before it, are findings of
 // their own (new days after the old calendar are the new data, not revisions).
+// A history of more than two releases also gives each successive pair's summary and the
+// counts of its findings (ScanReport::releaseRevisions); the findings listed are the newest
+// pair's, the ones about the scanned drop.
 
 #include "scan/scan_input.h"
+#include "siftwave/release_history.h"
 
 #include <cmath>
 #include <set>
@@ -29,36 +36,27 @@ Finding releaseFinding(const ScanInput& in, Severity severity) {
 }
 
 // Measures that appeared or vanished.
-void addMeasureChanges(const ScanInput& in, const Drop& before, std::vector<Finding>& out) {
-    const Drop& now = in.drop;
-    for (std::size_t m = 0; m < now.measures.size(); ++m) {
-        if (before.measureIndex(now.measures[m]))
+void addMeasureChanges(const ScanInput& in, const ReleasePair& pair, std::vector<Finding>& out) {
+    for (std::size_t m = 0; m < in.drop.measures.size(); ++m) {
+        if (pair.olderMeasure(m))
             continue;
         Finding f = makeFinding(in, FindingKind::Revision, Severity::Info, std::nullopt, m);
         f.evidence = {{"change", "measure_appeared"}};
         out.push_back(std::move(f));
     }
-    for (const std::string& name : before.measures) {
-        if (now.measureIndex(name))
-            continue;
+    for (std::string& name : pair.measuresGone()) {
         Finding f = releaseFinding(in, Severity::Warning);
-        f.measure = name;
+        f.measure = std::move(name);
         f.evidence = {{"change", "measure_vanished"}};
         out.push_back(std::move(f));
     }
 }
 
-// Whether the two releases count the same periods, so they compare cell by cell.
-bool onSameGrid(const TimeAxis& na, const TimeAxis& ba) {
-    return na.cadence() == ba.cadence() && (!na.weekly() || na.weekStart() == ba.weekStart()) &&
-           (na.first() - ba.first()) % na.periodDays() == 0;
-}
-
 // A critical finding when both calendars have periods but not on the same grid.
-void addCalendarChange(const ScanInput& in, const TimeAxis& ba, bool sameGrid,
-                       std::vector<Finding>& out) {
-    const TimeAxis& na = in.drop.axis;
-    if (sameGrid || na.periods() == 0 || ba.periods() == 0)
+void addCalendarChange(const ScanInput& in, const ReleasePair& pair, std::vector<Finding>& out) {
+    const TimeAxis& na = pair.newer().axis;
+    const TimeAxis& ba = pair.older().axis;
+    if (pair.sameGrid() || na.periods() == 0 || ba.periods() == 0)
         return;
     Finding f = releaseFinding(in, Severity::Critical);
     f.evidence = {
@@ -67,8 +65,9 @@ void addCalendarChange(const ScanInput& in, const TimeAxis& ba, bool sameGrid,
 }
 
 // Periods of the old calendar that are gone, and history added before it.
-void addDateSpanChanges(const ScanInput& in, const TimeAxis& ba, std::vector<Finding>& out) {
-    const TimeAxis& na = in.drop.axis;
+void addDateSpanChanges(const ScanInput& in, const ReleasePair& pair, std::vector<Finding>& out) {
+    const TimeAxis& na = pair.newer().axis;
+    const TimeAxis& ba = pair.older().axis;
     const int pd = na.periodDays();
     auto addSpan = [&](Severity severity, const char* change, Date first, Date last) {
         Finding f = releaseFinding(in, severity);
@@ -90,20 +89,17 @@ void addDateSpanChanges(const ScanInput& in, const TimeAxis& ba, std::vector<Fin
 }
 
 // Regions that appeared or vanished.
-void addRegionChanges(const ScanInput& in, const Drop& before, std::vector<Finding>& out) {
-    const Drop& now = in.drop;
-    for (std::size_t r = 0; r < now.regionCodes.size(); ++r) {
-        if (before.regionIndex(now.regionCodes[r]))
+void addRegionChanges(const ScanInput& in, const ReleasePair& pair, std::vector<Finding>& out) {
+    for (std::size_t r = 0; r < in.drop.regionCodes.size(); ++r) {
+        if (pair.olderRegion(r))
             continue;
         Finding f = makeFinding(in, FindingKind::Revision, Severity::Warning, r, std::nullopt);
         f.evidence = {{"change", "region_appeared"}};
         out.push_back(std::move(f));
     }
-    for (const std::string& code : before.regionCodes) {
-        if (now.regionIndex(code))
-            continue;
+    for (std::string& code : pair.regionsGone()) {
         Finding f = releaseFinding(in, Severity::Warning);
-        f.region = code;
+        f.region = std::move(code);
         f.evidence = {{"change", "region_vanished"}};
         out.push_back(std::move(f));
     }
@@ -146,25 +142,26 @@ bool tallyCell(const Cell& oldCell, const Cell& newCell, SeriesRevision& rev,
     return true;
 }
 
-// Compares two series period by period from `from` to `to` (both on the grid).
-SeriesRevision compareSeries(const ScanInput& in, const TimeAxis& ba, std::span<const Cell> a,
-                             std::span<const Cell> b, Date from, Date to,
-                             RevisionSummary& summary) {
-    const TimeAxis& na = in.drop.axis;
+// Compares the newer release's series (m, r) with the older one's over the common periods.
+SeriesRevision compareSeries(const ScanInput& in, const ReleasePair& pair, std::size_t m,
+                             std::size_t r, RevisionSummary& summary) {
+    const TimeAxis& na = pair.newer().axis;
+    const std::span<const Cell> older = pair.olderSeries(m, r);
+    const std::span<const Cell> newer = pair.newer().series(m, r);
     const auto listed = static_cast<std::size_t>(in.options.revision.maxDatesListed);
     SeriesRevision rev;
-    for (Date d = from; d <= to; d = d + na.periodDays()) {
-        const Cell& oldCell = a[static_cast<std::size_t>(ba.periodOnGrid(d))];
-        const Cell& newCell = b[static_cast<std::size_t>(na.periodOnGrid(d))];
+    for (std::int32_t t = pair.firstCommon(); t <= pair.lastCommon(); ++t) {
+        const Cell& oldCell = older[static_cast<std::size_t>(*pair.olderPeriod(t))];
+        const Cell& newCell = newer[static_cast<std::size_t>(t)];
         if (!tallyCell(oldCell, newCell, rev, summary))
             continue;
-        const std::int32_t t = na.periodOnGrid(d);
         if (rev.first < 0)
             rev.first = t;
         rev.last = t;
         if (rev.dates.size() < listed) {
-            rev.dates.push_back(
-                {{"date", d.iso()}, {"old", cellValue(oldCell)}, {"new", cellValue(newCell)}});
+            rev.dates.push_back({{"date", na.periodStart(t).iso()},
+                                 {"old", cellValue(oldCell)},
+                                 {"new", cellValue(newCell)}});
         }
     }
     return rev;
@@ -208,26 +205,19 @@ Finding valuesRevisedFinding(const ScanInput& in, const SeriesRevision& rev, std
 }
 
 // Cell by cell over the common periods of every region and measure in both releases.
-void addValueRevisions(const ScanInput& in, const Drop& before, std::vector<Finding>& out,
+void addValueRevisions(const ScanInput& in, const ReleasePair& pair, std::vector<Finding>& out,
                        RevisionSummary& summary) {
-    const Drop& now = in.drop;
-    const TimeAxis& na = now.axis;
-    const TimeAxis& ba = before.axis;
-    const Date from = std::max(na.first(), ba.first());
-    const Date to = std::min(na.lastStart(), ba.lastStart());
-    if (to < from)
+    const Drop& now = pair.newer();
+    if (pair.lastCommon() < pair.firstCommon())
         return;
     std::set<std::size_t> revisedRegions;
     for (std::size_t m = 0; m < now.measures.size(); ++m) {
-        const std::optional<std::size_t> pm = before.measureIndex(now.measures[m]);
-        if (!pm)
+        if (!pair.olderMeasure(m))
             continue;
         for (std::size_t r = 0; r < now.regionCodes.size(); ++r) {
-            const std::optional<std::size_t> pr = before.regionIndex(now.regionCodes[r]);
-            if (!pr)
+            if (!pair.olderRegion(r))
                 continue;
-            const SeriesRevision rev =
-                compareSeries(in, ba, before.series(*pm, *pr), now.series(m, r), from, to, summary);
+            const SeriesRevision rev = compareSeries(in, pair, m, r, summary);
             addToSummary(rev, summary);
             if (rev.first < 0)
                 continue;
@@ -238,25 +228,65 @@ void addValueRevisions(const ScanInput& in, const Drop& before, std::vector<Find
     summary.regionsRevised = revisedRegions.size();
 }
 
-}  // namespace
-
-void findRevisions(const ScanInput& in, std::vector<Finding>& out, RevisionSummary& summary) {
-    const Drop* before = in.context.previous;
-    if (before == nullptr)
-        return;
+// Every revision finding of one pair of releases (`in` reads the newer one) and its summary.
+void comparePair(const ScanInput& in, const ReleasePair& pair, std::vector<Finding>& out,
+                 RevisionSummary& summary) {
     summary = RevisionSummary{};
     summary.compared = true;
-    const TimeAxis& na = in.drop.axis;
-    const TimeAxis& ba = before->axis;
-    const bool sameGrid = onSameGrid(na, ba);
-    const bool bothHavePeriods = na.periods() > 0 && ba.periods() > 0;
-    addMeasureChanges(in, *before, out);
-    addCalendarChange(in, ba, sameGrid, out);
-    if (sameGrid && bothHavePeriods)
-        addDateSpanChanges(in, ba, out);
-    addRegionChanges(in, *before, out);
-    if (sameGrid && bothHavePeriods)
-        addValueRevisions(in, *before, out, summary);
+    addMeasureChanges(in, pair, out);
+    addCalendarChange(in, pair, out);
+    if (pair.comparable())
+        addDateSpanChanges(in, pair, out);
+    addRegionChanges(in, pair, out);
+    if (pair.comparable())
+        addValueRevisions(in, pair, out, summary);
+}
+
+// One successive pair of a longer history, as its findings' counts and its summary.
+ReleaseRevisions pairRevisions(const ReleaseHistory& history, std::size_t k,
+                               std::span<const Finding> findings, const RevisionSummary& summary) {
+    ReleaseRevisions rr;
+    rr.previousFile = history.release(k - 1).source.path;
+    rr.currentFile = history.release(k).source.path;
+    rr.previousAsOf = history.asOf(k - 1);
+    rr.currentAsOf = history.asOf(k);
+    rr.summary = summary;
+    for (const Finding& f : findings) {
+        ++rr.bySeverity[severityName(f.severity)];
+        ++rr.byChange[f.evidence["change"].get<std::string>()];
+    }
+    return rr;
+}
+
+}  // namespace
+
+void findRevisions(const ScanInput& in, ScanReport& report) {
+    // `previous` is the history of two releases: it and the scanned drop, in that order.
+    std::optional<ReleaseHistory> twoReleases;
+    const ReleaseHistory* history = in.context.history;
+    if (history == nullptr && in.context.previous != nullptr) {
+        twoReleases = ReleaseHistory::borrowing({in.context.previous, &in.drop},
+                                                ReleaseHistory::Order::AsGiven)
+                          .value();
+        history = &*twoReleases;
+    }
+    if (history == nullptr || history->size() < 2)
+        return;
+    const std::size_t newest = history->size() - 1;
+    const std::size_t before = report.findings.size();
+    comparePair(in, history->successive(newest), report.findings, report.revisions);
+    if (history->size() == 2)
+        return;  // the newest pair alone: what --previous always reported
+    // A longer history: every successive pair (the earlier ones read their own newer release).
+    for (std::size_t k = 1; k < newest; ++k) {
+        const ScanInput pairInput{history->release(k), in.options, {}, 0, {}};
+        std::vector<Finding> findings;
+        RevisionSummary summary;
+        comparePair(pairInput, history->successive(k), findings, summary);
+        report.releaseRevisions.push_back(pairRevisions(*history, k, findings, summary));
+    }
+    report.releaseRevisions.push_back(pairRevisions(
+        *history, newest, std::span(report.findings).subspan(before), report.revisions));
 }
 
 }  // namespace siftwave::scan::detail

@@ -2,6 +2,7 @@
 
 #include "scan/finding_kinds.h"
 #include "scan/scan_input.h"
+#include "siftwave/release_history.h"
 
 #include <algorithm>
 #include <cstdint>
@@ -104,13 +105,21 @@ Result<ScanReport> scanDrop(const Drop& drop, const ScanOptions& options,
                             const ScanContext& context) {
     if (Status s = options.validate(); !s)
         return s.error();
+    if (context.history != nullptr && context.previous != nullptr)
+        return makeError(ErrorCode::Usage,
+                         "give the scan a previous release or a release "
+                         "history, not both");
+    if (context.history != nullptr && &context.history->latest() != &drop)
+        return makeError(ErrorCode::Usage,
+                         "the scanned drop must be the release history's latest release");
     const detail::ScanInput in = detail::prepareScanInput(drop, options, context);
 
     ScanReport report;
     report.cadence = drop.axis.cadence();
     for (const detail::FindingKindDescriptor& kind : detail::findingKindTable()) {
-        const bool inputs = (!(kind.needs & detail::kNeedsPrevious) || context.previous) &&
-                            (!(kind.needs & detail::kNeedsRegister) || context.regions);
+        const bool inputs =
+            (!(kind.needs & detail::kNeedsPrevious) || context.previous || context.history) &&
+            (!(kind.needs & detail::kNeedsRegister) || context.regions);
         if (!inputs || !kind.enabled(options))
             continue;
         const std::size_t before = report.findings.size();
@@ -187,24 +196,43 @@ nlohmann::json scanReportToJson(const ScanReport& report) {
     return {{"findings", std::move(findings)}, {"summary", scanSummaryToJson(report)}};
 }
 
+namespace {
+
+nlohmann::json revisionSummaryJson(const RevisionSummary& r) {
+    return {
+        {"cells_compared", r.cellsCompared},
+        {"cells_changed", r.cellsChanged},
+        {"cells_appeared", r.cellsAppeared},
+        {"cells_vanished", r.cellsVanished},
+        {"regions_revised", r.regionsRevised},
+        {"net_change", r.netChange},
+        {"absolute_change", r.absoluteChange},
+        {"previous_total", r.previousTotal},
+        {"share_changed", r.previousTotal > 0 ? r.absoluteChange / r.previousTotal : 0.0},
+    };
+}
+
+}  // namespace
+
 nlohmann::json scanSummaryToJson(const ScanReport& report) {
     nlohmann::json summary = nlohmann::json::object();
     summary["cadence"] = cadenceName(report.cadence);
     summary["by_kind"] = report.byKind;
     summary["by_severity"] = report.bySeverity;
-    if (report.revisions.compared) {
-        const RevisionSummary& r = report.revisions;
-        summary["revisions"] = {
-            {"cells_compared", r.cellsCompared},
-            {"cells_changed", r.cellsChanged},
-            {"cells_appeared", r.cellsAppeared},
-            {"cells_vanished", r.cellsVanished},
-            {"regions_revised", r.regionsRevised},
-            {"net_change", r.netChange},
-            {"absolute_change", r.absoluteChange},
-            {"previous_total", r.previousTotal},
-            {"share_changed", r.previousTotal > 0 ? r.absoluteChange / r.previousTotal : 0.0},
-        };
+    if (report.revisions.compared)
+        summary["revisions"] = revisionSummaryJson(report.revisions);
+    if (!report.releaseRevisions.empty()) {
+        nlohmann::json pairs = nlohmann::json::array();
+        for (const ReleaseRevisions& p : report.releaseRevisions) {
+            pairs.push_back({{"previous_file", p.previousFile},
+                             {"current_file", p.currentFile},
+                             {"previous_as_of", p.previousAsOf.iso()},
+                             {"current_as_of", p.currentAsOf.iso()},
+                             {"revisions", revisionSummaryJson(p.summary)},
+                             {"by_severity", p.bySeverity},
+                             {"by_change", p.byChange}});
+        }
+        summary["release_revisions"] = std::move(pairs);
     }
     return summary;
 }

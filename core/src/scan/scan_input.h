@@ -147,7 +147,8 @@ void findWeekdayEffects(const ScanInput& in, std::vector<Finding>& out);
 void findCumulativeDecreases(const ScanInput& in, std::vector<Finding>& out);
 void findHierarchyMismatches(const ScanInput& in, std::vector<Finding>& out);
 void findCaseDateProblems(const ScanInput& in, std::vector<Finding>& out);
-/// Appends revision findings and fills `summary`.
-void findRevisions(const ScanInput& in, std::vector<Finding>& out, RevisionSummary& summary);
+/// Appends the revision findings of the newest pair of releases (the context's history, or its
+/// previous drop and the scanned one) and fills the report's revision summaries.
+void findRevisions(const ScanInput& in, ScanReport& report);
 
 }  // namespace siftwave::scan::detail

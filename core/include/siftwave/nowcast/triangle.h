@@ -14,14 +14,18 @@
 //   - a case list (Drop::caseList): each case with an event and a report date (in periods of the
 //     drop's axis: delay = period of the report - period of the event) and reported by now;
 //     cases with no report date or reported before their event stay out (the scan's case_dates);
-//   - a release history: successive releases of one series, release k holding the counts as of
-//     its last period a_k. Then C[t][a_k - t] = release k's count of period t (Lawless 1994's
-//     "reporting triangle" from successive data; the previous-release comparison of the scan
-//     is the case of two releases). Releases must come one per period (a daily series a release a
+//   - a release history (release_history.h): successive releases of one series, release k
+//     holding the counts as of its last period a_k. Then C[t][a_k - t] = release k's count of
+//     period t (Lawless 1994's "reporting triangle" from successive data). Release k's counts
+//     are read through ReleasePair(k, latest), the same alignment of two releases' cells the
+//     scan's revision detector compares (`scan --previous` is a history of two releases), so
+//     the triangle's two newest columns hold exactly the old and new values of its revisions.
+//     Releases must come one per period in the history's order (a daily series a release a
 //     day, a weekly one a week); a missing release is an error naming the gap.
 
 #include "siftwave/date.h"
 #include "siftwave/drop.h"
+#include "siftwave/release_history.h"
 #include "siftwave/result.h"
 #include "siftwave/time_axis.h"
 
@@ -72,10 +76,16 @@ int maxDelayFromCases(const Drop& drop, Date now);
 Result<ReportingTriangle> triangleFromCases(const Drop& drop, std::size_t region, Date now,
                                             int maxDelay = 0);
 
-/// The triangle of one region and measure from successive releases (any order; sorted by their
-/// last period, which is each one's "as of"; now is the latest's). `maxDelay` in periods; 0
-/// chooses the number of releases less one, at most 28 days (8 weeks) (common practice, no
-/// source). The releases share a cadence; a region missing from a release counts as 0 there.
+/// The triangle of one region and measure from a release history, oldest first (now is the
+/// latest's as-of date). `maxDelay` in periods; 0 chooses the number of releases less one, at
+/// most 28 days (8 weeks) (common practice, no source). The releases share a cadence; the region
+/// and measure must be in the latest release; a region missing from an older release counts as
+/// 0 there. Every release must have the measure.
+Result<ReportingTriangle> triangleFromReleases(const ReleaseHistory& history,
+                                               const std::string& region,
+                                               const std::string& measure, int maxDelay = 0);
+/// The same over releases in any order (put in order of their as-of dates), kept alive by the
+/// caller.
 Result<ReportingTriangle> triangleFromReleases(const std::vector<const Drop*>& releases,
                                                const std::string& region,
                                                const std::string& measure, int maxDelay = 0);

@@ -25,12 +25,21 @@
 #include <string>
 #include <vector>
 
+namespace siftwave {
+class ReleaseHistory;
+}
+
 namespace siftwave::scan {
 
-/// What the scan may compare the drop with. Both are optional.
+/// What the scan may compare the drop with. All are optional.
 struct ScanContext {
-    const Drop* previous = nullptr;           // the release before; enables `revision`
+    const Drop* previous = nullptr;           // the release before; enables `revision` (the
+                                              // history of two releases: previous, the drop)
     const RegionRegister* regions = nullptr;  // enables `unknown_code`, `hierarchy_mismatch`
+    // Successive releases of the series, the scanned drop their latest (the same object):
+    // enables `revision` for the newest pair and summarises every successive pair. Give either
+    // this or `previous`, not both.
+    const ReleaseHistory* history = nullptr;
 };
 
 /// How much history moved between the previous release and this one.
@@ -46,21 +55,36 @@ struct RevisionSummary {
     double previousTotal = 0;        // sum of old values over the compared cells
 };
 
+/// The revisions between two successive releases of a history of more than two.
+struct ReleaseRevisions {
+    std::string previousFile, currentFile;          // the releases' paths as read
+    Date previousAsOf, currentAsOf;                 // their last periods' first days
+    RevisionSummary summary;                        // as RevisionSummary for --previous
+    std::map<std::string, std::size_t> bySeverity;  // the pair's revision findings: "warning"...
+    std::map<std::string, std::size_t> byChange;    // ... and by change: "values_revised"...
+};
+
 struct ScanReport {
     Cadence cadence = Cadence::Daily;               // of the drop: its periods are days or weeks
     std::vector<Finding> findings;                  // ranked, rank 1 first
     std::map<std::string, std::size_t> byKind;      // every kind, 0 when none
     std::map<std::string, std::size_t> bySeverity;  // "info", "warning", "critical"
-    RevisionSummary revisions;
+    RevisionSummary revisions;  // the newest pair: the previous release against the drop
+    // A history of more than two releases: each successive pair, oldest first (the last is
+    // the newest pair of `revisions` and the findings); empty otherwise.
+    std::vector<ReleaseRevisions> releaseRevisions;
 };
 
-/// Runs the scan. Usage error when the options do not validate.
+/// Runs the scan. Usage error when the options do not validate, or when the context's history
+/// is given with `previous` or does not end with `drop` itself.
 Result<ScanReport> scanDrop(const Drop& drop, const ScanOptions& options = {},
                             const ScanContext& context = {});
 
 /// {"findings": [...], "summary": {"cadence": "daily"|"weekly", "by_kind": {...},
-/// "by_severity": {...}, "revisions": {...}}} ("revisions" only when a previous drop was
-/// compared).
+/// "by_severity": {...}, "revisions": {...}, "release_revisions": [...]}} ("revisions" only
+/// when a previous drop was compared, "release_revisions" only for a history of more than two
+/// releases: one object per successive pair with the files, their as-of dates, the revisions'
+/// summary, by_severity and by_change).
 nlohmann::json scanReportToJson(const ScanReport& report);
 /// The "summary" object of scanReportToJson() alone: a writer that streams the findings one
 /// at a time (siftwave-cli scan --json) writes it after them.
