@@ -10,12 +10,26 @@
 #include "support/restoration_eval.h"
 #include "support/synthetic_drop.h"
 
+#include <algorithm>
 #include <cstdio>
 #include <cstdlib>
 #include <map>
 #include <string>
+#include <vector>
 
 namespace {
+
+/// The median share removed among the faults of one kind.
+double kindMedian(const siftwave::testing::RestorationSummary& sum, const std::string& kind) {
+    std::vector<double> removed;
+    for (const auto& r : sum.regions)
+        if (r.kind == kind)
+            removed.push_back(r.removed);
+    if (removed.empty())
+        return 0;
+    std::sort(removed.begin(), removed.end());
+    return removed[removed.size() / 2];
+}
 
 void printRestoration(int seeds) {
     std::vector<std::uint64_t> list;
@@ -39,6 +53,8 @@ void printRestoration(int seeds) {
         }
     }
     std::printf("median error removed: %.1f %% (target >= 85 %%)\n", 100 * sum.median);
+    for (const char* kind : {"backlog", "gap"})
+        std::printf("  %-7s median %.1f %%\n", kind, 100 * kindMedian(sum, kind));
     std::printf("worst region:         %.1f %% (target >= 50 %%)\n", 100 * sum.worst);
     std::printf("spikes > 1.5 x true:  %d (target 0)\n", sum.spikes);
     std::printf("faults found:         %d of %zu\n", sum.found, sum.regions.size());

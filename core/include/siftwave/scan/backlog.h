@@ -39,8 +39,10 @@
 // window, and z needs only to reach halfway between threshold and gap_threshold); else
 // nothing points to a window and the longest plausible one is offered (max_gap periods,
 // with a note). Weights: proportional to the reported counts in a deficit window
-// (a withheld share leaves the shape of the curve), uniform over a gap (the flat
-// expected level; zeros have no shape).
+// (a withheld share leaves the shape of the curve; tests/bench/scan_restore_bench measured
+// it above the expected-level weights there), and by the expected level over a gap
+// (redistribute's `level` method, ledger/decision.h: zeros have no shape, the trend
+// between the periods around the gap and the weekday factors give it).
 //
 // Every window counts periods of the drop's cadence: `window_days`,
 // `gap_min_days`, `max_gap_days`, `redistribute_days` for daily data,
