@@ -10,6 +10,8 @@
 #include "support/restoration_eval.h"
 #include "support/synthetic_drop.h"
 
+#include <nlohmann/json.hpp>
+
 #include <algorithm>
 #include <cstdio>
 #include <cstdlib>
@@ -60,6 +62,17 @@ void printRestoration(int seeds) {
     std::printf("faults found:         %d of %zu\n", sum.found, sum.regions.size());
 }
 
+/// The chance a finding's evidence gives for it under the local level, if any.
+std::string chanceText(const siftwave::scan::Finding& f) {
+    if (!f.evidence.contains("chance_under_local_level"))
+        return {};
+    char text[96];
+    const nlohmann::json e = f.evidence.json();
+    std::snprintf(text, sizeof text, " (level %.1f, chance %.2g)", e.value("level_around", 0.0),
+                  e.value("chance_under_local_level", 0.0));
+    return text;
+}
+
 void printFalseAlarms(int seeds) {
     using namespace siftwave;
     int warnings = 0, critical = 0;
@@ -80,7 +93,8 @@ void printFalseAlarms(int seeds) {
                 continue;
             (f.severity == scan::Severity::Critical ? critical : warnings) += 1;
             ++byKind[scan::findingKindName(f.kind)];
-            std::printf("  seed %d: %s\n", 1000 + s, describeFinding(f).c_str());
+            std::printf("  seed %d %s: %s%s\n", 1000 + s, f.region ? f.region->c_str() : "",
+                        describeFinding(f).c_str(), chanceText(f).c_str());
         }
     }
     std::printf(
