@@ -25,7 +25,9 @@
 // x_t >= min_ratio * e, and the excess is not sustained: growth is when the right
 // side's median keeps at least a third of the rise of y_t over the left side's (the
 // side before the deficit when there is one; needs 3 periods after t; never after a
-// gap). Growth is not reported and no count is to be moved. After a gap
+// gap), and y_t is less than gap_threshold modelled noise sds above the right side's median
+// (a dump at a wave's take-off: the next periods rise, but stay far below it). Growth is
+// not reported and no count is to be moved. After a gap
 // (at least `gap_min` periods just before t with no value, a zero, or at most
 // gap_low_fraction of the surrounding level) z >= gap_threshold and x_t >= (1 +
 // (min_ratio - 1) / 2) * e suffice. At least 4 neighbours are needed.
