@@ -63,9 +63,10 @@ std::vector<FlagSpec> decideFlagSpecs() {
              "fill_missing, exclude, accept: the days (or weeks)"},
             {"periods", true, false, "FIRST:LAST", "the same as --days, for weekly data"},
             {"method", true, false, "NAME",
-             "redistribute: uniform|proportional|baseline; fill_missing: zero|linear|share"},
+             "redistribute: uniform|proportional|baseline|level; fill_missing: zero|linear|share"},
             {"baseline-width", true, false, "N",
-             "redistribute --method baseline: moving-average width, odd 3..21 (default 7)"},
+             "redistribute --method baseline: moving-average width; --method level: periods on "
+             "each side of the trend; odd 3..21 (default 7)"},
             {"keep", true, false, "RULE", "resolve_duplicate: first|last|sum|max"},
             {"variant", true, false, "CODE", "merge_codes: the code folded away"},
             {"into", true, false, "CODE", "merge_codes: the canonical code kept"},
@@ -233,8 +234,8 @@ Status readRuleFlags(const ParsedArgs& args, ledger::Decision& d) {
             auto method = ledger::redistributeMethodFromName(m);
             if (!method)
                 return usage(
-                    "--method for redistribute is uniform, proportional or baseline, not '" + m +
-                    "'");
+                    "--method for redistribute is uniform, proportional, baseline or level, not '" +
+                    m + "'");
             d.redistributeMethod = *method;
         } else {
             auto method = ledger::fillMethodFromName(m);

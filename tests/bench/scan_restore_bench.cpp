@@ -10,12 +10,28 @@
 #include "support/restoration_eval.h"
 #include "support/synthetic_drop.h"
 
+#include <nlohmann/json.hpp>
+
+#include <algorithm>
 #include <cstdio>
 #include <cstdlib>
 #include <map>
 #include <string>
+#include <vector>
 
 namespace {
+
+/// The median share removed among the faults of one kind.
+double kindMedian(const siftwave::testing::RestorationSummary& sum, const std::string& kind) {
+    std::vector<double> removed;
+    for (const auto& r : sum.regions)
+        if (r.kind == kind)
+            removed.push_back(r.removed);
+    if (removed.empty())
+        return 0;
+    std::sort(removed.begin(), removed.end());
+    return removed[removed.size() / 2];
+}
 
 void printRestoration(int seeds) {
     std::vector<std::uint64_t> list;
@@ -39,9 +55,22 @@ void printRestoration(int seeds) {
         }
     }
     std::printf("median error removed: %.1f %% (target >= 85 %%)\n", 100 * sum.median);
+    for (const char* kind : {"backlog", "gap"})
+        std::printf("  %-7s median %.1f %%\n", kind, 100 * kindMedian(sum, kind));
     std::printf("worst region:         %.1f %% (target >= 50 %%)\n", 100 * sum.worst);
     std::printf("spikes > 1.5 x true:  %d (target 0)\n", sum.spikes);
     std::printf("faults found:         %d of %zu\n", sum.found, sum.regions.size());
+}
+
+/// The chance a finding's evidence gives for it under the local level, if any.
+std::string chanceText(const siftwave::scan::Finding& f) {
+    if (!f.evidence.contains("chance_under_local_level"))
+        return {};
+    char text[96];
+    const nlohmann::json e = f.evidence.json();
+    std::snprintf(text, sizeof text, " (level %.1f, chance %.2g)", e.value("level_around", 0.0),
+                  e.value("chance_under_local_level", 0.0));
+    return text;
 }
 
 void printFalseAlarms(int seeds) {
@@ -64,7 +93,8 @@ void printFalseAlarms(int seeds) {
                 continue;
             (f.severity == scan::Severity::Critical ? critical : warnings) += 1;
             ++byKind[scan::findingKindName(f.kind)];
-            std::printf("  seed %d: %s\n", 1000 + s, describeFinding(f).c_str());
+            std::printf("  seed %d %s: %s%s\n", 1000 + s, f.region ? f.region->c_str() : "",
+                        describeFinding(f).c_str(), chanceText(f).c_str());
         }
     }
     std::printf(

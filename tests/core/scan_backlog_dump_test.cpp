@@ -104,9 +104,10 @@ TEST(BacklogDump, CatchesTheCatchUpAfterAGapAndSuggestsTheGapAsWindow) {
     EXPECT_EQ(suggestionToJson(f)["window_last"], drop.periodStart(9).iso());
     // The baseline leaves the zeros out: expected is the median of the other days.
     EXPECT_NEAR(f.evidence["expected"].get<double>(), 30.5, 1.0);
-    // Issue 14: a gap is filled uniformly (its expected level is flat over a few days; the
-    // centred moving average over the zeros put the catch-up at the gap's edges).
-    EXPECT_EQ(suggestionToJson(f)["method"], "uniform");
+    // Issue 14: a gap is filled by its expected level (redistribute's `level` method: the
+    // trend around it times the weekday factors; the centred moving average over the zeros put
+    // the catch-up at the gap's edges, and a flat fill missed the weekday cycle).
+    EXPECT_EQ(suggestionToJson(f)["method"], "level");
 }
 
 TEST(BacklogDump, ASteadyRiseIsNotADump) {

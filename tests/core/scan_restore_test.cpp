@@ -19,10 +19,13 @@
 namespace siftwave::scan {
 namespace {
 
-// Floors measured on seeds 1 and 2 when this test was written (see the report of issue 14),
-// a little below what the method reaches so that a regression fails and noise does not.
-constexpr double kMedianFloor = 0.80;
-constexpr int kSpikeCeiling = 2;
+// Floors on seeds 1 and 2 (the drops are seeded, so the figures are exact): session 23 measured a
+// median of 85.7 % removed (issue 14's target of 85 % is the floor), the worst region at 44.4 %,
+// 48 of 48 faults found and no spike, after gap fills by the expected level (redistribute's
+// `level` method). The worst region stays below the issue's 50 %: a deficit window misjudged.
+constexpr double kMedianFloor = 0.85;
+constexpr double kWorstFloor = 0.40;
+constexpr int kSpikeCeiling = 0;
 
 // The second column of a committed fixture "day,cases" or "date,cases".
 std::vector<std::int32_t> incidence(const std::string& name) {
@@ -96,7 +99,8 @@ TEST(Restoration, SuggestionsRemoveMostOfTheErrorOnGeneratedFaults) {
     const auto sum = testing::evaluateRestoration({1, 2});
     ASSERT_EQ(sum.regions.size(), 48u);
     EXPECT_GE(sum.median, kMedianFloor) << "median share of the error removed";
-    EXPECT_GE(sum.found, 46) << "planted faults found";
+    EXPECT_GE(sum.worst, kWorstFloor) << "worst region";
+    EXPECT_EQ(sum.found, 48) << "planted faults found";
     EXPECT_LE(sum.spikes, kSpikeCeiling) << "cleaned windows above 1.5 x the true maximum";
 }
 

@@ -71,5 +71,26 @@ TEST(RobustStats, PoissonEqualChanceMatchesTheBesselFormula) {
     }
 }
 
+// sum_{k >= 1} p_k^n under Poisson and negative-binomial noise, against SciPy 1.10.1 (Debian
+// python3-scipy): with k = numpy.arange(1, 3000), r = 1 / phi,
+// (scipy.stats.nbinom.pmf(k, r, r / (r + mu)) ** n).sum(), or scipy.stats.poisson.pmf for phi 0
+// (values computed once by hand and written here; the test does not run Python).
+TEST(RobustStats, EqualNonZeroRunChanceMatchesScipy) {
+    struct Case {
+        double mu, phi;
+        int draws;
+        double reference;
+    };
+    for (const Case& c :
+         {Case{3, 0, 7, 6.221452791721804e-05}, Case{1, 0, 11, 1.6709855963620623e-05},
+          Case{44, 0, 5, 5.877984669600368e-06}, Case{15, 0.04, 5, 2.1172414752273487e-05},
+          Case{166.5, 0.04, 3, 7.436425811913745e-05}, Case{325.5, 0.04, 4, 1.0807020288290363e-07},
+          Case{0.5, 0.5, 3, 0.01723892686360137}}) {
+        EXPECT_NEAR(equalNonZeroRunChance(c.mu, c.phi, c.draws), c.reference, 1e-6 * c.reference)
+            << c.mu << " " << c.phi << " " << c.draws;
+    }
+    EXPECT_EQ(equalNonZeroRunChance(0, 0.04, 3), 0.0);
+}
+
 }  // namespace
 }  // namespace siftwave::scan::detail

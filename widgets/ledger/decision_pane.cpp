@@ -121,7 +121,7 @@ void DecisionPane::begin(const ledger::Decision& decision, const QString& title,
         case ledger::DecisionKind::Redistribute:
             for (ledger::RedistributeMethod m :
                  {ledger::RedistributeMethod::Uniform, ledger::RedistributeMethod::Proportional,
-                  ledger::RedistributeMethod::Baseline})
+                  ledger::RedistributeMethod::Baseline, ledger::RedistributeMethod::Level})
                 m_method->addItem(QString::fromLatin1(ledger::redistributeMethodName(m)),
                                   static_cast<int>(m));
             m_method->setCurrentIndex(

@@ -39,13 +39,15 @@ const char* redistributeMethodName(RedistributeMethod method) {
             return "proportional";
         case RedistributeMethod::Baseline:
             return "baseline";
+        case RedistributeMethod::Level:
+            return "level";
     }
     return "uniform";
 }
 
 std::optional<RedistributeMethod> redistributeMethodFromName(std::string_view name) {
     for (auto m : {RedistributeMethod::Uniform, RedistributeMethod::Proportional,
-                   RedistributeMethod::Baseline}) {
+                   RedistributeMethod::Baseline, RedistributeMethod::Level}) {
         if (name == redistributeMethodName(m))
             return m;
     }

@@ -66,7 +66,8 @@ json decisionParameters(const Decision& d) {
                 p["method"] = redistributeMethodName(d.redistributeMethod);
                 break;
             case DecisionParam::BaselineWidth:
-                if (d.redistributeMethod == RedistributeMethod::Baseline)
+                if (d.redistributeMethod == RedistributeMethod::Baseline ||
+                    d.redistributeMethod == RedistributeMethod::Level)
                     p["baseline_width"] = d.baselineWidth;
                 break;
             case DecisionParam::FillMethod:

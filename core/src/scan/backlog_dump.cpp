@@ -75,8 +75,11 @@ Finding toFinding(const ScanInput& in, std::size_t r, std::size_t m, const Backl
     s.excess = e.excess;
     s.window = ledger::DayRange{drop.periodStart(e.windowFirst.serial),
                                 drop.periodStart(e.windowLast.serial)};
+    // A gap is filled by the expected level (its reports say nothing); a deficit in proportion
+    // to its reports, exact for a constant withheld share (tests/bench/scan_restore_bench, 40
+    // seeds: level weights on deficits removed a median of 82.8 % of the error against 89.3 %).
     s.redistributeMethod =
-        e.gapFirst ? ledger::RedistributeMethod::Uniform : ledger::RedistributeMethod::Proportional;
+        e.gapFirst ? ledger::RedistributeMethod::Level : ledger::RedistributeMethod::Proportional;
     f.suggestion = std::move(s);
     if (e.window == WindowBasis::Longest) {
         f.suggestionNotes.note =

@@ -247,6 +247,13 @@ std::optional<BacklogEstimate> BacklogSeries::estimate(std::int32_t t) {
     const Side& base = e.window == WindowBasis::Deficit ? left : adjacent;
     e.sustained = !gap && right.n >= 3 && base.n >= 2 &&
                   right.median - base.median >= (y - base.median) / 3.0;
+    // ... unless the period stands out from the periods after it too: a dump at a wave's
+    // take-off, where the next periods rise but stay far below it (gap_threshold modelled
+    // noise sds above the right side's level; tests/bench/scan_restore_bench, 40 seeds: 2
+    // more faults found and 2 fewer spikes, the same for bars of 2 to 4 sds, no new alarm on
+    // clean drops or the EpiEstim curves).
+    if (e.sustained && (y - right.median) / noiseSd(right.median) >= m_options.gapThreshold)
+        e.sustained = false;
     const double ratio = gap ? 1.0 + (m_options.minRatio - 1.0) / 2.0 : m_options.minRatio;
     // A deficit before the period is evidence too, weaker than a gap: the threshold halfway.
     const double threshold = gap ? m_options.gapThreshold

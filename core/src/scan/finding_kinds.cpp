@@ -223,7 +223,15 @@ std::vector<OptionEntry> staleValuesOptions(ScanOptions& o) {
         {"stale_values.min_days", &o.staleValues.minDays, "shortest run (days)"},
         {"stale_values.min_weeks", &o.staleValues.minWeeks, "shortest run (weeks)"},
         {"stale_values.max_chance", &o.staleValues.maxChance,
-         "report runs at most this likely under Poisson noise"},
+         "report runs at most this likely under the local level's noise"},
+        {"stale_values.window_days", &o.staleValues.windowDays,
+         "days on each side that give the run's expected level"},
+        {"stale_values.window_weeks", &o.staleValues.windowWeeks,
+         "weeks on each side that give the run's expected level"},
+        {"stale_values.min_level", &o.staleValues.minLevel,
+         "lowest expected daily count around a run that is reported"},
+        {"stale_values.min_weekly_level", &o.staleValues.minWeeklyLevel,
+         "lowest expected weekly count around a run that is reported"},
     };
 }
 
@@ -233,6 +241,10 @@ std::vector<OptionRule> staleValuesRules(const ScanOptions& o) {
         {s.minDays >= 2, "stale_values.min_days", "at least 2"},
         {s.minWeeks >= 2, "stale_values.min_weeks", "at least 2"},
         {s.maxChance > 0 && s.maxChance <= 1, "stale_values.max_chance", "in (0, 1]"},
+        {s.windowDays >= 1, "stale_values.window_days", "at least 1"},
+        {s.windowWeeks >= 1, "stale_values.window_weeks", "at least 1"},
+        {s.minLevel >= 0, "stale_values.min_level", "0 or more"},
+        {s.minWeeklyLevel >= 0, "stale_values.min_weekly_level", "0 or more"},
     };
 }
 

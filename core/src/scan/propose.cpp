@@ -73,7 +73,7 @@ Result<Proposal> proposeDecision(const Drop& drop, const ProposalRequest& r) {
         d.excess = estimate->excess;
         d.window = ledger::DayRange{estimate->windowFirst, estimate->windowLast};
         if (estimate->gapFirst)
-            d.redistributeMethod = ledger::RedistributeMethod::Uniform;
+            d.redistributeMethod = ledger::RedistributeMethod::Level;
         p.source = ProposalSource::BacklogEstimate;
         p.estimate = std::move(*estimate);
         return p;

@@ -4,9 +4,11 @@
 // run is a gap only when its chance under that level and the measure's negative-binomial
 // noise (zeroRunChance below) is at most 1e-4: the tail zeros of a finished outbreak and
 // the zeros before its take-off are plausible and not gaps. Evidence adds level_before,
-// level_after and chance_under_local_level. The catch-up is spread uniformly over the
-// gap (a flat expected level: a centred moving average over the zeros put it at the
-// gap's edges). What follows is the earlier description; its level is now the lower side.
+// level_after and chance_under_local_level. The catch-up is spread over the gap by the
+// expected level (redistribute's `level` method: the trend between the periods around the
+// gap times the weekday factors; a centred moving average over the zeros put it at the
+// gap's edges, a flat fill missed the weekday cycle). What follows is the earlier
+// description; its level is now the lower side.
 //
 // A run of reported zeros, with a non-zero value somewhere before and after it
 // (the quiet tails of a series are not gaps), where the median of the reported
@@ -126,7 +128,7 @@ void suggestForGap(Finding& f, const Drop& drop, const Cell& after, std::int32_t
         s.date = drop.periodStart(end + 1);
         s.excess = std::max<long long>(0, std::llround(after.value - level));
         s.window = ledger::DayRange{*f.first, *f.last};
-        s.redistributeMethod = ledger::RedistributeMethod::Uniform;
+        s.redistributeMethod = ledger::RedistributeMethod::Level;
         f.suggestion = std::move(s);
     } else {
         ledger::Decision s = suggestionFor(f, ledger::DecisionKind::Exclude);

@@ -67,4 +67,23 @@ double poissonEqualChance(double mu) {
     return std::min(1.0, sum);
 }
 
+double equalNonZeroRunChance(double mu, double phi, int draws) {
+    if (!(mu > 0))
+        return 0.0;
+    const bool poisson = !(phi > 1e-9);
+    const double r = poisson ? 0.0 : 1.0 / phi;
+    const double sd = std::sqrt(mu + (poisson ? 0.0 : phi * mu * mu));
+    const double hi = std::ceil(mu + 12 * sd + 5);
+    const auto logPmf = [&](double k) {
+        if (poisson)
+            return -mu + k * std::log(mu) - std::lgamma(k + 1);
+        return std::lgamma(k + r) - std::lgamma(r) - std::lgamma(k + 1) - r * std::log1p(phi * mu) +
+               k * (std::log(phi * mu) - std::log1p(phi * mu));
+    };
+    double sum = 0;
+    for (double k = std::max(1.0, std::floor(mu - 12 * sd - 5)); k <= hi; k += 1.0)
+        sum += std::exp(draws * logPmf(k));
+    return std::min(1.0, sum);
+}
+
 }  // namespace siftwave::scan::detail

@@ -40,4 +40,10 @@ std::vector<std::size_t> hampelOutliers(std::span<const double> series, int half
 /// exp(-2 mu) I_0(2 mu) (modified Bessel function of the first kind).
 double poissonEqualChance(double mu);
 
+/// Chance that `draws` independent negative-binomial draws of mean mu and overdispersion phi
+/// (Var = mu + phi mu^2; Poisson when phi = 0) are all equal and non-zero: sum_{k >= 1} p_k^n,
+/// p_k = Gamma(k + 1/phi) / (Gamma(1/phi) k!) (1 / (1 + phi mu))^(1/phi) (phi mu / (1 + phi
+/// mu))^k (Hilbe, "Negative Binomial Regression", 2nd ed., ch. 5). 0 when mu <= 0.
+double equalNonZeroRunChance(double mu, double phi, int draws);
+
 }  // namespace siftwave::scan::detail

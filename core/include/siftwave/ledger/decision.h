@@ -21,8 +21,16 @@
 //                     method: uniform (equal), proportional (the values
 //                     already in the window) or baseline (a centred moving
 //                     average of width `baselineWidth` periods, series/smoothing.h,
-//                     the dump day left out). Region total unchanged; no day
-//                     negative. The window must end before the dump's period.
+//                     the dump day left out) or level (the expected level: the
+//                     trend between the `baselineWidth` periods before the window
+//                     and the `baselineWidth` after the dump day, their medians
+//                     interpolated on the log scale, times the weekday factors on
+//                     daily data, estimated on the region's cleaned series without
+//                     the window and the dump day; ledger/effects/level_weights.h).
+//                     level fills a gap or a deficit by what the periods should
+//                     hold, not by their depressed reports. Region total
+//                     unchanged; no day negative. The window must end before the
+//                     dump's period.
 //   spread_negative   the negative value on `date` is set to 0 and the same
 //                     amount taken from the earlier days in `window` (default:
 //                     every earlier day) in proportion to their positive
@@ -77,7 +85,7 @@ enum class DecisionKind {
     NowcastComplete,
 };
 
-enum class RedistributeMethod { Uniform, Proportional, Baseline };
+enum class RedistributeMethod { Uniform, Proportional, Baseline, Level };
 enum class FillMethod { Zero, Linear, Share };
 enum class DuplicateRule { First, Last, Sum, Max };
 
@@ -108,7 +116,8 @@ struct Decision {
     std::int64_t excess = 0;  // redistribute: counts to move, > 0
     RedistributeMethod redistributeMethod = RedistributeMethod::Uniform;
     int baselineWidth = 7;  // redistribute/baseline: odd moving-average width in periods, 3..21
-                            // (default 7: a week of days, or seven weeks)
+                            // (default 7: a week of days, or seven weeks); redistribute/level:
+                            // the periods on each side of the trend, the same range
     FillMethod fillMethod = FillMethod::Zero;
     DuplicateRule duplicateRule = DuplicateRule::First;
 
@@ -130,7 +139,7 @@ struct Decision {
 const char* decisionKindName(DecisionKind kind);  // "redistribute", "spread_negative", ...
 std::optional<DecisionKind> decisionKindFromName(std::string_view name);
 const char* redistributeMethodName(
-    RedistributeMethod method);  // "uniform", "proportional", "baseline"
+    RedistributeMethod method);  // "uniform", "proportional", "baseline", "level"
 std::optional<RedistributeMethod> redistributeMethodFromName(std::string_view name);
 const char* fillMethodName(FillMethod method);  // "zero", "linear", "share"
 std::optional<FillMethod> fillMethodFromName(std::string_view name);

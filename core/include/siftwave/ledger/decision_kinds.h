@@ -43,8 +43,8 @@ enum class DecisionParam {
     Date,                // "date", when set
     Window,              // "window" {first, last}, when set
     Excess,              // "excess"
-    RedistributeMethod,  // "method": uniform, proportional, baseline
-    BaselineWidth,       // "baseline_width", with the baseline method only
+    RedistributeMethod,  // "method": uniform, proportional, baseline, level
+    BaselineWidth,       // "baseline_width", with the baseline and level methods only
     FillMethod,          // "method": zero, linear, share
     Keep,                // "keep": first, last, sum, max
     Variant,             // "variant", when not empty

@@ -25,7 +25,9 @@
 // x_t >= min_ratio * e, and the excess is not sustained: growth is when the right
 // side's median keeps at least a third of the rise of y_t over the left side's (the
 // side before the deficit when there is one; needs 3 periods after t; never after a
-// gap). Growth is not reported and no count is to be moved. After a gap
+// gap), and y_t is less than gap_threshold modelled noise sds above the right side's median
+// (a dump at a wave's take-off: the next periods rise, but stay far below it). Growth is
+// not reported and no count is to be moved. After a gap
 // (at least `gap_min` periods just before t with no value, a zero, or at most
 // gap_low_fraction of the surrounding level) z >= gap_threshold and x_t >= (1 +
 // (min_ratio - 1) / 2) * e suffice. At least 4 neighbours are needed.
@@ -39,8 +41,10 @@
 // window, and z needs only to reach halfway between threshold and gap_threshold); else
 // nothing points to a window and the longest plausible one is offered (max_gap periods,
 // with a note). Weights: proportional to the reported counts in a deficit window
-// (a withheld share leaves the shape of the curve), uniform over a gap (the flat
-// expected level; zeros have no shape).
+// (a withheld share leaves the shape of the curve; tests/bench/scan_restore_bench measured
+// it above the expected-level weights there), and by the expected level over a gap
+// (redistribute's `level` method, ledger/decision.h: zeros have no shape, the trend
+// between the periods around the gap and the weekday factors give it).
 //
 // Every window counts periods of the drop's cadence: `window_days`,
 // `gap_min_days`, `max_gap_days`, `redistribute_days` for daily data,

@@ -14,8 +14,8 @@
 //      (estimateBacklog, scan/backlog.h, with `options`): its excess, its window
 //      (the gap before the period, the deficit before it, or else the longest
 //      plausible window: WindowBasis in scan/backlog.h) and the method the detector
-//      would suggest (uniform over a gap, a flat expected level; proportional
-//      otherwise, which follows the shape already in the window);
+//      would suggest (level over a gap: the expected level from the trend around it;
+//      proportional otherwise, which follows the shape already in the window);
 //   4. when there is no estimate (too few reported neighbours), a redistribution
 //      with excess 0 for the analyst to set, over the same `redistribute_days`/
 //      `_weeks` periods before, proportional; `noEstimate` says why.

@@ -95,7 +95,13 @@ struct StaleValuesOptions {
     bool enabled = true;
     int minDays = 3;          // shortest run of one repeated non-zero value
     int minWeeks = 3;         // weeks: the chance test below decides, as for days
-    double maxChance = 1e-4;  // flag when such a run is this unlikely under Poisson noise
+    double maxChance = 1e-4;  // flag when such a run is this unlikely under the local level
+    int windowDays = 14;      // days on each side of the run that give its expected level
+    int windowWeeks = 4;      // weeks on each side (as reporting_gap)
+    double minLevel = 5.0;    // expected daily count around the run (reporting_gap's bar): below
+                              // it clean generated drops gave runs of 1-4 at chances of 5e-6 to
+                            // 1e-4, as likely as the planted runs (tests/bench/scan_restore_bench)
+    double minWeeklyLevel = 20.0;  // expected weekly count (reporting_gap's bar)
 };
 
 struct CodeCollisionOptions {

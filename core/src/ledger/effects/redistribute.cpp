@@ -1,5 +1,6 @@
 // redistribute: moves an excess from a dump day over earlier days (decision.h).
 #include "ledger/effects/effect_support.h"
+#include "ledger/effects/level_weights.h"
 
 #include "siftwave/ledger/apportion.h"
 #include "siftwave/series/smoothing.h"
@@ -80,12 +81,14 @@ Status redistribute(const Drop& drop, const Cleaned& cleaned, const Decision& de
                 weights.push_back(c.hasValue() ? std::max<std::int64_t>(0, c.value) : 0);
                 break;
             case RedistributeMethod::Baseline:
+            case RedistributeMethod::Level:
                 break;
         }
     }
-    if (dec.redistributeMethod == RedistributeMethod::Baseline) {
+    if (dec.redistributeMethod == RedistributeMethod::Baseline)
         weights = baselineWeights(cleaned, m, r, *window, dump, dec.baselineWidth);
-    }
+    if (dec.redistributeMethod == RedistributeMethod::Level)
+        weights = levelWeights(drop, cleaned, m, r, *window, dump, dec.baselineWidth);
     auto parts = apportionLargestRemainder(dec.excess, weights);
     if (!parts) {
         return cellError(ErrorCode::InvalidValue,
@@ -113,7 +116,7 @@ Status validate(const Decision& d) {
             "the redistribution window must end before the day it takes the excess from");
     }
     if (d.baselineWidth < 3 || d.baselineWidth > 21 || d.baselineWidth % 2 == 0)
-        return usageError("the baseline width must be an odd number of days from 3 to 21");
+        return usageError("the baseline width must be an odd number of periods from 3 to 21");
     return Ok{};
 }
 
@@ -146,10 +149,12 @@ extern const DecisionKindInfo kRedistributeKind = {
     .name = "redistribute",
     .help =
         "--region CODE --measure NAME --date DAY --excess N|auto\n"
-        "                     --window FIRST:LAST --method uniform|proportional|baseline\n"
+        "                     --window FIRST:LAST --method uniform|proportional|baseline|level\n"
         "                     [--baseline-width N]\n"
         "                     moves N counts from DAY over the earlier days FIRST..LAST (largest\n"
-        "                     remainder method); auto takes the excess the scan estimates for DAY\n"
+        "                     remainder method); level weights each day by its expected level\n"
+        "                     (the trend from the N days before the window to the N after DAY);\n"
+        "                     auto takes the excess the scan estimates for DAY\n"
         "                     and, without --window, the window it suggests\n",
     .flags = kFlags,
     .measureFromDrop = true,
