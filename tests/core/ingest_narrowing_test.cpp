@@ -155,8 +155,7 @@ TEST(IngestNarrowing, TheRefusalSuggestsAWindowThatThenReads) {
     std::string text = "date,region,cases\n";
     for (int i = 0; i < 2000; ++i) {
         const std::string code = "R" + std::to_string(i);
-        text += "1926-03-01," + code + ",1\n2026-03-01," + code + ",2\n2026-03-02," + code +
-                ",3\n";
+        text += "1926-03-01," + code + ",1\n2026-03-01," + code + ",2\n2026-03-02," + code + ",3\n";
     }
     auto refused = parseDrop(text, "century.csv");
     ASSERT_FALSE(refused.ok());
