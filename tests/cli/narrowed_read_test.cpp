@@ -97,7 +97,7 @@ TEST(CliNarrowedRead, FromAloneReadsWithinTheMemoryBound) {
     const CliResult r = runLimited("inspect " + centuryFile() + " --from 2000-01-01");
     ASSERT_EQ(r.exitCode, 0) << r.err;
     EXPECT_NE(r.out.find("read        narrowed read (--from 2000-01-01): 10000 data rows left out "
-                         "(10000 outside from 2000-01-01)"),
+                         "(10000 before 2000-01-01)"),
               std::string::npos)
         << r.out;
 }

@@ -126,7 +126,7 @@ struct LeftOut {
     std::vector<std::string> regionsNotFound;  // asked for, but in no row of the file
 
     std::uint64_t rows() const { return rowsOutsideDates + rowsOfOtherRegions; }
-    /// "1,204 data rows left out (1,200 outside 2026-01-01 to 2026-03-31, 4 of other
+    /// "1204 data rows left out (1200 outside 2026-01-01 to 2026-03-31, 4 of other
     /// regions)"; "" when nothing was.
     std::string describe(const ReadNarrowing& narrowing) const;
 };
@@ -159,7 +159,7 @@ struct Provenance {
 };
 
 /// The narrowing of a read for people and the audit trail: "narrowed read (--from 2026-01-01):
-/// 120 data rows left out (120 outside from 2026-01-01)"; "" for a read of the whole file.
+/// 120 data rows left out (120 before 2026-01-01)"; "" for a read of the whole file.
 /// Captions, reports and inspect print it.
 std::string narrowingNote(const Provenance& source);
 

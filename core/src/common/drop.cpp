@@ -211,12 +211,14 @@ std::string ReadNarrowing::asOptions() const {
 
 std::string LeftOut::describe(const ReadNarrowing& narrowing) const {
     std::vector<std::string> parts;
-    const std::string dates = narrowing.from && narrowing.to
-                                  ? narrowing.from->iso() + " to " + narrowing.to->iso()
-                              : narrowing.from ? "from " + narrowing.from->iso()
-                                               : "to " + (narrowing.to ? narrowing.to->iso() : "");
+    // Where the rows left out by date lie: outside a range, before its first or after its last day.
+    const std::string dates =
+        narrowing.from && narrowing.to
+            ? "outside " + narrowing.from->iso() + " to " + narrowing.to->iso()
+        : narrowing.from ? "before " + narrowing.from->iso()
+                         : "after " + (narrowing.to ? narrowing.to->iso() : "");
     if (rowsOutsideDates > 0)
-        parts.push_back(std::to_string(rowsOutsideDates) + " outside " + dates);
+        parts.push_back(std::to_string(rowsOutsideDates) + " " + dates);
     if (rowsOfOtherRegions > 0)
         parts.push_back(std::to_string(rowsOfOtherRegions) + " of other regions");
     std::string out;
