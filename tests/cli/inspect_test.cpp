@@ -4,14 +4,12 @@
 #include "siftwave/sha256.h"
 
 #include "support/cli_run.h"
-#include "support/sanitizer.h"
 #include "support/temp_path.h"
 #include "support/zip_builder.h"
 
 #include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
 
-#include <sys/wait.h>
 
 #include <array>
 #include <cstdio>
@@ -26,10 +24,6 @@
 namespace {
 
 using CliRun = siftwave::testing::CliResult;
-
-std::string slurp(const std::filesystem::path& path) {
-    return siftwave::testing::slurpFile(path);
-}
 
 CliRun run(const std::string& args) {
     return siftwave::testing::runCli(args);
