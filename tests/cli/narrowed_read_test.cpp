@@ -1,7 +1,7 @@
 // End-to-end: the reading options --from, --to and --only-regions (issue 19, bounded resources).
 // The hostile file of the issue (10,000 regions with rows a century apart, about 400 KB) is
 // refused with the options to type, then read with them; each option runs under an address-space
-// limit enforced by the harness (ulimit -v 1 GB; not under AddressSanitizer, which reserves
+// limit enforced by the harness (ulimit -v 300 MB; not under AddressSanitizer, which reserves
 // terabytes of address space for its shadow memory, so that stage checks the messages only).
 #include "support/cli_run.h"
 #include "support/sanitizer.h"
@@ -19,15 +19,15 @@ using siftwave::testing::CliResult;
 using siftwave::testing::runCli;
 using siftwave::testing::writeTempFile;
 
-// The address-space bound of the commands below: far less than the 4.4 GB the dense table of the
-// century file would take, far more than the narrowed reads need.
+// The address-space bound of the commands below (300 MB): far less than the 4.4 GB the dense table
+// of the century file would take, far more than the narrowed reads need.
 CliResult runLimited(const std::string& args) {
 #if SIFTWAVE_TEST_UNDER_ASAN
     return runCli(args);
 #else
     const std::filesystem::path errPath = siftwave::testing::testTempPath("limited.err");
     const siftwave::testing::CliRun run =
-        siftwave::testing::runShell("sh -c 'ulimit -v 1000000; " + std::string(SIFTWAVE_CLI_PATH) +
+        siftwave::testing::runShell("sh -c 'ulimit -v 300000; " + std::string(SIFTWAVE_CLI_PATH) +
                                     " " + args + " 2>" + errPath.string() + "'");
     CliResult r{run.exitCode, run.out, siftwave::testing::slurpFile(errPath)};
     std::filesystem::remove(errPath);
@@ -154,9 +154,10 @@ TEST(CliNarrowedRead, ALedgerMadeOnANarrowedReadVerifiesOnlyOnTheSameRead) {
     EXPECT_NE(
         siftwave::testing::slurpFile(ledger).find("\"narrowed_read\":{\"from\":\"2026-03-02\"}"),
         std::string::npos);
-    const CliResult same = runCli("ledger " + ledger + " --drop " + drop + " --from 2026-03-02");
+    const CliResult same =
+        runCli("ledger " + ledger + " --verify --drop " + drop + " --from 2026-03-02");
     EXPECT_EQ(same.exitCode, 0) << same.out << same.err;
-    const CliResult whole = runCli("ledger " + ledger + " --drop " + drop);
+    const CliResult whole = runCli("ledger " + ledger + " --verify --drop " + drop);
     EXPECT_EQ(whole.exitCode, 1);
     EXPECT_NE(whole.err.find("read it as the ledger was, with --from 2026-03-02"),
               std::string::npos)
