@@ -157,6 +157,8 @@ TEST(CliNarrowedRead, ALedgerMadeOnANarrowedReadVerifiesOnlyOnTheSameRead) {
     const CliResult same =
         runCli("ledger " + ledger + " --verify --drop " + drop + " --from 2026-03-02");
     EXPECT_EQ(same.exitCode, 0) << same.out << same.err;
+    EXPECT_NE(same.out.find("made on: the read narrowed by --from 2026-03-02"), std::string::npos)
+        << same.out;
     const CliResult whole = runCli("ledger " + ledger + " --verify --drop " + drop);
     EXPECT_EQ(whole.exitCode, 1);
     EXPECT_NE(whole.err.find("read it as the ledger was, with --from 2026-03-02"),
