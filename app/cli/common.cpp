@@ -4,6 +4,8 @@
 
 #include <cstdio>
 #include <exception>
+#include <filesystem>
+#include <fstream>
 #include <iostream>
 #include <new>
 #include <string_view>
@@ -48,12 +50,101 @@ std::vector<FlagSpec> ingestFlagSpecs() {
         {"sheet", true, false, "NAME|N",
          "a workbook (.xlsx, .ods): the sheet to read, by name or position from 1 (default: the "
          "first sheet whose first rows hold dates)"},
+        {"from", true, false, "DATE",
+         "read only the rows from this day on (YYYY-MM-DD; weekly data: the weeks that overlap "
+         "it); the rows left out are counted"},
+        {"to", true, false, "DATE",
+         "read only the rows up to this day (YYYY-MM-DD; weekly data: the weeks that overlap it)"},
+        {"only-regions", true, false, "CODES|@FILE",
+         "read only these regions: codes separated by commas, or @FILE with one code per line "
+         "(codes exactly as written)"},
         {"missing", true, true, "TOKEN",
          "a cell text meaning 'no value', in addition to the empty cell (e.g. --missing NA for "
          "values; never "
          "applied to region codes)"},
     };
 }
+
+namespace {
+
+constexpr std::uintmax_t kMaxRegionListBytes = std::uintmax_t{16} << 20;
+
+/// The codes of --only-regions: "A,B,C", or "@FILE" with one code per line (line ends and blank
+/// lines aside, codes verbatim).
+Result<std::vector<std::string>> regionCodesFrom(const std::string& value) {
+    std::vector<std::string> codes;
+    auto usage = [](std::string message) {
+        return makeError(ErrorCode::Usage, std::move(message));
+    };
+    if (!value.starts_with('@')) {
+        std::size_t start = 0;
+        for (std::size_t comma = value.find(','); start <= value.size();
+             comma = value.find(',', start)) {
+            const std::size_t end = comma == std::string::npos ? value.size() : comma;
+            if (end > start)
+                codes.push_back(value.substr(start, end - start));
+            start = end + 1;
+        }
+        if (codes.empty())
+            return usage("--only-regions names no region code");
+        return codes;
+    }
+    const std::string path = value.substr(1);
+    std::error_code ec;
+    if (!std::filesystem::is_regular_file(path, ec))
+        return usage("--only-regions @" + path +
+                     ": no such file (a file of region codes, one per "
+                     "line)");
+    if (std::filesystem::file_size(path, ec) > kMaxRegionListBytes)
+        return usage("--only-regions @" + path +
+                     ": the file is larger than 16 MB; a list of "
+                     "region codes is far smaller");
+    std::ifstream in(path, std::ios::binary);
+    std::string line;
+    while (std::getline(in, line)) {
+        if (!line.empty() && line.back() == '\r')
+            line.pop_back();
+        if (!line.empty())
+            codes.push_back(line);
+    }
+    if (!in.eof())
+        return usage("--only-regions @" + path + ": the file cannot be read");
+    if (codes.empty())
+        return usage("--only-regions @" + path + " holds no region code");
+    return codes;
+}
+
+/// --from and --to: ISO 8601 days.
+Result<std::optional<Date>> dayFrom(const ParsedArgs& args, const std::string& flag) {
+    const std::optional<std::string> text = args.optionalValue(flag);
+    if (!text)
+        return std::optional<Date>{};
+    if (std::optional<Date> day = Date::fromIso(*text))
+        return std::optional<Date>(*day);
+    return makeError(ErrorCode::Usage,
+                     "--" + flag + " takes a day as YYYY-MM-DD (ISO 8601), not '" + *text + "'");
+}
+
+/// --from, --to and --only-regions.
+Status readNarrowing(const ParsedArgs& args, ReadNarrowing& narrowing) {
+    Result<std::optional<Date>> from = dayFrom(args, "from");
+    if (!from)
+        return from.error();
+    Result<std::optional<Date>> to = dayFrom(args, "to");
+    if (!to)
+        return to.error();
+    narrowing.from = *from;
+    narrowing.to = *to;
+    if (std::optional<std::string> regions = args.optionalValue("only-regions")) {
+        Result<std::vector<std::string>> codes = regionCodesFrom(*regions);
+        if (!codes)
+            return codes.error();
+        narrowing.regions = std::move(*codes);
+    }
+    return Ok{};
+}
+
+}  // namespace
 
 Result<ingest::IngestOptions> ingestOptionsFrom(const ParsedArgs& args) {
     ingest::IngestOptions o;
@@ -117,6 +208,8 @@ Result<ingest::IngestOptions> ingestOptionsFrom(const ParsedArgs& args) {
     o.sheet = args.value("sheet");
     for (const std::string& token : args.values("missing"))
         o.missingTokens.push_back(token);
+    if (Status s = readNarrowing(args, o.narrowing); !s)
+        return s.error();
     if (Status s = o.validate(); !s)
         return s.error();
     return o;

@@ -51,6 +51,26 @@ nlohmann::json caseListJson(const CaseList& list) {
             {"problems", problems}};
 }
 
+/// A narrowed read for the audit trail: what was asked and what it left out; null for a read of
+/// the whole file.
+nlohmann::json narrowedReadJson(const Provenance& p) {
+    if (!p.narrowing.active())
+        return nullptr;
+    const ReadNarrowing& n = p.narrowing;
+    const LeftOut& out = p.leftOut;
+    return {{"from", n.from ? nlohmann::json(n.from->iso()) : nlohmann::json(nullptr)},
+            {"to", n.to ? nlohmann::json(n.to->iso()) : nlohmann::json(nullptr)},
+            {"regions", n.regions},
+            {"options", n.asOptions()},
+            {"rows_left_out", out.rows()},
+            {"rows_outside_dates", out.rowsOutsideDates},
+            {"rows_of_other_regions", out.rowsOfOtherRegions},
+            {"date_columns_left_out", out.dateColumns},
+            {"region_columns_left_out", out.regionColumns},
+            {"regions_not_found", out.regionsNotFound},
+            {"note", narrowingNote(p)}};
+}
+
 nlohmann::json inspectJson(const Drop& drop) {
     const Provenance& p = drop.source;
     const CellCounts counts = drop.countCells();
@@ -93,6 +113,7 @@ nlohmann::json inspectJson(const Drop& drop) {
     };
     j["date_format"] = p.dateFormat;
     j["rows"] = drop.rows;
+    j["narrowed_read"] = narrowedReadJson(p);
     j["regions"] = drop.regionCodes.size();
     j["region_codes"] = drop.regionCodes;
     j["measures"] = drop.measures;
@@ -195,6 +216,8 @@ void printText(const Drop& drop) {
         std::printf("value cols  %s\n", terminalText(values).c_str());
     }
     std::printf("rows        %zu\n", drop.rows);
+    if (const std::string note = narrowingNote(drop.source); !note.empty())
+        std::printf("read        %s\n", terminalText(note).c_str());
     std::string codes;
     for (std::size_t i = 0; i < drop.regionCodes.size(); ++i) {
         if (i == 12) {

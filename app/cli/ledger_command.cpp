@@ -152,6 +152,9 @@ void printVerifyText(const std::string& ledgerPath, const ledger::Ledger& ledger
                 ledger.headHash().c_str(), scopeOfCheck(anchor).c_str());
     if (!ledger.entries.empty())
         std::printf("signatures: %s\n", terminalText(ledger::describeSignatures(signers)).c_str());
+    if (!ledger.entries.empty() && ledger.entries.front().narrowing.active())
+        std::printf("made on: %s\n",
+                    terminalText(ledger::describeRead(ledger.entries.front().narrowing)).c_str());
 }
 
 }  // namespace
@@ -199,6 +202,10 @@ int runLedger(int argc, char** argv, int first) {
                           {"counts_added", {{"total", added.total}, {"entries", added.entries}}},
                           {"scope", scopeOfCheck(anchor)},
                           {"signatures", signaturesJson(*signers)}};
+    // The read the entries were made on: the options of a narrowed read, null for the whole file.
+    out["narrowed_read"] = !ledger->entries.empty() && ledger->entries.front().narrowing.active()
+                               ? nlohmann::json(ledger->entries.front().narrowing.asOptions())
+                               : nlohmann::json(nullptr);
     if (anchor)
         out["anchor"] = {{"recorded", anchor->recorded},
                          {"outcome", anchor->outcomeName()},

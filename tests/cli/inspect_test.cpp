@@ -4,14 +4,12 @@
 #include "siftwave/sha256.h"
 
 #include "support/cli_run.h"
-#include "support/sanitizer.h"
 #include "support/temp_path.h"
 #include "support/zip_builder.h"
 
 #include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
 
-#include <sys/wait.h>
 
 #include <array>
 #include <cstdio>
@@ -26,10 +24,6 @@
 namespace {
 
 using CliRun = siftwave::testing::CliResult;
-
-std::string slurp(const std::filesystem::path& path) {
-    return siftwave::testing::slurpFile(path);
-}
 
 CliRun run(const std::string& args) {
     return siftwave::testing::runCli(args);
@@ -431,34 +425,5 @@ TEST(CliInspect, AWorkbookOfTwoTablesSaysWhichOtherSheetHoldsDates) {
 
 }  // namespace
 
-// Issue 19, "bounded resources": 10,000 regions with rows a century apart asked for 4.3 GB
-// from a 378 KB file. The reader now refuses the table before allocating it, naming the two
-// dates and their lines. The harness enforces the bound: the command runs under a 1 GB
-// address-space limit (ulimit -v), except under AddressSanitizer, which reserves terabytes
-// of address space for its shadow memory (the sanitizer stage still checks the message).
-TEST(CliInspect, ASparseCenturyOfRowsIsRefusedBeforeTheTableIsAllocated) {
-    std::string text = "date,region,cases\n";
-    for (int i = 0; i < 10000; ++i) {
-        const std::string code = "R" + std::to_string(i);
-        text += "1926-03-01," + code + ",1\n2026-03-01," + code + ",2\n";
-    }
-    const std::string path = writeDrop("century_apart.csv", text);
-    const std::string limited =
-#if SIFTWAVE_TEST_UNDER_ASAN
-        "";
-#else
-        "ulimit -v 1000000; ";
-#endif
-    const std::filesystem::path errPath = siftwave::testing::testTempPath("century.err");
-    const int status = std::system(("sh -c '" + limited + std::string(SIFTWAVE_CLI_PATH) +
-                                    " inspect " + path + " >/dev/null 2>" + errPath.string() + "'")
-                                       .c_str());
-    ASSERT_TRUE(WIFEXITED(status));
-    EXPECT_EQ(WEXITSTATUS(status), 1);
-    const std::string err = slurp(errPath);
-    EXPECT_NE(err.find("the dates run from 1926-03-01 (line 2) to 2026-03-01 (line 3) across "
-                       "10000 regions"),
-              std::string::npos)
-        << err;
-    EXPECT_NE(err.find("Nothing was read"), std::string::npos) << err;
-}
+// The sparse century of rows (issue 19, "bounded resources") is refused and then read narrowed
+// in narrowed_read_test.cpp.

@@ -3,9 +3,11 @@
 // hang or read out of bounds (ASan/UBSan in the fuzz build), and a Drop it returns must hold
 // together: every table is regions x periods, every duplicate points inside the calendar.
 // The last byte also picks forced options, so the weekly, long, daily and case-list paths are
-// reached.
+// reached, and a narrowed read (--from, --to, --only-regions), whose drop must keep only the
+// regions asked for and periods that overlap the range.
 #include "siftwave/ingest/ingest.h"
 
+#include <algorithm>
 #include <cstddef>
 #include <cstdint>
 #include <string_view>
@@ -24,6 +26,15 @@ void checkDrop(const siftwave::Drop& drop) {
         if (d.day < 0 || static_cast<std::size_t>(d.day) >= periods || d.region >= regions ||
             d.measure >= drop.measures.size())
             __builtin_trap();
+    const siftwave::ReadNarrowing& asked = drop.source.narrowing;
+    for (const std::string& code : drop.regionCodes)
+        if (!asked.regions.empty() &&
+            !std::binary_search(asked.regions.begin(), asked.regions.end(), code))
+            __builtin_trap();
+    if (periods > 0 && asked.from && drop.axis.periodEnd(0) < *asked.from)
+        __builtin_trap();
+    if (periods > 0 && asked.to && drop.axis.lastStart() > *asked.to)
+        __builtin_trap();
     if (drop.caseList) {  // every case counted inside the calendar, in a region of the drop
         for (const siftwave::CaseRecord& c : drop.caseList->cases)
             if (c.region >= regions || !drop.periodOf(c.event))
@@ -61,7 +72,22 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
             options.caseList = true;
             break;
         default:
-            return 0;
+            break;
+    }
+    // Bits above the choice of options: a narrowed read.
+    switch (data[size - 1] / 6 % 4) {
+        case 1:
+            options.narrowing.from = siftwave::Date::fromIso("2026-01-07");
+            break;
+        case 2:
+            options.narrowing.to = siftwave::Date::fromIso("2026-02-01");
+            break;
+        case 3:
+            options.narrowing.regions = {"1", "A", "N1", "b"};
+            break;
+        default:
+            if (data[size - 1] % 6 == 0)
+                return 0;
     }
     if (auto drop = siftwave::ingest::parseDrop(bytes, "fuzz.csv", options); drop.ok())
         checkDrop(*drop);

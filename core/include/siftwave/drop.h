@@ -101,6 +101,36 @@ struct ColumnMapping {
     std::string measure;  // long layout with a measure-name column; empty otherwise
 };
 
+/// A narrowed read: the dates and regions a read was limited to (IngestOptions::narrowing,
+/// the CLI's --from, --to and --only-regions). Rows outside are counted, never put in the
+/// tables. Empty (no bound, no region) means the whole file. A ledger entry records the
+/// narrowing of the read it was made on (ledger/entry.h), so that replay refuses another one.
+struct ReadNarrowing {
+    std::optional<Date> from;          // first day kept; a week is kept when it overlaps
+    std::optional<Date> to;            // last day kept (inclusive)
+    std::vector<std::string> regions;  // codes kept, verbatim, sorted, each once; empty: all
+
+    bool active() const { return from || to || !regions.empty(); }
+    /// The options that ask for it, as typed: "--from 2026-01-01 --to 2026-03-31
+    /// --only-regions A,B" (a list of more than 8 codes is shown by its count); "" when whole.
+    std::string asOptions() const;
+    friend bool operator==(const ReadNarrowing&, const ReadNarrowing&) = default;
+};
+
+/// What a narrowed read left out, for the audit trail (inspect, figures, reports).
+struct LeftOut {
+    std::uint64_t rowsOutsideDates = 0;        // data rows whose period lies outside from..to
+    std::uint64_t rowsOfOtherRegions = 0;      // data rows (in the dates) of regions not asked for
+    std::uint64_t dateColumns = 0;             // dates-across: date columns outside from..to
+    std::uint64_t regionColumns = 0;           // dates-down: region columns not asked for
+    std::vector<std::string> regionsNotFound;  // asked for, but in no row of the file
+
+    std::uint64_t rows() const { return rowsOutsideDates + rowsOfOtherRegions; }
+    /// "1204 data rows left out (1200 outside 2026-01-01 to 2026-03-31, 4 of other
+    /// regions)"; "" when nothing was.
+    std::string describe(const ReadNarrowing& narrowing) const;
+};
+
 struct Provenance {
     std::string path;
     std::uint64_t bytes = 0;
@@ -122,7 +152,16 @@ struct Provenance {
     std::vector<std::string> datedSheets;
     std::string sheet;
     std::uint32_t firstColumn = 0;
+    /// The read was narrowed to these dates and regions (empty: the whole file was read), and
+    /// what that left out.
+    ReadNarrowing narrowing;
+    LeftOut leftOut;
 };
+
+/// The narrowing of a read for people and the audit trail: "narrowed read (--from 2026-01-01):
+/// 120 data rows left out (120 before 2026-01-01)"; "" for a read of the whole file.
+/// Captions, reports and inspect print it.
+std::string narrowingNote(const Provenance& source);
 
 /// Where a source position is, as a person finds it: "line 14" or "line 14, column 3" for a
 /// CSV drop; "data!C14" (a cell, ECMA-376's sheet!cell reference) or "data!14:14" (a row) for a

@@ -176,4 +176,77 @@ void RegionRegister::index() {
         m_lookup.emplace(entries[i].code, i);
 }
 
+namespace {
+
+constexpr std::size_t kCodesShown = 8;
+
+/// The codes as --only-regions takes them: "A,B,C" when a few plain codes, else "@FILE" (one
+/// code per line) with their count.
+std::string regionsAsTyped(const std::vector<std::string>& codes) {
+    bool plain = codes.size() <= kCodesShown;
+    for (const std::string& c : codes)
+        plain = plain && !c.empty() && c.find_first_of(", \t\"'") == std::string::npos &&
+                c.front() != '@';
+    if (!plain)
+        return "@FILE (a file of the " + std::to_string(codes.size()) + " codes, one per line)";
+    std::string out;
+    for (const std::string& c : codes)
+        out += (out.empty() ? "" : ",") + c;
+    return out;
+}
+
+}  // namespace
+
+std::string ReadNarrowing::asOptions() const {
+    std::string out;
+    auto add = [&](const std::string& option) { out += (out.empty() ? "" : " ") + option; };
+    if (from)
+        add("--from " + from->iso());
+    if (to)
+        add("--to " + to->iso());
+    if (!regions.empty())
+        add("--only-regions " + regionsAsTyped(regions));
+    return out;
+}
+
+std::string LeftOut::describe(const ReadNarrowing& narrowing) const {
+    std::vector<std::string> parts;
+    // Where the rows left out by date lie: outside a range, before its first or after its last day.
+    const std::string dates =
+        narrowing.from && narrowing.to
+            ? "outside " + narrowing.from->iso() + " to " + narrowing.to->iso()
+        : narrowing.from ? "before " + narrowing.from->iso()
+                         : "after " + (narrowing.to ? narrowing.to->iso() : "");
+    if (rowsOutsideDates > 0)
+        parts.push_back(std::to_string(rowsOutsideDates) + " " + dates);
+    if (rowsOfOtherRegions > 0)
+        parts.push_back(std::to_string(rowsOfOtherRegions) + " of other regions");
+    std::string out;
+    if (!parts.empty()) {
+        out = std::to_string(rows()) + (rows() == 1 ? " data row" : " data rows") + " left out (" +
+              parts[0] + (parts.size() > 1 ? ", " + parts[1] : "") + ")";
+    }
+    auto add = [&](const std::string& text) { out += (out.empty() ? "" : "; ") + text; };
+    if (dateColumns > 0)
+        add(std::to_string(dateColumns) + (dateColumns == 1 ? " date column" : " date columns") +
+            " left out (outside " + dates + ")");
+    if (regionColumns > 0)
+        add(std::to_string(regionColumns) +
+            (regionColumns == 1 ? " region column" : " region columns") +
+            " left out (regions not asked for)");
+    return out;
+}
+
+std::string narrowingNote(const Provenance& source) {
+    if (!source.narrowing.active())
+        return {};
+    const std::string left = source.leftOut.describe(source.narrowing);
+    std::string note = "narrowed read (" + source.narrowing.asOptions() +
+                       "): " + (left.empty() ? std::string("nothing left out") : left);
+    if (!source.leftOut.regionsNotFound.empty())
+        note += "; " + std::to_string(source.leftOut.regionsNotFound.size()) +
+                " of the codes asked for are in no row";
+    return note;
+}
+
 }  // namespace siftwave

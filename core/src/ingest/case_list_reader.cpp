@@ -7,10 +7,12 @@
 #include "ingest/input_source.h"
 #include "ingest/number_parsing.h"
 #include "ingest/sniffing.h"
+#include "ingest/table_bounds.h"
 
 #include <algorithm>
 #include <array>
 #include <cctype>
+#include <cmath>
 #include <optional>
 #include <unordered_map>
 
@@ -189,6 +191,8 @@ public:
             return s.error();
         if (Status s = chooseColumns(); !s)
             return s.error();
+        if (Status s = settleNarrowing(); !s)
+            return s.error();
         if (Status s = settleFormats(); !s)
             return s.error();
         if (Status s = readCases(); !s)
@@ -288,6 +292,16 @@ private:
                                  CaseProblemKind missing, CaseProblemKind unreadable,
                                  std::uint32_t region);
     Status checkFieldCount(const CsvRecord& record) const;
+    /// A narrowed read (IngestOptions::narrowing): the codes asked for, sorted; --only-regions
+    /// for a list without a region column is a usage error.
+    Status settleNarrowing();
+    /// True (and counted) when a narrowed read leaves the case out: its event date outside
+    /// from..to (weekly: its week), or its region not asked for. An unreadable event is kept, to
+    /// be reported as a problem.
+    bool leftOutByNarrowing(const CsvRecord& record);
+    /// The table of regions x periods is refused before it is allocated when the file does not
+    /// justify it (table_bounds.h), with the --from/--to and --only-regions that would fit.
+    Status checkTableJustified(const TimeAxis& axis) const;
     /// The calendar from the first event to the last, and the counts per region and period.
     Status countCases();
     Result<TimeAxis> axisOfEvents() const;
@@ -523,11 +537,17 @@ Status CaseListReader::readCases() {
         if (Status s = checkFieldCount(record); !s)
             return s;
         ++m_drop.rows;
+        if (m_drop.source.narrowing.active() && leftOutByNarrowing(record))
+            continue;
         readCase(record);
     }
     if (scanner.failed())
         return fail(ErrorCode::Syntax, scanner.error().message, scanner.error().line,
                     scanner.error().column);
+    if (m_list.cases.empty() && m_drop.source.leftOut.rows() > 0)
+        return fail(ErrorCode::InvalidValue,
+                    "no case is left by " + m_drop.source.narrowing.asOptions() + ": " +
+                        m_drop.source.leftOut.describe(m_drop.source.narrowing));
     if (m_list.cases.empty())
         return fail(ErrorCode::Layout,
                     m_drop.rows == 0
@@ -557,6 +577,90 @@ Result<TimeAxis> CaseListReader::axisOfEvents() const {
     return TimeAxis::daily(lo->event, hi->event - lo->event + 1);
 }
 
+Status CaseListReader::settleNarrowing() {
+    ReadNarrowing asked = m_options.narrowing;
+    std::sort(asked.regions.begin(), asked.regions.end());
+    asked.regions.erase(std::unique(asked.regions.begin(), asked.regions.end()),
+                        asked.regions.end());
+    if (!asked.regions.empty() && !m_region)
+        return fail(ErrorCode::Usage,
+                    "the case list has no region column, so --only-regions does not apply; leave "
+                    "it out, or name the region column with --region-col");
+    m_drop.source.narrowing = std::move(asked);
+    return Ok{};
+}
+
+bool CaseListReader::leftOutByNarrowing(const CsvRecord& record) {
+    const ReadNarrowing& asked = m_drop.source.narrowing;
+    LeftOut& out = m_drop.source.leftOut;
+    if (asked.from || asked.to) {
+        if (std::optional<Date> event = parseDateAs(record.fields[m_event].text, m_eventFormat)) {
+            Date first = *event, last = *event;
+            if (m_options.cadence == Cadence::Weekly) {
+                first = weekStartOf(*event, m_options.weekStart.value_or(WeekStart::Monday));
+                last = first + 6;
+            }
+            if ((asked.from && last < *asked.from) || (asked.to && first > *asked.to)) {
+                ++out.rowsOutsideDates;
+                --m_drop.rows;  // m_drop.rows counts the rows read
+                return true;
+            }
+        }
+    }
+    if (!asked.regions.empty() &&
+        !std::binary_search(asked.regions.begin(), asked.regions.end(),
+                            std::string_view(record.fields[*m_region].text))) {
+        ++out.rowsOfOtherRegions;
+        --m_drop.rows;
+        return true;
+    }
+    return false;
+}
+
+Status CaseListReader::checkTableJustified(const TimeAxis& axis) const {
+    const double regions = static_cast<double>(m_drop.regionCodes.size());
+    const double periods = static_cast<double>(axis.periods());
+    const double cells = regions * periods;
+    const double rows = static_cast<double>(m_drop.rows + m_drop.source.leftOut.rows());
+    const double justified =
+        std::min(kMaxCells, std::max(kSparseFloorCells, kMaxCellsPerValue * std::max(rows, 1.0) *
+                                                            static_cast<double>(m_names.size())));
+    if (cells <= justified)
+        return Ok{};
+    const bool weekly = axis.weekly();
+    const auto fitPeriods = static_cast<std::int32_t>(std::floor(justified / regions));
+    const auto fitRegions = static_cast<std::size_t>(std::floor(justified / periods));
+    ReadNarrowing window = m_drop.source.narrowing;
+    window.from = axis.periodStart(axis.periods() - std::max(fitPeriods, 1));
+    window.to = axis.lastStart() + (weekly ? 6 : 0);
+    std::string advice = " To read a part of it, narrow the dates: " + window.asOptions() +
+                         " (the latest " + std::to_string(fitPeriods) +
+                         (weekly ? " weeks" : " days") + " the file justifies for " +
+                         std::to_string(m_drop.regionCodes.size()) + " regions)";
+    if (fitRegions >= 1) {
+        ReadNarrowing some = m_drop.source.narrowing;
+        for (std::size_t i = 0;
+             i < m_drop.regionCodes.size() && i < std::min<std::size_t>(fitRegions, 3); ++i)
+            some.regions.push_back(m_drop.regionCodes[i]);
+        std::sort(some.regions.begin(), some.regions.end());
+        advice += "; or narrow the regions: " + some.asOptions() + " (at most " +
+                  std::to_string(fitRegions) +
+                  " regions over the whole span; --only-regions @FILE reads a file of codes, one "
+                  "per line)";
+    }
+    return fail(ErrorCode::InvalidValue,
+                "the case list asks for a table of " + std::to_string(axis.periods()) +
+                    (weekly ? " weeks" : " days") + " x " +
+                    std::to_string(m_drop.regionCodes.size()) + " regions (" + axis.first().iso() +
+                    " to " + axis.lastStart().iso() +
+                    "): " + std::to_string(static_cast<std::uint64_t>(cells)) + " cells, and its " +
+                    std::to_string(static_cast<std::uint64_t>(rows)) + " rows justify at most " +
+                    std::to_string(static_cast<std::uint64_t>(justified)) +
+                    " cells: nearly all of the table would be empty. Nothing was read. Is a year "
+                    "mistyped?" +
+                    advice + ".");
+}
+
 Status CaseListReader::countCases() {
     Result<TimeAxis> axis = axisOfEvents();
     if (!axis)
@@ -564,6 +668,8 @@ Status CaseListReader::countCases() {
     m_drop.axis = *axis;
     m_drop.measures = {m_options.measureName.empty() ? std::string("cases")
                                                      : m_options.measureName};
+    if (Status s = checkTableJustified(*axis); !s)
+        return s;
     CellTable table(m_drop.regionCodes.size(), static_cast<std::size_t>(axis->periods()));
     for (std::size_t r = 0; r < table.regions(); ++r) {
         for (Cell& c : table.series(r))

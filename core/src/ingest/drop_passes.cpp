@@ -15,11 +15,6 @@ namespace {
 
 constexpr std::size_t kCheckAhead = std::size_t{256} << 10;
 constexpr std::size_t kTailBytes = std::size_t{64} << 10;
-constexpr double kMaxCells = 1.5e9;
-// A table of more cells than this (about 320 MB) must be justified by the file: at most
-// kMaxCellsPerValue cells for each value its rows can hold (checkTableJustified).
-constexpr double kSparseFloorCells = 2e7;
-constexpr double kMaxCellsPerValue = 64;
 
 // Joins a year cell and a week cell into one date key (dateKeyOf): the ASCII unit separator,
 // which no year or week number holds.
@@ -38,6 +33,16 @@ bool hasEdgeSpace(std::string_view code) {
 }
 
 }  // namespace
+
+std::size_t DropReader::tableMeasures() const {
+    if (m_roles.measureColumn >= 0)
+        return m_measureNames.size();
+    return m_roles.layout == Layout::Long ? m_roles.valueColumns.size() : 1;
+}
+
+std::size_t DropReader::tableRegions() const {
+    return m_roles.layout == Layout::DatesDown ? m_roles.valueColumns.size() : m_regions.size();
+}
 
 std::size_t DropReader::measureCount() const {
     if (m_roles.layout != Layout::Long)
@@ -300,7 +305,8 @@ DropReader::PredictedDates DropReader::sampleAndTailDates(DateFormat format) {
 }
 
 bool DropReader::predictCalendar() {
-    if (m_roles.layout != Layout::Long || m_sample.empty())
+    // A narrowed read takes the two passes: its calendar is the window's, not the file's ends.
+    if (m_narrowed || m_roles.layout != Layout::Long || m_sample.empty())
         return false;
     if (static_cast<std::size_t>(m_roles.dateColumn) >= m_names.size() ||
         static_cast<std::size_t>(m_roles.regionColumn) >= m_names.size())
@@ -312,7 +318,7 @@ bool DropReader::predictCalendar() {
     const std::int32_t lo = dates.lo, hi = dates.hi;
     if (lo > hi)
         return false;
-    if (hi - lo > 100 * 366)
+    if (hi - lo > kMaxSpanDays)
         return false;
     // Dates on one weekday: predicted weekly, one table column per week (a date off that grid
     // sends the read to two passes).
@@ -337,7 +343,10 @@ bool DropReader::predictCalendar() {
     const double cells =
         static_cast<double>(capacity) * static_cast<double>(days) * static_cast<double>(measures);
     const double values = rows * static_cast<double>(std::max<std::size_t>(m_names.size(), 1));
-    if (cells > kMaxCells || (cells > kSparseFloorCells && cells > kMaxCellsPerValue * values))
+    // The reservation is made before any row is read, so it is held to what the file's values
+    // justify, without the sparse floor: a small file with a long calendar (the sample's regions
+    // over a century) reserved 160 MB before its regions overflowed and it was refused.
+    if (cells > kMaxCells || cells > kMaxCellsPerValue * values)
         return false;
     m_dateFormat = *format;
     m_firstSerial = lo;
@@ -462,6 +471,7 @@ void DropReader::resetForTwoPasses() {
     m_dateLine.clear();
     m_dateColumn.clear();
     m_dayOfDate.clear();
+    m_rowsOfDate.clear();
     m_step = 1;
     m_tables.reset(0);
     m_drop.duplicates.clear();
@@ -490,16 +500,18 @@ Status DropReader::keyPass() {
         bool keep = false;
         if (Status s = admit(record, keep); !s)
             return s;
-        if (!keep)
+        if (!keep || (m_narrowed && leftOutByNarrowing(record.fields, true)))
             continue;
         const auto line = static_cast<std::uint32_t>(record.line);
         bool added = false;
         if (hasDates) {
-            m_dates.intern(dateKeyOf(record.fields, dateCol), added);
+            const std::uint32_t date = m_dates.intern(dateKeyOf(record.fields, dateCol), added);
             if (added) {
                 m_dateLine.push_back(line);
                 m_dateColumn.push_back(dateCol + 1);
+                m_rowsOfDate.push_back(0);
             }
+            ++m_rowsOfDate[date];
         }
         if (hasRegions) {
             const std::string_view code = record.fields[regionCol].text;
@@ -518,6 +530,10 @@ Status DropReader::keyPass() {
     m_drop.source.sha256 = m_checker.sha256();
     if (m_file)
         m_file->release(m_bytes.size());
+    if (m_narrowed) {
+        if (Status s = checkNarrowingLeftRows(); !s)
+            return s;
+    }
     if (m_drop.rows == 0)
         return fail(ErrorCode::Layout, "the file has a header but no data rows", 1, 0);
     return Ok{};
@@ -530,6 +546,10 @@ Status DropReader::settleDates() {
         return fail(ErrorCode::Layout, "no row has a date");
     if (m_dateFormat == DateFormat::Unknown) {
         if (Status s = detectDateFormat(); !s)
+            return s;
+    }
+    if (m_roles.layout == Layout::DatesAcross && m_narrowed) {
+        if (Status s = narrowHeaderDates(); !s)
             return s;
     }
     if (Status s = laySerialsOut(); !s)
@@ -633,23 +653,23 @@ Status DropReader::laySerialsOut() {
     unsigned weekdays = 0;
     for (std::int32_t serial : serials)
         weekdays |= 1u << Date{serial}.isoWeekday();
-    m_step = m_options.cadence != Cadence::Daily && hi > lo && std::popcount(weekdays) == 1 ? 7 : 1;
+    m_step = cadence() != Cadence::Daily && hi > lo && std::popcount(weekdays) == 1 ? 7 : 1;
     const std::int64_t columns = (span - 1) / m_step + 1;
-    const std::size_t measures =
-        m_roles.measureColumn >= 0
-            ? m_measureNames.size()
-            : (m_roles.layout == Layout::Long ? m_roles.valueColumns.size() : 1);
-    const std::size_t regions =
-        m_roles.layout == Layout::DatesDown ? m_roles.valueColumns.size() : m_regions.size();
+    const std::size_t measures = tableMeasures();
+    const std::size_t regions = tableRegions();
     const double cells =
         static_cast<double>(columns) * static_cast<double>(regions) * static_cast<double>(measures);
-    if (span > 100 * 366 || cells > kMaxCells) {
+    if (span > kMaxSpanDays || cells > kMaxCells) {
         return fail(ErrorCode::InvalidValue,
-                    "the dates run from " + Date{lo}.iso() + " to " + Date{hi}.iso() + " (" +
+                    "the dates run from " + Date{lo}.iso() + " (" + place(m_dateLine[loIndex]) +
+                        ") to " + Date{hi}.iso() + " (" + place(m_dateLine[hiIndex]) + "), " +
                         std::to_string(span) +
-                        " days), too long a calendar for a drop; is a year mistyped?");
+                        " days: too long a calendar for a drop. Nothing was read. Is a year "
+                        "mistyped?" +
+                        narrowingAdvice(serials, regions, measures),
+                    m_dateLine[loIndex], m_dateColumn[loIndex]);
     }
-    if (Status s = checkTableJustified(cells, regions, lo, hi, loIndex, hiIndex); !s)
+    if (Status s = checkTableJustified(cells, regions, lo, hi, loIndex, hiIndex, serials); !s)
         return s;
     for (std::size_t i = 0; i < n; ++i)
         m_dayOfDate[i] = (serials[i] - lo) / m_step;
@@ -662,26 +682,46 @@ Status DropReader::laySerialsOut() {
 // rest (a mistyped year) or a century of sparse rows would make it vastly larger than the file:
 // 10,000 regions with rows a century apart asked for 4.3 GB from a 378 KB file. Refuse, before
 // allocating, a table of more than kSparseFloorCells cells that holds over kMaxCellsPerValue
-// cells for each value the file can hold (its data rows times its columns).
-Status DropReader::checkTableJustified(double cells, std::size_t regions, std::int32_t lo,
-                                       std::int32_t hi, std::size_t loIndex,
-                                       std::size_t hiIndex) const {
-    const double values = static_cast<double>(std::max<std::uint64_t>(m_drop.rows, 1)) *
+// cells for each value the file can hold (its data rows times its columns), and say how to
+// narrow the read to a table the file justifies.
+double DropReader::justifiedCells() const {
+    const std::uint64_t rows = m_drop.rows + m_drop.source.leftOut.rows();
+    const double values = static_cast<double>(std::max<std::uint64_t>(rows, 1)) *
                           static_cast<double>(std::max<std::size_t>(m_names.size(), 1));
-    if (cells <= kSparseFloorCells || cells <= kMaxCellsPerValue * values)
+    return std::max(kSparseFloorCells, kMaxCellsPerValue * values);
+}
+
+Status DropReader::checkTableJustified(double cells, std::size_t regions, std::int32_t lo,
+                                       std::int32_t hi, std::size_t loIndex, std::size_t hiIndex,
+                                       const std::vector<std::int32_t>& serials) const {
+    if (cells <= justifiedCells())
         return Ok{};
-    const double gigabytes = cells * static_cast<double>(sizeof(Cell)) / 1e9;
-    char size[32];
-    std::snprintf(size, sizeof size, "%.1f GB", gigabytes);
     return fail(ErrorCode::InvalidValue,
-                "the dates run from " + Date{lo}.iso() + " (" + place(m_dateLine[loIndex]) +
-                    ") to " + Date{hi}.iso() + " (" + place(m_dateLine[hiIndex]) + ") across " +
-                    std::to_string(regions) + " regions: a table of " +
-                    std::to_string(static_cast<std::uint64_t>(cells)) + " cells (about " + size +
-                    ") for " + std::to_string(m_drop.rows) +
-                    " data rows, nearly all of it empty. Nothing was read. Check the earliest and "
-                    "latest dates for a mistyped year, or split the file into shorter periods",
+                tableAsked(cells, regions, lo, hi, loIndex, hiIndex) +
+                    narrowingAdvice(serials, regions, tableMeasures()),
                 m_dateLine[loIndex], m_dateColumn[loIndex]);
+}
+
+std::string DropReader::tableAsked(double cells, std::size_t regions, std::int32_t lo,
+                                   std::int32_t hi, std::size_t loIndex,
+                                   std::size_t hiIndex) const {
+    const std::int64_t columns = (static_cast<std::int64_t>(hi) - lo) / m_step + 1;
+    char size[32];
+    std::snprintf(size, sizeof size, "%.1f GB", cells * static_cast<double>(sizeof(Cell)) / 1e9);
+    const std::string narrowed = m_drop.source.narrowing.active()
+                                     ? " (narrowed by " + m_drop.source.narrowing.asOptions() + ")"
+                                     : std::string();
+    return "the read" + narrowed + " asks for a table of " + std::to_string(columns) +
+           (m_step == 7 ? " weeks" : " days") + " x " + std::to_string(regions) +
+           (regions == 1 ? " region" : " regions") + ": " +
+           std::to_string(static_cast<std::uint64_t>(cells)) + " cells, about " + size +
+           ". Its dates run from " + Date{lo}.iso() + " (" + place(m_dateLine[loIndex]) + ") to " +
+           Date{hi}.iso() + " (" + place(m_dateLine[hiIndex]) + "), and its " +
+           std::to_string(m_drop.rows + m_drop.source.leftOut.rows()) +
+           " data rows justify at most " +
+           std::to_string(static_cast<std::uint64_t>(justifiedCells())) +
+           " cells: nearly all of the table would be empty. Nothing was read. Is a year "
+           "mistyped?";
 }
 
 void DropReader::mapDateColumns() {
@@ -792,6 +832,8 @@ Status DropReader::cellPass() {
             continue;
         if (measureCol >= 0 && f[static_cast<std::size_t>(measureCol)].text.empty())
             continue;
+        if (m_narrowed && leftOutByNarrowing(f, false))
+            continue;
         switch (m_roles.layout) {
             case Layout::Long: {
                 const std::int32_t day = m_dayOfDate[m_dates.find(dateKeyOf(f, dateCol))];
@@ -857,11 +899,11 @@ int namedWeekday(WeekStart start, WeekDate named) {
 Result<DropReader::CalendarPlan> DropReader::planCalendar() {
     CalendarPlan plan;
     plan.axis = TimeAxis::daily(Date{m_firstSerial}, static_cast<std::int32_t>(m_days));
-    assert(m_step == 1 || m_options.cadence != Cadence::Daily);
+    assert(m_step == 1 || cadence() != Cadence::Daily);
     // Week labels and a year with a week number name weeks: weekly by definition.
     const bool yearWeek = m_dateFormat == DateFormat::YearWeek;
     const bool labels = m_dateFormat == DateFormat::IsoWeek || yearWeek;
-    if (m_options.cadence == Cadence::Daily) {
+    if (cadence() == Cadence::Daily) {
         if (labels)
             return fail(ErrorCode::Usage,
                         std::string(yearWeek ? "the dates are a year and a week number"
@@ -872,7 +914,7 @@ Result<DropReader::CalendarPlan> DropReader::planCalendar() {
         return plan;
     }
     const CommonWeekday common = commonWeekday();
-    if (!labels && m_options.cadence != Cadence::Weekly) {
+    if (!labels && cadence() != Cadence::Weekly) {
         Result<bool> weekly = datesOnWeeklyGrid(common);
         if (!weekly)
             return weekly.error();
@@ -932,8 +974,8 @@ Result<bool> DropReader::datesOnWeeklyGrid(const CommonWeekday& common) const {
     return false;
 }
 
-DropReader::WeekConvention DropReader::settleWeekConvention(int weekday, bool labels,
-                                                            bool yearWeek) {
+DropReader::WeekConvention DropReader::conventionFor(int weekday, bool labels,
+                                                     bool yearWeek) const {
     WeekStart start = WeekStart::Monday;
     WeekDate named = WeekDate::Start;
     if (!labels) {
@@ -961,6 +1003,12 @@ DropReader::WeekConvention DropReader::settleWeekConvention(int weekday, bool la
     }
     if (m_options.weekDate)
         named = *m_options.weekDate;
+    return {start, named};
+}
+
+DropReader::WeekConvention DropReader::settleWeekConvention(int weekday, bool labels,
+                                                            bool yearWeek) {
+    const auto [start, named] = conventionFor(weekday, labels, yearWeek);
     const char* convention = start == WeekStart::Monday
                                  ? "an ISO 8601 week (Monday to Sunday)"
                                  : "an epidemiological week (Sunday to Saturday)";

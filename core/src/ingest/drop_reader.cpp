@@ -94,6 +94,8 @@ Status DropReader::sniff() {
         return s;
     if (Status s = settleRoles(*records); !s)
         return s;
+    if (Status s = settleNarrowing(); !s)
+        return s;
     if (Status s = recordColumnMapping(); !s)
         return s;
 
@@ -371,6 +373,11 @@ Result<Drop> DropReader::run() {
     m_drop.source.bytes = m_bytes.size();
     if (Status s = sniff(); !s)
         return s.error();
+    const ReadNarrowing& asked = m_drop.source.narrowing;
+    if ((asked.from || asked.to) && m_roles.layout != Layout::DatesAcross) {
+        if (Status s = settleDateWindow(); !s)
+            return s.error();
+    }
     bool done = false;
     if (predictCalendar()) {
         Result<bool> one = onePass();

@@ -25,6 +25,7 @@
 #include "ingest/number_parsing.h"
 #include "ingest/role_detection.h"
 #include "ingest/sniffing.h"
+#include "ingest/table_bounds.h"
 #include "ingest/warning_log.h"
 #include "siftwave/drop.h"
 #include "siftwave/ingest/ingest.h"
@@ -36,6 +37,9 @@
 #include <vector>
 
 namespace siftwave::ingest::detail {
+
+// A calendar longer than this is a mistyped year (the table bounds are in table_bounds.h).
+inline constexpr std::int64_t kMaxSpanDays = 100 * 366;
 
 /// 'text' in quotes, shortened when long (for messages).
 std::string quoted(std::string_view text);
@@ -142,7 +146,42 @@ private:
     /// Dates-across: the table column of each date column (-1 for the others).
     void mapDateColumns();
     Status checkTableJustified(double cells, std::size_t regions, std::int32_t lo, std::int32_t hi,
-                               std::size_t loIndex, std::size_t hiIndex) const;
+                               std::size_t loIndex, std::size_t hiIndex,
+                               const std::vector<std::int32_t>& serials) const;
+    /// The cells the file justifies: kMaxCellsPerValue for each value its data rows (those
+    /// read and those a narrowed read left out) can hold, and never less than the sparse floor.
+    double justifiedCells() const;
+    /// The refusal of a table too large, in its parts: what was asked, then how to narrow it.
+    std::string tableAsked(double cells, std::size_t regions, std::int32_t lo, std::int32_t hi,
+                           std::size_t loIndex, std::size_t hiIndex) const;
+    /// What to type next: a --from/--to window built from the file's own dates (the one of
+    /// at most the periods the file justifies that holds the most rows, the latest on a tie) and
+    /// an --only-regions example from its own codes, each with what it keeps.
+    std::string narrowingAdvice(const std::vector<std::int32_t>& serials, std::size_t regions,
+                                std::size_t measures) const;
+
+    // A narrowed read (IngestOptions::narrowing; drop_narrowing.cpp).
+    /// Before the passes: the region codes asked for, and (dates down the file) which date
+    /// texts lie outside the window.
+    Status settleNarrowing();
+    /// Dates-down: only the region columns asked for are value columns; none is an error.
+    Status narrowRegionColumns();
+    /// Every distinct date text of the file in m_dates (a pass over its date column alone),
+    /// sorted into kept and left out by the window; m_dates is emptied again for the key pass.
+    Status settleDateWindow();
+    /// The cadence the dates in m_dates make (daily, or weekly with its week start), kept as
+    /// m_fileCadence; `kept[i]` is true when date i's period overlaps from..to.
+    Status windowOfDates(std::vector<bool>& kept);
+    /// Dates-across: the header's date columns outside the window are left out.
+    Status narrowHeaderDates();
+    /// True when a narrowed read leaves the row out (counted when `count`).
+    bool leftOutByNarrowing(const std::vector<CsvField>& f, bool count);
+    /// After the key pass: no row left is an error; codes asked for but not found a warning.
+    Status checkNarrowingLeftRows();
+    /// The cadence to read by: the options', else (a narrowed read) the whole file's.
+    std::optional<Cadence> cadence() const {
+        return m_options.cadence ? m_options.cadence : m_fileCadence;
+    }
     Status cellPass();
     /// The calendar the dates make: daily, or weekly (every date 7 days apart on one
     /// weekday, or ISO week labels), with the options' overrides; for weekly, the period
@@ -176,6 +215,8 @@ private:
     /// The week convention from the weekday, the date column's name ("end") and the options;
     /// a warning when the dates are not the day of the week the convention names.
     WeekConvention settleWeekConvention(int weekday, bool labels, bool yearWeek);
+    /// The week convention alone (settleWeekConvention without its warning).
+    WeekConvention conventionFor(int weekday, bool labels, bool yearWeek) const;
     /// The weekly axis from the first date's week to the last's, and every date's week in
     /// `plan`; two dates in one week are an error.
     Status placeWeeks(CalendarPlan& plan, const WeekConvention& convention, int weekday) const;
@@ -248,6 +289,9 @@ private:
                       std::uint32_t firstLine);
     std::string columnName(int c) const { return m_names[static_cast<std::size_t>(c)]; }
     std::size_t measureCount() const;
+    /// After the key pass: the measures and the regions of the tables.
+    std::size_t tableMeasures() const;
+    std::size_t tableRegions() const;
 
     std::string_view m_bytes;
     std::string m_path;
@@ -290,6 +334,16 @@ private:
     std::size_t m_emptyLines = 0;
     std::uint64_t m_firstEmptyLine = 0;
     bool m_strayReported = false;
+
+    // A narrowed read: the codes asked for (and which were found), the date texts left out,
+    // the cadence and the first and last day of the whole file's dates.
+    bool m_narrowed = false;
+    KeyDictionary m_regionsAsked;
+    std::vector<bool> m_regionAskedFound;
+    KeyDictionary m_datesLeftOut;
+    std::optional<Cadence> m_fileCadence;
+    std::optional<std::int32_t> m_fileFirst, m_fileLast;
+    std::vector<std::uint32_t> m_rowsOfDate;  // key pass: the rows of each date text
 
     bool m_emptyIsMissing = false;
     std::vector<std::string> m_otherMissing;

@@ -48,6 +48,12 @@ Status IngestOptions::validate() const {
             ErrorCode::Usage,
             "--date-col does not apply to the dates-across layout (the dates are the header)");
     }
+    if (narrowing.from && narrowing.to && *narrowing.to < *narrowing.from)
+        return makeError(ErrorCode::Usage, "--to " + narrowing.to->iso() + " comes before --from " +
+                                               narrowing.from->iso());
+    for (const std::string& code : narrowing.regions)
+        if (code.empty())
+            return makeError(ErrorCode::Usage, "--only-regions names an empty region code");
     if (Status s = validateCaseListOptions(); !s)
         return s;
     for (std::size_t i = 0; i < valueColumns.size(); ++i) {

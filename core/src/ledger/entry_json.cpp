@@ -8,6 +8,8 @@
 
 #include <nlohmann/json.hpp>
 
+#include <algorithm>
+#include <functional>
 #include <set>
 
 namespace siftwave::ledger {
@@ -100,6 +102,18 @@ json decisionParameters(const Decision& d) {
     return p;
 }
 
+/// A narrowed read: {"from", "to", "regions"}, each only when given.
+json narrowingToJson(const ReadNarrowing& n) {
+    json j = json::object();
+    if (n.from)
+        j["from"] = n.from->iso();
+    if (n.to)
+        j["to"] = n.to->iso();
+    if (!n.regions.empty())
+        j["regions"] = n.regions;
+    return j;
+}
+
 json entryToJson(const LedgerEntry& e, EntryPart part) {
     json cells = json::array();
     for (const CellChange& c : e.effect.cells) {
@@ -127,6 +141,8 @@ json entryToJson(const LedgerEntry& e, EntryPart part) {
            {"totals", std::move(totals)},
            {"drop_sha256", e.dropSha256},
            {"previous_hash", e.previousHash}};
+    if (e.narrowing.active())
+        j["narrowed_read"] = narrowingToJson(e.narrowing);
     if (part != EntryPart::Signed && e.signature)
         j["signature"] = json{{"algorithm", "ed25519"},
                               {"public_key", e.signature->publicKey},
@@ -369,10 +385,11 @@ Result<Decision> parseDecision(const Reader& rd, DecisionKind kind, const json& 
 Status checkEntryKeys(const Reader& rd, const json& j) {
     if (!j.is_object())
         return syntax(rd.line(), "a ledger line must be a JSON object");
-    return rd.onlyKeys(j,
-                       {"version", "sequence", "time", "author", "reason", "kind", "parameters",
-                        "cells", "totals", "drop_sha256", "previous_hash", "hash", "signature"},
-                       "the entry");
+    return rd.onlyKeys(
+        j,
+        {"version", "sequence", "time", "author", "reason", "kind", "parameters", "cells", "totals",
+         "drop_sha256", "previous_hash", "hash", "signature", "narrowed_read"},
+        "the entry");
 }
 
 /// The version (this reader's, kEntryVersion) and the sequence number (positive).
@@ -440,6 +457,44 @@ Status readSignature(const Reader& rd, const json& j, LedgerEntry& e) {
             rd.line(),
             "a signature is a 64-digit public key and a 128-digit value in lower-case hex");
     e.signature = EntrySignature{*key, *value};
+    return Ok{};
+}
+
+/// The optional narrowed read: {"from", "to", "regions"}, at least one of them; the regions are
+/// text, sorted, each once (as ReadNarrowing keeps them).
+Status readNarrowedRead(const Reader& rd, const json& j, LedgerEntry& e) {
+    auto it = j.find("narrowed_read");
+    if (it == j.end())
+        return Ok{};
+    if (!it->is_object())
+        return syntax(rd.line(), "\"narrowed_read\" must be an object");
+    if (auto s = rd.onlyKeys(*it, {"from", "to", "regions"}, "the narrowed read"); !s)
+        return s.error();
+    for (auto [key, out] : {std::pair<const char*, std::optional<Date>*>{"from", &e.narrowing.from},
+                            {"to", &e.narrowing.to}}) {
+        if (!it->contains(key))
+            continue;
+        auto day = rd.date(*it, key);
+        if (!day)
+            return day.error();
+        *out = *day;
+    }
+    if (auto regions = it->find("regions"); regions != it->end()) {
+        if (!regions->is_array())
+            return syntax(rd.line(), "\"regions\" of the narrowed read must be a list of codes");
+        for (const json& code : *regions) {
+            if (!code.is_string())
+                return syntax(rd.line(),
+                              "\"regions\" of the narrowed read must be a list of codes");
+            e.narrowing.regions.push_back(code.get<std::string>());
+        }
+        const std::vector<std::string>& codes = e.narrowing.regions;
+        if (std::adjacent_find(codes.begin(), codes.end(), std::greater_equal<>()) != codes.end())
+            return syntax(rd.line(),
+                          "\"regions\" of the narrowed read must be sorted, each code once");
+    }
+    if (!e.narrowing.active())
+        return syntax(rd.line(), "\"narrowed_read\" names no date and no region");
     return Ok{};
 }
 
@@ -537,7 +592,7 @@ Result<LedgerEntry> entryFromJson(const json& j, std::uint64_t lineNumber) {
     LedgerEntry e;
     using EntryStep = Status (*)(const Reader&, const json&, LedgerEntry&);
     for (EntryStep step : {readVersionAndSequence, readTextFields, readDecision, readCellChanges,
-                           readTotalChanges, readSignature}) {
+                           readTotalChanges, readSignature, readNarrowedRead}) {
         if (auto s = step(rd, j, e); !s)
             return s.error();
     }
@@ -626,6 +681,10 @@ Status verifyChain(const Ledger& ledger) {
                 "signed");
         if (e.dropSha256 != drop)
             return fail("it names another drop than entry 1");
+        if (e.narrowing != ledger.entries.front().narrowing)
+            return fail("it was made on another narrowing of the drop than entry 1 (" +
+                        describeRead(e.narrowing) +
+                        ", entry 1: " + describeRead(ledger.entries.front().narrowing) + ")");
     }
     return Ok{};
 }

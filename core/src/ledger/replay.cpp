@@ -107,6 +107,29 @@ bool isUtcTimestamp(std::string_view text) {
     return two(11, 23) && two(14, 59) && two(17, 60);
 }
 
+std::string describeRead(const ReadNarrowing& narrowing) {
+    return narrowing.active() ? "the read narrowed by " + narrowing.asOptions()
+                              : std::string("the whole file");
+}
+
+namespace {
+
+/// Entries made on one read of the drop replay only on the same read: a narrowed read holds other
+/// periods and regions than the whole file (its totals differ), so the two are never mixed.
+Status checkSameRead(const ReadNarrowing& recorded, const Drop& drop, const std::string& what) {
+    if (recorded == drop.source.narrowing)
+        return Ok{};
+    return makeError(ErrorCode::Integrity,
+                     what + " made on " + describeRead(recorded) + ", and this drop is " +
+                         describeRead(drop.source.narrowing) + ": read it as " +
+                         (recorded.active() ? "the ledger was, with " + recorded.asOptions()
+                                            : std::string("a whole file, without --from, --to and "
+                                                          "--only-regions")) +
+                         ", or keep another ledger for this read");
+}
+
+}  // namespace
+
 Result<Effect> previewDecision(const Drop& drop, const Cleaned& cleaned, const Decision& decision) {
     return detail::deriveEffect(drop, cleaned, decision);
 }
@@ -121,6 +144,12 @@ Result<LedgerEntry> draftEntry(const Drop& drop, const Ledger& ledger, const Cle
         return makeError(ErrorCode::Integrity, "the ledger belongs to another drop (SHA-256 " +
                                                    ledger.dropSha256() + ", this drop is " +
                                                    drop.source.sha256 + ")");
+    }
+    if (!ledger.entries.empty()) {
+        if (Status s =
+                checkSameRead(ledger.entries.front().narrowing, drop, "the ledger's entries were");
+            !s)
+            return s.error();
     }
     if (cleaned.entryCount() != ledger.entries.size()) {
         return makeError(ErrorCode::Usage, "the cleaned data is not the replay of this ledger");
@@ -141,6 +170,7 @@ Result<LedgerEntry> draftEntry(const Drop& drop, const Ledger& ledger, const Cle
     entry.decision = decision;
     entry.effect = std::move(*effect);
     entry.dropSha256 = drop.source.sha256;
+    entry.narrowing = drop.source.narrowing;
     if (auto s = sealEntry(entry, ledger.entries.empty() ? nullptr : &ledger.entries.back()); !s)
         return s.error();
     return entry;
@@ -157,6 +187,8 @@ Status applyEntry(const Drop& drop, Cleaned& cleaned, const LedgerEntry& entry) 
                           "was made on another drop (SHA-256 " + entry.dropSha256 +
                               ", this drop is " + drop.source.sha256 + ")");
     }
+    if (Status s = checkSameRead(entry.narrowing, drop, "was"); !s)
+        return entryError(ErrorCode::Integrity, entry.sequence, s.error().message);
     if (blank(entry.reason))
         return entryError(ErrorCode::Integrity, entry.sequence, "has no reason");
     auto derived = detail::deriveEffect(drop, cleaned, entry.decision);
@@ -181,6 +213,12 @@ Result<Cleaned> replay(const Drop& drop, const Ledger& ledger) {
         return makeError(ErrorCode::Integrity, "the ledger belongs to another drop (SHA-256 " +
                                                    ledger.dropSha256() + ", this drop is " +
                                                    drop.source.sha256 + ")");
+    }
+    if (!ledger.entries.empty()) {
+        if (Status s =
+                checkSameRead(ledger.entries.front().narrowing, drop, "the ledger's entries were");
+            !s)
+            return s.error();
     }
     Cleaned cleaned(drop);
     for (const LedgerEntry& entry : ledger.entries) {

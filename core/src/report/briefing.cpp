@@ -197,8 +197,9 @@ std::string headHtml(const BriefingReport& r) {
          (c.sourceSheet.empty() ? std::string()
                                 : ", sheet <b>" + htmlEscaped(c.sourceSheet) + "</b>") +
          ", " + htmlEscaped(c.firstDate) + " to " + htmlEscaped(c.lastDate) + ", SHA-256 " +
-         htmlEscaped(c.dropSha256Prefix) + ". Ledger: " + std::to_string(c.ledgerEntries) +
-         " entries" +
+         htmlEscaped(c.dropSha256Prefix) +
+         (c.narrowedRead.empty() ? std::string() : " (" + htmlEscaped(c.narrowedRead) + ")") +
+         ". Ledger: " + std::to_string(c.ledgerEntries) + " entries" +
          (c.ledgerEntries ? ", head " + htmlEscaped(c.ledgerHeadPrefix) : std::string()) +
          ", chain " + (r.chainVerified ? "verified" : "NOT verified") + ". Exported " +
          htmlEscaped(c.exportDate) + " by Siftwave " + siftwaveVersion() + ".</p>\n";

@@ -34,6 +34,7 @@ CaptionFacts captionFacts(const Drop& drop, const ledger::Ledger& ledger, const 
         facts.lastDate = drop.axis.lastStart().iso();
     }
     facts.dropSha256Prefix = drop.source.sha256.substr(0, kHashPrefixLength);
+    facts.narrowedRead = narrowingNote(drop.source);
     facts.ledgerEntries = ledger.entries.size();
     if (!ledger.entries.empty())
         facts.ledgerHeadPrefix = ledger::printedHead(ledger);
@@ -57,6 +58,8 @@ std::vector<std::string> captionLines(const CaptionFacts& f) {
         source += ", " + f.firstDate + " to " + f.lastDate;
     source += ", SHA-256 " + f.dropSha256Prefix;
     lines.push_back(source);
+    if (!f.narrowedRead.empty())
+        lines.push_back("Read: " + f.narrowedRead);
     if (f.ledgerEntries == 0)
         lines.push_back("Ledger: none, raw counts as reported");
     else

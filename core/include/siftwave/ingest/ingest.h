@@ -76,6 +76,14 @@ struct IngestOptions {
     /// when the list has one date column.
     std::string reportColumn;
 
+    /// A narrowed read (the CLI's --from, --to, --only-regions): only the rows whose period
+    /// overlaps from..to (a day inside it; for weekly data a week that overlaps it) and whose
+    /// region is listed are put in the tables; the others are counted in
+    /// Provenance::leftOut. Wide layouts leave out whole columns (dates-across: date columns;
+    /// dates-down: region columns). The read's narrowing is kept in Provenance::narrowing and
+    /// recorded by every ledger entry made on it. Default: the whole file.
+    ReadNarrowing narrowing;
+
     /// Usage errors (unknown date format, a delimiter that is a quote, ...).
     Status validate() const;
     /// The case-list options' part of validate() (case_list_reader.cpp).

@@ -18,6 +18,9 @@
 // entry that does not fit. (Removing trailing entries leaves a valid shorter
 // chain; a project file can pin the head, see project.h.)
 //
+// An entry made on a narrowed read (IngestOptions::narrowing) records it as "narrowed_read";
+// replay, draftEntry and verifyChain refuse to mix it with another read of the drop.
+//
 // An entry may carry its author's Ed25519 signature (signing.h): "signature"
 // {"algorithm": "ed25519", "public_key", "value"} over the canonical JSON
 // without "hash" and "signature". The hash covers the signature, so the next
@@ -25,6 +28,7 @@
 //
 // SHA-256 is FIPS 180-4 (OpenSSL libcrypto).
 
+#include "siftwave/drop.h"
 #include "siftwave/ledger/cleaned.h"
 #include "siftwave/ledger/decision.h"
 #include "siftwave/result.h"
@@ -49,7 +53,11 @@ struct LedgerEntry {
     std::string reason;  // required, not blank
     Decision decision;
     Effect effect;
-    std::string dropSha256;                   // lower-case hex
+    std::string dropSha256;  // lower-case hex
+    /// The read the entry was made on, when it was narrowed (--from, --to, --only-regions):
+    /// "narrowed_read" {"from", "to", "regions"} in the entry, absent for a read of the whole
+    /// file (and then the entry hashes as before). Replay refuses a drop read otherwise.
+    ReadNarrowing narrowing;
     std::string previousHash;                 // lower-case hex; 64 zeros for the first entry
     std::string hash;                         // lower-case hex of the canonical JSON without "hash"
     std::optional<EntrySignature> signature;  // unset = unsigned
@@ -79,6 +87,10 @@ Result<std::string> entryLine(const LedgerEntry& entry);
 Result<LedgerEntry> parseEntryLine(std::string_view line, std::uint64_t lineNumber);
 /// Sets previousHash from `previous` (or genesis) and computes hash.
 Status sealEntry(LedgerEntry& entry, const LedgerEntry* previous);
+
+/// A read as the ledger's messages name it: "the whole file" or "the read narrowed by --from
+/// 2026-01-01 --only-regions A,B".
+std::string describeRead(const ReadNarrowing& narrowing);
 
 /// Checks sequence numbers, previous_hash links, each hash against its
 /// content, each signature against its content and its own public key (who

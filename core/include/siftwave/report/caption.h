@@ -7,6 +7,7 @@
 // text that the renderer prints under the plot, in this order:
 //
 //   Source: <file name>, <first date> to <last date>, SHA-256 <12 hex>
+//   Read: <the narrowing and the rows it left out>   (only for a narrowed read, narrowingNote)
 //   Ledger: <n> entries, head <12 hex>        (or "Ledger: none, raw counts as reported")
 //   Fit: <model>, <method>, <first> to <last>[; <bands>] (or "Fit: none")
 //   Lower panel: <R_t or r(t)>; <the transmission settings>   (only with a transmission panel)
@@ -36,6 +37,7 @@ struct CaptionFacts {
     std::string firstDate;          // ISO 8601, the release's calendar
     std::string lastDate;           // ISO 8601
     std::string dropSha256Prefix;   // kHashPrefixLength hex digits
+    std::string narrowedRead;       // narrowingNote(): a narrowed read; "" for the whole file
     std::size_t ledgerEntries = 0;  // entries in the ledger file, withdrawals included
     std::string ledgerHeadPrefix;  // ledger::kMinAnchorDigits hex digits (enough for --head); empty
                                    // without a ledger
