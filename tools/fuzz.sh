@@ -8,6 +8,12 @@
 #   bash tools/fuzz.sh [SECONDS_PER_TARGET] [TARGET ...]     (default: 60 s, every target)
 #
 # FUZZ_SEED=N fixes libFuzzer's random seed (CI does, so that a run can be repeated).
+# FUZZ_FAST=1 builds and runs the targets without sanitizers, in build-fuzz-fast/ (5-7 times
+# more executions a second: for long runs; replay the grown corpus under the sanitizers after).
+# FUZZ_CORPUS=DIR keeps each target's corpus in DIR/corpus-<name> (seeded from tests/fuzz), so
+# that long runs add up instead of starting from the seeds each time.
+# FUZZ_TIMEOUT=S: the seconds (wall clock) one input may take before it counts as a hang
+# (default 10; raise it for runs at low priority on a busy machine).
 #
 # Needs Debian's clang and libclang-rt-14-dev (libFuzzer and the sanitizer runtimes).
 set -euo pipefail
@@ -16,16 +22,21 @@ cd "$root"
 seconds="${1:-60}"
 shift || true
 
-if [ ! -f build-fuzz/build.ninja ]; then
-    cmake -S . -B build-fuzz -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo \
+build=build-fuzz
+flags="-fsanitize=fuzzer-no-link,address,undefined -fno-sanitize-recover=undefined"
+if [ "${FUZZ_FAST:-0}" = 1 ]; then
+    build=build-fuzz-fast
+    flags="-fsanitize=fuzzer-no-link"
+fi
+if [ ! -f "$build/build.ninja" ]; then
+    cmake -S . -B "$build" -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo \
         -DCMAKE_C_COMPILER=clang -DCMAKE_CXX_COMPILER=clang++ \
         -DSIFTWAVE_WITH_QT=OFF -DSIFTWAVE_BUILD_TESTS=OFF -DSIFTWAVE_BUILD_BENCHMARKS=OFF \
-        -DSIFTWAVE_BUILD_FUZZERS=ON \
-        "-DCMAKE_CXX_FLAGS=-fsanitize=fuzzer-no-link,address,undefined -fno-sanitize-recover=undefined" \
-        >build-fuzz.configure.log 2>&1 || { cat build-fuzz.configure.log; exit 1; }
+        -DSIFTWAVE_BUILD_FUZZERS=ON "-DCMAKE_CXX_FLAGS=$flags" \
+        >"$build.configure.log" 2>&1 || { cat "$build.configure.log"; exit 1; }
 fi
-cmake --build build-fuzz -j2 >build-fuzz/build.log 2>&1 || {
-    grep -E "error" -A3 build-fuzz/build.log | head -40
+cmake --build "$build" -j2 >"$build/build.log" 2>&1 || {
+    grep -E "error" -A3 "$build/build.log" | head -40
     exit 1
 }
 
@@ -40,14 +51,14 @@ fi
 scratch="$(mktemp -d "${TMPDIR:-/tmp}/siftwave-fuzz.XXXXXX")"
 status=0
 for t in "${targets[@]}"; do
-    corpus="$scratch/corpus-$t"
+    corpus="${FUZZ_CORPUS:-$scratch}/corpus-$t"
     mkdir -p "$corpus"
-    [ -d "tests/fuzz/corpus/$t" ] && cp tests/fuzz/corpus/"$t"/* "$corpus"/
+    [ -d "tests/fuzz/corpus/$t" ] && cp -n tests/fuzz/corpus/"$t"/* "$corpus"/
     dict=()
     [ -f "tests/fuzz/$t.dict" ] && dict=("-dict=tests/fuzz/$t.dict")
     echo "== fuzz_$t for ${seconds}s"
-    if ! (cd "$scratch" && "$root/build-fuzz/fuzz/fuzz_$t" "$corpus" "${dict[@]/#-dict=/-dict=$root/}" \
-        -max_total_time="$seconds" -max_len=16384 -rss_limit_mb=2048 -timeout=10 \
+    if ! (cd "$scratch" && "$root/$build/fuzz/fuzz_$t" "$corpus" "${dict[@]/#-dict=/-dict=$root/}" \
+        -max_total_time="$seconds" -max_len=16384 -rss_limit_mb=2048 -timeout="${FUZZ_TIMEOUT:-10}" \
         ${FUZZ_SEED:+-seed=$FUZZ_SEED} -print_final_stats=1 2>"$scratch/fuzz_$t.log"); then
         status=1
         echo "fuzz_$t FAILED; its log and the crashing input are in $scratch"

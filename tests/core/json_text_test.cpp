@@ -49,7 +49,8 @@ TEST(JsonText, MatchesDumpOnEveryKindOfValue) {
     json j;
     j["plain"] = "Region 12 (north)";
     j["quote and backslash"] = "a \"b\" \\ c";
-    j["controls"] = std::string("tab\there\nline\x01\x1f", 18);
+    j["controls"] = std::string("tab\there\nline\x01\x1f");
+    j["nul inside"] = std::string("nul\0inside", 10);
     j["del and c1"] = std::string("del\x7f csi\xc2\x9b end");
     j["utf8"] = "Saint-Étienne – Łódź";
     j["invalid utf8"] = std::string("bad\xff\xfe byte");
